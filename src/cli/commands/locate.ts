@@ -1,0 +1,84 @@
+import type { Command } from 'commander';
+import { openGazetteer } from '../../gazetteer/store.ts';
+import { locate, type LocateResult } from '../../locate.ts';
+import { darwinCoreFields } from '../../record/darwin-core.ts';
+import { VERSION } from '../../version.ts';
+
+/**
+ * `whereabouts locate "<text>"`: one locality, printed for a person, or with --json as the HTTP body.
+ * Exit code 0 whenever the text was processed, whatever the status (the status says what happened).
+ */
+export function registerLocate(program: Command, dbPath: () => string): void {
+  program
+    .command('locate')
+    .description('georeference one locality text')
+    .argument('<text>', 'the locality as written')
+    .option('--country-code <XX>', 'ISO 3166-1 alpha-2 country code of the record')
+    .option('--country <name>', 'country of the record')
+    .option('--state-province <name>', 'state or province of the record')
+    .option('--county <name>', 'county of the record')
+    .option('--municipality <name>', 'municipality of the record')
+    .option('--verbatim-coordinates <text>', 'coordinates as written in the record')
+    .option('--geodetic-datum <datum>', 'datum of the verbatim coordinates')
+    .option('--map-scale <denominator>', 'scale of the map the coordinates were read from, e.g. 24000', Number)
+    .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
+    .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
+    .option('--json', 'print the HTTP API body as JSON')
+    .action((text: string, opts: LocateCommandOptions) => {
+      const store = openGazetteer(dbPath(), { readonly: true });
+      try {
+        const result = locate(store, {
+          locality: text,
+          countryCode: opts.countryCode,
+          country: opts.country,
+          stateProvince: opts.stateProvince,
+          county: opts.county,
+          municipality: opts.municipality,
+          verbatimCoordinates: opts.verbatimCoordinates,
+          geodeticDatum: opts.geodeticDatum,
+          options: { mapScale: opts.mapScale, coverAmbiguous: opts.coverAmbiguous, administrativeFallback: opts.administrativeFallback },
+        });
+        const darwinCore = darwinCoreFields(result, {
+          georeferencedBy: `whereabouts ${VERSION}`,
+          georeferencedDate: new Date().toISOString(),
+          sources: store.sources(),
+        });
+        process.stdout.write(opts.json ? `${JSON.stringify({ ...result, darwinCore }, null, 2)}\n` : describe(result, darwinCore));
+      } finally {
+        store.close();
+      }
+    });
+}
+
+interface LocateCommandOptions {
+  countryCode?: string;
+  country?: string;
+  stateProvince?: string;
+  county?: string;
+  municipality?: string;
+  verbatimCoordinates?: string;
+  geodeticDatum?: string;
+  mapScale?: number;
+  coverAmbiguous?: boolean;
+  administrativeFallback?: boolean;
+  json?: boolean;
+}
+
+/** A short reading for a person at a terminal: the outcome, then the Darwin Core fields. */
+function describe(result: LocateResult, darwinCore: Record<string, string>): string {
+  const lines = [`status: ${result.status}`, `locality type: ${result.interpretation.type}`];
+  if (result.reason) lines.push(`reason: ${result.reason}`);
+  if (result.components) {
+    lines.push('uncertainty budget (m):');
+    for (const [source, meters] of Object.entries(result.components)) lines.push(`  ${source.padEnd(20)} ${meters.toFixed(1)}`);
+  }
+  if (result.status === 'ambiguous' || result.status === 'not-found') {
+    for (const c of result.candidates.slice(0, 10)) {
+      lines.push(`  candidate: ${c.feature.name} [${c.feature.sourceId}:${c.feature.featureId}] ${c.why} (score ${c.score.toFixed(2)})`);
+    }
+  }
+  lines.push('Darwin Core:');
+  for (const [term, value] of Object.entries(darwinCore)) if (value) lines.push(`  ${term}: ${value}`);
+  lines.push('A georeference is an estimate: verify it before use.');
+  return `${lines.join('\n')}\n`;
+}

@@ -1,0 +1,72 @@
+/** Gazetteer features and match candidates: the contract between `src/gazetteer` and `src/georef`. */
+import type { Geometry } from 'geojson';
+
+export type GeometryType = 'Point' | 'LineString' | 'MultiLineString' | 'Polygon' | 'MultiPolygon';
+
+/** One place from a loaded gazetteer, with its corrected center and geographic radial. */
+export interface Feature {
+  /** The gazetteer source it came from (see Source.id). */
+  sourceId: string;
+  /** The feature's id within that source. */
+  featureId: string;
+  name: string;
+  alternateNames: string[];
+  featureType: string | null;
+  countryCode: string | null;
+  stateProvince: string | null;
+  county: string | null;
+  /** Corrected center, WGS84 decimal degrees (method §4). */
+  latitude: number;
+  longitude: number;
+  /** Geographic radial in meters: center to the furthest point of the feature. */
+  radiusMeters: number;
+  /** True when radiusMeters came from the default table by feature type, not from the source. */
+  radiusIsDefault: boolean;
+  geometryType: GeometryType;
+  /** The full geometry, present for lines and polygons when it was asked for. */
+  geometry?: Geometry;
+}
+
+/** A feature that may be the one a name in the text means. */
+export interface Candidate {
+  feature: Feature;
+  /** 1 for an exact folded-name match, lower for fuzzier ones (0..1). */
+  score: number;
+  /** The name or alternate name that matched. */
+  matchedName: string;
+  /** Why it matched, in plain words ("exact name", "alternate name", "1 edit from 'X'"). */
+  why: string;
+}
+
+/** A gazetteer as loaded: enough to cite it and reproduce a result against the same version. */
+export interface Source {
+  id: string;
+  citation: string;
+  licence: string | null;
+  importedAt: string;
+  /** sha256 of the imported file's bytes. */
+  contentHash: string;
+  featureCount: number;
+}
+
+/** Administrative context used to narrow candidates (a record's fields, or clauses of its text). */
+export type { AdministrativeContext } from '../parse/types.ts';
+
+/** What to look up: a name as written, with the context that narrows it. */
+export interface CandidateQuery {
+  name: string;
+  context: import('../parse/types.ts').AdministrativeContext;
+  /** Keep only these feature types (e.g. ['county'] for a bounding unit). */
+  featureTypes?: string[];
+  /** Keep only these geometry types (e.g. lines for a path offset or a junction). */
+  geometryTypes?: GeometryType[];
+  /** Load each candidate's full geometry (lines and polygons). */
+  withGeometry?: boolean;
+  /** At most this many candidates, best first (default 10). */
+  limit?: number;
+}
+
+/** Finds candidate features for a name: the store implements it; the core only calls it. */
+export interface CandidateFinder {
+  findCandidates(query: CandidateQuery): Candidate[];
+}

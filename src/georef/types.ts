@@ -1,0 +1,49 @@
+/** The computed georeference: the contract between `src/georef` and `src/record`. */
+
+/** The uncertainty budget in meters, one entry per source of the point-radius method (method §5). */
+export interface UncertaintyComponents {
+  /** r_f: geographic radial of the feature (or the union of features) used. */
+  extent: number;
+  /** The offset term: distance and direction combined geometrically, orthogonal, distance-only or path. */
+  offset: number;
+  /** From how written coordinates are given, at their latitude (method §5.3). */
+  coordinatePrecision: number;
+  /** Unknown datum (5359 m worst case) or a datum transformation's stated accuracy (method §5.4). */
+  datum: number;
+  /** Map reading at a stated scale (method §5.5). */
+  mapScale: number;
+  /** A stated measurement error, e.g. twice a GPS's displayed accuracy (method §5.5). */
+  measurement: number;
+}
+
+/** Settings of the method that the sources leave to the georeferencer ([CHOICE] in the method). */
+export interface MethodOptions {
+  /** Uncertainty when the datum is not stated; default 5359 m (method §5.4). */
+  unknownDatumMeters?: number;
+  /** Minimum added for "near": radius r_f + max(r_f, this); default 1000 m. */
+  nearMinimumMeters?: number;
+  /** Own extent of a junction of two lines; default 100 m. */
+  junctionExtentMeters?: number;
+  /** Scale denominator of the map the coordinates were read from (e.g. 24000). */
+  mapScale?: number;
+  /** Stated measurement error in meters (added as given). */
+  measurementErrorMeters?: number;
+  /** Datum of written coordinates when the record states one outside the text (EPSG code). */
+  datum?: string;
+}
+
+/** A point, its datum and its radius, with how each part was obtained. */
+export interface Georeference {
+  /** WGS84 (EPSG:4326), full precision; rounding for output happens in src/record. */
+  latitude: number;
+  longitude: number;
+  /** Sum of the components in meters, not yet rounded. */
+  uncertaintyMeters: number;
+  components: UncertaintyComponents;
+  /** The footprint as WKT in EPSG:4326: the circle as a polygon, or the circle clipped to a unit. */
+  footprintWKT: string;
+  /** Features the result rests on, for georeferenceSources. */
+  features: { sourceId: string; featureId: string; name: string }[];
+  /** The interpretation in plain words, and every default or assumption used. */
+  remarks: string[];
+}

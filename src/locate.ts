@@ -1,0 +1,212 @@
+/**
+ * One locality from text to georeference: parse → candidates → georeference. The finder is the only
+ * door to data, so this module stays free of I/O; the CLI, HTTP service and batch jobs all call it.
+ */
+import { parseCoordinates, parseLocality } from './parse/index.ts';
+import type { AdministrativeContext, Interpretation, LocalityType } from './parse/types.ts';
+import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './gazetteer/types.ts';
+import { georeference } from './georef/georeference.ts';
+import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
+
+/** One record to georeference: its locality text and the administrative fields the record carries. */
+export interface LocateRequest extends AdministrativeContext {
+  locality: string;
+  /** Coordinates as written on the label or in the record; used when they can be read. */
+  verbatimCoordinates?: string;
+  /** Datum of verbatimCoordinates when the record states it in its own field. */
+  geodeticDatum?: string;
+  options?: LocateOptions;
+}
+
+export interface LocateOptions extends MethodOptions {
+  /** For an ambiguous name, give one georeference whose circle covers every candidate. */
+  coverAmbiguous?: boolean;
+  /** For text that names no place, fall back to the most specific administrative unit of the record. */
+  administrativeFallback?: boolean;
+}
+
+export type LocateStatus = 'georeferenced' | 'ambiguous' | 'not-found' | 'unparseable';
+
+export interface LocateResult {
+  status: LocateStatus;
+  georeference?: Georeference;
+  /** The uncertainty budget in meters by source (same object as georeference.components). */
+  components?: UncertaintyComponents;
+  interpretation: Interpretation;
+  /** Every candidate considered, for each name in the text, best first. */
+  candidates: Candidate[];
+  /** Why no georeference was made, in plain words. */
+  reason?: string;
+}
+
+/**
+ * When a fuzzy match may stand alone [CHOICE]: its score must reach `minimumScore` and lead the next
+ * candidate by `minimumLead`. Exact matches always win over fuzzy ones; two exact matches are ambiguous.
+ */
+export const FUZZY_ACCEPTANCE = { minimumScore: 0.8, minimumLead: 0.1 } as const;
+
+const LINES: GeometryType[] = ['LineString', 'MultiLineString'];
+const ADMINISTRATIVE_LEVELS = [
+  { field: 'county', featureType: 'county' },
+  { field: 'stateProvince', featureType: 'stateProvince' },
+  { field: 'country', featureType: 'country' },
+] as const;
+
+/**
+ * Georeference one locality.
+ * @example
+ *   locate(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
+ */
+export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
+  const interpretation = interpretationOf(request);
+  const context = contextOf(request, interpretation);
+  const options = request.options ?? {};
+
+  if (interpretation.type === 'no-locality' && options.administrativeFallback) {
+    return locateAdministrativeUnit(finder, interpretation, context, options);
+  }
+  if (interpretation.type === 'no-locality' || interpretation.type === 'unparseable') {
+    return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
+  }
+
+  const candidates: Candidate[] = [];
+  const features: Feature[] = [];
+  for (const name of interpretation.features) {
+    const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
+    candidates.push(...found);
+    const choice = chooseCandidate(found);
+    if (choice.kind === 'none') {
+      return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context) };
+    }
+    if (choice.kind === 'several') {
+      if (options.coverAmbiguous) return coverCandidates(interpretation, found, options, candidates);
+      const names = found.map(describeCandidate).join('; ');
+      return { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` };
+    }
+    features.push(choice.feature);
+  }
+
+  const pathLine = findPathLine(finder, interpretation, context);
+  const boundingUnit = interpretation.type === 'heading-only' ? findBoundingUnit(finder, context) : undefined;
+  const outcome = georeference({ interpretation, features, pathLine, boundingUnit, options });
+  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates, reason: outcome.reason };
+  return georeferenced(outcome.georeference, interpretation, candidates);
+}
+
+function georeferenced(georef: Georeference, interpretation: Interpretation, candidates: Candidate[]): LocateResult {
+  return { status: 'georeferenced', georeference: georef, components: georef.components, interpretation, candidates };
+}
+
+/** The reading of the record: verbatim coordinates, when they can be read, are its most specific part. */
+function interpretationOf(request: LocateRequest): Interpretation {
+  const interpretation = parseLocality(request.locality ?? '');
+  const verbatim = request.verbatimCoordinates?.trim();
+  if (!verbatim || interpretation.type === 'coordinates') return interpretation;
+  const written = parseCoordinates(verbatim);
+  if ('problem' in written) {
+    return { ...interpretation, notes: [...interpretation.notes, `verbatimCoordinates "${verbatim}" not used: ${written.problem}`] };
+  }
+  const datumWritten = written.datumWritten ?? request.geodeticDatum?.trim() || undefined;
+  return {
+    ...interpretation,
+    type: 'coordinates',
+    features: [],
+    offsets: [],
+    coordinates: { ...written, datumWritten },
+    notes: [...interpretation.notes, 'georeferenced from the record\'s verbatimCoordinates, the most specific part of the record'],
+  };
+}
+
+/** The record's own fields come first; administrative clauses of the text fill the gaps. */
+function contextOf(request: LocateRequest, interpretation: Interpretation): AdministrativeContext {
+  const fromText = interpretation.administrative;
+  const pick = (a?: string, b?: string) => (a?.trim() ? a.trim() : b?.trim() || undefined);
+  return {
+    countryCode: pick(request.countryCode, fromText.countryCode)?.toUpperCase(),
+    country: pick(request.country, fromText.country),
+    stateProvince: pick(request.stateProvince, fromText.stateProvince),
+    county: pick(request.county, fromText.county),
+    municipality: pick(request.municipality, fromText.municipality),
+  };
+}
+
+function featureQuery(name: string, context: AdministrativeContext, type: LocalityType): CandidateQuery {
+  return type === 'junction'
+    ? { name, context, geometryTypes: LINES, withGeometry: true }
+    : { name, context };
+}
+
+type Choice = { kind: 'none' } | { kind: 'one'; feature: Feature } | { kind: 'several' };
+
+/** Applies FUZZY_ACCEPTANCE: never a silent pick among equally good candidates. */
+function chooseCandidate(found: Candidate[]): Choice {
+  if (found.length === 0) return { kind: 'none' };
+  const exact = found.filter((c) => c.score >= 1);
+  if (exact.length === 1) return { kind: 'one', feature: exact[0].feature };
+  if (exact.length > 1) return { kind: 'several' };
+  const [best, next] = [...found].sort((a, b) => b.score - a.score);
+  const leads = !next || best.score - next.score >= FUZZY_ACCEPTANCE.minimumLead;
+  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', feature: best.feature } : { kind: 'several' };
+}
+
+function findPathLine(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Feature | undefined {
+  const lineName = interpretation.offsets.find((o) => o.path?.lineName)?.path?.lineName;
+  if (interpretation.type !== 'offset-path' || !lineName) return undefined;
+  const choice = chooseCandidate(finder.findCandidates({ name: lineName, context, geometryTypes: LINES, withGeometry: true }));
+  return choice.kind === 'one' ? choice.feature : undefined;
+}
+
+/** The most specific administrative unit the record names, with its polygon, if the gazetteer has it. */
+function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContext): Feature | undefined {
+  for (const level of ADMINISTRATIVE_LEVELS) {
+    const name = context[level.field];
+    if (!name) continue;
+    const choice = chooseCandidate(finder.findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true }));
+    if (choice.kind === 'one') return choice.feature;
+  }
+  return undefined;
+}
+
+function locateAdministrativeUnit(
+  finder: CandidateFinder,
+  interpretation: Interpretation,
+  context: AdministrativeContext,
+  options: LocateOptions,
+): LocateResult {
+  const unit = findBoundingUnit(finder, context);
+  if (!unit) {
+    return { status: 'unparseable', interpretation, candidates: [], reason: `${interpretation.reason ?? 'the text names no place'}; no administrative unit of the record was found in the gazetteer` };
+  }
+  const asNamedPlace: Interpretation = {
+    ...interpretation,
+    type: 'named-place',
+    features: [unit.name],
+    notes: [...interpretation.notes, `the text names no place; georeferenced to the record's ${unit.featureType} "${unit.name}" as asked`],
+  };
+  const outcome = georeference({ interpretation: asNamedPlace, features: [unit], options });
+  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates: [], reason: outcome.reason };
+  return georeferenced(outcome.georeference, asNamedPlace, []);
+}
+
+/** One circle over every candidate of an ambiguous name, asked for with `coverAmbiguous`. */
+function coverCandidates(interpretation: Interpretation, found: Candidate[], options: LocateOptions, candidates: Candidate[]): LocateResult {
+  const outcome = georeference({
+    interpretation: { ...interpretation, type: 'between', notes: [...interpretation.notes] },
+    features: found.map((c) => c.feature),
+    options,
+  });
+  if (!outcome.ok) return { status: 'ambiguous', interpretation, candidates, reason: outcome.reason };
+  const remarks = [`ambiguous name: one circle covers all ${found.length} candidates, as asked`, ...outcome.georeference.remarks];
+  return georeferenced({ ...outcome.georeference, remarks }, interpretation, candidates);
+}
+
+function describeCandidate(c: Candidate): string {
+  const f = c.feature;
+  const where = [f.county, f.stateProvince, f.countryCode].filter(Boolean).join(', ');
+  return `${f.name} (${f.featureType ?? 'feature'}${where ? `, ${where}` : ''}; ${f.sourceId}:${f.featureId}; score ${c.score.toFixed(2)})`;
+}
+
+function notFoundReason(name: string, context: AdministrativeContext): string {
+  const where = [context.county, context.stateProvince, context.country, context.countryCode].filter(Boolean).join(', ');
+  return `no feature named "${name}"${where ? ` in ${where}` : ''} in the loaded gazetteers`;
+}

@@ -1,0 +1,132 @@
+/**
+ * The parser's output: how a locality text was read. This is the contract between `src/parse`
+ * and `src/georef`; every field is plain data so it can be shown to a curator and serialised.
+ */
+
+/** Units a distance can be written in (leagues vary by country and period: see src/parse/units.ts). */
+export type DistanceUnit = 'm' | 'km' | 'mi' | 'ft' | 'yd' | 'nmi' | 'league';
+
+/** Locality types of the point-radius method (shared/method/point-radius.md §3), each with its own rule. */
+export type LocalityType =
+  | 'coordinates' // coordinates written in the text are the most specific clause
+  | 'named-place'
+  | 'offset-heading' // distance at a heading, by air ("10 km NE of X")
+  | 'offset-orthogonal' // two offsets on perpendicular headings ("3 km N and 2 km E of X")
+  | 'distance-only' // "5 km from X"
+  | 'offset-path' // distance along a road, trail or river ("10 km by road from X")
+  | 'heading-only' // "N of X": georeferenced only with a bounding clause
+  | 'between' // "between X and Y"
+  | 'near' // near, vicinity, outskirts
+  | 'junction' // junction, confluence or crossing of two named lines
+  | 'no-locality' // text that names no place ("locality unknown")
+  | 'unparseable';
+
+/** A distance exactly as written, with the precision read from how the number is written (method §5.1). */
+export interface WrittenDistance {
+  /** The words as they stand in the text, e.g. "1 1/2 mi." */
+  written: string;
+  /** Value in the written unit; the midpoint for a range. */
+  value: number;
+  unit: DistanceUnit;
+  /** Precision in the written unit, read from the number as written. */
+  precision: number;
+  /** δ in the written unit: precision / 2, plus half the range for a range. */
+  uncertainty: number;
+  range?: { low: number; high: number };
+  meters: number;
+  uncertaintyMeters: number;
+}
+
+/** A heading as written, as a true azimuth with its half-width Δ (method §5.2). */
+export interface WrittenHeading {
+  written: string;
+  /** Degrees clockwise from true north, in [0, 360). Already reversed for a bearing toward the feature. */
+  azimuth: number;
+  /** Δ, half the width of the sector the heading stands for, in degrees. */
+  halfWidth: number;
+  kind: 'rose4' | 'rose8' | 'rose16' | 'rose32' | 'degrees' | 'due';
+  /** True when the text gave a bearing toward the feature (reversed by 180°). */
+  toward?: boolean;
+}
+
+/** How an offset follows a path instead of a straight line. */
+export interface PathQualifier {
+  mode: 'road' | 'trail' | 'river' | 'upstream' | 'downstream' | 'along';
+  /** The named line followed, when the text names one ("along Rio Claro", "on Rd. 12"). */
+  lineName?: string;
+  written: string;
+}
+
+/** One offset from a feature. Orthogonal offsets have two, one per axis. */
+export interface Offset {
+  /** Absent for heading-only. */
+  distance?: WrittenDistance;
+  /** Absent for distance-only and path offsets. */
+  heading?: WrittenHeading;
+  /** Present when the offset is along a path ("by road", "upstream"); by air otherwise. */
+  path?: PathQualifier;
+  /** True when the text said "by air" explicitly. */
+  byAir?: boolean;
+}
+
+/** Coordinates written in the text or in verbatim coordinate fields, before any datum shift. */
+export interface WrittenCoordinates {
+  written: string;
+  /** Decimal degrees in the stated datum (not yet converted to WGS84). */
+  latitude: number;
+  longitude: number;
+  format: 'decimal' | 'degrees-minutes' | 'degrees-minutes-seconds' | 'utm';
+  /** Coordinate precision in degrees, from how the numbers are written (method §5.3; the finer axis). */
+  precisionDegrees: number;
+  /** Datum as an EPSG code ("EPSG:4267") when the text states one. */
+  datum?: string;
+  datumWritten?: string;
+  /** Problems found (swapped, out of range): flagged, never silently fixed. */
+  problems: string[];
+}
+
+/** A piece of the text that can be read on its own. */
+export interface Clause {
+  text: string;
+  /** Offsets into the verbatim text, [start, end). */
+  start: number;
+  end: number;
+  kind: 'locality' | 'administrative' | 'coordinates' | 'elevation' | 'habitat' | 'other';
+}
+
+export type Language = 'en' | 'es' | 'pt' | 'fr';
+
+/** Administrative units, from the record's fields or from clauses of the text. */
+export interface AdministrativeContext {
+  countryCode?: string;
+  country?: string;
+  stateProvince?: string;
+  county?: string;
+  municipality?: string;
+}
+
+/** The whole reading of one locality text. */
+export interface Interpretation {
+  verbatim: string;
+  language?: Language;
+  clauses: Clause[];
+  /** Index into `clauses` of the most specific clause used; null when none could be used. */
+  chosenClause: number | null;
+  type: LocalityType;
+  /**
+   * Feature names as written, in the order the type's rule uses them: one for offsets, named
+   * place and near; two for between and junction (the two lines); none for coordinates.
+   */
+  features: string[];
+  offsets: Offset[];
+  /** "ca.", "about": changes neither point nor radius (method §3), but is recorded. */
+  approximate: boolean;
+  coordinates?: WrittenCoordinates;
+  /** Administrative units named in the text itself. */
+  administrative: AdministrativeContext;
+  elevation?: { minimumMeters: number; maximumMeters: number; written: string };
+  /** Plain-words reason, always present when type is 'unparseable' or 'no-locality'. */
+  reason?: string;
+  /** Assumptions made while reading, in plain words ("no path qualifier: assumed by air"). */
+  notes: string[];
+}

@@ -1,0 +1,129 @@
+/**
+ * The Darwin Core georeference terms whereabouts adds beside a record's own fields (method §6).
+ * Originals are never touched: where a record already has a term, the proposal is `proposed_<term>`.
+ */
+import type { Source } from '../gazetteer/types.ts';
+import { inverse } from '../geodesy/geodesic.ts';
+import type { LocateResult, LocateStatus } from '../locate.ts';
+import { VERSION } from '../version.ts';
+
+/** The appended terms, in output order. Every one is a Darwin Core term (TDWG, dwc terms list). */
+export const GEOREFERENCE_TERMS = [
+  'decimalLatitude',
+  'decimalLongitude',
+  'geodeticDatum',
+  'coordinateUncertaintyInMeters',
+  'coordinatePrecision',
+  'footprintWKT',
+  'footprintSRS',
+  'georeferencedBy',
+  'georeferencedDate',
+  'georeferenceProtocol',
+  'georeferenceSources',
+  'georeferenceRemarks',
+  'georeferenceVerificationStatus',
+] as const;
+
+export type GeoreferenceTerm = (typeof GEOREFERENCE_TERMS)[number];
+
+/** Who and when, shared by every record of one run so that a rerun is byte-identical but for them. */
+export interface RecordContext {
+  georeferencedBy: string;
+  /** ISO 8601 date-time of the run. */
+  georeferencedDate: string;
+  /** The loaded gazetteer sources, to cite with their content hash. */
+  sources: Source[];
+}
+
+/** Verification status by outcome (Darwin Core georeferenceVerificationStatus recommended values). */
+export const VERIFICATION_STATUS: Record<LocateStatus, string> = {
+  georeferenced: 'requires verification',
+  ambiguous: 'requires georeference',
+  'not-found': 'requires georeference',
+  unparseable: 'unable to georeference',
+};
+
+export const PROTOCOL = `point-radius method (Wieczorek, Guo & Hijmans 2004, doi:10.1080/13658810412331280211; Chapman & Wieczorek 2020, Georeferencing Best Practices, doi:10.15468/doc-gg7h-s853) as applied by whereabouts ${VERSION}`;
+
+/**
+ * Reporting decimals [CHOICE]: the fewest (at most 7) whose rounding moves the point by no more than
+ * 1 % of the radius; the displacement is then added to the radius, so rounding never hides error.
+ */
+export function reportingDecimals(uncertaintyMeters: number): number {
+  const metersPerDegree = 111_320; // a degree of latitude, rounded up at the poles' side: common practice, no source
+  for (let k = 0; k < 7; k++) {
+    const worstShift = (10 ** -k / 2) * Math.SQRT2 * metersPerDegree;
+    if (worstShift <= uncertaintyMeters / 100) return k;
+  }
+  return 7;
+}
+
+/**
+ * The appended Darwin Core fields for one result.
+ * @example
+ *   darwinCoreFields(result, { georeferencedBy: 'whereabouts 0.1.0', georeferencedDate: '2026-12-01T12:00:00Z', sources })
+ *   // { decimalLatitude: '-45.4321', ..., georeferenceVerificationStatus: 'requires verification' }
+ */
+export function darwinCoreFields(result: LocateResult, context: RecordContext): Record<GeoreferenceTerm, string> {
+  const status = VERIFICATION_STATUS[result.status];
+  const common = {
+    georeferencedBy: context.georeferencedBy,
+    georeferencedDate: context.georeferencedDate,
+    georeferenceProtocol: PROTOCOL,
+    georeferenceVerificationStatus: status,
+  };
+  const g = result.georeference;
+  if (result.status !== 'georeferenced' || !g) {
+    return {
+      ...blankCoordinates(),
+      ...common,
+      georeferenceSources: citeSources(result, context.sources),
+      georeferenceRemarks: [result.reason, ...result.interpretation.notes].filter(Boolean).join('; '),
+    };
+  }
+  const decimals = reportingDecimals(g.uncertaintyMeters);
+  const latitude = roundTo(g.latitude, decimals);
+  const longitude = roundTo(g.longitude, decimals);
+  const shift = inverse(g.latitude, g.longitude, latitude, longitude).meters;
+  return {
+    decimalLatitude: latitude.toFixed(decimals),
+    decimalLongitude: longitude.toFixed(decimals),
+    geodeticDatum: 'EPSG:4326',
+    coordinateUncertaintyInMeters: String(Math.ceil(g.uncertaintyMeters + shift)),
+    coordinatePrecision: (10 ** -decimals).toFixed(decimals),
+    footprintWKT: g.footprintWKT,
+    footprintSRS: 'EPSG:4326',
+    ...common,
+    georeferenceSources: citeSources(result, context.sources),
+    georeferenceRemarks: [...result.interpretation.notes, ...g.remarks].join('; '),
+  };
+}
+
+/** Output column names for an input header: `proposed_<term>` where the record already has the term. */
+export function appendedColumnNames(inputHeader: readonly string[]): string[] {
+  const present = new Set(inputHeader);
+  return GEOREFERENCE_TERMS.map((term) => (present.has(term) ? `proposed_${term}` : term));
+}
+
+function blankCoordinates() {
+  return { decimalLatitude: '', decimalLongitude: '', geodeticDatum: '', coordinateUncertaintyInMeters: '', coordinatePrecision: '', footprintWKT: '', footprintSRS: '' };
+}
+
+function roundTo(value: number, decimals: number): number {
+  const factor = 10 ** decimals;
+  return Math.round(value * factor) / factor;
+}
+
+/** Each gazetteer source used, with its content hash and the feature ids, so the result can be reproduced. */
+function citeSources(result: LocateResult, sources: Source[]): string {
+  const used = result.georeference?.features ?? [];
+  const bySource = new Map<string, string[]>();
+  for (const f of used) bySource.set(f.sourceId, [...(bySource.get(f.sourceId) ?? []), f.featureId]);
+  return [...bySource]
+    .map(([id, featureIds]) => {
+      const s = sources.find((x) => x.id === id);
+      const cited = s ? `${s.citation} (source ${s.id}, sha256 ${s.contentHash.slice(0, 16)})` : `source ${id}`;
+      return `${cited}: feature ${featureIds.join(', ')}`;
+    })
+    .join(' | ');
+}
