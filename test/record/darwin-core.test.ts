@@ -1,0 +1,46 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { appendedColumnNames, GEOREFERENCE_TERMS, reportingDecimals, VERIFICATION_STATUS } from '../../src/record/darwin-core.ts';
+
+// Darwin Core term names: TDWG Darwin Core terms list (CC BY 4.0), copied to test/fixtures.
+const dwcTerms = new Set(
+  readFileSync(new URL('../fixtures/darwin-core-terms.txt', import.meta.url), 'utf8')
+    .split('\n')
+    .map((l) => l.trim())
+    .filter((l) => l && !l.startsWith('#')),
+);
+
+describe('appended Darwin Core fields', () => {
+  it('names only Darwin Core terms', () => {
+    for (const term of GEOREFERENCE_TERMS) expect(dwcTerms.has(term), term).toBe(true);
+  });
+
+  it('keeps an existing column and proposes beside it', () => {
+    const names = appendedColumnNames(['occurrenceID', 'locality', 'decimalLatitude', 'decimalLongitude']);
+    expect(names).toContain('proposed_decimalLatitude');
+    expect(names).toContain('proposed_decimalLongitude');
+    expect(names).toContain('geodeticDatum');
+    for (const name of names) expect(dwcTerms.has(name.replace(/^proposed_/, '')), name).toBe(true);
+  });
+
+  it('uses the verification statuses Darwin Core recommends', () => {
+    // Darwin Core georeferenceVerificationStatus examples (TDWG): "requires verification",
+    // "unable to georeference", "requires georeference".
+    expect(VERIFICATION_STATUS.georeferenced).toBe('requires verification');
+    expect(VERIFICATION_STATUS.ambiguous).toBe('requires georeference');
+    expect(VERIFICATION_STATUS['not-found']).toBe('requires georeference');
+    expect(VERIFICATION_STATUS.unparseable).toBe('unable to georeference');
+  });
+});
+
+describe('reporting decimals', () => {
+  // Our own rule (point-radius.md §6 [CHOICE]): rounding moves the point by at most 1 % of the radius.
+  it('never rounds away more than 1 % of the radius', () => {
+    for (const radius of [3, 30, 300, 3000, 30000, 300000]) {
+      const k = reportingDecimals(radius);
+      const worstShiftMeters = (10 ** -k / 2) * Math.SQRT2 * 111_320;
+      if (k < 7) expect(worstShiftMeters).toBeLessThanOrEqual(radius / 100);
+      if (k > 0) expect((10 ** -(k - 1) / 2) * Math.SQRT2 * 111_320).toBeGreaterThan(radius / 100);
+    }
+  });
+});
