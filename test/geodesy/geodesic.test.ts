@@ -1,0 +1,52 @@
+import { describe, expect, it } from 'vitest';
+import { direct, inverse } from '../../src/geodesy/geodesic.ts';
+import { localProjection } from '../../src/geodesy/azimuthal-equidistant.ts';
+
+const dms = (d: number, m: number, s: number) => Math.sign(d || 1) * (Math.abs(d) + m / 60 + s / 3600);
+
+// Flinders Peak – Buninyong, the worked example of the Australian geodetic manuals (Geocentric Datum of
+// Australia Technical Manual, ICSM; values from memory): on the GRS80/WGS84 ellipsoid,
+// distance 54 972.271 m, forward azimuth 306°52′05.37″, reverse azimuth 127°10′25.07″.
+const flinders = { latitude: -dms(37, 57, 3.7203), longitude: dms(144, 25, 29.5244) };
+const buninyong = { latitude: -dms(37, 39, 10.1561), longitude: dms(143, 55, 35.3839) };
+
+describe('geodesic inverse and direct on WGS84', () => {
+  it('reproduces Flinders Peak – Buninyong (ICSM GDA manual worked example, from memory)', () => {
+    const result = inverse(flinders.latitude, flinders.longitude, buninyong.latitude, buninyong.longitude);
+    expect(result.meters).toBeCloseTo(54972.271, 2);
+    expect((result.azimuth1 + 360) % 360).toBeCloseTo(dms(306, 52, 5.37), 4);
+    // reverse azimuth = forward azimuth at the far end + 180°
+    expect((result.azimuth2 + 180 + 360) % 360).toBeCloseTo(dms(127, 10, 25.07), 4);
+  });
+
+  it('direct returns to Buninyong from Flinders Peak (same example)', () => {
+    const end = direct(flinders.latitude, flinders.longitude, dms(306, 52, 5.37), 54972.271);
+    expect(end.latitude).toBeCloseTo(buninyong.latitude, 7);
+    expect(end.longitude).toBeCloseTo(buninyong.longitude, 7);
+  });
+
+  // The WGS84 quarter meridian, 10 001 965.729 m (GeographicLib documentation of the WGS84 ellipsoid;
+  // value from memory).
+  it('quarter meridian is 10 001 965.729 m (Karney 2013, from memory)', () => {
+    expect(inverse(0, 0, 90, 0).meters).toBeCloseTo(10001965.729, 2);
+  });
+
+  it('equatorial degree is a·π/180 = 111 319.491 m (WGS84 a = 6 378 137 m, NIMA TR8350.2)', () => {
+    expect(inverse(0, 0, 0, 1).meters).toBeCloseTo((6378137 * Math.PI) / 180, 3);
+  });
+
+  it('crosses the antimeridian: 179.9°E to 179.9°W is 0.2° of equator', () => {
+    expect(inverse(0, 179.9, 0, -179.9).meters).toBeCloseTo((0.2 * 6378137 * Math.PI) / 180, 3);
+  });
+});
+
+describe('local azimuthal-equidistant projection', () => {
+  it('keeps distances and azimuths from its center exact (definition of the projection)', () => {
+    const projection = localProjection(flinders.latitude, flinders.longitude);
+    const [x, y] = projection.forward(buninyong.latitude, buninyong.longitude);
+    expect(Math.hypot(x, y)).toBeCloseTo(54972.271, 2);
+    const [latitude, longitude] = projection.inverse(x, y);
+    expect(latitude).toBeCloseTo(buninyong.latitude, 9);
+    expect(longitude).toBeCloseTo(buninyong.longitude, 9);
+  });
+});
