@@ -1,0 +1,117 @@
+/**
+ * The whereabouts HTTP service: the georeference API, the map's data, batch review, and the page.
+ * Safe by default: loopback only unless a token protects it, strict security headers, no CORS unless
+ * configured, bounded bodies and uploads, a per-client rate limit, and schemas on every route.
+ */
+import cors from '@fastify/cors';
+import helmet from '@fastify/helmet';
+import rateLimit from '@fastify/rate-limit';
+import swagger from '@fastify/swagger';
+import Fastify, { type FastifyInstance } from 'fastify';
+import { openGazetteer } from '../gazetteer/store.ts';
+import { VERSION } from '../version.ts';
+import { assertSafeBind, tokenGuard } from './access.ts';
+import { loadAssets, registerAssets } from './assets.ts';
+import { handleError } from './errors.ts';
+import { registerStrictJson } from './json-body.ts';
+import { registerFeatureRoute } from './routes/features.ts';
+import { registerGeoreferenceRoute } from './routes/georeference.ts';
+import { registerLayersRoute } from './routes/layers.ts';
+import { registerLoginRoute } from './routes/login.ts';
+import { shapedFeatureLister } from './shaped-features.ts';
+
+export interface ServerOptions {
+  /** The SQLite database holding the gazetteer (opened read-only by the service). */
+  dbPath: string;
+  /** Access token; required when `host` is not a loopback address. */
+  token?: string;
+  /** The address the caller will listen on (default 127.0.0.1); checked here, bound by the caller. */
+  host?: string;
+  /** An origin allowed to call the API from another site (CORS); none by default. */
+  corsOrigin?: string;
+  /** Requests per client per window, or false for none (default 1200 a minute). */
+  rateLimit?: { max: number; timeWindowMs: number } | false;
+  /** Largest JSON body in bytes (default 64 KiB). */
+  bodyLimit?: number;
+  /** Largest batch upload in bytes (default 50 MiB). */
+  uploadLimit?: number;
+  /** Log requests as JSON lines on stdout (default off). */
+  logger?: boolean;
+}
+
+/** Defaults [CHOICE]: a label's text is well under 64 KiB; 1200 a minute is 20 lookups a second per client. */
+export const SERVER_DEFAULTS = { host: '127.0.0.1', bodyLimit: 64 * 1024, uploadLimit: 50 * 1024 * 1024, rateLimit: { max: 1200, timeWindowMs: 60_000 } } as const;
+
+/**
+ * Builds the service (not yet listening). Refuses a non-loopback host without a token.
+ * @example
+ *   const app = await buildServer({ dbPath: 'whereabouts.sqlite' });
+ *   await app.listen({ host: '127.0.0.1', port: 8737 });
+ */
+export async function buildServer(options: ServerOptions): Promise<FastifyInstance> {
+  const host = options.host ?? SERVER_DEFAULTS.host;
+  assertSafeBind(host, options.token);
+  const store = openGazetteer(options.dbPath, { readonly: true });
+  const app = Fastify({
+    logger: options.logger ?? false,
+    bodyLimit: options.bodyLimit ?? SERVER_DEFAULTS.bodyLimit,
+    // Types are checked, never coerced; unknown fields are refused, never dropped in silence.
+    ajv: { customOptions: { coerceTypes: false, removeAdditional: false, allErrors: false } },
+    forceCloseConnections: 'idle',
+  });
+  app.addHook('onClose', async () => store.close());
+  app.setErrorHandler(handleError);
+  app.setNotFoundHandler((request, reply) => reply.code(404).send({ statusCode: 404, error: 'Not Found', message: `nothing at ${request.method} ${request.url.split('?')[0].slice(0, 200)}` }));
+  registerStrictJson(app);
+
+  await app.register(helmet, {
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'"],
+        styleSrc: ["'self'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        connectSrc: ["'self'"],
+        fontSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        baseUri: ["'none'"],
+        formAction: ["'self'"],
+        frameAncestors: ["'none'"],
+      },
+    },
+    // Served over plain HTTP on a workstation: HSTS would be ignored, and a TLS proxy sets its own.
+    strictTransportSecurity: false,
+  });
+  if (options.corsOrigin) await app.register(cors, { origin: options.corsOrigin, methods: ['GET', 'POST', 'PUT'] });
+  const limit = options.rateLimit ?? SERVER_DEFAULTS.rateLimit;
+  if (limit) {
+    await app.register(rateLimit, {
+      max: limit.max,
+      timeWindow: limit.timeWindowMs,
+      errorResponseBuilder: (_request, context) => ({
+        statusCode: 429,
+        error: 'Too Many Requests',
+        message: `more than ${context.max} requests in ${Math.round(limit.timeWindowMs / 1000)} s from this client: try again in ${Math.ceil(context.ttl / 1000)} s`,
+      }),
+    });
+  }
+  if (options.token) app.addHook('onRequest', tokenGuard(options.token));
+
+  await app.register(swagger, {
+    openapi: {
+      openapi: '3.0.3',
+      info: { title: 'whereabouts', version: VERSION, description: 'Georeference locality text against your own gazetteer with the point-radius method.' },
+      components: { securitySchemes: { token: { type: 'http', scheme: 'bearer' } } },
+      ...(options.token ? { security: [{ token: [] }] } : {}),
+    },
+  });
+
+  registerGeoreferenceRoute(app, store);
+  registerFeatureRoute(app, store);
+  registerLayersRoute(app, shapedFeatureLister(options.dbPath, store));
+  if (options.token) registerLoginRoute(app, options.token);
+  app.get('/api/v1/openapi.json', { schema: { hide: true } }, async () => app.swagger());
+  registerAssets(app, loadAssets());
+  return app;
+}

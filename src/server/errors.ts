@@ -1,0 +1,80 @@
+/**
+ * Every error leaves the service as JSON `{statusCode, error, message, field?}`: a 400 names the field
+ * that is wrong, a 413 says the limit, and nothing internal (paths, stack traces) is ever shown.
+ */
+import type { FastifyError, FastifyReply, FastifyRequest } from 'fastify';
+
+/** An error the routes raise on purpose, with the field it is about. */
+export class RequestError extends Error {
+  constructor(
+    readonly statusCode: number,
+    message: string,
+    readonly field?: string,
+  ) {
+    super(message);
+  }
+}
+
+const PHRASES: Record<number, string> = {
+  400: 'Bad Request',
+  401: 'Unauthorized',
+  404: 'Not Found',
+  409: 'Conflict',
+  413: 'Payload Too Large',
+  415: 'Unsupported Media Type',
+  429: 'Too Many Requests',
+  500: 'Internal Server Error',
+  503: 'Service Unavailable',
+};
+
+interface ValidationItem {
+  instancePath: string;
+  keyword: string;
+  message?: string;
+  params: Record<string, unknown>;
+}
+
+/** The fastify error handler: validation errors name the field, everything else keeps its status. */
+export function handleError(error: FastifyError | RequestError, request: FastifyRequest, reply: FastifyReply) {
+  if ('validation' in error && error.validation) {
+    const context = (error as FastifyError).validationContext ?? 'body';
+    const item = error.validation[0] as ValidationItem;
+    const field = fieldOf(item);
+    const message = `${context}${field ? `.${field}` : ''} ${item.message ?? 'is not valid'}${detail(item)}`;
+    return send(reply, 400, message, field || context);
+  }
+  const status = error.statusCode ?? 500;
+  if (status >= 500) {
+    request.log.error(error);
+    return send(reply, status, 'the service could not complete this request; it is still running');
+  }
+  const field = error instanceof RequestError ? error.field : undefined;
+  return send(reply, status, messageFor(error, status), field);
+}
+
+function send(reply: FastifyReply, statusCode: number, message: string, field?: string) {
+  return reply.code(statusCode).send({ statusCode, error: PHRASES[statusCode] ?? 'Error', message, ...(field ? { field } : {}) });
+}
+
+/** `options.mapScale`, `locality`, or the missing/extra property. */
+function fieldOf(item: ValidationItem): string {
+  const path = item.instancePath.split('/').filter(Boolean);
+  const named = item.params.missingProperty ?? item.params.additionalProperty;
+  if (typeof named === 'string') path.push(named);
+  return path.join('.');
+}
+
+function detail(item: ValidationItem): string {
+  if (item.keyword === 'additionalProperties') return `: "${String(item.params.additionalProperty).slice(0, 64)}" is not a field of this request`;
+  return '';
+}
+
+/** Fastify's own wording is kept where it is already specific; the body limit gets the number. */
+function messageFor(error: FastifyError | RequestError, status: number): string {
+  const code = (error as FastifyError).code;
+  if (code === 'FST_ERR_CTP_BODY_TOO_LARGE') return `the request body is larger than the limit of ${(error as FastifyError & { limit?: number }).limit ?? 'this route'} bytes`;
+  if (code === 'FST_REQ_FILE_TOO_LARGE') return 'the uploaded file is larger than the upload limit';
+  if (code === 'FST_ERR_CTP_INVALID_MEDIA_TYPE') return 'this content type is not accepted here: send application/json';
+  if (code === 'FST_ERR_CTP_EMPTY_JSON_BODY') return 'the request body is empty: send a JSON object';
+  return status === 413 ? `${error.message} (limit exceeded)` : error.message;
+}
