@@ -69,4 +69,21 @@ export interface CandidateQuery {
 /** Finds candidate features for a name: the store implements it; the core only calls it. */
 export interface CandidateFinder {
   findCandidates(query: CandidateQuery): Candidate[];
+  /** The same lookup with the candidates the context dropped and why (optional for other finders). */
+  lookupCandidates?(query: CandidateQuery): CandidateLookup;
+}
+
+/** A candidate the context removed, with the reason kept (a name outside the stated county, say). */
+export interface DroppedCandidate {
+  candidate: Candidate;
+  /** Plain words, e.g. "center outside the polygon of county 'Alto' (source demo, feature c-3)". */
+  reason: string;
+}
+
+/** Everything a lookup found: the candidates kept and the ones the context dropped. */
+export interface CandidateLookup {
+  candidates: Candidate[];
+  dropped: DroppedCandidate[];
+  /** Notes on how the query was read ("country 'Atlantis' not recognised: not used to filter"). */
+  notes: string[];
 }

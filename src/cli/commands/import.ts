@@ -1,0 +1,68 @@
+import type { Command } from 'commander';
+import { SingleBar } from 'cli-progress';
+import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../gazetteer/import.ts';
+import { openGazetteer } from '../../gazetteer/store.ts';
+
+interface ImportCommandOptions {
+  format?: string;
+  source?: string;
+  sourceId?: string;
+  licence?: string;
+  adminCodes?: string;
+}
+
+const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames'];
+/** Refused rows listed one by one in the summary; the rest are counted. */
+const LISTED_REJECTIONS = 20;
+
+/**
+ * `whereabouts import <file>`: loads a gazetteer file as one source (replacing a source of the same
+ * id). Progress on stderr when it is a terminal; a summary on stdout at the end.
+ */
+export function registerImport(program: Command, dbPath: () => string): void {
+  program
+    .command('import')
+    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout)')
+    .argument('<file>', 'the gazetteer file')
+    .option('--format <format>', `one of ${FORMATS.join(', ')} (default: from the file extension)`)
+    .option('--source <citation>', 'how to cite this gazetteer (default: the file name)')
+    .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
+    .option('--licence <text>', 'licence of the gazetteer')
+    .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
+    .action(async (file: string, opts: ImportCommandOptions) => {
+      const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
+      if (format === null) throw new Error(`cannot tell the format of ${file} from its extension: give --format ${FORMATS.join('|')}`);
+      if (!FORMATS.includes(format)) throw new Error(`--format must be one of ${FORMATS.join(', ')}, not '${format}'`);
+      const bar = process.stderr.isTTY ? new SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
+      bar?.start(0, 0);
+      const store = openGazetteer(dbPath());
+      try {
+        const summary = await importGazetteer(store, file, {
+          format,
+          citation: opts.source ?? file,
+          sourceId: opts.sourceId,
+          licence: opts.licence,
+          adminCodesFile: opts.adminCodes,
+          onProgress: (rows) => bar?.update(rows),
+        });
+        bar?.stop();
+        process.stdout.write(formatSummary(summary));
+      } finally {
+        bar?.stop();
+        store.close();
+      }
+    });
+}
+
+/**
+ * The summary printed after an import.
+ * @example formatSummary({ sourceId: 'x', rowsRead: 2, imported: 1, rejected: [{ row: 3, reason: 'name missing' }], seconds: 0.1 })
+ */
+export function formatSummary(summary: ImportSummary): string {
+  const lines = [
+    `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
+    ...summary.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  row ${row}: ${reason}`),
+  ];
+  if (summary.rejected.length > LISTED_REJECTIONS) lines.push(`  … and ${summary.rejected.length - LISTED_REJECTIONS} more rejected rows`);
+  return `${lines.join('\n')}\n`;
+}

@@ -1,0 +1,114 @@
+/**
+ * Administrative context as a filter on candidate features: country names to ISO codes, and the
+ * comparison of state and county names. Pure functions, no I/O.
+ */
+import type { AdministrativeContext } from '../parse/types.ts';
+import { foldName } from './fold.ts';
+import type { Feature } from './types.ts';
+
+const DISPLAY_LANGUAGES = ['en', 'es', 'pt', 'fr'] as const;
+let countryNameIndex: Map<string, string> | undefined;
+
+/**
+ * The ISO 3166-1 alpha-2 code of a country name written in English, Spanish, Portuguese or French,
+ * from the CLDR region names that Node's Intl carries; null when the name is not one of them.
+ * @example countryCodeForName('Brasil') // 'BR'
+ * @example countryCodeForName('Côte d’Ivoire') // 'CI'
+ */
+export function countryCodeForName(name: string): string | null {
+  if (countryNameIndex === undefined) {
+    countryNameIndex = new Map();
+    const displays = DISPLAY_LANGUAGES.map((language) => new Intl.DisplayNames([language], { type: 'region', fallback: 'none' }));
+    for (let first = 65; first <= 90; first++) {
+      for (let second = 65; second <= 90; second++) {
+        const code = String.fromCharCode(first, second);
+        for (const display of displays) {
+          const display_name = display.of(code);
+          if (display_name !== undefined && display_name !== code) countryNameIndex.set(foldName(display_name), code);
+        }
+      }
+    }
+  }
+  const folded = foldName(name);
+  if (/^[a-z]{2}$/.test(folded)) return folded.toUpperCase();
+  return countryNameIndex.get(folded) ?? null;
+}
+
+/** Words that name the kind of unit rather than the unit ("Provincia de Salta" = "Salta"); common practice, no source. */
+const ADMINISTRATIVE_WORDS = new Set([
+  'province', 'provincia', 'prov', 'state', 'estado', 'etat', 'county', 'condado', 'co', 'cty', 'comte',
+  'department', 'departamento', 'depto', 'dpto', 'departement', 'dept', 'municipio', 'municipality', 'mun',
+  'district', 'distrito', 'region', 'parish', 'parroquia', 'canton', 'partido', 'of', 'de', 'del', 'do', 'da', 'du',
+]);
+
+/**
+ * The comparison key of an administrative unit's name: folded, with words for the kind of unit left out.
+ * @example administrativeKey('Provincia de Salta') // 'salta'
+ * @example administrativeKey('Orange County') // 'orange'
+ */
+export function administrativeKey(name: string): string {
+  const tokens = foldName(name).split(' ');
+  const kept = tokens.filter((token) => !ADMINISTRATIVE_WORDS.has(token));
+  return (kept.length > 0 ? kept : tokens).join(' ');
+}
+
+/** The context a candidate must fit, resolved once per query. */
+export interface ResolvedContext {
+  /** Allowed country codes; empty when the context names no country. */
+  countryCodes: Set<string>;
+  stateProvinceKey?: string;
+  countyKey?: string;
+  /** Country written in the context that no table resolved (then it does not filter). */
+  unresolvedCountry?: string;
+}
+
+/**
+ * Resolves a record's administrative context: the country code, the country name through the CLDR
+ * table or the gazetteer's own country features (`gazetteerCountryCodes`), the state and county keys.
+ * @example resolveContext({ country: 'Argentina', stateProvince: 'Prov. de Salta' }).countryCodes // Set {'AR'}
+ */
+export function resolveContext(context: AdministrativeContext, gazetteerCountryCodes: readonly string[] = []): ResolvedContext {
+  const countryCodes = new Set<string>();
+  if (context.countryCode !== undefined && context.countryCode.trim() !== '') countryCodes.add(context.countryCode.trim().toUpperCase());
+  let unresolvedCountry: string | undefined;
+  if (context.country !== undefined && context.country.trim() !== '') {
+    const code = countryCodeForName(context.country);
+    if (code !== null) countryCodes.add(code);
+    for (const gazetteerCode of gazetteerCountryCodes) countryCodes.add(gazetteerCode);
+    if (code === null && gazetteerCountryCodes.length === 0) unresolvedCountry = context.country;
+  }
+  return {
+    countryCodes,
+    stateProvinceKey: context.stateProvince?.trim() ? administrativeKey(context.stateProvince) : undefined,
+    countyKey: context.county?.trim() ? administrativeKey(context.county) : undefined,
+    unresolvedCountry,
+  };
+}
+
+/** Which administrative levels a polygon already decides (then the name of that level does not filter). */
+export interface SpatiallyDecided {
+  stateProvince?: boolean;
+  county?: boolean;
+}
+
+/**
+ * Why a feature does not fit the context, or null when it fits. A feature that does not record a level
+ * (no state, say) is not dropped for it: the text cannot be checked against what is not there.
+ * @example contextMismatch(feature, resolveContext({ countryCode: 'AR' })) // "country BR, not AR"
+ */
+export function contextMismatch(feature: Feature, context: ResolvedContext, decided: SpatiallyDecided = {}): string | null {
+  if (context.countryCodes.size > 0 && feature.countryCode !== null && !context.countryCodes.has(feature.countryCode)) {
+    return `country ${feature.countryCode}, not ${[...context.countryCodes].join(' or ')}`;
+  }
+  if (!decided.stateProvince && context.stateProvinceKey !== undefined && feature.stateProvince !== null
+    && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
+    && administrativeKey(feature.stateProvince) !== context.stateProvinceKey) {
+    return `state/province '${feature.stateProvince}', not the one given`;
+  }
+  if (!decided.county && context.countyKey !== undefined && feature.county !== null
+    && feature.featureType !== 'county' && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
+    && administrativeKey(feature.county) !== context.countyKey) {
+    return `county '${feature.county}', not the one given`;
+  }
+  return null;
+}

@@ -1,0 +1,90 @@
+/**
+ * The open world-gazetteer dump layout: 19 tab-separated columns, no header, and its admin1 code
+ * companion file. Reading a line into a RawFeature is pure; the importer does the I/O.
+ */
+import type { RawFeature } from './feature-record.ts';
+
+/** Columns of the dump layout, in order. */
+export const DUMP_COLUMNS = [
+  'id', 'name', 'asciiname', 'alternatenames', 'latitude', 'longitude', 'feature class', 'feature code',
+  'country code', 'cc2', 'admin1', 'admin2', 'admin3', 'admin4', 'population', 'elevation', 'dem', 'timezone',
+  'modification date',
+] as const;
+
+/**
+ * Feature codes of the dump layout mapped to whereabouts' feature types (for default radii). Codes
+ * not listed keep no type and get the unknown-type radius. Populated places are split by population
+ * in dumpFeatureType. The code meanings are the layout's published feature-code list (from memory).
+ */
+const FEATURE_CODE_TYPES: Readonly<Record<string, string>> = {
+  PPLC: 'city', PPLA: 'city', PPLG: 'city',
+  PPLX: 'locality', PPLL: 'locality', LCTY: 'locality', AREA: 'locality', PPLF: 'village', PPLQ: 'village',
+  PPLH: 'town', PPLW: 'village', PPLS: 'village', PPLR: 'village', STLMT: 'village',
+  PCLI: 'country', PCL: 'country', PCLD: 'country', PCLF: 'country', PCLS: 'country', PCLIX: 'country', TERR: 'country',
+  ADM1: 'stateProvince', ADM1H: 'stateProvince', ADM2: 'county', ADM2H: 'county', ADM3: 'locality', ADM4: 'locality', ADMD: 'locality',
+  LK: 'lake', LKS: 'lake', LKI: 'lake', LKN: 'lake', RSV: 'lake', PND: 'lake',
+  STM: 'river', STMS: 'river', STMI: 'stream', STMB: 'stream', STMH: 'stream', STMM: 'river mouth', ESTY: 'river mouth',
+  BAY: 'bay', BAYS: 'bay', COVE: 'bay', GULF: 'bay', FLLS: 'waterfall', FLLSX: 'waterfall',
+  MT: 'mountain', MTS: 'mountain', PK: 'peak', PKS: 'peak', VLC: 'mountain', HLL: 'hill', HLLS: 'hill', MND: 'hill',
+  PASS: 'pass', GAP: 'pass', CAPE: 'cape', PT: 'cape', PEN: 'cape', ISL: 'island', ISLS: 'island', ISLET: 'island',
+  ISLM: 'island', BCH: 'beach', BCHS: 'beach',
+  FRM: 'farm', FRMS: 'farm', FRMT: 'farm', RNCH: 'farm', EST: 'estate', ESTB: 'estate', ESTC: 'estate', ESTSG: 'estate',
+  RSTN: 'station', RSTP: 'station', STNB: 'station', STNM: 'station', BDG: 'bridge',
+  RD: 'road', RDA: 'road', RDB: 'road', TRL: 'trail',
+};
+
+/** Population above which a populated place counts as a city, then a town (common practice, no source). */
+const CITY_POPULATION = 100_000;
+const TOWN_POPULATION = 5_000;
+
+/**
+ * Our feature type for a dump feature code; populated places (PPL, PPLA2…) by population, and those of
+ * unknown population as towns (erring large, method §4).
+ * @example dumpFeatureType('P', 'PPL', 250000) // 'city'
+ * @example dumpFeatureType('T', 'PK', 0) // 'peak'
+ */
+export function dumpFeatureType(featureClass: string, featureCode: string, population: number): string | null {
+  const mapped = FEATURE_CODE_TYPES[featureCode];
+  if (mapped !== undefined) return mapped;
+  if (featureClass === 'P') {
+    if (population >= CITY_POPULATION) return 'city';
+    if (population >= TOWN_POPULATION || population === 0) return 'town';
+    return 'village';
+  }
+  return null;
+}
+
+/**
+ * One line of the dump layout as a RawFeature, or the reason it cannot be read. The admin1 code is
+ * turned into a name through `admin1Names` ("CC.code" → name); without it the state stays unknown.
+ * @example readDumpLine('3435910\tBuenos Aires\t…', new Map([['AR.07', 'Buenos Aires F.D.']]))
+ */
+export function readDumpLine(line: string, admin1Names: ReadonlyMap<string, string>): RawFeature | string {
+  if (line.includes('\uFFFD')) return 'not valid UTF-8';
+  const fields = line.split('\t');
+  if (fields.length !== DUMP_COLUMNS.length) return `${fields.length} columns, the layout has ${DUMP_COLUMNS.length}`;
+  const [id, name, asciiName, alternates, latitude, longitude, featureClass, featureCode, countryCode, , admin1, , , , population] = fields;
+  const populationNumber = Number(population);
+  return {
+    id,
+    name,
+    alternateNames: [asciiName, ...alternates.split(',')],
+    latitude,
+    longitude,
+    featureType: dumpFeatureType(featureClass, featureCode, Number.isFinite(populationNumber) ? populationNumber : 0),
+    countryCode,
+    stateProvince: admin1 === '' ? null : admin1Names.get(`${countryCode}.${admin1}`) ?? null,
+    county: null,
+  };
+}
+
+/**
+ * One line of the admin1 companion file ("CC.code", name, asciiname, id; tab-separated), or null
+ * when the line is not of that form.
+ * @example readAdmin1Line('AR.07\tBuenos Aires F.D.\tBuenos Aires F.D.\t3433955') // ['AR.07', 'Buenos Aires F.D.']
+ */
+export function readAdmin1Line(line: string): [string, string] | null {
+  const fields = line.split('\t');
+  if (fields.length < 2 || !/^[A-Z]{2}\.\S+$/.test(fields[0]) || fields[1].trim() === '') return null;
+  return [fields[0], fields[1].trim()];
+}

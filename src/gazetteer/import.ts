@@ -1,0 +1,218 @@
+/**
+ * Streams a gazetteer file (CSV, GeoJSON FeatureCollection, or the world-gazetteer dump layout) into
+ * the store in one transaction: constant memory for any file size, every refused row returned with its
+ * row number and reason, the source recorded with its citation, licence and the file's sha256.
+ */
+import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { basename, extname } from 'node:path';
+import { createInterface } from 'node:readline';
+import type { Readable } from 'node:stream';
+import { parse } from 'csv-parse';
+import type { Feature as GeoJsonFeature } from 'geojson';
+import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
+import { checkFeature, type RawFeature } from './feature-record.ts';
+import type { GazetteerStore } from './store.ts';
+
+export type ImportFormat = 'csv' | 'geojson' | 'geonames';
+
+export interface ImportOptions {
+  format: ImportFormat;
+  citation: string;
+  /** Defaults to the file name without its extension, e.g. "demo-towns". */
+  sourceId?: string;
+  licence?: string;
+  /** The dump layout's admin1 companion file ("CC.code", name, asciiname, id). */
+  adminCodesFile?: string;
+  /** Default radius overrides for this source, meters by feature type (see default-radii.ts). */
+  radii?: Readonly<Record<string, number>>;
+  /** Called every few thousand rows with the number read so far. */
+  onProgress?: (rows: number) => void;
+}
+
+export interface ImportSummary {
+  sourceId: string;
+  rowsRead: number;
+  imported: number;
+  /** Row numbers are file line numbers for CSV and the dump layout, feature numbers (from 1) for GeoJSON. */
+  rejected: { row: number; reason: string }[];
+  seconds: number;
+}
+
+/** One row as a reader yields it: a feature to check, or why it could not be read. */
+interface ReadRow {
+  row: number;
+  raw: RawFeature | string;
+}
+
+const PROGRESS_EVERY = 5000;
+
+/**
+ * Imports a file as one source (replacing a source of the same id); a failure leaves the store as it was.
+ * @example await importGazetteer(store, 'towns.csv', { format: 'csv', citation: 'Survey of towns, 2024' })
+ */
+export async function importGazetteer(store: GazetteerStore, filePath: string, options: ImportOptions): Promise<ImportSummary> {
+  const started = process.hrtime.bigint();
+  const sourceId = options.sourceId ?? defaultSourceId(filePath);
+  const admin1Names = options.adminCodesFile === undefined ? new Map<string, string>() : await readAdmin1Names(options.adminCodesFile);
+  const input = createReadStream(filePath);
+  const hash = createHash('sha256');
+  input.on('data', (chunk) => hash.update(chunk));
+  const rows = options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, admin1Names);
+  const session = store.beginImport(sourceId);
+  const rejected: { row: number; reason: string }[] = [];
+  let rowsRead = 0;
+  let imported = 0;
+  try {
+    for await (const { row, raw } of rows) {
+      rowsRead++;
+      const checked = typeof raw === 'string' ? raw : checkFeature(raw, `row-${row}`, options.radii);
+      const reason = typeof checked === 'string' ? checked : session.add(checked);
+      if (reason === null) imported++;
+      else rejected.push({ row, reason });
+      if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
+    }
+    session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format });
+  } catch (error) {
+    session.rollback();
+    input.destroy();
+    throw error;
+  }
+  options.onProgress?.(rowsRead);
+  return { sourceId, rowsRead, imported, rejected, seconds: Number(process.hrtime.bigint() - started) / 1e9 };
+}
+
+/**
+ * The import format a file name suggests, or null.
+ * @example formatFromFileName('world.txt') // 'geonames'
+ */
+export function formatFromFileName(filePath: string): ImportFormat | null {
+  const extension = extname(filePath).toLowerCase();
+  if (extension === '.csv') return 'csv';
+  if (extension === '.geojson' || extension === '.json') return 'geojson';
+  if (extension === '.txt' || extension === '.tsv') return 'geonames';
+  return null;
+}
+
+function defaultSourceId(filePath: string): string {
+  return basename(filePath, extname(filePath)).toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'gazetteer';
+}
+
+async function readAdmin1Names(filePath: string): Promise<Map<string, string>> {
+  const names = new Map<string, string>();
+  for await (const line of createInterface({ input: createReadStream(filePath, 'utf8'), crlfDelay: Infinity })) {
+    const entry = readAdmin1Line(line);
+    if (entry !== null) names.set(entry[0], entry[1]);
+  }
+  return names;
+}
+
+const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
+
+async function* readCsv(input: Readable): AsyncGenerator<ReadRow> {
+  const parser = input.pipe(parse({ bom: true, info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
+  let header: string[] | null = null;
+  for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
+    if (header === null) {
+      header = record.map((column) => column.trim());
+      if (!header.includes('name')) throw new Error(`CSV header has no 'name' column (columns: ${header.join(', ')})`);
+      const unknown = header.filter((column) => !CSV_COLUMNS.includes(column));
+      if (unknown.length > 0) throw new Error(`CSV header has unknown columns: ${unknown.join(', ')} (known: ${CSV_COLUMNS.join(', ')})`);
+      continue;
+    }
+    if (record.length !== header.length) {
+      yield { row: info.lines, raw: `${record.length} columns, the header has ${header.length}` };
+      continue;
+    }
+    const fields: Record<string, string> = {};
+    header.forEach((column, index) => { fields[column] = record[index]; });
+    if (record.some((field) => field.includes('\uFFFD'))) {
+      yield { row: info.lines, raw: 'not valid UTF-8' };
+      continue;
+    }
+    yield {
+      row: info.lines,
+      raw: { ...fields, alternateNames: fields.alternateNames === undefined ? [] : fields.alternateNames.split('|') },
+    };
+  }
+}
+
+async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, string>): AsyncGenerator<ReadRow> {
+  let row = 0;
+  for await (const line of createInterface({ input, crlfDelay: Infinity })) {
+    row++;
+    if (line === '') continue;
+    yield { row, raw: readDumpLine(line, admin1Names) };
+  }
+}
+
+/**
+ * Streams the members of a FeatureCollection's "features" array: a scanner keeps only the feature
+ * being read, so memory stays constant however large the collection.
+ */
+async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow> {
+  input.setEncoding('utf8');
+  let depth = 0;
+  let inString = false;
+  let escaped = false;
+  let topLevelString = '';
+  let awaitingFeatures = false;
+  let featuresDepth = -1;
+  let buffer = '';
+  let count = 0;
+  for await (const chunk of input as AsyncIterable<string>) {
+    let featureStart = buffer === '' ? -1 : 0;
+    for (let i = 0; i < chunk.length; i++) {
+      const c = chunk[i];
+      if (inString) {
+        if (escaped) escaped = false;
+        else if (c === '\\') escaped = true;
+        else if (c === '"') inString = false;
+        else if (featuresDepth === -1 && depth === 1) topLevelString += c;
+        continue;
+      }
+      if (c === '"') {
+        inString = true;
+        topLevelString = '';
+      } else if (c === ':') {
+        awaitingFeatures = featuresDepth === -1 && depth === 1 && topLevelString === 'features';
+      } else if (c === '{' || c === '[') {
+        if (c === '[' && awaitingFeatures) featuresDepth = depth + 1;
+        else if (c === '{' && depth === featuresDepth) featureStart = i;
+        awaitingFeatures = false;
+        depth++;
+      } else if (c === '}' || c === ']') {
+        depth--;
+        if (c === '}' && depth === featuresDepth && featureStart >= 0) {
+          count++;
+          yield { row: count, raw: readGeoJsonFeature(buffer + chunk.slice(featureStart, i + 1)) };
+          buffer = '';
+          featureStart = -1;
+        } else if (c === ']' && depth === featuresDepth - 1) {
+          featuresDepth = -2;
+        }
+      }
+    }
+    if (featureStart >= 0) buffer += chunk.slice(featureStart);
+  }
+  if (featuresDepth === -1) throw new Error('not a GeoJSON FeatureCollection: no "features" array found');
+  if (depth !== 0 || inString) throw new Error('GeoJSON ends before the FeatureCollection is closed');
+}
+
+function readGeoJsonFeature(text: string): RawFeature | string {
+  let feature: GeoJsonFeature;
+  try {
+    feature = JSON.parse(text) as GeoJsonFeature;
+  } catch (error) {
+    return `not valid JSON: ${(error as Error).message}`;
+  }
+  if (feature.type !== 'Feature') return `member of type '${String(feature.type)}', not a Feature`;
+  const properties = (feature.properties ?? {}) as Record<string, unknown>;
+  const alternates = properties.alternateNames;
+  return {
+    ...properties,
+    id: properties.id !== undefined ? String(properties.id) : feature.id !== undefined ? String(feature.id) : undefined,
+    alternateNames: Array.isArray(alternates) ? alternates.map(String) : typeof alternates === 'string' ? alternates.split('|') : [],
+    geometry: feature.geometry,
+  };
+}

@@ -1,0 +1,531 @@
+/**
+ * The gazetteer store: one SQLite file (better-sqlite3, WAL, prepared statements only) holding every
+ * imported source, its features, the folded-name index and the deletion-neighbourhood token index that
+ * fuzzy lookups use instead of scanning (see edit-distance.ts).
+ */
+import Database from 'better-sqlite3';
+import type { Geometry, Polygon, MultiPolygon } from 'geojson';
+import { booleanPointInPolygon } from '@turf/turf';
+import { contextMismatch, resolveContext, type ResolvedContext, type SpatiallyDecided } from './context.ts';
+import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, queryDeletionHashes, storedDeletionHashes } from './edit-distance.ts';
+import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
+import { scoreFuzzy } from './match.ts';
+import type {
+  Candidate, CandidateFinder, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, GeometryType, Source,
+} from './types.ts';
+
+/** Schema version kept in PRAGMA user_version; a file of another version is refused, never guessed at. */
+export const SCHEMA_VERSION = 1;
+
+const SCHEMA = `
+CREATE TABLE sources (
+  id INTEGER PRIMARY KEY, name TEXT NOT NULL UNIQUE, citation TEXT NOT NULL, licence TEXT,
+  imported_at TEXT NOT NULL, content_hash TEXT NOT NULL, format TEXT NOT NULL, feature_count INTEGER NOT NULL
+);
+CREATE TABLE features (
+  id INTEGER PRIMARY KEY, source INTEGER NOT NULL, feature_id TEXT NOT NULL, name TEXT NOT NULL,
+  alternate_names TEXT, feature_type TEXT, country_code TEXT, state_province TEXT, county TEXT,
+  latitude REAL NOT NULL, longitude REAL NOT NULL, radius REAL NOT NULL, radius_default INTEGER NOT NULL,
+  geometry_type INTEGER NOT NULL, geometry TEXT
+);
+CREATE UNIQUE INDEX features_by_source_id ON features (source, feature_id);
+CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
+CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
+CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
+CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+`;
+
+const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
+/** Alternate names are stored joined by the ASCII unit separator, which no name contains. */
+const NAME_SEPARATOR = '\u001f';
+const DEFAULT_LIMIT = 10;
+/** Score of an exact match reached through an abbreviation or a left-out word, below a plain exact match. */
+const READING_SCORE = 0.97;
+/** At most this many postings are read for one fuzzy lookup (rarest query tokens first). */
+const POSTING_BUDGET = 4000;
+/** At most this many features are loaded and scored with fuse.js for one fuzzy lookup. */
+const FUZZY_POOL = 60;
+/** At most this many dropped candidates are reported. */
+const MAX_DROPPED = 50;
+const TOKEN_CACHE_LIMIT = 500_000;
+const IMPORT_CACHE_KIB = 196_608;
+const QUERY_CACHE_KIB = 65_536;
+
+/** A feature as an importer hands it to the store. */
+export interface FeatureRecord {
+  featureId: string;
+  name: string;
+  alternateNames: string[];
+  featureType: string | null;
+  countryCode: string | null;
+  stateProvince: string | null;
+  county: string | null;
+  latitude: number;
+  longitude: number;
+  radiusMeters: number;
+  radiusIsDefault: boolean;
+  geometryType: GeometryType;
+  /** GeoJSON text for lines and polygons, null for points. */
+  geometry: string | null;
+}
+
+/** What a source is recorded with once its import is complete. */
+export interface SourceRecord {
+  citation: string;
+  licence: string | null;
+  contentHash: string;
+  format: string;
+}
+
+/** One import in progress: a single transaction, rolled back unless committed. */
+export interface ImportSession {
+  /** Adds a feature; returns null, or the reason it was refused (a duplicate id, say). */
+  add(record: FeatureRecord): string | null;
+  commit(source: SourceRecord): Source;
+  rollback(): void;
+}
+
+interface FeatureRow {
+  id: number;
+  source_name: string;
+  feature_id: string;
+  name: string;
+  alternate_names: string | null;
+  feature_type: string | null;
+  country_code: string | null;
+  state_province: string | null;
+  county: string | null;
+  latitude: number;
+  longitude: number;
+  radius: number;
+  radius_default: number;
+  geometry_type: number;
+  geometry?: string | null;
+}
+
+interface TokenRow {
+  id: number;
+  token: string;
+  df: number;
+}
+
+interface SourceRow {
+  id: number;
+  name: string;
+  citation: string;
+  licence: string | null;
+  imported_at: string;
+  content_hash: string;
+  feature_count: number;
+}
+
+/** The SQLite gazetteer: CandidateFinder for the core, plus source management. */
+export interface GazetteerStore extends CandidateFinder {
+  lookupCandidates(query: CandidateQuery): CandidateLookup;
+  getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
+  sources(): Source[];
+  /** Removes a source and all its features; returns false when there is no such source. */
+  removeSource(id: string): boolean;
+  /** Starts an import of a source (replacing it if it exists) in one transaction. */
+  beginImport(sourceId: string): ImportSession;
+  close(): void;
+}
+
+/**
+ * Opens (creating when writable and absent) the gazetteer file at `path`.
+ * Throws when the file holds another schema version, or when `readonly` and the file does not exist.
+ * @example const store = openGazetteer('g.sqlite'); store.findCandidates({ name: 'Rosario', context: { countryCode: 'AR' } });
+ */
+export function openGazetteer(path: string, options: { readonly?: boolean } = {}): GazetteerStore {
+  return new SqliteGazetteer(path, options.readonly === true);
+}
+
+class SqliteGazetteer implements GazetteerStore {
+  private readonly db: Database.Database;
+  private readonly statements: ReturnType<typeof prepareStatements>;
+
+  constructor(path: string, readonly: boolean) {
+    this.db = new Database(path, { readonly, fileMustExist: readonly });
+    const version = this.db.pragma('user_version', { simple: true }) as number;
+    if (version === 0 && !readonly) {
+      this.db.pragma('journal_mode = WAL');
+      this.db.exec(`BEGIN; ${SCHEMA} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
+    } else if (version !== SCHEMA_VERSION) {
+      this.db.close();
+      throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads version ${SCHEMA_VERSION}`);
+    }
+    if (!readonly) this.db.pragma('synchronous = NORMAL');
+    this.db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
+    this.statements = prepareStatements(this.db);
+  }
+
+  findCandidates(query: CandidateQuery): Candidate[] {
+    return this.lookupCandidates(query).candidates;
+  }
+
+  lookupCandidates(query: CandidateQuery): CandidateLookup {
+    const notes: string[] = [];
+    const context = this.resolve(query, notes);
+    const dropped: DroppedCandidate[] = [];
+    const constraint = this.spatialConstraint(query, context, notes);
+    const fits = (candidate: Candidate): boolean => {
+      const feature = candidate.feature;
+      if (query.featureTypes !== undefined && (feature.featureType === null || !query.featureTypes.includes(feature.featureType))) return false;
+      if (query.geometryTypes !== undefined && !query.geometryTypes.includes(feature.geometryType)) return false;
+      const reason = contextMismatch(feature, context, constraint.decided) ?? constraint.outside(feature);
+      if (reason !== null) {
+        if (dropped.length < MAX_DROPPED) dropped.push({ candidate, reason });
+        return false;
+      }
+      return true;
+    };
+    const limit = query.limit ?? DEFAULT_LIMIT;
+    const exact = this.exactCandidates(query.name).filter(fits);
+    const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context).filter(fits);
+    const result = candidates.slice(0, limit);
+    if (query.withGeometry) for (const candidate of result) this.attachGeometry(candidate.feature);
+    return { candidates: result, dropped, notes };
+  }
+
+  getFeature(sourceId: string, featureId: string, options: { withGeometry?: boolean } = {}): Feature | null {
+    const row = this.statements.featureBySourceId.get(sourceId, featureId) as FeatureRow | undefined;
+    if (row === undefined) return null;
+    const feature = toFeature(row);
+    if (options.withGeometry) this.attachGeometry(feature);
+    return feature;
+  }
+
+  sources(): Source[] {
+    return (this.statements.allSources.all() as SourceRow[]).map(toSource);
+  }
+
+  removeSource(id: string): boolean {
+    const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
+    if (row === undefined) return false;
+    this.db.transaction(() => {
+      this.deleteSourceRows(row.id);
+      this.refreshTokenCounts();
+    })();
+    return true;
+  }
+
+  beginImport(sourceId: string): ImportSession {
+    const db = this.db;
+    const s = this.statements;
+    db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
+    db.exec('BEGIN');
+    const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
+    if (previous !== undefined) this.deleteSourceRows(previous.id);
+    const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
+    const tokenIds = new Map<string, number>();
+    let count = 0;
+    let open = true;
+    const tokenId = (token: string): number => {
+      const cached = tokenIds.get(token);
+      if (cached !== undefined) return cached;
+      const existing = s.tokenByText.get(token) as TokenRow | undefined;
+      let id: number;
+      if (existing !== undefined) {
+        id = existing.id;
+      } else {
+        id = Number(s.insertToken.run(token).lastInsertRowid);
+        if (token.length >= MIN_FUZZY_TOKEN_LENGTH) for (const hash of storedDeletionHashes(token)) s.insertDeletion.run(hash, id);
+      }
+      if (tokenIds.size >= TOKEN_CACHE_LIMIT) tokenIds.clear();
+      tokenIds.set(token, id);
+      return id;
+    };
+    const finish = () => {
+      open = false;
+      db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
+    };
+    return {
+      add: (record) => {
+        let rowId: number;
+        try {
+          rowId = Number(s.insertFeature.run(
+            sourceRowId, record.featureId, record.name,
+            record.alternateNames.length > 0 ? record.alternateNames.join(NAME_SEPARATOR) : null,
+            record.featureType, record.countryCode, record.stateProvince, record.county,
+            record.latitude, record.longitude, record.radiusMeters, record.radiusIsDefault ? 1 : 0,
+            GEOMETRY_TYPES.indexOf(record.geometryType), record.geometry,
+          ).lastInsertRowid);
+        } catch (error) {
+          if (error instanceof Database.SqliteError && error.code === 'SQLITE_CONSTRAINT_UNIQUE') return `duplicate id '${record.featureId}'`;
+          throw error;
+        }
+        const keys = new Set<string>();
+        for (const written of [record.name, ...record.alternateNames]) for (const variant of nameVariants(written)) keys.add(variant.key);
+        const tokens = new Set<string>();
+        for (const key of keys) {
+          if (key === '') continue;
+          s.insertName.run(key, rowId);
+          for (const token of key.split(' ')) tokens.add(token);
+        }
+        for (const token of tokens) s.insertPosting.run(tokenId(token), rowId);
+        count++;
+        return null;
+      },
+      commit: (source) => {
+        if (!open) throw new Error('import already finished');
+        this.refreshTokenCounts();
+        s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
+        db.exec('COMMIT');
+        finish();
+        return toSource(s.sourceByName.get(sourceId) as SourceRow);
+      },
+      rollback: () => {
+        if (!open) return;
+        if (db.inTransaction) db.exec('ROLLBACK');
+        finish();
+      },
+    };
+  }
+
+  close(): void {
+    this.db.close();
+  }
+
+  private deleteSourceRows(sourceRowId: number): void {
+    const s = this.statements;
+    s.deleteSourcePostings.run(sourceRowId);
+    s.deleteSourceNames.run(sourceRowId);
+    s.deleteSourceFeatures.run(sourceRowId);
+    s.deleteSource.run(sourceRowId);
+  }
+
+  /** Document frequencies drive which query tokens are read first; tokens left with none are removed. */
+  private refreshTokenCounts(): void {
+    this.db.exec(`
+      UPDATE tokens SET df = (SELECT count(*) FROM postings p WHERE p.token = tokens.id);
+      DELETE FROM deletions WHERE token IN (SELECT id FROM tokens WHERE df = 0);
+      DELETE FROM tokens WHERE df = 0;`);
+  }
+
+  private resolve(query: CandidateQuery, notes: string[]): ResolvedContext {
+    const country = query.context.country;
+    const gazetteerCodes: string[] = [];
+    if (country !== undefined && country.trim() !== '') {
+      for (const id of this.featureIdsByKey(foldName(country))) {
+        const feature = this.loadFeature(id);
+        if (feature?.featureType === 'country' && feature.countryCode !== null) gazetteerCodes.push(feature.countryCode);
+      }
+    }
+    const context = resolveContext(query.context, gazetteerCodes);
+    if (context.unresolvedCountry !== undefined) notes.push(`country '${context.unresolvedCountry}' not recognised: not used to filter`);
+    return context;
+  }
+
+  /**
+   * Polygons of the stated county and state in the gazetteer: candidates whose center lies outside
+   * every polygon of that unit are dropped, and that level's name no longer filters.
+   */
+  private spatialConstraint(query: CandidateQuery, context: ResolvedContext, notes: string[]): {
+    decided: SpatiallyDecided; outside: (feature: Feature) => string | null;
+  } {
+    const levels: { level: 'county' | 'stateProvince'; written: string | undefined }[] = [
+      { level: 'county', written: query.context.county },
+      { level: 'stateProvince', written: query.context.stateProvince },
+    ];
+    const tests: { level: string; units: Feature[] }[] = [];
+    const decided: SpatiallyDecided = {};
+    for (const { level, written } of levels) {
+      if (written === undefined || written.trim() === '' || query.featureTypes?.includes(level)) continue;
+      const units = this.exactCandidates(written)
+        .map((candidate) => candidate.feature)
+        .filter((feature) => feature.featureType === level
+          && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
+          && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode)));
+      if (units.length === 0) continue;
+      for (const unit of units) this.attachGeometry(unit);
+      decided[level] = true;
+      tests.push({ level, units });
+      notes.push(`${level === 'county' ? 'county' : 'state/province'} '${written}' checked against its polygon (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`);
+    }
+    return {
+      decided,
+      outside: (feature) => {
+        for (const { level, units } of tests) {
+          if (units.some((unit) => unit.sourceId === feature.sourceId && unit.featureId === feature.featureId)) continue;
+          const inside = units.some((unit) => booleanPointInPolygon([feature.longitude, feature.latitude], unit.geometry as Polygon | MultiPolygon));
+          if (!inside) {
+            return `center outside the polygon of ${level === 'county' ? 'county' : 'state/province'} '${units[0].name}' (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`;
+          }
+        }
+        return null;
+      },
+    };
+  }
+
+  /** Features whose folded name, alternate name or one of their readings equals a reading of `name`. */
+  private exactCandidates(name: string): Candidate[] {
+    const found = new Map<number, Candidate>();
+    for (const variant of nameVariants(name)) {
+      for (const id of this.featureIdsByKey(variant.key)) {
+        if (found.has(id)) continue;
+        const feature = this.loadFeature(id);
+        if (feature === null) continue;
+        const stored = storedReading(feature, variant.key);
+        const which = stored.written === feature.name ? 'name' : `alternate name '${stored.written}'`;
+        const changes = [variant.change && `${variant.change} in the query`, stored.change && `${stored.change} in the gazetteer`].filter(Boolean);
+        found.set(id, {
+          feature,
+          score: changes.length === 0 ? 1 : READING_SCORE,
+          matchedName: stored.written,
+          why: changes.length === 0 ? `exact ${which}` : `exact ${which} with ${changes.join('; ')}`,
+        });
+      }
+    }
+    return [...found.values()].sort((a, b) => b.score - a.score);
+  }
+
+  /** Fuzzy lookup through the token index: rarest query tokens first, within a fixed posting budget. */
+  private fuzzyCandidates(name: string, context: ResolvedContext): Candidate[] {
+    const folded = foldName(name);
+    const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
+    if (queryTokens.length === 0) return [];
+    const matches = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1));
+    const order = matches
+      .map((tokens, index) => ({ index, tokens, df: tokens.reduce((sum, t) => sum + t.df, 0) }))
+      .filter((entry) => entry.tokens.length > 0)
+      .sort((a, b) => a.df - b.df);
+    const countries = context.countryCodes.size > 0 ? JSON.stringify([...context.countryCodes]) : null;
+    const pool = new Map<number, { matched: number; edits: number }>();
+    let budget = POSTING_BUDGET;
+    for (const { index, tokens } of order) {
+      if (budget <= 0) break;
+      const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
+      const edits = new Map(tokens.map((t) => [t.id, t.edits]));
+      const ids = JSON.stringify(tokens.map((t) => t.id));
+      const rows = (countries === null
+        ? this.statements.postings.all(ids, budget)
+        : this.statements.postingsInCountries.all(ids, countries, budget)) as { feature: number; token: number }[];
+      budget -= rows.length;
+      const best = new Map<number, number>();
+      for (const row of rows) best.set(row.feature, Math.min(best.get(row.feature) ?? Infinity, edits.get(row.token) ?? 0));
+      for (const [feature, tokenEdits] of best) {
+        const entry = pool.get(feature) ?? { matched: 0, edits: 0 };
+        entry.matched += optional ? 0.5 : 1;
+        entry.edits += tokenEdits;
+        pool.set(feature, entry);
+      }
+    }
+    const features = [...pool.entries()]
+      .sort((a, b) => b[1].matched - a[1].matched || a[1].edits - b[1].edits)
+      .slice(0, FUZZY_POOL)
+      .map(([id]) => this.loadFeature(id))
+      .filter((feature): feature is Feature => feature !== null);
+    return scoreFuzzy(folded, features);
+  }
+
+  /** Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands for. */
+  private matchingTokens(token: string, severalTokens: boolean): { id: number; edits: number; df: number }[] {
+    const found = new Map<number, { id: number; edits: number; df: number }>();
+    if (token.length >= MIN_FUZZY_TOKEN_LENGTH) {
+      const limit = maxTokenEdits(token);
+      for (const row of this.statements.tokensByDeletion.all(JSON.stringify(queryDeletionHashes(token))) as TokenRow[]) {
+        const edits = editDistance(token, row.token);
+        if (edits <= limit) found.set(row.id, { id: row.id, edits, df: row.df });
+      }
+    }
+    const exactWords = [token, ...(severalTokens ? ABBREVIATIONS[token] ?? [] : []).flatMap((words) => words.split(' '))];
+    for (const word of exactWords) {
+      const row = this.statements.tokenByText.get(word) as TokenRow | undefined;
+      if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
+    }
+    return [...found.values()];
+  }
+
+  private featureIdsByKey(key: string): number[] {
+    return (this.statements.featuresByKey.all(key) as { feature: number }[]).map((row) => row.feature);
+  }
+
+  private loadFeature(id: number): Feature | null {
+    const row = this.statements.featureById.get(id) as FeatureRow | undefined;
+    return row === undefined ? null : toFeature(row);
+  }
+
+  private attachGeometry(feature: Feature): void {
+    if (feature.geometryType === 'Point' || feature.geometry !== undefined) return;
+    const row = this.statements.geometryBySourceId.get(feature.sourceId, feature.featureId) as { geometry: string | null } | undefined;
+    if (row?.geometry) feature.geometry = JSON.parse(row.geometry) as Geometry;
+  }
+}
+
+/** The name of a feature whose folded form, or one of whose readings, is `key` (with that reading). */
+function storedReading(feature: Feature, key: string): { written: string; change?: string } {
+  const names = [feature.name, ...feature.alternateNames];
+  for (const written of names) if (foldName(written) === key) return { written };
+  for (const written of names) {
+    const variant = nameVariants(written).find((v) => v.key === key);
+    if (variant !== undefined) return { written, change: variant.change };
+  }
+  return { written: feature.name };
+}
+
+const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
+  f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type`;
+
+/** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
+function prepareStatements(db: Database.Database) {
+  return {
+    insertSource: db.prepare(`INSERT INTO sources (name, citation, licence, imported_at, content_hash, format, feature_count)
+      VALUES (?, '', NULL, ?, '', '', 0)`),
+    completeSource: db.prepare('UPDATE sources SET citation = ?, licence = ?, content_hash = ?, format = ?, feature_count = ? WHERE id = ?'),
+    deleteSource: db.prepare('DELETE FROM sources WHERE id = ?'),
+    deleteSourceFeatures: db.prepare('DELETE FROM features WHERE source = ?'),
+    deleteSourceNames: db.prepare('DELETE FROM names WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
+    deleteSourcePostings: db.prepare('DELETE FROM postings WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
+    insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
+      state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry)
+      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+    insertName: db.prepare('INSERT OR IGNORE INTO names (key, feature) VALUES (?, ?)'),
+    insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
+    insertPosting: db.prepare('INSERT OR IGNORE INTO postings (token, feature) VALUES (?, ?)'),
+    insertDeletion: db.prepare('INSERT OR IGNORE INTO deletions (hash, token) VALUES (?, ?)'),
+    allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
+    sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
+    featureById: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source WHERE f.id = ?`),
+    featureBySourceId: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
+      WHERE s.name = ? AND f.feature_id = ?`),
+    geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
+      WHERE s.name = ? AND f.feature_id = ?`),
+    featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
+    tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
+    tokensByDeletion: db.prepare(`SELECT DISTINCT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
+      WHERE d.hash IN (SELECT value FROM json_each(?))`),
+    postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
+    postingsInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
+      WHERE p.token IN (SELECT value FROM json_each(?1))
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?2))) LIMIT ?3`),
+  };
+}
+
+function toFeature(row: FeatureRow): Feature {
+  return {
+    sourceId: row.source_name,
+    featureId: row.feature_id,
+    name: row.name,
+    alternateNames: row.alternate_names === null ? [] : row.alternate_names.split(NAME_SEPARATOR),
+    featureType: row.feature_type,
+    countryCode: row.country_code,
+    stateProvince: row.state_province,
+    county: row.county,
+    latitude: row.latitude,
+    longitude: row.longitude,
+    radiusMeters: row.radius,
+    radiusIsDefault: row.radius_default === 1,
+    geometryType: GEOMETRY_TYPES[row.geometry_type],
+  };
+}
+
+function toSource(row: SourceRow): Source {
+  return {
+    id: row.name,
+    citation: row.citation,
+    licence: row.licence,
+    importedAt: row.imported_at,
+    contentHash: row.content_hash,
+    featureCount: row.feature_count,
+  };
+}
