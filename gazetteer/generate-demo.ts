@@ -42,6 +42,8 @@ function seededRandom(seed: number): () => number {
   };
 }
 const random = seededRandom(20261201);
+// Rivers and roads draw from their own stream, so adding a place never moves a line (or a bridge).
+const lineRandom = seededRandom(7461);
 
 // ---------------------------------------------------------------------------------------------- coastline
 const BAY_ANGLE = (135 * Math.PI) / 180;
@@ -132,7 +134,7 @@ function signedArea(ring: Ring): number {
 }
 
 /** Control points joined by segments of about `step` km whose inner vertices wander sideways by up to `jitter` km. */
-function wanderingLine(controls: Pt[], step: number, jitter: number): Pt[] {
+function wanderingLine(controls: Pt[], step: number, jitter: number, rng = random): Pt[] {
   const line: Pt[] = [controls[0]!];
   for (let c = 1; c < controls.length; c++) {
     const a = controls[c - 1]!;
@@ -142,7 +144,7 @@ function wanderingLine(controls: Pt[], step: number, jitter: number): Pt[] {
     const ny = (b[0] - a[0]) / distance(a, b);
     for (let i = 1; i < n; i++) {
       const f = i / n;
-      const off = (random() * 2 - 1) * jitter;
+      const off = (rng() * 2 - 1) * jitter;
       line.push([round3(a[0] + f * (b[0] - a[0]) + off * nx), round3(a[1] + f * (b[1] - a[1]) + off * ny)]);
     }
     line.push(b);
@@ -398,6 +400,31 @@ const places: PlaceSpec[] = [
   { name: 'Playa Larga', featureType: 'beach', county: 'Marisma', placement: c(210, 0.4) },
   { name: 'Praia Branca', featureType: 'beach', county: 'Rio Fundo', placement: c(258, 0.4) },
   { name: 'Plage des Dunes', featureType: 'beach', county: 'Val-Marin', placement: c(312, 0.4) },
+  // More settlements, listed last so that adding them did not move the places above.
+  { name: 'San Bernardo del Monte', featureType: 'village', county: 'Alisos', placement: anywhere, alternateNames: ['S. Bernardo del Monte'] },
+  { name: 'La Quebrada', featureType: 'hamlet', county: 'Alisos', placement: anywhere },
+  { name: 'Villa Clara del Norte', featureType: 'village', county: 'Alisos', placement: anywhere },
+  { name: 'Las Acacias', featureType: 'village', county: 'Valle Hondo', placement: anywhere },
+  { name: 'Paso Ancho', featureType: 'hamlet', county: 'Valle Hondo', placement: anywhere },
+  { name: 'Los Sauces', featureType: 'village', county: 'Valle Hondo', placement: anywhere, radiusMeters: 700 },
+  { name: 'Las Dunas', featureType: 'village', county: 'Marisma', placement: anywhere },
+  { name: 'Bañado Grande', featureType: 'hamlet', county: 'Marisma', placement: anywhere, alternateNames: ['Banado Grande'] },
+  { name: 'Serrinha do Norte', featureType: 'village', county: 'Pedra Branca', placement: anywhere },
+  { name: 'Águas Claras', featureType: 'village', county: 'Pedra Branca', placement: anywhere, alternateNames: ['Aguas Claras'] },
+  { name: 'Boa Esperança', featureType: 'hamlet', county: 'Pedra Branca', placement: anywhere, alternateNames: ['Boa Esperanca'] },
+  { name: 'Santa Luzia do Sul', featureType: 'village', county: 'Rio Fundo', placement: anywhere, alternateNames: ['Sta. Luzia do Sul'] },
+  { name: 'Pinhal', featureType: 'hamlet', county: 'Rio Fundo', placement: anywhere },
+  { name: 'Cruzeiro Velho', featureType: 'village', county: 'Rio Fundo', placement: anywhere, alternateNames: ['Cruzeiro'] },
+  { name: 'La Vallée-aux-Loups', featureType: 'village', county: 'Beaulieu', placement: anywhere, alternateNames: ['La Vallee aux Loups'] },
+  { name: 'Sainte-Brigitte', featureType: 'village', county: 'Beaulieu', placement: anywhere, alternateNames: ['Ste-Brigitte'] },
+  { name: 'Les Hauts-Prés', featureType: 'hamlet', county: 'Beaulieu', placement: anywhere, alternateNames: ['Les Hauts Pres'] },
+  { name: 'Port-Sablon', featureType: 'village', county: 'Val-Marin', placement: anywhere },
+  { name: 'Saint-Cyrille', featureType: 'village', county: 'Val-Marin', placement: anywhere, alternateNames: ['St-Cyrille'] },
+  { name: 'La Garenne', featureType: 'hamlet', county: 'Val-Marin', placement: anywhere },
+  { name: 'Little Ashcombe', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
+  { name: 'Stonebridge', featureType: 'village', county: 'Ashcombe', placement: anywhere },
+  { name: 'Elmstead', featureType: 'village', county: 'Ashcombe', placement: anywhere, radiusMeters: 900 },
+  { name: 'Foxley Green', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
 ];
 
 const roadsideRoom = 2.5; // km kept between scattered settlements
@@ -435,22 +462,22 @@ const placeAt = (name: string, county?: string): Pt => {
 };
 
 // --------------------------------------------------------------------------------------- rivers and roads
-const rioClaro = wanderingLine([[-30, 22], [-34, 8], [-38, -10], [-40, -30], coastPoint(236, 0.3)], 1.5, 0.4);
-const arroyoNegro = wanderingLine([[-62, 8], [-52, -4], nearestVertex(rioClaro, [-38, -10])], 1.5, 0.4);
-const rioFundo = wanderingLine([[-4, 28], [2, 10], [6, -14], [2, -32], coastPoint(262, 0.3)], 1.5, 0.4);
-const ribeiraoDasPedras = wanderingLine([[14, 12], [10, 0], nearestVertex(rioFundo, [5, -8])], 1.5, 0.4);
-const riviereBlanche = wanderingLine([[30, 14], [42, 6], [55, -3], coastPoint(-5, 0.3)], 1.5, 0.4);
-const ruisseauDesSaules = wanderingLine([[52, 16.6], [56, 8], nearestVertex(riviereBlanche, [55, -3])], 1.5, 0.3);
-const millBrook = wanderingLine([[68, -3], [63.5, -13], [66, -24], coastPoint(-38, 0.3)], 1.5, 0.3);
+const rioClaro = wanderingLine([[-30, 22], [-34, 8], [-38, -10], [-40, -30], coastPoint(236, 0.3)], 1.5, 0.4, lineRandom);
+const arroyoNegro = wanderingLine([[-62, 8], [-52, -4], nearestVertex(rioClaro, [-38, -10])], 1.5, 0.4, lineRandom);
+const rioFundo = wanderingLine([[-4, 28], [2, 10], [6, -14], [2, -32], coastPoint(262, 0.3)], 1.5, 0.4, lineRandom);
+const ribeiraoDasPedras = wanderingLine([[14, 12], [10, 0], nearestVertex(rioFundo, [5, -8])], 1.5, 0.4, lineRandom);
+const riviereBlanche = wanderingLine([[30, 14], [42, 6], [55, -3], coastPoint(-5, 0.3)], 1.5, 0.4, lineRandom);
+const ruisseauDesSaules = wanderingLine([[52, 16.6], [56, 8], nearestVertex(riviereBlanche, [55, -3])], 1.5, 0.3, lineRandom);
+const millBrook = wanderingLine([[68, -3], [63.5, -13], [66, -24], coastPoint(-38, 0.3)], 1.5, 0.3, lineRandom);
 
-const ruta12 = wanderingLine([placeAt('Puerto Lindo'), [-44, 22], placeAt('Villa Alisos'), [-36, 0], placeAt('Valle Hondo'), placeAt('San Telmo', 'Valle Hondo'), [-36, -40], placeAt('Salinas del Sur')], 2, 0.3);
-const ruta1West = wanderingLine([placeAt('Villa Alisos'), [-24, 16], [-12, 19], placeAt('Vila Serena')], 2, 0.3);
-const ruta1East = wanderingLine([placeAt('Vila Serena'), [14, 20], [28, 22], placeAt('Saint-Aubrac'), [54, 2], placeAt('Millbrook')], 2, 0.3);
-const routeDeLaCote = wanderingLine([placeAt('Saint-Aubrac'), [36, 4], placeAt('Val-Marin'), placeAt('Sainte-Odile-des-Dunes')], 2, 0.3);
-const estradaDoSul = wanderingLine([placeAt('San Telmo', 'Valle Hondo'), placeAt('San Telmo', 'Rio Fundo'), placeAt('Rio Fundo'), [20, -16], placeAt('Val-Marin')], 2, 0.3);
-const trilhaDoPico = wanderingLine([placeAt('Vila Serena'), [-4, 26], placeAt('Paso de los Vientos'), placeAt('Pico do Vento')], 1, 0.2);
-const sentierDesCretesA = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Saint-Aubrac')], 1, 0.2);
-const sentierDesCretesB = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Port-Joie')], 1, 0.2);
+const ruta12 = wanderingLine([placeAt('Puerto Lindo'), [-44, 22], placeAt('Villa Alisos'), [-36, 0], placeAt('Valle Hondo'), placeAt('San Telmo', 'Valle Hondo'), [-36, -40], placeAt('Salinas del Sur')], 2, 0.3, lineRandom);
+const ruta1West = wanderingLine([placeAt('Villa Alisos'), [-24, 16], [-12, 19], placeAt('Vila Serena')], 2, 0.3, lineRandom);
+const ruta1East = wanderingLine([placeAt('Vila Serena'), [14, 20], [28, 22], placeAt('Saint-Aubrac'), [54, 2], placeAt('Millbrook')], 2, 0.3, lineRandom);
+const routeDeLaCote = wanderingLine([placeAt('Saint-Aubrac'), [36, 4], placeAt('Val-Marin'), placeAt('Sainte-Odile-des-Dunes')], 2, 0.3, lineRandom);
+const estradaDoSul = wanderingLine([placeAt('San Telmo', 'Valle Hondo'), placeAt('San Telmo', 'Rio Fundo'), placeAt('Rio Fundo'), [20, -16], placeAt('Val-Marin')], 2, 0.3, lineRandom);
+const trilhaDoPico = wanderingLine([placeAt('Vila Serena'), [-4, 26], placeAt('Paso de los Vientos'), placeAt('Pico do Vento')], 1, 0.2, lineRandom);
+const sentierDesCretesA = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Saint-Aubrac')], 1, 0.2, lineRandom);
+const sentierDesCretesB = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Port-Joie')], 1, 0.2, lineRandom);
 
 // The hamlet on Ruta 12 twelve kilometres from Puerto Lindo ("12 km by road from Puerto Lindo on Ruta 12").
 placed.set(places.find((p) => p.name === 'El Mirador')!, pointAlong(ruta12, 12));
@@ -582,3 +609,132 @@ const csvRows = features
     return [p.id, p.name, p.alternateNames ?? '', lat, lon, p.featureType, p.countryCode, p.stateProvince ?? '', p.county ?? '', p.radiusMeters ?? ''];
   });
 writeFileSync(join(OUT_DIR, 'demo-places.csv'), stringify(csvRows, { header: true, columns: CSV_COLUMNS }));
+
+// --------------------------------------------------------------------------------- demo batch of localities
+/** Where a named point feature lies, [latitude, longitude]; `county` picks between places sharing a name. */
+function latLonOf(name: string, county?: string): [number, number] {
+  const f = features.find((x) => x.properties!.name === name && x.geometry.type === 'Point' && (!county || x.properties!.county === county));
+  if (!f) throw new Error(`no point feature ${name}`);
+  const [lon, lat] = (f.geometry as { coordinates: Position }).coordinates as [number, number];
+  return [lat, lon];
+}
+
+/** Degrees, minutes and whole seconds with a hemisphere letter, as a label would write them. */
+function dms(value: number, positive: string, negative: string): string {
+  const abs = Math.abs(value);
+  const totalSeconds = Math.round(abs * 3600);
+  const d = Math.floor(totalSeconds / 3600);
+  const m = Math.floor((totalSeconds % 3600) / 60);
+  const s = totalSeconds % 60;
+  return `${d}°${String(m).padStart(2, '0')}'${String(s).padStart(2, '0')}"${value >= 0 ? positive : negative}`;
+}
+/** Whole degrees and minutes with a hemisphere letter ("45°16'S"). */
+function degreesMinutes(value: number, positive: string, negative: string): string {
+  const totalMinutes = Math.round(Math.abs(value) * 60);
+  return `${Math.floor(totalMinutes / 60)}°${String(totalMinutes % 60).padStart(2, '0')}'${value >= 0 ? positive : negative}`;
+}
+const dmsPair = ([lat, lon]: [number, number]): string => `${dms(lat, 'N', 'S')} ${dms(lon, 'E', 'W')}`;
+const decimalPair = ([lat, lon]: [number, number], decimals: number): string => `${Math.abs(lat).toFixed(decimals)} S, ${Math.abs(lon).toFixed(decimals)} W`;
+
+interface LocalitySpec {
+  locality: string;
+  /** What kind of locality text this is, for people reading the demo. */
+  form: string;
+  /** Names the text refers to that the demo gazetteer holds (as name or alternate name). */
+  places: string[];
+  /** Names the text uses that the gazetteer deliberately lacks (absent places, misspellings). */
+  absent?: string[];
+  countryCode?: string;
+  country?: string;
+  stateProvince?: string;
+  county?: string;
+  decimalLatitude?: number;
+  decimalLongitude?: number;
+  geodeticDatum?: string;
+  verbatimCoordinates?: string;
+  note?: string;
+}
+
+const QV = { countryCode: COUNTRY_CODE, country: COUNTRY_NAME };
+const marismaTown = latLonOf('Marisma');
+const valMarinTown = latLonOf('Val-Marin');
+const rioFundoTown = latLonOf('Rio Fundo', 'Rio Fundo');
+const porto = latLonOf('Porto Novo');
+const pico = latLonOf('Pico do Vento');
+const lagoaSeca = latLonOf('Lagoa Seca');
+const pedra = latLonOf('Pedra Branca', 'Pedra Branca');
+const localities: LocalitySpec[] = [
+  { locality: 'Puerto Lindo', form: 'named place', places: ['Puerto Lindo'], ...QV, stateProvince: 'Poniente' },
+  { locality: 'Vila Serena', form: 'named place', places: ['Vila Serena'], ...QV },
+  { locality: '10 km NE of Vila Serena', form: 'distance and heading', places: ['Vila Serena'], ...QV, stateProvince: 'Serra Alta' },
+  { locality: 'Millbrook, 5 km S', form: 'distance and heading, place first', places: ['Millbrook'], ...QV },
+  { locality: '3 km N and 2 km E of Valle Hondo', form: 'two orthogonal offsets', places: ['Valle Hondo'], ...QV, stateProvince: 'Poniente', county: 'Valle Hondo' },
+  { locality: '5 km from Saint-Aubrac', form: 'distance only', places: ['Saint-Aubrac'], ...QV },
+  { locality: '12 km by road from Puerto Lindo on Ruta 12', form: 'path offset', places: ['Puerto Lindo', 'Ruta 12'], ...QV, note: 'El Mirador lies 12 km along Ruta 12 from Puerto Lindo' },
+  { locality: 'between Val-Marin and Millbrook', form: 'between two places', places: ['Val-Marin', 'Millbrook'], ...QV },
+  { locality: 'near Fairhaven', form: 'near', places: ['Fairhaven'], ...QV },
+  { locality: 'junction of Río Claro and Arroyo Negro', form: 'junction of two lines', places: ['Río Claro', 'Arroyo Negro'], ...QV },
+  { locality: 'confluence of Rio Fundo and Ribeirão das Pedras', form: 'junction of two lines', places: ['Rio Fundo', 'Ribeirão das Pedras'], ...QV, stateProvince: 'Serra Alta' },
+  { locality: '8 km al S de Puerto Lindo, camino a Villa Alisos', form: 'distance and heading (Spanish)', places: ['Puerto Lindo', 'Villa Alisos'], ...QV },
+  { locality: '3 km ao N de Vila Serena', form: 'distance and heading (Portuguese)', places: ['Vila Serena'], ...QV },
+  { locality: 'à 5 km au sud-ouest de Saint-Aubrac', form: 'distance and heading (French)', places: ['Saint-Aubrac'], ...QV },
+  { locality: '2 km al sur de Pto. Lindo', form: 'distance and heading (Spanish), abbreviated name', places: ['Pto. Lindo'], ...QV },
+  { locality: 'San Telmo', form: 'ambiguous: two places of this name in different provinces', places: ['San Telmo'], ...QV },
+  { locality: 'San Telmo', form: 'named place narrowed by province', places: ['San Telmo'], ...QV, stateProvince: 'Serra Alta' },
+  { locality: 'Santa Rosa', form: 'ambiguous: two places of this name in different provinces', places: ['Santa Rosa'], countryCode: COUNTRY_CODE },
+  { locality: 'Bellevue, 2 km W', form: 'ambiguous offset: Bellevue in Serra Alta and in Côte-du-Levant', places: ['Bellevue'], ...QV },
+  { locality: 'Los Pinos', form: 'named place narrowed by county (two Los Pinos in Poniente)', places: ['Los Pinos'], ...QV, stateProvince: 'Poniente', county: 'Marisma' },
+  { locality: 'Rio Fundo', form: 'ambiguous by type: a town, a river and a county share the name', places: ['Rio Fundo'], ...QV, stateProvince: 'Serra Alta' },
+  { locality: 'Kingsfery', form: 'misspelt name (one letter missing from Kingsferry)', places: ['Kingsferry'], absent: ['Kingsfery'], ...QV },
+  { locality: 'Villa Quimera', form: 'name absent from the gazetteer', places: [], absent: ['Villa Quimera'], ...QV },
+  { locality: 'locality unknown', form: 'names no place', places: [], ...QV },
+  { locality: 'sin localidad', form: 'names no place (Spanish)', places: [], ...QV, stateProvince: 'Poniente' },
+  { locality: '', form: 'empty locality', places: [], ...QV },
+  { locality: 'Puerto Lindo', form: 'named place (duplicate of an earlier row)', places: ['Puerto Lindo'], ...QV, stateProvince: 'Poniente' },
+  { locality: 'Millbrook, 5 km S', form: 'distance and heading, place first (duplicate)', places: ['Millbrook'], ...QV },
+  { locality: 'Millbrook, 5 km S', form: 'distance and heading, place first (duplicate)', places: ['Millbrook'], ...QV },
+  { locality: `Pedra Branca, ${decimalPair(pedra, 4)}`, form: 'decimal coordinates in the text, no datum', places: ['Pedra Branca'], ...QV },
+  { locality: `Track above Porto Novo, ${dmsPair(porto)} (WGS84)`, form: 'degrees-minutes-seconds in the text with datum', places: ['Porto Novo'], ...QV },
+  { locality: `Ridge below Pico do Vento, ${degreesMinutes(pico[0] - 0.01, 'N', 'S')} ${degreesMinutes(pico[1], 'E', 'W')}`, form: 'degrees and minutes in the text, no datum', places: ['Pico do Vento'], ...QV },
+  { locality: 'Lagoa Seca, margem da estrada', form: 'named place with coordinates in verbatimCoordinates and a datum', places: ['Lagoa Seca'], ...QV, verbatimCoordinates: dmsPair(lagoaSeca), geodeticDatum: 'WGS84' },
+  { locality: 'Campo Alegre', form: 'named place with decimal verbatimCoordinates and no datum', places: ['Campo Alegre'], ...QV, verbatimCoordinates: `${latLonOf('Campo Alegre')[0].toFixed(3)}, ${latLonOf('Campo Alegre')[1].toFixed(3)}` },
+  { locality: 'Marisma', form: 'existing coordinates, correct', places: ['Marisma'], ...QV, decimalLatitude: marismaTown[0], decimalLongitude: marismaTown[1], geodeticDatum: 'WGS84' },
+  { locality: 'Val-Marin', form: 'existing coordinates with the longitude sign inverted', places: ['Val-Marin'], ...QV, decimalLatitude: valMarinTown[0], decimalLongitude: -valMarinTown[1], geodeticDatum: 'WGS84' },
+  { locality: 'Rio Fundo, town square', form: 'existing coordinates with latitude and longitude swapped', places: ['Rio Fundo'], ...QV, decimalLatitude: rioFundoTown[1], decimalLongitude: rioFundoTown[0] },
+  { locality: 'Saint-Aubrac, harbour', form: 'existing coordinates 0, 0', places: ['Saint-Aubrac'], ...QV, decimalLatitude: 0, decimalLongitude: 0 },
+  { locality: 'Playa Larga', form: 'named place (beach)', places: ['Playa Larga'], ...QV },
+  { locality: 'Cabo Tormento, cliffs', form: 'named place (cape)', places: ['Cabo Tormento'], ...QV },
+  { locality: 'Isla Gaviota', form: 'named place (offshore islet, a polygon)', places: ['Isla Gaviota'], ...QV },
+  { locality: 'Monte Verdemar, summit area', form: 'named place (mountain)', places: ['Monte Verdemar'], ...QV },
+  { locality: 'Paso de los Vientos', form: 'named place (pass)', places: ['Paso de los Vientos'], ...QV },
+  { locality: 'Laguna Azul, shore', form: 'named place (lake, a polygon)', places: ['Laguna Azul'], ...QV, stateProvince: 'Poniente' },
+  { locality: 'Bahía Linda', form: 'named place (bay, a polygon in the sea)', places: ['Bahía Linda'], ...QV },
+  { locality: 'Cachoeira do Véu', form: 'named place (waterfall)', places: ['Cachoeira do Véu'], ...QV },
+  { locality: 'Puente Río Claro, Ruta 12', form: 'named place (bridge) with its road', places: ['Puente Río Claro', 'Ruta 12'], ...QV },
+  { locality: '6 mi. W of Millbrook', form: 'distance and heading in miles', places: ['Millbrook'], ...QV },
+  { locality: 'Sao Jorge', form: 'named place written without its accent', places: ['Sao Jorge'], ...QV },
+  { locality: 'St-Aubrac, 4 km N', form: 'distance and heading, abbreviated name', places: ['St-Aubrac'], ...QV },
+  { locality: 'Estancia San Isidro, 1.5 km E', form: 'distance and heading with a decimal distance', places: ['Estancia San Isidro'], ...QV },
+  { locality: 'Route de la Côte, 3 km N of Val-Marin', form: 'distance and heading with a road named', places: ['Route de la Côte', 'Val-Marin'], ...QV },
+  { locality: 'Lac des Saules, Beaulieu', form: 'named place with its county in the text', places: ['Lac des Saules', 'Beaulieu'], ...QV },
+];
+
+const TAXA = ['Verdemaria lindoensis', 'Serenella alticola', 'Aubracia marina', 'Millbrookia minor', 'Telmoa ambigua', 'Nebulosa verdemarensis', 'Gaviotella insularis', 'Quimeria fundensis'];
+const BATCH_COLUMNS = ['occurrenceID', 'catalogNumber', 'scientificName', 'locality', 'countryCode', 'country', 'stateProvince', 'county', 'decimalLatitude', 'decimalLongitude', 'geodeticDatum', 'verbatimCoordinates'];
+const batchRows = localities.map((l, i) => ({
+  occurrenceID: `qvh-occ-${String(i + 1).padStart(4, '0')}`,
+  catalogNumber: `QVH ${String(10421 + i * 7)}`,
+  scientificName: TAXA[i % TAXA.length]!,
+  locality: l.locality,
+  countryCode: l.countryCode ?? '',
+  country: l.country ?? '',
+  stateProvince: l.stateProvince ?? '',
+  county: l.county ?? '',
+  decimalLatitude: l.decimalLatitude ?? '',
+  decimalLongitude: l.decimalLongitude ?? '',
+  geodeticDatum: l.geodeticDatum ?? '',
+  verbatimCoordinates: l.verbatimCoordinates ?? '',
+}));
+writeFileSync(join(OUT_DIR, 'demo-localities.csv'), stringify(batchRows, { header: true, columns: BATCH_COLUMNS }));
+const intent = localities.map((l, i) => ({ occurrenceID: batchRows[i]!.occurrenceID, locality: l.locality, form: l.form, places: l.places, absent: l.absent ?? [], ...(l.note ? { note: l.note } : {}) }));
+writeFileSync(join(OUT_DIR, 'demo-localities.intent.json'), JSON.stringify(intent, null, 1) + '\n');
