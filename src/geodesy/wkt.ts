@@ -1,0 +1,68 @@
+/** Polygons written as WKT in EPSG:4326 (lon lat order), split at the antimeridian. */
+import type { Position } from 'geojson';
+
+/**
+ * WKT of polygons whose longitudes may run past ±180 (rings unwrapped around a center): each polygon is
+ * cut into the longitude bands [−180, 180] + 360k and shifted back, so every written longitude lies in
+ * [−180, 180] (RFC 7946 §3.1.9 advises the same cut for GeoJSON). Cuts interpolate linearly in lon/lat,
+ * exact for the straight lon/lat edges WKT stands for. Coordinates to 7 decimals (about 1 cm).
+ * One part gives POLYGON, several MULTIPOLYGON; rings are written as given (orientation is kept).
+ * @example polygonsToWKT([[[[179, 0], [181, 0], [181, 1], [179, 0]]]]) // 'MULTIPOLYGON(((179 0,180 0,180 0.5,179 0)),((-180 0,…)))'
+ */
+export function polygonsToWKT(polygons: Position[][][]): string {
+  const parts: Position[][][] = [];
+  for (const rings of polygons) {
+    const longitudes = rings.flat().map((p) => p[0]!);
+    const lowBand = Math.round(Math.min(...longitudes) / 360);
+    const highBand = Math.round(Math.max(...longitudes) / 360);
+    for (let band = lowBand; band <= highBand; band++) {
+      const west = 360 * band - 180;
+      const east = 360 * band + 180;
+      const clipped = rings.map((ring) => clipRingToBand(ring, west, east).map(([lon, lat]) => [lon! - 360 * band, lat!]));
+      // A hole can only survive where its outer ring does.
+      if (clipped[0]!.length >= 4 && Math.abs(shoelaceArea(clipped[0]!)) > 1e-14) parts.push(clipped.filter((ring) => ring.length >= 4));
+    }
+  }
+  if (parts.length === 0) throw new Error('polygonsToWKT: no polygon with area to write');
+  const ring = (r: Position[]) => `(${r.map(([lon, lat]) => `${format(lon!)} ${format(lat!)}`).join(',')})`;
+  const polygon = (rings: Position[][]) => `(${rings.map(ring).join(',')})`;
+  return parts.length === 1 ? `POLYGON${polygon(parts[0]!)}` : `MULTIPOLYGON(${parts.map(polygon).join(',')})`;
+}
+
+/** Signed area in square degrees (positive counter-clockwise); only used to drop zero-width slivers. */
+function shoelaceArea(ring: Position[]): number {
+  let twice = 0;
+  for (let i = 1; i < ring.length; i++) twice += ring[i - 1]![0]! * ring[i]![1]! - ring[i]![0]! * ring[i - 1]![1]!;
+  return twice / 2;
+}
+
+function format(value: number): string {
+  const rounded = Number(value.toFixed(7));
+  return String(Object.is(rounded, -0) ? 0 : rounded);
+}
+
+/** Sutherland–Hodgman clip of a closed ring to west ≤ lon ≤ east; returns a closed ring or []. */
+function clipRingToBand(ring: Position[], west: number, east: number): Position[] {
+  const keep = (inside: (p: Position) => boolean, edge: number) => (points: Position[]) => {
+    const out: Position[] = [];
+    for (let i = 0; i < points.length; i++) {
+      const current = points[i]!;
+      const previous = points[(i + points.length - 1) % points.length]!;
+      const crossing = (): Position => {
+        const t = (edge - previous[0]!) / (current[0]! - previous[0]!);
+        return [edge, previous[1]! + t * (current[1]! - previous[1]!)];
+      };
+      if (inside(current)) {
+        if (!inside(previous)) out.push(crossing());
+        out.push(current);
+      } else if (inside(previous)) out.push(crossing());
+    }
+    return out;
+  };
+  const open = ring.slice(0, -1);
+  const clipped = keep((p) => p[0]! <= east, east)(keep((p) => p[0]! >= west, west)(open)).filter(
+    // A vertex on the cut comes out twice: keep one.
+    (p, i, all) => { const q = all[(i + all.length - 1) % all.length]!; return p[0] !== q[0] || p[1] !== q[1]; },
+  );
+  return clipped.length >= 3 ? [...clipped, clipped[0]!] : [];
+}

@@ -1,0 +1,25 @@
+/**
+ * Every setting of the method that the sources leave to us ([CHOICE] in point-radius.md), in one place.
+ * A caller overrides any of them through MethodOptions; the remarks cite the section each comes from.
+ */
+export const METHOD_DEFAULTS = {
+  /** Datum not stated: the global worst case, 5359 m (point-radius.md §5.4, BP2020 [DOC]). */
+  unknownDatumMeters: 5359,
+  /** "near X": radius r_f + max(r_f, this) (point-radius.md §3 [CHOICE]). */
+  nearMinimumMeters: 1000,
+  /** Own extent of a junction, confluence or crossing (point-radius.md §3 [CHOICE]). */
+  junctionExtentMeters: 100,
+  /** Segments of a footprint circle (WKT polygon vertices, point-radius.md §6 [CHOICE]). */
+  footprintSegments: 64,
+  /** Map accuracy standard when a map scale is given but no standard (point-radius.md §5.5: 1 mm only). */
+  mapStandard: 'unknown',
+} as const satisfies Record<string, number | string>;
+
+/** The point-radius.md sections each default comes from, for the remarks. */
+export const DEFAULT_SECTIONS: Record<keyof typeof METHOD_DEFAULTS, string> = {
+  unknownDatumMeters: 'point-radius.md §5.4',
+  nearMinimumMeters: 'point-radius.md §3',
+  junctionExtentMeters: 'point-radius.md §3',
+  footprintSegments: 'point-radius.md §6',
+  mapStandard: 'point-radius.md §5.5',
+};
