@@ -1,0 +1,125 @@
+import type { AdministrativeContext, Language } from './types.ts';
+import type { Token } from './tokens.ts';
+import * as L from './lexicon.ts';
+
+/** A run of tokens between separators, [from, to), with the separator that ended it. */
+export interface Segment {
+  from: number;
+  to: number;
+  /** The separator after the segment (":" marks an administrative chain), or "" at the end. */
+  separator: string;
+}
+
+const SEPARATORS = new Set([',', ';', '.', ':', '(', ')', '[', ']', '|']);
+
+/** Splits tokens [from, to) at clause separators (, ; . : brackets). Empty segments are dropped. */
+export function splitSegments(tokens: Token[], from: number, to: number): Segment[] {
+  const segments: Segment[] = [];
+  let start = from;
+  for (let k = from; k <= to; k++) {
+    const t = tokens[k];
+    const atEnd = k === to;
+    if (atEnd || (t!.kind === 'symbol' && SEPARATORS.has(t!.norm))) {
+      if (k > start) segments.push({ from: start, to: k, separator: atEnd ? '' : t!.norm });
+      else if (!atEnd && t!.norm === ':' && segments.length > 0) segments[segments.length - 1]!.separator = ':';
+      start = k + 1;
+    }
+  }
+  return segments;
+}
+
+/** Words (and numbers) of tokens [from, to) joined by single spaces, punctuation dropped: "s. loc." → "s loc". */
+export function foldedWords(tokens: Token[], from: number, to: number): string {
+  const words: string[] = [];
+  for (let k = from; k < to; k++) if (tokens[k]!.kind !== 'symbol') words.push(tokens[k]!.norm);
+  return words.join(' ');
+}
+
+/** True when the clause says no place is known ("locality unknown", "sin localidad", "s. loc."). */
+export function isRefusal(tokens: Token[], from: number, to: number): boolean {
+  const words = foldedWords(tokens, from, to);
+  return L.REFUSAL_PHRASES.has(words) || (words === '' && tokens.slice(from, to).some((t) => t.norm === '?'));
+}
+
+/** Value of an elevation number; "1.200" with three decimals after a period is read as 1200 (thousands separator). */
+function elevationValue(t: Token): number {
+  return t.decimals!.length === 3 && t.text.includes('.') ? Number(t.text.replace('.', '')) : Number(t.norm);
+}
+
+/**
+ * Reads an elevation clause: "800 m", "alt. 1200-1500 m", "1200 msnm", "elev. 2500 ft", "800 m a.s.l.".
+ * Feet are converted with the international foot (0.3048 m, 1959 agreement). Returns null for other clauses.
+ */
+export function readElevation(text: string, tokens: Token[], from: number, to: number): { minimumMeters: number; maximumMeters: number; written: string } | null {
+  let k = from;
+  let marked = false;
+  while (k < to && (L.ELEVATION_WORDS.has(tokens[k]!.norm) || L.APPROXIMATION_WORDS.has(tokens[k]!.norm) || tokens[k]!.norm === ':' || tokens[k]!.norm === '=')) {
+    if (L.ELEVATION_WORDS.has(tokens[k]!.norm)) marked = true;
+    k++;
+  }
+  const low = tokens[k];
+  if (low?.kind !== 'number' || low.fraction) return null;
+  k++;
+  let high = low;
+  const joiner = tokens[k];
+  if (joiner && ['-', '–', 'a', 'to', 'e', 'y', 'et'].includes(joiner.norm) && tokens[k + 1]?.kind === 'number') {
+    high = tokens[k + 1]!;
+    k += 2;
+  }
+  const unit = tokens[k] ? L.ELEVATION_UNITS.get(tokens[k]!.norm) : undefined;
+  if (!unit) return null;
+  if (tokens[k]!.norm === 'msnm' || tokens[k]!.norm === 'masl' || tokens[k]!.norm === 'msm') marked = true;
+  k++;
+  for (; k < to; k++) {
+    if (tokens[k]!.kind === 'symbol') continue;
+    if (!L.SEA_LEVEL_WORDS.has(tokens[k]!.norm)) return null;
+    marked = true;
+  }
+  const alone = to - from <= 3;
+  if (!marked && !alone) return null;
+  const factor = unit === 'ft' ? 0.3048 : 1;
+  const a = elevationValue(low) * factor;
+  const b = elevationValue(high) * factor;
+  if (!Number.isFinite(a) || !Number.isFinite(b)) return null;
+  return { minimumMeters: Math.min(a, b), maximumMeters: Math.max(a, b), written: text.slice(tokens[from]!.start, tokens[to - 1]!.end) };
+}
+
+/** An administrative clause by keyword: "Prov. Alta", "Depto. Norte", "Millbrook County", "Municipio de Vila Serena". */
+export function readAdministrative(text: string, tokens: Token[], from: number, to: number): { field: keyof AdministrativeContext; name: string } | null {
+  if (to - from < 2 || tokens.slice(from, to).some((t) => t.kind === 'number')) return null;
+  const slice = (a: number, b: number): string => text.slice(tokens[a]!.start, tokens[b - 1]!.end);
+  const head = L.ADMINISTRATIVE_WORDS.get(tokens[from]!.norm);
+  if (head && tokens[from + 1]!.kind === 'word') {
+    const nameFrom = L.FROM_WORDS.has(tokens[from + 1]!.norm) && to - from > 2 ? from + 2 : from + 1;
+    return { field: head, name: slice(nameFrom, to) };
+  }
+  const tail = L.ADMINISTRATIVE_WORDS.get(tokens[to - 1]!.norm);
+  if (tail && tokens[to - 2]!.kind === 'word') return { field: tail, name: slice(from, to - 1) };
+  return null;
+}
+
+/** Administrative levels in the order labels write them: "Country: State: County: Municipality". */
+export const ADMINISTRATIVE_ORDER: Array<keyof AdministrativeContext> = ['country', 'stateProvince', 'county', 'municipality'];
+
+/**
+ * The language of a text, when its words mark one language more than any other (marker words in
+ * lexicon.ts; "à", "ç", "ã", "õ" and "ñ" count too). Undefined when unclear.
+ */
+export function detectLanguage(text: string, tokens: Token[]): Language | undefined {
+  const score: Record<Language, number> = { en: 0, es: 0, pt: 0, fr: 0 };
+  const languages = Object.keys(score) as Language[];
+  for (const t of tokens) {
+    // One-letter words ("e", "a", "o") are also direction letters and hemispheres: not counted.
+    if (t.kind !== 'word' || t.norm.length < 2) continue;
+    const marking = languages.filter((language) => L.LANGUAGE_MARKERS[language].has(t.norm));
+    if (marking.length === 1) score[marking[0]!] += 1;
+  }
+  for (const c of text) {
+    if (c === 'à' || c === 'è') score.fr += 1;
+    if (c === 'ã' || c === 'õ' || c === 'ç') score.pt += 1;
+    if (c === 'ñ') score.es += 1;
+  }
+  const ranked = languages.sort((a, b) => score[b] - score[a]);
+  const [best, second] = ranked;
+  return score[best!] > 0 && score[best!] > score[second!] ? best : undefined;
+}

@@ -1,0 +1,110 @@
+/**
+ * Words of locality texts in English, Spanish, Portuguese and French, lower-cased with accents removed
+ * (the tokenizer's `norm`). Multi-word phrases are arrays of norms. Kept together so that a curator can
+ * see, in one place, every word the parser gives a meaning to.
+ */
+
+const set = (words: string): ReadonlySet<string> => new Set(words.split(' '));
+const phrases = (list: string): string[][] => list.split('|').map((p) => p.trim().split(' '));
+
+/** "ca.", "about", "aprox.", "environ", "~": recorded as approximate, changing no number (method §3). */
+export const APPROXIMATION_WORDS = set('ca c circa about approx approximately apx around roughly some aprox aproximadamente apr unos unas uns umas cerca env environ ~ ±');
+
+/** Prepositions that may stand before a leading distance: "a 5 km de X", "à 5 km au sud de X", "at 5 km". */
+export const LEADING_PREPOSITIONS = set('a at');
+
+/** Words that introduce the feature an offset is measured from ("of", "de", "du", "d'"). */
+export const FROM_WORDS = set("of from off de del desde do da dos das du des d'");
+
+/** Words that introduce the feature a bearing points toward (the heading is reversed, method §3). */
+export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
+
+/** Words that may stand before a heading: "al N", "ao sul", "au nord", "à l'est", "to the N". */
+export const HEADING_PREFIXES = phrases("a la | a l' | al | ao | au | a | to the | l'");
+
+/** "between X and Y" */
+export const BETWEEN_WORDS = set('between betw btw entre');
+export const CONJUNCTIONS = set('and & y e et with con com avec x');
+
+/** Junction, confluence, crossing of two named lines. */
+export const JUNCTION_WORDS = set(
+  'junction jct jctn jnct junc jct confluence confl crossing intersection fork forks confluencia confluencias cruce cruzamento entroncamento empalme bifurcacion bifurcacao interseccion intersecao encrucijada confluent carrefour croisement jonction embranchement',
+);
+/** Words that may stand before a junction word ("at the junction", "en la confluencia", "au confluent"). */
+export const JUNCTION_LEAD = set('at the en la el na no a au al');
+
+/** near / vicinity / outskirts, as prefixes before the feature. "cerca de" + a number is an approximation instead. */
+export const NEAR_PREFIXES = phrases(
+  "in the vicinity of | on the outskirts of | vicinity of | outskirts of | environs of | near to | close to | just outside | outside of | near | nr | vic | vicinity | outside | " +
+    "en los alrededores de | en las afueras de | en las inmediaciones de | alrededores de | inmediaciones de | afueras de | cerca de | cerca del | proximo a | proximo al | junto a | prox a | " +
+    "nos arredores de | nas proximidades de | arredores de | proximidades de | perto de | perto da | perto do | proximo de | proximo da | proximo do | periferia de | " +
+    "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de",
+);
+/** near / vicinity as suffixes after the feature ("X vicinity", "X y alrededores"). */
+export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs');
+
+/** Roads, trails and rivers, for path offsets ("by road", "por camino", "par la route", "along the river"). */
+export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ruta estrada rodovia caminho chemin br');
+export const TRAIL_NOUNS = set('trail track path sendero vereda trocha picada trilha senda sentier piste');
+export const RIVER_NOUNS = set('river r rio stream creek arroyo quebrada riviere ruisseau fleuve ribeirao corrego igarape boat canoe water');
+
+/** Articles that may stand between a path preposition and its noun ("por el camino", "pela a", "par la route"). */
+export const PATH_ARTICLES = set("the el la los las o a le les l'");
+/** Prepositions of a path: "by road", "via road", "por camino", "pela estrada", "par la route", "on Rd. 12". */
+export const PATH_PREPOSITIONS = set('by via por pela pelo par on en na no sur');
+/** "along X", "siguiendo X", "le long de X", "ao longo do X", "a lo largo de X". */
+export const ALONG_PHRASES = phrases('along the | along | following | siguiendo | seguindo | a lo largo de | a lo largo del | ao longo de | ao longo do | ao longo da | le long de | le long du');
+export const UPSTREAM_PHRASES = phrases('upstream | upriver | up river | up stream | rio arriba | aguas arriba | rio acima | aguas acima | en amont | amont');
+export const DOWNSTREAM_PHRASES = phrases('downstream | downriver | down river | down stream | rio abajo | aguas abajo | rio abaixo | aguas abaixo | en aval | aval');
+/** "by air" and its equivalents. */
+export const BY_AIR_PHRASES = phrases("by air | air | airline | straight line | in a straight line | en linea recta | linea recta | por aire | em linha reta | linha reta | a vol d' oiseau | vol d' oiseau");
+/** Words after a road noun that make a standalone road clause: "camino a Y", "road to Y", "estrada para Y". */
+export const ROAD_TOWARD_WORDS = set('to a al para pour vers hacia rumo de');
+
+/** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.". */
+export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura alt elevacion elevacao');
+export const ELEVATION_UNITS: ReadonlyMap<string, 'm' | 'ft'> = new Map([
+  ...[...set('m mt mts meters metres metros metres msnm masl msm')].map((w) => [w, 'm'] as [string, 'm']),
+  ...[...set('ft feet pies pes pieds')].map((w) => [w, 'ft'] as [string, 'ft']),
+]);
+/** Sea-level words that may follow an elevation ("a.s.l.", "s.n.m.", "above sea level", "sobre el nivel del mar"). */
+export const SEA_LEVEL_WORDS = set('a s l n m asl snm above sea level sobre el nivel del mar acima do da au dessus de la mer');
+
+/** Administrative keywords and the field they fill. */
+export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvince' | 'county' | 'municipality'> = new Map([
+  ...[...set('country pais pays')].map((w) => [w, 'country'] as const),
+  ...[...set('state province prov provincia estado edo dept depto dpto departamento departement region regiao')].map((w) => [w, 'stateProvince'] as const),
+  ...[...set('county co parish partido canton')].map((w) => [w, 'county'] as const),
+  ...[...set('municipality municipio mun mpio munic municipalite commune comuna concelho')].map((w) => [w, 'municipality'] as const),
+]);
+
+/**
+ * Texts that say no place is known, in four languages (whole clause, folded, punctuation dropped:
+ * "s. loc." → "s loc").
+ */
+export const REFUSAL_PHRASES: ReadonlySet<string> = new Set(
+  [
+    'locality unknown|unknown locality|locality not known|locality not given|no locality|without locality|no locality given|no data|no loc|s loc|sl|s l|sine loco|sine loc|illegible|locality illegible|unknown|not recorded|none|na|n a|no information|not stated|exact locality unknown',
+    'sin localidad|localidad desconocida|localidad no indicada|sin datos|sin loc|ilegible|desconocido|desconocida|sin informacion|localidad ilegible|no indicada|sin procedencia',
+    'sem localidade|localidade desconhecida|sem dados|sem local|ilegivel|desconhecido|desconhecida|localidade ilegivel|sem procedencia|local desconhecido|localidade nao informada',
+    'sans localite|localite inconnue|sans donnees|illisible|inconnu|inconnue|lieu inconnu|localite illisible|sans indication|non precise|localite non precisee',
+  ].join('|').split('|'),
+);
+
+/** Habitat and substrate words: a clause made only of these (and small words) describes no place. */
+export const HABITAT_WORDS = set(
+  'forest forests woods woodland rainforest cloud montane lowland pasture pastures grassland savanna savannah meadow swamp marsh bog wetland riverbank bank banks roadside secondary primary disturbed open dry wet humid moist scrub shrubland thicket thickets rocks rocky rock sandy sand soil slope slopes hillside edge edges under bark log logs leaf leaves litter canopy understory clearing field fields cultivated garden gallery riparian shore beach dunes mangrove cliff cliffs plantation coffee oak pine ' +
+    'bosque bosques selva humedo humeda seco seca pastizal potrero matorral sabana orilla borde ribera cafetal pinar encinar ladera suelo hojarasca claro galeria bajo sobre ' +
+    'mata floresta cerrado caatinga restinga varzea capoeira brejo campo campos beira margem solo serapilheira encosta ' +
+    'foret bois lisiere prairie savane marais maquis garrigue sous-bois litiere pente sol rochers bord',
+);
+/** Small words that do not make a clause name a place. */
+export const SMALL_WORDS = set("of the a an and in on at with de del la el los las y en con e da do das dos na no com o os as et du des le les l' d' au aux avec sur dans");
+
+/** Words that mark each language (counted to set `language`). */
+export const LANGUAGE_MARKERS: Readonly<Record<'en' | 'es' | 'pt' | 'fr', ReadonlySet<string>>> = {
+  en: set('of from the and near road river mi miles north south east west between junction upstream downstream along by on ft feet vicinity outskirts unknown locality trail creek bridge'),
+  es: set('del al y cerca camino carretera norte sur este oeste millas leguas arriba abajo localidad sin desde hacia confluencia cruce noreste sureste suroeste noroeste alrededores afueras pies msnm por la el los las aprox quebrada arroyo ruta'),
+  pt: set('ao da do dos das e perto estrada leste sul norte oeste milhas leguas acima abaixo localidade sem pela pelo nordeste sudeste sudoeste noroeste rodovia fazenda arredores entroncamento proximo o os na no corrego ribeirao'),
+  fr: set("du au aux et pres route riviere nord sud est ouest lieues amont aval localite sans par le les environ environs chemin piste l' d' des vers carrefour sentier ruisseau"),
+};

@@ -1,0 +1,383 @@
+import type { DistanceUnit, LocalityType, Offset, PathQualifier, WrittenDistance, WrittenHeading } from './types.ts';
+import type { Token } from './tokens.ts';
+import { readNumberAt } from './numbers.ts';
+import { readHeadingAt } from './headings.ts';
+import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
+import * as L from './lexicon.ts';
+
+/** How one clause reads on its own. `bare` marks an offset or path with no feature, to be joined to a neighbour. */
+export interface ClauseReading {
+  type: LocalityType | 'habitat';
+  features: string[];
+  offsets: Offset[];
+  approximate: boolean;
+  reason?: string;
+  notes: string[];
+  bare?: 'offset' | 'path';
+}
+
+/** The verbatim text and the tokens of one clause. */
+interface Source {
+  text: string;
+  tokens: Token[];
+}
+
+const norm = (s: Source, i: number): string | undefined => s.tokens[i]?.norm;
+
+/** Length of the phrase of `list` that starts at i (longest first), or 0. */
+function matchPhrase(s: Source, i: number, list: readonly string[][]): number {
+  let best = 0;
+  for (const phrase of list) {
+    if (phrase.length > best && phrase.every((w, k) => norm(s, i + k) === w)) best = phrase.length;
+  }
+  return best;
+}
+
+/** The feature name as written between tokens [from, to), outer punctuation trimmed; null when empty. */
+function nameBetween(s: Source, from: number, to: number): string | null {
+  while (from < to && s.tokens[from]!.kind === 'symbol' && !'"“«('.includes(s.tokens[from]!.text)) from++;
+  while (to > from && s.tokens[to - 1]!.kind === 'symbol' && !'"”»)'.includes(s.tokens[to - 1]!.text)) to--;
+  if (from >= to || !s.tokens.slice(from, to).some((t) => t.kind === 'word')) return null;
+  const name = s.text.slice(s.tokens[from]!.start, s.tokens[to - 1]!.end).replace(/^["“«(\s]+|["”»)\s]+$/g, '');
+  return name === '' ? null : name;
+}
+
+/** Skips approximation words at i ("ca.", "about", "aprox.", "~"; "cerca de" only before a number). */
+function skipApproximation(s: Source, i: number): { next: number; approximate: boolean } {
+  let next = i;
+  for (let guard = 0; guard < 4; guard++) {
+    const t = s.tokens[next];
+    if (!t) break;
+    if (t.norm === 'cerca' || t.norm === 'c') {
+      const after = norm(s, next + 1) === 'de' ? next + 2 : next + 1;
+      if (s.tokens[after]?.kind === 'number' && (t.norm === 'cerca' || t.dotted)) {
+        next = after;
+        continue;
+      }
+      break;
+    }
+    if (L.APPROXIMATION_WORDS.has(t.norm) && (t.kind === 'symbol' || t.norm !== 'ca' || t.dotted || s.tokens[next + 1]?.kind === 'number')) next++;
+    else break;
+  }
+  return { next, approximate: next > i };
+}
+
+/** Reads a distance (number or range + unit) at i, with precision from the number as written (method §5.1). */
+export function readDistanceAt(s: Source, i: number): { distance: WrittenDistance; next: number } | null {
+  const number = readNumberAt(s.tokens, i);
+  if (!number) return null;
+  const unitToken = s.tokens[number.next];
+  let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
+  if (!unit) return null;
+  let next = number.next + 1;
+  // "nautical miles", "millas náuticas", "milles marins"
+  const nautical = norm(s, next - 1 === number.next && unit === 'mi' ? next : -1);
+  if (unit === 'mi' && (nautical === 'nautical' || nautical === 'nauticas' || nautical === 'nauticas' || nautical === 'marins' || nautical === 'nauticos')) {
+    unit = 'nmi';
+    next++;
+  } else if (norm(s, number.next) === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
+    unit = 'nmi';
+    next++;
+  }
+  let uncertainty = number.uncertainty;
+  if (unit === 'league') uncertainty += number.value * LEAGUE_RELATIVE_SPREAD;
+  const distance: WrittenDistance = {
+    written: s.text.slice(s.tokens[i]!.start, s.tokens[next - 1]!.end),
+    value: number.value,
+    unit,
+    precision: number.precision,
+    uncertainty,
+    meters: toMeters(number.value, unit),
+    uncertaintyMeters: toMeters(uncertainty, unit),
+  };
+  if (number.range) distance.range = number.range;
+  return { distance, next };
+}
+
+/** A heading at i, after optional "al", "ao", "au", "à l'", "to the". "sur la ..." is French "on", not south. */
+function readHeading(s: Source, i: number): { heading: WrittenHeading; next: number } | null {
+  const prefix = matchPhrase(s, i, L.HEADING_PREFIXES);
+  for (const start of prefix > 0 ? [i + prefix, i] : [i]) {
+    const t = s.tokens[start];
+    if (t?.norm === 'sur' && ['la', 'le', 'les', "l'"].includes(norm(s, start + 1) ?? '')) return null;
+    const read = readHeadingAt(s.text, s.tokens, start);
+    if (read) return read;
+  }
+  return null;
+}
+
+const pathOf = (mode: PathQualifier['mode'], written: string, lineName?: string | null): PathQualifier =>
+  lineName ? { mode, written, lineName } : { mode, written };
+
+function modeOfNoun(n: string | undefined): PathQualifier['mode'] | undefined {
+  if (n === undefined) return undefined;
+  if (L.ROAD_NOUNS.has(n)) return 'road';
+  if (L.TRAIL_NOUNS.has(n)) return 'trail';
+  if (L.RIVER_NOUNS.has(n)) return 'river';
+  return undefined;
+}
+
+/** End of a line name starting at i: the clause end, or (when the place follows) the first "from"/"de" word or heading. */
+function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
+  let k = i;
+  while (k < s.tokens.length && !(stopAtFrom && (L.FROM_WORDS.has(s.tokens[k]!.norm) || readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
+  return k;
+}
+
+/**
+ * Reads a path qualifier or "by air" at i: "by road", "by trail", "upstream", "río arriba", "en amont",
+ * "along Rio Claro", "on Rd. 12", "por camino a Y", "pela estrada", "par la route".
+ * `stopAtFrom`: the feature follows, so a line name ends at "from"/"de".
+ */
+function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQualifier; byAir?: true; next: number } | null {
+  const written = (to: number): string => s.text.slice(s.tokens[i]!.start, s.tokens[to - 1]!.end);
+  const air = matchPhrase(s, i, L.BY_AIR_PHRASES);
+  if (air) return { byAir: true, next: i + air };
+  for (const [list, mode] of [[L.UPSTREAM_PHRASES, 'upstream'], [L.DOWNSTREAM_PHRASES, 'downstream']] as const) {
+    const n = matchPhrase(s, i, list);
+    if (n) return { path: pathOf(mode, written(i + n)), next: i + n };
+  }
+  const along = matchPhrase(s, i, L.ALONG_PHRASES);
+  if (along) {
+    const start = i + along;
+    const end = lineEnd(s, start, stopAtFrom);
+    if (end === start) return null;
+    const nounMode = end - start === 1 ? modeOfNoun(norm(s, start)) : undefined;
+    if (nounMode) return { path: pathOf(nounMode, written(end)), next: end };
+    const first = modeOfNoun(norm(s, start));
+    return { path: pathOf(first ?? 'along', written(end), nameBetween(s, start, end)), next: end };
+  }
+  if (L.PATH_PREPOSITIONS.has(norm(s, i) ?? '')) {
+    let k = i + 1;
+    if (L.PATH_ARTICLES.has(norm(s, k) ?? '')) k++;
+    const mode = modeOfNoun(norm(s, k));
+    const preposition = norm(s, i)!;
+    // "on", "en", "na", "no", "sur" take only roads and trails ("on Rd. 12"), not rivers ("on river bank").
+    const onlyRoads = ['on', 'en', 'na', 'no', 'sur'].includes(preposition);
+    if (!mode || (onlyRoads && mode === 'river')) return null;
+    const end = lineEnd(s, k + 1, stopAtFrom);
+    const named = end > k + 1 && !onlyRoads ? nameBetween(s, k, end) : end > k + 1 ? nameBetween(s, k, end) : null;
+    return { path: pathOf(mode, written(end), named), next: end };
+  }
+  return null;
+}
+
+/** A clause that is only a road: "camino a Y", "road to Y", "estrada para Y". */
+function readRoadClause(s: Source, i: number): PathQualifier | null {
+  const mode = modeOfNoun(norm(s, i));
+  if (mode !== 'road' && mode !== 'trail') return null;
+  if (!L.ROAD_TOWARD_WORDS.has(norm(s, i + 1) ?? '')) return null;
+  const name = nameBetween(s, i, s.tokens.length);
+  return name ? pathOf(mode, name, name) : null;
+}
+
+const reading = (type: ClauseReading['type'], features: string[], extra: Partial<ClauseReading> = {}): ClauseReading => ({
+  type,
+  features,
+  offsets: [],
+  approximate: false,
+  notes: [],
+  ...extra,
+});
+
+const unparseable = (reason: string, approximate = false): ClauseReading => reading('unparseable', [], { reason, approximate });
+
+/** Splits tokens [from, to) at the first conjunction into two names ("X and Y", "R. A y R. B"). */
+function twoNames(s: Source, from: number, to: number): [string, string] | null {
+  for (let k = from + 1; k < to - 1; k++) {
+    if (L.CONJUNCTIONS.has(s.tokens[k]!.norm) || (s.tokens[k]!.norm === '/' && s.tokens[k]!.kind === 'symbol')) {
+      const a = nameBetween(s, from, k);
+      const b = nameBetween(s, k + 1, to);
+      if (a && b) return [a, b];
+    }
+  }
+  return null;
+}
+
+const hasDistance = (s: Source, from: number, to: number): boolean => {
+  for (let k = from; k < to; k++) if (s.tokens[k]!.kind === 'number' && readDistanceAt(s, k)) return true;
+  return false;
+};
+
+/** Reads a place name at [from, end): null when it is empty or holds a distance (then the clause is not understood). */
+function placeAt(s: Source, from: number, end: number): string | null {
+  return hasDistance(s, from, end) ? null : nameBetween(s, from, end);
+}
+
+/** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
+function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true } {
+  for (let k = from + 1; k < s.tokens.length; k++) {
+    const path = readPath(s, k, false);
+    if (path && path.next === s.tokens.length && (path.path || path.byAir)) {
+      return { end: k, ...(path.path ? { path: path.path } : {}), ...(path.byAir ? { byAir: true as const } : {}) };
+    }
+  }
+  return { end: s.tokens.length };
+}
+
+const perpendicular = (a: WrittenHeading, b: WrittenHeading): boolean =>
+  a.kind !== 'degrees' && a.halfWidth !== 22.5 && a.halfWidth !== 11.25 && a.azimuth % 90 === 0 && b.azimuth % 90 === 0 && Math.abs(a.azimuth - b.azimuth) % 180 === 90;
+
+/** Offsets: distance, then optional path / heading / "by air", optional second orthogonal offset, then the feature. */
+function readOffsets(s: Source, i: number, approximate: boolean): ClauseReading | null {
+  const first = readDistanceAt(s, i);
+  if (!first) return null;
+  const offset: Offset = { distance: first.distance };
+  const notes: string[] = [];
+  let j = first.next;
+  for (let guard = 0; guard < 4; guard++) {
+    const approx = skipApproximation(s, j);
+    if (approx.approximate) {
+      approximate = true;
+      j = approx.next;
+      continue;
+    }
+    if (!offset.heading) {
+      const heading = readHeading(s, j);
+      if (heading) {
+        offset.heading = heading.heading;
+        j = heading.next;
+        continue;
+      }
+    }
+    if (!offset.path && !offset.byAir) {
+      const path = readPath(s, j, true);
+      if (path) {
+        if (path.path) offset.path = path.path;
+        if (path.byAir) offset.byAir = true;
+        j = path.next;
+        continue;
+      }
+    }
+    break;
+  }
+  const offsets = [offset];
+  // Second offset on the perpendicular axis: "3 km N and 2 km E of X", "3 km ao N e 2 km a L de X".
+  if (offset.heading && L.CONJUNCTIONS.has(norm(s, j) ?? '')) {
+    const second = readDistanceAt(s, j + 1);
+    const secondHeading = second ? readHeading(s, second.next) : null;
+    if (second && secondHeading) {
+      if (!perpendicular(offset.heading, secondHeading.heading)) {
+        return unparseable(`two offsets that are not on perpendicular cardinal headings ("${offset.heading.written}", "${secondHeading.heading.written}")`, approximate);
+      }
+      offsets.push({ distance: second.distance, heading: secondHeading.heading });
+      j = secondHeading.next;
+    }
+  }
+  let toward = false;
+  const towardLength = offset.heading ? matchPhrase(s, j, L.TOWARD_PHRASES) : 0;
+  if (towardLength) {
+    toward = true;
+    j += towardLength;
+  } else if (L.FROM_WORDS.has(norm(s, j) ?? '')) j++;
+  if (j >= s.tokens.length) {
+    return { ...reading(typeOf(offsets), [], { offsets, approximate, notes }), bare: 'offset' };
+  }
+  const tail = placeEnd(s, j);
+  const place = placeAt(s, j, tail.end);
+  if (!place) return unparseable(`could not read the place after "${s.text.slice(s.tokens[i]!.start, s.tokens[j - 1]!.end)}"`, approximate);
+  if (tail.path && !offset.path) offset.path = tail.path;
+  if (tail.byAir) offset.byAir = true;
+  if (toward && offset.heading) {
+    offset.heading = { ...offset.heading, azimuth: (offset.heading.azimuth + 180) % 360, toward: true };
+    notes.push(`bearing written toward ${place}: heading from it reversed by 180°`);
+  }
+  return reading(typeOf(offsets), [place], { offsets, approximate, notes });
+}
+
+function typeOf(offsets: Offset[]): LocalityType {
+  if (offsets.length === 2) return 'offset-orthogonal';
+  const [offset] = offsets;
+  if (offset!.path) return 'offset-path';
+  if (offset!.heading) return 'offset-heading';
+  return 'distance-only';
+}
+
+/** True when every word of tokens [from, to) is a habitat or small word (and there is at least one habitat word). */
+export function isHabitat(tokens: Token[], from = 0, to = tokens.length): boolean {
+  let habitat = false;
+  for (let k = from; k < to; k++) {
+    const t = tokens[k]!;
+    if (t.kind === 'number') return false;
+    if (t.kind === 'symbol') continue;
+    if (L.HABITAT_WORDS.has(t.norm)) habitat = true;
+    else if (!L.SMALL_WORDS.has(t.norm)) return false;
+  }
+  return habitat;
+}
+
+/**
+ * Reads one clause of a locality text as one locality type of the point-radius method (method §3):
+ * between, junction, near, offsets (heading, orthogonal, distance only, path), heading only, named place.
+ * Never guesses: text that fits no pattern is 'unparseable' with a reason.
+ */
+export function readLocalityClause(text: string, tokens: Token[]): ClauseReading {
+  const s: Source = { text, tokens };
+  let { next: i, approximate } = skipApproximation(s, 0);
+  if (L.LEADING_PREPOSITIONS.has(norm(s, i) ?? '') && s.tokens[i + 1]?.kind === 'number') i++;
+  const again = skipApproximation(s, i);
+  i = again.next;
+  approximate ||= again.approximate;
+  const end = tokens.length;
+  if (i >= end) return unparseable('only an approximation word, no place', approximate);
+
+  if (L.BETWEEN_WORDS.has(norm(s, i)!) && s.tokens[i + 1]?.kind !== 'number') {
+    const names = twoNames(s, i + 1, end);
+    return names ? reading('between', names, { approximate }) : unparseable('"between" without two places joined by "and"', approximate);
+  }
+
+  let lead = i;
+  while (lead < i + 3 && L.JUNCTION_LEAD.has(norm(s, lead) ?? '')) lead++;
+  if (L.JUNCTION_WORDS.has(norm(s, lead) ?? '')) {
+    let k = lead + 1;
+    if (L.FROM_WORDS.has(norm(s, k) ?? '') || L.BETWEEN_WORDS.has(norm(s, k) ?? '')) k++;
+    const names = twoNames(s, k, end);
+    return names ? reading('junction', names, { approximate }) : unparseable('junction or confluence without two named lines', approximate);
+  }
+  if (end - i >= 4 && L.JUNCTION_WORDS.has(norm(s, end - 1)!)) {
+    const names = twoNames(s, i, end - 1);
+    if (names) return reading('junction', names, { approximate });
+  }
+
+  const nearPrefix = matchPhrase(s, i, L.NEAR_PREFIXES);
+  if (nearPrefix && s.tokens[i + nearPrefix]?.kind !== 'number') {
+    const place = placeAt(s, i + nearPrefix, end);
+    const notes = norm(s, i) === 'cerca' ? ['"cerca de" before a place read as "near" (before a number it means "about")'] : [];
+    return place ? reading('near', [place], { approximate, notes }) : unparseable('"near" without a place', approximate);
+  }
+
+  const offsets = readOffsets(s, i, approximate);
+  if (offsets) return offsets;
+
+  const heading = readHeading(s, i);
+  if (heading) {
+    let k = heading.next;
+    const introduced = L.FROM_WORDS.has(norm(s, k) ?? '');
+    if (introduced) k++;
+    const abbreviation = /^[NSEWOL]{1,3}\.?$/.test(heading.heading.written.replace(/\./g, ''));
+    if (introduced || (abbreviation && k < end)) {
+      const place = placeAt(s, k, end);
+      if (place) return reading('heading-only', [place], { offsets: [{ heading: heading.heading }], approximate });
+    }
+  }
+
+  const path = readPath(s, i, false);
+  if (path?.path && path.next === end) return { ...reading('offset-path', [], { offsets: [{ path: path.path }], approximate }), bare: 'path' };
+  const road = readRoadClause(s, i);
+  if (road) return { ...reading('named-place', [road.lineName!], { approximate }), bare: 'path', offsets: [{ path: road }] };
+
+  for (let n = end; n > i; n--) {
+    const suffix = matchPhrase(s, n - 1, L.NEAR_SUFFIXES);
+    if (suffix && n - 1 + suffix === end) {
+      const place = placeAt(s, i, n - 1);
+      if (place) return reading('near', [place], { approximate });
+    }
+    if (n < end - 3) break;
+  }
+
+  if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
+  if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
+  if (tokens[i]!.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[i]!.text}"`, approximate);
+  const place = nameBetween(s, i, end);
+  return place ? reading('named-place', [place], { approximate }) : unparseable('no place name could be read', approximate);
+}

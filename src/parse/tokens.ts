@@ -1,0 +1,93 @@
+/** One token of a locality text; offsets point into the verbatim text. */
+export interface Token {
+  kind: 'number' | 'word' | 'symbol';
+  /** The characters as written (for a dotted abbreviation, including its period). */
+  text: string;
+  /** Lower case, accents removed, trailing period removed; numbers with "." as decimal separator. */
+  norm: string;
+  start: number;
+  end: number;
+  /** Whitespace stands between this token and the previous one (or it is the first). */
+  spaceBefore: boolean;
+  /** A word written with a period after it ("km.", "N.", "Sta."). */
+  dotted?: boolean;
+  /** Numbers only: digits after the decimal separator as written ("" for an integer). */
+  decimals?: string;
+  /** Unicode vulgar fractions ("½"): numerator and denominator. */
+  fraction?: [number, number];
+}
+
+const VULGAR_FRACTIONS: ReadonlyMap<string, [number, number]> = new Map([
+  ['½', [1, 2]], ['⅓', [1, 3]], ['⅔', [2, 3]], ['¼', [1, 4]], ['¾', [3, 4]],
+  ['⅛', [1, 8]], ['⅜', [3, 8]], ['⅝', [5, 8]], ['⅞', [7, 8]],
+]);
+
+/** Abbreviations longer than four letters that keep their period as part of the word. */
+const LONG_ABBREVIATIONS = new Set(['approx', 'aprox', 'depto', 'dept', 'mpio', 'munic', 'confl', 'junct', 'prov', 'vicin', 'apprx', 'envir', 'aprx']);
+
+const isDigit = (c: string): boolean => c >= '0' && c <= '9';
+const LETTER = /\p{L}/u;
+const MARK = /\p{M}/u;
+const isLetter = (c: string | undefined): boolean => c !== undefined && LETTER.test(c);
+
+/** Lower case with accents (combining marks) removed. */
+export function fold(text: string): string {
+  return text.normalize('NFD').replace(/\p{M}+/gu, '').toLowerCase();
+}
+
+/**
+ * Splits a locality text into numbers, words and single-character symbols in one left-to-right pass
+ * (linear time, no backtracking).
+ * @example tokenize("10 km. N of X").map(t => t.norm) // ['10', 'km', 'n', 'of', 'x']
+ */
+export function tokenize(text: string): Token[] {
+  const tokens: Token[] = [];
+  let i = 0;
+  let space = true;
+  while (i < text.length) {
+    const c = text[i]!;
+    if (/\s/.test(c)) {
+      space = true;
+      i++;
+      continue;
+    }
+    const start = i;
+    if (isDigit(c)) {
+      while (i < text.length && isDigit(text[i]!)) i++;
+      let decimals = '';
+      const sep = text[i];
+      if ((sep === '.' || sep === ',') && isDigit(text[i + 1] ?? '')) {
+        i++;
+        const d0 = i;
+        while (i < text.length && isDigit(text[i]!)) i++;
+        decimals = text.slice(d0, i);
+      }
+      const written = text.slice(start, i);
+      tokens.push({ kind: 'number', text: written, norm: written.replace(',', '.'), start, end: i, spaceBefore: space, decimals });
+    } else if (VULGAR_FRACTIONS.has(c)) {
+      i++;
+      tokens.push({ kind: 'number', text: c, norm: c, start, end: i, spaceBefore: space, decimals: '', fraction: VULGAR_FRACTIONS.get(c)! });
+    } else if (isLetter(c)) {
+      while (i < text.length && (isLetter(text[i]) || MARK.test(text[i]!) || (text[i] === '-' && isLetter(text[i + 1])))) i++;
+      // French elision: "d'", "l'", "qu'" stay one word so "au nord d'Aubrac" reads "d'" as "of".
+      if ((text[i] === "'" || text[i] === '’') && isLetter(text[i + 1]) && /^(d|l|qu|j|s)$/i.test(text.slice(start, i))) i++;
+      let word = text.slice(start, i);
+      const norm = fold(word).replace('’', "'");
+      let dotted = false;
+      if (text[i] === '.' && (norm.length <= 4 || LONG_ABBREVIATIONS.has(norm))) {
+        i++;
+        dotted = true;
+        word = text.slice(start, i);
+      }
+      tokens.push({ kind: 'word', text: word, norm, start, end: i, spaceBefore: space, dotted });
+    } else {
+      i++;
+      // Two apostrophes written for seconds ('') read as one double prime.
+      if ((c === "'" || c === '′') && text[i] === c) i++;
+      const written = text.slice(start, i);
+      tokens.push({ kind: 'symbol', text: written, norm: written.length === 2 ? '″' : c, start, end: i, spaceBefore: space });
+    }
+    space = false;
+  }
+  return tokens;
+}
