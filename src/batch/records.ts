@@ -56,7 +56,11 @@ export async function detectDelimiter(path: string, format: InputFormat): Promis
  * Every row of the file, the header first. Rows are never dropped: a row whose field count differs from
  * the header's, or a line where a quote is left open, comes back with `problem` set; after a quote left
  * open, reading starts again on the next line, and the line itself is kept split at each delimiter.
- * Blank lines are not rows and are passed over. Lines are counted at line feeds.
+ * Blank lines are not rows and are passed over. Lines are counted at line feeds (a file that ends its
+ * lines with a carriage return alone counts as one line). A quoted field that spans lines and starts with
+ * a quote mark the parser had to keep (a quote not closed where the field should end) is read as a quote
+ * left open. Reading again after such a line starts from the top of the file, so a file with many of
+ * them reads slowly.
  * @example for await (const r of readRecords('in.csv', format, ',')) console.log(r.line, r.fields)
  */
 export async function* readRecords(path: string, format: InputFormat, delimiter: Delimiter): AsyncGenerator<InputRecord> {
@@ -65,30 +69,31 @@ export async function* readRecords(path: string, format: InputFormat, delimiter:
   for (;;) {
     const skipped = new LineSkipper(segment.badLine ? segment.badLine.line - 1 : segment.firstLine - 1, Boolean(segment.badLine));
     const parser = decodedText(path, format).pipe(skipped).pipe(
-      parse({ delimiter, relax_column_count: true, relax_quotes: true, info: true, max_record_size: MAX_ROW_CHARACTERS }),
+      parse({ delimiter, relax_column_count: true, relax_quotes: true, max_record_size: MAX_ROW_CHARACTERS }),
     );
     const firstLine = segment.firstLine;
     let linesRead = 0;
     let restart: Segment | undefined;
     try {
-      for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
+      for await (const record of parser as AsyncIterable<string[]>) {
         if (skipped.captured !== undefined && segment.badLine) {
           const text = skipped.captured;
           yield { fields: text.split(delimiter), line: segment.badLine.line, problem: segment.badLine.problem };
           skipped.captured = undefined;
         }
+        // Line ends stand only inside quoted fields or at the row's end, so a row spans 1 + its fields' line feeds.
         const line = firstLine + linesRead;
-        const lastLine = firstLine + info.lines - 1;
-        linesRead = info.lines;
+        const lastLine = line + record.reduce((n, field) => n + lineFeeds(field), 0);
+        linesRead += lastLine - line + 1;
         if (record.length === 1 && record[0] === '') continue;
         if (headerLength === undefined) {
           headerLength = record.length;
           yield { fields: record, line };
           continue;
         }
-        if (lastLine > line && record.length !== headerLength) {
+        if (lastLine > line && (record.length !== headerLength || record.some((f) => f.startsWith('"') && lineFeeds(f) > 0))) {
           const fields = record.length;
-          restart = badLineSegment(line, () => `a quoted field opened on this line runs on to line ${lastLine}, and the row would then have ${fields} fields where the header has ${headerLength}`);
+          restart = badLineSegment(line, () => `a quoted field opened on this line is not closed where the field should end, so the row runs on to line ${lastLine} with ${fields} fields (the header has ${headerLength})`);
           break;
         }
         yield { fields: record, line, problem: raggedProblem(record, headerLength, line) };
@@ -111,6 +116,12 @@ export async function* readRecords(path: string, format: InputFormat, delimiter:
 interface Segment {
   firstLine: number;
   badLine?: { line: number; problem: string };
+}
+
+function lineFeeds(text: string): number {
+  let n = 0;
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
+  return n;
 }
 
 function badLineSegment(line: number, why: () => string): Segment {

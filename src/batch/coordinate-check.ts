@@ -1,0 +1,150 @@
+/**
+ * A check of the coordinates a record already has against the circle computed from its locality text,
+ * and against the centers of the country and state it names. The record's values are never changed.
+ */
+import { inverse } from '../geodesy/geodesic.ts';
+
+/** The name of the output column that holds the flags; not a Darwin Core term (see the README). */
+export const COORDINATE_FLAGS_COLUMN = 'whereabouts_coordinateFlags';
+
+/** Flags are joined with the separator Darwin Core recommends for lists (Darwin Core Text Guide §2.3.1.1, from memory). */
+export const FLAG_SEPARATOR = ' | ';
+
+/** The flags whereabouts writes, each with what it means (the README lists them). */
+export const COORDINATE_FLAGS = {
+  'inside-circle': 'the coordinates lie inside the circle of the locality text',
+  'outside-circle': 'the coordinates lie outside the circle of the locality text',
+  'inside-if-latitude-negated': 'with the sign of latitude inverted they would lie inside the circle',
+  'inside-if-longitude-negated': 'with the sign of longitude inverted they would lie inside the circle',
+  'inside-if-both-negated': 'with both signs inverted they would lie inside the circle',
+  'inside-if-swapped': 'with latitude and longitude swapped they would lie inside the circle',
+  'zero-coordinates': 'latitude and longitude are both zero, most likely an empty value written as zero',
+  'zero-latitude': 'latitude is zero and the circle does not reach the equator (an empty value written as zero?)',
+  'zero-longitude': 'longitude is zero and the circle does not reach the prime meridian (an empty value written as zero?)',
+  'coordinate-missing': 'one coordinate is given and the other is empty (read as zero by some programs)',
+  'coordinates-unreadable': 'a coordinate is not a decimal number',
+  'coordinates-out-of-range': 'latitude is beyond ±90 or longitude beyond ±180',
+  'on-country-center': "the coordinates sit on the center of the record's country in the gazetteer",
+  'on-stateProvince-center': "the coordinates sit on the center of the record's state or province in the gazetteer",
+} as const;
+
+export type CoordinateFlag = keyof typeof COORDINATE_FLAGS;
+
+/** The corrected center of an administrative unit the record names (method §4). */
+export interface AdministrativeCenter {
+  level: 'country' | 'stateProvince';
+  name: string;
+  latitude: number;
+  longitude: number;
+}
+
+/** The proposed georeference as written in the output: point and radius in meters. */
+export interface Circle {
+  latitude: number;
+  longitude: number;
+  radiusMeters: number;
+}
+
+export interface CoordinateCheck {
+  flags: CoordinateFlag[];
+  /** The same findings in plain words, for georeferenceRemarks. */
+  remarks: string[];
+}
+
+/**
+ * How close to a unit's center counts as "on" it [CHOICE, common practice, no source]: 1 km, or the
+ * half-step of the written coordinates' last decimal when coarser (a center rounded to 0.1° is still one).
+ */
+export const CENTER_TOLERANCE_METERS = 1000;
+
+const DECIMAL = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)$/;
+
+/**
+ * Check a record's decimalLatitude/decimalLongitude as written. Nothing is flagged when both are empty.
+ * Distances are geodesic on WGS84 (geographiclib, about 15 nm).
+ * @example
+ *   checkCoordinates('45.5', '-131.0', { latitude: -45.5, longitude: -131, radiusMeters: 2000 }, []).flags
+ *   // ['outside-circle', 'inside-if-latitude-negated']
+ */
+export function checkCoordinates(latitudeText: string, longitudeText: string, circle: Circle | undefined, centers: AdministrativeCenter[]): CoordinateCheck {
+  const latText = latitudeText.trim();
+  const lonText = longitudeText.trim();
+  const found: { flag: CoordinateFlag; remark: string }[] = [];
+  const add = (flag: CoordinateFlag, remark: string) => found.push({ flag, remark });
+  const done = () => ({ flags: found.map((f) => f.flag), remarks: found.map((f) => f.remark) });
+  if (latText === '' && lonText === '') return done();
+  const written = `the record's coordinates (${latText || 'empty'}, ${lonText || 'empty'})`;
+  if (latText === '' || lonText === '') {
+    add('coordinate-missing', `${written}: one coordinate is empty, which some programs read as zero; not compared`);
+    return done();
+  }
+  if (!DECIMAL.test(latText) || !DECIMAL.test(lonText)) {
+    add('coordinates-unreadable', `${written} are not decimal numbers; not compared`);
+    return done();
+  }
+  const latitude = Number(latText.replace(',', '.'));
+  const longitude = Number(lonText.replace(',', '.'));
+  const inRange = Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
+  if (!inRange) add('coordinates-out-of-range', `${written} are out of range (latitude beyond ±90 or longitude beyond ±180)`);
+  if (latitude === 0 && longitude === 0) add('zero-coordinates', `${written} are both zero, most likely an empty value written as zero`);
+  if (circle) compareWithCircle(latitude, longitude, inRange, circle, written, add);
+  if (inRange) compareWithCenters(latitude, longitude, precisionOf(latText, lonText), centers, written, add);
+  return done();
+}
+
+function compareWithCircle(
+  latitude: number,
+  longitude: number,
+  inRange: boolean,
+  circle: Circle,
+  written: string,
+  add: (flag: CoordinateFlag, remark: string) => void,
+): void {
+  const distance = (lat: number, lon: number) => inverse(circle.latitude, circle.longitude, lat, lon).meters;
+  const within = (lat: number, lon: number) => Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && distance(lat, lon) <= circle.radiusMeters;
+  const radius = `${formatMeters(circle.radiusMeters)} circle of the proposed georeference`;
+  if (inRange && within(latitude, longitude)) {
+    add('inside-circle', `${written} lie inside the ${radius}`);
+    return;
+  }
+  const away = inRange ? `, ${formatMeters(distance(latitude, longitude))} from its center` : '';
+  add('outside-circle', `${written} lie outside the ${radius}${away}`);
+  if (latitude === 0 && longitude !== 0 && !within(0, circle.longitude)) add('zero-latitude', `${written}: latitude is zero though the circle does not reach the equator (an empty value written as zero?)`);
+  if (longitude === 0 && latitude !== 0 && !within(circle.latitude, 0)) add('zero-longitude', `${written}: longitude is zero though the circle does not reach the prime meridian (an empty value written as zero?)`);
+  const variants: { flag: CoordinateFlag; lat: number; lon: number; how: string }[] = [
+    { flag: 'inside-if-latitude-negated', lat: -latitude, lon: longitude, how: 'with the sign of latitude inverted' },
+    { flag: 'inside-if-longitude-negated', lat: latitude, lon: -longitude, how: 'with the sign of longitude inverted' },
+    { flag: 'inside-if-both-negated', lat: -latitude, lon: -longitude, how: 'with both signs inverted' },
+    { flag: 'inside-if-swapped', lat: longitude, lon: latitude, how: 'with latitude and longitude swapped' },
+  ];
+  for (const v of variants) {
+    if ((v.lat !== latitude || v.lon !== longitude) && within(v.lat, v.lon)) add(v.flag, `${v.how} they would lie inside it`);
+  }
+}
+
+function compareWithCenters(
+  latitude: number,
+  longitude: number,
+  precisionDegrees: number,
+  centers: AdministrativeCenter[],
+  written: string,
+  add: (flag: CoordinateFlag, remark: string) => void,
+): void {
+  // Half a step of the last written decimal, on the diagonal, at about 111.32 km a degree (common practice, no source).
+  const tolerance = Math.max(CENTER_TOLERANCE_METERS, (precisionDegrees / 2) * Math.SQRT2 * 111_320);
+  for (const center of centers) {
+    const meters = inverse(center.latitude, center.longitude, latitude, longitude).meters;
+    if (meters > tolerance) continue;
+    const flag: CoordinateFlag = center.level === 'country' ? 'on-country-center' : 'on-stateProvince-center';
+    add(flag, `${written} sit ${formatMeters(meters)} from the center of the ${center.level === 'country' ? 'country' : 'state or province'} "${center.name}" in the gazetteer: perhaps a center given for want of a locality`);
+  }
+}
+
+/** The coarser step of the two written numbers, in degrees ("-45.5" → 0.1). */
+function precisionOf(...texts: string[]): number {
+  return Math.max(...texts.map((t) => 10 ** -(t.split(/[.,]/)[1]?.length ?? 0)));
+}
+
+function formatMeters(meters: number): string {
+  return meters >= 10_000 ? `${(meters / 1000).toFixed(0)} km` : `${Math.round(meters)} m`;
+}

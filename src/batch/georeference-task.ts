@@ -1,0 +1,36 @@
+/**
+ * The work a batch worker thread does: georeference a chunk of distinct localities against the
+ * gazetteer, which each worker opens read-only once and keeps open.
+ */
+import { openGazetteer } from '../gazetteer/store.ts';
+import type { LocateRequest } from '../locate.ts';
+import type { RecordContext } from '../record/darwin-core.ts';
+import { georeferenceGroup, type BatchSettings, type GroupResult } from './georeference-group.ts';
+
+export interface GeoreferenceTask {
+  dbPath: string;
+  groups: { id: number; request: LocateRequest }[];
+  settings: BatchSettings;
+  context: RecordContext;
+}
+
+let opened: { dbPath: string; store: ReturnType<typeof openGazetteer> } | undefined;
+
+/**
+ * Georeference every group of the task, in order.
+ * @example georeferenceChunk({ dbPath: 'g.sqlite', groups: [{ id: 1, request: { locality: 'Alba' } }], settings, context })
+ */
+export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: GroupResult }[] {
+  if (opened?.dbPath !== task.dbPath) {
+    opened?.store.close();
+    opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, { readonly: true }) };
+  }
+  const store = opened.store;
+  return task.groups.map(({ id, request }) => ({ id, result: georeferenceGroup(store, request, task.settings, task.context) }));
+}
+
+/** Close the gazetteer this thread opened (the main thread, after doing a small batch itself). */
+export function closeGazetteerOfThread(): void {
+  opened?.store.close();
+  opened = undefined;
+}

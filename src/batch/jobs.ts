@@ -1,0 +1,174 @@
+/**
+ * Batch jobs in SQLite (WAL), in a file of their own beside the gazetteer (`<gazetteer>.jobs.sqlite`),
+ * so the gazetteer stays read-only while a batch runs. A job holds what makes its output reproducible
+ * (input sha256, settings, whereabouts version, gazetteer source hashes, one run timestamp) and its
+ * progress: the result of each distinct locality and the number of rows written.
+ */
+import { basename, dirname, join } from 'node:path';
+import Database from 'better-sqlite3';
+import type { Source } from '../gazetteer/types.ts';
+
+export type JobState = 'reading' | 'georeferencing' | 'writing' | 'done' | 'failed';
+
+/** A job as stored. */
+export interface BatchJob {
+  id: string;
+  state: JobState;
+  inputPath: string;
+  /** True when the input was standard input or an upload, spooled to a file the job deletes when done. */
+  inputIsSpool: boolean;
+  inputSha256: string;
+  inputBytes: number;
+  encoding: string;
+  delimiter: string;
+  /** Target file, or '-' for standard output. */
+  outputPath: string;
+  /** The file written as the job goes, renamed to outputPath at the end. */
+  partialPath: string;
+  gazetteerPath: string;
+  settings: string;
+  version: string;
+  sources: Source[];
+  runTimestamp: string;
+  rowsTotal: number | null;
+  rowsDone: number;
+  outputBytes: number;
+  distinctTotal: number | null;
+  distinctDone: number;
+  /** Counts by georeferenceVerificationStatus and of malformed and flagged rows, as JSON. */
+  tallies: Record<string, number>;
+  startedAt: string;
+  finishedAt: string | null;
+  error: string | null;
+}
+
+/** What the HTTP service and the progress bar show. */
+export interface JobProgress {
+  state: JobState;
+  rowsTotal?: number;
+  rowsDone: number;
+  distinctDone: number;
+  distinctTotal?: number;
+  startedAt: string;
+  finishedAt?: string;
+  outputPath?: string;
+  error?: string;
+}
+
+const SCHEMA = `
+CREATE TABLE IF NOT EXISTS batch_job (
+  id TEXT PRIMARY KEY, state TEXT NOT NULL,
+  input_path TEXT NOT NULL, input_is_spool INTEGER NOT NULL, input_sha256 TEXT NOT NULL, input_bytes INTEGER NOT NULL,
+  encoding TEXT NOT NULL, delimiter TEXT NOT NULL, output_path TEXT NOT NULL, partial_path TEXT NOT NULL,
+  gazetteer_path TEXT NOT NULL, settings TEXT NOT NULL, version TEXT NOT NULL, sources TEXT NOT NULL,
+  run_timestamp TEXT NOT NULL, rows_total INTEGER, rows_done INTEGER NOT NULL DEFAULT 0,
+  output_bytes INTEGER NOT NULL DEFAULT 0, distinct_total INTEGER, distinct_done INTEGER NOT NULL DEFAULT 0,
+  tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT
+);
+CREATE TABLE IF NOT EXISTS batch_locality (
+  id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
+);
+CREATE UNIQUE INDEX IF NOT EXISTS batch_locality_key ON batch_locality (job_id, key);
+`;
+
+/**
+ * The job database that goes with a gazetteer file.
+ * @example jobsDatabasePath('/data/whereabouts.sqlite') // '/data/whereabouts.jobs.sqlite'
+ */
+export function jobsDatabasePath(gazetteerPath: string): string {
+  return join(dirname(gazetteerPath), `${basename(gazetteerPath).replace(/\.sqlite$/, '')}.jobs.sqlite`);
+}
+
+/** Open (and create when new) a job database in WAL mode. */
+export function openJobs(path: string): Database.Database {
+  const db = new Database(path);
+  db.pragma('journal_mode = WAL');
+  db.pragma('busy_timeout = 5000');
+  db.exec(SCHEMA);
+  return db;
+}
+
+interface JobRow {
+  id: string; state: JobState; input_path: string; input_is_spool: number; input_sha256: string; input_bytes: number;
+  encoding: string; delimiter: string; output_path: string; partial_path: string; gazetteer_path: string; settings: string;
+  version: string; sources: string; run_timestamp: string; rows_total: number | null; rows_done: number; output_bytes: number;
+  distinct_total: number | null; distinct_done: number; tallies: string; started_at: string; finished_at: string | null; error: string | null;
+}
+
+function fromRow(row: JobRow): BatchJob {
+  return {
+    id: row.id, state: row.state, inputPath: row.input_path, inputIsSpool: row.input_is_spool === 1, inputSha256: row.input_sha256,
+    inputBytes: row.input_bytes, encoding: row.encoding, delimiter: row.delimiter, outputPath: row.output_path,
+    partialPath: row.partial_path, gazetteerPath: row.gazetteer_path, settings: row.settings, version: row.version,
+    sources: JSON.parse(row.sources) as Source[], runTimestamp: row.run_timestamp, rowsTotal: row.rows_total,
+    rowsDone: row.rows_done, outputBytes: row.output_bytes, distinctTotal: row.distinct_total, distinctDone: row.distinct_done,
+    tallies: JSON.parse(row.tallies) as Record<string, number>, startedAt: row.started_at, finishedAt: row.finished_at, error: row.error,
+  };
+}
+
+/** A job by id, or an error saying there is none. */
+export function loadJob(db: Database.Database, id: string): BatchJob {
+  const row = db.prepare('SELECT * FROM batch_job WHERE id = ?').get(id) as JobRow | undefined;
+  if (!row) throw new Error(`no batch job "${id}" in ${db.name}`);
+  return fromRow(row);
+}
+
+/** The newest unfinished job for the same input, output, settings, version and sources: rerunning a command resumes it. */
+export function findUnfinishedJob(db: Database.Database, like: Pick<BatchJob, 'inputSha256' | 'outputPath' | 'settings' | 'version' | 'sources'>): BatchJob | undefined {
+  const rows = db
+    .prepare("SELECT * FROM batch_job WHERE input_sha256 = ? AND output_path = ? AND settings = ? AND version = ? AND state != 'done' ORDER BY started_at DESC")
+    .all(like.inputSha256, like.outputPath, like.settings, like.version) as JobRow[];
+  return rows.map(fromRow).find((job) => sameSources(job.sources, like.sources));
+}
+
+/** Sources are the same when every id has the same content hash. */
+export function sameSources(a: Source[], b: Source[]): boolean {
+  const key = (s: Source[]) => JSON.stringify(s.map((x) => [x.id, x.contentHash]).sort());
+  return key(a) === key(b);
+}
+
+/** Store a new job. */
+export function insertJob(db: Database.Database, job: BatchJob): void {
+  db.prepare(
+    `INSERT INTO batch_job (id, state, input_path, input_is_spool, input_sha256, input_bytes, encoding, delimiter, output_path,
+       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at)
+     VALUES (@id, @state, @inputPath, @inputIsSpool, @inputSha256, @inputBytes, @encoding, @delimiter, @outputPath,
+       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt)`,
+  ).run({ ...job, inputIsSpool: job.inputIsSpool ? 1 : 0, sources: JSON.stringify(job.sources) });
+}
+
+/** Update the given columns of a job (names as in BatchJob). */
+export function updateJob(db: Database.Database, id: string, change: Partial<Pick<BatchJob, 'state' | 'rowsTotal' | 'rowsDone' | 'outputBytes' | 'distinctTotal' | 'distinctDone' | 'tallies' | 'finishedAt' | 'error'>>): void {
+  const columns: Record<string, string> = {
+    state: 'state', rowsTotal: 'rows_total', rowsDone: 'rows_done', outputBytes: 'output_bytes', distinctTotal: 'distinct_total',
+    distinctDone: 'distinct_done', tallies: 'tallies', finishedAt: 'finished_at', error: 'error',
+  };
+  const entries = Object.entries(change);
+  if (entries.length === 0) return;
+  const values = Object.fromEntries(entries.map(([k, v]) => [k, k === 'tallies' ? JSON.stringify(v) : v]));
+  db.prepare(`UPDATE batch_job SET ${entries.map(([k]) => `${columns[k]} = @${k}`).join(', ')} WHERE id = @id`).run({ ...values, id });
+}
+
+/**
+ * The progress of a job, for the HTTP service and the progress bar.
+ * @example jobProgress(jobsDatabasePath('whereabouts.sqlite'), 'k3v9q2xa') // { state: 'writing', rowsDone: 12000, … }
+ */
+export function jobProgress(jobs: string | Database.Database, jobId: string): JobProgress {
+  const db = typeof jobs === 'string' ? openJobs(jobs) : jobs;
+  try {
+    const job = loadJob(db, jobId);
+    return {
+      state: job.state,
+      rowsTotal: job.rowsTotal ?? undefined,
+      rowsDone: job.rowsDone,
+      distinctDone: job.distinctDone,
+      distinctTotal: job.distinctTotal ?? undefined,
+      startedAt: job.startedAt,
+      finishedAt: job.finishedAt ?? undefined,
+      outputPath: job.state === 'done' && job.outputPath !== '-' ? job.outputPath : undefined,
+      error: job.error ?? undefined,
+    };
+  } finally {
+    if (typeof jobs === 'string') db.close();
+  }
+}

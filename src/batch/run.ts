@@ -1,0 +1,408 @@
+/**
+ * A batch job from input file to output file: read the rows once to find the distinct localities,
+ * georeference each once (over worker threads for large files), then read the rows again and write
+ * each with its originals and the appended terms. Every step commits its progress to the job, so a
+ * job stopped at any point (even by kill -9) finishes on resume with the same bytes as an unbroken run.
+ */
+import { randomUUID } from 'node:crypto';
+import { closeSync, createReadStream, createWriteStream, existsSync, fsyncSync, ftruncateSync, openSync, renameSync, rmSync, writeFileSync, writeSync } from 'node:fs';
+import { cpus } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { pipeline } from 'node:stream/promises';
+import { setTimeout as sleep } from 'node:timers/promises';
+import type Database from 'better-sqlite3';
+import { stringify } from 'csv-stringify/sync';
+import Tinypool from 'tinypool';
+import { openGazetteer } from '../gazetteer/store.ts';
+import type { LocateRequest } from '../locate.ts';
+import { appendedColumnNames, darwinCoreFields, type GeoreferenceTerm, GEOREFERENCE_TERMS, type RecordContext } from '../record/darwin-core.ts';
+import { VERSION } from '../version.ts';
+import { checkCoordinates, COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR, type Circle } from './coordinate-check.ts';
+import { unreadableResult, type BatchSettings, type GroupResult } from './georeference-group.ts';
+import georeferenceChunk, { closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
+import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
+import {
+  findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
+  type BatchJob, type JobState,
+} from './jobs.ts';
+import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
+import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
+
+export interface BatchJobOptions {
+  /** The gazetteer database (opened read-only). */
+  dbPath: string;
+  /** Path of the input file, '-' for standard input, or the file's bytes (an upload). Not needed with `resume`. */
+  input?: string | Buffer;
+  /** Target file, or '-' for standard output (the default). */
+  output?: string;
+  /** Id of a job to finish. */
+  resume?: string;
+  coverAmbiguous?: boolean;
+  administrativeFallback?: boolean;
+  /** Worker threads for the distinct localities (default: one a core). */
+  threads?: number;
+  /** Job database; default `jobsDatabasePath(dbPath)`. */
+  jobsDbPath?: string;
+  /** Called after each committed step. */
+  onProgress?: (event: BatchProgressEvent) => void;
+  /** Where output '-' goes (default process.stdout) and where input '-' comes from (default process.stdin). */
+  stdout?: NodeJS.WritableStream;
+  stdin?: NodeJS.ReadableStream;
+}
+
+/** A step of a running job, for a progress bar. */
+export interface BatchProgressEvent {
+  jobId: string;
+  phase: Exclude<JobState, 'done' | 'failed'>;
+  /** Rows read, distinct localities georeferenced, or rows written, by phase. */
+  done: number;
+  total?: number;
+}
+
+export interface BatchSummary {
+  jobId: string;
+  /** True when the job had been started before and this run finished it. */
+  resumed: boolean;
+  rows: number;
+  distinctLocalities: number;
+  malformedRows: number;
+  /** Rows whose coordinates were flagged (any flag but inside-circle). */
+  flaggedRows: number;
+  /** Rows by georeferenceVerificationStatus. */
+  byStatus: Record<string, number>;
+  outputPath: string;
+  encoding: InputEncoding;
+  delimiter: Delimiter;
+  runTimestamp: string;
+}
+
+/** Distinct localities georeferenced in one unit of work (and one commit) [CHOICE]. */
+const GROUPS_PER_CHUNK = 64;
+/** Rows written and committed at a time [CHOICE]. */
+const ROWS_PER_CHUNK = 1000;
+/** Below this many distinct localities, the main thread does the work: starting workers costs more [CHOICE]. */
+const IN_PROCESS_LIMIT = 400;
+/** Group results kept parsed in memory while writing [CHOICE]. */
+const RESULT_CACHE_SIZE = 20_000;
+
+/**
+ * Start (or resume) a batch job. Resolves once the job is stored, with its id and a promise of the
+ * finished job; the output file appears, whole, only when that promise resolves.
+ * @example
+ *   const { jobId, done } = await startBatchJob({ dbPath: 'whereabouts.sqlite', input: 'in.csv', output: 'out.csv' });
+ *   const summary = await done; // { rows: 52, distinctLocalities: 47, … }
+ */
+export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: string; done: Promise<BatchSummary> }> {
+  if (!existsSync(options.dbPath)) throw new Error(`no gazetteer database at ${options.dbPath}: import a gazetteer first (whereabouts import <file>)`);
+  const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
+  const jobs = openJobs(jobsPath);
+  try {
+    const { job, resumed, format } = options.resume ? await resumableJob(jobs, options) : await newOrUnfinishedJob(jobs, jobsPath, options);
+    const done = runJob(jobs, job, format, options).then(
+      (summary) => ({ ...summary, resumed }),
+      (error: unknown) => {
+        updateJob(jobs, job.id, { state: 'failed', error: error instanceof Error ? error.message : String(error) });
+        throw error;
+      },
+    ).finally(() => jobs.close());
+    return { jobId: job.id, done };
+  } catch (error) {
+    jobs.close();
+    throw error;
+  }
+}
+
+interface StartedJob {
+  job: BatchJob;
+  resumed: boolean;
+  format: InputFormat;
+}
+
+function settingsOf(options: BatchJobOptions): string {
+  const settings: BatchSettings = { administrativeFallback: Boolean(options.administrativeFallback), coverAmbiguous: Boolean(options.coverAmbiguous) };
+  return JSON.stringify(settings);
+}
+
+function gazetteerSources(dbPath: string) {
+  const store = openGazetteer(dbPath, { readonly: true });
+  try {
+    return store.sources();
+  } finally {
+    store.close();
+  }
+}
+
+async function resumableJob(jobs: Database.Database, options: BatchJobOptions): Promise<StartedJob> {
+  const job = loadJob(jobs, options.resume!);
+  if (job.state === 'done') throw new Error(`batch job ${job.id} is already done (output ${job.outputPath})`);
+  if (!existsSync(job.inputPath)) throw new Error(`batch job ${job.id}: its input ${job.inputPath} is gone`);
+  const format = await inspectInput(job.inputPath);
+  if (format.sha256 !== job.inputSha256) throw new Error(`batch job ${job.id}: its input ${job.inputPath} has changed since the job started; start a new batch`);
+  if (!sameSources(gazetteerSources(job.gazetteerPath), job.sources)) {
+    throw new Error(`batch job ${job.id}: the gazetteer sources have changed since the job started, so its results could not be reproduced; start a new batch`);
+  }
+  if (job.version !== VERSION) throw new Error(`batch job ${job.id} was started by whereabouts ${job.version}, this is ${VERSION}; start a new batch`);
+  return { job, resumed: true, format };
+}
+
+async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, options: BatchJobOptions): Promise<StartedJob> {
+  if (options.input === undefined) throw new Error('a batch needs an input file (or - for standard input), or --resume <job>');
+  const spooled = typeof options.input !== 'string' || options.input === '-';
+  const inputPath = spooled ? await spool(options, jobsPath) : resolve(options.input as string);
+  const outputPath = !options.output || options.output === '-' ? '-' : resolve(options.output);
+  try {
+    if (outputPath === inputPath) throw new Error(`the output ${outputPath} would replace the input`);
+    if (!existsSync(inputPath)) throw new Error(`cannot read the input ${inputPath}: no such file`);
+    const format = await inspectInput(inputPath);
+    const delimiter = await detectDelimiter(inputPath, format);
+    await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
+    const like = { inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath) };
+    const unfinished = findUnfinishedJob(jobs, like);
+    if (unfinished) {
+      if (spooled) rmSync(inputPath, { force: true });
+      return { job: unfinished, resumed: true, format };
+    }
+    const id = randomUUID().slice(0, 8);
+    const job: BatchJob = {
+      ...like, id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
+      partialPath: outputPath === '-' ? join(dirname(jobsPath), `whereabouts-job-${id}.partial`) : `${outputPath}.${id}.partial`,
+      gazetteerPath: resolve(options.dbPath), runTimestamp: new Date().toISOString().replace(/\.\d+Z$/, 'Z'), rowsTotal: null, rowsDone: 0,
+      outputBytes: 0, distinctTotal: null, distinctDone: 0, tallies: {}, startedAt: new Date().toISOString(), finishedAt: null, error: null,
+    };
+    insertJob(jobs, job);
+    return { job, resumed: false, format };
+  } catch (error) {
+    if (spooled) rmSync(inputPath, { force: true });
+    throw error;
+  }
+}
+
+/** Standard input or uploaded bytes, kept in a file beside the job database until the job is done. */
+async function spool(options: BatchJobOptions, jobsPath: string): Promise<string> {
+  const path = join(dirname(jobsPath), `whereabouts-spool-${randomUUID().slice(0, 8)}.input`);
+  if (Buffer.isBuffer(options.input)) writeFileSync(path, options.input);
+  else await pipeline(options.stdin ?? process.stdin, createWriteStream(path));
+  return path;
+}
+
+async function headerColumns(path: string, format: InputFormat, delimiter: Delimiter): Promise<{ header: string[]; columns: ColumnIndex }> {
+  for await (const record of readRecords(path, format, delimiter)) {
+    if (record.problem) throw new Error(`cannot read the header of ${path}: ${record.problem}`);
+    return { header: record.fields, columns: indexColumns(record.fields) };
+  }
+  throw new Error(`the input ${path} is empty: it has no header line`);
+}
+
+async function runJob(jobs: Database.Database, started: BatchJob, format: InputFormat, options: BatchJobOptions): Promise<Omit<BatchSummary, 'resumed'>> {
+  const delimiter = started.delimiter as Delimiter;
+  if (started.rowsTotal === null) await readGroups(jobs, started, format, delimiter, options);
+  const read = loadJob(jobs, started.id);
+  if (read.distinctDone < (read.distinctTotal ?? 0)) await georeferenceGroups(jobs, read, options);
+  updateJob(jobs, started.id, { state: 'writing', error: null });
+  await writeRows(jobs, loadJob(jobs, started.id), format, delimiter, options);
+  const job = loadJob(jobs, started.id);
+  await deliver(job, options);
+  updateJob(jobs, job.id, { state: 'done', finishedAt: new Date().toISOString() });
+  jobs.prepare('DELETE FROM batch_locality WHERE job_id = ?').run(job.id);
+  if (job.inputIsSpool) rmSync(job.inputPath, { force: true });
+  const { malformed = 0, flagged = 0, ...byStatus } = job.tallies;
+  return {
+    jobId: job.id, rows: job.rowsTotal ?? 0, distinctLocalities: job.distinctTotal ?? 0, malformedRows: malformed, flaggedRows: flagged,
+    byStatus, outputPath: job.outputPath, encoding: format.encoding, delimiter, runTimestamp: job.runTimestamp,
+  };
+}
+
+/** A pause after each commit, for tests that stop a job part way (WHEREABOUTS_TEST_DELAY_MS; never set in use). */
+async function testDelay(): Promise<void> {
+  const ms = Number(process.env.WHEREABOUTS_TEST_DELAY_MS ?? 0);
+  if (ms > 0) await sleep(ms);
+}
+
+/** Phase 1: every row read once; each distinct locality stored once (reading again after a crash changes nothing). */
+async function readGroups(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions): Promise<void> {
+  updateJob(jobs, job.id, { state: 'reading' });
+  const insert = jobs.prepare('INSERT OR IGNORE INTO batch_locality (job_id, key, request) VALUES (?, ?, ?)');
+  const insertAll = jobs.transaction((groups: { key: string; request: LocateRequest }[]) => {
+    for (const g of groups) insert.run(job.id, g.key, JSON.stringify(g.request));
+  });
+  let columns: ColumnIndex | undefined;
+  let rows = 0;
+  let pending: { key: string; request: LocateRequest }[] = [];
+  for await (const record of readRecords(job.inputPath, format, delimiter)) {
+    if (!columns) {
+      columns = indexColumns(record.fields);
+      continue;
+    }
+    rows++;
+    if (!record.problem) pending.push(groupOf(record.fields, columns));
+    if (pending.length >= 5000) {
+      insertAll(pending);
+      pending = [];
+      options.onProgress?.({ jobId: job.id, phase: 'reading', done: rows });
+    }
+  }
+  insertAll(pending);
+  const { n } = jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ?').get(job.id) as { n: number };
+  updateJob(jobs, job.id, { rowsTotal: rows, distinctTotal: n, state: 'georeferencing' });
+}
+
+function recordContextOf(job: BatchJob): RecordContext {
+  return { georeferencedBy: `whereabouts ${job.version}`, georeferencedDate: job.runTimestamp, sources: job.sources };
+}
+
+/** Phase 2: each distinct locality not yet done, in chunks, over worker threads; each chunk committed as it comes back. */
+async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions): Promise<void> {
+  updateJob(jobs, job.id, { state: 'georeferencing' });
+  const settings = JSON.parse(job.settings) as BatchSettings;
+  const context = recordContextOf(job);
+  const next = jobs.prepare('SELECT id, request FROM batch_locality WHERE job_id = ? AND result IS NULL AND id > ? ORDER BY id LIMIT ?');
+  const setResult = jobs.prepare('UPDATE batch_locality SET result = ? WHERE id = ?');
+  const total = job.distinctTotal ?? 0;
+  let distinctDone = (jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ? AND result IS NOT NULL').get(job.id) as { n: number }).n;
+  const save = jobs.transaction((results: { id: number; result: GroupResult }[]) => {
+    for (const r of results) setResult.run(JSON.stringify(r.result), r.id);
+    distinctDone += results.length;
+    updateJob(jobs, job.id, { distinctDone });
+  });
+  let cursor = 0;
+  const nextTask = (): GeoreferenceTask | undefined => {
+    const rows = next.all(job.id, cursor, GROUPS_PER_CHUNK) as { id: number; request: string }[];
+    if (rows.length === 0) return undefined;
+    cursor = rows[rows.length - 1].id;
+    return { dbPath: job.gazetteerPath, groups: rows.map((r) => ({ id: r.id, request: JSON.parse(r.request) as LocateRequest })), settings, context };
+  };
+  const threads = Math.max(1, options.threads ?? cpus().length);
+  const pool = threads > 1 && total - distinctDone > IN_PROCESS_LIMIT
+    ? new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: threads, maxThreads: threads })
+    : undefined;
+  const run = pool ? (task: GeoreferenceTask) => pool.run(task) as Promise<ReturnType<typeof georeferenceChunk>> : async (task: GeoreferenceTask) => georeferenceChunk(task);
+  const lane = async () => {
+    for (let task = nextTask(); task; task = nextTask()) {
+      save(await run(task));
+      options.onProgress?.({ jobId: job.id, phase: 'georeferencing', done: distinctDone, total });
+      await testDelay();
+    }
+  };
+  try {
+    await Promise.all(Array.from({ length: pool ? threads * 2 : 1 }, lane));
+  } finally {
+    await pool?.destroy();
+    if (!pool) closeGazetteerOfThread();
+  }
+}
+
+/** Phase 3: every row written in input order after the rows already committed; the file grows only by whole chunks. */
+async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions): Promise<void> {
+  if (job.outputBytes > 0 && !existsSync(job.partialPath) && job.outputPath !== '-' && existsSync(job.outputPath)) return; // renamed before the crash
+  const restart = job.outputBytes > 0 && !existsSync(job.partialPath);
+  let position = restart ? 0 : job.outputBytes;
+  let rowsDone = restart ? 0 : job.rowsDone;
+  const tallies: Record<string, number> = restart ? {} : { ...job.tallies };
+  const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
+  const context = recordContextOf(job);
+  const results = resultLookup(jobs, job.id);
+  const write = (rows: string[][]) => {
+    const bytes = Buffer.from(stringify(rows, { delimiter, record_delimiter: 'windows' }), 'utf8');
+    writeSync(fd, bytes, 0, bytes.length, position);
+    position += bytes.length;
+    fsyncSync(fd);
+  };
+  try {
+    ftruncateSync(fd, position);
+    let columns: ColumnIndex | undefined;
+    let headerLength = 0;
+    let rowIndex = 0;
+    let buffer: string[][] = [];
+    const flush = () => {
+      if (buffer.length === 0) return;
+      write(buffer);
+      rowsDone += buffer.length;
+      buffer = [];
+      updateJob(jobs, job.id, { rowsDone, outputBytes: position, tallies });
+    };
+    for await (const record of readRecords(job.inputPath, format, delimiter)) {
+      if (!columns) {
+        columns = indexColumns(record.fields);
+        headerLength = record.fields.length;
+        if (position === 0) {
+          write([[...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN]]);
+          updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
+        }
+        continue;
+      }
+      if (++rowIndex <= rowsDone) continue;
+      buffer.push(outputRow(record, headerLength, columns, context, results, tallies));
+      if (buffer.length >= ROWS_PER_CHUNK) {
+        flush();
+        options.onProgress?.({ jobId: job.id, phase: 'writing', done: rowsDone, total: job.rowsTotal ?? undefined });
+        await testDelay();
+      }
+    }
+    flush();
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/** Group results by key, from the job, with the most recent kept parsed. */
+function resultLookup(jobs: Database.Database, jobId: string): (key: string) => GroupResult {
+  const select = jobs.prepare('SELECT result FROM batch_locality WHERE job_id = ? AND key = ?');
+  const cache = new Map<string, GroupResult>();
+  return (key) => {
+    const cached = cache.get(key);
+    if (cached) return cached;
+    const row = select.get(jobId, key) as { result: string | null } | undefined;
+    if (!row?.result) throw new Error(`batch job ${jobId}: no result stored for the locality ${key}`);
+    const result = JSON.parse(row.result) as GroupResult;
+    if (cache.size >= RESULT_CACHE_SIZE) cache.delete(cache.keys().next().value!);
+    cache.set(key, result);
+    return result;
+  };
+}
+
+/** One output row: the original fields (padded to the header), the appended terms and the coordinate flags. */
+function outputRow(
+  record: InputRecord,
+  headerLength: number,
+  columns: ColumnIndex,
+  context: RecordContext,
+  results: (key: string) => GroupResult,
+  tallies: Record<string, number>,
+): string[] {
+  const originals = Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? '');
+  let fields: Record<GeoreferenceTerm, string>;
+  let flags: string[] = [];
+  if (record.problem) {
+    fields = darwinCoreFields(unreadableResult('', record.problem), context);
+    count(tallies, 'malformed');
+  } else {
+    const group = results(groupOf(record.fields, columns).key);
+    const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
+    const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), circleOf(group.fields), group.centers);
+    flags = check.flags;
+    fields = check.remarks.length === 0 ? group.fields : { ...group.fields, georeferenceRemarks: [group.fields.georeferenceRemarks, ...check.remarks].filter(Boolean).join('; ') };
+    if (flags.some((f) => f !== 'inside-circle')) count(tallies, 'flagged');
+  }
+  count(tallies, fields.georeferenceVerificationStatus);
+  return [...originals, ...GEOREFERENCE_TERMS.map((term) => fields[term]), flags.join(FLAG_SEPARATOR)];
+}
+
+function count(tallies: Record<string, number>, key: string): void {
+  tallies[key] = (tallies[key] ?? 0) + 1;
+}
+
+/** The circle as written in the output (rounded point, radius rounded up), for the coordinate check. */
+function circleOf(fields: Record<GeoreferenceTerm, string>): Circle | undefined {
+  if (fields.decimalLatitude === '' || fields.coordinateUncertaintyInMeters === '') return undefined;
+  return { latitude: Number(fields.decimalLatitude), longitude: Number(fields.decimalLongitude), radiusMeters: Number(fields.coordinateUncertaintyInMeters) };
+}
+
+/** The finished file: renamed onto the target (a crash never leaves half a file there), or copied to standard output. */
+async function deliver(job: BatchJob, options: BatchJobOptions): Promise<void> {
+  if (job.outputPath !== '-') {
+    if (existsSync(job.partialPath)) renameSync(job.partialPath, job.outputPath);
+    return;
+  }
+  await pipeline(createReadStream(job.partialPath), options.stdout ?? process.stdout, { end: false });
+  rmSync(job.partialPath, { force: true });
+}

@@ -1,0 +1,104 @@
+import type { Command } from 'commander';
+import cliProgress from 'cli-progress';
+import { startBatchJob, type BatchProgressEvent, type BatchSummary } from '../../batch/run.ts';
+
+interface BatchCommandOptions {
+  out?: string;
+  resume?: string;
+  quiet?: boolean;
+  threads?: number;
+  coverAmbiguous?: boolean;
+  administrativeFallback?: boolean;
+}
+
+const PHASE_LABELS: Record<BatchProgressEvent['phase'], string> = {
+  reading: 'reading rows        ',
+  georeferencing: 'distinct localities ',
+  writing: 'writing rows        ',
+};
+
+/**
+ * `whereabouts batch <in.csv|->`: georeference a whole file as a resumable job. Progress on stderr
+ * (only on a terminal, and not with --quiet); exit 0 when the file was processed, whatever the rows' status.
+ */
+export function registerBatch(program: Command, dbPath: () => string): void {
+  program
+    .command('batch')
+    .description('georeference every row of a CSV or tab-separated file, as a job that can be stopped and resumed')
+    .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252), or - for standard input')
+    .option('--out <file>', 'the output file, or - for standard output', '-')
+    .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
+    .option('--quiet', 'no progress bar')
+    .option('--threads <n>', 'worker threads for the distinct localities (default: one a core)', (v) => positiveInteger(v))
+    .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
+    .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")
+    .action(async (input: string | undefined, opts: BatchCommandOptions) => {
+      if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
+      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
+      const { jobId, done } = await startBatchJob({
+        dbPath: dbPath(),
+        input,
+        output: opts.out,
+        resume: opts.resume,
+        threads: opts.threads,
+        coverAmbiguous: opts.coverAmbiguous,
+        administrativeFallback: opts.administrativeFallback,
+        onProgress: bar?.update,
+      });
+      if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n`);
+      try {
+        const summary = await done;
+        bar?.stop();
+        if (!opts.quiet) process.stderr.write(describe(summary));
+      } finally {
+        bar?.stop();
+      }
+    });
+}
+
+function positiveInteger(value: string): number {
+  const n = Number(value);
+  if (!Number.isInteger(n) || n < 1) throw new Error(`--threads must be a whole number of at least 1, not "${value}"`);
+  return n;
+}
+
+/** One bar a phase, with its rate and time left. */
+function progressBar() {
+  const bar = new cliProgress.SingleBar(
+    { format: '{phase} {bar} {value}/{total} | {rate}/s | {eta_formatted} left', stream: process.stderr, hideCursor: true, etaBuffer: 50 },
+    cliProgress.Presets.shades_classic,
+  );
+  let phase: BatchProgressEvent['phase'] | undefined;
+  let phaseStart = Date.now();
+  let phaseStartCount = 0;
+  return {
+    update(event: BatchProgressEvent) {
+      if (event.phase !== phase) {
+        if (phase) bar.stop();
+        phase = event.phase;
+        phaseStart = Date.now();
+        phaseStartCount = event.done;
+        bar.start(event.total ?? event.done, event.done, { phase: PHASE_LABELS[phase], rate: 0 });
+      }
+      const seconds = (Date.now() - phaseStart) / 1000;
+      const rate = seconds > 0 ? Math.round((event.done - phaseStartCount) / seconds) : 0;
+      if (event.total === undefined) bar.setTotal(event.done);
+      bar.update(event.done, { phase: PHASE_LABELS[phase], rate });
+    },
+    stop() {
+      if (phase) bar.stop();
+      phase = undefined;
+    },
+  };
+}
+
+function describe(s: BatchSummary): string {
+  const statuses = Object.entries(s.byStatus).map(([status, n]) => `${n} ${status}`).join(', ');
+  const lines = [
+    `whereabouts: ${s.rows} rows, ${s.distinctLocalities} distinct localities (${s.encoding}, delimiter ${JSON.stringify(s.delimiter)})${s.resumed ? ', job resumed' : ''}`,
+    `  ${statuses || 'no rows'}`,
+    `  ${s.malformedRows} malformed rows, ${s.flaggedRows} rows with their coordinates flagged (column whereabouts_coordinateFlags)`,
+    `  output: ${s.outputPath === '-' ? 'standard output' : s.outputPath}`,
+  ];
+  return `${lines.join('\n')}\n`;
+}
