@@ -3,7 +3,7 @@
  * South Pacific, with its coastline, provinces, counties, places, rivers and roads, plus a batch of invented
  * label-style localities.
  *
- * Run: `npx tsx gazetteer/generate-demo.ts`. Deterministic: a seeded generator and hand-written names and
+ * Run: `npx tsx gazetteer/generate-demo.ts` (or `npm run demo:generate`). Deterministic: a seeded generator and hand-written names and
  * anchor positions, so the same script always writes the same bytes.
  *
  * Geometry is built in a flat local plane in kilometres (x east, y north) around the island's center and
@@ -16,12 +16,14 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { stringify } from 'csv-stringify/sync';
 import * as turf from '@turf/turf';
+import geographiclib from 'geographiclib-geodesic';
 import type { Feature, FeatureCollection, Geometry, Polygon, Position } from 'geojson';
 
 type Pt = [number, number];
 type Ring = Pt[]; // open ring, counter-clockwise in the local plane
 
-const OUT_DIR = dirname(fileURLToPath(import.meta.url));
+// DEMO_OUT_DIR lets a test regenerate into a scratch folder and compare with the committed files.
+const OUT_DIR = process.env.DEMO_OUT_DIR ?? dirname(fileURLToPath(import.meta.url));
 const CENTER_LON = -131.0;
 const CENTER_LAT = -45.5;
 const KM_PER_DEG_LAT = 110.574;
@@ -175,18 +177,25 @@ function lineCrossings(p: Pt[], q: Pt[]): Pt[] {
   return out;
 }
 
-/** The point `km` along a polyline from its start. */
-function pointAlong(line: Pt[], km: number): Pt {
-  let left = km;
-  for (let i = 1; i < line.length; i++) {
-    const seg = distance(line[i - 1]!, line[i]!);
-    if (left <= seg) {
-      const f = left / seg;
-      return [line[i - 1]![0] + f * (line[i]![0] - line[i - 1]![0]), line[i - 1]![1] + f * (line[i]![1] - line[i - 1]![1])];
+/**
+ * The point `meters` along a polyline from its start, measured on the WGS84 ellipsoid along the
+ * polyline's vertices as they are written out (geographiclib; exact to well under a metre here).
+ */
+function geodesicPointAlong(line: Pt[], meters: number): Pt {
+  const wgs84 = geographiclib.Geodesic.WGS84;
+  const lonLat = line.map(toLonLat) as [number, number][];
+  let left = meters;
+  for (let i = 1; i < lonLat.length; i++) {
+    const [lon1, lat1] = lonLat[i - 1]!;
+    const [lon2, lat2] = lonLat[i]!;
+    const segment = wgs84.Inverse(lat1, lon1, lat2, lon2);
+    if (left <= segment.s12!) {
+      const p = wgs84.Direct(lat1, lon1, segment.azi1!, left);
+      return fromLonLat([p.lon2!, p.lat2!]);
     }
-    left -= seg;
+    left -= segment.s12!;
   }
-  throw new Error(`line is shorter than ${km} km`);
+  throw new Error(`line is shorter than ${meters} m`);
 }
 
 /**
@@ -480,7 +489,7 @@ const sentierDesCretesA = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Sai
 const sentierDesCretesB = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Port-Joie')], 1, 0.2, lineRandom);
 
 // The hamlet on Ruta 12 twelve kilometres from Puerto Lindo ("12 km by road from Puerto Lindo on Ruta 12").
-placed.set(places.find((p) => p.name === 'El Mirador')!, pointAlong(ruta12, 12));
+placed.set(places.find((p) => p.name === 'El Mirador')!, geodesicPointAlong(ruta12, 12_000));
 
 interface LineSpec {
   name: string;
@@ -534,6 +543,10 @@ for (const road of lines.filter((l) => l.featureType === 'road' || l.featureType
 // --------------------------------------------------------------------------------------- output features
 function toLonLat([x, y]: Pt): Position {
   return [Math.round((CENTER_LON + x / KM_PER_DEG_LON) * 1e6) / 1e6, Math.round((CENTER_LAT + y / KM_PER_DEG_LAT) * 1e6) / 1e6];
+}
+/** Inverse of toLonLat (before its rounding). */
+function fromLonLat([lon, lat]: [number, number]): Pt {
+  return [(lon - CENTER_LON) * KM_PER_DEG_LON, (lat - CENTER_LAT) * KM_PER_DEG_LAT];
 }
 function polygon(ring: Ring): Polygon {
   const ccw = signedArea(ring) > 0 ? ring : [...ring].reverse();
