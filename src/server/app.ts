@@ -14,6 +14,9 @@ import { assertSafeBind, tokenGuard } from './access.ts';
 import { loadAssets, registerAssets } from './assets.ts';
 import { handleError } from './errors.ts';
 import { registerStrictJson } from './json-body.ts';
+import { BatchService } from './batches.ts';
+import { openReviews, reviewsDatabasePath } from './reviews.ts';
+import { registerBatchRoutes } from './routes/batches.ts';
 import { registerFeatureRoute } from './routes/features.ts';
 import { registerGeoreferenceRoute } from './routes/georeference.ts';
 import { registerLayersRoute } from './routes/layers.ts';
@@ -59,7 +62,14 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     ajv: { customOptions: { coerceTypes: false, removeAdditional: false, allErrors: false } },
     forceCloseConnections: 'idle',
   });
-  app.addHook('onClose', async () => store.close());
+  const reviews = openReviews(reviewsDatabasePath(options.dbPath));
+  const batches = new BatchService(options.dbPath, store, reviews);
+  // On close (SIGTERM): requests in flight finish first, then running jobs get a moment to commit their step.
+  app.addHook('onClose', async () => {
+    await batches.close();
+    reviews.close();
+    store.close();
+  });
   app.setErrorHandler(handleError);
   app.setNotFoundHandler((request, reply) => reply.code(404).send({ statusCode: 404, error: 'Not Found', message: `nothing at ${request.method} ${request.url.split('?')[0].slice(0, 200)}` }));
   registerStrictJson(app);
@@ -110,6 +120,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
   registerGeoreferenceRoute(app, store);
   registerFeatureRoute(app, store);
   registerLayersRoute(app, shapedFeatureLister(options.dbPath, store));
+  await registerBatchRoutes(app, batches, options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit);
   if (options.token) registerLoginRoute(app, options.token);
   app.get('/api/v1/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   registerAssets(app, loadAssets());

@@ -1,0 +1,272 @@
+/**
+ * Batch review for the page: uploads become batch jobs (src/batch), their output is listed record by
+ * record, each record can be shown with its candidates and map, accepted, rejected or given another
+ * candidate, and the reviewed file downloaded. Job ids come from the job store, files from this
+ * module's own folder: nothing a request says is ever used as a path.
+ */
+import { randomUUID } from 'node:crypto';
+import { mkdirSync, readFileSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { stringify } from 'csv-stringify/sync';
+import { COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
+import { jobProgress, jobsDatabasePath, type JobProgress } from '../batch/jobs.ts';
+import { groupOf, indexColumns } from '../batch/locality-group.ts';
+import { startBatchJob, type BatchSummary } from '../batch/run.ts';
+import { parseLocality } from '../parse/index.ts';
+import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import { RequestError } from './errors.ts';
+import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
+import { REVIEWED_STATUS, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
+
+/** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
+const NOT_CSV: [string, number[]][] = [
+  ['a ZIP archive (an .xlsx or .ods workbook?)', [0x50, 0x4b, 0x03, 0x04]],
+  ['an old Excel workbook (.xls)', [0xd0, 0xcf, 0x11, 0xe0]],
+  ['a PDF document', [0x25, 0x50, 0x44, 0x46]],
+  ['a PNG image', [0x89, 0x50, 0x4e, 0x47]],
+  ['a JPEG image', [0xff, 0xd8, 0xff]],
+  ['a gzip file', [0x1f, 0x8b]],
+  ['an SQLite database', [...Buffer.from('SQLite format 3')]],
+];
+
+/** One record of the review list. */
+export interface RecordSummary {
+  row: number;
+  locality: string;
+  status: string;
+  localityType: string;
+  radiusMeters: number | null;
+  flags: string[];
+  review: ReviewDecision | null;
+}
+
+export interface RecordFilter {
+  status?: string;
+  review?: ReviewDecision | 'pending';
+  flag?: string;
+  localityType?: string;
+  radiusMin?: number;
+  radiusMax?: number;
+}
+
+/** One record for review: its original fields, what the batch proposed, and the lookup for the map. */
+export interface RecordDetail {
+  row: number;
+  original: Record<string, string>;
+  proposed: Record<string, string>;
+  flags: string[];
+  review: Review | null;
+  answer: LookupResponse;
+}
+
+interface ParsedOutput {
+  header: string[];
+  originalLength: number;
+  rows: string[][];
+  summaries: RecordSummary[];
+}
+
+/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data. */
+export function assertCsvContent(bytes: Buffer): void {
+  if (bytes.length === 0) throw new RequestError(400, 'the uploaded file is empty', 'file');
+  for (const [what, signature] of NOT_CSV) {
+    if (signature.every((b, i) => bytes[i] === b)) throw new RequestError(415, `the uploaded file is ${what}, not CSV text: save it as CSV (UTF-8) and upload that`, 'file');
+  }
+  const utf16 = (bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff);
+  if (!utf16 && bytes.subarray(0, 65536).includes(0)) throw new RequestError(415, 'the uploaded file holds binary data (NUL bytes), not CSV text', 'file');
+}
+
+export class BatchService {
+  private readonly folder: string;
+  private readonly jobsPath: string;
+  private readonly running = new Map<string, Promise<BatchSummary | undefined>>();
+  private readonly parsed = new Map<string, ParsedOutput>();
+
+  constructor(
+    private readonly dbPath: string,
+    private readonly store: ServedGazetteer,
+    private readonly reviews: ReviewStore,
+  ) {
+    this.folder = join(dirname(dbPath), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
+    this.jobsPath = jobsDatabasePath(dbPath);
+  }
+
+  /** Starts a job on the uploaded bytes; resolves with its id once the job is stored. */
+  async start(bytes: Buffer): Promise<string> {
+    assertCsvContent(bytes);
+    mkdirSync(this.folder, { recursive: true });
+    const output = join(this.folder, `${randomUUID()}.csv`);
+    let started: Awaited<ReturnType<typeof startBatchJob>>;
+    try {
+      started = await startBatchJob({ dbPath: this.dbPath, input: bytes, output });
+    } catch (error) {
+      throw new RequestError(400, `the file could not be read as a batch: ${error instanceof Error ? error.message : String(error)}`, 'file');
+    }
+    // A failed job is stored as failed by src/batch; progress reports it, so the rejection is handled here.
+    this.running.set(started.jobId, started.done.catch(() => undefined).finally(() => this.running.delete(started.jobId)));
+    return started.jobId;
+  }
+
+  /** Progress without server paths; a 404 for a job this service did not start. */
+  progress(jobId: string): Omit<JobProgress, 'outputPath'> & { fraction: number } {
+    const { outputPath: _outputPath, ...progress } = this.ownProgress(jobId);
+    const fraction = progress.state === 'done' ? 1 : progress.state === 'writing' && progress.rowsTotal ? 0.5 + (0.5 * progress.rowsDone) / progress.rowsTotal
+      : progress.state === 'georeferencing' && progress.distinctTotal ? (0.5 * progress.distinctDone) / progress.distinctTotal : 0;
+    return { ...progress, fraction };
+  }
+
+  /** The records of a finished job, filtered, with the facets the filters offer. */
+  list(jobId: string, filter: RecordFilter): { records: RecordSummary[]; total: number; facets: { status: string[]; flag: string[]; localityType: string[] } } {
+    const output = this.output(jobId);
+    const reviews = this.reviews.latest(jobId);
+    const all = output.summaries.map((s) => ({ ...s, status: reviewedStatus(s.status, reviews.get(s.row)), review: reviews.get(s.row)?.decision ?? null }));
+    const records = all.filter((r) => matches(r, filter));
+    const distinct = (values: string[]) => [...new Set(values)].filter(Boolean).sort();
+    return {
+      records,
+      total: all.length,
+      facets: { status: distinct(all.map((r) => r.status)), flag: distinct(all.flatMap((r) => r.flags)), localityType: distinct(all.map((r) => r.localityType)) },
+    };
+  }
+
+  /** One record, georeferenced again for the map (with the reviewer's candidate when given or stored). */
+  record(jobId: string, row: number, candidate?: FeatureKey): RecordDetail {
+    const output = this.output(jobId);
+    const fields = this.rowOf(output, row);
+    const review = this.reviews.latest(jobId).get(row) ?? null;
+    const answer = this.lookUpRow(output, fields, candidate ?? review?.candidate);
+    const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
+    const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
+    return { row, original, proposed, flags: splitFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
+  }
+
+  /** Stores a decision with who and when. */
+  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, candidate?: FeatureKey): Review {
+    const output = this.output(jobId);
+    if (candidate) this.lookUpRow(output, this.rowOf(output, row), candidate); // refuses a candidate that is not offered
+    const review: Review = { decision, candidate, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
+    this.reviews.record(jobId, row, review);
+    return review;
+  }
+
+  /**
+   * The job's output with every decision applied: accepted → "verified by data custodian", rejected →
+   * "requires georeference" with the proposal moved into the remarks; a chosen candidate recomputes
+   * the appended terms. Originals are never changed.
+   */
+  reviewedCsv(jobId: string): string {
+    const output = this.output(jobId);
+    const reviews = this.reviews.latest(jobId);
+    const column = termColumns(output.header);
+    const rows = output.rows.map((fields, index) => {
+      const review = reviews.get(index + 1);
+      if (!review) return fields;
+      const copy = [...fields];
+      const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
+      const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
+      if (review.candidate) {
+        const answer = this.lookUpRow(output, fields, review.candidate);
+        const recomputed = darwinCoreFields(answer, { georeferencedBy: review.reviewer, georeferencedDate: review.decidedAt, sources: this.store.sources() });
+        for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
+      }
+      const stamp = `${review.decision === 'accepted' ? 'verified' : 'rejected'} by ${review.reviewer} on ${review.decidedAt}`;
+      if (review.decision === 'rejected' && get('decimalLatitude') !== '') {
+        const was = `proposed georeference rejected (was ${get('decimalLatitude')}, ${get('decimalLongitude')} ± ${get('coordinateUncertaintyInMeters')} m)`;
+        for (const term of ['decimalLatitude', 'decimalLongitude', 'geodeticDatum', 'coordinateUncertaintyInMeters', 'coordinatePrecision', 'footprintWKT', 'footprintSRS'] as const) set(term, '');
+        set('georeferenceRemarks', [get('georeferenceRemarks'), was].filter(Boolean).join('; '));
+      }
+      set('georeferenceVerificationStatus', REVIEWED_STATUS[review.decision]);
+      set('georeferenceRemarks', [get('georeferenceRemarks'), stamp].filter(Boolean).join('; '));
+      return copy;
+    });
+    return stringify([output.header, ...rows]);
+  }
+
+  /** Waits for jobs in flight; each has committed its progress step by step, so a stop loses nothing. */
+  async close(timeoutMs = 5000): Promise<void> {
+    await Promise.race([Promise.allSettled(this.running.values()), new Promise((r) => setTimeout(r, timeoutMs).unref())]);
+  }
+
+  private ownProgress(jobId: string): JobProgress {
+    let progress: JobProgress & { outputPath?: string };
+    try {
+      progress = jobProgress(this.jobsPath, jobId);
+    } catch {
+      throw new RequestError(404, `no batch job ${jobId}`, 'jobId');
+    }
+    return progress;
+  }
+
+  private output(jobId: string): ParsedOutput {
+    const cached = this.parsed.get(jobId);
+    if (cached) return cached;
+    const progress = this.ownProgress(jobId);
+    if (progress.state !== 'done' || !progress.outputPath) throw new RequestError(409, `batch job ${jobId} is ${progress.state}, not done`, 'jobId');
+    if (dirname(progress.outputPath) !== this.folder) throw new RequestError(404, `no batch job ${jobId} was started by this service`, 'jobId');
+    const [header, ...rows] = parse(readFileSync(progress.outputPath), { bom: true, relax_column_count: true }) as string[][];
+    const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
+    const column = termColumns(header);
+    const columns = indexColumns(header.slice(0, originalLength));
+    const summaries = rows.map((fields, i): RecordSummary => {
+      const locality = groupOf(fields.slice(0, originalLength), columns).request.locality;
+      const radius = fields[column.coordinateUncertaintyInMeters];
+      return {
+        row: i + 1,
+        locality,
+        status: fields[column.georeferenceVerificationStatus] ?? '',
+        localityType: parseLocality(locality).type,
+        radiusMeters: radius ? Number(radius) : null,
+        flags: splitFlags(fields[header.length - 1]),
+        review: null,
+      };
+    });
+    const parsed = { header, originalLength, rows, summaries };
+    this.parsed.set(jobId, parsed);
+    return parsed;
+  }
+
+  private rowOf(output: ParsedOutput, row: number): string[] {
+    const fields = output.rows[row - 1];
+    if (!fields) throw new RequestError(404, `the batch has no row ${row} (it has ${output.rows.length})`, 'row');
+    return fields;
+  }
+
+  private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey): LookupResponse {
+    const originals = fields.slice(0, output.originalLength);
+    const columns = indexColumns(output.header.slice(0, output.originalLength));
+    const { request } = groupOf(originals, columns);
+    const coordinate = (i?: number) => (i === undefined || originals[i]?.trim() === '' ? undefined : Number(originals[i]));
+    const latitude = coordinate(columns.decimalLatitude);
+    const longitude = coordinate(columns.decimalLongitude);
+    const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
+    return lookUp(this.store, {
+      ...request,
+      ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
+      options: candidate ? { candidate } : {},
+    });
+  }
+}
+
+function termColumns(header: string[]): Record<GeoreferenceTerm, number> {
+  const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
+  return Object.fromEntries(GEOREFERENCE_TERMS.map((term, i) => [term, originalLength + i])) as Record<GeoreferenceTerm, number>;
+}
+
+function splitFlags(text: string | undefined): string[] {
+  return text ? text.split(FLAG_SEPARATOR).map((f) => f.trim()).filter(Boolean) : [];
+}
+
+function reviewedStatus(status: string, review: Review | undefined): string {
+  return review ? REVIEWED_STATUS[review.decision] : status;
+}
+
+function matches(r: RecordSummary, f: RecordFilter): boolean {
+  if (f.status && r.status !== f.status) return false;
+  if (f.review && (f.review === 'pending' ? r.review !== null : r.review !== f.review)) return false;
+  if (f.flag && !r.flags.includes(f.flag)) return false;
+  if (f.localityType && r.localityType !== f.localityType) return false;
+  if (f.radiusMin !== undefined && (r.radiusMeters === null || r.radiusMeters < f.radiusMin)) return false;
+  if (f.radiusMax !== undefined && (r.radiusMeters === null || r.radiusMeters > f.radiusMax)) return false;
+  return true;
+}

@@ -1,0 +1,75 @@
+/**
+ * Review decisions on batch records, in a SQLite file of their own beside the gazetteer
+ * (`<gazetteer>.reviews.sqlite`, WAL): every decision is kept with who made it and when; the
+ * latest one for a row is the one that counts. Prepared statements only.
+ */
+import { basename, dirname, join } from 'node:path';
+import Database from 'better-sqlite3';
+import type { FeatureKey } from './lookup.ts';
+
+export type ReviewDecision = 'accepted' | 'rejected';
+
+export interface Review {
+  decision: ReviewDecision;
+  /** The candidate the reviewer chose instead of the matcher's, if any. */
+  candidate?: FeatureKey;
+  reviewer: string;
+  /** ISO 8601 date-time of the decision. */
+  decidedAt: string;
+}
+
+/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
+export const REVIEWED_STATUS: Record<ReviewDecision, string> = {
+  accepted: 'verified by data custodian',
+  rejected: 'requires georeference',
+};
+
+/**
+ * The review file that goes with a gazetteer file.
+ * @example reviewsDatabasePath('/data/whereabouts.sqlite') // '/data/whereabouts.reviews.sqlite'
+ */
+export function reviewsDatabasePath(gazetteerPath: string): string {
+  return join(dirname(gazetteerPath), `${basename(gazetteerPath).replace(/\.sqlite$/, '')}.reviews.sqlite`);
+}
+
+export interface ReviewStore {
+  record(jobId: string, row: number, review: Review): void;
+  /** The latest decision for each reviewed row of a job. */
+  latest(jobId: string): Map<number, Review>;
+  close(): void;
+}
+
+/** Opens (creating) the review store. */
+export function openReviews(path: string): ReviewStore {
+  const db = new Database(path);
+  db.pragma('journal_mode = WAL');
+  db.exec(`CREATE TABLE IF NOT EXISTS review_decision (
+    id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, row INTEGER NOT NULL, decision TEXT NOT NULL,
+    candidate_source TEXT, candidate_feature TEXT, reviewer TEXT NOT NULL, decided_at TEXT NOT NULL);
+    CREATE INDEX IF NOT EXISTS review_by_job ON review_decision (job_id, row, id);`);
+  const insert = db.prepare('INSERT INTO review_decision (job_id, row, decision, candidate_source, candidate_feature, reviewer, decided_at) VALUES (?, ?, ?, ?, ?, ?, ?)');
+  const select = db.prepare('SELECT row, decision, candidate_source, candidate_feature, reviewer, decided_at FROM review_decision WHERE job_id = ? ORDER BY id');
+  return {
+    record(jobId, row, r) {
+      insert.run(jobId, row, r.decision, r.candidate?.sourceId ?? null, r.candidate?.featureId ?? null, r.reviewer, r.decidedAt);
+    },
+    latest(jobId) {
+      const reviews = new Map<number, Review>();
+      for (const r of select.all(jobId) as ReviewRow[]) {
+        const candidate = r.candidate_source !== null && r.candidate_feature !== null ? { sourceId: r.candidate_source, featureId: r.candidate_feature } : undefined;
+        reviews.set(r.row, { decision: r.decision, candidate, reviewer: r.reviewer, decidedAt: r.decided_at });
+      }
+      return reviews;
+    },
+    close: () => db.close(),
+  };
+}
+
+interface ReviewRow {
+  row: number;
+  decision: ReviewDecision;
+  candidate_source: string | null;
+  candidate_feature: string | null;
+  reviewer: string;
+  decided_at: string;
+}

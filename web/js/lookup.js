@@ -1,0 +1,259 @@
+// The lookup view: the form, then how the text was read, the candidates, the edits, the uncertainty
+// budget and the Darwin Core fields. Every edit calls the same API again with `options`.
+import { georeference } from './api.js';
+import { csvLine, definitionTable, download, el, fill, meters } from './dom.js';
+
+const COMPONENT_LABELS = {
+  extent: 'Extent of the feature',
+  offset: 'Offset (distance and direction)',
+  coordinatePrecision: 'Precision of written coordinates',
+  datum: 'Datum',
+  mapScale: 'Map scale',
+  measurement: 'Measurement error',
+};
+
+/** Datums the page offers; the API converts each to WGS84 (EPSG codes, EPSG Geodetic Parameter Dataset). */
+export const DATUM_CHOICES = [
+  ['', 'not stated (adds the unknown-datum term)'],
+  ['EPSG:4326', 'WGS 84 (EPSG:4326)'],
+  ['EPSG:4267', 'NAD27 (EPSG:4267)'],
+  ['EPSG:4269', 'NAD83 (EPSG:4269)'],
+  ['EPSG:4618', 'SAD69 (EPSG:4618)'],
+  ['EPSG:4674', 'SIRGAS 2000 (EPSG:4674)'],
+  ['EPSG:4230', 'ED50 (EPSG:4230)'],
+];
+
+const STATUS_WORDS = {
+  georeferenced: 'Georeferenced: an estimate to verify',
+  ambiguous: 'Ambiguous: choose the feature meant',
+  'not-found': 'Not found in the loaded gazetteers',
+  unparseable: 'Could not be read',
+};
+
+/** The status as a badge; the words carry the meaning, the colour only repeats it. */
+export function statusBadge(status) {
+  return el('span', { class: `badge status-${status}` }, status);
+}
+
+function describeDistance(d) {
+  if (!d) return undefined;
+  const range = d.range ? ` (range ${d.range.low}–${d.range.high})` : '';
+  return `"${d.written}" = ${d.value} ${d.unit}${range}; precision ${d.precision} ${d.unit}, δ ${d.uncertainty} ${d.unit} (${meters(d.uncertaintyMeters)})`;
+}
+
+function describeHeading(h) {
+  if (!h) return undefined;
+  return `"${h.written}" = azimuth ${h.azimuth}°, Δ ±${h.halfWidth}° (${h.kind}${h.toward ? ', toward the feature, reversed' : ''})`;
+}
+
+/** How the text was read: one table, with a row per offset and the assumptions as a list. */
+export function interpretationSection(interpretation) {
+  const chosen = interpretation.chosenClause === null ? undefined : interpretation.clauses[interpretation.chosenClause];
+  const rows = [
+    ['Locality type', interpretation.type],
+    ['Language', interpretation.language],
+    ['Clauses', interpretation.clauses.map((c, i) => `${i === interpretation.chosenClause ? '▸ ' : ''}${c.text} [${c.kind}]`).join('  ·  ')],
+    ['Clause used', chosen?.text],
+    ['Feature named', interpretation.features.join(' · ')],
+    ['Approximate ("ca.", "about")', interpretation.approximate ? 'yes (changes neither point nor radius)' : undefined],
+  ];
+  interpretation.offsets.forEach((o, i) => {
+    const n = interpretation.offsets.length > 1 ? ` ${i + 1}` : '';
+    rows.push([`Distance${n}`, describeDistance(o.distance)], [`Heading${n}`, describeHeading(o.heading)], [`Path${n}`, o.path ? `${o.path.mode}${o.path.lineName ? ` along ${o.path.lineName}` : ''}` : o.byAir ? 'by air (stated)' : undefined]);
+  });
+  const c = interpretation.coordinates;
+  if (c) rows.push(['Coordinates', `"${c.written}" → ${c.latitude}, ${c.longitude} (${c.format}, precision ${c.precisionDegrees}°${c.datum ? `, datum ${c.datum}` : ''})`], ['Coordinate problems', c.problems.join('; ')]);
+  if (interpretation.elevation) rows.push(['Elevation', interpretation.elevation.written]);
+  const section = el('section', { class: 'card', 'aria-labelledby': 'h-reading' }, el('h2', { id: 'h-reading' }, 'How the text was read'), definitionTable('Reading of the locality text', rows));
+  if (interpretation.notes.length) section.append(el('h3', {}, 'Assumptions and notes'), el('ul', { class: 'notes' }, interpretation.notes.map((n) => el('li', {}, n))));
+  return section;
+}
+
+function candidateLabel(c) {
+  const f = c.feature;
+  const where = [f.county, f.stateProvince, f.countryCode].filter(Boolean).join(', ');
+  return [
+    el('span', { class: 'cand-name' }, f.name),
+    el('span', { class: 'cand-meta' }, `${f.featureType ?? 'feature'}${where ? ` · ${where}` : ''} · ${f.sourceId}:${f.featureId}`),
+    el('span', { class: 'cand-score' }, `score ${c.score.toFixed(2)} · ${c.why}`),
+  ];
+}
+
+/** The candidates as a radio group; choosing one asks for the georeference with that feature. */
+export function candidatesSection(answer, onChoose, idPrefix = 'cand') {
+  const used = answer.georeference?.features ?? [];
+  const isUsed = (c) => used.some((f) => f.sourceId === c.feature.sourceId && f.featureId === c.feature.featureId);
+  const items = answer.candidates.map((c, i) => {
+    const id = `${idPrefix}-${i}`;
+    const input = el('input', { type: 'radio', name: `${idPrefix}-choice`, id, value: i, checked: isUsed(c), onchange: () => onChoose(c) });
+    return el('li', { class: isUsed(c) ? 'cand used' : 'cand' }, input, el('label', { for: id }, candidateLabel(c)));
+  });
+  return el(
+    'section',
+    { class: 'card', 'aria-labelledby': `${idPrefix}-h` },
+    el('h2', { id: `${idPrefix}-h` }, `Candidates (${answer.candidates.length})`),
+    answer.candidates.length
+      ? el('fieldset', { class: 'candidates' }, el('legend', {}, 'Feature used for the georeference'), el('ul', {}, items))
+      : el('p', {}, 'No candidate feature was found.'),
+  );
+}
+
+/** The uncertainty budget in meters, one row per source of the method, with the total. */
+export function budgetSection(answer) {
+  const components = answer.components ?? {};
+  const total = Object.values(components).reduce((sum, v) => sum + v, 0);
+  const rows = Object.entries(COMPONENT_LABELS).map(([key, label]) =>
+    el('tr', { class: components[key] ? '' : 'zero' }, el('th', { scope: 'row' }, label), el('td', { class: 'num' }, meters(components[key] ?? 0))),
+  );
+  return el(
+    'section',
+    { class: 'card', 'aria-labelledby': 'h-budget' },
+    el('h2', { id: 'h-budget' }, 'Uncertainty budget'),
+    el(
+      'table',
+      { class: 'budget', id: 'budget-table' },
+      el('caption', {}, 'Sources of uncertainty in meters (point-radius method, summed)'),
+      el('thead', {}, el('tr', {}, el('th', { scope: 'col' }, 'Source'), el('th', { scope: 'col', class: 'num' }, 'Meters'))),
+      el('tbody', {}, rows),
+      el('tfoot', {},
+        el('tr', {}, el('th', { scope: 'row' }, 'Total'), el('td', { class: 'num' }, meters(total))),
+        el('tr', {}, el('th', { scope: 'row' }, 'Reported (rounded up, with the rounding of the point)'), el('td', { class: 'num', id: 'reported-radius' }, `${answer.darwinCore.coordinateUncertaintyInMeters} m`))),
+    ),
+  );
+}
+
+/** The Darwin Core fields, ready to copy, and as a CSV row or a GeoJSON feature to download. */
+export function darwinCoreSection(answer, request) {
+  const entries = Object.entries(answer.darwinCore);
+  const asText = entries.map(([k, v]) => `${k}\t${v}`).join('\n');
+  const copyArea = el('textarea', { id: 'dwc-text', readonly: true, rows: 4, class: 'copy-area', 'aria-label': 'Darwin Core fields, tab-separated, ready to copy' }, asText);
+  const copyStatus = el('span', { class: 'copy-status', 'aria-live': 'polite' });
+  const copy = async () => {
+    copyArea.select();
+    try {
+      await navigator.clipboard.writeText(asText);
+      copyStatus.textContent = 'copied';
+    } catch {
+      copyStatus.textContent = 'selected: press Ctrl+C to copy';
+    }
+  };
+  const csv = () => download('georeference.csv', 'text/csv', `${csvLine(['locality', ...entries.map(([k]) => k)])}\r\n${csvLine([request.locality, ...entries.map(([, v]) => v)])}\r\n`);
+  const geojson = () => download('georeference.geojson', 'application/geo+json', JSON.stringify(geoJsonOf(answer, request), null, 2));
+  const georeferenced = answer.status === 'georeferenced';
+  return el(
+    'section',
+    { class: 'card', 'aria-labelledby': 'h-dwc' },
+    el('h2', { id: 'h-dwc' }, 'Darwin Core fields'),
+    definitionTable('Darwin Core georeference terms for this record', entries, 'pairs dwc'),
+    copyArea,
+    el('div', { class: 'actions' },
+      el('button', { type: 'button', onclick: copy }, 'Copy fields'), copyStatus,
+      el('button', { type: 'button', id: 'download-csv', onclick: csv }, 'Download CSV row'),
+      el('button', { type: 'button', id: 'download-geojson', onclick: geojson, disabled: !georeferenced }, 'Download GeoJSON')),
+  );
+}
+
+function geoJsonOf(answer, request) {
+  const g = answer.georeference;
+  const properties = { locality: request.locality, ...answer.darwinCore };
+  const features = [{ type: 'Feature', geometry: { type: 'Point', coordinates: [Number(answer.darwinCore.decimalLongitude), Number(answer.darwinCore.decimalLatitude)] }, properties }];
+  if (g && answer.footprint) features.push({ type: 'Feature', geometry: answer.footprint, properties: { role: 'footprint', footprintSRS: 'EPSG:4326' } });
+  return { type: 'FeatureCollection', features };
+}
+
+/** Distance precision, map scale and datum: each change recomputes through the API. */
+export function editsSection(answer, options, onEdit) {
+  const distance = answer.interpretation.offsets.find((o) => o.distance)?.distance;
+  const precision = el('input', { id: 'e-precision', type: 'number', min: '0', step: 'any', value: options.distancePrecision ?? '', placeholder: distance ? String(distance.precision) : 'no distance in the text', disabled: !distance });
+  const scale = el('input', { id: 'e-scale', type: 'number', min: '1', step: '1', value: options.mapScale ?? '', placeholder: 'e.g. 50000' });
+  const datum = el('select', { id: 'e-datum' }, DATUM_CHOICES.map(([value, label]) => el('option', { value, selected: (options.datum ?? '') === value }, label)));
+  const numberOrUndefined = (input) => (input.value === '' ? undefined : Number(input.value));
+  const apply = () => onEdit({ distancePrecision: numberOrUndefined(precision), mapScale: numberOrUndefined(scale), datum: datum.value || undefined });
+  for (const input of [precision, scale, datum]) input.addEventListener('change', apply);
+  return el(
+    'section',
+    { class: 'card', 'aria-labelledby': 'h-edits' },
+    el('h2', { id: 'h-edits' }, 'Edit the reading'),
+    el('div', { class: 'grid' },
+      el('div', { class: 'field' }, el('label', { for: 'e-precision' }, `Distance precision${distance ? ` (${distance.unit})` : ''}`), precision),
+      el('div', { class: 'field' }, el('label', { for: 'e-scale' }, 'Map scale 1 :'), scale),
+      el('div', { class: 'field' }, el('label', { for: 'e-datum' }, 'Datum of the coordinates'), datum)),
+  );
+}
+
+/** The headline: status, point and radius, or the reason none was made. */
+export function summarySection(answer) {
+  const d = answer.darwinCore;
+  const body = answer.status === 'georeferenced'
+    ? el('p', { class: 'headline' },
+        el('span', { id: 'result-latitude' }, d.decimalLatitude), ', ', el('span', { id: 'result-longitude' }, d.decimalLongitude),
+        ' ± ', el('span', { id: 'result-radius' }, d.coordinateUncertaintyInMeters), ' m (WGS84)')
+    : el('p', { class: 'reason', id: 'result-reason' }, answer.reason ?? '');
+  const extra = answer.recordPoint
+    ? el('p', {}, `The record's own coordinates are ${meters(answer.recordPoint.distanceMeters)} from the proposed point, ${answer.recordPoint.withinUncertainty ? 'inside' : 'outside'} the circle.`)
+    : undefined;
+  return el('section', { class: `card summary s-${answer.status}`, 'aria-labelledby': 'h-summary' },
+    el('h2', { id: 'h-summary' }, statusBadge(answer.status), ' ', STATUS_WORDS[answer.status]), body, extra);
+}
+
+/** Wires the lookup form to the API, the result panel and the map. */
+export function startLookup({ form, output, map }) {
+  let request;
+  let options = {};
+
+  const fieldOf = (name) => form.elements.namedItem(name);
+  const clearErrors = () => {
+    form.querySelectorAll('.field-error').forEach((n) => n.remove());
+    form.querySelectorAll('[aria-invalid]').forEach((n) => n.removeAttribute('aria-invalid'));
+  };
+
+  async function run() {
+    clearErrors();
+    fill(output, el('p', { class: 'working' }, 'Working…'));
+    try {
+      const answer = await georeference({ ...request, options });
+      render(answer);
+      await map.show(answer);
+    } catch (error) {
+      const field = error.field?.split('.').pop();
+      const input = field ? fieldOf(field) : null;
+      const message = el('p', { class: 'error', role: 'alert' }, error.message);
+      if (input instanceof HTMLElement) {
+        input.setAttribute('aria-invalid', 'true');
+        input.closest('.field')?.append(el('span', { class: 'field-error' }, error.message));
+      }
+      fill(output, message);
+    }
+  }
+
+  function render(answer) {
+    fill(
+      output,
+      summarySection(answer),
+      candidatesSection(answer, (c) => {
+        options = { ...options, candidate: { sourceId: c.feature.sourceId, featureId: c.feature.featureId } };
+        run();
+      }),
+      interpretationSection(answer.interpretation),
+      editsSection(answer, options, (edits) => {
+        options = { ...options, ...edits };
+        for (const key of Object.keys(options)) if (options[key] === undefined) delete options[key];
+        run();
+      }),
+      answer.components ? budgetSection(answer) : undefined,
+      darwinCoreSection(answer, request),
+    );
+  }
+
+  form.addEventListener('submit', (event) => {
+    event.preventDefault();
+    const data = new FormData(form);
+    request = {};
+    for (const [name, value] of data) if (String(value).trim()) request[name] = String(value).trim();
+    request.locality ??= '';
+    localStorage.setItem('whereabouts.georeferencedBy', request.georeferencedBy ?? '');
+    options = {};
+    run();
+  });
+  fieldOf('georeferencedBy').value = localStorage.getItem('whereabouts.georeferencedBy') ?? '';
+}

@@ -1,0 +1,42 @@
+// The page's entry: two views (lookup, batch review), each with its own map.
+import { startBatch } from './batch.js';
+import { startLookup } from './lookup.js';
+import { createMap } from './map.js';
+
+const $ = (id) => document.getElementById(id);
+
+function showView(name) {
+  for (const view of ['lookup', 'batch']) {
+    $(`view-${view}`).hidden = view !== name;
+    $(`tab-${view}`).setAttribute('aria-pressed', String(view === name));
+  }
+  maps[name]?.map.invalidateSize();
+}
+
+const maps = {};
+
+async function start() {
+  $('tab-lookup').addEventListener('click', () => showView('lookup'));
+  $('tab-batch').addEventListener('click', () => showView('batch'));
+  maps.lookup = await createMap($('lookup-map'));
+  startLookup({ form: $('lookup-form'), output: $('lookup-result'), map: maps.lookup });
+  // The review map is created while its view is hidden; it is resized when the review opens.
+  maps.batch = await createMap($('review-map'));
+  startBatch({
+    form: $('batch-form'),
+    progress: $('batch-progress'),
+    progressText: $('batch-progress-text'),
+    review: $('batch-review'),
+    list: $('review-list'),
+    recordPanel: $('review-record'),
+    map: maps.batch,
+    downloadLink: $('batch-download'),
+    filters: { status: $('r-status'), review: $('r-review'), flag: $('r-flag'), localityType: $('r-type'), radiusMin: $('r-radius-min'), radiusMax: $('r-radius-max') },
+  });
+  document.body.dataset.ready = 'true';
+}
+
+start().catch((error) => {
+  document.body.dataset.ready = 'error';
+  $('lookup-result').textContent = `The page could not start: ${error.message}`;
+});

@@ -1,0 +1,155 @@
+// The map: no tile server. A basemap of country outlines (Natural Earth via world-atlas, converted
+// with topojson-client), the gazetteer's own polygons and lines, then the result on top.
+// Colours are from the Okabe–Ito palette, which stays distinct for the common colour-vision types.
+import { getJson, feature as fetchFeature } from './api.js';
+import { el } from './dom.js';
+
+/* global L, topojson */
+
+export const PALETTE = {
+  point: '#D55E00', // vermillion
+  circle: '#CC79A7', // reddish purple
+  featureUsed: '#E69F00', // orange
+  candidate: '#009E73', // bluish green
+  water: '#0072B2', // blue
+  waterFill: '#56B4E9', // sky blue
+  record: '#000000',
+};
+
+let basemapData;
+let layersData;
+
+/** The basemap and the gazetteer's layers are fetched once and shared by every map on the page. */
+async function sharedData() {
+  basemapData ??= getJson('/vendor/countries-110m.json').then((topo) => topojson.feature(topo, topo.objects.countries));
+  layersData ??= getJson('/api/v1/layers');
+  return Promise.all([basemapData, layersData]);
+}
+
+function layerStyle(feature) {
+  const type = feature.properties.featureType;
+  const lineLike = feature.properties.geometryType.includes('LineString');
+  if (lineLike) {
+    if (type === 'river' || type === 'stream') return { color: PALETTE.water, weight: type === 'river' ? 2 : 1.2, opacity: 0.8 };
+    if (type === 'trail') return { color: '#555', weight: 1.2, dashArray: '2 4', opacity: 0.9 };
+    return { color: '#555', weight: 1.6, dashArray: '6 3', opacity: 0.9 };
+  }
+  if (type === 'lake' || type === 'bay') return { color: PALETTE.water, weight: 0.8, fillColor: PALETTE.waterFill, fillOpacity: 0.45 };
+  if (type === 'stateProvince') return { color: '#5c564b', weight: 1.6, dashArray: '8 4', fill: false };
+  if (type === 'county') return { color: '#9a9385', weight: 0.8, dashArray: '2 3', fill: false };
+  return { color: '#7d7668', weight: 1.2, fillColor: '#efe9dc', fillOpacity: 1 };
+}
+
+/** Lower layers first so that lines and small units stay on top of the land. */
+function layerOrder(feature) {
+  const order = { country: 0, island: 0, stateProvince: 2, county: 3, lake: 1, bay: 1 };
+  return feature.properties.geometryType.includes('LineString') ? 5 : (order[feature.properties.featureType] ?? 4);
+}
+
+function nameTooltip(text) {
+  return el('span', {}, text);
+}
+
+function formatCoordinate(value, positive, negative, decimals = 5) {
+  return `${Math.abs(value).toFixed(decimals)}° ${value >= 0 ? positive : negative}`;
+}
+
+/** A control that shows the latitude and longitude under the cursor (WGS84). */
+function cursorControl() {
+  const control = L.control({ position: 'bottomleft' });
+  control.onAdd = (map) => {
+    const box = el('div', { class: 'wa-cursor', 'aria-live': 'off' }, 'move the pointer over the map');
+    map.on('mousemove', (event) => {
+      const { lat, lng } = event.latlng;
+      box.textContent = `${formatCoordinate(lat, 'N', 'S')}  ${formatCoordinate(L.Util.wrapNum(lng, [-180, 180], true), 'E', 'W')}`;
+    });
+    return box;
+  };
+  return control;
+}
+
+function legendControl() {
+  const control = L.control({ position: 'topright' });
+  const swatch = (className, label) => el('li', {}, el('span', { class: `swatch ${className}`, 'aria-hidden': 'true' }), label);
+  control.onAdd = () =>
+    el(
+      'div',
+      { class: 'wa-legend' },
+      el('ul', {}, swatch('sw-point', 'proposed point'), swatch('sw-circle', 'uncertainty circle'), swatch('sw-footprint', 'footprint'),
+        swatch('sw-feature', 'feature used'), swatch('sw-candidate', 'other candidate'), swatch('sw-record', "record's own coordinates")),
+    );
+  return control;
+}
+
+/**
+ * A map in `container`. Returns { map, show(result), clear() }; `show` draws a georeference API answer:
+ * the feature(s) used, the other candidates, the footprint, the circle and the point.
+ */
+export async function createMap(container) {
+  const map = L.map(container, { worldCopyJump: true, zoomSnap: 0.25, minZoom: 1, maxZoom: 18 });
+  map.attributionControl.setPrefix('Leaflet');
+  map.attributionControl.addAttribution('country outlines: Natural Earth (world-atlas)');
+  L.control.scale({ metric: true, imperial: false, maxWidth: 160 }).addTo(map);
+  cursorControl().addTo(map);
+  legendControl().addTo(map);
+  map.setView([0, 0], 2);
+
+  const [countries, layers] = await sharedData();
+  L.geoJSON(countries, { interactive: false, style: { color: '#b5ad9c', weight: 0.7, fillColor: '#f3efe6', fillOpacity: 1 } }).addTo(map);
+  const sorted = [...layers.features].sort((a, b) => layerOrder(a) - layerOrder(b));
+  const gazetteer = L.geoJSON({ type: 'FeatureCollection', features: sorted }, {
+    style: layerStyle,
+    onEachFeature: (f, layer) => layer.bindTooltip(nameTooltip(f.properties.name), { sticky: true, className: 'wa-tip' }),
+  }).addTo(map);
+  if (gazetteer.getLayers().length) map.fitBounds(gazetteer.getBounds(), { padding: [10, 10] });
+
+  const result = L.featureGroup().addTo(map);
+
+  async function show(answer) {
+    result.clearLayers();
+    const g = answer.georeference;
+    for (const c of answer.candidates ?? []) {
+      const used = g?.features?.some((f) => f.sourceId === c.feature.sourceId && f.featureId === c.feature.featureId);
+      if (used) continue;
+      L.circleMarker([c.feature.latitude, c.feature.longitude], { radius: 6, color: '#fff', weight: 1.5, fillColor: PALETTE.candidate, fillOpacity: 1, className: 'wa-candidate' })
+        .bindTooltip(nameTooltip(`${c.feature.name} (candidate, score ${c.score.toFixed(2)})`), { className: 'wa-tip' })
+        .addTo(result);
+    }
+    for (const used of g?.features ?? []) {
+      const shape = await fetchFeature(used.sourceId, used.featureId).catch(() => undefined);
+      if (!shape) continue;
+      const name = shape.properties.name;
+      if (shape.geometry.type === 'Point') {
+        L.circleMarker([shape.properties.latitude, shape.properties.longitude], { radius: 7, color: PALETTE.featureUsed, weight: 3, fill: false, className: 'wa-feature' })
+          .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
+        L.circle([shape.properties.latitude, shape.properties.longitude], { radius: shape.properties.radiusMeters, color: PALETTE.featureUsed, weight: 1.5, dashArray: '3 3', fill: false, interactive: false }).addTo(result);
+      } else {
+        L.geoJSON(shape, { style: { color: PALETTE.featureUsed, weight: 3, fillColor: PALETTE.featureUsed, fillOpacity: 0.12, className: 'wa-feature' } })
+          .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
+      }
+    }
+    if (g) {
+      if (answer.footprint) {
+        L.geoJSON(answer.footprint, { interactive: false, style: { color: PALETTE.circle, weight: 1, fillColor: PALETTE.circle, fillOpacity: 0.18, className: 'wa-footprint' } }).addTo(result);
+      }
+      const radius = Number(answer.darwinCore.coordinateUncertaintyInMeters) || g.uncertaintyMeters;
+      const circle = L.circle([g.latitude, g.longitude], { radius, color: PALETTE.circle, weight: 2.5, dashArray: '8 5', fill: false, className: 'wa-circle', interactive: false }).addTo(result);
+      L.circleMarker([g.latitude, g.longitude], { radius: 6, color: '#fff', weight: 2, fillColor: PALETTE.point, fillOpacity: 1, className: 'wa-point' })
+        .bindTooltip(nameTooltip(`proposed point ${answer.darwinCore.decimalLatitude}, ${answer.darwinCore.decimalLongitude}`), { className: 'wa-tip' })
+        .addTo(result);
+      container.dataset.circleRadius = String(radius);
+      container.dataset.pointLatitude = String(g.latitude);
+      container.dataset.pointLongitude = String(g.longitude);
+      if (answer.recordPoint) {
+        L.circleMarker([answer.recordPoint.latitude, answer.recordPoint.longitude], { radius: 5, color: PALETTE.record, weight: 2, fillColor: '#fff', fillOpacity: 1, className: 'wa-record' })
+          .bindTooltip(nameTooltip("the record's own coordinates"), { className: 'wa-tip' }).addTo(result);
+      }
+      map.fitBounds(circle.getBounds().pad(0.35), { maxZoom: 14 });
+    } else {
+      delete container.dataset.circleRadius;
+      if (result.getLayers().length) map.fitBounds(result.getBounds().pad(0.3), { maxZoom: 12 });
+    }
+  }
+
+  return { map, show, clear: () => result.clearLayers() };
+}
