@@ -72,7 +72,7 @@ export function readElevation(text: string, tokens: Token[], from: number, to: n
   k++;
   for (; k < to; k++) {
     if (tokens[k]!.kind === 'symbol') continue;
-    if (!L.SEA_LEVEL_WORDS.has(tokens[k]!.norm)) return null;
+    if (!L.SEA_LEVEL_WORDS.has(tokens[k]!.norm) && !L.ELEVATION_WORDS.has(tokens[k]!.norm)) return null;
     marked = true;
   }
   const alone = to - from <= 3;

@@ -93,10 +93,10 @@ export const REFUSAL_PHRASES: ReadonlySet<string> = new Set(
 
 /** Habitat and substrate words: a clause made only of these (and small words) describes no place. */
 export const HABITAT_WORDS = set(
-  'forest forests woods woodland rainforest cloud montane lowland pasture pastures grassland savanna savannah meadow swamp marsh bog wetland riverbank bank banks roadside secondary primary disturbed open dry wet humid moist scrub shrubland thicket thickets rocks rocky rock sandy sand soil slope slopes hillside edge edges under bark log logs leaf leaves litter canopy understory clearing field fields cultivated garden gallery riparian shore beach dunes mangrove cliff cliffs plantation coffee oak pine ' +
-    'bosque bosques selva humedo humeda seco seca pastizal potrero matorral sabana orilla borde ribera cafetal pinar encinar ladera suelo hojarasca claro galeria bajo sobre ' +
-    'mata floresta cerrado caatinga restinga varzea capoeira brejo campo campos beira margem solo serapilheira encosta ' +
-    'foret bois lisiere prairie savane marais maquis garrigue sous-bois litiere pente sol rochers bord',
+  'forest forests woods woodland rainforest cloud montane lowland pasture pastures grassland savanna savannah meadow swamp marsh bog wetland riverbank bank banks roadside secondary primary disturbed open dry wet humid moist scrub shrubland thicket thickets rocks rocky rock sandy sand soil slope slopes hillside edge edges under bark log logs leaf leaves litter canopy understory clearing field fields cultivated garden gallery riparian shore beach dunes mangrove cliff cliffs plantation coffee oak pine stream streams ' +
+    'bosque bosques selva humedo humeda seco seca pastizal potrero matorral sabana orilla borde ribera cafetal pinar encinar ladera suelo hojarasca claro galeria bajo sobre secundario secundaria primario primaria quebrada ' +
+    'mata floresta cerrado caatinga restinga varzea capoeira brejo campo campos beira margem solo serapilheira encosta beira estrada secundaria primaria umida ' +
+    'foret bois lisiere prairie savane marais maquis garrigue sous-bois litiere pente sol rochers bord humide secondaire',
 );
 /** Small words that do not make a clause name a place. */
 export const SMALL_WORDS = set("of the a an and in on at with de del la el los las y en con e da do das dos na no com o os as et du des le les l' d' au aux avec sur dans");

@@ -62,23 +62,24 @@ function skipApproximation(s: Source, i: number): { next: number; approximate: b
   return { next, approximate: next > i };
 }
 
+const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'marinos']);
+
 /** Reads a distance (number or range + unit) at i, with precision from the number as written (method §5.1). */
 export function readDistanceAt(s: Source, i: number): { distance: WrittenDistance; next: number } | null {
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
   const unitToken = s.tokens[number.next];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
-  if (!unit) return null;
   let next = number.next + 1;
-  // "nautical miles", "millas náuticas", "milles marins"
-  const nautical = norm(s, next - 1 === number.next && unit === 'mi' ? next : -1);
-  if (unit === 'mi' && (nautical === 'nautical' || nautical === 'nauticas' || nautical === 'nauticas' || nautical === 'marins' || nautical === 'nauticos')) {
+  // "nautical miles", "millas náuticas", "milhas náuticas", "milles marins"
+  if (unitToken?.norm === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
     unit = 'nmi';
     next++;
-  } else if (norm(s, number.next) === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
+  } else if (unit === 'mi' && NAUTICAL_WORDS.has(norm(s, next) ?? '')) {
     unit = 'nmi';
     next++;
   }
+  if (!unit) return null;
   let uncertainty = number.uncertainty;
   if (unit === 'league') uncertainty += number.value * LEAGUE_RELATIVE_SPREAD;
   const distance: WrittenDistance = {
@@ -185,7 +186,10 @@ const unparseable = (reason: string, approximate = false): ClauseReading => read
 /** Splits tokens [from, to) at the first conjunction into two names ("X and Y", "R. A y R. B"). */
 function twoNames(s: Source, from: number, to: number): [string, string] | null {
   for (let k = from + 1; k < to - 1; k++) {
-    if (L.CONJUNCTIONS.has(s.tokens[k]!.norm) || (s.tokens[k]!.norm === '/' && s.tokens[k]!.kind === 'symbol')) {
+    const t = s.tokens[k]!;
+    // A capital one-letter word ("E", "X") is a direction or a name, not "e"/"x" joining two names.
+    const joins = L.CONJUNCTIONS.has(t.norm) && !(t.norm.length === 1 && t.kind === 'word' && t.text !== t.norm);
+    if (joins || (t.norm === '/' && t.kind === 'symbol')) {
       const a = nameBetween(s, from, k);
       const b = nameBetween(s, k + 1, to);
       if (a && b) return [a, b];
@@ -225,6 +229,7 @@ function readOffsets(s: Source, i: number, approximate: boolean): ClauseReading 
   const offset: Offset = { distance: first.distance };
   const notes: string[] = [];
   let j = first.next;
+  let pathStart = -1;
   for (let guard = 0; guard < 4; guard++) {
     const approx = skipApproximation(s, j);
     if (approx.approximate) {
@@ -240,9 +245,16 @@ function readOffsets(s: Source, i: number, approximate: boolean): ClauseReading 
         continue;
       }
     }
-    if (!offset.path && !offset.byAir) {
+    if (!offset.path?.lineName && !offset.byAir) {
       const path = readPath(s, j, true);
-      if (path) {
+      if (path && offset.path && path.path?.lineName) {
+        // "5 km rio acima ao longo do Rio Claro": the second qualifier names the line of the first.
+        offset.path = { ...offset.path, lineName: path.path.lineName, written: s.text.slice(s.tokens[pathStart]!.start, s.tokens[path.next - 1]!.end) };
+        j = path.next;
+        continue;
+      }
+      if (path && !offset.path) {
+        pathStart = j;
         if (path.path) offset.path = path.path;
         if (path.byAir) offset.byAir = true;
         j = path.next;
@@ -334,10 +346,6 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
     const names = twoNames(s, k, end);
     return names ? reading('junction', names, { approximate }) : unparseable('junction or confluence without two named lines', approximate);
   }
-  if (end - i >= 4 && L.JUNCTION_WORDS.has(norm(s, end - 1)!)) {
-    const names = twoNames(s, i, end - 1);
-    if (names) return reading('junction', names, { approximate });
-  }
 
   const nearPrefix = matchPhrase(s, i, L.NEAR_PREFIXES);
   if (nearPrefix && s.tokens[i + nearPrefix]?.kind !== 'number') {
@@ -349,7 +357,14 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
   const offsets = readOffsets(s, i, approximate);
   if (offsets) return offsets;
 
+  // "Rio Azul and Rio Claro confluence", "X-Y jct."
+  if (end - i >= 4 && L.JUNCTION_WORDS.has(norm(s, end - 1)!)) {
+    const names = twoNames(s, i, end - 1);
+    if (names) return reading('junction', names, { approximate });
+  }
+
   const heading = readHeading(s, i);
+  if (heading && heading.next === end) return unparseable(`a heading ("${heading.heading.written}") with no place`, approximate);
   if (heading) {
     let k = heading.next;
     const introduced = L.FROM_WORDS.has(norm(s, k) ?? '');
@@ -366,13 +381,10 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
   const road = readRoadClause(s, i);
   if (road) return { ...reading('named-place', [road.lineName!], { approximate }), bare: 'path', offsets: [{ path: road }] };
 
-  for (let n = end; n > i; n--) {
-    const suffix = matchPhrase(s, n - 1, L.NEAR_SUFFIXES);
-    if (suffix && n - 1 + suffix === end) {
-      const place = placeAt(s, i, n - 1);
-      if (place) return reading('near', [place], { approximate });
-    }
-    if (n < end - 3) break;
+  for (let k = Math.max(i + 1, end - 3); k < end; k++) {
+    const suffix = matchPhrase(s, k, L.NEAR_SUFFIXES);
+    const place = suffix && k + suffix === end ? placeAt(s, i, k) : null;
+    if (place) return reading('near', [place], { approximate });
   }
 
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });

@@ -1,0 +1,63 @@
+import type { Interpretation } from '../../src/parse/index.ts';
+
+/** One corpus entry: the invented text and what a curator reads in it. */
+export interface CorpusEntry {
+  text: string;
+  /** Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading. */
+  intent: { type: string; features: string[]; azimuth?: number };
+}
+
+const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
+
+/** The part of an interpretation the corpus fixes: type, features, offsets, coordinates, administrative units. */
+export function summarize(r: Interpretation): Record<string, unknown> {
+  return JSON.parse(
+    JSON.stringify({
+      type: r.type,
+      features: r.features,
+      language: r.language,
+      approximate: r.approximate || undefined,
+      offsets: r.offsets.map((o) => ({
+        distance: o.distance && {
+          written: o.distance.written,
+          value: o.distance.value,
+          unit: o.distance.unit,
+          precision: o.distance.precision,
+          uncertainty: round(o.distance.uncertainty, 9),
+          range: o.distance.range,
+        },
+        heading: o.heading && { written: o.heading.written, azimuth: o.heading.azimuth, halfWidth: o.heading.halfWidth, kind: o.heading.kind, toward: o.heading.toward },
+        path: o.path,
+        byAir: o.byAir,
+      })),
+      coordinates: r.coordinates && {
+        latitude: round(r.coordinates.latitude),
+        longitude: round(r.coordinates.longitude),
+        format: r.coordinates.format,
+        precisionDegrees: round(r.coordinates.precisionDegrees, 12),
+        datumWritten: r.coordinates.datumWritten,
+        problems: r.coordinates.problems,
+      },
+      administrative: r.administrative,
+      elevation: r.elevation,
+      hasReason: r.reason !== undefined || undefined,
+    }),
+  );
+}
+
+/** Differences between an interpretation and the hand-written intent (empty when they agree). */
+export function intentMismatches(entry: CorpusEntry, r: Interpretation): string[] {
+  const problems: string[] = [];
+  const refused = r.type === 'no-locality' || r.type === 'unparseable';
+  if (entry.intent.type === 'refused') {
+    if (!refused) problems.push(`expected a refusal, got ${r.type}`);
+    else if (!r.reason) problems.push('refusal without a reason');
+    return problems;
+  }
+  if (r.type !== entry.intent.type) problems.push(`type ${r.type} (${r.reason ?? ''}), expected ${entry.intent.type}`);
+  if (JSON.stringify(r.features) !== JSON.stringify(entry.intent.features)) problems.push(`features ${JSON.stringify(r.features)}, expected ${JSON.stringify(entry.intent.features)}`);
+  if (entry.intent.azimuth !== undefined && r.offsets[0]?.heading?.azimuth !== entry.intent.azimuth) {
+    problems.push(`azimuth ${r.offsets[0]?.heading?.azimuth}, expected ${entry.intent.azimuth}`);
+  }
+  return problems;
+}
