@@ -240,10 +240,10 @@ const cutE2 = wanderingLine([coastVertexToward([50, -45]), [50, -25], [52, -8], 
 const poniente = splitRing(coast, cutA, [-60, 0]);
 const serraAndLevant = splitRing(poniente.rest, cutB, [0, 0]);
 const alisos = splitRing(poniente.side, cutW1, [-50, 25]);
-const marisma = splitRing(alisos.rest, cutW2, [-65, -15]);
-const pedraBranca = splitRing(serraAndLevant.side, cutC1, [0, 25]);
-const beaulieu = splitRing(serraAndLevant.rest, cutE1, [45, 25]);
-const valMarin = splitRing(beaulieu.rest, cutE2, [35, -20]);
+const tresCruces = splitRing(alisos.rest, cutW2, [-65, -15]);
+const serrana = splitRing(serraAndLevant.side, cutC1, [0, 25]);
+const hautLevant = splitRing(serraAndLevant.rest, cutE1, [45, 25]);
+const basseCote = splitRing(hautLevant.rest, cutE2, [35, -20]);
 
 interface AdminUnit {
   name: string;
@@ -258,13 +258,13 @@ const provinces: AdminUnit[] = [
 ];
 const counties: AdminUnit[] = [
   { name: 'Alisos', alternateNames: ['Partido de Alisos', 'Los Alisos'], ring: alisos.side, province: 'Poniente' },
-  { name: 'Marisma', alternateNames: ['Partido de Marisma'], ring: marisma.side, province: 'Poniente' },
-  { name: 'Valle Hondo', alternateNames: ['Partido de Valle Hondo'], ring: marisma.rest, province: 'Poniente' },
-  { name: 'Pedra Branca', alternateNames: ['Município de Pedra Branca', 'Piedra Blanca'], ring: pedraBranca.side, province: 'Serra Alta' },
-  { name: 'Rio Fundo', alternateNames: ['Município de Rio Fundo', 'Río Fundo'], ring: pedraBranca.rest, province: 'Serra Alta' },
-  { name: 'Beaulieu', alternateNames: ['Canton de Beaulieu'], ring: beaulieu.side, province: 'Côte-du-Levant' },
-  { name: 'Val-Marin', alternateNames: ['Canton de Val-Marin', 'Val Marin'], ring: valMarin.side, province: 'Côte-du-Levant' },
-  { name: 'Ashcombe', alternateNames: ['Ashcombe District'], ring: valMarin.rest, province: 'Côte-du-Levant' },
+  { name: 'Tres Cruces', alternateNames: ['Partido de Tres Cruces', '3 Cruces'], ring: tresCruces.side, province: 'Poniente' },
+  { name: 'Cerrillos', alternateNames: ['Partido de Cerrillos'], ring: tresCruces.rest, province: 'Poniente' },
+  { name: 'Serrana', alternateNames: ['Município de Serrana', 'Serrana County'], ring: serrana.side, province: 'Serra Alta' },
+  { name: 'Rio Fundo', alternateNames: ['Município de Rio Fundo', 'Río Fundo'], ring: serrana.rest, province: 'Serra Alta' },
+  { name: 'Haut-Levant', alternateNames: ['Canton du Haut-Levant', 'Haut Levant'], ring: hautLevant.side, province: 'Côte-du-Levant' },
+  { name: 'Basse-Côte', alternateNames: ['Canton de la Basse-Côte', 'Basse Cote'], ring: basseCote.side, province: 'Côte-du-Levant' },
+  { name: 'Eastmoor', alternateNames: ['Eastmoor District'], ring: basseCote.rest, province: 'Côte-du-Levant' },
 ];
 
 function countyAt(p: Pt): AdminUnit | undefined {
@@ -295,7 +295,7 @@ const anywhere: Placement = { random: true };
 const places: PlaceSpec[] = [
   // Alisos (Poniente)
   { name: 'Puerto Lindo', featureType: 'city', county: 'Alisos', placement: c(135, 1.5), radiusMeters: 3500, alternateNames: ['Pto. Lindo', 'Pto Lindo', 'Puerto Lindo de Poniente', 'Port Lindo'] },
-  { name: 'Villa Alisos', featureType: 'town', county: 'Alisos', placement: at(-42, 14), radiusMeters: 1800, alternateNames: ['Va. Alisos', 'Alisos'] },
+  { name: 'Villa Alisos', featureType: 'town', county: 'Alisos', placement: at(-42, 14), radiusMeters: 1800, alternateNames: ['Va. Alisos'] },
   { name: 'Santa Rosa', featureType: 'town', county: 'Alisos', placement: at(-60, 18), alternateNames: ['Sta. Rosa', 'Santa Rosa de Poniente'] },
   { name: 'Los Pinos', featureType: 'village', county: 'Alisos', placement: anywhere },
   { name: 'La Caleta', featureType: 'village', county: 'Alisos', placement: c(155), radiusMeters: 900 },
@@ -307,44 +307,44 @@ const places: PlaceSpec[] = [
   { name: 'Punta Gaviota', featureType: 'locality', county: 'Alisos', placement: c(165, 0.6) },
   { name: 'Estancia La Esperanza', featureType: 'estate', county: 'Alisos', placement: anywhere, radiusMeters: 2500 },
   { name: 'Chacra Los Olmos', featureType: 'farm', county: 'Alisos', placement: anywhere },
-  // Valle Hondo (Poniente)
-  { name: 'Valle Hondo', featureType: 'town', county: 'Valle Hondo', placement: at(-33, -12), radiusMeters: 1600 },
-  { name: 'San Telmo', featureType: 'town', county: 'Valle Hondo', placement: at(-30, -28), radiusMeters: 1500, alternateNames: ['S. Telmo', 'San Telmo de Poniente'] },
-  { name: 'Las Flores', featureType: 'village', county: 'Valle Hondo', placement: anywhere },
-  { name: 'El Molino', featureType: 'village', county: 'Valle Hondo', placement: anywhere, alternateNames: ['Molino'] },
-  { name: 'Cruz Alta', featureType: 'hamlet', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Piedra Negra', featureType: 'locality', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Rincón del Sauce', featureType: 'village', county: 'Valle Hondo', placement: anywhere, alternateNames: ['Rincon del Sauce'] },
-  { name: 'La Candelaria', featureType: 'village', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Tierra Blanca', featureType: 'hamlet', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Corralito', featureType: 'hamlet', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Estación Valle Hondo', featureType: 'station', county: 'Valle Hondo', placement: at(-31, -15), alternateNames: ['Estacion Valle Hondo'] },
-  { name: 'Estancia San Isidro', featureType: 'estate', county: 'Valle Hondo', placement: anywhere, radiusMeters: 3000 },
-  // Marisma (Poniente)
-  { name: 'Marisma', featureType: 'town', county: 'Marisma', placement: at(-60, -14), radiusMeters: 1400, alternateNames: ['La Marisma'] },
-  { name: 'Los Pinos', featureType: 'village', county: 'Marisma', placement: anywhere },
-  { name: 'Puerto Arenas', featureType: 'village', county: 'Marisma', placement: c(196), alternateNames: ['Pto. Arenas'] },
-  { name: 'Salinas del Sur', featureType: 'village', county: 'Marisma', placement: c(217) },
-  { name: 'Tres Lagunas', featureType: 'hamlet', county: 'Marisma', placement: anywhere, alternateNames: ['3 Lagunas'] },
-  { name: 'Las Garzas', featureType: 'village', county: 'Marisma', placement: anywhere },
-  { name: 'Médanos', featureType: 'locality', county: 'Marisma', placement: anywhere, alternateNames: ['Medanos', 'Los Médanos'] },
-  { name: 'Punta Brava', featureType: 'village', county: 'Marisma', placement: c(185) },
-  { name: 'El Junco', featureType: 'hamlet', county: 'Marisma', placement: anywhere },
-  { name: 'Granja El Ombú', featureType: 'farm', county: 'Marisma', placement: anywhere, alternateNames: ['Granja El Ombu'] },
-  // Pedra Branca (Serra Alta)
-  { name: 'Vila Serena', featureType: 'town', county: 'Pedra Branca', placement: at(0, 22), radiusMeters: 2000, alternateNames: ['V. Serena', 'Vila Serena do Norte', 'Serena'] },
-  { name: 'Porto Novo', featureType: 'town', county: 'Pedra Branca', placement: c(95), radiusMeters: 1700, alternateNames: ['Enseada Velha', 'Pto. Novo'] },
-  { name: 'Pedra Branca', featureType: 'village', county: 'Pedra Branca', placement: anywhere },
-  { name: 'São Jorge', featureType: 'village', county: 'Pedra Branca', placement: anywhere, alternateNames: ['Sao Jorge', 'S. Jorge'] },
-  { name: 'Bellevue', featureType: 'hamlet', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Santa Rosa', featureType: 'village', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Alto da Serra', featureType: 'hamlet', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Campo Alegre', featureType: 'village', county: 'Pedra Branca', placement: anywhere, radiusMeters: 1000 },
-  { name: 'Lajeado Grande', featureType: 'village', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Morro Azul', featureType: 'hamlet', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Vargem Bonita', featureType: 'village', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Fazenda Boa Vista', featureType: 'farm', county: 'Pedra Branca', placement: anywhere, radiusMeters: 2000 },
-  { name: 'Quinta das Águias', featureType: 'estate', county: 'Pedra Branca', placement: anywhere, alternateNames: ['Quinta das Aguias'] },
+  // Cerrillos (Poniente)
+  { name: 'Valle Hondo', featureType: 'town', county: 'Cerrillos', placement: at(-33, -12), radiusMeters: 1600 },
+  { name: 'San Telmo', featureType: 'town', county: 'Cerrillos', placement: at(-30, -28), radiusMeters: 1500, alternateNames: ['S. Telmo', 'San Telmo de Poniente'] },
+  { name: 'Las Flores', featureType: 'village', county: 'Cerrillos', placement: anywhere },
+  { name: 'El Molino', featureType: 'village', county: 'Cerrillos', placement: anywhere, alternateNames: ['Molino'] },
+  { name: 'Cruz Alta', featureType: 'hamlet', county: 'Cerrillos', placement: anywhere },
+  { name: 'Piedra Negra', featureType: 'locality', county: 'Cerrillos', placement: anywhere },
+  { name: 'Rincón del Sauce', featureType: 'village', county: 'Cerrillos', placement: anywhere, alternateNames: ['Rincon del Sauce'] },
+  { name: 'La Candelaria', featureType: 'village', county: 'Cerrillos', placement: anywhere },
+  { name: 'Tierra Blanca', featureType: 'hamlet', county: 'Cerrillos', placement: anywhere },
+  { name: 'Corralito', featureType: 'hamlet', county: 'Cerrillos', placement: anywhere },
+  { name: 'Estación Valle Hondo', featureType: 'station', county: 'Cerrillos', placement: at(-31, -15), alternateNames: ['Estacion Valle Hondo'] },
+  { name: 'Estancia San Isidro', featureType: 'estate', county: 'Cerrillos', placement: anywhere, radiusMeters: 3000 },
+  // Tres Cruces (Poniente)
+  { name: 'Marisma', featureType: 'town', county: 'Tres Cruces', placement: at(-60, -14), radiusMeters: 1400, alternateNames: ['La Marisma'] },
+  { name: 'Los Pinos', featureType: 'village', county: 'Tres Cruces', placement: anywhere },
+  { name: 'Puerto Arenas', featureType: 'village', county: 'Tres Cruces', placement: c(196), alternateNames: ['Pto. Arenas'] },
+  { name: 'Salinas del Sur', featureType: 'village', county: 'Tres Cruces', placement: c(217) },
+  { name: 'Tres Lagunas', featureType: 'hamlet', county: 'Tres Cruces', placement: anywhere, alternateNames: ['3 Lagunas'] },
+  { name: 'Las Garzas', featureType: 'village', county: 'Tres Cruces', placement: anywhere },
+  { name: 'Médanos', featureType: 'locality', county: 'Tres Cruces', placement: anywhere, alternateNames: ['Medanos', 'Los Médanos'] },
+  { name: 'Punta Brava', featureType: 'village', county: 'Tres Cruces', placement: c(185) },
+  { name: 'El Junco', featureType: 'hamlet', county: 'Tres Cruces', placement: anywhere },
+  { name: 'Granja El Ombú', featureType: 'farm', county: 'Tres Cruces', placement: anywhere, alternateNames: ['Granja El Ombu'] },
+  // Serrana (Serra Alta)
+  { name: 'Vila Serena', featureType: 'town', county: 'Serrana', placement: at(0, 22), radiusMeters: 2000, alternateNames: ['V. Serena', 'Vila Serena do Norte', 'Serena'] },
+  { name: 'Porto Novo', featureType: 'town', county: 'Serrana', placement: c(95), radiusMeters: 1700, alternateNames: ['Enseada Velha', 'Pto. Novo'] },
+  { name: 'Pedra Branca', featureType: 'village', county: 'Serrana', placement: anywhere },
+  { name: 'São Jorge', featureType: 'village', county: 'Serrana', placement: anywhere, alternateNames: ['Sao Jorge', 'S. Jorge'] },
+  { name: 'Bellevue', featureType: 'hamlet', county: 'Serrana', placement: anywhere },
+  { name: 'Santa Rosa', featureType: 'village', county: 'Serrana', placement: anywhere },
+  { name: 'Alto da Serra', featureType: 'hamlet', county: 'Serrana', placement: anywhere },
+  { name: 'Campo Alegre', featureType: 'village', county: 'Serrana', placement: anywhere, radiusMeters: 1000 },
+  { name: 'Lajeado Grande', featureType: 'village', county: 'Serrana', placement: anywhere },
+  { name: 'Morro Azul', featureType: 'hamlet', county: 'Serrana', placement: anywhere },
+  { name: 'Vargem Bonita', featureType: 'village', county: 'Serrana', placement: anywhere },
+  { name: 'Fazenda Boa Vista', featureType: 'farm', county: 'Serrana', placement: anywhere, radiusMeters: 2000 },
+  { name: 'Quinta das Águias', featureType: 'estate', county: 'Serrana', placement: anywhere, alternateNames: ['Quinta das Aguias'] },
   // Rio Fundo (Serra Alta)
   { name: 'Rio Fundo', featureType: 'town', county: 'Rio Fundo', placement: at(4, -18), radiusMeters: 1800, alternateNames: ['Río Fundo', 'Vila do Rio Fundo'] },
   { name: 'San Telmo', featureType: 'village', county: 'Rio Fundo', placement: at(-10, -30), alternateNames: ['São Telmo'] },
@@ -358,82 +358,82 @@ const places: PlaceSpec[] = [
   { name: 'Areia Branca', featureType: 'village', county: 'Rio Fundo', placement: anywhere },
   { name: 'Sítio do Meio', featureType: 'farm', county: 'Rio Fundo', placement: anywhere, alternateNames: ['Sitio do Meio'] },
   { name: 'Estação Rio Fundo', featureType: 'station', county: 'Rio Fundo', placement: at(6, -16), alternateNames: ['Estacao Rio Fundo'] },
-  // Beaulieu (Côte-du-Levant)
-  { name: 'Saint-Aubrac', featureType: 'town', county: 'Beaulieu', placement: at(40, 24), radiusMeters: 2500, alternateNames: ['St-Aubrac', 'St. Aubrac', 'Saint Aubrac', 'Port-Aubrac'] },
-  { name: 'Beaulieu', featureType: 'village', county: 'Beaulieu', placement: anywhere, radiusMeters: 1100 },
-  { name: 'Bellevue', featureType: 'village', county: 'Beaulieu', placement: anywhere },
-  { name: 'Les Saules', featureType: 'village', county: 'Beaulieu', placement: anywhere },
-  { name: 'Roche-Claire', featureType: 'hamlet', county: 'Beaulieu', placement: anywhere, alternateNames: ['Roche Claire'] },
-  { name: 'Pré-Fleuri', featureType: 'hamlet', county: 'Beaulieu', placement: anywhere, alternateNames: ['Pre Fleuri', 'Pré Fleuri'] },
-  { name: 'Port-Joie', featureType: 'village', county: 'Beaulieu', placement: c(50) },
-  { name: 'Les Genêts', featureType: 'hamlet', county: 'Beaulieu', placement: anywhere, alternateNames: ['Les Genets'] },
-  { name: 'Saint-Firmin-des-Landes', featureType: 'village', county: 'Beaulieu', placement: anywhere, alternateNames: ['St-Firmin-des-Landes', 'Saint-Firmin'] },
-  { name: 'Domaine des Brumes', featureType: 'estate', county: 'Beaulieu', placement: anywhere, radiusMeters: 1500 },
-  { name: 'Ferme Lacoste', featureType: 'farm', county: 'Beaulieu', placement: anywhere },
-  // Val-Marin (Côte-du-Levant)
-  { name: 'Val-Marin', featureType: 'town', county: 'Val-Marin', placement: at(36, -22), radiusMeters: 1600, alternateNames: ['Val Marin'] },
-  { name: 'Sainte-Odile-des-Dunes', featureType: 'village', county: 'Val-Marin', placement: c(305), alternateNames: ['Ste-Odile-des-Dunes', 'Sainte-Odile'] },
-  { name: 'Les Pins', featureType: 'village', county: 'Val-Marin', placement: anywhere },
-  { name: 'Le Gué', featureType: 'hamlet', county: 'Val-Marin', placement: anywhere, alternateNames: ['Le Gue'] },
-  { name: 'Fontbelle', featureType: 'village', county: 'Val-Marin', placement: anywhere },
-  { name: 'La Brèche', featureType: 'hamlet', county: 'Val-Marin', placement: anywhere, alternateNames: ['La Breche'] },
-  { name: "Bourg-l'Étang", featureType: 'village', county: 'Val-Marin', placement: anywhere, alternateNames: ["Bourg l'Etang", 'Bourg-Létang'] },
-  { name: 'Le Moulin-Neuf', featureType: 'village', county: 'Val-Marin', placement: anywhere },
-  { name: 'Mas des Cigales', featureType: 'farm', county: 'Val-Marin', placement: anywhere },
-  { name: 'Gare de Val-Marin', featureType: 'station', county: 'Val-Marin', placement: at(38, -20) },
-  // Ashcombe (Côte-du-Levant)
-  { name: 'Millbrook', featureType: 'town', county: 'Ashcombe', placement: at(62, -14), radiusMeters: 1800, alternateNames: ['Mill Brook', 'Millbrooke'] },
-  { name: 'Fairhaven', featureType: 'town', county: 'Ashcombe', placement: c(-25), alternateNames: ['Fair Haven'] },
-  { name: 'Ashcombe', featureType: 'village', county: 'Ashcombe', placement: anywhere },
-  { name: 'Kingsferry', featureType: 'village', county: 'Ashcombe', placement: anywhere, alternateNames: ["King's Ferry"] },
-  { name: 'Hollow Oak', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
-  { name: 'Pennywell', featureType: 'village', county: 'Ashcombe', placement: anywhere, radiusMeters: 800 },
-  { name: 'Cressly', featureType: 'village', county: 'Ashcombe', placement: anywhere },
-  { name: 'Brambleford', featureType: 'village', county: 'Ashcombe', placement: anywhere },
-  { name: 'Otterby', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
-  { name: 'Windle End', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
-  { name: 'Eastpoint', featureType: 'locality', county: 'Ashcombe', placement: anywhere },
-  { name: 'Greystone Farm', featureType: 'farm', county: 'Ashcombe', placement: anywhere },
-  { name: 'Harrowgate Estate', featureType: 'estate', county: 'Ashcombe', placement: anywhere, radiusMeters: 1200 },
+  // Haut-Levant (Côte-du-Levant)
+  { name: 'Saint-Aubrac', featureType: 'town', county: 'Haut-Levant', placement: at(40, 24), radiusMeters: 2500, alternateNames: ['St-Aubrac', 'St. Aubrac', 'Saint Aubrac', 'Port-Aubrac'] },
+  { name: 'Beaulieu', featureType: 'village', county: 'Haut-Levant', placement: anywhere, radiusMeters: 1100 },
+  { name: 'Bellevue', featureType: 'village', county: 'Haut-Levant', placement: anywhere },
+  { name: 'Les Saules', featureType: 'village', county: 'Haut-Levant', placement: anywhere },
+  { name: 'Roche-Claire', featureType: 'hamlet', county: 'Haut-Levant', placement: anywhere, alternateNames: ['Roche Claire'] },
+  { name: 'Pré-Fleuri', featureType: 'hamlet', county: 'Haut-Levant', placement: anywhere, alternateNames: ['Pre Fleuri', 'Pré Fleuri'] },
+  { name: 'Port-Joie', featureType: 'village', county: 'Haut-Levant', placement: c(50) },
+  { name: 'Les Genêts', featureType: 'hamlet', county: 'Haut-Levant', placement: anywhere, alternateNames: ['Les Genets'] },
+  { name: 'Saint-Firmin-des-Landes', featureType: 'village', county: 'Haut-Levant', placement: anywhere, alternateNames: ['St-Firmin-des-Landes', 'Saint-Firmin'] },
+  { name: 'Domaine des Brumes', featureType: 'estate', county: 'Haut-Levant', placement: anywhere, radiusMeters: 1500 },
+  { name: 'Ferme Lacoste', featureType: 'farm', county: 'Haut-Levant', placement: anywhere },
+  // Basse-Côte (Côte-du-Levant)
+  { name: 'Val-Marin', featureType: 'town', county: 'Basse-Côte', placement: at(36, -22), radiusMeters: 1600, alternateNames: ['Val Marin'] },
+  { name: 'Sainte-Odile-des-Dunes', featureType: 'village', county: 'Basse-Côte', placement: c(305), alternateNames: ['Ste-Odile-des-Dunes', 'Sainte-Odile'] },
+  { name: 'Les Pins', featureType: 'village', county: 'Basse-Côte', placement: anywhere },
+  { name: 'Le Gué', featureType: 'hamlet', county: 'Basse-Côte', placement: anywhere, alternateNames: ['Le Gue'] },
+  { name: 'Fontbelle', featureType: 'village', county: 'Basse-Côte', placement: anywhere },
+  { name: 'La Brèche', featureType: 'hamlet', county: 'Basse-Côte', placement: anywhere, alternateNames: ['La Breche'] },
+  { name: "Bourg-l'Étang", featureType: 'village', county: 'Basse-Côte', placement: anywhere, alternateNames: ["Bourg l'Etang", 'Bourg-Létang'] },
+  { name: 'Le Moulin-Neuf', featureType: 'village', county: 'Basse-Côte', placement: anywhere },
+  { name: 'Mas des Cigales', featureType: 'farm', county: 'Basse-Côte', placement: anywhere },
+  { name: 'Gare de Val-Marin', featureType: 'station', county: 'Basse-Côte', placement: at(38, -20) },
+  // Eastmoor (Côte-du-Levant)
+  { name: 'Millbrook', featureType: 'town', county: 'Eastmoor', placement: at(62, -14), radiusMeters: 1800, alternateNames: ['Mill Brook', 'Millbrooke'] },
+  { name: 'Fairhaven', featureType: 'town', county: 'Eastmoor', placement: c(-25), alternateNames: ['Fair Haven'] },
+  { name: 'Ashcombe', featureType: 'village', county: 'Eastmoor', placement: anywhere },
+  { name: 'Kingsferry', featureType: 'village', county: 'Eastmoor', placement: anywhere, alternateNames: ["King's Ferry"] },
+  { name: 'Hollow Oak', featureType: 'hamlet', county: 'Eastmoor', placement: anywhere },
+  { name: 'Pennywell', featureType: 'village', county: 'Eastmoor', placement: anywhere, radiusMeters: 800 },
+  { name: 'Cressly', featureType: 'village', county: 'Eastmoor', placement: anywhere },
+  { name: 'Brambleford', featureType: 'village', county: 'Eastmoor', placement: anywhere },
+  { name: 'Otterby', featureType: 'hamlet', county: 'Eastmoor', placement: anywhere },
+  { name: 'Windle End', featureType: 'hamlet', county: 'Eastmoor', placement: anywhere },
+  { name: 'Eastpoint', featureType: 'locality', county: 'Eastmoor', placement: anywhere },
+  { name: 'Greystone Farm', featureType: 'farm', county: 'Eastmoor', placement: anywhere },
+  { name: 'Harrowgate Estate', featureType: 'estate', county: 'Eastmoor', placement: anywhere, radiusMeters: 1200 },
   // Natural features (points)
-  { name: 'Monte Verdemar', featureType: 'mountain', county: 'Pedra Branca', placement: at(-6, 30), radiusMeters: 6000, alternateNames: ['Mont Verdemar', 'Mount Verdemar'] },
-  { name: 'Pico do Vento', featureType: 'peak', county: 'Pedra Branca', placement: at(-8, 33), alternateNames: ['Pico del Viento'] },
-  { name: 'Cerro Centinela', featureType: 'peak', county: 'Valle Hondo', placement: anywhere },
-  { name: "Pic de l'Aigle", featureType: 'peak', county: 'Beaulieu', placement: at(34, 10.5), alternateNames: ['Pic de lAigle', 'Eagle Peak'] },
+  { name: 'Monte Verdemar', featureType: 'mountain', county: 'Serrana', placement: at(-6, 30), radiusMeters: 6000, alternateNames: ['Mont Verdemar', 'Mount Verdemar'] },
+  { name: 'Pico do Vento', featureType: 'peak', county: 'Serrana', placement: at(-8, 33), alternateNames: ['Pico del Viento'] },
+  { name: 'Cerro Centinela', featureType: 'peak', county: 'Cerrillos', placement: anywhere },
+  { name: "Pic de l'Aigle", featureType: 'peak', county: 'Haut-Levant', placement: at(34, 10.5), alternateNames: ['Pic de lAigle', 'Eagle Peak'] },
   { name: 'Colina Redonda', featureType: 'hill', county: 'Alisos', placement: anywhere },
   { name: 'Morro do Sino', featureType: 'hill', county: 'Rio Fundo', placement: anywhere },
-  { name: 'Beacon Hill', featureType: 'hill', county: 'Ashcombe', placement: anywhere },
-  { name: 'Paso de los Vientos', featureType: 'pass', county: 'Pedra Branca', placement: at(-14, 20), alternateNames: ['Passo dos Ventos'] },
-  { name: 'Cabo Tormento', featureType: 'cape', county: 'Marisma', placement: c(203, 0.4), alternateNames: ['Cape Tormento'] },
-  { name: 'East Cape', featureType: 'cape', county: 'Ashcombe', placement: c(-12, 0.4), alternateNames: ["Cap de l'Est", 'Cabo del Este'] },
-  { name: 'Playa Larga', featureType: 'beach', county: 'Marisma', placement: c(210, 0.4) },
+  { name: 'Beacon Hill', featureType: 'hill', county: 'Eastmoor', placement: anywhere },
+  { name: 'Paso de los Vientos', featureType: 'pass', county: 'Serrana', placement: at(-14, 20), alternateNames: ['Passo dos Ventos'] },
+  { name: 'Cabo Tormento', featureType: 'cape', county: 'Tres Cruces', placement: c(203, 0.4), alternateNames: ['Cape Tormento'] },
+  { name: 'East Cape', featureType: 'cape', county: 'Eastmoor', placement: c(-12, 0.4), alternateNames: ["Cap de l'Est", 'Cabo del Este'] },
+  { name: 'Playa Larga', featureType: 'beach', county: 'Tres Cruces', placement: c(210, 0.4) },
   { name: 'Praia Branca', featureType: 'beach', county: 'Rio Fundo', placement: c(258, 0.4) },
-  { name: 'Plage des Dunes', featureType: 'beach', county: 'Val-Marin', placement: c(312, 0.4) },
+  { name: 'Plage des Dunes', featureType: 'beach', county: 'Basse-Côte', placement: c(312, 0.4) },
   // More settlements, listed last so that adding them did not move the places above.
   { name: 'San Bernardo del Monte', featureType: 'village', county: 'Alisos', placement: anywhere, alternateNames: ['S. Bernardo del Monte'] },
   { name: 'La Quebrada', featureType: 'hamlet', county: 'Alisos', placement: anywhere },
   { name: 'Villa Clara del Norte', featureType: 'village', county: 'Alisos', placement: anywhere },
-  { name: 'Las Acacias', featureType: 'village', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Paso Ancho', featureType: 'hamlet', county: 'Valle Hondo', placement: anywhere },
-  { name: 'Los Sauces', featureType: 'village', county: 'Valle Hondo', placement: anywhere, radiusMeters: 700 },
-  { name: 'Las Dunas', featureType: 'village', county: 'Marisma', placement: anywhere },
-  { name: 'Bañado Grande', featureType: 'hamlet', county: 'Marisma', placement: anywhere, alternateNames: ['Banado Grande'] },
-  { name: 'Serrinha do Norte', featureType: 'village', county: 'Pedra Branca', placement: anywhere },
-  { name: 'Águas Claras', featureType: 'village', county: 'Pedra Branca', placement: anywhere, alternateNames: ['Aguas Claras'] },
-  { name: 'Boa Esperança', featureType: 'hamlet', county: 'Pedra Branca', placement: anywhere, alternateNames: ['Boa Esperanca'] },
+  { name: 'Las Acacias', featureType: 'village', county: 'Cerrillos', placement: anywhere },
+  { name: 'Paso Ancho', featureType: 'hamlet', county: 'Cerrillos', placement: anywhere },
+  { name: 'Los Sauces', featureType: 'village', county: 'Cerrillos', placement: anywhere, radiusMeters: 700 },
+  { name: 'Las Dunas', featureType: 'village', county: 'Tres Cruces', placement: anywhere },
+  { name: 'Bañado Grande', featureType: 'hamlet', county: 'Tres Cruces', placement: anywhere, alternateNames: ['Banado Grande'] },
+  { name: 'Serrinha do Norte', featureType: 'village', county: 'Serrana', placement: anywhere },
+  { name: 'Águas Claras', featureType: 'village', county: 'Serrana', placement: anywhere, alternateNames: ['Aguas Claras'] },
+  { name: 'Boa Esperança', featureType: 'hamlet', county: 'Serrana', placement: anywhere, alternateNames: ['Boa Esperanca'] },
   { name: 'Santa Luzia do Sul', featureType: 'village', county: 'Rio Fundo', placement: anywhere, alternateNames: ['Sta. Luzia do Sul'] },
   { name: 'Pinhal', featureType: 'hamlet', county: 'Rio Fundo', placement: anywhere },
   { name: 'Cruzeiro Velho', featureType: 'village', county: 'Rio Fundo', placement: anywhere, alternateNames: ['Cruzeiro'] },
-  { name: 'La Vallée-aux-Loups', featureType: 'village', county: 'Beaulieu', placement: anywhere, alternateNames: ['La Vallee aux Loups'] },
-  { name: 'Sainte-Brigitte', featureType: 'village', county: 'Beaulieu', placement: anywhere, alternateNames: ['Ste-Brigitte'] },
-  { name: 'Les Hauts-Prés', featureType: 'hamlet', county: 'Beaulieu', placement: anywhere, alternateNames: ['Les Hauts Pres'] },
-  { name: 'Port-Sablon', featureType: 'village', county: 'Val-Marin', placement: anywhere },
-  { name: 'Saint-Cyrille', featureType: 'village', county: 'Val-Marin', placement: anywhere, alternateNames: ['St-Cyrille'] },
-  { name: 'La Garenne', featureType: 'hamlet', county: 'Val-Marin', placement: anywhere },
-  { name: 'Little Ashcombe', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
-  { name: 'Stonebridge', featureType: 'village', county: 'Ashcombe', placement: anywhere },
-  { name: 'Elmstead', featureType: 'village', county: 'Ashcombe', placement: anywhere, radiusMeters: 900 },
-  { name: 'Foxley Green', featureType: 'hamlet', county: 'Ashcombe', placement: anywhere },
+  { name: 'La Vallée-aux-Loups', featureType: 'village', county: 'Haut-Levant', placement: anywhere, alternateNames: ['La Vallee aux Loups'] },
+  { name: 'Sainte-Brigitte', featureType: 'village', county: 'Haut-Levant', placement: anywhere, alternateNames: ['Ste-Brigitte'] },
+  { name: 'Les Hauts-Prés', featureType: 'hamlet', county: 'Haut-Levant', placement: anywhere, alternateNames: ['Les Hauts Pres'] },
+  { name: 'Port-Sablon', featureType: 'village', county: 'Basse-Côte', placement: anywhere },
+  { name: 'Saint-Cyrille', featureType: 'village', county: 'Basse-Côte', placement: anywhere, alternateNames: ['St-Cyrille'] },
+  { name: 'La Garenne', featureType: 'hamlet', county: 'Basse-Côte', placement: anywhere },
+  { name: 'Little Ashcombe', featureType: 'hamlet', county: 'Eastmoor', placement: anywhere },
+  { name: 'Stonebridge', featureType: 'village', county: 'Eastmoor', placement: anywhere },
+  { name: 'Elmstead', featureType: 'village', county: 'Eastmoor', placement: anywhere, radiusMeters: 900 },
+  { name: 'Foxley Green', featureType: 'hamlet', county: 'Eastmoor', placement: anywhere },
 ];
 
 const roadsideRoom = 2.5; // km kept between scattered settlements
@@ -444,9 +444,9 @@ for (const p of places) {
 }
 
 const lakes = [
-  { name: 'Laguna Azul', county: 'Marisma', center: [-55, -16] as Pt, radius: 1.8, alternateNames: ['Lag. Azul'] },
+  { name: 'Laguna Azul', county: 'Tres Cruces', center: [-55, -16] as Pt, radius: 1.8, alternateNames: ['Lag. Azul'] },
   { name: 'Lagoa Dourada', county: 'Rio Fundo', center: [-8, -8] as Pt, radius: 1.5, alternateNames: ['Laguna Dorada'] },
-  { name: 'Lac des Saules', county: 'Beaulieu', center: [52, 18] as Pt, radius: 1.2, alternateNames: ['Lake of the Willows'] },
+  { name: 'Lac des Saules', county: 'Haut-Levant', center: [52, 18] as Pt, radius: 1.2, alternateNames: ['Lake of the Willows'] },
 ].map((l) => ({ ...l, ring: blob(l.center, l.radius, 16) }));
 
 for (const p of places) {
@@ -479,11 +479,11 @@ const riviereBlanche = wanderingLine([[30, 14], [42, 6], [55, -3], coastPoint(-5
 const ruisseauDesSaules = wanderingLine([[52, 16.6], [56, 8], nearestVertex(riviereBlanche, [55, -3])], 1.5, 0.3, lineRandom);
 const millBrook = wanderingLine([[68, -3], [63.5, -13], [66, -24], coastPoint(-38, 0.3)], 1.5, 0.3, lineRandom);
 
-const ruta12 = wanderingLine([placeAt('Puerto Lindo'), [-44, 22], placeAt('Villa Alisos'), [-36, 0], placeAt('Valle Hondo'), placeAt('San Telmo', 'Valle Hondo'), [-36, -40], placeAt('Salinas del Sur')], 2, 0.3, lineRandom);
+const ruta12 = wanderingLine([placeAt('Puerto Lindo'), [-44, 22], placeAt('Villa Alisos'), [-36, 0], placeAt('Valle Hondo'), placeAt('San Telmo', 'Cerrillos'), [-36, -40], placeAt('Salinas del Sur')], 2, 0.3, lineRandom);
 const ruta1West = wanderingLine([placeAt('Villa Alisos'), [-24, 16], [-12, 19], placeAt('Vila Serena')], 2, 0.3, lineRandom);
 const ruta1East = wanderingLine([placeAt('Vila Serena'), [14, 20], [28, 22], placeAt('Saint-Aubrac'), [54, 2], placeAt('Millbrook')], 2, 0.3, lineRandom);
 const routeDeLaCote = wanderingLine([placeAt('Saint-Aubrac'), [36, 4], placeAt('Val-Marin'), placeAt('Sainte-Odile-des-Dunes')], 2, 0.3, lineRandom);
-const estradaDoSul = wanderingLine([placeAt('San Telmo', 'Valle Hondo'), placeAt('San Telmo', 'Rio Fundo'), placeAt('Rio Fundo'), [20, -16], placeAt('Val-Marin')], 2, 0.3, lineRandom);
+const estradaDoSul = wanderingLine([placeAt('San Telmo', 'Cerrillos'), placeAt('San Telmo', 'Rio Fundo'), placeAt('Rio Fundo'), [20, -16], placeAt('Val-Marin')], 2, 0.3, lineRandom);
 const trilhaDoPico = wanderingLine([placeAt('Vila Serena'), [-4, 26], placeAt('Paso de los Vientos'), placeAt('Pico do Vento')], 1, 0.2, lineRandom);
 const sentierDesCretesA = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Saint-Aubrac')], 1, 0.2, lineRandom);
 const sentierDesCretesB = wanderingLine([placeAt("Pic de l'Aigle"), placeAt('Port-Joie')], 1, 0.2, lineRandom);
@@ -608,7 +608,7 @@ add('Bahía Linda', 'bay', turf.rewind(bayGeometry) as Polygon, { alternateNames
 
 const islet = blob(coastPoint(195, -9), 1.6, 14);
 if (islet.some((v) => insideRing(v, coast) || distanceToRing(v, coast) < 3)) throw new Error('the islet touches the island');
-add('Isla Gaviota', 'island', polygon(islet), { alternateNames: ['Ilhéu da Gaivota', 'Gull Island', 'Île aux Mouettes'], stateProvince: 'Poniente', county: 'Marisma' });
+add('Isla Gaviota', 'island', polygon(islet), { alternateNames: ['Ilhéu da Gaivota', 'Gull Island', 'Île aux Mouettes'], stateProvince: 'Poniente', county: 'Tres Cruces' });
 
 const collection: FeatureCollection = { type: 'FeatureCollection', features };
 writeFileSync(join(OUT_DIR, 'demo.geojson'), JSON.stringify(collection, null, 0).replace(/\{"type":"Feature"/g, '\n{"type":"Feature"') + '\n');
@@ -675,13 +675,13 @@ const rioFundoTown = latLonOf('Rio Fundo', 'Rio Fundo');
 const porto = latLonOf('Porto Novo');
 const pico = latLonOf('Pico do Vento');
 const lagoaSeca = latLonOf('Lagoa Seca');
-const pedra = latLonOf('Pedra Branca', 'Pedra Branca');
+const pedra = latLonOf('Pedra Branca', 'Serrana');
 const localities: LocalitySpec[] = [
   { locality: 'Puerto Lindo', form: 'named place', places: ['Puerto Lindo'], ...QV, stateProvince: 'Poniente' },
   { locality: 'Vila Serena', form: 'named place', places: ['Vila Serena'], ...QV },
   { locality: '10 km NE of Vila Serena', form: 'distance and heading', places: ['Vila Serena'], ...QV, stateProvince: 'Serra Alta' },
   { locality: 'Millbrook, 5 km S', form: 'distance and heading, place first', places: ['Millbrook'], ...QV },
-  { locality: '3 km N and 2 km E of Valle Hondo', form: 'two orthogonal offsets', places: ['Valle Hondo'], ...QV, stateProvince: 'Poniente', county: 'Valle Hondo' },
+  { locality: '3 km N and 2 km E of Valle Hondo', form: 'two orthogonal offsets', places: ['Valle Hondo'], ...QV, stateProvince: 'Poniente', county: 'Cerrillos' },
   { locality: '5 km from Saint-Aubrac', form: 'distance only', places: ['Saint-Aubrac'], ...QV },
   { locality: '12 km by road from Puerto Lindo on Ruta 12', form: 'path offset', places: ['Puerto Lindo', 'Ruta 12'], ...QV, note: 'El Mirador lies 12 km along Ruta 12 from Puerto Lindo' },
   { locality: 'between Val-Marin and Millbrook', form: 'between two places', places: ['Val-Marin', 'Millbrook'], ...QV },
@@ -696,7 +696,7 @@ const localities: LocalitySpec[] = [
   { locality: 'San Telmo', form: 'named place narrowed by province', places: ['San Telmo'], ...QV, stateProvince: 'Serra Alta' },
   { locality: 'Santa Rosa', form: 'ambiguous: two places of this name in different provinces', places: ['Santa Rosa'], countryCode: COUNTRY_CODE },
   { locality: 'Bellevue, 2 km W', form: 'ambiguous offset: Bellevue in Serra Alta and in Côte-du-Levant', places: ['Bellevue'], ...QV },
-  { locality: 'Los Pinos', form: 'named place narrowed by county (two Los Pinos in Poniente)', places: ['Los Pinos'], ...QV, stateProvince: 'Poniente', county: 'Marisma' },
+  { locality: 'Los Pinos', form: 'named place narrowed by county (two Los Pinos in Poniente)', places: ['Los Pinos'], ...QV, stateProvince: 'Poniente', county: 'Tres Cruces' },
   { locality: 'Rio Fundo', form: 'ambiguous by type: a town, a river and a county share the name', places: ['Rio Fundo'], ...QV, stateProvince: 'Serra Alta' },
   { locality: 'Kingsfery', form: 'misspelt name (one letter missing from Kingsferry)', places: ['Kingsferry'], absent: ['Kingsfery'], ...QV },
   { locality: 'Villa Quimera', form: 'name absent from the gazetteer', places: [], absent: ['Villa Quimera'], ...QV },
@@ -729,7 +729,7 @@ const localities: LocalitySpec[] = [
   { locality: 'St-Aubrac, 4 km N', form: 'distance and heading, abbreviated name', places: ['St-Aubrac'], ...QV },
   { locality: 'Estancia San Isidro, 1.5 km E', form: 'distance and heading with a decimal distance', places: ['Estancia San Isidro'], ...QV },
   { locality: 'Route de la Côte, 3 km N of Val-Marin', form: 'distance and heading with a road named', places: ['Route de la Côte', 'Val-Marin'], ...QV },
-  { locality: 'Lac des Saules, Beaulieu', form: 'named place with its county in the text', places: ['Lac des Saules', 'Beaulieu'], ...QV },
+  { locality: 'Lac des Saules, Haut-Levant', form: 'named place with its county in the text', places: ['Lac des Saules', 'Haut-Levant'], ...QV },
 ];
 
 const TAXA = ['Verdemaria lindoensis', 'Serenella alticola', 'Aubracia marina', 'Millbrookia minor', 'Telmoa ambigua', 'Nebulosa verdemarensis', 'Gaviotella insularis', 'Quimeria fundensis'];

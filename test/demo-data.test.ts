@@ -147,6 +147,14 @@ describe('demo.geojson properties follow the gazetteer contract', () => {
     const shared = [...provincesByName].filter(([, set]) => set.size > 1).map(([name]) => name);
     expect(shared).toEqual(expect.arrayContaining(['San Telmo', 'Santa Rosa', 'Bellevue']));
   });
+
+  it('gives counties and provinces names no other feature has, except Rio Fundo (town, river and county, on purpose)', () => {
+    const units = features.filter((f) => ['county', 'stateProvince'].includes(String(props(f).featureType)));
+    for (const unit of units) {
+      const others = features.filter((f) => f !== unit && props(f).name === props(unit).name && !['county', 'stateProvince'].includes(String(props(f).featureType)));
+      expect(others.length, String(props(unit).name)).toBe(props(unit).name === 'Rio Fundo' ? 2 : 0);
+    }
+  });
 });
 
 describe('demo.geojson topology', () => {
