@@ -436,7 +436,7 @@ const places: PlaceSpec[] = [
   { name: 'Foxley Green', featureType: 'hamlet', county: 'Eastmoor', placement: anywhere },
 ];
 
-const roadsideRoom = 2.5; // km kept between scattered settlements
+const SETTLEMENT_SPACING_KM = 2.5; // kept between scattered settlements
 const placed = new Map<PlaceSpec, Pt>();
 for (const p of places) {
   if ('at' in p.placement) placed.set(p, p.placement.at);
@@ -459,7 +459,7 @@ for (const p of places) {
     const q: Pt = [round3(Math.min(...xs) + random() * (Math.max(...xs) - Math.min(...xs))), round3(Math.min(...ys) + random() * (Math.max(...ys) - Math.min(...ys)))];
     if (!insideRing(q, county.ring) || distanceToRing(q, county.ring) < 1.5) continue;
     if (lakes.some((l) => distance(q, l.center) < l.radius + 1.5)) continue;
-    if ([...placed.values()].some((o) => distance(o, q) < roadsideRoom)) continue;
+    if ([...placed.values()].some((o) => distance(o, q) < SETTLEMENT_SPACING_KM)) continue;
     placed.set(p, q);
     break;
   }
