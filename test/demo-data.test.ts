@@ -177,7 +177,7 @@ describe('demo.geojson topology', () => {
   });
 
   // Tiling: the union's area equals the sum of the parts (no overlap) and the island's area (no gap).
-  // Areas with turf.area (spherical, Chamberlain & Duquette 2007); a 0.1 % tolerance is common practice, no source.
+  // Areas with turf.area (spherical, Chamberlain & Duquette 2007, from memory); a 0.1 % tolerance is common practice, no source.
   function expectTiling(parts: Feature<Polygon>[], label: string): void {
     const sum = parts.reduce((s, p) => s + turf.area(p), 0);
     const union = turf.union(turf.featureCollection(parts)) as Feature<Polygon | MultiPolygon>;
