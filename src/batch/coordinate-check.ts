@@ -60,7 +60,8 @@ export const CENTER_TOLERANCE_METERS = 1000;
 const DECIMAL = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)$/;
 
 /**
- * Check a record's decimalLatitude/decimalLongitude as written. Nothing is flagged when both are empty.
+ * Check a record's decimalLatitude/decimalLongitude as written. Nothing is flagged when both are empty;
+ * a unit's center is looked for only when the coordinates are not inside the circle.
  * Distances are geodesic on WGS84 (geographiclib, about 15 nm).
  * @example
  *   checkCoordinates('45.5', '-131.0', { latitude: -45.5, longitude: -131, radiusMeters: 2000 }, []).flags
@@ -87,8 +88,9 @@ export function checkCoordinates(latitudeText: string, longitudeText: string, ci
   const inRange = Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
   if (!inRange) add('coordinates-out-of-range', `${written} are out of range (latitude beyond ±90 or longitude beyond ±180)`);
   if (latitude === 0 && longitude === 0) add('zero-coordinates', `${written} are both zero, most likely an empty value written as zero`);
-  if (circle) compareWithCircle(latitude, longitude, inRange, circle, written, add);
-  if (inRange) compareWithCenters(latitude, longitude, precisionOf(latText, lonText), centers, written, add);
+  const inside = circle ? compareWithCircle(latitude, longitude, inRange, circle, written, add) : false;
+  // Coordinates the locality text bears out are not suspect for lying near a center as well.
+  if (inRange && !inside) compareWithCenters(latitude, longitude, precisionOf(latText, lonText), centers, written, add);
   return done();
 }
 
@@ -99,13 +101,13 @@ function compareWithCircle(
   circle: Circle,
   written: string,
   add: (flag: CoordinateFlag, remark: string) => void,
-): void {
+): boolean {
   const distance = (lat: number, lon: number) => inverse(circle.latitude, circle.longitude, lat, lon).meters;
   const within = (lat: number, lon: number) => Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && distance(lat, lon) <= circle.radiusMeters;
   const radius = `${formatMeters(circle.radiusMeters)} circle of the proposed georeference`;
   if (inRange && within(latitude, longitude)) {
     add('inside-circle', `${written} lie inside the ${radius}`);
-    return;
+    return true;
   }
   const away = inRange ? `, ${formatMeters(distance(latitude, longitude))} from its center` : '';
   add('outside-circle', `${written} lie outside the ${radius}${away}`);
@@ -120,6 +122,7 @@ function compareWithCircle(
   for (const v of variants) {
     if ((v.lat !== latitude || v.lon !== longitude) && within(v.lat, v.lon)) add(v.flag, `${v.how} they would lie inside it`);
   }
+  return false;
 }
 
 function compareWithCenters(

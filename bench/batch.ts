@@ -1,0 +1,122 @@
+/**
+ * Batch benchmark: a synthetic gazetteer (BENCH_NAMES names, default 1,000,000; built once and kept in
+ * the system's temporary directory) and a generated input of BENCH_ROWS rows (default 200,000) holding
+ * BENCH_DISTINCT distinct localities (default 40,000) of mixed types, each repeated. Each size in
+ * BENCH_ROWS (a comma list, e.g. "200000,2000000" to show memory stays flat) runs in a child process of
+ * its own, so that its peak RSS is its own. Prints rows/s, distinct localities/s and peak RSS against the
+ * targets (≥ 5,000 rows/s, ≤ 500 MB). Run: `npm run bench:batch` (BENCH_NAMES=100000 for a quick run).
+ */
+import { spawnSync } from 'node:child_process';
+import { createWriteStream, existsSync, mkdtempSync, renameSync, rmSync, statSync } from 'node:fs';
+import { once } from 'node:events';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { startBatchJob } from '../src/batch/run.ts';
+import { importGazetteer } from '../src/gazetteer/import.ts';
+import { openGazetteer } from '../src/gazetteer/store.ts';
+
+const NAMES = Number(process.env.BENCH_NAMES ?? 1_000_000);
+const DISTINCT = Number(process.env.BENCH_DISTINCT ?? 40_000);
+const THREADS = process.env.BENCH_THREADS ? Number(process.env.BENCH_THREADS) : undefined;
+const SIZES = (process.env.BENCH_ROWS ?? '200000').split(',').map(Number);
+
+/** Place i's name: i written in base 60 with a syllable a digit, so every name is unique and pronounceable. */
+const SYLLABLES = 'ba be bi bo bu ca ce ci co cu da de di do du fa fe fi fo fu ga ge gi go gu la le li lo lu ma me mi mo mu na ne ni no nu pa pe pi po pu ra re ri ro ru sa se si so su ta te ti to tu'.split(' ');
+function placeName(i: number): string {
+  let word = '';
+  for (let n = i + SYLLABLES.length ** 2; n > 0; n = Math.floor(n / SYLLABLES.length)) word += SYLLABLES[n % SYLLABLES.length];
+  return word[0].toUpperCase() + word.slice(1) + (i % 3 === 0 ? ' Alto' : '');
+}
+
+/** A point spread over an invented region around 45.5°S 131°W, from the place's index (a low-discrepancy walk). */
+function placePoint(i: number): [number, number] {
+  const golden = 0.6180339887498949;
+  return [-44 - ((i * golden) % 1) * 3, -133 + ((i * golden * golden) % 1) * 4];
+}
+
+async function syntheticGazetteer(): Promise<string> {
+  const dbPath = join(tmpdir(), `whereabouts-bench-batch-${NAMES}.sqlite`);
+  if (existsSync(dbPath)) return dbPath;
+  const dir = mkdtempSync(join(tmpdir(), 'whereabouts-bench-'));
+  const csv = join(dir, 'places.csv');
+  const out = createWriteStream(csv);
+  out.write('id,name,alternateNames,latitude,longitude,featureType,countryCode,stateProvince,county,radiusMeters\n');
+  const types = ['town', 'village', 'hamlet', 'locality', 'hill'];
+  for (let i = 0; i < NAMES; i++) {
+    const [lat, lon] = placePoint(i);
+    if (!out.write(`p${i},${placeName(i)},,${lat.toFixed(5)},${lon.toFixed(5)},${types[i % types.length]},QV,Province ${i % 7},County ${i % 97},${500 + (i % 20) * 250}\n`)) await once(out, 'drain');
+  }
+  out.end();
+  await once(out, 'finish');
+  const started = performance.now();
+  const store = openGazetteer(`${dbPath}.partial`);
+  try {
+    await importGazetteer(store, csv, { format: 'csv', citation: `Synthetic benchmark gazetteer, ${NAMES} invented names` });
+  } finally {
+    store.close();
+  }
+  renameSync(`${dbPath}.partial`, dbPath);
+  rmSync(dir, { recursive: true });
+  console.log(`synthetic gazetteer: ${NAMES.toLocaleString('en')} names imported in ${((performance.now() - started) / 1000).toFixed(0)} s (${dbPath})`);
+  return dbPath;
+}
+
+const HEADINGS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW', 'NNE', 'WSW'];
+
+/** Distinct locality k, of a type chosen by k: the mix of label localities a collection export holds [CHOICE]. */
+function locality(k: number): string {
+  const place = placeName((k * 24_989) % NAMES);
+  const kind = k % 20;
+  if (kind < 6) return place;
+  if (kind < 11) return `${1 + (k % 40)} km ${HEADINGS[k % HEADINGS.length]} of ${place}`;
+  if (kind < 13) return `${1 + (k % 9)} km N and ${1 + (k % 7)} km E of ${place}`;
+  if (kind < 15) return `${1 + (k % 25)} mi from ${place}`;
+  if (kind < 17) return `${44 + (k % 3)}°${k % 60}'S ${130 + (k % 3)}°${(k * 7) % 60}'W`;
+  if (kind < 18) return `near ${place}`;
+  if (kind < 19) return `Xq${k} Nowhere Creek`;
+  return 'locality unknown';
+}
+
+async function writeInput(path: string, rows: number): Promise<void> {
+  const out = createWriteStream(path);
+  out.write('occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude\n');
+  for (let i = 0; i < rows; i++) {
+    const k = (i * 7919) % DISTINCT; // every distinct locality repeated, spread through the file
+    const coordinates = i % 5 === 0 ? `${placePoint((k * 24_989) % NAMES).map((v) => v.toFixed(3)).join(',')}` : ',';
+    if (!out.write(`b${i},"${locality(k)}",QV,${coordinates}\n`)) await once(out, 'drain');
+  }
+  out.end();
+  await once(out, 'finish');
+}
+
+async function runSize(rows: number): Promise<void> {
+  const dbPath = await syntheticGazetteer();
+  const dir = mkdtempSync(join(tmpdir(), 'whereabouts-bench-run-'));
+  const input = join(dir, 'input.csv');
+  await writeInput(input, rows);
+  const started = performance.now();
+  const { done } = await startBatchJob({ dbPath, input, output: join(dir, 'output.csv'), threads: THREADS, jobsDbPath: join(dir, 'jobs.sqlite') });
+  const summary = await done;
+  const seconds = (performance.now() - started) / 1000;
+  const peakMB = process.resourceUsage().maxRSS / 1024;
+  const outputMB = statSync(join(dir, 'output.csv')).size / 1e6;
+  console.log(
+    `${rows.toLocaleString('en')} rows, ${summary.distinctLocalities.toLocaleString('en')} distinct localities, ${NAMES.toLocaleString('en')} names: ` +
+      `${seconds.toFixed(1)} s, ${Math.round(rows / seconds).toLocaleString('en')} rows/s (target ≥ 5,000), ` +
+      `${Math.round(summary.distinctLocalities / seconds).toLocaleString('en')} distinct localities/s, ` +
+      `peak RSS ${peakMB.toFixed(0)} MB (target ≤ 500), output ${outputMB.toFixed(0)} MB; ${JSON.stringify(summary.byStatus)}`,
+  );
+  rmSync(dir, { recursive: true });
+}
+
+const child = process.argv.indexOf('--rows');
+if (child >= 0) {
+  await runSize(Number(process.argv[child + 1]));
+} else {
+  await syntheticGazetteer();
+  for (const rows of SIZES) {
+    const run = spawnSync(process.execPath, ['--import', 'tsx', new URL(import.meta.url).pathname, '--rows', String(rows)], { stdio: 'inherit' });
+    if (run.status !== 0) process.exit(run.status ?? 1);
+  }
+}

@@ -1,0 +1,33 @@
+/**
+ * Every column the batch appends is a Darwin Core term, or proposed_ + one, except the documented flags
+ * column. Term list: test/fixtures/darwin-core-terms.txt (TDWG Darwin Core, dwc terms list; CC BY 4.0).
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { COORDINATE_FLAGS_COLUMN } from '../../src/batch/coordinate-check.ts';
+import { startBatchJob } from '../../src/batch/run.ts';
+import { FIXTURES, fixtureGazetteer, readOutput } from './helpers.ts';
+
+const TERMS = new Set(
+  readFileSync(new URL('../fixtures/darwin-core-terms.txt', import.meta.url), 'utf8')
+    .split('\n')
+    .map((l) => l.trim())
+    .filter((l) => l && !l.startsWith('#')),
+);
+
+describe('appended columns', () => {
+  it('are Darwin Core terms, proposed_ + a term, or the documented flags column', async () => {
+    const { dir, dbPath } = await fixtureGazetteer();
+    const output = join(dir, 'out.csv');
+    await (await startBatchJob({ dbPath, input: join(FIXTURES, 'utf8-bom-crlf.csv'), output, threads: 1 })).done;
+    const header = readOutput(output, ';')[0];
+    const appended = header.slice(5);
+    expect(appended).toContain('proposed_decimalLatitude'); // the input has decimalLatitude already
+    for (const name of appended) {
+      if (name === COORDINATE_FLAGS_COLUMN) continue;
+      expect(TERMS.has(name.replace(/^proposed_/, '')), name).toBe(true);
+    }
+    expect(TERMS.has(COORDINATE_FLAGS_COLUMN)).toBe(false);
+  });
+});
