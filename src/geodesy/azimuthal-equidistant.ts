@@ -42,5 +42,6 @@ export function localProjection(centerLatitude: number, centerLongitude: number)
 
 /** Longitude brought into [-180, 180). Exact for finite input. */
 export function normaliseLongitude(longitude: number): number {
+  if (longitude >= -180 && longitude < 180) return longitude;
   return ((((longitude + 180) % 360) + 360) % 360) - 180;
 }

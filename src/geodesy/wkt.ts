@@ -20,7 +20,7 @@ export function polygonsToWKT(polygons: Position[][][]): string {
       const east = 360 * band + 180;
       const clipped = rings.map((ring) => clipRingToBand(ring, west, east).map(([lon, lat]) => [lon! - 360 * band, lat!]));
       // A hole can only survive where its outer ring does.
-      if (clipped[0]!.length >= 4 && Math.abs(shoelaceArea(clipped[0]!)) > 1e-14) parts.push(clipped.filter((ring) => ring.length >= 4));
+      if (clipped[0]!.length >= 4 && hasWidth(clipped[0]!)) parts.push(clipped.filter((ring) => ring.length >= 4));
     }
   }
   if (parts.length === 0) throw new Error('polygonsToWKT: no polygon with area to write');
@@ -29,11 +29,11 @@ export function polygonsToWKT(polygons: Position[][][]): string {
   return parts.length === 1 ? `POLYGON${polygon(parts[0]!)}` : `MULTIPOLYGON(${parts.map(polygon).join(',')})`;
 }
 
-/** Signed area in square degrees (positive counter-clockwise); only used to drop zero-width slivers. */
-function shoelaceArea(ring: Position[]): number {
-  let twice = 0;
-  for (let i = 1; i < ring.length; i++) twice += ring[i - 1]![0]! * ring[i]![1]! - ring[i]![0]! * ring[i - 1]![1]!;
-  return twice / 2;
+/** False for the zero-width slivers a cut along a ring's own vertex line leaves. */
+function hasWidth(ring: Position[]): boolean {
+  const longitudes = ring.map((p) => p[0]!);
+  const latitudes = ring.map((p) => p[1]!);
+  return Math.max(...longitudes) > Math.min(...longitudes) && Math.max(...latitudes) > Math.min(...latitudes);
 }
 
 function format(value: number): string {

@@ -61,10 +61,29 @@ const GOLDEN_SECTION_STEPS = 64;
 export function featureExtent(geometry: Geometry): FeatureExtent {
   const parts = splitFeature(geometry);
   if (parts.vertices.length === 0) throw new Error(`featureExtent: the ${geometry.type} has no coordinates`);
+  return minimaxPoint(parts, geometry.type, solveInPlane);
+}
+
+/**
+ * The smallest geodesic circle holding a set of points, its center anywhere (not constrained to the
+ * points): the same re-centred projection as featureExtent, same accuracy.
+ * @example enclosingCircle([[0, 0], [2, 0]]) // ≈ { latitude: 0, longitude: 1, radiusMeters: 111319.5 }
+ */
+export function enclosingCircle(positions: Position[]): FeatureExtent {
+  if (positions.length === 0) throw new Error('enclosingCircle: no points');
+  const parts: FeatureParts = { polygons: [], segments: [], points: positions, vertices: positions };
+  return minimaxPoint(parts, 'set of points', (plane) => {
+    const circle = smallestEnclosingCircle(plane.vertices);
+    return [circle.x, circle.y];
+  });
+}
+
+/** Re-centres the projection on each planar solution until it stays within 1 mm of the center. */
+function minimaxPoint(parts: FeatureParts, what: string, solve: (plane: PlaneParts) => PlanePoint): FeatureExtent {
   for (const vertex of parts.vertices) {
     const [longitude, latitude] = vertex;
     if (!Number.isFinite(longitude) || !Number.isFinite(latitude) || Math.abs(latitude!) > 90) {
-      throw new Error(`featureExtent: invalid position [${vertex.join(', ')}] in the ${geometry.type}`);
+      throw new Error(`invalid position [${vertex.join(', ')}] in the ${what}`);
     }
   }
   const [first] = parts.vertices;
@@ -75,7 +94,7 @@ export function featureExtent(geometry: Geometry): FeatureExtent {
   for (let iteration = 0; iteration < MAX_ITERATIONS; iteration++) {
     const projection = localProjection(latitude, longitude);
     const projected = projectParts(parts, (p) => projection.forward(p[1]!, p[0]!));
-    const solution = solveInPlane(projected);
+    const solution = solve(projected);
     if (Math.hypot(solution[0], solution[1]) <= CONVERGED_METERS) {
       const radiusMeters = Math.max(...projected.vertices.map((v) => Math.hypot(v[0], v[1])));
       return { latitude, longitude: normaliseLongitude(longitude), radiusMeters };

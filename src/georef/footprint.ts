@@ -7,6 +7,9 @@ import { polygonsToWKT } from '../geodesy/wkt.ts';
 import { featureExtent, type FeatureExtent } from './feature-extent.ts';
 import { METHOD_DEFAULTS } from './method-defaults.ts';
 
+/** 7 decimals of a degree are about 1 cm: smaller circles are written as their center. */
+const MIN_DRAWABLE_METERS = 0.01;
+
 /**
  * The geodesic circle as a closed, counter-clockwise ring of [lon, lat] positions, longitudes unwrapped
  * around the center (they may pass ±180). Vertices lie exactly (geographiclib, ~15 nm) at the radius.
@@ -45,11 +48,12 @@ function poleCap(boundary: Position[], north: boolean): Position[] {
  * The uncertainty circle as WKT in EPSG:4326: a POLYGON (lon lat, closed, counter-clockwise), or a
  * MULTIPOLYGON cut at the antimeridian; a circle holding a pole is a polar cap; radius 0 gives a POINT.
  * Accuracy: vertices exactly on the geodesic circle; straight edges between them cut inside it by at most
- * r·(1 − cos(π/segments)) (0.12 % of r with 64 segments).
+ * r·(1 − cos(π/segments)) (0.12 % of r with 64 segments). A radius under 1 cm, below what 7 decimals
+ * can draw, gives a POINT.
  * @example circleWKT(-12.5, -60.25, 1000, 8) // 'POLYGON((-60.25 -12.4909563,…))'
  */
 export function circleWKT(latitude: number, longitude: number, radiusMeters: number, segments: number = METHOD_DEFAULTS.footprintSegments): string {
-  if (radiusMeters === 0) return `POINT(${Number(normaliseLongitude(longitude).toFixed(7))} ${Number(latitude.toFixed(7))})`;
+  if (radiusMeters < MIN_DRAWABLE_METERS) return `POINT(${Number(normaliseLongitude(longitude).toFixed(7))} ${Number(latitude.toFixed(7))})`;
   return polygonsToWKT([[circleRing(latitude, longitude, radiusMeters, segments)]]);
 }
 

@@ -1,7 +1,8 @@
 /** Uncertainty of coordinates read from a paper map (method §5.5, BP2020 §Uncertainty in Paper Map Measurements). */
+import type { MethodOptions } from './types.ts';
 
 /** Map accuracy standards we know: US NMAS (1947), the Australian 0.5 mm rule, or none known. */
-export type MapAccuracyStandard = 'us-nmas' | 'australian' | 'unknown';
+export type MapAccuracyStandard = NonNullable<MethodOptions['mapStandard']>;
 
 const INCH_METERS = 0.0254;
 /** 1 mm on the map for the reading itself (method §5.5). */

@@ -30,6 +30,10 @@ export interface MethodOptions {
   measurementErrorMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
+  /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, method §5.5). */
+  mapStandard?: 'us-nmas' | 'australian' | 'unknown';
+  /** Vertices of the footprint circle; default 64. */
+  footprintSegments?: number;
 }
 
 /** A point, its datum and its radius, with how each part was obtained. */

@@ -1,0 +1,407 @@
+/**
+ * The point-radius method (point-radius.md §3): one interpretation of a locality text and its matched
+ * features in, a point, a radius built from separate components and a footprint out. Pure: no I/O.
+ */
+import type { Feature } from '../gazetteer/types.ts';
+import type { Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
+import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
+import { datumFromName, toWgs84 } from '../geodesy/datums.ts';
+import { direct, inverse } from '../geodesy/geodesic.ts';
+import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
+import { lineIntersect } from '@turf/turf';
+import { enclosingCircle } from './feature-extent.ts';
+import { circleWKT, clipCircleToUnit, clipRingToUnit, sectorRing } from './footprint.ts';
+import { mapScaleErrorMeters } from './map-scale.ts';
+import { METHOD_DEFAULTS } from './method-defaults.ts';
+import { distanceOnlyUncertainty, offsetUncertainty, orthogonalOffsetUncertainty } from './offset-uncertainty.ts';
+import { pathEnds } from './path-offset.ts';
+import type { Georeference, MethodOptions, UncertaintyComponents } from './types.ts';
+
+export interface GeoreferenceInput {
+  interpretation: Interpretation;
+  /** One feature per interpretation.features entry, in the same order (empty for type 'coordinates'). */
+  features: Feature[];
+  /** The line a path offset follows, with geometry, when the gazetteer has it. */
+  pathLine?: Feature;
+  /** The administrative unit (with polygon geometry) that bounds a heading-only locality or clips the footprint. */
+  boundingUnit?: Feature;
+  options?: MethodOptions;
+}
+
+export type GeoreferenceOutcome = { ok: true; georeference: Georeference } | { ok: false; reason: string };
+
+type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard'>> &
+  MethodOptions;
+
+/** What a type's rule yields before the shared terms, footprint and remarks are added. */
+interface Placement {
+  latitude: number;
+  longitude: number;
+  components: Pick<UncertaintyComponents, 'extent' | 'offset'> & Partial<UncertaintyComponents>;
+  remarks: string[];
+  /** Features the result rests on, beyond input.features (the path line, the bounding unit). */
+  alsoUsed?: Feature[];
+}
+
+class Refusal extends Error {}
+/** Stop with a reason: no georeference (method §2 step 5). */
+function refuse(reason: string): never {
+  throw new Refusal(reason);
+}
+
+/**
+ * Point, radius and footprint for one interpretation (point-radius.md §3), with every uncertainty term
+ * separately (§5) and summed (§5.6), remarks naming the offset as read, the features used, every default
+ * and [CHOICE] rule used, and the datum assumption. Refuses, with a reason, when the method gives no
+ * georeference (no locality, heading without a bounding unit, lines that do not meet, flagged coordinates).
+ * Accuracy: geodesics by geographiclib (~15 nm); the radius is exact for the rule, the footprint polygon
+ * lies within 0.12 % of r inside the circle (64 segments).
+ * @example
+ *   georeference({ interpretation, features: [puertoLindo] })
+ *   // { ok: true, georeference: { latitude, longitude, uncertaintyMeters: 6030.1, components: {…}, … } }
+ */
+export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
+  const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
+  try {
+    const placement = place(input, settings);
+    return { ok: true, georeference: finish(input, placement, settings) };
+  } catch (error) {
+    if (error instanceof Refusal) return { ok: false, reason: error.message };
+    throw error;
+  }
+}
+
+function definedOptions(options: MethodOptions | undefined): MethodOptions {
+  return Object.fromEntries(Object.entries(options ?? {}).filter(([, value]) => value !== undefined));
+}
+
+function place(input: GeoreferenceInput, settings: Settings): Placement {
+  const { interpretation } = input;
+  switch (interpretation.type) {
+    case 'no-locality':
+    case 'unparseable':
+      return refuse(interpretation.reason ?? `the text was read as "${interpretation.type}" and names no place`);
+    case 'coordinates':
+      return placeCoordinates(interpretation.coordinates, settings);
+    case 'named-place':
+      return placeNamedPlace(input);
+    case 'offset-heading':
+      return placeOffsetHeading(input);
+    case 'offset-orthogonal':
+      return placeOrthogonal(input);
+    case 'distance-only':
+      return placeDistanceOnly(input);
+    case 'offset-path':
+      return placeOffsetPath(input);
+    case 'heading-only':
+      return placeHeadingOnly(input);
+    case 'between':
+      return placeBetween(input);
+    case 'near':
+      return placeNear(input, settings);
+    case 'junction':
+      return placeJunction(input, settings);
+  }
+}
+
+// ——— the rules of §3 ———
+
+function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings: Settings): Placement {
+  if (!coordinates) return refuse('the locality was read as coordinates, but no coordinates came with it');
+  if (coordinates.problems.length > 0) {
+    return refuse(`the coordinates "${coordinates.written}" are flagged: ${coordinates.problems.join('; ')} (point-radius.md §2, step 5)`);
+  }
+  const { latitude, longitude, precisionDegrees } = coordinates;
+  if (!(Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180)) {
+    return refuse(`the coordinates "${coordinates.written}" are out of range (latitude ${latitude}, longitude ${longitude})`);
+  }
+  const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), point-radius.md §3`];
+  const datum = coordinates.datum ?? (coordinates.datumWritten ? datumFromName(coordinates.datumWritten) : undefined) ?? (settings.datum ? datumFromName(settings.datum) : undefined);
+  let position = { latitude, longitude };
+  let datumMeters: number;
+  if (datum) {
+    const converted = toWgs84(latitude, longitude, datum);
+    position = converted;
+    datumMeters = converted.accuracyMeters;
+    remarks.push(
+      datum === 'EPSG:4326'
+        ? 'datum: WGS84 (EPSG:4326) as stated; datum term 0 m (point-radius.md §5.4)'
+        : `datum: ${datum} as stated${coordinates.datumWritten ? ` ("${coordinates.datumWritten}")` : ''}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (point-radius.md §5.4)`,
+    );
+  } else {
+    datumMeters = settings.unknownDatumMeters;
+    const written = coordinates.datumWritten ?? settings.datum;
+    remarks.push(
+      `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84, datum term ${meters(datumMeters)} (point-radius.md §5.4)`,
+    );
+  }
+  const precision = coordinatePrecisionMeters(position.latitude, precisionDegrees);
+  remarks.push(`coordinate precision ${formatDegrees(precisionDegrees)} → ${meters(precision)} at this latitude (point-radius.md §5.3)`);
+  return { ...position, components: { extent: 0, offset: 0, coordinatePrecision: precision, datum: datumMeters }, remarks };
+}
+
+function placeNamedPlace(input: GeoreferenceInput): Placement {
+  const feature = featureAt(input, 0);
+  return { latitude: feature.latitude, longitude: feature.longitude, components: { extent: feature.radiusMeters, offset: 0 }, remarks: [] };
+}
+
+function placeOffsetHeading(input: GeoreferenceInput): Placement {
+  const feature = featureAt(input, 0);
+  const offset = offsetAt(input.interpretation, 0);
+  const distance = offset.distance ?? refuse('an offset at a heading needs a distance, and none was read');
+  const heading = offset.heading ?? refuse('an offset at a heading needs a heading, and none was read');
+  const end = direct(feature.latitude, feature.longitude, heading.azimuth, distance.meters);
+  const term = offsetUncertainty(distance.meters, distance.uncertaintyMeters, heading.halfWidth);
+  return {
+    latitude: end.latitude,
+    longitude: end.longitude,
+    components: { extent: feature.radiusMeters, offset: term },
+    remarks: [
+      `offset as read: ${describeDistance(offset)} at ${describeHeading(offset)}${offset.byAir ? ', by air' : ''}; ` +
+        `point by geodesic from the corrected center; offset term ${meters(term)} = sqrt((d+δ)² + d² − 2d(d+δ)cos Δ) (point-radius.md §5.2)`,
+    ],
+  };
+}
+
+function placeOrthogonal(input: GeoreferenceInput): Placement {
+  const feature = featureAt(input, 0);
+  const offsets = input.interpretation.offsets;
+  const axis = (wanted: 'north-south' | 'east-west') =>
+    offsets.find((o) => o.distance && o.heading && (wanted === 'north-south' ? [0, 180] : [90, 270]).includes(o.heading.azimuth)) ??
+    refuse(`two orthogonal offsets need one due north or south and one due east or west; read: ${offsets.map(describeOffset).join(' and ')}`);
+  const northSouth = axis('north-south');
+  const eastWest = axis('east-west');
+  const moved = direct(feature.latitude, feature.longitude, northSouth.heading!.azimuth, northSouth.distance!.meters);
+  const end = direct(moved.latitude, moved.longitude, eastWest.heading!.azimuth, eastWest.distance!.meters);
+  const term = orthogonalOffsetUncertainty(northSouth.distance!.uncertaintyMeters, eastWest.distance!.uncertaintyMeters);
+  return {
+    latitude: end.latitude,
+    longitude: end.longitude,
+    components: { extent: feature.radiusMeters, offset: term },
+    remarks: [
+      `offsets as read: ${describeOffset(northSouth)}, then ${describeOffset(eastWest)}; moved north/south first, then east/west, geodesically; ` +
+        `headings exact by convention, offset term sqrt(δx² + δy²) = ${meters(term)} (point-radius.md §3)`,
+    ],
+  };
+}
+
+function placeDistanceOnly(input: GeoreferenceInput): Placement {
+  const feature = featureAt(input, 0);
+  const offset = offsetAt(input.interpretation, 0);
+  const distance = offset.distance ?? refuse('a distance from a place needs a distance, and none was read');
+  const term = distanceOnlyUncertainty(distance.meters, distance.uncertaintyMeters);
+  return {
+    latitude: feature.latitude,
+    longitude: feature.longitude,
+    components: { extent: feature.radiusMeters, offset: term },
+    remarks: [`distance without heading as read: ${describeDistance(offset)}; point at the corrected center, offset term d + δ = ${meters(term)} [CHOICE] (point-radius.md §3)`],
+  };
+}
+
+function placeOffsetPath(input: GeoreferenceInput): Placement {
+  const feature = featureAt(input, 0);
+  const offset = offsetAt(input.interpretation, 0);
+  const distance = offset.distance ?? refuse('an offset along a path needs a distance, and none was read');
+  const path = offset.path;
+  const read = `offset as read: ${describeDistance(offset)}${path ? ` ${path.written}` : ''}${offset.heading ? ` heading ${describeHeading(offset)}` : ''}`;
+  const fallback = (why: string): Placement => {
+    const term = distanceOnlyUncertainty(distance.meters, distance.uncertaintyMeters);
+    return {
+      latitude: feature.latitude,
+      longitude: feature.longitude,
+      components: { extent: feature.radiusMeters, offset: term },
+      remarks: [`${read}; ${why}: point at the corrected center, offset term d + δ = ${meters(term)} [CHOICE] (point-radius.md §3)`],
+    };
+  };
+  const line = input.pathLine;
+  if (!line?.geometry || !['LineString', 'MultiLineString'].includes(line.geometry.type)) {
+    return fallback(`no line${path?.lineName ? ` for "${path.lineName}"` : ''} with geometry in the gazetteer`);
+  }
+  const ends = pathEnds(line.geometry, feature.latitude, feature.longitude, feature.radiusMeters, distance.meters);
+  if (ends.length === 0) return fallback(`the line "${line.name}" does not leave the feature's extent circle and run on for ${meters(distance.meters)}`);
+  let end = ends[0]!;
+  let how = `the only way out along "${line.name}"`;
+  if (ends.length > 1) {
+    if (!offset.heading) return fallback(`"${line.name}" leaves the feature in ${ends.length} directions and no heading tells which`);
+    const heading = offset.heading;
+    const apart = (e: (typeof ends)[number]) => Math.abs(normaliseLongitude(e.azimuthFromCenter - heading.azimuth));
+    end = ends.reduce((best, e) => (apart(e) < apart(best) ? e : best));
+    how = `of ${ends.length} ways out along "${line.name}", the one ending nearest heading ${heading.written} (${apart(end).toFixed(0)}° off)`;
+  }
+  return {
+    latitude: end.latitude,
+    longitude: end.longitude,
+    components: { extent: feature.radiusMeters, offset: distance.uncertaintyMeters },
+    remarks: [`${read}; followed ${how} for ${meters(distance.meters)} from where it leaves the feature's extent circle; offset term δ = ${meters(distance.uncertaintyMeters)}, no heading term (point-radius.md §3)`],
+    alsoUsed: [line],
+  };
+}
+
+function placeHeadingOnly(input: GeoreferenceInput): Placement {
+  const feature = featureAt(input, 0);
+  const offset = offsetAt(input.interpretation, 0);
+  const heading = offset.heading ?? refuse('a heading-only locality needs a heading, and none was read');
+  const unit = input.boundingUnit;
+  if (!unit?.geometry || !['Polygon', 'MultiPolygon'].includes(unit.geometry.type)) {
+    return refuse(`"${describeHeading(offset)} of ${feature.name}" has no distance and no bounding unit with a polygon to limit it: not georeferenced (point-radius.md §3)`);
+  }
+  const reach = inverse(feature.latitude, feature.longitude, unit.latitude, unit.longitude).meters + unit.radiusMeters;
+  const sector = sectorRing(feature.latitude, feature.longitude, heading.azimuth, heading.halfWidth, Math.max(reach, 1));
+  const part = clipRingToUnit(sector, feature.longitude, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
+  return {
+    latitude: part.latitude,
+    longitude: part.longitude,
+    components: { extent: part.radiusMeters, offset: 0 },
+    remarks: [
+      `heading only, as read: ${describeHeading(offset)} of ${feature.name}, bounded by ${unit.featureType ?? 'unit'} "${unit.name}": ` +
+        `point and radial of the part of the unit inside the sector ${heading.written} (±${heading.halfWidth}°) from the corrected center [CHOICE] (point-radius.md §3)`,
+    ],
+    alsoUsed: [unit],
+  };
+}
+
+function placeBetween(input: GeoreferenceInput): Placement {
+  const features = input.features;
+  if (features.length < 2) return refuse(`"between" needs two features, got ${features.length}`);
+  const largest = Math.max(...features.map((f) => f.radiusMeters));
+  if (features.length === 2) {
+    const [a, b] = [features[0]!, features[1]!];
+    const joining = inverse(a.latitude, a.longitude, b.latitude, b.longitude);
+    const middle = direct(a.latitude, a.longitude, joining.azimuth1, joining.meters / 2);
+    return {
+      latitude: middle.latitude,
+      longitude: middle.longitude,
+      components: { extent: largest, offset: joining.meters / 2 },
+      remarks: [`between ${a.name} and ${b.name}: midpoint of the geodesic joining their corrected centers (D = ${meters(joining.meters)}); radius D/2 + max(r_f1, r_f2) [CHOICE] (point-radius.md §3)`],
+    };
+  }
+  const circle = enclosingCircle(features.map((f) => [f.longitude, f.latitude]));
+  return {
+    latitude: circle.latitude,
+    longitude: circle.longitude,
+    components: { extent: largest, offset: circle.radiusMeters },
+    remarks: [`${features.length} features (${features.map((f) => f.name).join(', ')}): center of the smallest circle through their corrected centers; radius that circle's + the largest radial, the "between" rule extended to more than two places [CHOICE] (point-radius.md §3)`],
+  };
+}
+
+function placeNear(input: GeoreferenceInput, settings: Settings): Placement {
+  const feature = featureAt(input, 0);
+  const term = Math.max(feature.radiusMeters, settings.nearMinimumMeters);
+  return {
+    latitude: feature.latitude,
+    longitude: feature.longitude,
+    components: { extent: feature.radiusMeters, offset: term },
+    remarks: [`near ${feature.name}: point at the corrected center, radius r_f + max(r_f, ${meters(settings.nearMinimumMeters)}) [CHOICE] (point-radius.md §3)`],
+  };
+}
+
+function placeJunction(input: GeoreferenceInput, settings: Settings): Placement {
+  const [a, b] = [featureAt(input, 0), featureAt(input, 1)];
+  const lines = [a, b].map((f) =>
+    f.geometry && ['LineString', 'MultiLineString'].includes(f.geometry.type)
+      ? (f.geometry as import('geojson').LineString | import('geojson').MultiLineString)
+      : refuse(`a junction needs the line geometry of both features; "${f.name}" has none in the gazetteer`),
+  );
+  const meetings = lineIntersect(lines[0]!, lines[1]!).features.map((p) => p.geometry.coordinates);
+  if (meetings.length === 0) return refuse(`the lines "${a.name}" and "${b.name}" do not meet in the gazetteer`);
+  const where = enclosingCircle(meetings);
+  const count = meetings.length === 1 ? 'meet once' : `meet ${meetings.length} times; the circle covers every meeting point`;
+  return {
+    latitude: where.latitude,
+    longitude: where.longitude,
+    components: { extent: settings.junctionExtentMeters + where.radiusMeters, offset: 0 },
+    remarks: [`junction of ${a.name} and ${b.name}: the lines ${count}; the junction's own extent ${meters(settings.junctionExtentMeters)} [CHOICE] (point-radius.md §3)`],
+  };
+}
+
+// ——— shared terms, footprint and remarks ———
+
+function finish(input: GeoreferenceInput, placement: Placement, settings: Settings): Georeference {
+  const remarks = [`locality type "${input.interpretation.type}" (point-radius.md §3)`, ...placement.remarks];
+  const used = [...input.features, ...(placement.alsoUsed ?? [])];
+  for (const feature of input.features) remarks.push(describeFeature(feature));
+  if (input.interpretation.type !== 'coordinates') {
+    remarks.push('datum: WGS84 (EPSG:4326), the gazetteer\'s coordinates; no datum or coordinate-precision term (point-radius.md §5.4)');
+  }
+  const mapScale = settings.mapScale ? mapScaleErrorMeters(settings.mapScale, settings.mapStandard) : 0;
+  if (settings.mapScale) {
+    remarks.push(`map reading at 1:${settings.mapScale}: ${settings.mapStandard === 'unknown' ? 'no known accuracy standard, 1 mm on the map' : `${settings.mapStandard} standard plus 1 mm on the map`} = ${meters(mapScale)} (point-radius.md §5.5)`);
+  }
+  const measurement = settings.measurementErrorMeters ?? 0;
+  if (measurement) remarks.push(`stated measurement error ${meters(measurement)}, added as given (point-radius.md §5.5)`);
+  if (input.interpretation.approximate) remarks.push('"ca." or "about" noted: it changes neither point nor radius (point-radius.md §3)');
+  for (const note of input.interpretation.notes) remarks.push(`reading: ${note}`);
+
+  const components: UncertaintyComponents = {
+    coordinatePrecision: 0,
+    datum: 0,
+    ...placement.components,
+    mapScale,
+    measurement,
+  };
+  for (const [name, value] of Object.entries(components)) {
+    if (!(value >= 0) || !Number.isFinite(value)) throw new Error(`uncertainty component ${name} is ${value}: a bug, not an input problem`);
+  }
+  const uncertaintyMeters = Object.values(components).reduce((sum, value) => sum + value, 0);
+  remarks.push(`uncertainty ${meters(uncertaintyMeters)} = ${Object.entries(components).filter(([, v]) => v > 0).map(([k, v]) => `${k} ${meters(v)}`).join(' + ') || '0'} (point-radius.md §5.6)`);
+
+  const latitude = placement.latitude;
+  const longitude = normaliseLongitude(placement.longitude);
+  let footprintWKT = circleWKT(latitude, longitude, uncertaintyMeters, settings.footprintSegments);
+  const unit = input.boundingUnit;
+  if (unit && uncertaintyMeters > 0 && unit.geometry && ['Polygon', 'MultiPolygon'].includes(unit.geometry.type)) {
+    const clipped = clipCircleToUnit({ latitude, longitude, radiusMeters: uncertaintyMeters }, unit.geometry, settings.footprintSegments);
+    if (!clipped) refuse(`the georeference lies wholly outside the bounding unit "${unit.name}": the clauses contradict each other (point-radius.md §2, step 5)`);
+    footprintWKT = clipped.footprintWKT;
+    remarks.push(`footprint: the circle clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`);
+    used.push(unit);
+  }
+  const seen = new Set<string>();
+  const features = used
+    .filter((f) => !seen.has(`${f.sourceId}\u0000${f.featureId}`) && seen.add(`${f.sourceId}\u0000${f.featureId}`))
+    .map((f) => ({ sourceId: f.sourceId, featureId: f.featureId, name: f.name }));
+  return { latitude, longitude, uncertaintyMeters, components, footprintWKT, features, remarks };
+}
+
+function featureAt(input: GeoreferenceInput, index: number): Feature {
+  const feature = input.features[index];
+  if (!feature) return refuse(`the rule for "${input.interpretation.type}" needs feature ${index + 1} ("${input.interpretation.features[index] ?? '?'}"), and none was given`);
+  if (!(Math.abs(feature.latitude) <= 90 && Number.isFinite(feature.longitude) && feature.radiusMeters >= 0)) {
+    return refuse(`feature "${feature.name}" (${feature.sourceId}:${feature.featureId}) has an invalid center or radius`);
+  }
+  return feature;
+}
+
+function offsetAt(interpretation: Interpretation, index: number): Offset {
+  return interpretation.offsets[index] ?? refuse(`the rule for "${interpretation.type}" needs an offset, and none was read`);
+}
+
+function describeFeature(feature: Feature): string {
+  const radial = feature.radiusIsDefault
+    ? `default radial ${meters(feature.radiusMeters)} for a ${feature.featureType ?? 'feature'} point with no extent in the gazetteer (point-radius.md §4)`
+    : `geographic radial ${meters(feature.radiusMeters)} (point-radius.md §4)`;
+  return `feature used: "${feature.name}" (${feature.sourceId}:${feature.featureId}), corrected center ${feature.latitude.toFixed(7)}, ${feature.longitude.toFixed(7)}, ${radial}`;
+}
+
+function describeDistance(offset: Offset): string {
+  const d = offset.distance;
+  return d ? `"${d.written}" = ${meters(d.meters)} ± δ ${meters(d.uncertaintyMeters)} (point-radius.md §5.1)` : 'no distance';
+}
+
+function describeHeading(offset: Offset): string {
+  const h = offset.heading;
+  return h ? `"${h.written}" = ${h.azimuth}° ± Δ ${h.halfWidth}°` : 'no heading';
+}
+
+function describeOffset(offset: Offset): string {
+  return `${describeDistance(offset)} ${describeHeading(offset)}`;
+}
+
+/** Meters for remarks: whole meters from 10 m, one decimal below. */
+function meters(value: number): string {
+  return value >= 10 ? `${Math.round(value)} m` : `${Number(value.toFixed(1))} m`;
+}
+
+function formatDegrees(precision: number): string {
+  return `${Number(precision.toPrecision(6))}°`;
+}

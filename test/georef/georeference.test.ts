@@ -1,0 +1,305 @@
+import fc from 'fast-check';
+import geographiclib from 'geographiclib-geodesic';
+import { describe, expect, it } from 'vitest';
+import type { Feature } from '../../src/gazetteer/types.ts';
+import type { Interpretation, Offset, WrittenDistance, WrittenHeading } from '../../src/parse/types.ts';
+import { georeference, type GeoreferenceInput } from '../../src/georef/georeference.ts';
+import type { Georeference } from '../../src/georef/types.ts';
+import { wktPolygonAreaSquareMeters } from './wkt-area.ts';
+
+// Independent reference for every point: geographiclib called directly (Karney 2013), not our wrappers.
+const wgs84 = geographiclib.Geodesic.WGS84;
+const directRef = (lat: number, lon: number, azimuth: number, meters: number) => {
+  const r = wgs84.Direct(lat, lon, azimuth, meters);
+  return { latitude: r.lat2!, longitude: r.lon2! };
+};
+const distanceRef = (lat1: number, lon1: number, lat2: number, lon2: number) => wgs84.Inverse(lat1, lon1, lat2, lon2).s12!;
+
+// An invented region: places of the made-up province of Valdoria.
+function feature(overrides: Partial<Feature> = {}): Feature {
+  return {
+    sourceId: 'valdoria-gaz',
+    featureId: 'f1',
+    name: 'Puerto Lindo',
+    alternateNames: [],
+    featureType: 'town',
+    countryCode: 'QV',
+    stateProvince: 'Valdoria',
+    county: null,
+    latitude: -12.5,
+    longitude: -60.25,
+    radiusMeters: 1500,
+    radiusIsDefault: false,
+    geometryType: 'Point',
+    ...overrides,
+  };
+}
+function interpretation(type: Interpretation['type'], overrides: Partial<Interpretation> = {}): Interpretation {
+  return { verbatim: 'text', clauses: [], chosenClause: 0, type, features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, notes: [], ...overrides };
+}
+function km(value: number, uncertainty: number): WrittenDistance {
+  return { written: `${value} km`, value, unit: 'km', precision: 2 * uncertainty, uncertainty, meters: value * 1000, uncertaintyMeters: uncertainty * 1000 };
+}
+function heading(written: string, azimuth: number, halfWidth: number): WrittenHeading {
+  return { written, azimuth, halfWidth, kind: halfWidth === 45 ? 'rose4' : halfWidth === 22.5 ? 'rose8' : 'rose16' };
+}
+function ok(input: GeoreferenceInput): Georeference {
+  const outcome = georeference(input);
+  if (!outcome.ok) throw new Error(`expected a georeference, got: ${outcome.reason}`);
+  return outcome.georeference;
+}
+const sum = (g: Georeference) => Object.values(g.components).reduce((a, b) => a + b, 0);
+
+describe('named place (point-radius.md §3: c, r_f + base)', () => {
+  it('is the corrected center with radius r_f, and a default radial is named in the remarks', () => {
+    const g = ok({ interpretation: interpretation('named-place'), features: [feature({ radiusIsDefault: true, radiusMeters: 5000 })] });
+    expect([g.latitude, g.longitude]).toEqual([-12.5, -60.25]);
+    expect(g.components).toEqual({ extent: 5000, offset: 0, coordinatePrecision: 0, datum: 0, mapScale: 0, measurement: 0 });
+    expect(g.uncertaintyMeters).toBe(5000);
+    expect(g.remarks.join('\n')).toMatch(/default radial 5000 m for a town point.*point-radius\.md §4/);
+    expect(g.footprintWKT.startsWith('POLYGON((')).toBe(true);
+    expect(g.features).toEqual([{ sourceId: 'valdoria-gaz', featureId: 'f1', name: 'Puerto Lindo' }]);
+  });
+});
+
+describe('offset at a heading (point-radius.md §3, §5.2)', () => {
+  const offsets: Offset[] = [{ distance: km(10, 0.5), heading: heading('NE', 45, 22.5), byAir: true }];
+  it('10 km NE, δ 0.5 km: geodesic direct from the center; offset term 4.029 km (point-radius.md §5.2 derived check)', () => {
+    const g = ok({ interpretation: interpretation('offset-heading', { offsets }), features: [feature()] });
+    const expected = directRef(-12.5, -60.25, 45, 10000);
+    expect(g.latitude).toBeCloseTo(expected.latitude, 9);
+    expect(g.longitude).toBeCloseTo(expected.longitude, 9);
+    expect(g.components.offset).toBeCloseTo(4029, 0);
+    expect(g.uncertaintyMeters).toBeCloseTo(1500 + 4029, 0);
+    expect(g.remarks.join('\n')).toMatch(/"10 km".*"NE"/);
+  });
+});
+
+describe('two orthogonal offsets (point-radius.md §3)', () => {
+  it('3 km N then 2 km E: moved north then east; offset term sqrt(δx² + δy²)', () => {
+    const offsets: Offset[] = [
+      { distance: km(3, 0.5), heading: heading('N', 0, 45) },
+      { distance: km(2, 0.5), heading: heading('E', 90, 45) },
+    ];
+    const g = ok({ interpretation: interpretation('offset-orthogonal', { offsets }), features: [feature()] });
+    const north = directRef(-12.5, -60.25, 0, 3000);
+    const expected = directRef(north.latitude, north.longitude, 90, 2000);
+    expect(g.latitude).toBeCloseTo(expected.latitude, 9);
+    expect(g.longitude).toBeCloseTo(expected.longitude, 9);
+    expect(g.components.offset).toBeCloseTo(Math.hypot(500, 500), 6);
+  });
+  it('refuses two offsets that are not one N/S and one E/W', () => {
+    const offsets: Offset[] = [
+      { distance: km(3, 0.5), heading: heading('NE', 45, 22.5) },
+      { distance: km(2, 0.5), heading: heading('E', 90, 45) },
+    ];
+    const outcome = georeference({ interpretation: interpretation('offset-orthogonal', { offsets }), features: [feature()] });
+    expect(outcome).toMatchObject({ ok: false, reason: expect.stringMatching(/due north or south/) });
+  });
+});
+
+describe('distance only (point-radius.md §3 [CHOICE])', () => {
+  it('5 km from X, δ 0.5 km: point c, offset term d + δ = 5.5 km', () => {
+    const g = ok({ interpretation: interpretation('distance-only', { offsets: [{ distance: km(5, 0.5) }] }), features: [feature()] });
+    expect([g.latitude, g.longitude]).toEqual([-12.5, -60.25]);
+    expect(g.components.offset).toBe(5500);
+    expect(g.remarks.join('\n')).toMatch(/\[CHOICE\] \(point-radius\.md §3\)/);
+  });
+});
+
+describe('along a path (point-radius.md §3)', () => {
+  // A road along the equator through the town, 0.5° each way.
+  const town = feature({ latitude: 0, longitude: 10, radiusMeters: 1000 });
+  const road = feature({ featureId: 'r7', name: 'Ruta 7', featureType: 'road', geometryType: 'LineString', geometry: { type: 'LineString', coordinates: [[9.5, 0], [9.8, 0], [10, 0], [10.2, 0], [10.5, 0]] } });
+  const byRoad = (withHeading?: WrittenHeading): Offset => ({ distance: km(10, 0.5), heading: withHeading, path: { mode: 'road', lineName: 'Ruta 7', written: 'by road' } });
+
+  it('follows the line 10 km from where it leaves the extent circle, in the direction of the heading', () => {
+    const g = ok({ interpretation: interpretation('offset-path', { offsets: [byRoad(heading('E', 90, 45))] }), features: [town], pathLine: road });
+    // Along the equator the geodesic is the equator: 1 km to the circle, then 10 km on (geographiclib).
+    const expected = directRef(0, 10, 90, 11000);
+    expect(g.latitude).toBeCloseTo(0, 9);
+    expect(g.longitude).toBeCloseTo(expected.longitude, 7);
+    expect(g.components).toMatchObject({ extent: 1000, offset: 500 });
+    expect(g.features.map((f) => f.featureId)).toEqual(['f1', 'r7']);
+  });
+
+  it('with two ways out and no heading, falls back to c and r_f + d + δ with a remark', () => {
+    const g = ok({ interpretation: interpretation('offset-path', { offsets: [byRoad()] }), features: [town], pathLine: road });
+    expect([g.latitude, g.longitude]).toEqual([0, 10]);
+    expect(g.components.offset).toBe(10500);
+    expect(g.remarks.join('\n')).toMatch(/leaves the feature in 2 directions.*\[CHOICE\]/);
+  });
+
+  it('with no line in the gazetteer, falls back with a remark', () => {
+    const g = ok({ interpretation: interpretation('offset-path', { offsets: [byRoad()] }), features: [town] });
+    expect(g.components.offset).toBe(10500);
+    expect(g.remarks.join('\n')).toMatch(/no line for "Ruta 7"/);
+  });
+});
+
+describe('heading only (point-radius.md §3 [CHOICE])', () => {
+  const unit = feature({
+    featureId: 'c1',
+    name: 'Condado Alto',
+    featureType: 'county',
+    latitude: 0,
+    longitude: 0,
+    radiusMeters: 78715,
+    geometryType: 'Polygon',
+    geometry: { type: 'Polygon', coordinates: [[[-0.5, -0.5], [0.5, -0.5], [0.5, 0.5], [-0.5, 0.5], [-0.5, -0.5]]] },
+  });
+  const north: Offset = { heading: heading('N', 0, 45) };
+  const village = feature({ latitude: 0, longitude: 0, radiusMeters: 500 });
+
+  it('is not georeferenced without a bounding unit', () => {
+    const outcome = georeference({ interpretation: interpretation('heading-only', { offsets: [north] }), features: [village] });
+    expect(outcome).toMatchObject({ ok: false, reason: expect.stringMatching(/no bounding unit/) });
+  });
+
+  it('with a unit: the center and radial of the part of the unit inside the sector', () => {
+    const g = ok({ interpretation: interpretation('heading-only', { offsets: [north] }), features: [village], boundingUnit: unit });
+    // The part is nearly the right triangle (0,0), (±0.5°, 0.5°): its smallest enclosing circle has the
+    // hypotenuse as diameter (plane geometry), center (0, 0.5°), radius ≈ 0.5° of longitude at 0.5°N;
+    // on the ellipsoid the 45° geodesics miss the corners slightly, so within 1 %.
+    expect(g.latitude).toBeCloseTo(0.5, 2);
+    expect(g.longitude).toBeCloseTo(0, 6);
+    expect(Math.abs(g.components.extent / distanceRef(0.5, 0, 0.5, 0.5) - 1)).toBeLessThan(0.01);
+    expect(g.footprintWKT.startsWith('POLYGON((')).toBe(true);
+    expect(g.features.map((f) => f.featureId)).toContain('c1');
+  });
+});
+
+describe('between (point-radius.md §3 [CHOICE])', () => {
+  it('midpoint of the geodesic joining the centers; radius D/2 + max(r_f)', () => {
+    const a = feature({ latitude: -12, longitude: -60, radiusMeters: 800 });
+    const b = feature({ featureId: 'f2', name: 'Santa Inés', latitude: -12.3, longitude: -60.4, radiusMeters: 2000 });
+    const g = ok({ interpretation: interpretation('between', { features: ['Puerto Lindo', 'Santa Inés'] }), features: [a, b] });
+    const D = distanceRef(-12, -60, -12.3, -60.4);
+    expect(distanceRef(g.latitude, g.longitude, -12, -60)).toBeCloseTo(D / 2, 4);
+    expect(distanceRef(g.latitude, g.longitude, -12.3, -60.4)).toBeCloseTo(D / 2, 4);
+    expect(g.components).toMatchObject({ extent: 2000 });
+    expect(g.components.offset).toBeCloseTo(D / 2, 6);
+  });
+});
+
+describe('near (point-radius.md §3 [CHOICE])', () => {
+  it('r_f + max(r_f, 1 km), and the minimum is configurable', () => {
+    const small = ok({ interpretation: interpretation('near'), features: [feature({ radiusMeters: 300 })] });
+    expect(small.uncertaintyMeters).toBe(1300);
+    const large = ok({ interpretation: interpretation('near'), features: [feature({ radiusMeters: 2000 })] });
+    expect(large.uncertaintyMeters).toBe(4000);
+    const configured = ok({ interpretation: interpretation('near'), features: [feature({ radiusMeters: 300 })], options: { nearMinimumMeters: 5000 } });
+    expect(configured.uncertaintyMeters).toBe(5300);
+  });
+});
+
+describe('junction (point-radius.md §3 [CHOICE])', () => {
+  const river = feature({ featureId: 'w1', name: 'Río Claro', featureType: 'river', geometryType: 'LineString', geometry: { type: 'LineString', coordinates: [[-60.5, -12.5], [-60, -12.5]] } });
+  const road = feature({ featureId: 'r1', name: 'Ruta 3', featureType: 'road', geometryType: 'LineString', geometry: { type: 'LineString', coordinates: [[-60.2, -13], [-60.2, -12]] } });
+  it('is the crossing of the two lines, with the junction extent 100 m', () => {
+    const g = ok({ interpretation: interpretation('junction', { features: ['Río Claro', 'Ruta 3'] }), features: [river, road] });
+    expect(g.latitude).toBeCloseTo(-12.5, 7);
+    expect(g.longitude).toBeCloseTo(-60.2, 7);
+    expect(g.components.extent).toBeCloseTo(100, 6);
+  });
+  it('refuses lines that do not meet', () => {
+    const far = feature({ ...road, geometry: { type: 'LineString', coordinates: [[-59, -13], [-59, -12]] } });
+    expect(georeference({ interpretation: interpretation('junction'), features: [river, far] })).toMatchObject({ ok: false, reason: expect.stringMatching(/do not meet/) });
+  });
+});
+
+describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
+  const written = (datumWritten?: string, datum?: string) =>
+    interpretation('coordinates', {
+      features: [],
+      coordinates: { written: '10.27, -123.6', latitude: 10.27, longitude: -123.6, format: 'decimal', precisionDegrees: 0.01, datum, datumWritten, problems: [] },
+    });
+  it('WGS84 stated: no shift, datum term 0, precision term 1556.8 m (point-radius.md §5.3 worked example)', () => {
+    const g = ok({ interpretation: written('WGS84'), features: [] });
+    expect([g.latitude, g.longitude]).toEqual([10.27, -123.6]);
+    expect(g.components.datum).toBe(0);
+    expect(g.components.coordinatePrecision).toBeCloseTo(1556.8, 0);
+  });
+  it('datum not recorded: 5359 m (point-radius.md §5.4) and a remark', () => {
+    const g = ok({ interpretation: written(), features: [] });
+    expect(g.components.datum).toBe(5359);
+    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*5359 m.*§5\.4/);
+  });
+  it('NAD27 written: shifted to WGS84 by tens of meters, the transformation accuracy as datum term', () => {
+    const g = ok({ interpretation: written('NAD 27'), features: [] });
+    const shift = distanceRef(10.27, -123.6, g.latitude, g.longitude);
+    expect(shift).toBeGreaterThan(10);
+    expect(shift).toBeLessThan(300);
+    expect(g.components.datum).toBe(10);
+    expect(g.remarks.join('\n')).toMatch(/EPSG:4267.*EPSG:1173/);
+  });
+  it('the record\'s datum option is used when the text states none', () => {
+    expect(ok({ interpretation: written(), features: [], options: { datum: 'EPSG:4326' } }).components.datum).toBe(0);
+  });
+  it('flagged coordinates are not georeferenced', () => {
+    const flagged = written('WGS84');
+    flagged.coordinates!.problems = ['latitude and longitude look swapped'];
+    expect(georeference({ interpretation: flagged, features: [] })).toMatchObject({ ok: false, reason: expect.stringMatching(/swapped/) });
+  });
+  it('map scale and measurement error are separate components (point-radius.md §5.5)', () => {
+    const g = ok({ interpretation: written('WGS84'), features: [], options: { mapScale: 24000, mapStandard: 'us-nmas', measurementErrorMeters: 20 } });
+    expect(g.components.mapScale).toBeCloseTo(36.192, 6);
+    expect(g.components.measurement).toBe(20);
+    expect(g.uncertaintyMeters).toBeCloseTo(sum(g), 9);
+  });
+});
+
+describe('no georeference', () => {
+  it('no locality: refused with the interpretation\'s reason', () => {
+    expect(georeference({ interpretation: interpretation('no-locality', { reason: 'locality unknown' }), features: [] })).toEqual({ ok: false, reason: 'locality unknown' });
+  });
+  it('a feature missing for the rule is a clear refusal', () => {
+    expect(georeference({ interpretation: interpretation('named-place'), features: [] })).toMatchObject({ ok: false, reason: expect.stringMatching(/needs feature 1/) });
+  });
+});
+
+describe('bounding unit clips the footprint (point-radius.md §6)', () => {
+  const unit = feature({ featureId: 'c2', name: 'Condado Bajo', featureType: 'county', geometryType: 'Polygon', geometry: { type: 'Polygon', coordinates: [[[-60.25, -13], [-59.5, -13], [-59.5, -12], [-60.25, -12], [-60.25, -13]]] } });
+  it('a circle on the unit edge keeps about half its area', () => {
+    const g = ok({ interpretation: interpretation('named-place'), features: [feature({ radiusMeters: 3000 })], boundingUnit: unit });
+    expect(wktPolygonAreaSquareMeters(g.footprintWKT) / (Math.PI * 3000 ** 2)).toBeCloseTo(0.5, 2);
+  });
+  it('a circle wholly outside the unit is a contradiction: refused', () => {
+    const outcome = georeference({ interpretation: interpretation('named-place'), features: [feature({ longitude: -61, radiusMeters: 3000 })], boundingUnit: unit });
+    expect(outcome).toMatchObject({ ok: false, reason: expect.stringMatching(/outside the bounding unit/) });
+  });
+});
+
+describe('properties (fast-check)', () => {
+  const anyOffset = fc.record({
+    d: fc.double({ min: 0, max: 200_000, noNaN: true }),
+    delta: fc.double({ min: 0, max: 5_000, noNaN: true }),
+    halfWidth: fc.constantFrom(0, 0.5, 5.625, 11.25, 22.5, 45),
+    azimuth: fc.double({ min: 0, max: 359.99, noNaN: true }),
+    radius: fc.double({ min: 0, max: 50_000, noNaN: true }),
+    type: fc.constantFrom('offset-heading' as const, 'distance-only' as const, 'offset-path' as const, 'near' as const, 'named-place' as const),
+  });
+  const run = (o: { d: number; delta: number; halfWidth: number; azimuth: number; radius: number; type: Interpretation['type'] }) => {
+    const distance: WrittenDistance = { written: `${o.d} m`, value: o.d, unit: 'm', precision: 2 * o.delta, uncertainty: o.delta, meters: o.d, uncertaintyMeters: o.delta };
+    const offsets: Offset[] = [{ distance, heading: o.type === 'offset-heading' ? heading('x', o.azimuth, o.halfWidth) : undefined }];
+    return ok({ interpretation: interpretation(o.type, { offsets }), features: [feature({ radiusMeters: o.radius })] });
+  };
+  it('the radius is never smaller than any single component, and is their sum (point-radius.md §5.6)', () => {
+    fc.assert(
+      fc.property(anyOffset, (o) => {
+        const g = run(o);
+        for (const value of Object.values(g.components)) expect(g.uncertaintyMeters).toBeGreaterThanOrEqual(value);
+        expect(g.uncertaintyMeters).toBeCloseTo(sum(g), 6);
+      }),
+      { numRuns: 200 },
+    );
+  });
+  it('growing the stated distance never shrinks the radius', () => {
+    fc.assert(
+      fc.property(anyOffset, fc.double({ min: 0, max: 100_000, noNaN: true }), (o, more) => {
+        expect(run({ ...o, d: o.d + more }).uncertaintyMeters).toBeGreaterThanOrEqual(run(o).uncertaintyMeters - 1e-6);
+      }),
+      { numRuns: 200 },
+    );
+  });
+});
