@@ -106,7 +106,7 @@ function interpretationOf(request: LocateRequest): Interpretation {
   if ('problem' in written) {
     return { ...interpretation, notes: [...interpretation.notes, `verbatimCoordinates "${verbatim}" not used: ${written.problem}`] };
   }
-  const datumWritten = written.datumWritten ?? request.geodeticDatum?.trim() || undefined;
+  const datumWritten = written.datumWritten ?? (request.geodeticDatum?.trim() || undefined);
   return {
     ...interpretation,
     type: 'coordinates',

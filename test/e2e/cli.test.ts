@@ -1,0 +1,87 @@
+/**
+ * The whole path through the real CLI: import the demo gazetteer into a temporary SQLite file, locate
+ * one locality, and run a batch. Child processes, a real file, no mocks.
+ */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { parse } from 'csv-parse/sync';
+import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
+import { beforeAll, describe, expect, it } from 'vitest';
+
+const run = promisify(execFile);
+const root = new URL('../..', import.meta.url).pathname;
+const cli = join(root, 'bin/whereabouts.js');
+const dir = mkdtempSync(join(tmpdir(), 'whereabouts-e2e-'));
+const db = join(dir, 'demo.sqlite');
+
+function whereabouts(...args: string[]) {
+  return run(process.execPath, [cli, ...args], { cwd: root, maxBuffer: 64 << 20 });
+}
+
+/** A demo feature as the gazetteer file gives it. */
+function demoPlace(name: string) {
+  const rows = parse(readFileSync(join(root, 'gazetteer/demo-places.csv')), { columns: true }) as Record<string, string>[];
+  const row = rows.find((r) => r.name === name);
+  if (!row) throw new Error(`${name} is not in the demo gazetteer`);
+  return { latitude: Number(row.latitude), longitude: Number(row.longitude), radiusMeters: Number(row.radiusMeters) };
+}
+
+beforeAll(async () => {
+  await whereabouts('--db', db, 'import', 'gazetteer/demo.geojson', '--source', 'Isla Verdemar demo gazetteer (invented)');
+}, 120_000);
+
+describe('whereabouts locate', () => {
+  it('offsets 10 km NE geodesically from the town center, with the method radius', async () => {
+    const { stdout } = await whereabouts('locate', '10 km NE of Vila Serena', '--country-code', 'QV', '--json', '--db', db);
+    const body = JSON.parse(stdout);
+    expect(body.status).toBe('georeferenced');
+    expect(body.interpretation.type).toBe('offset-heading');
+
+    // Reference: Vincenty's direct solution on WGS84 (Vincenty 1975, Survey Review 23:88), from the
+    // registry package geodesy 2.4.0 (C. Veness, MIT): an implementation independent of ours.
+    const town = demoPlace('Vila Serena');
+    const expected = new LatLon(town.latitude, town.longitude).destinationPoint(10_000, 45);
+    const got = new LatLon(body.georeference.latitude, body.georeference.longitude);
+    expect(got.distanceTo(expected)).toBeLessThan(1);
+
+    // Radius (point-radius.md §3, §5.2): r_f + U_offset(d = 10 km, δ = 0.5 km, Δ = 22.5°) + base.
+    // 10 km NE with δ 0.5 km → 4.029 km [DERIVED check value of the method document, §5.2].
+    expect(body.components.extent).toBeCloseTo(town.radiusMeters, 6);
+    expect(body.components.offset / 1000).toBeCloseTo(4.029, 3);
+    const total = Object.values(body.components as Record<string, number>).reduce((a, b) => a + b, 0);
+    const reported = Number(body.darwinCore.coordinateUncertaintyInMeters);
+    expect(reported).toBeGreaterThanOrEqual(Math.ceil(total));
+    expect(reported).toBeLessThanOrEqual(Math.ceil(total * 1.01) + 1);
+    expect(body.darwinCore.georeferenceVerificationStatus).toBe('requires verification');
+    expect(body.darwinCore.geodeticDatum).toBe('EPSG:4326');
+  });
+
+  it('says why when the text names no place', async () => {
+    const { stdout } = await whereabouts('--db', db, 'locate', 'locality unknown', '--json');
+    const body = JSON.parse(stdout);
+    expect(body.status).toBe('unparseable');
+    expect(body.darwinCore.georeferenceVerificationStatus).toBe('unable to georeference');
+    expect(body.darwinCore.georeferenceRemarks).not.toBe('');
+    expect(body.georeference).toBeUndefined();
+  });
+});
+
+describe('whereabouts batch', () => {
+  it('returns every row of the demo file with its original columns unchanged', async () => {
+    const out = join(dir, 'out.csv');
+    await whereabouts('--db', db, 'batch', 'gazetteer/demo-localities.csv', '--out', out, '--quiet');
+    const input = parse(readFileSync(join(root, 'gazetteer/demo-localities.csv')), { columns: false }) as string[][];
+    const output = parse(readFileSync(out), { columns: false }) as string[][];
+    expect(output.length).toBe(input.length);
+    const header = input[0];
+    expect(output[0].slice(0, header.length)).toEqual(header);
+    for (let i = 1; i < input.length; i++) expect(output[i].slice(0, header.length)).toEqual(input[i]);
+
+    const status = output[0].findIndex((c) => c.endsWith('georeferenceVerificationStatus'));
+    const allowed = ['requires verification', 'requires georeference', 'unable to georeference'];
+    for (const row of output.slice(1)) expect(allowed).toContain(row[status]);
+  });
+});
