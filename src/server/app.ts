@@ -12,7 +12,7 @@ import { openGazetteer } from '../gazetteer/store.ts';
 import { VERSION } from '../version.ts';
 import { assertSafeBind, tokenGuard } from './access.ts';
 import { loadAssets, registerAssets } from './assets.ts';
-import { handleError } from './errors.ts';
+import { errorHandler } from './errors.ts';
 import { registerStrictJson } from './json-body.ts';
 import { BatchService } from './batches.ts';
 import { openReviews, reviewsDatabasePath } from './reviews.ts';
@@ -55,9 +55,10 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
   const host = options.host ?? SERVER_DEFAULTS.host;
   assertSafeBind(host, options.token);
   const store = openGazetteer(options.dbPath, { readonly: true });
+  const bodyLimit = options.bodyLimit ?? SERVER_DEFAULTS.bodyLimit;
   const app = Fastify({
     logger: options.logger ?? false,
-    bodyLimit: options.bodyLimit ?? SERVER_DEFAULTS.bodyLimit,
+    bodyLimit,
     // Types are checked, never coerced; unknown fields are refused, never dropped in silence.
     ajv: { customOptions: { coerceTypes: false, removeAdditional: false, allErrors: false } },
     forceCloseConnections: 'idle',
@@ -70,7 +71,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     reviews.close();
     store.close();
   });
-  app.setErrorHandler(handleError);
+  app.setErrorHandler(errorHandler(bodyLimit));
   app.setNotFoundHandler((request, reply) => reply.code(404).send({ statusCode: 404, error: 'Not Found', message: `nothing at ${request.method} ${request.url.split('?')[0].slice(0, 200)}` }));
   registerStrictJson(app);
 

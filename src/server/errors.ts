@@ -34,8 +34,11 @@ interface ValidationItem {
   params: Record<string, unknown>;
 }
 
-/** The fastify error handler: validation errors name the field, everything else keeps its status. */
-export function handleError(error: FastifyError | RequestError, request: FastifyRequest, reply: FastifyReply) {
+/**
+ * The fastify error handler: validation errors name the field, everything else keeps its status.
+ * `bodyLimit` is the JSON body limit in bytes, quoted in the 413 message.
+ */
+export const errorHandler = (bodyLimit: number) => (error: FastifyError | RequestError, request: FastifyRequest, reply: FastifyReply) => {
   if ('validation' in error && error.validation) {
     const context = (error as FastifyError).validationContext ?? 'body';
     const item = error.validation[0] as ValidationItem;
@@ -49,8 +52,8 @@ export function handleError(error: FastifyError | RequestError, request: Fastify
     return send(reply, status, 'the service could not complete this request; it is still running');
   }
   const field = error instanceof RequestError ? error.field : undefined;
-  return send(reply, status, messageFor(error, status), field);
-}
+  return send(reply, status, messageFor(error, status, bodyLimit), field);
+};
 
 function send(reply: FastifyReply, statusCode: number, message: string, field?: string) {
   return reply.code(statusCode).send({ statusCode, error: PHRASES[statusCode] ?? 'Error', message, ...(field ? { field } : {}) });
@@ -66,13 +69,15 @@ function fieldOf(item: ValidationItem): string {
 
 function detail(item: ValidationItem): string {
   if (item.keyword === 'additionalProperties') return `: "${String(item.params.additionalProperty).slice(0, 64)}" is not a field of this request`;
+  // JSON numbers like 1e999 parse to Infinity, which is no number to the schema.
+  if (item.keyword === 'type' && String(item.params.type).includes('number')) return ' (a finite number)';
   return '';
 }
 
 /** Fastify's own wording is kept where it is already specific; the body limit gets the number. */
-function messageFor(error: FastifyError | RequestError, status: number): string {
+function messageFor(error: FastifyError | RequestError, status: number, bodyLimit: number): string {
   const code = (error as FastifyError).code;
-  if (code === 'FST_ERR_CTP_BODY_TOO_LARGE') return `the request body is larger than the limit of ${(error as FastifyError & { limit?: number }).limit ?? 'this route'} bytes`;
+  if (code === 'FST_ERR_CTP_BODY_TOO_LARGE') return `the request body is larger than the limit of ${bodyLimit} bytes`;
   if (code === 'FST_REQ_FILE_TOO_LARGE') return 'the uploaded file is larger than the upload limit';
   if (code === 'FST_ERR_CTP_INVALID_MEDIA_TYPE') return 'this content type is not accepted here: send application/json';
   if (code === 'FST_ERR_CTP_EMPTY_JSON_BODY') return 'the request body is empty: send a JSON object';

@@ -10,9 +10,14 @@ const strictUtf8 = new TextDecoder('utf-8', { fatal: true });
 /** Replaces fastify's JSON parser with one that checks UTF-8 first, keeping its prototype-poisoning checks. */
 export function registerStrictJson(app: FastifyInstance): void {
   const parseJson = app.getDefaultJsonParser('error', 'error');
-  app.removeContentTypeParser('application/json');
+  // Only JSON (and multipart, for uploads) is read: a text/plain body gets 415, not a guess.
+  app.removeContentTypeParser(['application/json', 'text/plain']);
   app.addContentTypeParser('application/json', { parseAs: 'buffer' }, (request, body, done) => {
     const bytes = body as Buffer;
+    if (bytes.length === 0) {
+      done(new RequestError(400, 'the request body is empty: send a JSON object', 'body'), undefined);
+      return;
+    }
     let text: string;
     try {
       text = strictUtf8.decode(bytes);

@@ -91,7 +91,7 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
           querystring: {
             type: 'object',
             additionalProperties: false,
-            dependentRequired: { candidateSource: ['candidateFeature'], candidateFeature: ['candidateSource'] },
+            dependencies: { candidateSource: ['candidateFeature'], candidateFeature: ['candidateSource'] },
             properties: { candidateSource: featureKeySchema.properties.sourceId, candidateFeature: featureKeySchema.properties.featureId },
           },
           response: { 200: open, 404: errorSchema, 409: errorSchema },

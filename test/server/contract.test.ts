@@ -1,0 +1,153 @@
+/**
+ * POST /api/v1/georeference and the map's routes, through inject and through a real server on
+ * 127.0.0.1, over a real SQLite file holding the demo gazetteer.
+ */
+import geographiclib from 'geographiclib-geodesic';
+import type { FastifyInstance } from 'fastify';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { GEOREFERENCE_TERMS } from '../../src/record/darwin-core.ts';
+import { buildServer } from '../../src/server/app.ts';
+import { demoDatabase, listen, post, type RunningServer, type TempDatabase } from './helpers.ts';
+
+// Puerto Lindo as the demo gazetteer gives it (gazetteer/demo.geojson, feature qv-0013).
+const PUERTO_LINDO = { latitude: -45.226495, longitude: -131.3876, radiusMeters: 3500 };
+
+let db: TempDatabase;
+let app: FastifyInstance;
+let server: RunningServer;
+
+beforeAll(async () => {
+  db = await demoDatabase();
+  app = await buildServer({ dbPath: db.dbPath });
+  server = await listen({ dbPath: db.dbPath });
+});
+afterAll(async () => {
+  await app?.close();
+  await server?.close();
+  db?.remove();
+});
+
+describe('POST /api/v1/georeference', () => {
+  it('georeferences an offset from a demo town at the geodesic offset point, through a real server', async () => {
+    const { status, json, headers } = await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
+    expect(status).toBe(200);
+    expect(headers.get('content-type')).toMatch(/^application\/json/);
+    expect(json.status).toBe('georeferenced');
+    // Reference point from geographiclib directly (Karney 2013, "Algorithms for geodesics"): 10 000 m at azimuth 45°.
+    const expected = geographiclib.Geodesic.WGS84.Direct(PUERTO_LINDO.latitude, PUERTO_LINDO.longitude, 45, 10_000);
+    const off = geographiclib.Geodesic.WGS84.Inverse(expected.lat2!, expected.lon2!, json.georeference.latitude, json.georeference.longitude);
+    expect(off.s12!).toBeLessThan(1);
+    // Method §5.2 derived check: 10 km NE with δ 0.5 km → offset term 4.029 km; extent is the feature's 3500 m.
+    expect(json.components.offset).toBeCloseTo(4029, -1);
+    expect(json.components.extent).toBeCloseTo(PUERTO_LINDO.radiusMeters, 0);
+    const total = Object.values(json.components as Record<string, number>).reduce((a, b) => a + b, 0);
+    expect(json.georeference.uncertaintyMeters).toBeCloseTo(total, 6);
+    expect(Number(json.darwinCore.coordinateUncertaintyInMeters)).toBeGreaterThanOrEqual(Math.ceil(total));
+    expect(Object.keys(json.darwinCore).sort()).toEqual([...GEOREFERENCE_TERMS].sort());
+    expect(json.darwinCore.georeferenceVerificationStatus).toBe('requires verification');
+    expect(json.footprint.type).toMatch(/Polygon/);
+    expect(json.interpretation.type).toBe('offset-heading');
+    expect(json.candidates[0].feature.geometry).toBeUndefined();
+  });
+
+  it('lists the candidates of a shared name as ambiguous, and georeferences the one chosen', async () => {
+    const ambiguous = await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Santa Rosa', countryCode: 'QV' } });
+    expect(ambiguous.statusCode).toBe(200);
+    const first = ambiguous.json();
+    expect(first.status).toBe('ambiguous');
+    expect(first.darwinCore.georeferenceVerificationStatus).toBe('requires georeference');
+    const ids = first.candidates.map((c: any) => c.feature.featureId).sort();
+    expect(ids).toEqual(['qv-0015', 'qv-0053']);
+
+    const pick = async (featureId: string) =>
+      (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Santa Rosa', countryCode: 'QV', options: { candidate: { sourceId: 'demo', featureId } } } })).json();
+    const town = await pick('qv-0015');
+    const village = await pick('qv-0053');
+    expect(town.status).toBe('georeferenced');
+    expect(town.georeference.features[0].featureId).toBe('qv-0015');
+    expect(town.georeference.latitude).toBeCloseTo(-45.337213, 5);
+    expect(village.georeference.latitude).toBeCloseTo(-45.213296, 5);
+    expect(town.georeferenceRemarks ?? town.darwinCore.georeferenceRemarks).toMatch(/chosen by the georeferencer/);
+  });
+
+  it('recomputes with a distance precision, a map scale and a datum given as options', async () => {
+    const base = { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' };
+    const plain = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: base })).json();
+    const coarse = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { distancePrecision: 10 } } })).json();
+    // Method §5.2: U(d=10, δ=5, Δ=22.5°) = sqrt(15² + 10² − 2·10·15·cos 22.5°) km = 6.617 km (computed from the formula).
+    const expected = Math.sqrt(15 ** 2 + 10 ** 2 - 2 * 10 * 15 * Math.cos((22.5 * Math.PI) / 180)) * 1000;
+    expect(coarse.components.offset).toBeCloseTo(expected, -1);
+    expect(coarse.components.offset).toBeGreaterThan(plain.components.offset);
+    const mapped = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { mapScale: 24000 } } })).json();
+    // US NMAS (1947): 1:24 000 → 40 ft = 12.2 m, plus the method's 1 mm on the map for the reading (§5.5).
+    expect(mapped.components.mapScale).toBeGreaterThanOrEqual(12.19);
+  });
+
+  it('compares the record\'s own coordinates with the proposed point', async () => {
+    const answer = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo', countryCode: 'QV', decimalLatitude: -45.2265, decimalLongitude: -131.3876 } })).json();
+    expect(answer.recordPoint.withinUncertainty).toBe(true);
+    expect(answer.recordPoint.distanceMeters).toBeLessThan(10);
+  });
+});
+
+describe('map routes, OpenAPI and the page', () => {
+  it('serves a feature with its geometry, and 404 for an unknown one', async () => {
+    const county = await app.inject({ url: '/api/v1/features/demo/qv-0005' });
+    expect(county.statusCode).toBe(200);
+    expect(county.json().geometry.type).toBe('Polygon');
+    expect(county.json().properties.name).toBe('Alisos');
+    const missing = await app.inject({ url: '/api/v1/features/demo/no-such' });
+    expect(missing.statusCode).toBe(404);
+    expect(missing.json().message).toMatch(/no feature no-such in source demo/);
+  });
+
+  it('serves the polygons and lines of the gazetteer as one FeatureCollection (RFC 7946)', async () => {
+    const layers = (await app.inject({ url: '/api/v1/layers' })).json();
+    expect(layers.type).toBe('FeatureCollection');
+    const types = new Set(layers.features.map((f: any) => f.geometry.type));
+    expect(types.has('Polygon')).toBe(true);
+    expect(types.has('LineString')).toBe(true);
+    expect(types.has('Point')).toBe(false);
+  });
+
+  it('documents the routes as OpenAPI 3, generated from their schemas', async () => {
+    const doc = (await app.inject({ url: '/api/v1/openapi.json' })).json();
+    expect(doc.openapi).toMatch(/^3\./);
+    const body = doc.paths['/api/v1/georeference'].post.requestBody.content['application/json'].schema;
+    expect(body.required).toEqual(['locality']);
+    expect(Object.keys(body.properties)).toEqual(expect.arrayContaining(['locality', 'countryCode', 'country', 'stateProvince', 'county', 'municipality', 'options']));
+    expect(Object.keys(doc.paths)).toEqual(expect.arrayContaining(['/api/v1/batches', '/api/v1/layers', '/api/v1/features/{sourceId}/{featureId}']));
+  });
+
+  it('serves the page and its vendor files from memory, and nothing outside them', async () => {
+    const page = await app.inject({ url: '/' });
+    expect(page.statusCode).toBe(200);
+    expect(page.headers['content-type']).toMatch(/text\/html/);
+    expect(page.body).toContain('/api/v1/openapi.json');
+    expect(page.body).not.toMatch(/<script>(?!<\/script>)|<script(?![^>]*src=)[^>]*>/);
+    for (const url of ['/vendor/leaflet.js', '/vendor/leaflet.css', '/vendor/topojson-client.js', '/vendor/countries-110m.json', '/js/main.js', '/style.css']) {
+      expect((await app.inject({ url })).statusCode, url).toBe(200);
+    }
+    for (const url of ['/../package.json', '/%2e%2e/package.json', '/vendor/..%2f..%2fpackage.json', '/js/../../src/server/app.ts', '/etc/passwd']) {
+      expect((await app.inject({ url })).statusCode, url).toBe(404);
+    }
+  });
+
+  it('sends security headers with a CSP that forbids inline scripts, and no CORS unless configured', async () => {
+    const page = await app.inject({ url: '/', headers: { origin: 'https://elsewhere.example' } });
+    const csp = String(page.headers['content-security-policy']);
+    expect(csp).toContain("script-src 'self'");
+    expect(csp).not.toContain('unsafe-inline');
+    expect(csp).toContain("frame-ancestors 'none'");
+    expect(page.headers['x-content-type-options']).toBe('nosniff');
+    expect(page.headers['access-control-allow-origin']).toBeUndefined();
+
+    const withCors = await buildServer({ dbPath: db.dbPath, corsOrigin: 'https://collections.example' });
+    try {
+      const allowed = await withCors.inject({ method: 'OPTIONS', url: '/api/v1/georeference', headers: { origin: 'https://collections.example', 'access-control-request-method': 'POST' } });
+      expect(allowed.headers['access-control-allow-origin']).toBe('https://collections.example');
+    } finally {
+      await withCors.close();
+    }
+  });
+});

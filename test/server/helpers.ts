@@ -1,0 +1,68 @@
+/** A real SQLite gazetteer in a temporary folder, and a real service on 127.0.0.1 over it. */
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { FastifyInstance } from 'fastify';
+import { importGazetteer } from '../../src/gazetteer/import.ts';
+import { openGazetteer } from '../../src/gazetteer/store.ts';
+import { buildServer, type ServerOptions } from '../../src/server/app.ts';
+
+export const DEMO_GAZETTEER = new URL('../../gazetteer/demo.geojson', import.meta.url).pathname;
+export const DEMO_LOCALITIES = new URL('../../gazetteer/demo-localities.csv', import.meta.url).pathname;
+
+export interface TempDatabase {
+  dir: string;
+  dbPath: string;
+  remove(): void;
+}
+
+/**
+ * The demo gazetteer imported into a fresh file, plus any extra GeoJSON features given (imported as
+ * a second source named "extra").
+ */
+export async function demoDatabase(extraFeatures: object[] = []): Promise<TempDatabase> {
+  const dir = mkdtempSync(join(tmpdir(), 'whereabouts-server-'));
+  const dbPath = join(dir, 'gazetteer.sqlite');
+  const store = openGazetteer(dbPath);
+  try {
+    await importGazetteer(store, DEMO_GAZETTEER, { format: 'geojson', citation: 'whereabouts demo gazetteer (invented island)' });
+    if (extraFeatures.length) {
+      const extra = join(dir, 'extra.geojson');
+      writeFileSync(extra, JSON.stringify({ type: 'FeatureCollection', features: extraFeatures }));
+      await importGazetteer(store, extra, { format: 'geojson', citation: 'test features', sourceId: 'extra' });
+    }
+  } finally {
+    store.close();
+  }
+  return { dir, dbPath, remove: () => rmSync(dir, { recursive: true, force: true }) };
+}
+
+export interface RunningServer {
+  app: FastifyInstance;
+  /** e.g. http://127.0.0.1:41234 */
+  url: string;
+  close(): Promise<void>;
+}
+
+/** buildServer, listening on 127.0.0.1 at a port the system picks. */
+export async function listen(options: ServerOptions): Promise<RunningServer> {
+  const app = await buildServer(options);
+  await app.listen({ host: '127.0.0.1', port: 0 });
+  const address = app.server.address();
+  if (typeof address !== 'object' || !address) throw new Error('no address');
+  return { app, url: `http://127.0.0.1:${address.port}`, close: () => app.close() };
+}
+
+/** POST JSON (or raw bytes) to the running server. */
+export async function post(url: string, body: unknown, headers: Record<string, string> = {}): Promise<{ status: number; json: any; headers: Headers }> {
+  const raw: string | Uint8Array = typeof body === 'string' ? body : body instanceof Uint8Array ? new Uint8Array(body) : JSON.stringify(body);
+  const response = await fetch(url, { method: 'POST', body: raw as BodyInit, headers: { 'content-type': 'application/json', ...headers } });
+  const text = await response.text();
+  let json: any;
+  try {
+    json = JSON.parse(text);
+  } catch {
+    json = text;
+  }
+  return { status: response.status, json, headers: response.headers };
+}
