@@ -1,6 +1,7 @@
 import proj4 from 'proj4';
 import type { WrittenCoordinates } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
+import { powerOfTen } from './numbers.ts';
 
 type Hemisphere = 'n' | 's' | 'e' | 'w';
 
@@ -98,7 +99,7 @@ function readAngle(tokens: Token[], start: number): Angle | null {
   if (values[2] !== undefined && values[2] >= 60) problems.push(`seconds ${values[2]} are 60 or more`);
   const magnitude = values[0]! + (values[1] ?? 0) / 60 + (values[2] ?? 0) / 3600;
   if (!Number.isFinite(magnitude)) return null;
-  const step = 10 ** -decimals / [1, 60, 3600][values.length - 1]!;
+  const step = powerOfTen(-decimals) / [1, 60, 3600][values.length - 1]!;
   return { magnitude, negative, hemisphere, axis, precision: step, parts: values.length as 1 | 2 | 3, marked, decimals, start, next: i, problems };
 }
 
@@ -123,7 +124,7 @@ export interface CoordinatesFound {
   endToken: number;
 }
 
-function readPair(text: string, tokens: Token[], i: number): CoordinatesFound | null {
+function readPair(text: string, tokens: Token[], i: number, lenient: boolean): CoordinatesFound | null {
   const first = readAngle(tokens, i);
   if (!first) return null;
   let j = first.next;
@@ -131,14 +132,15 @@ function readPair(text: string, tokens: Token[], i: number): CoordinatesFound | 
   const second = readAngle(tokens, j);
   if (!second) return null;
   const plainDecimals = !first.marked && !second.marked;
-  if (plainDecimals && (first.decimals < 2 || second.decimals < 2 || first.parts > 1 || second.parts > 1)) return null;
+  // In running text a bare pair must look like coordinates (two decimals each); a coordinate field may be plainer.
+  if (plainDecimals && !lenient && (first.decimals < 2 || second.decimals < 2 || first.parts > 1 || second.parts > 1)) return null;
   if (!plainDecimals && (!first.marked || !second.marked)) return null;
   const problems = [...first.problems, ...second.problems];
   const axisA = axisOf(first);
   const axisB = axisOf(second);
   let lat = first;
   let lon = second;
-  if (axisA === 'lon' || axisB === 'lat') [lat, lon] = [second, first];
+  if ((axisA === 'lon' && axisB !== 'lon') || (axisB === 'lat' && axisA !== 'lat')) [lat, lon] = [second, first];
   if (axisA && axisA === axisB) problems.push(`both values are marked as ${axisA === 'lat' ? 'latitude' : 'longitude'}`);
   const latitude = signedValue(lat, 'latitude', problems);
   const longitude = signedValue(lon, 'longitude', problems);
@@ -208,7 +210,7 @@ function readUtm(text: string, tokens: Token[], i: number): CoordinatesFound | n
     const high = band === 'X' ? 84 : low + 8;
     if (latitude < low - 0.01 || latitude > high + 0.01) problems.push(`latitude ${latitude.toFixed(4)} is outside band ${band} (${low}° to ${high}°)`);
   }
-  const precisionMeters = 10 ** -Math.max(easting.decimals, northing.decimals);
+  const precisionMeters = powerOfTen(-Math.max(easting.decimals, northing.decimals));
   const coordinates: WrittenCoordinates = {
     written: text.slice(tokens[i]!.start, tokens[northing.next - 1]!.end),
     latitude,
@@ -246,13 +248,13 @@ function findDatum(text: string, tokens: Token[]): string | undefined {
 
 /**
  * Finds the first coordinate pair (decimal, degrees-minutes(-seconds) in any common punctuation, or UTM)
- * in tokens [from, to). UTM is converted to latitude/longitude on the WGS84 ellipsoid with proj4
+ * in tokens [from, to); `lenient` also accepts bare number pairs ("95.5, 45.2"), as in a coordinate field. UTM is converted to latitude/longitude on the WGS84 ellipsoid with proj4
  * (sub-millimetre accuracy); no datum shift is applied here.
  */
-export function findCoordinates(text: string, tokens: Token[], from = 0, to = tokens.length): CoordinatesFound | null {
+export function findCoordinates(text: string, tokens: Token[], from = 0, to = tokens.length, lenient = false): CoordinatesFound | null {
   const window = tokens.slice(from, to);
   for (let i = 0; i < window.length; i++) {
-    const found = readUtm(text, window, i) ?? readPair(text, window, i);
+    const found = readUtm(text, window, i) ?? readPair(text, window, i, lenient);
     if (found) {
       const datumWritten = findDatum(text, window);
       if (datumWritten) found.coordinates.datumWritten = datumWritten;
@@ -271,7 +273,7 @@ export function parseCoordinates(text: string): WrittenCoordinates | { problem: 
   if (text.length > 10000) return { problem: 'coordinate field longer than 10000 characters' };
   const tokens = tokenize(text);
   if (tokens.length === 0) return { problem: 'empty coordinate field' };
-  const found = findCoordinates(text, tokens);
+  const found = findCoordinates(text, tokens, 0, tokens.length, true);
   if (!found) return { problem: 'no latitude and longitude pair could be read' };
   const rest = [...tokens.slice(0, found.startToken), ...tokens.slice(found.endToken)];
   const datum = found.coordinates.datumWritten;

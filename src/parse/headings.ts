@@ -1,5 +1,6 @@
 import type { WrittenHeading } from './types.ts';
 import type { Token } from './tokens.ts';
+import { powerOfTen } from './numbers.ts';
 
 /** Half-widths Δ of the compass rose divisions [DERIVED, method §5.2]. */
 export const ROSE_HALF_WIDTH = { rose4: 45, rose8: 22.5, rose16: 11.25, rose32: 5.625 } as const;
@@ -85,12 +86,12 @@ function readDegrees(tokens: Token[], i: number): { degrees: number; halfWidth: 
   if (d?.kind !== 'number' || d.fraction) return null;
   let next = i + 1;
   let degrees = Number(d.norm);
-  let halfWidth = 0.5 * 10 ** -d.decimals!.length;
+  let halfWidth = 0.5 * powerOfTen(-d.decimals!.length);
   if (isSymbolIn(tokens[next], DEGREE_SIGNS)) next++;
   const m = tokens[next];
   if (m?.kind === 'number' && !m.fraction && isSymbolIn(tokens[next + 1], MINUTE_SIGNS) && d.decimals === '') {
     degrees += Number(m.norm) / 60;
-    halfWidth = (0.5 * 10 ** -m.decimals!.length) / 60;
+    halfWidth = (0.5 * powerOfTen(-m.decimals!.length)) / 60;
     next += 2;
   }
   if (!Number.isFinite(degrees) || degrees >= 360) return null;

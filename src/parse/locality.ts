@@ -1,7 +1,7 @@
 import type { DistanceUnit, LocalityType, Offset, PathQualifier, WrittenDistance, WrittenHeading } from './types.ts';
 import type { Token } from './tokens.ts';
 import { readNumberAt } from './numbers.ts';
-import { readHeadingAt } from './headings.ts';
+import { directionLetters, readHeadingAt } from './headings.ts';
 import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
 import * as L from './lexicon.ts';
 
@@ -203,9 +203,18 @@ const hasDistance = (s: Source, from: number, to: number): boolean => {
   return false;
 };
 
-/** Reads a place name at [from, end): null when it is empty or holds a distance (then the clause is not understood). */
+/** True when tokens [from, to) hold a word that is neither a small word nor a direction ("de de de", "N N" name nothing). */
+function hasNameWord(s: Source, from: number, to: number): boolean {
+  for (let k = from; k < to; k++) {
+    const t = s.tokens[k]!;
+    if (t.kind === 'word' && !L.SMALL_WORDS.has(t.norm) && (t.norm.length > 3 || directionLetters(t.norm) === null)) return true;
+  }
+  return false;
+}
+
+/** Reads a place name at [from, end): null when it is empty, names nothing, or holds a distance (then the clause is not understood). */
 function placeAt(s: Source, from: number, end: number): string | null {
-  return hasDistance(s, from, end) ? null : nameBetween(s, from, end);
+  return hasDistance(s, from, end) || !hasNameWord(s, from, end) ? null : nameBetween(s, from, end);
 }
 
 /** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
@@ -390,6 +399,6 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
   if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
   if (tokens[i]!.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[i]!.text}"`, approximate);
-  const place = nameBetween(s, i, end);
+  const place = placeAt(s, i, end);
   return place ? reading('named-place', [place], { approximate }) : unparseable('no place name could be read', approximate);
 }

@@ -13,6 +13,11 @@ export interface WrittenNumber {
   next: number;
 }
 
+/** 10^k as the decimal literal reads it (1e-4 is exactly the double nearest 0.0001, unlike 10 ** -4 on some engines). */
+export function powerOfTen(k: number): number {
+  return Number(`1e${k}`);
+}
+
 /** Words that join the two ends of a range ("5 a 8 km", "5 to 8 km", "5 à 8 km"). */
 const RANGE_JOINERS = new Set(['-', '–', '—', 'to', 'a', 'ate', 'au', 'or', 'ou', 'o']);
 
@@ -31,12 +36,12 @@ function decimalPrecision(decimals: string): number {
   if (fractional === 0.5) return 0.5;
   if (fractional === 0.25 || fractional === 0.75) return 0.25;
   if (fractional * 8 === Math.round(fractional * 8) && fractional !== 0) return 0.125;
-  return 10 ** -decimals.length;
+  return powerOfTen(-decimals.length);
 }
 
 /** Integer precision, max(1, 10^(floor(log10 d) − 1)) [CHOICE reproducing every BP2020 row, method §5.1]. */
 function integerPrecision(value: number): number {
-  return value < 1 ? 1 : Math.max(1, 10 ** (Math.floor(Math.log10(value)) - 1));
+  return value < 1 ? 1 : Math.max(1, powerOfTen(Math.floor(Math.log10(value)) - 1));
 }
 
 const isNumber = (t: Token | undefined): t is Token => t !== undefined && t.kind === 'number';
