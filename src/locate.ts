@@ -71,6 +71,7 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
 
   const candidates: Candidate[] = [];
   const features: Feature[] = [];
+  const matchRemarks: string[] = [];
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
@@ -83,14 +84,20 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
       const names = found.map(describeCandidate).join('; ');
       return { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` };
     }
-    features.push(choice.feature);
+    features.push(choice.candidate.feature);
+    if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
 
   const pathLine = findPathLine(finder, interpretation, context);
   const boundingUnit = interpretation.type === 'heading-only' ? findBoundingUnit(finder, context) : undefined;
   const outcome = georeference({ interpretation, features, pathLine, boundingUnit, options });
   if (!outcome.ok) return { status: 'unparseable', interpretation, candidates, reason: outcome.reason };
-  return georeferenced(outcome.georeference, interpretation, candidates);
+  const georef = outcome.georeference;
+  return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, interpretation, candidates);
+}
+
+function fuzzyRemark(name: string, chosen: Candidate): string {
+  return `"${name}" is not in the gazetteer as written; taken as "${chosen.matchedName}" (${chosen.why}; score ${chosen.score.toFixed(2)}), the only close match: verify the name`;
 }
 
 function georeferenced(georef: Georeference, interpretation: Interpretation, candidates: Candidate[]): LocateResult {
@@ -136,24 +143,24 @@ function featureQuery(name: string, context: AdministrativeContext, type: Locali
     : { name, context };
 }
 
-type Choice = { kind: 'none' } | { kind: 'one'; feature: Feature } | { kind: 'several' };
+type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'several' };
 
 /** Applies FUZZY_ACCEPTANCE: never a silent pick among equally good candidates. */
 function chooseCandidate(found: Candidate[]): Choice {
   if (found.length === 0) return { kind: 'none' };
   const exact = found.filter((c) => c.score >= 1);
-  if (exact.length === 1) return { kind: 'one', feature: exact[0].feature };
+  if (exact.length === 1) return { kind: 'one', candidate: exact[0] };
   if (exact.length > 1) return { kind: 'several' };
   const [best, next] = [...found].sort((a, b) => b.score - a.score);
   const leads = !next || best.score - next.score >= FUZZY_ACCEPTANCE.minimumLead;
-  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', feature: best.feature } : { kind: 'several' };
+  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', candidate: best } : { kind: 'several' };
 }
 
 function findPathLine(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Feature | undefined {
   const lineName = interpretation.offsets.find((o) => o.path?.lineName)?.path?.lineName;
   if (interpretation.type !== 'offset-path' || !lineName) return undefined;
   const choice = chooseCandidate(finder.findCandidates({ name: lineName, context, geometryTypes: LINES, withGeometry: true }));
-  return choice.kind === 'one' ? choice.feature : undefined;
+  return choice.kind === 'one' ? choice.candidate.feature : undefined;
 }
 
 /** The most specific administrative unit the record names, with its polygon, if the gazetteer has it. */
@@ -162,7 +169,7 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
     const name = context[level.field];
     if (!name) continue;
     const choice = chooseCandidate(finder.findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true }));
-    if (choice.kind === 'one') return choice.feature;
+    if (choice.kind === 'one') return choice.candidate.feature;
   }
   return undefined;
 }

@@ -95,7 +95,7 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
     footprintSRS: 'EPSG:4326',
     ...common,
     georeferenceSources: citeSources(result, context.sources),
-    georeferenceRemarks: [...result.interpretation.notes, ...g.remarks].join('; '),
+    georeferenceRemarks: g.remarks.join('; '),
   };
 }
 
