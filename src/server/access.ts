@@ -27,12 +27,13 @@ export function isLoopback(host: string): boolean {
 
 /**
  * The access token from env WHEREABOUTS_TOKEN, or from the file named by WHEREABOUTS_TOKEN_FILE
- * (surrounding white space trimmed). Undefined when neither is set; an error for an empty or short one.
+ * (surrounding white space trimmed). Undefined when neither is set (an empty variable is unset); an
+ * error for a token shorter than 16 characters.
  */
 export function readAccessToken(env: NodeJS.ProcessEnv): string | undefined {
   let token: string | undefined;
   let from = '';
-  if (env.WHEREABOUTS_TOKEN !== undefined) {
+  if (env.WHEREABOUTS_TOKEN) {
     token = env.WHEREABOUTS_TOKEN.trim();
     from = 'WHEREABOUTS_TOKEN';
   } else if (env.WHEREABOUTS_TOKEN_FILE) {

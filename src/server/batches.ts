@@ -144,7 +144,8 @@ export class BatchService {
   /** Stores a decision with who and when. */
   decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, candidate?: FeatureKey): Review {
     const output = this.output(jobId);
-    if (candidate) this.lookUpRow(output, this.rowOf(output, row), candidate); // refuses a candidate that is not offered
+    const fields = this.rowOf(output, row);
+    if (candidate) this.lookUpRow(output, fields, candidate); // refuses a candidate that is not offered
     const review: Review = { decision, candidate, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
     this.reviews.record(jobId, row, review);
     return review;

@@ -1,0 +1,169 @@
+/**
+ * Batch upload and review through a real server: the demo batch file is uploaded, runs to the end,
+ * is listed, a record is accepted, another rejected, one given another candidate, and the reviewed
+ * file comes back with every original column untouched and the new statuses (Darwin Core
+ * georeferenceVerificationStatus recommended values: "verified by data custodian", "requires georeference").
+ */
+import { readFileSync } from 'node:fs';
+import { parse } from 'csv-parse/sync';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_LOCALITIES, demoDatabase, listen, type RunningServer, type TempDatabase } from './helpers.ts';
+
+let db: TempDatabase;
+let server: RunningServer;
+
+beforeAll(async () => {
+  db = await demoDatabase();
+  server = await listen({ dbPath: db.dbPath, uploadLimit: 200_000 });
+});
+afterAll(async () => {
+  await server?.close();
+  db?.remove();
+});
+
+async function upload(bytes: Uint8Array, name = 'records.csv', field = 'file') {
+  const form = new FormData();
+  form.append(field, new Blob([new Uint8Array(bytes)], { type: 'text/csv' }), name);
+  const response = await fetch(`${server.url}/api/v1/batches`, { method: 'POST', body: form });
+  return { status: response.status, json: (await response.json()) as any };
+}
+
+async function finished(jobId: string) {
+  for (let i = 0; i < 300; i++) {
+    const progress = await (await fetch(`${server.url}/api/v1/batches/${jobId}`)).json();
+    if (progress.state === 'done' || progress.state === 'failed') return progress;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error('the job did not finish in 30 s');
+}
+
+const json = async (path: string, init?: RequestInit) => {
+  const response = await fetch(`${server.url}${path}`, init);
+  return { status: response.status, body: (await response.json()) as any };
+};
+/** An appended term: `proposed_<term>` where the input already had the column (issue 2 batch contract). */
+const term = (row: Record<string, string>, name: string) => row[`proposed_${name}`] ?? row[name];
+const put = (path: string, body: unknown) => json(path, { method: 'PUT', body: JSON.stringify(body), headers: { 'content-type': 'application/json' } });
+
+describe('a batch from upload to reviewed file', () => {
+  let jobId: string;
+
+  it('uploads the demo file and runs it to the end', async () => {
+    const started = await upload(readFileSync(DEMO_LOCALITIES));
+    expect(started.status).toBe(202);
+    jobId = started.json.jobId;
+    const progress = await finished(jobId);
+    expect(progress.state).toBe('done');
+    expect(progress.fraction).toBe(1);
+    expect(progress.outputPath).toBeUndefined(); // no server path is ever shown
+  });
+
+  it('lists every record with facets, and filters them', async () => {
+    const input = parse(readFileSync(DEMO_LOCALITIES), { columns: true }) as Record<string, string>[];
+    const { body } = await json(`/api/v1/batches/${jobId}/records`);
+    expect(body.total).toBe(input.length);
+    expect(body.records.map((r: any) => r.locality)).toEqual(input.map((r) => r.locality.replace(/\s+/g, ' ').trim()));
+    expect(body.facets.status).toContain('requires verification');
+    const georeferenced = await json(`/api/v1/batches/${jobId}/records?status=${encodeURIComponent('requires verification')}&radiusMin=1`);
+    expect(georeferenced.body.records.length).toBeGreaterThan(0);
+    expect(georeferenced.body.records.every((r: any) => r.status === 'requires verification' && r.radiusMeters >= 1)).toBe(true);
+    const bad = await json(`/api/v1/batches/${jobId}/records?radiusMin=-5`);
+    expect(bad.status).toBe(400);
+    expect(bad.body.field).toBe('radiusMin');
+  });
+
+  it('accepts, rejects and re-picks records, and stores who and when', async () => {
+    const { body } = await json(`/api/v1/batches/${jobId}/records?status=${encodeURIComponent('requires verification')}`);
+    const [first, second] = body.records;
+    const accepted = await put(`/api/v1/batches/${jobId}/records/${first.row}/review`, { decision: 'accepted', reviewer: 'A. Curator' });
+    expect(accepted.status).toBe(200);
+    expect(accepted.body.reviewer).toBe('A. Curator');
+    expect(Date.parse(accepted.body.decidedAt)).toBeGreaterThan(Date.now() - 60_000);
+    await put(`/api/v1/batches/${jobId}/records/${second.row}/review`, { decision: 'rejected', reviewer: 'A. Curator' });
+    const detail = await json(`/api/v1/batches/${jobId}/records/${first.row}`);
+    expect(detail.body.review.decision).toBe('accepted');
+    expect(detail.body.answer.status).toBe('georeferenced');
+
+    const bogus = await put(`/api/v1/batches/${jobId}/records/${first.row}/review`, { decision: 'maybe', reviewer: 'x' });
+    expect(bogus.status).toBe(400);
+    expect(bogus.body.field).toBe('decision');
+    const missing = await put(`/api/v1/batches/${jobId}/records/99999/review`, { decision: 'accepted', reviewer: 'x' });
+    expect(missing.status).toBe(404);
+
+    const download = await fetch(`${server.url}/api/v1/batches/${jobId}/reviewed.csv`);
+    expect(download.headers.get('content-disposition')).toMatch(/attachment/);
+    const rows = parse(await download.text(), { columns: true }) as Record<string, string>[];
+    const input = parse(readFileSync(DEMO_LOCALITIES), { columns: true }) as Record<string, string>[];
+    expect(rows.length).toBe(input.length);
+    rows.forEach((row, i) => {
+      for (const [column, value] of Object.entries(input[i])) if (!['decimalLatitude', 'decimalLongitude', 'geodeticDatum'].includes(column)) expect(row[column]).toBe(value);
+      for (const column of ['decimalLatitude', 'decimalLongitude', 'geodeticDatum']) expect(row[column]).toBe(input[i][column]);
+    });
+    expect(term(rows[first.row - 1], 'georeferenceVerificationStatus')).toBe('verified by data custodian');
+    expect(term(rows[first.row - 1], 'georeferenceRemarks')).toMatch(/verified by A\. Curator on \d{4}-\d\d-\d\dT/);
+    expect(term(rows[second.row - 1], 'georeferenceVerificationStatus')).toBe('requires georeference');
+    expect(term(rows[second.row - 1], 'decimalLatitude')).toBe('');
+    expect(term(rows[second.row - 1], 'georeferenceRemarks')).toMatch(/proposed georeference rejected \(was -45\./);
+  });
+
+  it('takes another candidate for an ambiguous record and recomputes its terms', async () => {
+    const { body } = await json(`/api/v1/batches/${jobId}/records?status=${encodeURIComponent('requires georeference')}&review=pending`);
+    const ambiguous = [];
+    for (const r of body.records) {
+      const detail = await json(`/api/v1/batches/${jobId}/records/${r.row}`);
+      if (detail.body.answer.status === 'ambiguous' && detail.body.answer.interpretation.features.length === 1) ambiguous.push(detail.body);
+    }
+    expect(ambiguous.length).toBeGreaterThan(0);
+    const record = ambiguous[0];
+    const candidate = { sourceId: record.answer.candidates[1].feature.sourceId, featureId: record.answer.candidates[1].feature.featureId };
+    const picked = await put(`/api/v1/batches/${jobId}/records/${record.row}/review`, { decision: 'accepted', reviewer: 'B. Keeper', candidate });
+    expect(picked.status).toBe(200);
+    const rows = parse(await (await fetch(`${server.url}/api/v1/batches/${jobId}/reviewed.csv`)).text(), { columns: true }) as Record<string, string>[];
+    const row = rows[record.row - 1];
+    expect(term(row, 'georeferenceVerificationStatus')).toBe('verified by data custodian');
+    expect(term(row, 'georeferencedBy')).toBe('B. Keeper');
+    expect(term(row, 'georeferenceSources')).toContain(candidate.featureId);
+    expect(Number(term(row, 'decimalLatitude'))).toBeCloseTo(record.answer.candidates[1].feature.latitude, 0);
+  });
+});
+
+describe('uploads are checked by content and size', () => {
+  it('refuses a workbook even when it is named .csv', async () => {
+    const zip = Uint8Array.from([0x50, 0x4b, 0x03, 0x04, 0x14, 0x00, 0x06, 0x00]);
+    const { status, json: body } = await upload(zip, 'records.csv');
+    expect(status).toBe(415);
+    expect(body.message).toMatch(/ZIP archive .*not CSV text/);
+  });
+
+  it('accepts CSV text whatever its name', async () => {
+    const { status } = await upload(Buffer.from('locality,countryCode\nPuerto Lindo,QV\n'), 'export.xlsx');
+    expect(status).toBe(202);
+  });
+
+  it('refuses binary data, an empty file, a file without a locality column, and a missing file field', async () => {
+    expect((await upload(Buffer.from('locality\n\u0000\u0001\u0002'))).status).toBe(415);
+    const empty = await upload(new Uint8Array());
+    expect(empty.status).toBe(400);
+    expect(empty.json.message).toMatch(/empty/);
+    const noLocality = await upload(Buffer.from('name,country\nX,Y\n'));
+    expect(noLocality.status).toBe(400);
+    expect(noLocality.json.message).toMatch(/no "locality" or "verbatimLocality" column/);
+    const wrongField = await upload(Buffer.from('locality\nX\n'), 'a.csv', 'data');
+    expect(wrongField.status).toBe(400);
+    expect(wrongField.json.field).toBe('file');
+  });
+
+  it('answers 413 for an upload over the limit, and keeps answering', async () => {
+    const big = Buffer.alloc(300_000, 'a');
+    big.write('locality\n');
+    const { status, json: body } = await upload(big);
+    expect(status).toBe(413);
+    expect(body.message).toMatch(/larger than the upload limit of 200000 bytes/);
+    expect((await fetch(`${server.url}/api/v1/layers`)).status).toBe(200);
+  });
+
+  it('never takes a path from a job id', async () => {
+    expect((await fetch(`${server.url}/api/v1/batches/..%2F..%2Fetc%2Fpasswd`)).status).toBe(400);
+    expect((await fetch(`${server.url}/api/v1/batches/no-such-job`)).status).toBe(404);
+  });
+});
