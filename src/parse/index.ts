@@ -149,6 +149,13 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
         piece.clause = spanning(text, piece.clause, next.clause);
         pieces.splice(k + 1, 1);
       }
+    } else if (reading.bare === 'path' && reading.offsets[0]?.path?.lineName && next?.reading?.type === 'offset-path' && !next.reading.offsets[0]!.path!.lineName) {
+      // "along Silver River, 5 km upstream of Wexley": the line named before the offset it belongs to.
+      const offset: Offset = { ...next.reading.offsets[0]!, path: { ...next.reading.offsets[0]!.path!, lineName: reading.offsets[0].path.lineName } };
+      piece.reading = { ...next.reading, offsets: [offset] };
+      piece.clause = spanning(text, piece.clause, next.clause);
+      notes.push(`"${reading.offsets[0].path.written}" read as the line of the offset`);
+      pieces.splice(k + 1, 1);
     } else if (reading.bare === 'path' && previous?.reading && isOffsetType(previous.reading.type) && !previous.reading.bare && previous.reading.features.length > 0) {
       const offset: Offset = { ...previous.reading.offsets[0]!, path: previous.reading.offsets[0]!.path ?? reading.offsets[0]!.path! };
       previous.reading = { ...previous.reading, type: previous.reading.offsets.length === 2 ? 'offset-orthogonal' : 'offset-path', offsets: [offset, ...previous.reading.offsets.slice(1)] };
@@ -211,7 +218,11 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   }
   // Named places after an administrative chain continue it: "Country: State: County, 12 km S of X".
   pieces.forEach((piece, index) => {
-    if (index === best || piece.reading?.type !== 'named-place') return;
+    if (index === best || !piece.reading || piece.reading.type === 'habitat' || piece.reading.type === 'unparseable') return;
+    if (piece.reading.type !== 'named-place') {
+      result.notes.push(`also read: "${piece.clause.text}" as ${piece.reading.type} (not used for the point; check it agrees)`);
+      return;
+    }
     const field = chainLevel > 0 && index < best ? ADMINISTRATIVE_ORDER[chainLevel] : undefined;
     if (field && !result.administrative[field] && index === pieces.findIndex((p) => p.reading?.type === 'named-place')) {
       result.administrative[field] = piece.reading.features[0]!;

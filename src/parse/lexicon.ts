@@ -43,6 +43,9 @@ export const NEAR_PREFIXES = phrases(
 /** near / vicinity as suffixes after the feature ("X vicinity", "X y alrededores"). */
 export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs');
 
+/** "N side of X", "lado norte de X", "margem sul", "rive nord": a heading-only part of the feature. */
+export const SIDE_WORDS = set('side end part edge slope slopes flank bank shore lado extremo parte ladera flanco margen orilla margem encosta vertente banda cote rive versant flanc bout partie');
+
 /** Roads, trails and rivers, for path offsets ("by road", "por camino", "par la route", "along the river"). */
 export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ruta estrada rodovia caminho chemin br');
 export const TRAIL_NOUNS = set('trail track path sendero vereda trocha picada trilha senda sentier piste');

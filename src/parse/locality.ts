@@ -191,7 +191,8 @@ function twoNames(s: Source, from: number, to: number): [string, string] | null 
     const joins = L.CONJUNCTIONS.has(t.norm) && !(t.norm.length === 1 && t.kind === 'word' && t.text !== t.norm);
     if (joins || (t.norm === '/' && t.kind === 'symbol')) {
       const a = nameBetween(s, from, k);
-      const b = nameBetween(s, k + 1, to);
+      // "de la Liane et du Ruisseau Noir": the second name's own "du"/"del"/"do" is not part of it.
+      const b = nameBetween(s, L.FROM_WORDS.has(norm(s, k + 1) ?? '') && k + 2 < to ? k + 2 : k + 1, to);
       if (a && b) return [a, b];
     }
   }
@@ -347,6 +348,17 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
     return names ? reading('between', names, { approximate }) : unparseable('"between" without two places joined by "and"', approximate);
   }
 
+  if (L.SIDE_WORDS.has(norm(s, i) ?? '')) {
+    const sideHeading = readHeading(s, i + 1);
+    if (sideHeading) {
+      let k = sideHeading.next;
+      if (k === end) return { ...reading('heading-only', [], { offsets: [{ heading: sideHeading.heading }], approximate }), bare: 'offset' };
+      if (L.FROM_WORDS.has(norm(s, k) ?? '')) k++;
+      const place = placeAt(s, k, end);
+      if (place) return reading('heading-only', [place], { offsets: [{ heading: sideHeading.heading }], approximate });
+    }
+  }
+
   let lead = i;
   while (lead < i + 3 && L.JUNCTION_LEAD.has(norm(s, lead) ?? '')) lead++;
   if (L.JUNCTION_WORDS.has(norm(s, lead) ?? '')) {
@@ -358,6 +370,9 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
 
   const nearPrefix = matchPhrase(s, i, L.NEAR_PREFIXES);
   if (nearPrefix && s.tokens[i + nearPrefix]?.kind !== 'number') {
+    // "near the junction of X and Y": the junction is the feature; "near" is kept as a note.
+    const inner = readLocalityClause(text, tokens.slice(i + nearPrefix));
+    if (inner.type === 'junction') return { ...inner, approximate: approximate || inner.approximate, notes: [`written as "${s.text.slice(s.tokens[i]!.start, s.tokens[i + nearPrefix - 1]!.end)}" the junction`] };
     const place = placeAt(s, i + nearPrefix, end);
     const notes = norm(s, i) === 'cerca' ? ['"cerca de" before a place read as "near" (before a number it means "about")'] : [];
     return place ? reading('near', [place], { approximate, notes }) : unparseable('"near" without a place', approximate);
@@ -373,9 +388,11 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
   }
 
   const heading = readHeading(s, i);
-  if (heading && heading.next === end) return unparseable(`a heading ("${heading.heading.written}") with no place`, approximate);
   if (heading) {
     let k = heading.next;
+    // "N side of X", "lado norte de X", "rive nord"; alone ("X, N side") it joins the place before it.
+    if (L.SIDE_WORDS.has(norm(s, k) ?? '')) k++;
+    if (k === end) return { ...reading('heading-only', [], { offsets: [{ heading: heading.heading }], approximate }), bare: 'offset' };
     const introduced = L.FROM_WORDS.has(norm(s, k) ?? '');
     if (introduced) k++;
     const abbreviation = /^[NSEWOL]{1,3}\.?$/.test(heading.heading.written.replace(/\./g, ''));
