@@ -5,6 +5,7 @@
 import { parseCoordinates, parseLocality } from './parse/index.ts';
 import type { AdministrativeContext, Interpretation, LocalityType } from './parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './gazetteer/types.ts';
+import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 
@@ -40,10 +41,12 @@ export interface LocateResult {
 }
 
 /**
- * When a fuzzy match may stand alone [CHOICE]: its score must reach `minimumScore` and lead the next
- * candidate by `minimumLead`. Exact matches always win over fuzzy ones; two exact matches are ambiguous.
+ * How candidates are judged [CHOICE]. Below `plausibleScore` a candidate is only a near name (the
+ * feature counts as not found, the near names are listed). A fuzzy match may stand alone when its score
+ * reaches `minimumScore` and leads the next plausible candidate by `minimumLead`. Exact matches always
+ * win over fuzzy ones; two exact matches are ambiguous.
  */
-export const FUZZY_ACCEPTANCE = { minimumScore: 0.8, minimumLead: 0.1 } as const;
+export const FUZZY_ACCEPTANCE = { plausibleScore: 0.7, minimumScore: 0.8, minimumLead: 0.1 } as const;
 
 const LINES: GeometryType[] = ['LineString', 'MultiLineString'];
 const ADMINISTRATIVE_LEVELS = [
@@ -70,38 +73,56 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   }
 
   const candidates: Candidate[] = [];
-  const features: Feature[] = [];
+  /** For each name, the features it may mean: one when resolved, several only with coverAmbiguous. */
+  const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
-      return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context) };
+      return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) };
     }
     if (choice.kind === 'several') {
-      if (options.coverAmbiguous) return coverCandidates(interpretation, found, options, candidates);
-      const names = found.map(describeCandidate).join('; ');
-      return { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` };
+      const names = choice.candidates.map(describeCandidate).join('; ');
+      if (!options.coverAmbiguous) {
+        return { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` };
+      }
+      readings.push(choice.candidates.map((c) => c.feature));
+      matchRemarks.push(`"${name}" is ambiguous (${names}); every candidate covered, as asked`);
+      continue;
     }
-    features.push(choice.candidate.feature);
+    readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
 
   const pathLine = findPathLine(finder, interpretation, context);
   const boundingUnit = interpretation.type === 'heading-only' ? findBoundingUnit(finder, context) : undefined;
-  const outcome = georeference({ interpretation, features, pathLine, boundingUnit, options });
-  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates, reason: outcome.reason };
-  const georef = outcome.georeference;
+  const combinations = cartesian(readings);
+  if (combinations.length > MAX_COVERED_READINGS) {
+    return { status: 'ambiguous', interpretation, candidates, reason: `${combinations.length} combinations of candidates: too many to cover with one circle (at most ${MAX_COVERED_READINGS})` };
+  }
+  const outcomes = combinations.map((features) => georeference({ interpretation, features, pathLine, boundingUnit, options }));
+  const refused = outcomes.find((o) => !o.ok);
+  if (refused && !refused.ok) return { status: 'unparseable', interpretation, candidates, reason: refused.reason };
+  const georefs = outcomes.flatMap((o) => (o.ok ? [o.georeference] : []));
+  const georef = georefs.length === 1 ? georefs[0] : coverGeoreferences(georefs);
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, interpretation, candidates);
 }
 
-function fuzzyRemark(name: string, chosen: Candidate): string {
-  return `"${name}" is not in the gazetteer as written; taken as "${chosen.matchedName}" (${chosen.why}; score ${chosen.score.toFixed(2)}), the only close match: verify the name`;
+/** At most this many readings of an ambiguous text are covered by one circle [CHOICE]. */
+export const MAX_COVERED_READINGS = 50;
+
+function cartesian<T>(lists: T[][]): T[][] {
+  return lists.reduce<T[][]>((acc, list) => acc.flatMap((prefix) => list.map((item) => [...prefix, item])), [[]]);
 }
 
 function georeferenced(georef: Georeference, interpretation: Interpretation, candidates: Candidate[]): LocateResult {
   return { status: 'georeferenced', georeference: georef, components: georef.components, interpretation, candidates };
+}
+
+function fuzzyRemark(name: string, chosen: Candidate): string {
+  return `"${name}" is not in the gazetteer as written; taken as "${chosen.matchedName}" (${chosen.why}; score ${chosen.score.toFixed(2)}), the only close match: verify the name`;
 }
 
 /** The reading of the record: verbatim coordinates, when they can be read, are its most specific part. */
@@ -143,17 +164,18 @@ function featureQuery(name: string, context: AdministrativeContext, type: Locali
     : { name, context };
 }
 
-type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'several' };
+type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };
 
 /** Applies FUZZY_ACCEPTANCE: never a silent pick among equally good candidates. */
 function chooseCandidate(found: Candidate[]): Choice {
-  if (found.length === 0) return { kind: 'none' };
   const exact = found.filter((c) => c.score >= 1);
   if (exact.length === 1) return { kind: 'one', candidate: exact[0] };
-  if (exact.length > 1) return { kind: 'several' };
-  const [best, next] = [...found].sort((a, b) => b.score - a.score);
+  if (exact.length > 1) return { kind: 'several', candidates: exact };
+  const ranked = found.filter((c) => c.score >= FUZZY_ACCEPTANCE.plausibleScore).sort((a, b) => b.score - a.score);
+  if (ranked.length === 0) return { kind: 'none' };
+  const [best, next] = ranked;
   const leads = !next || best.score - next.score >= FUZZY_ACCEPTANCE.minimumLead;
-  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', candidate: best } : { kind: 'several' };
+  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', candidate: best } : { kind: 'several', candidates: ranked };
 }
 
 function findPathLine(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Feature | undefined {
@@ -195,25 +217,14 @@ function locateAdministrativeUnit(
   return georeferenced(outcome.georeference, asNamedPlace, []);
 }
 
-/** One circle over every candidate of an ambiguous name, asked for with `coverAmbiguous`. */
-function coverCandidates(interpretation: Interpretation, found: Candidate[], options: LocateOptions, candidates: Candidate[]): LocateResult {
-  const outcome = georeference({
-    interpretation: { ...interpretation, type: 'between', notes: [...interpretation.notes] },
-    features: found.map((c) => c.feature),
-    options,
-  });
-  if (!outcome.ok) return { status: 'ambiguous', interpretation, candidates, reason: outcome.reason };
-  const remarks = [`ambiguous name: one circle covers all ${found.length} candidates, as asked`, ...outcome.georeference.remarks];
-  return georeferenced({ ...outcome.georeference, remarks }, interpretation, candidates);
-}
-
 function describeCandidate(c: Candidate): string {
   const f = c.feature;
   const where = [f.county, f.stateProvince, f.countryCode].filter(Boolean).join(', ');
   return `${f.name} (${f.featureType ?? 'feature'}${where ? `, ${where}` : ''}; ${f.sourceId}:${f.featureId}; score ${c.score.toFixed(2)})`;
 }
 
-function notFoundReason(name: string, context: AdministrativeContext): string {
+function notFoundReason(name: string, context: AdministrativeContext, near: Candidate[]): string {
   const where = [context.county, context.stateProvince, context.country, context.countryCode].filter(Boolean).join(', ');
-  return `no feature named "${name}"${where ? ` in ${where}` : ''} in the loaded gazetteers`;
+  const nearNames = near.length ? `; nearest names: ${near.slice(0, 5).map(describeCandidate).join('; ')}` : '';
+  return `no feature named "${name}"${where ? ` in ${where}` : ''} in the loaded gazetteers${nearNames}`;
 }
