@@ -116,6 +116,7 @@ function interpret(text: string): Interpretation {
   if (coordinatesPiece && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
 
   joinBareClauses(text, pieces, result.notes);
+  if (found) result.coordinates = found.coordinates;
   return choose(pieces, result, chainLevel);
 }
 
@@ -205,10 +206,9 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   const chosen = pieces[best]!;
   result.chosenClause = best;
   if (chosen.clause.kind === 'coordinates') {
-    const found = findCoordinates(result.verbatim, tokenize(result.verbatim));
     result.type = 'coordinates';
-    result.coordinates = found!.coordinates;
   } else {
+    delete result.coordinates;
     const reading = chosen.reading!;
     result.type = reading.type as LocalityType;
     result.features = reading.features;

@@ -5,7 +5,17 @@
  */
 
 const set = (words: string): ReadonlySet<string> => new Set(words.split(' '));
-const phrases = (list: string): string[][] => list.split('|').map((p) => p.trim().split(' '));
+/** Phrases indexed by their first word, so that matching at a token looks at only the phrases it can start. */
+export type PhraseList = ReadonlyMap<string, ReadonlyArray<readonly string[]>>;
+function phrases(list: string): PhraseList {
+  const index = new Map<string, string[][]>();
+  for (const phrase of list.split('|').map((p) => p.trim().split(' '))) {
+    const bucket = index.get(phrase[0]!) ?? [];
+    bucket.push(phrase);
+    index.set(phrase[0]!, bucket);
+  }
+  return index;
+}
 
 /** "ca.", "about", "aprox.", "environ", "~": recorded as approximate, changing no number (method §3). */
 export const APPROXIMATION_WORDS = set('ca c circa about approx approximately apx around roughly some aprox aproximadamente apr unos unas uns umas cerca env environ ~ ±');

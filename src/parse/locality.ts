@@ -25,9 +25,10 @@ interface Source {
 const norm = (s: Source, i: number): string | undefined => s.tokens[i]?.norm;
 
 /** Length of the phrase of `list` that starts at i (longest first), or 0. */
-function matchPhrase(s: Source, i: number, list: readonly string[][]): number {
+function matchPhrase(s: Source, i: number, list: L.PhraseList): number {
+  const candidates = list.get(norm(s, i) ?? '');
   let best = 0;
-  for (const phrase of list) {
+  for (const phrase of candidates ?? []) {
     if (phrase.length > best && phrase.every((w, k) => norm(s, i + k) === w)) best = phrase.length;
   }
   return best;

@@ -28,10 +28,15 @@ const LONG_ABBREVIATIONS = new Set(['approx', 'aprox', 'depto', 'dept', 'mpio', 
 const isDigit = (c: string): boolean => c >= '0' && c <= '9';
 const LETTER = /\p{L}/u;
 const MARK = /\p{M}/u;
-const isLetter = (c: string | undefined): boolean => c !== undefined && LETTER.test(c);
+const WHITESPACE = /\s/;
+/** ASCII letters answered directly; other characters by their Unicode category. */
+const isLetter = (c: string | undefined): boolean =>
+  c !== undefined && ((c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c > '\u007f' && LETTER.test(c)));
 
 /** Lower case with accents (combining marks) removed. */
 export function fold(text: string): string {
+  // ASCII needs no decomposition.
+  if (/^[\x00-\x7f]*$/.test(text)) return text.toLowerCase();
   return text.normalize('NFD').replace(/\p{M}+/gu, '').toLowerCase();
 }
 
@@ -46,7 +51,7 @@ export function tokenize(text: string): Token[] {
   let space = true;
   while (i < text.length) {
     const c = text[i]!;
-    if (/\s/.test(c)) {
+    if (c === ' ' || ((c < '!' || c > '~') && WHITESPACE.test(c))) {
       space = true;
       i++;
       continue;
@@ -68,7 +73,7 @@ export function tokenize(text: string): Token[] {
       i++;
       tokens.push({ kind: 'number', text: c, norm: c, start, end: i, spaceBefore: space, decimals: '', fraction: VULGAR_FRACTIONS.get(c)! });
     } else if (isLetter(c)) {
-      while (i < text.length && (isLetter(text[i]) || MARK.test(text[i]!) || (text[i] === '-' && isLetter(text[i + 1])))) i++;
+      while (i < text.length && (isLetter(text[i]) || (text[i]! > '\u007f' && MARK.test(text[i]!)) || (text[i] === '-' && isLetter(text[i + 1])))) i++;
       // French elision: "d'", "l'", "qu'" stay one word so "au nord d'Aubrac" reads "d'" as "of".
       if ((text[i] === "'" || text[i] === '’') && isLetter(text[i + 1]) && /^(d|l|qu|j|s)$/i.test(text.slice(start, i))) i++;
       let word = text.slice(start, i);
