@@ -4,9 +4,8 @@
  * ~15 nm); distances between two other points are distorted by roughly (ρ/R)²/6 of their length at
  * distance ρ from the center (about 0.04 % at 100 km, 4 % at 1000 km), so callers solve near the center.
  */
-import geographiclib from 'geographiclib-geodesic';
+import { direct, inverse } from './geodesic.ts';
 
-const wgs84 = geographiclib.Geodesic.WGS84;
 const RADIANS = Math.PI / 180;
 
 export interface LocalProjection {
@@ -27,15 +26,15 @@ export function localProjection(centerLatitude: number, centerLongitude: number)
     centerLatitude,
     centerLongitude,
     forward(latitude, longitude) {
-      const result = wgs84.Inverse(centerLatitude, centerLongitude, latitude, longitude);
-      const azimuth = result.azi1! * RADIANS;
-      return [result.s12! * Math.sin(azimuth), result.s12! * Math.cos(azimuth)];
+      const result = inverse(centerLatitude, centerLongitude, latitude, longitude);
+      const azimuth = result.azimuth1 * RADIANS;
+      return [result.meters * Math.sin(azimuth), result.meters * Math.cos(azimuth)];
     },
     inverse(x, y) {
       const meters = Math.hypot(x, y);
       if (meters === 0) return [centerLatitude, normaliseLongitude(centerLongitude)];
-      const result = wgs84.Direct(centerLatitude, centerLongitude, Math.atan2(x, y) / RADIANS, meters);
-      return [result.lat2!, normaliseLongitude(result.lon2!)];
+      const result = direct(centerLatitude, centerLongitude, Math.atan2(x, y) / RADIANS, meters);
+      return [result.latitude, normaliseLongitude(result.longitude)];
     },
   };
 }

@@ -13,6 +13,10 @@ export function polygonsToWKT(polygons: Position[][][]): string {
   const parts: Position[][][] = [];
   for (const rings of polygons) {
     const longitudes = rings.flat().map((p) => p[0]!);
+    if (longitudes.every((lon) => lon >= -180 && lon <= 180)) {
+      parts.push(rings);
+      continue;
+    }
     const lowBand = Math.round(Math.min(...longitudes) / 360);
     const highBand = Math.round(Math.max(...longitudes) / 360);
     for (let band = lowBand; band <= highBand; band++) {
@@ -37,7 +41,7 @@ function hasWidth(ring: Position[]): boolean {
 }
 
 function format(value: number): string {
-  const rounded = Number(value.toFixed(7));
+  const rounded = Math.round(value * 1e7) / 1e7;
   return String(Object.is(rounded, -0) ? 0 : rounded);
 }
 

@@ -193,13 +193,28 @@ function solveInPlane(parts: PlaneParts): PlanePoint {
     const value = farthest(point);
     if (value < bestValue) [best, bestValue] = [point, value];
   }
-  // For any p, max distance ≥ sqrt(R² + |p − c|²) (the SEC's touching points surround c), so segments
-  // far from c can be skipped once a good point is known.
+  // Two lower bounds on the objective along a segment let most segments be skipped: for any p,
+  // max distance ≥ sqrt(R² + |p − c|²) (the SEC's touching points surround c), and, the objective being
+  // convex and 1-Lipschitz, its minimum on [a, b] ≥ (f(a) + f(b) − |ab|) / 2.
+  const atVertex = new Map<PlanePoint, number>();
+  const valueAt = (p: PlanePoint) => {
+    let value = atVertex.get(p);
+    if (value === undefined) atVertex.set(p, (value = farthest(p)));
+    return value;
+  };
   const ordered = parts.segments
-    .map((segment) => ({ segment, distance: distanceToSegment(center, segment[0], segment[1]) }))
-    .sort((a, b) => a.distance - b.distance);
-  for (const { segment, distance } of ordered) {
-    if (lowerBound(circle, distance) >= bestValue) break;
+    .map((segment) => {
+      const [a, b] = segment;
+      const fa = valueAt(a);
+      const fb = valueAt(b);
+      if (fa < bestValue) [best, bestValue] = [a, fa];
+      if (fb < bestValue) [best, bestValue] = [b, fb];
+      const lipschitz = (fa + fb - Math.hypot(b[0] - a[0], b[1] - a[1])) / 2;
+      return { segment, bound: Math.max(lowerBound(circle, distanceToSegment(center, a, b)), lipschitz) * (1 - 1e-12) };
+    })
+    .sort((x, y) => x.bound - y.bound);
+  for (const { segment, bound } of ordered) {
+    if (bound >= bestValue) break;
     const [point, value] = minimiseAlongSegment(segment, farthest);
     if (value < bestValue) [best, bestValue] = [point, value];
   }
@@ -207,7 +222,7 @@ function solveInPlane(parts: PlaneParts): PlanePoint {
 }
 
 function lowerBound(circle: PlaneCircle, distance: number): number {
-  return Math.sqrt(circle.radius ** 2 + distance ** 2) * (1 - 1e-12);
+  return Math.sqrt(circle.radius ** 2 + distance ** 2);
 }
 
 function liesOnFeature(p: PlanePoint, parts: PlaneParts, tolerance: number): boolean {

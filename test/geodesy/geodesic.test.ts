@@ -31,6 +31,26 @@ describe('geodesic inverse and direct on WGS84', () => {
     expect(inverse(0, 0, 90, 0).meters).toBeCloseTo(10001965.729, 2);
   });
 
+  // GeographicLib's own test values, as published in geographiclib-geodesic 2.2.0 test/geodesictest.js
+  // (Karney): the first GeodTest line and GeodSolve76 (Wellington–Salamanca) and GeodSolve78.
+  it('reproduces GeographicLib GeodTest line 1 (inverse and direct)', () => {
+    const result = inverse(35.60777, -139.44815, -11.17491, -69.95921);
+    expect(result.meters).toBeCloseTo(8935244.5604818305, 6);
+    expect(result.azimuth1).toBeCloseTo(111.098748429560326, 9);
+    expect(result.azimuth2).toBeCloseTo(129.289270889708762, 9);
+    const end = direct(35.60777, -139.44815, 111.098748429560326, 8935244.5604818305);
+    expect(end.latitude).toBeCloseTo(-11.17491, 9);
+    expect(end.longitude).toBeCloseTo(-69.95921, 9);
+  });
+  it('reproduces GeodSolve76 (Wellington–Salamanca) and GeodSolve78', () => {
+    const wellington = inverse(-(41 + 19 / 60), 174 + 49 / 60, 40 + 58 / 60, -(5 + 30 / 60));
+    expect(wellington.meters).toBeCloseTo(19960543.857179, 5);
+    expect(wellington.azimuth1).toBeCloseTo(160.39137649664, 10);
+    const nearlyAntipodal = inverse(27.2, 0, -27.1, 179.5);
+    expect(nearlyAntipodal.meters).toBeCloseTo(19974354.765767, 5);
+    expect(nearlyAntipodal.azimuth2).toBeCloseTo(134.2277653267, 10);
+  });
+
   it('equatorial degree is a·π/180 = 111 319.491 m (WGS84 a = 6 378 137 m, NIMA TR8350.2)', () => {
     expect(inverse(0, 0, 0, 1).meters).toBeCloseTo((6378137 * Math.PI) / 180, 3);
   });
