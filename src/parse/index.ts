@@ -122,6 +122,12 @@ function interpret(text: string): Interpretation {
 
 const isOffsetType = (type: ClauseReading['type']): boolean => SPECIFICITY[type as LocalityType] === 1 || type === 'distance-only';
 
+/** The reading without its `bare` mark, once it has been joined or judged on its own. */
+function standing(reading: ClauseReading): ClauseReading {
+  const { bare: _bare, ...rest } = reading;
+  return rest;
+}
+
 function spanning(text: string, a: Clause, b: Clause): Clause {
   return { text: text.slice(a.start, b.end), start: a.start, end: b.end, kind: 'locality' };
 }
@@ -138,8 +144,7 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
     const previous = pieces[k - 1];
     const next = pieces[k + 1];
     if (reading.bare === 'offset' && previous?.reading?.type === 'named-place' && !previous.reading.bare) {
-      previous.reading = { ...reading, features: previous.reading.features, bare: undefined as never, approximate: reading.approximate || previous.reading.approximate };
-      delete previous.reading.bare;
+      previous.reading = { ...standing(reading), features: previous.reading.features, approximate: reading.approximate || previous.reading.approximate };
       previous.clause = spanning(text, previous.clause, piece.clause);
       pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && next?.reading && isOffsetType(next.reading.type) && !next.reading.bare && reading.offsets.length === 1 && next.reading.offsets.length === 1) {
@@ -167,9 +172,10 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
   }
   for (const piece of pieces) {
     const reading = piece.reading;
-    if (reading?.bare === 'offset') piece.reading = { ...reading, type: 'unparseable', reason: `offset "${piece.clause.text}" with no place to measure it from`, bare: undefined as never };
-    else if (reading?.bare === 'path' && reading.type === 'offset-path') piece.reading = { ...reading, type: 'unparseable', reason: `path "${piece.clause.text}" with no distance or place`, bare: undefined as never };
-    if (piece.reading) delete piece.reading.bare;
+    if (!reading?.bare) continue;
+    if (reading.bare === 'offset') piece.reading = { ...standing(reading), type: 'unparseable', reason: `offset "${piece.clause.text}" with no place to measure it from` };
+    else if (reading.type === 'offset-path') piece.reading = { ...standing(reading), type: 'unparseable', reason: `path "${piece.clause.text}" with no distance or place` };
+    else piece.reading = standing(reading);
   }
 }
 

@@ -158,8 +158,7 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
     const onlyRoads = ['on', 'en', 'na', 'no', 'sur'].includes(preposition);
     if (!mode || (onlyRoads && mode === 'river')) return null;
     const end = lineEnd(s, k + 1, stopAtFrom);
-    const named = end > k + 1 && !onlyRoads ? nameBetween(s, k, end) : end > k + 1 ? nameBetween(s, k, end) : null;
-    return { path: pathOf(mode, written(end), named), next: end };
+    return { path: pathOf(mode, written(end), end > k + 1 ? nameBetween(s, k, end) : null), next: end };
   }
   return null;
 }
@@ -209,7 +208,11 @@ const hasDistance = (s: Source, from: number, to: number): boolean => {
 function hasNameWord(s: Source, from: number, to: number): boolean {
   for (let k = from; k < to; k++) {
     const t = s.tokens[k]!;
-    if (t.kind === 'word' && !L.SMALL_WORDS.has(t.norm) && (t.norm.length > 3 || directionLetters(t.norm) === null)) return true;
+    // A direction word counts as a name when written like one ("El Sur"), not as an abbreviation ("NNE").
+    const capitalised = t.text.length >= 3 && t.text[0] !== t.text[0]!.toLowerCase() && t.text.slice(1) !== t.text.slice(1).toUpperCase();
+    if (t.kind !== 'word') continue;
+    const direction = directionLetters(t.norm) !== null;
+    if ((!L.SMALL_WORDS.has(t.norm) && (t.norm.length > 3 || !direction)) || (capitalised && direction)) return true;
   }
   return false;
 }
@@ -396,7 +399,9 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
     if (k === end) return { ...reading('heading-only', [], { offsets: [{ heading: heading.heading }], approximate }), bare: 'offset' };
     const introduced = L.FROM_WORDS.has(norm(s, k) ?? '');
     if (introduced) k++;
-    const abbreviation = /^[NSEWOL]{1,3}\.?$/.test(heading.heading.written.replace(/\./g, ''));
+    // Without "of"/"de", only a capital abbreviation of two or three letters is a heading ("NE Vila Serena");
+    // "O Cruzeiro", "E Ashcombe" begin with an article or are names.
+    const abbreviation = /^[NSEWOL]{2,3}$/.test(heading.heading.written);
     if (introduced || (abbreviation && k < end)) {
       const place = placeAt(s, k, end);
       if (place) return reading('heading-only', [place], { offsets: [{ heading: heading.heading }], approximate });
