@@ -184,10 +184,14 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   result.approximate = pieces.some((p) => p.reading?.approximate);
   let best = -1;
   let bestRank = 9;
+  // After "Country: State:" a first named place followed by another one is the county ("…: Millbrook, Ashcombe").
+  const namedPlaces = pieces.filter((p) => p.reading?.type === 'named-place');
+  const countyLevel = chainLevel >= 2 && namedPlaces.length >= 2 ? namedPlaces[0] : undefined;
   pieces.forEach((piece, index) => {
-    const rank = piece.clause.kind === 'coordinates' ? 0 : piece.reading && piece.reading.type !== 'habitat' ? SPECIFICITY[piece.reading.type] : 9;
-    // Ties: the first offset; the last named place (labels run from general to specific).
-    if (rank < bestRank || (rank === bestRank && rank === SPECIFICITY['named-place'])) {
+    const rank = piece.clause.kind === 'coordinates' ? 0 : piece.reading && piece.reading.type !== 'habitat' && piece !== countyLevel ? SPECIFICITY[piece.reading.type] : 9;
+    // Ties go to the first clause: an offset before a second one, and a place before the larger units
+    // written after it ("Puerto Lindo, Costa Verde"); the others are listed in the notes.
+    if (rank < bestRank) {
       best = index;
       bestRank = rank;
     }

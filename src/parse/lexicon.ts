@@ -116,8 +116,8 @@ export const SMALL_WORDS = set("of the a an and in on at with de del la el los l
 
 /** Words that mark each language (counted to set `language`). */
 export const LANGUAGE_MARKERS: Readonly<Record<'en' | 'es' | 'pt' | 'fr', ReadonlySet<string>>> = {
-  en: set('of from the and near road river mi miles north south east west between junction upstream downstream along by on ft feet vicinity outskirts unknown locality trail creek bridge'),
+  en: set('of from the and near road river mi miles north south east west between junction upstream downstream along by on ft feet vicinity outskirts unknown locality trail creek bridge data'),
   es: set('del al y cerca camino carretera norte sur este oeste millas leguas arriba abajo localidad sin desde hacia confluencia cruce noreste sureste suroeste noroeste alrededores afueras pies msnm por la el los las aprox quebrada arroyo ruta'),
   pt: set('ao da do dos das e perto estrada leste sul norte oeste milhas leguas acima abaixo localidade sem pela pelo nordeste sudeste sudoeste noroeste rodovia fazenda arredores entroncamento proximo o os na no corrego ribeirao'),
-  fr: set("du au aux et pres route riviere nord sud est ouest lieues amont aval localite sans par le les environ environs chemin piste l' d' des vers carrefour sentier ruisseau"),
+  fr: set("la du au aux et pres route riviere nord sud est ouest lieues amont aval localite sans par le les environ environs chemin piste l' d' des vers carrefour sentier ruisseau"),
 };

@@ -18,8 +18,10 @@ export function powerOfTen(k: number): number {
   return Number(`1e${k}`);
 }
 
-/** Words that join the two ends of a range ("5 a 8 km", "5 to 8 km", "5 à 8 km"). */
-const RANGE_JOINERS = new Set(['-', '–', '—', 'to', 'a', 'ate', 'au', 'or', 'ou', 'o']);
+/** Words that join the two ends of a range ("5 a 8 km", "5 to 8 km", "5 à 8 km", "entre 5 y 8 km"). */
+const RANGE_JOINERS = new Set(['-', '–', '—', 'to', 'a', 'ate', 'au', 'or', 'ou', 'o', 'and', 'y', 'e', 'et']);
+/** "between 5 and 8 km", "entre 5 y 8 km": a range may open with this word. */
+const RANGE_OPENERS = new Set(['between', 'entre']);
 
 interface Single {
   value: number;
@@ -82,6 +84,10 @@ function readSingle(tokens: Token[], i: number): Single | null {
  * (method §5.1). Returns null when no number starts there. Exact: precision comes from the digits as written.
  */
 export function readNumberAt(tokens: Token[], i: number): WrittenNumber | null {
+  if (tokens[i]?.kind === 'word' && RANGE_OPENERS.has(tokens[i]!.norm) && tokens[i + 1]?.kind === 'number') {
+    const range = readNumberAt(tokens, i + 1);
+    return range?.range ? range : null;
+  }
   const low = readSingle(tokens, i);
   if (!low) return null;
   const joiner = tokens[low.next];
