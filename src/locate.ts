@@ -54,6 +54,7 @@ const ADMINISTRATIVE_LEVELS = [
   { field: 'stateProvince', featureType: 'stateProvince' },
   { field: 'country', featureType: 'country' },
 ] as const;
+type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
 
 /**
  * Georeference one locality.
@@ -97,7 +98,8 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   }
 
   const pathLine = findPathLine(finder, interpretation, context);
-  const boundingUnit = interpretation.type === 'heading-only' ? findBoundingUnit(finder, context) : undefined;
+  // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
+  const boundingUnit = findBoundingUnit(finder, context, interpretation.type === 'heading-only' ? 'country' : 'stateProvince');
   const combinations = cartesian(readings);
   if (combinations.length > MAX_COVERED_READINGS) {
     return { status: 'ambiguous', interpretation, candidates, reason: `${combinations.length} combinations of candidates: too many to cover with one circle (at most ${MAX_COVERED_READINGS})` };
@@ -185,13 +187,19 @@ function findPathLine(finder: CandidateFinder, interpretation: Interpretation, c
   return choice.kind === 'one' ? choice.candidate.feature : undefined;
 }
 
-/** The most specific administrative unit the record names, with its polygon, if the gazetteer has it. */
-function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContext): Feature | undefined {
-  for (const level of ADMINISTRATIVE_LEVELS) {
+/**
+ * The most specific administrative unit the record names, down to `widest`, when the gazetteer holds it
+ * under exactly that name (a fuzzy match would clip to the wrong unit).
+ */
+function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContext, widest: AdministrativeLevel): Feature | undefined {
+  const levels = ADMINISTRATIVE_LEVELS.slice(0, ADMINISTRATIVE_LEVELS.findIndex((l) => l.field === widest) + 1);
+  for (const level of levels) {
     const name = context[level.field];
     if (!name) continue;
-    const choice = chooseCandidate(finder.findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true }));
-    if (choice.kind === 'one') return choice.candidate.feature;
+    const exact = finder
+      .findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true })
+      .filter((c) => c.score >= 1);
+    if (exact.length === 1) return exact[0].feature;
   }
   return undefined;
 }
@@ -202,7 +210,7 @@ function locateAdministrativeUnit(
   context: AdministrativeContext,
   options: LocateOptions,
 ): LocateResult {
-  const unit = findBoundingUnit(finder, context);
+  const unit = findBoundingUnit(finder, context, 'country');
   if (!unit) {
     return { status: 'unparseable', interpretation, candidates: [], reason: `${interpretation.reason ?? 'the text names no place'}; no administrative unit of the record was found in the gazetteer` };
   }
