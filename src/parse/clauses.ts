@@ -72,7 +72,10 @@ export function readElevation(text: string, tokens: Token[], from: number, to: n
   k++;
   for (; k < to; k++) {
     if (tokens[k]!.kind === 'symbol') continue;
-    if (!L.SEA_LEVEL_WORDS.has(tokens[k]!.norm) && !L.ELEVATION_WORDS.has(tokens[k]!.norm)) return null;
+    const t = tokens[k]!;
+    // One-letter pieces count only as dotted abbreviations ("a.s.l.", "s.n.m."): "500 m N" is an offset.
+    if (t.norm.length === 1 && !t.dotted) return null;
+    if (!L.SEA_LEVEL_WORDS.has(t.norm) && !L.ELEVATION_WORDS.has(t.norm)) return null;
     marked = true;
   }
   const alone = to - from <= 3;

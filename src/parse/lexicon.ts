@@ -17,8 +17,14 @@ function phrases(list: string): PhraseList {
   return index;
 }
 
-/** "ca.", "about", "aprox.", "environ", "~": recorded as approximate, changing no number (method §3). */
+/**
+ * "ca.", "about", "aprox.", "environ", "~" before a number: recorded as approximate, changing no number (method §3).
+ * "cerca de" is "about" before a number and "near" before a place [CHOICE: decided by what follows].
+ */
 export const APPROXIMATION_WORDS = set('ca c circa about approx approximately apx around roughly some aprox aproximadamente apr unos unas uns umas cerca env environ ~ ±');
+
+/** Approximation words that may also stand before a bare place name ("ca. Ashcombe", "~Vaubrun"). */
+export const APPROXIMATE_BEFORE_PLACE = set('ca c circa approx approximately aprox aproximadamente ~');
 
 /** Prepositions that may stand before a leading distance: "a 5 km de X", "à 5 km au sud de X", "at 5 km". */
 export const LEADING_PREPOSITIONS = set('a at');
@@ -45,7 +51,7 @@ export const JUNCTION_LEAD = set('at the en la el na no a au al');
 
 /** near / vicinity / outskirts, as prefixes before the feature. "cerca de" + a number is an approximation instead. */
 export const NEAR_PREFIXES = phrases(
-  "in the vicinity of | on the outskirts of | vicinity of | outskirts of | environs of | near to | close to | just outside | outside of | near | nr | vic | vicinity | outside | " +
+  "in the vicinity of | on the outskirts of | vicinity of | outskirts of | environs of | near to | close to | just outside | outside of | near | nr | vic | vicinity | outside | around | " +
     "en los alrededores de | en las afueras de | en las inmediaciones de | alrededores de | inmediaciones de | afueras de | cerca de | cerca del | proximo a | proximo al | junto a | prox a | " +
     "nos arredores de | nas proximidades de | arredores de | proximidades de | perto de | perto da | perto do | proximo de | proximo da | proximo do | periferia de | " +
     "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de",

@@ -43,24 +43,20 @@ function nameBetween(s: Source, from: number, to: number): string | null {
   return name === '' ? null : name;
 }
 
-/** Skips approximation words at i ("ca.", "about", "aprox.", "~"; "cerca de" only before a number). */
+/**
+ * Skips approximation words before a number ("ca. 5 km", "about 5 mi", "aprox. 3 km", "cerca de 5 km", "~5 km").
+ * Before anything else they are left alone ("around X" is near; "cerca de X" is near, method §3 note in lexicon).
+ */
 function skipApproximation(s: Source, i: number): { next: number; approximate: boolean } {
   let next = i;
   for (let guard = 0; guard < 4; guard++) {
     const t = s.tokens[next];
-    if (!t) break;
-    if (t.norm === 'cerca' || t.norm === 'c') {
-      const after = norm(s, next + 1) === 'de' ? next + 2 : next + 1;
-      if (s.tokens[after]?.kind === 'number' && (t.norm === 'cerca' || t.dotted)) {
-        next = after;
-        continue;
-      }
-      break;
-    }
-    if (L.APPROXIMATION_WORDS.has(t.norm) && (t.kind === 'symbol' || t.norm !== 'ca' || t.dotted || s.tokens[next + 1]?.kind === 'number')) next++;
+    if (!t || t.kind === 'number') break;
+    if (t.norm === 'cerca' && norm(s, next + 1) === 'de') next += 2;
+    else if (L.APPROXIMATION_WORDS.has(t.norm) && (t.norm !== 'c' || t.dotted)) next++;
     else break;
   }
-  return { next, approximate: next > i };
+  return s.tokens[next]?.kind === 'number' && next > i ? { next, approximate: true } : { next: i, approximate: false };
 }
 
 const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'marinos']);
@@ -421,7 +417,11 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
 
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
   if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
-  if (tokens[i]!.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[i]!.text}"`, approximate);
-  const place = placeAt(s, i, end);
+  // "ca. Ashcombe": the approximation is recorded and changes nothing (method §3).
+  let placeStart = i;
+  while (placeStart < end - 1 && L.APPROXIMATE_BEFORE_PLACE.has(norm(s, placeStart)!) && (s.tokens[placeStart]!.dotted || s.tokens[placeStart]!.kind === 'symbol' || norm(s, placeStart)!.length > 3)) placeStart++;
+  approximate ||= placeStart > i;
+  if (tokens[placeStart]!.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[placeStart]!.text}"`, approximate);
+  const place = placeAt(s, placeStart, end);
   return place ? reading('named-place', [place], { approximate }) : unparseable('no place name could be read', approximate);
 }
