@@ -68,8 +68,11 @@ export function startBatch({ form, progress, progressText, review, list, recordP
     fill(select, el('option', { value: '' }, 'any'), values.map((v) => el('option', { value: v, selected: v === keep }, v)));
   }
 
+  let listRequest = 0;
   async function refreshList(first = false) {
+    const asked = ++listRequest;
     const answer = await getJson(`/api/v1/batches/${jobId}/records?${filterQuery()}`);
+    if (asked !== listRequest) return; // a newer filter has been asked for meanwhile
     setOptions(filters.status, answer.facets.status);
     setOptions(filters.flag, answer.facets.flag);
     setOptions(filters.localityType, answer.facets.localityType);

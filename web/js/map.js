@@ -105,9 +105,15 @@ export async function createMap(container) {
 
   const result = L.featureGroup().addTo(map);
 
+  let shown = 0;
+
+  /** Draws one answer; when answers arrive faster than shapes load, only the latest is drawn. */
   async function show(answer) {
-    result.clearLayers();
+    const generation = ++shown;
     const g = answer.georeference;
+    const shapes = await Promise.all((g?.features ?? []).map((f) => fetchFeature(f.sourceId, f.featureId).catch(() => undefined)));
+    if (generation !== shown) return;
+    result.clearLayers();
     for (const c of answer.candidates ?? []) {
       const used = g?.features?.some((f) => f.sourceId === c.feature.sourceId && f.featureId === c.feature.featureId);
       if (used) continue;
@@ -115,8 +121,7 @@ export async function createMap(container) {
         .bindTooltip(nameTooltip(`${c.feature.name} (candidate, score ${c.score.toFixed(2)})`), { className: 'wa-tip' })
         .addTo(result);
     }
-    for (const used of g?.features ?? []) {
-      const shape = await fetchFeature(used.sourceId, used.featureId).catch(() => undefined);
+    for (const shape of shapes) {
       if (!shape) continue;
       const name = shape.properties.name;
       if (shape.geometry.type === 'Point') {
@@ -128,27 +133,26 @@ export async function createMap(container) {
           .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
       }
     }
-    if (g) {
-      if (answer.footprint) {
-        L.geoJSON(answer.footprint, { interactive: false, style: { color: PALETTE.circle, weight: 1, fillColor: PALETTE.circle, fillOpacity: 0.18, className: 'wa-footprint' } }).addTo(result);
-      }
-      const radius = Number(answer.darwinCore.coordinateUncertaintyInMeters) || g.uncertaintyMeters;
-      const circle = L.circle([g.latitude, g.longitude], { radius, color: PALETTE.circle, weight: 2.5, dashArray: '8 5', fill: false, className: 'wa-circle', interactive: false }).addTo(result);
-      L.circleMarker([g.latitude, g.longitude], { radius: 6, color: '#fff', weight: 2, fillColor: PALETTE.point, fillOpacity: 1, className: 'wa-point' })
-        .bindTooltip(nameTooltip(`proposed point ${answer.darwinCore.decimalLatitude}, ${answer.darwinCore.decimalLongitude}`), { className: 'wa-tip' })
-        .addTo(result);
-      container.dataset.circleRadius = String(radius);
-      container.dataset.pointLatitude = String(g.latitude);
-      container.dataset.pointLongitude = String(g.longitude);
-      if (answer.recordPoint) {
-        L.circleMarker([answer.recordPoint.latitude, answer.recordPoint.longitude], { radius: 5, color: PALETTE.record, weight: 2, fillColor: '#fff', fillOpacity: 1, className: 'wa-record' })
-          .bindTooltip(nameTooltip("the record's own coordinates"), { className: 'wa-tip' }).addTo(result);
-      }
-      map.fitBounds(circle.getBounds().pad(0.35), { maxZoom: 14 });
-    } else {
+    if (!g) {
       delete container.dataset.circleRadius;
-      if (result.getLayers().length) map.fitBounds(result.getBounds().pad(0.3), { maxZoom: 12 });
+      if (result.getLayers().length) map.fitBounds(result.getBounds().pad(0.3), { maxZoom: 12, animate: false });
+      return;
     }
+    if (answer.footprint) {
+      L.geoJSON(answer.footprint, { interactive: false, style: { color: PALETTE.circle, weight: 1, fillColor: PALETTE.circle, fillOpacity: 0.18, className: 'wa-footprint' } }).addTo(result);
+    }
+    const radius = Number(answer.darwinCore.coordinateUncertaintyInMeters) || g.uncertaintyMeters;
+    const circle = L.circle([g.latitude, g.longitude], { radius, color: PALETTE.circle, weight: 2.5, dashArray: '8 5', fill: false, className: 'wa-circle', interactive: false }).addTo(result);
+    L.circleMarker([g.latitude, g.longitude], { radius: 6, color: '#fff', weight: 2, fillColor: PALETTE.point, fillOpacity: 1, className: 'wa-point' })
+      .bindTooltip(nameTooltip(`proposed point ${answer.darwinCore.decimalLatitude}, ${answer.darwinCore.decimalLongitude}`), { className: 'wa-tip' })
+      .addTo(result);
+    container.dataset.circleRadius = String(radius);
+    if (answer.recordPoint) {
+      L.circleMarker([answer.recordPoint.latitude, answer.recordPoint.longitude], { radius: 5, color: PALETTE.record, weight: 2, fillColor: '#fff', fillOpacity: 1, className: 'wa-record' })
+        .bindTooltip(nameTooltip("the record's own coordinates"), { className: 'wa-tip' }).addTo(result);
+    }
+    // Wide enough to show the surroundings: the circle takes about the middle third of the map.
+    map.fitBounds(circle.getBounds().pad(1), { maxZoom: 14, animate: false });
   }
 
   return { map, show, clear: () => result.clearLayers() };

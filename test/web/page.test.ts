@@ -1,0 +1,151 @@
+/**
+ * The page in a real browser (Debian's chromium through playwright-core), against a real server on
+ * 127.0.0.1 over a real SQLite gazetteer. Screenshots of the main screens go to test/artifacts/.
+ */
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
+
+const ARTIFACTS = new URL('../artifacts/', import.meta.url).pathname;
+// Names with markup, as a gazetteer exported from an old system might hold them; both share an alternate name.
+const HOSTILE_NAMES = ['<script>window.__pwned = 1</script>Punta', '<img src=x onerror="window.__pwned = 2">Punta'];
+const hostileFeature = (name: string, i: number) => ({
+  type: 'Feature',
+  geometry: { type: 'Point', coordinates: [-131.2 + i * 0.05, -45.6] },
+  properties: { id: `x-${i}`, name, alternateNames: 'Punta Falsa', featureType: 'cape', countryCode: 'QV', stateProvince: 'Poniente', radiusMeters: 500 },
+});
+
+let db: TempDatabase;
+let server: RunningServer;
+let context: BrowserContext;
+let page: Page;
+let profile: string;
+const cspViolations: string[] = [];
+
+beforeAll(async () => {
+  mkdirSync(ARTIFACTS, { recursive: true });
+  db = await demoDatabase(HOSTILE_NAMES.map(hostileFeature));
+  server = await listen({ dbPath: db.dbPath, rateLimit: false });
+  profile = mkdtempSync(join(tmpdir(), 'whereabouts-chromium-'));
+  context = await chromium.launchPersistentContext(profile, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    acceptDownloads: true,
+    viewport: { width: 1440, height: 900 },
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+  page = context.pages()[0] ?? (await context.newPage());
+  page.on('console', (message) => {
+    if (/Content Security Policy/i.test(message.text())) cspViolations.push(message.text());
+  });
+  // The page must need nothing but this server: any other request fails the run.
+  await context.route((url) => !url.href.startsWith(server.url), (route) => route.abort());
+  await page.goto(server.url);
+  await page.waitForSelector('body[data-ready="true"]');
+});
+
+afterAll(async () => {
+  await context?.close();
+  await server?.close();
+  db?.remove();
+  if (profile) rmSync(profile, { recursive: true, force: true });
+});
+
+async function lookUp(locality: string, countryCode = 'QV') {
+  await page.click('#tab-lookup');
+  await page.fill('#f-locality', locality);
+  await page.fill('#f-countryCode', countryCode);
+  await page.click('#lookup-submit');
+  await page.waitForSelector('#h-summary');
+}
+
+describe('lookup', () => {
+  it('shows the right point and radius, and the map draws the circle', async () => {
+    await lookUp('10 km NE of Puerto Lindo');
+    const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' })).json;
+    expect(await page.textContent('#result-latitude')).toBe(api.darwinCore.decimalLatitude);
+    expect(await page.textContent('#result-longitude')).toBe(api.darwinCore.decimalLongitude);
+    expect(await page.textContent('#result-radius')).toBe(api.darwinCore.coordinateUncertaintyInMeters);
+    await page.waitForSelector('#lookup-map path.wa-circle');
+    expect(await page.getAttribute('#lookup-map', 'data-circle-radius')).toBe(api.darwinCore.coordinateUncertaintyInMeters);
+    expect(await page.locator('#lookup-map path.wa-point').count()).toBe(1);
+    expect(await page.locator('#budget-table tfoot').textContent()).toContain('Total');
+    expect(await page.locator('#lookup-map .leaflet-control-scale-line').count()).toBe(1);
+    await page.mouse.move(1100, 450);
+    expect(await page.textContent('.wa-cursor')).toMatch(/\d+\.\d{5}° [NS] {2}\d+\.\d{5}° [EW]/);
+    await page.screenshot({ path: join(ARTIFACTS, 'lookup.png') });
+  });
+
+  it('changes the result when another candidate is chosen', async () => {
+    await lookUp('Santa Rosa');
+    expect(await page.textContent('#h-summary')).toContain('ambiguous');
+    await page.screenshot({ path: join(ARTIFACTS, 'lookup-ambiguous.png') });
+    await page.click('label[for="cand-0"]');
+    await page.waitForSelector('#result-latitude');
+    const first = await page.textContent('#result-latitude');
+    await page.click('label[for="cand-1"]');
+    await page.waitForFunction((before) => document.querySelector('#result-latitude')?.textContent !== before, first);
+    const second = await page.textContent('#result-latitude');
+    expect(second).not.toBe(first);
+    await page.waitForSelector('#lookup-map path.wa-circle');
+    await page.screenshot({ path: join(ARTIFACTS, 'lookup-candidate.png') });
+  });
+
+  it('recomputes when the distance precision is edited', async () => {
+    await lookUp('10 km NE of Puerto Lindo');
+    const before = Number(await page.textContent('#result-radius'));
+    await page.fill('#e-precision', '10');
+    await page.press('#e-precision', 'Enter');
+    await page.dispatchEvent('#e-precision', 'change');
+    await page.waitForFunction((r) => Number(document.querySelector('#result-radius')?.textContent) > r, before);
+    expect(await page.inputValue('#e-precision')).toBe('10');
+  });
+
+  it('renders gazetteer names that contain markup as text', async () => {
+    await lookUp('Punta Falsa');
+    const text = await page.textContent('#lookup-result');
+    for (const name of HOSTILE_NAMES) expect(text).toContain(name);
+    expect(await page.locator('#lookup-result img, #lookup-result script').count()).toBe(0);
+    expect(await page.evaluate(() => (window as unknown as { __pwned?: number }).__pwned)).toBeUndefined();
+    await page.screenshot({ path: join(ARTIFACTS, 'lookup-markup-as-text.png') });
+  });
+
+  it('meets its own content security policy', () => {
+    expect(cspViolations).toEqual([]);
+  });
+});
+
+describe('batch review', () => {
+  it('uploads the demo file, completes, accepts a record by keyboard and downloads it with the new status', async () => {
+    await page.click('#tab-batch');
+    await page.fill('#b-reviewer', 'R. Viewer');
+    await page.setInputFiles('#b-file', DEMO_LOCALITIES);
+    await page.click('#batch-submit');
+    await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
+    expect(await page.textContent('#batch-progress-text')).toMatch(/done: 53 rows/);
+    await page.screenshot({ path: join(ARTIFACTS, 'batch-progress.png') });
+    await page.selectOption('#r-status', 'requires verification');
+    await page.waitForFunction(() => document.querySelectorAll('#review-list tbody tr').length > 0 && [...document.querySelectorAll('#review-list tbody tr td:nth-child(3)')].every((td) => td.textContent?.startsWith('requires verification')));
+    const row = await page.textContent('#review-list tbody tr.current td:first-child');
+    await page.waitForSelector('#review-map path.wa-circle');
+    const pending = await page.locator('#review-list tbody tr').count();
+    await page.focus('#review-record');
+    await page.keyboard.press('a');
+    // Accepted, the record leaves the "requires verification" filter.
+    await page.waitForFunction((n) => document.querySelectorAll('#review-list tbody tr').length === n - 1, pending);
+    await page.selectOption('#r-status', 'verified by data custodian');
+    await page.waitForSelector('#review-list tbody tr.accepted');
+    await page.waitForSelector('#review-map path.wa-circle');
+    await page.screenshot({ path: join(ARTIFACTS, 'batch-review.png') });
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.click('#batch-download')]);
+    const rows = parse(readFileSync((await download.path())!), { columns: true }) as Record<string, string>[];
+    const reviewed = rows[Number(row) - 1];
+    expect(reviewed.georeferenceVerificationStatus).toBe('verified by data custodian');
+    expect(reviewed.georeferenceRemarks).toMatch(/verified by R\. Viewer/);
+  });
+});
