@@ -39,7 +39,9 @@ export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | ru
 export const HEADING_PREFIXES = phrases("a la | a l' | al | ao | au | a | to the | l'");
 
 /** "between X and Y" */
+/** "between X and Y", "entre X y Y", "entre X e Y", "entre X et Y"; also opens a range ("entre 5 y 8 km"). */
 export const BETWEEN_WORDS = set('between betw btw entre');
+/** Words joining two names (between, junction) or two orthogonal offsets. */
 export const CONJUNCTIONS = set('and & y e et with con com avec x');
 
 /** Junction, confluence, crossing of two named lines. */
@@ -63,8 +65,11 @@ export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | outskirts 
 export const SIDE_WORDS = set('side end part edge slope slopes flank bank shore lado extremo parte ladera flanco margen orilla margem encosta vertente banda cote rive versant flanc bout partie');
 
 /** Roads, trails and rivers, for path offsets ("by road", "por camino", "par la route", "along the river"). */
+/** Nouns of roads: a path offset in mode 'road'. */
 export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ruta estrada rodovia caminho chemin br');
+/** Nouns of trails and tracks: mode 'trail'. */
 export const TRAIL_NOUNS = set('trail track path sendero vereda trocha picada trilha senda sentier piste');
+/** Nouns of rivers and of travel by water: mode 'river'. */
 export const RIVER_NOUNS = set('river r rio stream creek arroyo quebrada riviere ruisseau fleuve ribeirao corrego igarape boat canoe water');
 
 /** Articles that may stand between a path preposition and its noun ("por el camino", "pela a", "par la route"). */
@@ -73,6 +78,7 @@ export const PATH_ARTICLES = set("the el la los las o a le les l'");
 export const PATH_PREPOSITIONS = set('by via por pela pelo par on en na no sur');
 /** "along X", "siguiendo X", "le long de X", "ao longo do X", "a lo largo de X". */
 export const ALONG_PHRASES = phrases('along the | along | following | siguiendo | seguindo | a lo largo de | a lo largo del | ao longo de | ao longo do | ao longo da | le long de | le long du');
+/** Upstream and downstream in four languages: modes 'upstream' and 'downstream'. */
 export const UPSTREAM_PHRASES = phrases('upstream | upriver | up river | up stream | rio arriba | aguas arriba | rio acima | aguas acima | en amont | amont');
 export const DOWNSTREAM_PHRASES = phrases('downstream | downriver | down river | down stream | rio abajo | aguas abajo | rio abaixo | aguas abaixo | en aval | aval');
 /** "by air" and its equivalents. */
@@ -81,7 +87,8 @@ export const BY_AIR_PHRASES = phrases("by air | air | airline | straight line | 
 export const ROAD_TOWARD_WORDS = set('to a al para pour vers hacia rumo de');
 
 /** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.". */
-export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura alt elevacion elevacao');
+export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao');
+/** Units of an elevation clause, converted to meters (international foot, 1959). */
 export const ELEVATION_UNITS: ReadonlyMap<string, 'm' | 'ft'> = new Map([
   ...[...set('m mt mts meters metres metros metres msnm masl msm')].map((w) => [w, 'm'] as [string, 'm']),
   ...[...set('ft feet pies pes pieds')].map((w) => [w, 'ft'] as [string, 'ft']),

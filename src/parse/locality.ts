@@ -62,7 +62,7 @@ function skipApproximation(s: Source, i: number): { next: number; approximate: b
 const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'marinos']);
 
 /** Reads a distance (number or range + unit) at i, with precision from the number as written (method §5.1). */
-export function readDistanceAt(s: Source, i: number): { distance: WrittenDistance; next: number } | null {
+function readDistanceAt(s: Source, i: number): { distance: WrittenDistance; next: number } | null {
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
   const unitToken = s.tokens[number.next];
@@ -316,7 +316,7 @@ function typeOf(offsets: Offset[]): LocalityType {
 }
 
 /** True when every word of tokens [from, to) is a habitat or small word (and there is at least one habitat word). */
-export function isHabitat(tokens: Token[], from = 0, to = tokens.length): boolean {
+function isHabitat(tokens: Token[], from = 0, to = tokens.length): boolean {
   let habitat = false;
   for (let k = from; k < to; k++) {
     const t = tokens[k]!;
