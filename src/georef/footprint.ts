@@ -3,6 +3,7 @@ import type { Geometry, MultiPolygon, Polygon, Position } from 'geojson';
 import { featureCollection, intersect, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
+import { unwrapGeometry } from '../geodesy/unwrap.ts';
 import { polygonsToWKT } from '../geodesy/wkt.ts';
 import { featureExtent, type FeatureExtent } from './feature-extent.ts';
 import { METHOD_DEFAULTS } from './method-defaults.ts';
@@ -90,9 +91,10 @@ export interface ClippedShape extends FeatureExtent {
  * lon/lat; for rings with edges of a few km this is within meters of the geodesic shapes).
  */
 export function clipRingToUnit(ring: Position[], referenceLongitude: number, unitGeometry: Geometry): ClippedShape | undefined {
-  const unit = unwrapAround(unitGeometry, referenceLongitude);
-  if (!unit) return undefined;
-  const clipped = intersect(featureCollection<Polygon | MultiPolygon>([turfPolygon([ring]), unit]));
+  if (unitGeometry.type !== 'Polygon' && unitGeometry.type !== 'MultiPolygon') return undefined;
+  const unit = unwrapGeometry(unitGeometry, referenceLongitude);
+  const unitFeature = unit.type === 'Polygon' ? turfPolygon(unit.coordinates) : turfMultiPolygon(unit.coordinates);
+  const clipped = intersect(featureCollection<Polygon | MultiPolygon>([turfPolygon([ring]), unitFeature]));
   if (!clipped) return undefined;
   const geometry = clipped.geometry;
   const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
@@ -110,12 +112,4 @@ export function clipCircleToUnit(
   segments: number = METHOD_DEFAULTS.footprintSegments,
 ): ClippedShape | undefined {
   return clipRingToUnit(circleRing(circle.latitude, circle.longitude, circle.radiusMeters, segments), circle.longitude, unitGeometry);
-}
-
-/** The unit's polygons with every longitude within ±180° of the reference, as a turf feature. */
-function unwrapAround(geometry: Geometry, referenceLongitude: number) {
-  const shift = (p: Position): Position => [referenceLongitude + normaliseLongitude(p[0]! - referenceLongitude), p[1]!];
-  if (geometry.type === 'Polygon') return turfPolygon(geometry.coordinates.map((ring) => ring.map(shift)));
-  if (geometry.type === 'MultiPolygon') return turfMultiPolygon(geometry.coordinates.map((rings) => rings.map((ring) => ring.map(shift))));
-  return undefined;
 }

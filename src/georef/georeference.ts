@@ -8,6 +8,7 @@ import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
 import { datumFromName, toWgs84 } from '../geodesy/datums.ts';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
+import { unwrapGeometry } from '../geodesy/unwrap.ts';
 import { lineIntersect } from '@turf/turf';
 import { enclosingCircle } from './feature-extent.ts';
 import { circleWKT, clipCircleToUnit, clipRingToUnit, sectorRing } from './footprint.ts';
@@ -298,8 +299,8 @@ function placeNear(input: GeoreferenceInput, settings: Settings): Placement {
 function placeJunction(input: GeoreferenceInput, settings: Settings): Placement {
   const [a, b] = [featureAt(input, 0), featureAt(input, 1)];
   const lines = [a, b].map((f) =>
-    f.geometry && ['LineString', 'MultiLineString'].includes(f.geometry.type)
-      ? (f.geometry as import('geojson').LineString | import('geojson').MultiLineString)
+    f.geometry?.type === 'LineString' || f.geometry?.type === 'MultiLineString'
+      ? unwrapGeometry(f.geometry, a.longitude) // so that lines crossing the antimeridian meet in the plane
       : refuse(`a junction needs the line geometry of both features; "${f.name}" has none in the gazetteer`),
   );
   const meetings = lineIntersect(lines[0]!, lines[1]!).features.map((p) => p.geometry.coordinates);

@@ -202,6 +202,13 @@ describe('junction (point-radius.md §3 [CHOICE])', () => {
     expect(g.longitude).toBeCloseTo(-60.2, 7);
     expect(g.components.extent).toBeCloseTo(100, 6);
   });
+  it('finds a crossing on the antimeridian', () => {
+    const east = feature({ ...river, longitude: 179.95, latitude: -17, geometry: { type: 'LineString', coordinates: [[179.9, -17], [-179.9, -17]] } });
+    const meridian = feature({ ...road, geometry: { type: 'LineString', coordinates: [[-180, -17.5], [-180, -16.5]] } });
+    const g = ok({ interpretation: interpretation('junction'), features: [east, meridian] });
+    expect(Math.abs(g.longitude)).toBeCloseTo(180, 7);
+    expect(g.latitude).toBeCloseTo(-17, 7);
+  });
   it('refuses lines that do not meet', () => {
     const far = feature({ ...road, geometry: { type: 'LineString', coordinates: [[-59, -13], [-59, -12]] } });
     expect(georeference({ interpretation: interpretation('junction'), features: [river, far] })).toMatchObject({ ok: false, reason: expect.stringMatching(/do not meet/) });
