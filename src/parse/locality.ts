@@ -417,6 +417,10 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
 
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
   if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
+  // "km 12 carretera a X": a road's kilometre post, measured from the road's own zero, which no clause gives.
+  if (UNIT_WORDS.get(norm(s, i) ?? '') === 'km' && s.tokens[i + 1]?.kind === 'number') {
+    return unparseable(`road kilometre post ("${s.text.slice(s.tokens[i]!.start, s.tokens[i + 1]!.end)}"): its distance runs from the road's own origin, which the text does not give`, approximate);
+  }
   // "ca. Ashcombe": the approximation is recorded and changes nothing (method §3).
   let placeStart = i;
   while (placeStart < end - 1 && L.APPROXIMATE_BEFORE_PLACE.has(norm(s, placeStart)!) && (s.tokens[placeStart]!.dotted || s.tokens[placeStart]!.kind === 'symbol' || norm(s, placeStart)!.length > 3)) placeStart++;
