@@ -2,16 +2,22 @@
  * The deletion-neighbourhood index keys and the edit distance that checks what they find. Pure.
  *
  * Two strings within one edit (insertion, deletion, substitution, adjacent transposition) share a
- * string reachable by at most one deletion from each. The store keeps the hashes of every one-deletion
- * variant of each distinct folded name token; a query looks up the hashes of its tokens' zero-, one- and
- * two-deletion variants, so it finds every token within one edit, and within two edits whenever at most
- * one of the two is on the stored side (an extra letter typed, plus any one other error).
+ * string reachable by at most one deletion from each. Every stored token of 3 letters or more is kept
+ * with the hashes of its one-deletion variants; a query looks up its own zero-, one- and (from 5
+ * letters) two-deletion variants, so it finds every token within one edit, and within two when one
+ * of them is a letter too many in the query. Tokens of 6 letters or more are also split into a front
+ * and a back half, each stored with its one-deletion variants (keyed by the token's length and the
+ * side): two edits leave at least one half within one edit, so a query finds every such token within
+ * two edits by looking up the halves it would have at each length within two of its own. Shorter
+ * halves would match too many tokens to be worth reading.
  */
 
 /** Tokens shorter than this are found only exactly: one deletion of a 2-letter token matches too much. */
 export const MIN_FUZZY_TOKEN_LENGTH = 3;
 /** Query tokens of at least this length also look up their two-deletion variants. */
 export const MIN_TWO_DELETION_LENGTH = 5;
+/** Stored tokens of at least this length are also indexed by halves and found within any two edits. */
+export const MIN_HALVES_LENGTH = 6;
 
 /**
  * 32-bit FNV-1a hash of a string's UTF-16 code units (collisions only add candidates that the edit
@@ -27,63 +33,98 @@ export function hashKey(text: string): number {
   return hash | 0;
 }
 
-/**
- * Hashes of a token and of every variant with one letter deleted (distinct values), as stored.
- * @example storedDeletionHashes('abc').length // 4: 'abc', 'bc', 'ac', 'ab'
- */
-export function storedDeletionHashes(token: string): number[] {
-  const hashes = new Set<number>([hashKey(token)]);
-  for (let i = 0; i < token.length; i++) hashes.add(hashKey(token.slice(0, i) + token.slice(i + 1)));
-  return [...hashes];
+/** A string and every variant with one letter deleted. */
+function withOneDeletion(text: string): Set<string> {
+  const variants = new Set([text]);
+  for (let i = 0; i < text.length; i++) variants.add(text.slice(0, i) + text.slice(i + 1));
+  return variants;
+}
+
+/** Keys of one half ('<' front, '>' back) of a token of `length` letters. */
+function halfKeys(length: number, side: '<' | '>', half: string, into: Set<number>): void {
+  const tag = String.fromCharCode(length) + side;
+  for (const variant of withOneDeletion(half)) into.add(hashKey(tag + variant));
 }
 
 /**
- * Hashes a query token looks up: itself, one deletion, and two deletions for tokens of
- * MIN_TWO_DELETION_LENGTH letters or more.
- * @example queryDeletionHashes('abcde').length // 1 + 5 + 10 (fewer when letters repeat)
+ * Hashes a stored token is indexed by (see the module comment); none below MIN_FUZZY_TOKEN_LENGTH.
+ * @example storedTokenKeys('abc').length // 4: 'abc', 'bc', 'ac', 'ab'
  */
-export function queryDeletionHashes(token: string): number[] {
-  const hashes = new Set<number>([hashKey(token)]);
-  const ones = new Set<string>();
-  for (let i = 0; i < token.length; i++) ones.add(token.slice(0, i) + token.slice(i + 1));
-  for (const one of ones) {
-    hashes.add(hashKey(one));
-    if (token.length >= MIN_TWO_DELETION_LENGTH) {
-      for (let j = 0; j < one.length; j++) hashes.add(hashKey(one.slice(0, j) + one.slice(j + 1)));
+export function storedTokenKeys(token: string): number[] {
+  const keys = new Set<number>();
+  if (token.length < MIN_FUZZY_TOKEN_LENGTH) return [];
+  for (const variant of withOneDeletion(token)) keys.add(hashKey(variant));
+  if (token.length >= MIN_HALVES_LENGTH) {
+    const half = token.length >> 1;
+    halfKeys(token.length, '<', token.slice(0, half), keys);
+    halfKeys(token.length, '>', token.slice(half), keys);
+  }
+  return [...keys];
+}
+
+/**
+ * Hashes a query token looks up: its zero-, one- and (from MIN_TWO_DELETION_LENGTH letters)
+ * two-deletion variants, and for each stored length within two of its own (from MIN_HALVES_LENGTH),
+ * the front and back halves such a token would share with it.
+ * @example queryTokenKeys('rosario').length > 0 // true
+ */
+export function queryTokenKeys(token: string): number[] {
+  const keys = new Set<number>();
+  for (const variant of withOneDeletion(token)) {
+    if (token.length >= MIN_TWO_DELETION_LENGTH) for (const twice of withOneDeletion(variant)) keys.add(hashKey(twice));
+    else keys.add(hashKey(variant));
+  }
+  for (let length = Math.max(MIN_HALVES_LENGTH, token.length - 2); length <= token.length + 2; length++) {
+    const half = length >> 1;
+    for (let shift = -1; shift <= 1; shift++) {
+      const frontLength = half + shift;
+      const backLength = length - half + shift;
+      if (frontLength > 0 && frontLength <= token.length) halfKeys(length, '<', token.slice(0, frontLength), keys);
+      if (backLength > 0 && backLength <= token.length) halfKeys(length, '>', token.slice(token.length - backLength), keys);
     }
   }
-  return [...hashes];
+  return [...keys];
 }
 
+const rows = [new Int32Array(64), new Int32Array(64), new Int32Array(64)];
+
 /**
- * Edit distance with adjacent transpositions (optimal string alignment), exact; O(|a|·|b|).
+ * Edit distance with adjacent transpositions (optimal string alignment), exact up to `max`: any
+ * larger distance is reported as max + 1 (the rows stop early). O(|a|·|b|).
  * @example editDistance('rosario', 'rosraio') // 1
+ * @example editDistance('rosario', 'lima', 2) // 3
  */
-export function editDistance(a: string, b: string): number {
+export function editDistance(a: string, b: string, max = Infinity): number {
   if (a === b) return 0;
   const n = a.length;
   const m = b.length;
-  let previous2 = new Array<number>(m + 1).fill(0);
-  let previous = Array.from({ length: m + 1 }, (_, j) => j);
-  let current = new Array<number>(m + 1).fill(0);
+  if (Math.abs(n - m) > max) return max + 1;
+  if (m + 1 > rows[0].length) for (let i = 0; i < 3; i++) rows[i] = new Int32Array(m + 1);
+  let [previous2, previous, current] = rows;
+  for (let j = 0; j <= m; j++) previous[j] = j;
   for (let i = 1; i <= n; i++) {
     current[0] = i;
+    let rowMinimum = i;
     for (let j = 1; j <= m; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
+      const cost = a.charCodeAt(i - 1) === b.charCodeAt(j - 1) ? 0 : 1;
       let best = Math.min(previous[j] + 1, current[j - 1] + 1, previous[j - 1] + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) best = Math.min(best, previous2[j - 2] + 1);
+      if (i > 1 && j > 1 && a.charCodeAt(i - 1) === b.charCodeAt(j - 2) && a.charCodeAt(i - 2) === b.charCodeAt(j - 1)) {
+        best = Math.min(best, previous2[j - 2] + 1);
+      }
       current[j] = best;
+      if (best < rowMinimum) rowMinimum = best;
     }
+    if (rowMinimum > max) return max + 1;
     [previous2, previous, current] = [previous, current, previous2];
   }
-  return previous[m];
+  return Math.min(previous[m], max + 1);
 }
 
 /**
- * Largest edit distance a query token may be from a stored token: 1 for short tokens, 2 from
- * MIN_TWO_DELETION_LENGTH letters (common practice, no source).
+ * Largest edit distance accepted between a query token and a stored token: 2 for stored tokens of
+ * MIN_TWO_DELETION_LENGTH letters or more, 1 for shorter ones (common practice, no source).
  * @example maxTokenEdits('rio') // 1
  */
-export function maxTokenEdits(token: string): number {
-  return token.length >= MIN_TWO_DELETION_LENGTH ? 2 : 1;
+export function maxTokenEdits(storedToken: string): number {
+  return storedToken.length >= MIN_TWO_DELETION_LENGTH ? 2 : 1;
 }

@@ -7,7 +7,7 @@ import Database from 'better-sqlite3';
 import type { Geometry, Polygon, MultiPolygon } from 'geojson';
 import { booleanPointInPolygon } from '@turf/turf';
 import { contextMismatch, resolveContext, type ResolvedContext, type SpatiallyDecided } from './context.ts';
-import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, queryDeletionHashes, storedDeletionHashes } from './edit-distance.ts';
+import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, queryTokenKeys, storedTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './match.ts';
 import type {
@@ -42,9 +42,11 @@ const DEFAULT_LIMIT = 10;
 /** Score of an exact match reached through an abbreviation or a left-out word, below a plain exact match. */
 const READING_SCORE = 0.97;
 /** At most this many postings are read for one fuzzy lookup (rarest query tokens first). */
-const POSTING_BUDGET = 4000;
+const POSTING_BUDGET = 2000;
 /** At most this many features are loaded and scored with fuse.js for one fuzzy lookup. */
-const FUZZY_POOL = 60;
+const FUZZY_POOL = 20;
+/** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
+const SHORTLIST = 100;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 const TOKEN_CACHE_LIMIT = 500_000;
@@ -229,7 +231,7 @@ class SqliteGazetteer implements GazetteerStore {
         id = existing.id;
       } else {
         id = Number(s.insertToken.run(token).lastInsertRowid);
-        if (token.length >= MIN_FUZZY_TOKEN_LENGTH) for (const hash of storedDeletionHashes(token)) s.insertDeletion.run(hash, id);
+        for (const hash of storedTokenKeys(token)) s.insertDeletion.run(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) tokenIds.clear();
       tokenIds.set(token, id);
@@ -384,36 +386,43 @@ class SqliteGazetteer implements GazetteerStore {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
-    const matches = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1));
-    const order = matches
-      .map((tokens, index) => ({ index, tokens, df: tokens.reduce((sum, t) => sum + t.df, 0) }))
-      .filter((entry) => entry.tokens.length > 0)
-      .sort((a, b) => a.df - b.df);
+    // Every stored token that matches a query token, rarest first: a common near-match ('rio' for 'roo')
+    // must not use up the posting budget before the rare intended token is read.
+    const matched = queryTokens
+      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1).map((match) => ({ ...match, index })))
+      .sort((a, b) => a.df - b.df || a.edits - b.edits);
     const countries = context.countryCodes.size > 0 ? JSON.stringify([...context.countryCodes]) : null;
-    const pool = new Map<number, { matched: number; edits: number }>();
+    const pool = new Map<number, number[]>();
     let budget = POSTING_BUDGET;
-    for (const { index, tokens } of order) {
+    for (const { id, edits, index, df } of matched) {
       if (budget <= 0) break;
-      const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
-      const edits = new Map(tokens.map((t) => [t.id, t.edits]));
-      const ids = JSON.stringify(tokens.map((t) => t.id));
+      // A common token (df over what is left) adds nothing the rare ones have not found already.
+      if (pool.size > 0 && df > budget) continue;
       const rows = (countries === null
-        ? this.statements.postings.all(ids, budget)
-        : this.statements.postingsInCountries.all(ids, countries, budget)) as { feature: number; token: number }[];
+        ? this.statements.postings.all(id, budget)
+        : this.statements.postingsInCountries.all(id, countries, budget)) as { feature: number }[];
       budget -= rows.length;
-      const best = new Map<number, number>();
-      for (const row of rows) best.set(row.feature, Math.min(best.get(row.feature) ?? Infinity, edits.get(row.token) ?? 0));
-      for (const [feature, tokenEdits] of best) {
-        const entry = pool.get(feature) ?? { matched: 0, edits: 0 };
-        entry.matched += optional ? 0.5 : 1;
-        entry.edits += tokenEdits;
-        pool.set(feature, entry);
+      const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
+      // About the number of letters the token contributes to the match: long tokens found with few
+      // edits say most about which feature is meant.
+      const weight = (optional ? 0.5 : 1) * Math.max(0.5, queryTokens[index].length - 1.5 * edits);
+      for (const { feature } of rows) {
+        const weights = pool.get(feature) ?? new Array<number>(queryTokens.length).fill(0);
+        weights[index] = Math.max(weights[index], weight);
+        pool.set(feature, weights);
       }
     }
-    const features = [...pool.entries()]
-      .sort((a, b) => b[1].matched - a[1].matched || a[1].edits - b[1].edits)
+    const total = (weights: number[]) => weights.reduce((sum, weight) => sum + weight, 0);
+    // The token weights only shortlist: a common token skipped above ("monte") counts for nobody, so
+    // the shortlist is re-ranked by the edit distance of the whole name before fuse.js scores the best.
+    const shortlist = [...pool.entries()]
+      .sort((a, b) => total(b[1]) - total(a[1]))
+      .slice(0, SHORTLIST)
+      .map(([id, weights]) => ({ id, weight: total(weights), edits: this.nameEdits(id, folded) }));
+    const features = shortlist
+      .sort((a, b) => a.edits - b.edits || b.weight - a.weight)
       .slice(0, FUZZY_POOL)
-      .map(([id]) => this.loadFeature(id))
+      .map(({ id }) => this.loadFeature(id))
       .filter((feature): feature is Feature => feature !== null);
     return scoreFuzzy(folded, features);
   }
@@ -422,10 +431,9 @@ class SqliteGazetteer implements GazetteerStore {
   private matchingTokens(token: string, severalTokens: boolean): { id: number; edits: number; df: number }[] {
     const found = new Map<number, { id: number; edits: number; df: number }>();
     if (token.length >= MIN_FUZZY_TOKEN_LENGTH) {
-      const limit = maxTokenEdits(token);
-      for (const row of this.statements.tokensByDeletion.all(JSON.stringify(queryDeletionHashes(token))) as TokenRow[]) {
-        const edits = editDistance(token, row.token);
-        if (edits <= limit) found.set(row.id, { id: row.id, edits, df: row.df });
+      for (const row of this.statements.tokensByDeletion.all(JSON.stringify(queryTokenKeys(token))) as TokenRow[]) {
+        const edits = editDistance(token, row.token, maxTokenEdits(row.token));
+        if (edits <= maxTokenEdits(row.token)) found.set(row.id, { id: row.id, edits, df: row.df });
       }
     }
     const exactWords = [token, ...(severalTokens ? ABBREVIATIONS[token] ?? [] : []).flatMap((words) => words.split(' '))];
@@ -434,6 +442,18 @@ class SqliteGazetteer implements GazetteerStore {
       if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
     }
     return [...found.values()];
+  }
+
+  /** Fewest edits between a folded query and the folded name or any alternate name of a feature. */
+  private nameEdits(id: number, foldedQuery: string): number {
+    const row = this.statements.namesById.get(id) as { name: string; alternate_names: string | null } | undefined;
+    if (row === undefined) return Infinity;
+    const limit = Math.max(2, foldedQuery.length >> 1);
+    let best = editDistance(foldedQuery, foldName(row.name), limit);
+    if (row.alternate_names !== null) {
+      for (const alternate of row.alternate_names.split(NAME_SEPARATOR)) best = Math.min(best, editDistance(foldedQuery, foldName(alternate), limit));
+    }
+    return best;
   }
 
   private featureIdsByKey(key: string): number[] {
@@ -490,14 +510,15 @@ function prepareStatements(db: Database.Database) {
       WHERE s.name = ? AND f.feature_id = ?`),
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
+    namesById: db.prepare('SELECT name, alternate_names FROM features WHERE id = ?'),
     featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     tokensByDeletion: db.prepare(`SELECT DISTINCT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
       WHERE d.hash IN (SELECT value FROM json_each(?))`),
-    postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
-    postingsInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
-      WHERE p.token IN (SELECT value FROM json_each(?1))
-        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?2))) LIMIT ?3`),
+    postings: db.prepare('SELECT feature FROM postings WHERE token = ? LIMIT ?'),
+    postingsInCountries: db.prepare(`SELECT p.feature FROM postings p JOIN features f ON f.id = p.feature
+      WHERE p.token = ?
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
   };
 }
 
