@@ -247,7 +247,8 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
     return refuse(`"${describeHeading(offset)} of ${feature.name}" has no distance and no bounding unit with a polygon to limit it: not georeferenced (point-radius.md §3)`);
   }
   const reach = inverse(feature.latitude, feature.longitude, unit.latitude, unit.longitude).meters + unit.radiusMeters;
-  const sector = sectorRing(feature.latitude, feature.longitude, heading.azimuth, heading.halfWidth, Math.max(reach, 1));
+  // "due N" (Δ = 0) is a line; a sector 0.01° wide stands for it, so that the clip has an area.
+  const sector = sectorRing(feature.latitude, feature.longitude, heading.azimuth, Math.max(heading.halfWidth, 0.01), Math.max(reach, 1));
   const part = clipRingToUnit(sector, feature.longitude, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
   return {
     latitude: part.latitude,

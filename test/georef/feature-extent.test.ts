@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Geometry, Position } from 'geojson';
-import { featureExtent } from '../../src/georef/feature-extent.ts';
+import { enclosingCircle, featureExtent } from '../../src/georef/feature-extent.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
 
 // Independent check: the minimax point found by brute force — a grid search over candidate points in or
@@ -121,5 +121,25 @@ describe('featureExtent (method §4) against brute force over geodesic distances
 
   it('rejects a geometry without coordinates with a clear error', () => {
     expect(() => featureExtent({ type: 'LineString', coordinates: [] })).toThrow(/no coordinates/);
+  });
+
+  it('enclosingCircle of two points is their geodesic midpoint with radius D/2 (geographiclib inverse)', () => {
+    const circle = enclosingCircle([[-60, -12], [-60.4, -12.3]]);
+    const D = inverse(-12, -60, -12.3, -60.4).meters;
+    expect(circle.radiusMeters).toBeCloseTo(D / 2, 2);
+    expect(inverse(circle.latitude, circle.longitude, -12, -60).meters).toBeCloseTo(D / 2, 2);
+    expect(inverse(circle.latitude, circle.longitude, -12.3, -60.4).meters).toBeCloseTo(D / 2, 2);
+  });
+
+  it('enclosingCircle of scattered points matches a brute-force grid search', () => {
+    const points: Position[] = [[30, 10], [30.8, 10.1], [30.3, 10.9], [30.5, 10.4], [30.1, 10.6]];
+    const result = enclosingCircle(points);
+    const multi: Geometry = { type: 'LineString', coordinates: points };
+    const coarse = bruteForce(multi, grid(10.5, 30.4, 0.6, 30));
+    const fine = bruteForce(multi, grid(coarse.latitude, coarse.longitude, 0.04, 20));
+    const finest = bruteForce(multi, grid(fine.latitude, fine.longitude, 0.004, 20));
+    // Last grid step 0.0002° (about 22 m).
+    expect(result.radiusMeters).toBeLessThanOrEqual(finest.radiusMeters + 0.01);
+    expect(result.radiusMeters).toBeGreaterThan(finest.radiusMeters - 22);
   });
 });

@@ -167,6 +167,12 @@ describe('heading only (point-radius.md §3 [CHOICE])', () => {
     expect(g.footprintWKT.startsWith('POLYGON((')).toBe(true);
     expect(g.features.map((f) => f.featureId)).toContain('c1');
   });
+
+  it('"due N" (Δ = 0) gives the stretch of the meridian inside the unit: center 0.25°N, radial 0.25° of latitude', () => {
+    const g = ok({ interpretation: interpretation('heading-only', { offsets: [{ heading: { written: 'due N', azimuth: 0, halfWidth: 0, kind: 'due' } }] }), features: [village], boundingUnit: unit });
+    expect(g.latitude).toBeCloseTo(0.25, 3);
+    expect(g.components.extent / distanceRef(0, 0, 0.25, 0)).toBeCloseTo(1, 2);
+  });
 });
 
 describe('between (point-radius.md §3 [CHOICE])', () => {
