@@ -42,15 +42,21 @@ export function isRefusal(tokens: Token[], from: number, to: number): boolean {
 }
 
 /** Value of an elevation number; "1.200" with three decimals after a period is read as 1200 (thousands separator). */
+const isThousands = (t: Token): boolean => t.decimals!.length === 3 && t.text.includes('.');
 function elevationValue(t: Token): number {
-  return t.decimals!.length === 3 && t.text.includes('.') ? Number(t.text.replace('.', '')) : Number(t.norm);
+  return isThousands(t) ? Number(t.text.replace('.', '')) : Number(t.norm);
 }
 
 /**
  * Reads an elevation clause: "800 m", "alt. 1200-1500 m", "1200 msnm", "elev. 2500 ft", "800 m a.s.l.".
  * Feet are converted with the international foot (0.3048 m, 1959 agreement). Returns null for other clauses.
  */
-export function readElevation(text: string, tokens: Token[], from: number, to: number): { minimumMeters: number; maximumMeters: number; written: string } | null {
+export function readElevation(
+  text: string,
+  tokens: Token[],
+  from: number,
+  to: number,
+): { elevation: { minimumMeters: number; maximumMeters: number; written: string }; notes: string[] } | null {
   let k = from;
   let marked = false;
   while (k < to && (L.ELEVATION_WORDS.has(tokens[k]!.norm) || L.APPROXIMATION_WORDS.has(tokens[k]!.norm) || tokens[k]!.norm === ':' || tokens[k]!.norm === '=')) {
@@ -84,7 +90,9 @@ export function readElevation(text: string, tokens: Token[], from: number, to: n
   const a = elevationValue(low) * factor;
   const b = elevationValue(high) * factor;
   if (!Number.isFinite(a) || !Number.isFinite(b)) return null;
-  return { minimumMeters: Math.min(a, b), maximumMeters: Math.max(a, b), written: text.slice(tokens[from]!.start, tokens[to - 1]!.end) };
+  const written = text.slice(tokens[from]!.start, tokens[to - 1]!.end);
+  const notes = isThousands(low) || isThousands(high) ? [`elevation "${written}": a period before three digits read as a thousands separator`] : [];
+  return { elevation: { minimumMeters: Math.min(a, b), maximumMeters: Math.max(a, b), written }, notes };
 }
 
 /** An administrative clause by keyword: "Prov. Alta", "Depto. Norte", "Millbrook County", "Municipio de Vila Serena". */

@@ -78,7 +78,6 @@ function interpret(text: string): Interpretation {
   const segments: Segment[] = found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length);
-  if (found) segments.sort((a, b) => a.from - b.from);
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
@@ -98,7 +97,8 @@ function interpret(text: string): Interpretation {
     }
     const elevation = readElevation(text, tokens, from, to);
     if (elevation) {
-      result.elevation ??= elevation;
+      result.elevation ??= elevation.elevation;
+      result.notes.push(...elevation.notes);
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'elevation') });
       continue;
     }
