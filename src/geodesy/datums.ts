@@ -25,6 +25,8 @@ export interface DatumDefinition {
   transformation: string;
   /** Stated accuracy of that transformation, meters (horizontal). */
   accuracyMeters: number;
+  /** The CRS's area of use as EPSG gives it, [north, west, south, east] degrees (west > east crosses 180°). */
+  areaOfUse: readonly [number, number, number, number];
 }
 
 const identity = '0,0,0,0,0,0,0';
@@ -39,6 +41,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: identity,
     transformation: 'none (already WGS 84)',
     accuracyMeters: 0,
+    areaOfUse: [90, -180, -90, 180],
   },
   {
     epsg: 'EPSG:4267',
@@ -48,6 +51,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-8,160,176,0,0,0,0',
     transformation: 'EPSG:1173 NAD27 to WGS 84 (4), USA conterminous mean, 3-parameter (NADCON grid not shipped)',
     accuracyMeters: 10,
+    areaOfUse: [83.17, 167.65, 7.15, -47.74],
   },
   {
     epsg: 'EPSG:4269',
@@ -57,6 +61,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: identity,
     transformation: 'EPSG:1188 NAD83 to WGS 84 (1), null transformation',
     accuracyMeters: 4,
+    areaOfUse: [86.45, 167.65, 14.92, -40.73],
   },
   {
     epsg: 'EPSG:4618',
@@ -66,6 +71,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-57,1,-41,0,0,0,0',
     transformation: 'EPSG:1864 SAD69 to WGS 84 (1), South America mean, 3-parameter',
     accuracyMeters: 19,
+    areaOfUse: [12.52, -91.72, -55.96, -25.28],
   },
   {
     epsg: 'EPSG:4674',
@@ -75,6 +81,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: identity,
     transformation: 'EPSG:15894 SIRGAS 2000 to WGS 84 (1), null transformation',
     accuracyMeters: 1,
+    areaOfUse: [32.72, -122.19, -59.87, -25.28],
   },
   {
     epsg: 'EPSG:4230',
@@ -84,6 +91,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-87,-98,-121,0,0,0,0',
     transformation: 'EPSG:1133 ED50 to WGS 84 (1), western Europe mean, 3-parameter',
     accuracyMeters: 10,
+    areaOfUse: [84.73, -16.1, 25.71, 48.61],
   },
   {
     epsg: 'EPSG:4225',
@@ -93,6 +101,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-206,172,-6,0,0,0,0',
     transformation: 'EPSG:1574 Corrego Alegre to WGS 84 (1), Brazil mean, 3-parameter (IBGE grid not shipped)',
     accuracyMeters: 10,
+    areaOfUse: [-2.68, -58.16, -33.78, -34.74],
   },
   {
     epsg: 'EPSG:4248',
@@ -102,6 +111,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-288,175,-376,0,0,0,0',
     transformation: 'EPSG:1209 PSAD56 to WGS 84 (1), South America mean, 3-parameter',
     accuracyMeters: 42,
+    areaOfUse: [12.68, -81.41, -43.5, -47.99],
   },
   {
     epsg: 'EPSG:4202',
@@ -111,6 +121,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-133,-48,148,0,0,0,0',
     transformation: 'EPSG:1108 AGD66 to WGS 84 (1), Australia mean, 3-parameter (national grid not shipped)',
     accuracyMeters: 10,
+    areaOfUse: [-1.3, 109.23, -47.2, 163.2],
   },
   {
     epsg: 'EPSG:4283',
@@ -121,6 +132,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     // EPSG states 1 m; Australia has since moved about 1.8 m relative to WGS 84 [CHOICE: carry 3 m].
     transformation: 'EPSG:1150 GDA94 to WGS 84 (1), null transformation',
     accuracyMeters: 3,
+    areaOfUse: [-8.47, 93.41, -60.55, 173.34],
   },
   {
     epsg: 'EPSG:4301',
@@ -130,6 +142,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-148,507,685,0,0,0,0',
     transformation: 'EPSG:1305 Tokyo to WGS 84 (1), Japan/Korea mean, 3-parameter',
     accuracyMeters: 29,
+    areaOfUse: [45.54, 122.83, 20.37, 154.05],
   },
   {
     epsg: 'EPSG:4277',
@@ -139,6 +152,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '446.448,-125.157,542.06,0.15,0.247,0.842,-20.489',
     transformation: 'EPSG:1314 OSGB36 to WGS 84 (6), 7-parameter (OSTN15 grid not shipped)',
     accuracyMeters: 2,
+    areaOfUse: [61.01, -9, 49.75, 2.01],
   },
   {
     epsg: 'EPSG:4258',
@@ -148,6 +162,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: identity,
     transformation: 'EPSG:1149 ETRS89 to WGS 84 (1), null transformation',
     accuracyMeters: 1,
+    areaOfUse: [84.73, -16.1, 32.88, 40.18],
   },
   {
     epsg: 'EPSG:4322',
@@ -157,6 +172,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '0,0,4.5,0,0,0.554,0.2263',
     transformation: 'EPSG:1237 WGS 72 to WGS 84 (1), 7-parameter',
     accuracyMeters: 2,
+    areaOfUse: [90, -180, -90, 180],
   },
   {
     epsg: 'EPSG:4221',
@@ -166,6 +182,7 @@ export const DATUMS: readonly DatumDefinition[] = [
     towgs84: '-148,136,90,0,0,0,0',
     transformation: 'EPSG:1127 Campo Inchauspe to WGS 84 (1), Argentina mean, 3-parameter',
     accuracyMeters: 9,
+    areaOfUse: [-21.78, -73.59, -54.93, -53.65],
   },
 ];
 
@@ -221,17 +238,27 @@ export interface Wgs84Position {
   accuracyMeters: number;
   /** Which transformation was applied, in words. */
   transformation: string;
+  /** False when the point lies outside the datum's EPSG area of use: the stated datum is then doubtful. */
+  withinAreaOfUse: boolean;
+}
+
+/** Whether a point lies in an EPSG bounding box [north, west, south, east] (west > east wraps past 180°). */
+function withinArea(latitude: number, longitude: number, [north, west, south, east]: DatumDefinition['areaOfUse']): boolean {
+  const inLongitude = west <= east ? longitude >= west && longitude <= east : longitude >= west || longitude <= east;
+  return latitude <= north && latitude >= south && inLongitude;
 }
 
 /**
  * Coordinates in a stated datum converted to WGS84 (proj4 with the table's explicit +towgs84; heights
  * taken as 0, which changes the horizontal result by well under a millimetre). The result is as good as
- * the transformation, `accuracyMeters` (e.g. 10 m for NAD27 by the 3-parameter mean).
+ * the transformation, `accuracyMeters` (e.g. 10 m for NAD27 by the 3-parameter mean), and only inside the
+ * datum's area of use (`withinAreaOfUse`).
  * @example toWgs84(38, -98, 'EPSG:4267') // ≈ { latitude: 38.00004, longitude: -98.00044, accuracyMeters: 10, … }
  */
 export function toWgs84(latitude: number, longitude: number, datumEpsg: string): Wgs84Position {
   const datum = datumDefinition(datumEpsg);
-  if (datum.epsg === 'EPSG:4326') return { latitude, longitude, accuracyMeters: 0, transformation: datum.transformation };
+  const withinAreaOfUse = withinArea(latitude, longitude, datum.areaOfUse);
+  if (datum.epsg === 'EPSG:4326') return { latitude, longitude, accuracyMeters: 0, transformation: datum.transformation, withinAreaOfUse };
   const [lon, lat] = proj4(geographicProj4(datum), WGS84_PROJ4, [longitude, latitude]);
-  return { latitude: lat!, longitude: lon!, accuracyMeters: datum.accuracyMeters, transformation: datum.transformation };
+  return { latitude: lat!, longitude: lon!, accuracyMeters: datum.accuracyMeters, transformation: datum.transformation, withinAreaOfUse };
 }

@@ -120,8 +120,15 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
   const datum = coordinates.datum ?? (coordinates.datumWritten ? datumFromName(coordinates.datumWritten) : undefined) ?? (settings.datum ? datumFromName(settings.datum) : undefined);
   let position = { latitude, longitude };
   let datumMeters: number;
-  if (datum) {
-    const converted = toWgs84(latitude, longitude, datum);
+  const converted = datum ? toWgs84(latitude, longitude, datum) : undefined;
+  if (converted && !converted.withinAreaOfUse) {
+    // A datum stated for a place outside its area of use is doubtful: treated as unknown [CHOICE].
+    position = converted;
+    datumMeters = settings.unknownDatumMeters;
+    remarks.push(
+      `datum: ${datum} as stated, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (point-radius.md §5.4)`,
+    );
+  } else if (converted) {
     position = converted;
     datumMeters = converted.accuracyMeters;
     remarks.push(
@@ -244,7 +251,7 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
   const heading = offset.heading ?? refuse('a heading-only locality needs a heading, and none was read');
   const unit = input.boundingUnit;
   if (!unit?.geometry || !['Polygon', 'MultiPolygon'].includes(unit.geometry.type)) {
-    return refuse(`"${describeHeading(offset)} of ${feature.name}" has no distance and no bounding unit with a polygon to limit it: not georeferenced (point-radius.md §3)`);
+    return refuse(`"${heading.written} of ${feature.name}" has no distance and no bounding unit with a polygon to limit it: not georeferenced (point-radius.md §3)`);
   }
   const reach = inverse(feature.latitude, feature.longitude, unit.latitude, unit.longitude).meters + unit.radiusMeters;
   // "due N" (Δ = 0) is a line; a sector 0.01° wide stands for it, so that the clip has an area.

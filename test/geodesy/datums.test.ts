@@ -8,7 +8,7 @@ import { utmToGeographic } from '../../src/geodesy/utm.ts';
 // The EPSG Geodetic Parameter Dataset as packaged in epsg-index 2.0.0 (derhuerst, npm): proj4 strings and
 // the accuracy of each CRS's default transformation to WGS 84.
 const require = createRequire(import.meta.url);
-const epsg = require('epsg-index/all.json') as Record<string, { name: string; proj4: string; accuracy: number | null }>;
+const epsg = require('epsg-index/all.json') as Record<string, { name: string; proj4: string; accuracy: number | null; bbox: number[] }>;
 const WGS84 = '+proj=longlat +datum=WGS84 +no_defs';
 
 /**
@@ -50,7 +50,10 @@ describe('datum shifts against the EPSG dataset (epsg-index 2.0.0)', () => {
   for (const datum of DATUMS) {
     const code = datum.epsg.slice('EPSG:'.length);
     const reference = epsg[code]!;
-    it(`${datum.epsg} ${datum.name}: same name and ellipsoid as EPSG`, () => {
+    it(`${datum.epsg} ${datum.name}: same name, ellipsoid and area of use as EPSG; its sample point lies inside`, () => {
+      expect([...datum.areaOfUse]).toEqual(reference.bbox);
+      const [lat, lon] = AREA_SAMPLE[datum.epsg]!;
+      expect(toWgs84(lat, lon, datum.epsg).withinAreaOfUse).toBe(true);
       expect(reference.name.replace(/ /g, '')).toContain(datum.name.replace(/ /g, '').slice(0, 5));
       const ellipsoid = /\+ellps=(\S+)/.exec(reference.proj4)?.[1] ?? (reference.proj4.includes('+datum=WGS84') ? 'WGS84' : undefined);
       expect(datum.ellipsoid).toBe(`+ellps=${ellipsoid}`);
@@ -108,6 +111,11 @@ describe('datum shifts against the EPSG dataset (epsg-index 2.0.0)', () => {
 
   it('WGS84 is returned untouched with accuracy 0', () => {
     expect(toWgs84(-12.5, 130.25, 'EPSG:4326')).toMatchObject({ latitude: -12.5, longitude: 130.25, accuracyMeters: 0 });
+  });
+
+  it('flags a point outside the datum\'s area of use (NAD27 in Brazil; NAD27 crosses 180°: Aleutians inside)', () => {
+    expect(toWgs84(-15.8, -47.9, 'EPSG:4267').withinAreaOfUse).toBe(false);
+    expect(toWgs84(52, 175, 'EPSG:4267').withinAreaOfUse).toBe(true);
   });
 
   it('an unsupported datum is a clear error', () => {

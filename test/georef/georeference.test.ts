@@ -246,6 +246,13 @@ describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
     expect(g.components.datum).toBe(10);
     expect(g.remarks.join('\n')).toMatch(/EPSG:4267.*EPSG:1173/);
   });
+  it('a datum stated outside its EPSG area of use is doubtful: the unknown-datum term, with a remark', () => {
+    const inBrazil = written('NAD27');
+    inBrazil.coordinates = { ...inBrazil.coordinates!, latitude: -15.8, longitude: -47.9 };
+    const g = ok({ interpretation: inBrazil, features: [] });
+    expect(g.components.datum).toBe(5359);
+    expect(g.remarks.join('\n')).toMatch(/outside its EPSG area of use/);
+  });
   it('the record\'s datum option is used when the text states none', () => {
     expect(ok({ interpretation: written(), features: [], options: { datum: 'EPSG:4326' } }).components.datum).toBe(0);
   });
