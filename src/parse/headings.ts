@@ -100,14 +100,20 @@ function readDegrees(tokens: Token[], i: number): { degrees: number; halfWidth: 
 
 /**
  * Reads a heading at token i: compass words and abbreviations in four languages ("NE", "N.N.E.", "noreste",
- * "sud-ouest", "L"), "N by E" (32-point), quadrant bearings ("N 30° E"), "bearing 120°", "due N".
+ * "sud-ouest", "L"), "N by E" (32-point), quadrant bearings ("N 30° E"), "bearing 120°", "120°", "due N".
  * Δ per method §5.2. `text` is the verbatim text the tokens point into.
  * @example readHeadingAt(text, tokenize("NE"), 0) // heading { azimuth: 45, halfWidth: 22.5, kind: 'rose8' }
  */
 export function readHeadingAt(text: string, tokens: Token[], i: number): { heading: WrittenHeading; next: number } | null {
   const first = tokens[i];
-  if (!isWord(first)) return null;
   const written = (from: number, to: number): string => text.slice(tokens[from]!.start, tokens[to - 1]!.end);
+  // A bare bearing in degrees: "45°", "120.5°" (the degree sign is required).
+  if (first?.kind === 'number' && isSymbolIn(tokens[i + 1], DEGREE_SIGNS)) {
+    const degrees = readDegrees(tokens, i);
+    if (!degrees) return null;
+    return { heading: { written: written(i, degrees.next), azimuth: degrees.degrees, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next };
+  }
+  if (!isWord(first)) return null;
 
   if (BEARING_WORDS.has(first.norm)) {
     const degrees = readDegrees(tokens, i + 1);

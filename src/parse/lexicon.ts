@@ -36,7 +36,7 @@ export const FROM_WORDS = set("of from off de del desde do da dos das du des d'"
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
 
 /** Words that may stand before a heading: "al N", "ao sul", "au nord", "à l'est", "to the N". */
-export const HEADING_PREFIXES = phrases("a la | a l' | al | ao | au | a | to the | l'");
+export const HEADING_PREFIXES = phrases("a la | a l' | al | ao | au | a | to the | l' | at | on a bearing of | on bearing");
 
 /** "between X and Y" */
 /** "between X and Y", "entre X y Y", "entre X e Y", "entre X et Y"; also opens a range ("entre 5 y 8 km"). */
