@@ -64,6 +64,7 @@ function refuse(reason: string): never {
 export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
   const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
   try {
+    checkSettings(settings);
     const placement = place(input, settings);
     return { ok: true, georeference: finish(input, placement, settings) };
   } catch (error) {
@@ -74,6 +75,24 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
 
 function definedOptions(options: MethodOptions | undefined): MethodOptions {
   return Object.fromEntries(Object.entries(options ?? {}).filter(([, value]) => value !== undefined));
+}
+
+/** Options a caller sets must make sense; a bad one is refused by name, never silently replaced. */
+function checkSettings(settings: Settings): void {
+  const nonNegative = ['unknownDatumMeters', 'nearMinimumMeters', 'junctionExtentMeters', 'measurementErrorMeters'] as const;
+  for (const name of nonNegative) {
+    const value = settings[name];
+    if (value !== undefined && !(Number.isFinite(value) && value >= 0)) refuse(`option ${name} must be a number of meters ≥ 0, got ${JSON.stringify(value)}`);
+  }
+  if (settings.mapScale !== undefined && !(Number.isFinite(settings.mapScale) && settings.mapScale >= 1)) {
+    refuse(`option mapScale must be the scale's denominator (24000 for 1:24 000), got ${JSON.stringify(settings.mapScale)}`);
+  }
+  if (!['us-nmas', 'australian', 'unknown'].includes(settings.mapStandard)) {
+    refuse(`option mapStandard must be us-nmas, australian or unknown, got ${JSON.stringify(settings.mapStandard)}`);
+  }
+  if (!(Number.isInteger(settings.footprintSegments) && settings.footprintSegments >= 8 && settings.footprintSegments <= 4096)) {
+    refuse(`option footprintSegments must be a whole number from 8 to 4096, got ${JSON.stringify(settings.footprintSegments)}`);
+  }
 }
 
 function place(input: GeoreferenceInput, settings: Settings): Placement {

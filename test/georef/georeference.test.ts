@@ -273,6 +273,10 @@ describe('no georeference', () => {
   it('no locality: refused with the interpretation\'s reason', () => {
     expect(georeference({ interpretation: interpretation('no-locality', { reason: 'locality unknown' }), features: [] })).toEqual({ ok: false, reason: 'locality unknown' });
   });
+  it('a bad option is refused by name', () => {
+    expect(georeference({ interpretation: interpretation('near'), features: [feature()], options: { nearMinimumMeters: -5 } })).toMatchObject({ ok: false, reason: expect.stringMatching(/nearMinimumMeters/) });
+    expect(georeference({ interpretation: interpretation('near'), features: [feature()], options: { mapScale: 0.5 } })).toMatchObject({ ok: false, reason: expect.stringMatching(/mapScale/) });
+  });
   it('a feature missing for the rule is a clear refusal', () => {
     expect(georeference({ interpretation: interpretation('named-place'), features: [] })).toMatchObject({ ok: false, reason: expect.stringMatching(/needs feature 1/) });
   });
