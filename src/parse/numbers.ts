@@ -71,8 +71,9 @@ function readSingle(tokens: Token[], i: number): Single | null {
   const whole = Number(t.norm);
   if (!Number.isFinite(whole)) return null;
   if (t.decimals === '') {
-    // "1 1/2", "1½": a whole number followed by a fraction.
-    const mixed = readFraction(tokens, i + 1);
+    // "1 1/2", "1½", "1-1/2": a whole number followed by a fraction.
+    const hyphen = tokens[i + 1]?.norm === '-' && !tokens[i + 1]!.spaceBefore && !tokens[i + 2]?.spaceBefore;
+    const mixed = readFraction(tokens, hyphen ? i + 2 : i + 1);
     if (mixed && mixed.value < 1) return { value: whole + mixed.value, precision: mixed.precision, next: mixed.next };
     return { value: whole, precision: integerPrecision(whole), next: i + 1 };
   }
