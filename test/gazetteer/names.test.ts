@@ -1,0 +1,133 @@
+/**
+ * Name folding, readings of abbreviations, the edit distance and the deletion-neighbourhood index keys.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, queryTokenKeys, storedTokenKeys } from '../../src/gazetteer/edit-distance.ts';
+import { foldName, nameVariants } from '../../src/gazetteer/fold.ts';
+import { administrativeKey, countryCodeForName } from '../../src/gazetteer/context.ts';
+import { DEFAULT_RADII } from '../../src/gazetteer/default-radii.ts';
+
+describe('foldName', () => {
+  // Canonical decompositions from the Unicode Standard (UAX #15, normalization forms): é = e + U+0301,
+  // ã = a + U+0303, ç = c + U+0327; the marks are dropped after NFKD.
+  it.each([
+    ['São Tomé', 'sao tome'],
+    ['Peña  Blanca', 'pena blanca'],
+    ['Saint-Laurent-des-Brumes', 'saint laurent des brumes'],
+    ["L'Anse-à-l'Âne", 'l anse a l ane'],
+    ['Straße', 'strasse'],
+    ['Ærøskøbing', 'aeroskobing'],
+    ['Łódź', 'lodz'],
+    ['  Sta.Rosa (ca.) ', 'sta rosa ca'],
+    ['Москва', 'москва'],
+  ])('folds %s to %s', (written, folded) => {
+    expect(foldName(written)).toBe(folded);
+  });
+
+  it('folds the composed and the decomposed form alike (UAX #15 canonical equivalence)', () => {
+    expect(foldName('Bogot\u00e1')).toBe(foldName('Bogota\u0301'));
+  });
+});
+
+describe('nameVariants', () => {
+  it('reads each abbreviation every way it may be meant', () => {
+    const keys = nameVariants('S. Tomé').map((v) => v.key);
+    expect(keys).toEqual(['s tome', 'san tome', 'santa tome', 'santo tome', 'sao tome']);
+  });
+
+  it('leaves out optional generic words and a leading article', () => {
+    expect(nameVariants('Hacienda El Carmen').map((v) => v.key)).toEqual(['hacienda el carmen', 'el carmen', 'carmen']);
+    expect(nameVariants('Estancia La Paloma')[1]).toEqual({ key: 'la paloma', change: 'generic word left out' });
+  });
+
+  it('never reads a one-word name as an abbreviation', () => {
+    expect(nameVariants('Co').map((v) => v.key)).toEqual(['co']);
+  });
+});
+
+describe('administrative names and countries', () => {
+  it('compares units without the words for their kind', () => {
+    expect(administrativeKey('Provincia de Salta')).toBe('salta');
+    expect(administrativeKey('Departamento del Cauca')).toBe('cauca');
+    expect(administrativeKey('Worcester County')).toBe('worcester');
+    expect(administrativeKey('County')).toBe('county');
+  });
+
+  it('resolves country names in four languages to ISO 3166-1 alpha-2 codes (CLDR names through Intl)', () => {
+    expect(countryCodeForName('Brasil')).toBe('BR');
+    expect(countryCodeForName('Brazil')).toBe('BR');
+    expect(countryCodeForName('Estados Unidos')).toBe('US');
+    expect(countryCodeForName('Allemagne')).toBe('DE');
+    expect(countryCodeForName('México')).toBe('MX');
+    expect(countryCodeForName('ar')).toBe('AR');
+    expect(countryCodeForName('Atlantis')).toBeNull();
+  });
+});
+
+describe('editDistance (optimal string alignment)', () => {
+  // Values as in the definition of Damerau–Levenshtein distance with the restricted (OSA) edit set:
+  // CA → ABC is 3 under OSA (2 under unrestricted transpositions), kitten → sitting is 3
+  // (Levenshtein 1966's measure, the usual textbook example; from memory).
+  it.each([
+    ['kitten', 'sitting', 3],
+    ['ca', 'abc', 3],
+    ['rosario', 'rosraio', 1],
+    ['', 'abc', 3],
+    ['abc', 'abc', 0],
+  ])('%s → %s = %i', (a, b, distance) => {
+    expect(editDistance(a as string, b as string)).toBe(distance);
+  });
+
+  it('stops at the bound it is given', () => {
+    expect(editDistance('rosario', 'lima', 2)).toBe(3);
+    expect(editDistance('rosario', 'rosarios', 2)).toBe(1);
+  });
+});
+
+/** One typing error: insertion, deletion, substitution or adjacent transposition. */
+const typo = (token: string, kind: number, at: number, letter: string): string => {
+  const i = at % token.length;
+  if (kind === 0) return token.slice(0, i) + letter + token.slice(i);
+  if (kind === 1) return token.slice(0, i) + token.slice(i + 1);
+  if (kind === 2) return token.slice(0, i) + letter + token.slice(i + 1);
+  return i + 1 < token.length ? token.slice(0, i) + token[i + 1] + token[i] + token.slice(i + 2) : token;
+};
+const token = (minLength: number) => fc.stringMatching(new RegExp(`^[a-z]{${minLength},14}$`));
+const edit = fc.tuple(fc.integer({ min: 0, max: 3 }), fc.nat(), fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz'));
+const shareKey = (stored: string, query: string) => {
+  const keys = new Set(queryTokenKeys(query));
+  return storedTokenKeys(stored).some((key) => keys.has(key));
+};
+
+describe('the deletion-neighbourhood index finds what it promises (fast-check properties)', () => {
+  it('every stored token within one edit of the query', () => {
+    fc.assert(fc.property(token(MIN_FUZZY_TOKEN_LENGTH), edit, (stored, [kind, at, letter]) => {
+      const query = typo(stored, kind, at, letter);
+      fc.pre(query.length >= 2);
+      expect(shareKey(stored, query)).toBe(true);
+    }), { numRuns: 2000 });
+  });
+
+  it(`every stored token of ${MIN_HALVES_LENGTH} letters or more within two edits`, () => {
+    fc.assert(fc.property(token(MIN_HALVES_LENGTH), edit, edit, (stored, [k1, a1, l1], [k2, a2, l2]) => {
+      const query = typo(typo(stored, k1, a1, l1), k2, a2, l2);
+      expect(shareKey(stored, query)).toBe(true);
+    }), { numRuns: 2000 });
+  });
+});
+
+describe('default radii', () => {
+  it('cover the whole feature vocabulary, each with its reasoning', () => {
+    const vocabulary = ['city', 'town', 'village', 'hamlet', 'locality', 'farm', 'estate', 'station', 'bridge', 'island',
+      'mountain', 'peak', 'hill', 'pass', 'lake', 'bay', 'cape', 'beach', 'waterfall', 'river', 'stream', 'river mouth',
+      'road', 'trail', 'country', 'stateProvince', 'county'];
+    expect(Object.keys(DEFAULT_RADII).sort()).toEqual([...vocabulary].sort());
+    for (const type of vocabulary) expect(DEFAULT_RADII[type].reasoning).toMatch(/no source|polygon|line/);
+  });
+
+  it('grow with the size of the settlement (common practice, no source)', () => {
+    const { hamlet, village, town, city } = DEFAULT_RADII;
+    expect(hamlet.meters < village.meters && village.meters < town.meters && town.meters < city.meters).toBe(true);
+  });
+});
