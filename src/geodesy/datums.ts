@@ -225,7 +225,7 @@ export function datumDefinition(datumEpsg: string): DatumDefinition {
 }
 
 /** proj4 definition of the geographic CRS, with its explicit shift to WGS84. */
-export function geographicProj4(datum: DatumDefinition): string {
+function geographicProj4(datum: DatumDefinition): string {
   return `+proj=longlat ${datum.ellipsoid} +towgs84=${datum.towgs84} +no_defs`;
 }
 

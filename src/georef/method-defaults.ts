@@ -14,12 +14,3 @@ export const METHOD_DEFAULTS = {
   /** Map accuracy standard when a map scale is given but no standard (point-radius.md §5.5: 1 mm only). */
   mapStandard: 'unknown',
 } as const satisfies Record<string, number | string>;
-
-/** The point-radius.md sections each default comes from, for the remarks. */
-export const DEFAULT_SECTIONS: Record<keyof typeof METHOD_DEFAULTS, string> = {
-  unknownDatumMeters: 'point-radius.md §5.4',
-  nearMinimumMeters: 'point-radius.md §3',
-  junctionExtentMeters: 'point-radius.md §3',
-  footprintSegments: 'point-radius.md §6',
-  mapStandard: 'point-radius.md §5.5',
-};
