@@ -9,11 +9,13 @@ import rateLimit from '@fastify/rate-limit';
 import swagger from '@fastify/swagger';
 import Fastify, { type FastifyInstance } from 'fastify';
 import { openGazetteer } from '../gazetteer/store.ts';
+import type { LocateResult } from '../locate.ts';
 import { VERSION } from '../version.ts';
 import { assertSafeBind, tokenGuard } from './access.ts';
 import { loadAssets, registerAssets } from './assets.ts';
 import { errorHandler } from './errors.ts';
 import { registerStrictJson } from './json-body.ts';
+import { ResultCache } from './result-cache.ts';
 import { BatchService } from './batches.ts';
 import { openReviews, reviewsDatabasePath } from './reviews.ts';
 import { registerBatchRoutes } from './routes/batches.ts';
@@ -38,12 +40,14 @@ export interface ServerOptions {
   bodyLimit?: number;
   /** Largest batch upload in bytes (default 50 MiB). */
   uploadLimit?: number;
+  /** Results kept in memory for repeated lookups (default 2000; 0 keeps none). */
+  resultCache?: number;
   /** Log requests as JSON lines on stdout (default off). */
   logger?: boolean;
 }
 
-/** Defaults [CHOICE]: a label's text is well under 64 KiB; 1200 a minute is 20 lookups a second per client. */
-export const SERVER_DEFAULTS = { host: '127.0.0.1', bodyLimit: 64 * 1024, uploadLimit: 50 * 1024 * 1024, rateLimit: { max: 1200, timeWindowMs: 60_000 } } as const;
+/** Defaults [CHOICE]: a label's text is well under 64 KiB; 1200 a minute is 20 lookups a second per client; 2000 results are a few MB. */
+export const SERVER_DEFAULTS = { host: '127.0.0.1', resultCache: 2000, bodyLimit: 64 * 1024, uploadLimit: 50 * 1024 * 1024, rateLimit: { max: 1200, timeWindowMs: 60_000 } } as const;
 
 /**
  * Builds the service (not yet listening). Refuses a non-loopback host without a token.
@@ -64,7 +68,8 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     forceCloseConnections: 'idle',
   });
   const reviews = openReviews(reviewsDatabasePath(options.dbPath));
-  const batches = new BatchService(options.dbPath, store, reviews);
+  const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
+  const batches = new BatchService(options.dbPath, store, reviews, results);
   // On close (SIGTERM): requests in flight finish first, then running jobs get a moment to commit their step.
   app.addHook('onClose', async () => {
     await batches.close();
@@ -118,7 +123,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     },
   });
 
-  registerGeoreferenceRoute(app, store);
+  registerGeoreferenceRoute(app, store, results);
   registerFeatureRoute(app, store);
   registerLayersRoute(app, shapedFeatureLister(options.dbPath, store));
   await registerBatchRoutes(app, batches, options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit);

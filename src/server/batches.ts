@@ -13,10 +13,12 @@ import { COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from '../batch/coordinate-che
 import { jobProgress, jobsDatabasePath, type JobProgress } from '../batch/jobs.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import { startBatchJob, type BatchSummary } from '../batch/run.ts';
+import type { LocateResult } from '../locate.ts';
 import { parseLocality } from '../parse/index.ts';
 import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
+import type { ResultCache } from './result-cache.ts';
 import { REVIEWED_STATUS, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
 
 /** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
@@ -87,6 +89,7 @@ export class BatchService {
     private readonly dbPath: string,
     private readonly store: ServedGazetteer,
     private readonly reviews: ReviewStore,
+    private readonly results?: ResultCache<LocateResult>,
   ) {
     this.folder = join(dirname(dbPath), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
     this.jobsPath = jobsDatabasePath(dbPath);
@@ -245,7 +248,7 @@ export class BatchService {
       ...request,
       ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
       options: candidate ? { candidate } : {},
-    });
+    }, this.results);
   }
 }
 

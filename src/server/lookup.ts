@@ -12,6 +12,7 @@ import type { Interpretation, Offset } from '../parse/types.ts';
 import { darwinCoreFields, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
 import { RequestError } from './errors.ts';
+import type { ResultCache } from './result-cache.ts';
 import { footprintGeometry } from './wkt.ts';
 
 /** What the server needs of a gazetteer store (src/gazetteer/store.ts implements it). */
@@ -53,18 +54,24 @@ export interface LookupResponse extends LocateResult {
 }
 
 /**
- * Georeference one request with the page's edits applied.
+ * Georeference one request with the page's edits applied. With a cache, a repeated request (same
+ * record, options and gazetteer sources) reuses its result; the Darwin Core fields are always new.
  * @example lookUp(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
  */
-export function lookUp(store: ServedGazetteer, request: LookupRequest, now = new Date()): LookupResponse {
+export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: ResultCache<LocateResult>, now = new Date()): LookupResponse {
   const { options = {}, decimalLatitude, decimalLongitude, georeferencedBy, ...record } = request;
   const { candidate, distancePrecision, ...methodOptions } = options;
-  const located = locate(store, { ...record, options: methodOptions });
-  const result = candidate || distancePrecision ? applyEdits(store, located, options, methodOptions) : located;
+  const sources = store.sources();
+  const compute = () => {
+    const located = locate(store, { ...record, options: methodOptions });
+    return candidate || distancePrecision ? applyEdits(store, located, options, methodOptions) : located;
+  };
+  const key = JSON.stringify([sources.map((s) => s.contentHash), record, options]);
+  const result = cache ? cache.get(key, compute) : compute();
   const darwinCore = darwinCoreFields(result, {
     georeferencedBy: georeferencedBy?.trim() || `whereabouts ${VERSION}`,
     georeferencedDate: now.toISOString(),
-    sources: store.sources(),
+    sources,
   });
   const g = result.georeference;
   const response: LookupResponse = { ...result, candidates: result.candidates.map(withoutGeometry), darwinCore };

@@ -132,6 +132,14 @@ describe('batch review', () => {
     await page.waitForFunction(() => document.querySelectorAll('#review-list tbody tr').length > 0 && [...document.querySelectorAll('#review-list tbody tr td:nth-child(3)')].every((td) => td.textContent?.startsWith('requires verification')));
     const row = await page.textContent('#review-list tbody tr.current td:first-child');
     await page.waitForSelector('#review-map path.wa-circle');
+    await page.click('#review-list tbody tr:nth-child(3) button');
+    await page.waitForFunction(() => document.querySelector('#review-record h2')?.textContent?.startsWith('Row 3'));
+    await page.waitForSelector('#review-map path.wa-circle');
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.screenshot({ path: join(ARTIFACTS, 'batch-review.png') });
+    await page.keyboard.press('k');
+    await page.keyboard.press('k');
+    await page.waitForFunction((r) => document.querySelector('#review-list tbody tr.current td:first-child')?.textContent === r, row);
     const pending = await page.locator('#review-list tbody tr').count();
     await page.focus('#review-record');
     await page.keyboard.press('a');
@@ -140,7 +148,8 @@ describe('batch review', () => {
     await page.selectOption('#r-status', 'verified by data custodian');
     await page.waitForSelector('#review-list tbody tr.accepted');
     await page.waitForSelector('#review-map path.wa-circle');
-    await page.screenshot({ path: join(ARTIFACTS, 'batch-review.png') });
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.screenshot({ path: join(ARTIFACTS, 'batch-accepted.png') });
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('#batch-download')]);
     const rows = parse(readFileSync((await download.path())!), { columns: true }) as Record<string, string>[];

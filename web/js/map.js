@@ -16,6 +16,8 @@ export const PALETTE = {
   record: '#000000',
 };
 
+const ADMINISTRATIVE = new Set(['country', 'stateProvince', 'county']);
+
 let basemapData;
 let layersData;
 
@@ -34,9 +36,10 @@ function layerStyle(feature) {
     if (type === 'trail') return { color: '#555', weight: 1.2, dashArray: '2 4', opacity: 0.9 };
     return { color: '#555', weight: 1.6, dashArray: '6 3', opacity: 0.9 };
   }
-  if (type === 'lake' || type === 'bay') return { color: PALETTE.water, weight: 0.8, fillColor: PALETTE.waterFill, fillOpacity: 0.45 };
-  if (type === 'stateProvince') return { color: '#5c564b', weight: 1.6, dashArray: '8 4', fill: false };
-  if (type === 'county') return { color: '#9a9385', weight: 0.8, dashArray: '2 3', fill: false };
+  if (type === 'lake' || type === 'bay') return { color: PALETTE.water, weight: 0.8, fillColor: PALETTE.waterFill, fillOpacity: 0.3 };
+  // Units keep an invisible fill so that hovering anywhere inside names the unit under the cursor.
+  if (type === 'stateProvince') return { color: '#5c564b', weight: 1.6, dashArray: '8 4', fillOpacity: 0 };
+  if (type === 'county') return { color: '#9a9385', weight: 0.8, dashArray: '2 3', fillOpacity: 0 };
   return { color: '#7d7668', weight: 1.2, fillColor: '#efe9dc', fillOpacity: 1 };
 }
 
@@ -76,7 +79,7 @@ function legendControl() {
       'div',
       { class: 'wa-legend' },
       el('ul', {}, swatch('sw-point', 'proposed point'), swatch('sw-circle', 'uncertainty circle'), swatch('sw-footprint', 'footprint'),
-        swatch('sw-feature', 'feature used'), swatch('sw-candidate', 'other candidate'), swatch('sw-record', "record's own coordinates")),
+        swatch('sw-feature', 'feature used'), swatch('sw-unit', 'unit the footprint is clipped to'), swatch('sw-candidate', 'other candidate'), swatch('sw-record', "record's own coordinates")),
     );
   return control;
 }
@@ -99,7 +102,7 @@ export async function createMap(container) {
   const sorted = [...layers.features].sort((a, b) => layerOrder(a) - layerOrder(b));
   const gazetteer = L.geoJSON({ type: 'FeatureCollection', features: sorted }, {
     style: layerStyle,
-    onEachFeature: (f, layer) => layer.bindTooltip(nameTooltip(f.properties.name), { sticky: true, className: 'wa-tip' }),
+    onEachFeature: (f, layer) => layer.bindTooltip(nameTooltip(`${f.properties.name} · ${f.properties.featureType ?? 'feature'}`), { sticky: true, className: 'wa-tip' }),
   }).addTo(map);
   if (gazetteer.getLayers().length) map.fitBounds(gazetteer.getBounds(), { padding: [10, 10] });
 
@@ -121,10 +124,14 @@ export async function createMap(container) {
         .bindTooltip(nameTooltip(`${c.feature.name} (candidate, score ${c.score.toFixed(2)})`), { className: 'wa-tip' })
         .addTo(result);
     }
-    for (const shape of shapes) {
-      if (!shape) continue;
+    shapes.forEach((shape, index) => {
+      if (!shape) return;
       const name = shape.properties.name;
-      if (shape.geometry.type === 'Point') {
+      if (index > 0 && ADMINISTRATIVE.has(shape.properties.featureType)) {
+        // A unit after the feature is the one the footprint was clipped to, not a place the text names.
+        L.geoJSON(shape, { style: { color: PALETTE.featureUsed, weight: 2, dashArray: '10 6', fill: false, className: 'wa-unit' } })
+          .bindTooltip(nameTooltip(`${name} (${shape.properties.featureType} the footprint is clipped to)`), { className: 'wa-tip', sticky: true }).addTo(result);
+      } else if (shape.geometry.type === 'Point') {
         L.circleMarker([shape.properties.latitude, shape.properties.longitude], { radius: 7, color: PALETTE.featureUsed, weight: 3, fill: false, className: 'wa-feature' })
           .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
         L.circle([shape.properties.latitude, shape.properties.longitude], { radius: shape.properties.radiusMeters, color: PALETTE.featureUsed, weight: 1.5, dashArray: '3 3', fill: false, interactive: false }).addTo(result);
@@ -132,7 +139,7 @@ export async function createMap(container) {
         L.geoJSON(shape, { style: { color: PALETTE.featureUsed, weight: 3, fillColor: PALETTE.featureUsed, fillOpacity: 0.12, className: 'wa-feature' } })
           .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
       }
-    }
+    });
     if (!g) {
       delete container.dataset.circleRadius;
       if (result.getLayers().length) map.fitBounds(result.getBounds().pad(0.3), { maxZoom: 12, animate: false });

@@ -25,6 +25,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
     .option('--demo', 'on first run, import the demo gazetteer when the database has no sources')
     .option('--cors-origin <origin>', 'let pages from this origin call the API (no CORS by default)')
     .option('--rate-limit <n>', 'requests per client per minute, 0 for no limit', parseCount, SERVER_DEFAULTS.rateLimit.max)
+    .option('--cache <n>', 'results kept in memory for repeated lookups, 0 for none', parseCount, SERVER_DEFAULTS.resultCache)
     .option('--log', 'log each request as a JSON line')
     .action(async (opts: ServeOptions) => {
       const db = dbPath();
@@ -37,6 +38,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
         host: opts.host,
         corsOrigin: opts.corsOrigin,
         rateLimit: opts.rateLimit === 0 ? false : { max: opts.rateLimit, timeWindowMs: 60_000 },
+        resultCache: opts.cache,
         logger: opts.log === true,
       });
       await app.listen({ host: opts.host, port: opts.port });
@@ -60,6 +62,7 @@ interface ServeOptions {
   demo?: boolean;
   corsOrigin?: string;
   rateLimit: number;
+  cache: number;
   log?: boolean;
 }
 

@@ -1,9 +1,11 @@
 import type { FastifyInstance } from 'fastify';
+import type { LocateResult } from '../../locate.ts';
 import { lookUp, type LookupRequest, type ServedGazetteer } from '../lookup.ts';
+import type { ResultCache } from '../result-cache.ts';
 import { errorResponses, lookupBodySchema, lookupResponseSchema } from '../schemas.ts';
 
 /** POST /api/v1/georeference: the public contract (issue 2), with the page's edits as `options`. */
-export function registerGeoreferenceRoute(app: FastifyInstance, store: ServedGazetteer): void {
+export function registerGeoreferenceRoute(app: FastifyInstance, store: ServedGazetteer, cache: ResultCache<LocateResult>): void {
   app.post<{ Body: LookupRequest }>(
     '/api/v1/georeference',
     {
@@ -17,6 +19,6 @@ export function registerGeoreferenceRoute(app: FastifyInstance, store: ServedGaz
         response: { 200: lookupResponseSchema, ...errorResponses },
       },
     },
-    async (request) => lookUp(store, request.body),
+    async (request) => lookUp(store, request.body, cache),
   );
 }
