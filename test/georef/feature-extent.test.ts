@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { Geometry, Position } from 'geojson';
 import { enclosingCircle, featureExtent } from '../../src/georef/feature-extent.ts';
@@ -141,5 +142,49 @@ describe('featureExtent (method §4) against brute force over geodesic distances
     // Last grid step 0.0002° (about 22 m).
     expect(result.radiusMeters).toBeLessThanOrEqual(finest.radiusMeters + 0.01);
     expect(result.radiusMeters).toBeGreaterThan(finest.radiusMeters - 22);
+  });
+
+  it('annulus: the SEC center falls in the hole, so the center lies on the hole\'s edge', () => {
+    const circle = (r: number, n: number, reverse: boolean): Position[] => {
+      const ring = Array.from({ length: n + 1 }, (_, i) => {
+        const a = (2 * Math.PI * (reverse ? n - i : i)) / n;
+        return [5 + r * Math.cos(a), 5 + r * Math.sin(a)];
+      });
+      return ring;
+    };
+    const outer = circle(0.5, 36, false);
+    const hole = circle(0.3, 36, true);
+    const annulus: Geometry = { type: 'Polygon', coordinates: [outer, hole] };
+    const result = featureExtent(annulus);
+    expect(inverse(5, 5, result.latitude, result.longitude).meters).toBeGreaterThan(0.29 * 111000);
+    const best = bruteForce(annulus, sampleEdges([hole], 40));
+    expect(result.radiusMeters).toBeLessThanOrEqual(best.radiusMeters + 0.01);
+    expect(result.radiusMeters).toBeGreaterThan(best.radiusMeters - 50);
+  });
+});
+
+describe('featureExtent properties (fast-check)', () => {
+  // Random star-shaped polygons: every vertex is a point of the feature, so no vertex can do better than
+  // the minimax center; and the radius is exactly the furthest vertex (geographiclib inverse).
+  const star = fc.record({
+    latitude: fc.double({ min: -80, max: 80, noNaN: true }),
+    longitude: fc.double({ min: -180, max: 180, noNaN: true }),
+    radii: fc.array(fc.double({ min: 0.01, max: 0.5, noNaN: true }), { minLength: 3, maxLength: 24 }),
+  });
+  it('radius = furthest vertex, and no vertex is a better center', () => {
+    fc.assert(
+      fc.property(star, ({ latitude, longitude, radii }) => {
+        const ring: Position[] = radii.map((r, i) => {
+          const a = (2 * Math.PI * i) / radii.length;
+          return [longitude + r * Math.cos(a), latitude + r * Math.sin(a)];
+        });
+        ring.push(ring[0]!);
+        const polygon: Geometry = { type: 'Polygon', coordinates: [ring] };
+        const result = featureExtent(polygon);
+        expect(worst(result.latitude, result.longitude, ring)).toBeCloseTo(result.radiusMeters, 3);
+        for (const [lon, lat] of ring) expect(result.radiusMeters).toBeLessThanOrEqual(worst(lat!, lon!, ring) + 0.01);
+      }),
+      { numRuns: 100 },
+    );
   });
 });
