@@ -4,15 +4,16 @@
  * BENCH_DISTINCT distinct localities (default 40,000) of mixed types, each repeated. Each size in
  * BENCH_ROWS (a comma list, e.g. "200000,2000000" to show memory stays flat) runs in a child process of
  * its own, so that its peak RSS is its own. Prints rows/s, distinct localities/s and peak RSS against the
- * targets (≥ 5,000 rows/s, ≤ 500 MB). Run: `npm run bench:batch` (BENCH_NAMES=100000 for a quick run).
+ * targets (≥ 5,000 rows/s, ≤ 500 MB). BENCH_TYPOS sets the share of names with a typing error (default 0.01).
+ * Run: `npm run bench:batch` (BENCH_NAMES=100000 for a quick run).
  */
 import { spawnSync } from 'node:child_process';
 import { createWriteStream, existsSync, mkdtempSync, renameSync, rmSync, statSync } from 'node:fs';
 import { once } from 'node:events';
-import { tmpdir } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
-import { startBatchJob } from '../src/batch/run.ts';
+import { startBatchJob, type BatchProgressEvent } from '../src/batch/run.ts';
 import { importGazetteer } from '../src/gazetteer/import.ts';
 import { openGazetteer } from '../src/gazetteer/store.ts';
 
@@ -63,19 +64,22 @@ async function syntheticGazetteer(): Promise<string> {
 }
 
 const HEADINGS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW', 'NNE', 'WSW'];
+/** Distinct localities name far fewer places [CHOICE]: one place to five distinct localities. */
+const PLACES_USED = Math.max(1, Math.round(DISTINCT / 5));
+/** Share of distinct localities with a typing error, which the store matches fuzzily (slow when nothing is close). */
+const TYPO_SHARE = Number(process.env.BENCH_TYPOS ?? 0.01);
 
-/** Distinct locality k, of a type chosen by k: the mix of label localities a collection export holds [CHOICE]. */
+/** Distinct locality k: five forms of text a place, the mix of label localities a collection export holds [CHOICE]. */
 function locality(k: number): string {
-  const place = placeName((k * 24_989) % NAMES);
-  const kind = k % 20;
-  if (kind < 6) return place;
-  if (kind < 11) return `${1 + (k % 40)} km ${HEADINGS[k % HEADINGS.length]} of ${place}`;
-  if (kind < 13) return `${1 + (k % 9)} km N and ${1 + (k % 7)} km E of ${place}`;
-  if (kind < 15) return `${1 + (k % 25)} mi from ${place}`;
-  if (kind < 17) return `${44 + (k % 3)}°${k % 60}'S ${130 + (k % 3)}°${(k * 7) % 60}'W`;
-  if (kind < 18) return `near ${place}`;
-  if (kind < 19) return `Xq${k} Nowhere Creek`;
-  return 'locality unknown';
+  const place = placeName(((k % PLACES_USED) * 24_989) % NAMES);
+  const form = Math.floor(k / PLACES_USED);
+  const heading = HEADINGS[k % HEADINGS.length];
+  if ((k * 0.6180339887498949) % 1 < TYPO_SHARE) return `${place.slice(0, 2)}${place.slice(3)}`;
+  if (form === 0) return place;
+  if (form === 1) return `${1 + (k % 40)} km ${heading} of ${place}`;
+  if (form === 2) return [`near ${place}`, `${1 + (k % 9)} km N and ${1 + (k % 7)} km E of ${place}`, `${1 + (k % 25)} mi from ${place}`, `${place}, ${1 + (k % 30)} mi. ${heading}`][k % 4];
+  if (form === 3) return `${44 + (Math.floor(k / 3600) % 3)}°${k % 60}'${Math.floor(k / 60) % 60}"S ${130 + (k % 3)}°${(k * 7) % 60}'W`;
+  return k % 10 === 0 ? ['locality unknown', 'no locality given', 'sin localidad'][k % 3] : `${1 + (k % 12)}.5 km ${heading} of ${place}`;
 }
 
 async function writeInput(path: string, rows: number): Promise<void> {
@@ -96,16 +100,23 @@ async function runSize(rows: number): Promise<void> {
   const input = join(dir, 'input.csv');
   await writeInput(input, rows);
   const started = performance.now();
-  const { done } = await startBatchJob({ dbPath, input, output: join(dir, 'output.csv'), threads: THREADS, jobsDbPath: join(dir, 'jobs.sqlite') });
+  const cpuBefore = process.cpuUsage();
+  const phaseEnds = new Map<string, number>();
+  const onProgress = (event: BatchProgressEvent) => phaseEnds.set(event.phase, performance.now());
+  const { done } = await startBatchJob({ dbPath, input, output: join(dir, 'output.csv'), threads: THREADS, jobsDbPath: join(dir, 'jobs.sqlite'), onProgress });
   const summary = await done;
   const seconds = (performance.now() - started) / 1000;
+  const phases = [...phaseEnds].map(([phase, end]) => `${phase} ${((end - started) / 1000).toFixed(1)} s`);
+  const cpu = process.cpuUsage(cpuBefore);
+  const cpuSeconds = (cpu.user + cpu.system) / 1e6;
   const peakMB = process.resourceUsage().maxRSS / 1024;
   const outputMB = statSync(join(dir, 'output.csv')).size / 1e6;
   console.log(
     `${rows.toLocaleString('en')} rows, ${summary.distinctLocalities.toLocaleString('en')} distinct localities, ${NAMES.toLocaleString('en')} names: ` +
       `${seconds.toFixed(1)} s, ${Math.round(rows / seconds).toLocaleString('en')} rows/s (target ≥ 5,000), ` +
       `${Math.round(summary.distinctLocalities / seconds).toLocaleString('en')} distinct localities/s, ` +
-      `peak RSS ${peakMB.toFixed(0)} MB (target ≤ 500), output ${outputMB.toFixed(0)} MB; ${JSON.stringify(summary.byStatus)}`,
+      `CPU ${cpuSeconds.toFixed(1)} s over all threads (${Math.round(rows / cpuSeconds).toLocaleString('en')} rows a CPU-second; machine load ${loadavg()[0].toFixed(1)}), ` +
+      `peak RSS ${peakMB.toFixed(0)} MB (target ≤ 500), output ${outputMB.toFixed(0)} MB; ${JSON.stringify(summary.byStatus)}; phases ended at ${phases.join(', ')}`,
   );
   rmSync(dir, { recursive: true });
 }

@@ -80,10 +80,13 @@ export interface BatchSummary {
 const GROUPS_PER_CHUNK = 64;
 /** Rows written and committed at a time [CHOICE]. */
 const ROWS_PER_CHUNK = 1000;
-/** Below this many distinct localities, the main thread does the work: starting workers costs more [CHOICE]. */
-const IN_PROCESS_LIMIT = 400;
+/**
+ * Below this many distinct localities, the main thread does the work [CHOICE]: a worker takes about a
+ * second to start (tsx compiles the sources again), the time of some 2,000 localities on a spare core.
+ */
+const IN_PROCESS_LIMIT = 2000;
 /** Group results kept parsed in memory while writing [CHOICE]. */
-const RESULT_CACHE_SIZE = 20_000;
+const RESULT_CACHE_SIZE = 10_000;
 
 /**
  * Start (or resume) a batch job. Resolves once the job is stored, with its id and a promise of the
@@ -255,7 +258,8 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   updateJob(jobs, job.id, { state: 'georeferencing' });
   const settings = JSON.parse(job.settings) as BatchSettings;
   const context = recordContextOf(job);
-  const next = jobs.prepare('SELECT id, request FROM batch_locality WHERE job_id = ? AND result IS NULL AND id > ? ORDER BY id LIMIT ?');
+  // A walk along the rowid from the last chunk: the (job_id, key) index would sort the whole job each time.
+  const next = jobs.prepare('SELECT id, request FROM batch_locality NOT INDEXED WHERE id > ? AND job_id = ? AND result IS NULL ORDER BY id LIMIT ?');
   const setResult = jobs.prepare('UPDATE batch_locality SET result = ? WHERE id = ?');
   const total = job.distinctTotal ?? 0;
   let distinctDone = (jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ? AND result IS NOT NULL').get(job.id) as { n: number }).n;
@@ -266,7 +270,7 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   });
   let cursor = 0;
   const nextTask = (): GeoreferenceTask | undefined => {
-    const rows = next.all(job.id, cursor, GROUPS_PER_CHUNK) as { id: number; request: string }[];
+    const rows = next.all(cursor, job.id, GROUPS_PER_CHUNK) as { id: number; request: string }[];
     if (rows.length === 0) return undefined;
     cursor = rows[rows.length - 1].id;
     return { dbPath: job.gazetteerPath, groups: rows.map((r) => ({ id: r.id, request: JSON.parse(r.request) as LocateRequest })), settings, context };

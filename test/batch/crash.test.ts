@@ -16,12 +16,12 @@ const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
 const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
 const HEADINGS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'];
 
-/** 6,000 invented rows holding 1,200 distinct localities, each repeated five times. */
+/** 7,200 invented rows holding 2,400 distinct localities (enough for worker threads), each repeated three times. */
 function writeInput(path: string): void {
   const distinct: string[] = [];
-  for (const place of PLACES) for (const heading of HEADINGS) for (let km = 1; km <= 30; km++) distinct.push(`${km} km ${heading} of ${place}`);
+  for (const place of PLACES) for (const heading of HEADINGS) for (let km = 1; km <= 60; km++) distinct.push(`${km} km ${heading} of ${place}`);
   const lines = ['occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude'];
-  for (let i = 0; i < distinct.length * 5; i++) lines.push(`c-${i},"${distinct[i % distinct.length]}",QV,${i % 7 === 0 ? '45.5,-131.0' : ','}`);
+  for (let i = 0; i < distinct.length * 3; i++) lines.push(`c-${i},"${distinct[i % distinct.length]}",QV,${i % 7 === 0 ? '45.5,-131.0' : ','}`);
   writeFileSync(path, `${lines.join('\n')}\n`);
 }
 
@@ -83,8 +83,8 @@ describe('a batch killed part way', { timeout: 180_000 }, () => {
 
     sameBytesBut(job.run_timestamp, readFileSync(output, 'utf8'), referenceTimestamp, readFileSync(reference, 'utf8'));
     const [header, ...rows] = readOutput(output);
-    expect(rows).toHaveLength(6000);
-    expect(new Set(rows.map((r) => r[0])).size).toBe(6000);
+    expect(rows).toHaveLength(7200);
+    expect(new Set(rows.map((r) => r[0])).size).toBe(7200);
     const date = header.indexOf('georeferencedDate');
     expect(new Set(rows.map((r) => r[date]))).toEqual(new Set([job.run_timestamp]));
   });
