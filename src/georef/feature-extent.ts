@@ -21,20 +21,21 @@ export interface FeatureExtent {
   radiusMeters: number;
 }
 
-/** The feature split into what can hold the center: areas, segments (lines and ring edges), lone points. */
-interface FeatureParts {
-  polygons: Position[][][];
-  segments: [Position, Position][];
-  points: Position[];
-  vertices: Position[];
+/** What can hold the center: areas, segments (lines and ring edges), lone points; and all vertices. */
+interface Parts<P> {
+  polygons: P[][][];
+  segments: [P, P][];
+  points: P[];
+  vertices: P[];
 }
 
-interface PlaneParts {
-  polygons: PlanePoint[][][];
-  segments: [PlanePoint, PlanePoint][];
-  points: PlanePoint[];
-  vertices: PlanePoint[];
+/** The feature's distinct positions, and its parts as indices into them (so each is projected once). */
+interface FeatureParts {
+  positions: Position[];
+  indices: Parts<number>;
 }
+
+type PlaneParts = Parts<PlanePoint>;
 
 const MAX_ITERATIONS = 8;
 /** Stop when the solution lies within this many meters of the projection center. */
@@ -60,7 +61,7 @@ const GOLDEN_SECTION_STEPS = 64;
  */
 export function featureExtent(geometry: Geometry): FeatureExtent {
   const parts = splitFeature(geometry);
-  if (parts.vertices.length === 0) throw new Error(`featureExtent: the ${geometry.type} has no coordinates`);
+  if (parts.positions.length === 0) throw new Error(`featureExtent: the ${geometry.type} has no coordinates`);
   return minimaxPoint(parts, geometry.type, solveInPlane);
 }
 
@@ -71,7 +72,8 @@ export function featureExtent(geometry: Geometry): FeatureExtent {
  */
 export function enclosingCircle(positions: Position[]): FeatureExtent {
   if (positions.length === 0) throw new Error('enclosingCircle: no points');
-  const parts: FeatureParts = { polygons: [], segments: [], points: positions, vertices: positions };
+  const all = positions.map((_, i) => i);
+  const parts: FeatureParts = { positions, indices: { polygons: [], segments: [], points: all, vertices: all } };
   return minimaxPoint(parts, 'set of points', (plane) => {
     const circle = smallestEnclosingCircle(plane.vertices);
     return [circle.x, circle.y];
@@ -80,17 +82,17 @@ export function enclosingCircle(positions: Position[]): FeatureExtent {
 
 /** Re-centres the projection on each planar solution until it stays within 1 mm of the center. */
 function minimaxPoint(parts: FeatureParts, what: string, solve: (plane: PlaneParts) => PlanePoint): FeatureExtent {
-  for (const vertex of parts.vertices) {
+  for (const vertex of parts.positions) {
     const [longitude, latitude] = vertex;
     if (!Number.isFinite(longitude) || !Number.isFinite(latitude) || Math.abs(latitude!) > 90) {
       throw new Error(`invalid position [${vertex.join(', ')}] in the ${what}`);
     }
   }
-  const [first] = parts.vertices;
-  if (parts.vertices.every((v) => v[0] === first![0] && v[1] === first![1])) {
+  const [first] = parts.positions;
+  if (parts.positions.every((v) => v[0] === first![0] && v[1] === first![1])) {
     return { latitude: first![1]!, longitude: normaliseLongitude(first![0]!), radiusMeters: 0 };
   }
-  let [latitude, longitude] = meanDirection(parts.vertices);
+  let [latitude, longitude] = meanDirection(parts.positions);
   for (let iteration = 0; iteration < MAX_ITERATIONS; iteration++) {
     const projection = localProjection(latitude, longitude);
     const projected = projectParts(parts, (p) => projection.forward(p[1]!, p[0]!));
@@ -101,45 +103,53 @@ function minimaxPoint(parts: FeatureParts, what: string, solve: (plane: PlanePar
     }
     [latitude, longitude] = projection.inverse(solution[0], solution[1]);
   }
-  const radiusMeters = Math.max(...parts.vertices.map((v) => inverse(latitude, longitude, v[1]!, v[0]!).meters));
+  const radiusMeters = Math.max(...parts.positions.map((v) => inverse(latitude, longitude, v[1]!, v[0]!).meters));
   return { latitude, longitude: normaliseLongitude(longitude), radiusMeters };
 }
 
 function splitFeature(geometry: Geometry): FeatureParts {
-  const parts: FeatureParts = { polygons: [], segments: [], points: [], vertices: [] };
-  const addLine = (line: Position[]) => {
-    for (let i = 1; i < line.length; i++) parts.segments.push([line[i - 1]!, line[i]!]);
-    parts.vertices.push(...line);
-    if (line.length === 1) parts.points.push(line[0]!);
+  const positions: Position[] = [];
+  const indexOf = new Map<Position, number>();
+  const id = (p: Position) => {
+    let index = indexOf.get(p);
+    if (index === undefined) indexOf.set(p, (index = positions.push(p) - 1));
+    return index;
   };
-  const addPolygon = (rings: Position[][]) => {
-    parts.polygons.push(rings);
-    rings.forEach(addLine);
+  const indices: Parts<number> = { polygons: [], segments: [], points: [], vertices: [] };
+  const addLine = (line: Position[]) => {
+    const ids = line.map(id);
+    for (let i = 1; i < ids.length; i++) indices.segments.push([ids[i - 1]!, ids[i]!]);
+    if (ids.length === 1) indices.points.push(ids[0]!);
+    return ids;
   };
   const add = (g: Geometry) => {
     switch (g.type) {
       case 'Point':
-        parts.points.push(g.coordinates);
-        parts.vertices.push(g.coordinates);
+        indices.points.push(id(g.coordinates));
         return;
       case 'MultiPoint':
-        parts.points.push(...g.coordinates);
-        parts.vertices.push(...g.coordinates);
+        indices.points.push(...g.coordinates.map(id));
         return;
       case 'LineString':
-        return addLine(g.coordinates);
+        addLine(g.coordinates);
+        return;
       case 'MultiLineString':
-        return g.coordinates.forEach(addLine);
+        g.coordinates.forEach(addLine);
+        return;
       case 'Polygon':
-        return addPolygon(g.coordinates);
+        indices.polygons.push(g.coordinates.map(addLine));
+        return;
       case 'MultiPolygon':
-        return g.coordinates.forEach(addPolygon);
+        for (const rings of g.coordinates) indices.polygons.push(rings.map(addLine));
+        return;
       case 'GeometryCollection':
-        return g.geometries.forEach(add);
+        g.geometries.forEach(add);
+        return;
     }
   };
   add(geometry);
-  return parts;
+  indices.vertices = positions.map((_, i) => i);
+  return { positions, indices };
 }
 
 /** Direction of the mean of the vertices' unit vectors: a start point that is safe across the antimeridian. */
@@ -159,18 +169,14 @@ function meanDirection(vertices: Position[]): [number, number] {
   return [Math.atan2(z, Math.hypot(x, y)) / radians, Math.atan2(y, x) / radians];
 }
 
-function projectParts(parts: FeatureParts, forward: (p: Position) => PlanePoint): PlaneParts {
-  const cache = new Map<Position, PlanePoint>();
-  const project = (p: Position) => {
-    let q = cache.get(p);
-    if (!q) cache.set(p, (q = forward(p)));
-    return q;
-  };
+function projectParts({ positions, indices }: FeatureParts, forward: (p: Position) => PlanePoint): PlaneParts {
+  const xy = positions.map(forward);
+  const at = (i: number) => xy[i]!;
   return {
-    polygons: parts.polygons.map((rings) => rings.map((ring) => ring.map(project))),
-    segments: parts.segments.map(([a, b]) => [project(a), project(b)]),
-    points: parts.points.map(project),
-    vertices: parts.vertices.map(project),
+    polygons: indices.polygons.map((rings) => rings.map((ring) => ring.map(at))),
+    segments: indices.segments.map(([a, b]) => [xy[a]!, xy[b]!]),
+    points: indices.points.map(at),
+    vertices: xy,
   };
 }
 
