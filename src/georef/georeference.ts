@@ -136,7 +136,8 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
     return refuse(`the coordinates "${coordinates.written}" are out of range (latitude ${latitude}, longitude ${longitude})`);
   }
   const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), point-radius.md §3`];
-  const datum = coordinates.datum ?? (coordinates.datumWritten ? datumFromName(coordinates.datumWritten) : undefined) ?? (settings.datum ? datumFromName(settings.datum) : undefined);
+  // Only datums of the table count as stated; any other code or name is reported as not convertible.
+  const datum = [coordinates.datum, coordinates.datumWritten, settings.datum].map((text) => (text ? datumFromName(text) : undefined)).find(Boolean);
   let position = { latitude, longitude };
   let datumMeters: number;
   const converted = datum ? toWgs84(latitude, longitude, datum) : undefined;
@@ -157,7 +158,7 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
     );
   } else {
     datumMeters = settings.unknownDatumMeters;
-    const written = coordinates.datumWritten ?? settings.datum;
+    const written = coordinates.datumWritten ?? coordinates.datum ?? settings.datum;
     remarks.push(
       `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84, datum term ${meters(datumMeters)} (point-radius.md §5.4)`,
     );
@@ -401,7 +402,15 @@ function featureAt(input: GeoreferenceInput, index: number): Feature {
 }
 
 function offsetAt(interpretation: Interpretation, index: number): Offset {
-  return interpretation.offsets[index] ?? refuse(`the rule for "${interpretation.type}" needs an offset, and none was read`);
+  const offset = interpretation.offsets[index] ?? refuse(`the rule for "${interpretation.type}" needs an offset, and none was read`);
+  const { distance, heading } = offset;
+  if (distance && !(distance.meters >= 0 && distance.uncertaintyMeters >= 0 && Number.isFinite(distance.meters + distance.uncertaintyMeters))) {
+    refuse(`the distance "${distance.written}" was read as ${distance.meters} m ± ${distance.uncertaintyMeters} m, which cannot be used`);
+  }
+  if (heading && !(Number.isFinite(heading.azimuth) && heading.halfWidth >= 0 && heading.halfWidth <= 180)) {
+    refuse(`the heading "${heading.written}" was read as ${heading.azimuth}° ± ${heading.halfWidth}°, which cannot be used`);
+  }
+  return offset;
 }
 
 function describeFeature(feature: Feature): string {

@@ -253,6 +253,11 @@ describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
     expect(g.components.datum).toBe(5359);
     expect(g.remarks.join('\n')).toMatch(/outside its EPSG area of use/);
   });
+  it('a datum code we cannot convert counts as not recorded, named in the remarks', () => {
+    const g = ok({ interpretation: written(undefined, 'EPSG:4019'), features: [] });
+    expect(g.components.datum).toBe(5359);
+    expect(g.remarks.join('\n')).toMatch(/"EPSG:4019" is not one we can convert/);
+  });
   it('the record\'s datum option is used when the text states none', () => {
     expect(ok({ interpretation: written(), features: [], options: { datum: 'EPSG:4326' } }).components.datum).toBe(0);
   });
@@ -272,6 +277,10 @@ describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
 describe('no georeference', () => {
   it('no locality: refused with the interpretation\'s reason', () => {
     expect(georeference({ interpretation: interpretation('no-locality', { reason: 'locality unknown' }), features: [] })).toEqual({ ok: false, reason: 'locality unknown' });
+  });
+  it('an unusable offset is refused, not thrown', () => {
+    const bad: Offset[] = [{ distance: { ...km(10, 0.5), meters: Number.NaN }, heading: heading('NE', 45, 22.5) }];
+    expect(georeference({ interpretation: interpretation('offset-heading', { offsets: bad }), features: [feature()] })).toMatchObject({ ok: false, reason: expect.stringMatching(/cannot be used/) });
   });
   it('a bad option is refused by name', () => {
     expect(georeference({ interpretation: interpretation('near'), features: [feature()], options: { nearMinimumMeters: -5 } })).toMatchObject({ ok: false, reason: expect.stringMatching(/nearMinimumMeters/) });
@@ -324,6 +333,29 @@ describe('properties (fast-check)', () => {
         expect(run({ ...o, d: o.d + more }).uncertaintyMeters).toBeGreaterThanOrEqual(run(o).uncertaintyMeters - 1e-6);
       }),
       { numRuns: 200 },
+    );
+  });
+  it('never throws: every input comes back as a georeference or a reason', () => {
+    const types: Interpretation['type'][] = ['coordinates', 'named-place', 'offset-heading', 'offset-orthogonal', 'distance-only', 'offset-path', 'heading-only', 'between', 'near', 'junction', 'no-locality', 'unparseable'];
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...types),
+        fc.array(fc.record({ latitude: fc.double({ min: -90, max: 90, noNaN: true }), longitude: fc.double({ min: -180, max: 180, noNaN: true }), radiusMeters: fc.double({ min: 0, max: 1e6, noNaN: true }) }), { maxLength: 3 }),
+        fc.array(fc.record({ d: fc.double({ min: 0, max: 1e6, noNaN: true }), azimuth: fc.constantFrom(0, 45, 90, 180, 270, 333.3), halfWidth: fc.constantFrom(0, 11.25, 45) }), { maxLength: 2 }),
+        (type, places, offsets) => {
+          const outcome = georeference({
+            interpretation: interpretation(type, {
+              offsets: offsets.map((o) => ({ distance: { ...km(o.d / 1000, 0.5), meters: o.d }, heading: heading('h', o.azimuth, o.halfWidth) })),
+              coordinates: { written: 'c', latitude: places[0]?.latitude ?? 0, longitude: places[0]?.longitude ?? 0, format: 'decimal', precisionDegrees: 0.001, problems: [] },
+            }),
+            features: places.map((p, i) => feature({ ...p, featureId: `p${i}` })),
+          });
+          expect(typeof outcome.ok).toBe('boolean');
+          if (outcome.ok) expect(outcome.georeference.uncertaintyMeters).toBeGreaterThanOrEqual(0);
+          else expect(outcome.reason.length).toBeGreaterThan(0);
+        },
+      ),
+      { numRuns: 300 },
     );
   });
 });
