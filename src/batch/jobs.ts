@@ -63,7 +63,7 @@ CREATE TABLE IF NOT EXISTS batch_job (
   gazetteer_path TEXT NOT NULL, settings TEXT NOT NULL, version TEXT NOT NULL, sources TEXT NOT NULL,
   run_timestamp TEXT NOT NULL, rows_total INTEGER, rows_done INTEGER NOT NULL DEFAULT 0,
   output_bytes INTEGER NOT NULL DEFAULT 0, distinct_total INTEGER, distinct_done INTEGER NOT NULL DEFAULT 0,
-  tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT
+  tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT, runner_pid INTEGER
 );
 CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
@@ -104,6 +104,25 @@ function fromRow(row: JobRow): BatchJob {
     rowsDone: row.rows_done, outputBytes: row.output_bytes, distinctTotal: row.distinct_total, distinctDone: row.distinct_done,
     tallies: JSON.parse(row.tallies) as Record<string, number>, startedAt: row.started_at, finishedAt: row.finished_at, error: row.error,
   };
+}
+
+/**
+ * Mark the job as run by this process, or refuse when another live process runs it: two writers of one
+ * partial file would spoil it. A process killed with -9 leaves its pid behind, which is then not alive.
+ */
+export function claimJob(db: Database.Database, id: string): void {
+  const { runner_pid: pid } = db.prepare('SELECT runner_pid FROM batch_job WHERE id = ?').get(id) as { runner_pid: number | null };
+  if (pid && pid !== process.pid && processIsAlive(pid)) throw new Error(`batch job ${id} is being run by process ${pid}; wait for it, or stop that process first`);
+  db.prepare('UPDATE batch_job SET runner_pid = ? WHERE id = ?').run(process.pid, id);
+}
+
+function processIsAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (error) {
+    return (error as NodeJS.ErrnoException).code === 'EPERM';
+  }
 }
 
 /** A job by id, or an error saying there is none. */

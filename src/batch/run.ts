@@ -22,7 +22,7 @@ import { unreadableResult, type BatchSettings, type GroupResult } from './georef
 import georeferenceChunk, { closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
-  findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
+  claimJob, findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
 } from './jobs.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
@@ -101,6 +101,7 @@ export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: 
   const jobs = openJobs(jobsPath);
   try {
     const { job, resumed, format } = options.resume ? await resumableJob(jobs, options) : await newOrUnfinishedJob(jobs, jobsPath, options);
+    claimJob(jobs, job.id);
     const done = runJob(jobs, job, format, options).then(
       (summary) => ({ ...summary, resumed }),
       (error: unknown) => {

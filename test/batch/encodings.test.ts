@@ -17,6 +17,7 @@ interface Expected {
   delimiter: string;
   header: string[];
   rows: { fields: string[]; problem?: string; extra?: string }[];
+  distinct: number;
 }
 
 const CASES = ['windows-1252.csv', 'utf8-bom-crlf.csv', 'utf16le.tsv', 'utf16be.tsv', 'malformed.csv'];
@@ -33,6 +34,7 @@ describe('batch input in any encoding and shape', async () => {
       expect(summary.encoding).toBe(expected.encoding);
       expect(summary.delimiter).toBe(expected.delimiter);
       expect(summary.rows).toBe(expected.rows.length);
+      expect(summary.distinctLocalities).toBe(expected.distinct);
 
       const [header, ...rows] = readOutput(output, expected.delimiter);
       expect(header).toEqual([...expected.header, ...appendedColumnNames(expected.header), COORDINATE_FLAGS_COLUMN]);

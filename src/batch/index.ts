@@ -1,0 +1,9 @@
+/**
+ * The batch API for the CLI and the HTTP service: start or resume a job, and read its progress.
+ * @example
+ *   const { jobId, done } = await startBatchJob({ dbPath, input: uploadBytes, output: '/srv/out/records.csv' });
+ *   jobProgress(jobsDatabasePath(dbPath), jobId).rowsDone;
+ */
+export { startBatchJob, type BatchJobOptions, type BatchProgressEvent, type BatchSummary } from './run.ts';
+export { jobProgress, jobsDatabasePath, type JobProgress, type JobState } from './jobs.ts';
+export { COORDINATE_FLAGS, COORDINATE_FLAGS_COLUMN, type CoordinateFlag } from './coordinate-check.ts';
