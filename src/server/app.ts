@@ -70,9 +70,10 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
   const reviews = openReviews(reviewsDatabasePath(options.dbPath));
   const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
   const batches = new BatchService(options.dbPath, store, reviews, results);
-  // On close (SIGTERM): requests in flight finish first, then running jobs get a moment to commit their step.
+  await batches.resumeUnfinished();
+  // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.
   app.addHook('onClose', async () => {
-    await batches.close();
+    if (batches.runningJobs().length) app.log.info({ jobs: batches.runningJobs() }, 'batch jobs stopped at their last committed step');
     reviews.close();
     store.close();
   });

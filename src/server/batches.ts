@@ -106,9 +106,38 @@ export class BatchService {
     } catch (error) {
       throw new RequestError(400, `the file could not be read as a batch: ${error instanceof Error ? error.message : String(error)}`, 'file');
     }
-    // A failed job is stored as failed by src/batch; progress reports it, so the rejection is handled here.
-    this.running.set(started.jobId, started.done.catch(() => undefined).finally(() => this.running.delete(started.jobId)));
+    this.reviews.addJob(started.jobId);
+    this.follow(started.jobId, started.done);
     return started.jobId;
+  }
+
+  /**
+   * Resumes the jobs this service started that a stop (SIGTERM, a crash) left unfinished: each has
+   * committed its steps (src/batch), so it goes on where it was, with nothing lost or repeated.
+   */
+  async resumeUnfinished(): Promise<string[]> {
+    const resumed: string[] = [];
+    for (const jobId of this.reviews.jobs()) {
+      const state = this.progressOrUndefined(jobId)?.state;
+      if (state === undefined || state === 'done' || state === 'failed') continue;
+      const started = await startBatchJob({ dbPath: this.dbPath, resume: jobId });
+      this.follow(jobId, started.done);
+      resumed.push(jobId);
+    }
+    return resumed;
+  }
+
+  /** A failed job is stored as failed by src/batch and progress reports it, so the rejection ends here. */
+  private follow(jobId: string, done: Promise<BatchSummary>): void {
+    this.running.set(jobId, done.catch(() => undefined).finally(() => this.running.delete(jobId)));
+  }
+
+  private progressOrUndefined(jobId: string): JobProgress | undefined {
+    try {
+      return jobProgress(this.jobsPath, jobId);
+    } catch {
+      return undefined;
+    }
   }
 
   /** Progress without server paths; a 404 for a job this service did not start. */
@@ -187,18 +216,17 @@ export class BatchService {
     return stringify([output.header, ...rows]);
   }
 
-  /** Waits for jobs in flight; each has committed its progress step by step, so a stop loses nothing. */
-  async close(timeoutMs = 5000): Promise<void> {
-    await Promise.race([Promise.allSettled(this.running.values()), new Promise((r) => setTimeout(r, timeoutMs).unref())]);
+  /**
+   * Nothing to wait for on a stop: a job commits each step as it goes (src/batch), so whatever a stop
+   * interrupts is resumed by `resumeUnfinished` on the next start.
+   */
+  runningJobs(): string[] {
+    return [...this.running.keys()];
   }
 
   private ownProgress(jobId: string): JobProgress {
-    let progress: JobProgress & { outputPath?: string };
-    try {
-      progress = jobProgress(this.jobsPath, jobId);
-    } catch {
-      throw new RequestError(404, `no batch job ${jobId}`, 'jobId');
-    }
+    const progress = this.progressOrUndefined(jobId);
+    if (!progress) throw new RequestError(404, `no batch job ${jobId}`, 'jobId');
     return progress;
   }
 

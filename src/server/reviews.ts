@@ -1,7 +1,8 @@
 /**
  * Review decisions on batch records, in a SQLite file of their own beside the gazetteer
  * (`<gazetteer>.reviews.sqlite`, WAL): every decision is kept with who made it and when; the
- * latest one for a row is the one that counts. Prepared statements only.
+ * latest one for a row is the one that counts. The ids of the jobs the service started are kept
+ * too, to resume them after a stop. Prepared statements only.
  */
 import { basename, dirname, join } from 'node:path';
 import Database from 'better-sqlite3';
@@ -33,6 +34,10 @@ export function reviewsDatabasePath(gazetteerPath: string): string {
 }
 
 export interface ReviewStore {
+  /** Remembers a batch job this service started, so that it can be resumed after a stop. */
+  addJob(jobId: string): void;
+  /** The jobs this service started, oldest first. */
+  jobs(): string[];
   record(jobId: string, row: number, review: Review): void;
   /** The latest decision for each reviewed row of a job. */
   latest(jobId: string): Map<number, Review>;
@@ -46,10 +51,15 @@ export function openReviews(path: string): ReviewStore {
   db.exec(`CREATE TABLE IF NOT EXISTS review_decision (
     id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, row INTEGER NOT NULL, decision TEXT NOT NULL,
     candidate_source TEXT, candidate_feature TEXT, reviewer TEXT NOT NULL, decided_at TEXT NOT NULL);
-    CREATE INDEX IF NOT EXISTS review_by_job ON review_decision (job_id, row, id);`);
+    CREATE INDEX IF NOT EXISTS review_by_job ON review_decision (job_id, row, id);
+    CREATE TABLE IF NOT EXISTS served_job (job_id TEXT PRIMARY KEY, started_at TEXT NOT NULL);`);
+  const insertJob = db.prepare('INSERT OR IGNORE INTO served_job (job_id, started_at) VALUES (?, ?)');
+  const selectJobs = db.prepare('SELECT job_id FROM served_job ORDER BY started_at, job_id');
   const insert = db.prepare('INSERT INTO review_decision (job_id, row, decision, candidate_source, candidate_feature, reviewer, decided_at) VALUES (?, ?, ?, ?, ?, ?, ?)');
   const select = db.prepare('SELECT row, decision, candidate_source, candidate_feature, reviewer, decided_at FROM review_decision WHERE job_id = ? ORDER BY id');
   return {
+    addJob: (jobId) => void insertJob.run(jobId, new Date().toISOString()),
+    jobs: () => (selectJobs.all() as { job_id: string }[]).map((r) => r.job_id),
     record(jobId, row, r) {
       insert.run(jobId, row, r.decision, r.candidate?.sourceId ?? null, r.candidate?.featureId ?? null, r.reviewer, r.decidedAt);
     },

@@ -8,10 +8,9 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { isLoopback, readAccessToken } from '../../src/server/access.ts';
 import { buildServer } from '../../src/server/app.ts';
-import { demoDatabase, listen, post, type RunningServer, type TempDatabase } from './helpers.ts';
+import { BIN, demoDatabase, listen, post, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
 
 const TOKEN = 'correct-horse-battery-staple-42';
-const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
 
 let db: TempDatabase;
 let server: RunningServer;
@@ -94,17 +93,8 @@ describe('binding', () => {
   });
 
   it('the serve verb prints its URL with the port, answers, and finishes cleanly on SIGTERM', async () => {
-    const child = spawn(process.execPath, [BIN, 'serve', '--port', '0', '--db', db.dbPath], { env: { ...process.env, WHEREABOUTS_TOKEN: '' }, stdio: ['ignore', 'pipe', 'pipe'] });
-    const url = await new Promise<string>((resolve, reject) => {
-      let out = '';
-      child.stdout.on('data', (chunk) => {
-        out += chunk;
-        const match = /http:\/\/127\.0\.0\.1:(\d+)\//.exec(out);
-        if (match) resolve(match[0]);
-      });
-      child.on('exit', (c) => reject(new Error(`exited ${c}`)));
-    });
-    const answer = await post(`${url}api/v1/georeference`, { locality: 'Puerto Lindo', countryCode: 'QV' });
+    const { url, child } = await spawnServe(['--port', '0', '--db', db.dbPath]);
+    const answer = await post(`${url}/api/v1/georeference`, { locality: 'Puerto Lindo', countryCode: 'QV' });
     expect(answer.status).toBe(200);
     const exited = new Promise<number | null>((resolve) => child.on('exit', resolve));
     child.kill('SIGTERM');

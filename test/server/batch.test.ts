@@ -7,7 +7,9 @@
 import { readFileSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_LOCALITIES, demoDatabase, listen, type RunningServer, type TempDatabase } from './helpers.ts';
+import { jobProgress, jobsDatabasePath } from '../../src/batch/jobs.ts';
+import { buildServer } from '../../src/server/app.ts';
+import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
 
 let db: TempDatabase;
 let server: RunningServer;
@@ -165,5 +167,38 @@ describe('uploads are checked by content and size', () => {
   it('never takes a path from a job id', async () => {
     expect((await fetch(`${server.url}/api/v1/batches/..%2F..%2Fetc%2Fpasswd`)).status).toBe(400);
     expect((await fetch(`${server.url}/api/v1/batches/no-such-job`)).status).toBe(404);
+  });
+});
+
+describe('a stop during a batch', () => {
+  it('SIGTERM stops the service; the next start resumes the job, with every row once', async () => {
+    const rows = Array.from({ length: 4000 }, (_, i) => `occ-${i + 1},${(i + 1) / 10} km NE of Puerto Lindo,QV`);
+    const csv = Buffer.from(['occurrenceID,locality,countryCode', ...rows].join('\n'));
+    const { url, child } = await spawnServe(['--port', '0', '--db', db.dbPath]);
+    const form = new FormData();
+    form.append('file', new Blob([csv], { type: 'text/csv' }), 'many.csv');
+    const started = await fetch(`${url}/api/v1/batches`, { method: 'POST', body: form });
+    expect(started.status).toBe(202);
+    const { jobId } = (await started.json()) as { jobId: string };
+    const exited = new Promise((resolve) => child.on('exit', resolve));
+    child.kill('SIGTERM');
+    expect(await exited).toBe(0);
+    expect(jobProgress(jobsDatabasePath(db.dbPath), jobId).state).not.toBe('done'); // it was stopped part-way
+
+    const second = await buildServer({ dbPath: db.dbPath });
+    try {
+      let progress: any;
+      for (let i = 0; i < 1200; i++) {
+        progress = (await second.inject({ url: `/api/v1/batches/${jobId}` })).json();
+        if (progress.state === 'done' || progress.state === 'failed') break;
+        await new Promise((r) => setTimeout(r, 100));
+      }
+      expect(progress.state).toBe('done');
+      const out = parse((await second.inject({ url: `/api/v1/batches/${jobId}/reviewed.csv` })).body, { columns: true }) as Record<string, string>[];
+      expect(out.map((r) => r.occurrenceID)).toEqual(rows.map((r) => r.split(',')[0]));
+      expect(out.every((r) => r.georeferenceVerificationStatus === 'requires verification')).toBe(true);
+    } finally {
+      await second.close();
+    }
   });
 });

@@ -83,6 +83,15 @@ describe('POST /api/v1/georeference', () => {
     expect(mapped.components.mapScale).toBeGreaterThanOrEqual(12.19);
   });
 
+  it('adds the unknown-datum term to written coordinates unless a datum is given', async () => {
+    const base = { locality: 'Puerto Lindo', countryCode: 'QV', verbatimCoordinates: '45.2265 S, 131.3876 W' };
+    const unknown = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: base })).json();
+    // Method §5.4 (Chapman & Wieczorek 2020, §Uncertainty from Unknown Datum): 5359 m when no datum is stated.
+    expect(unknown.components.datum).toBe(5359);
+    const stated = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { datum: 'EPSG:4326' } } })).json();
+    expect(stated.components.datum).toBe(0);
+  });
+
   it('compares the record\'s own coordinates with the proposed point', async () => {
     const answer = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo', countryCode: 'QV', decimalLatitude: -45.2265, decimalLongitude: -131.3876 } })).json();
     expect(answer.recordPoint.withinUncertainty).toBe(true);

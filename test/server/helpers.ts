@@ -1,4 +1,5 @@
 /** A real SQLite gazetteer in a temporary folder, and a real service on 127.0.0.1 over it. */
+import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -8,6 +9,7 @@ import { openGazetteer } from '../../src/gazetteer/store.ts';
 import { buildServer, type ServerOptions } from '../../src/server/app.ts';
 
 export const DEMO_GAZETTEER = new URL('../../gazetteer/demo.geojson', import.meta.url).pathname;
+export const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
 export const DEMO_LOCALITIES = new URL('../../gazetteer/demo-localities.csv', import.meta.url).pathname;
 
 export interface TempDatabase {
@@ -65,4 +67,18 @@ export async function post(url: string, body: unknown, headers: Record<string, s
     json = text;
   }
   return { status: response.status, json, headers: response.headers };
+}
+
+/** The real `whereabouts serve` in a child process (no token in its environment); resolves with its printed URL. */
+export function spawnServe(args: string[]): Promise<{ url: string; child: ChildProcessWithoutNullStreams }> {
+  const child = spawn(process.execPath, [BIN, 'serve', ...args], { env: { ...process.env, WHEREABOUTS_TOKEN: '', WHEREABOUTS_TOKEN_FILE: '' } });
+  return new Promise((resolve, reject) => {
+    let out = '';
+    child.stdout.on('data', (chunk) => {
+      out += chunk;
+      const match = /http:\/\/127\.0\.0\.1:\d+/.exec(out);
+      if (match) resolve({ url: match[0], child });
+    });
+    child.on('exit', (code) => reject(new Error(`whereabouts serve exited with ${code}`)));
+  });
 }

@@ -114,6 +114,24 @@ describe('lookup', () => {
     await page.screenshot({ path: join(ARTIFACTS, 'lookup-markup-as-text.png') });
   });
 
+  it('works by keyboard alone, and every form control has a label', async () => {
+    await page.click('#tab-lookup');
+    await page.fill('#f-locality', '');
+    await page.focus('#f-locality');
+    await page.keyboard.type('5 km S of Puerto Lindo');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('QV');
+    await page.keyboard.press('Enter'); // submits the form from a text field
+    await page.waitForFunction(() => document.querySelector('#lookup-result')?.textContent?.includes('5 km S of Puerto Lindo'));
+    await page.waitForSelector('#result-radius');
+    const unlabelled = await page.evaluate(() =>
+      [...document.querySelectorAll('input, select, textarea')]
+        .filter((control) => !(control as HTMLInputElement).labels?.length && !control.getAttribute('aria-label'))
+        .map((control) => control.outerHTML.slice(0, 80)),
+    );
+    expect(unlabelled).toEqual([]);
+  });
+
   it('meets its own content security policy', () => {
     expect(cspViolations).toEqual([]);
   });

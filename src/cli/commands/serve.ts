@@ -47,7 +47,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
       const shownHost = opts.host.includes(':') ? `[${opts.host}]` : opts.host;
       process.stdout.write(`whereabouts is serving ${db} at http://${shownHost}:${port}/${token ? ' (access token required)' : ''}\n`);
       const stop = async (signal: string) => {
-        process.stderr.write(`whereabouts: ${signal}: finishing requests in flight, then stopping\n`);
+        process.stderr.write(`whereabouts: ${signal}: finishing requests in flight, then stopping (running batch jobs resume on the next start)\n`);
         await app.close();
         process.exit(0);
       };
