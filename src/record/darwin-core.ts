@@ -50,7 +50,8 @@ export const PROTOCOL = `point-radius method (Wieczorek, Guo & Hijmans 2004, doi
  * 1 % of the radius; the displacement is then added to the radius, so rounding never hides error.
  */
 export function reportingDecimals(uncertaintyMeters: number): number {
-  const metersPerDegree = 111_320; // a degree of latitude, rounded up at the poles' side: common practice, no source
+  // The longest degree on WGS84 on either axis: latitude at the poles, 111 694 m (method §5.3, Llat(90°)).
+  const metersPerDegree = 111_694;
   for (let k = 0; k < 7; k++) {
     const worstShift = (10 ** -k / 2) * Math.SQRT2 * metersPerDegree;
     if (worstShift <= uncertaintyMeters / 100) return k;
@@ -95,7 +96,10 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
     footprintSRS: 'EPSG:4326',
     ...common,
     georeferenceSources: citeSources(result, context.sources),
-    georeferenceRemarks: g.remarks.join('; '),
+    georeferenceRemarks: [
+      ...g.remarks,
+      `reported to ${decimals} decimals (coordinatePrecision); the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (point-radius.md §6)`,
+    ].join('; '),
   };
 }
 

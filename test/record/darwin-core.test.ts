@@ -38,9 +38,9 @@ describe('reporting decimals', () => {
   it('never rounds away more than 1 % of the radius', () => {
     for (const radius of [3, 30, 300, 3000, 30000, 300000]) {
       const k = reportingDecimals(radius);
-      const worstShiftMeters = (10 ** -k / 2) * Math.SQRT2 * 111_320;
+      const worstShiftMeters = (10 ** -k / 2) * Math.SQRT2 * 111_694;
       if (k < 7) expect(worstShiftMeters).toBeLessThanOrEqual(radius / 100);
-      if (k > 0) expect((10 ** -(k - 1) / 2) * Math.SQRT2 * 111_320).toBeGreaterThan(radius / 100);
+      if (k > 0) expect((10 ** -(k - 1) / 2) * Math.SQRT2 * 111_694).toBeGreaterThan(radius / 100);
     }
   });
 });
