@@ -1,23 +1,24 @@
 /**
  * The deletion-neighbourhood index keys and the edit distance that checks what they find. Pure.
  *
- * Two strings within one edit (insertion, deletion, substitution, adjacent transposition) share a
- * string reachable by at most one deletion from each. Every stored token of 3 letters or more is kept
- * with the hashes of its one-deletion variants; a query looks up its own zero-, one- and (from 5
- * letters) two-deletion variants, so it finds every token within one edit, and within two when one
- * of them is a letter too many in the query. Tokens of 6 letters or more are also split into a front
- * and a back half, each stored with its one-deletion variants (keyed by the token's length and the
- * side): two edits leave at least one half within one edit, so a query finds every such token within
- * two edits by looking up the halves it would have at each length within two of its own. Shorter
- * halves would match too many tokens to be worth reading.
+ * Two strings within k edits (insertion, deletion, substitution, adjacent transposition) share a
+ * string reachable by at most k deletions from each. Stored tokens keep the hashes of their variants
+ * with up to one letter deleted (3 letters and more), up to two (6 to 9 letters), and tokens of 10
+ * letters or more a front and a back half, each with up to one letter deleted and keyed by the
+ * token's length and the side (two edits leave one half within one edit; whole-token two-deletion
+ * sets would be too large there). A query looks up its own zero-, one- and (from 6 letters)
+ * two-deletion variants and the halves it would share with tokens of each length within two of its
+ * own. So a query finds every stored token within one edit, and every stored token of 6 letters or
+ * more within two. Keys are never shorter than 4 letters for two-edit matches, which keeps each
+ * lookup selective in a vocabulary of hundreds of thousands of tokens.
  */
 
 /** Tokens shorter than this are found only exactly: one deletion of a 2-letter token matches too much. */
 export const MIN_FUZZY_TOKEN_LENGTH = 3;
-/** Query tokens of at least this length also look up their two-deletion variants. */
-export const MIN_TWO_DELETION_LENGTH = 5;
-/** Stored tokens of at least this length are also indexed by halves and found within any two edits. */
-export const MIN_HALVES_LENGTH = 6;
+/** Tokens of at least this length are found within two edits. */
+export const MIN_TWO_EDIT_LENGTH = 6;
+/** Stored tokens of at least this length are indexed by halves instead of two-deletion variants. */
+export const MIN_HALVES_LENGTH = 10;
 
 /**
  * 32-bit FNV-1a hash of a string's UTF-16 code units (collisions only add candidates that the edit
@@ -40,6 +41,13 @@ function withOneDeletion(text: string): Set<string> {
   return variants;
 }
 
+/** A string and every variant with one or two letters deleted. */
+function withTwoDeletions(text: string): Set<string> {
+  const variants = new Set<string>();
+  for (const once of withOneDeletion(text)) for (const twice of withOneDeletion(once)) variants.add(twice);
+  return variants;
+}
+
 /** Keys of one half ('<' front, '>' back) of a token of `length` letters. */
 function halfKeys(length: number, side: '<' | '>', half: string, into: Set<number>): void {
   const tag = String.fromCharCode(length) + side;
@@ -53,7 +61,8 @@ function halfKeys(length: number, side: '<' | '>', half: string, into: Set<numbe
 export function storedTokenKeys(token: string): number[] {
   const keys = new Set<number>();
   if (token.length < MIN_FUZZY_TOKEN_LENGTH) return [];
-  for (const variant of withOneDeletion(token)) keys.add(hashKey(variant));
+  const twoEdits = token.length >= MIN_TWO_EDIT_LENGTH && token.length < MIN_HALVES_LENGTH;
+  for (const variant of twoEdits ? withTwoDeletions(token) : withOneDeletion(token)) keys.add(hashKey(variant));
   if (token.length >= MIN_HALVES_LENGTH) {
     const half = token.length >> 1;
     halfKeys(token.length, '<', token.slice(0, half), keys);
@@ -63,17 +72,15 @@ export function storedTokenKeys(token: string): number[] {
 }
 
 /**
- * Hashes a query token looks up: its zero-, one- and (from MIN_TWO_DELETION_LENGTH letters)
- * two-deletion variants, and for each stored length within two of its own (from MIN_HALVES_LENGTH),
- * the front and back halves such a token would share with it.
+ * Hashes a query token looks up: its zero-, one- and (from MIN_TWO_EDIT_LENGTH letters) two-deletion
+ * variants, and for each stored length within two of its own (from MIN_HALVES_LENGTH), the front and
+ * back halves such a token would share with it.
  * @example queryTokenKeys('rosario').length > 0 // true
  */
 export function queryTokenKeys(token: string): number[] {
   const keys = new Set<number>();
-  for (const variant of withOneDeletion(token)) {
-    if (token.length >= MIN_TWO_DELETION_LENGTH) for (const twice of withOneDeletion(variant)) keys.add(hashKey(twice));
-    else keys.add(hashKey(variant));
-  }
+  const variants = token.length >= MIN_TWO_EDIT_LENGTH ? withTwoDeletions(token) : withOneDeletion(token);
+  for (const variant of variants) keys.add(hashKey(variant));
   for (let length = Math.max(MIN_HALVES_LENGTH, token.length - 2); length <= token.length + 2; length++) {
     const half = length >> 1;
     for (let shift = -1; shift <= 1; shift++) {
@@ -122,9 +129,9 @@ export function editDistance(a: string, b: string, max = Infinity): number {
 
 /**
  * Largest edit distance accepted between a query token and a stored token: 2 for stored tokens of
- * MIN_TWO_DELETION_LENGTH letters or more, 1 for shorter ones (common practice, no source).
+ * MIN_TWO_EDIT_LENGTH letters or more, 1 for shorter ones (common practice, no source).
  * @example maxTokenEdits('rio') // 1
  */
 export function maxTokenEdits(storedToken: string): number {
-  return storedToken.length >= MIN_TWO_DELETION_LENGTH ? 2 : 1;
+  return storedToken.length >= MIN_TWO_EDIT_LENGTH ? 2 : 1;
 }

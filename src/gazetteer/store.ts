@@ -42,11 +42,11 @@ const DEFAULT_LIMIT = 10;
 /** Score of an exact match reached through an abbreviation or a left-out word, below a plain exact match. */
 const READING_SCORE = 0.97;
 /** At most this many postings are read for one fuzzy lookup (rarest query tokens first). */
-const POSTING_BUDGET = 2000;
+const POSTING_BUDGET = 800;
 /** At most this many features are loaded and scored with fuse.js for one fuzzy lookup. */
 const FUZZY_POOL = 20;
 /** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
-const SHORTLIST = 100;
+const SHORTLIST = 60;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 const TOKEN_CACHE_LIMIT = 500_000;
@@ -391,40 +391,47 @@ class SqliteGazetteer implements GazetteerStore {
     const matched = queryTokens
       .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1).map((match) => ({ ...match, index })))
       .sort((a, b) => a.df - b.df || a.edits - b.edits);
-    const countries = context.countryCodes.size > 0 ? JSON.stringify([...context.countryCodes]) : null;
-    const pool = new Map<number, number[]>();
+    // Rarest tokens first, as many as the posting budget holds; a common token that does not fit
+    // adds nothing the rare ones have not found already (the whole-name re-ranking below makes up for it).
+    const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
-    for (const { id, edits, index, df } of matched) {
+    for (const match of matched) {
+      if (chosen.length > 0 && match.df > budget) continue;
+      chosen.push(match);
+      budget -= match.df;
       if (budget <= 0) break;
-      // A common token (df over what is left) adds nothing the rare ones have not found already.
-      if (pool.size > 0 && df > budget) continue;
-      const rows = (countries === null
-        ? this.statements.postings.all(id, budget)
-        : this.statements.postingsInCountries.all(id, countries, budget)) as { feature: number }[];
-      budget -= rows.length;
+    }
+    const byToken = new Map<number, { index: number; weight: number }[]>();
+    for (const { id, edits, index } of chosen) {
       const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
       // About the number of letters the token contributes to the match: long tokens found with few
       // edits say most about which feature is meant.
       const weight = (optional ? 0.5 : 1) * Math.max(0.5, queryTokens[index].length - 1.5 * edits);
-      for (const { feature } of rows) {
-        const weights = pool.get(feature) ?? new Array<number>(queryTokens.length).fill(0);
-        weights[index] = Math.max(weights[index], weight);
-        pool.set(feature, weights);
-      }
+      byToken.set(id, [...(byToken.get(id) ?? []), { index, weight }]);
+    }
+    const tokenIds = JSON.stringify([...byToken.keys()]);
+    const rows = (context.countryCodes.size === 0
+      ? this.statements.postings.all(tokenIds, POSTING_BUDGET)
+      : this.statements.postingsInCountries.all(tokenIds, JSON.stringify([...context.countryCodes]), POSTING_BUDGET)) as { feature: number; token: number }[];
+    const pool = new Map<number, number[]>();
+    for (const { feature, token } of rows) {
+      const weights = pool.get(feature) ?? new Array<number>(queryTokens.length).fill(0);
+      for (const { index, weight } of byToken.get(token) ?? []) weights[index] = Math.max(weights[index], weight);
+      pool.set(feature, weights);
     }
     const total = (weights: number[]) => weights.reduce((sum, weight) => sum + weight, 0);
     // The token weights only shortlist: a common token skipped above ("monte") counts for nobody, so
     // the shortlist is re-ranked by the edit distance of the whole name before fuse.js scores the best.
     const shortlist = [...pool.entries()]
       .sort((a, b) => total(b[1]) - total(a[1]))
-      .slice(0, SHORTLIST)
-      .map(([id, weights]) => ({ id, weight: total(weights), edits: this.nameEdits(id, folded) }));
-    const features = shortlist
+      .slice(0, SHORTLIST);
+    const edits = this.nameEdits(shortlist.map(([id]) => id), folded);
+    const best = shortlist
+      .map(([id, weights]) => ({ id, weight: total(weights), edits: edits.get(id) ?? Infinity }))
       .sort((a, b) => a.edits - b.edits || b.weight - a.weight)
       .slice(0, FUZZY_POOL)
-      .map(({ id }) => this.loadFeature(id))
-      .filter((feature): feature is Feature => feature !== null);
-    return scoreFuzzy(folded, features);
+      .map(({ id }) => id);
+    return scoreFuzzy(folded, this.loadFeatures(best));
   }
 
   /** Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands for. */
@@ -444,16 +451,27 @@ class SqliteGazetteer implements GazetteerStore {
     return [...found.values()];
   }
 
-  /** Fewest edits between a folded query and the folded name or any alternate name of a feature. */
-  private nameEdits(id: number, foldedQuery: string): number {
-    const row = this.statements.namesById.get(id) as { name: string; alternate_names: string | null } | undefined;
-    if (row === undefined) return Infinity;
+  /** Fewest edits between a folded query and the folded name or any alternate name of each feature. */
+  private nameEdits(ids: number[], foldedQuery: string): Map<number, number> {
     const limit = Math.max(2, foldedQuery.length >> 1);
-    let best = editDistance(foldedQuery, foldName(row.name), limit);
-    if (row.alternate_names !== null) {
-      for (const alternate of row.alternate_names.split(NAME_SEPARATOR)) best = Math.min(best, editDistance(foldedQuery, foldName(alternate), limit));
+    const edits = new Map<number, number>();
+    for (const row of this.statements.namesByIds.all(JSON.stringify(ids)) as { id: number; name: string; alternate_names: string | null }[]) {
+      let best = editDistance(foldedQuery, foldName(row.name), limit);
+      if (row.alternate_names !== null) {
+        for (const alternate of row.alternate_names.split(NAME_SEPARATOR)) best = Math.min(best, editDistance(foldedQuery, foldName(alternate), limit));
+      }
+      edits.set(row.id, best);
     }
-    return best;
+    return edits;
+  }
+
+  /** Features by row id, in the order asked. */
+  private loadFeatures(ids: number[]): Feature[] {
+    const rows = new Map((this.statements.featuresByIds.all(JSON.stringify(ids)) as FeatureRow[]).map((row) => [row.id, row]));
+    return ids.flatMap((id) => {
+      const row = rows.get(id);
+      return row === undefined ? [] : [toFeature(row)];
+    });
   }
 
   private featureIdsByKey(key: string): number[] {
@@ -510,14 +528,16 @@ function prepareStatements(db: Database.Database) {
       WHERE s.name = ? AND f.feature_id = ?`),
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
-    namesById: db.prepare('SELECT name, alternate_names FROM features WHERE id = ?'),
+    namesByIds: db.prepare('SELECT id, name, alternate_names FROM features WHERE id IN (SELECT value FROM json_each(?))'),
+    featuresByIds: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
+      WHERE f.id IN (SELECT value FROM json_each(?))`),
     featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     tokensByDeletion: db.prepare(`SELECT DISTINCT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
       WHERE d.hash IN (SELECT value FROM json_each(?))`),
-    postings: db.prepare('SELECT feature FROM postings WHERE token = ? LIMIT ?'),
-    postingsInCountries: db.prepare(`SELECT p.feature FROM postings p JOIN features f ON f.id = p.feature
-      WHERE p.token = ?
+    postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
+    postingsInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
+      WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
   };
 }

@@ -3,7 +3,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, queryTokenKeys, storedTokenKeys } from '../../src/gazetteer/edit-distance.ts';
+import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, queryTokenKeys, storedTokenKeys } from '../../src/gazetteer/edit-distance.ts';
 import { foldName, nameVariants } from '../../src/gazetteer/fold.ts';
 import { administrativeKey, countryCodeForName } from '../../src/gazetteer/context.ts';
 import { DEFAULT_RADII } from '../../src/gazetteer/default-radii.ts';
@@ -109,8 +109,8 @@ describe('the deletion-neighbourhood index finds what it promises (fast-check pr
     }), { numRuns: 2000 });
   });
 
-  it(`every stored token of ${MIN_HALVES_LENGTH} letters or more within two edits`, () => {
-    fc.assert(fc.property(token(MIN_HALVES_LENGTH), edit, edit, (stored, [k1, a1, l1], [k2, a2, l2]) => {
+  it(`every stored token of ${MIN_TWO_EDIT_LENGTH} letters or more within two edits`, () => {
+    fc.assert(fc.property(token(MIN_TWO_EDIT_LENGTH), edit, edit, (stored, [k1, a1, l1], [k2, a2, l2]) => {
       const query = typo(typo(stored, k1, a1, l1), k2, a2, l2);
       expect(shareKey(stored, query)).toBe(true);
     }), { numRuns: 2000 });
