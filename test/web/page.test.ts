@@ -11,6 +11,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
 
 const ARTIFACTS = new URL('../artifacts/', import.meta.url).pathname;
+// The README's screenshots, rewritten only on purpose: UPDATE_SCREENSHOTS=1 npx vitest run test/web
+const README_SHOTS = new URL('./screenshots/', import.meta.url).pathname;
+const FOR_README = new Set(['lookup', 'batch-review']);
 // Names with markup, as a gazetteer exported from an old system might hold them; both share an alternate name.
 const HOSTILE_NAMES = ['<script>window.__pwned = 1</script>Punta', '<img src=x onerror="window.__pwned = 2">Punta'];
 const hostileFeature = (name: string, i: number) => ({
@@ -55,6 +58,15 @@ afterAll(async () => {
   if (profile) rmSync(profile, { recursive: true, force: true });
 });
 
+/** A screenshot under test/artifacts/ (git-ignored), and for the README when asked. */
+async function shot(name: string) {
+  await page.screenshot({ path: join(ARTIFACTS, `${name}.png`) });
+  if (process.env.UPDATE_SCREENSHOTS === '1' && FOR_README.has(name)) {
+    mkdirSync(README_SHOTS, { recursive: true });
+    await page.screenshot({ path: join(README_SHOTS, `${name}.png`) });
+  }
+}
+
 async function lookUp(locality: string, countryCode = 'QV') {
   await page.click('#tab-lookup');
   await page.fill('#f-locality', locality);
@@ -77,13 +89,13 @@ describe('lookup', () => {
     expect(await page.locator('#lookup-map .leaflet-control-scale-line').count()).toBe(1);
     await page.mouse.move(1100, 450);
     expect(await page.textContent('.wa-cursor')).toMatch(/\d+\.\d{5}° [NS] {2}\d+\.\d{5}° [EW]/);
-    await page.screenshot({ path: join(ARTIFACTS, 'lookup.png') });
+    await shot('lookup');
   });
 
   it('changes the result when another candidate is chosen', async () => {
     await lookUp('Santa Rosa');
     expect(await page.textContent('#h-summary')).toContain('ambiguous');
-    await page.screenshot({ path: join(ARTIFACTS, 'lookup-ambiguous.png') });
+    await shot('lookup-ambiguous');
     await page.click('label[for="cand-0"]');
     await page.waitForSelector('#result-latitude');
     const first = await page.textContent('#result-latitude');
@@ -92,7 +104,7 @@ describe('lookup', () => {
     const second = await page.textContent('#result-latitude');
     expect(second).not.toBe(first);
     await page.waitForSelector('#lookup-map path.wa-circle');
-    await page.screenshot({ path: join(ARTIFACTS, 'lookup-candidate.png') });
+    await shot('lookup-candidate');
   });
 
   it('recomputes when the distance precision is edited', async () => {
@@ -111,7 +123,7 @@ describe('lookup', () => {
     for (const name of HOSTILE_NAMES) expect(text).toContain(name);
     expect(await page.locator('#lookup-result img, #lookup-result script').count()).toBe(0);
     expect(await page.evaluate(() => (window as unknown as { __pwned?: number }).__pwned)).toBeUndefined();
-    await page.screenshot({ path: join(ARTIFACTS, 'lookup-markup-as-text.png') });
+    await shot('lookup-markup-as-text');
   });
 
   it('works by keyboard alone, and every form control has a label', async () => {
@@ -145,7 +157,7 @@ describe('batch review', () => {
     await page.click('#batch-submit');
     await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
     expect(await page.textContent('#batch-progress-text')).toMatch(/done: 53 rows/);
-    await page.screenshot({ path: join(ARTIFACTS, 'batch-progress.png') });
+    await shot('batch-progress');
     await page.selectOption('#r-status', 'requires verification');
     await page.waitForFunction(() => document.querySelectorAll('#review-list tbody tr').length > 0 && [...document.querySelectorAll('#review-list tbody tr td:nth-child(3)')].every((td) => td.textContent?.startsWith('requires verification')));
     const row = await page.textContent('#review-list tbody tr.current td:first-child');
@@ -154,7 +166,7 @@ describe('batch review', () => {
     await page.waitForFunction(() => document.querySelector('#review-record h2')?.textContent?.startsWith('Row 3'));
     await page.waitForSelector('#review-map path.wa-circle');
     await page.evaluate(() => window.scrollTo(0, 0));
-    await page.screenshot({ path: join(ARTIFACTS, 'batch-review.png') });
+    await shot('batch-review');
     await page.keyboard.press('k');
     await page.keyboard.press('k');
     await page.waitForFunction((r) => document.querySelector('#review-list tbody tr.current td:first-child')?.textContent === r, row);
@@ -167,7 +179,7 @@ describe('batch review', () => {
     await page.waitForSelector('#review-list tbody tr.accepted');
     await page.waitForSelector('#review-map path.wa-circle');
     await page.evaluate(() => window.scrollTo(0, 0));
-    await page.screenshot({ path: join(ARTIFACTS, 'batch-accepted.png') });
+    await shot('batch-accepted');
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('#batch-download')]);
     const rows = parse(readFileSync((await download.path())!), { columns: true }) as Record<string, string>[];
