@@ -92,6 +92,18 @@ describe('lookup', () => {
     await shot('lookup');
   });
 
+  it('downloads the Darwin Core fields as a CSV row and the point and footprint as GeoJSON', async () => {
+    const [csv] = await Promise.all([page.waitForEvent('download'), page.click('#download-csv')]);
+    const [row] = parse(readFileSync((await csv.path())!), { columns: true }) as Record<string, string>[];
+    expect(row.locality).toBe('10 km NE of Puerto Lindo');
+    expect(row.coordinateUncertaintyInMeters).toBe(await page.textContent('#result-radius'));
+    const [geojson] = await Promise.all([page.waitForEvent('download'), page.click('#download-geojson')]);
+    const collection = JSON.parse(readFileSync((await geojson.path())!, 'utf8'));
+    // RFC 7946 §3.1.1: positions are [longitude, latitude].
+    expect(collection.features[0].geometry.coordinates).toEqual([Number(row.decimalLongitude), Number(row.decimalLatitude)]);
+    expect(collection.features[1].geometry.type).toMatch(/Polygon/);
+  });
+
   it('changes the result when another candidate is chosen', async () => {
     await lookUp('Santa Rosa');
     expect(await page.textContent('#h-summary')).toContain('ambiguous');
