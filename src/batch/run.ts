@@ -200,10 +200,17 @@ async function headerColumns(path: string, format: InputFormat, delimiter: Delim
 async function runJob(jobs: Database.Database, started: BatchJob, format: InputFormat, options: BatchJobOptions): Promise<Omit<BatchSummary, 'resumed'>> {
   const delimiter = started.delimiter as Delimiter;
   if (started.rowsTotal === null) await readGroups(jobs, started, format, delimiter, options);
+  // Rows are written while the distinct localities are georeferenced: the writer waits only for a row
+  // whose locality is not done yet, and localities go out in the order their first rows stand in the file.
   const read = loadJob(jobs, started.id);
-  if (read.distinctDone < (read.distinctTotal ?? 0)) await georeferenceGroups(jobs, read, options);
-  updateJob(jobs, started.id, { state: 'writing', error: null });
-  await writeRows(jobs, loadJob(jobs, started.id), format, delimiter, options);
+  const pending = read.distinctDone < (read.distinctTotal ?? 0);
+  updateJob(jobs, read.id, { state: pending ? 'georeferencing' : 'writing', error: null });
+  const results = new ResultSignal();
+  const georeferencing = pending
+    ? georeferenceGroups(jobs, read, options, results).then(() => results.finish(), (error: unknown) => results.finish(error))
+    : results.finish();
+  const writing = writeRows(jobs, read, format, delimiter, options, results);
+  await Promise.all([georeferencing, writing]);
   const job = loadJob(jobs, started.id);
   await deliver(job, options);
   updateJob(jobs, job.id, { state: 'done', finishedAt: new Date().toISOString() });
@@ -255,8 +262,7 @@ function recordContextOf(job: BatchJob): RecordContext {
 }
 
 /** Phase 2: each distinct locality not yet done, in chunks, over worker threads; each chunk committed as it comes back. */
-async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions): Promise<void> {
-  updateJob(jobs, job.id, { state: 'georeferencing' });
+async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions, results: ResultSignal): Promise<void> {
   const settings = JSON.parse(job.settings) as BatchSettings;
   const context = recordContextOf(job);
   // A walk along the rowid from the last chunk: the (job_id, key) index would sort the whole job each time.
@@ -284,12 +290,14 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   const lane = async () => {
     for (let task = nextTask(); task; task = nextTask()) {
       save(await run(task));
+      results.notify();
       options.onProgress?.({ jobId: job.id, phase: 'georeferencing', done: distinctDone, total });
       await testDelay();
     }
   };
   try {
     await Promise.all(Array.from({ length: pool ? threads * 2 : 1 }, lane));
+    updateJob(jobs, job.id, { state: 'writing' });
   } finally {
     await pool?.destroy();
     if (!pool) closeGazetteerOfThread();
@@ -297,7 +305,7 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
 }
 
 /** Phase 3: every row written in input order after the rows already committed; the file grows only by whole chunks. */
-async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions): Promise<void> {
+async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions, ready: ResultSignal): Promise<void> {
   if (job.outputBytes > 0 && !existsSync(job.partialPath) && job.outputPath !== '-' && existsSync(job.outputPath)) return; // renamed before the crash
   const restart = job.outputBytes > 0 && !existsSync(job.partialPath);
   let position = restart ? 0 : job.outputBytes;
@@ -305,9 +313,9 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const tallies: Record<string, number> = restart ? {} : { ...job.tallies };
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
-  const results = resultLookup(jobs, job.id);
-  const write = (rows: string[][]) => {
-    const bytes = Buffer.from(stringify(rows, { delimiter, record_delimiter: 'windows' }), 'utf8');
+  const results = resultLookup(jobs, job.id, delimiter);
+  const writeText = (text: string) => {
+    const bytes = Buffer.from(text, 'utf8');
     writeSync(fd, bytes, 0, bytes.length, position);
     position += bytes.length;
     fsyncSync(fd);
@@ -317,10 +325,10 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
     let columns: ColumnIndex | undefined;
     let headerLength = 0;
     let rowIndex = 0;
-    let buffer: string[][] = [];
+    let buffer: string[] = [];
     const flush = () => {
       if (buffer.length === 0) return;
-      write(buffer);
+      writeText(buffer.join(''));
       rowsDone += buffer.length;
       buffer = [];
       updateJob(jobs, job.id, { rowsDone, outputBytes: position, tallies });
@@ -330,13 +338,20 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
         if (position === 0) {
-          write([[...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN]]);
+          writeText(csvLine([...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN], delimiter) + LINE_END);
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
         continue;
       }
       if (++rowIndex <= rowsDone) continue;
-      buffer.push(outputRow(record, headerLength, columns, context, results, tallies));
+      const key = record.problem ? undefined : groupOf(record.fields, columns).key;
+      let group = key === undefined ? undefined : results(key);
+      while (key !== undefined && !group) {
+        if (ready.finished) throw new Error(`batch job ${job.id}: no result for the locality ${key}${ready.failed ? ` (${errorMessage(ready.failed)})` : ''}`);
+        await ready.next();
+        group = results(key);
+      }
+      buffer.push(outputRow(record, headerLength, columns, context, group, tallies, delimiter));
       if (buffer.length >= ROWS_PER_CHUNK) {
         flush();
         options.onProgress?.({ jobId: job.id, phase: 'writing', done: rowsDone, total: job.rowsTotal ?? undefined });
@@ -349,20 +364,64 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   }
 }
 
-/** Group results by key, from the job, with the most recent kept parsed. */
-function resultLookup(jobs: Database.Database, jobId: string): (key: string) => GroupResult {
+/** A group's result, with its appended fields already written as CSV (the same for every row of the group). */
+interface RenderedGroup extends GroupResult {
+  appendedCsv: string;
+}
+
+/** Group results by key, from the job, the most recent kept in memory; undefined while not georeferenced yet. */
+function resultLookup(jobs: Database.Database, jobId: string, delimiter: Delimiter): (key: string) => RenderedGroup | undefined {
   const select = jobs.prepare('SELECT result FROM batch_locality WHERE job_id = ? AND key = ?');
-  const cache = new Map<string, GroupResult>();
+  const cache = new Map<string, RenderedGroup>();
   return (key) => {
     const cached = cache.get(key);
     if (cached) return cached;
     const row = select.get(jobId, key) as { result: string | null } | undefined;
-    if (!row?.result) throw new Error(`batch job ${jobId}: no result stored for the locality ${key}`);
+    if (!row?.result) return undefined;
     const result = JSON.parse(row.result) as GroupResult;
+    const rendered = { ...result, appendedCsv: csvLine(GEOREFERENCE_TERMS.map((term) => result.fields[term]), delimiter) };
     if (cache.size >= RESULT_CACHE_SIZE) cache.delete(cache.keys().next().value!);
-    cache.set(key, result);
-    return result;
+    cache.set(key, rendered);
+    return rendered;
   };
+}
+
+/** RFC 4180 line ends (CRLF) for the output. */
+const LINE_END = '\r\n';
+
+/** Fields as one CSV line (csv-stringify quotes each field on its own, so lines can be joined from parts). */
+function csvLine(fields: string[], delimiter: Delimiter): string {
+  return stringify([fields], { delimiter, eof: false });
+}
+
+function errorMessage(error: unknown): string {
+  return error instanceof Error ? error.message : String(error);
+}
+
+/** Lets the row writer wait for localities still being georeferenced. */
+class ResultSignal {
+  finished = false;
+  failed: unknown;
+  private waiters: (() => void)[] = [];
+
+  /** New results were stored. */
+  notify(): void {
+    const waiters = this.waiters;
+    this.waiters = [];
+    for (const wake of waiters) wake();
+  }
+
+  /** Every result is stored, or georeferencing failed. */
+  finish(error?: unknown): void {
+    this.finished = true;
+    this.failed = error;
+    this.notify();
+    if (error) throw error;
+  }
+
+  next(): Promise<void> {
+    return new Promise((resolve) => this.waiters.push(resolve));
+  }
 }
 
 /** One output row: the original fields (padded to the header), the appended terms and the coordinate flags. */
@@ -371,25 +430,26 @@ function outputRow(
   headerLength: number,
   columns: ColumnIndex,
   context: RecordContext,
-  results: (key: string) => GroupResult,
+  group: RenderedGroup | undefined,
   tallies: Record<string, number>,
-): string[] {
-  const originals = Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? '');
-  let fields: Record<GeoreferenceTerm, string>;
-  let flags: string[] = [];
-  if (record.problem) {
-    fields = darwinCoreFields(unreadableResult('', record.problem), context);
+  delimiter: Delimiter,
+): string {
+  const originals = csvLine(Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? ''), delimiter);
+  if (!group) {
+    const fields = darwinCoreFields(unreadableResult('', record.problem ?? 'the row could not be read'), context);
     count(tallies, 'malformed');
-  } else {
-    const group = results(groupOf(record.fields, columns).key);
-    const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
-    const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), circleOf(group.fields), group.centers);
-    flags = check.flags;
-    fields = check.remarks.length === 0 ? group.fields : { ...group.fields, georeferenceRemarks: [group.fields.georeferenceRemarks, ...check.remarks].filter(Boolean).join('; ') };
-    if (flags.some((f) => f !== 'inside-circle')) count(tallies, 'flagged');
+    count(tallies, fields.georeferenceVerificationStatus);
+    return `${originals}${delimiter}${csvLine(GEOREFERENCE_TERMS.map((term) => fields[term]), delimiter)}${delimiter}${LINE_END}`;
   }
-  count(tallies, fields.georeferenceVerificationStatus);
-  return [...originals, ...GEOREFERENCE_TERMS.map((term) => fields[term]), flags.join(FLAG_SEPARATOR)];
+  const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
+  const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), circleOf(group.fields), group.centers);
+  count(tallies, group.fields.georeferenceVerificationStatus);
+  if (check.flags.some((f) => f !== 'inside-circle')) count(tallies, 'flagged');
+  const flags = csvLine([check.flags.join(FLAG_SEPARATOR)], delimiter);
+  if (check.remarks.length === 0) return `${originals}${delimiter}${group.appendedCsv}${delimiter}${flags}${LINE_END}`;
+  const remarks = [group.fields.georeferenceRemarks, ...check.remarks].filter(Boolean).join('; ');
+  const appended = csvLine(GEOREFERENCE_TERMS.map((term) => (term === 'georeferenceRemarks' ? remarks : group.fields[term])), delimiter);
+  return `${originals}${delimiter}${appended}${delimiter}${flags}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {

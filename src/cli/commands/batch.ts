@@ -50,8 +50,9 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         const summary = await done;
         bar?.stop();
         if (!opts.quiet) process.stderr.write(describe(summary));
-      } finally {
+      } catch (error) {
         bar?.stop();
+        throw error;
       }
     });
 }
@@ -62,32 +63,26 @@ function positiveInteger(value: string): number {
   return n;
 }
 
-/** One bar a phase, with its rate and time left. */
+/** One bar a phase (georeferencing and writing run side by side), each with its rate and time left. */
 function progressBar() {
-  const bar = new cliProgress.SingleBar(
+  const bars = new cliProgress.MultiBar(
     { format: '{phase} {bar} {value}/{total} | {rate}/s | {eta_formatted} left', stream: process.stderr, hideCursor: true, etaBuffer: 50 },
     cliProgress.Presets.shades_classic,
   );
-  let phase: BatchProgressEvent['phase'] | undefined;
-  let phaseStart = Date.now();
-  let phaseStartCount = 0;
+  const started = new Map<BatchProgressEvent['phase'], { bar: cliProgress.SingleBar; at: number; from: number }>();
   return {
     update(event: BatchProgressEvent) {
-      if (event.phase !== phase) {
-        if (phase) bar.stop();
-        phase = event.phase;
-        phaseStart = Date.now();
-        phaseStartCount = event.done;
-        bar.start(event.total ?? event.done, event.done, { phase: PHASE_LABELS[phase], rate: 0 });
+      let phase = started.get(event.phase);
+      if (!phase) {
+        phase = { bar: bars.create(event.total ?? event.done, event.done, { phase: PHASE_LABELS[event.phase], rate: 0 }), at: Date.now(), from: event.done };
+        started.set(event.phase, phase);
       }
-      const seconds = (Date.now() - phaseStart) / 1000;
-      const rate = seconds > 0 ? Math.round((event.done - phaseStartCount) / seconds) : 0;
-      if (event.total === undefined) bar.setTotal(event.done);
-      bar.update(event.done, { phase: PHASE_LABELS[phase], rate });
+      const seconds = (Date.now() - phase.at) / 1000;
+      if (event.total === undefined) phase.bar.setTotal(event.done);
+      phase.bar.update(event.done, { phase: PHASE_LABELS[event.phase], rate: seconds > 0 ? Math.round((event.done - phase.from) / seconds) : 0 });
     },
     stop() {
-      if (phase) bar.stop();
-      phase = undefined;
+      bars.stop();
     },
   };
 }
