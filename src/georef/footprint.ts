@@ -1,11 +1,10 @@
 /** Footprints: the uncertainty circle as a polygon, sectors, and shapes clipped to an administrative unit. */
-import type { Geometry, MultiPolygon, Polygon, Position } from 'geojson';
-import { featureCollection, intersect, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
+import type { Feature, Geometry, MultiPolygon, Polygon, Position } from 'geojson';
+import { bbox, bboxClip, booleanPointInPolygon, featureCollection, intersect, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
 import { polygonsToWKT } from '../geodesy/wkt.ts';
-import { featureExtent, type FeatureExtent } from './feature-extent.ts';
 import { METHOD_DEFAULTS } from './method-defaults.ts';
 
 /** 7 decimals of a degree are about 1 cm: smaller circles are written as their center. */
@@ -77,7 +76,7 @@ export function sectorRing(latitude: number, longitude: number, azimuth: number,
   return [...out, out[0]!];
 }
 
-export interface ClippedShape extends FeatureExtent {
+export interface ClippedShape {
   /** The clipped shape as WKT (EPSG:4326). */
   footprintWKT: string;
   /** The clipped shape as GeoJSON, longitudes unwrapped around the shape. */
@@ -85,20 +84,77 @@ export interface ClippedShape extends FeatureExtent {
 }
 
 /**
- * A ring (longitudes unwrapped around `referenceLongitude`) intersected with a unit's polygon, with the
- * corrected center and geographic radial of what remains (featureExtent); undefined when they do not
+ * A ring (longitudes unwrapped around `referenceLongitude`) intersected with a unit's polygon (its
+ * corrected center and radial, when wanted, are featureExtent(geometry)); undefined when they do not
  * overlap or the unit has no polygon. The intersection is computed by turf in lon/lat (edges straight in
  * lon/lat; for rings with edges of a few km this is within meters of the geodesic shapes).
  */
 export function clipRingToUnit(ring: Position[], referenceLongitude: number, unitGeometry: Geometry): ClippedShape | undefined {
   if (unitGeometry.type !== 'Polygon' && unitGeometry.type !== 'MultiPolygon') return undefined;
   const unit = unwrapGeometry(unitGeometry, referenceLongitude);
-  const unitFeature = unit.type === 'Polygon' ? turfPolygon(unit.coordinates) : turfMultiPolygon(unit.coordinates);
-  const clipped = intersect(featureCollection<Polygon | MultiPolygon>([turfPolygon([ring]), unitFeature]));
+  const unitRings = unit.type === 'Polygon' ? unit.coordinates : unit.coordinates.flat();
+  if (!boundariesMeet(ring, unitRings)) {
+    // No edge crosses and no part of the unit lies inside the ring: the ring is wholly in or wholly out.
+    if (!booleanPointInPolygon(ring[0]!, unit)) return undefined;
+    return { footprintWKT: polygonsToWKT([[ring]]), geometry: { type: 'Polygon', coordinates: [ring] } };
+  }
+  const unitFeature: Feature<Polygon | MultiPolygon> = unit.type === 'Polygon' ? turfPolygon(unit.coordinates) : turfMultiPolygon(unit.coordinates);
+  // Only the part of the unit inside the ring's box can meet it: cutting the unit to that box first
+  // keeps the polygon clipping small, whatever the size of the unit.
+  const ringFeature = turfPolygon([ring]);
+  const [west, south, east, north] = bbox(ringFeature);
+  const margin = 1e-9 + (east - west + north - south) * 1e-6;
+  const nearby = bboxClip(unitFeature, [west - margin, south - margin, east + margin, north + margin]) as Feature<Polygon | MultiPolygon>;
+  const clipped = intersect(featureCollection<Polygon | MultiPolygon>([ringFeature, nearby]));
   if (!clipped) return undefined;
   const geometry = clipped.geometry;
   const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
-  return { ...featureExtent(geometry), footprintWKT: polygonsToWKT(polygons), geometry };
+  return { footprintWKT: polygonsToWKT(polygons), geometry };
+}
+
+/**
+ * Whether a ring and a unit's rings touch or cross, or a vertex of the unit lies inside the ring (a hole
+ * or a small part of the unit held by the ring). Planar in longitude/latitude, as the clipping is; edges
+ * outside the ring's bounding box are skipped, so a large unit costs one pass over its vertices.
+ */
+function boundariesMeet(ring: Position[], unitRings: Position[][]): boolean {
+  let [west, south, east, north] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (const [x, y] of ring) [west, south, east, north] = [Math.min(west, x!), Math.min(south, y!), Math.max(east, x!), Math.max(north, y!)];
+  const inBox = (p: Position) => p[0]! >= west && p[0]! <= east && p[1]! >= south && p[1]! <= north;
+  for (const unitRing of unitRings) {
+    for (let i = 0; i + 1 < unitRing.length; i++) {
+      const a = unitRing[i]!;
+      const b = unitRing[i + 1]!;
+      if (Math.max(a[0]!, b[0]!) < west || Math.min(a[0]!, b[0]!) > east || Math.max(a[1]!, b[1]!) < south || Math.min(a[1]!, b[1]!) > north) continue;
+      if (inBox(a) && insideRing(a, ring)) return true;
+      for (let j = 0; j + 1 < ring.length; j++) if (segmentsMeet(a, b, ring[j]!, ring[j + 1]!)) return true;
+    }
+  }
+  return false;
+}
+
+function orientation(a: Position, b: Position, c: Position): number {
+  return Math.sign((b[0]! - a[0]!) * (c[1]! - a[1]!) - (b[1]! - a[1]!) * (c[0]! - a[0]!));
+}
+
+/** Closed segments ab and cd share a point (collinear overlaps count). */
+function segmentsMeet(a: Position, b: Position, c: Position, d: Position): boolean {
+  const [o1, o2, o3, o4] = [orientation(a, b, c), orientation(a, b, d), orientation(c, d, a), orientation(c, d, b)];
+  if (o1 !== o2 && o3 !== o4) return true;
+  const onSegment = (p: Position, q: Position, r: Position) =>
+    Math.min(p[0]!, q[0]!) <= r[0]! && r[0]! <= Math.max(p[0]!, q[0]!) && Math.min(p[1]!, q[1]!) <= r[1]! && r[1]! <= Math.max(p[1]!, q[1]!);
+  return (o1 === 0 && onSegment(a, b, c)) || (o2 === 0 && onSegment(a, b, d)) || (o3 === 0 && onSegment(c, d, a)) || (o4 === 0 && onSegment(c, d, b));
+}
+
+/** Even-odd test of a point against one closed ring. */
+function insideRing(p: Position, ring: Position[]): boolean {
+  let inside = false;
+  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+    const [xi, yi] = ring[i]!;
+    const [xj, yj] = ring[j]!;
+    if (yi! > p[1]! !== yj! > p[1]! && p[0]! < ((xj! - xi!) * (p[1]! - yi!)) / (yj! - yi!) + xi!) inside = !inside;
+  }
+  return inside;
 }
 
 /**

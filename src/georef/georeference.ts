@@ -10,7 +10,7 @@ import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
 import { lineIntersect } from '@turf/turf';
-import { enclosingCircle } from './feature-extent.ts';
+import { enclosingCircle, featureExtent } from './feature-extent.ts';
 import { circleWKT, clipCircleToUnit, clipRingToUnit, sectorRing } from './footprint.ts';
 import { mapScaleErrorMeters } from './map-scale.ts';
 import { METHOD_DEFAULTS } from './method-defaults.ts';
@@ -276,7 +276,8 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
   const reach = inverse(feature.latitude, feature.longitude, unit.latitude, unit.longitude).meters + unit.radiusMeters;
   // "due N" (Δ = 0) is a line; a sector 0.01° wide stands for it, so that the clip has an area.
   const sector = sectorRing(feature.latitude, feature.longitude, heading.azimuth, Math.max(heading.halfWidth, 0.01), Math.max(reach, 1));
-  const part = clipRingToUnit(sector, feature.longitude, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
+  const clipped = clipRingToUnit(sector, feature.longitude, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
+  const part = featureExtent(clipped.geometry);
   return {
     latitude: part.latitude,
     longitude: part.longitude,

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { circleRing, circleWKT, clipCircleToUnit, sectorRing } from '../../src/georef/footprint.ts';
+import { featureExtent } from '../../src/georef/feature-extent.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
 import { wktPolygonAreaSquareMeters } from './wkt-area.ts';
 
@@ -47,9 +48,22 @@ describe('clipCircleToUnit', () => {
 
   it('a unit cutting the circle in half leaves a half disc: center on the cut, radius r (plane geometry)', () => {
     const clipped = clipCircleToUnit({ latitude: 0, longitude: 0, radiusMeters: 5000 }, east)!;
-    expect(clipped.radiusMeters).toBeCloseTo(5000, 3);
-    expect(clipped.longitude).toBeCloseTo(0, 7);
+    const extent = featureExtent(clipped.geometry);
+    expect(extent.radiusMeters).toBeCloseTo(5000, 3);
+    expect(extent.longitude).toBeCloseTo(0, 7);
     expect(wktPolygonAreaSquareMeters(clipped.footprintWKT) / (Math.PI * 5000 ** 2)).toBeCloseTo(0.5, 2);
+  });
+
+  it('a circle wholly inside the unit is left whole (no boundary meets it)', () => {
+    const clipped = clipCircleToUnit({ latitude: 0, longitude: 0.5, radiusMeters: 5000 }, east)!;
+    expect(clipped.footprintWKT).toBe(circleWKT(0, 0.5, 5000));
+  });
+
+  it('a unit with a hole inside the circle is clipped around the hole', () => {
+    const holed = { type: 'Polygon' as const, coordinates: [...east.coordinates, [[0.49, -0.01], [0.49, 0.01], [0.51, 0.01], [0.51, -0.01], [0.49, -0.01]]] };
+    const clipped = clipCircleToUnit({ latitude: 0, longitude: 0.5, radiusMeters: 5000 }, holed)!;
+    expect(clipped.geometry.coordinates.flat().length).toBeGreaterThan(1);
+    expect(wktPolygonAreaSquareMeters(clipped.footprintWKT)).toBeLessThan(Math.PI * 5000 ** 2 * 0.99);
   });
 
   it('a unit beside the circle gives undefined', () => {
