@@ -12,20 +12,20 @@ export const FLAG_SEPARATOR = ' | ';
 
 /** The flags whereabouts writes, each with what it means (the README lists them). */
 export const COORDINATE_FLAGS = {
-  'inside-circle': 'the coordinates lie inside the circle of the locality text',
-  'outside-circle': 'the coordinates lie outside the circle of the locality text',
-  'inside-if-latitude-negated': 'with the sign of latitude inverted they would lie inside the circle',
-  'inside-if-longitude-negated': 'with the sign of longitude inverted they would lie inside the circle',
-  'inside-if-both-negated': 'with both signs inverted they would lie inside the circle',
-  'inside-if-swapped': 'with latitude and longitude swapped they would lie inside the circle',
-  'zero-coordinates': 'latitude and longitude are both zero, most likely an empty value written as zero',
-  'zero-latitude': 'latitude is zero and the circle does not reach the equator (an empty value written as zero?)',
-  'zero-longitude': 'longitude is zero and the circle does not reach the prime meridian (an empty value written as zero?)',
-  'coordinate-missing': 'one coordinate is given and the other is empty (read as zero by some programs)',
-  'coordinates-unreadable': 'a coordinate is not a decimal number',
-  'coordinates-out-of-range': 'latitude is beyond ±90 or longitude beyond ±180',
-  'on-country-center': "the coordinates sit on the center of the record's country in the gazetteer",
-  'on-stateProvince-center': "the coordinates sit on the center of the record's state or province in the gazetteer",
+  'agrees-with-locality': 'the coordinates lie inside the circle of the locality text',
+  'outside-locality-circle': 'the coordinates lie outside the circle of the locality text',
+  'fits-if-latitude-sign-flipped': 'with the sign of latitude inverted they would lie inside the circle',
+  'fits-if-longitude-sign-flipped': 'with the sign of longitude inverted they would lie inside the circle',
+  'fits-if-both-signs-flipped': 'with both signs inverted they would lie inside the circle',
+  'fits-if-latitude-longitude-exchanged': 'with latitude and longitude swapped they would lie inside the circle',
+  'both-zero': 'latitude and longitude are both zero, most likely an empty value written as zero',
+  'latitude-zero': 'latitude is zero and the circle does not reach the equator (an empty value written as zero?)',
+  'longitude-zero': 'longitude is zero and the circle does not reach the prime meridian (an empty value written as zero?)',
+  'one-side-empty': 'one coordinate is given and the other is empty (read as zero by some programs)',
+  'not-a-decimal-number': 'a coordinate is not a decimal number',
+  'beyond-valid-range': 'latitude is beyond ±90 or longitude beyond ±180',
+  'at-country-center': "the coordinates sit on the center of the record's country in the gazetteer",
+  'at-state-center': "the coordinates sit on the center of the record's state or province in the gazetteer",
 } as const;
 
 export type CoordinateFlag = keyof typeof COORDINATE_FLAGS;
@@ -65,7 +65,7 @@ const DECIMAL = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)$/;
  * Distances are geodesic on WGS84 (geographiclib, about 15 nm).
  * @example
  *   checkCoordinates('45.5', '-131.0', { latitude: -45.5, longitude: -131, radiusMeters: 2000 }, []).flags
- *   // ['outside-circle', 'inside-if-latitude-negated']
+ *   // ['outside-locality-circle', 'fits-if-latitude-sign-flipped']
  */
 export function checkCoordinates(latitudeText: string, longitudeText: string, circle: Circle | undefined, centers: AdministrativeCenter[]): CoordinateCheck {
   const latText = latitudeText.trim();
@@ -76,18 +76,18 @@ export function checkCoordinates(latitudeText: string, longitudeText: string, ci
   if (latText === '' && lonText === '') return done();
   const written = `the record's coordinates (${latText || 'empty'}, ${lonText || 'empty'})`;
   if (latText === '' || lonText === '') {
-    add('coordinate-missing', `${written}: one coordinate is empty, which some programs read as zero; not compared`);
+    add('one-side-empty', `${written}: one coordinate is empty, which some programs read as zero; not compared`);
     return done();
   }
   if (!DECIMAL.test(latText) || !DECIMAL.test(lonText)) {
-    add('coordinates-unreadable', `${written} are not decimal numbers; not compared`);
+    add('not-a-decimal-number', `${written} are not decimal numbers; not compared`);
     return done();
   }
   const latitude = Number(latText.replace(',', '.'));
   const longitude = Number(lonText.replace(',', '.'));
   const inRange = Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
-  if (!inRange) add('coordinates-out-of-range', `${written} are out of range (latitude beyond ±90 or longitude beyond ±180)`);
-  if (latitude === 0 && longitude === 0) add('zero-coordinates', `${written} are both zero, most likely an empty value written as zero`);
+  if (!inRange) add('beyond-valid-range', `${written} are out of range (latitude beyond ±90 or longitude beyond ±180)`);
+  if (latitude === 0 && longitude === 0) add('both-zero', `${written} are both zero, most likely an empty value written as zero`);
   const inside = circle ? compareWithCircle(latitude, longitude, inRange, circle, written, add) : false;
   // Coordinates the locality text bears out are not suspect for lying near a center as well.
   if (inRange && !inside) compareWithCenters(latitude, longitude, precisionOf(latText, lonText), centers, written, add);
@@ -106,18 +106,18 @@ function compareWithCircle(
   const within = (lat: number, lon: number) => Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && distance(lat, lon) <= circle.radiusMeters;
   const radius = `${formatMeters(circle.radiusMeters)} circle of the proposed georeference`;
   if (inRange && within(latitude, longitude)) {
-    add('inside-circle', `${written} lie inside the ${radius}`);
+    add('agrees-with-locality', `${written} lie inside the ${radius}`);
     return true;
   }
   const away = inRange ? `, ${formatMeters(distance(latitude, longitude))} from its center` : '';
-  add('outside-circle', `${written} lie outside the ${radius}${away}`);
-  if (latitude === 0 && longitude !== 0 && !within(0, circle.longitude)) add('zero-latitude', `${written}: latitude is zero though the circle does not reach the equator (an empty value written as zero?)`);
-  if (longitude === 0 && latitude !== 0 && !within(circle.latitude, 0)) add('zero-longitude', `${written}: longitude is zero though the circle does not reach the prime meridian (an empty value written as zero?)`);
+  add('outside-locality-circle', `${written} lie outside the ${radius}${away}`);
+  if (latitude === 0 && longitude !== 0 && !within(0, circle.longitude)) add('latitude-zero', `${written}: latitude is zero though the circle does not reach the equator (an empty value written as zero?)`);
+  if (longitude === 0 && latitude !== 0 && !within(circle.latitude, 0)) add('longitude-zero', `${written}: longitude is zero though the circle does not reach the prime meridian (an empty value written as zero?)`);
   const variants: { flag: CoordinateFlag; lat: number; lon: number; how: string }[] = [
-    { flag: 'inside-if-latitude-negated', lat: -latitude, lon: longitude, how: 'with the sign of latitude inverted' },
-    { flag: 'inside-if-longitude-negated', lat: latitude, lon: -longitude, how: 'with the sign of longitude inverted' },
-    { flag: 'inside-if-both-negated', lat: -latitude, lon: -longitude, how: 'with both signs inverted' },
-    { flag: 'inside-if-swapped', lat: longitude, lon: latitude, how: 'with latitude and longitude swapped' },
+    { flag: 'fits-if-latitude-sign-flipped', lat: -latitude, lon: longitude, how: 'with the sign of latitude inverted' },
+    { flag: 'fits-if-longitude-sign-flipped', lat: latitude, lon: -longitude, how: 'with the sign of longitude inverted' },
+    { flag: 'fits-if-both-signs-flipped', lat: -latitude, lon: -longitude, how: 'with both signs inverted' },
+    { flag: 'fits-if-latitude-longitude-exchanged', lat: longitude, lon: latitude, how: 'with latitude and longitude swapped' },
   ];
   for (const v of variants) {
     if ((v.lat !== latitude || v.lon !== longitude) && within(v.lat, v.lon)) add(v.flag, `${v.how} they would lie inside it`);
@@ -138,7 +138,7 @@ function compareWithCenters(
   for (const center of centers) {
     const meters = inverse(center.latitude, center.longitude, latitude, longitude).meters;
     if (meters > tolerance) continue;
-    const flag: CoordinateFlag = center.level === 'country' ? 'on-country-center' : 'on-stateProvince-center';
+    const flag: CoordinateFlag = center.level === 'country' ? 'at-country-center' : 'at-state-center';
     add(flag, `${written} sit ${formatMeters(meters)} from the center of the ${center.level === 'country' ? 'country' : 'state or province'} "${center.name}" in the gazetteer: perhaps a center given for want of a locality`);
   }
 }

@@ -66,7 +66,7 @@ export interface BatchSummary {
   rows: number;
   distinctLocalities: number;
   malformedRows: number;
-  /** Rows whose coordinates were flagged (any flag but inside-circle). */
+  /** Rows whose coordinates were flagged (any flag but agrees-with-locality). */
   flaggedRows: number;
   /** Rows by georeferenceVerificationStatus. */
   byStatus: Record<string, number>;
@@ -85,8 +85,10 @@ const ROWS_PER_CHUNK = 1000;
  * second to start (tsx compiles the sources again), the time of some 2,000 localities on a spare core.
  */
 const IN_PROCESS_LIMIT = 2000;
+/** Heap of a worker thread [CHOICE]: a worker holds one chunk of localities at a time, so a small heap keeps memory flat. */
+const WORKER_HEAP_MB = 128;
 /** Group results kept parsed in memory while writing [CHOICE]. */
-const RESULT_CACHE_SIZE = 10_000;
+const RESULT_CACHE_SIZE = 2000;
 
 /**
  * Start (or resume) a batch job. Resolves once the job is stored, with its id and a promise of the
@@ -284,7 +286,7 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   };
   const threads = Math.max(1, options.threads ?? cpus().length);
   const pool = threads > 1 && total - distinctDone > IN_PROCESS_LIMIT
-    ? new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: threads, maxThreads: threads })
+    ? new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: threads, maxThreads: threads, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } })
     : undefined;
   const run = pool ? (task: GeoreferenceTask) => pool.run(task) as Promise<ReturnType<typeof georeferenceChunk>> : async (task: GeoreferenceTask) => georeferenceChunk(task);
   const lane = async () => {
@@ -444,7 +446,7 @@ function outputRow(
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
   const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), circleOf(group.fields), group.centers);
   count(tallies, group.fields.georeferenceVerificationStatus);
-  if (check.flags.some((f) => f !== 'inside-circle')) count(tallies, 'flagged');
+  if (check.flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
   const flags = csvLine([check.flags.join(FLAG_SEPARATOR)], delimiter);
   if (check.remarks.length === 0) return `${originals}${delimiter}${group.appendedCsv}${delimiter}${flags}${LINE_END}`;
   const remarks = [group.fields.georeferenceRemarks, ...check.remarks].filter(Boolean).join('; ');
