@@ -7,7 +7,7 @@
  */
 import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { createInterface } from 'node:readline';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import Fuse from 'fuse.js';
@@ -122,6 +122,7 @@ const percentile = (values: number[], p: number) => {
 };
 const ms = (value: number) => `${value.toFixed(3)} ms`;
 
+console.log(`machine: ${cpus().length} cores, load average ${loadavg().map((l) => l.toFixed(1)).join(' ')} (other work on the machine slows every figure)`);
 const { rows, sample } = await generate();
 console.log(`synthetic gazetteer: ${NAMES} names in ${rows} features (seed ${SEED}), ${(statSync(dumpPath).size / 1e6).toFixed(1)} MB in the dump layout`);
 
@@ -138,10 +139,6 @@ const queries = [1, 2].map((errors) => sample.map((name) => {
   for (let i = 0; i < errors; i++) query = typo(query);
   return { name, query };
 }));
-if (process.env.BENCH_KEEP) {
-  (await import('node:fs')).writeFileSync('/tmp/gz/queries.json', JSON.stringify(queries));
-  (await import('node:fs')).copyFileSync(dumpPath, '/tmp/gz/synthetic.txt');
-}
 const isIntended = (name: string, matched: string[]) => matched.some((candidate) => foldName(candidate) === foldName(name));
 
 for (const [index, set] of queries.entries()) {
@@ -200,4 +197,5 @@ if (FUSE_QUERIES > 0) {
     + `speed ratio ${Math.round(fuseMedian / storeMedian)}× (target ≥ 1000×)`);
 }
 reader.close();
+console.log(`load average at the end: ${loadavg().map((l) => l.toFixed(1)).join(' ')}`);
 rmSync(directory, { recursive: true, force: true });

@@ -3,6 +3,7 @@
  * companion file. Reading a line into a RawFeature is pure; the importer does the I/O.
  */
 import type { RawFeature } from './feature-record.ts';
+import { foldName } from './fold.ts';
 
 /** Columns of the dump layout, in order. */
 export const DUMP_COLUMNS = [
@@ -68,7 +69,8 @@ export function readDumpLine(line: string, admin1Names: ReadonlyMap<string, stri
   return {
     id,
     name,
-    alternateNames: [asciiName, ...alternates.split(',')],
+    // The ASCII form adds nothing once names are folded, unless it is spelled differently.
+    alternateNames: [...(foldName(asciiName) === foldName(name) ? [] : [asciiName]), ...(alternates === '' ? [] : alternates.split(','))],
     latitude,
     longitude,
     featureType: dumpFeatureType(featureClass, featureCode, Number.isFinite(populationNumber) ? populationNumber : 0),

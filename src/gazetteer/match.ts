@@ -12,6 +12,8 @@ export const MAX_FUZZY_SCORE = 0.95;
 /** fuse.js score (0 perfect, 1 nothing alike) above which a name is not a plausible reading; common practice, no source. */
 export const FUSE_THRESHOLD = 0.5;
 
+const sameReading = (a: Candidate, b: Candidate) => a.score === b.score && foldName(a.matchedName) === foldName(b.matchedName);
+
 interface NameEntry {
   key: string;
   written: string;
@@ -61,5 +63,10 @@ export function scoreFuzzy(foldedQuery: string, features: readonly Feature[]): C
       edits,
     }))
     .sort((a, b) => b.candidate.score - a.candidate.score || a.edits - b.edits)
+    .map(({ candidate }, rank) => ({ candidate, rank, repeat: 0 }))
+    .map((entry, _, all) => ({ ...entry, repeat: all.slice(0, entry.rank).filter((e) => sameReading(e.candidate, entry.candidate)).length }))
+    // Among equal scores, distinct names before more features of a name already listed: a short list
+    // then shows every reading the index found, not five places of one name.
+    .sort((a, b) => b.candidate.score - a.candidate.score || a.repeat - b.repeat || a.rank - b.rank)
     .map(({ candidate }) => candidate);
 }

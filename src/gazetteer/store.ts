@@ -47,29 +47,22 @@ const POSTING_BUDGET = 800;
 const FUZZY_POOL = 20;
 /** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
 const SHORTLIST = 60;
+/** Features of one matching token taken into the shortlist before features of the next token. */
+const SHORTLIST_PER_TOKEN = 2;
+/** A common token is read with a partner only up to this many postings (the probe reads them all at worst). */
+const COMMON_TOKEN_LIMIT = 5000;
+/** At most this many tokens of another query word are probed for a common token. */
+const MAX_PARTNERS = 6;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
-const TOKEN_CACHE_LIMIT = 500_000;
-const IMPORT_CACHE_KIB = 196_608;
+const TOKEN_CACHE_LIMIT = 200_000;
+/** Index keys held before a sorted write: 16 MB. */
+const DELETION_BUFFER = 2_000_000;
+const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
 
-/** A feature as an importer hands it to the store. */
-export interface FeatureRecord {
-  featureId: string;
-  name: string;
-  alternateNames: string[];
-  featureType: string | null;
-  countryCode: string | null;
-  stateProvince: string | null;
-  county: string | null;
-  latitude: number;
-  longitude: number;
-  radiusMeters: number;
-  radiusIsDefault: boolean;
-  geometryType: GeometryType;
-  /** GeoJSON text for lines and polygons, null for points. */
-  geometry: string | null;
-}
+/** A feature as an importer hands it to the store: geometry as GeoJSON text (null for points). */
+export type FeatureRecord = Omit<Feature, 'sourceId' | 'geometry'> & { geometry: string | null };
 
 /** What a source is recorded with once its import is complete. */
 export interface SourceRecord {
@@ -103,6 +96,36 @@ interface FeatureRow {
   radius_default: number;
   geometry_type: number;
   geometry?: string | null;
+}
+
+/**
+ * Index keys waiting to be written, sorted before they go in: keys of new tokens arrive in random
+ * hash order, and a B-tree fills far faster in key order. Holds at most DELETION_BUFFER pairs.
+ */
+class DeletionBuffer {
+  private pairs = new BigUint64Array(DELETION_BUFFER);
+  private size = 0;
+
+  constructor(private readonly write: (hash: number, token: number) => void) {}
+
+  add(hash: number, token: number): void {
+    this.pairs[this.size++] = (BigInt(hash >>> 0) << 32n) | BigInt(token);
+    if (this.size === DELETION_BUFFER) this.flush();
+  }
+
+  flush(): void {
+    const sorted = this.pairs.subarray(0, this.size).sort();
+    for (const pair of sorted) this.write(Number(pair >> 32n) | 0, Number(pair & 0xffffffffn));
+    this.size = 0;
+  }
+}
+
+/** A stored token matching the query word at `index`. */
+interface TokenMatch {
+  id: number;
+  edits: number;
+  df: number;
+  index: number;
 }
 
 interface TokenRow {
@@ -220,6 +243,7 @@ class SqliteGazetteer implements GazetteerStore {
     if (previous !== undefined) this.deleteSourceRows(previous.id);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
     const tokenIds = new Map<string, number>();
+    const deletions = new DeletionBuffer((hash, token) => s.insertDeletion.run(hash, token));
     let count = 0;
     let open = true;
     const tokenId = (token: string): number => {
@@ -231,7 +255,7 @@ class SqliteGazetteer implements GazetteerStore {
         id = existing.id;
       } else {
         id = Number(s.insertToken.run(token).lastInsertRowid);
-        for (const hash of storedTokenKeys(token)) s.insertDeletion.run(hash, id);
+        for (const hash of storedTokenKeys(token)) deletions.add(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) tokenIds.clear();
       tokenIds.set(token, id);
@@ -270,6 +294,7 @@ class SqliteGazetteer implements GazetteerStore {
       },
       commit: (source) => {
         if (!open) throw new Error('import already finished');
+        deletions.flush();
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         db.exec('COMMIT');
@@ -386,20 +411,18 @@ class SqliteGazetteer implements GazetteerStore {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
-    // Every stored token that matches a query token, rarest first: a common near-match ('rio' for 'roo')
-    // must not use up the posting budget before the rare intended token is read.
+    // Every stored token that matches a query token, closest and rarest first, as many as the posting
+    // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
+    // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const matched = queryTokens
       .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1).map((match) => ({ ...match, index })))
-      .sort((a, b) => a.df - b.df || a.edits - b.edits);
-    // Rarest tokens first, as many as the posting budget holds; a common token that does not fit
-    // adds nothing the rare ones have not found already (the whole-name re-ranking below makes up for it).
+      .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
     for (const match of matched) {
-      if (chosen.length > 0 && match.df > budget) continue;
+      if (match.df > budget) continue;
       chosen.push(match);
       budget -= match.df;
-      if (budget <= 0) break;
     }
     const byToken = new Map<number, { index: number; weight: number }[]>();
     for (const { id, edits, index } of chosen) {
@@ -413,25 +436,76 @@ class SqliteGazetteer implements GazetteerStore {
     const rows = (context.countryCodes.size === 0
       ? this.statements.postings.all(tokenIds, POSTING_BUDGET)
       : this.statements.postingsInCountries.all(tokenIds, JSON.stringify([...context.countryCodes]), POSTING_BUDGET)) as { feature: number; token: number }[];
-    const pool = new Map<number, number[]>();
-    for (const { feature, token } of rows) {
-      const weights = pool.get(feature) ?? new Array<number>(queryTokens.length).fill(0);
-      for (const { index, weight } of byToken.get(token) ?? []) weights[index] = Math.max(weights[index], weight);
-      pool.set(feature, weights);
+    const common = this.commonTokenPostings(matched, chosen, context);
+    for (const { id, index } of common.tokens) byToken.set(id, [...(byToken.get(id) ?? []), { index, weight: queryTokens[index].length }]);
+    const pool = new Map<number, { weights: number[]; token: number; weight: number }>();
+    for (const { feature, token } of [...rows, ...common.rows]) {
+      const entry = pool.get(feature) ?? { weights: new Array<number>(queryTokens.length).fill(0), token, weight: 0 };
+      for (const { index, weight } of byToken.get(token) ?? []) {
+        entry.weights[index] = Math.max(entry.weights[index], weight);
+        if (weight > entry.weight) Object.assign(entry, { token, weight });
+      }
+      pool.set(feature, entry);
     }
     const total = (weights: number[]) => weights.reduce((sum, weight) => sum + weight, 0);
-    // The token weights only shortlist: a common token skipped above ("monte") counts for nobody, so
-    // the shortlist is re-ranked by the edit distance of the whole name before fuse.js scores the best.
+    // The token weights only shortlist, features of many different tokens before many features of one
+    // token; a common token skipped above ("monte") counts for nobody, so the shortlist is re-ranked by
+    // the edit distance of the whole name before fuse.js scores the best.
+    const perToken = new Map<number, number>();
     const shortlist = [...pool.entries()]
-      .sort((a, b) => total(b[1]) - total(a[1]))
-      .slice(0, SHORTLIST);
-    const edits = this.nameEdits(shortlist.map(([id]) => id), folded);
+      .map(([id, entry]) => ({ id, entry, weight: total(entry.weights) }))
+      .sort((a, b) => b.weight - a.weight)
+      .map(({ id, entry, weight }) => {
+        const repeat = perToken.get(entry.token) ?? 0;
+        perToken.set(entry.token, repeat + 1);
+        return { id, weight, repeat: Math.floor(repeat / SHORTLIST_PER_TOKEN) };
+      })
+      .sort((a, b) => b.weight - a.weight || a.repeat - b.repeat)
+      .slice(0, SHORTLIST)
+      .map(({ id, weight }) => [id, weight] as const);
+    const closest = this.closestNames(shortlist.map(([id]) => id), folded);
+    const seen = new Map<string, number>();
     const best = shortlist
-      .map(([id, weights]) => ({ id, weight: total(weights), edits: edits.get(id) ?? Infinity }))
+      .map(([id, weight]) => ({ id, weight, ...(closest.get(id) ?? { edits: Infinity, key: '' }) }))
       .sort((a, b) => a.edits - b.edits || b.weight - a.weight)
+      .map((entry) => {
+        const repeat = seen.get(entry.key) ?? 0;
+        seen.set(entry.key, repeat + 1);
+        return { ...entry, repeat };
+      })
+      // Distinct names before more features of a name already in: thirty places called 'Gamar' must
+      // not crowd out the one 'Guamar' as close to the query.
+      .sort((a, b) => a.edits - b.edits || a.repeat - b.repeat || b.weight - a.weight)
       .slice(0, FUZZY_POOL)
       .map(({ id }) => id);
     return scoreFuzzy(folded, this.loadFeatures(best));
+  }
+
+  /**
+   * Features holding the rarest closest-matching token that was too common for the posting budget
+   * ('bobaja' in a large gazetteer) together with a token matching another word of the query, read
+   * through the postings of the common token with an index probe for the other; none when every
+   * query word's closest match was read already.
+   */
+  private commonTokenPostings(matched: TokenMatch[], chosen: TokenMatch[], context: ResolvedContext): {
+    tokens: TokenMatch[]; rows: { feature: number; token: number }[];
+  } {
+    const read = new Set(chosen.map((match) => match.id));
+    const closest = new Map<number, number>();
+    for (const match of matched) closest.set(match.index, Math.min(closest.get(match.index) ?? Infinity, match.edits));
+    const skipped = matched.filter((match) => !read.has(match.id) && match.edits === closest.get(match.index) && match.df <= COMMON_TOKEN_LIMIT);
+    if (skipped.length === 0) return { tokens: [], rows: [] };
+    const driver = skipped.reduce((a, b) => (b.df < a.df ? b : a));
+    const partners = matched
+      .filter((match) => match.index !== driver.index && match.edits === closest.get(match.index))
+      .sort((a, b) => a.df - b.df)
+      .slice(0, MAX_PARTNERS);
+    if (partners.length === 0) return { tokens: [], rows: [] };
+    const partnerIds = JSON.stringify(partners.map((match) => match.id));
+    const rows = (context.countryCodes.size === 0
+      ? this.statements.postingsWithPartner.all(driver.id, partnerIds, POSTING_BUDGET)
+      : this.statements.postingsWithPartnerInCountries.all(driver.id, partnerIds, JSON.stringify([...context.countryCodes]), POSTING_BUDGET)) as { feature: number; token: number }[];
+    return { tokens: [driver], rows };
   }
 
   /** Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands for. */
@@ -439,6 +513,7 @@ class SqliteGazetteer implements GazetteerStore {
     const found = new Map<number, { id: number; edits: number; df: number }>();
     if (token.length >= MIN_FUZZY_TOKEN_LENGTH) {
       for (const row of this.statements.tokensByDeletion.all(JSON.stringify(queryTokenKeys(token))) as TokenRow[]) {
+        if (found.has(row.id)) continue;
         const edits = editDistance(token, row.token, maxTokenEdits(row.token));
         if (edits <= maxTokenEdits(row.token)) found.set(row.id, { id: row.id, edits, df: row.df });
       }
@@ -451,18 +526,21 @@ class SqliteGazetteer implements GazetteerStore {
     return [...found.values()];
   }
 
-  /** Fewest edits between a folded query and the folded name or any alternate name of each feature. */
-  private nameEdits(ids: number[], foldedQuery: string): Map<number, number> {
+  /** For each feature, its folded name or alternate name closest to a folded query, with the edits. */
+  private closestNames(ids: number[], foldedQuery: string): Map<number, { edits: number; key: string }> {
     const limit = Math.max(2, foldedQuery.length >> 1);
-    const edits = new Map<number, number>();
+    const closest = new Map<number, { edits: number; key: string }>();
     for (const row of this.statements.namesByIds.all(JSON.stringify(ids)) as { id: number; name: string; alternate_names: string | null }[]) {
-      let best = editDistance(foldedQuery, foldName(row.name), limit);
-      if (row.alternate_names !== null) {
-        for (const alternate of row.alternate_names.split(NAME_SEPARATOR)) best = Math.min(best, editDistance(foldedQuery, foldName(alternate), limit));
+      const names = row.alternate_names === null ? [row.name] : [row.name, ...row.alternate_names.split(NAME_SEPARATOR)];
+      let best = { edits: Infinity, key: '' };
+      for (const written of names) {
+        const key = foldName(written);
+        const edits = editDistance(foldedQuery, key, limit);
+        if (edits < best.edits) best = { edits, key };
       }
-      edits.set(row.id, best);
+      closest.set(row.id, best);
     }
-    return edits;
+    return closest;
   }
 
   /** Features by row id, in the order asked. */
@@ -533,9 +611,15 @@ function prepareStatements(db: Database.Database) {
       WHERE f.id IN (SELECT value FROM json_each(?))`),
     featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
-    tokensByDeletion: db.prepare(`SELECT DISTINCT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
+    tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
       WHERE d.hash IN (SELECT value FROM json_each(?))`),
     postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
+    postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = ?
+      AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(?))) LIMIT ?`),
+    postingsWithPartnerInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
+      WHERE p.token = ?
+        AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(?)))
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
     postingsInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
       WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
