@@ -49,6 +49,8 @@ const FUZZY_POOL = 20;
 const SHORTLIST = 60;
 /** Features of one matching token taken into the shortlist before features of the next token. */
 const SHORTLIST_PER_TOKEN = 2;
+/** Administrative levels from the smallest up, for the spatial test. */
+const UNIT_RANK: Readonly<Record<string, number>> = { county: 1, stateProvince: 2, country: 3 };
 /** A common token is read with a partner only up to this many postings (the probe reads them all at worst). */
 const COMMON_TOKEN_LIMIT = 5000;
 /** At most this many tokens of another query word are probed for a common token. */
@@ -374,6 +376,8 @@ class SqliteGazetteer implements GazetteerStore {
       outside: (feature) => {
         for (const { level, units } of tests) {
           if (units.some((unit) => unit.sourceId === feature.sourceId && unit.featureId === feature.featureId)) continue;
+          // A state is not inside its county: units above the tested level are not tested.
+          if (UNIT_RANK[feature.featureType ?? ''] > UNIT_RANK[level]) continue;
           const inside = units.some((unit) => booleanPointInPolygon([feature.longitude, feature.latitude], unit.geometry as Polygon | MultiPolygon));
           if (!inside) {
             return `center outside the polygon of ${level === 'county' ? 'county' : 'state/province'} '${units[0].name}' (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`;

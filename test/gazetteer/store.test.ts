@@ -82,7 +82,8 @@ describe('fuzzy matching through the index', () => {
 describe('administrative context', () => {
   it('keeps every candidate the context cannot separate (ambiguous, never a silent pick)', () => {
     expect(ids('Santa Rosa', { countryCode: 'QX' })).toHaveLength(4);
-    expect(ids('Santa Rosa', { stateProvince: 'Norteña' }).sort()).toEqual(['p1', 'p10', 'p13']);
+    // Norteña's polygon holds p1 and p10; p13 says Norteña but lies outside it.
+    expect(ids('Santa Rosa', { stateProvince: 'Norteña' }).sort()).toEqual(['p1', 'p10']);
   });
 
   it('filters by country code, state and county names folded, and reports what it dropped', () => {
@@ -102,6 +103,11 @@ describe('administrative context', () => {
       "p2: center outside the polygon of county 'Alto Brezo' (units:c1)",
     ]);
     expect(lookup.notes).toEqual(["county 'Alto Brezo' checked against its polygon (units:c1)"]);
+  });
+
+  it('does not test a larger unit against the polygon of a smaller one', () => {
+    const [state] = store.findCandidates({ name: 'Norteña', context: { county: 'Alto Brezo' }, featureTypes: ['stateProvince'] });
+    expect(state.feature.featureId).toBe('s1');
   });
 
   it('notes a country name it cannot resolve instead of filtering on it', () => {
