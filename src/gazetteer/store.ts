@@ -58,8 +58,8 @@ const MAX_PARTNERS = 6;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 const TOKEN_CACHE_LIMIT = 200_000;
-/** Index keys held before a sorted write: 16 MB. */
-const DELETION_BUFFER = 2_000_000;
+/** Index pairs held before a sorted write: 16 MB. */
+const PAIR_BUFFER = 2_000_000;
 const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
 
@@ -101,23 +101,24 @@ interface FeatureRow {
 }
 
 /**
- * Index keys waiting to be written, sorted before they go in: keys of new tokens arrive in random
- * hash order, and a B-tree fills far faster in key order. Holds at most DELETION_BUFFER pairs.
+ * Pairs of 32-bit integers waiting to be written to an index table (the deletion keys of new tokens),
+ * sorted before they go in: they arrive in random key order, and a B-tree fills faster in key order.
+ * Holds at most PAIR_BUFFER.
  */
-class DeletionBuffer {
-  private pairs = new BigUint64Array(DELETION_BUFFER);
+class PairBuffer {
+  private pairs = new BigUint64Array(PAIR_BUFFER);
   private size = 0;
 
-  constructor(private readonly write: (hash: number, token: number) => void) {}
+  /** `write` gets the first integer as unsigned 32 bits. */
+  constructor(private readonly write: (first: number, second: number) => void) {}
 
-  add(hash: number, token: number): void {
-    this.pairs[this.size++] = (BigInt(hash >>> 0) << 32n) | BigInt(token);
-    if (this.size === DELETION_BUFFER) this.flush();
+  add(first: number, second: number): void {
+    this.pairs[this.size++] = (BigInt(first >>> 0) << 32n) | BigInt(second);
+    if (this.size === PAIR_BUFFER) this.flush();
   }
 
   flush(): void {
-    const sorted = this.pairs.subarray(0, this.size).sort();
-    for (const pair of sorted) this.write(Number(pair >> 32n) | 0, Number(pair & 0xffffffffn));
+    for (const pair of this.pairs.subarray(0, this.size).sort()) this.write(Number(pair >> 32n), Number(pair & 0xffffffffn));
     this.size = 0;
   }
 }
@@ -245,7 +246,7 @@ class SqliteGazetteer implements GazetteerStore {
     if (previous !== undefined) this.deleteSourceRows(previous.id);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    const deletions = new DeletionBuffer((hash, token) => s.insertDeletion.run(hash, token));
+    const deletions = new PairBuffer((hash, token) => s.insertDeletion.run(hash | 0, token));
     let count = 0;
     let open = true;
     const tokenId = (token: string): number => {

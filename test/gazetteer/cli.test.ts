@@ -9,6 +9,7 @@ import { Command } from 'commander';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { registerGazetteer } from '../../src/cli/commands/gazetteer.ts';
 import { registerImport } from '../../src/cli/commands/import.ts';
+import { openGazetteer } from '../../src/gazetteer/store.ts';
 
 const FIXTURES = new URL('../fixtures/gazetteer/', import.meta.url).pathname;
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-cli-'));
@@ -39,6 +40,17 @@ describe('whereabouts import and gazetteer', () => {
     expect(out).toMatch(/^source dump: 8 rows read, 3 imported, 5 rejected, \d+\.\d s\n/);
     expect(out).toContain('  row 3: latitude 95 is outside −90…90\n');
     await run('import', join(FIXTURES, 'admin.geojson'));
+  });
+
+  it('takes default radii for this source from --default-radius', async () => {
+    await run('import', join(FIXTURES, 'places.csv'), '--default-radius', 'town=7000', '--default-radius', 'village=2500');
+    const store = openGazetteer(db, { readonly: true });
+    expect(store.getFeature('places', 'p1')).toMatchObject({ featureType: 'town', radiusMeters: 7000, radiusIsDefault: true });
+    expect(store.getFeature('places', 'p3')).toMatchObject({ featureType: 'village', radiusMeters: 2500 });
+    expect(store.getFeature('places', 'p2')).toMatchObject({ radiusMeters: 1500, radiusIsDefault: false });
+    store.close();
+    await run('gazetteer', 'remove', 'places');
+    await expect(run('import', join(FIXTURES, 'places.csv'), '--default-radius', 'town')).rejects.toThrow('--default-radius needs type=meters');
   });
 
   it('lists the sources with citation, licence and hash, and removes one', async () => {

@@ -9,6 +9,7 @@ interface ImportCommandOptions {
   sourceId?: string;
   licence?: string;
   adminCodes?: string;
+  defaultRadius?: Record<string, number>;
 }
 
 const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames'];
@@ -29,6 +30,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
     .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
+    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius, {})
     .action(async (file: string, opts: ImportCommandOptions) => {
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
       if (format === null) throw new Error(`cannot tell the format of ${file} from its extension: give --format ${FORMATS.join('|')}`);
@@ -43,6 +45,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
           sourceId: opts.sourceId,
           licence: opts.licence,
           adminCodesFile: opts.adminCodes,
+          radii: opts.defaultRadius,
           onProgress: (rows) => bar?.update(rows),
         });
         bar?.stop();
@@ -52,6 +55,16 @@ export function registerImport(program: Command, dbPath: () => string): void {
         store.close();
       }
     });
+}
+
+/**
+ * Adds one `--default-radius type=meters` to those already given.
+ * @example collectRadius('village=3000', {}) // { village: 3000 }
+ */
+export function collectRadius(value: string, previous: Record<string, number>): Record<string, number> {
+  const match = /^(.+)=(\d+(?:\.\d+)?)$/.exec(value);
+  if (match === null) throw new Error(`--default-radius needs type=meters (e.g. village=3000), not '${value}'`);
+  return { ...previous, [match[1].trim()]: Number(match[2]) };
 }
 
 /**
