@@ -114,12 +114,16 @@ async function runSize(rows: number): Promise<void> {
   let peakHeapMB = 0;
   const sampler = setInterval(() => (peakHeapMB = Math.max(peakHeapMB, process.memoryUsage().heapUsed / 2 ** 20)), 250);
   const phaseEnds = new Map<string, number>();
-  const onProgress = (event: BatchProgressEvent) => phaseEnds.set(event.phase, performance.now());
+  const rssByPhase = new Map<string, number>();
+  const onProgress = (event: BatchProgressEvent) => {
+    phaseEnds.set(event.phase, performance.now());
+    rssByPhase.set(event.phase, Math.max(rssByPhase.get(event.phase) ?? 0, process.memoryUsage().rss / 2 ** 20));
+  };
   const { done } = await startBatchJob({ dbPath, input, output: join(dir, 'output.csv'), threads: THREADS, jobsDbPath: join(dir, 'jobs.sqlite'), onProgress });
   const summary = await done;
   clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
-  const phases = [...phaseEnds].map(([phase, end]) => `${phase} ${((end - started) / 1000).toFixed(1)} s`);
+  const phases = [...phaseEnds].map(([phase, end]) => `${phase} ${((end - started) / 1000).toFixed(1)} s (RSS up to ${rssByPhase.get(phase)!.toFixed(0)} MB)`);
   const cpu = process.cpuUsage(cpuBefore);
   const cpuSeconds = (cpu.user + cpu.system) / 1e6;
   const peakMB = process.resourceUsage().maxRSS / 1024;

@@ -5,28 +5,32 @@
 import { openGazetteer } from '../gazetteer/store.ts';
 import type { LocateRequest } from '../locate.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
-import { georeferenceGroup, type BatchSettings, type GroupResult } from './georeference-group.ts';
+import { georeferenceGroup, type BatchSettings } from './georeference-group.ts';
+import type { Delimiter } from './records.ts';
+import { renderGroup, type RenderedGroup } from './rendered-group.ts';
 
 export interface GeoreferenceTask {
   dbPath: string;
   groups: { id: number; request: LocateRequest }[];
   settings: BatchSettings;
   context: RecordContext;
+  /** The output's delimiter, for the rendered fields. */
+  delimiter: Delimiter;
 }
 
 let opened: { dbPath: string; store: ReturnType<typeof openGazetteer> } | undefined;
 
 /**
- * Georeference every group of the task, in order.
- * @example georeferenceChunk({ dbPath: 'g.sqlite', groups: [{ id: 1, request: { locality: 'Alba' } }], settings, context })
+ * Georeference every group of the task, in order, each rendered for the writer.
+ * @example georeferenceChunk({ dbPath: 'g.sqlite', groups: [{ id: 1, request: { locality: 'Alba' } }], settings, context, delimiter: ',' })
  */
-export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: GroupResult }[] {
+export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: RenderedGroup }[] {
   if (opened?.dbPath !== task.dbPath) {
     opened?.store.close();
     opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, { readonly: true }) };
   }
   const store = opened.store;
-  return task.groups.map(({ id, request }) => ({ id, result: georeferenceGroup(store, request, task.settings, task.context) }));
+  return task.groups.map(({ id, request }) => ({ id, result: renderGroup(georeferenceGroup(store, request, task.settings, task.context), task.delimiter) }));
 }
 
 /** Close the gazetteer this thread opened (the main thread, after doing a small batch itself). */

@@ -1,8 +1,9 @@
 /**
- * A batch job from input file to output file: read the rows once to find the distinct localities,
- * georeference each once (over worker threads for large files), then read the rows again and write
- * each with its originals and the appended terms. Every step commits its progress to the job, so a
- * job stopped at any point (even by kill -9) finishes on resume with the same bytes as an unbroken run.
+ * A batch job from input file to output file: read the rows once to find the distinct localities, then
+ * georeference each once (over worker threads for large files) while the main thread reads the rows
+ * again and writes each, in order, with its originals and the appended terms. Every step commits its
+ * progress to the job, so a job stopped at any point (even by kill -9) finishes on resume with the same
+ * bytes as an unbroken run.
  */
 import { randomUUID } from 'node:crypto';
 import { closeSync, createReadStream, createWriteStream, existsSync, fsyncSync, ftruncateSync, openSync, renameSync, rmSync, writeFileSync, writeSync } from 'node:fs';
@@ -11,14 +12,14 @@ import { dirname, join, resolve } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { setTimeout as sleep } from 'node:timers/promises';
 import type Database from 'better-sqlite3';
-import { stringify } from 'csv-stringify/sync';
 import Tinypool from 'tinypool';
 import { openGazetteer } from '../gazetteer/store.ts';
 import type { LocateRequest } from '../locate.ts';
-import { appendedColumnNames, darwinCoreFields, type GeoreferenceTerm, GEOREFERENCE_TERMS, type RecordContext } from '../record/darwin-core.ts';
+import { appendedColumnNames, darwinCoreFields, type RecordContext } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
-import { checkCoordinates, COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR, type Circle } from './coordinate-check.ts';
-import { unreadableResult, type BatchSettings, type GroupResult } from './georeference-group.ts';
+import { checkCoordinates, COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from './coordinate-check.ts';
+import { unreadableResult, type BatchSettings } from './georeference-group.ts';
+import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './rendered-group.ts';
 import georeferenceChunk, { closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
@@ -39,7 +40,10 @@ export interface BatchJobOptions {
   resume?: string;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
-  /** Worker threads for the distinct localities (default: one a core). */
+  /**
+   * Worker threads for the distinct localities. Default: one a core but one, as the main thread reads and
+   * writes the rows meanwhile (on 2 cores, 1 worker keeps both busy within the 500 MB memory target).
+   */
   threads?: number;
   /** Job database; default `jobsDatabasePath(dbPath)`. */
   jobsDbPath?: string;
@@ -272,7 +276,7 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   const setResult = jobs.prepare('UPDATE batch_locality SET result = ? WHERE id = ?');
   const total = job.distinctTotal ?? 0;
   let distinctDone = (jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ? AND result IS NOT NULL').get(job.id) as { n: number }).n;
-  const save = jobs.transaction((results: { id: number; result: GroupResult }[]) => {
+  const save = jobs.transaction((results: { id: number; result: RenderedGroup }[]) => {
     for (const r of results) setResult.run(JSON.stringify(r.result), r.id);
     distinctDone += results.length;
     updateJob(jobs, job.id, { distinctDone });
@@ -282,10 +286,10 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
     const rows = next.all(cursor, job.id, GROUPS_PER_CHUNK) as { id: number; request: string }[];
     if (rows.length === 0) return undefined;
     cursor = rows[rows.length - 1].id;
-    return { dbPath: job.gazetteerPath, groups: rows.map((r) => ({ id: r.id, request: JSON.parse(r.request) as LocateRequest })), settings, context };
+    return { dbPath: job.gazetteerPath, groups: rows.map((r) => ({ id: r.id, request: JSON.parse(r.request) as LocateRequest })), settings, context, delimiter: job.delimiter as Delimiter };
   };
-  const threads = Math.max(1, options.threads ?? cpus().length);
-  const pool = threads > 1 && total - distinctDone > IN_PROCESS_LIMIT
+  const threads = Math.max(1, options.threads ?? cpus().length - 1);
+  const pool = total - distinctDone > IN_PROCESS_LIMIT
     ? new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: threads, maxThreads: threads, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } })
     : undefined;
   const run = pool ? (task: GeoreferenceTask) => pool.run(task) as Promise<ReturnType<typeof georeferenceChunk>> : async (task: GeoreferenceTask) => georeferenceChunk(task);
@@ -315,7 +319,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const tallies: Record<string, number> = restart ? {} : { ...job.tallies };
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
-  const results = resultLookup(jobs, job.id, delimiter);
+  const results = resultLookup(jobs, job.id);
   const writeText = (text: string) => {
     const bytes = Buffer.from(text, 'utf8');
     writeSync(fd, bytes, 0, bytes.length, position);
@@ -366,13 +370,8 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   }
 }
 
-/** A group's result, with its appended fields already written as CSV (the same for every row of the group). */
-interface RenderedGroup extends GroupResult {
-  appendedCsv: string;
-}
-
 /** Group results by key, from the job, the most recent kept in memory; undefined while not georeferenced yet. */
-function resultLookup(jobs: Database.Database, jobId: string, delimiter: Delimiter): (key: string) => RenderedGroup | undefined {
+function resultLookup(jobs: Database.Database, jobId: string): (key: string) => RenderedGroup | undefined {
   const select = jobs.prepare('SELECT result FROM batch_locality WHERE job_id = ? AND key = ?');
   const cache = new Map<string, RenderedGroup>();
   return (key) => {
@@ -380,21 +379,15 @@ function resultLookup(jobs: Database.Database, jobId: string, delimiter: Delimit
     if (cached) return cached;
     const row = select.get(jobId, key) as { result: string | null } | undefined;
     if (!row?.result) return undefined;
-    const result = JSON.parse(row.result) as GroupResult;
-    const rendered = { ...result, appendedCsv: csvLine(GEOREFERENCE_TERMS.map((term) => result.fields[term]), delimiter) };
+    const result = JSON.parse(row.result) as RenderedGroup;
     if (cache.size >= RESULT_CACHE_SIZE) cache.delete(cache.keys().next().value!);
-    cache.set(key, rendered);
-    return rendered;
+    cache.set(key, result);
+    return result;
   };
 }
 
 /** RFC 4180 line ends (CRLF) for the output. */
 const LINE_END = '\r\n';
-
-/** Fields as one CSV line (csv-stringify quotes each field on its own, so lines can be joined from parts). */
-function csvLine(fields: string[], delimiter: Delimiter): string {
-  return stringify([fields], { delimiter, eof: false });
-}
 
 function errorMessage(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
@@ -438,30 +431,20 @@ function outputRow(
 ): string {
   const originals = csvLine(Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? ''), delimiter);
   if (!group) {
-    const fields = darwinCoreFields(unreadableResult('', record.problem ?? 'the row could not be read'), context);
+    const unreadable = renderGroup({ fields: darwinCoreFields(unreadableResult('', record.problem ?? 'the row could not be read'), context), centers: [] }, delimiter);
     count(tallies, 'malformed');
-    count(tallies, fields.georeferenceVerificationStatus);
-    return `${originals}${delimiter}${csvLine(GEOREFERENCE_TERMS.map((term) => fields[term]), delimiter)}${delimiter}${LINE_END}`;
+    count(tallies, unreadable.status);
+    return `${originals}${delimiter}${appendedLine(unreadable, [], '', delimiter)}${LINE_END}`;
   }
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
-  const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), circleOf(group.fields), group.centers);
-  count(tallies, group.fields.georeferenceVerificationStatus);
+  const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
+  count(tallies, group.status);
   if (check.flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
-  const flags = csvLine([check.flags.join(FLAG_SEPARATOR)], delimiter);
-  if (check.remarks.length === 0) return `${originals}${delimiter}${group.appendedCsv}${delimiter}${flags}${LINE_END}`;
-  const remarks = [group.fields.georeferenceRemarks, ...check.remarks].filter(Boolean).join('; ');
-  const appended = csvLine(GEOREFERENCE_TERMS.map((term) => (term === 'georeferenceRemarks' ? remarks : group.fields[term])), delimiter);
-  return `${originals}${delimiter}${appended}${delimiter}${flags}${LINE_END}`;
+  return `${originals}${delimiter}${appendedLine(group, check.remarks, check.flags.join(FLAG_SEPARATOR), delimiter)}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {
   tallies[key] = (tallies[key] ?? 0) + 1;
-}
-
-/** The circle as written in the output (rounded point, radius rounded up), for the coordinate check. */
-function circleOf(fields: Record<GeoreferenceTerm, string>): Circle | undefined {
-  if (fields.decimalLatitude === '' || fields.coordinateUncertaintyInMeters === '') return undefined;
-  return { latitude: Number(fields.decimalLatitude), longitude: Number(fields.decimalLongitude), radiusMeters: Number(fields.coordinateUncertaintyInMeters) };
 }
 
 /** The finished file: renamed onto the target (a crash never leaves half a file there), or copied to standard output. */
