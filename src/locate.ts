@@ -44,9 +44,11 @@ export interface LocateResult {
  * How candidates are judged [CHOICE]. Below `plausibleScore` a candidate is only a near name (the
  * feature counts as not found, the near names are listed). A fuzzy match may stand alone when its score
  * reaches `minimumScore` and leads the next plausible candidate by `minimumLead`. Exact matches always
- * win over fuzzy ones; two exact matches are ambiguous.
+ * win over fuzzy ones; two exact matches are ambiguous. `readingScore` is the least a match through a
+ * documented reading of the name (an abbreviation, a generic word left out) scores: enough to name a
+ * bounding unit, where a fuzzy match would clip to the wrong one.
  */
-export const FUZZY_ACCEPTANCE = { plausibleScore: 0.7, minimumScore: 0.8, minimumLead: 0.1 } as const;
+export const FUZZY_ACCEPTANCE = { plausibleScore: 0.7, minimumScore: 0.8, minimumLead: 0.1, readingScore: 0.95 } as const;
 
 const LINES: GeometryType[] = ['LineString', 'MultiLineString'];
 const ADMINISTRATIVE_LEVELS = [
@@ -189,7 +191,7 @@ function findPathLine(finder: CandidateFinder, interpretation: Interpretation, c
 
 /**
  * The most specific administrative unit the record names, down to `widest`, when the gazetteer holds it
- * under exactly that name (a fuzzy match would clip to the wrong unit).
+ * under that name or a documented reading of it (a fuzzy match would clip to the wrong unit).
  */
 function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContext, widest: AdministrativeLevel): Feature | undefined {
   const levels = ADMINISTRATIVE_LEVELS.slice(0, ADMINISTRATIVE_LEVELS.findIndex((l) => l.field === widest) + 1);
@@ -198,7 +200,7 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
     if (!name) continue;
     const exact = finder
       .findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true })
-      .filter((c) => c.score >= 1);
+      .filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore);
     if (exact.length === 1) return exact[0].feature;
   }
   return undefined;
