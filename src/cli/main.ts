@@ -5,6 +5,7 @@
 import { Command, CommanderError } from 'commander';
 import { VERSION } from '../version.ts';
 import { registerBatch } from './commands/batch.ts';
+import { registerDoctor } from './commands/doctor.ts';
 import { registerGazetteer } from './commands/gazetteer.ts';
 import { registerImport } from './commands/import.ts';
 import { registerLocate } from './commands/locate.ts';
@@ -26,6 +27,7 @@ registerGazetteer(program, db);
 registerLocate(program, db);
 registerBatch(program, db);
 registerServe(program, db);
+registerDoctor(program, db);
 
 try {
   await program.parseAsync(rest, { from: 'user' });
