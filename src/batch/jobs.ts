@@ -85,6 +85,9 @@ export function openJobs(path: string): Database.Database {
   db.pragma('journal_mode = WAL');
   db.pragma('busy_timeout = 5000');
   db.exec(SCHEMA);
+  // Job files made before jobs recorded their runner lack the column; add it rather than refuse them.
+  const columns = db.prepare("SELECT name FROM pragma_table_info('batch_job')").all() as { name: string }[];
+  if (!columns.some((c) => c.name === 'runner_pid')) db.exec('ALTER TABLE batch_job ADD COLUMN runner_pid INTEGER');
   return db;
 }
 
