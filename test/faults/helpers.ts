@@ -1,0 +1,46 @@
+/** Shared set-up for the fault tests: the real CLI in child processes, real SQLite files in a temp dir. */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+export const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
+/** Invented places of Isla Quiroga (test/fixtures/batch/gazetteer.csv). */
+export const FIXTURE_GAZETTEER = new URL('../fixtures/batch/gazetteer.csv', import.meta.url).pathname;
+export const FIXTURE_SOURCE = 'isla-quiroga';
+
+/** Runs `node bin/whereabouts.js ARGS` to the end. */
+export function whereabouts(args: string[], env: NodeJS.ProcessEnv = process.env) {
+  return spawnSync(process.execPath, [BIN, ...args], { encoding: 'utf8', env, maxBuffer: 64 << 20 });
+}
+
+/** A store at `dir/name` holding the fixture gazetteer as source `isla-quiroga`, imported through the CLI. */
+export function fixtureStore(dir = mkdtempSync(join(tmpdir(), 'whereabouts-faults-')), name = 'store.sqlite'): string {
+  const dbPath = join(dir, name);
+  const imported = whereabouts(['--db', dbPath, 'import', FIXTURE_GAZETTEER, '--source-id', FIXTURE_SOURCE, '--source', 'Invented test gazetteer of Isla Quiroga']);
+  if (imported.status !== 0) throw new Error(`fixture import failed: ${imported.stderr}`);
+  return dbPath;
+}
+
+const SYLLABLES = ['ka', 'lo', 'mi', 'ran', 'te', 'vu', 'sol', 'bri', 'na', 'que', 'dor', 'pa', 'zel', 'ti', 'mo', 've'];
+
+/** A gazetteer CSV of `rows` invented villages (names built from syllables by a fixed-seed generator). */
+export function writeInventedGazetteer(path: string, rows: number): void {
+  let seed = 12_345;
+  const next = () => (seed = (seed * 1_103_515_245 + 12_345) % 2_147_483_648);
+  const word = (syllables: number) => Array.from({ length: syllables }, () => SYLLABLES[next() % SYLLABLES.length]).join('');
+  const lines = ['id,name,latitude,longitude,featureType,countryCode'];
+  for (let i = 0; i < rows; i++) {
+    const name = `Gen${word(2 + (next() % 3))} ${word(2)}`;
+    lines.push(`gen-${i},${name},${(-40 - (next() % 1000) / 100).toFixed(2)},${(-120 - (next() % 1000) / 100).toFixed(2)},village,QV`);
+  }
+  writeFileSync(path, `${lines.join('\n')}\n`);
+}
+
+/** The feature of `name` the CLI's locate picks, as its JSON reply has it. */
+export function locatedFeature(dbPath: string, name: string): { status: string; sourceId?: string } {
+  const located = whereabouts(['--db', dbPath, 'locate', name, '--country-code', 'QV', '--json']);
+  if (located.status !== 0) throw new Error(`locate failed: ${located.stderr}`);
+  const body = JSON.parse(located.stdout) as { status: string; georeference?: { features: { sourceId: string }[] } };
+  return { status: body.status, sourceId: body.georeference?.features[0]?.sourceId };
+}
