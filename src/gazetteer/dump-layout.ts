@@ -70,7 +70,7 @@ export function readDumpLine(line: string, admin1Names: ReadonlyMap<string, stri
     id,
     name,
     // The ASCII form adds nothing once names are folded, unless it is spelled differently.
-    alternateNames: [...(foldName(asciiName) === foldName(name) ? [] : [asciiName]), ...(alternates === '' ? [] : alternates.split(','))],
+    alternateNames: [...(asciiName === name || asciiName === '' || foldName(asciiName) === foldName(name) ? [] : [asciiName]), ...(alternates === '' ? [] : alternates.split(','))],
     latitude,
     longitude,
     featureType: dumpFeatureType(featureClass, featureCode, Number.isFinite(populationNumber) ? populationNumber : 0),

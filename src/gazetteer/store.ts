@@ -60,6 +60,8 @@ const MAX_DROPPED = 50;
 const TOKEN_CACHE_LIMIT = 200_000;
 /** Index pairs held before a sorted write: 16 MB. */
 const PAIR_BUFFER = 2_000_000;
+/** Names held before a sorted write. */
+const NAME_BUFFER = 500_000;
 const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
 
@@ -100,17 +102,37 @@ interface FeatureRow {
   geometry?: string | null;
 }
 
+/** Rows a multi-row INSERT writes at once: one statement of many rows costs far less than many statements. */
+const ROWS_PER_INSERT = 100;
+
 /**
- * Pairs of 32-bit integers waiting to be written to an index table (the deletion keys of new tokens),
- * sorted before they go in: they arrive in random key order, and a B-tree fills faster in key order.
+ * Writes rows of `columns` values (flattened) to `table` with INSERT OR IGNORE, ROWS_PER_INSERT at a time.
+ * @example rowWriter(db, 'postings', ['token', 'feature'])([1, 10, 1, 11])
+ */
+function rowWriter(db: Database.Database, table: string, columns: readonly string[]): (values: unknown[]) => void {
+  const statement = (rows: number) => db.prepare(`INSERT OR IGNORE INTO ${table} (${columns.join(', ')}) VALUES `
+    + Array.from({ length: rows }, () => `(${columns.map(() => '?').join(', ')})`).join(', '));
+  const full = statement(ROWS_PER_INSERT);
+  const single = statement(1);
+  const width = columns.length * ROWS_PER_INSERT;
+  return (values) => {
+    let at = 0;
+    for (; at + width <= values.length; at += width) full.run(values.slice(at, at + width));
+    for (; at < values.length; at += columns.length) single.run(values.slice(at, at + columns.length));
+  };
+}
+
+/**
+ * Pairs of 32-bit integers waiting to be written to an index table (deletion keys, postings), sorted
+ * before they go in: they arrive in random key order, and a B-tree fills faster in key order.
  * Holds at most PAIR_BUFFER.
  */
 class PairBuffer {
   private pairs = new BigUint64Array(PAIR_BUFFER);
   private size = 0;
 
-  /** `write` gets the first integer as unsigned 32 bits. */
-  constructor(private readonly write: (first: number, second: number) => void) {}
+  /** `write` gets flattened pairs, the first integer as a signed 32-bit value. */
+  constructor(private readonly write: (values: number[]) => void) {}
 
   add(first: number, second: number): void {
     this.pairs[this.size++] = (BigInt(first >>> 0) << 32n) | BigInt(second);
@@ -118,8 +140,41 @@ class PairBuffer {
   }
 
   flush(): void {
-    for (const pair of this.pairs.subarray(0, this.size).sort()) this.write(Number(pair >> 32n), Number(pair & 0xffffffffn));
+    const values = new Array<number>(this.size * 2);
+    let at = 0;
+    for (const pair of this.pairs.subarray(0, this.size).sort()) {
+      values[at++] = Number(pair >> 32n) | 0;
+      values[at++] = Number(pair & 0xffffffffn);
+    }
+    this.write(values);
     this.size = 0;
+  }
+}
+
+/** Folded names waiting to be written to the names table in key order (see PairBuffer); at most NAME_BUFFER. */
+class NameBuffer {
+  private keys: string[] = [];
+  private features: number[] = [];
+
+  constructor(private readonly write: (values: unknown[]) => void) {}
+
+  add(key: string, feature: number): void {
+    this.keys.push(key);
+    this.features.push(feature);
+    if (this.keys.length === NAME_BUFFER) this.flush();
+  }
+
+  flush(): void {
+    const order = Array.from(this.keys.keys()).sort((a, b) => (this.keys[a] < this.keys[b] ? -1 : this.keys[a] > this.keys[b] ? 1 : a - b));
+    const values = new Array<unknown>(order.length * 2);
+    let at = 0;
+    for (const index of order) {
+      values[at++] = this.keys[index];
+      values[at++] = this.features[index];
+    }
+    this.write(values);
+    this.keys = [];
+    this.features = [];
   }
 }
 
@@ -240,13 +295,18 @@ class SqliteGazetteer implements GazetteerStore {
   beginImport(sourceId: string): ImportSession {
     const db = this.db;
     const s = this.statements;
+    // synchronous stays NORMAL: in WAL mode it syncs only at checkpoints, so a large transaction costs
+    // no syncs. Sorts for the index writes stay in memory.
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
+    db.pragma('temp_store = MEMORY');
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    const deletions = new PairBuffer((hash, token) => s.insertDeletion.run(hash | 0, token));
+    const deletions = new PairBuffer(rowWriter(db, 'deletions', ['hash', 'token']));
+    const postings = new PairBuffer(rowWriter(db, 'postings', ['token', 'feature']));
+    const names = new NameBuffer(rowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
     const tokenId = (token: string): number => {
@@ -288,16 +348,18 @@ class SqliteGazetteer implements GazetteerStore {
         const tokens = new Set<string>();
         for (const key of keys) {
           if (key === '') continue;
-          s.insertName.run(key, rowId);
+          names.add(key, rowId);
           for (const token of key.split(' ')) tokens.add(token);
         }
-        for (const token of tokens) s.insertPosting.run(tokenId(token), rowId);
+        for (const token of tokens) postings.add(tokenId(token), rowId);
         count++;
         return null;
       },
       commit: (source) => {
         if (!open) throw new Error('import already finished');
         deletions.flush();
+        postings.flush();
+        names.flush();
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         db.exec('COMMIT');
@@ -600,10 +662,7 @@ function prepareStatements(db: Database.Database) {
     insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
       state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry)
       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
-    insertName: db.prepare('INSERT OR IGNORE INTO names (key, feature) VALUES (?, ?)'),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
-    insertPosting: db.prepare('INSERT OR IGNORE INTO postings (token, feature) VALUES (?, ?)'),
-    insertDeletion: db.prepare('INSERT OR IGNORE INTO deletions (hash, token) VALUES (?, ?)'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
     sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
     featureById: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source WHERE f.id = ?`),
