@@ -22,17 +22,25 @@ export function fixtureStore(dir = mkdtempSync(join(tmpdir(), 'whereabouts-fault
   return dbPath;
 }
 
-const SYLLABLES = ['ka', 'lo', 'mi', 'ran', 'te', 'vu', 'sol', 'bri', 'na', 'que', 'dor', 'pa', 'zel', 'ti', 'mo', 've'];
+/** Two letters each, so that a run of them reads back one way only. */
+const SYLLABLES = ['ka', 'lo', 'mi', 'ra', 'te', 'vu', 'so', 'br', 'na', 'qu', 'do', 'pa', 'ze', 'ti', 'mo', 've'];
 
-/** A gazetteer CSV of `rows` invented villages (names built from syllables by a fixed-seed generator). */
+/**
+ * A gazetteer CSV of `rows` invented villages, each name distinct: its first word spells the row number
+ * in base 16, one syllable a digit; coordinates from a fixed-seed generator (mulberry32).
+ */
 export function writeInventedGazetteer(path: string, rows: number): void {
   let seed = 12_345;
-  const next = () => (seed = (seed * 1_103_515_245 + 12_345) % 2_147_483_648);
-  const word = (syllables: number) => Array.from({ length: syllables }, () => SYLLABLES[next() % SYLLABLES.length]).join('');
+  const random = () => {
+    seed = (seed + 0x6d2b79f5) | 0;
+    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
+  };
   const lines = ['id,name,latitude,longitude,featureType,countryCode'];
   for (let i = 0; i < rows; i++) {
-    const name = `Gen${word(2 + (next() % 3))} ${word(2)}`;
-    lines.push(`gen-${i},${name},${(-40 - (next() % 1000) / 100).toFixed(2)},${(-120 - (next() % 1000) / 100).toFixed(2)},village,QV`);
+    const word = [...i.toString(16).padStart(5, '0')].map((digit) => SYLLABLES[parseInt(digit, 16)]).join('');
+    lines.push(`gen-${i},${word[0].toUpperCase()}${word.slice(1)} Vale,${(-40 - random() * 10).toFixed(4)},${(-120 - random() * 10).toFixed(4)},village,QV`);
   }
   writeFileSync(path, `${lines.join('\n')}\n`);
 }
