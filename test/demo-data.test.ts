@@ -27,21 +27,7 @@ const ofType = (type: string) => features.filter((f) => props(f).featureType ===
 const VOCABULARY = new Set(['city', 'town', 'village', 'hamlet', 'locality', 'farm', 'estate', 'station', 'bridge', 'island', 'mountain', 'peak', 'hill', 'pass', 'lake', 'bay', 'cape', 'beach', 'waterfall', 'river', 'stream', 'river mouth', 'road', 'trail', 'country', 'stateProvince', 'county']);
 const SETTLEMENT_TYPES = new Set(['city', 'town', 'village', 'hamlet', 'locality']);
 
-function allPositions(g: Geometry): Position[] {
-  switch (g.type) {
-    case 'Point':
-      return [g.coordinates];
-    case 'LineString':
-      return g.coordinates;
-    case 'MultiLineString':
-    case 'Polygon':
-      return g.coordinates.flat();
-    case 'MultiPolygon':
-      return g.coordinates.flat(2);
-    default:
-      throw new Error(`unexpected geometry ${g.type}`);
-  }
-}
+const allPositions = (g: Geometry): Position[] => turf.coordAll(g);
 
 describe('demo.geojson follows RFC 7946', () => {
   it('is a FeatureCollection of Features with geometry and properties (RFC 7946 §3.2, §3.3)', () => {

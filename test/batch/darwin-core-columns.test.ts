@@ -2,19 +2,12 @@
  * Every column the batch appends is a Darwin Core term, or proposed_ + one, except the documented flags
  * column. Term list: test/fixtures/darwin-core-terms.txt (TDWG Darwin Core, dwc terms list; CC BY 4.0).
  */
-import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { DARWIN_CORE_TERMS } from '../support/darwin-core-terms.ts';
 import { COORDINATE_FLAGS_COLUMN } from '../../src/batch/coordinate-check.ts';
 import { startBatchJob } from '../../src/batch/run.ts';
 import { FIXTURES, fixtureGazetteer, readOutput } from './helpers.ts';
-
-const TERMS = new Set(
-  readFileSync(new URL('../fixtures/darwin-core-terms.txt', import.meta.url), 'utf8')
-    .split('\n')
-    .map((l) => l.trim())
-    .filter((l) => l && !l.startsWith('#')),
-);
 
 describe('appended columns', () => {
   it('are Darwin Core terms, proposed_ + a term, or the documented flags column', async () => {
@@ -26,8 +19,8 @@ describe('appended columns', () => {
     expect(appended).toContain('proposed_decimalLatitude'); // the input has decimalLatitude already
     for (const name of appended) {
       if (name === COORDINATE_FLAGS_COLUMN) continue;
-      expect(TERMS.has(name.replace(/^proposed_/, '')), name).toBe(true);
+      expect(DARWIN_CORE_TERMS.has(name.replace(/^proposed_/, '')), name).toBe(true);
     }
-    expect(TERMS.has(COORDINATE_FLAGS_COLUMN)).toBe(false);
+    expect(DARWIN_CORE_TERMS.has(COORDINATE_FLAGS_COLUMN)).toBe(false);
   });
 });

@@ -1,3 +1,4 @@
+import { coordAll } from '@turf/turf';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { Geometry, Position } from 'geojson';
@@ -6,19 +7,7 @@ import { inverse } from '../../src/geodesy/geodesic.ts';
 
 // Independent check: the minimax point found by brute force — a grid search over candidate points in or
 // on the feature, measured with geodesic distances (geographiclib) to every vertex, refined twice.
-function vertices(geometry: Geometry): Position[] {
-  switch (geometry.type) {
-    case 'LineString':
-      return geometry.coordinates;
-    case 'MultiLineString':
-    case 'Polygon':
-      return geometry.coordinates.flat();
-    case 'MultiPolygon':
-      return geometry.coordinates.flat(2);
-    default:
-      throw new Error('not used here');
-  }
-}
+const vertices = (geometry: Geometry): Position[] => coordAll(geometry);
 const worst = (lat: number, lon: number, points: Position[]) =>
   Math.max(...points.map(([x, y]) => inverse(lat, lon, y!, x!).meters));
 

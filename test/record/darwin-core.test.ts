@@ -1,18 +1,10 @@
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { DARWIN_CORE_TERMS } from '../support/darwin-core-terms.ts';
 import { appendedColumnNames, GEOREFERENCE_TERMS, reportingDecimals, VERIFICATION_STATUS } from '../../src/record/darwin-core.ts';
-
-// Darwin Core term names: TDWG Darwin Core terms list (CC BY 4.0), copied to test/fixtures.
-const dwcTerms = new Set(
-  readFileSync(new URL('../fixtures/darwin-core-terms.txt', import.meta.url), 'utf8')
-    .split('\n')
-    .map((l) => l.trim())
-    .filter((l) => l && !l.startsWith('#')),
-);
 
 describe('appended Darwin Core fields', () => {
   it('names only Darwin Core terms', () => {
-    for (const term of GEOREFERENCE_TERMS) expect(dwcTerms.has(term), term).toBe(true);
+    for (const term of GEOREFERENCE_TERMS) expect(DARWIN_CORE_TERMS.has(term), term).toBe(true);
   });
 
   it('keeps an existing column and proposes beside it', () => {
@@ -20,7 +12,7 @@ describe('appended Darwin Core fields', () => {
     expect(names).toContain('proposed_decimalLatitude');
     expect(names).toContain('proposed_decimalLongitude');
     expect(names).toContain('geodeticDatum');
-    for (const name of names) expect(dwcTerms.has(name.replace(/^proposed_/, '')), name).toBe(true);
+    for (const name of names) expect(DARWIN_CORE_TERMS.has(name.replace(/^proposed_/, '')), name).toBe(true);
   });
 
   it('uses the verification statuses Darwin Core recommends', () => {
