@@ -8,6 +8,7 @@ const LETTER_FOLDS: Record<string, string> = {
   ß: 'ss', æ: 'ae', œ: 'oe', ø: 'o', đ: 'd', ð: 'd', ł: 'l', þ: 'th', ı: 'i', ħ: 'h', ŧ: 't',
 };
 const LETTER_FOLD_PATTERN = new RegExp(`[${Object.keys(LETTER_FOLDS).join('')}]`, 'g');
+const PLAIN_WORDS = /^[A-Za-z0-9]+(?: [A-Za-z0-9]+)*$/;
 
 /**
  * Folds a name for comparison: case, accents and other marks, punctuation (including apostrophes and
@@ -17,6 +18,8 @@ const LETTER_FOLD_PATTERN = new RegExp(`[${Object.keys(LETTER_FOLDS).join('')}]`
  * @example foldName('São Paulo') // "sao paulo"
  */
 export function foldName(name: string): string {
+  // Most names are plain ASCII words with single spaces: only their case needs folding.
+  if (PLAIN_WORDS.test(name)) return name.toLowerCase();
   return name
     .normalize('NFKD')
     .replace(/\p{M}+/gu, '')
@@ -106,6 +109,8 @@ const MAX_VARIANTS = 12;
 export function nameVariants(name: string): NameVariant[] {
   const folded = foldName(name);
   const variants: NameVariant[] = [{ key: folded }];
+  // Most names hold no abbreviation, generic word or article: they have no other reading.
+  if (!folded.split(' ').some((token) => Object.hasOwn(ABBREVIATIONS, token) || OPTIONAL_GENERIC_WORDS.has(token) || LEADING_ARTICLES.has(token))) return variants;
   const seen = new Set([folded]);
   const add = (key: string, change: string) => {
     if (key === '' || seen.has(key) || variants.length >= MAX_VARIANTS) return;
@@ -135,7 +140,7 @@ function expandAbbreviations(tokens: string[]): { tokens: string[]; change: stri
   if (tokens.length < 2) return [];
   let readings: { tokens: string[]; changes: string[] }[] = [{ tokens: [], changes: [] }];
   for (const token of tokens) {
-    const expansions = ABBREVIATIONS[token] ?? [];
+    const expansions = Object.hasOwn(ABBREVIATIONS, token) ? ABBREVIATIONS[token] : [];
     const next: { tokens: string[]; changes: string[] }[] = [];
     for (const reading of readings) {
       next.push({ tokens: [...reading.tokens, token], changes: reading.changes });

@@ -58,10 +58,10 @@ const MAX_PARTNERS = 6;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 const TOKEN_CACHE_LIMIT = 200_000;
-/** Index pairs held before a sorted write: 16 MB. */
-const PAIR_BUFFER = 2_000_000;
+/** Index pairs held before a sorted write: 8 MB for each index. */
+const PAIR_BUFFER = 1_000_000;
 /** Names held before a sorted write. */
-const NAME_BUFFER = 500_000;
+const NAME_BUFFER = 200_000;
 const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
 
@@ -106,20 +106,36 @@ interface FeatureRow {
 const ROWS_PER_INSERT = 100;
 
 /**
- * Writes rows of `columns` values (flattened) to `table` with INSERT OR IGNORE, ROWS_PER_INSERT at a time.
- * @example rowWriter(db, 'postings', ['token', 'feature'])([1, 10, 1, 11])
+ * INSERT OR IGNORE of rows into `table`, ROWS_PER_INSERT rows to a statement; `end` writes what is left.
+ * @example const writer = new RowWriter(db, 'postings', 2); writer.add(1, 10); writer.end();
  */
-function rowWriter(db: Database.Database, table: string, columns: readonly string[]): (values: unknown[]) => void {
-  const statement = (rows: number) => db.prepare(`INSERT OR IGNORE INTO ${table} (${columns.join(', ')}) VALUES `
-    + Array.from({ length: rows }, () => `(${columns.map(() => '?').join(', ')})`).join(', '));
-  const full = statement(ROWS_PER_INSERT);
-  const single = statement(1);
-  const width = columns.length * ROWS_PER_INSERT;
-  return (values) => {
-    let at = 0;
-    for (; at + width <= values.length; at += width) full.run(values.slice(at, at + width));
-    for (; at < values.length; at += columns.length) single.run(values.slice(at, at + columns.length));
-  };
+class RowWriter {
+  private readonly full: Database.Statement;
+  private readonly single: Database.Statement;
+  private readonly values: unknown[];
+  private size = 0;
+
+  constructor(db: Database.Database, table: string, private readonly columns: readonly string[]) {
+    const statement = (rows: number) => db.prepare(`INSERT OR IGNORE INTO ${table} (${columns.join(', ')}) VALUES `
+      + Array.from({ length: rows }, () => `(${columns.map(() => '?').join(', ')})`).join(', '));
+    this.full = statement(ROWS_PER_INSERT);
+    this.single = statement(1);
+    this.values = new Array<unknown>(columns.length * ROWS_PER_INSERT);
+  }
+
+  add(first: unknown, second: unknown): void {
+    this.values[this.size++] = first;
+    this.values[this.size++] = second;
+    if (this.size === this.values.length) {
+      this.full.run(this.values);
+      this.size = 0;
+    }
+  }
+
+  end(): void {
+    for (let at = 0; at < this.size; at += this.columns.length) this.single.run(this.values.slice(at, at + this.columns.length));
+    this.size = 0;
+  }
 }
 
 /**
@@ -131,8 +147,8 @@ class PairBuffer {
   private pairs = new BigUint64Array(PAIR_BUFFER);
   private size = 0;
 
-  /** `write` gets flattened pairs, the first integer as a signed 32-bit value. */
-  constructor(private readonly write: (values: number[]) => void) {}
+  /** The first integer is written as a signed 32-bit value. */
+  constructor(private readonly writer: RowWriter) {}
 
   add(first: number, second: number): void {
     this.pairs[this.size++] = (BigInt(first >>> 0) << 32n) | BigInt(second);
@@ -140,13 +156,8 @@ class PairBuffer {
   }
 
   flush(): void {
-    const values = new Array<number>(this.size * 2);
-    let at = 0;
-    for (const pair of this.pairs.subarray(0, this.size).sort()) {
-      values[at++] = Number(pair >> 32n) | 0;
-      values[at++] = Number(pair & 0xffffffffn);
-    }
-    this.write(values);
+    for (const pair of this.pairs.subarray(0, this.size).sort()) this.writer.add(Number(pair >> 32n) | 0, Number(pair & 0xffffffffn));
+    this.writer.end();
     this.size = 0;
   }
 }
@@ -156,7 +167,7 @@ class NameBuffer {
   private keys: string[] = [];
   private features: number[] = [];
 
-  constructor(private readonly write: (values: unknown[]) => void) {}
+  constructor(private readonly writer: RowWriter) {}
 
   add(key: string, feature: number): void {
     this.keys.push(key);
@@ -165,14 +176,10 @@ class NameBuffer {
   }
 
   flush(): void {
-    const order = Array.from(this.keys.keys()).sort((a, b) => (this.keys[a] < this.keys[b] ? -1 : this.keys[a] > this.keys[b] ? 1 : a - b));
-    const values = new Array<unknown>(order.length * 2);
-    let at = 0;
-    for (const index of order) {
-      values[at++] = this.keys[index];
-      values[at++] = this.features[index];
-    }
-    this.write(values);
+    const keys = this.keys;
+    const order = Array.from(keys.keys()).sort((a, b) => (keys[a] < keys[b] ? -1 : keys[a] > keys[b] ? 1 : a - b));
+    for (const index of order) this.writer.add(keys[index], this.features[index]);
+    this.writer.end();
     this.keys = [];
     this.features = [];
   }
@@ -304,9 +311,9 @@ class SqliteGazetteer implements GazetteerStore {
     if (previous !== undefined) this.deleteSourceRows(previous.id);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    const deletions = new PairBuffer(rowWriter(db, 'deletions', ['hash', 'token']));
-    const postings = new PairBuffer(rowWriter(db, 'postings', ['token', 'feature']));
-    const names = new NameBuffer(rowWriter(db, 'names', ['key', 'feature']));
+    const deletions = new PairBuffer(new RowWriter(db, 'deletions', ['hash', 'token']));
+    const postings = new PairBuffer(new RowWriter(db, 'postings', ['token', 'feature']));
+    const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
     const tokenId = (token: string): number => {
@@ -569,9 +576,15 @@ class SqliteGazetteer implements GazetteerStore {
       .slice(0, MAX_PARTNERS);
     if (partners.length === 0) return { tokens: [], rows: [] };
     const partnerIds = JSON.stringify(partners.map((match) => match.id));
+    // Whichever side has fewer postings is read, each probed for the other side (one index seek a row).
+    const partnerPostings = partners.reduce((sum, match) => sum + match.df, 0);
+    const s = this.statements;
+    const [plain, inCountries] = partnerPostings < driver.df * partners.length
+      ? [s.partnerPostingsWithDriver, s.partnerPostingsWithDriverInCountries]
+      : [s.postingsWithPartner, s.postingsWithPartnerInCountries];
     const rows = (context.countryCodes.size === 0
-      ? this.statements.postingsWithPartner.all(driver.id, partnerIds, POSTING_BUDGET)
-      : this.statements.postingsWithPartnerInCountries.all(driver.id, partnerIds, JSON.stringify([...context.countryCodes]), POSTING_BUDGET)) as { feature: number; token: number }[];
+      ? plain.all({ driver: driver.id, partners: partnerIds, limit: POSTING_BUDGET })
+      : inCountries.all({ driver: driver.id, partners: partnerIds, limit: POSTING_BUDGET, countries: JSON.stringify([...context.countryCodes]) })) as { feature: number; token: number }[];
     return { tokens: [driver], rows };
   }
 
@@ -585,7 +598,7 @@ class SqliteGazetteer implements GazetteerStore {
         if (edits <= maxTokenEdits(row.token)) found.set(row.id, { id: row.id, edits, df: row.df });
       }
     }
-    const exactWords = [token, ...(severalTokens ? ABBREVIATIONS[token] ?? [] : []).flatMap((words) => words.split(' '))];
+    const exactWords = [token, ...(severalTokens && Object.hasOwn(ABBREVIATIONS, token) ? ABBREVIATIONS[token] : []).flatMap((words) => words.split(' '))];
     for (const word of exactWords) {
       const row = this.statements.tokenByText.get(word) as TokenRow | undefined;
       if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
@@ -678,12 +691,19 @@ function prepareStatements(db: Database.Database) {
     tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
       WHERE d.hash IN (SELECT value FROM json_each(?))`),
     postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
-    postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = ?
-      AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(?))) LIMIT ?`),
+    postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = @driver
+      AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`),
     postingsWithPartnerInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
-      WHERE p.token = ?
-        AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(?)))
-        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
+      WHERE p.token = @driver
+        AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners)))
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`),
+    partnerPostingsWithDriver: db.prepare(`SELECT q.feature, @driver AS token FROM postings q
+      WHERE q.token IN (SELECT value FROM json_each(@partners))
+        AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature) LIMIT @limit`),
+    partnerPostingsWithDriverInCountries: db.prepare(`SELECT q.feature, @driver AS token FROM postings q JOIN features f ON f.id = q.feature
+      WHERE q.token IN (SELECT value FROM json_each(@partners))
+        AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`),
     postingsInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
       WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
