@@ -106,6 +106,22 @@ describe('whereabouts doctor', { timeout: 60_000 }, () => {
     expect(source.remedy).toContain(`--source-id ${FIXTURE_SOURCE}`);
   });
 
+  it('notes a -wal file holding changes not yet copied into the store, without calling it a problem', () => {
+    const path = damagedCopy('open-writer.sqlite', () => undefined);
+    const writer = new Database(path);
+    try {
+      writer.pragma('wal_autocheckpoint = 0'); // keep the change in the -wal file (sqlite.org/wal.html, "Checkpointing")
+      writer.prepare("UPDATE sources SET licence = 'CC0 1.0'").run();
+      const { status, report } = doctor(path);
+      expect(status).toBe(0);
+      const journal = report.checks.find((c) => c.check === 'journal files')!;
+      expect(journal.status).toBe('note');
+      expect(journal.remedy).toContain('do not delete the -wal file');
+    } finally {
+      writer.close();
+    }
+  });
+
   it('says when the file is not there', () => {
     const { status, report } = doctor(join(dir, 'absent.sqlite'));
     expect(status).toBe(1);
