@@ -90,6 +90,9 @@ describe('whereabouts doctor', { timeout: 60_000 }, () => {
     const { status, report } = doctor(path);
     expect(status).toBe(1);
     expect(report.checks.find((c) => c.check === 'integrity')!.status).toBe('problem');
+    const quick = whereabouts(['--db', path, 'doctor', '--quick']);
+    expect(quick.status).toBe(1);
+    expect(quick.stdout).toMatch(/^PROBLEM integrity: /m);
   });
 
   it('reports a source whose features lost their name index rows, and says to import it again', () => {
