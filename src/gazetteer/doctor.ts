@@ -240,7 +240,12 @@ function batchJobChecks(jobsPath: string): DoctorCheck[] {
       };
     });
     if (integrity.status !== 'ok') return [integrity];
-    const unfinished = db.prepare("SELECT id, state, rows_done, rows_total, error FROM batch_job WHERE state != 'done' ORDER BY started_at").all() as JobRow[];
+    let unfinished: JobRow[];
+    try {
+      unfinished = db.prepare("SELECT id, state, rows_done, rows_total, error FROM batch_job WHERE state != 'done' ORDER BY started_at").all() as JobRow[];
+    } catch (error) {
+      return [{ check: 'batch jobs', status: 'problem', finding: `${jobsPath} holds no readable job table: ${messageOf(error)}`, remedy: `move ${jobsPath} aside; the next batch creates a new one` }];
+    }
     return [integrity, ...unfinished.map((job): DoctorCheck => ({
       check: `batch job ${job.id}`, status: 'note',
       finding: `${job.state}${job.error ? ` (${job.error})` : ''}, ${job.rows_done} of ${job.rows_total ?? 'not yet counted'} rows written`,
