@@ -145,18 +145,22 @@ class RowWriter {
  */
 class PairBuffer {
   private pairs = new BigUint64Array(PAIR_BUFFER);
+  /** The same memory as 32-bit halves, the low half first (Node runs on little-endian machines). */
+  private halves = new Uint32Array(this.pairs.buffer);
   private size = 0;
 
   /** The first integer is written as a signed 32-bit value. */
   constructor(private readonly writer: RowWriter) {}
 
   add(first: number, second: number): void {
-    this.pairs[this.size++] = (BigInt(first >>> 0) << 32n) | BigInt(second);
-    if (this.size === PAIR_BUFFER) this.flush();
+    this.halves[2 * this.size] = second;
+    this.halves[2 * this.size + 1] = first;
+    if (++this.size === PAIR_BUFFER) this.flush();
   }
 
   flush(): void {
-    for (const pair of this.pairs.subarray(0, this.size).sort()) this.writer.add(Number(pair >> 32n) | 0, Number(pair & 0xffffffffn));
+    this.pairs.subarray(0, this.size).sort();
+    for (let i = 0; i < this.size; i++) this.writer.add(this.halves[2 * i + 1] | 0, this.halves[2 * i]);
     this.writer.end();
     this.size = 0;
   }
