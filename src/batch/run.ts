@@ -322,7 +322,8 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const results = resultLookup(jobs, job.id);
   const writeText = (text: string) => {
     const bytes = Buffer.from(text, 'utf8');
-    writeSync(fd, bytes, 0, bytes.length, position);
+    // writeSync may write less than asked (a disk filling up); only bytes really written count.
+    for (let written = 0; written < bytes.length; ) written += writeSync(fd, bytes, written, bytes.length - written, position + written);
     position += bytes.length;
     fsyncSync(fd);
   };

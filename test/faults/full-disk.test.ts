@@ -86,10 +86,9 @@ describe.skipIf(disk.skipped !== undefined)(`a full disk${disk.skipped ? ` (skip
       expect(doctor.checks.find((c) => c.check.startsWith('batch job '))?.remedy).toMatch(/^finish it with: whereabouts batch --resume \w+$/);
     });
 
-    // KNOWN FAULT, see the report of issue 7: src/batch/run.ts writeRows' writeText ignores the byte
-    // count writeSync returns, so the short write at the full disk is committed as whole and the resumed
-    // file holds NUL bytes where rows should be. Remove `.fails` once writeText writes until every byte is out.
-    it.fails('resumes once the disk has room, with every row once, as an unbroken run writes them', () => {
+    // A short write at the full disk must not be committed as whole, or the resumed file would hold
+    // NUL bytes where rows should be.
+    it('resumes once the disk has room, with every row once, as an unbroken run writes them', () => {
       resize(LARGER_DISK_SIZE);
       const job = readdirSync(disk.dir!).map((name) => /^records\.out\.csv\.(\w+)\.partial$/.exec(name)?.[1]).find(Boolean)!;
       const resumed = whereabouts(['--db', dbPath, 'batch', '--resume', job, '--quiet']);
