@@ -79,8 +79,12 @@ export function storedTokenKeys(token: string): number[] {
  */
 export function queryTokenKeys(token: string): number[] {
   const keys = new Set<number>();
-  const variants = token.length >= MIN_TWO_EDIT_LENGTH ? withTwoDeletions(token) : withOneDeletion(token);
-  for (const variant of variants) keys.add(hashKey(variant));
+  // A variant of MIN_HALVES_LENGTH letters or more can only meet a stored token that long, which its
+  // halves find (within two edits, as the variant would): such variants are left out.
+  if (token.length < MIN_HALVES_LENGTH + 2) {
+    const variants = token.length >= MIN_TWO_EDIT_LENGTH ? withTwoDeletions(token) : withOneDeletion(token);
+    for (const variant of variants) if (variant.length < MIN_HALVES_LENGTH) keys.add(hashKey(variant));
+  }
   for (let length = Math.max(MIN_HALVES_LENGTH, token.length - 2); length <= token.length + 2; length++) {
     const half = length >> 1;
     for (let shift = -1; shift <= 1; shift++) {

@@ -45,6 +45,10 @@ const READING_SCORE = 0.97;
 const POSTING_BUDGET = 800;
 /** At most this many features are loaded and scored with fuse.js for one fuzzy lookup. */
 const FUZZY_POOL = 20;
+/** At least this many, when the lookup asks for few candidates and filters none. */
+const MIN_FUZZY_POOL = 10;
+/** Query tokens whose matching stored tokens are kept between lookups (cleared when the file changes). */
+const TOKEN_MATCH_CACHE = 20_000;
 /** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
 const SHORTLIST = 60;
 /** Features of one matching token taken into the shortlist before features of the next token. */
@@ -64,6 +68,8 @@ const PAIR_BUFFER = 1_000_000;
 const NAME_BUFFER = 200_000;
 const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
+/** Bytes of the file read through a memory map (a world gazetteer is larger: the rest is read as usual). */
+const MMAP_BYTES = 1 << 30;
 
 /** A feature as an importer hands it to the store: geometry as GeoJSON text (null for points). */
 export type FeatureRecord = Omit<Feature, 'sourceId' | 'geometry'> & { geometry: string | null };
@@ -197,6 +203,13 @@ interface TokenMatch {
   index: number;
 }
 
+/** A stored token within the allowed edits of a query token. */
+interface TokenMatchRow {
+  id: number;
+  edits: number;
+  df: number;
+}
+
 interface TokenRow {
   id: number;
   token: string;
@@ -237,6 +250,8 @@ export function openGazetteer(path: string, options: { readonly?: boolean } = {}
 class SqliteGazetteer implements GazetteerStore {
   private readonly db: Database.Database;
   private readonly statements: ReturnType<typeof prepareStatements>;
+  private readonly tokenMatches = new Map<string, TokenMatchRow[]>();
+  private tokenMatchVersion = -1;
 
   constructor(path: string, readonly: boolean) {
     this.db = new Database(path, { readonly, fileMustExist: readonly });
@@ -250,6 +265,8 @@ class SqliteGazetteer implements GazetteerStore {
     }
     if (!readonly) this.db.pragma('synchronous = NORMAL');
     this.db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
+    // Lookups seek into the token indexes at random: through a memory map a page costs no read call.
+    this.db.pragma(`mmap_size = ${MMAP_BYTES}`);
     this.statements = prepareStatements(this.db);
   }
 
@@ -275,7 +292,11 @@ class SqliteGazetteer implements GazetteerStore {
     };
     const limit = query.limit ?? DEFAULT_LIMIT;
     const exact = this.exactCandidates(query.name).filter(fits);
-    const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context).filter(fits);
+    // Scoring costs grow with the pool: a short list unfiltered needs a smaller pool than a filtered one.
+    const filtered = query.featureTypes !== undefined || query.geometryTypes !== undefined
+      || Object.values(query.context).some((value) => value !== undefined && value !== '');
+    const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
+    const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
     const result = candidates.slice(0, limit);
     if (query.withGeometry) for (const candidate of result) this.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
@@ -294,6 +315,7 @@ class SqliteGazetteer implements GazetteerStore {
   }
 
   removeSource(id: string): boolean {
+    this.tokenMatches.clear();
     const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
     if (row === undefined) return false;
     this.db.transaction(() => {
@@ -310,6 +332,7 @@ class SqliteGazetteer implements GazetteerStore {
     // no syncs. Sorts for the index writes stay in memory.
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = MEMORY');
+    this.tokenMatches.clear();
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
@@ -337,6 +360,7 @@ class SqliteGazetteer implements GazetteerStore {
     };
     const finish = () => {
       open = false;
+      this.tokenMatches.clear();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
     return {
@@ -485,7 +509,7 @@ class SqliteGazetteer implements GazetteerStore {
   }
 
   /** Fuzzy lookup through the token index: rarest query tokens first, within a fixed posting budget. */
-  private fuzzyCandidates(name: string, context: ResolvedContext): Candidate[] {
+  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number): Candidate[] {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
@@ -554,7 +578,7 @@ class SqliteGazetteer implements GazetteerStore {
       // Distinct names before more features of a name already in: thirty places called 'Gamar' must
       // not crowd out the one 'Guamar' as close to the query.
       .sort((a, b) => a.edits - b.edits || a.repeat - b.repeat || b.weight - a.weight)
-      .slice(0, FUZZY_POOL)
+      .slice(0, poolSize)
       .map(({ id }) => id);
     return scoreFuzzy(folded, this.loadFeatures(best));
   }
@@ -593,11 +617,28 @@ class SqliteGazetteer implements GazetteerStore {
   }
 
   /** Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands for. */
-  private matchingTokens(token: string, severalTokens: boolean): { id: number; edits: number; df: number }[] {
-    const found = new Map<number, { id: number; edits: number; df: number }>();
+  private matchingTokens(token: string, severalTokens: boolean): TokenMatchRow[] {
+    // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
+    // changes (data_version moves when another connection commits; this one's writes clear the cache).
+    const version = this.statements.dataVersion.get() as number;
+    if (version !== this.tokenMatchVersion || this.tokenMatches.size >= TOKEN_MATCH_CACHE) {
+      this.tokenMatches.clear();
+      this.tokenMatchVersion = version;
+    }
+    const cacheKey = severalTokens ? `+${token}` : token;
+    const cached = this.tokenMatches.get(cacheKey);
+    if (cached !== undefined) return cached;
+    const matches = this.readMatchingTokens(token, severalTokens);
+    this.tokenMatches.set(cacheKey, matches);
+    return matches;
+  }
+
+  private readMatchingTokens(token: string, severalTokens: boolean): TokenMatchRow[] {
+    const found = new Map<number, TokenMatchRow>();
     if (token.length >= MIN_FUZZY_TOKEN_LENGTH) {
-      for (const row of this.statements.tokensByDeletion.all(JSON.stringify(queryTokenKeys(token))) as TokenRow[]) {
-        if (found.has(row.id)) continue;
+      // Token ids first, then each distinct token once: a token shares many keys with a query.
+      const ids = new Set(this.statements.tokenIdsByDeletion.all(JSON.stringify(queryTokenKeys(token))) as number[]);
+      for (const row of this.statements.tokensByIds.all(JSON.stringify([...ids])) as TokenRow[]) {
         const edits = editDistance(token, row.token, maxTokenEdits(row.token));
         if (edits <= maxTokenEdits(row.token)) found.set(row.id, { id: row.id, edits, df: row.df });
       }
@@ -691,9 +732,10 @@ function prepareStatements(db: Database.Database) {
     featuresByIds: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE f.id IN (SELECT value FROM json_each(?))`),
     featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
+    dataVersion: db.prepare('PRAGMA data_version').pluck(),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
-    tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM deletions d JOIN tokens t ON t.id = d.token
-      WHERE d.hash IN (SELECT value FROM json_each(?))`),
+    tokenIdsByDeletion: db.prepare('SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?))').pluck(),
+    tokensByIds: db.prepare('SELECT id, token, df FROM tokens WHERE id IN (SELECT value FROM json_each(?))'),
     postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
     postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = @driver
       AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`),
