@@ -20,38 +20,42 @@ export const MIN_TWO_EDIT_LENGTH = 6;
 /** Stored tokens of at least this length are indexed by halves instead of two-deletion variants. */
 export const MIN_HALVES_LENGTH = 10;
 
+const FNV_OFFSET = 0x811c9dc5;
+const FNV_PRIME = 0x01000193;
+
 /**
  * 32-bit FNV-1a hash of a string's UTF-16 code units (collisions only add candidates that the edit
  * distance check then removes).
  * @example hashKey('abc') // 440920331
  */
 export function hashKey(text: string): number {
-  let hash = 0x811c9dc5;
-  for (let i = 0; i < text.length; i++) {
-    hash ^= text.charCodeAt(i);
-    hash = Math.imul(hash, 0x01000193);
-  }
+  let hash = FNV_OFFSET;
+  for (let i = 0; i < text.length; i++) hash = Math.imul(hash ^ text.charCodeAt(i), FNV_PRIME);
   return hash | 0;
 }
 
-/** A string and every variant with one letter deleted. */
-function withOneDeletion(text: string): Set<string> {
-  const variants = new Set([text]);
-  for (let i = 0; i < text.length; i++) variants.add(text.slice(0, i) + text.slice(i + 1));
-  return variants;
-}
-
-/** A string and every variant with one or two letters deleted. */
-function withTwoDeletions(text: string): Set<string> {
-  const variants = new Set<string>();
-  for (const once of withOneDeletion(text)) for (const twice of withOneDeletion(once)) variants.add(twice);
-  return variants;
+/**
+ * Adds to `into` hashKey(tag + variant) for `text` and every variant of it with up to `deletions`
+ * (0, 1 or 2) letters deleted and fewer than `shorterThan` letters, hashing in place: no variant
+ * string is built (a million-name import hashes tens of millions of them).
+ */
+function addDeletionKeys(text: string, deletions: number, into: Set<number>, tag = '', shorterThan = Infinity): void {
+  let start = FNV_OFFSET;
+  for (let i = 0; i < tag.length; i++) start = Math.imul(start ^ tag.charCodeAt(i), FNV_PRIME);
+  const n = text.length;
+  const hashSkipping = (first: number, second: number) => {
+    let hash = start;
+    for (let i = 0; i < n; i++) if (i !== first && i !== second) hash = Math.imul(hash ^ text.charCodeAt(i), FNV_PRIME);
+    into.add(hash | 0);
+  };
+  if (n < shorterThan) hashSkipping(-1, -1);
+  if (deletions >= 1 && n - 1 < shorterThan) for (let i = 0; i < n; i++) hashSkipping(i, -1);
+  if (deletions >= 2 && n - 2 < shorterThan) for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) hashSkipping(i, j);
 }
 
 /** Keys of one half ('<' front, '>' back) of a token of `length` letters. */
 function halfKeys(length: number, side: '<' | '>', half: string, into: Set<number>): void {
-  const tag = String.fromCharCode(length) + side;
-  for (const variant of withOneDeletion(half)) into.add(hashKey(tag + variant));
+  addDeletionKeys(half, 1, into, String.fromCharCode(length) + side);
 }
 
 /**
@@ -62,7 +66,7 @@ export function storedTokenKeys(token: string): number[] {
   const keys = new Set<number>();
   if (token.length < MIN_FUZZY_TOKEN_LENGTH) return [];
   const twoEdits = token.length >= MIN_TWO_EDIT_LENGTH && token.length < MIN_HALVES_LENGTH;
-  for (const variant of twoEdits ? withTwoDeletions(token) : withOneDeletion(token)) keys.add(hashKey(variant));
+  addDeletionKeys(token, twoEdits ? 2 : 1, keys);
   if (token.length >= MIN_HALVES_LENGTH) {
     const half = token.length >> 1;
     halfKeys(token.length, '<', token.slice(0, half), keys);
@@ -81,10 +85,7 @@ export function queryTokenKeys(token: string): number[] {
   const keys = new Set<number>();
   // A variant of MIN_HALVES_LENGTH letters or more can only meet a stored token that long, which its
   // halves find (within two edits, as the variant would): such variants are left out.
-  if (token.length < MIN_HALVES_LENGTH + 2) {
-    const variants = token.length >= MIN_TWO_EDIT_LENGTH ? withTwoDeletions(token) : withOneDeletion(token);
-    for (const variant of variants) if (variant.length < MIN_HALVES_LENGTH) keys.add(hashKey(variant));
-  }
+  if (token.length < MIN_HALVES_LENGTH + 2) addDeletionKeys(token, token.length >= MIN_TWO_EDIT_LENGTH ? 2 : 1, keys, '', MIN_HALVES_LENGTH);
   for (let length = Math.max(MIN_HALVES_LENGTH, token.length - 2); length <= token.length + 2; length++) {
     const half = length >> 1;
     for (let shift = -1; shift <= 1; shift++) {

@@ -343,10 +343,12 @@ class SqliteGazetteer implements GazetteerStore {
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
+    // Into an empty token table, a token the cache has not seen is new: no need to look it up.
+    let everyTokenCached = s.anyToken.get() === undefined;
     const tokenId = (token: string): number => {
       const cached = tokenIds.get(token);
       if (cached !== undefined) return cached;
-      const existing = s.tokenByText.get(token) as TokenRow | undefined;
+      const existing = everyTokenCached ? undefined : s.tokenByText.get(token) as TokenRow | undefined;
       let id: number;
       if (existing !== undefined) {
         id = existing.id;
@@ -354,7 +356,10 @@ class SqliteGazetteer implements GazetteerStore {
         id = Number(s.insertToken.run(token).lastInsertRowid);
         for (const hash of storedTokenKeys(token)) deletions.add(hash, id);
       }
-      if (tokenIds.size >= TOKEN_CACHE_LIMIT) tokenIds.clear();
+      if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
+        tokenIds.clear();
+        everyTokenCached = false;
+      }
       tokenIds.set(token, id);
       return id;
     };
@@ -423,10 +428,12 @@ class SqliteGazetteer implements GazetteerStore {
 
   /** Document frequencies drive which query tokens are read first; tokens left with none are removed. */
   private refreshTokenCounts(): void {
-    this.db.exec(`
-      UPDATE tokens SET df = (SELECT count(*) FROM postings p WHERE p.token = tokens.id);
-      DELETE FROM deletions WHERE token IN (SELECT id FROM tokens WHERE df = 0);
-      DELETE FROM tokens WHERE df = 0;`);
+    this.db.exec('UPDATE tokens SET df = (SELECT count(*) FROM postings p WHERE p.token = tokens.id)');
+    // The deletion keys are not indexed by token: they are scanned only when a token has gone.
+    if (this.statements.anyUnusedToken.get() !== undefined) {
+      this.db.exec(`DELETE FROM deletions WHERE token IN (SELECT id FROM tokens WHERE df = 0);
+        DELETE FROM tokens WHERE df = 0;`);
+    }
   }
 
   private resolve(query: CandidateQuery, notes: string[]): ResolvedContext {
@@ -734,6 +741,8 @@ function prepareStatements(db: Database.Database) {
     featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
     dataVersion: db.prepare('PRAGMA data_version').pluck(),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
+    anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),
+    anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
     tokenIdsByDeletion: db.prepare('SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?))').pluck(),
     tokensByIds: db.prepare('SELECT id, token, df FROM tokens WHERE id IN (SELECT value FROM json_each(?))'),
     postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
