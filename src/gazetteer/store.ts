@@ -68,8 +68,8 @@ const PAIR_BUFFER = 1_000_000;
 const NAME_BUFFER = 200_000;
 const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
-/** Bytes of the file read through a memory map (a world gazetteer is larger: the rest is read as usual). */
-const MMAP_BYTES = 1 << 30;
+/** Bytes of the file read through a memory map (SQLite caps it at its compile-time limit; the rest is read as usual). */
+const MMAP_BYTES = 2 ** 32;
 
 /** A feature as an importer hands it to the store: geometry as GeoJSON text (null for points). */
 export type FeatureRecord = Omit<Feature, 'sourceId' | 'geometry'> & { geometry: string | null };
