@@ -88,7 +88,11 @@ export function queryTokenKeys(token: string): number[] {
   if (token.length < MIN_HALVES_LENGTH + 2) addDeletionKeys(token, token.length >= MIN_TWO_EDIT_LENGTH ? 2 : 1, keys, '', MIN_HALVES_LENGTH);
   for (let length = Math.max(MIN_HALVES_LENGTH, token.length - 2); length <= token.length + 2; length++) {
     const half = length >> 1;
-    for (let shift = -1; shift <= 1; shift++) {
+    // The half within one edit is shorter in the query only when the query lost letters (a stored
+    // token longer than the query), longer only when it gained some.
+    const lowest = length < token.length ? 0 : -1;
+    const highest = length > token.length ? 0 : 1;
+    for (let shift = lowest; shift <= highest; shift++) {
       const frontLength = half + shift;
       const backLength = length - half + shift;
       if (frontLength > 0 && frontLength <= token.length) halfKeys(length, '<', token.slice(0, frontLength), keys);
