@@ -49,6 +49,8 @@ const FUZZY_POOL = 20;
 const MIN_FUZZY_POOL = 10;
 /** Query tokens whose matching stored tokens are kept between lookups (cleared when the file changes). */
 const TOKEN_MATCH_CACHE = 20_000;
+/** Whole-name edits counted exactly when re-ranking the shortlist; more are all alike (common practice, no source). */
+const MAX_NAME_EDITS = 4;
 /** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
 const SHORTLIST = 60;
 /** Features of one matching token taken into the shortlist before features of the next token. */
@@ -660,7 +662,7 @@ class SqliteGazetteer implements GazetteerStore {
 
   /** For each feature, its folded name or alternate name closest to a folded query, with the edits. */
   private closestNames(ids: number[], foldedQuery: string): Map<number, { edits: number; key: string }> {
-    const limit = Math.max(2, foldedQuery.length >> 1);
+    const limit = Math.min(MAX_NAME_EDITS, Math.max(2, foldedQuery.length >> 1));
     const closest = new Map<number, { edits: number; key: string }>();
     for (const row of this.statements.namesByIds.all(JSON.stringify(ids)) as { id: number; name: string; alternate_names: string | null }[]) {
       const names = row.alternate_names === null ? [row.name] : [row.name, ...row.alternate_names.split(NAME_SEPARATOR)];
