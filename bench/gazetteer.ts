@@ -14,25 +14,15 @@ import Fuse from 'fuse.js';
 import { foldName } from '../src/gazetteer/fold.ts';
 import { importGazetteer } from '../src/gazetteer/import.ts';
 import { openGazetteer } from '../src/gazetteer/store.ts';
+import { seededRandom } from './seeded-random.ts';
 
 const NAMES = Number(process.env.BENCH_NAMES ?? 1_000_000);
 const QUERIES = Number(process.env.BENCH_QUERIES ?? 2000);
 const FUSE_QUERIES = Number(process.env.BENCH_FUSE_QUERIES ?? 3);
 const SEED = 20240521;
 
-/** mulberry32: a small seeded generator, so every run builds the same gazetteer. */
-function random(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
-const rand = random(SEED);
+const rand = seededRandom(SEED);
 const pick = <T>(items: readonly T[]): T => items[Math.floor(rand() * items.length)];
 
 /*

@@ -11,14 +11,10 @@ import { featureExtent } from '../src/georef/feature-extent.ts';
 import { georeference } from '../src/georef/georeference.ts';
 import type { Feature } from '../src/gazetteer/types.ts';
 import type { Interpretation } from '../src/parse/types.ts';
+import { seededRandom } from './seeded-random.ts';
 
 const SIZES = (process.env.BENCH_VERTICES ?? '50,500,5000').split(',').map(Number);
 
-/** Deterministic pseudo-random numbers (a linear congruential generator), so runs compare. */
-function seeded(seed: number): () => number {
-  let state = seed;
-  return () => (state = (state * 1103515245 + 12345) % 2147483648) / 2147483648;
-}
 
 function wavyRing(vertices: number, random: () => number): Position[] {
   const [lat, lon] = [-60 + 120 * random(), -180 + 360 * random()];
@@ -40,7 +36,7 @@ function measure(label: string, count: number, work: (i: number) => void): void 
 }
 
 for (const vertices of SIZES) {
-  const random = seeded(vertices);
+  const random = seededRandom(vertices);
   const count = Math.max(20, Math.round(200_000 / vertices));
   const polygons: Geometry[] = Array.from({ length: count }, () => ({ type: 'Polygon', coordinates: [wavyRing(vertices, random)] }));
   measure(`featureExtent, polygons of ${vertices} vertices`, count, (i) => featureExtent(polygons[i]!));

@@ -18,6 +18,7 @@ import { stringify } from 'csv-stringify/sync';
 import * as turf from '@turf/turf';
 import geographiclib from 'geographiclib-geodesic';
 import type { Feature, FeatureCollection, Geometry, Polygon, Position } from 'geojson';
+import { seededRandom } from '../bench/seeded-random.ts';
 
 type Pt = [number, number];
 type Ring = Pt[]; // open ring, counter-clockwise in the local plane
@@ -32,17 +33,6 @@ const COAST_VERTICES = 288;
 const COUNTRY_CODE = 'QV';
 const COUNTRY_NAME = 'Isla Verdemar';
 
-/** mulberry32: a small seeded generator, so every run draws the same numbers. */
-function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 const random = seededRandom(20261201);
 // Rivers and roads draw from their own stream, so adding a place never moves a line (or a bridge).
 const lineRandom = seededRandom(7461);

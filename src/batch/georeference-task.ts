@@ -2,12 +2,18 @@
  * The work a batch worker thread does: georeference a chunk of distinct localities against the
  * gazetteer, which each worker opens read-only once and keeps open.
  */
-import { openGazetteer } from '../gazetteer/store.ts';
+import { openGazetteer, type OpenOptions } from '../gazetteer/store.ts';
 import type { LocateRequest } from '../locate.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { georeferenceGroup, type BatchSettings } from './georeference-group.ts';
 import type { Delimiter } from './records.ts';
 import { renderGroup, type RenderedGroup } from './rendered-group.ts';
+
+/**
+ * How batch threads open the gazetteer: read-only, no memory map and a 16 MiB page cache, so that two
+ * connections (main thread and worker) keep a batch under its memory budget [measured with bench:batch].
+ */
+export const BATCH_STORE_OPTIONS: OpenOptions = { readonly: true, memoryMap: false, cacheKiB: 16_384 };
 
 export interface GeoreferenceTask {
   dbPath: string;
@@ -27,7 +33,7 @@ let opened: { dbPath: string; store: ReturnType<typeof openGazetteer> } | undefi
 export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: RenderedGroup }[] {
   if (opened?.dbPath !== task.dbPath) {
     opened?.store.close();
-    opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, { readonly: true }) };
+    opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, BATCH_STORE_OPTIONS) };
   }
   const store = opened.store;
   return task.groups.map(({ id, request }) => ({ id, result: renderGroup(georeferenceGroup(store, request, task.settings, task.context), task.delimiter) }));

@@ -20,7 +20,7 @@ import { VERSION } from '../version.ts';
 import { checkCoordinates, COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from './coordinate-check.ts';
 import { unreadableResult, type BatchSettings } from './georeference-group.ts';
 import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './rendered-group.ts';
-import georeferenceChunk, { closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
+import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
   claimJob, findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
@@ -134,7 +134,7 @@ function settingsOf(options: BatchJobOptions): string {
 }
 
 function gazetteerSources(dbPath: string) {
-  const store = openGazetteer(dbPath, { readonly: true });
+  const store = openGazetteer(dbPath, BATCH_STORE_OPTIONS);
   try {
     return store.sources();
   } finally {

@@ -245,8 +245,19 @@ export interface GazetteerStore extends CandidateFinder {
  * Throws when the file holds another schema version, or when `readonly` and the file does not exist.
  * @example const store = openGazetteer('g.sqlite'); store.findCandidates({ name: 'Rosario', context: { countryCode: 'AR' } });
  */
-export function openGazetteer(path: string, options: { readonly?: boolean } = {}): GazetteerStore {
-  return new SqliteGazetteer(path, options.readonly === true);
+export interface OpenOptions {
+  readonly?: boolean;
+  /**
+   * Read the file through a memory map (default true): about 15 % faster lookups, but the mapped pages
+   * count in the process's resident memory, so batch workers that must stay small turn it off.
+   */
+  memoryMap?: boolean;
+  /** SQLite page cache of a reading connection in KiB (default 65536). */
+  cacheKiB?: number;
+}
+
+export function openGazetteer(path: string, options: OpenOptions = {}): GazetteerStore {
+  return new SqliteGazetteer(path, options.readonly === true, options.memoryMap !== false, options.cacheKiB ?? QUERY_CACHE_KIB);
 }
 
 class SqliteGazetteer implements GazetteerStore {
@@ -255,7 +266,7 @@ class SqliteGazetteer implements GazetteerStore {
   private readonly tokenMatches = new Map<string, TokenMatchRow[]>();
   private tokenMatchVersion = -1;
 
-  constructor(path: string, readonly: boolean) {
+  constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number) {
     this.db = new Database(path, { readonly, fileMustExist: readonly });
     const version = this.db.pragma('user_version', { simple: true }) as number;
     if (version === 0 && !readonly) {
@@ -266,9 +277,9 @@ class SqliteGazetteer implements GazetteerStore {
       throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads version ${SCHEMA_VERSION}`);
     }
     if (!readonly) this.db.pragma('synchronous = NORMAL');
-    this.db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
+    this.db.pragma(`cache_size = -${Math.round(cacheKiB)}`);
     // Lookups seek into the token indexes at random: through a memory map a page costs no read call.
-    this.db.pragma(`mmap_size = ${MMAP_BYTES}`);
+    if (memoryMap) this.db.pragma(`mmap_size = ${MMAP_BYTES}`);
     this.statements = prepareStatements(this.db);
   }
 

@@ -3,6 +3,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { seededRandom } from '../../bench/seeded-random.ts';
 
 export const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
 /** Invented places of Isla Quiroga (test/fixtures/batch/gazetteer.csv). */
@@ -27,16 +28,10 @@ const SYLLABLES = ['ka', 'lo', 'mi', 'ra', 'te', 'vu', 'so', 'br', 'na', 'qu', '
 
 /**
  * A gazetteer CSV of `rows` invented villages, each name distinct: its first word spells the row number
- * in base 16, one syllable a digit; coordinates from a fixed-seed generator (mulberry32).
+ * in base 16, one syllable a digit; coordinates from a fixed-seed generator.
  */
 export function writeInventedGazetteer(path: string, rows: number): void {
-  let seed = 12_345;
-  const random = () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
-  };
+  const random = seededRandom(12_345);
   const lines = ['id,name,latitude,longitude,featureType,countryCode'];
   for (let i = 0; i < rows; i++) {
     const word = [...i.toString(16).padStart(5, '0')].map((digit) => SYLLABLES[parseInt(digit, 16)]).join('');
