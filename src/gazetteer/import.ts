@@ -174,7 +174,8 @@ async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, strin
  * being read, so memory stays constant however large the collection.
  */
 async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
-  input.setEncoding('utf8');
+  // Decoded here rather than with setEncoding, so that the import's hash still sees the file's bytes.
+  const decoder = new StringDecoder('utf8');
   let depth = 0;
   let inString = false;
   let escaped = false;
@@ -183,7 +184,8 @@ async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
   let featuresDepth = -1;
   let buffer = '';
   let count = 0;
-  for await (const chunk of input as AsyncIterable<string>) {
+  for await (const bytes of input as AsyncIterable<Buffer>) {
+    const chunk = decoder.write(bytes);
     let featureStart = buffer === '' ? -1 : 0;
     for (let i = 0; i < chunk.length; i++) {
       const c = chunk[i];

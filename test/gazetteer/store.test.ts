@@ -154,6 +154,11 @@ describe('sources', () => {
     expect(Number.isNaN(Date.parse(places!.importedAt))).toBe(false);
   });
 
+  it('hashes a GeoJSON file\'s own bytes too', () => {
+    const units = store.sources().find((s) => s.id === 'units');
+    expect(units?.contentHash).toBe(createHash('sha256').update(readFileSync(join(FIXTURES, 'admin.geojson'))).digest('hex'));
+  });
+
   it('replaces a source imported again under the same id, and removes one', async () => {
     const path = join(directory, 'replace.sqlite');
     const local = openGazetteer(path);
