@@ -4,7 +4,7 @@
  * row number and reason, the source recorded with its citation, licence and the file's sha256.
  */
 import { createHash } from 'node:crypto';
-import { createReadStream } from 'node:fs';
+import { accessSync, constants, createReadStream } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { createInterface } from 'node:readline';
 import { StringDecoder } from 'node:string_decoder';
@@ -55,6 +55,8 @@ const READ_BYTES = 16 * 1024;
  */
 export async function importGazetteer(store: GazetteerStore, filePath: string, options: ImportOptions): Promise<ImportSummary> {
   const started = process.hrtime.bigint();
+  assertReadable(filePath);
+  if (options.adminCodesFile !== undefined) assertReadable(options.adminCodesFile);
   const sourceId = options.sourceId ?? defaultSourceId(filePath);
   const admin1Names = options.adminCodesFile === undefined ? new Map<string, string>() : await readAdmin1Names(options.adminCodesFile);
   // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
@@ -240,4 +242,14 @@ function readGeoJsonFeature(text: string): RawFeature | string {
     alternateNames: Array.isArray(alternates) ? alternates.map(String) : typeof alternates === 'string' ? alternates.split('|') : [],
     geometry: feature.geometry,
   };
+}
+
+/** A clear error before any work starts, rather than a stream error in the middle of the import. */
+function assertReadable(path: string): void {
+  try {
+    accessSync(path, constants.R_OK);
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    throw new Error(`cannot read ${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : String(code)}`);
+  }
 }

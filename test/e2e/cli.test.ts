@@ -85,3 +85,13 @@ describe('whereabouts batch', () => {
     for (const row of output.slice(1)) expect(allowed).toContain(row[status]);
   });
 });
+
+describe('clear errors', () => {
+  it('names a missing gazetteer and a missing import file, exit status 1', async () => {
+    const missingDb = whereabouts('--db', join(dir, 'none.sqlite'), 'locate', 'Vila Serena');
+    await expect(missingDb).rejects.toMatchObject({ code: 1, stderr: expect.stringMatching(/no gazetteer at .*none\.sqlite: import one first/) });
+    const missingFile = whereabouts('--db', db, 'import', join(dir, 'none.csv'));
+    await expect(missingFile).rejects.toMatchObject({ code: 1, stderr: expect.stringMatching(/cannot read .*none\.csv: no such file/) });
+  });
+});
+

@@ -1,3 +1,4 @@
+import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
 import { openGazetteer } from '../../gazetteer/store.ts';
 import { locate, type LocateResult } from '../../locate.ts';
@@ -25,6 +26,9 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
     .option('--json', 'print the HTTP API body as JSON')
     .action((text: string, opts: LocateCommandOptions) => {
+      if (!existsSync(dbPath())) {
+        throw new Error(`no gazetteer at ${dbPath()}: import one first (whereabouts import <file>) or name another with --db`);
+      }
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
         const result = locate(store, {
