@@ -51,6 +51,12 @@ const MIN_FUZZY_POOL = 10;
 const TOKEN_MATCH_CACHE = 20_000;
 /** Whole-name edits counted exactly when re-ranking the shortlist; more are all alike (common practice, no source). */
 const MAX_NAME_EDITS = 4;
+/**
+ * A lookup that took stored query words as written is repeated with their near neighbours when no
+ * shortlisted name is closer than this many whole-name edits (measured on the benchmark: 2 repeats
+ * most two-error lookups for no gain in recall).
+ */
+const RETRY_NAME_EDITS = 3;
 /** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
 const SHORTLIST = 60;
 /** Features of one matching token taken into the shortlist before features of the next token. */
@@ -528,8 +534,14 @@ class SqliteGazetteer implements GazetteerStore {
     return [...found.values()].sort((a, b) => b.score - a.score);
   }
 
-  /** Fuzzy lookup through the token index: rarest query tokens first, within a fixed posting budget. */
-  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number): Candidate[] {
+  /**
+   * Fuzzy lookup through the token index: rarest query tokens first, within a fixed posting budget.
+   * A query word that is itself a stored token is first taken as written, without the deletion keys
+   * of its near neighbours (most of a lookup's index seeks); only when no shortlisted name then comes
+   * within RETRY_NAME_EDITS of the query (the typing error made another stored word) is the lookup
+   * repeated with every word's neighbours (`everyNeighbour`).
+   */
+  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, everyNeighbour = false): Candidate[] {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
@@ -537,7 +549,7 @@ class SqliteGazetteer implements GazetteerStore {
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const matched = queryTokens
-      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1).map((match) => ({ ...match, index })))
+      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).map((match) => ({ ...match, index })))
       .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
@@ -586,6 +598,10 @@ class SqliteGazetteer implements GazetteerStore {
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
     const closest = this.closestNames(shortlist.map(([id]) => id), folded);
+    const tookAsWritten = !everyNeighbour && matched.some((match) => match.edits === 0 && queryTokens[match.index].length >= MIN_FUZZY_TOKEN_LENGTH);
+    if (tookAsWritten && Math.min(...[...closest.values()].map((entry) => entry.edits)) >= RETRY_NAME_EDITS) {
+      return this.fuzzyCandidates(name, context, poolSize, true);
+    }
     const seen = new Map<string, number>();
     const best = shortlist
       .map(([id, weight]) => ({ id, weight, ...(closest.get(id) ?? { edits: Infinity, key: '' }) }))
@@ -636,8 +652,11 @@ class SqliteGazetteer implements GazetteerStore {
     return { tokens: [driver], rows };
   }
 
-  /** Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands for. */
-  private matchingTokens(token: string, severalTokens: boolean): TokenMatchRow[] {
+  /**
+   * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
+   * for; a token stored as written (or its abbreviation's words) alone unless `everyNeighbour`.
+   */
+  private matchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.statements.dataVersion.get() as number;
@@ -645,28 +664,28 @@ class SqliteGazetteer implements GazetteerStore {
       this.tokenMatches.clear();
       this.tokenMatchVersion = version;
     }
-    const cacheKey = severalTokens ? `+${token}` : token;
+    const cacheKey = `${severalTokens ? '+' : '-'}${everyNeighbour ? '*' : '='}${token}`;
     const cached = this.tokenMatches.get(cacheKey);
     if (cached !== undefined) return cached;
-    const matches = this.readMatchingTokens(token, severalTokens);
+    const matches = this.readMatchingTokens(token, severalTokens, everyNeighbour);
     this.tokenMatches.set(cacheKey, matches);
     return matches;
   }
 
-  private readMatchingTokens(token: string, severalTokens: boolean): TokenMatchRow[] {
+  private readMatchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
     const found = new Map<number, TokenMatchRow>();
-    if (token.length >= MIN_FUZZY_TOKEN_LENGTH) {
-      // Token ids first, then each distinct token once: a token shares many keys with a query.
-      const ids = new Set(this.statements.tokenIdsByDeletion.all(JSON.stringify(queryTokenKeys(token))) as number[]);
-      for (const row of this.statements.tokensByIds.all(JSON.stringify([...ids])) as TokenRow[]) {
-        const edits = editDistance(token, row.token, maxTokenEdits(row.token));
-        if (edits <= maxTokenEdits(row.token)) found.set(row.id, { id: row.id, edits, df: row.df });
-      }
-    }
     const exactWords = [token, ...(severalTokens && Object.hasOwn(ABBREVIATIONS, token) ? ABBREVIATIONS[token] : []).flatMap((words) => words.split(' '))];
     for (const word of exactWords) {
       const row = this.statements.tokenByText.get(word) as TokenRow | undefined;
       if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
+    }
+    if (token.length >= MIN_FUZZY_TOKEN_LENGTH && (everyNeighbour || found.size === 0)) {
+      // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+      for (const [id, stored, df] of this.statements.tokensByDeletion.all(JSON.stringify(queryTokenKeys(token))) as [number, string, number][]) {
+        if (found.has(id)) continue;
+        const edits = editDistance(token, stored, maxTokenEdits(stored));
+        if (edits <= maxTokenEdits(stored)) found.set(id, { id, edits, df });
+      }
     }
     return [...found.values()];
   }
@@ -756,8 +775,8 @@ function prepareStatements(db: Database.Database) {
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
-    tokenIdsByDeletion: db.prepare('SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?))').pluck(),
-    tokensByIds: db.prepare('SELECT id, token, df FROM tokens WHERE id IN (SELECT value FROM json_each(?))'),
+    tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM tokens t
+      WHERE t.id IN (SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?)))`).raw(),
     postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
     postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = @driver
       AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`),
