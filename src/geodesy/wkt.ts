@@ -1,5 +1,6 @@
 /** Polygons written as WKT in EPSG:4326 (lon lat order), split at the antimeridian. */
 import type { Position } from 'geojson';
+import { largest, smallest } from './extremes.ts';
 
 /**
  * WKT of polygons whose longitudes may run past ±180 (rings unwrapped around a center): each polygon is
@@ -17,8 +18,8 @@ export function polygonsToWKT(polygons: Position[][][]): string {
       parts.push(rings);
       continue;
     }
-    const lowBand = Math.round(Math.min(...longitudes) / 360);
-    const highBand = Math.round(Math.max(...longitudes) / 360);
+    const lowBand = Math.round(smallest(longitudes) / 360);
+    const highBand = Math.round(largest(longitudes) / 360);
     for (let band = lowBand; band <= highBand; band++) {
       const west = 360 * band - 180;
       const east = 360 * band + 180;
@@ -37,7 +38,7 @@ export function polygonsToWKT(polygons: Position[][][]): string {
 function hasWidth(ring: Position[]): boolean {
   const longitudes = ring.map((p) => p[0]!);
   const latitudes = ring.map((p) => p[1]!);
-  return Math.max(...longitudes) > Math.min(...longitudes) && Math.max(...latitudes) > Math.min(...latitudes);
+  return largest(longitudes) > smallest(longitudes) && largest(latitudes) > smallest(latitudes);
 }
 
 function format(value: number): string {

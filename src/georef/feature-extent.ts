@@ -12,6 +12,7 @@ import {
   type PlaneCircle,
   type PlanePoint,
 } from '../geodesy/plane.ts';
+import { largest } from '../geodesy/extremes.ts';
 
 export interface FeatureExtent {
   /** Corrected center, WGS84 degrees, longitude in [-180, 180). */
@@ -99,12 +100,12 @@ function minimaxPoint(parts: FeatureParts, what: string, solve: (plane: PlanePar
     const projected = projectParts(parts, (p) => projection.forward(p[1]!, p[0]!));
     const solution = solve(projected);
     if (Math.hypot(solution[0], solution[1]) <= CONVERGED_METERS) {
-      const radiusMeters = Math.max(...projected.vertices.map((v) => Math.hypot(v[0], v[1])));
+      const radiusMeters = largest(projected.vertices.map((v) => Math.hypot(v[0], v[1])));
       return { latitude, longitude: normaliseLongitude(longitude), radiusMeters };
     }
     [latitude, longitude] = projection.inverse(solution[0], solution[1]);
   }
-  const radiusMeters = Math.max(...parts.positions.map((v) => inverse(latitude, longitude, v[1]!, v[0]!).meters));
+  const radiusMeters = largest(parts.positions.map((v) => inverse(latitude, longitude, v[1]!, v[0]!).meters));
   return { latitude, longitude: normaliseLongitude(longitude), radiusMeters };
 }
 

@@ -177,3 +177,21 @@ describe('featureExtent properties (fast-check)', () => {
     );
   });
 });
+
+describe('large features', () => {
+  // Detailed boundaries have hundreds of thousands of vertices; none may overflow the call stack.
+  // Expected values: the circle's own center and radius (plane geometry of a regular polygon, 1 mm).
+  it('takes a ring of 200,000 vertices', () => {
+    const ring: Position[] = [];
+    for (let i = 0; i < 200_000; i++) {
+      const a = (2 * Math.PI * i) / 200_000;
+      ring.push([10 + 0.1 * Math.cos(a), 0.1 * Math.sin(a)]);
+    }
+    ring.push(ring[0]!);
+    const extent = featureExtent({ type: 'Polygon', coordinates: [ring] });
+    expect(extent.latitude).toBeCloseTo(0, 4);
+    expect(extent.longitude).toBeCloseTo(10, 4);
+    expect(extent.radiusMeters).toBeGreaterThan(11_000);
+    expect(extent.radiusMeters).toBeLessThan(11_200);
+  });
+});
