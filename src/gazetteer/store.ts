@@ -7,7 +7,7 @@ import Database from 'better-sqlite3';
 import type { Geometry, Polygon, MultiPolygon } from 'geojson';
 import { booleanPointInPolygon } from '@turf/turf';
 import { contextMismatch, resolveContext, type ResolvedContext, type SpatiallyDecided } from './context.ts';
-import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, queryTokenKeys, storedTokenKeys } from './edit-distance.ts';
+import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './match.ts';
 import type {
@@ -52,9 +52,9 @@ const TOKEN_MATCH_CACHE = 20_000;
 /** Whole-name edits counted exactly when re-ranking the shortlist; more are all alike (common practice, no source). */
 const MAX_NAME_EDITS = 4;
 /**
- * A lookup that took stored query words as written is repeated with their near neighbours when no
- * shortlisted name is closer than this many whole-name edits (measured on the benchmark: 2 repeats
- * most two-error lookups for no gain in recall).
+ * A lookup that left near neighbours of its words unread is repeated with them when no shortlisted
+ * name is closer than this many whole-name edits (measured on the benchmark: 2 repeats most
+ * two-error lookups for no gain in recall).
  */
 const RETRY_NAME_EDITS = 3;
 /** At most this many features are shortlisted by token weight and re-ranked by whole-name edits. */
@@ -536,10 +536,11 @@ class SqliteGazetteer implements GazetteerStore {
 
   /**
    * Fuzzy lookup through the token index: rarest query tokens first, within a fixed posting budget.
-   * A query word that is itself a stored token is first taken as written, without the deletion keys
-   * of its near neighbours (most of a lookup's index seeks); only when no shortlisted name then comes
-   * within RETRY_NAME_EDITS of the query (the typing error made another stored word) is the lookup
-   * repeated with every word's neighbours (`everyNeighbour`).
+   * A query word that is itself a stored token is first taken as written, and a word of a longer name
+   * found within one edit without its two-edit neighbours (see matchingTokens): most of a lookup's
+   * index seeks are saved. Only when no shortlisted name then comes within RETRY_NAME_EDITS of the
+   * query (the typing error made another stored word, say) is the lookup repeated with every word's
+   * neighbours (`everyNeighbour`).
    */
   private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, everyNeighbour = false): Candidate[] {
     const folded = foldName(name);
@@ -598,8 +599,11 @@ class SqliteGazetteer implements GazetteerStore {
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
     const closest = this.closestNames(shortlist.map(([id]) => id), folded);
-    const tookAsWritten = !everyNeighbour && matched.some((match) => match.edits === 0 && queryTokens[match.index].length >= MIN_FUZZY_TOKEN_LENGTH);
-    if (tookAsWritten && Math.min(...[...closest.values()].map((entry) => entry.edits)) >= RETRY_NAME_EDITS) {
+    const neighboursLeftUnread = !everyNeighbour && matched.some(({ edits, index }) => {
+      const length = queryTokens[index].length;
+      return length >= MIN_FUZZY_TOKEN_LENGTH && (edits === 0 || (edits === 1 && queryTokens.length > 1 && length >= MIN_TWO_EDIT_LENGTH));
+    });
+    if (neighboursLeftUnread && Math.min(...[...closest.values()].map((entry) => entry.edits)) >= RETRY_NAME_EDITS) {
       return this.fuzzyCandidates(name, context, poolSize, true);
     }
     const seen = new Map<string, number>();
@@ -654,7 +658,8 @@ class SqliteGazetteer implements GazetteerStore {
 
   /**
    * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
-   * for; a token stored as written (or its abbreviation's words) alone unless `everyNeighbour`.
+   * for. Unless `everyNeighbour`: a token stored as written (or its abbreviation's words) alone, and a
+   * word of several found within one edit without its two-edit neighbours.
    */
   private matchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
@@ -679,14 +684,20 @@ class SqliteGazetteer implements GazetteerStore {
       const row = this.statements.tokenByText.get(word) as TokenRow | undefined;
       if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
     }
-    if (token.length >= MIN_FUZZY_TOKEN_LENGTH && (everyNeighbour || found.size === 0)) {
+    if (token.length < MIN_FUZZY_TOKEN_LENGTH || (found.size > 0 && !everyNeighbour)) return [...found.values()];
+    const near = (keys: number[]) => {
       // One statement: each distinct token once (a token shares many keys with a query), as arrays.
-      for (const [id, stored, df] of this.statements.tokensByDeletion.all(JSON.stringify(queryTokenKeys(token))) as [number, string, number][]) {
+      for (const [id, stored, df] of this.statements.tokensByDeletion.all(JSON.stringify(keys)) as [number, string, number][]) {
         if (found.has(id)) continue;
         const edits = editDistance(token, stored, maxTokenEdits(stored));
         if (edits <= maxTokenEdits(stored)) found.set(id, { id, edits, df });
       }
-    }
+    };
+    // A word of a longer name found within one edit is read without its two-edit neighbours (most of
+    // the seeks): the other words of the name tell its features apart. A lone word keeps them all.
+    const oneEditFirst = !everyNeighbour && severalTokens && token.length >= MIN_TWO_EDIT_LENGTH;
+    if (oneEditFirst) near(oneEditQueryKeys(token));
+    if (!oneEditFirst || ![...found.values()].some((match) => match.edits <= 1)) near(queryTokenKeys(token));
     return [...found.values()];
   }
 
