@@ -1,6 +1,6 @@
 /** Footprints: the uncertainty circle as a polygon, sectors, and shapes clipped to an administrative unit. */
 import type { Feature, Geometry, MultiPolygon, Polygon, Position } from 'geojson';
-import { bbox, bboxClip, booleanPointInPolygon, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
+import { bboxClip, booleanPointInPolygon, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
 import { intersection, type Geometry as ClipGeometry } from 'martinez-polygon-clipping';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
@@ -96,7 +96,8 @@ export function clipRingToUnit(ring: Position[], referenceLongitude: number, uni
   if (unitGeometry.type !== 'Polygon' && unitGeometry.type !== 'MultiPolygon') return undefined;
   const unit = unwrapGeometry(unitGeometry, referenceLongitude);
   const unitRings = unit.type === 'Polygon' ? unit.coordinates : unit.coordinates.flat();
-  if (!boundariesMeet(ring, unitRings)) {
+  const box = boxOf(ring);
+  if (!boundariesMeet(ring, box, unitRings)) {
     // No edge crosses and no part of the unit lies inside the ring: the ring is wholly in or wholly out.
     if (!booleanPointInPolygon(ring[0]!, unit)) return undefined;
     return { footprintWKT: polygonsToWKT([[ring]]), geometry: { type: 'Polygon', coordinates: [ring] } };
@@ -104,8 +105,7 @@ export function clipRingToUnit(ring: Position[], referenceLongitude: number, uni
   const unitFeature: Feature<Polygon | MultiPolygon> = unit.type === 'Polygon' ? turfPolygon(unit.coordinates) : turfMultiPolygon(unit.coordinates);
   // Only the part of the unit inside the ring's box can meet it: cutting the unit to that box first
   // keeps the polygon clipping small, whatever the size of the unit.
-  const ringFeature = turfPolygon([ring]);
-  const [west, south, east, north] = bbox(ringFeature);
+  const [west, south, east, north] = box;
   const margin = 1e-9 + (east - west + north - south) * 1e-6;
   const nearby = bboxClip(unitFeature, [west - margin, south - margin, east + margin, north + margin]) as Feature<Polygon | MultiPolygon>;
   const pieces = intersection([ring] as ClipGeometry, nearby.geometry.coordinates as ClipGeometry);
@@ -128,14 +128,26 @@ function signedArea(ring: Position[]): number {
   return sum;
 }
 
+/** [west, south, east, north] in the ring's own (unwrapped) longitudes. */
+type Box = [number, number, number, number];
+
+function boxOf(ring: Position[]): Box {
+  const box: Box = [Infinity, Infinity, -Infinity, -Infinity];
+  for (const [x, y] of ring) {
+    box[0] = Math.min(box[0], x!);
+    box[1] = Math.min(box[1], y!);
+    box[2] = Math.max(box[2], x!);
+    box[3] = Math.max(box[3], y!);
+  }
+  return box;
+}
+
 /**
  * Whether a ring and a unit's rings touch or cross, or a vertex of the unit lies inside the ring (a hole
  * or a small part of the unit held by the ring). Planar in longitude/latitude, as the clipping is; edges
  * outside the ring's bounding box are skipped, so a large unit costs one pass over its vertices.
  */
-function boundariesMeet(ring: Position[], unitRings: Position[][]): boolean {
-  let [west, south, east, north] = [Infinity, Infinity, -Infinity, -Infinity];
-  for (const [x, y] of ring) [west, south, east, north] = [Math.min(west, x!), Math.min(south, y!), Math.max(east, x!), Math.max(north, y!)];
+function boundariesMeet(ring: Position[], [west, south, east, north]: Box, unitRings: Position[][]): boolean {
   const inBox = (p: Position) => p[0]! >= west && p[0]! <= east && p[1]! >= south && p[1]! <= north;
   for (const unitRing of unitRings) {
     for (let i = 0; i + 1 < unitRing.length; i++) {
