@@ -5,7 +5,7 @@
  */
 import Database from 'better-sqlite3';
 import type { Geometry, Polygon, MultiPolygon } from 'geojson';
-import { booleanPointInPolygon } from '@turf/turf';
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
 import { contextMismatch, resolveContext, type ResolvedContext, type SpatiallyDecided } from './context.ts';
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';

@@ -1,5 +1,5 @@
 /** UTM grid coordinates to latitude/longitude in the same datum (proj4's transverse Mercator). */
-import proj4 from 'proj4';
+import { proj4 } from './proj4.ts';
 import { datumDefinition } from './datums.ts';
 
 /** Latitude bands C–M are south of the equator, N–X north (I and O are not used). */
@@ -31,6 +31,6 @@ export function utmToGeographic(
   if (!(northing >= 0 && northing <= 10000000)) throw new Error(`UTM northing ${northing} m is outside 0–10 000 000 m`);
   const { ellipsoid } = datumDefinition(datumEpsg);
   const grid = `+proj=utm +zone=${zone}${south ? ' +south' : ''} ${ellipsoid} +units=m +no_defs`;
-  const [longitude, latitude] = proj4(grid, `+proj=longlat ${ellipsoid} +no_defs`, [easting, northing]);
+  const [longitude, latitude] = proj4()(grid, `+proj=longlat ${ellipsoid} +no_defs`, [easting, northing]);
   return { latitude: latitude!, longitude: longitude! };
 }

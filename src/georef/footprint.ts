@@ -1,6 +1,8 @@
 /** Footprints: the uncertainty circle as a polygon, sectors, and shapes clipped to an administrative unit. */
 import type { Feature, Geometry, MultiPolygon, Polygon, Position } from 'geojson';
-import { bboxClip, booleanPointInPolygon, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
+import { bboxClip } from '@turf/bbox-clip';
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
+import { multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/helpers';
 import { intersection, type Geometry as ClipGeometry } from 'martinez-polygon-clipping';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';

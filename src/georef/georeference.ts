@@ -9,7 +9,7 @@ import { datumFromName, toWgs84 } from '../geodesy/datums.ts';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
-import { lineIntersect } from '@turf/turf';
+import { lineIntersect } from '@turf/line-intersect';
 import { enclosingCircle, featureExtent } from './feature-extent.ts';
 import { circleWKT, clipCircleToUnit, clipRingToUnit, sectorRing } from './footprint.ts';
 import { mapScaleErrorMeters } from './map-scale.ts';

@@ -1,4 +1,4 @@
-import proj4 from 'proj4';
+import { proj4 } from '../geodesy/proj4.ts';
 import type { WrittenCoordinates } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
 import { powerOfTen } from './numbers.ts';
@@ -202,7 +202,7 @@ function readUtm(text: string, tokens: Token[], i: number): CoordinatesFound | n
   if (northing.value < 0 || northing.value > 10000000) problems.push(`northing ${northing.value} is outside 0–10000000 m`);
   // Pure ellipsoid math on WGS84; the datum shift is georef's job.
   const definition = `+proj=utm +zone=${zone}${south ? ' +south' : ''} +ellps=WGS84 +units=m +no_defs`;
-  const [longitude, latitude] = proj4(definition, '+proj=longlat +ellps=WGS84 +no_defs', [easting.value, northing.value]) as [number, number];
+  const [longitude, latitude] = proj4()(definition, '+proj=longlat +ellps=WGS84 +no_defs', [easting.value, northing.value]) as [number, number];
   if (!Number.isFinite(latitude) || !Number.isFinite(longitude)) return null;
   if (band && band !== 'N') {
     const index = UTM_BANDS.indexOf(band);

@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
-import cliProgress from 'cli-progress';
-import { startBatchJob, type BatchProgressEvent, type BatchSummary } from '../../batch/run.ts';
+import type cliProgress from 'cli-progress';
+import type { BatchProgressEvent, BatchSummary } from '../../batch/run.ts';
 
 interface BatchCommandOptions {
   out?: string;
@@ -34,7 +34,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
-      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
+      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
+      const { startBatchJob } = await import('../../batch/run.ts');
       const { jobId, done } = await startBatchJob({
         dbPath: dbPath(),
         input,
@@ -64,10 +65,10 @@ function positiveInteger(value: string): number {
 }
 
 /** One bar a phase (georeferencing and writing run side by side), each with its rate and time left. */
-function progressBar() {
-  const bars = new cliProgress.MultiBar(
+function progressBar(progress: typeof cliProgress) {
+  const bars = new progress.MultiBar(
     { format: '{phase} {bar} {value}/{total} | {rate}/s | {eta_formatted} left', stream: process.stderr, hideCursor: true, etaBuffer: 50 },
-    cliProgress.Presets.shades_classic,
+    progress.Presets.shades_classic,
   );
   const started = new Map<BatchProgressEvent['phase'], { bar: cliProgress.SingleBar; at: number; from: number }>();
   return {

@@ -1,8 +1,7 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
-import { openGazetteer } from '../../gazetteer/store.ts';
-import { locate, type LocateResult } from '../../locate.ts';
-import { darwinCoreFields } from '../../record/darwin-core.ts';
+import type { LocateResult } from '../../locate.ts';
+import { LocalityCommand } from '../locality-command.ts';
 import { VERSION } from '../../version.ts';
 
 /**
@@ -10,8 +9,9 @@ import { VERSION } from '../../version.ts';
  * Exit code 0 whenever the text was processed, whatever the status (the status says what happened).
  */
 export function registerLocate(program: Command, dbPath: () => string): void {
-  program
-    .command('locate')
+  const locate = new LocalityCommand('locate');
+  program.addCommand(locate);
+  locate
     .description('georeference one locality text')
     .argument('<text>', 'the locality as written')
     .option('--country-code <XX>', 'ISO 3166-1 alpha-2 country code of the record')
@@ -25,10 +25,15 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
     .option('--json', 'print the HTTP API body as JSON')
-    .action((text: string, opts: LocateCommandOptions) => {
+    .action(async (text: string, opts: LocateCommandOptions) => {
       if (!existsSync(dbPath())) {
         throw new Error(`no gazetteer at ${dbPath()}: import one first (whereabouts import <file>) or name another with --db`);
       }
+      const [{ openGazetteer }, { locate }, { darwinCoreFields }] = await Promise.all([
+        import('../../gazetteer/store.ts'),
+        import('../../locate.ts'),
+        import('../../record/darwin-core.ts'),
+      ]);
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
         const result = locate(store, {
