@@ -7,6 +7,7 @@ import type { AdministrativeContext, Interpretation, LocalityType } from './pars
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './gazetteer/types.ts';
 import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
+import { readDatumOption } from './geodesy/datum-option.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -14,7 +15,10 @@ export interface LocateRequest extends AdministrativeContext {
   locality: string;
   /** Coordinates as written on the label or in the record; used when they can be read. */
   verbatimCoordinates?: string;
-  /** Datum of verbatimCoordinates when the record states it in its own field. */
+  /**
+   * Datum of the record's coordinates as its own field states it: applies to written coordinates (in the
+   * text or verbatimCoordinates) that carry no datum of their own; options.datum, when given, wins.
+   */
   geodeticDatum?: string;
   options?: LocateOptions;
 }
@@ -66,7 +70,9 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
   const interpretation = interpretationOf(request);
   const context = contextOf(request, interpretation);
-  const options = request.options ?? {};
+  const datum = datumGiven(request);
+  if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
+  const options = { ...request.options, datum: datum.epsg };
 
   if (interpretation.type === 'no-locality' && options.administrativeFallback) {
     return locateAdministrativeUnit(finder, interpretation, context, options);
@@ -138,15 +144,26 @@ function interpretationOf(request: LocateRequest): Interpretation {
   if ('problem' in written) {
     return { ...interpretation, notes: [...interpretation.notes, `verbatimCoordinates "${verbatim}" not used: ${written.problem}`] };
   }
-  const datumWritten = written.datumWritten ?? (request.geodeticDatum?.trim() || undefined);
   return {
     ...interpretation,
     type: 'coordinates',
     features: [],
     offsets: [],
-    coordinates: { ...written, datumWritten },
+    coordinates: written,
     notes: [...interpretation.notes, 'georeferenced from the record\'s verbatimCoordinates, the most specific part of the record'],
   };
+}
+
+/**
+ * The datum given with the record for coordinates that write none (one rule for CLI, HTTP and batch;
+ * see readDatumOption): the request's options.datum, else its geodeticDatum field; an unknown value is refused.
+ */
+function datumGiven(request: LocateRequest): { epsg?: string } | { problem: string } {
+  const field = readDatumOption(request.geodeticDatum, 'geodeticDatum');
+  const option = readDatumOption(request.options?.datum, 'options.datum');
+  if ('problem' in option) return option;
+  if ('problem' in field) return field;
+  return { epsg: option.epsg ?? field.epsg };
 }
 
 /** The record's own fields come first; administrative clauses of the text fill the gaps. */

@@ -136,8 +136,13 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
     return refuse(`the coordinates "${coordinates.written}" are out of range (latitude ${latitude}, longitude ${longitude})`);
   }
   const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), point-radius.md §3`];
-  // Only datums of the table count as stated; any other code or name is reported as not convertible.
-  const datum = [coordinates.datum, coordinates.datumWritten, settings.datum].map((text) => (text ? datumFromName(text) : undefined)).find(Boolean);
+  // A datum written beside the coordinates is theirs; the one given with the record (settings.datum)
+  // applies only when none is written. Only datums of the table count as stated; any other code or
+  // name is reported as not convertible.
+  const writtenDatum = coordinates.datumWritten ?? coordinates.datum;
+  const stated = writtenDatum ?? settings.datum;
+  const datum = stated ? datumFromName(stated) : undefined;
+  const how = writtenDatum ? `as written ("${writtenDatum}")` : 'as given with the record';
   let position = { latitude, longitude };
   let datumMeters: number;
   const converted = datum ? toWgs84(latitude, longitude, datum) : undefined;
@@ -146,21 +151,20 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
     position = converted;
     datumMeters = settings.unknownDatumMeters;
     remarks.push(
-      `datum: ${datum} as stated, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (point-radius.md §5.4)`,
+      `datum: ${datum} ${how}, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (point-radius.md §5.4)`,
     );
   } else if (converted) {
     position = converted;
     datumMeters = converted.accuracyMeters;
     remarks.push(
       datum === 'EPSG:4326'
-        ? 'datum: WGS84 (EPSG:4326) as stated; datum term 0 m (point-radius.md §5.4)'
-        : `datum: ${datum} as stated${coordinates.datumWritten ? ` ("${coordinates.datumWritten}")` : ''}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (point-radius.md §5.4)`,
+        ? `datum: WGS84 (EPSG:4326) ${how}; datum term 0 m (point-radius.md §5.4)`
+        : `datum: ${datum} ${how}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (point-radius.md §5.4)`,
     );
   } else {
     datumMeters = settings.unknownDatumMeters;
-    const written = coordinates.datumWritten ?? coordinates.datum ?? settings.datum;
     remarks.push(
-      `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84, datum term ${meters(datumMeters)} (point-radius.md §5.4)`,
+      `${stated ? `datum written as "${stated}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84, datum term ${meters(datumMeters)} (point-radius.md §5.4)`,
     );
   }
   const precision = coordinatePrecisionMeters(position.latitude, precisionDegrees);

@@ -5,6 +5,7 @@
  */
 import type { MultiPolygon, Polygon } from 'geojson';
 import type { Candidate, CandidateFinder, Feature, Source } from '../gazetteer/types.ts';
+import { readDatumOption } from '../geodesy/datum-option.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { georeference } from '../georef/georeference.ts';
 import { locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
@@ -61,6 +62,10 @@ export interface LookupResponse extends LocateResult {
 export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: ResultCache<LocateResult>, now = new Date()): LookupResponse {
   const { options = {}, decimalLatitude, decimalLongitude, georeferencedBy, ...record } = request;
   const { candidate, distancePrecision, ...methodOptions } = options;
+  for (const [field, value] of [['geodeticDatum', record.geodeticDatum], ['options.datum', options.datum]] as const) {
+    const datum = readDatumOption(value, field);
+    if ('problem' in datum) throw new RequestError(400, datum.problem, field);
+  }
   const sources = store.sources();
   const compute = () => {
     const located = locate(store, { ...record, options: methodOptions });

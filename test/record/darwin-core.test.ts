@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { DARWIN_CORE_TERMS } from '../support/darwin-core-terms.ts';
-import { appendedColumnNames, GEOREFERENCE_TERMS, reportingDecimals, VERIFICATION_STATUS } from '../../src/record/darwin-core.ts';
+import { appendedColumnNames, GEOREFERENCE_TERMS, VERIFICATION_STATUS } from '../../src/record/darwin-core.ts';
+import { reportingDecimals } from '../../src/record/reported-precision.ts';
 
 describe('appended Darwin Core fields', () => {
   it('names only Darwin Core terms', () => {

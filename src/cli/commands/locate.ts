@@ -1,5 +1,6 @@
 import { existsSync } from 'node:fs';
-import type { Command } from 'commander';
+import { InvalidArgumentError, type Command } from 'commander';
+import { readDatumOption } from '../../geodesy/datum-option.ts';
 import type { LocateResult } from '../../locate.ts';
 import { LocalityCommand } from '../locality-command.ts';
 import { VERSION } from '../../version.ts';
@@ -20,7 +21,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--county <name>', 'county of the record')
     .option('--municipality <name>', 'municipality of the record')
     .option('--verbatim-coordinates <text>', 'coordinates as written in the record')
-    .option('--geodetic-datum <datum>', 'datum of the verbatim coordinates')
+    .option('--geodetic-datum <datum>', 'datum of written coordinates that name none (in the text or --verbatim-coordinates): an EPSG code or a name, e.g. EPSG:4267 or NAD27', datumArgument)
     .option('--map-scale <denominator>', 'scale of the map the coordinates were read from, e.g. 24000', Number)
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
@@ -57,6 +58,13 @@ export function registerLocate(program: Command, dbPath: () => string): void {
         store.close();
       }
     });
+}
+
+/** Refuses an unknown datum at once, saying how to name one; the value itself goes on to locate. */
+function datumArgument(value: string): string {
+  const datum = readDatumOption(value, '--geodetic-datum');
+  if ('problem' in datum) throw new InvalidArgumentError(datum.problem);
+  return value;
 }
 
 interface LocateCommandOptions {
