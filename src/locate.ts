@@ -8,6 +8,8 @@ import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType 
 import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
 import { readDatumOption } from './geodesy/datum-option.ts';
+import type { PlausibilityFlag } from './georef/plausibility.ts';
+import { checkPlausibility } from './check-plausibility.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -42,6 +44,8 @@ export interface LocateResult {
   candidates: Candidate[];
   /** Why no georeference was made, in plain words. */
   reason?: string;
+  /** What the plausibility checks found about a georeference (empty when nothing); each also has a remark. */
+  flags?: PlausibilityFlag[];
 }
 
 /**
@@ -68,6 +72,21 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
  *   locate(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
  */
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
+  return checkLocated(finder, request, locateOne(finder, request));
+}
+
+/**
+ * The plausibility checks (src/check-plausibility.ts) of a result made for this request, also for one
+ * a caller recomputed with edits: flags and remarks added, the point left as it is.
+ * @example checkLocated(store, request, result).flags // e.g. ['outside-record-country']
+ */
+export function checkLocated(finder: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
+  const countryCode = contextOf(request, result.interpretation).countryCode;
+  return checkPlausibility(finder, result, countryCode, (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined }));
+}
+
+/** The method alone, without the plausibility checks. */
+function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResult {
   const interpretation = interpretationOf(request);
   const context = contextOf(request, interpretation);
   const datum = datumGiven(request);

@@ -11,6 +11,8 @@ import type { AdministrativeCenter } from './coordinate-check.ts';
 export interface GroupResult {
   fields: Record<GeoreferenceTerm, string>;
   centers: AdministrativeCenter[];
+  /** What the plausibility checks found about the proposed point (whereabouts_coordinateFlags); absent in jobs stored before them. */
+  flags?: string[];
 }
 
 /** Settings of a batch that change its results (stored in the job; part of its identity). */
@@ -32,7 +34,7 @@ export function georeferenceGroup(finder: CandidateFinder, request: LocateReques
     // One locality that trips an error must not stop the other rows; it is reported in its remarks.
     result = unreadableResult(request.locality, `whereabouts failed on this locality (${error instanceof Error ? error.message : String(error)})`);
   }
-  return { fields: darwinCoreFields(result, context), centers: administrativeCenters(finder, request) };
+  return { fields: darwinCoreFields(result, context), centers: administrativeCenters(finder, request), flags: result.flags ?? [] };
 }
 
 /** A result for a row that was not georeferenced, with the reason in plain words. */

@@ -19,6 +19,8 @@ export interface RenderedGroup {
   /** The proposed circle as written (rounded point, radius rounded up), for the coordinate check. */
   circle?: Circle;
   centers: AdministrativeCenter[];
+  /** The plausibility flags of the proposed point, shared by every row of the group (absent in groups stored before them). */
+  flags?: string[];
 }
 
 const REMARKS_AT = GEOREFERENCE_TERMS.indexOf('georeferenceRemarks');
@@ -45,6 +47,7 @@ export function renderGroup(result: GroupResult, delimiter: Delimiter): Rendered
     status: result.fields.georeferenceVerificationStatus,
     circle: circleOf(result.fields),
     centers: result.centers,
+    flags: result.flags ?? [],
   };
 }
 

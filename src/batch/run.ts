@@ -448,8 +448,9 @@ function outputRow(
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
   const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
-  if (check.flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
-  return `${originals}${delimiter}${appendedLine(group, check.remarks, check.flags.join(FLAG_SEPARATOR), delimiter)}${LINE_END}`;
+  const flags = [...(group.flags ?? []), ...check.flags];
+  if (flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
+  return `${originals}${delimiter}${appendedLine(group, check.remarks, flags.join(FLAG_SEPARATOR), delimiter)}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {

@@ -8,7 +8,7 @@ import type { Candidate, CandidateFinder, Feature, Source } from '../gazetteer/t
 import { readDatumOption } from '../geodesy/datum-option.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { georeference } from '../georef/georeference.ts';
-import { locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
+import { checkLocated, locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
 import type { Interpretation, Offset } from '../parse/types.ts';
 import { darwinCoreFields, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
@@ -69,7 +69,7 @@ export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: R
   const sources = store.sources();
   const compute = () => {
     const located = locate(store, { ...record, options: methodOptions });
-    return candidate || distancePrecision ? applyEdits(store, located, options, methodOptions) : located;
+    return candidate || distancePrecision ? checkLocated(store, { ...record, options: methodOptions }, applyEdits(store, located, options, methodOptions)) : located;
   };
   const key = JSON.stringify([sources.map((s) => s.contentHash), record, options]);
   const result = cache ? cache.get(key, compute) : compute();

@@ -68,6 +68,7 @@ export const lookupResponseSchema = {
     darwinCore: openObject('The Darwin Core georeference terms for this result, as strings.'),
     footprint: openObject('The footprint as GeoJSON geometry.'),
     recordPoint: openObject("The record's own coordinates and their distance from the proposed point."),
+    flags: { type: 'array', items: { type: 'string' }, description: 'What the plausibility checks found about the proposed point (outside-record-country, at-sea, clauses-conflict); each is also explained in the remarks.' },
   },
 } as const;
 

@@ -85,6 +85,7 @@ interface LocateCommandOptions {
 function describe(result: LocateResult, darwinCore: Record<string, string>): string {
   const lines = [`status: ${result.status}`, `locality type: ${result.interpretation.type}`];
   if (result.reason) lines.push(`reason: ${result.reason}`);
+  if (result.flags?.length) lines.push(`flags: ${result.flags.join(' | ')} (see georeferenceRemarks)`);
   if (result.components) {
     lines.push('uncertainty budget (m):');
     for (const [source, meters] of Object.entries(result.components)) lines.push(`  ${source.padEnd(20)} ${meters.toFixed(1)}`);
