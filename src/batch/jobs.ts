@@ -6,7 +6,7 @@
  */
 import { basename, dirname, join } from 'node:path';
 import Database from 'better-sqlite3';
-import type { Source } from '../gazetteer/types.ts';
+import type { Source } from '../match/types.ts';
 
 export type JobState = 'reading' | 'georeferencing' | 'writing' | 'done' | 'failed';
 

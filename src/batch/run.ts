@@ -13,7 +13,7 @@ import { pipeline } from 'node:stream/promises';
 import { setTimeout as sleep } from 'node:timers/promises';
 import type Database from 'better-sqlite3';
 import Tinypool from 'tinypool';
-import { openGazetteer } from '../gazetteer/store.ts';
+import { openGazetteer } from '../store/gazetteer-store.ts';
 import type { LocateRequest } from '../locate.ts';
 import { appendedColumnNames, darwinCoreFields, type RecordContext } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';

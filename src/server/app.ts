@@ -8,7 +8,7 @@ import helmet from '@fastify/helmet';
 import rateLimit from '@fastify/rate-limit';
 import swagger from '@fastify/swagger';
 import Fastify, { type FastifyInstance } from 'fastify';
-import { openGazetteer } from '../gazetteer/store.ts';
+import { openGazetteer } from '../store/gazetteer-store.ts';
 import type { LocateResult } from '../locate.ts';
 import { VERSION } from '../version.ts';
 import { assertSafeBind, tokenGuard } from './access.ts';

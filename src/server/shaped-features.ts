@@ -4,7 +4,7 @@
  * through the store itself; to be replaced by a store method when src/gazetteer offers one.
  */
 import Database from 'better-sqlite3';
-import type { Feature } from '../gazetteer/types.ts';
+import type { Feature } from '../match/types.ts';
 import type { ServedGazetteer } from './lookup.ts';
 
 /** Read-only, prepared; geometry_type 0 is Point in the store's GEOMETRY_TYPES order. */
