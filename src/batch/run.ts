@@ -23,9 +23,10 @@ import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './render
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
-  claimJob, findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
+  claimJob, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
-} from './jobs.ts';
+} from '../store/jobs.ts';
+import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
 

@@ -27,6 +27,12 @@ export interface Feature {
   geometry?: Geometry;
 }
 
+/** Which feature: its source and its id there (what a choice among candidates names). */
+export interface FeatureKey {
+  sourceId: string;
+  featureId: string;
+}
+
 /** A feature that may be the one a name in the text means. */
 export interface Candidate {
   feature: Feature;

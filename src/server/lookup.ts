@@ -4,7 +4,7 @@
  * method core again, and add the Darwin Core fields.
  */
 import type { MultiPolygon, Polygon } from 'geojson';
-import type { Candidate, CandidateFinder, Feature, Source } from '../match/types.ts';
+import type { Candidate, CandidateFinder, Feature, FeatureKey, Source } from '../match/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { georeference } from '../georef/georeference.ts';
 import { locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
@@ -22,10 +22,7 @@ export interface ServedGazetteer extends CandidateFinder {
 }
 
 /** A feature by its source and id, as a candidate names it. */
-export interface FeatureKey {
-  sourceId: string;
-  featureId: string;
-}
+export type { FeatureKey };
 
 /** The edits the page offers on top of the method's own settings. */
 export interface LookupOptions extends Pick<LocateOptions, 'mapScale' | 'datum' | 'measurementErrorMeters' | 'coverAmbiguous' | 'administrativeFallback'> {

@@ -5,7 +5,7 @@
  */
 import { existsSync, statSync } from 'node:fs';
 import Database from 'better-sqlite3';
-import { jobsDatabasePath } from '../batch/jobs.ts';
+import { jobsDatabasePath } from './side-files.ts';
 import { nameVariants } from '../match/fold.ts';
 import { SCHEMA_VERSION } from './gazetteer-store.ts';
 
