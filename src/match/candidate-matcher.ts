@@ -118,8 +118,6 @@ export class CandidateMatcher {
     return context;
   }
 
-
-
   /** Features whose folded name, alternate name or one of their readings equals a reading of `name`. */
   private exactCandidates(name: string): Candidate[] {
     const found = new Map<number, Candidate>();
