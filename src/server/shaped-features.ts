@@ -1,7 +1,7 @@
 /**
  * Every polygon and line of the gazetteer, for the map's reference layers. The store has no listing
  * method yet, so the ids come from one read-only SELECT on its file and each feature is then read
- * through the store itself; to be replaced by a store method when src/gazetteer offers one.
+ * through the store itself; to be replaced by a store method when src/store offers one.
  */
 import Database from 'better-sqlite3';
 import type { Feature } from '../match/types.ts';
