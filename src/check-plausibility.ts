@@ -5,7 +5,7 @@
  * georeferenced on its own to see whether it agrees. Findings become flags and remarks; the point and
  * status stay as the method made them, for the reviewer to decide.
  */
-import type { CandidateFinder } from './gazetteer/types.ts';
+import type { CandidateFinder } from './match/types.ts';
 import { NATURAL_EARTH, naturalEarthCountry, naturalEarthLand } from './georef/natural-earth.ts';
 import { insideOutlines, outlinesOf } from './georef/outlines.ts';
 import { atSea, clausesConflict, outsideRecordCountry, type NamedOutlines, type PlausibilityFinding } from './georef/plausibility.ts';

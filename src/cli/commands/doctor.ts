@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import type { DoctorReport } from '../../gazetteer/doctor.ts';
+import type { DoctorReport } from '../../store/doctor.ts';
 
 const LABELS = { ok: 'ok     ', note: 'note   ', problem: 'PROBLEM' } as const;
 
@@ -14,7 +14,7 @@ export function registerDoctor(program: Command, dbPath: () => string): void {
     .option('--json', 'print the report as JSON')
     .option('--quick', 'a faster integrity check (PRAGMA quick_check) that skips comparing each index with its table')
     .action(async (opts: { json?: boolean; quick?: boolean }) => {
-      const { examineStore } = await import('../../gazetteer/doctor.ts');
+      const { examineStore } = await import('../../store/doctor.ts');
       const report = examineStore(dbPath(), { quick: opts.quick });
       process.stdout.write(opts.json ? `${JSON.stringify(report, null, 2)}\n` : describe(report));
       if (!report.healthy) process.exitCode = 1;

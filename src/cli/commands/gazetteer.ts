@@ -11,7 +11,7 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .description('list the gazetteer sources')
     .option('--json', 'print the sources as JSON')
     .action(async (opts: { json?: boolean }) => {
-      const { openGazetteer } = await import('../../gazetteer/store.ts');
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
         const sources = store.sources();
@@ -34,7 +34,7 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .description('remove a gazetteer source and all its features')
     .argument('<source>', 'the source id (see gazetteer list)')
     .action(async (source: string) => {
-      const { openGazetteer } = await import('../../gazetteer/store.ts');
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath());
       try {
         if (!store.removeSource(source)) throw new Error(`no gazetteer source '${source}' (see \`whereabouts gazetteer list\`)`);

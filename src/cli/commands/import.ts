@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import type { ImportFormat, ImportSummary } from '../../gazetteer/import.ts';
+import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 
 interface ImportCommandOptions {
   format?: string;
@@ -30,7 +30,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
     .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
     .action(async (file: string, opts: ImportCommandOptions) => {
-      const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../gazetteer/import.ts'), import('../../gazetteer/store.ts')]);
+      const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
       if (format === null) throw new Error(`cannot tell the format of ${file} from its extension: give --format ${FORMATS.join('|')}`);
       if (!FORMATS.includes(format)) throw new Error(`--format must be one of ${FORMATS.join(', ')}, not '${format}'`);

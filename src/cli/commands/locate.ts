@@ -31,7 +31,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
         throw new Error(`no gazetteer at ${dbPath()}: import one first (whereabouts import <file>) or name another with --db`);
       }
       const [{ openGazetteer }, { locate }, { darwinCoreFields }] = await Promise.all([
-        import('../../gazetteer/store.ts'),
+        import('../../store/gazetteer-store.ts'),
         import('../../locate.ts'),
         import('../../record/darwin-core.ts'),
       ]);

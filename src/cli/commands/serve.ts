@@ -66,7 +66,7 @@ interface ServeOptions {
 
 /** Imports gazetteer/demo.geojson when the database is new or has no sources; otherwise leaves it alone. */
 async function ensureDemoGazetteer(db: string): Promise<void> {
-  const [{ openGazetteer }, { importGazetteer }] = await Promise.all([import('../../gazetteer/store.ts'), import('../../gazetteer/import.ts')]);
+  const [{ openGazetteer }, { importGazetteer }] = await Promise.all([import('../../store/gazetteer-store.ts'), import('../../store/import.ts')]);
   const store = openGazetteer(db);
   try {
     if (store.sources().length > 0) return;
