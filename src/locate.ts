@@ -9,7 +9,7 @@ import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
 import { readDatumOption } from './geodesy/datum-option.ts';
 import type { PlausibilityFlag } from './georef/plausibility.ts';
-import { checkPlausibility } from './check-plausibility.ts';
+import { checkPlausibility } from './georef/plausibility-check.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -76,13 +76,23 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
 }
 
 /**
- * The plausibility checks (src/check-plausibility.ts) of a result made for this request, also for one
+ * The plausibility checks (src/georef/plausibility-check.ts) of a result made for this request, also for one
  * a caller recomputed with edits: flags and remarks added, the point left as it is.
  * @example checkLocated(store, request, result).flags // e.g. ['outside-record-country']
  */
 export function checkLocated(finder: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
-  const countryCode = contextOf(request, result.interpretation).countryCode;
-  return checkPlausibility(finder, result, countryCode, (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined }));
+  const g = result.georeference;
+  if (result.status !== 'georeferenced' || !g) return result;
+  const findings = checkPlausibility(finder, {
+    georeference: g,
+    interpretation: result.interpretation,
+    candidates: result.candidates,
+    countryCode: contextOf(request, result.interpretation).countryCode,
+    locateClause: (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined }).georeference,
+  });
+  if (findings.length === 0) return { ...result, flags: [] };
+  const georeference = { ...g, remarks: [...g.remarks, ...findings.map((f) => f.remark)] };
+  return { ...result, georeference, components: georeference.components, flags: findings.map((f) => f.flag) };
 }
 
 /** The method alone, without the plausibility checks. */

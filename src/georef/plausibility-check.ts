@@ -3,28 +3,34 @@
  * record's country outline from the gazetteer where one is loaded, otherwise Natural Earth's; land from
  * the gazetteer's country outlines, then Natural Earth's; and every other locality clause of the text
  * georeferenced on its own to see whether it agrees. Findings become flags and remarks; the point and
- * status stay as the method made them, for the reviewer to decide.
+ * status stay as the method made them, for the reviewer to decide (src/locate.ts adds them to the result).
  */
-import type { CandidateFinder } from './match/types.ts';
-import { NATURAL_EARTH, naturalEarthCountry, naturalEarthLand } from './georef/natural-earth.ts';
-import { insideOutlines, outlinesOf } from './georef/outlines.ts';
-import { atSea, clausesConflict, outsideRecordCountry, type NamedOutlines, type PlausibilityFinding } from './georef/plausibility.ts';
-import type { LocateResult } from './locate.ts';
 import type { MultiPolygon, Polygon } from 'geojson';
+import type { Candidate, CandidateFinder } from '../match/types.ts';
+import type { Interpretation } from '../parse/types.ts';
+import { NATURAL_EARTH, naturalEarthCountry, naturalEarthLand } from './natural-earth.ts';
+import { insideOutlines, outlinesOf } from './outlines.ts';
+import { atSea, clausesConflict, outsideRecordCountry, type NamedOutlines, type PlausibilityFinding } from './plausibility.ts';
+import type { Georeference } from './types.ts';
+
+/** A georeference to check, with what it was made from. */
+export interface CheckedGeoreference {
+  georeference: Georeference;
+  interpretation: Interpretation;
+  /** The candidates considered; those the georeference used give the countries whose land counts. */
+  candidates: Candidate[];
+  /** The record's ISO 3166-1 alpha-2 country code, when it has one. */
+  countryCode?: string;
+  /** Georeferences one clause of the text alone, with the record's context (undefined when it cannot). */
+  locateClause: (text: string) => Georeference | undefined;
+}
 
 /**
- * Checks a result and adds its findings: `flags` (empty when all is plausible) and a remark each.
- * `locateClause` georeferences one clause of the text alone, with the record's context.
- * @example checkPlausibility(store, result, 'QV', (text) => locateOne(store, { locality: text })).flags // []
+ * What the plausibility checks find about a georeference (empty when all is plausible).
+ * @example checkPlausibility(store, { georeference, interpretation, candidates, countryCode: 'QV', locateClause }) // []
  */
-export function checkPlausibility(
-  finder: CandidateFinder,
-  result: LocateResult,
-  countryCode: string | undefined,
-  locateClause: (text: string) => LocateResult,
-): LocateResult {
-  const g = result.georeference;
-  if (result.status !== 'georeferenced' || !g) return result;
+export function checkPlausibility(finder: CandidateFinder, checked: CheckedGeoreference): PlausibilityFinding[] {
+  const { georeference: g, countryCode } = checked;
   const circle = { latitude: g.latitude, longitude: g.longitude, radiusMeters: g.uncertaintyMeters };
   const gazetteerCountry = countryOutlinesOf(finder);
   const findings: (PlausibilityFinding | undefined)[] = [];
@@ -35,7 +41,7 @@ export function checkPlausibility(
     if (country) findings.push(outsideRecordCountry(circle, countryCode, country, onLand));
   }
 
-  const used = result.candidates
+  const used = checked.candidates
     .filter((c) => g.features.some((f) => f.sourceId === c.feature.sourceId && f.featureId === c.feature.featureId))
     .map((c) => c.feature);
   const codes = [...new Set([countryCode, ...used.map((f) => f.countryCode)].filter((c): c is string => Boolean(c)))];
@@ -44,21 +50,19 @@ export function checkPlausibility(
     () => ({ name: `${NATURAL_EARTH.name} land`, outlines: naturalEarthLand(), toleranceMeters: NATURAL_EARTH.toleranceMeters }),
   ]));
 
-  const { clauses, chosenClause } = result.interpretation;
+  const { clauses, chosenClause } = checked.interpretation;
   const usedClause = chosenClause === null ? undefined : clauses[chosenClause];
   // A point from the record's verbatimCoordinates rests on no clause of the text: the batch's coordinate check compares those.
-  const fromText = usedClause && (result.interpretation.type !== 'coordinates' || usedClause.kind === 'coordinates');
+  const fromText = usedClause && (checked.interpretation.type !== 'coordinates' || usedClause.kind === 'coordinates');
   if (usedClause && fromText) {
     for (const [i, clause] of clauses.entries()) {
       if (i === chosenClause || (clause.kind !== 'locality' && clause.kind !== 'coordinates')) continue;
-      const other = locateClause(clause.text).georeference;
+      const other = checked.locateClause(clause.text);
       if (other) findings.push(clausesConflict({ text: usedClause.text, ...circle }, { text: clause.text, latitude: other.latitude, longitude: other.longitude, radiusMeters: other.uncertaintyMeters }));
     }
   }
 
-  const found = findings.filter((f): f is PlausibilityFinding => f !== undefined);
-  if (found.length === 0) return { ...result, flags: [] };
-  return { ...result, flags: found.map((f) => f.flag), georeference: { ...g, remarks: [...g.remarks, ...found.map((f) => f.remark)] } };
+  return findings.filter((f): f is PlausibilityFinding => f !== undefined);
 }
 
 function gazetteerCountryOutlines(finder: CandidateFinder, code: string): NamedOutlines | undefined {
