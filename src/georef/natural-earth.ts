@@ -3,23 +3,20 @@
  * world-atlas 2.0.2 ships them (TopoJSON, cut at 180°). Read on first use, like a code table, not a
  * file a user gives: about 0.15 s to read and decode, so only points that need them pay for it.
  * At 1:50m, coastlines and borders are generalised: a shore or a border can lie a few kilometres from
- * where it is drawn (NATURAL_EARTH.toleranceMeters).
+ * where it is drawn (METHOD_DEFAULTS.naturalEarthToleranceMeters).
  */
 import { createRequire } from 'node:module';
 import type { Feature, MultiPolygon, Polygon } from 'geojson';
 import type * as TopoJSONClient from 'topojson-client';
 import type { GeometryCollection, Topology } from 'topojson-specification';
+import { METHOD_DEFAULTS } from './method-defaults.ts';
 import { outlinesOf, type Outline } from './outlines.ts';
 
 const require = createRequire(import.meta.url);
 
 export const NATURAL_EARTH = {
   name: 'Natural Earth 1:50m (public domain; registry package world-atlas 2.0.2)',
-  /**
-   * How far a 1:50m shore or border may be from the true one [CHOICE: 0.1 mm at 1:50 000 000 is 5 km,
-   * the usual reading of a map's line accuracy; common practice, no source].
-   */
-  toleranceMeters: 5_000,
+  toleranceMeters: METHOD_DEFAULTS.naturalEarthToleranceMeters,
 } as const;
 
 let land: Outline[] | undefined;

@@ -91,7 +91,7 @@ export function atSea(circle: ProposedCircle, places: { latitude: number; longit
   const widest = Math.max(0, ...read.map((r) => r.toleranceMeters));
   return {
     flag: 'at-sea',
-    remark: `plausibility: the whole uncertainty circle lies at sea: no land within ${kilometers(radiusMeters + widest)} of the point (radius ${Math.ceil(radiusMeters)} m + ${kilometers(widest)} for the land outline's accuracy; land from ${read.map((r) => r.name).join(' and ')}): right for a marine record, otherwise check the offset, its heading and the place [at-sea]`,
+    remark: `plausibility: the whole uncertainty circle lies at sea: no land within ${kilometers(radiusMeters + widest)} of the point (radius ${Math.ceil(radiusMeters)} m + ${kilometers(widest)} for the land outline's accuracy [CHOICE]; land from ${read.map((r) => r.name).join(' and ')}): right for a marine record, otherwise check the offset, its heading and the place [at-sea]`,
   };
 }
 
