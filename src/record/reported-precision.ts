@@ -37,7 +37,7 @@ export function reportingDecimals(uncertaintyMeters: number): number {
 export function reportedPrecision(uncertaintyMeters: number, written?: Pick<WrittenCoordinates, 'precisionDegrees' | 'format'>): ReportedPrecision {
   const fromRadius = reportingDecimals(uncertaintyMeters);
   if (!written || !(written.precisionDegrees > 0)) {
-    return { decimals: fromRadius, coordinatePrecision: (10 ** -fromRadius).toFixed(fromRadius), remark: `reported to ${fromRadius} decimals (coordinatePrecision)` };
+    return { decimals: fromRadius, coordinatePrecision: (10 ** -fromRadius).toFixed(fromRadius), remark: `reported to ${decimalsInWords(fromRadius)} (coordinatePrecision)` };
   }
   const p = written.precisionDegrees;
   const writtenDecimals = Math.round(-Math.log10(p));
@@ -45,9 +45,13 @@ export function reportedPrecision(uncertaintyMeters: number, written?: Pick<Writ
     const decimals = Math.min(fromRadius, Math.max(0, writtenDecimals));
     // Rounding to fewer decimals than written (a coarse radius) makes the reported precision coarser.
     const precision = decimals < writtenDecimals ? (10 ** -decimals).toFixed(decimals) : (10 ** -writtenDecimals).toFixed(Math.max(0, writtenDecimals));
-    return { decimals, coordinatePrecision: precision, remark: `reported to ${decimals} decimals; coordinatePrecision ${precision}°, the precision the coordinates were written with (${writtenDecimals} decimal${writtenDecimals === 1 ? "" : "s"})` };
+    return { decimals, coordinatePrecision: precision, remark: `reported to ${decimalsInWords(decimals)}; coordinatePrecision ${precision}°, the precision the coordinates were written with (${decimalsInWords(writtenDecimals)})` };
   }
   // Minutes, seconds, grid meters: the step as written, in degrees, to three significant figures.
   const precision = String(Number(p.toPrecision(3)));
-  return { decimals: fromRadius, coordinatePrecision: precision, remark: `reported to ${fromRadius} decimals; coordinatePrecision ${precision}°, the step the coordinates were written with` };
+  return { decimals: fromRadius, coordinatePrecision: precision, remark: `reported to ${decimalsInWords(fromRadius)}; coordinatePrecision ${precision}°, the step the coordinates were written with` };
+}
+
+function decimalsInWords(decimals: number): string {
+  return `${decimals} decimal${decimals === 1 ? '' : 's'}`;
 }
