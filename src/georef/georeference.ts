@@ -5,7 +5,8 @@
 import type { Feature } from '../gazetteer/types.ts';
 import type { Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
 import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
-import { datumFromName, toWgs84 } from '../geodesy/datums.ts';
+import { datumDefinition, datumFromName, toWgs84 } from '../geodesy/datums.ts';
+import { utmToGeographic } from '../geodesy/utm.ts';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
@@ -138,9 +139,18 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
   const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), point-radius.md §3`];
   // Only datums of the table count as stated; any other code or name is reported as not convertible.
   const datum = [coordinates.datum, coordinates.datumWritten, settings.datum].map((text) => (text ? datumFromName(text) : undefined)).find(Boolean);
-  let position = { latitude, longitude };
+  // A UTM reference is converted on the ellipsoid of the datum used (WGS84 when none is known), then shifted.
+  const grid = coordinates.utm;
+  const inDatum = grid ? utmToGeographic(grid, datum ?? 'EPSG:4326') : { latitude, longitude };
+  if (grid) {
+    const ellipsoidOf = datum ? datumDefinition(datum) : undefined;
+    remarks.push(
+      `UTM zone ${grid.zone}${grid.hemisphere} ${grid.easting} m E ${grid.northing} m N converted to latitude/longitude on the ellipsoid of ${ellipsoidOf?.name ?? 'WGS 84'} (${ellipsoidOf?.ellipsoid ?? '+ellps=WGS84'}) by the transverse Mercator of EPSG Guidance Note 7-2`,
+    );
+  }
+  let position = inDatum;
   let datumMeters: number;
-  const converted = datum ? toWgs84(latitude, longitude, datum) : undefined;
+  const converted = datum ? toWgs84(inDatum.latitude, inDatum.longitude, datum) : undefined;
   if (converted && !converted.withinAreaOfUse) {
     // A datum stated for a place outside its area of use is doubtful: treated as unknown [CHOICE].
     position = converted;

@@ -72,10 +72,16 @@ export interface Offset {
 /** Coordinates written in the text or in verbatim coordinate fields, before any datum shift. */
 export interface WrittenCoordinates {
   written: string;
-  /** Decimal degrees in the stated datum (not yet converted to WGS84). */
+  /**
+   * Decimal degrees in the stated datum (not yet converted to WGS84). For a UTM reference, whose datum may
+   * only become known later (the record's geodeticDatum, an edit), these are the grid read on the WGS84
+   * ellipsoid, a preview; georef converts `utm` again in the datum it finally uses.
+   */
   latitude: number;
   longitude: number;
   format: 'decimal' | 'degrees-minutes' | 'degrees-minutes-seconds' | 'utm';
+  /** The UTM reference as written (format 'utm'): zone, hemisphere, easting and northing in meters, and the band letter when one was written. */
+  utm?: { zone: number; hemisphere: 'N' | 'S'; band?: string; easting: number; northing: number };
   /** Coordinate precision in degrees, from how the numbers are written (method §5.3; the finer axis). */
   precisionDegrees: number;
   /** Datum as an EPSG code ("EPSG:4267") when the text states one. */

@@ -3,7 +3,6 @@ import proj4 from 'proj4';
 import { describe, expect, it } from 'vitest';
 import { DATUMS, datumFromName, toWgs84 } from '../../src/geodesy/datums.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
-import { utmToGeographic } from '../../src/geodesy/utm.ts';
 
 // The EPSG Geodetic Parameter Dataset as packaged in epsg-index 2.0.0 (derhuerst, npm): proj4 strings and
 // the accuracy of each CRS's default transformation to WGS 84.
@@ -155,29 +154,4 @@ describe('datumFromName: datums as written on labels', () => {
     ['', undefined],
   ];
   for (const [text, expected] of cases) it(`${JSON.stringify(text)} → ${expected}`, () => expect(datumFromName(text)).toBe(expected));
-});
-
-describe('utmToGeographic', () => {
-  // Central meridian of zone 14 is 99°W; easting 500 000 m lies on it (definition of UTM, NIMA TM8358.2).
-  it('puts easting 500 000 m on the central meridian', () => {
-    const { longitude } = utmToGeographic(14, 'N', 500000, 4206000, 'EPSG:4267');
-    expect(longitude).toBeCloseTo(-99, 9);
-  });
-  // On the central meridian the northing is k0 = 0.9996 times the meridian arc (definition of UTM).
-  it('northing on the central meridian is 0.9996 × meridian arc (WGS84)', () => {
-    const { latitude } = utmToGeographic(33, 'N', 500000, 0.9996 * inverse(0, 15, 45, 15).meters, 'EPSG:4326');
-    expect(latitude).toBeCloseTo(45, 7);
-  });
-  it('reads band letters: K is south, with the 10 000 000 m false northing', () => {
-    const band = utmToGeographic(23, 'K', 500000, 7400000, 'EPSG:4618');
-    const hemisphere = utmToGeographic(23, 'S', 500000, 7400000, 'EPSG:4618');
-    expect(band).toEqual(hemisphere);
-    expect(band.latitude).toBeLessThan(0);
-    expect(utmToGeographic(23, 'Q', 500000, 2000000, 'EPSG:4326').latitude).toBeGreaterThan(0);
-  });
-  it('rejects impossible input with a clear error', () => {
-    expect(() => utmToGeographic(61, 'N', 500000, 0, 'EPSG:4326')).toThrow(/zone/);
-    expect(() => utmToGeographic(10, 'I', 500000, 0, 'EPSG:4326')).toThrow(/band/);
-    expect(() => utmToGeographic(10, 'N', 50000, 0, 'EPSG:4326')).toThrow(/easting/);
-  });
 });
