@@ -286,7 +286,7 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
   const reach = inverse(feature.latitude, feature.longitude, unit.latitude, unit.longitude).meters + unit.radiusMeters;
   // "due N" (Δ = 0) is a line; a sector 0.01° wide stands for it, so that the clip has an area.
   const sector = sectorRing(feature.latitude, feature.longitude, heading.azimuth, Math.max(heading.halfWidth, 0.01), Math.max(reach, 1));
-  const clipped = clipRingToUnit(sector, feature.longitude, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
+  const clipped = clipRingToUnit(sector, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
   const part = featureExtent(clipped.geometry);
   return {
     latitude: part.latitude,
@@ -295,6 +295,7 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
     remarks: [
       `heading only, as read: ${describeHeading(offset)} of ${feature.name}, bounded by ${unit.featureType ?? 'unit'} "${unit.name}": ` +
         `point and radial of the part of the unit inside the sector ${heading.written} (±${heading.halfWidth}°) from the corrected center [CHOICE] (point-radius.md §3)`,
+      ...(clipped.unclippedBecause ? [`${clipped.unclippedBecause}: the whole sector out to the far side of "${unit.name}" was used instead, a larger radius than the clip would give`] : []),
     ],
     alsoUsed: [unit],
   };
@@ -393,7 +394,11 @@ function finish(input: GeoreferenceInput, placement: Placement, settings: Settin
     const clipped = clipCircleToUnit({ latitude, longitude, radiusMeters: uncertaintyMeters }, unit.geometry, settings.footprintSegments);
     if (!clipped) refuse(`the georeference lies wholly outside the bounding unit "${unit.name}": the clauses contradict each other (point-radius.md §2, step 5)`);
     footprintWKT = clipped.footprintWKT;
-    remarks.push(`footprint: the circle clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`);
+    remarks.push(
+      clipped.unclippedBecause
+        ? `footprint: ${clipped.unclippedBecause}, so the whole circle is kept, not clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`
+        : `footprint: the circle clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`,
+    );
     used.push(unit);
   }
   const seen = new Set<string>();
