@@ -1,5 +1,5 @@
 /**
- * Geodetic datums found on specimen labels, how they are written, and their shift to WGS84 (method §5.4).
+ * Geodetic datums found on specimen labels, how they are written, and their shift to WGS84 (docs/method.md §5.4).
  * proj4 knows no shift for most datums (`+datum=NAD27` silently applies none), so each entry carries
  * explicit `+towgs84` parameters with the EPSG transformation they come from. Where the best EPSG
  * transformation needs a grid file we do not ship (NADCON, NTv2, OSTN15), the published 3- or

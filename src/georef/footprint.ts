@@ -258,7 +258,7 @@ function insideRing(p: Position, ring: Position[]): boolean {
 
 /**
  * The uncertainty circle clipped to the administrative unit that bounds it, with the corrected center
- * and radial of the clipped shape (method §4: clip first, then compute). Undefined when they do not meet.
+ * and radial of the clipped shape (docs/method.md §4: clip first, then compute). Undefined when they do not meet.
  * @example clipCircleToUnit({ latitude: 0, longitude: 0, radiusMeters: 5000 }, halfPlanePolygon)
  */
 export function clipCircleToUnit(

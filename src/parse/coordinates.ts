@@ -26,7 +26,7 @@ interface Angle {
   negative: boolean;
   hemisphere?: Hemisphere;
   axis?: 'lat' | 'lon';
-  /** Step of the last written digit, in degrees (method §5.3). */
+  /** Step of the last written digit, in degrees (docs/method.md §5.3). */
   precision: number;
   parts: 1 | 2 | 3;
   /** Marks, hemisphere or label make it unmistakably a coordinate. */

@@ -1,6 +1,6 @@
 /**
  * Runs every fixture in test/fixtures/method: published worked examples and tables of the method
- * (point-radius.md, with the publication named in each case's `source`), input beside expected output.
+ * (docs/method.md, with the publication named in each case's `source`), input beside expected output.
  * The fixtures are transcriptions of printed values, so they are edited by hand and never regenerated.
  */
 import { readdirSync, readFileSync } from 'node:fs';
