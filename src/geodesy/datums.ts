@@ -243,7 +243,7 @@ export interface Wgs84Position {
 }
 
 /** Whether a point lies in an EPSG bounding box [north, west, south, east] (west > east wraps past 180°). */
-function withinArea(latitude: number, longitude: number, [north, west, south, east]: DatumDefinition['areaOfUse']): boolean {
+export function withinArea(latitude: number, longitude: number, [north, west, south, east]: DatumDefinition['areaOfUse']): boolean {
   const inLongitude = west <= east ? longitude >= west && longitude <= east : longitude >= west || longitude <= east;
   return latitude <= north && latitude >= south && inLongitude;
 }
@@ -262,3 +262,4 @@ export function toWgs84(latitude: number, longitude: number, datumEpsg: string):
   const [lon, lat] = proj4(geographicProj4(datum), WGS84_PROJ4, [longitude, latitude]);
   return { latitude: lat!, longitude: lon!, accuracyMeters: datum.accuracyMeters, transformation: datum.transformation, withinAreaOfUse };
 }
+

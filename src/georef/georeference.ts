@@ -7,6 +7,7 @@ import type { Interpretation, Offset, WrittenCoordinates } from '../parse/types.
 import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
 import { datumDefinition, datumFromName, toWgs84 } from '../geodesy/datums.ts';
 import { utmToGeographic } from '../geodesy/utm.ts';
+import { regionalDatumBound } from '../geodesy/unknown-datum.ts';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
@@ -167,11 +168,20 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
         : `datum: ${datum} as stated${coordinates.datumWritten ? ` ("${coordinates.datumWritten}")` : ''}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (docs/method.md §5.4)`,
     );
   } else {
-    datumMeters = settings.unknownDatumMeters;
     const written = coordinates.datumWritten ?? coordinates.datum ?? settings.datum;
-    remarks.push(
-      `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84, datum term ${meters(datumMeters)} (docs/method.md §5.4)`,
-    );
+    const unknown = `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84`;
+    // Bounded where the point lies when the datums in use there are known, never above the global figure.
+    const regional = regionalDatumBound(inDatum, grid);
+    if (regional && regional.meters < settings.unknownDatumMeters) {
+      datumMeters = regional.meters;
+      remarks.push(
+        `${unknown}, datum term ${meters(datumMeters)}: the largest distance between its readings in the datums whose EPSG area of use holds the point ` +
+          `(${regional.datums.join(', ')}), ${meters(regional.spreadMeters)}, plus the largest transformation accuracy among them, ${meters(regional.accuracyMeters)} [CHOICE] (docs/method.md §5.4)`,
+      );
+    } else {
+      datumMeters = settings.unknownDatumMeters;
+      remarks.push(`${unknown}, datum term ${meters(datumMeters)}${regional ? '' : ', no regional datum applies here'} (docs/method.md §5.4)`);
+    }
   }
   const precision = coordinatePrecisionMeters(position.latitude, precisionDegrees);
   remarks.push(`coordinate precision ${formatDegrees(precisionDegrees)} → ${meters(precision)} at this latitude (docs/method.md §5.3)`);

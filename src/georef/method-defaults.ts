@@ -3,7 +3,7 @@
  * A caller overrides any of them through MethodOptions; the remarks cite the section each comes from.
  */
 export const METHOD_DEFAULTS = {
-  /** Datum not stated: the global worst case, 5359 m (docs/method.md §5.4, BP2020 [DOC]). */
+  /** Datum not stated and no regional datum applies: the global worst case, 5359 m (docs/method.md §5.4, BP2020 [DOC]). */
   unknownDatumMeters: 5359,
   /** "near X": radius r_f + max(r_f, this) (docs/method.md §3 [CHOICE]). */
   nearMinimumMeters: 1000,

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import type { Feature } from '../../src/match/types.ts';
 import type { Interpretation, Offset, WrittenDistance, WrittenHeading } from '../../src/parse/types.ts';
 import { georeference, type GeoreferenceInput } from '../../src/georef/georeference.ts';
+import { regionalDatumBound } from '../../src/geodesy/unknown-datum.ts';
 import type { Georeference } from '../../src/georef/types.ts';
 import { wktPolygonAreaSquareMeters } from './wkt-area.ts';
 
@@ -234,10 +235,23 @@ describe('coordinates (docs/method.md §3, §5.3, §5.4)', () => {
     expect(g.components.datum).toBe(0);
     expect(g.components.coordinatePrecision).toBeCloseTo(1556.8, 0);
   });
-  it('datum not recorded: 5359 m (docs/method.md §5.4) and a remark', () => {
-    const g = ok({ interpretation: written(), features: [] });
+  const inTheOpenPacific = (datumWritten?: string, datum?: string) => {
+    const i = written(datumWritten, datum);
+    i.coordinates = { ...i.coordinates!, latitude: -45.2, longitude: -131.4 };
+    return i;
+  };
+  it('datum not recorded where only world-wide datums apply: 5359 m (docs/method.md §5.4) and a remark', () => {
+    const g = ok({ interpretation: inTheOpenPacific(), features: [] });
     expect(g.components.datum).toBe(5359);
-    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*5359 m.*§5\.4/);
+    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*5359 m, no regional datum applies here.*§5\.4/);
+  });
+  it('datum not recorded inside NAD27\'s area of use: the regional bound, the datums compared named (Chapman & Wieczorek 2020, §Uncertainty from Unknown Datum)', () => {
+    const g = ok({ interpretation: written(), features: [] });
+    const bound = regionalDatumBound({ latitude: 10.27, longitude: -123.6 })!;
+    expect(bound.datums).toEqual(['EPSG:4326', 'EPSG:4267', 'EPSG:4322']);
+    expect(g.components.datum).toBe(bound.meters);
+    expect(g.components.datum).toBeLessThan(5359);
+    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*EPSG:4326, EPSG:4267, EPSG:4322.*\[CHOICE\] \(docs\/method\.md §5\.4\)/);
   });
   it('NAD27 written: shifted to WGS84 by EPSG:1173, the transformation accuracy as datum term', () => {
     const g = ok({ interpretation: written('NAD 27'), features: [] });
@@ -257,7 +271,7 @@ describe('coordinates (docs/method.md §3, §5.3, §5.4)', () => {
     expect(g.remarks.join('\n')).toMatch(/outside its EPSG area of use/);
   });
   it('a datum code we cannot convert counts as not recorded, named in the remarks', () => {
-    const g = ok({ interpretation: written(undefined, 'EPSG:4019'), features: [] });
+    const g = ok({ interpretation: inTheOpenPacific(undefined, 'EPSG:4019'), features: [] });
     expect(g.components.datum).toBe(5359);
     expect(g.remarks.join('\n')).toMatch(/"EPSG:4019" is not one we can convert/);
   });
