@@ -86,7 +86,7 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
     georeferenceSources: citeSources(result, context.sources),
     georeferenceRemarks: [
       ...g.remarks,
-      `${remark}; the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (point-radius.md §6)`,
+      `${remark}; the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (docs/method.md §6)`,
     ].join('; '),
   };
 }

@@ -16,7 +16,7 @@ export interface ReportedPrecision {
  * @example reportingDecimals(10_000) // 3
  */
 export function reportingDecimals(uncertaintyMeters: number): number {
-  // The longest degree on WGS84 on either axis: latitude at the poles, 111 694 m (method §5.3, Llat(90°)).
+  // The longest degree on WGS84 on either axis: latitude at the poles, 111 694 m (docs/method.md §5.3, Llat(90°)).
   const metersPerDegree = 111_694;
   for (let k = 0; k < 7; k++) {
     const worstShift = (10 ** -k / 2) * Math.SQRT2 * metersPerDegree;
@@ -28,7 +28,7 @@ export function reportingDecimals(uncertaintyMeters: number): number {
 /**
  * Decimals and coordinatePrecision of a proposed point. A point made from written coordinates keeps
  * the precision they were written with (Chapman & Wieczorek 2020, §Uncertainty Related to Coordinate
- * Precision: the precision of coordinates is how they are written): "-45.3010" is precise to 0.0001°,
+ * Precision; docs/method.md §5.3 and §6: the precision of coordinates is how they are written): "-45.3010" is precise to 0.0001°,
  * trailing zero included, so it is reported with 4 decimals and coordinatePrecision 0.0001, never with
  * more decimals than were written (false precision). Degrees and minutes keep their step (1/60° →
  * "0.0167", as Darwin Core's own examples write it). Any other point: reportingDecimals.
