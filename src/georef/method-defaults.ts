@@ -11,6 +11,14 @@ export const METHOD_DEFAULTS = {
   junctionExtentMeters: 100,
   /** Segments of a footprint circle (WKT polygon vertices, point-radius.md §6 [CHOICE]). */
   footprintSegments: 64,
+  /**
+   * A distance written with no unit ("0.5 NW of X") [CHOICE]: common practice, no source — the method
+   * (point-radius.md §5.1) has no rule for a missing unit. Labels from the countries we read use kilometres or
+   * miles, so the number is read in both and treated like a written range between the two readings (the
+   * method's range rule, §5.1): the midpoint, with δ widened by half the spread. The circle then covers the
+   * specimen whichever unit the collector meant (the two units, smaller first); a single guessed unit would put it 38% too near or 61% too far.
+   */
+  unitlessDistanceUnits: 'km mi',
   /** Map accuracy standard when a map scale is given but no standard (point-radius.md §5.5: 1 mm only). */
   mapStandard: 'unknown',
 } as const satisfies Record<string, number | string>;
