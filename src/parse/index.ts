@@ -110,8 +110,10 @@ function interpret(text: string): Interpretation {
     }
     const unit = readAdministrative(text, tokens, from, to) ?? undefined;
     if (links[index]) {
-      // A link's level is its unit word's, else its place in the chain (Country, State, County, Municipality).
-      const field = unit && unit.level !== 'unit' ? unit.level : ADMINISTRATIVE_ORDER[Math.min(chainLevel, ADMINISTRATIVE_ORDER.length - 1)]!;
+      // A link's level is its unit word's when that is not above the levels already written ("Isla Verdemar |
+      // Poniente | Depto. Alisos": a department after a state is the next level), else its place in the chain.
+      const positional = ADMINISTRATIVE_ORDER[Math.min(chainLevel, ADMINISTRATIVE_ORDER.length - 1)]!;
+      const field = unit && unit.level !== 'unit' && ADMINISTRATIVE_ORDER.indexOf(unit.level) >= chainLevel ? unit.level : positional;
       result.administrative[field] ??= unit?.name ?? clauseText;
       chainLevel = ADMINISTRATIVE_ORDER.indexOf(field) + 1;
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), link: true, ...(unit ? { unit } : {}) });

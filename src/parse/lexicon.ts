@@ -30,9 +30,9 @@ export const APPROXIMATE_BEFORE_PLACE = set('ca c circa approx approximately apr
 export const LEADING_PREPOSITIONS = set('a at');
 
 /** Words that introduce the feature an offset is measured from ("of", "de", "du", "d'"). */
-export const FROM_WORDS = set("of from off de del desde do da dos das du des d'");
+export const FROM_WORDS = set("of from off de del desde depuis do da dos das du des d'");
 /** FROM_WORDS that never stand inside a name ("from", "desde"), unlike "de", "do", "du". */
-export const STRONG_FROM_WORDS = set('from off desde');
+export const STRONG_FROM_WORDS = set('from off desde depuis');
 
 /** Words that introduce the feature a bearing points toward (the heading is reversed, method §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
@@ -82,7 +82,7 @@ export const TRAIL_QUALIFIERS = set('foot mule horse pack');
 /** Prepositions of a path: "by road", "via road", "por camino", "pela estrada", "par la route", "on Rd. 12". */
 export const PATH_PREPOSITIONS = set('by via por pela pelo par on en na no sur');
 /** "along X", "siguiendo X", "le long de X", "ao longo do X", "a lo largo de X". */
-export const ALONG_PHRASES = phrases('along the | along | following | siguiendo | seguindo | a lo largo de | a lo largo del | ao longo de | ao longo do | ao longo da | le long de | le long du');
+export const ALONG_PHRASES = phrases("along the | along | following | siguiendo | seguindo | a lo largo de | a lo largo del | a lo largo de la | ao longo de | ao longo do | ao longo da | le long de | le long du | le long de la | le long de l' | le long des");
 /** Upstream and downstream in four languages: modes 'upstream' and 'downstream'. */
 export const UPSTREAM_PHRASES = phrases('upstream | upriver | up river | up stream | rio arriba | aguas arriba | rio acima | aguas acima | en amont | amont');
 export const DOWNSTREAM_PHRASES = phrases('downstream | downriver | down river | down stream | rio abajo | aguas abajo | rio abaixo | aguas abaixo | en aval | aval');
