@@ -107,6 +107,26 @@ describe('distance only (point-radius.md §3 [CHOICE])', () => {
   });
 });
 
+describe('a distance written with no unit ([CHOICE] unitlessDistanceUnits, point-radius.md §5.1 range rule)', () => {
+  // "0.5 NW of X": read between 0.5 km and 0.5 mi (international mile 1609.344 m, 1959 agreement).
+  it('takes the midpoint of the km and mi readings, with δ covering both plus the written δ in miles', () => {
+    const written: WrittenDistance = { written: '0.5', value: 0.5, unit: 'mi', precision: 0.5, uncertainty: 0.25, meters: 804.672, uncertaintyMeters: 402.336, unitAssumed: true };
+    const g = ok({ interpretation: interpretation('offset-heading', { offsets: [{ distance: written, heading: heading('NW', 315, 22.5) }] }), features: [feature()] });
+    const d = 0.5 * (1000 + 1609.344) / 2; // 652.336 m
+    const delta = 0.5 * (1609.344 - 1000) / 2 + 0.25 * 1609.344; // 152.336 + 402.336 m
+    const end = directRef(-12.5, -60.25, 315, d);
+    expect(g.latitude).toBeCloseTo(end.latitude, 9);
+    expect(g.longitude).toBeCloseTo(end.longitude, 9);
+    // Offset term of point-radius.md §5.2 with d and δ as above: it reaches both the 0.5 km and the 0.5 mi reading.
+    const far = d + delta;
+    const term = Math.sqrt(far ** 2 + d ** 2 - 2 * d * far * Math.cos((22.5 * Math.PI) / 180));
+    expect(g.components.offset).toBeCloseTo(term, 6);
+    expect(d + delta).toBeGreaterThanOrEqual(804.672);
+    expect(d - delta).toBeLessThanOrEqual(500);
+    expect(g.remarks.join('\n')).toMatch(/no unit.*\[CHOICE unitlessDistanceUnits\]/);
+  });
+});
+
 describe('along a path (point-radius.md §3)', () => {
   // A road along the equator through the town, 0.5° each way.
   const town = feature({ latitude: 0, longitude: 10, radiusMeters: 1000 });
