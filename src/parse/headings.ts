@@ -158,7 +158,8 @@ export function readHeadingAt(text: string, tokens: Token[], i: number): { headi
 }
 
 /**
- * Azimuth of a 32-point "X by C" ("N by E", "NE by N"): a quarter of a 16-point step from X toward cardinal C;
+ * Azimuth of a 32-point "X by C" ("N by E", "NbE", "NE by N"): 11.25° from X toward cardinal C, Δ = 5.625°
+ * [DERIVED, point-radius.md §5.2 from BP2020 §Uncertainty Related to Heading];
  * null when X is a 16-point or C is not beside it.
  */
 function byPoint(compass: { azimuth: number; kind: string }, cardinal: string): number | null {

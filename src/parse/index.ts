@@ -195,9 +195,9 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
       joinable.offsets = [{ ...joinable.offsets[0]!, byAir: true }, ...joinable.offsets.slice(1)];
       previous!.clause = spanning(text, previous!.clause, piece.clause);
       pieces.splice(k--, 1);
-    } else if ((reading.bare === 'near' || reading.bare === 'kind') && joinable?.type === 'named-place') {
-      // "Vila Serena, arredores" is near it; "Alisos (town)" says what Alisos is.
-      previous!.reading = reading.bare === 'near' ? { ...joinable, type: 'near' } : { ...joinable, featureKind: reading.featureKind! };
+    } else if ((reading.bare === 'near' && joinable?.type === 'named-place') || (reading.bare === 'kind' && joinable?.features.length === 1)) {
+      // "Vila Serena, arredores" is near it; "Alisos (town)", "near Alisos (town)" say what Alisos is.
+      previous!.reading = reading.bare === 'near' ? { ...joinable!, type: 'near' } : { ...joinable!, featureKind: reading.featureKind! };
       previous!.clause = spanning(text, previous!.clause, piece.clause);
       pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && joinable && joinable.features.length > 0 && joinable.offsets.length === 1 && orthogonalPair(joinable.offsets[0]!, reading.offsets[0]!)) {

@@ -541,7 +541,9 @@ function readClause(s: Source): LocalityRead {
   const preposition = s.tokens[placeStart]!;
   const capitalNext = s.tokens[placeStart + 1]?.kind === 'word' && s.tokens[placeStart + 1]!.text[0] !== s.tokens[placeStart + 1]!.text[0]!.toLowerCase();
   if (placeStart < end - 1 && capitalNext && (L.PLACE_PREPOSITIONS.has(preposition.norm) || preposition.text === 'à')) placeStart++;
-  if (tokens[placeStart]!.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[placeStart]!.text}"`, approximate);
+  // An opening quotation mark may stand before the name ('"Millbrook" (town)').
+  const first = '"“«'.includes(tokens[placeStart]!.text) && placeStart < end - 1 ? tokens[placeStart + 1]! : tokens[placeStart]!;
+  if (first.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[placeStart]!.text}"`, approximate);
   const place = placeAt(s, placeStart, end);
   return place ? reading('named-place', [place], { approximate }) : unparseable('no place name could be read', approximate);
 }
