@@ -211,7 +211,8 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
       previous!.clause = spanning(text, previous!.clause, piece.clause);
       pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && previous?.reading?.type === 'named-place' && !previous.reading.bare) {
-      previous.reading = { ...standing(reading), features: previous.reading.features, approximate: reading.approximate || previous.reading.approximate };
+      const { featureKind } = previous.reading;
+      previous.reading = { ...standing(reading), features: previous.reading.features, approximate: reading.approximate || previous.reading.approximate, ...(featureKind ? { featureKind } : {}) };
       previous.clause = spanning(text, previous.clause, piece.clause);
       pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && next?.reading && isOffsetType(next.reading.type) && !next.reading.bare && reading.offsets.length === 1 && next.reading.offsets.length === 1) {
