@@ -138,7 +138,7 @@ export function readHeadingAt(text: string, tokens: Token[], i: number): { headi
     }
   }
   // "NbE", "NEbN": a 32-point written as one word.
-  const joined = /^([nsew]{1,2})b([nsew])$/.exec(first.norm);
+  const joined = first.norm.length <= 4 && first.norm.charAt(first.norm.length - 2) === 'b' ? /^([nsew]{1,2})b([nsew])$/.exec(first.norm) : null;
   if (joined && first.text.toLowerCase() !== first.text) {
     const compass = compassPoint(joined[1]!);
     const azimuth = compass ? byPoint(compass, joined[2]!) : null;

@@ -88,7 +88,14 @@ function interpret(text: string): Interpretation {
 
   // Segments followed by ":" (or "|", spaced dashes, leading periods) form the chain "Country: State: County".
   let chainLevel = 0;
-  const links = hierarchyLinks(text, tokens, segments);
+  // Each segment is read at most once, whether the chain rule or the loop below asks first.
+  const readings: Array<LocalityRead | undefined> = [];
+  const readSegment = (k: number): LocalityRead | undefined => {
+    const segment = segments[k];
+    if (segment && !readings[k]) readings[k] = readLocalityClause(text, tokens.slice(segment.from, segment.to));
+    return readings[k];
+  };
+  const links = hierarchyLinks(text, tokens, segments, readSegment);
   for (const [index, segment] of segments.entries()) {
     if (coordinatesPiece && segment.from >= found!.endToken && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
     const { from, to } = segment;
@@ -123,7 +130,7 @@ function interpret(text: string): Interpretation {
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit });
       continue;
     }
-    const reading = readLocalityClause(text, tokens.slice(from, to));
+    const reading = readSegment(index)!;
     pieces.push({ clause: clauseOf(text, tokens, from, to, reading.type === 'habitat' ? 'habitat' : 'locality'), reading });
   }
   if (coordinatesPiece && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
@@ -140,8 +147,7 @@ function interpret(text: string): Interpretation {
  * by a period that read as bare names ("Country. State. place"). "Place: 10 km NE" is no chain: the colon
  * introduces the offset.
  */
-function hierarchyLinks(text: string, tokens: Token[], segments: Segment[]): boolean[] {
-  const read = (k: number): LocalityRead | undefined => (segments[k] ? readLocalityClause(text, tokens.slice(segments[k]!.from, segments[k]!.to)) : undefined);
+function hierarchyLinks(text: string, tokens: Token[], segments: Segment[], read: (k: number) => LocalityRead | undefined): boolean[] {
   const bareName = (k: number): boolean => {
     const { from, to } = segments[k]!;
     return readAdministrative(text, tokens, from, to) !== null || (read(k)?.type === 'named-place' && !read(k)?.bare);
@@ -321,13 +327,9 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   const others: ClauseReading[] = [];
   pieces.forEach((piece, index) => {
     if (index === best || !piece.reading || piece.reading.type === 'habitat' || piece.reading.type === 'unparseable') return;
-    const other = (): void => {
-      const { type, features, offsets, featureKind } = piece.reading!;
-      others.push({ clause: index, type: type as LocalityType, features, offsets, ...(featureKind ? { featureKind } : {}) });
-    };
     if (piece.reading.type !== 'named-place') {
       result.notes.push(`also read: "${piece.clause.text}" as ${piece.reading.type} (not used for the point; check it agrees)`);
-      other();
+      others.push(clauseReading(piece.reading, index));
       return;
     }
     const field = chainLevel > 0 && index < best ? ADMINISTRATIVE_ORDER[chainLevel] : undefined;
@@ -336,7 +338,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
       piece.clause.kind = 'administrative';
     } else {
       result.notes.push(`also named: "${piece.clause.text}" (not used for the point)`);
-      other();
+      others.push(clauseReading(piece.reading, index));
     }
   });
   result.otherClauses = others.sort((a, b) => SPECIFICITY[a.type] - SPECIFICITY[b.type] || a.clause - b.clause);
@@ -344,6 +346,12 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     if (piece !== chosen && piece.reading?.type === 'unparseable') result.notes.push(`clause "${piece.clause.text}" not read: ${piece.reading.reason}`);
   }
   return result;
+}
+
+/** The public reading of a clause other than the chosen one. */
+function clauseReading(reading: LocalityRead, clause: number): ClauseReading {
+  const { type, features, offsets, featureKind } = reading;
+  return featureKind ? { clause, type: type as LocalityType, features, offsets, featureKind } : { clause, type: type as LocalityType, features, offsets };
 }
 
 /** Unit clauses other than the chosen one fill their level's field, the first written winning; 'unit' fills none. */

@@ -264,11 +264,14 @@ function placeAt(s: Source, from: number, end: number): string | null {
  * @example featureKindOf("Laguna Negra") // 'water'
  */
 export function featureKindOf(name: string): FeatureKind | undefined {
-  const words = fold(name).split(/[\s.]+/).filter(Boolean);
-  if (words.length < 2) return undefined;
+  const firstSpace = name.indexOf(' ');
+  if (firstSpace < 0) return undefined;
+  const lastSpace = name.lastIndexOf(' ');
+  const word = (from: number, to: number): string => fold(name.slice(from, to)).replace(/\.$/, '');
+  const firstKind = L.FEATURE_KIND_WORDS.get(word(0, firstSpace));
+  if (firstKind) return firstKind;
   // A last word after "de"/"del" is part of a name ("San Aurelio del Monte"), not its generic word.
-  const last = L.FROM_WORDS.has(words[words.length - 2]!) ? undefined : L.FEATURE_KIND_WORDS.get(words[words.length - 1]!);
-  return L.FEATURE_KIND_WORDS.get(words[0]!) ?? last;
+  return L.FROM_WORDS.has(word(name.lastIndexOf(' ', lastSpace - 1) + 1, lastSpace)) ? undefined : L.FEATURE_KIND_WORDS.get(word(lastSpace + 1, name.length));
 }
 
 /** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
