@@ -127,7 +127,10 @@ function interpret(text: string): Interpretation {
       continue;
     }
     if (unit) {
-      pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit });
+      // Two units of one level ("Pcia. de Poniente, Dpto. Alisos": a department inside a province): the level of
+      // the second is not what its word says in every country, so it names a bare unit.
+      const sameLevel = unit.level !== 'unit' && pieces.some((p) => p.unit?.level === unit.level && !p.link);
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit: sameLevel ? { ...unit, level: 'unit' } : unit });
       continue;
     }
     const reading = readSegment(index)!;

@@ -106,17 +106,18 @@ export const SEA_LEVEL_WORDS = set('a s l n m asl snm above sea level sobre el n
  * the usual first/second/third-level use of each word in the four languages' countries; words whose level
  * differs between countries ("District", "Distrito", "Freguesia") name a bare 'unit' and fill no field.
  * A township ("Twp.") is a civil division below the county, read as a municipality.
- * "Par." (parish) and "Est." (estado) only count dotted and capitalised: "par" is French "by", "est" "east".
+ * "Par." (parish), "Est." (estado), "Co.", "Mun.", "Dist." only count dotted and capitalised: "par" is French
+ * "by", "est" "east".
  */
 export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit'> = new Map([
   ...[...set('country pais pays')].map((w) => [w, 'country'] as const),
-  ...[...set('state province prov provincia estado est edo dept depto dpto departamento department departement depart region regiao')].map((w) => [w, 'stateProvince'] as const),
+  ...[...set('state province prov pcia provincia estado est edo dept depto dpto departamento department departement depart region regiao')].map((w) => [w, 'stateProvince'] as const),
   ...[...set('county co cty parish par partido canton')].map((w) => [w, 'county'] as const),
   ...[...set('municipality municipio municipios mun mpio munic municipalite commune comuna concelho township twp')].map((w) => [w, 'municipality'] as const),
-  ...[...set('district distrito distr freguesia parroquia')].map((w) => [w, 'unit'] as const),
+  ...[...set('district dist distrito distr freguesia parroquia')].map((w) => [w, 'unit'] as const),
 ]);
 /** Unit words that count only written with a capital and a period ("Par.", "Est."). */
-export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun');
+export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');
 
 /**
  * Generic words that say what kind of place a name is, before it ("Laguna Negra", "Fazenda Boa Vista",
