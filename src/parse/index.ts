@@ -219,6 +219,11 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
       previous!.reading = { ...joinable, type: 'offset-heading', offsets: [{ ...reading.offsets[0]!, heading: joinable.offsets[0]!.heading! }], approximate: reading.approximate || joinable.approximate };
       previous!.clause = spanning(text, previous!.clause, piece.clause);
       pieces.splice(k--, 1);
+    } else if (reading.bare === 'offset' && joinable?.type === 'distance-only' && joinable.features.length > 0 && reading.type === 'heading-only' && !joinable.offsets[0]!.toward) {
+      // "5 km de Alisos, rumbo 214°": the heading of the distance before it.
+      previous!.reading = { ...joinable, type: 'offset-heading', offsets: [{ ...joinable.offsets[0]!, heading: reading.offsets[0]!.heading! }], approximate: reading.approximate || joinable.approximate };
+      previous!.clause = spanning(text, previous!.clause, piece.clause);
+      pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && previous?.reading?.type === 'named-place' && !previous.reading.bare) {
       const { featureKind } = previous.reading;
       previous.reading = { ...standing(reading), features: previous.reading.features, approximate: reading.approximate || previous.reading.approximate, ...(featureKind ? { featureKind } : {}) };

@@ -275,12 +275,15 @@ export function featureKindOf(name: string): FeatureKind | undefined {
 }
 
 /** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
-function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true } {
+function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true; heading?: WrittenHeading } {
   for (let k = from + 1; k < s.tokens.length; k++) {
     const path = readPath(s, k, false);
     if (path && path.next === s.tokens.length && (path.path || path.byAir)) {
       return { end: k, ...(path.path ? { path: path.path } : {}), ...(path.byAir ? { byAir: true as const } : {}) };
     }
+    // "5 km from X on a bearing of 214°": a bearing in degrees after the place.
+    const heading = L.HEADING_PREFIXES.has(s.tokens[k]!.norm) ? readHeading(s, k) : null;
+    if (heading?.next === s.tokens.length && heading.heading.kind === 'degrees') return { end: k, heading: heading.heading };
   }
   return { end: s.tokens.length };
 }
@@ -372,6 +375,7 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const place = placeAt(s, j, placeEndAt);
   if (!place) return unparseable(`could not read the place after "${s.text.slice(s.tokens[i]!.start, s.tokens[j - 1]!.end)}"`, approximate);
   if (tail.path && !offset.path) offset.path = tail.path;
+  if (tail.heading && !offset.heading && offsets.length === 1) offset.heading = tail.heading;
   if (tail.byAir) offset.byAir = true;
   if (toward && offset.heading) {
     offset.heading = { ...offset.heading, azimuth: (offset.heading.azimuth + 180) % 360, toward: true };
