@@ -183,6 +183,12 @@ function orthogonalPair(a: Offset, b: Offset): boolean {
   );
 }
 
+/** A heading-only and a distance-only reading, in either order, that together make one offset at a heading. */
+function halves(a: LocalityRead, b: LocalityRead): boolean {
+  const kinds = new Set([a.type, b.type]);
+  return kinds.has('heading-only') && kinds.has('distance-only') && !a.offsets[0]?.toward && !b.offsets[0]?.toward && a.offsets.length === 1 && b.offsets.length === 1;
+}
+
 function spanning(text: string, a: Clause, b: Clause): Clause {
   return { text: text.slice(a.start, b.end), start: a.start, end: b.end, kind: 'locality' };
 }
@@ -214,14 +220,10 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
       previous!.reading = { ...joinable, type: 'offset-orthogonal', offsets: [joinable.offsets[0]!, reading.offsets[0]!], approximate: reading.approximate || joinable.approximate };
       previous!.clause = spanning(text, previous!.clause, piece.clause);
       pieces.splice(k--, 1);
-    } else if (reading.bare === 'offset' && joinable?.type === 'heading-only' && joinable.features.length > 0 && reading.type === 'distance-only') {
-      // "NE of Millbrook, 10 km": the distance of the heading before it.
-      previous!.reading = { ...joinable, type: 'offset-heading', offsets: [{ ...reading.offsets[0]!, heading: joinable.offsets[0]!.heading! }], approximate: reading.approximate || joinable.approximate };
-      previous!.clause = spanning(text, previous!.clause, piece.clause);
-      pieces.splice(k--, 1);
-    } else if (reading.bare === 'offset' && joinable?.type === 'distance-only' && joinable.features.length > 0 && reading.type === 'heading-only' && !joinable.offsets[0]!.toward) {
-      // "5 km de Alisos, rumbo 214°": the heading of the distance before it.
-      previous!.reading = { ...joinable, type: 'offset-heading', offsets: [{ ...joinable.offsets[0]!, heading: reading.offsets[0]!.heading! }], approximate: reading.approximate || joinable.approximate };
+    } else if (reading.bare === 'offset' && joinable && joinable.features.length > 0 && halves(joinable, reading)) {
+      // "NE of Millbrook, 10 km", "5 km de Alisos, rumbo 214°": a heading and a distance written apart.
+      const offset: Offset = { ...joinable.offsets[0]!, ...reading.offsets[0]! };
+      previous!.reading = { ...joinable, type: 'offset-heading', offsets: [offset], approximate: reading.approximate || joinable.approximate };
       previous!.clause = spanning(text, previous!.clause, piece.clause);
       pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && previous?.reading?.type === 'named-place' && !previous.reading.bare) {
@@ -275,7 +277,7 @@ const LEVEL_DEPTH: Readonly<Record<AdministrativeLevel, number>> = { country: 0,
  * Chooses the most specific clause (method §2 step 2, SPECIFICITY above); ties go to the first clause written, so
  * "Puerto Lindo, Laguna Negra" uses Puerto Lindo and lists Laguna Negra in `otherClauses` for the locate policy.
  * With no locality clause, a clause naming a unit by a unit word is the place ('administrative-unit', the lowest
- * level named); a hierarchy alone ("Brasil: Minas Gerais") names no place within it.
+ * level named); a hierarchy alone ("Isla Verdemar | Poniente | Alisos") names no place within it.
  */
 function choose(pieces: Piece[], result: Interpretation, chainLevel: number): Interpretation {
   result.clauses = pieces.map((p) => p.clause);
