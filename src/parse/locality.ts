@@ -413,7 +413,7 @@ function isHabitat(tokens: Token[], from = 0, to = tokens.length): boolean {
 export function readLocalityClause(text: string, tokens: Token[]): LocalityRead {
   const s: Source = { text, tokens };
   const read = readClause(s);
-  const featureKind = s.featureKind ?? (read.features.length === 1 || read.type === 'offset-path' ? featureKindOf(read.features[0] ?? '') : undefined);
+  const featureKind = s.featureKind ?? (read.features.length === 1 ? featureKindOf(read.features[0]!) : undefined);
   return featureKind && !read.featureKind ? { ...read, featureKind } : read;
 }
 
