@@ -151,20 +151,22 @@ function interpret(text: string): Interpretation {
  * introduces the offset.
  */
 function hierarchyLinks(text: string, tokens: Token[], segments: Segment[], read: (k: number) => LocalityRead | undefined): boolean[] {
-  const bareName = (k: number): boolean => {
-    const { from, to } = segments[k]!;
-    return readAdministrative(text, tokens, from, to) !== null || (read(k)?.type === 'named-place' && !read(k)?.bare);
-  };
-  const links = segments.map((segment, k) => {
-    if (segment.separator === '|' || segment.separator === '-') return true;
-    return segment.separator === ':' && !(k + 2 === segments.length && read(k + 1)?.bare === 'offset');
-  });
   const last = segments.length - 1;
-  if (last > 0 && segments[last - 1]!.separator === '|' && bareName(last)) links[last] = true;
+  const links: boolean[] = [];
+  for (let k = 0; k <= last; k++) {
+    const separator = segments[k]!.separator;
+    links.push(separator === '|' || separator === '-' || (separator === ':' && !(k + 1 === last && read(k + 1)?.bare === 'offset')));
+  }
+  if (last > 0 && segments[last - 1]!.separator === '|' && isBareName(text, tokens, segments[last]!, read(last))) links[last] = true;
   let periods = 0;
-  while (periods < last && segments[periods]!.separator === '.' && bareName(periods)) periods++;
+  while (periods < last && segments[periods]!.separator === '.' && isBareName(text, tokens, segments[periods]!, read(periods))) periods++;
   if (periods >= 2) for (let k = 0; k < periods; k++) links[k] = true;
   return links;
+}
+
+/** A segment that is only a name: a unit by its unit word, or a named place with nothing else. */
+function isBareName(text: string, tokens: Token[], segment: Segment, reading: LocalityRead | undefined): boolean {
+  return readAdministrative(text, tokens, segment.from, segment.to) !== null || (reading?.type === 'named-place' && !reading.bare);
 }
 
 const isOffsetType = (type: LocalityRead['type']): boolean => SPECIFICITY[type as LocalityType] === 1 || type === 'distance-only';
@@ -366,7 +368,8 @@ function clauseReading(reading: LocalityRead, clause: number): ClauseReading {
 
 /** Unit clauses other than the chosen one fill their level's field, the first written winning; 'unit' fills none. */
 function fillUnits(pieces: Piece[], result: Interpretation, chosen: number): void {
-  pieces.forEach((piece, index) => {
-    if (piece.unit && !piece.link && index !== chosen && piece.unit.level !== 'unit') result.administrative[piece.unit.level] ??= piece.unit.name;
-  });
+  for (let index = 0; index < pieces.length; index++) {
+    const unit = pieces[index]!.unit;
+    if (unit && !pieces[index]!.link && index !== chosen && unit.level !== 'unit') result.administrative[unit.level] ??= unit.name;
+  }
 }

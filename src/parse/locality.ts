@@ -266,12 +266,17 @@ function placeAt(s: Source, from: number, end: number): string | null {
 export function featureKindOf(name: string): FeatureKind | undefined {
   const firstSpace = name.indexOf(' ');
   if (firstSpace < 0) return undefined;
-  const lastSpace = name.lastIndexOf(' ');
-  const word = (from: number, to: number): string => fold(name.slice(from, to)).replace(/\.$/, '');
-  const firstKind = L.FEATURE_KIND_WORDS.get(word(0, firstSpace));
+  const firstKind = L.FEATURE_KIND_WORDS.get(wordOf(name, 0, firstSpace));
   if (firstKind) return firstKind;
+  const lastSpace = name.lastIndexOf(' ');
   // A last word after "de"/"del" is part of a name ("San Aurelio del Monte"), not its generic word.
-  return L.FROM_WORDS.has(word(name.lastIndexOf(' ', lastSpace - 1) + 1, lastSpace)) ? undefined : L.FEATURE_KIND_WORDS.get(word(lastSpace + 1, name.length));
+  if (L.FROM_WORDS.has(wordOf(name, name.lastIndexOf(' ', lastSpace - 1) + 1, lastSpace))) return undefined;
+  return L.FEATURE_KIND_WORDS.get(wordOf(name, lastSpace + 1, name.length));
+}
+
+/** The word of `name` at [from, to), folded, without a trailing period ("Mt." → "mt"). */
+function wordOf(name: string, from: number, to: number): string {
+  return fold(name.charAt(to - 1) === '.' ? name.slice(from, to - 1) : name.slice(from, to));
 }
 
 /** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
