@@ -109,7 +109,7 @@ export function readElevation(
 }
 
 /** The level a unit word at token t names, or undefined ("Par." and "Est." only dotted and capitalised). */
-function unitWordLevel(t: Token | undefined): AdministrativeLevel | undefined {
+export function unitWordLevel(t: Token | undefined): AdministrativeLevel | undefined {
   if (t?.kind !== 'word') return undefined;
   if (L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm) && !(t.dotted && t.text[0] !== t.norm[0])) return undefined;
   return L.ADMINISTRATIVE_WORDS.get(t.norm);

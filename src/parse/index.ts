@@ -2,7 +2,7 @@ import type { AdministrativeLevel, Clause, ClauseReading, Interpretation, Locali
 import { tokenize, type Token } from './tokens.ts';
 import { findCoordinates } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
-import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, type Segment } from './clauses.ts';
+import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 
 export { parseCoordinates } from './coordinates.ts';
 export { readDistanceNumber, type WrittenNumber } from './numbers.ts';
@@ -131,6 +131,15 @@ function interpret(text: string): Interpretation {
       // the second is not what its word says in every country, so it names a bare unit.
       const sameLevel = unit.level !== 'unit' && pieces.some((p) => p.unit?.level === unit.level && !p.link);
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit: sameLevel ? { ...unit, level: 'unit' } : unit });
+      continue;
+    }
+    // "Alisos (county)", "Poniente (Prov.)": a unit word alone in brackets says what the name before it is.
+    const previous = pieces[pieces.length - 1];
+    const level = to - from === 1 && segments[index - 1]?.separator === '(' ? unitWordLevel(tokens[from]) : undefined;
+    if (level && previous?.reading?.type === 'named-place' && previous.reading.features.length === 1) {
+      const end = tokens[to]?.text === ')' ? tokens[to]!.end : tokens[to - 1]!.end;
+      const clause: Clause = { text: text.slice(previous.clause.start, end), start: previous.clause.start, end, kind: 'administrative' };
+      pieces[pieces.length - 1] = { clause, unit: { name: previous.reading.features[0]!, level, written: clause.text } };
       continue;
     }
     const reading = readSegment(index)!;
