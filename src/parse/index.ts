@@ -12,7 +12,7 @@ export type * from './types.ts';
 /** Inputs longer than this are refused (method texts are labels; this bounds the work). */
 export const MAX_LOCALITY_LENGTH = 10000;
 
-/** The most specific locality type first (method §2 step 2): coordinates, offsets, junction, ... named place. */
+/** The most specific locality type first (docs/method.md §2 step 2): coordinates, offsets, junction, ... named place. */
 const SPECIFICITY: Readonly<Record<LocalityType, number>> = {
   coordinates: 0,
   'offset-orthogonal': 1,
@@ -42,7 +42,7 @@ interface Piece {
 /**
  * Reads a specimen-label locality text (English, Spanish, Portuguese or French) as one locality type of the
  * point-radius method, with every clause, the chosen clause, the feature names as written, and each offset's
- * number as written, unit, precision (method §5.1) and heading with its half-width Δ (method §5.2).
+ * number as written, unit, precision (docs/method.md §5.1) and heading with its half-width Δ (docs/method.md §5.2).
  * Never throws; linear in the length of the text; texts over 10,000 characters are refused.
  * @example parseLocality("10 km NE of Puerto Lindo")
  * // { type: 'offset-heading', features: ['Puerto Lindo'],
@@ -285,7 +285,7 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
 const LEVEL_DEPTH: Readonly<Record<AdministrativeLevel, number>> = { country: 0, stateProvince: 1, unit: 2, county: 2, municipality: 3 };
 
 /**
- * Chooses the most specific clause (method §2 step 2, SPECIFICITY above); ties go to the first clause written, so
+ * Chooses the most specific clause (docs/method.md §2 step 2, SPECIFICITY above); ties go to the first clause written, so
  * "Puerto Lindo, Laguna Negra" uses Puerto Lindo and lists Laguna Negra in `otherClauses` for the locate policy.
  * With no locality clause, a clause naming a unit by a unit word is the place ('administrative-unit', the lowest
  * level named); a hierarchy alone ("Isla Verdemar | Poniente | Alisos") names no place within it.
@@ -342,7 +342,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.offsets = reading.offsets;
     if (reading.featureKind) result.featureKind = reading.featureKind;
     result.notes.push(...reading.notes);
-    if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (method §3)');
+    if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
   }
   // Named places after an administrative chain continue it: "Country: State: County, 12 km S of X".
   const others: ClauseReading[] = [];
