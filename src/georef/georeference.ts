@@ -34,7 +34,7 @@ export interface GeoreferenceInput {
 
 export type GeoreferenceOutcome = { ok: true; georeference: Georeference } | { ok: false; reason: string };
 
-type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard'>> &
+type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard' | 'unitlessDistanceUnits'>> &
   MethodOptions;
 
 /** What a type's rule yields before the shared terms, footprint and remarks are added. */
@@ -68,7 +68,7 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
   const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
   try {
     checkSettings(settings);
-    const read = withUnitlessDistances(input);
+    const read = withUnitlessDistances(input, settings.unitlessDistanceUnits);
     const placement = place(read, settings);
     return { ok: true, georeference: finish(read, placement, settings) };
   } catch (error) {
@@ -82,10 +82,10 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
  * (METHOD_DEFAULTS.unitlessDistanceUnits [CHOICE]; range rule of docs/method.md §5.1), with a remark.
  * @example "0.5 NW of X" → d = 0.5 × (1000 + 1609.344)/2 m, δ = 0.5 × (1609.344 − 1000)/2 m + the written δ in miles
  */
-function withUnitlessDistances(input: GeoreferenceInput): GeoreferenceInput {
+function withUnitlessDistances(input: GeoreferenceInput, units: Settings['unitlessDistanceUnits']): GeoreferenceInput {
   const { interpretation } = input;
   if (!interpretation.offsets.some((o) => o.distance?.unitAssumed)) return input;
-  const [low, high] = METHOD_DEFAULTS.unitlessDistanceUnits.split(' ').map((unit) => METERS_PER_UNIT[unit as DistanceUnit]) as [number, number];
+  const [low, high] = units.split(' ').map((unit) => METERS_PER_UNIT[unit as DistanceUnit]) as [number, number];
   const remarks: string[] = [];
   const offsets = interpretation.offsets.map((offset): Offset => {
     const d = offset.distance;
@@ -93,7 +93,7 @@ function withUnitlessDistances(input: GeoreferenceInput): GeoreferenceInput {
     const meters = (d.value * (low + high)) / 2;
     // The written δ (from the number's precision) is taken in the larger unit, so it is never understated.
     const uncertaintyMeters = (d.value * (high - low)) / 2 + d.uncertainty * high;
-    remarks.push(`"${d.written}" has no unit: read between ${d.value} ${METHOD_DEFAULTS.unitlessDistanceUnits.replace(' ', ` and ${d.value} `)}, ${meters.toFixed(0)} m ± ${uncertaintyMeters.toFixed(0)} m [CHOICE unitlessDistanceUnits] (docs/method.md §5.1 range rule)`);
+    remarks.push(`"${d.written}" has no unit: read between ${d.value} ${units.replace(' ', ` and ${d.value} `)}, ${meters.toFixed(0)} m ± ${uncertaintyMeters.toFixed(0)} m [CHOICE unitlessDistanceUnits] (docs/method.md §5.1 range rule)`);
     return { ...offset, distance: { ...d, meters, uncertaintyMeters } };
   });
   return { ...input, interpretation: { ...interpretation, offsets, notes: [...interpretation.notes, ...remarks] } };
@@ -115,6 +115,10 @@ function checkSettings(settings: Settings): void {
   }
   if (!['us-nmas', 'australian', 'unknown'].includes(settings.mapStandard)) {
     refuse(`option mapStandard must be us-nmas, australian or unknown, got ${JSON.stringify(settings.mapStandard)}`);
+  }
+  const [low, high] = settings.unitlessDistanceUnits.split(' ').map((unit) => METERS_PER_UNIT[unit as DistanceUnit]);
+  if (!(low !== undefined && high !== undefined && low < high)) {
+    refuse(`option unitlessDistanceUnits must be two distance units, smaller first (e.g. "km mi"), got ${JSON.stringify(settings.unitlessDistanceUnits)}`);
   }
   if (!(Number.isInteger(settings.footprintSegments) && settings.footprintSegments >= 8 && settings.footprintSegments <= 4096)) {
     refuse(`option footprintSegments must be a whole number from 8 to 4096, got ${JSON.stringify(settings.footprintSegments)}`);

@@ -127,6 +127,12 @@ describe('a distance written with no unit ([CHOICE] unitlessDistanceUnits, docs/
     expect(d - delta).toBeLessThanOrEqual(500);
     expect(g.remarks.join('\n')).toMatch(/no unit.*\[CHOICE unitlessDistanceUnits\]/);
   });
+
+  it('refuses, by name, units that are not two distance units smaller first', () => {
+    const written: WrittenDistance = { written: '2', value: 2, unit: 'mi', precision: 1, uncertainty: 0.5, meters: 3218.688, uncertaintyMeters: 804.672, unitAssumed: true };
+    const outcome = georeference({ interpretation: interpretation('distance-only', { offsets: [{ distance: written }] }), features: [feature()], options: { unitlessDistanceUnits: 'mi km' } });
+    expect(outcome).toEqual({ ok: false, reason: expect.stringMatching(/unitlessDistanceUnits must be two distance units, smaller first/) });
+  });
 });
 
 describe('along a path (docs/method.md §3)', () => {
