@@ -130,7 +130,7 @@ export type AdministrativeLevel = 'country' | 'stateProvince' | 'county' | 'muni
 export interface NamedUnit {
   /** The unit's name without its unit word ("Alisos"). */
   name: string;
-  /** The level the unit word names; 'unit' when the word does not say which level ("District", "Región"). */
+  /** The level the unit word names; 'unit' when the word does not say which level ("District", "Distrito"). */
   level: AdministrativeLevel;
   /** The clause as written ("Municipio de Alisos"). */
   written: string;
