@@ -5,6 +5,7 @@
  */
 import { resolve } from 'node:path';
 import type { BatchSettings } from './georeference-group.ts';
+import { checkRunTimestamp } from './partition.ts';
 
 export interface ArrayScriptOptions {
   /** The gazetteer every task reads. */
@@ -31,6 +32,7 @@ export interface ArrayScriptOptions {
  *   // '#!/bin/bash\n…#SBATCH --array=0-3\n…'
  */
 export function arrayJobScript(options: ArrayScriptOptions): string {
+  checkRunTimestamp(options.runTimestamp);
   const work = resolve(options.workDir);
   const command = options.command ?? [process.execPath, new URL('../../bin/whereabouts.js', import.meta.url).pathname];
   const settingFlags = [

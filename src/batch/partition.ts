@@ -51,6 +51,20 @@ export function parsePartSpec(text: string): PartSpec {
   return { index, count };
 }
 
+/** The run timestamp as a job stores it: UTC to the second. */
+const RUN_TIMESTAMP = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}Z$/;
+
+/**
+ * Refuse a run timestamp (georeferencedDate) that is not a UTC time to the second: every part of one
+ * input must record the same one, as one machine would.
+ * @example checkRunTimestamp('2026-05-01T09:30:00Z') // returns; '2026-05-01 09:30' throws
+ */
+export function checkRunTimestamp(text: string): void {
+  if (!RUN_TIMESTAMP.test(text) || Number.isNaN(Date.parse(text))) {
+    throw new Error(`the run timestamp must be a UTC time to the second, such as 2026-05-01T09:30:00Z; not "${text}"`);
+  }
+}
+
 /**
  * The part a locality key belongs to: the first 6 bytes of its SHA-256 (FIPS 180-4), as a number, modulo
  * the part count. Rows that could not be read have no key; they go to part 0.

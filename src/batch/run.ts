@@ -29,7 +29,7 @@ import {
 import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
-import { partFileStart, partOfKey, partRowFrame, type PartMeta, type PartSpec } from './partition.ts';
+import { checkRunTimestamp, partFileStart, partOfKey, partRowFrame, type PartMeta, type PartSpec } from './partition.ts';
 
 export interface BatchJobOptions {
   /** The gazetteer database (opened read-only). */
@@ -135,13 +135,8 @@ export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: 
   }
 }
 
-/** The run timestamp as the job stores it (to the second, UTC). */
-const RUN_TIMESTAMP = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}Z$/;
-
 function checkPartOptions(options: BatchJobOptions): void {
-  if (options.runTimestamp !== undefined && (!RUN_TIMESTAMP.test(options.runTimestamp) || Number.isNaN(Date.parse(options.runTimestamp)))) {
-    throw new Error(`the run timestamp must be a UTC time to the second, such as 2026-05-01T09:30:00Z; not "${options.runTimestamp}"`);
-  }
+  if (options.runTimestamp !== undefined) checkRunTimestamp(options.runTimestamp);
   if (!options.part || options.resume) return;
   if (!options.output || options.output === '-') throw new Error('a part (--part) needs an output file (--out), the part file the merge reads');
   if (options.runTimestamp === undefined) {

@@ -10,7 +10,7 @@
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { cpus, hostname, tmpdir, userInfo } from 'node:os';
 import { join } from 'node:path';
@@ -98,7 +98,7 @@ describe.skipIf(missing.length > 0)('a batch over a single-node Slurm cluster', 
   beforeAll(async () => {
     const node = hostname().split('.')[0];
     const user = userInfo().username;
-    for (const sub of ['spool', 'state', 'parts']) mkdirSync(join(dir, sub));
+    for (const sub of ['spool', 'state', 'shared']) mkdirSync(join(dir, sub));
     const key = join(dir, 'munge.key');
     writeFileSync(key, randomBytes(1024), { mode: 0o600 });
     const socket = join(dir, 'munge.socket');
@@ -164,8 +164,9 @@ describe.skipIf(missing.length > 0)('a batch over a single-node Slurm cluster', 
     whereabouts('batch', join(dir, 'input.csv'), '--out', join(dir, 'one-machine.csv'), '--run-timestamp', RUN_TIMESTAMP, '--quiet');
 
     const script = join(dir, 'parts.sbatch');
+    const shared = join(dir, 'shared', 'gazetteer.sqlite');
     whereabouts('cluster-script', join(dir, 'input.csv'), '--parts', String(PARTS), '--work-dir', join(dir, 'parts'), '--out', join(dir, 'merged.csv'),
-      '--run-timestamp', RUN_TIMESTAMP, '--cpus', '1', '--script', script);
+      '--run-timestamp', RUN_TIMESTAMP, '--cpus', '1', '--script', script, '--gazetteer-copy', shared);
     // Each committed step of a task pauses a little, so that the kill lands part way.
     arrayJob = run('sbatch', ['--parsable', script], { ...env, WHEREABOUTS_TEST_DELAY_MS: '40' }).trim().split(';')[0];
 
@@ -191,5 +192,7 @@ describe.skipIf(missing.length > 0)('a batch over a single-node Slurm cluster', 
     const oneMachine = readFileSync(join(dir, 'one-machine.csv'));
     expect(merged.length).toBe(oneMachine.length);
     expect(merged.equals(oneMachine)).toBe(true);
+    // The tasks only read the shared gazetteer: no journal or WAL files beside it (sqlite.org/wal.html §8).
+    expect(readdirSync(join(dir, 'shared'))).toEqual(['gazetteer.sqlite']);
   }, 420_000);
 });

@@ -1,6 +1,7 @@
-import { writeFileSync } from 'node:fs';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import type { Command } from 'commander';
 import { arrayJobScript } from '../../batch/array-script.ts';
+import { writeSharedGazetteerCopy } from '../../store/shared-copy.ts';
 
 interface ClusterScriptOptions {
   parts: string;
@@ -10,6 +11,7 @@ interface ClusterScriptOptions {
   cpus?: string;
   sbatch: string[];
   script?: string;
+  gazetteerCopy?: string;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
 }
@@ -30,11 +32,14 @@ export function registerClusterScript(program: Command, dbPath: () => string): v
     .option('--cpus <n>', 'CPUs a task asks for (default 2: one reads and writes rows, the others georeference)')
     .option('--sbatch <option>', 'one more #SBATCH line, such as --time=02:00:00 (repeatable)', (v: string, all: string[]) => [...all, v], [])
     .option('--script <file>', 'write the script to this file instead of standard output')
+    .option('--gazetteer-copy <file>', "first write a read-only copy of the gazetteer (rollback journal, not WAL) there, for the tasks to read over a network file system")
     .option('--cover-ambiguous', 'as batch --cover-ambiguous')
     .option('--administrative-fallback', 'as batch --administrative-fallback')
-    .action((input: string, opts: ClusterScriptOptions) => {
+    .action(async (input: string, opts: ClusterScriptOptions) => {
+      if (opts.gazetteerCopy) await writeSharedGazetteerCopy(dbPath(), opts.gazetteerCopy);
+      mkdirSync(opts.workDir, { recursive: true }); // Slurm writes the tasks' logs there, and does not make folders
       const script = arrayJobScript({
-        dbPath: dbPath(),
+        dbPath: opts.gazetteerCopy ?? dbPath(),
         input,
         parts: wholeNumber(opts.parts, '--parts'),
         workDir: opts.workDir,
