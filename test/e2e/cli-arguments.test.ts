@@ -41,7 +41,7 @@ describe('a locality that begins with a minus sign', () => {
 });
 
 describe('help texts', () => {
-  it.each([[], ['import'], ['gazetteer'], ['locate'], ['batch'], ['serve'], ['doctor']])('whereabouts %s --help names each default once', async (...verb) => {
+  it.each([[], ['import'], ['gazetteer'], ['locate'], ['batch'], ['merge'], ['cluster-script'], ['serve'], ['doctor']])('whereabouts %s --help names each default once', async (...verb) => {
     const { stdout } = await whereabouts(...verb.flat(), '--help');
     // One entry an option: from a line starting with "-" to the next such line.
     const entries = stdout.split(/\n(?=\s+-)/).map((entry) => entry.replace(/\s+/g, ' '));
