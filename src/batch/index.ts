@@ -5,5 +5,6 @@
  *   jobProgress(jobsDatabasePath(dbPath), jobId).rowsDone;
  */
 export { startBatchJob, type BatchJobOptions, type BatchProgressEvent, type BatchSummary } from './run.ts';
-export { jobProgress, jobsDatabasePath, type JobProgress, type JobState } from './jobs.ts';
-export { COORDINATE_FLAGS, COORDINATE_FLAGS_COLUMN, type CoordinateFlag } from './coordinate-check.ts';
+export { jobProgress, jobsDatabasePath, storedLocalityTypes, type JobProgress, type JobState } from './jobs.ts';
+export { COORDINATE_FLAGS, type CoordinateFlag } from '../record/coordinate-check.ts';
+export { COORDINATE_FLAGS_COLUMN } from '../output/csv.ts';

@@ -4,8 +4,9 @@
  */
 import type { Source } from '../gazetteer/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
-import type { LocateResult, LocateStatus } from '../locate.ts';
+import type { LocateResult } from '../locate/locate.ts';
 import { VERSION } from '../version.ts';
+import { VERIFICATION_STATUS } from './verification-status.ts';
 
 /** The appended terms, in output order. Every one is a Darwin Core term (TDWG, dwc terms list). */
 export const GEOREFERENCE_TERMS = [
@@ -34,14 +35,6 @@ export interface RecordContext {
   /** The loaded gazetteer sources, to cite with their content hash. */
   sources: Source[];
 }
-
-/** Verification status by outcome (Darwin Core georeferenceVerificationStatus recommended values). */
-export const VERIFICATION_STATUS: Record<LocateStatus, string> = {
-  georeferenced: 'requires verification',
-  ambiguous: 'requires georeference',
-  'not-found': 'requires georeference',
-  unparseable: 'unable to georeference',
-};
 
 export const PROTOCOL = `point-radius method (Wieczorek, Guo & Hijmans 2004, doi:10.1080/13658810412331280211; Chapman & Wieczorek 2020, Georeferencing Best Practices, doi:10.15468/doc-gg7h-s853) as applied by whereabouts ${VERSION}`;
 
@@ -101,12 +94,6 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
       `reported to ${decimals} decimals (coordinatePrecision); the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (point-radius.md §6)`,
     ].join('; '),
   };
-}
-
-/** Output column names for an input header: `proposed_<term>` where the record already has the term. */
-export function appendedColumnNames(inputHeader: readonly string[]): string[] {
-  const present = new Set(inputHeader);
-  return GEOREFERENCE_TERMS.map((term) => (present.has(term) ? `proposed_${term}` : term));
 }
 
 function blankCoordinates() {

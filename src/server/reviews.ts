@@ -6,9 +6,10 @@
  */
 import { basename, dirname, join } from 'node:path';
 import Database from 'better-sqlite3';
-import type { FeatureKey } from './lookup.ts';
+import type { FeatureKey } from '../locate/edits.ts';
+import type { ReviewDecision } from '../record/verification-status.ts';
 
-export type ReviewDecision = 'accepted' | 'rejected';
+export type { ReviewDecision };
 
 export interface Review {
   decision: ReviewDecision;
@@ -18,12 +19,6 @@ export interface Review {
   /** ISO 8601 date-time of the decision. */
   decidedAt: string;
 }
-
-/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
-export const REVIEWED_STATUS: Record<ReviewDecision, string> = {
-  accepted: 'verified by data custodian',
-  rejected: 'requires georeference',
-};
 
 /**
  * The review file that goes with a gazetteer file.

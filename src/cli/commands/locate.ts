@@ -1,8 +1,9 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
 import { openGazetteer } from '../../gazetteer/store.ts';
-import { locate, type LocateResult } from '../../locate.ts';
-import { darwinCoreFields } from '../../record/darwin-core.ts';
+import { georeferenceRecord } from '../../locate/georeference-record.ts';
+import type { LocateResult } from '../../locate/locate.ts';
+import { answerJson } from '../../output/json.ts';
 import { VERSION } from '../../version.ts';
 
 /**
@@ -31,7 +32,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
       }
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
-        const result = locate(store, {
+        const answer = georeferenceRecord(store, {
           locality: text,
           countryCode: opts.countryCode,
           country: opts.country,
@@ -41,13 +42,9 @@ export function registerLocate(program: Command, dbPath: () => string): void {
           verbatimCoordinates: opts.verbatimCoordinates,
           geodeticDatum: opts.geodeticDatum,
           options: { mapScale: opts.mapScale, coverAmbiguous: opts.coverAmbiguous, administrativeFallback: opts.administrativeFallback },
+          attribution: { georeferencedBy: `whereabouts ${VERSION}`, georeferencedDate: new Date().toISOString(), sources: store.sources() },
         });
-        const darwinCore = darwinCoreFields(result, {
-          georeferencedBy: `whereabouts ${VERSION}`,
-          georeferencedDate: new Date().toISOString(),
-          sources: store.sources(),
-        });
-        process.stdout.write(opts.json ? `${JSON.stringify({ ...result, darwinCore }, null, 2)}\n` : describe(result, darwinCore));
+        process.stdout.write(opts.json ? answerJson(answer) : describe(answer.result, answer.darwinCore));
       } finally {
         store.close();
       }

@@ -8,16 +8,16 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../src/gazetteer/import.ts';
-import { openGazetteer, type GazetteerStore } from '../src/gazetteer/store.ts';
-import { locate } from '../src/locate.ts';
+import { importGazetteer } from '../../src/gazetteer/import.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
+import { locate } from '../../src/locate/locate.ts';
 
 let store: GazetteerStore;
 
 beforeAll(async () => {
   const db = join(mkdtempSync(join(tmpdir(), 'whereabouts-locate-')), 'demo.sqlite');
   const writer = openGazetteer(db);
-  await importGazetteer(writer, new URL('../gazetteer/demo.geojson', import.meta.url).pathname, { format: 'geojson', citation: 'demo (invented)' });
+  await importGazetteer(writer, new URL('../../gazetteer/demo.geojson', import.meta.url).pathname, { format: 'geojson', citation: 'demo (invented)' });
   writer.close();
   store = openGazetteer(db, { readonly: true });
 });

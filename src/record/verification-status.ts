@@ -1,0 +1,22 @@
+/**
+ * Every georeferenceVerificationStatus whereabouts writes, from Darwin Core's recommended values
+ * (TDWG, dwc terms list, georeferenceVerificationStatus): by the outcome of locating a record, and
+ * after a person's review decision.
+ */
+import type { LocateStatus } from '../locate/locate.ts';
+
+/** Verification status by outcome. */
+export const VERIFICATION_STATUS: Record<LocateStatus, string> = {
+  georeferenced: 'requires verification',
+  ambiguous: 'requires georeference',
+  'not-found': 'requires georeference',
+  unparseable: 'unable to georeference',
+};
+
+export type ReviewDecision = 'accepted' | 'rejected';
+
+/** Status after a reviewer's decision (method §6). */
+export const REVIEWED_STATUS: Record<ReviewDecision, string> = {
+  accepted: 'verified by data custodian',
+  rejected: 'requires georeference',
+};
