@@ -6,27 +6,20 @@
  * administrative unit (Chapman & Wieczorek 2020, Georeferencing Best Practices §3.4.6 and §3.4.1,
  * section numbers from memory); areas by turf (geodesic polygon area, @turf/area), an outside reference.
  */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { area, circle } from '@turf/turf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
+import type { GazetteerStore } from '../../src/gazetteer/store.ts';
 import { EditRefused } from '../../src/locate/edits.ts';
 import { georeferenceRecord, type RecordRequest } from '../../src/locate/georeference-record.ts';
 import { footprintGeometry } from '../../src/output/footprint-geometry.ts';
 import type { RecordContext } from '../../src/record/darwin-core.ts';
+import { openDemoStore } from '../support/demo-store.ts';
 
 let store: GazetteerStore;
 let attribution: RecordContext;
 
 beforeAll(async () => {
-  const db = join(mkdtempSync(join(tmpdir(), 'whereabouts-front-door-')), 'demo.sqlite');
-  const writer = openGazetteer(db);
-  await importGazetteer(writer, new URL('../../gazetteer/demo.geojson', import.meta.url).pathname, { format: 'geojson', citation: 'demo (invented)' });
-  writer.close();
-  store = openGazetteer(db, { readonly: true });
+  store = await openDemoStore('whereabouts-front-door-');
   attribution = { georeferencedBy: 'a tester', georeferencedDate: '2026-12-01T12:00:00Z', sources: store.sources() };
 });
 afterAll(() => store.close());

@@ -1,8 +1,7 @@
 import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
 import { Type } from 'typebox';
 import type { LocateResult } from '../../locate/locate.ts';
-import { recordCsv } from '../../output/csv.ts';
-import { answerGeoJsonText } from '../../output/geojson.ts';
+import { ANSWER_FORMATS } from '../../output/formats.ts';
 import { answerBody } from '../../output/json.ts';
 import { lookUp, type ServedGazetteer } from '../lookup.ts';
 import type { ResultCache } from '../result-cache.ts';
@@ -19,8 +18,8 @@ const DESCRIPTION =
 
 /**
  * POST /api/v1/georeference: the public contract (issue 2), with the page's edits as `options`; and the
- * same answer as a file to download: POST /api/v1/georeference.csv (one row of Darwin Core fields) and
- * POST /api/v1/georeference.geojson (RFC 7946 FeatureCollection).
+ * same answer as a file to download in each of src/output's formats: POST /api/v1/georeference.csv
+ * (one row of Darwin Core fields), POST /api/v1/georeference.geojson (RFC 7946 FeatureCollection).
  * @example await app.register(georeferenceRoutes, { gazetteer: store, results: new ResultCache(100) })
  */
 export const georeferenceRoutes: FastifyPluginAsyncTypebox<GeoreferenceRoutesOptions> = async (app, { gazetteer, results }) => {
@@ -31,22 +30,23 @@ export const georeferenceRoutes: FastifyPluginAsyncTypebox<GeoreferenceRoutesOpt
     },
     async (request) => answerBody(lookUp(gazetteer, request.body, results)),
   );
-  app.post(
-    '/api/v1/georeference.csv',
-    { schema: { summary: 'Georeference one locality, as a CSV row of Darwin Core fields', tags: ['georeference'], body: lookupBodySchema, produces: ['text/csv'], response: { 200: Type.String({ description: 'A header line and one row, every field quoted.' }), ...errorResponses } } },
-    async (request, reply) =>
-      reply
-        .header('content-type', 'text/csv; charset=utf-8')
-        .header('content-disposition', 'attachment; filename="georeference.csv"')
-        .send(recordCsv(request.body.locality, lookUp(gazetteer, request.body, results).darwinCore)),
-  );
-  app.post(
-    '/api/v1/georeference.geojson',
-    { schema: { summary: 'Georeference one locality, as a GeoJSON FeatureCollection (RFC 7946)', tags: ['georeference'], body: lookupBodySchema, produces: ['application/geo+json'], response: { 200: Type.String({ description: 'The point with the Darwin Core terms as properties, and the footprint.' }), ...errorResponses } } },
-    async (request, reply) =>
-      reply
-        .header('content-type', 'application/geo+json; charset=utf-8')
-        .header('content-disposition', 'attachment; filename="georeference.geojson"')
-        .send(answerGeoJsonText(lookUp(gazetteer, request.body, results), request.body.locality)),
-  );
+  for (const format of ANSWER_FORMATS) {
+    app.post(
+      `/api/v1/georeference.${format.extension}`,
+      {
+        schema: {
+          summary: `Georeference one locality, as a file: ${format.description}`,
+          tags: ['georeference'],
+          body: lookupBodySchema,
+          produces: [format.mediaType],
+          response: { 200: Type.String({ description: format.description }), ...errorResponses },
+        },
+      },
+      async (request, reply) =>
+        reply
+          .header('content-type', `${format.mediaType}; charset=utf-8`)
+          .header('content-disposition', `attachment; filename="georeference.${format.extension}"`)
+          .send(format.write(lookUp(gazetteer, request.body, results), request.body.locality)),
+    );
+  }
 };
