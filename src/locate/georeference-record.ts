@@ -54,7 +54,7 @@ export type Memo = (key: string, compute: () => LocateResult) => LocateResult;
  *   georeferenceRecord(store, { locality: '5 km N of Puerto Lindo', stateProvince: 'Poniente', edits: { distancePrecision: 1 }, attribution })
  *     .darwinCore.georeferenceVerificationStatus // 'requires verification'
  */
-export function georeferenceRecord(finder: CandidateFinder, request: RecordRequest, memo: Memo = (_key, compute) => compute()): RecordAnswer {
+export function georeferenceRecord(finder: CandidateFinder, request: RecordRequest, memo?: Memo): RecordAnswer {
   const { decimalLatitude, decimalLongitude, edits = {}, attribution, administrativeCenters: wantCenters, ...record } = request;
   const { chosenFeatures, distancePrecision, ...methodEdits } = edits;
   const located: LocateRequest = {
@@ -62,8 +62,9 @@ export function georeferenceRecord(finder: CandidateFinder, request: RecordReque
     options: { ...record.options, ...definedValues(methodEdits) },
     ...(chosenFeatures?.length || distancePrecision ? { edits: { chosenFeatures, distancePrecision } } : {}),
   };
-  const key = JSON.stringify([attribution.sources.map((s) => s.contentHash), located]);
-  const result = memo(key, () => locateSafely(finder, located));
+  const compute = () => locateSafely(finder, located);
+  // The loaded sources' content hashes are part of the key: a gazetteer imported meanwhile never gives a stale result.
+  const result = memo ? memo(JSON.stringify([attribution.sources.map((s) => s.contentHash), located]), compute) : compute();
   const darwinCore = darwinCoreFields(result, attribution);
   const centers = wantCenters ? administrativeCentersOf(finder, record) : [];
   const answer: RecordAnswer = { result, darwinCore, centers };
