@@ -3,7 +3,7 @@
  * every row of the group shares, and the centers of the country and state it names (for each row's
  * coordinate check).
  */
-import type { CandidateFinder } from '../gazetteer/types.ts';
+import type { CandidateFinder } from '../match/types.ts';
 import { georeferenceRecord } from '../locate/georeference-record.ts';
 import type { LocateRequest } from '../locate/locate.ts';
 import type { GroupFields } from '../output/csv.ts';

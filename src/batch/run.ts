@@ -13,7 +13,7 @@ import { pipeline } from 'node:stream/promises';
 import { setTimeout as sleep } from 'node:timers/promises';
 import type Database from 'better-sqlite3';
 import Tinypool from 'tinypool';
-import { openGazetteer } from '../gazetteer/store.ts';
+import { openGazetteer } from '../store/gazetteer-store.ts';
 import { unreadableRecord } from '../locate/georeference-record.ts';
 import type { LocateRequest } from '../locate/locate.ts';
 import { appendedLine, csvLine, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
@@ -24,9 +24,10 @@ import type { BatchSettings } from './georeference-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
-  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
+  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
-} from './jobs.ts';
+} from '../store/jobs.ts';
+import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
 

@@ -3,14 +3,10 @@
  * chosen for a name of the text (instead of the chooser's pick), and a distance precision. The other
  * edits (datum, map scale, measurement error) are method settings and go to the method as they are.
  */
-import type { Candidate } from '../gazetteer/types.ts';
+import type { Candidate, FeatureKey } from '../match/types.ts';
 import type { Interpretation, Offset } from '../parse/types.ts';
 
-/** A feature by its source and id, as a candidate names it. */
-export interface FeatureKey {
-  sourceId: string;
-  featureId: string;
-}
+export type { FeatureKey };
 
 /** The feature the georeferencer chose for one name of the text. */
 export interface ChosenFeature extends FeatureKey {

@@ -4,7 +4,7 @@
  * the georeferencer's edits applied inside the pipeline, writes its Darwin Core terms, and checks the
  * coordinates the record already has. Pure: data comes through the finder, who and when from the caller.
  */
-import type { CandidateFinder } from '../gazetteer/types.ts';
+import type { CandidateFinder } from '../match/types.ts';
 import type { MethodOptions } from '../georef/types.ts';
 import { checkCoordinates, circleOf, recordPoint, type AdministrativeCenter, type CoordinateCheck, type RecordPoint } from '../record/coordinate-check.ts';
 import { darwinCoreFields, type GeoreferenceTerm, type RecordContext } from '../record/darwin-core.ts';

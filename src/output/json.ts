@@ -4,7 +4,7 @@
  * the record's own coordinates lie from the proposed point.
  */
 import type { MultiPolygon, Polygon } from 'geojson';
-import type { Candidate } from '../gazetteer/types.ts';
+import type { Candidate } from '../match/types.ts';
 import type { RecordAnswer } from '../locate/georeference-record.ts';
 import type { LocateResult } from '../locate/locate.ts';
 import type { RecordPoint } from '../record/coordinate-check.ts';

@@ -13,10 +13,8 @@ export const VERIFICATION_STATUS: Record<LocateStatus, string> = {
   unparseable: 'unable to georeference',
 };
 
-export type ReviewDecision = 'accepted' | 'rejected';
-
-/** Status after a reviewer's decision (method §6). */
-export const REVIEWED_STATUS: Record<ReviewDecision, string> = {
+/** Status after a reviewer's decision (method §6), by decision (src/store/reviews.ts keeps the decisions). */
+export const REVIEWED_STATUS: Record<'accepted' | 'rejected', string> = {
   accepted: 'verified by data custodian',
   rejected: 'requires georeference',
 };

@@ -6,9 +6,9 @@
  */
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { jobProgress, jobsDatabasePath, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import type { LocateResult } from '../locate/locate.ts';
 import { COORDINATE_FLAGS_COLUMN, csvDocument, readFlags } from '../output/csv.ts';
@@ -18,7 +18,8 @@ import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import type { Review, ReviewDecision, ReviewStore } from './reviews.ts';
+import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
+import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
 
 /** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
 const NOT_CSV: [string, number[]][] = [
@@ -90,7 +91,7 @@ export class BatchService {
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
   ) {
-    this.folder = join(dirname(dbPath), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
+    this.folder = batchFolderPath(dbPath);
     this.jobsPath = jobsDatabasePath(dbPath);
   }
 

@@ -2,7 +2,7 @@
  * One lookup as the HTTP API answers it: the request body turned into a record for the front door
  * (`georeferenceRecord`), the page's edits passed as edits, and the answer written as the API's body.
  */
-import type { CandidateFinder, Feature, Source } from '../gazetteer/types.ts';
+import type { CandidateFinder, Feature, Source } from '../match/types.ts';
 import { EditRefused, type EditProblem, type FeatureKey } from '../locate/edits.ts';
 import { georeferenceRecord, type RecordAnswer } from '../locate/georeference-record.ts';
 import type { LocateResult } from '../locate/locate.ts';
@@ -13,7 +13,7 @@ import type { LookupRequest } from './schemas.ts';
 
 export type { FeatureKey };
 
-/** What the server needs of a gazetteer store (src/gazetteer/store.ts implements it). */
+/** What the server needs of a gazetteer store (src/store/gazetteer-store.ts implements it). */
 export interface ServedGazetteer extends CandidateFinder {
   sources(): Source[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;

@@ -8,7 +8,7 @@
  */
 import { area, circle } from '@turf/turf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { GazetteerStore } from '../../src/gazetteer/store.ts';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { EditRefused } from '../../src/locate/edits.ts';
 import { georeferenceRecord, type RecordRequest } from '../../src/locate/georeference-record.ts';
 import { footprintGeometry } from '../../src/output/footprint-geometry.ts';

@@ -5,7 +5,7 @@
  */
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { GazetteerStore } from '../../src/gazetteer/store.ts';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 import { openDemoStore } from '../support/demo-store.ts';
 

@@ -10,7 +10,7 @@ import { area, circle } from '@turf/turf';
 import { parse } from 'csv-parse/sync';
 import type { FastifyInstance } from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { GEOREFERENCE_TERMS } from '../../src/record/darwin-core.ts';
 import { buildApp } from '../../src/server/app.ts';
 import { demoDatabase, type TempDatabase } from './helpers.ts';

@@ -2,8 +2,8 @@
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 
 export async function openDemoStore(prefix: string): Promise<GazetteerStore> {
   const db = join(mkdtempSync(join(tmpdir(), prefix)), 'demo.sqlite');

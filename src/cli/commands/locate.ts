@@ -1,6 +1,6 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
-import { openGazetteer } from '../../gazetteer/store.ts';
+import { openGazetteer } from '../../store/gazetteer-store.ts';
 import { georeferenceRecord } from '../../locate/georeference-record.ts';
 import type { LocateResult } from '../../locate/locate.ts';
 import { answerJson } from '../../output/json.ts';

@@ -1,7 +1,7 @@
 import { simplify } from '@turf/turf';
 import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
 import type { Feature as GeoJsonFeature, FeatureCollection, Geometry } from 'geojson';
-import type { Feature } from '../../gazetteer/types.ts';
+import type { Feature } from '../../match/types.ts';
 import { openObject } from '../schemas.ts';
 
 /** About 50 m at the equator: finer than the map draws at county scale [CHOICE]. */

@@ -4,12 +4,9 @@
  * latest one for a row is the one that counts. The ids of the jobs the service started are kept
  * too, to resume them after a stop. Prepared statements only.
  */
-import { basename, dirname, join } from 'node:path';
 import Database from 'better-sqlite3';
-import type { FeatureKey } from '../locate/edits.ts';
-import type { ReviewDecision } from '../record/verification-status.ts';
-
-export type { ReviewDecision };
+import type { FeatureKey } from '../match/types.ts';
+export type ReviewDecision = 'accepted' | 'rejected';
 
 export interface Review {
   decision: ReviewDecision;
@@ -18,14 +15,6 @@ export interface Review {
   reviewer: string;
   /** ISO 8601 date-time of the decision. */
   decidedAt: string;
-}
-
-/**
- * The review file that goes with a gazetteer file.
- * @example reviewsDatabasePath('/data/whereabouts.sqlite') // '/data/whereabouts.reviews.sqlite'
- */
-export function reviewsDatabasePath(gazetteerPath: string): string {
-  return join(dirname(gazetteerPath), `${basename(gazetteerPath).replace(/\.sqlite$/, '')}.reviews.sqlite`);
 }
 
 export interface ReviewStore {
