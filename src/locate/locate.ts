@@ -11,6 +11,7 @@ import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType 
 import { coverGeoreferences } from '../georef/cover.ts';
 import { georeference } from '../georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from '../georef/types.ts';
+import type { LocateStatus } from '../record/verification-status.ts';
 import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits } from './edits.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -32,7 +33,7 @@ export interface LocateOptions extends MethodOptions {
   administrativeFallback?: boolean;
 }
 
-export type LocateStatus = 'georeferenced' | 'ambiguous' | 'not-found' | 'unparseable';
+export type { LocateStatus };
 
 export interface LocateResult {
   status: LocateStatus;

@@ -3,7 +3,8 @@
  * (TDWG, dwc terms list, georeferenceVerificationStatus): by the outcome of locating a record, and
  * after a person's review decision.
  */
-import type { LocateStatus } from '../locate/locate.ts';
+/** What came of locating a record; `locate` reports it, the words below record it. */
+export type LocateStatus = 'georeferenced' | 'ambiguous' | 'not-found' | 'unparseable';
 
 /** Verification status by outcome. */
 export const VERIFICATION_STATUS: Record<LocateStatus, string> = {
