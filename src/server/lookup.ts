@@ -1,6 +1,6 @@
 /**
  * One lookup as the HTTP API answers it: the request body turned into a record for the front door
- * (`georeferenceRecord`), the page's edits passed as edits, and the answer written as the API's body.
+ * (`georeferenceRecord`), the page's edits passed as edits; the routes write the answer through src/output.
  */
 import type { CandidateFinder, Feature, Source } from '../match/types.ts';
 import { EditRefused, type EditProblem, type FeatureKey } from '../locate/edits.ts';
