@@ -8,7 +8,7 @@ import type { LocateResult } from './locate.ts';
 export function unreadableResult(verbatim: string, reason: string): LocateResult {
   return {
     status: 'unparseable',
-    interpretation: { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, reason, notes: [] },
+    interpretation: { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, otherClauses: [], reason, notes: [] },
     candidates: [],
     reason,
   };
