@@ -1,16 +1,21 @@
 /**
- * One locality from text to georeference: parse → candidates → georeference. The finder is the only
- * door to data, so this module stays free of I/O; the CLI, HTTP service and batch jobs all call it.
+ * One locality from text to georeference: parse → candidates → georeference, with the georeferencer's
+ * edits applied on the way (a chosen feature replaces the chooser's pick for its name; a distance
+ * precision changes the interpretation before the method runs), so the bounding unit, the path line
+ * and the clip hold for an edited record as for the first answer. The finder is the only door to data,
+ * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
-import { parseCoordinates, parseLocality } from './parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType } from './parse/types.ts';
-import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './match/types.ts';
-import { coverGeoreferences } from './georef/cover.ts';
-import { georeference } from './georef/georeference.ts';
-import { readDatumOption } from './geodesy/datum-option.ts';
-import type { PlausibilityFlag } from './georef/plausibility.ts';
-import { checkPlausibility } from './georef/plausibility-check.ts';
-import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
+import { parseCoordinates, parseLocality } from '../parse/index.ts';
+import type { AdministrativeContext, Interpretation, LocalityType } from '../parse/types.ts';
+import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
+import { coverGeoreferences } from '../georef/cover.ts';
+import { georeference } from '../georef/georeference.ts';
+import type { Georeference, MethodOptions, UncertaintyComponents } from '../georef/types.ts';
+import type { LocateStatus } from '../record/verification-status.ts';
+import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits } from './edits.ts';
+import { readDatumOption } from '../geodesy/datum-option.ts';
+import type { PlausibilityFlag } from '../georef/plausibility.ts';
+import { checkPlausibility } from '../georef/plausibility-check.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -23,6 +28,8 @@ export interface LocateRequest extends AdministrativeContext {
    */
   geodeticDatum?: string;
   options?: LocateOptions;
+  /** The georeferencer's edits, applied inside the pipeline. */
+  edits?: LocateEdits;
 }
 
 export interface LocateOptions extends MethodOptions {
@@ -32,7 +39,7 @@ export interface LocateOptions extends MethodOptions {
   administrativeFallback?: boolean;
 }
 
-export type LocateStatus = 'georeferenced' | 'ambiguous' | 'not-found' | 'unparseable';
+export type { LocateStatus };
 
 export interface LocateResult {
   status: LocateStatus;
@@ -76,11 +83,11 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
 }
 
 /**
- * The plausibility checks (src/georef/plausibility-check.ts) of a result made for this request, also for one
- * a caller recomputed with edits: flags and remarks added, the point left as it is.
+ * The plausibility checks (src/georef/plausibility-check.ts) of a result made for this request: flags
+ * and remarks added, the point left as it is.
  * @example checkLocated(store, request, result).flags // e.g. ['outside-record-country']
  */
-export function checkLocated(finder: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
+function checkLocated(finder: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
   const g = result.georeference;
   if (result.status !== 'georeferenced' || !g) return result;
   const findings = checkPlausibility(finder, {
@@ -88,7 +95,7 @@ export function checkLocated(finder: CandidateFinder, request: LocateRequest, re
     interpretation: result.interpretation,
     candidates: result.candidates,
     countryCode: contextOf(request, result.interpretation).countryCode,
-    locateClause: (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined }).georeference,
+    locateClause: (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined, edits: undefined }).georeference,
   });
   if (findings.length === 0) return { ...result, flags: [] };
   const georeference = { ...g, remarks: [...g.remarks, ...findings.map((f) => f.remark)] };
@@ -97,11 +104,16 @@ export function checkLocated(finder: CandidateFinder, request: LocateRequest, re
 
 /** The method alone, without the plausibility checks. */
 function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResult {
-  const interpretation = interpretationOf(request);
+  const edits = request.edits ?? {};
+  const read = interpretationOf(request);
+  const interpretation = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
   const context = contextOf(request, interpretation);
   const datum = datumGiven(request);
   if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };
+  if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
+    throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
+  }
 
   if (interpretation.type === 'no-locality' && options.administrativeFallback) {
     return locateAdministrativeUnit(finder, interpretation, context, options);
@@ -114,9 +126,16 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   /** For each name, the features it may mean: one when resolved, several only with coverAmbiguous. */
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
+  const chosenNotes: string[] = [];
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
+    const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
+    if (chosen) {
+      readings.push([chosen.feature]);
+      chosenNotes.push(`feature chosen by the georeferencer: ${chosen.feature.name} (${chosen.feature.sourceId}:${chosen.feature.featureId})`);
+      continue;
+    }
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
       return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) };
@@ -134,6 +153,20 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
 
+  const edited = chosenNotes.length ? { ...interpretation, notes: [...interpretation.notes, ...chosenNotes] } : interpretation;
+  return georeferenceReadings(finder, edited, context, options, readings, candidates, matchRemarks);
+}
+
+/** The method over every combination of the features read for each name, bounded and clipped as the record allows. */
+function georeferenceReadings(
+  finder: CandidateFinder,
+  interpretation: Interpretation,
+  context: AdministrativeContext,
+  options: LocateOptions,
+  readings: Feature[][],
+  candidates: Candidate[],
+  matchRemarks: string[],
+): LocateResult {
   const pathLine = findPathLine(finder, interpretation, context);
   // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
   const boundingUnit = findBoundingUnit(finder, context, interpretation.type === 'heading-only' ? 'country' : 'stateProvince');
