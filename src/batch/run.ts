@@ -22,6 +22,7 @@ import { unreadableResult, type BatchSettings } from './georeference-group.ts';
 import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './rendered-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
+import { originalLine } from './original-line.ts';
 import {
   claimJob, findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
@@ -345,7 +346,8 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
         if (position === 0) {
-          writeText(csvLine([...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN], delimiter) + LINE_END);
+          const appended = csvLine([...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN], delimiter);
+          writeText(`${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`);
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
         continue;
@@ -430,7 +432,7 @@ function outputRow(
   tallies: Record<string, number>,
   delimiter: Delimiter,
 ): string {
-  const originals = csvLine(Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? ''), delimiter);
+  const originals = originalLine(record, headerLength, delimiter);
   if (!group) {
     const unreadable = renderGroup({ fields: darwinCoreFields(unreadableResult('', record.problem ?? 'the row could not be read'), context), centers: [] }, delimiter);
     count(tallies, 'malformed');
