@@ -7,11 +7,12 @@
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
-import { parse } from 'csv-parse/sync';
-import { stringify } from 'csv-stringify/sync';
-import { FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
+import { decimalNumber, FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
 import { COORDINATE_FLAGS_COLUMN, jobProgress, jobsDatabasePath, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
+import { originalLine } from '../batch/original-line.ts';
+import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
+import { csvLine } from '../batch/rendered-group.ts';
 import type { LocateResult } from '../locate.ts';
 import { parseLocality } from '../parse/index.ts';
 import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
@@ -62,9 +63,11 @@ export interface RecordDetail {
 }
 
 interface ParsedOutput {
-  header: string[];
+  header: InputRecord;
   originalLength: number;
-  rows: string[][];
+  /** The job's rows as read from its output, original fields quoted as they stood. */
+  records: InputRecord[];
+  delimiter: Delimiter;
   summaries: RecordSummary[];
 }
 
@@ -167,8 +170,8 @@ export class BatchService {
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
     const answer = this.lookUpRow(output, fields, candidate ?? review?.candidate);
-    const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
-    const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
+    const original = Object.fromEntries(output.header.fields.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
+    const proposed = Object.fromEntries(output.header.fields.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
     return { row, original, proposed, flags: splitFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
   }
 
@@ -187,11 +190,11 @@ export class BatchService {
    * "requires georeference" with the proposal moved into the remarks; a chosen candidate recomputes
    * the appended terms. Originals are never changed.
    */
-  reviewedCsv(jobId: string): string {
+  reviewedCsv(jobId: string): { text: string; delimiter: Delimiter } {
     const output = this.output(jobId);
     const reviews = this.reviews.latest(jobId);
-    const column = termColumns(output.header);
-    const rows = output.rows.map((fields, index) => {
+    const column = termColumns(output.header.fields);
+    const rows = output.records.map(({ fields }, index) => {
       const review = reviews.get(index + 1);
       if (!review) return fields;
       const copy = [...fields];
@@ -212,7 +215,11 @@ export class BatchService {
       set('georeferenceRemarks', [get('georeferenceRemarks'), stamp].filter(Boolean).join('; '));
       return copy;
     });
-    return stringify([output.header, ...rows]);
+    // Original fields go back as the batch wrote them (README, Batches); the appended ones as CSV.
+    const { delimiter, originalLength } = output;
+    const line = (record: InputRecord, fields: string[]) => `${originalLine(record, originalLength, delimiter)}${delimiter}${csvLine(fields.slice(originalLength), delimiter)}\r\n`;
+    const text = [line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
+    return { text, delimiter };
   }
 
   /**
@@ -235,7 +242,11 @@ export class BatchService {
     const progress = this.ownProgress(jobId);
     if (progress.state !== 'done' || !progress.outputPath) throw new RequestError(409, `batch job ${jobId} is ${progress.state}, not done`, 'jobId');
     if (dirname(progress.outputPath) !== this.folder) throw new RequestError(404, `no batch job ${jobId} was started by this service`, 'jobId');
-    const [header, ...rows] = parse(readFileSync(progress.outputPath), { bom: true, relax_column_count: true }) as string[][];
+    // The output keeps the input's delimiter (a semicolon file stays one), and is read by the batch's own reader.
+    const delimiter = progress.delimiter as Delimiter;
+    const [headerRecord, ...records] = parseRecords(readFileSync(progress.outputPath, 'utf8'), delimiter);
+    const header = headerRecord.fields;
+    const rows = records.map((r) => r.fields);
     const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
     const column = termColumns(header);
     const columns = indexColumns(header.slice(0, originalLength));
@@ -252,22 +263,22 @@ export class BatchService {
         review: null,
       };
     });
-    const parsed = { header, originalLength, rows, summaries };
+    const parsed = { header: headerRecord, originalLength, records, delimiter, summaries };
     this.parsed.set(jobId, parsed);
     return parsed;
   }
 
   private rowOf(output: ParsedOutput, row: number): string[] {
-    const fields = output.rows[row - 1];
-    if (!fields) throw new RequestError(404, `the batch has no row ${row} (it has ${output.rows.length})`, 'row');
-    return fields;
+    const record = output.records[row - 1];
+    if (!record) throw new RequestError(404, `the batch has no row ${row} (it has ${output.records.length})`, 'row');
+    return record.fields;
   }
 
   private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey): LookupResponse {
     const originals = fields.slice(0, output.originalLength);
-    const columns = indexColumns(output.header.slice(0, output.originalLength));
+    const columns = indexColumns(output.header.fields.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
-    const coordinate = (i?: number) => (i === undefined || originals[i]?.trim() === '' ? undefined : Number(originals[i]));
+    const coordinate = (i?: number) => (i === undefined ? undefined : decimalNumber(originals[i] ?? ''));
     const latitude = coordinate(columns.decimalLatitude);
     const longitude = coordinate(columns.decimalLongitude);
     const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;

@@ -133,11 +133,15 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
     scope.get<{ Params: { jobId: string } }>(
       '/api/v1/batches/:jobId/reviewed.csv',
       { schema: { summary: 'The batch output with every review decision applied, as CSV', tags: ['batch'], params: jobParams, produces: ['text/csv'] } },
-      async (request, reply) =>
-        reply
-          .header('content-type', 'text/csv; charset=utf-8')
-          .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.csv"`)
-          .send(batches.reviewedCsv(request.params.jobId)),
+      async (request, reply) => {
+        // The input's delimiter is kept: a tab-separated upload comes back as tab-separated values.
+        const { text, delimiter } = batches.reviewedCsv(request.params.jobId);
+        const [type, extension] = delimiter === '\t' ? ['text/tab-separated-values', 'tsv'] : ['text/csv', 'csv'];
+        return reply
+          .header('content-type', `${type}; charset=utf-8`)
+          .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.${extension}"`)
+          .send(text);
+      },
     );
   });
 }
