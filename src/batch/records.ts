@@ -8,9 +8,7 @@
  * with the switch on the second is silently merged into the field, with it off the parser stops at the
  * first of either and cannot go on from the next line. Neither keeps the line numbers the README promises.
  */
-import { createReadStream } from 'node:fs';
-import iconv from 'iconv-lite';
-import type { InputFormat } from './input-format.ts';
+import { decodedText, type InputFormat } from './input-format.ts';
 
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
 export interface InputRecord {
@@ -35,11 +33,6 @@ export const MAX_ROW_CHARACTERS = 1_000_000;
 const QUOTE = 0x22;
 const LF = 0x0a;
 const CR = 0x0d;
-
-/** The decoded text of the file, after its byte order mark. */
-function decodedText(path: string, format: InputFormat): NodeJS.ReadableStream {
-  return createReadStream(path, { start: format.bomBytes, highWaterMark: 1 << 20 }).pipe(iconv.decodeStream(format.encoding));
-}
 
 /**
  * The delimiter of the header line: whichever of comma, semicolon and tab occurs most often outside

@@ -21,6 +21,7 @@ import { checkCoordinates, COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from './coo
 import { unreadableResult, type BatchSettings } from './georeference-group.ts';
 import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './rendered-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
+import { fileHead, notText } from './file-kind.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import { originalLine } from './original-line.ts';
 import {
@@ -46,6 +47,11 @@ export interface BatchJobOptions {
    * writes the rows meanwhile (on 2 cores, 1 worker keeps both busy within the 500 MB memory target).
    */
   threads?: number;
+  /**
+   * Run even though the gazetteer holds no source (every row then comes back not found). Without it a
+   * batch against an empty store is refused with a message saying how to load one.
+   */
+  allowEmptyGazetteer?: boolean;
   /** Job database; default `jobsDatabasePath(dbPath)`. */
   jobsDbPath?: string;
   /** Called after each committed step. */
@@ -164,10 +170,16 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
   try {
     if (outputPath === inputPath) throw new Error(`the output ${outputPath} would replace the input`);
     if (!existsSync(inputPath)) throw new Error(`cannot read the input ${inputPath}: no such file`);
+    const kind = notText(fileHead(inputPath));
+    if (kind) throw new Error(`the input ${spooled ? '' : `${inputPath} `}is ${kind.format}, not CSV or tab-separated text: ${kind.advice}`);
+    const sources = gazetteerSources(options.dbPath);
+    if (sources.length === 0 && !options.allowEmptyGazetteer) {
+      throw new Error(`the gazetteer ${resolve(options.dbPath)} holds no source, so no row could be georeferenced: load one first with whereabouts import <file> --source "<citation>" (or run the batch with --allow-empty-gazetteer to have every row come back not found)`);
+    }
     const format = await inspectInput(inputPath);
     const delimiter = await detectDelimiter(inputPath, format);
     await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
-    const like = { inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath) };
+    const like = { inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources };
     const unfinished = findUnfinishedJob(jobs, like);
     if (unfinished) {
       if (spooled) rmSync(inputPath, { force: true });

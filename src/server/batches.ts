@@ -9,6 +9,7 @@ import { mkdirSync, readFileSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { decimalNumber, FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
 import { COORDINATE_FLAGS_COLUMN, jobProgress, jobsDatabasePath, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { HEAD_BYTES, notText } from '../batch/file-kind.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import { originalLine } from '../batch/original-line.ts';
 import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
@@ -20,17 +21,6 @@ import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
 import { REVIEWED_STATUS, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
-
-/** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
-const NOT_CSV: [string, number[]][] = [
-  ['a ZIP archive (an .xlsx or .ods workbook?)', [0x50, 0x4b, 0x03, 0x04]],
-  ['an old Excel workbook (.xls)', [0xd0, 0xcf, 0x11, 0xe0]],
-  ['a PDF document', [0x25, 0x50, 0x44, 0x46]],
-  ['a PNG image', [0x89, 0x50, 0x4e, 0x47]],
-  ['a JPEG image', [0xff, 0xd8, 0xff]],
-  ['a gzip file', [0x1f, 0x8b]],
-  ['an SQLite database', [...Buffer.from('SQLite format 3')]],
-];
 
 /** One record of the review list. */
 export interface RecordSummary {
@@ -71,14 +61,11 @@ interface ParsedOutput {
   summaries: RecordSummary[];
 }
 
-/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data. */
+/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data (src/batch/file-kind.ts). */
 export function assertCsvContent(bytes: Buffer): void {
   if (bytes.length === 0) throw new RequestError(400, 'the uploaded file is empty', 'file');
-  for (const [what, signature] of NOT_CSV) {
-    if (signature.every((b, i) => bytes[i] === b)) throw new RequestError(415, `the uploaded file is ${what}, not CSV text: save it as CSV (UTF-8) and upload that`, 'file');
-  }
-  const utf16 = (bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff);
-  if (!utf16 && bytes.subarray(0, 65536).includes(0)) throw new RequestError(415, 'the uploaded file holds binary data (NUL bytes), not CSV text', 'file');
+  const kind = notText(bytes.subarray(0, HEAD_BYTES));
+  if (kind) throw new RequestError(415, `the uploaded file is ${kind.format} and not CSV text: ${kind.advice}`, 'file');
 }
 
 export class BatchService {

@@ -9,6 +9,7 @@ interface BatchCommandOptions {
   threads?: number;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  allowEmptyGazetteer?: boolean;
 }
 
 const PHASE_LABELS: Record<BatchProgressEvent['phase'], string> = {
@@ -32,6 +33,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")
+    .option('--allow-empty-gazetteer', 'run even when the gazetteer holds no source (every row then comes back not found)')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
@@ -43,6 +45,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
         administrativeFallback: opts.administrativeFallback,
+        allowEmptyGazetteer: opts.allowEmptyGazetteer,
         onProgress: bar?.update,
       });
       if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n`);
