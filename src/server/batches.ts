@@ -87,6 +87,8 @@ export class BatchService {
   /** Starts a job on the uploaded bytes; resolves with its id once the job is stored. */
   async start(bytes: Buffer): Promise<string> {
     assertCsvContent(bytes);
+    // Said here without the store's path, which an HTTP answer never shows.
+    if (this.store.sources().length === 0) throw new RequestError(409, 'the service\'s gazetteer holds no source, so no row could be georeferenced: load one with whereabouts import <file> --source "<citation>" and start the service again', 'file');
     mkdirSync(this.folder, { recursive: true });
     const output = join(this.folder, `${randomUUID()}.csv`);
     let started: Awaited<ReturnType<typeof startBatchJob>>;

@@ -8,6 +8,7 @@ import { readFileSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
+import { openGazetteer } from '../../src/gazetteer/store.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
 
@@ -249,5 +250,27 @@ describe('a semicolon-delimited upload with decimal commas (the usual export whe
       ['sc-1', 'Vila Serena', '-45,3010'], ['sc-2', 'Puerto Lindo; muelle "viejo"', ''], ['sc-3', 'Vila Serena', '45,3010'],
     ]);
     expect(term(rows[0], 'georeferenceVerificationStatus')).toBe('verified by data custodian');
+  });
+});
+
+describe('an upload to a service whose gazetteer holds no source', () => {
+  it('answers 409 saying how to load one, without the store\'s path', async () => {
+    const empty = await demoDatabase();
+    const store = openGazetteer(empty.dbPath);
+    for (const source of store.sources()) store.removeSource(source.id);
+    store.close();
+    const service = await listen({ dbPath: empty.dbPath, uploadLimit: 200_000 });
+    try {
+      const form = new FormData();
+      form.append('file', new Blob([Buffer.from('locality,countryCode\nVila Serena,QV\n')], { type: 'text/csv' }), 'records.csv');
+      const response = await fetch(`${service.url}/api/v1/batches`, { method: 'POST', body: form });
+      const body = (await response.json()) as { message: string };
+      expect(response.status).toBe(409);
+      expect(body.message).toMatch(/holds no source.*whereabouts import/);
+      expect(body.message).not.toContain(empty.dir);
+    } finally {
+      await service.close();
+      empty.remove();
+    }
   });
 });

@@ -25,7 +25,7 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
 
     scope.post(
       '/api/v1/batches',
-      { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 415: errorSchema, ...errorResponses } } },
+      { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 409: errorSchema, 415: errorSchema, ...errorResponses } } },
       async (request, reply) => {
         if (!request.isMultipart()) throw new RequestError(415, 'send the CSV as multipart/form-data in a field named "file"', 'file');
         const part = await request.file();
