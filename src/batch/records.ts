@@ -8,7 +8,7 @@
  * with the switch on the second is silently merged into the field, with it off the parser stops at the
  * first of either and cannot go on from the next line. Neither keeps the line numbers the README promises.
  */
-import { decodedText, type InputFormat } from './input-format.ts';
+import { decodedText, type InputFormat } from '../store/input-format.ts';
 
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
 export interface InputRecord {

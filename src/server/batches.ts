@@ -6,10 +6,10 @@
  */
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { decimalNumber, FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
-import { COORDINATE_FLAGS_COLUMN, jobProgress, jobsDatabasePath, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
-import { HEAD_BYTES, notText } from '../batch/file-kind.ts';
+import { COORDINATE_FLAGS_COLUMN, jobProgress, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { HEAD_BYTES, notText } from '../store/file-kind.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import { originalLine } from '../batch/original-line.ts';
 import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
@@ -20,7 +20,14 @@ import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import { REVIEWED_STATUS, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
+import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
+import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
+
+/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
+const REVIEWED_STATUS: Record<ReviewDecision, string> = {
+  accepted: 'verified by data custodian',
+  rejected: 'requires georeference',
+};
 
 /** One record of the review list. */
 export interface RecordSummary {
@@ -61,7 +68,7 @@ interface ParsedOutput {
   summaries: RecordSummary[];
 }
 
-/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data (src/batch/file-kind.ts). */
+/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data (src/store/file-kind.ts). */
 export function assertCsvContent(bytes: Buffer): void {
   if (bytes.length === 0) throw new RequestError(400, 'the uploaded file is empty', 'file');
   const kind = notText(bytes.subarray(0, HEAD_BYTES));
@@ -80,7 +87,7 @@ export class BatchService {
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
   ) {
-    this.folder = join(dirname(dbPath), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
+    this.folder = batchFolderPath(dbPath);
     this.jobsPath = jobsDatabasePath(dbPath);
   }
 

@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
-import { openGazetteer } from '../../src/gazetteer/store.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
 

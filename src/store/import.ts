@@ -9,11 +9,11 @@ import { createInterface } from 'node:readline';
 import type { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
-import { fileHead, notText } from '../batch/file-kind.ts';
-import { decodedText, inspectInput, type InputFormat } from '../batch/input-format.ts';
+import { fileHead, notText } from './file-kind.ts';
+import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
 import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
-import type { GazetteerStore } from './store.ts';
+import type { GazetteerStore } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames';
 
