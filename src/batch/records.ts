@@ -65,13 +65,14 @@ export async function detectDelimiter(path: string, format: InputFormat): Promis
  * the header's comes back with `problem` set, and so does a line where a quote is left open (a quoted
  * field never closed, or closed by a quote mark that is not followed by a delimiter or a line end,
  * RFC 4180 §2.7, on a later line than it opened); that line is kept as written, cut at each delimiter,
- * and reading goes on from the next line. A quoted field closed on its own line before the field ends
- * (`"São Bento" x`) is read as the plain text it is, quote marks included. A quoted row spanning lines whose field count differs from the header's is taken for a quote
- * left open in the same way. In a tab-separated file, where a quote mark is commonly an ordinary
- * character, a field is read as quoted only when its quoting closes properly; otherwise it is the text
- * up to the next tab, quote marks included, and not a problem. A quote mark inside an unquoted field is
- * kept as a character (RFC 4180 §2.5 forbids it; spreadsheets write it). Blank lines are not rows.
- * Lines end at LF or CRLF; lines are counted at line feeds.
+ * and reading goes on from the next line. A quoted row spanning lines whose field count differs from the
+ * header's is taken for a quote left open in the same way. A quoted field closed on its own line before
+ * the field ends (`"São Bento" x`) is read as the plain text it is, quote marks included. In a
+ * tab-separated file, where a quote mark is commonly an ordinary character, a field is read as quoted
+ * only when its quoting closes properly; otherwise it is the text up to the next tab, quote marks
+ * included, and not a problem. A quote mark inside an unquoted field is kept as a character (RFC 4180
+ * §2.5 forbids it; spreadsheets write it). Blank lines are not rows. Lines end at LF or CRLF; lines are
+ * counted at line feeds.
  * @example for await (const r of readRecords('in.csv', format, ',')) console.log(r.line, r.fields)
  */
 export async function* readRecords(path: string, format: InputFormat, delimiter: Delimiter): AsyncGenerator<InputRecord> {
@@ -102,7 +103,7 @@ class RecordSplitter {
   private line = 1;
   private headerLength: number | undefined;
   private readonly delimiterCode: number;
-  /** Positions in `text` of the next delimiter and line feed found (-1: none found beyond the cached one). */
+  /** Positions in `text` of the next delimiter and line feed (-1: not looked for yet; MAX_SAFE_INTEGER: none left). */
   private nextDelimiter = -1;
   private nextLineFeed = -1;
 
