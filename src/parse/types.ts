@@ -6,7 +6,7 @@
 /** Units a distance can be written in (leagues vary by country and period: see src/parse/units.ts). */
 export type DistanceUnit = 'm' | 'km' | 'mi' | 'ft' | 'yd' | 'nmi' | 'league';
 
-/** Locality types of the point-radius method (shared/method/point-radius.md §3), each with its own rule. */
+/** Locality types of the point-radius method (docs/method.md §3), each with its own rule. */
 export type LocalityType =
   | 'coordinates' // coordinates written in the text are the most specific clause
   | 'named-place'
@@ -18,10 +18,11 @@ export type LocalityType =
   | 'between' // "between X and Y"
   | 'near' // near, vicinity, outskirts
   | 'junction' // junction, confluence or crossing of two named lines
+  | 'administrative-unit' // the clause names only an administrative unit ("Alisos County"): never read as a town
   | 'no-locality' // text that names no place ("locality unknown")
   | 'unparseable';
 
-/** A distance exactly as written, with the precision read from how the number is written (method §5.1). */
+/** A distance exactly as written, with the precision read from how the number is written (docs/method.md §5.1). */
 export interface WrittenDistance {
   /** The words as they stand in the text, e.g. "1 1/2 mi." */
   written: string;
@@ -35,9 +36,15 @@ export interface WrittenDistance {
   range?: { low: number; high: number };
   meters: number;
   uncertaintyMeters: number;
+  /**
+   * True when the text wrote no unit ("0.5 NW of X"). The parser then reads the number in miles, the larger
+   * of the two plausible units, so `meters` reaches far enough; the method widens it to cover kilometres too
+   * (METHOD_DEFAULTS.unitlessDistanceUnits, a [CHOICE] in src/georef/method-defaults.ts).
+   */
+  unitAssumed?: boolean;
 }
 
-/** A heading as written, as a true azimuth with its half-width Δ (method §5.2). */
+/** A heading as written, as a true azimuth with its half-width Δ (docs/method.md §5.2). */
 export interface WrittenHeading {
   written: string;
   /** Degrees clockwise from true north, in [0, 360). Already reversed for a bearing toward the feature. */
@@ -67,16 +74,27 @@ export interface Offset {
   path?: PathQualifier;
   /** True when the text said "by air" explicitly. */
   byAir?: boolean;
+  /**
+   * "N km from X toward Y": the place the offset heads for. Its heading from X is unknown until both are
+   * matched, so the offset is read as distance-only from X and Y is kept here (not used for the point).
+   */
+  toward?: string;
 }
 
 /** Coordinates written in the text or in verbatim coordinate fields, before any datum shift. */
 export interface WrittenCoordinates {
   written: string;
-  /** Decimal degrees in the stated datum (not yet converted to WGS84). */
+  /**
+   * Decimal degrees in the stated datum (not yet converted to WGS84). For a UTM reference, whose datum may
+   * only become known later (the record's geodeticDatum, an edit), these are the grid read on the WGS84
+   * ellipsoid, a preview; georef converts `utm` again in the datum it finally uses.
+   */
   latitude: number;
   longitude: number;
   format: 'decimal' | 'degrees-minutes' | 'degrees-minutes-seconds' | 'utm';
-  /** Coordinate precision in degrees, from how the numbers are written (method §5.3; the finer axis). */
+  /** The UTM reference as written (format 'utm'): zone, hemisphere, easting and northing in meters, and the band letter when one was written. */
+  utm?: { zone: number; hemisphere: 'N' | 'S'; band?: string; easting: number; northing: number };
+  /** Coordinate precision in degrees, from how the numbers are written (docs/method.md §5.3; the finer axis). */
   precisionDegrees: number;
   /** Datum as an EPSG code ("EPSG:4267") when the text states one. */
   datum?: string;
@@ -105,6 +123,33 @@ export interface AdministrativeContext {
   municipality?: string;
 }
 
+/** Administrative levels a unit word can name. */
+export type AdministrativeLevel = 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit';
+
+/** A clause that names an administrative unit by a unit word ("Alisos County", "Municipio de Alisos"). */
+export interface NamedUnit {
+  /** The unit's name without its unit word ("Alisos"). */
+  name: string;
+  /** The level the unit word names; 'unit' when the word does not say which level ("District", "Distrito"). */
+  level: AdministrativeLevel;
+  /** The clause as written ("Municipio de Alisos"). */
+  written: string;
+}
+
+/** What kind of place a generic word says a name is ("Laguna Negra" → 'water'). */
+export type FeatureKind = 'populated-place' | 'water' | 'stream' | 'mountain' | 'farm' | 'road' | 'protected-area' | 'locality';
+
+/** A locality clause other than the chosen one, read on its own; most specific first. */
+export interface ClauseReading {
+  /** Index into `Interpretation.clauses`. */
+  clause: number;
+  type: LocalityType;
+  features: string[];
+  offsets: Offset[];
+  /** What the generic word of its (first) feature says it is ("Fazenda Boa Vista" → 'farm'). */
+  featureKind?: FeatureKind;
+}
+
 /** The whole reading of one locality text. */
 export interface Interpretation {
   verbatim: string;
@@ -119,11 +164,17 @@ export interface Interpretation {
    */
   features: string[];
   offsets: Offset[];
-  /** "ca.", "about": changes neither point nor radius (method §3), but is recorded. */
+  /** "ca.", "about": changes neither point nor radius (docs/method.md §3), but is recorded. */
   approximate: boolean;
   coordinates?: WrittenCoordinates;
   /** Administrative units named in the text itself. */
   administrative: AdministrativeContext;
+  /** Type 'administrative-unit' only: the unit the chosen clause names (its name is also `features[0]`). */
+  unit?: NamedUnit;
+  /** What the generic word of the chosen feature says it is ("Laguna Negra" → 'water'); absent when no word says. */
+  featureKind?: FeatureKind;
+  /** The other locality clauses, each read on its own, most specific first; [] when there are none. */
+  otherClauses: ClauseReading[];
   elevation?: { minimumMeters: number; maximumMeters: number; written: string };
   /** Plain-words reason, always present when type is 'unparseable' or 'no-locality'. */
   reason?: string;
