@@ -2,7 +2,7 @@
  * A row's original fields as one line of the output, each as it stood in the input wherever the output
  * can hold it so: the rule the README's Batches section states.
  */
-import { csvLine } from './rendered-group.ts';
+import { csvLine } from '../output/csv.ts';
 import type { Delimiter, InputRecord } from './records.ts';
 
 /**

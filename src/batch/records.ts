@@ -8,6 +8,7 @@
  * with the switch on the second is silently merged into the field, with it off the parser stops at the
  * first of either and cannot go on from the next line. Neither keeps the line numbers the README promises.
  */
+import type { Delimiter } from '../output/csv.ts';
 import { decodedText, type InputFormat } from '../store/input-format.ts';
 
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
@@ -25,7 +26,7 @@ export interface InputRecord {
   splitAsWritten?: boolean;
 }
 
-export type Delimiter = ',' | ';' | '\t';
+export type { Delimiter } from '../output/csv.ts';
 
 /** The longest row accepted [CHOICE]: a quote left open must not swallow the rest of a large file. */
 export const MAX_ROW_CHARACTERS = 1_000_000;
