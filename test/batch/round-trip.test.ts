@@ -9,7 +9,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
-import { COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from '../../src/batch/coordinate-check.ts';
+import { COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from '../../src/output/csv.ts';
 import { parseRecords, type Delimiter } from '../../src/batch/records.ts';
 import { startBatchJob } from '../../src/batch/run.ts';
 import { FIXTURES, fixtureGazetteer } from './helpers.ts';
