@@ -7,6 +7,7 @@ import cors from '@fastify/cors';
 import helmet from '@fastify/helmet';
 import rateLimit from '@fastify/rate-limit';
 import swagger from '@fastify/swagger';
+import { resolve } from 'node:path';
 import Fastify, { type FastifyInstance } from 'fastify';
 import { openGazetteer } from '../gazetteer/store.ts';
 import type { LocateResult } from '../locate.ts';
@@ -58,7 +59,9 @@ export const SERVER_DEFAULTS = { host: '127.0.0.1', resultCache: 2000, bodyLimit
 export async function buildServer(options: ServerOptions): Promise<FastifyInstance> {
   const host = options.host ?? SERVER_DEFAULTS.host;
   assertSafeBind(host, options.token);
-  const store = openGazetteer(options.dbPath, { readonly: true });
+  // Resolved once: every file beside the gazetteer (jobs, reviews, batch outputs) is named from this absolute path.
+  const dbPath = resolve(options.dbPath);
+  const store = openGazetteer(dbPath, { readonly: true });
   const bodyLimit = options.bodyLimit ?? SERVER_DEFAULTS.bodyLimit;
   const app = Fastify({
     logger: options.logger ?? false,
@@ -67,9 +70,9 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     ajv: { customOptions: { coerceTypes: false, removeAdditional: false, allErrors: false } },
     forceCloseConnections: 'idle',
   });
-  const reviews = openReviews(reviewsDatabasePath(options.dbPath));
+  const reviews = openReviews(reviewsDatabasePath(dbPath));
   const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
-  const batches = new BatchService(options.dbPath, store, reviews, results);
+  const batches = new BatchService(dbPath, store, reviews, results);
   await batches.resumeUnfinished();
   // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.
   app.addHook('onClose', async () => {
@@ -126,7 +129,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
 
   registerGeoreferenceRoute(app, store, results);
   registerFeatureRoute(app, store);
-  registerLayersRoute(app, shapedFeatureLister(options.dbPath, store));
+  registerLayersRoute(app, shapedFeatureLister(dbPath, store));
   await registerBatchRoutes(app, batches, options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit);
   if (options.token) registerLoginRoute(app, options.token);
   app.get('/api/v1/openapi.json', { schema: { hide: true } }, async () => app.swagger());

@@ -6,7 +6,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
@@ -90,7 +90,8 @@ export class BatchService {
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
   ) {
-    this.folder = join(dirname(dbPath), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
+    // Absolute, like the output paths the job store keeps, so that the two compare equal.
+    this.folder = join(resolve(dirname(dbPath)), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
     this.jobsPath = jobsDatabasePath(dbPath);
   }
 
