@@ -11,14 +11,14 @@ import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
 import { COORDINATE_FLAGS_COLUMN, jobProgress, jobsDatabasePath, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
-import { groupOf, indexColumns } from '../batch/locality-group.ts';
+import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
 import type { LocateResult } from '../locate.ts';
 import { parseLocality } from '../parse/index.ts';
 import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { RequestError } from './errors.ts';
-import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
+import { lookUp, type LookupResponse, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import { REVIEWED_STATUS, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
+import { REVIEWED_STATUS, type Resolution, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
 
 /** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
 const NOT_CSV: [string, number[]][] = [
@@ -59,7 +59,23 @@ export interface RecordDetail {
   flags: string[];
   review: Review | null;
   answer: LookupResponse;
+  /** What the reviewer's resolution did, in words (e.g. a sign corrected), when one is applied. */
+  resolutionNote?: string;
 }
+
+/** A record georeferenced again for review, with what the resolution applied to it did. */
+interface ResolvedRow {
+  answer: LookupResponse;
+  note?: string;
+}
+
+/** Coordinate-check flags (src/batch/coordinate-check.ts) whose correction the reviewer may accept, and how each corrects. */
+const CORRECTIONS: Record<string, { fix: (lat: string, lon: string) => [string, string]; words: string }> = {
+  'fits-if-latitude-sign-flipped': { fix: (lat, lon) => [flipSign(lat), lon], words: 'the sign of latitude inverted' },
+  'fits-if-longitude-sign-flipped': { fix: (lat, lon) => [lat, flipSign(lon)], words: 'the sign of longitude inverted' },
+  'fits-if-both-signs-flipped': { fix: (lat, lon) => [flipSign(lat), flipSign(lon)], words: 'both signs inverted' },
+  'fits-if-latitude-longitude-exchanged': { fix: (lat, lon) => [lon, lat], words: 'latitude and longitude exchanged' },
+};
 
 interface ParsedOutput {
   header: string[];
@@ -162,23 +178,42 @@ export class BatchService {
     };
   }
 
-  /** One record, georeferenced again for the map (with the reviewer's candidate when given or stored). */
-  record(jobId: string, row: number, candidate?: FeatureKey): RecordDetail {
+  /**
+   * One record, georeferenced again for the map: with the resolution asked for (another candidate, a
+   * corrected locality, the record's own coordinates), else the one stored with its review.
+   */
+  record(jobId: string, row: number, resolution: Resolution = {}): RecordDetail {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
-    const answer = this.lookUpRow(output, fields, candidate ?? review?.candidate);
+    const { answer, note } = this.lookUpRow(output, fields, hasResolution(resolution) ? resolution : (review ?? {}));
     const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
     const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
-    return { row, original, proposed, flags: splitFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
+    return { row, original, proposed, flags: splitFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer, ...(note ? { resolutionNote: note } : {}) };
   }
 
-  /** Stores a decision with who and when. */
-  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, candidate?: FeatureKey): Review {
+  /**
+   * Stores a decision with who and when. Verifying needs a point: an accept of a record that has none
+   * (not found, ambiguous, unreadable) is refused until a resolution gives it one.
+   */
+  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, resolution: Resolution = {}): Review {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
-    if (candidate) this.lookUpRow(output, fields, candidate); // refuses a candidate that is not offered
-    const review: Review = { decision, candidate, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
+    // Georeferencing again refuses a candidate that is not offered and coordinates the record does not have.
+    const resolved = hasResolution(resolution) ? this.lookUpRow(output, fields, resolution) : undefined;
+    if (decision === 'accepted') {
+      const hasPoint = resolved ? resolved.answer.georeference !== undefined : fields[termColumns(output.header).decimalLatitude] !== '';
+      if (!hasPoint) {
+        const status = resolved?.answer.status ?? summaryStatus(output, row);
+        throw new RequestError(
+          409,
+          `row ${row} has no point to verify (${status}${resolved?.answer.reason ? `: ${resolved.answer.reason}` : ''}): ` +
+            "choose a candidate, give a corrected locality, or accept the record's own coordinates, then accept",
+          'decision',
+        );
+      }
+    }
+    const review: Review = { decision, ...resolution, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
     this.reviews.record(jobId, row, review);
     return review;
   }
@@ -198,10 +233,16 @@ export class BatchService {
       const copy = [...fields];
       const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
-      if (review.candidate) {
-        const answer = this.lookUpRow(output, fields, review.candidate);
+      if (hasResolution(review)) {
+        const { answer, note } = this.lookUpRow(output, fields, review);
         const recomputed = darwinCoreFields(answer, { georeferencedBy: review.reviewer, georeferencedDate: review.decidedAt, sources: this.store.sources() });
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
+        if (note) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
+      }
+      if (review.decision === 'accepted' && get('decimalLatitude') === '') {
+        // Kept from a review file written before an accept needed a point: nothing to verify.
+        set('georeferenceRemarks', [get('georeferenceRemarks'), `accepted by ${review.reviewer} on ${review.decidedAt} without a point, so not verified`].filter(Boolean).join('; '));
+        return copy;
       }
       const stamp = `${review.decision === 'accepted' ? 'verified' : 'rejected'} by ${review.reviewer} on ${review.decidedAt}`;
       if (review.decision === 'rejected' && get('decimalLatitude') !== '') {
@@ -264,20 +305,56 @@ export class BatchService {
     return fields;
   }
 
-  private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey): LookupResponse {
+  /** The row georeferenced through the same lookup as the API, with a reviewer's resolution applied. */
+  private lookUpRow(output: ParsedOutput, fields: string[], resolution: Resolution): ResolvedRow {
     const originals = fields.slice(0, output.originalLength);
     const columns = indexColumns(output.header.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
-    const coordinate = (i?: number) => (i === undefined || originals[i]?.trim() === '' ? undefined : Number(originals[i]));
+    const written = (i?: number) => (i === undefined ? '' : (originals[i] ?? '').trim().replace(',', '.'));
+    const coordinate = (i?: number) => (written(i) === '' ? undefined : Number(written(i)));
     const latitude = coordinate(columns.decimalLatitude);
     const longitude = coordinate(columns.decimalLongitude);
     const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
-    return lookUp(this.store, {
+    const notes: string[] = [];
+    if (resolution.locality !== undefined) {
+      request.locality = normaliseText(resolution.locality);
+      notes.push(`locality text corrected by the reviewer to "${request.locality}" (the original column is unchanged)`);
+    }
+    if (resolution.recordCoordinates) {
+      if (!inRange) {
+        throw new RequestError(409, `the record has no coordinates of its own to accept (decimalLatitude "${written(columns.decimalLatitude)}", decimalLongitude "${written(columns.decimalLongitude)}")`, 'recordCoordinates');
+      }
+      const flags = splitFlags(fields[output.header.length - 1]);
+      const correction = flags.map((f) => CORRECTIONS[f]).find(Boolean);
+      const [lat, lon] = correction ? correction.fix(written(columns.decimalLatitude), written(columns.decimalLongitude)) : [written(columns.decimalLatitude), written(columns.decimalLongitude)];
+      // As verbatim coordinates the written decimals keep their precision and the record's datum applies (method §5.3, §5.4).
+      request.verbatimCoordinates = `${lat}, ${lon}`;
+      notes.push(
+        correction
+          ? `point from the record's own coordinates (${written(columns.decimalLatitude)}, ${written(columns.decimalLongitude)}) with ${correction.words}, as the coordinate check found (${lat}, ${lon}), accepted by the reviewer`
+          : `point from the record's own coordinates (${lat}, ${lon}), accepted by the reviewer`,
+      );
+    }
+    const answer = lookUp(this.store, {
       ...request,
       ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
-      options: candidate ? { candidate } : {},
+      options: resolution.candidate && !resolution.recordCoordinates ? { candidate: resolution.candidate } : {},
     }, this.results);
+    return { answer, ...(notes.length ? { note: notes.join('; ') } : {}) };
   }
+}
+
+function hasResolution(r: Resolution): boolean {
+  return r.candidate !== undefined || r.locality !== undefined || r.recordCoordinates === true;
+}
+
+/** "-45.3" ⇄ "45.3", keeping every written digit. */
+function flipSign(value: string): string {
+  return value.startsWith('-') ? value.slice(1) : `-${value.replace(/^\+/, '')}`;
+}
+
+function summaryStatus(output: ParsedOutput, row: number): string {
+  return output.summaries[row - 1]?.status || 'no georeference';
 }
 
 function termColumns(header: string[]): Record<GeoreferenceTerm, number> {

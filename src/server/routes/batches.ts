@@ -3,6 +3,7 @@ import type { FastifyInstance } from 'fastify';
 import type { BatchService, RecordFilter } from '../batches.ts';
 import { RequestError } from '../errors.ts';
 import type { FeatureKey } from '../lookup.ts';
+import type { Resolution } from '../reviews.ts';
 import { errorResponses, errorSchema, featureKeySchema } from '../schemas.ts';
 
 const jobParams = { type: 'object', required: ['jobId'], properties: { jobId: { type: 'string', pattern: '^[A-Za-z0-9_-]{1,64}$' } } } as const;
@@ -13,6 +14,8 @@ const recordParams = {
 } as const;
 const wholeMeters = { type: 'string', pattern: '^[0-9]{1,9}$' } as const;
 const open = { type: 'object', additionalProperties: true } as const;
+const correctedLocality = { type: 'string', minLength: 1, maxLength: 4000, description: "The locality text as the reviewer corrected it, georeferenced instead of the record's (which is kept unchanged)." } as const;
+const recordCoordinatesDescription = "Use the record's own decimalLatitude/decimalLongitude as the point, with a sign or order error corrected when the coordinate check found one.";
 
 /**
  * Batch upload and review: POST /api/v1/batches (multipart, field `file`), GET …/:jobId (progress,
@@ -81,7 +84,7 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
       },
     );
 
-    scope.get<{ Params: { jobId: string; row: string }; Querystring: { candidateSource?: string; candidateFeature?: string } }>(
+    scope.get<{ Params: { jobId: string; row: string }; Querystring: { candidateSource?: string; candidateFeature?: string; locality?: string; recordCoordinates?: 'true' } }>(
       '/api/v1/batches/:jobId/records/:row',
       {
         schema: {
@@ -92,23 +95,34 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
             type: 'object',
             additionalProperties: false,
             dependencies: { candidateSource: ['candidateFeature'], candidateFeature: ['candidateSource'] },
-            properties: { candidateSource: featureKeySchema.properties.sourceId, candidateFeature: featureKeySchema.properties.featureId },
+            properties: {
+              candidateSource: featureKeySchema.properties.sourceId,
+              candidateFeature: featureKeySchema.properties.featureId,
+              locality: correctedLocality,
+              recordCoordinates: { type: 'string', enum: ['true'], description: recordCoordinatesDescription },
+            },
           },
           response: { 200: open, 404: errorSchema, 409: errorSchema },
         },
       },
       async (request) => {
-        const { candidateSource, candidateFeature } = request.query;
-        const candidate = candidateSource && candidateFeature ? { sourceId: candidateSource, featureId: candidateFeature } : undefined;
-        return batches.record(request.params.jobId, Number(request.params.row), candidate);
+        const { candidateSource, candidateFeature, locality, recordCoordinates } = request.query;
+        const resolution: Resolution = {};
+        if (candidateSource && candidateFeature) resolution.candidate = { sourceId: candidateSource, featureId: candidateFeature };
+        if (locality !== undefined) resolution.locality = locality;
+        if (recordCoordinates === 'true') resolution.recordCoordinates = true;
+        return batches.record(request.params.jobId, Number(request.params.row), resolution);
       },
     );
 
-    scope.put<{ Params: { jobId: string; row: string }; Body: { decision: 'accepted' | 'rejected'; reviewer: string; candidate?: FeatureKey } }>(
+    scope.put<{ Params: { jobId: string; row: string }; Body: { decision: 'accepted' | 'rejected'; reviewer: string; candidate?: FeatureKey; locality?: string; recordCoordinates?: boolean } }>(
       '/api/v1/batches/:jobId/records/:row/review',
       {
         schema: {
-          summary: 'Accept or reject a record (optionally with another candidate); stored with who and when',
+          summary: 'Accept or reject a record, with how its point was resolved; stored with who and when',
+          description:
+            'Accepting verifies a point, so a record without one (not found, ambiguous, unreadable) is refused with 409 until the body resolves it: ' +
+            "another candidate, a corrected locality (with a candidate if that is ambiguous), or the record's own coordinates.",
           tags: ['batch'],
           params: recordParams,
           body: {
@@ -119,14 +133,17 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
               decision: { type: 'string', enum: ['accepted', 'rejected'] },
               reviewer: { type: 'string', maxLength: 200 },
               candidate: featureKeySchema,
+              locality: correctedLocality,
+              recordCoordinates: { type: 'boolean', description: recordCoordinatesDescription },
             },
           },
           response: { 200: open, ...errorResponses, 404: errorSchema, 409: errorSchema },
         },
       },
       async (request) => {
-        const { decision, reviewer, candidate } = request.body;
-        return batches.decide(request.params.jobId, Number(request.params.row), decision, reviewer, candidate);
+        const { decision, reviewer, ...resolution } = request.body;
+        if (resolution.recordCoordinates === false) delete resolution.recordCoordinates;
+        return batches.decide(request.params.jobId, Number(request.params.row), decision, reviewer, resolution);
       },
     );
 
