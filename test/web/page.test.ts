@@ -2,13 +2,13 @@
  * The page in a real browser (Debian's chromium through playwright-core), against a real server on
  * 127.0.0.1 over a real SQLite gazetteer. Screenshots of the main screens go to test/artifacts/.
  */
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
+import { openPage, type TestBrowser } from './browser.ts';
 
 const ARTIFACTS = new URL('../artifacts/', import.meta.url).pathname;
 // The README's screenshots, rewritten only on purpose: UPDATE_SCREENSHOTS=1 npx vitest run test/web
@@ -24,38 +24,21 @@ const hostileFeature = (name: string, i: number) => ({
 
 let db: TempDatabase;
 let server: RunningServer;
-let context: BrowserContext;
+let browser: TestBrowser;
 let page: Page;
-let profile: string;
-const cspViolations: string[] = [];
 
 beforeAll(async () => {
   mkdirSync(ARTIFACTS, { recursive: true });
   db = await demoDatabase(HOSTILE_NAMES.map(hostileFeature));
   server = await listen({ dbPath: db.dbPath, rateLimit: false });
-  profile = mkdtempSync(join(tmpdir(), 'whereabouts-chromium-'));
-  context = await chromium.launchPersistentContext(profile, {
-    executablePath: '/usr/bin/chromium',
-    headless: true,
-    acceptDownloads: true,
-    viewport: { width: 1440, height: 900 },
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-  });
-  page = context.pages()[0] ?? (await context.newPage());
-  page.on('console', (message) => {
-    if (/Content Security Policy/i.test(message.text())) cspViolations.push(message.text());
-  });
-  // The page must need nothing but this server: any other request fails the run.
-  await context.route((url) => !url.href.startsWith(server.url), (route) => route.abort());
-  await page.goto(server.url);
-  await page.waitForSelector('body[data-ready="true"]');
+  browser = await openPage(server.url);
+  page = browser.page;
 });
 
 afterAll(async () => {
-  await context?.close();
+  await browser?.close();
   await server?.close();
   db?.remove();
-  if (profile) rmSync(profile, { recursive: true, force: true });
 });
 
 /** A screenshot under test/artifacts/ (git-ignored), and for the README when asked. */
@@ -157,7 +140,7 @@ describe('lookup', () => {
   });
 
   it('meets its own content security policy', () => {
-    expect(cspViolations).toEqual([]);
+    expect(browser.cspViolations).toEqual([]);
   });
 });
 

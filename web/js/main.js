@@ -25,6 +25,7 @@ async function start() {
   startBatch({
     form: $('batch-form'),
     progress: $('batch-progress'),
+    progressLine: $('batch-progress-line'),
     progressText: $('batch-progress-text'),
     review: $('batch-review'),
     list: $('review-list'),
