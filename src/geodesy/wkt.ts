@@ -1,6 +1,11 @@
-/** Polygons written as WKT in EPSG:4326 (lon lat order), split at the antimeridian. */
-import type { Position } from 'geojson';
+/**
+ * Polygons written as WKT in EPSG:4326 (lon lat order), split at the antimeridian, and the footprints
+ * whereabouts writes (POLYGON and MULTIPOLYGON, OGC Simple Features 1.2.1 §7) read back into GeoJSON
+ * geometry (RFC 7946) and summarised for a person.
+ */
+import type { MultiPolygon, Polygon, Position } from 'geojson';
 import { largest, smallest } from './extremes.ts';
+import { polygonAreaSquareMeters } from './geodesic.ts';
 
 /**
  * WKT of polygons whose longitudes may run past ±180 (rings unwrapped around a center): each polygon is
@@ -70,4 +75,58 @@ function clipRingToBand(ring: Position[], west: number, east: number): Position[
     (p, i, all) => { const q = all[(i + all.length - 1) % all.length]!; return p[0] !== q[0] || p[1] !== q[1]; },
   );
   return clipped.length >= 3 ? [...clipped, clipped[0]!] : [];
+}
+
+type Nested = Position | Nested[];
+
+/**
+ * The footprint as GeoJSON geometry, exact (numbers are copied, not recomputed). Undefined for an empty string or a shape other than a polygon or multipolygon.
+ * @example footprintGeometry('POLYGON ((0 0, 1 0, 1 1, 0 0))') // { type: 'Polygon', coordinates: [[[0,0],[1,0],[1,1],[0,0]]] }
+ */
+export function footprintGeometry(wkt: string): Polygon | MultiPolygon | undefined {
+  const match = /^\s*(MULTIPOLYGON|POLYGON)\s*(\(.*\))\s*$/is.exec(wkt);
+  if (!match) return undefined;
+  const coordinates = readNested(match[2]);
+  return match[1].toUpperCase() === 'POLYGON'
+    ? { type: 'Polygon', coordinates: coordinates as Position[][] }
+    : { type: 'MultiPolygon', coordinates: coordinates as Position[][][] };
+}
+
+/** "((1 2, 3 4))" → [[[1,2],[3,4]]]: parentheses nest lists; commas separate positions. */
+function readNested(text: string): Nested[] {
+  const stack: Nested[][] = [[]];
+  for (const token of text.match(/\(|\)|,|[^(),]+/g) ?? []) {
+    if (token === '(') {
+      const list: Nested[] = [];
+      stack[stack.length - 1].push(list);
+      stack.push(list);
+    } else if (token === ')') {
+      stack.pop();
+    } else if (token !== ',' && token.trim()) {
+      stack[stack.length - 1].push(token.trim().split(/\s+/).map(Number));
+    }
+  }
+  return stack[0][0] as Nested[];
+}
+
+/** What a person needs to know of a footprint without reading its coordinates. */
+export interface FootprintSummary {
+  type: 'Polygon' | 'MultiPolygon';
+  /** Polygons in it (1 for a Polygon; more where the antimeridian or a unit's shape cuts it). */
+  parts: number;
+  /** Distinct vertices of every ring (a ring's closing repeat is not counted). */
+  vertices: number;
+  /** Geodesic area on WGS84 (polygonAreaSquareMeters: about 0.1 m² per ring). */
+  areaSquareMeters: number;
+}
+
+/**
+ * Type, parts, vertices and area of a footprint geometry.
+ * @example footprintSummary({ type: 'Polygon', coordinates: [[[0, 0], [1, 0], [1, 1], [0, 0]]] }) // { type: 'Polygon', parts: 1, vertices: 3, areaSquareMeters: ≈ 6.15e9 }
+ */
+export function footprintSummary(geometry: Polygon | MultiPolygon): FootprintSummary {
+  const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
+  const vertices = polygons.flat().reduce((n, ring) => n + Math.max(ring.length - 1, 0), 0);
+  const areaSquareMeters = polygons.reduce((sum, rings) => sum + polygonAreaSquareMeters(rings), 0);
+  return { type: geometry.type, parts: polygons.length, vertices, areaSquareMeters };
 }

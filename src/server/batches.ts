@@ -322,7 +322,8 @@ export class BatchService {
     }
     if (resolution.recordCoordinates) {
       if (!inRange) {
-        throw new RequestError(409, `the record has no coordinates of its own to accept (decimalLatitude "${written(columns.decimalLatitude)}", decimalLongitude "${written(columns.decimalLongitude)}")`, 'recordCoordinates');
+        const what = latitude === undefined || longitude === undefined || Number.isNaN(latitude) || Number.isNaN(longitude) ? 'has no coordinates of its own to accept' : 'has coordinates beyond ±90° latitude or ±180° longitude';
+        throw new RequestError(409, `the record ${what} (decimalLatitude "${written(columns.decimalLatitude)}", decimalLongitude "${written(columns.decimalLongitude)}"): choose a candidate or give a corrected locality`, 'recordCoordinates');
       }
       const flags = splitFlags(fields[output.header.length - 1]);
       const correction = flags.map((f) => CORRECTIONS[f]).find(Boolean);

@@ -6,6 +6,7 @@
 import type { MultiPolygon, Polygon } from 'geojson';
 import type { Candidate, CandidateFinder, Feature, Source } from '../gazetteer/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
+import { footprintGeometry, footprintSummary, type FootprintSummary } from '../geodesy/wkt.ts';
 import { georeference } from '../georef/georeference.ts';
 import { locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
 import type { Interpretation, Offset } from '../parse/types.ts';
@@ -13,7 +14,6 @@ import { darwinCoreFields, type GeoreferenceTerm } from '../record/darwin-core.t
 import { VERSION } from '../version.ts';
 import { RequestError } from './errors.ts';
 import type { ResultCache } from './result-cache.ts';
-import { footprintGeometry } from './wkt.ts';
 
 /** What the server needs of a gazetteer store (src/gazetteer/store.ts implements it). */
 export interface ServedGazetteer extends CandidateFinder {
@@ -49,6 +49,8 @@ export interface LookupRequest extends Omit<LocateRequest, 'options'> {
 export interface LookupResponse extends LocateResult {
   darwinCore: Record<GeoreferenceTerm, string>;
   footprint?: Polygon | MultiPolygon;
+  /** Type, vertex count and area of the footprint, to show instead of its coordinates. */
+  footprintSummary?: FootprintSummary;
   /** How far the record's own coordinates lie from the proposed point. */
   recordPoint?: { latitude: number; longitude: number; distanceMeters: number; withinUncertainty: boolean };
 }
@@ -76,6 +78,7 @@ export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: R
   const g = result.georeference;
   const response: LookupResponse = { ...result, candidates: result.candidates.map(withoutGeometry), darwinCore };
   if (g) response.footprint = footprintGeometry(g.footprintWKT);
+  if (response.footprint) response.footprintSummary = footprintSummary(response.footprint);
   if (g && decimalLatitude !== undefined && decimalLongitude !== undefined) {
     const distanceMeters = inverse(g.latitude, g.longitude, decimalLatitude, decimalLongitude).meters;
     response.recordPoint = { latitude: decimalLatitude, longitude: decimalLongitude, distanceMeters, withinUncertainty: distanceMeters <= g.uncertaintyMeters };

@@ -67,6 +67,17 @@ export const lookupResponseSchema = {
     reason: { type: 'string', description: 'Why no georeference was made.' },
     darwinCore: openObject('The Darwin Core georeference terms for this result, as strings.'),
     footprint: openObject('The footprint as GeoJSON geometry.'),
+    footprintSummary: {
+      type: 'object',
+      required: ['type', 'parts', 'vertices', 'areaSquareMeters'],
+      description: 'The footprint in brief: its type, polygons, distinct vertices and geodesic area on WGS84.',
+      properties: {
+        type: { type: 'string', enum: ['Polygon', 'MultiPolygon'] },
+        parts: { type: 'integer', minimum: 1 },
+        vertices: { type: 'integer', minimum: 0 },
+        areaSquareMeters: { type: 'number', minimum: 0 },
+      },
+    },
     recordPoint: openObject("The record's own coordinates and their distance from the proposed point."),
   },
 } as const;
