@@ -20,6 +20,7 @@ import { ResultCache } from './result-cache.ts';
 import { BatchService } from './batches.ts';
 import { openReviews, reviewsDatabasePath } from './reviews.ts';
 import { registerBatchRoutes } from './routes/batches.ts';
+import { registerDatumsRoute } from './routes/datums.ts';
 import { registerFeatureRoute } from './routes/features.ts';
 import { registerGeoreferenceRoute } from './routes/georeference.ts';
 import { registerLayersRoute } from './routes/layers.ts';
@@ -129,6 +130,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
 
   registerGeoreferenceRoute(app, store, results);
   registerFeatureRoute(app, store);
+  registerDatumsRoute(app);
   registerLayersRoute(app, shapedFeatureLister(dbPath, store));
   await registerBatchRoutes(app, batches, options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit);
   if (options.token) registerLoginRoute(app, options.token);

@@ -139,12 +139,76 @@ describe('lookup', () => {
     expect(unlabelled).toEqual([]);
   });
 
+  it('says what turns the budget total into the reported radius, in one number format', async () => {
+    await lookUp('10 km NE of Vila Serena');
+    const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Vila Serena', countryCode: 'QV' })).json;
+    const total = Number(await page.textContent('#budget-total'));
+    const rounding = Number((await page.textContent('#budget-rounding'))!.replace('+', ''));
+    expect(total).toBeCloseTo(api.georeference.uncertaintyMeters, 1);
+    expect(await page.textContent('#reported-radius')).toBe(api.darwinCore.coordinateUncertaintyInMeters);
+    expect(total + rounding).toBeCloseTo(Number(api.darwinCore.coordinateUncertaintyInMeters), 1);
+    expect(await page.textContent('#budget-table tr.rounding th')).toContain('Rounding of the coordinates to 0.0001° adds the distance it moves the point');
+    // One format for meters everywhere: no thousands separators beside the reported value.
+    expect(await page.innerText('#lookup-result')).not.toMatch(/\d,\d{3}\b/);
+  });
+
+  it('shows the footprint as type, vertices and area, its WKT behind copy and download', async () => {
+    const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Vila Serena', countryCode: 'QV' })).json;
+    const km2 = (api.footprintSummary.areaSquareMeters / 1e6).toFixed(1);
+    expect(await page.textContent('#footprint-summary')).toBe(`Polygon, ${api.footprintSummary.vertices} vertices, ${km2} km²`);
+    expect(await page.innerText('#lookup-result')).not.toMatch(/POLYGON/);
+    const [wkt] = await Promise.all([page.waitForEvent('download'), page.click('#download-wkt')]);
+    expect(readFileSync((await wkt.path())!, 'utf8')).toBe(`${api.darwinCore.footprintWKT}\n`);
+  });
+
+  it("offers every datum the service knows, each name shown whole", async () => {
+    const { datums } = await (await fetch(`${server.url}/api/v1/datums`)).json();
+    const options = await page.locator('#e-datum option').allTextContents();
+    expect(options.slice(1)).toEqual(datums.map((d: { name: string; epsg: string }) => `${d.name} (${d.epsg})`));
+    await page.selectOption('#e-datum', 'EPSG:4225');
+    await page.waitForFunction(() => (document.querySelector('#e-datum') as HTMLSelectElement | null)?.value === 'EPSG:4225');
+    const cut = await page.evaluate(() => {
+      const select = document.querySelector('#e-datum') as HTMLSelectElement;
+      const probe = document.createElement('span');
+      probe.style.font = getComputedStyle(select).font;
+      probe.textContent = select.selectedOptions[0].textContent;
+      document.body.append(probe);
+      const wider = probe.getBoundingClientRect().width > select.clientWidth;
+      probe.remove();
+      return wider;
+    });
+    expect(cut).toBe(false);
+  });
+
+  it('labels the other candidates on the map with the name and number of the list', async () => {
+    await lookUp('Santa Rosa');
+    await page.click('label[for="cand-0"]');
+    await page.waitForFunction(() => document.querySelector('#lookup-map .wa-label-used')?.textContent?.includes('Santa Rosa'));
+    const listed = await page.locator('#lookup-result .cand-name').allTextContents();
+    const onMap = await page.locator('#lookup-map .wa-label-candidate').allTextContents();
+    expect(listed.length).toBeGreaterThan(1);
+    expect(onMap).toEqual(listed.slice(1));
+    expect(onMap[0]).toBe('2 Santa Rosa');
+    expect(await page.textContent('#lookup-map .wa-label-used')).toBe(`${listed[0]} (used)`);
+    expect(await page.locator('#lookup-map .wa-place').count()).toBeGreaterThan(0);
+  });
+
   it('meets its own content security policy', () => {
     expect(browser.cspViolations).toEqual([]);
   });
 });
 
 describe('batch review', () => {
+  it('shows a failed upload as a failure, in words and style, not as a full bar', async () => {
+    await page.click('#tab-batch');
+    await page.setInputFiles('#b-file', { name: 'records.csv', mimeType: 'text/csv', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a]) });
+    await page.click('#batch-submit');
+    await page.waitForSelector('#batch-progress-line[data-state="failed"]');
+    expect(await page.textContent('#batch-progress-text')).toMatch(/^Upload failed: the uploaded file is a PNG image, not CSV text/);
+    expect(await page.isVisible('#batch-progress')).toBe(false);
+    await shot('batch-upload-failed');
+  });
+
   it('uploads the demo file, completes, accepts a record by keyboard and downloads it with the new status', async () => {
     await page.click('#tab-batch');
     await page.fill('#b-reviewer', 'R. Viewer');
@@ -181,5 +245,35 @@ describe('batch review', () => {
     const reviewed = rows[Number(row) - 1];
     expect(reviewed.georeferenceVerificationStatus).toBe('verified by data custodian');
     expect(reviewed.georeferenceRemarks).toMatch(/verified by R\. Viewer/);
+  });
+});
+
+describe('on a phone', () => {
+  it('never breaks a number across lines at 375 px', async () => {
+    const phone = await openPage(server.url, { width: 375, height: 800 });
+    try {
+      await phone.page.fill('#f-locality', '10 km NE of Vila Serena');
+      await phone.page.fill('#f-countryCode', 'QV');
+      await phone.page.click('#lookup-submit');
+      await phone.page.waitForSelector('#result-radius');
+      await phone.page.screenshot({ path: join(ARTIFACTS, 'lookup-phone.png'), fullPage: true });
+      const broken = await phone.page.evaluate(() => {
+        const found: string[] = [];
+        const walker = document.createTreeWalker(document.querySelector('#lookup-result')!, NodeFilter.SHOW_TEXT);
+        for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+          for (const match of (node.textContent ?? '').matchAll(/(?<![\p{L}\d._-])[-+]?\d[\d.,]*\d/gu)) {
+            const range = document.createRange();
+            range.setStart(node, match.index!);
+            range.setEnd(node, match.index! + match[0].length);
+            const tops = new Set([...range.getClientRects()].map((r) => Math.round(r.top)));
+            if (tops.size > 1) found.push(match[0]);
+          }
+        }
+        return found;
+      });
+      expect(broken).toEqual([]);
+    } finally {
+      await phone.close();
+    }
   });
 });
