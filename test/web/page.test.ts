@@ -258,10 +258,11 @@ describe('on a phone', () => {
       await phone.page.waitForSelector('#result-radius');
       await phone.page.screenshot({ path: join(ARTIFACTS, 'lookup-phone.png'), fullPage: true });
       const broken = await phone.page.evaluate(() => {
+        // Numbers as values, not digits inside identifiers (a DOI, a feature id), which may break like words.
         const found: string[] = [];
         const walker = document.createTreeWalker(document.querySelector('#lookup-result')!, NodeFilter.SHOW_TEXT);
         for (let node = walker.nextNode(); node; node = walker.nextNode()) {
-          for (const match of (node.textContent ?? '').matchAll(/(?<![\p{L}\d._-])[-+]?\d[\d.,]*\d/gu)) {
+          for (const match of (node.textContent ?? '').matchAll(/(?<![\p{L}\d._/:-])[-+]?\d[\d.,]*\d/gu)) {
             const range = document.createRange();
             range.setStart(node, match.index!);
             range.setEnd(node, match.index! + match[0].length);

@@ -155,12 +155,16 @@ export function startBatch({ form, progress, progressLine, progressText, review,
           el('button', { type: 'button', id: 'use-record-coordinates', onclick: () => resolveWith({ recordCoordinates: true }) }, `Use the record's own coordinates (${lat}, ${lon})`),
           correction ? el('span', { class: 'hint' }, `corrected as the coordinate check found: ${correction}`) : undefined)
       : el('p', { class: 'hint' }, 'The record has no coordinates of its own.');
-    return el('section', { class: `card resolve${a.georeference ? '' : ' needed'}`, 'aria-labelledby': 'h-resolve' },
-      el('h2', { id: 'h-resolve' }, a.georeference ? 'Correct the point' : 'Give this record a point before accepting it'),
+    const parts = [
       el('p', { class: 'hint' }, a.candidates.length ? 'Choose a candidate below, correct the locality text, or use the record\'s own coordinates.' : 'Correct the locality text, or use the record\'s own coordinates.'),
       correct, own,
       detail.resolutionNote ? el('p', { class: 'resolution-note', id: 'resolution-note' }, detail.resolutionNote) : undefined,
-      Object.keys(resolution).length ? el('button', { type: 'button', id: 'resolve-reset', onclick: () => resolveWith({}) }, "Back to the batch's proposal") : undefined);
+      Object.keys(resolution).length ? el('button', { type: 'button', id: 'resolve-reset', onclick: () => resolveWith({}) }, "Back to the batch's proposal") : undefined,
+    ];
+    if (!a.georeference) return el('section', { class: 'card resolve needed', 'aria-labelledby': 'h-resolve' }, el('h2', { id: 'h-resolve' }, 'Give this record a point before accepting it'), parts);
+    // With a point already, the corrections stay folded unless one is in use or the coordinate check suggests one.
+    const open = Object.keys(resolution).length > 0 || Boolean(correction);
+    return el('details', { class: 'card resolve', open }, el('summary', { id: 'h-resolve' }, 'Correct the point'), parts);
   }
 
   function resolveWith(next) {
