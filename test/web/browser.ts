@@ -43,3 +43,12 @@ export async function openPage(serverUrl: string, viewport = { width: 1440, heig
     },
   };
 }
+
+/** Uploads a file in the batch view as a reviewer would, and waits until its review list opens. */
+export async function uploadBatch(page: Page, file: string, reviewer: string): Promise<void> {
+  await page.click('#tab-batch');
+  await page.fill('#b-reviewer', reviewer);
+  await page.setInputFiles('#b-file', file);
+  await page.click('#batch-submit');
+  await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
+}

@@ -12,7 +12,7 @@ import { parse } from 'csv-parse/sync';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_LOCALITIES, spawnServe } from '../server/helpers.ts';
-import { openPage, type TestBrowser } from './browser.ts';
+import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
 
 const PACKAGE = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { scripts: Record<string, string> };
 
@@ -51,11 +51,7 @@ describe('npm start, then a batch review', () => {
   });
 
   it('uploads the demo file and opens the review (no "not started by this service")', async () => {
-    await page.click('#tab-batch');
-    await page.fill('#b-reviewer', 'R. Viewer');
-    await page.setInputFiles('#b-file', DEMO_LOCALITIES);
-    await page.click('#batch-submit');
-    await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
+    await uploadBatch(page, DEMO_LOCALITIES, 'R. Viewer');
     expect(await page.textContent('#batch-progress-text')).toMatch(/done: 53 rows/);
     expect(await page.getAttribute('#batch-progress-line', 'data-state')).toBe('done');
     await page.waitForSelector('#review-list tbody tr');

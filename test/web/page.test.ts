@@ -8,7 +8,7 @@ import { parse } from 'csv-parse/sync';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
-import { openPage, type TestBrowser } from './browser.ts';
+import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
 
 const ARTIFACTS = new URL('../artifacts/', import.meta.url).pathname;
 // The README's screenshots, rewritten only on purpose: UPDATE_SCREENSHOTS=1 npx vitest run test/web
@@ -210,11 +210,7 @@ describe('batch review', () => {
   });
 
   it('uploads the demo file, completes, accepts a record by keyboard and downloads it with the new status', async () => {
-    await page.click('#tab-batch');
-    await page.fill('#b-reviewer', 'R. Viewer');
-    await page.setInputFiles('#b-file', DEMO_LOCALITIES);
-    await page.click('#batch-submit');
-    await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
+    await uploadBatch(page, DEMO_LOCALITIES, 'R. Viewer');
     expect(await page.textContent('#batch-progress-text')).toMatch(/done: 53 rows/);
     await shot('batch-progress');
     await page.selectOption('#r-status', 'requires verification');
