@@ -268,6 +268,16 @@ describe('accepting needs a point', () => {
     expect(row.decimalLatitude).toBe(proposed.latitude.replace(/^-/, ''));
   });
 
+  it('checks the resolution fields like every other field', async () => {
+    const empty = await review(3, { locality: '' });
+    expect(empty.status).toBe(400);
+    expect(empty.body.field).toBe('locality');
+    const notBoolean = await review(3, { recordCoordinates: 'yes' });
+    expect(notBoolean.status).toBe(400);
+    expect(notBoolean.body.field).toBe('recordCoordinates');
+    expect((await json(`/api/v1/batches/${jobId}/records/3?recordCoordinates=1`)).status).toBe(400);
+  });
+
   it('accepts a record that already has a point without any resolution', async () => {
     expect((await review(1, {})).status).toBe(200);
     expect((await reviewed())[0].georeferenceVerificationStatus).toBe('verified by data custodian');
