@@ -3,7 +3,7 @@ import type { FastifyInstance } from 'fastify';
 import type { BatchService, RecordFilter } from '../batches.ts';
 import { RequestError } from '../errors.ts';
 import type { FeatureKey } from '../lookup.ts';
-import type { Resolution } from '../reviews.ts';
+import type { Resolution } from '../../store/reviews.ts';
 import { errorResponses, errorSchema, featureKeySchema } from '../schemas.ts';
 
 const jobParams = { type: 'object', required: ['jobId'], properties: { jobId: { type: 'string', pattern: '^[A-Za-z0-9_-]{1,64}$' } } } as const;
