@@ -123,6 +123,12 @@ describe('npm start, then a batch review', () => {
     await page.waitForSelector('#review-list tbody tr.accepted[data-row="36"]');
   });
 
+  it('does not offer coordinates the check found unusable (latitude beyond ±90°)', async () => {
+    await openRow(37); // Rio Fundo, town square: ambiguous, its coordinates written in the wrong order and out of range
+    expect(await page.locator('#use-record-coordinates').count()).toBe(0);
+    expect(await page.textContent('#own-coordinates-unusable')).toContain('the coordinate check says beyond-valid-range');
+  });
+
   it('downloads the reviewed file with every decision and how each point was given', async () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.click('#batch-download')]);
     const rows = parse(readFileSync((await download.path())!), { columns: true }) as Record<string, string>[];

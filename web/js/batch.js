@@ -150,7 +150,10 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     } },
       el('label', { for: 'resolve-locality' }, 'Corrected locality text'),
       el('div', { class: 'inline' }, text, el('button', { type: 'submit', id: 'resolve-locality-submit' }, 'Georeference this text')));
-    const own = hasOwn
+    const unusable = detail.flags.find((f) => UNUSABLE_OWN_COORDINATES.has(f));
+    const own = hasOwn && unusable
+      ? el('p', { class: 'hint', id: 'own-coordinates-unusable' }, `The record's own coordinates (${lat}, ${lon}) cannot serve as the point: the coordinate check says ${unusable}.`)
+      : hasOwn
       ? el('div', { class: 'inline' },
           el('button', { type: 'button', id: 'use-record-coordinates', onclick: () => resolveWith({ recordCoordinates: true }) }, `Use the record's own coordinates (${lat}, ${lon})`),
           correction ? el('span', { class: 'hint' }, `corrected as the coordinate check found: ${correction}`) : undefined)
@@ -234,6 +237,9 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     }
   });
 }
+
+/** Coordinate-check flags under which a record's own coordinates are no point to verify (src/batch/coordinate-check.ts). */
+const UNUSABLE_OWN_COORDINATES = new Set(['beyond-valid-range', 'not-a-decimal-number', 'one-side-empty', 'both-zero']);
 
 const NOT_TYPED = new Set(['button', 'checkbox', 'radio', 'submit', 'reset', 'file', 'range', 'color', 'image']);
 
