@@ -8,16 +8,18 @@ import { spawnSync } from 'node:child_process';
 import { accessSync, constants } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 
-/** A Debian package the tests need, and the file whose presence shows it is installed. */
+/** A Debian package the tests need, and the programs whose presence shows it is installed. */
 export interface SystemPackage {
   name: string;
-  provides: string;
+  provides: readonly string[];
   neededBy: string;
 }
 
 /** The one list of system packages the tests need; add gdal-bin, r-base-core, slurm here when a test drives them. */
 export const SYSTEM_PACKAGES: readonly SystemPackage[] = [
-  { name: 'chromium', provides: '/usr/bin/chromium', neededBy: 'the page tests (test/web, through playwright-core)' },
+  { name: 'chromium', provides: ['/usr/bin/chromium'], neededBy: 'the page tests (test/web, through playwright-core)' },
+  { name: 'slurm-wlm', provides: ['/usr/sbin/slurmctld', '/usr/sbin/slurmd'], neededBy: 'the single-node cluster of the split-batch test (test/cluster)' },
+  { name: 'munge', provides: ['/usr/sbin/munged'], neededBy: "Slurm's authentication in the split-batch test (test/cluster)" },
 ];
 
 export type SystemPackagePlan =
@@ -34,14 +36,14 @@ export function planSystemPackages(missing: readonly SystemPackage[], host: { is
   if (missing.length === 0) return { action: 'none' };
   const packages = missing.map((p) => p.name);
   if (host.isRoot && host.hasAptGet) return { action: 'install', packages };
-  const why = missing.map((p) => `${p.name} (${p.provides}, for ${p.neededBy})`).join('; ');
+  const why = missing.map((p) => `${p.name} (${p.provides.join(', ')}, for ${p.neededBy})`).join('; ');
   const command = host.hasAptGet ? `sudo apt-get install -y ${packages.join(' ')}` : `install the Debian packages ${packages.join(' ')} with this system's package manager`;
   return { action: 'fail', packages, message: `npm test needs system packages that are missing: ${why}. Run: ${command}, then npm test again.` };
 }
 
 function isInstalled(p: SystemPackage): boolean {
   try {
-    accessSync(p.provides, constants.X_OK);
+    for (const program of p.provides) accessSync(program, constants.X_OK);
     return true;
   } catch {
     return false;
@@ -71,7 +73,7 @@ export function ensureSystemPackages(packages: readonly SystemPackage[] = SYSTEM
   }
   const still = packages.filter((p) => !isInstalled(p));
   if (still.length) {
-    process.stderr.write(`apt-get finished but ${still.map((p) => p.provides).join(', ')} is still missing.\n`);
+    process.stderr.write(`apt-get finished but ${still.map((p) => p.provides.join(', ')).join(', ')} is still missing.\n`);
     return 1;
   }
   return 0;

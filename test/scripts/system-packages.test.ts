@@ -6,8 +6,8 @@ import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { planSystemPackages, SYSTEM_PACKAGES, type SystemPackage } from '../../scripts/system-packages.ts';
 
-const chromium: SystemPackage = { name: 'chromium', provides: '/usr/bin/chromium', neededBy: 'the page tests' };
-const gdal: SystemPackage = { name: 'gdal-bin', provides: '/usr/bin/gdalinfo', neededBy: 'the GeoPackage tests' };
+const chromium: SystemPackage = { name: 'chromium', provides: ['/usr/bin/chromium'], neededBy: 'the page tests' };
+const gdal: SystemPackage = { name: 'gdal-bin', provides: ['/usr/bin/gdalinfo'], neededBy: 'the GeoPackage tests' };
 
 describe('planSystemPackages', () => {
   it('does nothing when every package is present', () => {
@@ -33,8 +33,8 @@ describe('planSystemPackages', () => {
 });
 
 describe('the pretest script on this machine', () => {
-  it('lists chromium for the page tests', () => {
-    expect(SYSTEM_PACKAGES.map((p) => p.name)).toContain('chromium');
+  it('lists chromium for the page tests, and Slurm with munge for the cluster test', () => {
+    expect(SYSTEM_PACKAGES.map((p) => p.name)).toEqual(expect.arrayContaining(['chromium', 'slurm-wlm', 'munge']));
   });
 
   it('runs as npm runs it and finds (or installs) what the tests need', () => {
