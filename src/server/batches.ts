@@ -8,24 +8,19 @@ import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
 import { dirname, isAbsolute, join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { stringify } from 'csv-stringify/sync';
-import { FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
-import { COORDINATE_FLAGS_COLUMN, jobProgress, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
-import type { LocateResult } from '../locate.ts';
-import { parseLocality } from '../parse/index.ts';
-import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import type { LocateResult } from '../locate/locate.ts';
+import { COORDINATE_FLAGS_COLUMN, csvDocument, readFlags } from '../output/csv.ts';
+import { answerBody, type AnswerBody } from '../output/json.ts';
+import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { RequestError } from './errors.ts';
-import { lookUp, type LookupResponse, type ServedGazetteer } from './lookup.ts';
+import type { RecordAnswer } from '../locate/georeference-record.ts';
+import { lookUp, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
 import type { Resolution, Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
-
-/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
-const REVIEWED_STATUS: Record<ReviewDecision, string> = {
-  accepted: 'verified by data custodian',
-  rejected: 'requires georeference',
-};
 
 /** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
 const NOT_CSV: [string, number[]][] = [
@@ -65,14 +60,14 @@ export interface RecordDetail {
   proposed: Record<string, string>;
   flags: string[];
   review: Review | null;
-  answer: LookupResponse;
+  answer: AnswerBody;
   /** What the reviewer's resolution did, in words (e.g. a sign corrected), when one is applied. */
   resolutionNote?: string;
 }
 
 /** A record georeferenced again for review, with what the resolution applied to it did. */
 interface ResolvedRow {
-  answer: LookupResponse;
+  answer: RecordAnswer;
   note?: string;
 }
 
@@ -197,7 +192,7 @@ export class BatchService {
     const { answer, note } = this.lookUpRow(output, fields, hasResolution(resolution) ? resolution : (review ?? {}));
     const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
     const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
-    return { row, original, proposed, flags: splitFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer, ...(note ? { resolutionNote: note } : {}) };
+    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer: answerBody(answer), ...(note ? { resolutionNote: note } : {}) };
   }
 
   /**
@@ -210,12 +205,13 @@ export class BatchService {
     // Georeferencing again refuses a candidate that is not offered and coordinates the record does not have.
     const resolved = hasResolution(resolution) ? this.lookUpRow(output, fields, resolution) : undefined;
     if (decision === 'accepted') {
-      const hasPoint = resolved ? resolved.answer.georeference !== undefined : fields[termColumns(output.header).decimalLatitude] !== '';
+      const hasPoint = resolved ? resolved.answer.result.georeference !== undefined : fields[termColumns(output.header).decimalLatitude] !== '';
       if (!hasPoint) {
-        const status = resolved?.answer.status ?? summaryStatus(output, row);
+        const status = resolved?.answer.result.status ?? summaryStatus(output, row);
+        const reason = resolved?.answer.result.reason;
         throw new RequestError(
           409,
-          `row ${row} has no point to verify (${status}${resolved?.answer.reason ? `: ${resolved.answer.reason}` : ''}): ` +
+          `row ${row} has no point to verify (${status}${reason ? `: ${reason}` : ''}): ` +
             "choose a candidate, give a corrected locality, or accept the record's own coordinates, then accept",
           'decision',
         );
@@ -242,8 +238,8 @@ export class BatchService {
       const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
       if (hasResolution(review)) {
-        const { answer, note } = this.lookUpRow(output, fields, review);
-        const recomputed = darwinCoreFields(answer, { georeferencedBy: review.reviewer, georeferencedDate: review.decidedAt, sources: this.store.sources() });
+        const { answer, note } = this.lookUpRow(output, fields, review, review);
+        const recomputed = answer.darwinCore;
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
         if (note) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
       }
@@ -262,7 +258,7 @@ export class BatchService {
       set('georeferenceRemarks', [get('georeferenceRemarks'), stamp].filter(Boolean).join('; '));
       return copy;
     });
-    return stringify([output.header, ...rows]);
+    return csvDocument([output.header, ...rows]);
   }
 
   /**
@@ -289,16 +285,18 @@ export class BatchService {
     const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
     const column = termColumns(header);
     const columns = indexColumns(header.slice(0, originalLength));
+    // The locality type as the batch read it, from its stored results: the text is not parsed again.
+    const localityTypes = storedLocalityTypes(this.jobsPath, jobId);
     const summaries = rows.map((fields, i): RecordSummary => {
-      const locality = groupOf(fields.slice(0, originalLength), columns).request.locality;
+      const group = groupOf(fields.slice(0, originalLength), columns);
       const radius = fields[column.coordinateUncertaintyInMeters];
       return {
         row: i + 1,
-        locality,
+        locality: group.request.locality,
         status: fields[column.georeferenceVerificationStatus] ?? '',
-        localityType: parseLocality(locality).type,
+        localityType: localityTypes.get(group.key) ?? '',
         radiusMeters: radius ? Number(radius) : null,
-        flags: splitFlags(fields[header.length - 1]),
+        flags: readFlags(fields[header.length - 1]),
         review: null,
       };
     });
@@ -313,8 +311,11 @@ export class BatchService {
     return fields;
   }
 
-  /** The row georeferenced through the same lookup as the API, with a reviewer's resolution applied. */
-  private lookUpRow(output: ParsedOutput, fields: string[], resolution: Resolution): ResolvedRow {
+  /**
+   * The row through the front door again, as the API answers it, with a reviewer's resolution applied,
+   * and, for the reviewed file, the reviewer as georeferencedBy.
+   */
+  private lookUpRow(output: ParsedOutput, fields: string[], resolution: Resolution, review?: Review): ResolvedRow {
     const originals = fields.slice(0, output.originalLength);
     const columns = indexColumns(output.header.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
@@ -333,7 +334,7 @@ export class BatchService {
         const what = latitude === undefined || longitude === undefined || Number.isNaN(latitude) || Number.isNaN(longitude) ? 'has no coordinates of its own to accept' : 'has coordinates beyond ±90° latitude or ±180° longitude';
         throw new RequestError(409, `the record ${what} (decimalLatitude "${written(columns.decimalLatitude)}", decimalLongitude "${written(columns.decimalLongitude)}"): choose a candidate or give a corrected locality`, 'recordCoordinates');
       }
-      const flags = splitFlags(fields[output.header.length - 1]);
+      const flags = readFlags(fields[output.header.length - 1]);
       const correction = flags.map((f) => CORRECTIONS[f]).find(Boolean);
       const [lat, lon] = correction ? correction.fix(written(columns.decimalLatitude), written(columns.decimalLongitude)) : [written(columns.decimalLatitude), written(columns.decimalLongitude)];
       // As verbatim coordinates the written decimals keep their precision and the record's datum applies (method §5.3, §5.4).
@@ -344,11 +345,17 @@ export class BatchService {
           : `point from the record's own coordinates (${lat}, ${lon}), accepted by the reviewer`,
       );
     }
-    const answer = lookUp(this.store, {
-      ...request,
-      ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
-      options: resolution.candidate && !resolution.recordCoordinates ? { candidate: resolution.candidate } : {},
-    }, this.results);
+    const answer = lookUp(
+      this.store,
+      {
+        ...request,
+        ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
+        ...(review ? { georeferencedBy: review.reviewer } : {}),
+        options: resolution.candidate && !resolution.recordCoordinates ? { candidate: resolution.candidate } : {},
+      },
+      this.results,
+      review ? new Date(review.decidedAt) : undefined,
+    );
     return { answer, ...(notes.length ? { note: notes.join('; ') } : {}) };
   }
 }
@@ -369,10 +376,6 @@ function summaryStatus(output: ParsedOutput, row: number): string {
 function termColumns(header: string[]): Record<GeoreferenceTerm, number> {
   const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
   return Object.fromEntries(GEOREFERENCE_TERMS.map((term, i) => [term, originalLength + i])) as Record<GeoreferenceTerm, number>;
-}
-
-function splitFlags(text: string | undefined): string[] {
-  return text ? text.split(FLAG_SEPARATOR).map((f) => f.trim()).filter(Boolean) : [];
 }
 
 function reviewedStatus(status: string, review: Review | undefined): string {

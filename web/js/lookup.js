@@ -1,7 +1,7 @@
 // The lookup view: the form, then how the text was read, the candidates, the edits, the uncertainty
 // budget and the Darwin Core fields. Every edit calls the same API again with `options`.
-import { georeference } from './api.js';
-import { copyText, csvLine, definitionTable, download, el, fill, meters } from './dom.js';
+import { georeference, georeferenceFile } from './api.js';
+import { copyText, definitionTable, download, el, fill, meters } from './dom.js';
 
 const COMPONENT_LABELS = {
   extent: 'Extent of the feature',
@@ -143,7 +143,7 @@ function footprintCell(answer, copyStatus) {
     el('button', { type: 'button', class: 'small', id: 'download-wkt', onclick: () => download('footprint.wkt', 'text/plain', `${wkt}\n`) }, 'Download WKT'));
 }
 
-/** The Darwin Core fields, ready to copy, and as a CSV row or a GeoJSON feature to download. */
+/** The Darwin Core fields, ready to copy, and as a CSV row or a GeoJSON feature to download (written by the server). */
 export function darwinCoreSection(answer, request) {
   const entries = Object.entries(answer.darwinCore);
   const asText = entries.map(([k, v]) => `${k}\t${v}`).join('\n');
@@ -151,8 +151,8 @@ export function darwinCoreSection(answer, request) {
   const shown = entries.map(([k, v]) => [k, k === 'footprintWKT' ? footprintCell(answer, copyStatus) : v]);
   const copyArea = el('textarea', { id: 'dwc-text', readonly: true, rows: 4, class: 'copy-area', 'aria-label': 'Darwin Core fields, tab-separated, ready to copy' }, asText);
   const copy = () => copyText(asText, copyStatus, copyArea);
-  const csv = () => download('georeference.csv', 'text/csv', `${csvLine(['locality', ...entries.map(([k]) => k)])}\r\n${csvLine([request.locality, ...entries.map(([, v]) => v)])}\r\n`);
-  const geojson = () => download('georeference.geojson', 'application/geo+json', JSON.stringify(geoJsonOf(answer, request), null, 2));
+  const csv = async () => download('georeference.csv', 'text/csv', await georeferenceFile(request, 'csv'));
+  const geojson = async () => download('georeference.geojson', 'application/geo+json', await georeferenceFile(request, 'geojson'));
   const georeferenced = answer.status === 'georeferenced';
   return el(
     'section',
@@ -165,14 +165,6 @@ export function darwinCoreSection(answer, request) {
       el('button', { type: 'button', id: 'download-csv', onclick: csv }, 'Download CSV row'),
       el('button', { type: 'button', id: 'download-geojson', onclick: geojson, disabled: !georeferenced }, 'Download GeoJSON')),
   );
-}
-
-function geoJsonOf(answer, request) {
-  const g = answer.georeference;
-  const properties = { locality: request.locality, ...answer.darwinCore };
-  const features = [{ type: 'Feature', geometry: { type: 'Point', coordinates: [Number(answer.darwinCore.decimalLongitude), Number(answer.darwinCore.decimalLatitude)] }, properties }];
-  if (g && answer.footprint) features.push({ type: 'Feature', geometry: answer.footprint, properties: { role: 'footprint', footprintSRS: 'EPSG:4326' } });
-  return { type: 'FeatureCollection', features };
 }
 
 /** Distance precision, map scale and datum: each change recomputes through the API. */
@@ -255,7 +247,7 @@ export function startLookup({ form, output, map, datums }) {
         run();
       }),
       answer.components ? budgetSection(answer) : undefined,
-      darwinCoreSection(answer, request),
+      darwinCoreSection(answer, { ...request, options }),
     );
   }
 

@@ -1,4 +1,4 @@
-import type { FastifyInstance } from 'fastify';
+import type { FastifyPluginAsync } from 'fastify';
 import { DATUMS } from '../../geodesy/datums.ts';
 
 const datumSchema = {
@@ -18,7 +18,7 @@ const datumSchema = {
  * GET /api/v1/datums: every datum the service converts to WGS 84, so that the page (or any client)
  * offers exactly the list the method knows, in the service's order.
  */
-export function registerDatumsRoute(app: FastifyInstance): void {
+export const datumsRoutes: FastifyPluginAsync = async (app) => {
   const body = { datums: DATUMS.map(({ epsg, name, names, transformation, accuracyMeters }) => ({ epsg, name, names: [...names], transformation, accuracyMeters })) };
   app.get(
     '/api/v1/datums',
@@ -31,4 +31,4 @@ export function registerDatumsRoute(app: FastifyInstance): void {
     },
     async () => body,
   );
-}
+};
