@@ -121,6 +121,8 @@ function place(input: GeoreferenceInput, settings: Settings): Placement {
       return placeNear(input, settings);
     case 'junction':
       return placeJunction(input, settings);
+    case 'administrative-unit':
+      return refuse('the text names only an administrative unit: it is georeferenced as that unit before this step, never as a place');
   }
 }
 

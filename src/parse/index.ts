@@ -24,6 +24,7 @@ const SPECIFICITY: Readonly<Record<LocalityType, number>> = {
   near: 5,
   'heading-only': 6,
   'named-place': 7,
+  'administrative-unit': 8,
   'no-locality': 9,
   unparseable: 9,
 };
@@ -54,7 +55,7 @@ export function parseLocality(text: string): Interpretation {
 }
 
 function empty(verbatim: string): Interpretation {
-  return { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, notes: [] };
+  return { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, otherClauses: [], notes: [] };
 }
 
 function clauseOf(text: string, tokens: Token[], from: number, to: number, kind: Clause['kind']): Clause {
@@ -239,6 +240,11 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
       piece.clause.kind = 'administrative';
     } else result.notes.push(`also named: "${piece.clause.text}" (not used for the point)`);
   });
+  result.otherClauses = pieces
+    .map((piece, index) => ({ piece, index }))
+    .filter(({ piece, index }) => index !== best && piece.clause.kind === 'locality' && piece.reading && !['habitat', 'unparseable'].includes(piece.reading.type))
+    .map(({ piece, index }) => ({ clause: index, type: piece.reading!.type as LocalityType, features: piece.reading!.features, offsets: piece.reading!.offsets }))
+    .sort((a, b) => SPECIFICITY[a.type] - SPECIFICITY[b.type] || a.clause - b.clause);
   for (const piece of pieces) {
     if (piece !== chosen && piece.reading?.type === 'unparseable') result.notes.push(`clause "${piece.clause.text}" not read: ${piece.reading.reason}`);
   }

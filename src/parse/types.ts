@@ -19,7 +19,8 @@ export type LocalityType =
   | 'near' // near, vicinity, outskirts
   | 'junction' // junction, confluence or crossing of two named lines
   | 'no-locality' // text that names no place ("locality unknown")
-  | 'unparseable';
+  | 'unparseable'
+  | 'administrative-unit'; // the chosen clause names only a unit; features: [name]; Interpretation.unit: NamedUnit
 
 /** A distance exactly as written, with the precision read from how the number is written (method §5.1). */
 export interface WrittenDistance {
@@ -105,6 +106,11 @@ export interface AdministrativeContext {
   municipality?: string;
 }
 
+export type AdministrativeLevel = 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit';
+export interface NamedUnit { name: string; level: AdministrativeLevel; written: string }
+export interface ClauseReading { clause: number; type: LocalityType; features: string[]; offsets: Offset[]; featureKind?: FeatureKind }
+export type FeatureKind = 'populated-place' | 'water' | 'stream' | 'mountain' | 'farm' | 'road' | 'protected-area' | 'locality';
+
 /** The whole reading of one locality text. */
 export interface Interpretation {
   verbatim: string;
@@ -124,6 +130,9 @@ export interface Interpretation {
   coordinates?: WrittenCoordinates;
   /** Administrative units named in the text itself. */
   administrative: AdministrativeContext;
+  otherClauses: ClauseReading[];
+  featureKind?: FeatureKind;
+  unit?: NamedUnit;
   elevation?: { minimumMeters: number; maximumMeters: number; written: string };
   /** Plain-words reason, always present when type is 'unparseable' or 'no-locality'. */
   reason?: string;

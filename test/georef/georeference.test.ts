@@ -35,7 +35,7 @@ function feature(overrides: Partial<Feature> = {}): Feature {
   };
 }
 function interpretation(type: Interpretation['type'], overrides: Partial<Interpretation> = {}): Interpretation {
-  return { verbatim: 'text', clauses: [], chosenClause: 0, type, features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, notes: [], ...overrides };
+  return { verbatim: 'text', clauses: [], chosenClause: 0, type, features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, otherClauses: [], notes: [], ...overrides };
 }
 function km(value: number, uncertainty: number): WrittenDistance {
   return { written: `${value} km`, value, unit: 'km', precision: 2 * uncertainty, uncertainty, meters: value * 1000, uncertaintyMeters: uncertainty * 1000 };
