@@ -11,7 +11,10 @@ import { loadRealRecords, measureRecord, openRealGazetteer, ratesBy, ratesOf, ty
 const records = loadRealRecords();
 const store = await openRealGazetteer();
 const started = performance.now();
-const outcomes = records.map((record) => measureRecord(store, record));
+/** BENCH_REAL_UNUSED_METERS and BENCH_REAL_UNUSED_RULE override the [CHOICE]s, to measure them. */
+const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
+const unusedFeatureRule = process.env.BENCH_REAL_UNUSED_RULE as 'widen' | 'decline' | undefined;
+const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule }));
 const seconds = (performance.now() - started) / 1000;
 store.close();
 
@@ -26,6 +29,8 @@ console.log('-- by language (our reading of the text; "-" a bare name)');
 for (const [k, r] of ratesBy(outcomes, (o) => o.record.language || '-')) console.log(row(k, r));
 console.log('-- by locality type');
 for (const [k, r] of ratesBy(outcomes, (o) => o.result.interpretation.type)) console.log(row(k, r));
+console.log('-- by whether the radius was widened for a named place the gazetteer lacks');
+for (const [k, r] of ratesBy(outcomes, (o) => (o.result.georeference?.components.unusedFeature ? 'widened' : 'not widened'))) console.log(row(k, r));
 console.log('-- by status');
 for (const [k, r] of ratesBy(outcomes, (o) => o.result.status)) console.log(`${k.padEnd(22)} ${String(r.records).padStart(6)}`);
 if (process.env.BENCH_REAL_LIST === 'false') {

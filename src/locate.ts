@@ -8,6 +8,8 @@ import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType 
 import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
+import { METHOD_DEFAULTS } from './georef/method-defaults.ts';
+import { checkOtherClauses, conflictWith, readingOf, wideningFor } from './locate/other-clauses.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -75,8 +77,62 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
 
+  let used = interpretation;
+  let resolved = resolveFeatures(finder, interpretation, context, options);
+  let fallbackFrom: string | undefined;
+  if (!resolved.ok && resolved.result.status === 'not-found') {
+    // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded).
+    for (const clause of interpretation.otherClauses) {
+      const alternative = readingOf(interpretation, clause);
+      const attempt = resolveFeatures(finder, alternative, context, options);
+      // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
+      // at a second name, or a name met anywhere in the country, too often is another place of that name.
+      if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
+      fallbackFrom = interpretation.features.join('", "');
+      const usedText = interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ');
+      used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the next clause, "${usedText}", is used instead`] };
+      resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
+      break;
+    }
+  }
+  if (!resolved.ok) return resolved.result;
+  const { candidates, readings, matchRemarks } = resolved;
+
+  const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
+  const unusedRule = options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule;
+  if (unusedRule === 'decline' && (fallbackFrom || others.missing.length > 0)) {
+    const names = [fallbackFrom, ...others.missing.map((m) => m.name)].filter(Boolean).map((n) => `"${n}"`).join(', ');
+    return { status: 'not-found', interpretation: used, candidates, reason: `${names} named but not in the loaded gazetteers: the specimen may come from there, so no georeference is given [CHOICE unusedFeatureRule 'decline', src/georef/method-defaults.ts]` };
+  }
+  const widening = wideningFor(others, fallbackFrom, options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters);
+  const pathLine = findPathLine(finder, used, context);
+  // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
+  const boundingUnit = findBoundingUnit(finder, context, used.type === 'heading-only' ? 'country' : 'stateProvince');
+  const combinations = cartesian(readings);
+  if (combinations.length > MAX_COVERED_READINGS) {
+    return { status: 'ambiguous', interpretation: used, candidates, reason: `${combinations.length} combinations of candidates: too many to cover with one circle (at most ${MAX_COVERED_READINGS})` };
+  }
+  const outcomes = combinations.map((features) => georeference({ interpretation: used, features, pathLine, boundingUnit, widening, options }));
+  const refused = outcomes.find((o) => !o.ok);
+  if (refused && !refused.ok) return { status: 'unparseable', interpretation: used, candidates, reason: refused.reason };
+  const georefs = outcomes.flatMap((o) => (o.ok ? [o.georeference] : []));
+  const georef = georefs.length === 1 ? georefs[0] : coverGeoreferences(georefs);
+  const conflict = conflictWith(georef, others.found);
+  if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
+  return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): boolean {
+  return resolution.matchRemarks.length === 0 && !!(context.stateProvince || context.county || context.municipality);
+}
+
+type Resolution =
+  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[] }
+  | { ok: false; result: LocateResult };
+
+/** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
+function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): Resolution {
   const candidates: Candidate[] = [];
-  /** For each name, the features it may mean: one when resolved, several only with coverAmbiguous. */
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
   for (const name of interpretation.features) {
@@ -84,12 +140,12 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
     candidates.push(...found);
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
-      return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) };
+      return { ok: false, result: { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) } };
     }
     if (choice.kind === 'several') {
       const names = choice.candidates.map(describeCandidate).join('; ');
       if (!options.coverAmbiguous) {
-        return { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` };
+        return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` } };
       }
       readings.push(choice.candidates.map((c) => c.feature));
       matchRemarks.push(`"${name}" is ambiguous (${names}); every candidate covered, as asked`);
@@ -98,20 +154,7 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
-
-  const pathLine = findPathLine(finder, interpretation, context);
-  // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
-  const boundingUnit = findBoundingUnit(finder, context, interpretation.type === 'heading-only' ? 'country' : 'stateProvince');
-  const combinations = cartesian(readings);
-  if (combinations.length > MAX_COVERED_READINGS) {
-    return { status: 'ambiguous', interpretation, candidates, reason: `${combinations.length} combinations of candidates: too many to cover with one circle (at most ${MAX_COVERED_READINGS})` };
-  }
-  const outcomes = combinations.map((features) => georeference({ interpretation, features, pathLine, boundingUnit, options }));
-  const refused = outcomes.find((o) => !o.ok);
-  if (refused && !refused.ok) return { status: 'unparseable', interpretation, candidates, reason: refused.reason };
-  const georefs = outcomes.flatMap((o) => (o.ok ? [o.georeference] : []));
-  const georef = georefs.length === 1 ? georefs[0] : coverGeoreferences(georefs);
-  return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, interpretation, candidates);
+  return { ok: true, candidates, readings, matchRemarks };
 }
 
 /** At most this many readings of an ambiguous text are covered by one circle [CHOICE]. */

@@ -13,4 +13,14 @@ export const METHOD_DEFAULTS = {
   footprintSegments: 64,
   /** Map accuracy standard when a map scale is given but no standard (point-radius.md §5.5: 1 mm only). */
   mapStandard: 'unknown',
+  /**
+   * A locality clause names a place the gazetteer lacks ("Puerto Lindo, Laguna Negra" with no lake
+   * loaded), or the place named first is missing and a later clause is used instead: the radius
+   * grows by this much, the distance such a place may lie from the place used [CHOICE]. Chosen by
+   * measurement on the real-record set (test/fixtures/real, npm run bench:real): see README
+   * "On real records" for the figures of each value tried.
+   */
+  unusedFeatureMeters: 60000,
+  /** What such a place does to the answer: 'widen' by unusedFeatureMeters, or 'decline' with the reason [CHOICE]. */
+  unusedFeatureRule: 'widen',
 } as const satisfies Record<string, number | string>;

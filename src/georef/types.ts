@@ -14,6 +14,11 @@ export interface UncertaintyComponents {
   mapScale: number;
   /** A stated measurement error, e.g. twice a GPS's displayed accuracy (method §5.5). */
   measurement: number;
+  /**
+   * Present only when widened: how far a place the text names, but the gazetteer lacks, may lie from
+   * the place used (METHOD_DEFAULTS.unusedFeatureMeters [CHOICE]).
+   */
+  unusedFeature?: number;
 }
 
 /** Settings of the method that the sources leave to the georeferencer ([CHOICE] in the method). */
@@ -28,6 +33,10 @@ export interface MethodOptions {
   mapScale?: number;
   /** Stated measurement error in meters (added as given). */
   measurementErrorMeters?: number;
+  /** How far a named place the gazetteer lacks may lie from the place used; default 60 km ([CHOICE]). */
+  unusedFeatureMeters?: number;
+  /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
+  unusedFeatureRule?: 'widen' | 'decline';
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, method §5.5). */

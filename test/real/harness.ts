@@ -24,7 +24,7 @@ import { parse } from 'csv-parse/sync';
 import { importGazetteer } from '../../src/gazetteer/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
-import { locate, type LocateResult } from '../../src/locate.ts';
+import { locate, type LocateOptions, type LocateResult } from '../../src/locate.ts';
 
 export interface RealRecord {
   gbifID: string;
@@ -123,8 +123,8 @@ async function buildGazetteer(path: string): Promise<void> {
 }
 
 /** Runs one record through `locate` and judges the answer against the publisher's point. */
-export function measureRecord(store: GazetteerStore, record: RealRecord): RecordOutcome {
-  const result = locate(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined });
+export function measureRecord(store: GazetteerStore, record: RealRecord, options?: LocateOptions): RecordOutcome {
+  const result = locate(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined, options });
   const georef = result.status === 'georeferenced' ? result.georeference : undefined;
   if (!georef) return { record, result, answered: false };
   const errorMeters = inverse(georef.latitude, georef.longitude, record.decimalLatitude, record.decimalLongitude).meters;
