@@ -10,6 +10,8 @@ import { georeference } from './georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 import { METHOD_DEFAULTS } from './georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, wideningFor } from './locate/other-clauses.ts';
+import { findUnit, unitNamed } from './locate/administrative-unit.ts';
+import { justOutside } from './locate/just-outside.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -76,6 +78,12 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   if (interpretation.type === 'no-locality' || interpretation.type === 'unparseable') {
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
+  const unit = unitNamed(interpretation, context);
+  if (unit) {
+    const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
+    if (!found.feature) return { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
+  }
 
   let used = interpretation;
   let resolved = resolveFeatures(finder, interpretation, context, options);
@@ -140,7 +148,20 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     candidates.push(...found);
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
-      return { ok: false, result: { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) } };
+      const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
+      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+      if (outside?.candidate) {
+        candidates.push(outside.candidate);
+        readings.push([outside.candidate.feature]);
+        matchRemarks.push(outside.remark);
+        continue;
+      }
+      const reason = [notFoundReason(name, context, found), outside?.reason].filter(Boolean).join('; ');
+      return { ok: false, result: { status: 'not-found', interpretation, candidates, reason } };
+    }
+    if (choice.kind === 'weak') {
+      const reason = `no feature named "${name}" in the loaded gazetteers; the only near name, ${describeCandidate(choice.candidate)}, scores below the ${FUZZY_ACCEPTANCE.minimumScore} a lone near match needs to be taken: verify the name`;
+      return { ok: false, result: { status: 'not-found', interpretation, candidates, reason } };
     }
     if (choice.kind === 'several') {
       const names = choice.candidates.map(describeCandidate).join('; ');
@@ -211,7 +232,7 @@ function featureQuery(name: string, context: AdministrativeContext, type: Locali
     : { name, context };
 }
 
-type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };
+type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'weak'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };
 
 /** Applies FUZZY_ACCEPTANCE: never a silent pick among equally good candidates. */
 function chooseCandidate(found: Candidate[]): Choice {
@@ -222,7 +243,9 @@ function chooseCandidate(found: Candidate[]): Choice {
   if (ranked.length === 0) return { kind: 'none' };
   const [best, next] = ranked;
   const leads = !next || best.score - next.score >= FUZZY_ACCEPTANCE.minimumLead;
-  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', candidate: best } : { kind: 'several', candidates: ranked };
+  if (best.score >= FUZZY_ACCEPTANCE.minimumScore && leads) return { kind: 'one', candidate: best };
+  // One near name too weak to stand alone is not a choice between several: say so.
+  return next ? { kind: 'several', candidates: ranked } : { kind: 'weak', candidate: best };
 }
 
 function findPathLine(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Feature | undefined {
@@ -259,15 +282,15 @@ function locateAdministrativeUnit(
   if (!unit) {
     return { status: 'unparseable', interpretation, candidates: [], reason: `${interpretation.reason ?? 'the text names no place'}; no administrative unit of the record was found in the gazetteer` };
   }
-  const asNamedPlace: Interpretation = {
-    ...interpretation,
-    type: 'named-place',
-    features: [unit.name],
-    notes: [...interpretation.notes, `the text names no place; georeferenced to the record's ${unit.featureType} "${unit.name}" as asked`],
-  };
+  return georeferenceUnit(unit, interpretation, `the text names no place; georeferenced to the record's ${unit.featureType} "${unit.name}" as asked`, [], options);
+}
+
+/** A unit's own feature as the place: its polygon's corrected center and radial (method §4). */
+function georeferenceUnit(unit: Feature, interpretation: Interpretation, note: string, candidates: Candidate[], options: LocateOptions): LocateResult {
+  const asNamedPlace: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], notes: [...interpretation.notes, note] };
   const outcome = georeference({ interpretation: asNamedPlace, features: [unit], options });
-  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates: [], reason: outcome.reason };
-  return georeferenced(outcome.georeference, asNamedPlace, []);
+  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates, reason: outcome.reason };
+  return georeferenced(outcome.georeference, asNamedPlace, candidates);
 }
 
 function describeCandidate(c: Candidate): string {

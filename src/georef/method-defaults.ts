@@ -23,4 +23,17 @@ export const METHOD_DEFAULTS = {
   unusedFeatureMeters: 60000,
   /** What such a place does to the answer: 'widen' by unusedFeatureMeters, or 'decline' with the reason [CHOICE]. */
   unusedFeatureRule: 'widen',
+  /**
+   * A text that names an administrative unit whose polygon is not loaded is declined, never
+   * georeferenced as a town of that name [CHOICE]: a default extent for a level would be dishonest for
+   * most units of it (a Brazilian municipality spans from a few km² to over 150 000 km²; from memory).
+   */
+  unitWithoutPolygon: 'decline',
+  /**
+   * A reference place loaded only outside the record's stated county or state is accepted when it lies
+   * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
+   * collector measured from is often just across a county line. Common practice, no source; not
+   * measured on the real records (their gazetteer holds no unit polygons).
+   */
+  justOutsideMeters: 25000,
 } as const satisfies Record<string, number | string>;

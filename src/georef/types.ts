@@ -37,6 +37,8 @@ export interface MethodOptions {
   unusedFeatureMeters?: number;
   /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
   unusedFeatureRule?: 'widen' | 'decline';
+  /** How far outside the record's stated unit a reference place may lie and still be taken; default 25 km ([CHOICE]). */
+  justOutsideMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, method §5.5). */
