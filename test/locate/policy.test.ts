@@ -144,7 +144,7 @@ describe('one weak near name is not "ambiguous"', () => {
     // "Valle Hondito": its one near name, Valle Hondo, scores 0.79, under the 0.8 a lone match needs.
     const result = locate(store, { locality: 'Valle Hondito', countryCode: 'QV' });
     expect(result.status).toBe('not-found');
-    expect(result.reason).toMatch(/no feature named "Valle Hondito".*the only near name, Valle Hondo .*score 0\.79\); scores below the 0\.8 a lone near match needs/);
+    expect(result.reason).toMatch(/no feature named "Valle Hondito".*the only near name, Valle Hondo .*score 0\.79\), scores below the 0\.8 a lone near match needs/);
   });
 
   it('keeps "ambiguous" for two equally near names', () => {
