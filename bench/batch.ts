@@ -16,8 +16,8 @@ import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { startBatchJob, type BatchProgressEvent } from '../src/batch/run.ts';
-import { importGazetteer } from '../src/gazetteer/import.ts';
-import { openGazetteer } from '../src/gazetteer/store.ts';
+import { importGazetteer } from '../src/store/import.ts';
+import { openGazetteer } from '../src/store/gazetteer-store.ts';
 
 const NAMES = Number(process.env.BENCH_NAMES ?? 1_000_000);
 const DISTINCT = Number(process.env.BENCH_DISTINCT ?? 40_000);
@@ -38,11 +38,13 @@ function placePoint(i: number): [number, number] {
   return [-44 - ((i * golden) % 1) * 3, -133 + ((i * golden * golden) % 1) * 4];
 }
 
-/** The store's code, hashed: a gazetteer built by other code (another index) is built again. */
+/** The store's and the matching's code, hashed: a gazetteer built by other code (another index) is built again. */
 function storeCodeHash(): string {
-  const dir = new URL('../src/gazetteer/', import.meta.url).pathname;
   const hash = createHash('sha256');
-  for (const file of readdirSync(dir).sort()) hash.update(readFileSync(join(dir, file)));
+  for (const folder of ['store', 'match']) {
+    const dir = new URL(`../src/${folder}/`, import.meta.url).pathname;
+    for (const file of readdirSync(dir).sort()) hash.update(readFileSync(join(dir, file)));
+  }
   return hash.digest('hex').slice(0, 12);
 }
 

@@ -11,9 +11,9 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import Fuse from 'fuse.js';
-import { foldName } from '../src/gazetteer/fold.ts';
-import { importGazetteer } from '../src/gazetteer/import.ts';
-import { openGazetteer } from '../src/gazetteer/store.ts';
+import { foldName } from '../src/match/fold.ts';
+import { importGazetteer } from '../src/store/import.ts';
+import { openGazetteer } from '../src/store/gazetteer-store.ts';
 import { seededRandom } from './seeded-random.ts';
 
 const NAMES = Number(process.env.BENCH_NAMES ?? 1_000_000);

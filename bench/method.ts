@@ -9,7 +9,7 @@ import { performance } from 'node:perf_hooks';
 import type { Geometry, Position } from 'geojson';
 import { featureExtent } from '../src/georef/feature-extent.ts';
 import { georeference } from '../src/georef/georeference.ts';
-import type { Feature } from '../src/gazetteer/types.ts';
+import type { Feature } from '../src/match/types.ts';
 import type { Interpretation } from '../src/parse/types.ts';
 import { seededRandom } from './seeded-random.ts';
 

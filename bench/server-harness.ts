@@ -9,8 +9,8 @@ import { Agent, request } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { importGazetteer } from '../src/gazetteer/import.ts';
-import { openGazetteer } from '../src/gazetteer/store.ts';
+import { importGazetteer } from '../src/store/import.ts';
+import { openGazetteer } from '../src/store/gazetteer-store.ts';
 import { largest } from '../src/geodesy/extremes.ts';
 
 const ROOT = new URL('..', import.meta.url).pathname;

@@ -4,7 +4,7 @@
  */
 import { parseCoordinates, parseLocality } from './parse/index.ts';
 import type { AdministrativeContext, Interpretation, LocalityType } from './parse/types.ts';
-import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './gazetteer/types.ts';
+import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './match/types.ts';
 import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';

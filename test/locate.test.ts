@@ -8,8 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../src/gazetteer/import.ts';
-import { openGazetteer, type GazetteerStore } from '../src/gazetteer/store.ts';
+import { importGazetteer } from '../src/store/import.ts';
+import { openGazetteer, type GazetteerStore } from '../src/store/gazetteer-store.ts';
 import { locate } from '../src/locate.ts';
 
 let store: GazetteerStore;

@@ -2,7 +2,7 @@
  * One distinct locality of a batch, georeferenced once: the Darwin Core fields every row of the group
  * shares, and the centers of the country and state it names (for the coordinate check).
  */
-import type { CandidateFinder } from '../gazetteer/types.ts';
+import type { CandidateFinder } from '../match/types.ts';
 import { locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
 import { darwinCoreFields, type GeoreferenceTerm, type RecordContext } from '../record/darwin-core.ts';
 import type { AdministrativeCenter } from './coordinate-check.ts';

@@ -2,7 +2,7 @@
  * The work a batch worker thread does: georeference a chunk of distinct localities against the
  * gazetteer, which each worker opens read-only once and keeps open.
  */
-import { openGazetteer, type OpenOptions } from '../gazetteer/store.ts';
+import { openGazetteer, type OpenOptions } from '../store/gazetteer-store.ts';
 import type { LocateRequest } from '../locate.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { georeferenceGroup, type BatchSettings } from './georeference-group.ts';

@@ -5,5 +5,6 @@
  *   jobProgress(jobsDatabasePath(dbPath), jobId).rowsDone;
  */
 export { startBatchJob, type BatchJobOptions, type BatchProgressEvent, type BatchSummary } from './run.ts';
-export { jobProgress, jobsDatabasePath, type JobProgress, type JobState } from './jobs.ts';
+export { jobProgress, type JobProgress, type JobState } from '../store/jobs.ts';
+export { jobsDatabasePath } from '../store/side-files.ts';
 export { COORDINATE_FLAGS, COORDINATE_FLAGS_COLUMN, type CoordinateFlag } from './coordinate-check.ts';

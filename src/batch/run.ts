@@ -13,7 +13,7 @@ import { pipeline } from 'node:stream/promises';
 import { setTimeout as sleep } from 'node:timers/promises';
 import type Database from 'better-sqlite3';
 import Tinypool from 'tinypool';
-import { openGazetteer } from '../gazetteer/store.ts';
+import { openGazetteer } from '../store/gazetteer-store.ts';
 import type { LocateRequest } from '../locate.ts';
 import { appendedColumnNames, darwinCoreFields, type RecordContext } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
@@ -23,9 +23,10 @@ import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './render
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
-  claimJob, findUnfinishedJob, insertJob, jobsDatabasePath, loadJob, openJobs, sameSources, updateJob,
+  claimJob, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
-} from './jobs.ts';
+} from '../store/jobs.ts';
+import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
 

@@ -2,7 +2,7 @@
  * The point-radius method (point-radius.md §3): one interpretation of a locality text and its matched
  * features in, a point, a radius built from separate components and a footprint out. Pure: no I/O.
  */
-import type { Feature } from '../gazetteer/types.ts';
+import type { Feature } from '../match/types.ts';
 import type { Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
 import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
 import { datumFromName, toWgs84 } from '../geodesy/datums.ts';

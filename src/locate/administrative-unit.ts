@@ -4,8 +4,8 @@
  * otherwise declined with the reason (METHOD_DEFAULTS.unitWithoutPolygon [CHOICE]). Pure: the
  * gazetteer is reached only through the CandidateFinder it is given.
  */
-import type { CandidateFinder, Candidate, Feature } from '../gazetteer/types.ts';
-import { foldName } from '../gazetteer/fold.ts';
+import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
+import { foldName } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 
 /** The record fields that name a unit, widest last, with the level each stands for. */

@@ -5,7 +5,7 @@
  * the gazetteer is reached only through the CandidateFinder it is given.
  */
 import { pointToPolygonDistance } from '@turf/turf';
-import type { Candidate, CandidateFinder, CandidateQuery, Feature } from '../gazetteer/types.ts';
+import type { Candidate, CandidateFinder, CandidateQuery, Feature } from '../match/types.ts';
 
 export type JustOutside = { candidate: Candidate; remark: string } | { candidate: null; reason: string };
 

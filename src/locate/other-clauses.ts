@@ -3,8 +3,8 @@
  * gazetteer lacks widens the radius ([CHOICE] unusedFeatureMeters), a place it holds must agree with
  * the answer. Pure: the gazetteer is reached only through the CandidateFinder it is given.
  */
-import type { Candidate, CandidateFinder, Feature } from '../gazetteer/types.ts';
-import { foldName } from '../gazetteer/fold.ts';
+import type { Candidate, CandidateFinder, Feature } from '../match/types.ts';
+import { foldName } from '../match/fold.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import type { Georeference } from '../georef/types.ts';
 import type { AdministrativeContext, ClauseReading, Interpretation } from '../parse/types.ts';

@@ -2,7 +2,7 @@
  * The Darwin Core georeference terms whereabouts adds beside a record's own fields (method §6).
  * Originals are never touched: where a record already has a term, the proposal is `proposed_<term>`.
  */
-import type { Source } from '../gazetteer/types.ts';
+import type { Source } from '../match/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import type { LocateResult, LocateStatus } from '../locate.ts';
 import { VERSION } from '../version.ts';

@@ -6,11 +6,11 @@
  */
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
-import { COORDINATE_FLAGS_COLUMN, jobProgress, jobsDatabasePath, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { COORDINATE_FLAGS_COLUMN, jobProgress, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import type { LocateResult } from '../locate.ts';
 import { parseLocality } from '../parse/index.ts';
@@ -18,7 +18,14 @@ import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import { REVIEWED_STATUS, type Review, type ReviewDecision, type ReviewStore } from './reviews.ts';
+import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
+import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
+
+/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
+const REVIEWED_STATUS: Record<ReviewDecision, string> = {
+  accepted: 'verified by data custodian',
+  rejected: 'requires georeference',
+};
 
 /** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
 const NOT_CSV: [string, number[]][] = [
@@ -90,7 +97,7 @@ export class BatchService {
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
   ) {
-    this.folder = join(dirname(dbPath), `${basename(dbPath).replace(/\.sqlite$/, '')}.batches`);
+    this.folder = batchFolderPath(dbPath);
     this.jobsPath = jobsDatabasePath(dbPath);
   }
 

@@ -4,7 +4,7 @@
  * method core again, and add the Darwin Core fields.
  */
 import type { MultiPolygon, Polygon } from 'geojson';
-import type { Candidate, CandidateFinder, Feature, Source } from '../gazetteer/types.ts';
+import type { Candidate, CandidateFinder, Feature, FeatureKey, Source } from '../match/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { georeference } from '../georef/georeference.ts';
 import { locate, type LocateOptions, type LocateRequest, type LocateResult } from '../locate.ts';
@@ -15,17 +15,14 @@ import { RequestError } from './errors.ts';
 import type { ResultCache } from './result-cache.ts';
 import { footprintGeometry } from './wkt.ts';
 
-/** What the server needs of a gazetteer store (src/gazetteer/store.ts implements it). */
+/** What the server needs of a gazetteer store (src/store/gazetteer-store.ts implements it). */
 export interface ServedGazetteer extends CandidateFinder {
   sources(): Source[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
 }
 
 /** A feature by its source and id, as a candidate names it. */
-export interface FeatureKey {
-  sourceId: string;
-  featureId: string;
-}
+export type { FeatureKey };
 
 /** The edits the page offers on top of the method's own settings. */
 export interface LookupOptions extends Pick<LocateOptions, 'mapScale' | 'datum' | 'measurementErrorMeters' | 'coverAmbiguous' | 'administrativeFallback'> {

@@ -1,10 +1,10 @@
 /**
  * Every polygon and line of the gazetteer, for the map's reference layers. The store has no listing
  * method yet, so the ids come from one read-only SELECT on its file and each feature is then read
- * through the store itself; to be replaced by a store method when src/gazetteer offers one.
+ * through the store itself; to be replaced by a store method when src/store offers one.
  */
 import Database from 'better-sqlite3';
-import type { Feature } from '../gazetteer/types.ts';
+import type { Feature } from '../match/types.ts';
 import type { ServedGazetteer } from './lookup.ts';
 
 /** Read-only, prepared; geometry_type 0 is Point in the store's GEOMETRY_TYPES order. */

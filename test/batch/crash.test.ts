@@ -9,7 +9,7 @@ import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
-import { jobsDatabasePath } from '../../src/batch/jobs.ts';
+import { jobsDatabasePath } from '../../src/store/side-files.ts';
 import { fixtureGazetteer, readOutput } from './helpers.ts';
 
 const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;

@@ -3,8 +3,8 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer } from '../../src/gazetteer/store.ts';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 
 export const FIXTURES = new URL('../fixtures/batch/', import.meta.url).pathname;
 

@@ -10,8 +10,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { DoctorReport } from '../../src/gazetteer/doctor.ts';
-import { SCHEMA_VERSION } from '../../src/gazetteer/store.ts';
+import type { DoctorReport } from '../../src/store/doctor.ts';
+import { SCHEMA_VERSION } from '../../src/store/gazetteer-store.ts';
 import { fixtureStore, FIXTURE_SOURCE, whereabouts } from './helpers.ts';
 
 let dir: string;

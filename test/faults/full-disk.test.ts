@@ -9,7 +9,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } fro
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import type { DoctorReport } from '../../src/gazetteer/doctor.ts';
+import type { DoctorReport } from '../../src/store/doctor.ts';
 import { fixtureStore, FIXTURE_SOURCE, locatedFeature, whereabouts, writeInventedGazetteer } from './helpers.ts';
 
 const DISK_SIZE = '2m';

@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { describe, expect, it } from 'vitest';
-import type { DoctorReport } from '../../src/gazetteer/doctor.ts';
+import type { DoctorReport } from '../../src/store/doctor.ts';
 import { BIN, fixtureStore, FIXTURE_SOURCE, locatedFeature, whereabouts, writeInventedGazetteer } from './helpers.ts';
 
 /** 300,000 rows: some 6 s of import on a 2-core machine, long enough to be killed part way. */

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import geographiclib from 'geographiclib-geodesic';
 import { describe, expect, it } from 'vitest';
-import type { Feature } from '../../src/gazetteer/types.ts';
+import type { Feature } from '../../src/match/types.ts';
 import type { Interpretation, Offset, WrittenDistance, WrittenHeading } from '../../src/parse/types.ts';
 import { georeference, type GeoreferenceInput } from '../../src/georef/georeference.ts';
 import type { Georeference } from '../../src/georef/types.ts';

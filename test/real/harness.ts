@@ -21,8 +21,8 @@ import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
 import { locate, type LocateOptions, type LocateResult } from '../../src/locate.ts';
 

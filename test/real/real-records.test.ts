@@ -9,7 +9,7 @@
  * answered ≥ 50 %.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { GazetteerStore } from '../../src/gazetteer/store.ts';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { loadRealRecords, measureRecord, openRealGazetteer, ratesOf, type RecordOutcome } from './harness.ts';
 
 let store: GazetteerStore;

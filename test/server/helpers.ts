@@ -4,8 +4,8 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { FastifyInstance } from 'fastify';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer } from '../../src/gazetteer/store.ts';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer, type ServerOptions } from '../../src/server/app.ts';
 
 export const DEMO_GAZETTEER = new URL('../../gazetteer/demo.geojson', import.meta.url).pathname;

@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import { examineStore, type DoctorReport } from '../../gazetteer/doctor.ts';
+import { examineStore, type DoctorReport } from '../../store/doctor.ts';
 
 const LABELS = { ok: 'ok     ', note: 'note   ', problem: 'PROBLEM' } as const;
 

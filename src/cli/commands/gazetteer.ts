@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import { openGazetteer } from '../../gazetteer/store.ts';
+import { openGazetteer } from '../../store/gazetteer-store.ts';
 
 /**
  * `whereabouts gazetteer list` and `whereabouts gazetteer remove <source>`: the sources in the store,

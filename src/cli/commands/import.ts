@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { SingleBar } from 'cli-progress';
-import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../gazetteer/import.ts';
-import { openGazetteer } from '../../gazetteer/store.ts';
+import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../store/import.ts';
+import { openGazetteer } from '../../store/gazetteer-store.ts';
 
 interface ImportCommandOptions {
   format?: string;

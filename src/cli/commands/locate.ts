@@ -1,6 +1,6 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
-import { openGazetteer } from '../../gazetteer/store.ts';
+import { openGazetteer } from '../../store/gazetteer-store.ts';
 import { locate, type LocateResult } from '../../locate.ts';
 import { darwinCoreFields } from '../../record/darwin-core.ts';
 import { VERSION } from '../../version.ts';

@@ -1,8 +1,8 @@
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { InvalidArgumentError, type Command } from 'commander';
-import { importGazetteer } from '../../gazetteer/import.ts';
-import { openGazetteer } from '../../gazetteer/store.ts';
+import { importGazetteer } from '../../store/import.ts';
+import { openGazetteer } from '../../store/gazetteer-store.ts';
 import { readAccessToken } from '../../server/access.ts';
 import { buildServer, SERVER_DEFAULTS } from '../../server/app.ts';
 

@@ -1,7 +1,7 @@
 import { simplify } from '@turf/turf';
 import type { FastifyInstance } from 'fastify';
 import type { Feature as GeoJsonFeature, FeatureCollection, Geometry } from 'geojson';
-import type { Feature } from '../../gazetteer/types.ts';
+import type { Feature } from '../../match/types.ts';
 
 /** About 50 m at the equator: finer than the map draws at county scale [CHOICE]. */
 const SIMPLIFY_TOLERANCE_DEGREES = 0.0005;

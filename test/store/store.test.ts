@@ -9,9 +9,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer, SCHEMA_VERSION, type GazetteerStore } from '../../src/gazetteer/store.ts';
-import { DEFAULT_RADII } from '../../src/gazetteer/default-radii.ts';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer, SCHEMA_VERSION, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
 
 const FIXTURES = new URL('../fixtures/gazetteer/', import.meta.url).pathname;
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-gazetteer-'));

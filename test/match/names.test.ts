@@ -3,10 +3,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/gazetteer/edit-distance.ts';
-import { foldName, nameVariants } from '../../src/gazetteer/fold.ts';
-import { administrativeKey, countryCodeForName } from '../../src/gazetteer/context.ts';
-import { DEFAULT_RADII } from '../../src/gazetteer/default-radii.ts';
+import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
+import { foldName, nameVariants } from '../../src/match/fold.ts';
+import { administrativeKey, countryCodeForName } from '../../src/match/context.ts';
+import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
 
 describe('foldName', () => {
   // Canonical decompositions from the Unicode Standard (UAX #15, normalization forms): é = e + U+0301,

@@ -8,9 +8,9 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { dumpFeatureType, readAdmin1Line } from '../../src/gazetteer/dump-layout.ts';
-import { importGazetteer } from '../../src/gazetteer/import.ts';
-import { openGazetteer } from '../../src/gazetteer/store.ts';
+import { dumpFeatureType, readAdmin1Line } from '../../src/store/dump-layout.ts';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 
 const FIXTURES = new URL('../fixtures/gazetteer/', import.meta.url).pathname;
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-dump-'));

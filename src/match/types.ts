@@ -1,4 +1,4 @@
-/** Gazetteer features and match candidates: the contract between `src/gazetteer` and `src/georef`. */
+/** Gazetteer features, match candidates and the index matching reads: the contract between `src/match`, `src/store` and `src/georef`. */
 import type { Geometry } from 'geojson';
 
 export type GeometryType = 'Point' | 'LineString' | 'MultiLineString' | 'Polygon' | 'MultiPolygon';
@@ -25,6 +25,12 @@ export interface Feature {
   geometryType: GeometryType;
   /** The full geometry, present for lines and polygons when it was asked for. */
   geometry?: Geometry;
+}
+
+/** Which feature: its source and its id there (what a choice among candidates names). */
+export interface FeatureKey {
+  sourceId: string;
+  featureId: string;
 }
 
 /** A feature that may be the one a name in the text means. */
@@ -86,4 +92,47 @@ export interface CandidateLookup {
   dropped: DroppedCandidate[];
   /** Notes on how the query was read ("country 'Atlantis' not recognised: not used to filter"). */
   notes: string[];
+}
+
+/** A stored word of the token index: its row id and the number of features holding it. */
+export interface IndexedToken {
+  id: number;
+  df: number;
+}
+
+/** One row of the token index: a feature holding a token. */
+export interface Posting {
+  feature: number;
+  token: number;
+}
+
+/**
+ * What matching asks of a gazetteer's indexes (the SQLite store implements it): rows for folded
+ * names, tokens, deletion keys and postings, and features by row id. It answers; `src/match` ranks.
+ * Row ids are the index's own, stable while `version` stays the same.
+ */
+export interface NameIndex {
+  /** Changes when another writer changed the indexes (the matcher's cached token matches then go). */
+  version(): number;
+  /** Row ids of the features with a name, alternate name or reading folded to `key`. */
+  featureIdsByName(key: string): number[];
+  /** One feature by row id, without its geometry; null when there is none. */
+  feature(id: number): Feature | null;
+  /** Features by row id (those that exist), without their geometry. */
+  features(ids: readonly number[]): Map<number, Feature>;
+  /** Each feature's name and alternate names as written, by row id. */
+  namesOf(ids: readonly number[]): { id: number; names: string[] }[];
+  /** The stored token written exactly as `token`, if any. */
+  token(token: string): IndexedToken | undefined;
+  /** Every stored token sharing one of these deletion keys, each once, as [id, token, df]. */
+  tokensByDeletionKeys(keys: readonly number[]): [number, string, number][];
+  /** Up to `limit` postings of these tokens; with `countries`, only features in them or without a country. */
+  postings(tokenIds: readonly number[], countries: readonly string[] | null, limit: number): Posting[];
+  /**
+   * Up to `limit` postings (token = `driver`) of the features holding `driver` and one of `partners`;
+   * with `countries`, only features in them or without a country.
+   */
+  postingsWithPartner(driver: IndexedToken, partners: readonly IndexedToken[], countries: readonly string[] | null, limit: number): Posting[];
+  /** Loads a line's or polygon's full geometry into the feature (nothing for points or when present). */
+  attachGeometry(feature: Feature): void;
 }

@@ -11,8 +11,8 @@ import { join } from 'node:path';
 import { createRequire } from 'node:module';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { AdministrativeContext } from '../../src/parse/types.ts';
-import { importGazetteer, type ImportSummary } from '../../src/gazetteer/import.ts';
-import { openGazetteer, type GazetteerStore } from '../../src/gazetteer/store.ts';
+import { importGazetteer, type ImportSummary } from '../../src/store/import.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 
 interface City { name: string; lat: string; lng: string; country: string; admin1: string }
 interface Case { name: string; context: AdministrativeContext; latitude: number; longitude: number; typo?: boolean }

@@ -3,7 +3,7 @@
  * companion file. Reading a line into a RawFeature is pure; the importer does the I/O.
  */
 import type { RawFeature } from './feature-record.ts';
-import { foldName } from './fold.ts';
+import { foldName } from '../match/fold.ts';
 
 /** Columns of the dump layout, in order. */
 export const DUMP_COLUMNS = [

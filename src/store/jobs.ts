@@ -4,9 +4,8 @@
  * (input sha256, settings, whereabouts version, gazetteer source hashes, one run timestamp) and its
  * progress: the result of each distinct locality and the number of rows written.
  */
-import { basename, dirname, join } from 'node:path';
 import Database from 'better-sqlite3';
-import type { Source } from '../gazetteer/types.ts';
+import type { Source } from '../match/types.ts';
 
 export type JobState = 'reading' | 'georeferencing' | 'writing' | 'done' | 'failed';
 
@@ -71,13 +70,6 @@ CREATE TABLE IF NOT EXISTS batch_locality (
 CREATE UNIQUE INDEX IF NOT EXISTS batch_locality_key ON batch_locality (job_id, key);
 `;
 
-/**
- * The job database that goes with a gazetteer file.
- * @example jobsDatabasePath('/data/whereabouts.sqlite') // '/data/whereabouts.jobs.sqlite'
- */
-export function jobsDatabasePath(gazetteerPath: string): string {
-  return join(dirname(gazetteerPath), `${basename(gazetteerPath).replace(/\.sqlite$/, '')}.jobs.sqlite`);
-}
 
 /** Open (and create when new) a job database in WAL mode. */
 export function openJobs(path: string): Database.Database {

@@ -5,9 +5,9 @@
  */
 import { existsSync, statSync } from 'node:fs';
 import Database from 'better-sqlite3';
-import { jobsDatabasePath } from '../batch/jobs.ts';
-import { nameVariants } from './fold.ts';
-import { SCHEMA_VERSION } from './store.ts';
+import { jobsDatabasePath } from './side-files.ts';
+import { nameVariants } from '../match/fold.ts';
+import { SCHEMA_VERSION } from './gazetteer-store.ts';
 
 /** `note`: worth knowing, nothing is wrong; `problem`: the store (or a job) needs the remedy. */
 export type CheckStatus = 'ok' | 'note' | 'problem';

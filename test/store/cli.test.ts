@@ -9,7 +9,7 @@ import { Command } from 'commander';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { registerGazetteer } from '../../src/cli/commands/gazetteer.ts';
 import { registerImport } from '../../src/cli/commands/import.ts';
-import { openGazetteer } from '../../src/gazetteer/store.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 
 const FIXTURES = new URL('../fixtures/gazetteer/', import.meta.url).pathname;
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-cli-'));

@@ -4,9 +4,9 @@
  */
 import type { Geometry, Position } from 'geojson';
 import { featureExtent } from '../georef/feature-extent.ts';
-import { defaultRadius } from './default-radii.ts';
-import type { FeatureRecord } from './store.ts';
-import type { GeometryType } from './types.ts';
+import { defaultRadius } from '../georef/default-radii.ts';
+import type { FeatureRecord } from './gazetteer-store.ts';
+import type { GeometryType } from '../match/types.ts';
 
 /** A row as read from any layout, before checking. */
 export interface RawFeature {

@@ -13,7 +13,7 @@ import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
 import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
-import type { GazetteerStore } from './store.ts';
+import type { GazetteerStore } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames';
 

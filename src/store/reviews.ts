@@ -4,9 +4,8 @@
  * latest one for a row is the one that counts. The ids of the jobs the service started are kept
  * too, to resume them after a stop. Prepared statements only.
  */
-import { basename, dirname, join } from 'node:path';
 import Database from 'better-sqlite3';
-import type { FeatureKey } from './lookup.ts';
+import type { FeatureKey } from '../match/types.ts';
 
 export type ReviewDecision = 'accepted' | 'rejected';
 
@@ -17,20 +16,6 @@ export interface Review {
   reviewer: string;
   /** ISO 8601 date-time of the decision. */
   decidedAt: string;
-}
-
-/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
-export const REVIEWED_STATUS: Record<ReviewDecision, string> = {
-  accepted: 'verified by data custodian',
-  rejected: 'requires georeference',
-};
-
-/**
- * The review file that goes with a gazetteer file.
- * @example reviewsDatabasePath('/data/whereabouts.sqlite') // '/data/whereabouts.reviews.sqlite'
- */
-export function reviewsDatabasePath(gazetteerPath: string): string {
-  return join(dirname(gazetteerPath), `${basename(gazetteerPath).replace(/\.sqlite$/, '')}.reviews.sqlite`);
 }
 
 export interface ReviewStore {

@@ -1,0 +1,68 @@
+/**
+ * The administrative filter by polygon: when the gazetteer holds the polygon of the stated county or
+ * state, a candidate whose center lies outside every polygon of that unit is dropped, and that
+ * level's name no longer filters (contextMismatch). Pure: the units come from the caller.
+ */
+import type { MultiPolygon, Polygon } from 'geojson';
+import { booleanPointInPolygon } from '@turf/turf';
+import type { ResolvedContext, SpatiallyDecided } from './context.ts';
+import type { Candidate, CandidateQuery, Feature } from './types.ts';
+
+/** Administrative levels from the smallest up, for the spatial test. */
+const UNIT_RANK: Readonly<Record<string, number>> = { county: 1, stateProvince: 2, country: 3 };
+
+/** The levels a polygon decided, and the test a candidate's center must pass. */
+export interface UnitPolygonFilter {
+  decided: SpatiallyDecided;
+  /** Why the feature lies outside a stated unit's polygon, or null. */
+  outside: (feature: Feature) => string | null;
+}
+
+/**
+ * The polygon filter of a query: `exactCandidates` finds the stated units by name, `attachGeometry`
+ * loads their polygons; a note for each unit used is added to `notes`.
+ * @example unitPolygonFilter({ name: 'Alto', context: { county: 'Norte' } }, context, notes, exact, attach).outside(feature)
+ * // "center outside the polygon of county 'Norte' (demo:c-3)"
+ */
+export function unitPolygonFilter(
+  query: CandidateQuery,
+  context: ResolvedContext,
+  notes: string[],
+  exactCandidates: (name: string) => Candidate[],
+  attachGeometry: (feature: Feature) => void,
+): UnitPolygonFilter {
+  const levels: { level: 'county' | 'stateProvince'; written: string | undefined }[] = [
+    { level: 'county', written: query.context.county },
+    { level: 'stateProvince', written: query.context.stateProvince },
+  ];
+  const tests: { level: string; units: Feature[] }[] = [];
+  const decided: SpatiallyDecided = {};
+  for (const { level, written } of levels) {
+    if (written === undefined || written.trim() === '' || query.featureTypes?.includes(level)) continue;
+    const units = exactCandidates(written)
+      .map((candidate) => candidate.feature)
+      .filter((feature) => feature.featureType === level
+        && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
+        && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode)));
+    if (units.length === 0) continue;
+    for (const unit of units) attachGeometry(unit);
+    decided[level] = true;
+    tests.push({ level, units });
+    notes.push(`${level === 'county' ? 'county' : 'state/province'} '${written}' checked against its polygon (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`);
+  }
+  return {
+    decided,
+    outside: (feature) => {
+      for (const { level, units } of tests) {
+        if (units.some((unit) => unit.sourceId === feature.sourceId && unit.featureId === feature.featureId)) continue;
+        // A state is not inside its county: units above the tested level are not tested.
+        if (UNIT_RANK[feature.featureType ?? ''] > UNIT_RANK[level]) continue;
+        const inside = units.some((unit) => booleanPointInPolygon([feature.longitude, feature.latitude], unit.geometry as Polygon | MultiPolygon));
+        if (!inside) {
+          return `center outside the polygon of ${level === 'county' ? 'county' : 'state/province'} '${units[0].name}' (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`;
+        }
+      }
+      return null;
+    },
+  };
+}

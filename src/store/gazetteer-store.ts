@@ -1,0 +1,518 @@
+/**
+ * The gazetteer store: one SQLite file (better-sqlite3, WAL, prepared statements only) holding every
+ * imported source, its features, the folded-name index and the deletion-neighbourhood token index that
+ * fuzzy lookups use instead of scanning (see src/match/edit-distance.ts). The store answers the
+ * index's questions (NameIndex); src/match/candidate-matcher.ts ranks the answers.
+ */
+import Database from 'better-sqlite3';
+import type { Geometry } from 'geojson';
+import { CandidateMatcher } from '../match/candidate-matcher.ts';
+import { storedTokenKeys } from '../match/edit-distance.ts';
+import { nameVariants } from '../match/fold.ts';
+import type {
+  Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
+} from '../match/types.ts';
+
+/** Schema version kept in PRAGMA user_version; a file of another version is refused, never guessed at. */
+export const SCHEMA_VERSION = 1;
+
+const SCHEMA = `
+CREATE TABLE sources (
+  id INTEGER PRIMARY KEY, name TEXT NOT NULL UNIQUE, citation TEXT NOT NULL, licence TEXT,
+  imported_at TEXT NOT NULL, content_hash TEXT NOT NULL, format TEXT NOT NULL, feature_count INTEGER NOT NULL
+);
+CREATE TABLE features (
+  id INTEGER PRIMARY KEY, source INTEGER NOT NULL, feature_id TEXT NOT NULL, name TEXT NOT NULL,
+  alternate_names TEXT, feature_type TEXT, country_code TEXT, state_province TEXT, county TEXT,
+  latitude REAL NOT NULL, longitude REAL NOT NULL, radius REAL NOT NULL, radius_default INTEGER NOT NULL,
+  geometry_type INTEGER NOT NULL, geometry TEXT
+);
+CREATE UNIQUE INDEX features_by_source_id ON features (source, feature_id);
+CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
+CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
+CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
+CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+`;
+
+const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
+/** Alternate names are stored joined by the ASCII unit separator, which no name contains. */
+const NAME_SEPARATOR = '\u001f';
+const TOKEN_CACHE_LIMIT = 200_000;
+/** Index pairs held before a sorted write: 8 MB for each index. */
+const PAIR_BUFFER = 1_000_000;
+/** Names held before a sorted write. */
+const NAME_BUFFER = 200_000;
+const IMPORT_CACHE_KIB = 98_304;
+const QUERY_CACHE_KIB = 65_536;
+/** Bytes of the file read through a memory map (SQLite caps it at its compile-time limit; the rest is read as usual). */
+const MMAP_BYTES = 2 ** 32;
+
+/** A feature as an importer hands it to the store: geometry as GeoJSON text (null for points). */
+export type FeatureRecord = Omit<Feature, 'sourceId' | 'geometry'> & { geometry: string | null };
+
+/** What a source is recorded with once its import is complete. */
+export interface SourceRecord {
+  citation: string;
+  licence: string | null;
+  contentHash: string;
+  format: string;
+}
+
+/** One import in progress: a single transaction, rolled back unless committed. */
+export interface ImportSession {
+  /** Adds a feature; returns null, or the reason it was refused (a duplicate id, say). */
+  add(record: FeatureRecord): string | null;
+  commit(source: SourceRecord): Source;
+  rollback(): void;
+}
+
+interface FeatureRow {
+  id: number;
+  source_name: string;
+  feature_id: string;
+  name: string;
+  alternate_names: string | null;
+  feature_type: string | null;
+  country_code: string | null;
+  state_province: string | null;
+  county: string | null;
+  latitude: number;
+  longitude: number;
+  radius: number;
+  radius_default: number;
+  geometry_type: number;
+  geometry?: string | null;
+}
+
+/** Rows a multi-row INSERT writes at once: one statement of many rows costs far less than many statements. */
+const ROWS_PER_INSERT = 100;
+
+/**
+ * INSERT OR IGNORE of rows into `table`, ROWS_PER_INSERT rows to a statement; `end` writes what is left.
+ * @example const writer = new RowWriter(db, 'postings', 2); writer.add(1, 10); writer.end();
+ */
+class RowWriter {
+  private readonly full: Database.Statement;
+  private readonly single: Database.Statement;
+  private readonly values: unknown[];
+  private size = 0;
+
+  constructor(db: Database.Database, table: string, private readonly columns: readonly string[]) {
+    const statement = (rows: number) => db.prepare(`INSERT OR IGNORE INTO ${table} (${columns.join(', ')}) VALUES `
+      + Array.from({ length: rows }, () => `(${columns.map(() => '?').join(', ')})`).join(', '));
+    this.full = statement(ROWS_PER_INSERT);
+    this.single = statement(1);
+    this.values = new Array<unknown>(columns.length * ROWS_PER_INSERT);
+  }
+
+  add(first: unknown, second: unknown): void {
+    this.values[this.size++] = first;
+    this.values[this.size++] = second;
+    if (this.size === this.values.length) {
+      this.full.run(this.values);
+      this.size = 0;
+    }
+  }
+
+  end(): void {
+    for (let at = 0; at < this.size; at += this.columns.length) this.single.run(this.values.slice(at, at + this.columns.length));
+    this.size = 0;
+  }
+}
+
+/**
+ * Pairs of 32-bit integers waiting to be written to an index table (deletion keys, postings), sorted
+ * before they go in: they arrive in random key order, and a B-tree fills faster in key order.
+ * Holds at most PAIR_BUFFER.
+ */
+class PairBuffer {
+  private pairs = new BigUint64Array(PAIR_BUFFER);
+  /** The same memory as 32-bit halves, the low half first (Node runs on little-endian machines). */
+  private halves = new Uint32Array(this.pairs.buffer);
+  private size = 0;
+
+  /** The first integer is written as a signed 32-bit value. */
+  constructor(private readonly writer: RowWriter) {}
+
+  add(first: number, second: number): void {
+    this.halves[2 * this.size] = second;
+    this.halves[2 * this.size + 1] = first;
+    if (++this.size === PAIR_BUFFER) this.flush();
+  }
+
+  flush(): void {
+    this.pairs.subarray(0, this.size).sort();
+    for (let i = 0; i < this.size; i++) this.writer.add(this.halves[2 * i + 1] | 0, this.halves[2 * i]);
+    this.writer.end();
+    this.size = 0;
+  }
+}
+
+/** Folded names waiting to be written to the names table in key order (see PairBuffer); at most NAME_BUFFER. */
+class NameBuffer {
+  private keys: string[] = [];
+  private features: number[] = [];
+
+  constructor(private readonly writer: RowWriter) {}
+
+  add(key: string, feature: number): void {
+    this.keys.push(key);
+    this.features.push(feature);
+    if (this.keys.length === NAME_BUFFER) this.flush();
+  }
+
+  flush(): void {
+    const keys = this.keys;
+    const order = Array.from(keys.keys()).sort((a, b) => (keys[a] < keys[b] ? -1 : keys[a] > keys[b] ? 1 : a - b));
+    for (const index of order) this.writer.add(keys[index], this.features[index]);
+    this.writer.end();
+    this.keys = [];
+    this.features = [];
+  }
+}
+
+interface TokenRow {
+  id: number;
+  token: string;
+  df: number;
+}
+
+interface SourceRow {
+  id: number;
+  name: string;
+  citation: string;
+  licence: string | null;
+  imported_at: string;
+  content_hash: string;
+  feature_count: number;
+}
+
+/** The SQLite gazetteer: CandidateFinder for the core, plus source management. */
+export interface GazetteerStore extends CandidateFinder {
+  lookupCandidates(query: CandidateQuery): CandidateLookup;
+  getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
+  sources(): Source[];
+  /** Removes a source and all its features; returns false when there is no such source. */
+  removeSource(id: string): boolean;
+  /** Starts an import of a source (replacing it if it exists) in one transaction. */
+  beginImport(sourceId: string): ImportSession;
+  close(): void;
+}
+
+/**
+ * Opens (creating when writable and absent) the gazetteer file at `path`.
+ * Throws when the file holds another schema version, or when `readonly` and the file does not exist.
+ * @example const store = openGazetteer('g.sqlite'); store.findCandidates({ name: 'Rosario', context: { countryCode: 'AR' } });
+ */
+export interface OpenOptions {
+  readonly?: boolean;
+  /**
+   * Read the file through a memory map (default true): about 15 % faster lookups, but the mapped pages
+   * count in the process's resident memory, so batch workers that must stay small turn it off.
+   */
+  memoryMap?: boolean;
+  /** SQLite page cache of a reading connection in KiB (default 65536). */
+  cacheKiB?: number;
+}
+
+export function openGazetteer(path: string, options: OpenOptions = {}): GazetteerStore {
+  return new SqliteGazetteer(path, options.readonly === true, options.memoryMap !== false, options.cacheKiB ?? QUERY_CACHE_KIB);
+}
+
+class SqliteGazetteer implements GazetteerStore {
+  private readonly db: Database.Database;
+  private readonly statements: Statements;
+  private readonly matcher: CandidateMatcher;
+
+  constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number) {
+    this.db = new Database(path, { readonly, fileMustExist: readonly });
+    const version = this.db.pragma('user_version', { simple: true }) as number;
+    if (version === 0 && !readonly) {
+      this.db.pragma('journal_mode = WAL');
+      this.db.exec(`BEGIN; ${SCHEMA} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
+    } else if (version !== SCHEMA_VERSION) {
+      this.db.close();
+      throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads version ${SCHEMA_VERSION}`);
+    }
+    if (!readonly) this.db.pragma('synchronous = NORMAL');
+    this.db.pragma(`cache_size = -${Math.round(cacheKiB)}`);
+    // Lookups seek into the token indexes at random: through a memory map a page costs no read call.
+    if (memoryMap) this.db.pragma(`mmap_size = ${MMAP_BYTES}`);
+    this.statements = prepareStatements(this.db);
+    this.matcher = new CandidateMatcher(sqliteNameIndex(this.statements));
+  }
+
+  findCandidates(query: CandidateQuery): Candidate[] {
+    return this.matcher.lookup(query).candidates;
+  }
+
+  lookupCandidates(query: CandidateQuery): CandidateLookup {
+    return this.matcher.lookup(query);
+  }
+
+  getFeature(sourceId: string, featureId: string, options: { withGeometry?: boolean } = {}): Feature | null {
+    const row = this.statements.featureBySourceId.get(sourceId, featureId) as FeatureRow | undefined;
+    if (row === undefined) return null;
+    const feature = toFeature(row);
+    if (options.withGeometry) attachGeometry(this.statements, feature);
+    return feature;
+  }
+
+  sources(): Source[] {
+    return (this.statements.allSources.all() as SourceRow[]).map(toSource);
+  }
+
+  removeSource(id: string): boolean {
+    this.matcher.forgetTokenMatches();
+    const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
+    if (row === undefined) return false;
+    this.db.transaction(() => {
+      this.deleteSourceRows(row.id);
+      this.refreshTokenCounts();
+    })();
+    return true;
+  }
+
+  beginImport(sourceId: string): ImportSession {
+    const db = this.db;
+    const s = this.statements;
+    // synchronous stays NORMAL: in WAL mode it syncs only at checkpoints, so a large transaction costs
+    // no syncs. Sorts for the index writes stay in memory.
+    db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
+    db.pragma('temp_store = MEMORY');
+    this.matcher.forgetTokenMatches();
+    db.exec('BEGIN');
+    const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
+    if (previous !== undefined) this.deleteSourceRows(previous.id);
+    const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
+    const tokenIds = new Map<string, number>();
+    const deletions = new PairBuffer(new RowWriter(db, 'deletions', ['hash', 'token']));
+    const postings = new PairBuffer(new RowWriter(db, 'postings', ['token', 'feature']));
+    const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
+    let count = 0;
+    let open = true;
+    // Into an empty token table, a token the cache has not seen is new: no need to look it up.
+    let everyTokenCached = s.anyToken.get() === undefined;
+    const tokenId = (token: string): number => {
+      const cached = tokenIds.get(token);
+      if (cached !== undefined) return cached;
+      const existing = everyTokenCached ? undefined : s.tokenByText.get(token) as TokenRow | undefined;
+      let id: number;
+      if (existing !== undefined) {
+        id = existing.id;
+      } else {
+        id = Number(s.insertToken.run(token).lastInsertRowid);
+        for (const hash of storedTokenKeys(token)) deletions.add(hash, id);
+      }
+      if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
+        tokenIds.clear();
+        everyTokenCached = false;
+      }
+      tokenIds.set(token, id);
+      return id;
+    };
+    const finish = () => {
+      open = false;
+      this.matcher.forgetTokenMatches();
+      db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
+    };
+    return {
+      add: (record) => {
+        let rowId: number;
+        try {
+          rowId = Number(s.insertFeature.run(
+            sourceRowId, record.featureId, record.name,
+            record.alternateNames.length > 0 ? record.alternateNames.join(NAME_SEPARATOR) : null,
+            record.featureType, record.countryCode, record.stateProvince, record.county,
+            record.latitude, record.longitude, record.radiusMeters, record.radiusIsDefault ? 1 : 0,
+            GEOMETRY_TYPES.indexOf(record.geometryType), record.geometry,
+          ).lastInsertRowid);
+        } catch (error) {
+          if (error instanceof Database.SqliteError && error.code === 'SQLITE_CONSTRAINT_UNIQUE') return `duplicate id '${record.featureId}'`;
+          throw error;
+        }
+        const keys = new Set<string>();
+        for (const written of [record.name, ...record.alternateNames]) for (const variant of nameVariants(written)) keys.add(variant.key);
+        const tokens = new Set<string>();
+        for (const key of keys) {
+          if (key === '') continue;
+          names.add(key, rowId);
+          for (const token of key.split(' ')) tokens.add(token);
+        }
+        for (const token of tokens) postings.add(tokenId(token), rowId);
+        count++;
+        return null;
+      },
+      commit: (source) => {
+        if (!open) throw new Error('import already finished');
+        deletions.flush();
+        postings.flush();
+        names.flush();
+        this.refreshTokenCounts();
+        s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
+        db.exec('COMMIT');
+        finish();
+        return toSource(s.sourceByName.get(sourceId) as SourceRow);
+      },
+      rollback: () => {
+        if (!open) return;
+        if (db.inTransaction) db.exec('ROLLBACK');
+        finish();
+      },
+    };
+  }
+
+  close(): void {
+    this.db.close();
+  }
+
+  private deleteSourceRows(sourceRowId: number): void {
+    const s = this.statements;
+    s.deleteSourcePostings.run(sourceRowId);
+    s.deleteSourceNames.run(sourceRowId);
+    s.deleteSourceFeatures.run(sourceRowId);
+    s.deleteSource.run(sourceRowId);
+  }
+
+  /** Document frequencies drive which query tokens are read first; tokens left with none are removed. */
+  private refreshTokenCounts(): void {
+    this.db.exec('UPDATE tokens SET df = (SELECT count(*) FROM postings p WHERE p.token = tokens.id)');
+    // The deletion keys are not indexed by token: they are scanned only when a token has gone.
+    if (this.statements.anyUnusedToken.get() !== undefined) {
+      this.db.exec(`DELETE FROM deletions WHERE token IN (SELECT id FROM tokens WHERE df = 0);
+        DELETE FROM tokens WHERE df = 0;`);
+    }
+  }
+}
+
+type Statements = ReturnType<typeof prepareStatements>;
+
+function attachGeometry(s: Statements, feature: Feature): void {
+  if (feature.geometryType === 'Point' || feature.geometry !== undefined) return;
+  const row = s.geometryBySourceId.get(feature.sourceId, feature.featureId) as { geometry: string | null } | undefined;
+  if (row?.geometry) feature.geometry = JSON.parse(row.geometry) as Geometry;
+}
+
+/**
+ * The store's answers to matching's questions: one prepared statement each, id lists passed as JSON
+ * arrays (json_each), so a lookup costs a few statements whatever the number of ids.
+ * @example new CandidateMatcher(sqliteNameIndex(prepareStatements(db))).lookup({ name: 'Alto', context: {} })
+ */
+function sqliteNameIndex(s: Statements): NameIndex {
+  return {
+    version: () => s.dataVersion.get() as number,
+    featureIdsByName: (key) => (s.featuresByKey.all(key) as { feature: number }[]).map((row) => row.feature),
+    feature: (id) => {
+      const row = s.featureById.get(id) as FeatureRow | undefined;
+      return row === undefined ? null : toFeature(row);
+    },
+    features: (ids) => new Map((s.featuresByIds.all(JSON.stringify(ids)) as FeatureRow[]).map((row) => [row.id, toFeature(row)])),
+    namesOf: (ids) => (s.namesByIds.all(JSON.stringify(ids)) as { id: number; name: string; alternate_names: string | null }[])
+      .map((row) => ({ id: row.id, names: row.alternate_names === null ? [row.name] : [row.name, ...row.alternate_names.split(NAME_SEPARATOR)] })),
+    token: (token) => {
+      const row = s.tokenByText.get(token) as TokenRow | undefined;
+      return row === undefined ? undefined : { id: row.id, df: row.df };
+    },
+    // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+    tokensByDeletionKeys: (keys) => s.tokensByDeletion.all(JSON.stringify(keys)) as [number, string, number][],
+    postings: (tokenIds, countries, limit) => (countries === null
+      ? s.postings.all(JSON.stringify(tokenIds), limit)
+      : s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit)) as Posting[],
+    postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
+      const partnerIds = JSON.stringify(partners.map((token) => token.id));
+      // Whichever side has fewer postings is read, each probed for the other side (one index seek a row).
+      const partnerPostings = partners.reduce((sum, token) => sum + token.df, 0);
+      const [plain, inCountries] = partnerPostings < driver.df * partners.length
+        ? [s.partnerPostingsWithDriver, s.partnerPostingsWithDriverInCountries]
+        : [s.postingsWithPartner, s.postingsWithPartnerInCountries];
+      return (countries === null
+        ? plain.all({ driver: driver.id, partners: partnerIds, limit })
+        : inCountries.all({ driver: driver.id, partners: partnerIds, limit, countries: JSON.stringify(countries) })) as Posting[];
+    },
+    attachGeometry: (feature) => attachGeometry(s, feature),
+  };
+}
+
+
+const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
+  f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type`;
+
+/** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
+function prepareStatements(db: Database.Database) {
+  return {
+    insertSource: db.prepare(`INSERT INTO sources (name, citation, licence, imported_at, content_hash, format, feature_count)
+      VALUES (?, '', NULL, ?, '', '', 0)`),
+    completeSource: db.prepare('UPDATE sources SET citation = ?, licence = ?, content_hash = ?, format = ?, feature_count = ? WHERE id = ?'),
+    deleteSource: db.prepare('DELETE FROM sources WHERE id = ?'),
+    deleteSourceFeatures: db.prepare('DELETE FROM features WHERE source = ?'),
+    deleteSourceNames: db.prepare('DELETE FROM names WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
+    deleteSourcePostings: db.prepare('DELETE FROM postings WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
+    insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
+      state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry)
+      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+    insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
+    allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
+    sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
+    featureById: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source WHERE f.id = ?`),
+    featureBySourceId: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
+      WHERE s.name = ? AND f.feature_id = ?`),
+    geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
+      WHERE s.name = ? AND f.feature_id = ?`),
+    namesByIds: db.prepare('SELECT id, name, alternate_names FROM features WHERE id IN (SELECT value FROM json_each(?))'),
+    featuresByIds: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
+      WHERE f.id IN (SELECT value FROM json_each(?))`),
+    featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
+    dataVersion: db.prepare('PRAGMA data_version').pluck(),
+    tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
+    anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),
+    anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
+    tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM tokens t
+      WHERE t.id IN (SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?)))`).raw(),
+    postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?'),
+    postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = @driver
+      AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`),
+    postingsWithPartnerInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
+      WHERE p.token = @driver
+        AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners)))
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`),
+    partnerPostingsWithDriver: db.prepare(`SELECT q.feature, @driver AS token FROM postings q
+      WHERE q.token IN (SELECT value FROM json_each(@partners))
+        AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature) LIMIT @limit`),
+    partnerPostingsWithDriverInCountries: db.prepare(`SELECT q.feature, @driver AS token FROM postings q JOIN features f ON f.id = q.feature
+      WHERE q.token IN (SELECT value FROM json_each(@partners))
+        AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`),
+    postingsInCountries: db.prepare(`SELECT p.feature, p.token FROM postings p JOIN features f ON f.id = p.feature
+      WHERE p.token IN (SELECT value FROM json_each(?))
+        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`),
+  };
+}
+
+function toFeature(row: FeatureRow): Feature {
+  return {
+    sourceId: row.source_name,
+    featureId: row.feature_id,
+    name: row.name,
+    alternateNames: row.alternate_names === null ? [] : row.alternate_names.split(NAME_SEPARATOR),
+    featureType: row.feature_type,
+    countryCode: row.country_code,
+    stateProvince: row.state_province,
+    county: row.county,
+    latitude: row.latitude,
+    longitude: row.longitude,
+    radiusMeters: row.radius,
+    radiusIsDefault: row.radius_default === 1,
+    geometryType: GEOMETRY_TYPES[row.geometry_type],
+  };
+}
+
+function toSource(row: SourceRow): Source {
+  return {
+    id: row.name,
+    citation: row.citation,
+    licence: row.licence,
+    importedAt: row.imported_at,
+    contentHash: row.content_hash,
+    featureCount: row.feature_count,
+  };
+}
