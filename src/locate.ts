@@ -12,6 +12,7 @@ import { METHOD_DEFAULTS } from './georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, wideningFor } from './locate/other-clauses.ts';
 import { findUnit, unitNamed } from './locate/administrative-unit.ts';
 import { justOutside } from './locate/just-outside.ts';
+import { kindMismatch } from './locate/feature-kind.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -105,6 +106,8 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   }
   if (!resolved.ok) return resolved.result;
   const { candidates, readings, matchRemarks } = resolved;
+  const mismatches = (readings[0] ?? []).map((feature) => kindMismatch(used.featureKind, used.features[0] ?? '', feature));
+  if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
   const unusedRule = options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule;

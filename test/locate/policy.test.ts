@@ -16,6 +16,7 @@ import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-st
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { FUZZY_ACCEPTANCE, locate } from '../../src/locate.ts';
 import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
+import { kindMismatch } from '../../src/locate/feature-kind.ts';
 import { parseLocality, type Interpretation } from '../../src/parse/index.ts';
 
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-policy-'));
@@ -160,5 +161,20 @@ describe('distances the cases above rest on (Vincenty, geodesy 2.4.0)', () => {
     const lake = store.findCandidates({ name: 'Laguna Azul', context: { countryCode: 'QV' } })[0]!.feature;
     const d = new LatLon(lindo.latitude, lindo.longitude).distanceTo(new LatLon(lake.latitude, lake.longitude));
     expect(d).toBeGreaterThan(lindo.radiusMeters + lake.radiusMeters);
+  });
+});
+
+describe('what the text says a place is', () => {
+  it('declines a town for a farm that shares its name', () => {
+    const town = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
+    expect(kindMismatch('farm', 'Estancia Puerto Lindo', town)).toMatch(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/);
+    expect(kindMismatch('populated-place', 'Puerto Lindo', town)).toBeNull();
+    expect(kindMismatch(undefined, 'Puerto Lindo', town)).toBeNull();
+  });
+
+  it('keeps a farm for a farm', () => {
+    const farm = store.findCandidates({ name: 'Fazenda Boa Vista', context: { countryCode: 'QV' } })[0]!.feature;
+    expect(farm.featureType).toBe('farm');
+    expect(kindMismatch('farm', 'Fazenda Boa Vista', farm)).toBeNull();
   });
 });
