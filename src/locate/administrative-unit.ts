@@ -8,9 +8,12 @@ import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
 import { foldName } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 
-/** The record fields that name a unit, widest last, with the level each stands for. */
+/**
+ * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
+ * municipality usually bears its seat's name, and a label that writes it alone means the town
+ * ("Mun. Brusque: … Brusque").
+ */
 const RECORD_LEVELS = [
-  ['municipality', 'municipality'],
   ['county', 'county'],
   ['stateProvince', 'stateProvince'],
   ['country', 'country'],
@@ -18,7 +21,7 @@ const RECORD_LEVELS = [
 
 /**
  * The unit the reading names, or null: an 'administrative-unit' reading, or a lone named place
- * whose name is one of the record's own units (its country, state/province, county or municipality).
+ * whose name is one of the record's own units (its country, state/province or county).
  * @example unitNamed(parseLocality('Alisos'), { countryCode: 'QV', county: 'Alisos' }) // { name: 'Alisos', level: 'county', written: 'Alisos' }
  */
 export function unitNamed(interpretation: Interpretation, context: AdministrativeContext): NamedUnit | null {
