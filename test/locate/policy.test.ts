@@ -48,6 +48,13 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
     expect(result.georeference!.remarks.join('\n')).toContain(`names the ${words} "${locality}": georeferenced as that unit by its polygon`);
   });
 
+  it('reads the record\'s country named in any of the four languages as the country ("Brasil" for BR)', () => {
+    // Country names from the CLDR region names that Node's Intl carries; no Brazil polygon is loaded.
+    const result = locate(store, { locality: 'Brasil', countryCode: 'BR' });
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/"Brasil" names the country "Brasil", not a place/);
+  });
+
   it('declines a unit whose polygon is not loaded, and says why ([CHOICE] unitWithoutPolygon)', () => {
     // "Puerto Lindo" as the record's county: no county polygon of that name, only the city.
     const result = locate(store, { locality: 'Puerto Lindo', countryCode: 'QV', county: 'Puerto Lindo' });
