@@ -20,7 +20,7 @@ export const METHOD_DEFAULTS = {
    * measurement on the real-record set (test/fixtures/real, npm run bench:real): see README
    * "On real records" for the figures of each value tried.
    */
-  unusedFeatureMeters: 60000,
+  unusedFeatureMeters: 120000,
   /** What such a place does to the answer: 'widen' by unusedFeatureMeters, or 'decline' with the reason [CHOICE]. */
   unusedFeatureRule: 'widen',
   /**

@@ -33,7 +33,7 @@ export interface MethodOptions {
   mapScale?: number;
   /** Stated measurement error in meters (added as given). */
   measurementErrorMeters?: number;
-  /** How far a named place the gazetteer lacks may lie from the place used; default 60 km ([CHOICE]). */
+  /** How far a named place the gazetteer lacks may lie from the place used; default 120 km ([CHOICE]). */
   unusedFeatureMeters?: number;
   /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
   unusedFeatureRule?: 'widen' | 'decline';
