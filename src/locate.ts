@@ -9,7 +9,7 @@ import { coverGeoreferences } from './georef/cover.ts';
 import { georeference } from './georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 import { METHOD_DEFAULTS } from './georef/method-defaults.ts';
-import { checkOtherClauses, conflictWith, readingOf, wideningFor } from './locate/other-clauses.ts';
+import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './locate/other-clauses.ts';
 import { findUnit, unitNamed } from './locate/administrative-unit.ts';
 import { justOutside } from './locate/just-outside.ts';
 import { kindMismatch } from './locate/feature-kind.ts';
@@ -110,12 +110,12 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
-  const unusedRule = options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule;
-  if (unusedRule === 'decline' && (fallbackFrom || others.missing.length > 0)) {
-    const names = [fallbackFrom, ...others.missing.map((m) => m.name)].filter(Boolean).map((n) => `"${n}"`).join(', ');
-    return { status: 'not-found', interpretation: used, candidates, reason: `${names} named but not in the loaded gazetteers: the specimen may come from there, so no georeference is given [CHOICE unusedFeatureRule 'decline', src/georef/method-defaults.ts]` };
-  }
-  const widening = wideningFor(others, fallbackFrom, options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters);
+  const unused = unusedPlaces(others, fallbackFrom, {
+    rule: options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule,
+    meters: options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters,
+  });
+  if ('decline' in unused) return { status: 'not-found', interpretation: used, candidates, reason: unused.decline };
+  const { widening } = unused;
   const pathLine = findPathLine(finder, used, context);
   // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
   const boundingUnit = findBoundingUnit(finder, context, used.type === 'heading-only' ? 'country' : 'stateProvince');

@@ -43,18 +43,31 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
 }
 
 /**
- * The radius term for places the answer cannot rest on: the missing names of the other clauses, and
- * the name of the chosen clause when a later clause had to be used instead (`fallbackFrom`).
- * @example wideningFor({ missing: [{ clause: 1, name: 'Laguna Negra' }], found: [] }, undefined, 25000)
- *   // { meters: 25000, remark: '"Laguna Negra" is named but not in the loaded gazetteers: …' }
+ * What the places the answer cannot rest on do to it: the missing names of the other clauses, and the
+ * name of the chosen clause when a later clause had to be used instead (`fallbackFrom`). By the
+ * [CHOICE]s unusedFeatureRule and unusedFeatureMeters: a radius term with its remark, or the reason to
+ * decline; nothing when every named place was found.
+ * @example unusedPlaces({ missing: [{ clause: 1, name: 'Laguna Negra' }], found: [] }, undefined, { rule: 'widen', meters: 120000 })
+ *   // { widening: { meters: 120000, remark: '"Laguna Negra" is named but not in the loaded gazetteers: …' } }
  */
-export function wideningFor(check: OtherClauseCheck, fallbackFrom: string | undefined, meters: number): { meters: number; remark: string } | undefined {
+export function unusedPlaces(
+  check: OtherClauseCheck,
+  fallbackFrom: string | undefined,
+  choice: { rule: 'widen' | 'decline'; meters: number },
+): { widening?: { meters: number; remark: string } } | { decline: string } {
   const names = [...(fallbackFrom ? [fallbackFrom] : []), ...check.missing.map((m) => m.name)];
-  if (names.length === 0 || meters <= 0) return undefined;
+  if (names.length === 0) return {};
   const quoted = names.map((n) => `"${n}"`).join(', ');
+  const verb = names.length === 1 ? 'is' : 'are';
+  if (choice.rule === 'decline') {
+    return { decline: `${quoted} ${verb} named but not in the loaded gazetteers: the specimen may come from there, so no georeference is given [CHOICE unusedFeatureRule 'decline', src/georef/method-defaults.ts]` };
+  }
+  if (choice.meters <= 0) return {};
   return {
-    meters,
-    remark: `${quoted} ${names.length === 1 ? 'is' : 'are'} named but not in the loaded gazetteers: the specimen may come from there, so the radius grows by ${(meters / 1000).toFixed(0)} km, the distance such a place is taken to lie from the place used [CHOICE unusedFeatureMeters, src/georef/method-defaults.ts]`,
+    widening: {
+      meters: choice.meters,
+      remark: `${quoted} ${verb} named but not in the loaded gazetteers: the specimen may come from there, so the radius grows by ${(choice.meters / 1000).toFixed(0)} km, the distance such a place is taken to lie from the place used [CHOICE unusedFeatureMeters, src/georef/method-defaults.ts]`,
+    },
   };
 }
 

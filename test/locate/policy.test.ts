@@ -91,7 +91,7 @@ describe('a place the text names but the gazetteer lacks', () => {
   it('declines instead when the rule is set to decline', () => {
     const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV', options: { unusedFeatureRule: 'decline' } });
     expect(result.status).toBe('not-found');
-    expect(result.reason).toMatch(/"Laguna Negra" named but not in the loaded gazetteers.*\[CHOICE unusedFeatureRule 'decline'/);
+    expect(result.reason).toMatch(/"Laguna Negra" is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureRule 'decline'/);
   });
 
   it('keeps the town\'s radius when the other clause is the record\'s own unit', () => {
