@@ -1,4 +1,4 @@
-/** Uncertainty from how coordinates are written (method §5.3, BP2020 §Uncertainty Related to Coordinate Precision). */
+/** Uncertainty from how coordinates are written (docs/method.md §5.3, BP2020 §Uncertainty Related to Coordinate Precision). */
 
 const A = 6378137; // WGS84 semi-major axis, m
 const F = 1 / 298.257223563; // WGS84 flattening
@@ -6,7 +6,7 @@ const E2 = F * (2 - F); // first eccentricity squared
 const RADIANS = Math.PI / 180;
 
 /**
- * Lengths of one degree of latitude and of longitude at a latitude on WGS84 (method §5.3):
+ * Lengths of one degree of latitude and of longitude at a latitude on WGS84 (docs/method.md §5.3):
  * `Llat = (π/180)·a(1−e²)/(1−e²sin²φ)^1.5` (meridian radius of curvature) and
  * `Llon = (π/180)·a·cos φ/sqrt(1−e²sin²φ)`. Exact for longitude; for latitude it is the local rate,
  * which differs from the arc of a whole degree by under 0.002 % (third-order term of the meridian arc).
@@ -24,7 +24,7 @@ export function degreeLengthsMeters(latitude: number): { latitude: number; longi
 /**
  * Uncertainty in meters of coordinates written to a precision of `precisionDegrees` (e.g. 0.01 for two
  * decimals, 1/60 for whole minutes) at a latitude: the full step on each axis, combined,
- * `U = p·sqrt(Llat² + Llon²)` (method §5.3). Accuracy: that of degreeLengthsMeters, i.e. better than
+ * `U = p·sqrt(Llat² + Llon²)` (docs/method.md §5.3). Accuracy: that of degreeLengthsMeters, i.e. better than
  * 0.002 %, well inside the published table's ±1 m rounding.
  * @example coordinatePrecisionMeters(10.27, 0.01) // ≈ 1556.8
  */

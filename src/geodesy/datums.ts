@@ -1,12 +1,12 @@
 /**
- * Geodetic datums found on specimen labels, how they are written, and their shift to WGS84 (method §5.4).
+ * Geodetic datums found on specimen labels, how they are written, and their shift to WGS84 (docs/method.md §5.4).
  * proj4 knows no shift for most datums (`+datum=NAD27` silently applies none), so each entry carries
  * explicit `+towgs84` parameters with the EPSG transformation they come from. Where the best EPSG
  * transformation needs a grid file we do not ship (NADCON, NTv2, OSTN15), the published 3- or
  * 7-parameter one is used and its stated accuracy is carried into the datum term.
- * Parameters and EPSG transformation codes are from the EPSG Geodetic Parameter Dataset and NIMA
- * TR8350.2 (2000) Appendix B, written from memory; test/geodesy/datums.test.ts checks every shift
- * against the proj4 strings of the EPSG dataset as packaged in epsg-index.
+ * Parameters are those of the EPSG Geodetic Parameter Dataset transformation named in each entry;
+ * test/geodesy/datums.test.ts checks every entry against the dataset: the proj4 strings packaged in
+ * epsg-index where they carry the shift, the transformation record itself where epsg-index has only a grid.
  */
 import proj4 from 'proj4';
 
@@ -98,9 +98,9 @@ export const DATUMS: readonly DatumDefinition[] = [
     name: 'Corrego Alegre 1970-72',
     names: ['Corrego Alegre', 'Corrego Alegre 1970-72', 'Corrego Alegre 1970 72'],
     ellipsoid: '+ellps=intl',
-    towgs84: '-206,172,-6,0,0,0,0',
-    transformation: 'EPSG:1574 Corrego Alegre to WGS 84 (1), Brazil mean, 3-parameter (IBGE grid not shipped)',
-    accuracyMeters: 10,
+    towgs84: '-206.05,168.28,-3.82,0,0,0,0',
+    transformation: 'EPSG:6194 Corrego Alegre 1970-72 to WGS 84 (4), Brazil, 3-parameter (IBGE grid not shipped)',
+    accuracyMeters: 5,
     areaOfUse: [-2.68, -58.16, -33.78, -34.74],
   },
   {
@@ -118,9 +118,9 @@ export const DATUMS: readonly DatumDefinition[] = [
     name: 'AGD66',
     names: ['AGD 66', 'AGD 1966', 'Australian Geodetic Datum 1966', 'Australian Geodetic 1966'],
     ellipsoid: '+ellps=aust_SA',
-    towgs84: '-133,-48,148,0,0,0,0',
-    transformation: 'EPSG:1108 AGD66 to WGS 84 (1), Australia mean, 3-parameter (national grid not shipped)',
-    accuracyMeters: 10,
+    towgs84: '-127.8,-52.3,152.9,0,0,0,0',
+    transformation: 'EPSG:15788, the parameters of EPSG:1278 AGD66 to GDA94 (1), Australia, 3-parameter (national grid not shipped)',
+    accuracyMeters: 5,
     areaOfUse: [-1.3, 109.23, -47.2, 163.2],
   },
   {
@@ -139,9 +139,9 @@ export const DATUMS: readonly DatumDefinition[] = [
     name: 'Tokyo',
     names: ['Tokyo', 'Tokyo Datum'],
     ellipsoid: '+ellps=bessel',
-    towgs84: '-148,507,685,0,0,0,0',
-    transformation: 'EPSG:1305 Tokyo to WGS 84 (1), Japan/Korea mean, 3-parameter',
-    accuracyMeters: 29,
+    towgs84: '-146.414,507.337,680.507,0,0,0,0',
+    transformation: 'EPSG:15484 Tokyo to WGS 84 (108), Japan, 3-parameter',
+    accuracyMeters: 9,
     areaOfUse: [45.54, 122.83, 20.37, 154.05],
   },
   {
@@ -169,8 +169,8 @@ export const DATUMS: readonly DatumDefinition[] = [
     name: 'WGS 72',
     names: ['WGS 72', 'WGS 1972', 'World Geodetic System 1972'],
     ellipsoid: '+ellps=WGS72',
-    towgs84: '0,0,4.5,0,0,0.554,0.2263',
-    transformation: 'EPSG:1237 WGS 72 to WGS 84 (1), 7-parameter',
+    towgs84: '0,0,4.5,0,0,0.554,0.219',
+    transformation: 'EPSG:1238 WGS 72 to WGS 84 (2), 7-parameter, position vector',
     accuracyMeters: 2,
     areaOfUse: [90, -180, -90, 180],
   },
@@ -243,7 +243,7 @@ export interface Wgs84Position {
 }
 
 /** Whether a point lies in an EPSG bounding box [north, west, south, east] (west > east wraps past 180°). */
-function withinArea(latitude: number, longitude: number, [north, west, south, east]: DatumDefinition['areaOfUse']): boolean {
+export function withinArea(latitude: number, longitude: number, [north, west, south, east]: DatumDefinition['areaOfUse']): boolean {
   const inLongitude = west <= east ? longitude >= west && longitude <= east : longitude >= west || longitude <= east;
   return latitude <= north && latitude >= south && inLongitude;
 }
@@ -262,3 +262,4 @@ export function toWgs84(latitude: number, longitude: number, datumEpsg: string):
   const [lon, lat] = proj4(geographicProj4(datum), WGS84_PROJ4, [longitude, latitude]);
   return { latitude: lat!, longitude: lon!, accuracyMeters: datum.accuracyMeters, transformation: datum.transformation, withinAreaOfUse };
 }
+

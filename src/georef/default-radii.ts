@@ -1,7 +1,6 @@
 /**
- * Default geographic radials for gazetteer points that carry no extent (method §4: "a gazetteer point
- * with no extent gets a default radius for its feature type from a documented table [CHOICE: BP2020
- * gives none; err large]"). Every value is a judgement, so each says why; a source may override any of
+ * Default geographic radials for gazetteer points that carry no extent, by feature type (docs/method.md §4
+ * [CHOICE]: BP2020 gives no table, so the values err large). Every value is a judgement, so each says why; a source may override any of
  * them at import (`radii` option of importGazetteer).
  */
 

@@ -1,5 +1,5 @@
 /**
- * Corrected center and geographic radial of a gazetteer feature (method §4, point-radius.md).
+ * Corrected center and geographic radial of a gazetteer feature (docs/method.md §4).
  */
 import type { Geometry, Position } from 'geojson';
 import { localProjection, normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
@@ -44,7 +44,7 @@ const CONVERGED_METERS = 0.001;
 const GOLDEN_SECTION_STEPS = 64;
 
 /**
- * Corrected center and geographic radial (method §4): the smallest enclosing circle (SEC) of the
+ * Corrected center and geographic radial (docs/method.md §4): the smallest enclosing circle (SEC) of the
  * vertices when its center lies inside or on the feature; otherwise the point in or on the feature that
  * minimises the largest distance to the vertices (searched per segment, exactly, since the objective is
  * convex along a segment; for areas the optimum then lies on the boundary, because moving from an

@@ -1,10 +1,9 @@
 /** Footprints: the uncertainty circle as a polygon, sectors, and shapes clipped to an administrative unit. */
-import type { Feature, Geometry, MultiPolygon, Polygon, Position } from 'geojson';
-import { bboxClip, booleanPointInPolygon, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
-import { intersection, type Geometry as ClipGeometry } from 'martinez-polygon-clipping';
+import type { Geometry, MultiPolygon, Polygon, Position } from 'geojson';
+import { bboxClip, booleanPointInPolygon, featureCollection, intersect, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
+import { intersection as fastIntersection, type Geometry as ClipGeometry } from 'martinez-polygon-clipping';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
-import { unwrapGeometry } from '../geodesy/unwrap.ts';
 import { polygonsToWKT } from '../geodesy/wkt.ts';
 import { METHOD_DEFAULTS } from './method-defaults.ts';
 
@@ -82,38 +81,110 @@ export interface ClippedShape {
   footprintWKT: string;
   /** The clipped shape as GeoJSON, longitudes unwrapped around the shape. */
   geometry: Polygon | MultiPolygon;
+  /**
+   * Set when the clipping library failed on these shapes: the shape is then returned unclipped (larger
+   * than it should be, never smaller), and this says why, for the remarks.
+   */
+  unclippedBecause?: string;
 }
 
 /**
- * A ring (longitudes unwrapped around `referenceLongitude`) intersected with a unit's polygon (its
+ * A ring (its longitudes unwrapped around its own center: they may pass ±180) intersected with a unit's polygon (its
  * corrected center and radial, when wanted, are featureExtent(geometry)); undefined when they do not
- * overlap or the unit has no polygon. The intersection is computed in lon/lat by the Martinez–Rueda
- * sweep (martinez-polygon-clipping; about 14 times faster here than turf's intersect on the same
- * shapes), with edges straight in lon/lat: for rings with edges of a few km this is within meters of
- * the geodesic shapes.
+ * overlap or the unit has no polygon. The intersection is planar in lon/lat (intersectPolygons), with
+ * edges straight in lon/lat: for rings with edges of a few km this is within meters of the geodesic shapes.
+ * Never throws on geometry: should both clipping libraries fail, the ring comes back unclipped with
+ * `unclippedBecause` set.
  */
-export function clipRingToUnit(ring: Position[], referenceLongitude: number, unitGeometry: Geometry): ClippedShape | undefined {
+export function clipRingToUnit(ring: Position[], unitGeometry: Geometry): ClippedShape | undefined {
   if (unitGeometry.type !== 'Polygon' && unitGeometry.type !== 'MultiPolygon') return undefined;
-  const unit = unwrapGeometry(unitGeometry, referenceLongitude);
-  const unitRings = unit.type === 'Polygon' ? unit.coordinates : unit.coordinates.flat();
   const box = boxOf(ring);
+  const unit = unitNear(unitGeometry, box);
+  if (!unit) return undefined;
+  const unitRings = unit.flat();
+  const whole: ClippedShape = { footprintWKT: polygonsToWKT([[ring]]), geometry: { type: 'Polygon', coordinates: [ring] } };
   if (!boundariesMeet(ring, box, unitRings)) {
     // No edge crosses and no part of the unit lies inside the ring: the ring is wholly in or wholly out.
-    if (!booleanPointInPolygon(ring[0]!, unit)) return undefined;
-    return { footprintWKT: polygonsToWKT([[ring]]), geometry: { type: 'Polygon', coordinates: [ring] } };
+    return booleanPointInPolygon(ring[0]!, turfMultiPolygon(unit)) ? whole : undefined;
   }
-  const unitFeature: Feature<Polygon | MultiPolygon> = unit.type === 'Polygon' ? turfPolygon(unit.coordinates) : turfMultiPolygon(unit.coordinates);
-  // Only the part of the unit inside the ring's box can meet it: cutting the unit to that box first
-  // keeps the polygon clipping small, whatever the size of the unit.
-  const [west, south, east, north] = box;
-  const margin = 1e-9 + (east - west + north - south) * 1e-6;
-  const nearby = bboxClip(unitFeature, [west - margin, south - margin, east + margin, north + margin]) as Feature<Polygon | MultiPolygon>;
-  const pieces = intersection([ring] as ClipGeometry, nearby.geometry.coordinates as ClipGeometry);
-  if (!pieces || pieces.length === 0) return undefined;
-  // The result is Polygon coordinates when it is one piece, MultiPolygon coordinates otherwise.
-  const polygons = ((typeof (pieces as Position[][])[0]![0]![0] === 'number' ? [pieces] : pieces) as Position[][][]).map(orientRings);
-  const geometry: Polygon | MultiPolygon = polygons.length === 1 ? { type: 'Polygon', coordinates: polygons[0]! } : { type: 'MultiPolygon', coordinates: polygons };
-  return { footprintWKT: polygonsToWKT(polygons), geometry };
+  try {
+    // Only the part of the unit inside the ring's box can meet it: cutting the unit to that box first
+    // keeps the polygon clipping small, whatever the size of the unit.
+    const [west, south, east, north] = box;
+    const margin = 1e-9 + (east - west + north - south) * 1e-6;
+    const nearby = bboxClip(turfMultiPolygon(unit), [west - margin, south - margin, east + margin, north + margin]) as GeoJSON.Feature<Polygon | MultiPolygon>;
+    // The box cut can leave rings too short to be rings (a corner grazed); they hold no area.
+    const cut = (nearby.geometry.type === 'Polygon' ? [nearby.geometry.coordinates] : nearby.geometry.coordinates)
+      .map((rings) => rings.filter((r) => r.length >= 4))
+      .filter((rings) => rings.length > 0);
+    if (cut.length === 0) return undefined;
+    const polygons = intersectPolygons(ring, cut).map(orientRings);
+    if (polygons.length === 0) return undefined;
+    return {
+      footprintWKT: polygonsToWKT(polygons),
+      geometry: polygons.length === 1 ? { type: 'Polygon', coordinates: polygons[0]! } : { type: 'MultiPolygon', coordinates: polygons },
+    };
+  } catch (error) {
+    return { ...whole, unclippedBecause: `the polygon clipping failed (${error instanceof Error ? error.message : String(error)})` };
+  }
+}
+
+/**
+ * The unit's polygons, and their copies 360° east or west, that reach into the ring's box (the ring's
+ * longitudes are unwrapped around its center, so near the antimeridian they pass ±180). Each ring is first
+ * made continuous (no edge jumps more than 180° of longitude), so that an island written across ±180 keeps
+ * its shape; a ring that encircles a pole (Antarctica), which cannot be made continuous, is kept as written.
+ */
+function unitNear(unitGeometry: Polygon | MultiPolygon, [west, south, east, north]: Box): Position[][][] | undefined {
+  const polygons = unitGeometry.type === 'Polygon' ? [unitGeometry.coordinates] : unitGeometry.coordinates;
+  const near: Position[][][] = [];
+  for (const written of polygons) {
+    if (!written[0] || written[0].length < 4) continue;
+    const polygon = written.map((ring) => continuousRing(ring, written[0]![0]![0]!));
+    const [w, s, e, n] = boxOf(polygon[0]!);
+    if (s > north || n < south) continue;
+    for (const shift of [-360, 0, 360]) {
+      if (w + shift > east || e + shift < west) continue;
+      near.push(shift === 0 ? polygon : polygon.map((r) => r.map(([x, y]) => [x! + shift, y!])));
+    }
+  }
+  return near.length > 0 ? near : undefined;
+}
+
+/** The ring with each longitude moved by a multiple of 360° next to the one before, starting near `start`; unchanged when it then fails to close. */
+function continuousRing(ring: Position[], start: number): Position[] {
+  let previous = start;
+  const out = ring.map(([x, y]) => {
+    previous += normaliseLongitude(x! - previous);
+    return [previous, y!];
+  });
+  return Math.abs(out[0]![0]! - out[out.length - 1]![0]!) < 1e-9 ? out : ring;
+}
+
+/**
+ * ring ∩ polygons, planar in lon/lat. The Martinez–Rueda sweep (martinez-polygon-clipping) is tried first,
+ * being about 15 times faster here; on shapes it cannot handle it throws or returns too much, and then
+ * polyclip-ts (the same sweep with robust predicates and exact arithmetic, which turf's intersect runs) does
+ * the work. What martinez returns is accepted only when its area is no larger than either input's.
+ */
+function intersectPolygons(ring: Position[], polygons: Position[][][]): Position[][][] {
+  try {
+    const pieces = fastIntersection([ring] as ClipGeometry, polygons as ClipGeometry) ?? [];
+    // One piece comes back as Polygon coordinates, several as MultiPolygon coordinates.
+    const result = (pieces.length > 0 && typeof (pieces as Position[][])[0]![0]![0] === 'number' ? [pieces] : pieces) as Position[][][];
+    const area = polygonsArea(result);
+    if (area <= Math.abs(signedArea(ring)) / 2 * (1 + 1e-9) && area <= polygonsArea(polygons) * (1 + 1e-9)) return result;
+  } catch {
+    // Fall through to the robust library.
+  }
+  const pieces = intersect(featureCollection<Polygon | MultiPolygon>([turfPolygon([ring]), turfMultiPolygon(polygons)]));
+  if (!pieces) return [];
+  return pieces.geometry.type === 'Polygon' ? [pieces.geometry.coordinates] : pieces.geometry.coordinates;
+}
+
+/** Planar area in lon/lat of polygons, holes subtracted. */
+function polygonsArea(polygons: Position[][][]): number {
+  return polygons.reduce((total, rings) => total + rings.reduce((sum, r, i) => sum + (i === 0 ? 1 : -1) * Math.abs(signedArea(r)) / 2, 0), 0);
 }
 
 /** Exterior ring counter-clockwise, holes clockwise (RFC 7946 §3.1.6), whatever the clipper returned. */
@@ -187,7 +258,7 @@ function insideRing(p: Position, ring: Position[]): boolean {
 
 /**
  * The uncertainty circle clipped to the administrative unit that bounds it, with the corrected center
- * and radial of the clipped shape (method §4: clip first, then compute). Undefined when they do not meet.
+ * and radial of the clipped shape (docs/method.md §4: clip first, then compute). Undefined when they do not meet.
  * @example clipCircleToUnit({ latitude: 0, longitude: 0, radiusMeters: 5000 }, halfPlanePolygon)
  */
 export function clipCircleToUnit(
@@ -195,5 +266,5 @@ export function clipCircleToUnit(
   unitGeometry: Geometry,
   segments: number = METHOD_DEFAULTS.footprintSegments,
 ): ClippedShape | undefined {
-  return clipRingToUnit(circleRing(circle.latitude, circle.longitude, circle.radiusMeters, segments), circle.longitude, unitGeometry);
+  return clipRingToUnit(circleRing(circle.latitude, circle.longitude, circle.radiusMeters, segments), unitGeometry);
 }

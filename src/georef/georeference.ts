@@ -1,11 +1,13 @@
 /**
- * The point-radius method (point-radius.md §3): one interpretation of a locality text and its matched
+ * The point-radius method (docs/method.md §3): one interpretation of a locality text and its matched
  * features in, a point, a radius built from separate components and a footprint out. Pure: no I/O.
  */
 import type { Feature } from '../match/types.ts';
 import type { Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
 import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
-import { datumFromName, toWgs84 } from '../geodesy/datums.ts';
+import { datumDefinition, datumFromName, toWgs84 } from '../geodesy/datums.ts';
+import { utmToGeographic } from '../geodesy/utm.ts';
+import { regionalDatumBound } from '../geodesy/unknown-datum.ts';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
@@ -47,13 +49,13 @@ interface Placement {
 }
 
 class Refusal extends Error {}
-/** Stop with a reason: no georeference (method §2 step 5). */
+/** Stop with a reason: no georeference (docs/method.md §2 step 5). */
 function refuse(reason: string): never {
   throw new Refusal(reason);
 }
 
 /**
- * Point, radius and footprint for one interpretation (point-radius.md §3), with every uncertainty term
+ * Point, radius and footprint for one interpretation (docs/method.md §3), with every uncertainty term
  * separately (§5) and summed (§5.6), remarks naming the offset as read, the features used, every default
  * and [CHOICE] rule used, and the datum assumption. Refuses, with a reason, when the method gives no
  * georeference (no locality, heading without a bounding unit, lines that do not meet, flagged coordinates).
@@ -133,42 +135,60 @@ function place(input: GeoreferenceInput, settings: Settings): Placement {
 function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings: Settings): Placement {
   if (!coordinates) return refuse('the locality was read as coordinates, but no coordinates came with it');
   if (coordinates.problems.length > 0) {
-    return refuse(`the coordinates "${coordinates.written}" are flagged: ${coordinates.problems.join('; ')} (point-radius.md §2, step 5)`);
+    return refuse(`the coordinates "${coordinates.written}" are flagged: ${coordinates.problems.join('; ')} (docs/method.md §2, step 5)`);
   }
   const { latitude, longitude, precisionDegrees } = coordinates;
   if (!(Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180)) {
     return refuse(`the coordinates "${coordinates.written}" are out of range (latitude ${latitude}, longitude ${longitude})`);
   }
-  const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), point-radius.md §3`];
+  const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), docs/method.md §3`];
   // Only datums of the table count as stated; any other code or name is reported as not convertible.
   const datum = [coordinates.datum, coordinates.datumWritten, settings.datum].map((text) => (text ? datumFromName(text) : undefined)).find(Boolean);
-  let position = { latitude, longitude };
+  // A UTM reference is converted on the ellipsoid of the datum used (WGS84 when none is known), then shifted.
+  const grid = coordinates.utm;
+  const inDatum = grid ? utmToGeographic(grid, datum ?? 'EPSG:4326') : { latitude, longitude };
+  if (grid) {
+    const ellipsoidOf = datum ? datumDefinition(datum) : undefined;
+    remarks.push(
+      `UTM zone ${grid.zone}${grid.hemisphere} ${grid.easting} m E ${grid.northing} m N converted to latitude/longitude on the ellipsoid of ${ellipsoidOf?.name ?? 'WGS 84'} (${ellipsoidOf?.ellipsoid ?? '+ellps=WGS84'}) by the transverse Mercator of EPSG Guidance Note 7-2`,
+    );
+  }
+  let position = inDatum;
   let datumMeters: number;
-  const converted = datum ? toWgs84(latitude, longitude, datum) : undefined;
+  const converted = datum ? toWgs84(inDatum.latitude, inDatum.longitude, datum) : undefined;
   if (converted && !converted.withinAreaOfUse) {
     // A datum stated for a place outside its area of use is doubtful: treated as unknown [CHOICE].
     position = converted;
     datumMeters = settings.unknownDatumMeters;
     remarks.push(
-      `datum: ${datum} as stated, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (point-radius.md §5.4)`,
+      `datum: ${datum} as stated, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (docs/method.md §5.4)`,
     );
   } else if (converted) {
     position = converted;
     datumMeters = converted.accuracyMeters;
     remarks.push(
       datum === 'EPSG:4326'
-        ? 'datum: WGS84 (EPSG:4326) as stated; datum term 0 m (point-radius.md §5.4)'
-        : `datum: ${datum} as stated${coordinates.datumWritten ? ` ("${coordinates.datumWritten}")` : ''}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (point-radius.md §5.4)`,
+        ? 'datum: WGS84 (EPSG:4326) as stated; datum term 0 m (docs/method.md §5.4)'
+        : `datum: ${datum} as stated${coordinates.datumWritten ? ` ("${coordinates.datumWritten}")` : ''}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (docs/method.md §5.4)`,
     );
   } else {
-    datumMeters = settings.unknownDatumMeters;
     const written = coordinates.datumWritten ?? coordinates.datum ?? settings.datum;
-    remarks.push(
-      `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84, datum term ${meters(datumMeters)} (point-radius.md §5.4)`,
-    );
+    const unknown = `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84`;
+    // Bounded where the point lies when the datums in use there are known, never above the global figure.
+    const regional = regionalDatumBound(inDatum, grid);
+    if (regional && regional.meters < settings.unknownDatumMeters) {
+      datumMeters = regional.meters;
+      remarks.push(
+        `${unknown}, datum term ${meters(datumMeters)}: the largest distance between its readings in the datums whose EPSG area of use holds the point ` +
+          `(${regional.datums.join(', ')}), ${meters(regional.spreadMeters)}, plus the largest transformation accuracy among them, ${meters(regional.accuracyMeters)} [CHOICE] (docs/method.md §5.4)`,
+      );
+    } else {
+      datumMeters = settings.unknownDatumMeters;
+      remarks.push(`${unknown}, datum term ${meters(datumMeters)}${regional ? '' : ', no regional datum applies here'} (docs/method.md §5.4)`);
+    }
   }
   const precision = coordinatePrecisionMeters(position.latitude, precisionDegrees);
-  remarks.push(`coordinate precision ${formatDegrees(precisionDegrees)} → ${meters(precision)} at this latitude (point-radius.md §5.3)`);
+  remarks.push(`coordinate precision ${formatDegrees(precisionDegrees)} → ${meters(precision)} at this latitude (docs/method.md §5.3)`);
   return { ...position, components: { extent: 0, offset: 0, coordinatePrecision: precision, datum: datumMeters }, remarks };
 }
 
@@ -190,7 +210,7 @@ function placeOffsetHeading(input: GeoreferenceInput): Placement {
     components: { extent: feature.radiusMeters, offset: term },
     remarks: [
       `offset as read: ${describeDistance(offset)} at ${describeHeading(offset)}${offset.byAir ? ', by air' : ''}; ` +
-        `point by geodesic from the corrected center; offset term ${meters(term)} = sqrt((d+δ)² + d² − 2d(d+δ)cos Δ) (point-radius.md §5.2)`,
+        `point by geodesic from the corrected center; offset term ${meters(term)} = sqrt((d+δ)² + d² − 2d(d+δ)cos Δ) (docs/method.md §5.2)`,
     ],
   };
 }
@@ -212,7 +232,7 @@ function placeOrthogonal(input: GeoreferenceInput): Placement {
     components: { extent: feature.radiusMeters, offset: term },
     remarks: [
       `offsets as read: ${describeOffset(northSouth)}, then ${describeOffset(eastWest)}; moved north/south first, then east/west, geodesically; ` +
-        `headings exact by convention, offset term sqrt(δx² + δy²) = ${meters(term)} (point-radius.md §3)`,
+        `headings exact by convention, offset term sqrt(δx² + δy²) = ${meters(term)} (docs/method.md §3)`,
     ],
   };
 }
@@ -226,7 +246,7 @@ function placeDistanceOnly(input: GeoreferenceInput): Placement {
     latitude: feature.latitude,
     longitude: feature.longitude,
     components: { extent: feature.radiusMeters, offset: term },
-    remarks: [`distance without heading as read: ${describeDistance(offset)}; point at the corrected center, offset term d + δ = ${meters(term)} [CHOICE] (point-radius.md §3)`],
+    remarks: [`distance without heading as read: ${describeDistance(offset)}; point at the corrected center, offset term d + δ = ${meters(term)} [CHOICE] (docs/method.md §3)`],
   };
 }
 
@@ -242,7 +262,7 @@ function placeOffsetPath(input: GeoreferenceInput): Placement {
       latitude: feature.latitude,
       longitude: feature.longitude,
       components: { extent: feature.radiusMeters, offset: term },
-      remarks: [`${read}; ${why}: point at the corrected center, offset term d + δ = ${meters(term)} [CHOICE] (point-radius.md §3)`],
+      remarks: [`${read}; ${why}: point at the corrected center, offset term d + δ = ${meters(term)} [CHOICE] (docs/method.md §3)`],
     };
   };
   const line = input.pathLine;
@@ -264,7 +284,7 @@ function placeOffsetPath(input: GeoreferenceInput): Placement {
     latitude: end.latitude,
     longitude: end.longitude,
     components: { extent: feature.radiusMeters, offset: distance.uncertaintyMeters },
-    remarks: [`${read}; followed ${how} for ${meters(distance.meters)} from where it leaves the feature's extent circle; offset term δ = ${meters(distance.uncertaintyMeters)}, no heading term (point-radius.md §3)`],
+    remarks: [`${read}; followed ${how} for ${meters(distance.meters)} from where it leaves the feature's extent circle; offset term δ = ${meters(distance.uncertaintyMeters)}, no heading term (docs/method.md §3)`],
     alsoUsed: [line],
   };
 }
@@ -275,12 +295,12 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
   const heading = offset.heading ?? refuse('a heading-only locality needs a heading, and none was read');
   const unit = input.boundingUnit;
   if (!unit?.geometry || !['Polygon', 'MultiPolygon'].includes(unit.geometry.type)) {
-    return refuse(`"${heading.written} of ${feature.name}" has no distance and no bounding unit with a polygon to limit it: not georeferenced (point-radius.md §3)`);
+    return refuse(`"${heading.written} of ${feature.name}" has no distance and no bounding unit with a polygon to limit it: not georeferenced (docs/method.md §3)`);
   }
   const reach = inverse(feature.latitude, feature.longitude, unit.latitude, unit.longitude).meters + unit.radiusMeters;
   // "due N" (Δ = 0) is a line; a sector 0.01° wide stands for it, so that the clip has an area.
   const sector = sectorRing(feature.latitude, feature.longitude, heading.azimuth, Math.max(heading.halfWidth, 0.01), Math.max(reach, 1));
-  const clipped = clipRingToUnit(sector, feature.longitude, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
+  const clipped = clipRingToUnit(sector, unit.geometry) ?? refuse(`no part of ${unit.name} lies ${heading.written} of ${feature.name}`);
   const part = featureExtent(clipped.geometry);
   return {
     latitude: part.latitude,
@@ -288,7 +308,8 @@ function placeHeadingOnly(input: GeoreferenceInput): Placement {
     components: { extent: part.radiusMeters, offset: 0 },
     remarks: [
       `heading only, as read: ${describeHeading(offset)} of ${feature.name}, bounded by ${unit.featureType ?? 'unit'} "${unit.name}": ` +
-        `point and radial of the part of the unit inside the sector ${heading.written} (±${heading.halfWidth}°) from the corrected center [CHOICE] (point-radius.md §3)`,
+        `point and radial of the part of the unit inside the sector ${heading.written} (±${heading.halfWidth}°) from the corrected center [CHOICE] (docs/method.md §3)`,
+      ...(clipped.unclippedBecause ? [`${clipped.unclippedBecause}: the whole sector out to the far side of "${unit.name}" was used instead, a larger radius than the clip would give`] : []),
     ],
     alsoUsed: [unit],
   };
@@ -306,7 +327,7 @@ function placeBetween(input: GeoreferenceInput): Placement {
       latitude: middle.latitude,
       longitude: middle.longitude,
       components: { extent: largest, offset: joining.meters / 2 },
-      remarks: [`between ${a.name} and ${b.name}: midpoint of the geodesic joining their corrected centers (D = ${meters(joining.meters)}); radius D/2 + max(r_f1, r_f2) [CHOICE] (point-radius.md §3)`],
+      remarks: [`between ${a.name} and ${b.name}: midpoint of the geodesic joining their corrected centers (D = ${meters(joining.meters)}); radius D/2 + max(r_f1, r_f2) [CHOICE] (docs/method.md §3)`],
     };
   }
   const circle = enclosingCircle(features.map((f) => [f.longitude, f.latitude]));
@@ -314,7 +335,7 @@ function placeBetween(input: GeoreferenceInput): Placement {
     latitude: circle.latitude,
     longitude: circle.longitude,
     components: { extent: largest, offset: circle.radiusMeters },
-    remarks: [`${features.length} features (${features.map((f) => f.name).join(', ')}): center of the smallest circle through their corrected centers; radius that circle's + the largest radial, the "between" rule extended to more than two places [CHOICE] (point-radius.md §3)`],
+    remarks: [`${features.length} features (${features.map((f) => f.name).join(', ')}): center of the smallest circle through their corrected centers; radius that circle's + the largest radial, the "between" rule extended to more than two places [CHOICE] (docs/method.md §3)`],
   };
 }
 
@@ -325,7 +346,7 @@ function placeNear(input: GeoreferenceInput, settings: Settings): Placement {
     latitude: feature.latitude,
     longitude: feature.longitude,
     components: { extent: feature.radiusMeters, offset: term },
-    remarks: [`near ${feature.name}: point at the corrected center, radius r_f + max(r_f, ${meters(settings.nearMinimumMeters)}) [CHOICE] (point-radius.md §3)`],
+    remarks: [`near ${feature.name}: point at the corrected center, radius r_f + max(r_f, ${meters(settings.nearMinimumMeters)}) [CHOICE] (docs/method.md §3)`],
   };
 }
 
@@ -344,26 +365,26 @@ function placeJunction(input: GeoreferenceInput, settings: Settings): Placement 
     latitude: where.latitude,
     longitude: where.longitude,
     components: { extent: settings.junctionExtentMeters + where.radiusMeters, offset: 0 },
-    remarks: [`junction of ${a.name} and ${b.name}: the lines ${count}; the junction's own extent ${meters(settings.junctionExtentMeters)} [CHOICE] (point-radius.md §3)`],
+    remarks: [`junction of ${a.name} and ${b.name}: the lines ${count}; the junction's own extent ${meters(settings.junctionExtentMeters)} [CHOICE] (docs/method.md §3)`],
   };
 }
 
 // ——— shared terms, footprint and remarks ———
 
 function finish(input: GeoreferenceInput, placement: Placement, settings: Settings): Georeference {
-  const remarks = [`locality type "${input.interpretation.type}" (point-radius.md §3)`, ...placement.remarks];
+  const remarks = [`locality type "${input.interpretation.type}" (docs/method.md §3)`, ...placement.remarks];
   const used = [...input.features, ...(placement.alsoUsed ?? [])];
   for (const feature of input.features) remarks.push(describeFeature(feature));
   if (input.interpretation.type !== 'coordinates') {
-    remarks.push('datum: WGS84 (EPSG:4326), the gazetteer\'s coordinates; no datum or coordinate-precision term (point-radius.md §5.4)');
+    remarks.push('datum: WGS84 (EPSG:4326), the gazetteer\'s coordinates; no datum or coordinate-precision term (docs/method.md §5.4)');
   }
   const mapScale = settings.mapScale ? mapScaleErrorMeters(settings.mapScale, settings.mapStandard) : 0;
   if (settings.mapScale) {
-    remarks.push(`map reading at 1:${settings.mapScale}: ${settings.mapStandard === 'unknown' ? 'no known accuracy standard, 1 mm on the map' : `${settings.mapStandard} standard plus 1 mm on the map`} = ${meters(mapScale)} (point-radius.md §5.5)`);
+    remarks.push(`map reading at 1:${settings.mapScale}: ${settings.mapStandard === 'unknown' ? 'no known accuracy standard, 1 mm on the map' : `${settings.mapStandard} standard plus 1 mm on the map`} = ${meters(mapScale)} (docs/method.md §5.5)`);
   }
   const measurement = settings.measurementErrorMeters ?? 0;
-  if (measurement) remarks.push(`stated measurement error ${meters(measurement)}, added as given (point-radius.md §5.5)`);
-  if (input.interpretation.approximate) remarks.push('"ca." or "about" noted: it changes neither point nor radius (point-radius.md §3)');
+  if (measurement) remarks.push(`stated measurement error ${meters(measurement)}, added as given (docs/method.md §5.5)`);
+  if (input.interpretation.approximate) remarks.push('"ca." or "about" noted: it changes neither point nor radius (docs/method.md §3)');
   for (const note of input.interpretation.notes) remarks.push(`reading: ${note}`);
 
   const components: UncertaintyComponents = {
@@ -379,7 +400,7 @@ function finish(input: GeoreferenceInput, placement: Placement, settings: Settin
     if (!(value >= 0) || !Number.isFinite(value)) throw new Error(`uncertainty component ${name} is ${value}: a bug, not an input problem`);
   }
   const uncertaintyMeters = Object.values(components).reduce((sum, value) => sum + value, 0);
-  remarks.push(`uncertainty ${meters(uncertaintyMeters)} = ${Object.entries(components).filter(([, v]) => v > 0).map(([k, v]) => `${k} ${meters(v)}`).join(' + ') || '0'} (point-radius.md §5.6)`);
+  remarks.push(`uncertainty ${meters(uncertaintyMeters)} = ${Object.entries(components).filter(([, v]) => v > 0).map(([k, v]) => `${k} ${meters(v)}`).join(' + ') || '0'} (docs/method.md §5.6)`);
 
   const latitude = placement.latitude;
   const longitude = normaliseLongitude(placement.longitude);
@@ -387,9 +408,13 @@ function finish(input: GeoreferenceInput, placement: Placement, settings: Settin
   const unit = input.boundingUnit;
   if (unit && uncertaintyMeters > 0 && unit.geometry && ['Polygon', 'MultiPolygon'].includes(unit.geometry.type)) {
     const clipped = clipCircleToUnit({ latitude, longitude, radiusMeters: uncertaintyMeters }, unit.geometry, settings.footprintSegments);
-    if (!clipped) refuse(`the georeference lies wholly outside the bounding unit "${unit.name}": the clauses contradict each other (point-radius.md §2, step 5)`);
+    if (!clipped) refuse(`the georeference lies wholly outside the bounding unit "${unit.name}": the clauses contradict each other (docs/method.md §2, step 5)`);
     footprintWKT = clipped.footprintWKT;
-    remarks.push(`footprint: the circle clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`);
+    remarks.push(
+      clipped.unclippedBecause
+        ? `footprint: ${clipped.unclippedBecause}, so the whole circle is kept, not clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`
+        : `footprint: the circle clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`,
+    );
     used.push(unit);
   }
   const seen = new Set<string>();
@@ -422,14 +447,14 @@ function offsetAt(interpretation: Interpretation, index: number): Offset {
 
 function describeFeature(feature: Feature): string {
   const radial = feature.radiusIsDefault
-    ? `default radial ${meters(feature.radiusMeters)} for a ${feature.featureType ?? 'feature'} point with no extent in the gazetteer (point-radius.md §4)`
-    : `geographic radial ${meters(feature.radiusMeters)} (point-radius.md §4)`;
+    ? `default radial ${meters(feature.radiusMeters)} for a ${feature.featureType ?? 'feature'} point with no extent in the gazetteer (docs/method.md §4)`
+    : `geographic radial ${meters(feature.radiusMeters)} (docs/method.md §4)`;
   return `feature used: "${feature.name}" (${feature.sourceId}:${feature.featureId}), corrected center ${feature.latitude.toFixed(7)}, ${feature.longitude.toFixed(7)}, ${radial}`;
 }
 
 function describeDistance(offset: Offset): string {
   const d = offset.distance;
-  return d ? `"${d.written}" = ${meters(d.meters)} ± δ ${meters(d.uncertaintyMeters)} (point-radius.md §5.1)` : 'no distance';
+  return d ? `"${d.written}" = ${meters(d.meters)} ± δ ${meters(d.uncertaintyMeters)} (docs/method.md §5.1)` : 'no distance';
 }
 
 function describeHeading(offset: Offset): string {

@@ -1,10 +1,10 @@
-/** The offset terms of the point-radius method (method §3 and §5.2), in whatever unit d and δ are given. */
+/** The offset terms of the point-radius method (docs/method.md §3 and §5.2), in whatever unit d and δ are given. */
 
 const RADIANS = Math.PI / 180;
 
 /**
  * Offset at a heading: the furthest point of the annular sector r ∈ [d−δ, d+δ], φ ∈ [θ−Δ, θ+Δ] from the
- * nominal point, `sqrt((d+δ)² + d² − 2·d·(d+δ)·cos Δ)` (method §5.2). Δ = 0 gives δ; δ = 0 gives the
+ * nominal point, `sqrt((d+δ)² + d² − 2·d·(d+δ)·cos Δ)` (docs/method.md §5.2). Δ = 0 gives δ; δ = 0 gives the
  * direction-only term 2·d·sin(Δ/2). Exact up to floating-point rounding (written in a form that keeps
  * full relative precision for small Δ).
  * @example offsetUncertainty(10, 0.5, 22.5) // ≈ 4.029 (10 km NE, δ 0.5 km)
@@ -21,7 +21,7 @@ export function offsetUncertainty(distance: number, distanceUncertainty: number,
 
 /**
  * Two orthogonal offsets ("3 km N and 2 km E"): headings are exact by convention, so only the two
- * distance uncertainties count, `sqrt(δx² + δy²)` (method §3). Exact.
+ * distance uncertainties count, `sqrt(δx² + δy²)` (docs/method.md §3). Exact.
  * @example orthogonalOffsetUncertainty(0.5, 0.5) // ≈ 0.7071
  */
 export function orthogonalOffsetUncertainty(northSouthUncertainty: number, eastWestUncertainty: number): number {
@@ -30,7 +30,7 @@ export function orthogonalOffsetUncertainty(northSouthUncertainty: number, eastW
 
 /**
  * Distance without a heading ("5 km from X"): the place may lie anywhere up to d + δ from the feature's
- * edge, so the term is d + δ (method §3 [CHOICE]). Exact.
+ * edge, so the term is d + δ (docs/method.md §3 [CHOICE]). Exact.
  * @example distanceOnlyUncertainty(5, 0.5) // 5.5
  */
 export function distanceOnlyUncertainty(distance: number, distanceUncertainty: number): number {

@@ -1,4 +1,4 @@
-/** Following a line for a distance from where it leaves a feature (method §3, "along a path"). */
+/** Following a line for a distance from where it leaves a feature (docs/method.md §3, "along a path"). */
 import type { Geometry, Position } from 'geojson';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 

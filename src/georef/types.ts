@@ -1,18 +1,18 @@
 /** The computed georeference: the contract between `src/georef` and `src/record`. */
 
-/** The uncertainty budget in meters, one entry per source of the point-radius method (method §5). */
+/** The uncertainty budget in meters, one entry per source of the point-radius method (docs/method.md §5). */
 export interface UncertaintyComponents {
   /** r_f: geographic radial of the feature (or the union of features) used. */
   extent: number;
   /** The offset term: distance and direction combined geometrically, orthogonal, distance-only or path. */
   offset: number;
-  /** From how written coordinates are given, at their latitude (method §5.3). */
+  /** From how written coordinates are given, at their latitude (docs/method.md §5.3). */
   coordinatePrecision: number;
-  /** Unknown datum (5359 m worst case) or a datum transformation's stated accuracy (method §5.4). */
+  /** Unknown datum (5359 m worst case) or a datum transformation's stated accuracy (docs/method.md §5.4). */
   datum: number;
-  /** Map reading at a stated scale (method §5.5). */
+  /** Map reading at a stated scale (docs/method.md §5.5). */
   mapScale: number;
-  /** A stated measurement error, e.g. twice a GPS's displayed accuracy (method §5.5). */
+  /** A stated measurement error, e.g. twice a GPS's displayed accuracy (docs/method.md §5.5). */
   measurement: number;
   /**
    * Present only when widened: how far a place the text names, but the gazetteer lacks, may lie from
@@ -23,7 +23,7 @@ export interface UncertaintyComponents {
 
 /** Settings of the method that the sources leave to the georeferencer ([CHOICE] in the method). */
 export interface MethodOptions {
-  /** Uncertainty when the datum is not stated; default 5359 m (method §5.4). */
+  /** Uncertainty when the datum is not stated; default 5359 m (docs/method.md §5.4). */
   unknownDatumMeters?: number;
   /** Minimum added for "near": radius r_f + max(r_f, this); default 1000 m. */
   nearMinimumMeters?: number;
@@ -41,7 +41,7 @@ export interface MethodOptions {
   justOutsideMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
-  /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, method §5.5). */
+  /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */
   mapStandard?: 'us-nmas' | 'australian' | 'unknown';
   /** Vertices of the footprint circle; default 64. */
   footprintSegments?: number;

@@ -1,7 +1,7 @@
-import proj4 from 'proj4';
 import type { WrittenCoordinates } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
 import { powerOfTen } from './numbers.ts';
+import { utmToGeographic } from '../geodesy/utm.ts';
 
 type Hemisphere = 'n' | 's' | 'e' | 'w';
 
@@ -26,7 +26,7 @@ interface Angle {
   negative: boolean;
   hemisphere?: Hemisphere;
   axis?: 'lat' | 'lon';
-  /** Step of the last written digit, in degrees (method §5.3). */
+  /** Step of the last written digit, in degrees (docs/method.md §5.3). */
   precision: number;
   parts: 1 | 2 | 3;
   /** Marks, hemisphere or label make it unmistakably a coordinate. */
@@ -199,11 +199,11 @@ function readUtm(text: string, tokens: Token[], i: number): CoordinatesFound | n
   if (band === 'S') problems.push('zone letter S read as latitude band S (northern hemisphere, 32°N–40°N), not as "south"');
   if (band === undefined) problems.push('no latitude band written: northern hemisphere assumed');
   if (easting.value < 100000 || easting.value > 900000) problems.push(`easting ${easting.value} is outside 100000–900000 m`);
-  if (northing.value < 0 || northing.value > 10000000) problems.push(`northing ${northing.value} is outside 0–10000000 m`);
-  // Pure ellipsoid math on WGS84; the datum shift is georef's job.
-  const definition = `+proj=utm +zone=${zone}${south ? ' +south' : ''} +ellps=WGS84 +units=m +no_defs`;
-  const [longitude, latitude] = proj4(definition, '+proj=longlat +ellps=WGS84 +no_defs', [easting.value, northing.value]) as [number, number];
-  if (!Number.isFinite(latitude) || !Number.isFinite(longitude)) return null;
+  // A reference no UTM grid can hold is not read as one.
+  if (!(easting.value > 0 && easting.value < 1000000 && northing.value >= 0 && northing.value <= 10000000)) return null;
+  const utm = { zone, hemisphere: south ? 'S' as const : 'N' as const, ...(band ? { band } : {}), easting: easting.value, northing: northing.value };
+  // A preview on the WGS84 ellipsoid: georef converts the grid again in the datum it finally uses.
+  const { latitude, longitude } = utmToGeographic(utm, 'EPSG:4326');
   if (band && band !== 'N') {
     const index = UTM_BANDS.indexOf(band);
     const low = -80 + 8 * index;
@@ -216,6 +216,7 @@ function readUtm(text: string, tokens: Token[], i: number): CoordinatesFound | n
     latitude,
     longitude,
     format: 'utm',
+    utm,
     precisionDegrees: precisionMeters / METERS_PER_DEGREE,
     problems,
   };
@@ -248,8 +249,8 @@ function findDatum(text: string, tokens: Token[]): string | undefined {
 
 /**
  * Finds the first coordinate pair (decimal, degrees-minutes(-seconds) in any common punctuation, or UTM)
- * in tokens [from, to); `lenient` also accepts bare number pairs ("95.5, 45.2"), as in a coordinate field. UTM is converted to latitude/longitude on the WGS84 ellipsoid with proj4
- * (sub-millimetre accuracy); no datum shift is applied here.
+ * in tokens [from, to); `lenient` also accepts bare number pairs ("95.5, 45.2"), as in a coordinate field. A UTM
+ * reference is kept as written (`utm`) with a preview on the WGS84 ellipsoid; georef converts it in its datum.
  */
 export function findCoordinates(text: string, tokens: Token[], from = 0, to = tokens.length, lenient = false): CoordinatesFound | null {
   const window = tokens.slice(from, to);

@@ -2,7 +2,7 @@ import type { WrittenHeading } from './types.ts';
 import type { Token } from './tokens.ts';
 import { powerOfTen } from './numbers.ts';
 
-/** Half-widths Δ of the compass rose divisions [DERIVED, method §5.2]. */
+/** Half-widths Δ of the compass rose divisions [DERIVED, docs/method.md §5.2]. */
 export const ROSE_HALF_WIDTH = { rose4: 45, rose8: 22.5, rose16: 11.25, rose32: 5.625 } as const;
 
 const CARDINAL_AZIMUTH: Readonly<Record<string, number>> = { n: 0, e: 90, s: 180, w: 270 };
@@ -101,7 +101,7 @@ function readDegrees(tokens: Token[], i: number): { degrees: number; halfWidth: 
 /**
  * Reads a heading at token i: compass words and abbreviations in four languages ("NE", "N.N.E.", "noreste",
  * "sud-ouest", "L"), "N by E" (32-point), quadrant bearings ("N 30° E"), "bearing 120°", "120°", "due N".
- * Δ per method §5.2. `text` is the verbatim text the tokens point into.
+ * Δ per docs/method.md §5.2. `text` is the verbatim text the tokens point into.
  * @example readHeadingAt(text, tokenize("NE"), 0) // heading { azimuth: 45, halfWidth: 22.5, kind: 'rose8' }
  */
 export function readHeadingAt(text: string, tokens: Token[], i: number): { heading: WrittenHeading; next: number } | null {

@@ -12,7 +12,7 @@ export type * from './types.ts';
 /** Inputs longer than this are refused (method texts are labels; this bounds the work). */
 export const MAX_LOCALITY_LENGTH = 10000;
 
-/** The most specific locality type first (method §2 step 2): coordinates, offsets, junction, ... named place. */
+/** The most specific locality type first (docs/method.md §2 step 2): coordinates, offsets, junction, ... named place. */
 const SPECIFICITY: Readonly<Record<LocalityType, number>> = {
   coordinates: 0,
   'offset-orthogonal': 1,
@@ -38,7 +38,7 @@ interface Piece {
 /**
  * Reads a specimen-label locality text (English, Spanish, Portuguese or French) as one locality type of the
  * point-radius method, with every clause, the chosen clause, the feature names as written, and each offset's
- * number as written, unit, precision (method §5.1) and heading with its half-width Δ (method §5.2).
+ * number as written, unit, precision (docs/method.md §5.1) and heading with its half-width Δ (docs/method.md §5.2).
  * Never throws; linear in the length of the text; texts over 10,000 characters are refused.
  * @example parseLocality("10 km NE of Puerto Lindo")
  * // { type: 'offset-heading', features: ['Puerto Lindo'],
@@ -225,7 +225,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.features = reading.features;
     result.offsets = reading.offsets;
     result.notes.push(...reading.notes);
-    if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (method §3)');
+    if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
   }
   // Named places after an administrative chain continue it: "Country: State: County, 12 km S of X".
   pieces.forEach((piece, index) => {

@@ -18,7 +18,7 @@ function phrases(list: string): PhraseList {
 }
 
 /**
- * "ca.", "about", "aprox.", "environ", "~" before a number: recorded as approximate, changing no number (method §3).
+ * "ca.", "about", "aprox.", "environ", "~" before a number: recorded as approximate, changing no number (docs/method.md §3).
  * "cerca de" is "about" before a number and "near" before a place [CHOICE: decided by what follows].
  */
 export const APPROXIMATION_WORDS = set('ca c circa about approx approximately apx around roughly some aprox aproximadamente apr unos unas uns umas cerca env environ ~ ±');
@@ -32,7 +32,7 @@ export const LEADING_PREPOSITIONS = set('a at');
 /** Words that introduce the feature an offset is measured from ("of", "de", "du", "d'"). */
 export const FROM_WORDS = set("of from off de del desde do da dos das du des d'");
 
-/** Words that introduce the feature a bearing points toward (the heading is reversed, method §3). */
+/** Words that introduce the feature a bearing points toward (the heading is reversed, docs/method.md §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
 
 /** Words that may stand before a heading: "al N", "ao sul", "au nord", "à l'est", "to the N". */

@@ -45,7 +45,7 @@ function nameBetween(s: Source, from: number, to: number): string | null {
 
 /**
  * Skips approximation words before a number ("ca. 5 km", "about 5 mi", "aprox. 3 km", "cerca de 5 km", "~5 km").
- * Before anything else they are left alone ("around X" is near; "cerca de X" is near, method §3 note in lexicon).
+ * Before anything else they are left alone ("around X" is near; "cerca de X" is near, docs/method.md §3 note in lexicon).
  */
 function skipApproximation(s: Source, i: number): { next: number; approximate: boolean } {
   let next = i;
@@ -61,7 +61,7 @@ function skipApproximation(s: Source, i: number): { next: number; approximate: b
 
 const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'marinos']);
 
-/** Reads a distance (number or range + unit) at i, with precision from the number as written (method §5.1). */
+/** Reads a distance (number or range + unit) at i, with precision from the number as written (docs/method.md §5.1). */
 function readDistanceAt(s: Source, i: number): { distance: WrittenDistance; next: number } | null {
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
@@ -329,7 +329,7 @@ function isHabitat(tokens: Token[], from = 0, to = tokens.length): boolean {
 }
 
 /**
- * Reads one clause of a locality text as one locality type of the point-radius method (method §3):
+ * Reads one clause of a locality text as one locality type of the point-radius method (docs/method.md §3):
  * between, junction, near, offsets (heading, orthogonal, distance only, path), heading only, named place.
  * Never guesses: text that fits no pattern is 'unparseable' with a reason.
  */
@@ -421,7 +421,7 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
   if (UNIT_WORDS.get(norm(s, i) ?? '') === 'km' && s.tokens[i + 1]?.kind === 'number') {
     return unparseable(`road kilometre post ("${s.text.slice(s.tokens[i]!.start, s.tokens[i + 1]!.end)}"): its distance runs from the road's own origin, which the text does not give`, approximate);
   }
-  // "ca. Ashcombe": the approximation is recorded and changes nothing (method §3).
+  // "ca. Ashcombe": the approximation is recorded and changes nothing (docs/method.md §3).
   let placeStart = i;
   while (placeStart < end - 1 && L.APPROXIMATE_BEFORE_PLACE.has(norm(s, placeStart)!) && (s.tokens[placeStart]!.dotted || s.tokens[placeStart]!.kind === 'symbol' || norm(s, placeStart)!.length > 3)) placeStart++;
   approximate ||= placeStart > i;

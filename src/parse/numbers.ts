@@ -1,6 +1,6 @@
 import { tokenize, type Token } from './tokens.ts';
 
-/** A number or range as written, with its precision read from the writing (method §5.1). */
+/** A number or range as written, with its precision read from the writing (docs/method.md §5.1). */
 export interface WrittenNumber {
   /** The value; the midpoint for a range. */
   value: number;
@@ -41,7 +41,7 @@ function decimalPrecision(decimals: string): number {
   return powerOfTen(-decimals.length);
 }
 
-/** Integer precision, max(1, 10^(floor(log10 d) − 1)) [CHOICE reproducing every BP2020 row, method §5.1]. */
+/** Integer precision, max(1, 10^(floor(log10 d) − 1)) [CHOICE reproducing every BP2020 row, docs/method.md §5.1]. */
 function integerPrecision(value: number): number {
   return value < 1 ? 1 : Math.max(1, powerOfTen(Math.floor(Math.log10(value)) - 1));
 }
@@ -82,7 +82,7 @@ function readSingle(tokens: Token[], i: number): Single | null {
 
 /**
  * Reads a number or a range of numbers at token i, with the precision of the number as written
- * (method §5.1). Returns null when no number starts there. Exact: precision comes from the digits as written.
+ * (docs/method.md §5.1). Returns null when no number starts there. Exact: precision comes from the digits as written.
  */
 export function readNumberAt(tokens: Token[], i: number): WrittenNumber | null {
   if (tokens[i]?.kind === 'word' && RANGE_OPENERS.has(tokens[i]!.norm) && tokens[i + 1]?.kind === 'number') {
@@ -109,7 +109,7 @@ export function readNumberAt(tokens: Token[], i: number): WrittenNumber | null {
 }
 
 /**
- * Reads a distance number as written, with its precision and δ (method §5.1).
+ * Reads a distance number as written, with its precision and δ (docs/method.md §5.1).
  * @example readDistanceNumber("1 1/2") // { value: 1.5, precision: 0.5, uncertainty: 0.25, next: 4 }
  * @example readDistanceNumber("100")   // precision 10, uncertainty 5
  * Returns null when the text is not a number or range.

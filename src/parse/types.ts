@@ -6,7 +6,7 @@
 /** Units a distance can be written in (leagues vary by country and period: see src/parse/units.ts). */
 export type DistanceUnit = 'm' | 'km' | 'mi' | 'ft' | 'yd' | 'nmi' | 'league';
 
-/** Locality types of the point-radius method (shared/method/point-radius.md §3), each with its own rule. */
+/** Locality types of the point-radius method (docs/method.md §3), each with its own rule. */
 export type LocalityType =
   | 'coordinates' // coordinates written in the text are the most specific clause
   | 'named-place'
@@ -22,7 +22,7 @@ export type LocalityType =
   | 'unparseable'
   | 'administrative-unit'; // the chosen clause names only a unit; features: [name]; Interpretation.unit: NamedUnit
 
-/** A distance exactly as written, with the precision read from how the number is written (method §5.1). */
+/** A distance exactly as written, with the precision read from how the number is written (docs/method.md §5.1). */
 export interface WrittenDistance {
   /** The words as they stand in the text, e.g. "1 1/2 mi." */
   written: string;
@@ -38,7 +38,7 @@ export interface WrittenDistance {
   uncertaintyMeters: number;
 }
 
-/** A heading as written, as a true azimuth with its half-width Δ (method §5.2). */
+/** A heading as written, as a true azimuth with its half-width Δ (docs/method.md §5.2). */
 export interface WrittenHeading {
   written: string;
   /** Degrees clockwise from true north, in [0, 360). Already reversed for a bearing toward the feature. */
@@ -73,11 +73,17 @@ export interface Offset {
 /** Coordinates written in the text or in verbatim coordinate fields, before any datum shift. */
 export interface WrittenCoordinates {
   written: string;
-  /** Decimal degrees in the stated datum (not yet converted to WGS84). */
+  /**
+   * Decimal degrees in the stated datum (not yet converted to WGS84). For a UTM reference, whose datum may
+   * only become known later (the record's geodeticDatum, an edit), these are the grid read on the WGS84
+   * ellipsoid, a preview; georef converts `utm` again in the datum it finally uses.
+   */
   latitude: number;
   longitude: number;
   format: 'decimal' | 'degrees-minutes' | 'degrees-minutes-seconds' | 'utm';
-  /** Coordinate precision in degrees, from how the numbers are written (method §5.3; the finer axis). */
+  /** The UTM reference as written (format 'utm'): zone, hemisphere, easting and northing in meters, and the band letter when one was written. */
+  utm?: { zone: number; hemisphere: 'N' | 'S'; band?: string; easting: number; northing: number };
+  /** Coordinate precision in degrees, from how the numbers are written (docs/method.md §5.3; the finer axis). */
   precisionDegrees: number;
   /** Datum as an EPSG code ("EPSG:4267") when the text states one. */
   datum?: string;
@@ -125,7 +131,7 @@ export interface Interpretation {
    */
   features: string[];
   offsets: Offset[];
-  /** "ca.", "about": changes neither point nor radius (method §3), but is recorded. */
+  /** "ca.", "about": changes neither point nor radius (docs/method.md §3), but is recorded. */
   approximate: boolean;
   coordinates?: WrittenCoordinates;
   /** Administrative units named in the text itself. */

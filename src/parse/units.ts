@@ -4,7 +4,7 @@ import type { DistanceUnit } from './types.ts';
  * The league as whereabouts reads it. Leagues on Iberian, French and English labels ranged from the French
  * "lieue de poste" (about 3898 m) to the Portuguese "légua de sesmaria" (about 6600 m) — both values from
  * memory, no source checked. We take the middle of that range and add half the range, per league written,
- * to δ (method §7: "document the value used and add its spread to δ") [CHOICE].
+ * to δ (docs/method.md §7: "document the value used and add its spread to δ") [CHOICE].
  */
 export const LEAGUE_RANGE_METERS = { low: 3898, high: 6600 } as const;
 /** Nominal league: the middle of LEAGUE_RANGE_METERS, 5249 m. */
@@ -15,7 +15,7 @@ export const LEAGUE_RELATIVE_SPREAD = (LEAGUE_RANGE_METERS.high - LEAGUE_RANGE_M
 /**
  * Length units a locality can be written in, with their definitions in meters.
  * Sources: international yard and pound agreement (1959) for the yard, foot and mile; First International
- * Extraordinary Hydrographic Conference (Monaco, 1929) for the nautical mile (method §7).
+ * Extraordinary Hydrographic Conference (Monaco, 1929) for the nautical mile (docs/method.md §7).
  */
 export const METERS_PER_UNIT: Readonly<Record<DistanceUnit, number>> = {
   m: 1,

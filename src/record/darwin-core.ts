@@ -1,5 +1,5 @@
 /**
- * The Darwin Core georeference terms whereabouts adds beside a record's own fields (method §6).
+ * The Darwin Core georeference terms whereabouts adds beside a record's own fields (docs/method.md §6).
  * Originals are never touched: where a record already has a term, the proposal is `proposed_<term>`.
  */
 import type { Source } from '../match/types.ts';
@@ -50,7 +50,7 @@ export const PROTOCOL = `point-radius method (Wieczorek, Guo & Hijmans 2004, doi
  * 1 % of the radius; the displacement is then added to the radius, so rounding never hides error.
  */
 export function reportingDecimals(uncertaintyMeters: number): number {
-  // The longest degree on WGS84 on either axis: latitude at the poles, 111 694 m (method §5.3, Llat(90°)).
+  // The longest degree on WGS84 on either axis: latitude at the poles, 111 694 m (docs/method.md §5.3, Llat(90°)).
   const metersPerDegree = 111_694;
   for (let k = 0; k < 7; k++) {
     const worstShift = (10 ** -k / 2) * Math.SQRT2 * metersPerDegree;
@@ -98,7 +98,7 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
     georeferenceSources: citeSources(result, context.sources),
     georeferenceRemarks: [
       ...g.remarks,
-      `reported to ${decimals} decimals (coordinatePrecision); the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (point-radius.md §6)`,
+      `reported to ${decimals} decimals (coordinatePrecision); the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (docs/method.md §6)`,
     ].join('; '),
   };
 }

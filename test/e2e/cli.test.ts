@@ -47,7 +47,7 @@ describe('whereabouts locate', () => {
     const got = new LatLon(body.georeference.latitude, body.georeference.longitude);
     expect(got.distanceTo(expected)).toBeLessThan(1);
 
-    // Radius (point-radius.md §3, §5.2): r_f + U_offset(d = 10 km, δ = 0.5 km, Δ = 22.5°) + base.
+    // Radius (docs/method.md §3, §5.2): r_f + U_offset(d = 10 km, δ = 0.5 km, Δ = 22.5°) + base.
     // 10 km NE with δ 0.5 km → 4.029 km [DERIVED check value of the method document, §5.2].
     expect(body.components.extent).toBeCloseTo(town.radiusMeters, 6);
     expect(body.components.offset / 1000).toBeCloseTo(4.029, 3);

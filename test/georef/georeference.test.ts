@@ -1,9 +1,11 @@
 import fc from 'fast-check';
 import geographiclib from 'geographiclib-geodesic';
+import LatLon from 'geodesy/latlon-ellipsoidal-datum.js';
 import { describe, expect, it } from 'vitest';
 import type { Feature } from '../../src/match/types.ts';
 import type { Interpretation, Offset, WrittenDistance, WrittenHeading } from '../../src/parse/types.ts';
 import { georeference, type GeoreferenceInput } from '../../src/georef/georeference.ts';
+import { regionalDatumBound } from '../../src/geodesy/unknown-datum.ts';
 import type { Georeference } from '../../src/georef/types.ts';
 import { wktPolygonAreaSquareMeters } from './wkt-area.ts';
 
@@ -50,21 +52,21 @@ function ok(input: GeoreferenceInput): Georeference {
 }
 const sum = (g: Georeference) => Object.values(g.components).reduce((a, b) => a + b, 0);
 
-describe('named place (point-radius.md §3: c, r_f + base)', () => {
+describe('named place (docs/method.md §3: c, r_f + base)', () => {
   it('is the corrected center with radius r_f, and a default radial is named in the remarks', () => {
     const g = ok({ interpretation: interpretation('named-place'), features: [feature({ radiusIsDefault: true, radiusMeters: 5000 })] });
     expect([g.latitude, g.longitude]).toEqual([-12.5, -60.25]);
     expect(g.components).toEqual({ extent: 5000, offset: 0, coordinatePrecision: 0, datum: 0, mapScale: 0, measurement: 0 });
     expect(g.uncertaintyMeters).toBe(5000);
-    expect(g.remarks.join('\n')).toMatch(/default radial 5000 m for a town point.*point-radius\.md §4/);
+    expect(g.remarks.join('\n')).toMatch(/default radial 5000 m for a town point.*docs\/method\.md §4/);
     expect(g.footprintWKT.startsWith('POLYGON((')).toBe(true);
     expect(g.features).toEqual([{ sourceId: 'valdoria-gaz', featureId: 'f1', name: 'Puerto Lindo' }]);
   });
 });
 
-describe('offset at a heading (point-radius.md §3, §5.2)', () => {
+describe('offset at a heading (docs/method.md §3, §5.2)', () => {
   const offsets: Offset[] = [{ distance: km(10, 0.5), heading: heading('NE', 45, 22.5), byAir: true }];
-  it('10 km NE, δ 0.5 km: geodesic direct from the center; offset term 4.029 km (point-radius.md §5.2 derived check)', () => {
+  it('10 km NE, δ 0.5 km: geodesic direct from the center; offset term 4.029 km (docs/method.md §5.2 derived check)', () => {
     const g = ok({ interpretation: interpretation('offset-heading', { offsets }), features: [feature()] });
     const expected = directRef(-12.5, -60.25, 45, 10000);
     expect(g.latitude).toBeCloseTo(expected.latitude, 9);
@@ -75,7 +77,7 @@ describe('offset at a heading (point-radius.md §3, §5.2)', () => {
   });
 });
 
-describe('two orthogonal offsets (point-radius.md §3)', () => {
+describe('two orthogonal offsets (docs/method.md §3)', () => {
   it('3 km N then 2 km E: moved north then east; offset term sqrt(δx² + δy²)', () => {
     const offsets: Offset[] = [
       { distance: km(3, 0.5), heading: heading('N', 0, 45) },
@@ -98,16 +100,16 @@ describe('two orthogonal offsets (point-radius.md §3)', () => {
   });
 });
 
-describe('distance only (point-radius.md §3 [CHOICE])', () => {
+describe('distance only (docs/method.md §3 [CHOICE])', () => {
   it('5 km from X, δ 0.5 km: point c, offset term d + δ = 5.5 km', () => {
     const g = ok({ interpretation: interpretation('distance-only', { offsets: [{ distance: km(5, 0.5) }] }), features: [feature()] });
     expect([g.latitude, g.longitude]).toEqual([-12.5, -60.25]);
     expect(g.components.offset).toBe(5500);
-    expect(g.remarks.join('\n')).toMatch(/\[CHOICE\] \(point-radius\.md §3\)/);
+    expect(g.remarks.join('\n')).toMatch(/\[CHOICE\] \(docs\/method\.md §3\)/);
   });
 });
 
-describe('along a path (point-radius.md §3)', () => {
+describe('along a path (docs/method.md §3)', () => {
   // A road along the equator through the town, 0.5° each way.
   const town = feature({ latitude: 0, longitude: 10, radiusMeters: 1000 });
   const road = feature({ featureId: 'r7', name: 'Ruta 7', featureType: 'road', geometryType: 'LineString', geometry: { type: 'LineString', coordinates: [[9.5, 0], [9.8, 0], [10, 0], [10.2, 0], [10.5, 0]] } });
@@ -137,7 +139,7 @@ describe('along a path (point-radius.md §3)', () => {
   });
 });
 
-describe('heading only (point-radius.md §3 [CHOICE])', () => {
+describe('heading only (docs/method.md §3 [CHOICE])', () => {
   const unit = feature({
     featureId: 'c1',
     name: 'Condado Alto',
@@ -175,7 +177,7 @@ describe('heading only (point-radius.md §3 [CHOICE])', () => {
   });
 });
 
-describe('between (point-radius.md §3 [CHOICE])', () => {
+describe('between (docs/method.md §3 [CHOICE])', () => {
   it('midpoint of the geodesic joining the centers; radius D/2 + max(r_f)', () => {
     const a = feature({ latitude: -12, longitude: -60, radiusMeters: 800 });
     const b = feature({ featureId: 'f2', name: 'Santa Inés', latitude: -12.3, longitude: -60.4, radiusMeters: 2000 });
@@ -188,7 +190,7 @@ describe('between (point-radius.md §3 [CHOICE])', () => {
   });
 });
 
-describe('near (point-radius.md §3 [CHOICE])', () => {
+describe('near (docs/method.md §3 [CHOICE])', () => {
   it('r_f + max(r_f, 1 km), and the minimum is configurable', () => {
     const small = ok({ interpretation: interpretation('near'), features: [feature({ radiusMeters: 300 })] });
     expect(small.uncertaintyMeters).toBe(1300);
@@ -199,7 +201,7 @@ describe('near (point-radius.md §3 [CHOICE])', () => {
   });
 });
 
-describe('junction (point-radius.md §3 [CHOICE])', () => {
+describe('junction (docs/method.md §3 [CHOICE])', () => {
   const river = feature({ featureId: 'w1', name: 'Río Claro', featureType: 'river', geometryType: 'LineString', geometry: { type: 'LineString', coordinates: [[-60.5, -12.5], [-60, -12.5]] } });
   const road = feature({ featureId: 'r1', name: 'Ruta 3', featureType: 'road', geometryType: 'LineString', geometry: { type: 'LineString', coordinates: [[-60.2, -13], [-60.2, -12]] } });
   it('is the crossing of the two lines, with the junction extent 100 m', () => {
@@ -221,28 +223,43 @@ describe('junction (point-radius.md §3 [CHOICE])', () => {
   });
 });
 
-describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
+describe('coordinates (docs/method.md §3, §5.3, §5.4)', () => {
   const written = (datumWritten?: string, datum?: string) =>
     interpretation('coordinates', {
       features: [],
       coordinates: { written: '10.27, -123.6', latitude: 10.27, longitude: -123.6, format: 'decimal', precisionDegrees: 0.01, datum, datumWritten, problems: [] },
     });
-  it('WGS84 stated: no shift, datum term 0, precision term 1556.8 m (point-radius.md §5.3 worked example)', () => {
+  it('WGS84 stated: no shift, datum term 0, precision term 1556.8 m (docs/method.md §5.3 worked example)', () => {
     const g = ok({ interpretation: written('WGS84'), features: [] });
     expect([g.latitude, g.longitude]).toEqual([10.27, -123.6]);
     expect(g.components.datum).toBe(0);
     expect(g.components.coordinatePrecision).toBeCloseTo(1556.8, 0);
   });
-  it('datum not recorded: 5359 m (point-radius.md §5.4) and a remark', () => {
-    const g = ok({ interpretation: written(), features: [] });
+  const inTheOpenPacific = (datumWritten?: string, datum?: string) => {
+    const i = written(datumWritten, datum);
+    i.coordinates = { ...i.coordinates!, latitude: -45.2, longitude: -131.4 };
+    return i;
+  };
+  it('datum not recorded where only world-wide datums apply: 5359 m (docs/method.md §5.4) and a remark', () => {
+    const g = ok({ interpretation: inTheOpenPacific(), features: [] });
     expect(g.components.datum).toBe(5359);
-    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*5359 m.*§5\.4/);
+    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*5359 m, no regional datum applies here.*§5\.4/);
   });
-  it('NAD27 written: shifted to WGS84 by tens of meters, the transformation accuracy as datum term', () => {
+  it('datum not recorded inside NAD27\'s area of use: the regional bound, the datums compared named (Chapman & Wieczorek 2020, §Uncertainty from Unknown Datum)', () => {
+    const g = ok({ interpretation: written(), features: [] });
+    const bound = regionalDatumBound({ latitude: 10.27, longitude: -123.6 })!;
+    expect(bound.datums).toEqual(['EPSG:4326', 'EPSG:4267', 'EPSG:4322']);
+    expect(g.components.datum).toBe(bound.meters);
+    expect(g.components.datum).toBeLessThan(5359);
+    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*EPSG:4326, EPSG:4267, EPSG:4322.*\[CHOICE\] \(docs\/method\.md §5\.4\)/);
+  });
+  it('NAD27 written: shifted to WGS84 by EPSG:1173, the transformation accuracy as datum term', () => {
     const g = ok({ interpretation: written('NAD 27'), features: [] });
-    const shift = distanceRef(10.27, -123.6, g.latitude, g.longitude);
-    expect(shift).toBeGreaterThan(10);
-    expect(shift).toBeLessThan(300);
+    // Expected point from a second implementation: the geodesy package's Helmert shift (Veness, MIT) with the
+    // translations of EPSG:1173 "NAD27 to WGS 84 (4)" (−8, +160, +176 m; geodesy stores them WGS84 → NAD27,
+    // hence the reversed signs). Within 1 mm: both convert through geocentric coordinates exactly.
+    const expected = new LatLon(10.27, -123.6, 0, { ...LatLon.datums.NAD27!, transform: [8, -160, -176, 0, 0, 0, 0] }).convertDatum(LatLon.datums.WGS84!);
+    expect(distanceRef(expected.lat, expected.lon, g.latitude, g.longitude)).toBeLessThan(0.001);
     expect(g.components.datum).toBe(10);
     expect(g.remarks.join('\n')).toMatch(/EPSG:4267.*EPSG:1173/);
   });
@@ -254,7 +271,7 @@ describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
     expect(g.remarks.join('\n')).toMatch(/outside its EPSG area of use/);
   });
   it('a datum code we cannot convert counts as not recorded, named in the remarks', () => {
-    const g = ok({ interpretation: written(undefined, 'EPSG:4019'), features: [] });
+    const g = ok({ interpretation: inTheOpenPacific(undefined, 'EPSG:4019'), features: [] });
     expect(g.components.datum).toBe(5359);
     expect(g.remarks.join('\n')).toMatch(/"EPSG:4019" is not one we can convert/);
   });
@@ -266,7 +283,7 @@ describe('coordinates (point-radius.md §3, §5.3, §5.4)', () => {
     flagged.coordinates!.problems = ['latitude and longitude look swapped'];
     expect(georeference({ interpretation: flagged, features: [] })).toMatchObject({ ok: false, reason: expect.stringMatching(/swapped/) });
   });
-  it('map scale and measurement error are separate components (point-radius.md §5.5)', () => {
+  it('map scale and measurement error are separate components (docs/method.md §5.5)', () => {
     const g = ok({ interpretation: written('WGS84'), features: [], options: { mapScale: 24000, mapStandard: 'us-nmas', measurementErrorMeters: 20 } });
     expect(g.components.mapScale).toBeCloseTo(36.192, 6);
     expect(g.components.measurement).toBe(20);
@@ -291,7 +308,7 @@ describe('no georeference', () => {
   });
 });
 
-describe('bounding unit clips the footprint (point-radius.md §6)', () => {
+describe('bounding unit clips the footprint (docs/method.md §6)', () => {
   const unit = feature({ featureId: 'c2', name: 'Condado Bajo', featureType: 'county', geometryType: 'Polygon', geometry: { type: 'Polygon', coordinates: [[[-60.25, -13], [-59.5, -13], [-59.5, -12], [-60.25, -12], [-60.25, -13]]] } });
   it('a circle on the unit edge keeps about half its area', () => {
     const g = ok({ interpretation: interpretation('named-place'), features: [feature({ radiusMeters: 3000 })], boundingUnit: unit });
@@ -317,7 +334,7 @@ describe('properties (fast-check)', () => {
     const offsets: Offset[] = [{ distance, heading: o.type === 'offset-heading' ? heading('x', o.azimuth, o.halfWidth) : undefined }];
     return ok({ interpretation: interpretation(o.type, { offsets }), features: [feature({ radiusMeters: o.radius })] });
   };
-  it('the radius is never smaller than any single component, and is their sum (point-radius.md §5.6)', () => {
+  it('the radius is never smaller than any single component, and is their sum (docs/method.md §5.6)', () => {
     fc.assert(
       fc.property(anyOffset, (o) => {
         const g = run(o);

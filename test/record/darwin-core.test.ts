@@ -26,7 +26,7 @@ describe('appended Darwin Core fields', () => {
 });
 
 describe('reporting decimals', () => {
-  // Our own rule (point-radius.md §6 [CHOICE]): rounding moves the point by at most 1 % of the radius.
+  // Our own rule (docs/method.md §6 [CHOICE]): rounding moves the point by at most 1 % of the radius.
   it('never rounds away more than 1 % of the radius', () => {
     for (const radius of [3, 30, 300, 3000, 30000, 300000]) {
       const k = reportingDecimals(radius);

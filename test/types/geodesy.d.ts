@@ -9,3 +9,20 @@ declare module 'geodesy/latlon-ellipsoidal-vincenty.js' {
     initialBearingTo(point: LatLon): number;
   }
 }
+declare module 'geodesy/latlon-ellipsoidal-datum.js' {
+  export interface Datum { ellipsoid: { a: number; b: number; f: number }; transform: number[] }
+  export default class LatLon {
+    constructor(lat: number, lon: number, height?: number, datum?: Datum);
+    lat: number;
+    lon: number;
+    static datums: Record<string, Datum>;
+    convertDatum(to: Datum): LatLon;
+  }
+}
+declare module 'geodesy/utm.js' {
+  import type { Datum } from 'geodesy/latlon-ellipsoidal-datum.js';
+  export default class Utm {
+    constructor(zone: number, hemisphere: 'N' | 'S', easting: number, northing: number, datum?: Datum);
+    toLatLon(): { lat: number; lon: number };
+  }
+}
