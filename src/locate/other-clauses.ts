@@ -74,6 +74,7 @@ export function unusedPlaces(
 /**
  * Why the answer disagrees with a named place of another clause, or null: every feature the name can
  * mean lies farther from the answer's center than the answer's radius and the feature's own radius.
+ * Distances are WGS84 geodesics (geographiclib, about 15 nm), far finer than the radii compared.
  * @example conflictWith(georef, [{ clause: 2, name: 'Rio de Janeiro', features: [rio] }]) // '"Rio de Janeiro" … 720 km …'
  */
 export function conflictWith(georef: Georeference, found: OtherClauseCheck['found']): string | null {
