@@ -10,7 +10,7 @@ import { georeference } from './georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
 import { METHOD_DEFAULTS } from './georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './locate/other-clauses.ts';
-import { findUnit, unitNamed } from './locate/administrative-unit.ts';
+import { findUnit, unitArea, unitNamed } from './locate/administrative-unit.ts';
 import { justOutside } from './locate/just-outside.ts';
 import { kindMismatch } from './locate/feature-kind.ts';
 
@@ -110,12 +110,14 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
+  const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;
   const unused = unusedPlaces(others, fallbackFrom, {
     rule: options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule,
     meters: options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters,
-  });
+  }, withinUnit);
   if ('decline' in unused) return { status: 'not-found', interpretation: used, candidates, reason: unused.decline };
   const { widening } = unused;
+  if (unused.note) used = { ...used, notes: [...used.notes, unused.note] };
   const pathLine = findPathLine(finder, used, context);
   // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
   const boundingUnit = findBoundingUnit(finder, context, used.type === 'heading-only' ? 'country' : 'stateProvince');

@@ -83,6 +83,15 @@ export function findUnit(finder: CandidateFinder, unit: NamedUnit, context: Admi
   return { feature: null, candidates, reason: `"${unit.written}" names the ${words} "${unit.name}", not a place; ${why}, and a town of that name with a town's radius would not be honest, so no georeference is given` };
 }
 
+/**
+ * The feature when it is an administrative unit's polygon, else undefined.
+ * @example unitArea(alisosCounty)?.name // 'Alisos'
+ */
+export function unitArea(feature: Feature): Feature | undefined {
+  const polygon = feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon';
+  return polygon && FEATURE_TYPES.unit.includes(feature.featureType ?? '') ? feature : undefined;
+}
+
 /** The record's units wider than `level`: a unit is looked for within them, not within itself. */
 function contextAbove(level: AdministrativeLevel, context: AdministrativeContext): AdministrativeContext {
   const wider: AdministrativeContext = { countryCode: context.countryCode, country: context.country };

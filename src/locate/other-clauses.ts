@@ -46,7 +46,8 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
  * What the places the answer cannot rest on do to it: the missing names of the other clauses, and the
  * name of the chosen clause when a later clause had to be used instead (`fallbackFrom`). By the
  * [CHOICE]s unusedFeatureRule and unusedFeatureMeters: a radius term with its remark, or the reason to
- * decline; nothing when every named place was found.
+ * decline; nothing when every named place was found. When the place used is an administrative unit's
+ * polygon (`withinUnit`), the text places the missing ones in it: a note, and no term.
  * @example unusedPlaces({ missing: [{ clause: 1, name: 'Laguna Negra' }], found: [] }, undefined, { rule: 'widen', meters: 120000 })
  *   // { widening: { meters: 120000, remark: '"Laguna Negra" is named but not in the loaded gazetteers: …' } }
  */
@@ -54,11 +55,16 @@ export function unusedPlaces(
   check: OtherClauseCheck,
   fallbackFrom: string | undefined,
   choice: { rule: 'widen' | 'decline'; meters: number },
-): { widening?: { meters: number; remark: string } } | { decline: string } {
+  withinUnit?: Feature,
+): { widening?: { meters: number; remark: string }; note?: string } | { decline: string } {
   const names = [...(fallbackFrom ? [fallbackFrom] : []), ...check.missing.map((m) => m.name)];
   if (names.length === 0) return {};
   const quoted = names.map((n) => `"${n}"`).join(', ');
   const verb = names.length === 1 ? 'is' : 'are';
+  if (withinUnit) {
+    // "Cerro Azul, Alisos": the text places it in the unit, whose own polygon already bounds the answer.
+    return { note: `${quoted} ${verb} named but not in the loaded gazetteers; the text places ${names.length === 1 ? 'it' : 'them'} in the ${withinUnit.featureType} "${withinUnit.name}", whose polygon is the answer's extent` };
+  }
   if (choice.rule === 'decline') {
     return { decline: `${quoted} ${verb} named but not in the loaded gazetteers: the specimen may come from there, so no georeference is given [CHOICE unusedFeatureRule 'decline', src/georef/method-defaults.ts]` };
   }

@@ -118,6 +118,15 @@ describe('a later clause names the findable place', () => {
     expect(g.remarks.join('\n')).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the next clause, "Puerto Lindo", is used instead/);
   });
 
+  it('takes a unit named in the later clause by its polygon, with no term added ("Cerro Azul, Alisos")', () => {
+    const result = locate(store, { locality: 'Cerro Azul, Alisos', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0005');
+    expect(g.components.unusedFeature).toBeUndefined();
+    expect(g.remarks.join('\n')).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers; the text places it in the county "Alisos", whose polygon is the answer's extent/);
+  });
+
   it('does not fall back without a stated state or county (a name met anywhere is too often another place)', () => {
     const result = locate(store, { locality: 'Villa Quimera, Puerto Lindo', countryCode: 'QV' });
     expect(result.status).toBe('not-found');
