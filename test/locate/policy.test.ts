@@ -14,7 +14,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
-import { FUZZY_ACCEPTANCE, locate } from '../../src/locate.ts';
+import { FUZZY_ACCEPTANCE, locate } from '../../src/locate/locate.ts';
 import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
 import { kindMismatch } from '../../src/locate/feature-kind.ts';
 import { parseLocality, type Interpretation } from '../../src/parse/index.ts';

