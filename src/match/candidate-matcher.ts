@@ -9,6 +9,7 @@ import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGT
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex } from './types.ts';
+import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
 
 const DEFAULT_LIMIT = 10;
@@ -99,9 +100,18 @@ export class CandidateMatcher {
       || Object.values(query.context).some((value) => value !== undefined && value !== '');
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
-    const result = candidates.slice(0, limit);
+    const result = mergeSamePlaces(candidates, this.sourceRank()).slice(0, limit);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
+  }
+
+  /** Where several sources hold one place, the rank of each source, read only when a place is merged. */
+  private sourceRank(): (sourceId: string) => number {
+    let ranks: ReadonlyMap<string, number> | undefined;
+    return (sourceId) => {
+      ranks ??= this.index.sourceRanks?.() ?? new Map<string, number>();
+      return ranks.get(sourceId) ?? Number.MAX_SAFE_INTEGER;
+    };
   }
 
   private resolve(query: CandidateQuery, notes: string[]): ResolvedContext {

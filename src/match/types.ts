@@ -25,6 +25,20 @@ export interface Feature {
   geometryType: GeometryType;
   /** The full geometry, present for lines and polygons when it was asked for. */
   geometry?: Geometry;
+  /** The same place as held by other sources, when several sources hold it (see src/match/same-place.ts). */
+  alsoIn?: SamePlaceElsewhere[];
+}
+
+/** Another source's feature found to be the same place as the one cited (src/match/same-place.ts). */
+export interface SamePlaceElsewhere {
+  sourceId: string;
+  featureId: string;
+  name: string;
+  featureType: string | null;
+  latitude: number;
+  longitude: number;
+  /** Geodesic distance from the cited feature's center, meters. */
+  distanceMeters: number;
 }
 
 /** Which feature: its source and its id there (what a choice among candidates names). */
@@ -53,6 +67,11 @@ export interface Source {
   /** sha256 of the imported file's bytes. */
   contentHash: string;
   featureCount: number;
+  /**
+   * Rank of the source where several hold the same place: 1 is cited first, then 2…; null (not set)
+   * after every ranked source, in the order imported.
+   */
+  priority: number | null;
 }
 
 /** Administrative context used to narrow candidates (a record's fields, or clauses of its text). */
@@ -135,4 +154,9 @@ export interface NameIndex {
   postingsWithPartner(driver: IndexedToken, partners: readonly IndexedToken[], countries: readonly string[] | null, limit: number): Posting[];
   /** Loads a line's or polygon's full geometry into the feature (nothing for points or when present). */
   attachGeometry(feature: Feature): void;
+  /**
+   * Each source's place in the order the user ranks them (0 first), for merging the same place held
+   * by several sources (same-place.ts); without it, the better-scored feature is cited.
+   */
+  sourceRanks?(): ReadonlyMap<string, number>;
 }

@@ -7,7 +7,7 @@ import { existsSync, statSync } from 'node:fs';
 import Database from 'better-sqlite3';
 import { jobsDatabasePath } from './side-files.ts';
 import { nameVariants } from '../match/fold.ts';
-import { SCHEMA_VERSION } from './gazetteer-store.ts';
+import { OLDEST_READABLE_SCHEMA, SCHEMA_VERSION } from './gazetteer-store.ts';
 
 /** `note`: worth knowing, nothing is wrong; `problem`: the store (or a job) needs the remedy. */
 export type CheckStatus = 'ok' | 'note' | 'problem';
@@ -121,12 +121,18 @@ function schemaCheck(db: Database.Database): DoctorCheck {
       remedy: 'use the whereabouts that wrote the store, or import the gazetteer files again into a new store with this one',
     };
   }
-  if (version < SCHEMA_VERSION) {
-    return { check, status: 'problem', finding: `schema version ${version}, older than the version ${SCHEMA_VERSION} this whereabouts reads`, remedy: 'import the gazetteer files again into a new store' };
+  if (version < OLDEST_READABLE_SCHEMA) {
+    return { check, status: 'problem', finding: `schema version ${version}, older than any version this whereabouts reads (${OLDEST_READABLE_SCHEMA} to ${SCHEMA_VERSION})`, remedy: 'import the gazetteer files again into a new store' };
   }
   const present = new Set((db.prepare("SELECT name FROM sqlite_schema WHERE type = 'table'").all() as { name: string }[]).map((r) => r.name));
   const missing = STORE_TABLES.filter((table) => !present.has(table));
   if (missing.length > 0) return { check, status: 'problem', finding: `schema version ${version}, but the tables ${missing.join(', ')} are missing`, remedy: REBUILD };
+  if (version < SCHEMA_VERSION) {
+    return {
+      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds the source priority column)`,
+      remedy: 'nothing to do; keep a copy first if an older whereabouts must still read the file',
+    };
+  }
   return { check, status: 'ok', finding: `schema version ${version}, as this whereabouts expects` };
 }
 

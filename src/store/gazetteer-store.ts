@@ -13,13 +13,25 @@ import type {
   Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
 } from '../match/types.ts';
 
-/** Schema version kept in PRAGMA user_version; a file of another version is refused, never guessed at. */
-export const SCHEMA_VERSION = 1;
+/** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
+export const SCHEMA_VERSION = 2;
+
+/**
+ * Each older schema version's step to the next, run in order in one transaction when a store of that
+ * version is opened (a read-only open migrates through a short writable connection first).
+ */
+export const MIGRATIONS: Readonly<Record<number, string>> = {
+  // Version 2: the rank of a source where several hold the same place (src/match/same-place.ts).
+  1: 'ALTER TABLE sources ADD COLUMN priority INTEGER;',
+};
+/** The oldest schema version this whereabouts reads (migrating it when opened). */
+export const OLDEST_READABLE_SCHEMA = 1;
 
 const SCHEMA = `
 CREATE TABLE sources (
   id INTEGER PRIMARY KEY, name TEXT NOT NULL UNIQUE, citation TEXT NOT NULL, licence TEXT,
-  imported_at TEXT NOT NULL, content_hash TEXT NOT NULL, format TEXT NOT NULL, feature_count INTEGER NOT NULL
+  imported_at TEXT NOT NULL, content_hash TEXT NOT NULL, format TEXT NOT NULL, feature_count INTEGER NOT NULL,
+  priority INTEGER
 );
 CREATE TABLE features (
   id INTEGER PRIMARY KEY, source INTEGER NOT NULL, feature_id TEXT NOT NULL, name TEXT NOT NULL,
@@ -56,6 +68,8 @@ export interface SourceRecord {
   licence: string | null;
   contentHash: string;
   format: string;
+  /** Rank where several sources hold the same place; undefined keeps the replaced source's. */
+  priority?: number | null;
 }
 
 /** One import in progress: a single transaction, rolled back unless committed. */
@@ -185,6 +199,7 @@ interface SourceRow {
   imported_at: string;
   content_hash: string;
   feature_count: number;
+  priority?: number | null;
 }
 
 /** The SQLite gazetteer: CandidateFinder for the core, plus source management. */
@@ -194,8 +209,13 @@ export interface GazetteerStore extends CandidateFinder {
   sources(): Source[];
   /** Removes a source and all its features; returns false when there is no such source. */
   removeSource(id: string): boolean;
-  /** Starts an import of a source (replacing it if it exists) in one transaction. */
+  /** Starts an import of a source (replacing it if it exists, keeping its priority) in one transaction. */
   beginImport(sourceId: string): ImportSession;
+  /**
+   * Sets (or with null clears) the rank of a source where several hold the same place: 1 is cited
+   * first. Returns false when there is no such source.
+   */
+  setPriority(sourceId: string, priority: number | null): boolean;
   close(): void;
 }
 
@@ -225,14 +245,25 @@ class SqliteGazetteer implements GazetteerStore {
   private readonly matcher: CandidateMatcher;
 
   constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number) {
-    this.db = new Database(path, { readonly, fileMustExist: readonly });
-    const version = this.db.pragma('user_version', { simple: true }) as number;
+    let db = new Database(path, { readonly, fileMustExist: readonly });
+    let version = db.pragma('user_version', { simple: true }) as number;
+    if (readonly && version >= OLDEST_READABLE_SCHEMA && version < SCHEMA_VERSION) {
+      db.close();
+      db = new Database(path, { fileMustExist: true });
+      migrate(db, path, version);
+      db.close();
+      db = new Database(path, { readonly: true, fileMustExist: true });
+      version = SCHEMA_VERSION;
+    }
+    this.db = db;
     if (version === 0 && !readonly) {
       this.db.pragma('journal_mode = WAL');
       this.db.exec(`BEGIN; ${SCHEMA} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
-    } else if (version !== SCHEMA_VERSION) {
+    } else if (version < OLDEST_READABLE_SCHEMA || version > SCHEMA_VERSION) {
       this.db.close();
-      throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads version ${SCHEMA_VERSION}`);
+      throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads versions ${OLDEST_READABLE_SCHEMA} to ${SCHEMA_VERSION}`);
+    } else if (version < SCHEMA_VERSION) {
+      migrate(this.db, path, version);
     }
     if (!readonly) this.db.pragma('synchronous = NORMAL');
     this.db.pragma(`cache_size = -${Math.round(cacheKiB)}`);
@@ -262,6 +293,11 @@ class SqliteGazetteer implements GazetteerStore {
     return (this.statements.allSources.all() as SourceRow[]).map(toSource);
   }
 
+  setPriority(sourceId: string, priority: number | null): boolean {
+    if (priority !== null && !(Number.isInteger(priority) && priority >= 1)) throw new Error(`a source priority is a whole number from 1 (cited first), not ${priority}`);
+    return this.statements.setPriority.run(priority, sourceId).changes === 1;
+  }
+
   removeSource(id: string): boolean {
     this.matcher.forgetTokenMatches();
     const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
@@ -284,7 +320,7 @@ class SqliteGazetteer implements GazetteerStore {
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
-    const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
+    const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
     const deletions = new PairBuffer(new RowWriter(db, 'deletions', ['hash', 'token']));
     const postings = new PairBuffer(new RowWriter(db, 'postings', ['token', 'feature']));
@@ -350,6 +386,7 @@ class SqliteGazetteer implements GazetteerStore {
         names.flush();
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
+        if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
         db.exec('COMMIT');
         finish();
         return toSource(s.sourceByName.get(sourceId) as SourceRow);
@@ -382,6 +419,21 @@ class SqliteGazetteer implements GazetteerStore {
       this.db.exec(`DELETE FROM deletions WHERE token IN (SELECT id FROM tokens WHERE df = 0);
         DELETE FROM tokens WHERE df = 0;`);
     }
+  }
+}
+
+/**
+ * Brings a store of an older schema version to SCHEMA_VERSION in one transaction (MIGRATIONS).
+ * @example migrate(new Database('old.sqlite'), 'old.sqlite', 1)
+ */
+function migrate(db: Database.Database, path: string, version: number): void {
+  const steps = Array.from({ length: SCHEMA_VERSION - version }, (_, i) => MIGRATIONS[version + i]).join('\n');
+  try {
+    db.exec(`BEGIN; ${steps} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
+  } catch (error) {
+    if (db.inTransaction) db.exec('ROLLBACK');
+    db.close();
+    throw new Error(`${path}: gazetteer schema version ${version} must be migrated to version ${SCHEMA_VERSION}, which needs write access to the file: ${(error as Error).message}`);
   }
 }
 
@@ -430,6 +482,7 @@ function sqliteNameIndex(s: Statements): NameIndex {
         : inCountries.all({ driver: driver.id, partners: partnerIds, limit, countries: JSON.stringify(countries) })) as Posting[];
     },
     attachGeometry: (feature) => attachGeometry(s, feature),
+    sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
   };
 }
 
@@ -440,8 +493,10 @@ const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.al
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
   return {
-    insertSource: db.prepare(`INSERT INTO sources (name, citation, licence, imported_at, content_hash, format, feature_count)
-      VALUES (?, '', NULL, ?, '', '', 0)`),
+    insertSource: db.prepare(`INSERT INTO sources (name, citation, licence, imported_at, content_hash, format, feature_count, priority)
+      VALUES (?, '', NULL, ?, '', '', 0, ?)`),
+    setPriority: db.prepare('UPDATE sources SET priority = ? WHERE name = ?'),
+    rankedSources: db.prepare('SELECT name FROM sources ORDER BY priority IS NULL, priority, id').pluck(),
     completeSource: db.prepare('UPDATE sources SET citation = ?, licence = ?, content_hash = ?, format = ?, feature_count = ? WHERE id = ?'),
     deleteSource: db.prepare('DELETE FROM sources WHERE id = ?'),
     deleteSourceFeatures: db.prepare('DELETE FROM features WHERE source = ?'),
@@ -514,5 +569,6 @@ function toSource(row: SourceRow): Source {
     importedAt: row.imported_at,
     contentHash: row.content_hash,
     featureCount: row.feature_count,
+    priority: row.priority ?? null,
   };
 }

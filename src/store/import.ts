@@ -27,6 +27,8 @@ export interface ImportOptions {
   adminCodesFile?: string;
   /** Default radius overrides for this source, meters by feature type (see default-radii.ts). */
   radii?: Readonly<Record<string, number>>;
+  /** Rank of the source where several hold the same place (1 first); kept from the replaced source when not given. */
+  priority?: number | null;
   /** Called every few thousand rows with the number read so far. */
   onProgress?: (rows: number) => void;
 }
@@ -80,7 +82,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
     }
-    session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format });
+    session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format, priority: options.priority });
   } catch (error) {
     session.rollback();
     input.destroy();

@@ -2,6 +2,7 @@ import type { Command } from 'commander';
 import { SingleBar } from 'cli-progress';
 import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../store/import.ts';
 import { openGazetteer } from '../../store/gazetteer-store.ts';
+import { parsePriority } from './gazetteer.ts';
 
 interface ImportCommandOptions {
   format?: string;
@@ -10,6 +11,7 @@ interface ImportCommandOptions {
   licence?: string;
   adminCodes?: string;
   defaultRadius?: Record<string, number>;
+  priority?: number | null;
 }
 
 const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames'];
@@ -30,6 +32,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
     .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
+    .option('--priority <rank>', 'where several sources hold the same place, cite this one at this rank (1 first; see gazetteer priority)', parsePriority)
     .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius, {})
     .action(async (file: string, opts: ImportCommandOptions) => {
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
@@ -46,6 +49,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
           licence: opts.licence,
           adminCodesFile: opts.adminCodes,
           radii: opts.defaultRadius,
+          priority: opts.priority,
           onProgress: (rows) => bar?.update(rows),
         });
         bar?.stop();
