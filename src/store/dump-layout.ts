@@ -13,25 +13,45 @@ export const DUMP_COLUMNS = [
 ] as const;
 
 /**
- * Feature codes of the dump layout mapped to whereabouts' feature types (for default radii). Codes
- * not listed keep no type and get the unknown-type radius. Populated places are split by population
- * in dumpFeatureType. The code meanings are the layout's published feature-code list (from memory).
+ * Feature codes of the dump layout mapped to whereabouts' feature types, whose default radii
+ * (src/georef/default-radii.ts, each a [CHOICE] of docs/method.md §4) a point without an extent of its
+ * own gets. Codes not listed take the type of their feature class (CLASS_TYPES); populated places are
+ * split by population in dumpFeatureType. The code meanings are the layout's published feature-code
+ * list (from memory); administrative units by level: ADM1 state, ADM2 county, ADM3 municipality, ADM4
+ * and ADM5 district.
  */
 const FEATURE_CODE_TYPES: Readonly<Record<string, string>> = {
   PPLC: 'city', PPLA: 'city', PPLG: 'city',
   PPLX: 'locality', PPLL: 'locality', LCTY: 'locality', AREA: 'locality', PPLF: 'village', PPLQ: 'village',
   PPLH: 'town', PPLW: 'village', PPLS: 'village', PPLR: 'village', STLMT: 'village',
   PCLI: 'country', PCL: 'country', PCLD: 'country', PCLF: 'country', PCLS: 'country', PCLIX: 'country', TERR: 'country',
-  ADM1: 'stateProvince', ADM1H: 'stateProvince', ADM2: 'county', ADM2H: 'county', ADM3: 'locality', ADM4: 'locality', ADMD: 'locality',
-  LK: 'lake', LKS: 'lake', LKI: 'lake', LKN: 'lake', RSV: 'lake', PND: 'lake',
-  STM: 'river', STMS: 'river', STMI: 'stream', STMB: 'stream', STMH: 'stream', STMM: 'river mouth', ESTY: 'river mouth',
+  ADM1: 'stateProvince', ADM1H: 'stateProvince', ADM2: 'county', ADM2H: 'county', ADM3: 'municipality', ADM3H: 'municipality',
+  ADM4: 'district', ADM4H: 'district', ADM5: 'district', ADM5H: 'district', ADMD: 'district', ADMDH: 'district',
+  LK: 'lake', LKS: 'lake', LKI: 'lake', LKN: 'lake', RSV: 'lake', PND: 'lake', PNDS: 'lake', LGN: 'lake', LKO: 'lake',
+  STM: 'river', STMS: 'river', STMI: 'stream', STMB: 'stream', STMH: 'stream', STMX: 'stream', STMD: 'stream', CNL: 'stream',
+  STMM: 'river mouth', ESTY: 'river mouth',
   BAY: 'bay', BAYS: 'bay', COVE: 'bay', GULF: 'bay', FLLS: 'waterfall', FLLSX: 'waterfall',
+  OCN: 'sea', SEA: 'sea', STRT: 'channel', CHN: 'channel', CHNM: 'channel', SD: 'channel', SWMP: 'wetland', MRSH: 'wetland',
+  BOG: 'wetland', SPNG: 'spring', SPNS: 'spring', WLL: 'spring', WLLS: 'spring', SPNT: 'spring',
   MT: 'mountain', MTS: 'mountain', PK: 'peak', PKS: 'peak', VLC: 'mountain', HLL: 'hill', HLLS: 'hill', MND: 'hill',
   PASS: 'pass', GAP: 'pass', CAPE: 'cape', PT: 'cape', PEN: 'cape', ISL: 'island', ISLS: 'island', ISLET: 'island',
-  ISLM: 'island', BCH: 'beach', BCHS: 'beach',
+  ISLM: 'island', BCH: 'beach', BCHS: 'beach', VAL: 'valley', VALS: 'valley', CNYN: 'valley', GRGE: 'valley',
+  RDGE: 'ridge', ESCT: 'ridge', CLF: 'ridge', PLN: 'plain', PLAT: 'plain', DSRT: 'plain', UPLD: 'plain',
   FRM: 'farm', FRMS: 'farm', FRMT: 'farm', RNCH: 'farm', EST: 'estate', ESTB: 'estate', ESTC: 'estate', ESTSG: 'estate',
-  RSTN: 'station', RSTP: 'station', STNB: 'station', STNM: 'station', BDG: 'bridge',
+  RSTN: 'station', RSTP: 'station', STNB: 'station', STNM: 'station', BDG: 'bridge', AIRP: 'airport', AIRF: 'airport',
+  CH: 'building', SCH: 'building', HSP: 'building', HTL: 'building', HUT: 'building', MN: 'building', MSTY: 'building',
+  BLDG: 'building', RUIN: 'building', CMTY: 'building', LTHSE: 'building',
   RD: 'road', RDA: 'road', RDB: 'road', TRL: 'trail',
+  PRK: 'park', RESN: 'park', RESF: 'park', RESW: 'park', RES: 'park', RESV: 'park', RESH: 'park',
+  FRST: 'forest', FRSTF: 'forest', GRSLD: 'forest', SCRB: 'forest', VIN: 'farm', ORCH: 'farm',
+};
+
+/**
+ * The type of a feature class whose code is not listed (the layout's nine classes: A administrative,
+ * H water, L area, P populated place, R road, S spot, T terrain, U undersea, V vegetation).
+ */
+const CLASS_TYPES: Readonly<Record<string, string>> = {
+  A: 'administrative unit', H: 'water body', L: 'area', R: 'road', S: 'spot', T: 'terrain feature', U: 'undersea feature', V: 'forest',
 };
 
 /** Population above which a populated place counts as a city, then a town (common practice, no source). */
@@ -39,10 +59,11 @@ const CITY_POPULATION = 100_000;
 const TOWN_POPULATION = 5_000;
 
 /**
- * Our feature type for a dump feature code; populated places (PPL, PPLA2…) by population, and those of
- * unknown population as towns (erring large, method §4).
+ * Our feature type for a dump feature code (by code, else by class); populated places (PPL, PPLA2…) by
+ * population, and those of unknown population as towns (erring large, method §4).
  * @example dumpFeatureType('P', 'PPL', 250000) // 'city'
  * @example dumpFeatureType('T', 'PK', 0) // 'peak'
+ * @example dumpFeatureType('U', 'SMU', 0) // 'undersea feature'
  */
 export function dumpFeatureType(featureClass: string, featureCode: string, population: number): string | null {
   const mapped = FEATURE_CODE_TYPES[featureCode];
@@ -52,7 +73,7 @@ export function dumpFeatureType(featureClass: string, featureCode: string, popul
     if (population >= TOWN_POPULATION || population === 0) return 'town';
     return 'village';
   }
-  return null;
+  return CLASS_TYPES[featureClass] ?? null;
 }
 
 /**
