@@ -124,6 +124,11 @@ export class CandidateMatcher {
       }
     }
     const context = resolveContext(query.context, gazetteerCodes);
+    // A state or county written in another language or by a former name: the units it names.
+    if (this.index.unitKeys !== undefined) {
+      if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.index.unitKeys(1, context.stateProvinceKey));
+      if (context.countyKey !== undefined) context.countyAliases = new Set(this.index.unitKeys(2, context.countyKey));
+    }
     if (context.unresolvedCountry !== undefined) notes.push(`country '${context.unresolvedCountry}' not recognised: not used to filter`);
     return context;
   }

@@ -27,6 +27,28 @@ export interface Feature {
   geometry?: Geometry;
   /** The same place as held by other sources, when several sources hold it (see src/match/same-place.ts). */
   alsoIn?: SamePlaceElsewhere[];
+  /** What the source says of some alternate names: their language and whether former, short, colloquial. */
+  nameDetails?: AlternateName[];
+  /**
+   * Set by a lookup when the name the text matched is not a current name of the feature, in plain
+   * words for the remarks ("former name 'Puerto Viejo' (until 1921)").
+   */
+  matchedAs?: string;
+}
+
+/** An alternate name as a gazetteer with name details gives it (the dump layout's alternate-names file). */
+export interface AlternateName {
+  name: string;
+  /** ISO 639 language code, or null. */
+  language: string | null;
+  preferred?: true;
+  short?: true;
+  colloquial?: true;
+  /** A former name: no longer in use. */
+  historic?: true;
+  /** When the name was in use, as the source writes it (a year, usually). */
+  from?: string;
+  to?: string;
 }
 
 /** Another source's feature found to be the same place as the one cited (src/match/same-place.ts). */
@@ -159,4 +181,9 @@ export interface NameIndex {
    * by several sources (same-place.ts); without it, the better-scored feature is cited.
    */
   sourceRanks?(): ReadonlyMap<string, number>;
+  /**
+   * The comparison keys (administrativeKey) of the state (level 1) or county (level 2) names of units
+   * one of whose names, in any language, has the key `key`; empty when the index knows none.
+   */
+  unitKeys?(level: 1 | 2, key: string): string[];
 }

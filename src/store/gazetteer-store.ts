@@ -8,9 +8,10 @@ import Database from 'better-sqlite3';
 import type { Geometry } from 'geojson';
 import { CandidateMatcher } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
+import { administrativeKey } from '../match/context.ts';
 import { nameVariants } from '../match/fold.ts';
 import type {
-  Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
+  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
 } from '../match/types.ts';
 
 /** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
@@ -21,8 +22,12 @@ export const SCHEMA_VERSION = 2;
  * version is opened (a read-only open migrates through a short writable connection first).
  */
 export const MIGRATIONS: Readonly<Record<number, string>> = {
-  // Version 2: the rank of a source where several hold the same place (src/match/same-place.ts).
-  1: 'ALTER TABLE sources ADD COLUMN priority INTEGER;',
+  // Version 2: the rank of a source where several hold the same place (src/match/same-place.ts), the
+  // details of alternate names (language, former…), and every name of the administrative units.
+  1: `ALTER TABLE sources ADD COLUMN priority INTEGER;
+    ALTER TABLE features ADD COLUMN name_details TEXT;
+    CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
+      PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;`,
 };
 /** The oldest schema version this whereabouts reads (migrating it when opened). */
 export const OLDEST_READABLE_SCHEMA = 1;
@@ -37,13 +42,15 @@ CREATE TABLE features (
   id INTEGER PRIMARY KEY, source INTEGER NOT NULL, feature_id TEXT NOT NULL, name TEXT NOT NULL,
   alternate_names TEXT, feature_type TEXT, country_code TEXT, state_province TEXT, county TEXT,
   latitude REAL NOT NULL, longitude REAL NOT NULL, radius REAL NOT NULL, radius_default INTEGER NOT NULL,
-  geometry_type INTEGER NOT NULL, geometry TEXT
+  geometry_type INTEGER NOT NULL, geometry TEXT, name_details TEXT
 );
 CREATE UNIQUE INDEX features_by_source_id ON features (source, feature_id);
 CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
 CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
 CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
 CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
+  PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;
 `;
 
 const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
@@ -76,6 +83,12 @@ export interface SourceRecord {
 export interface ImportSession {
   /** Adds a feature; returns null, or the reason it was refused (a duplicate id, say). */
   add(record: FeatureRecord): string | null;
+  /** Keeps an alternate name of a feature still to come, on disk for the length of the import. */
+  stageAlternateName(featureId: string, name: AlternateName): void;
+  /** The alternate names staged for a feature, in the order staged. */
+  stagedAlternateNames(featureId: string): AlternateName[];
+  /** Records every name of a state (level 1) or county (level 2) whose features carry `unitName`. */
+  addUnitNames(level: 1 | 2, unitName: string, names: readonly string[]): void;
   commit(source: SourceRecord): Source;
   rollback(): void;
 }
@@ -96,6 +109,7 @@ interface FeatureRow {
   radius_default: number;
   geometry_type: number;
   geometry?: string | null;
+  name_details: string | null;
 }
 
 /** Rows a multi-row INSERT writes at once: one statement of many rows costs far less than many statements. */
@@ -327,6 +341,7 @@ class SqliteGazetteer implements GazetteerStore {
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
+    let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
     // Into an empty token table, a token the cache has not seen is new: no need to look it up.
     let everyTokenCached = s.anyToken.get() === undefined;
     const tokenId = (token: string): number => {
@@ -349,6 +364,7 @@ class SqliteGazetteer implements GazetteerStore {
     };
     const finish = () => {
       open = false;
+      staging = null;
       this.matcher.forgetTokenMatches();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
@@ -362,6 +378,7 @@ class SqliteGazetteer implements GazetteerStore {
             record.featureType, record.countryCode, record.stateProvince, record.county,
             record.latitude, record.longitude, record.radiusMeters, record.radiusIsDefault ? 1 : 0,
             GEOMETRY_TYPES.indexOf(record.geometryType), record.geometry,
+            record.nameDetails !== undefined && record.nameDetails.length > 0 ? JSON.stringify(record.nameDetails) : null,
           ).lastInsertRowid);
         } catch (error) {
           if (error instanceof Database.SqliteError && error.code === 'SQLITE_CONSTRAINT_UNIQUE') return `duplicate id '${record.featureId}'`;
@@ -379,8 +396,26 @@ class SqliteGazetteer implements GazetteerStore {
         count++;
         return null;
       },
+      stageAlternateName: (featureId, name) => {
+        if (staging === null) {
+          // A table of the file, not of memory: a world alternate-names file holds millions of rows.
+          db.exec(`CREATE TABLE IF NOT EXISTS import_staged_names (feature_id TEXT NOT NULL, detail TEXT NOT NULL);
+            CREATE INDEX IF NOT EXISTS import_staged_names_by_feature ON import_staged_names (feature_id);`);
+          staging = {
+            insert: db.prepare('INSERT INTO import_staged_names (feature_id, detail) VALUES (?, ?)'),
+            select: db.prepare('SELECT detail FROM import_staged_names WHERE feature_id = ? ORDER BY rowid').pluck(),
+          };
+        }
+        staging.insert.run(featureId, JSON.stringify(name));
+      },
+      stagedAlternateNames: (featureId) => (staging === null ? [] : (staging.select.all(featureId) as string[]).map((detail) => JSON.parse(detail) as AlternateName)),
+      addUnitNames: (level, unitName, names) => {
+        const unitKey = administrativeKey(unitName);
+        for (const key of new Set([unitKey, ...names.map(administrativeKey)])) if (key !== '') s.insertUnitName.run(key, level, unitKey, sourceRowId);
+      },
       commit: (source) => {
         if (!open) throw new Error('import already finished');
+        if (staging !== null) db.exec('DROP TABLE import_staged_names');
         deletions.flush();
         postings.flush();
         names.flush();
@@ -407,6 +442,7 @@ class SqliteGazetteer implements GazetteerStore {
     const s = this.statements;
     s.deleteSourcePostings.run(sourceRowId);
     s.deleteSourceNames.run(sourceRowId);
+    s.deleteSourceUnitNames.run(sourceRowId);
     s.deleteSourceFeatures.run(sourceRowId);
     s.deleteSource.run(sourceRowId);
   }
@@ -483,12 +519,13 @@ function sqliteNameIndex(s: Statements): NameIndex {
     },
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
+    unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
   };
 }
 
 
 const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
-  f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type`;
+  f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type, f.name_details`;
 
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
@@ -503,8 +540,11 @@ function prepareStatements(db: Database.Database) {
     deleteSourceNames: db.prepare('DELETE FROM names WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     deleteSourcePostings: db.prepare('DELETE FROM postings WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
-      state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry)
-      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+      state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry, name_details)
+      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+    insertUnitName: db.prepare('INSERT OR IGNORE INTO unit_names (key, level, unit_key, source) VALUES (?, ?, ?, ?)'),
+    deleteSourceUnitNames: db.prepare('DELETE FROM unit_names WHERE source = ?'),
+    unitKeys: db.prepare('SELECT DISTINCT unit_key FROM unit_names WHERE key = ? AND level = ?').pluck(),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
     sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
@@ -558,6 +598,7 @@ function toFeature(row: FeatureRow): Feature {
     radiusMeters: row.radius,
     radiusIsDefault: row.radius_default === 1,
     geometryType: GEOMETRY_TYPES[row.geometry_type],
+    ...(row.name_details === null ? {} : { nameDetails: JSON.parse(row.name_details) as AlternateName[] }),
   };
 }
 
