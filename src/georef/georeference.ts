@@ -445,7 +445,8 @@ function describeFeature(feature: Feature): string {
     ? `default radial ${meters(feature.radiusMeters)} for a ${feature.featureType ?? 'feature'} point with no extent in the gazetteer (docs/method.md §4)`
     : `geographic radial ${meters(feature.radiusMeters)} (docs/method.md §4)`;
   const elsewhere = feature.alsoIn !== undefined && feature.alsoIn.length > 0 ? `; ${describeAlsoIn(feature.sourceId, feature.alsoIn)}` : '';
-  return `feature used: "${feature.name}" (${feature.sourceId}:${feature.featureId}), corrected center ${feature.latitude.toFixed(7)}, ${feature.longitude.toFixed(7)}, ${radial}${elsewhere}`;
+  const matchedAs = feature.matchedAs === undefined ? '' : `, found by its ${feature.matchedAs}`;
+  return `feature used: "${feature.name}"${matchedAs} (${feature.sourceId}:${feature.featureId}), corrected center ${feature.latitude.toFixed(7)}, ${feature.longitude.toFixed(7)}, ${radial}${elsewhere}`;
 }
 
 function describeDistance(offset: Offset): string {

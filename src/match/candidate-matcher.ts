@@ -9,6 +9,7 @@ import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGT
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex } from './types.ts';
+import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
 
@@ -100,7 +101,7 @@ export class CandidateMatcher {
       || Object.values(query.context).some((value) => value !== undefined && value !== '');
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
-    const result = mergeSamePlaces(candidates, this.sourceRank()).slice(0, limit);
+    const result = mergeSamePlaces(candidates, this.sourceRank()).slice(0, limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
   }

@@ -1,9 +1,12 @@
 /**
- * The open world-gazetteer dump layout: 19 tab-separated columns, no header, and its admin1 code
- * companion file. Reading a line into a RawFeature is pure; the importer does the I/O.
+ * The open world-gazetteer dump layout: 19 tab-separated columns, no header; its alternate-names file
+ * (10 columns) and its admin1 and admin2 code files (4 columns). Reading a line is pure; the importer
+ * does the I/O. The layouts are those of the dump's readme ("The main 'geoname' table has the following
+ * fields", "Table alternate names", "admin1CodesASCII.txt", "admin2Codes.txt").
  */
 import type { RawFeature } from './feature-record.ts';
 import { foldName } from '../match/fold.ts';
+import type { AlternateName } from '../match/types.ts';
 
 /** Columns of the dump layout, in order. */
 export const DUMP_COLUMNS = [
@@ -77,15 +80,16 @@ export function dumpFeatureType(featureClass: string, featureCode: string, popul
 }
 
 /**
- * One line of the dump layout as a RawFeature, or the reason it cannot be read. The admin1 code is
- * turned into a name through `admin1Names` ("CC.code" → name); without it the state stays unknown.
+ * One line of the dump layout as a RawFeature, or the reason it cannot be read. The admin1 and admin2
+ * codes are turned into names through `adminNames` ("CC.A1" and "CC.A1.A2" → name); without them the
+ * state and county stay unknown.
  * @example readDumpLine('3435910\tBuenos Aires\t…', new Map([['AR.07', 'Buenos Aires F.D.']]))
  */
-export function readDumpLine(line: string, admin1Names: ReadonlyMap<string, string>): RawFeature | string {
+export function readDumpLine(line: string, adminNames: ReadonlyMap<string, string>): RawFeature | string {
   if (line.includes('\uFFFD')) return 'not valid UTF-8';
   const fields = line.split('\t');
   if (fields.length !== DUMP_COLUMNS.length) return `${fields.length} columns, the layout has ${DUMP_COLUMNS.length}`;
-  const [id, name, asciiName, alternates, latitude, longitude, featureClass, featureCode, countryCode, , admin1, , , , population] = fields;
+  const [id, name, asciiName, alternates, latitude, longitude, featureClass, featureCode, countryCode, , admin1, admin2, , , population] = fields;
   const populationNumber = Number(population);
   return {
     id,
@@ -96,18 +100,69 @@ export function readDumpLine(line: string, admin1Names: ReadonlyMap<string, stri
     longitude,
     featureType: dumpFeatureType(featureClass, featureCode, Number.isFinite(populationNumber) ? populationNumber : 0),
     countryCode,
-    stateProvince: admin1 === '' ? null : admin1Names.get(`${countryCode}.${admin1}`) ?? null,
-    county: null,
+    stateProvince: admin1 === '' ? null : adminNames.get(`${countryCode}.${admin1}`) ?? null,
+    county: admin1 === '' || admin2 === '' ? null : adminNames.get(`${countryCode}.${admin1}.${admin2}`) ?? null,
   };
 }
 
+/** One administrative unit of an admin1 or admin2 code file. */
+export interface AdminCode {
+  /** "CC.A1" (level 1) or "CC.A1.A2" (level 2). */
+  code: string;
+  level: 1 | 2;
+  name: string;
+  asciiName: string;
+  /** The unit's own feature id in the dump, whose alternate names are the unit's other names. */
+  featureId: string;
+}
+
 /**
- * One line of the admin1 companion file ("CC.code", name, asciiname, id; tab-separated), or null
- * when the line is not of that form.
- * @example readAdmin1Line('AR.07\tBuenos Aires F.D.\tBuenos Aires F.D.\t3433955') // ['AR.07', 'Buenos Aires F.D.']
+ * One line of an admin1 (`admin1CodesASCII.txt`) or admin2 (`admin2Codes.txt`) code file: code,
+ * name, ASCII name and feature id, tab-separated; null when the line is not of that form.
+ * @example readAdminCodeLine('AR.07\tBuenos Aires F.D.\tBuenos Aires F.D.\t3433955')
+ * // { code: 'AR.07', level: 1, name: 'Buenos Aires F.D.', asciiName: 'Buenos Aires F.D.', featureId: '3433955' }
  */
-export function readAdmin1Line(line: string): [string, string] | null {
+export function readAdminCodeLine(line: string): AdminCode | null {
   const fields = line.split('\t');
-  if (fields.length < 2 || !/^[A-Z]{2}\.\S+$/.test(fields[0]) || fields[1].trim() === '') return null;
-  return [fields[0], fields[1].trim()];
+  const code = /^([A-Z]{2})\.([^.\s]+)(\.[^.\s]+)?$/.exec(fields[0]);
+  if (fields.length < 2 || code === null || fields[1].trim() === '') return null;
+  return {
+    code: fields[0], level: code[3] === undefined ? 1 : 2, name: fields[1].trim(), asciiName: (fields[2] ?? '').trim(), featureId: (fields[3] ?? '').trim(),
+  };
+}
+
+/** Columns of the alternate-names file (the "V2" layout, with from and to). */
+export const ALTERNATE_NAME_COLUMNS = [
+  'alternateNameId', 'geonameid', 'isolanguage', 'alternate name', 'isPreferredName', 'isShortName', 'isColloquial', 'isHistoric', 'from', 'to',
+] as const;
+
+/**
+ * Codes of the language column that mark something other than a name (a web link, a postal code,
+ * airport and station codes, an identifier of another register, a pronunciation): not matched.
+ */
+const NOT_NAME_CODES = new Set(['link', 'post', 'iata', 'icao', 'faac', 'tcid', 'unlc', 'wkdt', 'phon']);
+
+/**
+ * One line of the alternate-names file: the feature it names and the name with its language and
+ * flags; null for a line that holds no name (a link, a postal code…); or the reason it cannot be read.
+ * @example readAlternateNameLine('1\t900010\tes\tPuerto Viejo\t\t\t\t1\t\t1921')
+ * // { featureId: '900010', name: { name: 'Puerto Viejo', language: 'es', historic: true, to: '1921' } }
+ */
+export function readAlternateNameLine(line: string): { featureId: string; name: AlternateName } | null | string {
+  if (line.includes('\uFFFD')) return 'not valid UTF-8';
+  const fields = line.split('\t');
+  if (fields.length !== ALTERNATE_NAME_COLUMNS.length) return `${fields.length} columns, the layout has ${ALTERNATE_NAME_COLUMNS.length}`;
+  const [, featureId, language, written, preferred, short, colloquial, historic, from, to] = fields;
+  if (NOT_NAME_CODES.has(language)) return null;
+  const name = written.trim();
+  if (featureId === '' || name === '') return 'feature id or name missing';
+  return {
+    featureId,
+    name: {
+      name, language: language === '' ? null : language,
+      ...(preferred === '1' && { preferred: true }), ...(short === '1' && { short: true }),
+      ...(colloquial === '1' && { colloquial: true }), ...(historic === '1' && { historic: true }),
+      ...(from !== '' && { from }), ...(to !== '' && { to }),
+    },
+  };
 }

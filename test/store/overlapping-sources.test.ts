@@ -125,7 +125,8 @@ describe('schema migration', () => {
     const v2 = openGazetteer(old);
     v2.close();
     const raw = new Database(old);
-    raw.exec('ALTER TABLE sources DROP COLUMN priority; PRAGMA user_version = 1;');
+    // The version-1 schema: without the columns and the table version 2 added.
+    raw.exec('ALTER TABLE sources DROP COLUMN priority; ALTER TABLE features DROP COLUMN name_details; DROP TABLE unit_names; PRAGMA user_version = 1;');
     raw.close();
     const note = examineStore(old).checks.find((check) => check.check === 'schema version')!;
     expect(note).toMatchObject({ status: 'note' });

@@ -9,7 +9,8 @@ interface ImportCommandOptions {
   source?: string;
   sourceId?: string;
   licence?: string;
-  adminCodes?: string;
+  adminCodes?: string[];
+  alternateNames?: string;
   defaultRadius?: Record<string, number>;
   priority?: number | null;
 }
@@ -25,13 +26,14 @@ const LISTED_REJECTIONS = 20;
 export function registerImport(program: Command, dbPath: () => string): void {
   program
     .command('import')
-    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout)')
+    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout, plain or zipped)')
     .argument('<file>', 'the gazetteer file')
     .option('--format <format>', `one of ${FORMATS.join(', ')} (default: from the file extension)`)
     .option('--source <citation>', 'how to cite this gazetteer (default: the file name)')
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
-    .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
+    .option('--admin-codes <file>', 'admin1 or admin2 code names for the dump layout ("CC.A1" or "CC.A1.A2", name, asciiname, id); repeatable', collectFile)
+    .option('--alternate-names <file>', 'the dump layout\'s alternate-names file (10 columns, plain or zipped): names in other languages, former and colloquial names')
     .option('--priority <rank>', 'where several sources hold the same place, cite this one at this rank (1 first; see gazetteer priority)', parsePriority)
     .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius, {})
     .action(async (file: string, opts: ImportCommandOptions) => {
@@ -48,6 +50,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
           sourceId: opts.sourceId,
           licence: opts.licence,
           adminCodesFile: opts.adminCodes,
+          alternateNamesFile: opts.alternateNames,
           radii: opts.defaultRadius,
           priority: opts.priority,
           onProgress: (rows) => bar?.update(rows),
@@ -59,6 +62,11 @@ export function registerImport(program: Command, dbPath: () => string): void {
         store.close();
       }
     });
+}
+
+/** Adds one file of a repeatable option to those already given. */
+function collectFile(value: string, previous: string[] | undefined): string[] {
+  return [...(previous ?? []), value];
 }
 
 /**
@@ -80,6 +88,11 @@ export function formatSummary(summary: ImportSummary): string {
     `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
     ...summary.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  row ${row}: ${reason}`),
   ];
+  const names = summary.alternateNames;
+  if (names !== undefined) {
+    lines.push(`alternate names: ${names.rowsRead} lines read, ${names.kept} names kept, ${names.rejected.length} rejected`,
+      ...names.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  line ${row}: ${reason}`));
+  }
   if (summary.rejected.length > LISTED_REJECTIONS) lines.push(`  … and ${summary.rejected.length - LISTED_REJECTIONS} more rejected rows`);
   return `${lines.join('\n')}\n`;
 }
