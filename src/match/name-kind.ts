@@ -12,8 +12,9 @@ import type { Candidate } from './types.ts';
  * // "former name 'Puerto Viejo' (es, until 1921)"
  */
 export function matchedNameKind(feature: Candidate['feature'], matchedName: string): string | null {
+  if (feature.nameDetails === undefined) return null;
   const key = foldName(matchedName);
-  const detail = feature.nameDetails?.find((name) => foldName(name.name) === key && (name.historic || name.colloquial));
+  const detail = feature.nameDetails.find((name) => foldName(name.name) === key && (name.historic || name.colloquial));
   if (detail === undefined) return null;
   const period = detail.from !== undefined && detail.to !== undefined ? `${detail.from}–${detail.to}`
     : detail.to !== undefined ? `until ${detail.to}` : detail.from !== undefined ? `from ${detail.from}` : null;
