@@ -48,7 +48,7 @@ const town: Feature = {
   sourceId: 'bench', featureId: '1', name: 'Puerto Lindo', alternateNames: [], featureType: 'town', countryCode: 'QV',
   stateProvince: null, county: null, latitude: -12.5, longitude: -60.25, radiusMeters: 2000, radiusIsDefault: true, geometryType: 'Point',
 };
-const base: Interpretation = { verbatim: '10 km NE of Puerto Lindo', clauses: [], chosenClause: 0, type: 'offset-heading', features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, notes: [] };
+const base: Interpretation = { verbatim: '10 km NE of Puerto Lindo', clauses: [], chosenClause: 0, type: 'offset-heading', features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, otherClauses: [], notes: [] };
 const offsetHeading: Interpretation = {
   ...base,
   offsets: [{ distance: { written: '10 km', value: 10, unit: 'km', precision: 1, uncertainty: 0.5, meters: 10000, uncertaintyMeters: 500 }, heading: { written: 'NE', azimuth: 45, halfWidth: 22.5, kind: 'rose8' } }],

@@ -39,7 +39,7 @@ export function georeferenceGroup(finder: CandidateFinder, request: LocateReques
 export function unreadableResult(verbatim: string, reason: string): LocateResult {
   return {
     status: 'unparseable',
-    interpretation: { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, reason, notes: [] },
+    interpretation: { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, otherClauses: [], reason, notes: [] },
     candidates: [],
     reason,
   };

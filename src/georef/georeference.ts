@@ -4,7 +4,8 @@
  */
 import type { Feature } from '../match/types.ts';
 import { describeAlsoIn } from '../match/same-place.ts';
-import type { Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
+import type { DistanceUnit, Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
+import { METERS_PER_UNIT } from '../parse/units.ts';
 import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
 import { datumDefinition, datumFromName, toWgs84 } from '../geodesy/datums.ts';
 import { utmToGeographic } from '../geodesy/utm.ts';
@@ -34,7 +35,7 @@ export interface GeoreferenceInput {
 
 export type GeoreferenceOutcome = { ok: true; georeference: Georeference } | { ok: false; reason: string };
 
-type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard'>> &
+type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard' | 'unitlessDistanceUnits'>> &
   MethodOptions;
 
 /** What a type's rule yields before the shared terms, footprint and remarks are added. */
@@ -68,12 +69,35 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
   const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
   try {
     checkSettings(settings);
-    const placement = place(input, settings);
-    return { ok: true, georeference: finish(input, placement, settings) };
+    const read = withUnitlessDistances(input, settings.unitlessDistanceUnits);
+    const placement = place(read, settings);
+    return { ok: true, georeference: finish(read, placement, settings) };
   } catch (error) {
     if (error instanceof Refusal) return { ok: false, reason: error.message };
     throw error;
   }
+}
+
+/**
+ * Distances written with no unit, read as the range between their kilometre and mile readings
+ * (METHOD_DEFAULTS.unitlessDistanceUnits [CHOICE]; range rule of docs/method.md §5.1), with a remark.
+ * @example "0.5 NW of X" → d = 0.5 × (1000 + 1609.344)/2 m, δ = 0.5 × (1609.344 − 1000)/2 m + the written δ in miles
+ */
+function withUnitlessDistances(input: GeoreferenceInput, units: Settings['unitlessDistanceUnits']): GeoreferenceInput {
+  const { interpretation } = input;
+  if (!interpretation.offsets.some((o) => o.distance?.unitAssumed)) return input;
+  const [low, high] = units.split(' ').map((unit) => METERS_PER_UNIT[unit as DistanceUnit]) as [number, number];
+  const remarks: string[] = [];
+  const offsets = interpretation.offsets.map((offset): Offset => {
+    const d = offset.distance;
+    if (!d?.unitAssumed) return offset;
+    const meters = (d.value * (low + high)) / 2;
+    // The written δ (from the number's precision) is taken in the larger unit, so it is never understated.
+    const uncertaintyMeters = (d.value * (high - low)) / 2 + d.uncertainty * high;
+    remarks.push(`"${d.written}" has no unit: read between ${d.value} ${units.replace(' ', ` and ${d.value} `)}, ${meters.toFixed(0)} m ± ${uncertaintyMeters.toFixed(0)} m [CHOICE unitlessDistanceUnits] (docs/method.md §5.1 range rule)`);
+    return { ...offset, distance: { ...d, meters, uncertaintyMeters } };
+  });
+  return { ...input, interpretation: { ...interpretation, offsets, notes: [...interpretation.notes, ...remarks] } };
 }
 
 function definedOptions(options: MethodOptions | undefined): MethodOptions {
@@ -93,6 +117,10 @@ function checkSettings(settings: Settings): void {
   if (!['us-nmas', 'australian', 'unknown'].includes(settings.mapStandard)) {
     refuse(`option mapStandard must be us-nmas, australian or unknown, got ${JSON.stringify(settings.mapStandard)}`);
   }
+  const [low, high] = settings.unitlessDistanceUnits.split(' ').map((unit) => METERS_PER_UNIT[unit as DistanceUnit]);
+  if (!(low !== undefined && high !== undefined && low < high)) {
+    refuse(`option unitlessDistanceUnits must be two distance units, smaller first (e.g. "km mi"), got ${JSON.stringify(settings.unitlessDistanceUnits)}`);
+  }
   if (!(Number.isInteger(settings.footprintSegments) && settings.footprintSegments >= 8 && settings.footprintSegments <= 4096)) {
     refuse(`option footprintSegments must be a whole number from 8 to 4096, got ${JSON.stringify(settings.footprintSegments)}`);
   }
@@ -107,6 +135,8 @@ function place(input: GeoreferenceInput, settings: Settings): Placement {
     case 'coordinates':
       return placeCoordinates(interpretation.coordinates, settings);
     case 'named-place':
+    // The feature given is the unit itself: its polygon or stated extent is the radius, never a town's.
+    case 'administrative-unit':
       return placeNamedPlace(input);
     case 'offset-heading':
       return placeOffsetHeading(input);

@@ -11,6 +11,16 @@ export const METHOD_DEFAULTS = {
   junctionExtentMeters: 100,
   /** Segments of a footprint circle (WKT polygon vertices, docs/method.md §6 [CHOICE]). */
   footprintSegments: 64,
+  /**
+   * A distance written with no unit ("0.5 NW of X") [CHOICE]: our choice, no source — neither WGH2004 nor
+   * BP2020 (§Uncertainty Related to Offset Precision) has a rule for a missing unit. Labels from the countries we
+   * read use kilometres or miles, so the number is read in both and treated like a written range between the two
+   * readings (the range rule of docs/method.md §5.1, itself a [CHOICE]): the midpoint, with δ = half the
+   * spread + the written precision term (BP2020 δ = precision/2) taken in the larger unit. The circle then covers
+   * the specimen whichever unit the collector meant (the two units, smaller first); a single guessed unit
+   * would put it 38% too near or 61% too far.
+   */
+  unitlessDistanceUnits: 'km mi',
   /** Map accuracy standard when a map scale is given but no standard (docs/method.md §5.5: 1 mm only). */
   mapStandard: 'unknown',
 } as const satisfies Record<string, number | string>;

@@ -1,4 +1,5 @@
 /** The computed georeference: the contract between `src/georef` and `src/record`. */
+import type { DistanceUnit } from '../parse/types.ts';
 
 /** The uncertainty budget in meters, one entry per source of the point-radius method (docs/method.md §5). */
 export interface UncertaintyComponents {
@@ -34,6 +35,8 @@ export interface MethodOptions {
   mapStandard?: 'us-nmas' | 'australian' | 'unknown';
   /** Vertices of the footprint circle; default 64. */
   footprintSegments?: number;
+  /** The two units a distance written with no unit is read between, smaller first; default 'km mi' ([CHOICE], docs/method.md §5.1). */
+  unitlessDistanceUnits?: `${DistanceUnit} ${DistanceUnit}`;
 }
 
 /** A point, its datum and its radius, with how each part was obtained. */

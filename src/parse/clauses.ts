@@ -1,4 +1,4 @@
-import type { AdministrativeContext, Language } from './types.ts';
+import type { AdministrativeContext, AdministrativeLevel, Language, NamedUnit } from './types.ts';
 import type { Token } from './tokens.ts';
 import * as L from './lexicon.ts';
 
@@ -6,22 +6,35 @@ import * as L from './lexicon.ts';
 export interface Segment {
   from: number;
   to: number;
-  /** The separator after the segment (":" marks an administrative chain), or "" at the end. */
+  /** The separator after the segment (":", "|" and a spaced dash mark an administrative chain), or "" at the end. */
   separator: string;
 }
 
 const SEPARATORS = new Set([',', ';', '.', ':', '(', ')', '[', ']', '|']);
+const DASHES = new Set(['-', '–', '—']);
 
-/** Splits tokens [from, to) at clause separators (, ; . : brackets). Empty segments are dropped. */
+/** A dash with spaces on both sides between two words: "Brasil - Minas Gerais - Alisos" (not "5 - 8 km"). */
+const isSpacedDash = (tokens: Token[], k: number): boolean =>
+  DASHES.has(tokens[k]!.norm) && tokens[k]!.kind === 'symbol' && tokens[k]!.spaceBefore && tokens[k + 1]?.spaceBefore === true &&
+  tokens[k - 1]?.kind === 'word' && tokens[k + 1]?.kind === 'word';
+
+/**
+ * Splits tokens [from, to) at clause separators (, ; . : | brackets). Spaced dashes separate too when there are
+ * two or more of them ("Country - State - place"); one alone may join two names. Empty segments are dropped.
+ */
 export function splitSegments(tokens: Token[], from: number, to: number): Segment[] {
+  let dashes = 0;
+  for (let k = from; k < to && dashes < 2; k++) if (isSpacedDash(tokens, k)) dashes++;
   const segments: Segment[] = [];
   let start = from;
   for (let k = from; k <= to; k++) {
     const t = tokens[k];
     const atEnd = k === to;
-    if (atEnd || (t!.kind === 'symbol' && SEPARATORS.has(t!.norm))) {
-      if (k > start) segments.push({ from: start, to: k, separator: atEnd ? '' : t!.norm });
-      else if (!atEnd && t!.norm === ':' && segments.length > 0) segments[segments.length - 1]!.separator = ':';
+    const dash = !atEnd && dashes >= 2 && isSpacedDash(tokens, k);
+    if (atEnd || dash || (t!.kind === 'symbol' && SEPARATORS.has(t!.norm))) {
+      const separator = atEnd ? '' : dash ? '-' : t!.norm;
+      if (k > start) segments.push({ from: start, to: k, separator });
+      else if (!atEnd && separator === ':' && segments.length > 0) segments[segments.length - 1]!.separator = ':';
       start = k + 1;
     }
   }
@@ -95,17 +108,29 @@ export function readElevation(
   return { elevation: { minimumMeters: Math.min(a, b), maximumMeters: Math.max(a, b), written }, notes };
 }
 
-/** An administrative clause by keyword: "Prov. Alta", "Depto. Norte", "Millbrook County", "Municipio de Vila Serena". */
-export function readAdministrative(text: string, tokens: Token[], from: number, to: number): { field: keyof AdministrativeContext; name: string } | null {
+/** The level a unit word at token t names, or undefined ("Par." and "Est." only dotted and capitalised). */
+export function unitWordLevel(t: Token | undefined): AdministrativeLevel | undefined {
+  if (t?.kind !== 'word') return undefined;
+  if (L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm) && !(t.dotted && t.text[0] !== t.norm[0])) return undefined;
+  return L.ADMINISTRATIVE_WORDS.get(t.norm);
+}
+
+/**
+ * A clause that names an administrative unit by a unit word before or after the name, in four languages:
+ * "Prov. Alta", "Depto. Norte", "Alisos County", "Municipio de Vila Serena", "State of Redmere", "Poniente Province".
+ * @example readAdministrative(text, tokenize("Municipio de Alisos"), 0, 3) // { name: 'Alisos', level: 'municipality', written: 'Municipio de Alisos' }
+ */
+export function readAdministrative(text: string, tokens: Token[], from: number, to: number): NamedUnit | null {
   if (to - from < 2 || tokens.slice(from, to).some((t) => t.kind === 'number')) return null;
   const slice = (a: number, b: number): string => text.slice(tokens[a]!.start, tokens[b - 1]!.end);
-  const head = L.ADMINISTRATIVE_WORDS.get(tokens[from]!.norm);
+  const written = slice(from, to);
+  const head = unitWordLevel(tokens[from]);
   if (head && tokens[from + 1]!.kind === 'word') {
     const nameFrom = L.FROM_WORDS.has(tokens[from + 1]!.norm) && to - from > 2 ? from + 2 : from + 1;
-    return { field: head, name: slice(nameFrom, to) };
+    return { name: slice(nameFrom, to), level: head, written };
   }
-  const tail = L.ADMINISTRATIVE_WORDS.get(tokens[to - 1]!.norm);
-  if (tail && tokens[to - 2]!.kind === 'word') return { field: tail, name: slice(from, to - 1) };
+  const tail = unitWordLevel(tokens[to - 1]);
+  if (tail && tokens[to - 2]!.kind === 'word') return { name: slice(from, to - 1), level: tail, written };
   return null;
 }
 

@@ -137,24 +137,35 @@ export function readHeadingAt(text: string, tokens: Token[], i: number): { headi
       return { heading: { written: written(i, degrees.next + 1), azimuth, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next + 1 };
     }
   }
+  // "NbE", "NEbN": a 32-point written as one word.
+  const joined = first.norm.length <= 4 && first.norm.charAt(first.norm.length - 2) === 'b' ? /^([nsew]{1,2})b([nsew])$/.exec(first.norm) : null;
+  if (joined && first.text.toLowerCase() !== first.text) {
+    const compass = compassPoint(joined[1]!);
+    const azimuth = compass ? byPoint(compass, joined[2]!) : null;
+    if (azimuth !== null) return { heading: { written: written(i, i + 1), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: i + 1 };
+  }
   const point = readCompassWords(tokens, i);
   if (!point) return null;
   const compass = compassPoint(point.letters);
   if (!compass) return null;
-  // 32-point: "N by E", "NE by N" — a quarter of a 16-point step toward the named cardinal.
   const by = tokens[point.next];
-  if (compass.kind !== 'rose16' && (isWord(by, 'by') || isWord(by, 'b'))) {
+  if (isWord(by, 'by') || isWord(by, 'b')) {
     const toward = readCompassWords(tokens, point.next + 1);
-    if (toward && toward.letters.length === 1) {
-      const target = CARDINAL_AZIMUTH[toward.letters]!;
-      const diff = ((target - compass.azimuth + 540) % 360) - 180;
-      if (Math.abs(diff) === 45 || Math.abs(diff) === 90) {
-        const azimuth = (compass.azimuth + Math.sign(diff) * 11.25 + 360) % 360;
-        return { heading: { written: written(i, toward.next), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: toward.next };
-      }
-    }
+    const azimuth = toward && toward.letters.length === 1 ? byPoint(compass, toward.letters) : null;
+    if (azimuth !== null) return { heading: { written: written(i, toward!.next), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: toward!.next };
   }
   return { heading: { written: written(i, point.next), azimuth: compass.azimuth, halfWidth: ROSE_HALF_WIDTH[compass.kind], kind: compass.kind }, next: point.next };
+}
+
+/**
+ * Azimuth of a 32-point "X by C" ("N by E", "NbE", "NE by N"): 11.25° from X toward cardinal C, Δ = 5.625°
+ * [DERIVED, docs/method.md §5.2 from BP2020 §Uncertainty Related to Heading];
+ * null when X is a 16-point or C is not beside it.
+ */
+function byPoint(compass: { azimuth: number; kind: string }, cardinal: string): number | null {
+  if (compass.kind === 'rose16') return null;
+  const diff = ((CARDINAL_AZIMUTH[cardinal]! - compass.azimuth + 540) % 360) - 180;
+  return Math.abs(diff) === 45 || Math.abs(diff) === 90 ? (compass.azimuth + Math.sign(diff) * 11.25 + 360) % 360 : null;
 }
 
 /**

@@ -1,8 +1,8 @@
-import type { Clause, Interpretation, LocalityType, Offset } from './types.ts';
+import type { AdministrativeLevel, Clause, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
 import { findCoordinates } from './coordinates.ts';
-import { readLocalityClause, type ClauseReading } from './locality.ts';
-import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, type Segment } from './clauses.ts';
+import { readLocalityClause, type LocalityRead } from './locality.ts';
+import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 
 export { parseCoordinates } from './coordinates.ts';
 export { readDistanceNumber, type WrittenNumber } from './numbers.ts';
@@ -24,14 +24,19 @@ const SPECIFICITY: Readonly<Record<LocalityType, number>> = {
   near: 5,
   'heading-only': 6,
   'named-place': 7,
+  'administrative-unit': 8,
   'no-locality': 9,
   unparseable: 9,
 };
 
 interface Piece {
   clause: Clause;
-  reading?: ClauseReading;
+  reading?: LocalityRead;
   refusal?: boolean;
+  /** A clause that names a unit by a unit word ("Alisos County"). */
+  unit?: NamedUnit;
+  /** A link of a hierarchy written into the text ("Brasil:" in "Brasil: Minas Gerais: Alisos"). */
+  link?: boolean;
 }
 
 /**
@@ -54,7 +59,7 @@ export function parseLocality(text: string): Interpretation {
 }
 
 function empty(verbatim: string): Interpretation {
-  return { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, notes: [] };
+  return { verbatim, clauses: [], chosenClause: null, type: 'unparseable', features: [], offsets: [], approximate: false, administrative: {}, otherClauses: [], notes: [] };
 }
 
 function clauseOf(text: string, tokens: Token[], from: number, to: number, kind: Clause['kind']): Clause {
@@ -81,9 +86,17 @@ function interpret(text: string): Interpretation {
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
-  // Segments followed by ":" form the administrative chain "Country: State: County".
+  // Segments followed by ":" (or "|", spaced dashes, leading periods) form the chain "Country: State: County".
   let chainLevel = 0;
-  for (const segment of segments) {
+  // Each segment is read at most once, whether the chain rule or the loop below asks first.
+  const readings: Array<LocalityRead | undefined> = [];
+  const readSegment = (k: number): LocalityRead | undefined => {
+    const segment = segments[k];
+    if (segment && !readings[k]) readings[k] = readLocalityClause(text, tokens.slice(segment.from, segment.to));
+    return readings[k];
+  };
+  const links = hierarchyLinks(text, tokens, segments, readSegment);
+  for (const [index, segment] of segments.entries()) {
     if (coordinatesPiece && segment.from >= found!.endToken && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
     const { from, to } = segment;
     const clauseText = text.slice(tokens[from]!.start, tokens[to - 1]!.end);
@@ -102,15 +115,34 @@ function interpret(text: string): Interpretation {
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'elevation') });
       continue;
     }
-    const administrative = readAdministrative(text, tokens, from, to);
-    if (administrative || segment.separator === ':') {
-      const field = administrative?.field ?? ADMINISTRATIVE_ORDER[Math.min(chainLevel, ADMINISTRATIVE_ORDER.length - 1)]!;
-      result.administrative[field] ??= administrative?.name ?? clauseText;
-      if (segment.separator === ':') chainLevel = ADMINISTRATIVE_ORDER.indexOf(field) + 1;
-      pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative') });
+    const unit = readAdministrative(text, tokens, from, to) ?? undefined;
+    if (links[index]) {
+      // A link's level is its unit word's when that is not above the levels already written ("Isla Verdemar |
+      // Poniente | Depto. Alisos": a department after a state is the next level), else its place in the chain.
+      const positional = ADMINISTRATIVE_ORDER[Math.min(chainLevel, ADMINISTRATIVE_ORDER.length - 1)]!;
+      const field = unit && unit.level !== 'unit' && ADMINISTRATIVE_ORDER.indexOf(unit.level) >= chainLevel ? unit.level : positional;
+      result.administrative[field] ??= unit?.name ?? clauseText;
+      chainLevel = ADMINISTRATIVE_ORDER.indexOf(field) + 1;
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), link: true, ...(unit ? { unit } : {}) });
       continue;
     }
-    const reading = readLocalityClause(text, tokens.slice(from, to));
+    if (unit) {
+      // Two units of one level ("Pcia. de Poniente, Dpto. Alisos": a department inside a province): the level of
+      // the second is not what its word says in every country, so it names a bare unit.
+      const sameLevel = unit.level !== 'unit' && pieces.some((p) => p.unit?.level === unit.level && !p.link);
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit: sameLevel ? { ...unit, level: 'unit' } : unit });
+      continue;
+    }
+    // "Alisos (county)", "Poniente (Prov.)": a unit word alone in brackets says what the name before it is.
+    const previous = pieces[pieces.length - 1];
+    const level = to - from === 1 && segments[index - 1]?.separator === '(' ? unitWordLevel(tokens[from]) : undefined;
+    if (level && previous?.reading?.type === 'named-place' && previous.reading.features.length === 1) {
+      const end = tokens[to]?.text === ')' ? tokens[to]!.end : tokens[to - 1]!.end;
+      const clause: Clause = { text: text.slice(previous.clause.start, end), start: previous.clause.start, end, kind: 'administrative' };
+      pieces[pieces.length - 1] = { clause, unit: { name: previous.reading.features[0]!, level, written: clause.text } };
+      continue;
+    }
+    const reading = readSegment(index)!;
     pieces.push({ clause: clauseOf(text, tokens, from, to, reading.type === 'habitat' ? 'habitat' : 'locality'), reading });
   }
   if (coordinatesPiece && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
@@ -120,12 +152,52 @@ function interpret(text: string): Interpretation {
   return choose(pieces, result, chainLevel);
 }
 
-const isOffsetType = (type: ClauseReading['type']): boolean => SPECIFICITY[type as LocalityType] === 1 || type === 'distance-only';
+/**
+ * Which segments are links of an administrative hierarchy written into the text [our rule, no source]: those
+ * followed by ":", "|" or a spaced dash ("Country: State: place", "Country | State | County", "Country - State -
+ * place"); the last segment of a "|" export when it reads as a bare name; two or more leading segments ended
+ * by a period that read as bare names ("Country. State. place"). "Place: 10 km NE" is no chain: the colon
+ * introduces the offset.
+ */
+function hierarchyLinks(text: string, tokens: Token[], segments: Segment[], read: (k: number) => LocalityRead | undefined): boolean[] {
+  const last = segments.length - 1;
+  const links: boolean[] = [];
+  for (let k = 0; k <= last; k++) {
+    const separator = segments[k]!.separator;
+    links.push(separator === '|' || separator === '-' || (separator === ':' && !(k + 1 === last && read(k + 1)?.bare === 'offset')));
+  }
+  if (last > 0 && segments[last - 1]!.separator === '|' && isBareName(text, tokens, segments[last]!, read(last))) links[last] = true;
+  let periods = 0;
+  while (periods < last && segments[periods]!.separator === '.' && isBareName(text, tokens, segments[periods]!, read(periods))) periods++;
+  if (periods >= 2) for (let k = 0; k < periods; k++) links[k] = true;
+  return links;
+}
+
+/** A segment that is only a name: a unit by its unit word, or a named place with nothing else. */
+function isBareName(text: string, tokens: Token[], segment: Segment, reading: LocalityRead | undefined): boolean {
+  return readAdministrative(text, tokens, segment.from, segment.to) !== null || (reading?.type === 'named-place' && !reading.bare);
+}
+
+const isOffsetType = (type: LocalityRead['type']): boolean => SPECIFICITY[type as LocalityType] === 1 || type === 'distance-only';
 
 /** The reading without its `bare` mark, once it has been joined or judged on its own. */
-function standing(reading: ClauseReading): ClauseReading {
+function standing(reading: LocalityRead): LocalityRead {
   const { bare: _bare, ...rest } = reading;
   return rest;
+}
+
+/** Two single offsets on perpendicular cardinal headings (4-point rose), each with a distance: one orthogonal pair. */
+function orthogonalPair(a: Offset, b: Offset): boolean {
+  return (
+    a.distance !== undefined && b.distance !== undefined && a.heading?.kind === 'rose4' && b.heading?.kind === 'rose4' &&
+    Math.abs(a.heading.azimuth - b.heading.azimuth) % 180 === 90
+  );
+}
+
+/** A heading-only and a distance-only reading, in either order, that together make one offset at a heading. */
+function halves(a: LocalityRead, b: LocalityRead): boolean {
+  const kinds = new Set([a.type, b.type]);
+  return kinds.has('heading-only') && kinds.has('distance-only') && !a.offsets[0]?.toward && !b.offsets[0]?.toward && a.offsets.length === 1 && b.offsets.length === 1;
 }
 
 function spanning(text: string, a: Clause, b: Clause): Clause {
@@ -143,14 +215,37 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
     if (!reading?.bare) continue;
     const previous = pieces[k - 1];
     const next = pieces[k + 1];
-    if (reading.bare === 'offset' && previous?.reading?.type === 'named-place' && !previous.reading.bare) {
-      previous.reading = { ...standing(reading), features: previous.reading.features, approximate: reading.approximate || previous.reading.approximate };
+    const joinable = previous?.reading && !previous.reading.bare ? previous.reading : undefined;
+    if (reading.bare === 'air' && joinable && isOffsetType(joinable.type)) {
+      // "10 km N of X (by air)", "12 km NE de Alisos, en línea recta"
+      joinable.offsets = [{ ...joinable.offsets[0]!, byAir: true }, ...joinable.offsets.slice(1)];
+      previous!.clause = spanning(text, previous!.clause, piece.clause);
+      pieces.splice(k--, 1);
+    } else if ((reading.bare === 'near' && joinable?.type === 'named-place') || (reading.bare === 'kind' && joinable?.features.length === 1)) {
+      // "Vila Serena, arredores" is near it; "Alisos (town)", "near Alisos (town)" say what Alisos is.
+      previous!.reading = reading.bare === 'near' ? { ...joinable!, type: 'near' } : { ...joinable!, featureKind: reading.featureKind! };
+      previous!.clause = spanning(text, previous!.clause, piece.clause);
+      pieces.splice(k--, 1);
+    } else if (reading.bare === 'offset' && joinable && joinable.features.length > 0 && joinable.offsets.length === 1 && orthogonalPair(joinable.offsets[0]!, reading.offsets[0]!)) {
+      // "Millbrook 3 mi N, 1 mi W": the second offset of an orthogonal pair after the first with its place.
+      previous!.reading = { ...joinable, type: 'offset-orthogonal', offsets: [joinable.offsets[0]!, reading.offsets[0]!], approximate: reading.approximate || joinable.approximate };
+      previous!.clause = spanning(text, previous!.clause, piece.clause);
+      pieces.splice(k--, 1);
+    } else if (reading.bare === 'offset' && joinable && joinable.features.length > 0 && halves(joinable, reading)) {
+      // "NE of Millbrook, 10 km", "5 km de Alisos, rumbo 214°": a heading and a distance written apart.
+      const offset: Offset = { ...joinable.offsets[0]!, ...reading.offsets[0]! };
+      previous!.reading = { ...joinable, type: 'offset-heading', offsets: [offset], approximate: reading.approximate || joinable.approximate };
+      previous!.clause = spanning(text, previous!.clause, piece.clause);
+      pieces.splice(k--, 1);
+    } else if (reading.bare === 'offset' && previous?.reading?.type === 'named-place' && !previous.reading.bare) {
+      const { featureKind } = previous.reading;
+      previous.reading = { ...standing(reading), features: previous.reading.features, approximate: reading.approximate || previous.reading.approximate, ...(featureKind ? { featureKind } : {}) };
       previous.clause = spanning(text, previous.clause, piece.clause);
       pieces.splice(k--, 1);
     } else if (reading.bare === 'offset' && next?.reading && isOffsetType(next.reading.type) && !next.reading.bare && reading.offsets.length === 1 && next.reading.offsets.length === 1) {
       const [a] = reading.offsets;
       const [b] = next.reading.offsets;
-      if (a!.heading && b!.heading && a!.heading.azimuth % 90 === 0 && b!.heading.azimuth % 90 === 0 && Math.abs(a!.heading.azimuth - b!.heading.azimuth) % 180 === 90 && a!.heading.kind === 'rose4' && b!.heading.kind === 'rose4') {
+      if (orthogonalPair(a!, b!)) {
         piece.reading = { ...next.reading, type: 'offset-orthogonal', offsets: [a!, b!], approximate: reading.approximate || next.reading.approximate };
         piece.clause = spanning(text, piece.clause, next.clause);
         pieces.splice(k + 1, 1);
@@ -162,6 +257,12 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
       piece.clause = spanning(text, piece.clause, next.clause);
       notes.push(`"${reading.offsets[0].path.written}" read as the line of the offset`);
       pieces.splice(k + 1, 1);
+    } else if (reading.bare === 'path' && reading.type === 'named-place' && joinable?.offsets[0]?.heading && joinable.offsets[0].distance && joinable.features.length > 0) {
+      // "X, 2 km al S, camino a Y": the road the place lies on, after an offset at a heading. The heading is kept
+      // (an offset at a heading, by air); the road is noted, never turned into the path of the distance.
+      notes.push(`"${piece.clause.text}" read as the road the place lies on; the heading "${joinable.offsets[0].heading.written}" is kept and the distance taken by air`);
+      previous!.clause = spanning(text, previous!.clause, piece.clause);
+      pieces.splice(k--, 1);
     } else if (reading.bare === 'path' && previous?.reading && isOffsetType(previous.reading.type) && !previous.reading.bare && previous.reading.features.length > 0) {
       const offset: Offset = { ...previous.reading.offsets[0]!, path: previous.reading.offsets[0]!.path ?? reading.offsets[0]!.path! };
       previous.reading = { ...previous.reading, type: previous.reading.offsets.length === 2 ? 'offset-orthogonal' : 'offset-path', offsets: [offset, ...previous.reading.offsets.slice(1)] };
@@ -174,11 +275,21 @@ function joinBareClauses(text: string, pieces: Piece[], notes: string[]): void {
     const reading = piece.reading;
     if (!reading?.bare) continue;
     if (reading.bare === 'offset') piece.reading = { ...standing(reading), type: 'unparseable', reason: `offset "${piece.clause.text}" with no place to measure it from` };
+    else if (reading.bare === 'air' || reading.bare === 'near' || reading.bare === 'kind') piece.reading = { ...standing(reading), type: 'unparseable', reason: `"${piece.clause.text}" qualifies no place or offset before it` };
     else if (reading.type === 'offset-path') piece.reading = { ...standing(reading), type: 'unparseable', reason: `path "${piece.clause.text}" with no distance or place` };
     else piece.reading = standing(reading);
   }
 }
 
+/** How specific a unit word's level is: the lowest level named is the unit a text names ("…, Mun. Alisos"). */
+const LEVEL_DEPTH: Readonly<Record<AdministrativeLevel, number>> = { country: 0, stateProvince: 1, unit: 2, county: 2, municipality: 3 };
+
+/**
+ * Chooses the most specific clause (docs/method.md §2 step 2, SPECIFICITY above); ties go to the first clause written, so
+ * "Puerto Lindo, Laguna Negra" uses Puerto Lindo and lists Laguna Negra in `otherClauses` for the locate policy.
+ * With no locality clause, a clause naming a unit by a unit word is the place ('administrative-unit', the lowest
+ * level named); a hierarchy alone ("Isla Verdemar | Poniente | Alisos") names no place within it.
+ */
 function choose(pieces: Piece[], result: Interpretation, chainLevel: number): Interpretation {
   result.clauses = pieces.map((p) => p.clause);
   result.approximate = pieces.some((p) => p.reading?.approximate);
@@ -189,8 +300,6 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   const countyLevel = chainLevel >= 2 && namedPlaces.length >= 2 ? namedPlaces[0] : undefined;
   pieces.forEach((piece, index) => {
     const rank = piece.clause.kind === 'coordinates' ? 0 : piece.reading && piece.reading.type !== 'habitat' && piece !== countyLevel ? SPECIFICITY[piece.reading.type] : 9;
-    // Ties go to the first clause: an offset before a second one, and a place before the larger units
-    // written after it ("Puerto Lindo, Costa Verde"); the others are listed in the notes.
     if (rank < bestRank) {
       best = index;
       bestRank = rank;
@@ -203,16 +312,24 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   if (best < 0) {
     const unreadable = pieces.find((p) => p.reading?.type === 'unparseable');
     if (unreadable) return { ...result, type: 'unparseable', reason: unreadable.reading!.reason ?? 'clause could not be read' };
-    const lowest = [...ADMINISTRATIVE_ORDER].reverse().find((field) => result.administrative[field]);
-    const adminIndex = lowest ? pieces.findIndex((p) => p.clause.kind === 'administrative' && p.clause.text.includes(result.administrative[lowest]!)) : -1;
-    if (lowest && adminIndex >= 0) {
-      result.notes.push(`only administrative units are named: the ${lowest === 'stateProvince' ? 'state or province' : lowest} is the place`);
-      return { ...result, type: 'named-place', chosenClause: adminIndex, features: [result.administrative[lowest]!] };
+    let unitIndex = -1;
+    pieces.forEach((piece, index) => {
+      if (piece.unit && !piece.link && (unitIndex < 0 || LEVEL_DEPTH[piece.unit.level] >= LEVEL_DEPTH[pieces[unitIndex]!.unit!.level])) unitIndex = index;
+    });
+    if (unitIndex >= 0) {
+      const unit = pieces[unitIndex]!.unit!;
+      fillUnits(pieces, result, unitIndex);
+      result.notes.push(`only an administrative unit is named: "${unit.written}" is the place, read as a unit, not a town`);
+      return { ...result, type: 'administrative-unit', chosenClause: unitIndex, features: [unit.name], unit };
     }
+    fillUnits(pieces, result, -1);
+    const written = ADMINISTRATIVE_ORDER.filter((field) => result.administrative[field]).map((field) => `${field} "${result.administrative[field]}"`);
+    if (written.length > 0) return { ...result, type: 'no-locality', reason: `only an administrative hierarchy is written (${written.join(', ')}): it names no place within it` };
     if (pieces.some((p) => p.clause.kind === 'habitat')) return { ...result, type: 'no-locality', reason: 'habitat description only: the text names no place' };
     if (pieces.some((p) => p.clause.kind === 'elevation')) return { ...result, type: 'no-locality', reason: 'only an elevation: the text names no place' };
     return { ...result, type: 'unparseable', reason: 'no clause could be read as a locality' };
   }
+  fillUnits(pieces, result, -1);
   const chosen = pieces[best]!;
   result.chosenClause = best;
   if (chosen.clause.kind === 'coordinates') {
@@ -223,24 +340,45 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.type = reading.type as LocalityType;
     result.features = reading.features;
     result.offsets = reading.offsets;
+    if (reading.featureKind) result.featureKind = reading.featureKind;
     result.notes.push(...reading.notes);
     if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
   }
   // Named places after an administrative chain continue it: "Country: State: County, 12 km S of X".
+  const others: ClauseReading[] = [];
   pieces.forEach((piece, index) => {
     if (index === best || !piece.reading || piece.reading.type === 'habitat' || piece.reading.type === 'unparseable') return;
     if (piece.reading.type !== 'named-place') {
       result.notes.push(`also read: "${piece.clause.text}" as ${piece.reading.type} (not used for the point; check it agrees)`);
+      others.push(clauseReading(piece.reading, index));
       return;
     }
     const field = chainLevel > 0 && index < best ? ADMINISTRATIVE_ORDER[chainLevel] : undefined;
     if (field && !result.administrative[field] && index === pieces.findIndex((p) => p.reading?.type === 'named-place')) {
       result.administrative[field] = piece.reading.features[0]!;
       piece.clause.kind = 'administrative';
-    } else result.notes.push(`also named: "${piece.clause.text}" (not used for the point)`);
+    } else {
+      result.notes.push(`also named: "${piece.clause.text}" (not used for the point)`);
+      others.push(clauseReading(piece.reading, index));
+    }
   });
+  result.otherClauses = others.sort((a, b) => SPECIFICITY[a.type] - SPECIFICITY[b.type] || a.clause - b.clause);
   for (const piece of pieces) {
     if (piece !== chosen && piece.reading?.type === 'unparseable') result.notes.push(`clause "${piece.clause.text}" not read: ${piece.reading.reason}`);
   }
   return result;
+}
+
+/** The public reading of a clause other than the chosen one. */
+function clauseReading(reading: LocalityRead, clause: number): ClauseReading {
+  const { type, features, offsets, featureKind } = reading;
+  return featureKind ? { clause, type: type as LocalityType, features, offsets, featureKind } : { clause, type: type as LocalityType, features, offsets };
+}
+
+/** Unit clauses other than the chosen one fill their level's field, the first written winning; 'unit' fills none. */
+function fillUnits(pieces: Piece[], result: Interpretation, chosen: number): void {
+  for (let index = 0; index < pieces.length; index++) {
+    const unit = pieces[index]!.unit;
+    if (unit && !pieces[index]!.link && index !== chosen && unit.level !== 'unit') result.administrative[unit.level] ??= unit.name;
+  }
 }

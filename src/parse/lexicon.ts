@@ -30,7 +30,9 @@ export const APPROXIMATE_BEFORE_PLACE = set('ca c circa approx approximately apr
 export const LEADING_PREPOSITIONS = set('a at');
 
 /** Words that introduce the feature an offset is measured from ("of", "de", "du", "d'"). */
-export const FROM_WORDS = set("of from off de del desde do da dos das du des d'");
+export const FROM_WORDS = set("of from off de del desde depuis do da dos das du des d'");
+/** FROM_WORDS that never stand inside a name ("from", "desde"), unlike "de", "do", "du". */
+export const STRONG_FROM_WORDS = set('from off desde depuis');
 
 /** Words that introduce the feature a bearing points toward (the heading is reversed, docs/method.md §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
@@ -56,17 +58,18 @@ export const NEAR_PREFIXES = phrases(
   "in the vicinity of | on the outskirts of | vicinity of | outskirts of | environs of | near to | close to | just outside | outside of | near | nr | vic | vicinity | outside | around | " +
     "en los alrededores de | en las afueras de | en las inmediaciones de | alrededores de | inmediaciones de | afueras de | cerca de | cerca del | proximo a | proximo al | junto a | prox a | " +
     "nos arredores de | nas proximidades de | arredores de | proximidades de | perto de | perto da | perto do | proximo de | proximo da | proximo do | periferia de | " +
+    "near of | about | in the area of | en los alrededores | aux abords de | aux abords du | abords de | " +
     "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de",
 );
 /** near / vicinity as suffixes after the feature ("X vicinity", "X y alrededores"). */
-export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs');
+export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | area | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs | alentours | abords');
 
 /** "N side of X", "lado norte de X", "margem sul", "rive nord": a heading-only part of the feature. */
 export const SIDE_WORDS = set('side end part edge slope slopes flank bank shore lado extremo parte ladera flanco margen orilla margem encosta vertente banda cote rive versant flanc bout partie');
 
 /** Roads, trails and rivers, for path offsets ("by road", "por camino", "par la route", "along the river"). */
 /** Nouns of roads: a path offset in mode 'road'. */
-export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ruta estrada rodovia caminho chemin br');
+export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ctra carr ruta estrada estr rod rodovia caminho chemin br');
 /** Nouns of trails and tracks: mode 'trail'. */
 export const TRAIL_NOUNS = set('trail track path sendero vereda trocha picada trilha senda sentier piste');
 /** Nouns of rivers and of travel by water: mode 'river'. */
@@ -74,15 +77,17 @@ export const RIVER_NOUNS = set('river r rio stream creek arroyo quebrada riviere
 
 /** Articles that may stand between a path preposition and its noun ("por el camino", "pela a", "par la route"). */
 export const PATH_ARTICLES = set("the el la los las o a le les l'");
+/** Words that may stand between a path preposition and a trail noun: "by foot trail", "by foot path". */
+export const TRAIL_QUALIFIERS = set('foot mule horse pack');
 /** Prepositions of a path: "by road", "via road", "por camino", "pela estrada", "par la route", "on Rd. 12". */
 export const PATH_PREPOSITIONS = set('by via por pela pelo par on en na no sur');
 /** "along X", "siguiendo X", "le long de X", "ao longo do X", "a lo largo de X". */
-export const ALONG_PHRASES = phrases('along the | along | following | siguiendo | seguindo | a lo largo de | a lo largo del | ao longo de | ao longo do | ao longo da | le long de | le long du');
+export const ALONG_PHRASES = phrases("along the | along | following | siguiendo | seguindo | a lo largo de | a lo largo del | a lo largo de la | ao longo de | ao longo do | ao longo da | le long de | le long du | le long de la | le long de l' | le long des");
 /** Upstream and downstream in four languages: modes 'upstream' and 'downstream'. */
 export const UPSTREAM_PHRASES = phrases('upstream | upriver | up river | up stream | rio arriba | aguas arriba | rio acima | aguas acima | en amont | amont');
 export const DOWNSTREAM_PHRASES = phrases('downstream | downriver | down river | down stream | rio abajo | aguas abajo | rio abaixo | aguas abaixo | en aval | aval');
 /** "by air" and its equivalents. */
-export const BY_AIR_PHRASES = phrases("by air | air | airline | straight line | in a straight line | en linea recta | linea recta | por aire | em linha reta | linha reta | a vol d' oiseau | vol d' oiseau");
+export const BY_AIR_PHRASES = phrases("by air | air | airline | air line | by air line | straight line | in a straight line | in straight line | en linea recta | linea recta | por aire | em linha reta | linha reta | a vol d' oiseau | vol d' oiseau");
 /** Words after a road noun that make a standalone road clause: "camino a Y", "road to Y", "estrada para Y". */
 export const ROAD_TOWARD_WORDS = set('to a al para pour vers hacia rumo de');
 
@@ -96,13 +101,51 @@ export const ELEVATION_UNITS: ReadonlyMap<string, 'm' | 'ft'> = new Map([
 /** Sea-level words that may follow an elevation ("a.s.l.", "s.n.m.", "above sea level", "sobre el nivel del mar"). */
 export const SEA_LEVEL_WORDS = set('a s l n m asl snm above sea level sobre el nivel del mar acima do da au dessus de la mer');
 
-/** Administrative keywords and the field they fill. */
-export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvince' | 'county' | 'municipality'> = new Map([
+/**
+ * Unit words and the administrative level they name (accents removed, trailing period dropped). Levels follow
+ * the usual first/second/third-level use of each word in the four languages' countries; words whose level
+ * differs between countries ("District", "Distrito", "Freguesia") name a bare 'unit' and fill no field.
+ * A township ("Twp.") is a civil division below the county, read as a municipality.
+ * "Par." (parish), "Est." (estado), "Co.", "Mun.", "Dist." only count dotted and capitalised: "par" is French
+ * "by", "est" "east".
+ */
+export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit'> = new Map([
   ...[...set('country pais pays')].map((w) => [w, 'country'] as const),
-  ...[...set('state province prov provincia estado edo dept depto dpto departamento departement region regiao')].map((w) => [w, 'stateProvince'] as const),
-  ...[...set('county co parish partido canton')].map((w) => [w, 'county'] as const),
-  ...[...set('municipality municipio mun mpio munic municipalite commune comuna concelho')].map((w) => [w, 'municipality'] as const),
+  ...[...set('state province prov pcia provincia estado est edo dept depto dpto departamento department departement depart region regiao')].map((w) => [w, 'stateProvince'] as const),
+  ...[...set('county co cty parish par partido canton')].map((w) => [w, 'county'] as const),
+  ...[...set('municipality municipio municipios mun mpio munic municipalite commune comuna concelho township twp')].map((w) => [w, 'municipality'] as const),
+  ...[...set('district dist distrito distr freguesia parroquia')].map((w) => [w, 'unit'] as const),
 ]);
+/** Unit words that count only written with a capital and a period ("Par.", "Est."). */
+export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');
+
+/**
+ * Generic words that say what kind of place a name is, before it ("Laguna Negra", "Fazenda Boa Vista",
+ * "Mount Ash") or after it ("Otter Creek", "Redmere Lake", "Alisos Ranch"). Only a hint for matching.
+ */
+export const FEATURE_KIND_WORDS: ReadonlyMap<string, import('./types.ts').FeatureKind> = new Map([
+  ...[...set('lake lakes pond lagoon reservoir laguna lagunas lago lagos lagoa represa embalse acude lac etang lagune')].map((w) => [w, 'water'] as const),
+  ...[...set('river creek brook stream rio riacho arroyo quebrada igarape corrego ribeirao riviere ruisseau fleuve')].map((w) => [w, 'stream'] as const),
+  ...[...set('mount mountain mountains mt peak hill hills cerro cerros monte montana morro serra sierra pico loma volcan mont montagne colline pic')].map((w) => [w, 'mountain'] as const),
+  ...[...set('ranch farm fazenda hacienda estancia finca sitio chacra granja ferme')].map((w) => [w, 'farm'] as const),
+  ...[...set('road highway hwy camino carretera estrada rodovia chemin')].map((w) => [w, 'road'] as const),
+  ...[...set('park parque parc reserve reserva refugio preserve sanctuary santuario')].map((w) => [w, 'protected-area'] as const),
+  ...[...set('town city village ciudad pueblo villa vila cidade povoado aldea ville')].map((w) => [w, 'populated-place'] as const),
+  ...[...set('paraje localidad lugar localidade lieu-dit')].map((w) => [w, 'locality'] as const),
+]);
+
+/**
+ * Feature-type words before a name, not part of it: "town of X", "ciudad de X", "povoado de X", "ville de X".
+ * The name keeps its own "de" ("Ciudad de X" as a proper name is read as X, noted).
+ */
+export const PLACE_TYPE_PREFIXES = phrases(
+  'town of | city of | village of | ciudad de | ciudad del | pueblo de | pueblo del | localidad de | paraje de | ' +
+    "cidade de | cidade do | cidade da | povoado de | povoado do | povoado da | localidade de | ville de | ville d' | village de | village du",
+);
+/** Feature-type words after a name or alone in brackets: "X (town)", "X city", "X (pueblo)". */
+export const PLACE_TYPE_SUFFIXES = set('town city village pueblo ciudad cidade povoado vila ville village localidad localidade');
+/** Prepositions before a bare place name that are not part of it: "in X", "en X", "em X", "à X". */
+export const PLACE_PREPOSITIONS = set('in en em at');
 
 /**
  * Texts that say no place is known, in four languages (whole clause, folded, punctuation dropped:

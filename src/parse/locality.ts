@@ -1,25 +1,30 @@
-import type { DistanceUnit, LocalityType, Offset, PathQualifier, WrittenDistance, WrittenHeading } from './types.ts';
-import type { Token } from './tokens.ts';
+import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, WrittenDistance, WrittenHeading } from './types.ts';
+import { fold, type Token } from './tokens.ts';
 import { readNumberAt } from './numbers.ts';
 import { directionLetters, readHeadingAt } from './headings.ts';
 import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
 import * as L from './lexicon.ts';
 
-/** How one clause reads on its own. `bare` marks an offset or path with no feature, to be joined to a neighbour. */
-export interface ClauseReading {
+/**
+ * How one clause reads on its own. `bare` marks a clause that qualifies a neighbour and is joined to it: an
+ * offset or path with no feature, "by air", "arredores" (near), "(town)" (what the place before it is).
+ */
+export interface LocalityRead {
   type: LocalityType | 'habitat';
   features: string[];
   offsets: Offset[];
   approximate: boolean;
   reason?: string;
   notes: string[];
-  bare?: 'offset' | 'path';
+  featureKind?: FeatureKind;
+  bare?: 'offset' | 'path' | 'air' | 'near' | 'kind';
 }
 
-/** The verbatim text and the tokens of one clause. */
+/** The verbatim text and the tokens of one clause; `featureKind` is set when a place-type word was taken off a name. */
 interface Source {
   text: string;
   tokens: Token[];
+  featureKind?: FeatureKind;
 }
 
 const norm = (s: Source, i: number): string | undefined => s.tokens[i]?.norm;
@@ -61,13 +66,26 @@ function skipApproximation(s: Source, i: number): { next: number; approximate: b
 
 const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'marinos']);
 
-/** Reads a distance (number or range + unit) at i, with precision from the number as written (docs/method.md §5.1). */
-function readDistanceAt(s: Source, i: number): { distance: WrittenDistance; next: number } | null {
+/**
+ * Reads a distance (number or range + unit) at i, with precision from the number as written (docs/method.md §5.1).
+ * `unitless`: a number followed directly by a heading ("0.5 NW of X") is read with no unit: marked
+ * `unitAssumed`, provisionally in miles, the larger plausible unit (the method widens it, method-defaults.ts).
+ */
+function readDistanceAt(s: Source, i: number, unitless = false): { distance: WrittenDistance; next: number } | null {
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
   const unitToken = s.tokens[number.next];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
   let next = number.next + 1;
+  if (!unit && unitless && readHeading(s, number.next)) {
+    const written = s.text.slice(s.tokens[i]!.start, s.tokens[number.next - 1]!.end);
+    const distance: WrittenDistance = {
+      written, value: number.value, unit: 'mi', precision: number.precision, uncertainty: number.uncertainty,
+      meters: toMeters(number.value, 'mi'), uncertaintyMeters: toMeters(number.uncertainty, 'mi'), unitAssumed: true,
+    };
+    if (number.range) distance.range = number.range;
+    return { distance, next: number.next };
+  }
   // "nautical miles", "millas náuticas", "milhas náuticas", "milles marins"
   if (unitToken?.norm === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
     unit = 'nmi';
@@ -115,10 +133,18 @@ function modeOfNoun(n: string | undefined): PathQualifier['mode'] | undefined {
   return undefined;
 }
 
-/** End of a line name starting at i: the clause end, or (when the place follows) the first "from"/"de" word or heading. */
+/**
+ * End of a line name starting at i: the clause end, or (when the place follows) a heading, "upstream", or the
+ * first "from"/"desde" ("along Rio de Ouro from Vila Serena"), else the first "de" not followed by an article:
+ * "de la" belongs to the name ("10 km along Rio de la Plata de Vila Serena").
+ */
 function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
+  if (!stopAtFrom) return s.tokens.length;
+  let stop = -1;
+  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.STRONG_FROM_WORDS.has(s.tokens[k]!.norm)) stop = k;
+  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '')) stop = k;
   let k = i;
-  while (k < s.tokens.length && !(stopAtFrom && (L.FROM_WORDS.has(s.tokens[k]!.norm) || readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
+  while (k < s.tokens.length && k !== stop && !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES))) k++;
   return k;
 }
 
@@ -148,6 +174,7 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
   if (L.PATH_PREPOSITIONS.has(norm(s, i) ?? '')) {
     let k = i + 1;
     if (L.PATH_ARTICLES.has(norm(s, k) ?? '')) k++;
+    if (L.TRAIL_QUALIFIERS.has(norm(s, k) ?? '') && modeOfNoun(norm(s, k + 1)) === 'trail') k++;
     const mode = modeOfNoun(norm(s, k));
     const preposition = norm(s, i)!;
     // "on", "en", "na", "no", "sur" take only roads and trails ("on Rd. 12"), not rivers ("on river bank").
@@ -168,7 +195,7 @@ function readRoadClause(s: Source, i: number): PathQualifier | null {
   return name ? pathOf(mode, name, name) : null;
 }
 
-const reading = (type: ClauseReading['type'], features: string[], extra: Partial<ClauseReading> = {}): ClauseReading => ({
+const reading = (type: LocalityRead['type'], features: string[], extra: Partial<LocalityRead> = {}): LocalityRead => ({
   type,
   features,
   offsets: [],
@@ -177,7 +204,7 @@ const reading = (type: ClauseReading['type'], features: string[], extra: Partial
   ...extra,
 });
 
-const unparseable = (reason: string, approximate = false): ClauseReading => reading('unparseable', [], { reason, approximate });
+const unparseable = (reason: string, approximate = false): LocalityRead => reading('unparseable', [], { reason, approximate });
 
 /** Splits tokens [from, to) at the first conjunction into two names ("X and Y", "R. A y R. B"). */
 function twoNames(s: Source, from: number, to: number): [string, string] | null {
@@ -213,18 +240,55 @@ function hasNameWord(s: Source, from: number, to: number): boolean {
   return false;
 }
 
-/** Reads a place name at [from, end): null when it is empty, names nothing, or holds a distance (then the clause is not understood). */
+/**
+ * Reads a place name at [from, end): null when it is empty, names nothing, or holds a distance (then the clause
+ * is not understood). A feature-type word before or after the name is not part of it ("town of X", "ciudad de
+ * X", "X town"): it is taken off and kept as the feature's kind.
+ */
 function placeAt(s: Source, from: number, end: number): string | null {
+  const prefix = matchPhrase(s, from, L.PLACE_TYPE_PREFIXES);
+  if (prefix && from + prefix < end) {
+    s.featureKind = 'populated-place';
+    from += prefix;
+  } else if (end - from >= 2 && L.PLACE_TYPE_SUFFIXES.has(norm(s, end - 1)!) && s.tokens[end - 1]!.text === s.tokens[end - 1]!.norm) {
+    // Only a lower-case suffix: "Millbrook town" is the town of Millbrook, "Puerto Ciudad" a name.
+    s.featureKind = 'populated-place';
+    end--;
+  }
   return hasDistance(s, from, end) || !hasNameWord(s, from, end) ? null : nameBetween(s, from, end);
 }
 
+/**
+ * What the generic word of a name says it is: the first word ("Laguna Negra", "Fazenda Boa Vista") or the last
+ * ("Otter Creek", "Alisos Ranch", "Verdemar National Park"). A hint for matching, never a reason to refuse.
+ * @example featureKindOf("Laguna Negra") // 'water'
+ */
+export function featureKindOf(name: string): FeatureKind | undefined {
+  const firstSpace = name.indexOf(' ');
+  if (firstSpace < 0) return undefined;
+  const firstKind = L.FEATURE_KIND_WORDS.get(wordOf(name, 0, firstSpace));
+  if (firstKind) return firstKind;
+  const lastSpace = name.lastIndexOf(' ');
+  // A last word after "de"/"del" is part of a name ("San Aurelio del Monte"), not its generic word.
+  if (L.FROM_WORDS.has(wordOf(name, name.lastIndexOf(' ', lastSpace - 1) + 1, lastSpace))) return undefined;
+  return L.FEATURE_KIND_WORDS.get(wordOf(name, lastSpace + 1, name.length));
+}
+
+/** The word of `name` at [from, to), folded, without a trailing period ("Mt." → "mt"). */
+function wordOf(name: string, from: number, to: number): string {
+  return fold(name.charAt(to - 1) === '.' ? name.slice(from, to - 1) : name.slice(from, to));
+}
+
 /** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
-function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true } {
+function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true; heading?: WrittenHeading } {
   for (let k = from + 1; k < s.tokens.length; k++) {
     const path = readPath(s, k, false);
     if (path && path.next === s.tokens.length && (path.path || path.byAir)) {
       return { end: k, ...(path.path ? { path: path.path } : {}), ...(path.byAir ? { byAir: true as const } : {}) };
     }
+    // "5 km from X on a bearing of 214°": a bearing in degrees after the place.
+    const heading = L.HEADING_PREFIXES.has(s.tokens[k]!.norm) ? readHeading(s, k) : null;
+    if (heading?.next === s.tokens.length && heading.heading.kind === 'degrees') return { end: k, heading: heading.heading };
   }
   return { end: s.tokens.length };
 }
@@ -233,8 +297,8 @@ const perpendicular = (a: WrittenHeading, b: WrittenHeading): boolean =>
   a.kind !== 'degrees' && a.halfWidth !== 22.5 && a.halfWidth !== 11.25 && a.azimuth % 90 === 0 && b.azimuth % 90 === 0 && Math.abs(a.azimuth - b.azimuth) % 180 === 90;
 
 /** Offsets: distance, then optional path / heading / "by air", optional second orthogonal offset, then the feature. */
-function readOffsets(s: Source, i: number, approximate: boolean): ClauseReading | null {
-  const first = readDistanceAt(s, i);
+function readOffsets(s: Source, i: number, approximate: boolean, unitless = false): LocalityRead | null {
+  const first = readDistanceAt(s, i, unitless);
   if (!first) return null;
   const offset: Offset = { distance: first.distance };
   const notes: string[] = [];
@@ -296,9 +360,27 @@ function readOffsets(s: Source, i: number, approximate: boolean): ClauseReading 
     return { ...reading(typeOf(offsets), [], { offsets, approximate, notes }), bare: 'offset' };
   }
   const tail = placeEnd(s, j);
-  const place = placeAt(s, j, tail.end);
+  // "10 km from X toward Y": Y's bearing from X is unknown until both are matched, so the offset stays a
+  // distance from X (a heading is kept if written) and Y is kept as `toward` [our choice].
+  let placeEndAt = tail.end;
+  const kindBefore = s.featureKind;
+  if (!toward) {
+    for (let k = j + 1; k < tail.end - 1; k++) {
+      const length = matchPhrase(s, k, L.TOWARD_PHRASES);
+      const aim = length ? placeAt(s, k + length, tail.end) : null;
+      if (aim) {
+        offset.toward = aim;
+        notes.push(`"${s.text.slice(s.tokens[k]!.start, s.tokens[tail.end - 1]!.end)}" read as the direction of travel: not used for the point until ${aim} is matched`);
+        placeEndAt = k;
+        break;
+      }
+    }
+    s.featureKind = kindBefore;
+  }
+  const place = placeAt(s, j, placeEndAt);
   if (!place) return unparseable(`could not read the place after "${s.text.slice(s.tokens[i]!.start, s.tokens[j - 1]!.end)}"`, approximate);
   if (tail.path && !offset.path) offset.path = tail.path;
+  if (tail.heading && !offset.heading && offsets.length === 1) offset.heading = tail.heading;
   if (tail.byAir) offset.byAir = true;
   if (toward && offset.heading) {
     offset.heading = { ...offset.heading, azimuth: (offset.heading.azimuth + 180) % 360, toward: true };
@@ -333,8 +415,37 @@ function isHabitat(tokens: Token[], from = 0, to = tokens.length): boolean {
  * between, junction, near, offsets (heading, orthogonal, distance only, path), heading only, named place.
  * Never guesses: text that fits no pattern is 'unparseable' with a reason.
  */
-export function readLocalityClause(text: string, tokens: Token[]): ClauseReading {
+export function readLocalityClause(text: string, tokens: Token[]): LocalityRead {
   const s: Source = { text, tokens };
+  const read = readClause(s);
+  const featureKind = s.featureKind ?? (read.features.length === 1 ? featureKindOf(read.features[0]!) : undefined);
+  return featureKind && !read.featureKind ? { ...read, featureKind } : read;
+}
+
+/** A place written before its offset in one clause: "Millbrook 3 mi S", "Vila Serena 5 km al N", "Millbrook on a bearing of 214°". */
+function readPlaceFirst(s: Source, i: number, approximate: boolean): LocalityRead | null {
+  const end = s.tokens.length;
+  for (let k = i + 1; k < end; k++) {
+    const t = s.tokens[k]!;
+    if (t.kind === 'number') {
+      const tail = readDistanceAt(s, k) ? readOffsets(s, k, approximate) : null;
+      // A distance alone after a name ("Ashcombe 5 km") may be anything; a heading makes it an offset.
+      if (tail?.bare !== 'offset' || !tail.offsets[0]!.heading) continue;
+      const place = placeAt(s, i, k);
+      return place ? { ...tail, features: [place], bare: undefined } : null;
+    }
+    const heading = L.HEADING_PREFIXES.has(t.norm) ? readHeading(s, k) : null;
+    if (heading && heading.next === end && heading.heading.kind === 'degrees' && !L.FROM_WORDS.has(norm(s, k - 1) ?? '')) {
+      const place = placeAt(s, i, k);
+      if (place) return reading('heading-only', [place], { offsets: [{ heading: heading.heading }], approximate });
+    }
+  }
+  return null;
+}
+
+/** One clause's reading by the first pattern that fits (see readLocalityClause). */
+function readClause(s: Source): LocalityRead {
+  const { text, tokens } = s;
   let { next: i, approximate } = skipApproximation(s, 0);
   if (L.LEADING_PREPOSITIONS.has(norm(s, i) ?? '') && s.tokens[i + 1]?.kind === 'number') i++;
   const again = skipApproximation(s, i);
@@ -378,7 +489,7 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
     return place ? reading('near', [place], { approximate, notes }) : unparseable('"near" without a place', approximate);
   }
 
-  const offsets = readOffsets(s, i, approximate);
+  const offsets = readOffsets(s, i, approximate, true);
   if (offsets) return offsets;
 
   // "Rio Azul and Rio Claro confluence", "X-Y jct."
@@ -395,6 +506,12 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
     if (k === end) return { ...reading('heading-only', [], { offsets: [{ heading: heading.heading }], approximate }), bare: 'offset' };
     const introduced = L.FROM_WORDS.has(norm(s, k) ?? '');
     if (introduced) k++;
+    // Heading first, distance last: "N.N.E. of Millbrook 10 km", "al N de Alisos 5 km".
+    for (let m = k + 1; introduced && m < end; m++) {
+      const distance = s.tokens[m]!.kind === 'number' ? readDistanceAt(s, m) : null;
+      const place = distance?.next === end ? placeAt(s, k, m) : null;
+      if (place) return reading('offset-heading', [place], { offsets: [{ distance: distance!.distance, heading: heading.heading }], approximate });
+    }
     // Without "of"/"de", only a capital abbreviation of two or three letters is a heading ("NE Vila Serena");
     // "O Cruzeiro", "E Ashcombe" begin with an article or are names.
     const abbreviation = /^[NSEWOL]{2,3}$/.test(heading.heading.written);
@@ -406,6 +523,13 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
 
   const path = readPath(s, i, false);
   if (path?.path && path.next === end) return { ...reading('offset-path', [], { offsets: [{ path: path.path }], approximate }), bare: 'path' };
+  if (path?.byAir && path.next === end) return { ...reading('offset-heading', [], { approximate }), bare: 'air' };
+  // "X, arredores", "X (environs)", "X (town)": a word that qualifies the place before it.
+  const nearWord = matchPhrase(s, i, L.NEAR_SUFFIXES);
+  if (nearWord && i + nearWord === end) return { ...reading('near', [], { approximate }), bare: 'near' };
+  if (i + 1 === end && L.PLACE_TYPE_SUFFIXES.has(norm(s, i)!)) return { ...reading('named-place', [], { approximate, featureKind: 'populated-place' }), bare: 'kind' };
+  const placeFirst = readPlaceFirst(s, i, approximate);
+  if (placeFirst) return placeFirst;
   const road = readRoadClause(s, i);
   if (road) return { ...reading('named-place', [road.lineName!], { approximate }), bare: 'path', offsets: [{ path: road }] };
 
@@ -425,7 +549,13 @@ export function readLocalityClause(text: string, tokens: Token[]): ClauseReading
   let placeStart = i;
   while (placeStart < end - 1 && L.APPROXIMATE_BEFORE_PLACE.has(norm(s, placeStart)!) && (s.tokens[placeStart]!.dotted || s.tokens[placeStart]!.kind === 'symbol' || norm(s, placeStart)!.length > 3)) placeStart++;
   approximate ||= placeStart > i;
-  if (tokens[placeStart]!.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[placeStart]!.text}"`, approximate);
+  // "in Millbrook", "en Alisos", "em Vila Serena", "à Vaubrun": the preposition is not part of the name.
+  const preposition = s.tokens[placeStart]!;
+  const capitalNext = s.tokens[placeStart + 1]?.kind === 'word' && s.tokens[placeStart + 1]!.text[0] !== s.tokens[placeStart + 1]!.text[0]!.toLowerCase();
+  if (placeStart < end - 1 && capitalNext && (L.PLACE_PREPOSITIONS.has(preposition.norm) || preposition.text === 'à')) placeStart++;
+  // An opening quotation mark may stand before the name ('"Millbrook" (town)').
+  const first = '"“«'.includes(tokens[placeStart]!.text) && placeStart < end - 1 ? tokens[placeStart + 1]! : tokens[placeStart]!;
+  if (first.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[placeStart]!.text}"`, approximate);
   const place = placeAt(s, placeStart, end);
   return place ? reading('named-place', [place], { approximate }) : unparseable('no place name could be read', approximate);
 }

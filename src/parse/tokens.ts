@@ -23,7 +23,7 @@ const VULGAR_FRACTIONS: ReadonlyMap<string, [number, number]> = new Map([
 ]);
 
 /** Abbreviations longer than four letters that keep their period as part of the word. */
-const LONG_ABBREVIATIONS = new Set(['approx', 'aprox', 'depto', 'dept', 'mpio', 'munic', 'confl', 'junct', 'prov', 'vicin', 'apprx', 'envir', 'aprx']);
+const LONG_ABBREVIATIONS = new Set(['approx', 'aprox', 'depto', 'dept', 'depart', 'mpio', 'munic', 'confl', 'junct', 'prov', 'vicin', 'apprx', 'envir', 'aprx', 'distr']);
 
 const isDigit = (c: string): boolean => c >= '0' && c <= '9';
 const LETTER = /\p{L}/u;

@@ -18,6 +18,7 @@ export type LocalityType =
   | 'between' // "between X and Y"
   | 'near' // near, vicinity, outskirts
   | 'junction' // junction, confluence or crossing of two named lines
+  | 'administrative-unit' // the clause names only an administrative unit ("Alisos County"): never read as a town
   | 'no-locality' // text that names no place ("locality unknown")
   | 'unparseable';
 
@@ -35,6 +36,12 @@ export interface WrittenDistance {
   range?: { low: number; high: number };
   meters: number;
   uncertaintyMeters: number;
+  /**
+   * True when the text wrote no unit ("0.5 NW of X"). The parser then reads the number in miles, the larger
+   * of the two plausible units, so `meters` reaches far enough; the method widens it to cover kilometres too
+   * (METHOD_DEFAULTS.unitlessDistanceUnits, a [CHOICE] in src/georef/method-defaults.ts).
+   */
+  unitAssumed?: boolean;
 }
 
 /** A heading as written, as a true azimuth with its half-width Δ (docs/method.md §5.2). */
@@ -67,6 +74,11 @@ export interface Offset {
   path?: PathQualifier;
   /** True when the text said "by air" explicitly. */
   byAir?: boolean;
+  /**
+   * "N km from X toward Y": the place the offset heads for. Its heading from X is unknown until both are
+   * matched, so the offset is read as distance-only from X and Y is kept here (not used for the point).
+   */
+  toward?: string;
 }
 
 /** Coordinates written in the text or in verbatim coordinate fields, before any datum shift. */
@@ -111,6 +123,33 @@ export interface AdministrativeContext {
   municipality?: string;
 }
 
+/** Administrative levels a unit word can name. */
+export type AdministrativeLevel = 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit';
+
+/** A clause that names an administrative unit by a unit word ("Alisos County", "Municipio de Alisos"). */
+export interface NamedUnit {
+  /** The unit's name without its unit word ("Alisos"). */
+  name: string;
+  /** The level the unit word names; 'unit' when the word does not say which level ("District", "Distrito"). */
+  level: AdministrativeLevel;
+  /** The clause as written ("Municipio de Alisos"). */
+  written: string;
+}
+
+/** What kind of place a generic word says a name is ("Laguna Negra" → 'water'). */
+export type FeatureKind = 'populated-place' | 'water' | 'stream' | 'mountain' | 'farm' | 'road' | 'protected-area' | 'locality';
+
+/** A locality clause other than the chosen one, read on its own; most specific first. */
+export interface ClauseReading {
+  /** Index into `Interpretation.clauses`. */
+  clause: number;
+  type: LocalityType;
+  features: string[];
+  offsets: Offset[];
+  /** What the generic word of its (first) feature says it is ("Fazenda Boa Vista" → 'farm'). */
+  featureKind?: FeatureKind;
+}
+
 /** The whole reading of one locality text. */
 export interface Interpretation {
   verbatim: string;
@@ -130,6 +169,12 @@ export interface Interpretation {
   coordinates?: WrittenCoordinates;
   /** Administrative units named in the text itself. */
   administrative: AdministrativeContext;
+  /** Type 'administrative-unit' only: the unit the chosen clause names (its name is also `features[0]`). */
+  unit?: NamedUnit;
+  /** What the generic word of the chosen feature says it is ("Laguna Negra" → 'water'); absent when no word says. */
+  featureKind?: FeatureKind;
+  /** The other locality clauses, each read on its own, most specific first; [] when there are none. */
+  otherClauses: ClauseReading[];
   elevation?: { minimumMeters: number; maximumMeters: number; written: string };
   /** Plain-words reason, always present when type is 'unparseable' or 'no-locality'. */
   reason?: string;

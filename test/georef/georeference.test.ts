@@ -37,7 +37,7 @@ function feature(overrides: Partial<Feature> = {}): Feature {
   };
 }
 function interpretation(type: Interpretation['type'], overrides: Partial<Interpretation> = {}): Interpretation {
-  return { verbatim: 'text', clauses: [], chosenClause: 0, type, features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, notes: [], ...overrides };
+  return { verbatim: 'text', clauses: [], chosenClause: 0, type, features: ['Puerto Lindo'], offsets: [], approximate: false, administrative: {}, otherClauses: [], notes: [], ...overrides };
 }
 function km(value: number, uncertainty: number): WrittenDistance {
   return { written: `${value} km`, value, unit: 'km', precision: 2 * uncertainty, uncertainty, meters: value * 1000, uncertaintyMeters: uncertainty * 1000 };
@@ -106,6 +106,32 @@ describe('distance only (docs/method.md §3 [CHOICE])', () => {
     expect([g.latitude, g.longitude]).toEqual([-12.5, -60.25]);
     expect(g.components.offset).toBe(5500);
     expect(g.remarks.join('\n')).toMatch(/\[CHOICE\] \(docs\/method\.md §3\)/);
+  });
+});
+
+describe('a distance written with no unit ([CHOICE] unitlessDistanceUnits, docs/method.md §5.1 range rule)', () => {
+  // "0.5 NW of X": read between 0.5 km and 0.5 mi (international mile 1609.344 m, 1959 agreement).
+  it('takes the midpoint of the km and mi readings, with δ covering both plus the written δ in miles', () => {
+    const written: WrittenDistance = { written: '0.5', value: 0.5, unit: 'mi', precision: 0.5, uncertainty: 0.25, meters: 804.672, uncertaintyMeters: 402.336, unitAssumed: true };
+    const g = ok({ interpretation: interpretation('offset-heading', { offsets: [{ distance: written, heading: heading('NW', 315, 22.5) }] }), features: [feature()] });
+    const d = 0.5 * (1000 + 1609.344) / 2; // 652.336 m
+    const delta = 0.5 * (1609.344 - 1000) / 2 + 0.25 * 1609.344; // 152.336 + 402.336 m
+    const end = directRef(-12.5, -60.25, 315, d);
+    expect(g.latitude).toBeCloseTo(end.latitude, 9);
+    expect(g.longitude).toBeCloseTo(end.longitude, 9);
+    // Offset term of docs/method.md §5.2 with d and δ as above: it reaches both the 0.5 km and the 0.5 mi reading.
+    const far = d + delta;
+    const term = Math.sqrt(far ** 2 + d ** 2 - 2 * d * far * Math.cos((22.5 * Math.PI) / 180));
+    expect(g.components.offset).toBeCloseTo(term, 6);
+    expect(d + delta).toBeGreaterThanOrEqual(804.672);
+    expect(d - delta).toBeLessThanOrEqual(500);
+    expect(g.remarks.join('\n')).toMatch(/no unit.*\[CHOICE unitlessDistanceUnits\]/);
+  });
+
+  it('refuses, by name, units that are not two distance units smaller first', () => {
+    const written: WrittenDistance = { written: '2', value: 2, unit: 'mi', precision: 1, uncertainty: 0.5, meters: 3218.688, uncertaintyMeters: 804.672, unitAssumed: true };
+    const outcome = georeference({ interpretation: interpretation('distance-only', { offsets: [{ distance: written }] }), features: [feature()], options: { unitlessDistanceUnits: 'mi km' } });
+    expect(outcome).toEqual({ ok: false, reason: expect.stringMatching(/unitlessDistanceUnits must be two distance units, smaller first/) });
   });
 });
 

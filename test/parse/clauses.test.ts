@@ -5,7 +5,17 @@ import { parseLocality } from '../../src/parse/index.ts';
 // Clause splitting and the choice of the most specific clause (Chapman & Wieczorek 2020, §Georeferencing
 // Workflow – Localities; method §2). Expected readings side by side in clauses.json.
 const fixture: {
-  cases: Array<{ text: string; clauses: Array<[string, string]>; chosenClause: number | null; type: string; administrative: object; elevation?: object }>;
+  cases: Array<{
+    text: string;
+    clauses: Array<[string, string]>;
+    chosenClause: number | null;
+    type: string;
+    administrative: object;
+    elevation?: object;
+    unit?: object;
+    featureKind?: string;
+    otherClauses?: object[];
+  }>;
 } = JSON.parse(readFileSync(new URL('../fixtures/parse/clauses.json', import.meta.url), 'utf8'));
 
 describe('clauses', () => {
@@ -18,6 +28,9 @@ describe('clauses', () => {
       expect(r.type).toBe(c.type);
       expect(r.administrative).toEqual(c.administrative);
       if (c.elevation) expect(r.elevation).toEqual(c.elevation);
+      expect(r.unit).toEqual(c.unit);
+      if ('featureKind' in c) expect(r.featureKind).toEqual(c.featureKind);
+      expect(r.otherClauses).toEqual(c.otherClauses ?? r.otherClauses);
     });
   }
 });

@@ -1,4 +1,4 @@
-import type { Interpretation } from '../../src/parse/index.ts';
+import type { Interpretation, Offset } from '../../src/parse/index.ts';
 
 /** One corpus entry: the invented text and what a curator reads in it. */
 export interface CorpusEntry {
@@ -9,7 +9,26 @@ export interface CorpusEntry {
 
 const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
 
-/** The part of an interpretation the corpus fixes: type, features, offsets, coordinates, administrative units. */
+/** An offset as the corpus fixes it: the written distance and heading, path, "by air", direction of travel. */
+function summarizeOffset(o: Offset): Record<string, unknown> {
+  return {
+    distance: o.distance && {
+      written: o.distance.written,
+      value: o.distance.value,
+      unit: o.distance.unit,
+      precision: o.distance.precision,
+      uncertainty: round(o.distance.uncertainty, 9),
+      range: o.distance.range,
+      unitAssumed: o.distance.unitAssumed,
+    },
+    heading: o.heading && { written: o.heading.written, azimuth: o.heading.azimuth, halfWidth: o.heading.halfWidth, kind: o.heading.kind, toward: o.heading.toward },
+    path: o.path,
+    byAir: o.byAir,
+    toward: o.toward,
+  };
+}
+
+/** The part of an interpretation the corpus fixes: type, features, offsets, coordinates, administrative units, other clauses. */
 export function summarize(r: Interpretation): Record<string, unknown> {
   return JSON.parse(
     JSON.stringify({
@@ -17,19 +36,10 @@ export function summarize(r: Interpretation): Record<string, unknown> {
       features: r.features,
       language: r.language,
       approximate: r.approximate || undefined,
-      offsets: r.offsets.map((o) => ({
-        distance: o.distance && {
-          written: o.distance.written,
-          value: o.distance.value,
-          unit: o.distance.unit,
-          precision: o.distance.precision,
-          uncertainty: round(o.distance.uncertainty, 9),
-          range: o.distance.range,
-        },
-        heading: o.heading && { written: o.heading.written, azimuth: o.heading.azimuth, halfWidth: o.heading.halfWidth, kind: o.heading.kind, toward: o.heading.toward },
-        path: o.path,
-        byAir: o.byAir,
-      })),
+      offsets: r.offsets.map(summarizeOffset),
+      featureKind: r.featureKind,
+      unit: r.unit,
+      otherClauses: r.otherClauses.length > 0 ? r.otherClauses.map((c) => ({ ...c, offsets: c.offsets.map(summarizeOffset) })) : undefined,
       coordinates: r.coordinates && {
         latitude: round(r.coordinates.latitude),
         longitude: round(r.coordinates.longitude),

@@ -27,6 +27,14 @@ describe('length units against their definitions', () => {
     expect(distance.uncertaintyMeters).toBeCloseTo(0.5 * LEAGUE_METERS + (LEAGUE_RANGE_METERS.high - LEAGUE_RANGE_METERS.low), 6);
   });
 
+  it('a number with no unit is marked unitAssumed and read provisionally in miles, the larger plausible unit', () => {
+    // The method widens it to cover kilometres too (METHOD_DEFAULTS.unitlessDistanceUnits [CHOICE]).
+    const distance = parseLocality('0.5 NW of Millbrook').offsets[0]!.distance!;
+    expect(distance).toMatchObject({ written: '0.5', value: 0.5, unit: 'mi', unitAssumed: true, uncertainty: 0.25 });
+    expect(distance.meters).toBeCloseTo(0.5 * 1609.344, 9);
+    expect(parseLocality('5 km NW of Millbrook').offsets[0]!.distance!.unitAssumed).toBeUndefined();
+  });
+
   it('converts written distances to meters', () => {
     expect(toMeters(10, 'mi')).toBeCloseTo(16093.44, 9);
     expect(parseLocality('3 nautical miles E of Redmere').offsets[0]!.distance!.meters).toBe(5556);
