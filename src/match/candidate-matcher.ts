@@ -101,7 +101,7 @@ export class CandidateMatcher {
       || Object.values(query.context).some((value) => value !== undefined && value !== '');
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
-    const result = mergeSamePlaces(candidates, this.sourceRank()).slice(0, limit).map(withNameKind);
+    const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
   }

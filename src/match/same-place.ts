@@ -53,29 +53,44 @@ export function compatibleTypes(a: string | null, b: string | null): boolean {
  */
 export function samePlaceDistance(a: Feature, b: Feature): number | null {
   if (a.sourceId === b.sourceId || !compatibleTypes(a.featureType, b.featureType)) return null;
+  const limit = Math.max(SAME_PLACE_RULE.minimumMeters, Math.min(a.radiusMeters, b.radiusMeters));
+  // A degree of latitude is at least 110.5 km on WGS84: most places of a common name are told apart here.
+  if (Math.abs(a.latitude - b.latitude) * METERS_PER_DEGREE_LATITUDE_AT_LEAST > limit) return null;
   const meters = inverse(a.latitude, a.longitude, b.latitude, b.longitude).meters;
-  return meters <= Math.max(SAME_PLACE_RULE.minimumMeters, Math.min(a.radiusMeters, b.radiusMeters)) ? meters : null;
+  return meters <= limit ? meters : null;
 }
+
+/** A bound below the length of a degree of latitude on WGS84 (110,574 m at the equator, the shortest). */
+const METERS_PER_DEGREE_LATITUDE_AT_LEAST = 110_000;
 
 /**
  * Candidates with every place held by several sources merged into one (SAME_PLACE_RULE): the feature
  * of the source ranked first by `rankOf` (lower first; ties by score, then the order given) stands
  * for the place, with the best score of the group, the others in `feature.alsoIn` and its `why`
- * naming them. Groups keep the order of their best-placed member.
- * @example mergeSamePlaces([fromB, fromA], (source) => (source === 'a' ? 0 : 1))
+ * naming them. Groups keep the order of their best-placed member; at most `limit` places are kept
+ * (a later candidate still joins one of them), so the cost grows with the candidates times the limit.
+ * @example mergeSamePlaces([fromB, fromA], (source) => (source === 'a' ? 0 : 1), 10)
  * // [fromA with feature.alsoIn = [{ sourceId: 'b', … }]]
  */
-export function mergeSamePlaces(candidates: readonly Candidate[], rankOf: (sourceId: string) => number): Candidate[] {
-  if (new Set(candidates.map((c) => c.feature.sourceId)).size < 2) return [...candidates];
-  const groups: Candidate[][] = [];
+export function mergeSamePlaces(candidates: readonly Candidate[], rankOf: (sourceId: string) => number, limit: number): Candidate[] {
+  if (new Set(candidates.map((c) => c.feature.sourceId)).size < 2) return candidates.slice(0, limit);
+  // A place is the first candidate found of it; another source's feature joins when it is the same
+  // place as that one, each source once.
+  const groups: { first: Feature; keys: string[]; sources: Set<string>; members: Candidate[] }[] = [];
+  const folded = new Map<string, string>();
+  const fold = (name: string): string => folded.get(name) ?? folded.set(name, foldName(name)).get(name)!;
   for (const candidate of candidates) {
-    const names = nameKeys(candidate);
-    const group = groups.find((members) => members.every((member) => member.feature.sourceId !== candidate.feature.sourceId
-      && nameKeys(member).some((key) => names.includes(key)) && samePlaceDistance(member.feature, candidate.feature) !== null));
-    if (group === undefined) groups.push([candidate]);
-    else group.push(candidate);
+    const keys = [fold(candidate.feature.name), fold(candidate.matchedName)];
+    const group = groups.find((place) => !place.sources.has(candidate.feature.sourceId)
+      && place.keys.some((key) => keys.includes(key)) && samePlaceDistance(place.first, candidate.feature) !== null);
+    if (group !== undefined) {
+      group.sources.add(candidate.feature.sourceId);
+      group.members.push(candidate);
+    } else if (groups.length < limit) {
+      groups.push({ first: candidate.feature, keys, sources: new Set([candidate.feature.sourceId]), members: [candidate] });
+    }
   }
-  return groups.map((members) => {
+  return groups.map(({ members }) => {
     if (members.length === 1) return members[0];
     const ordered = members.map((member, order) => ({ member, order }))
       .sort((a, b) => rankOf(a.member.feature.sourceId) - rankOf(b.member.feature.sourceId)
@@ -104,8 +119,4 @@ export function mergeSamePlaces(candidates: readonly Candidate[], rankOf: (sourc
 export function describeAlsoIn(citedFrom: string, alsoIn: readonly SamePlaceElsewhere[]): string {
   const others = alsoIn.map((other) => `source ${other.sourceId} (feature ${other.featureId}, ${Math.round(other.distanceMeters)} m away)`);
   return `the same place in ${others.join(', ')}; cited from ${citedFrom}, the source ranked first (${SAME_PLACE_RULE.description})`;
-}
-
-function nameKeys(candidate: Candidate): string[] {
-  return [foldName(candidate.feature.name), foldName(candidate.matchedName)];
 }
