@@ -463,9 +463,14 @@ class SqliteGazetteer implements GazetteerStore {
  * @example migrate(new Database('old.sqlite'), 'old.sqlite', 1)
  */
 function migrate(db: Database.Database, path: string, version: number): void {
-  const steps = Array.from({ length: SCHEMA_VERSION - version }, (_, i) => MIGRATIONS[version + i]).join('\n');
   try {
-    db.exec(`BEGIN; ${steps} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
+    // Several processes may open an old store at once (batch workers): the first migrates, the others
+    // wait for its write lock and then find the file migrated.
+    db.pragma('busy_timeout = 10000');
+    db.exec('BEGIN IMMEDIATE');
+    const now = db.pragma('user_version', { simple: true }) as number;
+    const steps = Array.from({ length: SCHEMA_VERSION - now }, (_, i) => MIGRATIONS[now + i]).join('\n');
+    db.exec(`${steps} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
   } catch (error) {
     if (db.inTransaction) db.exec('ROLLBACK');
     db.close();
