@@ -94,12 +94,16 @@ function applyEdits(store: ServedGazetteer, located: LocateResult, edits: Lookup
   return { status: 'georeferenced', georeference: outcome.georeference, components: outcome.georeference.components, interpretation, candidates: located.candidates };
 }
 
-/** The chosen candidate, which must be one the matcher offered for a text that names one feature. */
+/**
+ * The chosen candidate, which must be one the matcher offered for a text that names one feature (or
+ * another source's copy of it, listed in its `alsoIn`).
+ */
 function chosenFeature(store: ServedGazetteer, located: LocateResult, key: FeatureKey): Feature {
   if (located.interpretation.features.length !== 1) {
     throw new RequestError(400, `options.candidate applies to a locality that names one feature; this one names ${located.interpretation.features.length}`, 'options.candidate');
   }
-  const offered = located.candidates.some((c) => c.feature.sourceId === key.sourceId && c.feature.featureId === key.featureId);
+  const offered = located.candidates.some((c) => [c.feature, ...(c.feature.alsoIn ?? [])]
+    .some((f) => f.sourceId === key.sourceId && f.featureId === key.featureId));
   const feature = offered ? store.getFeature(key.sourceId, key.featureId, { withGeometry: true }) : undefined;
   if (!feature) throw new RequestError(400, `options.candidate ${key.sourceId}:${key.featureId} is not among the candidates for this locality`, 'options.candidate');
   return feature;
