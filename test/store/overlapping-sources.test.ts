@@ -19,6 +19,7 @@ import { compatibleTypes, SAME_PLACE_RULE } from '../../src/match/same-place.ts'
 import { examineStore } from '../../src/store/doctor.ts';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, SCHEMA_VERSION, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { listen, post } from '../server/helpers.ts';
 
 const root = new URL('../..', import.meta.url).pathname;
 const DEMO = join(root, 'gazetteer/demo-places.csv');
@@ -117,6 +118,26 @@ describe('through the real CLI', () => {
     expect((await whereabouts('gazetteer', 'list')).stdout).toContain('priority: 1');
     await expect(whereabouts('gazetteer', 'priority', 'survey', 'first')).rejects.toThrow(/whole number from 1/);
   }, 60_000);
+});
+
+describe('through the real service on 127.0.0.1', () => {
+  it('lists the other sources in the candidate, and lets the reviewer choose one of them', async () => {
+    const server = await listen({ dbPath, rateLimit: false });
+    try {
+      const url = `${server.url}/api/v1/georeference`;
+      const { status, json } = await post(url, { locality: 'Puerto Lindo', countryCode: 'QV' });
+      expect(status).toBe(200);
+      expect(json.candidates).toHaveLength(1);
+      const cited = json.candidates[0].feature;
+      const other = cited.alsoIn.find((copy: { sourceId: string }) => copy.sourceId === 'moved');
+      expect(other).toMatchObject({ featureId: 'm-qv-0013', name: 'Puerto Lindo' });
+      const chosen = await post(url, { locality: 'Puerto Lindo', countryCode: 'QV', options: { candidate: { sourceId: 'moved', featureId: 'm-qv-0013' } } });
+      expect(chosen.status).toBe(200);
+      expect(chosen.json.georeference.latitude).toBeCloseTo(other.latitude, 6);
+    } finally {
+      await server.close();
+    }
+  });
 });
 
 describe('schema migration', () => {
