@@ -98,9 +98,7 @@ export function mergeSamePlaces(candidates: readonly Candidate[], rankOf: (sourc
       .map(({ member }) => member);
     const [first, ...others] = ordered;
     const alsoIn: SamePlaceElsewhere[] = others.map(({ feature }) => ({
-      sourceId: feature.sourceId, featureId: feature.featureId, name: feature.name, featureType: feature.featureType,
-      latitude: feature.latitude, longitude: feature.longitude,
-      distanceMeters: inverse(first.feature.latitude, first.feature.longitude, feature.latitude, feature.longitude).meters,
+      ...feature, distanceMeters: inverse(first.feature.latitude, first.feature.longitude, feature.latitude, feature.longitude).meters,
     }));
     return {
       ...first,

@@ -52,16 +52,10 @@ export interface AlternateName {
 }
 
 /** Another source's feature found to be the same place as the one cited (src/match/same-place.ts). */
-export interface SamePlaceElsewhere {
-  sourceId: string;
-  featureId: string;
-  name: string;
-  featureType: string | null;
-  latitude: number;
-  longitude: number;
+export type SamePlaceElsewhere = Omit<Feature, 'alsoIn'> & {
   /** Geodesic distance from the cited feature's center, meters. */
   distanceMeters: number;
-}
+};
 
 /** Which feature: its source and its id there (what a choice among candidates names). */
 export interface FeatureKey {
