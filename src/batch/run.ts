@@ -22,7 +22,9 @@ import type { RecordContext } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
 import type { BatchSettings } from './georeference-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
-import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
+import { fileHead, notText } from '../store/file-kind.ts';
+import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
+import { originalLine } from './original-line.ts';
 import {
   claimJob, dropLocalityResults, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
@@ -31,6 +33,14 @@ import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
 import { checkRunTimestamp, partFileStart, partOfKey, partRowFrame, type PartMeta, type PartSpec } from './partition.ts';
+
+/**
+ * The module a worker thread loads. Compiled (dist/), the task module itself; run from the TypeScript
+ * sources, worker.js, which registers tsx first (worker threads do not inherit the main thread's loader).
+ */
+const WORKER_ENTRY = import.meta.url.endsWith('.ts')
+  ? new URL('./worker.js', import.meta.url).href
+  : new URL('./georeference-task.js', import.meta.url).href;
 
 export interface BatchJobOptions {
   /** The gazetteer database (opened read-only). */
@@ -48,6 +58,11 @@ export interface BatchJobOptions {
    * writes the rows meanwhile (on 2 cores, 1 worker keeps both busy within the 500 MB memory target).
    */
   threads?: number;
+  /**
+   * Run even though the gazetteer holds no source (every row then comes back not found). Without it a
+   * batch against an empty store is refused with a message saying how to load one.
+   */
+  allowEmptyGazetteer?: boolean;
   /** Job database; default `jobsDatabasePath(dbPath)`, or `<output>.jobs.sqlite` for a part. */
   jobsDbPath?: string;
   /**
@@ -190,11 +205,17 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
   try {
     if (outputPath === inputPath) throw new Error(`the output ${outputPath} would replace the input`);
     if (!existsSync(inputPath)) throw new Error(`cannot read the input ${inputPath}: no such file`);
+    const kind = notText(fileHead(inputPath));
+    if (kind) throw new Error(`the input ${spooled ? '' : `${inputPath} `}is ${kind.format}, not CSV or tab-separated text: ${kind.advice}`);
+    const sources = gazetteerSources(options.dbPath);
+    if (sources.length === 0 && !options.allowEmptyGazetteer) {
+      throw new Error(`the gazetteer ${resolve(options.dbPath)} holds no source, so no row could be georeferenced: load one first with whereabouts import <file> --source "<citation>" (or run the batch with --allow-empty-gazetteer to have every row come back not found)`);
+    }
     const format = await inspectInput(inputPath);
     const delimiter = await detectDelimiter(inputPath, format);
     await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
     const like = {
-      inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath),
+      inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources,
       partIndex: options.part?.index ?? null, partCount: options.part?.count ?? null,
     };
     const unfinished = findUnfinishedJob(jobs, like, options.runTimestamp);
@@ -322,7 +343,7 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   };
   const threads = Math.max(1, options.threads ?? cpus().length - 1);
   const pool = total - distinctDone > IN_PROCESS_LIMIT
-    ? new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: threads, maxThreads: threads, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } })
+    ? new Tinypool({ filename: WORKER_ENTRY, minThreads: threads, maxThreads: threads, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } })
     : undefined;
   const run = pool ? (task: GeoreferenceTask) => pool.run(task) as Promise<ReturnType<typeof georeferenceChunk>> : async (task: GeoreferenceTask) => georeferenceChunk(task);
   const lane = async () => {
@@ -381,7 +402,8 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
         if (position === 0) {
-          const headerLine = csvLine(outputHeader(record.fields), delimiter) + LINE_END;
+          const appended = csvLine(outputHeader(record.fields).slice(headerLength), delimiter);
+          const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
           writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
@@ -479,7 +501,7 @@ function outputRow(
   tallies: Record<string, number>,
   delimiter: Delimiter,
 ): string {
-  const originals = csvLine(Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? ''), delimiter);
+  const originals = originalLine(record, headerLength, delimiter);
   if (!group) {
     const unreadable = renderGroup({ fields: unreadableRecord(record.problem ?? 'the row could not be read', context), centers: [] }, delimiter);
     count(tallies, 'malformed');
@@ -489,8 +511,9 @@ function outputRow(
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
   const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
-  if (check.flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
-  return `${originals}${delimiter}${appendedLine(group, check.remarks, check.flags, delimiter)}${LINE_END}`;
+  const flags = [...(group.flags ?? []), ...check.flags];
+  if (flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
+  return `${originals}${delimiter}${appendedLine(group, check.remarks, flags, delimiter)}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {

@@ -4,18 +4,18 @@
  * transaction: constant memory for any file size, every refused row returned with its row number and
  * reason, the source recorded with its citation, licence and the file's sha256.
  */
-import { createHash } from 'node:crypto';
-import { accessSync, constants, createReadStream } from 'node:fs';
-import { finished } from 'node:stream/promises';
+import { accessSync, constants } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { createInterface } from 'node:readline';
-import { StringDecoder } from 'node:string_decoder';
 import type { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
+import iconv from 'iconv-lite';
 import type { AlternateName } from '../match/types.ts';
 import { readAdminCodeLine, readAlternateNameLine, readDumpLine } from './dump-layout.ts';
-import { openFileInput } from './file-input.ts';
+import { fileHead, notText } from './file-kind.ts';
+import { isZipFile, openFileInput } from './file-input.ts';
+import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
 import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
@@ -23,7 +23,8 @@ export type ImportFormat = 'csv' | 'geojson' | 'geonames';
 
 export interface ImportOptions {
   format: ImportFormat;
-  citation: string;
+  /** How to cite the source; without one, a stand-in is built from the file (see `standInCitation`). */
+  citation?: string;
   /** Defaults to the file name without its extension, e.g. "demo-towns". */
   sourceId?: string;
   licence?: string;
@@ -44,6 +45,11 @@ export interface ImportOptions {
 
 export interface ImportSummary {
   sourceId: string;
+  /** The citation recorded, and whether it is a stand-in built from the file, to be replaced by a real one. */
+  citation: string;
+  citationIsStandIn: boolean;
+  /** The file's text encoding, found as batch input's is (UTF-8, UTF-16, Windows-1252 or ISO-8859-1). */
+  encoding: InputFormat['encoding'];
   rowsRead: number;
   imported: number;
   /** Row numbers are file line numbers for CSV and the dump layout, feature numbers (from 1) for GeoJSON. */
@@ -71,7 +77,17 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   assertReadable(filePath);
   const adminCodeFiles = options.adminCodesFile === undefined ? [] : typeof options.adminCodesFile === 'string' ? [options.adminCodesFile] : options.adminCodesFile;
   for (const side of [...adminCodeFiles, ...(options.alternateNamesFile === undefined ? [] : [options.alternateNamesFile])]) assertReadable(side);
+  // A zip archive is the dump as distributed: its data member is read (file-input.ts).
+  const zipped = isZipFile(filePath);
+  const kind = zipped ? undefined : notText(fileHead(filePath));
+  if (kind) throw new Error(`${basename(filePath)} is ${kind.format}, not a gazetteer in ${options.format === 'geojson' ? 'GeoJSON' : 'CSV or tab-separated text'}: ${kind.advice}`);
   const sourceId = options.sourceId ?? defaultSourceId(filePath);
+  // The file's encoding and sha256 in one pass, by the module batch input uses; UTF-8 with damaged
+  // bytes is read as UTF-8, and its damaged rows refused (below), rather than all of it as Windows-1252.
+  // A zip archive's sha256 is of the archive as downloaded; its member is read as UTF-8, as published.
+  const inspected = await inspectInput(filePath);
+  const format: InputFormat = inspected.damagedUtf8 || zipped ? { ...inspected, encoding: 'utf-8', bomBytes: zipped ? 0 : inspected.bomBytes } : inspected;
+  const citation = options.citation?.trim() || standInCitation(filePath, format, new Date());
   const session = store.beginImport(sourceId);
   const rejected: { row: number; reason: string }[] = [];
   let alternateNames: ImportSummary['alternateNames'];
@@ -83,13 +99,9 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     const adminNames = await readAdminCodes(session, adminCodeFiles);
     // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
     // young-generation collection cost heap until the next full one.
-    const opened = await openFileInput(filePath, READ_BYTES);
-    input = opened.stream;
-    // The hash is of the file as distributed: a zip archive's own bytes, not its member's. Nothing may
-    // await between attaching a 'data' listener and the reader's first read (the stream then flows).
-    const hash = createHash('sha256');
-    const hashed = opened.entry === null ? null : finished(createReadStream(filePath).on('data', (chunk) => hash.update(chunk)));
-    if (opened.entry === null) input.on('data', (chunk) => hash.update(chunk));
+    input = zipped
+      ? (await openFileInput(filePath, READ_BYTES)).stream.pipe(iconv.decodeStream('utf-8')) as unknown as Readable
+      : decodedText(filePath, format, READ_BYTES);
     const rows = options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames);
     for await (const batch of rows) {
       for (const { row, raw } of batch) {
@@ -102,8 +114,9 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
     }
-    await hashed;
-    session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format, priority: options.priority });
+    // A source with no feature would only look like a success: nothing is registered.
+    if (imported === 0) throw new Error(nothingKept(filePath, rowsRead, rejected));
+    session.commit({ citation, licence: options.licence ?? null, contentHash: format.sha256, format: options.format, priority: options.priority });
   } catch (error) {
     session.rollback();
     input?.destroy();
@@ -111,7 +124,8 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   }
   options.onProgress?.(rowsRead);
   return {
-    sourceId, rowsRead, imported, rejected, ...(alternateNames !== undefined && { alternateNames }),
+    sourceId, citation, citationIsStandIn: !options.citation?.trim(), encoding: format.encoding,
+    rowsRead, imported, rejected, ...(alternateNames !== undefined && { alternateNames }),
     seconds: Number(process.hrtime.bigint() - started) / 1e9,
   };
 }
@@ -165,6 +179,23 @@ async function readAdminCodes(session: ImportSession, filePaths: readonly string
 }
 
 /**
+ * A citation for a file imported without one, from what is known of it: its name (never its folder,
+ * which is the importer's machine), size, the start of its sha256 and the import date. It identifies
+ * the file; it does not say who made the data, so it is to be replaced by a real citation.
+ * @example standInCitation('/home/a/towns.csv', { bytes: 2048, sha256: '9f86d08…' }, new Date('2026-12-02'))
+ *   // 'towns.csv (2,048 bytes, sha256 9f86d081884c, imported 2026-12-02; no citation given)'
+ */
+export function standInCitation(filePath: string, format: Pick<InputFormat, 'bytes' | 'sha256'>, when: Date): string {
+  return `${basename(filePath)} (${format.bytes.toLocaleString('en')} bytes, sha256 ${format.sha256.slice(0, 12)}, imported ${when.toISOString().slice(0, 10)}; no citation given)`;
+}
+
+function nothingKept(filePath: string, rowsRead: number, rejected: { row: number; reason: string }[]): string {
+  if (rowsRead === 0) return `${basename(filePath)} holds no rows to import; nothing was registered`;
+  const first = rejected.slice(0, 3).map(({ row, reason }) => `row ${row}: ${reason}`).join('; ');
+  return `none of the ${rowsRead} rows of ${basename(filePath)} could be imported, so nothing was registered (${first}${rejected.length > 3 ? '; …' : ''})`;
+}
+
+/**
  * The import format a file name suggests, or null.
  * @example formatFromFileName('world.txt') // 'geonames'
  * @example formatFromFileName('QX.zip') // 'geonames' (the dump is distributed zipped)
@@ -184,7 +215,7 @@ function defaultSourceId(filePath: string): string {
 const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
 
 async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
-  const parser = input.pipe(parse({ bom: true, info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
+  const parser = input.pipe(parse({ info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
   let header: string[] | null = null;
   for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
     if (header === null) {
@@ -201,7 +232,7 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
     const fields: Record<string, string> = {};
     header.forEach((column, index) => { fields[column] = record[index]; });
     if (record.some((field) => field.includes('\uFFFD'))) {
-      yield [{ row: info.lines, raw: 'not valid UTF-8' }];
+      yield [{ row: info.lines, raw: 'not valid UTF-8 (damaged bytes in a UTF-8 file)' }];
       continue;
     }
     yield [{
@@ -216,7 +247,6 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
  * than one a line, which matters at millions of rows.
  */
 async function* readDump(input: Readable, adminNames: ReadonlyMap<string, string>): AsyncGenerator<ReadRow[]> {
-  const decoder = new StringDecoder('utf8');
   let row = 0;
   let rest = '';
   const read = (lines: string[]): ReadRow[] => {
@@ -228,12 +258,11 @@ async function* readDump(input: Readable, adminNames: ReadonlyMap<string, string
     }
     return rows;
   };
-  for await (const chunk of input as AsyncIterable<Buffer>) {
-    const lines = (rest + decoder.write(chunk)).split('\n');
+  for await (const chunk of input as AsyncIterable<string>) {
+    const lines = (rest + chunk).split('\n');
     rest = lines.pop() ?? '';
     yield read(lines);
   }
-  rest += decoder.end();
   if (rest !== '') yield read([rest]);
 }
 
@@ -242,8 +271,6 @@ async function* readDump(input: Readable, adminNames: ReadonlyMap<string, string
  * being read, so memory stays constant however large the collection.
  */
 async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
-  // Decoded here rather than with setEncoding, so that the import's hash still sees the file's bytes.
-  const decoder = new StringDecoder('utf8');
   let depth = 0;
   let inString = false;
   let escaped = false;
@@ -252,8 +279,7 @@ async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
   let featuresDepth = -1;
   let buffer = '';
   let count = 0;
-  for await (const bytes of input as AsyncIterable<Buffer>) {
-    const chunk = decoder.write(bytes);
+  for await (const chunk of input as AsyncIterable<string>) {
     let featureStart = buffer === '' ? -1 : 0;
     for (let i = 0; i < chunk.length; i++) {
       const c = chunk[i];

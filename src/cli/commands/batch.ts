@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
-import cliProgress from 'cli-progress';
-import { startBatchJob, type BatchProgressEvent, type BatchSummary } from '../../batch/run.ts';
+import type cliProgress from 'cli-progress';
+import type { BatchProgressEvent, BatchSummary } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
 
 interface BatchCommandOptions {
@@ -10,6 +10,7 @@ interface BatchCommandOptions {
   threads?: number;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  allowEmptyGazetteer?: boolean;
   part?: string;
   runTimestamp?: string;
 }
@@ -35,11 +36,13 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")
+    .option('--allow-empty-gazetteer', 'run even when the gazetteer holds no source (every row then comes back not found)')
     .option('--part <K/N>', 'only part K (from 0) of N, cut by locality, written as a part file for `whereabouts merge` (needs --out and --run-timestamp; its job database is <out>.jobs.sqlite)')
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
-      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
+      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
+      const { startBatchJob } = await import('../../batch/run.ts');
       const { jobId, done } = await startBatchJob({
         dbPath: dbPath(),
         input,
@@ -48,6 +51,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
         administrativeFallback: opts.administrativeFallback,
+        allowEmptyGazetteer: opts.allowEmptyGazetteer,
         part: opts.part === undefined ? undefined : parsePartSpec(opts.part),
         runTimestamp: opts.runTimestamp,
         onProgress: bar?.update,
@@ -71,10 +75,10 @@ function positiveInteger(value: string): number {
 }
 
 /** One bar a phase (georeferencing and writing run side by side), each with its rate and time left. */
-function progressBar() {
-  const bars = new cliProgress.MultiBar(
+function progressBar(progress: typeof cliProgress) {
+  const bars = new progress.MultiBar(
     { format: '{phase} {bar} {value}/{total} | {rate}/s | {eta_formatted} left', stream: process.stderr, hideCursor: true, etaBuffer: 50 },
-    cliProgress.Presets.shades_classic,
+    progress.Presets.shades_classic,
   );
   const started = new Map<BatchProgressEvent['phase'], { bar: cliProgress.SingleBar; at: number; from: number }>();
   return {

@@ -1,5 +1,4 @@
 import type { Command } from 'commander';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
 
 /**
  * `whereabouts gazetteer list`, `remove <source>` and `priority <source> <rank>`: the sources in the
@@ -12,7 +11,8 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .command('list')
     .description('list the gazetteer sources')
     .option('--json', 'print the sources as JSON')
-    .action((opts: { json?: boolean }) => {
+    .action(async (opts: { json?: boolean }) => {
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
         const sources = store.sources();
@@ -36,7 +36,8 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .description('rank a source where several hold the same place: 1 is cited first, the others listed beside it')
     .argument('<source>', 'the source id (see gazetteer list)')
     .argument('<rank>', "a whole number from 1, or 'none' to clear it", parsePriority)
-    .action((source: string, rank: number | null) => {
+    .action(async (source: string, rank: number | null) => {
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath());
       try {
         if (!store.setPriority(source, rank)) throw new Error(`no gazetteer source '${source}' (see \`whereabouts gazetteer list\`)`);
@@ -49,7 +50,8 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .command('remove')
     .description('remove a gazetteer source and all its features')
     .argument('<source>', 'the source id (see gazetteer list)')
-    .action((source: string) => {
+    .action(async (source: string) => {
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath());
       try {
         if (!store.removeSource(source)) throw new Error(`no gazetteer source '${source}' (see \`whereabouts gazetteer list\`)`);

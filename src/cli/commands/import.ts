@@ -1,18 +1,17 @@
 import type { Command } from 'commander';
-import { SingleBar } from 'cli-progress';
-import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../store/import.ts';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
+import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 import { parsePriority } from './gazetteer.ts';
 
 interface ImportCommandOptions {
   format?: string;
   source?: string;
+  citation?: string;
   sourceId?: string;
   licence?: string;
   adminCodes?: string[];
   alternateNames?: string;
-  defaultRadius?: Record<string, number>;
   priority?: number | null;
+  defaultRadius?: Record<string, number>;
 }
 
 const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames'];
@@ -29,30 +28,32 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout, plain or zipped)')
     .argument('<file>', 'the gazetteer file')
     .option('--format <format>', `one of ${FORMATS.join(', ')} (default: from the file extension)`)
-    .option('--source <citation>', 'how to cite this gazetteer (default: the file name)')
+    .option('--source <citation>', 'how to cite this gazetteer, e.g. "Survey of towns, 2024, Land Office" (without it a stand-in is built from the file name, size and sha256, to be replaced)')
+    .option('--citation <citation>', 'the same as --source')
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
     .option('--admin-codes <file>', 'admin1 or admin2 code names for the dump layout ("CC.A1" or "CC.A1.A2", name, asciiname, id); repeatable', collectFile)
     .option('--alternate-names <file>', 'the dump layout\'s alternate-names file (10 columns, plain or zipped): names in other languages, former and colloquial names')
     .option('--priority <rank>', 'where several sources hold the same place, cite this one at this rank (1 first; see gazetteer priority)', parsePriority)
-    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius, {})
+    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
     .action(async (file: string, opts: ImportCommandOptions) => {
+      const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
       if (format === null) throw new Error(`cannot tell the format of ${file} from its extension: give --format ${FORMATS.join('|')}`);
       if (!FORMATS.includes(format)) throw new Error(`--format must be one of ${FORMATS.join(', ')}, not '${format}'`);
-      const bar = process.stderr.isTTY ? new SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
+      const bar = process.stderr.isTTY ? new (await import('cli-progress')).SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
       bar?.start(0, 0);
       const store = openGazetteer(dbPath());
       try {
         const summary = await importGazetteer(store, file, {
           format,
-          citation: opts.source ?? file,
+          citation: opts.source ?? opts.citation,
           sourceId: opts.sourceId,
           licence: opts.licence,
           adminCodesFile: opts.adminCodes,
           alternateNamesFile: opts.alternateNames,
-          radii: opts.defaultRadius,
           priority: opts.priority,
+          radii: opts.defaultRadius,
           onProgress: (rows) => bar?.update(rows),
         });
         bar?.stop();
@@ -73,7 +74,7 @@ function collectFile(value: string, previous: string[] | undefined): string[] {
  * Adds one `--default-radius type=meters` to those already given.
  * @example collectRadius('village=3000', {}) // { village: 3000 }
  */
-export function collectRadius(value: string, previous: Record<string, number>): Record<string, number> {
+export function collectRadius(value: string, previous: Record<string, number> = {}): Record<string, number> {
   const match = /^(.+)=(\d+(?:\.\d+)?)$/.exec(value);
   if (match === null) throw new Error(`--default-radius needs type=meters (e.g. village=3000), not '${value}'`);
   return { ...previous, [match[1].trim()]: Number(match[2]) };
@@ -81,18 +82,22 @@ export function collectRadius(value: string, previous: Record<string, number>): 
 
 /**
  * The summary printed after an import.
- * @example formatSummary({ sourceId: 'x', rowsRead: 2, imported: 1, rejected: [{ row: 3, reason: 'name missing' }], seconds: 0.1 })
+ * @example formatSummary({ sourceId: 'x', citation: 'Towns, 2024', citationIsStandIn: false, encoding: 'utf-8', rowsRead: 2, imported: 1, rejected: [{ row: 3, reason: 'name missing' }], seconds: 0.1 })
  */
 export function formatSummary(summary: ImportSummary): string {
   const lines = [
     `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
+    ...(summary.encoding === 'utf-8' ? [] : [`  read as ${summary.encoding} (the file is not UTF-8)`]),
+    ...(summary.citationIsStandIn
+      ? [`  citation: ${summary.citation}`, `  this stand-in only names the file: replace it with a real citation by importing again with --source "<who, what, year, where from>"`]
+      : []),
     ...summary.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  row ${row}: ${reason}`),
   ];
+  if (summary.rejected.length > LISTED_REJECTIONS) lines.push(`  … and ${summary.rejected.length - LISTED_REJECTIONS} more rejected rows`);
   const names = summary.alternateNames;
   if (names !== undefined) {
     lines.push(`alternate names: ${names.rowsRead} lines read, ${names.kept} names kept, ${names.rejected.length} rejected`,
       ...names.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  line ${row}: ${reason}`));
   }
-  if (summary.rejected.length > LISTED_REJECTIONS) lines.push(`  … and ${summary.rejected.length - LISTED_REJECTIONS} more rejected rows`);
   return `${lines.join('\n')}\n`;
 }
