@@ -77,9 +77,11 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   assertReadable(filePath);
   const adminCodeFiles = options.adminCodesFile === undefined ? [] : typeof options.adminCodesFile === 'string' ? [options.adminCodesFile] : options.adminCodesFile;
   for (const side of [...adminCodeFiles, ...(options.alternateNamesFile === undefined ? [] : [options.alternateNamesFile])]) assertReadable(side);
-  // A zip archive is the dump as distributed: its data member is read (file-input.ts).
-  const zipped = isZipFile(filePath);
-  const kind = zipped ? undefined : notText(fileHead(filePath));
+  // A zip archive (not a workbook) given as the dump layout is the dump as distributed: its data member
+  // is read (file-input.ts).
+  const notTextKind = notText(fileHead(filePath));
+  const zipped = options.format === 'geonames' && notTextKind !== undefined && isZipFile(filePath) && !/workbook|spreadsheet|Office/.test(notTextKind.format);
+  const kind = zipped ? undefined : notTextKind;
   if (kind) throw new Error(`${basename(filePath)} is ${kind.format}, not a gazetteer in ${options.format === 'geojson' ? 'GeoJSON' : 'CSV or tab-separated text'}: ${kind.advice}`);
   const sourceId = options.sourceId ?? defaultSourceId(filePath);
   // The file's encoding and sha256 in one pass, by the module batch input uses; UTF-8 with damaged
