@@ -38,6 +38,31 @@ export const DEFAULT_RADII: Readonly<Record<string, DefaultRadius>> = {
   country: { meters: 1_000_000, reasoning: 'a country given as a point: only its polygon gives a real extent (common practice, no source; erred large)' },
   stateProvince: { meters: 300_000, reasoning: 'a state or province given as a point: only its polygon gives a real extent (common practice, no source; erred large)' },
   county: { meters: 50_000, reasoning: 'a county given as a point: only its polygon gives a real extent (common practice, no source; erred large)' },
+  // Administrative levels below the county (the dump layout's ADM3, ADM4, ADM5 and ADMD).
+  municipality: { meters: 20_000, reasoning: 'a third-level unit (municipality, commune) given as a point: most span 5–40 km (common practice, no source; erred large)' },
+  district: { meters: 10_000, reasoning: 'a fourth-level or lower unit (ward, parish, district) given as a point: a few km to about 20 km (common practice, no source)' },
+  'administrative unit': { meters: 50_000, reasoning: 'an administrative unit of unknown level given as a point: taken as a county (common practice, no source; erred large)' },
+  // Water bodies beyond lakes and streams.
+  sea: { meters: 300_000, reasoning: 'a sea or ocean part given as a point (common practice, no source; erred large); load the polygon instead' },
+  channel: { meters: 20_000, reasoning: 'a strait, channel or sound of up to tens of km (common practice, no source)' },
+  wetland: { meters: 5_000, reasoning: 'a marsh, swamp or bog of a few km (common practice, no source)' },
+  spring: { meters: 200, reasoning: 'a spring or well is a point with its immediate surroundings (common practice, no source; erred large)' },
+  'water body': { meters: 5_000, reasoning: 'a water feature of unknown kind (feature class H): as a lake (common practice, no source)' },
+  // Terrain.
+  valley: { meters: 10_000, reasoning: 'a valley or canyon given as a point may mean any stretch of it (common practice, no source)' },
+  ridge: { meters: 5_000, reasoning: 'a ridge or escarpment of a few km (common practice, no source)' },
+  plain: { meters: 20_000, reasoning: 'a plain, plateau or desert given as a point (common practice, no source; erred large)' },
+  'terrain feature': { meters: 5_000, reasoning: 'a relief feature of unknown kind (feature class T): as a mountain (common practice, no source)' },
+  // Spots, buildings, farms (class S).
+  building: { meters: 200, reasoning: 'a building or small installation (church, school, hut, mine head): its grounds (common practice, no source; erred large)' },
+  airport: { meters: 3_000, reasoning: 'an airport with its runways, up to a few km (common practice, no source)' },
+  spot: { meters: 500, reasoning: 'a spot feature of unknown kind (feature class S): a site of a few hundred meters (common practice, no source; erred large)' },
+  // Areas (class L) and vegetation (class V).
+  park: { meters: 10_000, reasoning: 'a park or reserve given as a point: from a few to tens of km (common practice, no source); load the polygon for large ones' },
+  area: { meters: 10_000, reasoning: 'an area of unknown kind (feature class L): a region of up to tens of km (common practice, no source; erred large)' },
+  forest: { meters: 10_000, reasoning: 'a forest, grassland or scrub area given as a point (feature class V) (common practice, no source)' },
+  // Undersea features (class U).
+  'undersea feature': { meters: 50_000, reasoning: 'a seamount, bank, trench or canyon on the sea floor: tens of km (common practice, no source; erred large)' },
 };
 
 /** Radius for a point whose feature type is missing or outside the vocabulary. */

@@ -3,6 +3,7 @@
  * features in, a point, a radius built from separate components and a footprint out. Pure: no I/O.
  */
 import type { Feature } from '../match/types.ts';
+import { describeAlsoIn } from '../match/same-place.ts';
 import type { DistanceUnit, Interpretation, Offset, WrittenCoordinates } from '../parse/types.ts';
 import { METERS_PER_UNIT } from '../parse/units.ts';
 import { coordinatePrecisionMeters } from '../geodesy/coordinate-precision.ts';
@@ -481,7 +482,9 @@ function describeFeature(feature: Feature): string {
   const radial = feature.radiusIsDefault
     ? `default radial ${meters(feature.radiusMeters)} for a ${feature.featureType ?? 'feature'} point with no extent in the gazetteer (docs/method.md §4)`
     : `geographic radial ${meters(feature.radiusMeters)} (docs/method.md §4)`;
-  return `feature used: "${feature.name}" (${feature.sourceId}:${feature.featureId}), corrected center ${feature.latitude.toFixed(7)}, ${feature.longitude.toFixed(7)}, ${radial}`;
+  const elsewhere = feature.alsoIn !== undefined && feature.alsoIn.length > 0 ? `; ${describeAlsoIn(feature.sourceId, feature.alsoIn)}` : '';
+  const matchedAs = feature.matchedAs === undefined ? '' : `, found by its ${feature.matchedAs}`;
+  return `feature used: "${feature.name}"${matchedAs} (${feature.sourceId}:${feature.featureId}), corrected center ${feature.latitude.toFixed(7)}, ${feature.longitude.toFixed(7)}, ${radial}${elsewhere}`;
 }
 
 function describeDistance(offset: Offset): string {

@@ -63,8 +63,16 @@ export function chosenFeatureFor(name: string, names: string[], found: Candidate
   const edit = chosen.find((c) => (c.name ?? names[0]) === name);
   if (!edit) return undefined;
   const offered = found.find((c) => c.feature.sourceId === edit.sourceId && c.feature.featureId === edit.featureId);
-  if (!offered) throw new EditRefused({ kind: 'not-offered', chosen: edit });
-  return offered;
+  if (offered) return offered;
+  // Another source's copy of an offered place (src/match/same-place.ts) may be chosen instead.
+  for (const c of found) {
+    const copy = c.feature.alsoIn?.find((f) => f.sourceId === edit.sourceId && f.featureId === edit.featureId);
+    if (copy) {
+      const { distanceMeters: _distance, ...feature } = copy;
+      return { ...c, feature };
+    }
+  }
+  throw new EditRefused({ kind: 'not-offered', chosen: edit });
 }
 
 /**

@@ -9,6 +9,8 @@ import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGT
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex } from './types.ts';
+import { withNameKind } from './name-kind.ts';
+import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
 
 const DEFAULT_LIMIT = 10;
@@ -99,9 +101,18 @@ export class CandidateMatcher {
       || Object.values(query.context).some((value) => value !== undefined && value !== '');
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
-    const result = candidates.slice(0, limit);
+    const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
+  }
+
+  /** Where several sources hold one place, the rank of each source, read only when a place is merged. */
+  private sourceRank(): (sourceId: string) => number {
+    let ranks: ReadonlyMap<string, number> | undefined;
+    return (sourceId) => {
+      ranks ??= this.index.sourceRanks?.() ?? new Map<string, number>();
+      return ranks.get(sourceId) ?? Number.MAX_SAFE_INTEGER;
+    };
   }
 
   private resolve(query: CandidateQuery, notes: string[]): ResolvedContext {
@@ -114,6 +125,11 @@ export class CandidateMatcher {
       }
     }
     const context = resolveContext(query.context, gazetteerCodes);
+    // A state or county written in another language or by a former name: the units it names.
+    if (this.index.unitKeys !== undefined) {
+      if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.index.unitKeys(1, context.stateProvinceKey));
+      if (context.countyKey !== undefined) context.countyAliases = new Set(this.index.unitKeys(2, context.countyKey));
+    }
     if (context.unresolvedCountry !== undefined) notes.push(`country '${context.unresolvedCountry}' not recognised: not used to filter`);
     return context;
   }

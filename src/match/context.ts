@@ -58,6 +58,9 @@ export interface ResolvedContext {
   countryCodes: Set<string>;
   stateProvinceKey?: string;
   countyKey?: string;
+  /** Keys of the names of units known by the state (county) name given in any of their names, from the gazetteer. */
+  stateProvinceAliases?: ReadonlySet<string>;
+  countyAliases?: ReadonlySet<string>;
   /** Country written in the context that no table resolved (then it does not filter). */
   unresolvedCountry?: string;
 }
@@ -102,13 +105,19 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
   }
   if (!decided.stateProvince && context.stateProvinceKey !== undefined && feature.stateProvince !== null
     && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && administrativeKey(feature.stateProvince) !== context.stateProvinceKey) {
+    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases)) {
     return `state/province '${feature.stateProvince}', not the one given`;
   }
   if (!decided.county && context.countyKey !== undefined && feature.county !== null
     && feature.featureType !== 'county' && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && administrativeKey(feature.county) !== context.countyKey) {
+    && !sameUnit(feature.county, context.countyKey, context.countyAliases)) {
     return `county '${feature.county}', not the one given`;
   }
   return null;
+}
+
+/** The unit a feature records is the one given: by its key, or by another name of that unit. */
+function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined): boolean {
+  const recordedKey = administrativeKey(recorded);
+  return recordedKey === key || aliases?.has(recordedKey) === true;
 }

@@ -25,7 +25,37 @@ export interface Feature {
   geometryType: GeometryType;
   /** The full geometry, present for lines and polygons when it was asked for. */
   geometry?: Geometry;
+  /** The same place as held by other sources, when several sources hold it (see src/match/same-place.ts). */
+  alsoIn?: SamePlaceElsewhere[];
+  /** What the source says of some alternate names: their language and whether former, short, colloquial. */
+  nameDetails?: AlternateName[];
+  /**
+   * Set by a lookup when the name the text matched is not a current name of the feature, in plain
+   * words for the remarks ("former name 'Puerto Viejo' (until 1921)").
+   */
+  matchedAs?: string;
 }
+
+/** An alternate name as a gazetteer with name details gives it (the dump layout's alternate-names file). */
+export interface AlternateName {
+  name: string;
+  /** ISO 639 language code, or null. */
+  language: string | null;
+  preferred?: true;
+  short?: true;
+  colloquial?: true;
+  /** A former name: no longer in use. */
+  historic?: true;
+  /** When the name was in use, as the source writes it (a year, usually). */
+  from?: string;
+  to?: string;
+}
+
+/** Another source's feature found to be the same place as the one cited (src/match/same-place.ts). */
+export type SamePlaceElsewhere = Omit<Feature, 'alsoIn'> & {
+  /** Geodesic distance from the cited feature's center, meters. */
+  distanceMeters: number;
+};
 
 /** Which feature: its source and its id there (what a choice among candidates names). */
 export interface FeatureKey {
@@ -53,6 +83,11 @@ export interface Source {
   /** sha256 of the imported file's bytes. */
   contentHash: string;
   featureCount: number;
+  /**
+   * Rank of the source where several hold the same place: 1 is cited first, then 2…; null (not set)
+   * after every ranked source, in the order imported.
+   */
+  priority: number | null;
 }
 
 /** Administrative context used to narrow candidates (a record's fields, or clauses of its text). */
@@ -140,4 +175,14 @@ export interface NameIndex {
   postingsWithPartner(driver: IndexedToken, partners: readonly IndexedToken[], countries: readonly string[] | null, limit: number): Posting[];
   /** Loads a line's or polygon's full geometry into the feature (nothing for points or when present). */
   attachGeometry(feature: Feature): void;
+  /**
+   * Each source's place in the order the user ranks them (0 first), for merging the same place held
+   * by several sources (same-place.ts); without it, the better-scored feature is cited.
+   */
+  sourceRanks?(): ReadonlyMap<string, number>;
+  /**
+   * The comparison keys (administrativeKey) of the state (level 1) or county (level 2) names of units
+   * one of whose names, in any language, has the key `key`; empty when the index knows none.
+   */
+  unitKeys?(level: 1 | 2, key: string): string[];
 }

@@ -7,7 +7,7 @@ import { existsSync, statSync } from 'node:fs';
 import Database from 'better-sqlite3';
 import { jobsDatabasePath } from './side-files.ts';
 import { nameVariants } from '../match/fold.ts';
-import { SCHEMA_VERSION } from './gazetteer-store.ts';
+import { OLDEST_READABLE_SCHEMA, SCHEMA_VERSION } from './gazetteer-store.ts';
 
 /** `note`: worth knowing, nothing is wrong; `problem`: the store (or a job) needs the remedy. */
 export type CheckStatus = 'ok' | 'note' | 'problem';
@@ -34,7 +34,7 @@ export interface DoctorOptions {
 }
 
 /** Tables the store's schema (store.ts) creates. */
-const STORE_TABLES = ['sources', 'features', 'names', 'tokens', 'postings', 'deletions'];
+const STORE_TABLES = ['sources', 'features', 'names', 'tokens', 'postings', 'deletions', 'unit_names'];
 /** Integrity messages listed at most (SQLite stops counting there). */
 const MAX_INTEGRITY_MESSAGES = 20;
 const REBUILD = 'restore the file from a backup, or move it aside and import the gazetteer files again into a new store (whereabouts --db <new file> import <file>)';
@@ -79,7 +79,7 @@ function storeChecks(db: Database.Database, options: DoctorOptions): DoctorCheck
   const schema = guarded('schema version', () => schemaCheck(db));
   const checks = [integrity, schema, guarded('journal mode', () => journalModeCheck(db))];
   // Row counts of a damaged file or of another schema would mislead.
-  if (integrity.status === 'ok' && schema.status === 'ok') {
+  if (integrity.status === 'ok' && schema.status !== 'problem') {
     try {
       checks.push(...sourceChecks(db), ...orphanChecks(db));
     } catch (error) {
@@ -121,8 +121,14 @@ function schemaCheck(db: Database.Database): DoctorCheck {
       remedy: 'use the whereabouts that wrote the store, or import the gazetteer files again into a new store with this one',
     };
   }
+  if (version < OLDEST_READABLE_SCHEMA) {
+    return { check, status: 'problem', finding: `schema version ${version}, older than any version this whereabouts reads (${OLDEST_READABLE_SCHEMA} to ${SCHEMA_VERSION})`, remedy: 'import the gazetteer files again into a new store' };
+  }
   if (version < SCHEMA_VERSION) {
-    return { check, status: 'problem', finding: `schema version ${version}, older than the version ${SCHEMA_VERSION} this whereabouts reads`, remedy: 'import the gazetteer files again into a new store' };
+    return {
+      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds source priorities, the details of alternate names and the names of administrative units)`,
+      remedy: 'nothing to do; keep a copy first if an older whereabouts must still read the file',
+    };
   }
   const present = new Set((db.prepare("SELECT name FROM sqlite_schema WHERE type = 'table'").all() as { name: string }[]).map((r) => r.name));
   const missing = STORE_TABLES.filter((table) => !present.has(table));

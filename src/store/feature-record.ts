@@ -6,13 +6,15 @@ import type { Geometry, Position } from 'geojson';
 import { featureExtent } from '../georef/feature-extent.ts';
 import { defaultRadius } from '../georef/default-radii.ts';
 import type { FeatureRecord } from './gazetteer-store.ts';
-import type { GeometryType } from '../match/types.ts';
+import type { AlternateName, GeometryType } from '../match/types.ts';
 
 /** A row as read from any layout, before checking. */
 export interface RawFeature {
   id?: string;
   name?: unknown;
   alternateNames?: string[];
+  /** Language and flags of some alternate names (the dump layout's alternate-names file). */
+  nameDetails?: AlternateName[];
   latitude?: unknown;
   longitude?: unknown;
   featureType?: unknown;
@@ -46,6 +48,7 @@ export function checkFeature(raw: RawFeature, fallbackId: string, radii?: Readon
     countryCode: countryCode === null ? null : countryCode.toUpperCase(),
     stateProvince: text(raw.stateProvince),
     county: text(raw.county),
+    ...(raw.nameDetails !== undefined && { nameDetails: raw.nameDetails }),
   };
   const geometry = raw.geometry ?? null;
   if (geometry !== null && geometry.type !== 'Point') {
@@ -70,7 +73,7 @@ export function checkFeature(raw: RawFeature, fallbackId: string, radii?: Readon
   // Written out rather than spread from `base`: this runs for every row of a million-row import.
   return {
     featureId: base.featureId, name, alternateNames: base.alternateNames, featureType, countryCode: base.countryCode,
-    stateProvince: base.stateProvince, county: base.county, latitude, longitude,
+    stateProvince: base.stateProvince, county: base.county, nameDetails: raw.nameDetails, latitude, longitude,
     radiusMeters: radius ?? defaultRadius(featureType, radii).meters,
     radiusIsDefault: radius === undefined,
     geometryType: 'Point',

@@ -8,30 +8,49 @@ import Database from 'better-sqlite3';
 import type { Geometry } from 'geojson';
 import { CandidateMatcher } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
+import { administrativeKey } from '../match/context.ts';
 import { nameVariants } from '../match/fold.ts';
 import type {
-  Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
+  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
 } from '../match/types.ts';
 
-/** Schema version kept in PRAGMA user_version; a file of another version is refused, never guessed at. */
-export const SCHEMA_VERSION = 1;
+/** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
+export const SCHEMA_VERSION = 2;
+
+/**
+ * Each older schema version's step to the next, run in order in one transaction when a store of that
+ * version is opened (a read-only open migrates through a short writable connection first).
+ */
+export const MIGRATIONS: Readonly<Record<number, string>> = {
+  // Version 2: the rank of a source where several hold the same place (src/match/same-place.ts), the
+  // details of alternate names (language, former…), and every name of the administrative units.
+  1: `ALTER TABLE sources ADD COLUMN priority INTEGER;
+    ALTER TABLE features ADD COLUMN name_details TEXT;
+    CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
+      PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;`,
+};
+/** The oldest schema version this whereabouts reads (migrating it when opened). */
+export const OLDEST_READABLE_SCHEMA = 1;
 
 const SCHEMA = `
 CREATE TABLE sources (
   id INTEGER PRIMARY KEY, name TEXT NOT NULL UNIQUE, citation TEXT NOT NULL, licence TEXT,
-  imported_at TEXT NOT NULL, content_hash TEXT NOT NULL, format TEXT NOT NULL, feature_count INTEGER NOT NULL
+  imported_at TEXT NOT NULL, content_hash TEXT NOT NULL, format TEXT NOT NULL, feature_count INTEGER NOT NULL,
+  priority INTEGER
 );
 CREATE TABLE features (
   id INTEGER PRIMARY KEY, source INTEGER NOT NULL, feature_id TEXT NOT NULL, name TEXT NOT NULL,
   alternate_names TEXT, feature_type TEXT, country_code TEXT, state_province TEXT, county TEXT,
   latitude REAL NOT NULL, longitude REAL NOT NULL, radius REAL NOT NULL, radius_default INTEGER NOT NULL,
-  geometry_type INTEGER NOT NULL, geometry TEXT
+  geometry_type INTEGER NOT NULL, geometry TEXT, name_details TEXT
 );
 CREATE UNIQUE INDEX features_by_source_id ON features (source, feature_id);
 CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
 CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
 CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
 CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
+  PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;
 `;
 
 const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
@@ -56,12 +75,20 @@ export interface SourceRecord {
   licence: string | null;
   contentHash: string;
   format: string;
+  /** Rank where several sources hold the same place; undefined keeps the replaced source's. */
+  priority?: number | null;
 }
 
 /** One import in progress: a single transaction, rolled back unless committed. */
 export interface ImportSession {
   /** Adds a feature; returns null, or the reason it was refused (a duplicate id, say). */
   add(record: FeatureRecord): string | null;
+  /** Keeps an alternate name of a feature still to come, on disk for the length of the import. */
+  stageAlternateName(featureId: string, name: AlternateName): void;
+  /** The alternate names staged for a feature, in the order staged. */
+  stagedAlternateNames(featureId: string): AlternateName[];
+  /** Records every name of a state (level 1) or county (level 2) whose features carry `unitName`. */
+  addUnitNames(level: 1 | 2, unitName: string, names: readonly string[]): void;
   commit(source: SourceRecord): Source;
   rollback(): void;
 }
@@ -82,6 +109,7 @@ interface FeatureRow {
   radius_default: number;
   geometry_type: number;
   geometry?: string | null;
+  name_details: string | null;
 }
 
 /** Rows a multi-row INSERT writes at once: one statement of many rows costs far less than many statements. */
@@ -185,6 +213,7 @@ interface SourceRow {
   imported_at: string;
   content_hash: string;
   feature_count: number;
+  priority?: number | null;
 }
 
 /** The SQLite gazetteer: CandidateFinder for the core, plus source management. */
@@ -194,8 +223,13 @@ export interface GazetteerStore extends CandidateFinder {
   sources(): Source[];
   /** Removes a source and all its features; returns false when there is no such source. */
   removeSource(id: string): boolean;
-  /** Starts an import of a source (replacing it if it exists) in one transaction. */
+  /** Starts an import of a source (replacing it if it exists, keeping its priority) in one transaction. */
   beginImport(sourceId: string): ImportSession;
+  /**
+   * Sets (or with null clears) the rank of a source where several hold the same place: 1 is cited
+   * first. Returns false when there is no such source.
+   */
+  setPriority(sourceId: string, priority: number | null): boolean;
   close(): void;
 }
 
@@ -225,14 +259,25 @@ class SqliteGazetteer implements GazetteerStore {
   private readonly matcher: CandidateMatcher;
 
   constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number) {
-    this.db = new Database(path, { readonly, fileMustExist: readonly });
-    const version = this.db.pragma('user_version', { simple: true }) as number;
+    let db = new Database(path, { readonly, fileMustExist: readonly });
+    let version = db.pragma('user_version', { simple: true }) as number;
+    if (readonly && version >= OLDEST_READABLE_SCHEMA && version < SCHEMA_VERSION) {
+      db.close();
+      db = new Database(path, { fileMustExist: true });
+      migrate(db, path, version);
+      db.close();
+      db = new Database(path, { readonly: true, fileMustExist: true });
+      version = SCHEMA_VERSION;
+    }
+    this.db = db;
     if (version === 0 && !readonly) {
       this.db.pragma('journal_mode = WAL');
       this.db.exec(`BEGIN; ${SCHEMA} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
-    } else if (version !== SCHEMA_VERSION) {
+    } else if (version < OLDEST_READABLE_SCHEMA || version > SCHEMA_VERSION) {
       this.db.close();
-      throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads version ${SCHEMA_VERSION}`);
+      throw new Error(`${path}: gazetteer schema version ${version}, this whereabouts reads versions ${OLDEST_READABLE_SCHEMA} to ${SCHEMA_VERSION}`);
+    } else if (version < SCHEMA_VERSION) {
+      migrate(this.db, path, version);
     }
     if (!readonly) this.db.pragma('synchronous = NORMAL');
     this.db.pragma(`cache_size = -${Math.round(cacheKiB)}`);
@@ -271,6 +316,11 @@ class SqliteGazetteer implements GazetteerStore {
     return (this.statements.allSources.all() as SourceRow[]).map(toSource);
   }
 
+  setPriority(sourceId: string, priority: number | null): boolean {
+    if (priority !== null && !(Number.isInteger(priority) && priority >= 1)) throw new Error(`a source priority is a whole number from 1 (cited first), not ${priority}`);
+    return this.statements.setPriority.run(priority, sourceId).changes === 1;
+  }
+
   removeSource(id: string): boolean {
     this.matcher.forgetTokenMatches();
     const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
@@ -293,13 +343,14 @@ class SqliteGazetteer implements GazetteerStore {
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
-    const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString()).lastInsertRowid);
+    const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
     const deletions = new PairBuffer(new RowWriter(db, 'deletions', ['hash', 'token']));
     const postings = new PairBuffer(new RowWriter(db, 'postings', ['token', 'feature']));
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
+    let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
     // Into an empty token table, a token the cache has not seen is new: no need to look it up.
     let everyTokenCached = s.anyToken.get() === undefined;
     const tokenId = (token: string): number => {
@@ -322,6 +373,7 @@ class SqliteGazetteer implements GazetteerStore {
     };
     const finish = () => {
       open = false;
+      staging = null;
       this.matcher.forgetTokenMatches();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
@@ -335,6 +387,7 @@ class SqliteGazetteer implements GazetteerStore {
             record.featureType, record.countryCode, record.stateProvince, record.county,
             record.latitude, record.longitude, record.radiusMeters, record.radiusIsDefault ? 1 : 0,
             GEOMETRY_TYPES.indexOf(record.geometryType), record.geometry,
+            record.nameDetails !== undefined && record.nameDetails.length > 0 ? JSON.stringify(record.nameDetails) : null,
           ).lastInsertRowid);
         } catch (error) {
           if (error instanceof Database.SqliteError && error.code === 'SQLITE_CONSTRAINT_UNIQUE') return `duplicate id '${record.featureId}'`;
@@ -352,13 +405,32 @@ class SqliteGazetteer implements GazetteerStore {
         count++;
         return null;
       },
+      stageAlternateName: (featureId, name) => {
+        if (staging === null) {
+          // A table of the file, not of memory: a world alternate-names file holds millions of rows.
+          db.exec(`CREATE TABLE IF NOT EXISTS import_staged_names (feature_id TEXT NOT NULL, detail TEXT NOT NULL);
+            CREATE INDEX IF NOT EXISTS import_staged_names_by_feature ON import_staged_names (feature_id);`);
+          staging = {
+            insert: db.prepare('INSERT INTO import_staged_names (feature_id, detail) VALUES (?, ?)'),
+            select: db.prepare('SELECT detail FROM import_staged_names WHERE feature_id = ? ORDER BY rowid').pluck(),
+          };
+        }
+        staging.insert.run(featureId, JSON.stringify(name));
+      },
+      stagedAlternateNames: (featureId) => (staging === null ? [] : (staging.select.all(featureId) as string[]).map((detail) => JSON.parse(detail) as AlternateName)),
+      addUnitNames: (level, unitName, names) => {
+        const unitKey = administrativeKey(unitName);
+        for (const key of new Set([unitKey, ...names.map(administrativeKey)])) if (key !== '') s.insertUnitName.run(key, level, unitKey, sourceRowId);
+      },
       commit: (source) => {
         if (!open) throw new Error('import already finished');
+        if (staging !== null) db.exec('DROP TABLE import_staged_names');
         deletions.flush();
         postings.flush();
         names.flush();
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
+        if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
         db.exec('COMMIT');
         finish();
         return toSource(s.sourceByName.get(sourceId) as SourceRow);
@@ -379,6 +451,7 @@ class SqliteGazetteer implements GazetteerStore {
     const s = this.statements;
     s.deleteSourcePostings.run(sourceRowId);
     s.deleteSourceNames.run(sourceRowId);
+    s.deleteSourceUnitNames.run(sourceRowId);
     s.deleteSourceFeatures.run(sourceRowId);
     s.deleteSource.run(sourceRowId);
   }
@@ -391,6 +464,26 @@ class SqliteGazetteer implements GazetteerStore {
       this.db.exec(`DELETE FROM deletions WHERE token IN (SELECT id FROM tokens WHERE df = 0);
         DELETE FROM tokens WHERE df = 0;`);
     }
+  }
+}
+
+/**
+ * Brings a store of an older schema version to SCHEMA_VERSION in one transaction (MIGRATIONS).
+ * @example migrate(new Database('old.sqlite'), 'old.sqlite', 1)
+ */
+function migrate(db: Database.Database, path: string, version: number): void {
+  try {
+    // Several processes may open an old store at once (batch workers): the first migrates, the others
+    // wait for its write lock and then find the file migrated.
+    db.pragma('busy_timeout = 10000');
+    db.exec('BEGIN IMMEDIATE');
+    const now = db.pragma('user_version', { simple: true }) as number;
+    const steps = Array.from({ length: SCHEMA_VERSION - now }, (_, i) => MIGRATIONS[now + i]).join('\n');
+    db.exec(`${steps} PRAGMA user_version = ${SCHEMA_VERSION}; COMMIT;`);
+  } catch (error) {
+    if (db.inTransaction) db.exec('ROLLBACK');
+    db.close();
+    throw new Error(`${path}: gazetteer schema version ${version} must be migrated to version ${SCHEMA_VERSION}, which needs write access to the file: ${(error as Error).message}`);
   }
 }
 
@@ -439,26 +532,33 @@ function sqliteNameIndex(s: Statements): NameIndex {
         : inCountries.all({ driver: driver.id, partners: partnerIds, limit, countries: JSON.stringify(countries) })) as Posting[];
     },
     attachGeometry: (feature) => attachGeometry(s, feature),
+    sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
+    unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
   };
 }
 
 
 const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
-  f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type`;
+  f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type, f.name_details`;
 
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
   return {
-    insertSource: db.prepare(`INSERT INTO sources (name, citation, licence, imported_at, content_hash, format, feature_count)
-      VALUES (?, '', NULL, ?, '', '', 0)`),
+    insertSource: db.prepare(`INSERT INTO sources (name, citation, licence, imported_at, content_hash, format, feature_count, priority)
+      VALUES (?, '', NULL, ?, '', '', 0, ?)`),
+    setPriority: db.prepare('UPDATE sources SET priority = ? WHERE name = ?'),
+    rankedSources: db.prepare('SELECT name FROM sources ORDER BY priority IS NULL, priority, id').pluck(),
     completeSource: db.prepare('UPDATE sources SET citation = ?, licence = ?, content_hash = ?, format = ?, feature_count = ? WHERE id = ?'),
     deleteSource: db.prepare('DELETE FROM sources WHERE id = ?'),
     deleteSourceFeatures: db.prepare('DELETE FROM features WHERE source = ?'),
     deleteSourceNames: db.prepare('DELETE FROM names WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     deleteSourcePostings: db.prepare('DELETE FROM postings WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
-      state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry)
-      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+      state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry, name_details)
+      VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
+    insertUnitName: db.prepare('INSERT OR IGNORE INTO unit_names (key, level, unit_key, source) VALUES (?, ?, ?, ?)'),
+    deleteSourceUnitNames: db.prepare('DELETE FROM unit_names WHERE source = ?'),
+    unitKeys: db.prepare('SELECT DISTINCT unit_key FROM unit_names WHERE key = ? AND level = ?').pluck(),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
     sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
@@ -514,6 +614,7 @@ function toFeature(row: FeatureRow): Feature {
     radiusMeters: row.radius,
     radiusIsDefault: row.radius_default === 1,
     geometryType: GEOMETRY_TYPES[row.geometry_type],
+    ...(row.name_details === null ? {} : { nameDetails: JSON.parse(row.name_details) as AlternateName[] }),
   };
 }
 
@@ -525,5 +626,6 @@ function toSource(row: SourceRow): Source {
     importedAt: row.imported_at,
     contentHash: row.content_hash,
     featureCount: row.feature_count,
+    priority: row.priority ?? null,
   };
 }

@@ -1,7 +1,8 @@
 /**
- * Streams a gazetteer file (CSV, GeoJSON FeatureCollection, or the world-gazetteer dump layout) into
- * the store in one transaction: constant memory for any file size, every refused row returned with its
- * row number and reason, the source recorded with its citation, licence and the file's sha256.
+ * Streams a gazetteer file (CSV, GeoJSON FeatureCollection, or the world-gazetteer dump layout, plain or
+ * zipped as distributed, with its alternate-names and admin code files) into the store in one
+ * transaction: constant memory for any file size, every refused row returned with its row number and
+ * reason, the source recorded with its citation, licence and the file's sha256.
  */
 import { accessSync, constants } from 'node:fs';
 import { basename, extname } from 'node:path';
@@ -9,11 +10,14 @@ import { createInterface } from 'node:readline';
 import type { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
+import iconv from 'iconv-lite';
+import type { AlternateName } from '../match/types.ts';
+import { readAdminCodeLine, readAlternateNameLine, readDumpLine } from './dump-layout.ts';
 import { fileHead, notText } from './file-kind.ts';
+import { isZipFile, openFileInput } from './file-input.ts';
 import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
-import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
-import type { GazetteerStore } from './gazetteer-store.ts';
+import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames';
 
@@ -24,10 +28,17 @@ export interface ImportOptions {
   /** Defaults to the file name without its extension, e.g. "demo-towns". */
   sourceId?: string;
   licence?: string;
-  /** The dump layout's admin1 companion file ("CC.code", name, asciiname, id). */
-  adminCodesFile?: string;
+  /**
+   * The dump layout's admin code files, admin1 ("CC.A1", name, asciiname, id) and admin2 ("CC.A1.A2",
+   * …), one or several: records' state and county names then match the units by any of their names.
+   */
+  adminCodesFile?: string | readonly string[];
+  /** The dump layout's alternate-names file (10 columns, plain or zipped): names with language and flags. */
+  alternateNamesFile?: string;
   /** Default radius overrides for this source, meters by feature type (see default-radii.ts). */
   radii?: Readonly<Record<string, number>>;
+  /** Rank of the source where several hold the same place (1 first); kept from the replaced source when not given. */
+  priority?: number | null;
   /** Called every few thousand rows with the number read so far. */
   onProgress?: (rows: number) => void;
 }
@@ -43,6 +54,8 @@ export interface ImportSummary {
   imported: number;
   /** Row numbers are file line numbers for CSV and the dump layout, feature numbers (from 1) for GeoJSON. */
   rejected: { row: number; reason: string }[];
+  /** The alternate-names file, when one was given: its lines read, the names kept, the lines refused. */
+  alternateNames?: { rowsRead: number; kept: number; rejected: { row: number; reason: string }[] };
   seconds: number;
 }
 
@@ -62,28 +75,40 @@ const READ_BYTES = 16 * 1024;
 export async function importGazetteer(store: GazetteerStore, filePath: string, options: ImportOptions): Promise<ImportSummary> {
   const started = process.hrtime.bigint();
   assertReadable(filePath);
-  if (options.adminCodesFile !== undefined) assertReadable(options.adminCodesFile);
-  const kind = notText(fileHead(filePath));
+  const adminCodeFiles = options.adminCodesFile === undefined ? [] : typeof options.adminCodesFile === 'string' ? [options.adminCodesFile] : options.adminCodesFile;
+  for (const side of [...adminCodeFiles, ...(options.alternateNamesFile === undefined ? [] : [options.alternateNamesFile])]) assertReadable(side);
+  // A zip archive (not a workbook) given as the dump layout is the dump as distributed: its data member
+  // is read (file-input.ts).
+  const notTextKind = notText(fileHead(filePath));
+  const zipped = options.format === 'geonames' && notTextKind !== undefined && isZipFile(filePath) && !/workbook|spreadsheet|Office/.test(notTextKind.format);
+  const kind = zipped ? undefined : notTextKind;
   if (kind) throw new Error(`${basename(filePath)} is ${kind.format}, not a gazetteer in ${options.format === 'geojson' ? 'GeoJSON' : 'CSV or tab-separated text'}: ${kind.advice}`);
   const sourceId = options.sourceId ?? defaultSourceId(filePath);
-  const admin1Names = options.adminCodesFile === undefined ? new Map<string, string>() : await readAdmin1Names(options.adminCodesFile);
   // The file's encoding and sha256 in one pass, by the module batch input uses; UTF-8 with damaged
   // bytes is read as UTF-8, and its damaged rows refused (below), rather than all of it as Windows-1252.
+  // A zip archive's sha256 is of the archive as downloaded; its member is read as UTF-8, as published.
   const inspected = await inspectInput(filePath);
-  const format: InputFormat = inspected.damagedUtf8 ? { ...inspected, encoding: 'utf-8' } : inspected;
+  const format: InputFormat = inspected.damagedUtf8 || zipped ? { ...inspected, encoding: 'utf-8', bomBytes: zipped ? 0 : inspected.bomBytes } : inspected;
   const citation = options.citation?.trim() || standInCitation(filePath, format, new Date());
-  // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
-  // young-generation collection cost heap until the next full one.
-  const input = decodedText(filePath, format, READ_BYTES);
-  const rows = options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, admin1Names);
   const session = store.beginImport(sourceId);
   const rejected: { row: number; reason: string }[] = [];
+  let alternateNames: ImportSummary['alternateNames'];
   let rowsRead = 0;
   let imported = 0;
+  let input: Readable | undefined;
   try {
+    if (options.alternateNamesFile !== undefined) alternateNames = await stageAlternateNames(session, options.alternateNamesFile);
+    const adminNames = await readAdminCodes(session, adminCodeFiles);
+    // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
+    // young-generation collection cost heap until the next full one.
+    input = zipped
+      ? (await openFileInput(filePath, READ_BYTES)).stream.pipe(iconv.decodeStream('utf-8')) as unknown as Readable
+      : decodedText(filePath, format, READ_BYTES);
+    const rows = options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames);
     for await (const batch of rows) {
       for (const { row, raw } of batch) {
         rowsRead++;
+        if (alternateNames !== undefined && typeof raw !== 'string' && raw.id !== undefined) withStagedNames(raw, session.stagedAlternateNames(raw.id));
         const checked = typeof raw === 'string' ? raw : checkFeature(raw, `row-${row}`, options.radii);
         const reason = typeof checked === 'string' ? checked : session.add(checked);
         if (reason === null) imported++;
@@ -93,17 +118,66 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     }
     // A source with no feature would only look like a success: nothing is registered.
     if (imported === 0) throw new Error(nothingKept(filePath, rowsRead, rejected));
-    session.commit({ citation, licence: options.licence ?? null, contentHash: format.sha256, format: options.format });
+    session.commit({ citation, licence: options.licence ?? null, contentHash: format.sha256, format: options.format, priority: options.priority });
   } catch (error) {
     session.rollback();
-    input.destroy();
+    input?.destroy();
     throw error;
   }
   options.onProgress?.(rowsRead);
   return {
     sourceId, citation, citationIsStandIn: !options.citation?.trim(), encoding: format.encoding,
-    rowsRead, imported, rejected, seconds: Number(process.hrtime.bigint() - started) / 1e9,
+    rowsRead, imported, rejected, ...(alternateNames !== undefined && { alternateNames }),
+    seconds: Number(process.hrtime.bigint() - started) / 1e9,
   };
+}
+
+/** Adds the names staged for a feature to its own, with their details (language, former…). */
+function withStagedNames(raw: RawFeature, staged: AlternateName[]): void {
+  if (staged.length === 0) return;
+  const names = new Set(raw.alternateNames ?? []);
+  for (const alternate of staged) names.add(alternate.name);
+  raw.alternateNames = [...names];
+  raw.nameDetails = staged;
+}
+
+/** Stages every name of the alternate-names file for the features to come; returns what was read. */
+async function stageAlternateNames(session: ImportSession, filePath: string): Promise<NonNullable<ImportSummary['alternateNames']>> {
+  const { stream } = await openFileInput(filePath, READ_BYTES);
+  const rejected: { row: number; reason: string }[] = [];
+  let rowsRead = 0;
+  let kept = 0;
+  for await (const line of createInterface({ input: stream, crlfDelay: Infinity })) {
+    rowsRead++;
+    if (line === '') continue;
+    const read = readAlternateNameLine(line);
+    if (typeof read === 'string') {
+      rejected.push({ row: rowsRead, reason: read });
+    } else if (read !== null) {
+      session.stageAlternateName(read.featureId, read.name);
+      kept++;
+    }
+  }
+  return { rowsRead, kept, rejected };
+}
+
+/**
+ * The names of the units of the admin code files by code, with every name of each unit (its ASCII
+ * name and its alternate names, when an alternate-names file was staged) recorded for the context filter.
+ */
+async function readAdminCodes(session: ImportSession, filePaths: readonly string[]): Promise<Map<string, string>> {
+  const names = new Map<string, string>();
+  for (const filePath of filePaths) {
+    const { stream } = await openFileInput(filePath, READ_BYTES);
+    for await (const line of createInterface({ input: stream, crlfDelay: Infinity })) {
+      const unit = readAdminCodeLine(line);
+      if (unit === null) continue;
+      names.set(unit.code, unit.name);
+      const others = unit.featureId === '' ? [] : session.stagedAlternateNames(unit.featureId).map((alternate) => alternate.name);
+      session.addUnitNames(unit.level, unit.name, [unit.asciiName, ...others].filter((name) => name !== ''));
+    }
+  }
+  return names;
 }
 
 /**
@@ -126,26 +200,18 @@ function nothingKept(filePath: string, rowsRead: number, rejected: { row: number
 /**
  * The import format a file name suggests, or null.
  * @example formatFromFileName('world.txt') // 'geonames'
+ * @example formatFromFileName('QX.zip') // 'geonames' (the dump is distributed zipped)
  */
 export function formatFromFileName(filePath: string): ImportFormat | null {
   const extension = extname(filePath).toLowerCase();
   if (extension === '.csv') return 'csv';
   if (extension === '.geojson' || extension === '.json') return 'geojson';
-  if (extension === '.txt' || extension === '.tsv') return 'geonames';
+  if (extension === '.txt' || extension === '.tsv' || extension === '.zip') return 'geonames';
   return null;
 }
 
 function defaultSourceId(filePath: string): string {
   return basename(filePath, extname(filePath)).toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'gazetteer';
-}
-
-async function readAdmin1Names(filePath: string): Promise<Map<string, string>> {
-  const names = new Map<string, string>();
-  for await (const line of createInterface({ input: decodedText(filePath, await inspectInput(filePath)), crlfDelay: Infinity })) {
-    const entry = readAdmin1Line(line);
-    if (entry !== null) names.set(entry[0], entry[1]);
-  }
-  return names;
 }
 
 const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
@@ -182,7 +248,7 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
  * The dump's lines (ending in LF or CRLF), a chunk of the file at a time: one await a chunk rather
  * than one a line, which matters at millions of rows.
  */
-async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, string>): AsyncGenerator<ReadRow[]> {
+async function* readDump(input: Readable, adminNames: ReadonlyMap<string, string>): AsyncGenerator<ReadRow[]> {
   let row = 0;
   let rest = '';
   const read = (lines: string[]): ReadRow[] => {
@@ -190,7 +256,7 @@ async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, strin
     for (const line of lines) {
       row++;
       const text = line.endsWith('\r') ? line.slice(0, -1) : line;
-      if (text !== '') rows.push({ row, raw: readDumpLine(text, admin1Names) });
+      if (text !== '') rows.push({ row, raw: readDumpLine(text, adminNames) });
     }
     return rows;
   };

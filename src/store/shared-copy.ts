@@ -7,6 +7,7 @@
  */
 import { chmodSync, existsSync } from 'node:fs';
 import Database from 'better-sqlite3';
+import { openGazetteer } from './gazetteer-store.ts';
 
 /**
  * Write the copy (refusing to replace a file) and return once it is whole and read-only.
@@ -21,6 +22,8 @@ export async function writeSharedGazetteerCopy(from: string, to: string): Promis
   } finally {
     source.close();
   }
+  // Readers of the read-only copy cannot migrate it: a store of an older schema is migrated here.
+  openGazetteer(to).close();
   const copy = new Database(to);
   try {
     copy.pragma('journal_mode = DELETE');

@@ -124,7 +124,9 @@ describe('default radii', () => {
   it('cover the whole feature vocabulary, each with its reasoning', () => {
     const vocabulary = ['city', 'town', 'village', 'hamlet', 'locality', 'farm', 'estate', 'station', 'bridge', 'island',
       'mountain', 'peak', 'hill', 'pass', 'lake', 'bay', 'cape', 'beach', 'waterfall', 'river', 'stream', 'river mouth',
-      'road', 'trail', 'country', 'stateProvince', 'county'];
+      'road', 'trail', 'country', 'stateProvince', 'county', 'municipality', 'district', 'administrative unit', 'sea', 'channel',
+      'wetland', 'spring', 'water body', 'valley', 'ridge', 'plain', 'terrain feature', 'building', 'airport', 'spot', 'park', 'area',
+      'forest', 'undersea feature'];
     expect(Object.keys(DEFAULT_RADII).sort()).toEqual([...vocabulary].sort());
     for (const type of vocabulary) expect(DEFAULT_RADII[type].reasoning).toMatch(/no source|polygon|line/);
   });

@@ -8,7 +8,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { dumpFeatureType, readAdmin1Line } from '../../src/store/dump-layout.ts';
+import { dumpFeatureType, readAdminCodeLine } from '../../src/store/dump-layout.ts';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 
@@ -41,11 +41,14 @@ describe('dump layout import', () => {
     expect(dumpFeatureType('P', 'PPL', 0)).toBe('town');
     expect(dumpFeatureType('H', 'STMM', 0)).toBe('river mouth');
     expect(dumpFeatureType('A', 'ADM2', 0)).toBe('county');
-    expect(dumpFeatureType('V', 'FRST', 0)).toBeNull();
+    expect(dumpFeatureType('V', 'FRST', 0)).toBe('forest');
+    // A code not listed takes the type of its class; an unknown class none.
+    expect(dumpFeatureType('U', 'SMU', 0)).toBe('undersea feature');
+    expect(dumpFeatureType('Z', 'ZZZ', 0)).toBeNull();
   });
 
   it('reads admin1 companion lines and skips others', () => {
-    expect(readAdmin1Line('QX.01\tNorteña\tNortena\t900001')).toEqual(['QX.01', 'Norteña']);
-    expect(readAdmin1Line('# comment')).toBeNull();
+    expect(readAdminCodeLine('QX.01\tNorteña\tNortena\t900001')).toEqual({ code: 'QX.01', level: 1, name: 'Norteña', asciiName: 'Nortena', featureId: '900001' });
+    expect(readAdminCodeLine('# comment')).toBeNull();
   });
 });

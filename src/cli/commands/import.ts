@@ -1,5 +1,6 @@
 import type { Command } from 'commander';
 import type { ImportFormat, ImportSummary } from '../../store/import.ts';
+import { parsePriority } from './gazetteer.ts';
 
 interface ImportCommandOptions {
   format?: string;
@@ -7,7 +8,9 @@ interface ImportCommandOptions {
   citation?: string;
   sourceId?: string;
   licence?: string;
-  adminCodes?: string;
+  adminCodes?: string[];
+  alternateNames?: string;
+  priority?: number | null;
   defaultRadius?: Record<string, number>;
 }
 
@@ -22,14 +25,16 @@ const LISTED_REJECTIONS = 20;
 export function registerImport(program: Command, dbPath: () => string): void {
   program
     .command('import')
-    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout)')
+    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout, plain or zipped)')
     .argument('<file>', 'the gazetteer file')
     .option('--format <format>', `one of ${FORMATS.join(', ')} (default: from the file extension)`)
     .option('--source <citation>', 'how to cite this gazetteer, e.g. "Survey of towns, 2024, Land Office" (without it a stand-in is built from the file name, size and sha256, to be replaced)')
     .option('--citation <citation>', 'the same as --source')
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
-    .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
+    .option('--admin-codes <file>', 'admin1 or admin2 code names for the dump layout ("CC.A1" or "CC.A1.A2", name, asciiname, id); repeatable', collectFile)
+    .option('--alternate-names <file>', 'the dump layout\'s alternate-names file (10 columns, plain or zipped): names in other languages, former and colloquial names')
+    .option('--priority <rank>', 'where several sources hold the same place, cite this one at this rank (1 first; see gazetteer priority)', parsePriority)
     .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
     .action(async (file: string, opts: ImportCommandOptions) => {
       const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
@@ -46,6 +51,8 @@ export function registerImport(program: Command, dbPath: () => string): void {
           sourceId: opts.sourceId,
           licence: opts.licence,
           adminCodesFile: opts.adminCodes,
+          alternateNamesFile: opts.alternateNames,
+          priority: opts.priority,
           radii: opts.defaultRadius,
           onProgress: (rows) => bar?.update(rows),
         });
@@ -56,6 +63,11 @@ export function registerImport(program: Command, dbPath: () => string): void {
         store.close();
       }
     });
+}
+
+/** Adds one file of a repeatable option to those already given. */
+function collectFile(value: string, previous: string[] | undefined): string[] {
+  return [...(previous ?? []), value];
 }
 
 /**
@@ -82,5 +94,10 @@ export function formatSummary(summary: ImportSummary): string {
     ...summary.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  row ${row}: ${reason}`),
   ];
   if (summary.rejected.length > LISTED_REJECTIONS) lines.push(`  … and ${summary.rejected.length - LISTED_REJECTIONS} more rejected rows`);
+  const names = summary.alternateNames;
+  if (names !== undefined) {
+    lines.push(`alternate names: ${names.rowsRead} lines read, ${names.kept} names kept, ${names.rejected.length} rejected`,
+      ...names.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  line ${row}: ${reason}`));
+  }
   return `${lines.join('\n')}\n`;
 }
