@@ -39,6 +39,8 @@ export interface BatchJobOptions {
   output?: string;
   /** Id of a job to finish. */
   resume?: string;
+  /** The input's delimiter when the caller knows it (an archive's core, written by whereabouts); found from the header otherwise. */
+  delimiter?: Delimiter;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
   /**
@@ -165,7 +167,7 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     if (outputPath === inputPath) throw new Error(`the output ${outputPath} would replace the input`);
     if (!existsSync(inputPath)) throw new Error(`cannot read the input ${inputPath}: no such file`);
     const format = await inspectInput(inputPath);
-    const delimiter = await detectDelimiter(inputPath, format);
+    const delimiter = options.delimiter ?? (await detectDelimiter(inputPath, format));
     await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
     const like = { inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath) };
     const unfinished = findUnfinishedJob(jobs, like);

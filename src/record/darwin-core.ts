@@ -6,6 +6,7 @@ import type { Source } from '../match/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import type { LocateResult, LocateStatus } from '../locate.ts';
 import { VERSION } from '../version.ts';
+import { termName } from './term-names.ts';
 
 /** The appended terms, in output order. Every one is a Darwin Core term (TDWG, dwc terms list). */
 export const GEOREFERENCE_TERMS = [
@@ -103,9 +104,12 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
   };
 }
 
-/** Output column names for an input header: `proposed_<term>` where the record already has the term. */
+/**
+ * Output column names for an input header: `proposed_<term>` where the record already has the term
+ * (by name or by its full URI).
+ */
 export function appendedColumnNames(inputHeader: readonly string[]): string[] {
-  const present = new Set(inputHeader);
+  const present = new Set(inputHeader.map(termName));
   return GEOREFERENCE_TERMS.map((term) => (present.has(term) ? `proposed_${term}` : term));
 }
 

@@ -1,0 +1,191 @@
+/**
+ * A batch over a Darwin Core Archive: the occurrence core is read as the metafile describes it and
+ * georeferenced as any batch file is (a resumable job); the result is a new archive holding every
+ * original file byte for byte, the core with the appended columns, a metafile describing them, and the
+ * EML metadata with a method step naming whereabouts, its version and the gazetteer sources.
+ */
+import { createHash } from 'node:crypto';
+import { closeSync, createReadStream, existsSync, openSync, readFileSync, readSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
+import { pipeline } from 'node:stream/promises';
+import { appendedColumnNames } from '../../record/darwin-core.ts';
+import { DWC_NAMESPACE } from '../../record/term-names.ts';
+import { loadJob, openJobs } from '../../store/jobs.ts';
+import { jobsDatabasePath } from '../../store/side-files.ts';
+import { COORDINATE_FLAGS_COLUMN } from '../coordinate-check.ts';
+import { startBatchJob, type BatchJobOptions, type BatchSummary } from '../run.ts';
+import { writeCoreTable } from './core-table.ts';
+import { minimalEml, withMethodStep } from './eml-method-step.ts';
+import { formatMetaXml, OCCURRENCE_ROW_TYPE, parseMetaXml, type MetaArchive, type MetaField } from './meta-xml.ts';
+import { isZipFile, openZip, writeZip, type ZipReader, type ZipSource } from './zip.ts';
+
+/**
+ * Namespace of the columns whereabouts adds that are not Darwin Core terms themselves [CHOICE]: a
+ * `proposed_<term>` column holds a proposal beside the record's own value of the term, so describing it
+ * as the term would make two columns claim one term. The `.invalid` domain (RFC 2606) never resolves:
+ * these are whereabouts' names, not published terms.
+ */
+export const PROPOSAL_NAMESPACE = 'http://whereabouts.invalid/terms/';
+
+/** What the job keeps beside its core table, so that a job resumed by id still ends in an archive. */
+interface ArchiveManifest {
+  archivePath: string;
+  outputPath: string;
+  /** The core table the job reads, removed once the archive is written. */
+  tablePath: string;
+}
+
+export interface ArchiveSummary extends BatchSummary {
+  /** Set when the input was a Darwin Core Archive: its core's path inside the archive. */
+  archiveCore?: string;
+}
+
+/**
+ * Start (or resume) a batch over a CSV or tab-separated file or a Darwin Core Archive (a zip with a
+ * meta.xml). A zip without meta.xml is refused with a clear error.
+ * @example const { jobId, done } = await startBatch({ dbPath, input: 'dwca.zip', output: 'dwca-georeferenced.zip' });
+ */
+export async function startBatch(options: BatchJobOptions): Promise<{ jobId: string; done: Promise<ArchiveSummary> }> {
+  const input = options.input;
+  if (options.resume || typeof input !== 'string' || input === '-' || !existsSync(input) || !isZipFile(input)) {
+    const { jobId, done } = await startBatchJob(options);
+    return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
+  }
+  const archivePath = resolve(input);
+  const outputPath = !options.output || options.output === '-' ? '-' : resolve(options.output);
+  if (outputPath === archivePath) throw new Error(`the output ${outputPath} would replace the input`);
+  const zip = await openZip(archivePath);
+  try {
+    const { meta, metaDir } = await readMeta(zip, archivePath);
+    if (meta.core.rowType !== OCCURRENCE_ROW_TYPE) {
+      throw new Error(`the archive's core holds ${meta.core.rowType} rows; whereabouts georeferences an occurrence core (rowType ${OCCURRENCE_ROW_TYPE})`);
+    }
+    // Paths named by the archive's hash, so the same command run again finds the same job and resumes it.
+    const key = (await sha256(archivePath)).slice(0, 16);
+    const work = dirname(options.jobsDbPath ?? jobsDatabasePath(options.dbPath));
+    const table = join(work, `whereabouts-archive-${key}.core.txt`);
+    const coreOut = outputPath === '-' ? join(work, `whereabouts-archive-${key}.out.txt`) : `${outputPath}.${key}.core.txt`;
+    await writeCoreTable(zip, metaDir, meta.core, table);
+    const manifest: ArchiveManifest = { archivePath, outputPath, tablePath: table };
+    writeFileSync(`${coreOut}.archive.json`, JSON.stringify(manifest));
+    const { jobId, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
+    return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
+  } finally {
+    zip.close();
+  }
+}
+
+async function sha256(path: string): Promise<string> {
+  const hash = createHash('sha256');
+  for await (const chunk of createReadStream(path)) hash.update(chunk as Buffer);
+  return hash.digest('hex');
+}
+
+/** The metafile: `meta.xml` at the top of the archive or in its one folder. */
+async function readMeta(zip: ZipReader, archivePath: string): Promise<{ meta: MetaArchive; metaDir: string }> {
+  const metaEntry = zip.entries.map((e) => e.name).filter((n) => n === 'meta.xml' || n.endsWith('/meta.xml')).sort((a, b) => a.length - b.length)[0];
+  if (!metaEntry) {
+    throw new Error(`${archivePath} is a zip archive without a meta.xml, so it is not a Darwin Core Archive; unzip it and give whereabouts the CSV or tab-separated file inside`);
+  }
+  return { meta: parseMetaXml((await zip.read(metaEntry)).toString('utf8')), metaDir: metaEntry.slice(0, -'meta.xml'.length) };
+}
+
+/**
+ * After a job over an archive's core: the new archive, from the finished core table and the original
+ * archive; a summary naming it. A job over a plain file is passed through unchanged.
+ */
+async function finishArchive(summary: BatchSummary, options: BatchJobOptions): Promise<ArchiveSummary> {
+  const manifestPath = `${summary.outputPath}.archive.json`;
+  if (summary.outputPath === '-' || !existsSync(manifestPath)) return summary;
+  const manifest = JSON.parse(readFileSync(manifestPath, 'utf8')) as ArchiveManifest;
+  const zip = await openZip(manifest.archivePath);
+  const target = manifest.outputPath === '-' ? `${summary.outputPath}.zip` : `${manifest.outputPath}.partial`;
+  let core: string;
+  try {
+    const { meta, metaDir } = await readMeta(zip, manifest.archivePath);
+    core = metaDir + meta.core.locations[0].replace(/^\.\//, '');
+    const header = coreHeader(summary.outputPath);
+    const modified = new Date(summary.runTimestamp);
+    const metadataName = meta.metadata ?? ['eml.xml', 'metadata.xml'].find((n) => zip.entries.some((e) => e.name === metaDir + n)) ?? 'eml.xml';
+    const emlPath = metaDir + metadataName;
+    const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
+    const method = methodStep(summary, jobsPath);
+    const newMeta = Buffer.from(formatMetaXml(describeCore(meta, header, metadataName)), 'utf8');
+    const eml = zip.entries.some((e) => e.name === emlPath) ? withMethodStep(await zip.read(emlPath), method) : minimalEml(`Occurrences of ${basename(core)}, georeferenced by whereabouts`, method);
+    const entries = zip.entries.map((e): { name: string; modified: Date; source: ZipSource } => {
+      if (e.name === core) return { name: e.name, modified, source: { file: summary.outputPath } };
+      if (e.name === metaDir + 'meta.xml') return { name: e.name, modified, source: { buffer: newMeta } };
+      if (e.name === emlPath) return { name: e.name, modified, source: { buffer: eml } };
+      return { name: e.name, modified: e.modified, source: { stream: () => zip.open(e.name) } };
+    });
+    if (!zip.entries.some((e) => e.name === emlPath)) {
+      entries.push({ name: emlPath, modified, source: { buffer: eml } });
+    }
+    await writeZip(target, entries);
+  } finally {
+    zip.close();
+  }
+  if (manifest.outputPath === '-') {
+    await pipeline(createReadStream(target), options.stdout ?? process.stdout, { end: false });
+    rmSync(target, { force: true });
+  } else renameSync(target, manifest.outputPath);
+  rmSync(summary.outputPath, { force: true });
+  rmSync(manifest.tablePath, { force: true });
+  rmSync(manifestPath, { force: true });
+  return { ...summary, outputPath: manifest.outputPath, archiveCore: core };
+}
+
+/** The finished core's header line (the batch writes UTF-8, tab-separated, RFC 4180 quoting). */
+function coreHeader(path: string): string[] {
+  const fd = openSync(path, 'r');
+  const head = Buffer.alloc(1 << 20);
+  const n = readSync(fd, head, 0, head.length, 0);
+  closeSync(fd);
+  const text = head.subarray(0, n).toString('utf8');
+  const line = text.slice(0, text.indexOf('\r\n'));
+  return line.split('\t').map((f) => (f.startsWith('"') ? f.slice(1, -1).replace(/""/g, '"') : f));
+}
+
+/**
+ * The metafile of the new archive: the core as the batch writes it (UTF-8, tab, CRLF, fields enclosed
+ * in '"' where needed, one header line), each original field at its index, each constant field at the
+ * column it now fills (its default kept), and the appended columns after them: a Darwin Core term the
+ * core did not have under its term URI, a proposal beside the core's own value and the coordinate flags
+ * under PROPOSAL_NAMESPACE. Extensions are described as they were.
+ */
+export function describeCore(meta: MetaArchive, header: readonly string[], metadata: string): MetaArchive {
+  const appended = [...appendedColumnNames([]), COORDINATE_FLAGS_COLUMN].length;
+  const firstAppended = header.length - appended;
+  const fields: MetaField[] = [];
+  let constant = 0;
+  const indexed = meta.core.fields.filter((f) => f.index !== undefined);
+  const constants = meta.core.fields.filter((f) => f.index === undefined);
+  fields.push(...indexed);
+  const constantsStart = firstAppended - constants.length;
+  for (const f of constants) fields.push({ ...f, index: constantsStart + constant++ });
+  header.slice(firstAppended).forEach((name, k) => {
+    const term = name.startsWith('proposed_') || name === COORDINATE_FLAGS_COLUMN ? PROPOSAL_NAMESPACE + name : DWC_NAMESPACE + name;
+    fields.push({ index: firstAppended + k, term });
+  });
+  return {
+    metadata,
+    core: { ...meta.core, encoding: 'UTF-8', fieldsTerminatedBy: '\t', linesTerminatedBy: '\r\n', fieldsEnclosedBy: '"', ignoreHeaderLines: 1, fields },
+    extensions: meta.extensions,
+  };
+}
+
+/** The EML method step: who, which version and method, which sources (citation and sha256). */
+function methodStep(summary: BatchSummary, jobsPath: string): string[] {
+  const jobs = openJobs(jobsPath);
+  try {
+    const job = loadJob(jobs, summary.jobId);
+    const sources = job.sources.map((s) => `${s.citation}${s.licence ? ` (${s.licence})` : ''}, sha256 ${s.contentHash}`);
+    return [
+      `Georeferences proposed by whereabouts ${job.version} on ${job.runTimestamp} by the point-radius method (Wieczorek, Guo & Hijmans 2004; Chapman & Wieczorek 2020, Georeferencing Best Practices) for the ${summary.rows} rows of the occurrence core; each row's georeferenceVerificationStatus and georeferenceRemarks say how it came out. Where a record already had a term, its value is unchanged and the proposal is in the column proposed_<term>.`,
+      `Gazetteer sources: ${sources.join('; ') || 'none'}.`,
+      'A georeference is an estimate, to be verified by a person; precise localities of sensitive taxa may need generalising under the holder\'s policy and local law.',
+    ];
+  } finally {
+    jobs.close();
+  }
+}
