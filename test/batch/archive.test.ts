@@ -170,6 +170,8 @@ describe('batch over a Darwin Core Archive', () => {
   });
 
   it('returns every core row once, in order, its values unchanged (decoded from Windows-1252), each with a status', () => {
+    // A column meta.xml does not describe keeps its name from the header line (guide §2.2 ignoreHeaderLines).
+    expect((parse(entry('occurrence.txt'), { delimiter: '\t', to_line: 1 }) as string[][])[0][5]).toBe('note');
     const rows = parse(entry('occurrence.txt'), { delimiter: '\t', record_delimiter: '\r\n', quote: '"' }) as string[][];
     const [header, ...body] = rows;
     expect(body).toHaveLength(coreRows.length);

@@ -25,16 +25,17 @@ export interface CoreTable {
 /**
  * A column's name: the term's name for a Darwin Core or Dublin Core term (so the batch finds
  * `locality`, `countryCode`, …), the full URI for a term of another namespace, `id` for an identifier
- * column no field names, and `column<N>` for a column the metafile does not describe. A name already
- * taken keeps the term's full URI.
- * @example columnNames(core) // ['occurrenceID', 'locality', 'countryCode', 'column3']
+ * column no field names, and for a column the metafile does not describe, its name in the file's header
+ * line (when there is one) or `column<N>`. A name already taken keeps the term's full URI.
+ * @example columnNames(core, 4, ['id', 'loc', 'cc', 'note']) // ['occurrenceID', 'locality', 'countryCode', 'note']
  */
-export function columnNames(core: MetaTable, width: number): string[] {
+export function columnNames(core: MetaTable, width: number, headerLine: readonly string[] = []): string[] {
   const names: string[] = [];
   const taken = new Set<string>();
   for (let i = 0; i < width; i++) {
     const field = core.fields.find((f) => f.index === i);
-    let name = field ? (isKnownTerm(field.term) ? termName(field.term) : field.term) : i === core.idIndex ? 'id' : `column${i}`;
+    const written = headerLine[i]?.trim();
+    let name = field ? (isKnownTerm(field.term) ? termName(field.term) : field.term) : i === core.idIndex ? 'id' : written || `column${i}`;
     if (taken.has(name)) name = field ? field.term : `column${i}`;
     taken.add(name);
     names.push(name);
@@ -88,7 +89,7 @@ export async function writeCoreTable(zip: ZipReader, metaDir: string, core: Meta
   let rows = 0;
   const start = async (first: string[]) => {
     width = Math.max(described, first.length);
-    const names = columnNames(core, width);
+    const names = columnNames(core, width, core.ignoreHeaderLines > 0 ? first : []);
     constants = core.fields.filter((f) => f.index === undefined).map((field, k) => ({ field, index: width + k }));
     header = [...names, ...constants.map(({ field }) => (isKnownTerm(field.term) && !names.includes(termName(field.term)) ? termName(field.term) : field.term))];
     await write(csvLine(header, '\t') + '\r\n');
