@@ -9,26 +9,13 @@ import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
-import yauzl from 'yauzl';
 import yazl from 'yazl';
 import { jobsDatabasePath } from '../../src/store/side-files.ts';
-import { fixtureGazetteer, killWhen, progress } from './helpers.ts';
+import { fixtureGazetteer, killWhen, progress, unzip } from './helpers.ts';
 
 const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
 const DWC = 'http://rs.tdwg.org/dwc/terms/';
 const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
-
-async function unzip(path: string): Promise<Map<string, string>> {
-  const zip = await yauzl.openPromise(path, { lazyEntries: true, autoClose: false });
-  const out = new Map<string, string>();
-  for await (const entry of zip.eachEntry()) {
-    const chunks: Buffer[] = [];
-    for await (const c of await zip.openReadStreamPromise(entry)) chunks.push(c as Buffer);
-    out.set(entry.fileName, Buffer.concat(chunks).toString('utf8'));
-  }
-  zip.close();
-  return out;
-}
 
 /** 4,000 invented occurrences (Darwin Core text guide §2.2: a comma-separated, quoted core with one header line). */
 async function writeArchive(path: string): Promise<void> {
@@ -66,7 +53,8 @@ describe('an archive batch killed part way', { timeout: 180_000 }, () => {
     expect(resumed.status, resumed.stderr).toBe(0);
     expect(resumed.stderr).toContain('Darwin Core Archive');
 
-    const [a, b] = [await unzip(reference), await unzip(output)];
+    const asText = async (path: string) => new Map((await unzip(path)).map((e) => [e.name, e.bytes.toString('utf8')]));
+    const [a, b] = [await asText(reference), await asText(output)];
     expect([...b.keys()]).toEqual(['meta.xml', 'occurrence.csv', 'eml.xml']);
     for (const name of a.keys()) expect(b.get(name)!.replaceAll(job.run_timestamp, '<run>')).toBe(a.get(name)!.replaceAll(referenceTimestamp, '<run>'));
     const ids = b.get('occurrence.csv')!.split('\r\n').slice(1, -1).map((line) => line.split('\t')[0]);

@@ -15,8 +15,8 @@ import { parse } from 'csv-parse/sync';
 import iconv from 'iconv-lite';
 import { SaxesParser } from 'saxes';
 import { beforeAll, describe, expect, it } from 'vitest';
-import yauzl from 'yauzl';
 import yazl from 'yazl';
+import { unzip } from './helpers.ts';
 
 const run = promisify(execFile);
 const root = new URL('../..', import.meta.url).pathname;
@@ -26,19 +26,6 @@ const db = join(dir, 'demo.sqlite');
 
 function whereabouts(...args: string[]) {
   return run(process.execPath, [cli, '--db', db, ...args], { cwd: root, maxBuffer: 64 << 20 });
-}
-
-/** Every entry of a zip, in stored order, with its bytes (yauzl). */
-async function unzip(path: string): Promise<{ name: string; bytes: Buffer }[]> {
-  const zip = await yauzl.openPromise(path, { lazyEntries: true, autoClose: false });
-  const out: { name: string; bytes: Buffer }[] = [];
-  for await (const entry of zip.eachEntry()) {
-    const chunks: Buffer[] = [];
-    for await (const c of await zip.openReadStreamPromise(entry)) chunks.push(c as Buffer);
-    out.push({ name: entry.fileName, bytes: Buffer.concat(chunks) });
-  }
-  zip.close();
-  return out;
 }
 
 async function zipFiles(path: string, files: [string, Buffer][]): Promise<void> {

@@ -4,6 +4,7 @@ import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
+import yauzl from 'yauzl';
 import { parse } from 'csv-parse/sync';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
@@ -53,4 +54,17 @@ export async function killWhen(args: string[], env: NodeJS.ProcessEnv, jobsPath:
   }
   child.kill('SIGKILL');
   await exited;
+}
+
+/** Every entry of a zip archive, in stored order, with its bytes (read with yauzl, not with the code under test). */
+export async function unzip(path: string): Promise<{ name: string; bytes: Buffer }[]> {
+  const zip = await yauzl.openPromise(path, { lazyEntries: true, autoClose: false });
+  const out: { name: string; bytes: Buffer }[] = [];
+  for await (const entry of zip.eachEntry()) {
+    const chunks: Buffer[] = [];
+    for await (const c of await zip.openReadStreamPromise(entry)) chunks.push(c as Buffer);
+    out.push({ name: entry.fileName, bytes: Buffer.concat(chunks) });
+  }
+  zip.close();
+  return out;
 }
