@@ -175,6 +175,22 @@ describe('batch over a Darwin Core Archive', () => {
   });
 });
 
+describe('an archive whose files sit in one folder, its meta.xml with a byte order mark', () => {
+  it('is read from that folder (guide §2.3: locations relative to the metafile) and written back the same way', async () => {
+    const nested = join(dir, 'nested.zip');
+    const out = join(dir, 'nested-out.zip');
+    const bom = Buffer.from([0xef, 0xbb, 0xbf]);
+    await zipFiles(nested, [['dwca/meta.xml', Buffer.concat([bom, Buffer.from(metaXml)])], ['dwca/occurrence.txt', coreBytes], ['dwca/multimedia.txt', multimedia]]);
+    await whereabouts('batch', nested, '--out', out, '--quiet');
+    const files = await unzip(out);
+    expect(files.map((f) => f.name)).toEqual(['dwca/meta.xml', 'dwca/occurrence.txt', 'dwca/multimedia.txt', 'dwca/eml.xml']);
+    const rows = parse(files[1].bytes, { delimiter: '\t', record_delimiter: '\r\n' }) as string[][];
+    expect(rows).toHaveLength(coreRows.length + 1);
+    // No metadata in the archive: a minimal EML document holding the method step (EML 2.2.0).
+    expect(elements(files[3].bytes.toString('utf8')).filter((e) => e.name === 'methodStep')).toHaveLength(1);
+  });
+});
+
 describe('archive input errors', () => {
   it('a zip without meta.xml is refused with a message saying why, exit 1', async () => {
     const plainZip = join(dir, 'plain.zip');

@@ -87,7 +87,7 @@ async function readMeta(zip: ZipReader, archivePath: string): Promise<{ meta: Me
   if (!metaEntry) {
     throw new Error(`${archivePath} is a zip archive without a meta.xml, so it is not a Darwin Core Archive; unzip it and give whereabouts the CSV or tab-separated file inside`);
   }
-  return { meta: parseMetaXml((await zip.read(metaEntry)).toString('utf8')), metaDir: metaEntry.slice(0, -'meta.xml'.length) };
+  return { meta: parseMetaXml((await zip.read(metaEntry)).toString('utf8').replace(/^\uFEFF/, '')), metaDir: metaEntry.slice(0, -'meta.xml'.length) };
 }
 
 /**
