@@ -58,8 +58,8 @@ const DWC = 'http://rs.tdwg.org/dwc/terms/';
 // guide §2.2: a tab-separated core with no enclosing character, CRLF line ends, one header line, in
 // Windows-1252; guide §2.4: a field with a default and no index is a constant for every row, and a
 // column the metafile does not describe (index 5, "note") is allowed.
-const coreHeader = ['id', 'catalogNumber', 'scientificName', 'locality', 'decimalLatitude', 'note'];
-const coreRows = demo.map((r, i) => [r.occurrenceID, r.catalogNumber, r.scientificName, r.locality, i === 0 ? '-45.1' : '', `note ${i}`]);
+const coreHeader = ['id', 'catalogNumber', 'scientificName', 'locality', 'decimalLatitude', 'note', 'stateProvince'];
+const coreRows = demo.map((r, i) => [r.occurrenceID, r.catalogNumber, r.scientificName, r.locality, i === 0 ? '-45.1' : '', `note ${i}`, r.stateProvince]);
 const coreBytes = iconv.encode([coreHeader, ...coreRows].map((r) => r.join('\t')).join('\r\n') + '\r\n', 'windows-1252');
 const metaXml = `<?xml version="1.0" encoding="UTF-8"?>
 <archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml">
@@ -71,6 +71,7 @@ const metaXml = `<?xml version="1.0" encoding="UTF-8"?>
     <field index="2" term="${DWC}scientificName"/>
     <field index="3" term="${DWC}locality"/>
     <field index="4" term="${DWC}decimalLatitude"/>
+    <field index="6" term="${DWC}stateProvince" default="Poniente"/>
     <field term="${DWC}countryCode" default="QV"/>
   </core>
   <extension encoding="UTF-8" fieldsTerminatedBy="," linesTerminatedBy="\\n" fieldsEnclosedBy='"' ignoreHeaderLines="1" rowType="http://rs.gbif.org/terms/1.0/Multimedia">
@@ -164,11 +165,14 @@ describe('batch over a Darwin Core Archive', () => {
     expect(body).toHaveLength(coreRows.length);
     const status = header.indexOf('georeferenceVerificationStatus');
     body.forEach((row, i) => {
-      expect(row.slice(0, coreHeader.length)).toEqual(coreRows[i]);
+      // guide §2.4 default: an empty stateProvince is the field's default, and is written as it.
+      const expected = coreRows[i].map((v, k) => (k === 6 && v === '' ? 'Poniente' : v));
+      expect(row.slice(0, coreHeader.length)).toEqual(expected);
       expect(row[header.indexOf('countryCode')]).toBe('QV');
       expect(['requires verification', 'requires georeference', 'unable to georeference']).toContain(row[status]);
     });
     expect(body.some((r) => r[3] === 'junction of Río Claro and Arroyo Negro')).toBe(true);
+    expect(coreRows.some((r) => r[6] === 'Serra Alta') && body.some((r) => r[6] === 'Serra Alta')).toBe(true);
     // The record that had decimalLatitude keeps it; the proposal stands beside it.
     expect(body[0][header.indexOf('decimalLatitude')]).toBe('-45.1');
     expect(body[0][header.indexOf('proposed_decimalLatitude')]).toMatch(/^-4\d\.\d+$/);

@@ -55,7 +55,8 @@ function codec(encoding: string): string {
 
 /**
  * Write the core of the archive to `path` as a batch input table. Every row of the core is one row of
- * the table, in order, its values unchanged; the header lines the metafile says to ignore are left out.
+ * the table, in order, its values unchanged but for an empty value of a field with a default, which is
+ * written as the default; the header lines the metafile says to ignore are left out.
  * @example await writeCoreTable(zip, 'dwca/', meta.core, '/tmp/core.txt') // { header: [...], constants: [...], rows: 52 }
  */
 export async function writeCoreTable(zip: ZipReader, metaDir: string, core: MetaTable, path: string): Promise<CoreTable> {
@@ -87,6 +88,7 @@ export async function writeCoreTable(zip: ZipReader, metaDir: string, core: Meta
   let constants: CoreTable['constants'] = [];
   let records = 0;
   let rows = 0;
+  const defaults = core.fields.filter((f): f is MetaField & { index: number; default: string } => f.index !== undefined && f.default !== undefined);
   const start = async (first: string[]) => {
     width = Math.max(described, first.length);
     const names = columnNames(core, width, core.ignoreHeaderLines > 0 ? first : []);
@@ -99,6 +101,9 @@ export async function writeCoreTable(zip: ZipReader, metaDir: string, core: Meta
       if (!header) await start(record);
       if (++records <= core.ignoreHeaderLines) continue;
       rows++;
+      // An empty value of a field with a default is that default (guide §2.4 default), written out so the
+      // batch reads it; the metafile keeps the default, so the record means what it meant.
+      for (const { index, default: value } of defaults) if (index < record.length && record[index] === '') record[index] = value;
       // A row of the file's width gets the constants after it; a ragged row is kept as written, for the batch to report.
       const fields = record.length === width ? [...record, ...constants.map(({ field }) => field.default ?? '')] : record;
       await write(csvLine(fields, '\t') + '\r\n');
