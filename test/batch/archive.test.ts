@@ -60,6 +60,9 @@ const DWC = 'http://rs.tdwg.org/dwc/terms/';
 // column the metafile does not describe (index 5, "note") is allowed.
 const coreHeader = ['id', 'catalogNumber', 'scientificName', 'locality', 'decimalLatitude', 'note', 'stateProvince'];
 const coreRows = demo.map((r, i) => [r.occurrenceID, r.catalogNumber, r.scientificName, r.locality, i === 0 ? '-45.1' : '', `note ${i}`, r.stateProvince]);
+// One row cut short (three fields of seven): it must come back too, with a status saying why.
+const SHORT_ROW = 4;
+coreRows[SHORT_ROW] = coreRows[SHORT_ROW].slice(0, 3);
 const coreBytes = iconv.encode([coreHeader, ...coreRows].map((r) => r.join('\t')).join('\r\n') + '\r\n', 'windows-1252');
 const metaXml = `<?xml version="1.0" encoding="UTF-8"?>
 <archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml">
@@ -167,12 +170,15 @@ describe('batch over a Darwin Core Archive', () => {
     body.forEach((row, i) => {
       // guide §2.4 default: an empty stateProvince is the field's default, and is written as it.
       const expected = coreRows[i].map((v, k) => (k === 6 && v === '' ? 'Poniente' : v));
-      expect(row.slice(0, coreHeader.length)).toEqual(expected);
-      expect(row[header.indexOf('countryCode')]).toBe('QV');
+      expect(row.slice(0, expected.length)).toEqual(expected);
+      // The constant fills every whole row; the row cut short is kept as written (it is reported, not mended).
+      expect(row[header.indexOf('countryCode')]).toBe(i === SHORT_ROW ? '' : 'QV');
       expect(['requires verification', 'requires georeference', 'unable to georeference']).toContain(row[status]);
     });
     expect(body.some((r) => r[3] === 'junction of Río Claro and Arroyo Negro')).toBe(true);
     expect(coreRows.some((r) => r[6] === 'Serra Alta') && body.some((r) => r[6] === 'Serra Alta')).toBe(true);
+    expect(body[SHORT_ROW][status]).toBe('unable to georeference');
+    expect(body[SHORT_ROW][header.indexOf('georeferenceRemarks')]).toMatch(/the row has 3 fields where the header has 8/);
     // The record that had decimalLatitude keeps it; the proposal stands beside it.
     expect(body[0][header.indexOf('decimalLatitude')]).toBe('-45.1');
     expect(body[0][header.indexOf('proposed_decimalLatitude')]).toMatch(/^-4\d\.\d+$/);
