@@ -6,7 +6,7 @@
  * csv-parse: libraries independent of the code under test.
  */
 import { execFile } from 'node:child_process';
-import { createWriteStream, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { createWriteStream, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
@@ -216,6 +216,18 @@ describe('archive input errors', () => {
     const failed = await whereabouts('batch', taxa, '--out', join(dir, 'taxa-out.zip'), '--quiet').then(() => undefined, (e: { code: number; stderr: string }) => e);
     expect(failed?.code).toBe(1);
     expect(failed?.stderr).toContain(`${DWC}Taxon`);
+  });
+});
+
+describe('an archive whose core maps no locality term', () => {
+  it('is refused naming the columns it has, and leaves no file behind', async () => {
+    const noLocality = join(dir, 'no-locality.zip');
+    await zipFiles(noLocality, [['meta.xml', Buffer.from(metaXml.replace(`${DWC}locality"`, `${DWC}habitat"`))], ['occurrence.txt', coreBytes]]);
+    const before = readdirSync(dir).sort();
+    const failed = await whereabouts('batch', noLocality, '--out', join(dir, 'no-locality-out.zip'), '--quiet').then(() => undefined, (e: { code: number; stderr: string }) => e);
+    expect(failed?.code).toBe(1);
+    expect(failed?.stderr).toMatch(/no "locality" or "verbatimLocality" column.*"habitat"/);
+    expect(readdirSync(dir).sort()).toEqual(before);
   });
 });
 

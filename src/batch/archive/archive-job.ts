@@ -8,7 +8,7 @@ import { createHash } from 'node:crypto';
 import { closeSync, createReadStream, existsSync, openSync, readFileSync, readSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import { pipeline } from 'node:stream/promises';
-import { appendedColumnNames } from '../../record/darwin-core.ts';
+import { GEOREFERENCE_TERMS } from '../../record/darwin-core.ts';
 import { DWC_NAMESPACE } from '../../record/term-names.ts';
 import { loadJob, openJobs } from '../../store/jobs.ts';
 import { jobsDatabasePath } from '../../store/side-files.ts';
@@ -68,8 +68,15 @@ export async function startBatch(options: BatchJobOptions): Promise<{ jobId: str
     await writeCoreTable(zip, metaDir, meta.core, table);
     const manifest: ArchiveManifest = { archivePath, outputPath, tablePath: table };
     writeFileSync(`${coreOut}.archive.json`, JSON.stringify(manifest));
-    const { jobId, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
-    return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
+    try {
+      const { jobId, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
+      return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
+    } catch (error) {
+      // No job was stored (a core without a locality term, say): nothing is left behind.
+      rmSync(table, { force: true });
+      rmSync(`${coreOut}.archive.json`, { force: true });
+      throw error;
+    }
   } finally {
     zip.close();
   }
@@ -154,7 +161,7 @@ function coreHeader(path: string): string[] {
  * under PROPOSAL_NAMESPACE. Extensions are described as they were.
  */
 export function describeCore(meta: MetaArchive, header: readonly string[], metadata: string): MetaArchive {
-  const appended = [...appendedColumnNames([]), COORDINATE_FLAGS_COLUMN].length;
+  const appended = GEOREFERENCE_TERMS.length + 1; // and the coordinate flags
   const firstAppended = header.length - appended;
   const fields: MetaField[] = [];
   let constant = 0;
