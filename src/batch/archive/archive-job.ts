@@ -36,8 +36,8 @@ interface ArchiveManifest {
 }
 
 export interface ArchiveSummary extends BatchSummary {
-  /** Set when the input was a Darwin Core Archive: its core's path inside the archive. */
-  archiveCore?: string;
+  /** Set when the input was a Darwin Core Archive: its core's path inside the archive and its encoding as meta.xml gives it. */
+  archiveCore?: { path: string; encoding: string };
 }
 
 /**
@@ -108,9 +108,11 @@ async function finishArchive(summary: BatchSummary, options: BatchJobOptions): P
   const zip = await openZip(manifest.archivePath);
   const target = manifest.outputPath === '-' ? `${summary.outputPath}.zip` : `${manifest.outputPath}.partial`;
   let core: string;
+  let encoding: string;
   try {
     const { meta, metaDir } = await readMeta(zip, manifest.archivePath);
     core = metaDir + meta.core.locations[0].replace(/^\.\//, '');
+    encoding = meta.core.encoding;
     const header = coreHeader(summary.outputPath);
     const modified = new Date(summary.runTimestamp);
     const metadataName = meta.metadata ?? ['eml.xml', 'metadata.xml'].find((n) => zip.entries.some((e) => e.name === metaDir + n)) ?? 'eml.xml';
@@ -139,7 +141,7 @@ async function finishArchive(summary: BatchSummary, options: BatchJobOptions): P
   rmSync(summary.outputPath, { force: true });
   rmSync(manifest.tablePath, { force: true });
   rmSync(manifestPath, { force: true });
-  return { ...summary, outputPath: manifest.outputPath, archiveCore: core };
+  return { ...summary, outputPath: manifest.outputPath, archiveCore: { path: core, encoding } };
 }
 
 /** The finished core's header line (the batch writes UTF-8, tab-separated, RFC 4180 quoting). */

@@ -91,10 +91,10 @@ function progressBar() {
 function describe(s: ArchiveSummary): string {
   const statuses = Object.entries(s.byStatus).map(([status, n]) => `${n} ${status}`).join(', ');
   const lines = [
-    `whereabouts: ${s.rows} rows, ${s.distinctLocalities} distinct localities (${s.encoding}, delimiter ${JSON.stringify(s.delimiter)})${s.resumed ? ', job resumed' : ''}`,
+    `whereabouts: ${s.rows} rows, ${s.distinctLocalities} distinct localities (${s.archiveCore ? `the archive's core ${s.archiveCore.path}, ${s.archiveCore.encoding}` : `${s.encoding}, delimiter ${JSON.stringify(s.delimiter)}`})${s.resumed ? ', job resumed' : ''}`,
     `  ${statuses || 'no rows'}`,
     `  ${s.malformedRows} malformed rows, ${s.flaggedRows} rows with their coordinates flagged (column whereabouts_coordinateFlags)`,
-    ...(s.archiveCore ? [`  Darwin Core Archive: its core ${s.archiveCore} georeferenced, every other file copied unchanged, meta.xml and the EML method step updated`] : []),
+    ...(s.archiveCore ? ['  Darwin Core Archive: every other file copied unchanged; meta.xml describes the new columns; the EML metadata has a method step'] : []),
     `  output: ${s.outputPath === '-' ? 'standard output' : s.outputPath}`,
   ];
   return `${lines.join('\n')}\n`;
