@@ -6,6 +6,7 @@
  * BENCH_ROWS (a comma list, e.g. "200000,2000000" to show memory stays flat) runs in a child process of
  * its own, so that its peak RSS is its own. Prints rows/s, distinct localities/s and peak RSS against the
  * targets (≥ 5,000 rows/s, ≤ 500 MB). BENCH_TYPOS sets the share of names with a typing error (default 0.01).
+ * BENCH_PART="K/N" runs only part K of N (`batch --part`), the work of one cluster task.
  * Run: `npm run bench:batch` (BENCH_NAMES=100000 for a quick run).
  */
 import { spawnSync } from 'node:child_process';
@@ -16,6 +17,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { startBatchJob, type BatchProgressEvent } from '../src/batch/run.ts';
+import { parsePartSpec } from '../src/batch/partition.ts';
 import { importGazetteer } from '../src/store/import.ts';
 import { openGazetteer } from '../src/store/gazetteer-store.ts';
 
@@ -23,6 +25,7 @@ const NAMES = Number(process.env.BENCH_NAMES ?? 1_000_000);
 const DISTINCT = Number(process.env.BENCH_DISTINCT ?? 40_000);
 const THREADS = process.env.BENCH_THREADS ? Number(process.env.BENCH_THREADS) : undefined;
 const SIZES = (process.env.BENCH_ROWS ?? '200000').split(',').map(Number);
+const PART = process.env.BENCH_PART ? parsePartSpec(process.env.BENCH_PART) : undefined;
 
 /** Place i's name: i written in base 60 with a syllable a digit, so every name is unique and pronounceable. */
 const SYLLABLES = 'ba be bi bo bu ca ce ci co cu da de di do du fa fe fi fo fu ga ge gi go gu la le li lo lu ma me mi mo mu na ne ni no nu pa pe pi po pu ra re ri ro ru sa se si so su ta te ti to tu'.split(' ');
@@ -121,7 +124,10 @@ async function runSize(rows: number): Promise<void> {
     phaseEnds.set(event.phase, performance.now());
     rssByPhase.set(event.phase, Math.max(rssByPhase.get(event.phase) ?? 0, process.memoryUsage().rss / 2 ** 20));
   };
-  const { done } = await startBatchJob({ dbPath, input, output: join(dir, 'output.csv'), threads: THREADS, jobsDbPath: join(dir, 'jobs.sqlite'), onProgress });
+  const { done } = await startBatchJob({
+    dbPath, input, output: join(dir, 'output.csv'), threads: THREADS, jobsDbPath: join(dir, 'jobs.sqlite'), onProgress,
+    part: PART, runTimestamp: PART ? '2026-05-01T09:30:00Z' : undefined,
+  });
   const summary = await done;
   clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
@@ -131,7 +137,7 @@ async function runSize(rows: number): Promise<void> {
   const peakMB = process.resourceUsage().maxRSS / 1024;
   const outputMB = statSync(join(dir, 'output.csv')).size / 1e6;
   console.log(
-    `${rows.toLocaleString('en')} rows, ${summary.distinctLocalities.toLocaleString('en')} distinct localities, ${NAMES.toLocaleString('en')} names: ` +
+    `${PART ? `part ${PART.index}/${PART.count} of ` : ''}${rows.toLocaleString('en')} rows, ${summary.distinctLocalities.toLocaleString('en')} distinct localities, ${NAMES.toLocaleString('en')} names: ` +
       `${seconds.toFixed(1)} s, ${Math.round(rows / seconds).toLocaleString('en')} rows/s (target ≥ 5,000), ` +
       `${Math.round(summary.distinctLocalities / seconds).toLocaleString('en')} distinct localities/s, ` +
       `CPU ${cpuSeconds.toFixed(1)} s over all threads (${Math.round(rows / cpuSeconds).toLocaleString('en')} rows a CPU-second; machine load ${loadavg()[0].toFixed(1)}), ` +

@@ -29,6 +29,7 @@ import {
 import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
+import { checkRunTimestamp, partFileStart, partOfKey, partRowFrame, type PartMeta, type PartSpec } from './partition.ts';
 
 export interface BatchJobOptions {
   /** The gazetteer database (opened read-only). */
@@ -48,8 +49,18 @@ export interface BatchJobOptions {
    * writes the rows meanwhile (on 2 cores, 1 worker keeps both busy within the 500 MB memory target).
    */
   threads?: number;
-  /** Job database; default `jobsDatabasePath(dbPath)`. */
+  /** Job database; default `jobsDatabasePath(dbPath)`, or `<output>.jobs.sqlite` for a part. */
   jobsDbPath?: string;
+  /**
+   * Georeference only part K of N (cut by a hash of each row's locality key) and write a part file, for
+   * `mergeParts` to join with the others. Needs an output file and `runTimestamp`.
+   */
+  part?: PartSpec;
+  /**
+   * The run timestamp (georeferencedDate), UTC to the second as `2026-05-01T09:30:00Z`; default the
+   * job's start. Every part of one input needs the same one.
+   */
+  runTimestamp?: string;
   /** Called after each committed step. */
   onProgress?: (event: BatchProgressEvent) => void;
   /** Where output '-' goes (default process.stdout) and where input '-' comes from (default process.stdin). */
@@ -106,7 +117,8 @@ const RESULT_CACHE_SIZE = 2000;
  */
 export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: string; done: Promise<BatchSummary> }> {
   if (!existsSync(options.dbPath)) throw new Error(`no gazetteer database at ${options.dbPath}: import a gazetteer first (whereabouts import <file>)`);
-  const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
+  checkPartOptions(options);
+  const jobsPath = options.jobsDbPath ?? (options.part ? `${resolve(options.output!)}.jobs.sqlite` : jobsDatabasePath(options.dbPath));
   const jobs = openJobs(jobsPath);
   try {
     const { job, resumed, format } = options.resume ? await resumableJob(jobs, options) : await newOrUnfinishedJob(jobs, jobsPath, options);
@@ -125,6 +137,15 @@ export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: 
   }
 }
 
+function checkPartOptions(options: BatchJobOptions): void {
+  if (options.runTimestamp !== undefined) checkRunTimestamp(options.runTimestamp);
+  if (!options.part || options.resume) return;
+  if (!options.output || options.output === '-') throw new Error('a part (--part) needs an output file (--out), the part file the merge reads');
+  if (options.runTimestamp === undefined) {
+    throw new Error('a part (--part) needs --run-timestamp, the same for every part, so that all parts record one georeferencedDate');
+  }
+}
+
 interface StartedJob {
   job: BatchJob;
   resumed: boolean;
@@ -136,7 +157,11 @@ function settingsOf(options: BatchJobOptions): string {
   return JSON.stringify(settings);
 }
 
-function gazetteerSources(dbPath: string) {
+/**
+ * The sources of a gazetteer file and their content hashes, read read-only: what a job's results depend on.
+ * @example gazetteerSources('whereabouts.sqlite') // [{ id: 'demo', contentHash: '3f…', … }]
+ */
+export function gazetteerSources(dbPath: string) {
   const store = openGazetteer(dbPath, BATCH_STORE_OPTIONS);
   try {
     return store.sources();
@@ -169,8 +194,11 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     const format = await inspectInput(inputPath);
     const delimiter = options.delimiter ?? (await detectDelimiter(inputPath, format));
     await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
-    const like = { inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath) };
-    const unfinished = findUnfinishedJob(jobs, like);
+    const like = {
+      inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath),
+      partIndex: options.part?.index ?? null, partCount: options.part?.count ?? null,
+    };
+    const unfinished = findUnfinishedJob(jobs, like, options.runTimestamp);
     if (unfinished) {
       if (spooled) rmSync(inputPath, { force: true });
       return { job: unfinished, resumed: true, format };
@@ -179,7 +207,7 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     const job: BatchJob = {
       ...like, id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
       partialPath: outputPath === '-' ? join(dirname(jobsPath), `whereabouts-job-${id}.partial`) : `${outputPath}.${id}.partial`,
-      gazetteerPath: resolve(options.dbPath), runTimestamp: new Date().toISOString().replace(/\.\d+Z$/, 'Z'), rowsTotal: null, rowsDone: 0,
+      gazetteerPath: resolve(options.dbPath), runTimestamp: options.runTimestamp ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'), rowsTotal: null, rowsDone: 0,
       outputBytes: 0, distinctTotal: null, distinctDone: 0, tallies: {}, startedAt: new Date().toISOString(), finishedAt: null, error: null,
     };
     insertJob(jobs, job);
@@ -254,7 +282,9 @@ async function readGroups(jobs: Database.Database, job: BatchJob, format: InputF
       continue;
     }
     rows++;
-    if (!record.problem) pending.push(groupOf(record.fields, columns));
+    if (record.problem) continue;
+    const group = groupOf(record.fields, columns);
+    if (job.partCount === null || partOfKey(group.key, job.partCount) === job.partIndex) pending.push(group);
     if (pending.length >= 5000) {
       insertAll(pending);
       pending = [];
@@ -313,7 +343,11 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   }
 }
 
-/** Phase 3: every row written in input order after the rows already committed; the file grows only by whole chunks. */
+/**
+ * Phase 3: every row written in input order after the rows already committed; the file grows only by whole
+ * chunks. A part writes only its own rows, each framed with its row number (see partition.ts); its
+ * `rowsDone` counts the input rows passed, so that a resumed part starts after the same input row.
+ */
 async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions, ready: ResultSignal): Promise<void> {
   if (job.outputBytes > 0 && !existsSync(job.partialPath) && job.outputPath !== '-' && existsSync(job.outputPath)) return; // renamed before the crash
   const restart = job.outputBytes > 0 && !existsSync(job.partialPath);
@@ -337,9 +371,9 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
     let rowIndex = 0;
     let buffer: string[] = [];
     const flush = () => {
-      if (buffer.length === 0) return;
+      if (rowIndex === rowsDone) return;
       writeText(buffer.join(''));
-      rowsDone += buffer.length;
+      rowsDone = rowIndex;
       buffer = [];
       updateJob(jobs, job.id, { rowsDone, outputBytes: position, tallies });
     };
@@ -348,21 +382,26 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
         if (position === 0) {
-          writeText(csvLine([...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN], delimiter) + LINE_END);
+          const headerLine = csvLine([...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN], delimiter) + LINE_END;
+          writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
         continue;
       }
       if (++rowIndex <= rowsDone) continue;
       const key = record.problem ? undefined : groupOf(record.fields, columns).key;
-      let group = key === undefined ? undefined : results(key);
-      while (key !== undefined && !group) {
+      const inPart = job.partCount === null || partOfKey(key, job.partCount) === job.partIndex;
+      let group = key === undefined || !inPart ? undefined : results(key);
+      while (inPart && key !== undefined && !group) {
         if (ready.finished) throw new Error(`batch job ${job.id}: no result for the locality ${key}${ready.failed ? ` (${errorMessage(ready.failed)})` : ''}`);
         await ready.next();
         group = results(key);
       }
-      buffer.push(outputRow(record, headerLength, columns, context, group, tallies, delimiter));
-      if (buffer.length >= ROWS_PER_CHUNK) {
+      if (inPart) {
+        const line = outputRow(record, headerLength, columns, context, group, tallies, delimiter);
+        buffer.push(job.partCount === null ? line : partRowFrame(rowIndex, line));
+      }
+      if (rowIndex - rowsDone >= ROWS_PER_CHUNK) {
         flush();
         options.onProgress?.({ jobId: job.id, phase: 'writing', done: rowsDone, total: job.rowsTotal ?? undefined });
         await testDelay();
@@ -372,6 +411,14 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   } finally {
     closeSync(fd);
   }
+}
+
+/** What a part file says it was made from (its rows are known once the input has been read). */
+function partMeta(job: BatchJob): PartMeta {
+  return {
+    part: job.partIndex!, parts: job.partCount!, inputSha256: job.inputSha256, inputBytes: job.inputBytes, inputRows: job.rowsTotal ?? 0,
+    settings: job.settings, version: job.version, sources: job.sources, runTimestamp: job.runTimestamp, delimiter: job.delimiter, encoding: job.encoding,
+  };
 }
 
 /** Group results by key, from the job, the most recent kept in memory; undefined while not georeferenced yet. */

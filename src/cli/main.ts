@@ -5,6 +5,8 @@
 import { Command, CommanderError } from 'commander';
 import { VERSION } from '../version.ts';
 import { registerBatch } from './commands/batch.ts';
+import { registerClusterScript } from './commands/cluster-script.ts';
+import { registerMerge } from './commands/merge.ts';
 import { registerDoctor } from './commands/doctor.ts';
 import { registerGazetteer } from './commands/gazetteer.ts';
 import { registerImport } from './commands/import.ts';
@@ -26,6 +28,8 @@ registerImport(program, db);
 registerGazetteer(program, db);
 registerLocate(program, db);
 registerBatch(program, db);
+registerMerge(program, db);
+registerClusterScript(program, db);
 registerServe(program, db);
 registerDoctor(program, db);
 

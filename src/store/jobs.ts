@@ -29,6 +29,10 @@ export interface BatchJob {
   version: string;
   sources: Source[];
   runTimestamp: string;
+  /** For one part of a split input (`--part K/N`): K, counted from 0, and N; null for a whole input. */
+  partIndex: number | null;
+  partCount: number | null;
+  /** Rows of the input (for a part too: the part's rows are picked as the input is read). */
   rowsTotal: number | null;
   rowsDone: number;
   outputBytes: number;
@@ -62,7 +66,8 @@ CREATE TABLE IF NOT EXISTS batch_job (
   gazetteer_path TEXT NOT NULL, settings TEXT NOT NULL, version TEXT NOT NULL, sources TEXT NOT NULL,
   run_timestamp TEXT NOT NULL, rows_total INTEGER, rows_done INTEGER NOT NULL DEFAULT 0,
   output_bytes INTEGER NOT NULL DEFAULT 0, distinct_total INTEGER, distinct_done INTEGER NOT NULL DEFAULT 0,
-  tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT, runner_pid INTEGER
+  tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT, runner_pid INTEGER,
+  part_index INTEGER, part_count INTEGER
 );
 CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
@@ -77,9 +82,11 @@ export function openJobs(path: string): Database.Database {
   db.pragma('journal_mode = WAL');
   db.pragma('busy_timeout = 5000');
   db.exec(SCHEMA);
-  // Job files made before jobs recorded their runner lack the column; add it rather than refuse them.
+  // Job files made before jobs recorded their runner or their part lack those columns; add them rather than refuse the files.
   const columns = db.prepare("SELECT name FROM pragma_table_info('batch_job')").all() as { name: string }[];
-  if (!columns.some((c) => c.name === 'runner_pid')) db.exec('ALTER TABLE batch_job ADD COLUMN runner_pid INTEGER');
+  for (const column of ['runner_pid', 'part_index', 'part_count']) {
+    if (!columns.some((c) => c.name === column)) db.exec(`ALTER TABLE batch_job ADD COLUMN ${column} INTEGER`);
+  }
   return db;
 }
 
@@ -88,6 +95,7 @@ interface JobRow {
   encoding: string; delimiter: string; output_path: string; partial_path: string; gazetteer_path: string; settings: string;
   version: string; sources: string; run_timestamp: string; rows_total: number | null; rows_done: number; output_bytes: number;
   distinct_total: number | null; distinct_done: number; tallies: string; started_at: string; finished_at: string | null; error: string | null;
+  part_index: number | null; part_count: number | null;
 }
 
 function fromRow(row: JobRow): BatchJob {
@@ -95,7 +103,7 @@ function fromRow(row: JobRow): BatchJob {
     id: row.id, state: row.state, inputPath: row.input_path, inputIsSpool: row.input_is_spool === 1, inputSha256: row.input_sha256,
     inputBytes: row.input_bytes, encoding: row.encoding, delimiter: row.delimiter, outputPath: row.output_path,
     partialPath: row.partial_path, gazetteerPath: row.gazetteer_path, settings: row.settings, version: row.version,
-    sources: JSON.parse(row.sources) as Source[], runTimestamp: row.run_timestamp, rowsTotal: row.rows_total,
+    sources: JSON.parse(row.sources) as Source[], runTimestamp: row.run_timestamp, partIndex: row.part_index, partCount: row.part_count, rowsTotal: row.rows_total,
     rowsDone: row.rows_done, outputBytes: row.output_bytes, distinctTotal: row.distinct_total, distinctDone: row.distinct_done,
     tallies: JSON.parse(row.tallies) as Record<string, number>, startedAt: row.started_at, finishedAt: row.finished_at, error: row.error,
   };
@@ -127,12 +135,20 @@ export function loadJob(db: Database.Database, id: string): BatchJob {
   return fromRow(row);
 }
 
-/** The newest unfinished job for the same input, output, settings, version and sources: rerunning a command resumes it. */
-export function findUnfinishedJob(db: Database.Database, like: Pick<BatchJob, 'inputSha256' | 'outputPath' | 'settings' | 'version' | 'sources'>): BatchJob | undefined {
+/**
+ * The newest unfinished job for the same input, output, part, settings, version and sources (and run
+ * timestamp, when one is asked for): rerunning a command resumes it.
+ */
+export function findUnfinishedJob(
+  db: Database.Database,
+  like: Pick<BatchJob, 'inputSha256' | 'outputPath' | 'settings' | 'version' | 'sources' | 'partIndex' | 'partCount'>,
+  runTimestamp?: string,
+): BatchJob | undefined {
   const rows = db
-    .prepare("SELECT * FROM batch_job WHERE input_sha256 = ? AND output_path = ? AND settings = ? AND version = ? AND state != 'done' ORDER BY started_at DESC")
-    .all(like.inputSha256, like.outputPath, like.settings, like.version) as JobRow[];
-  return rows.map(fromRow).find((job) => sameSources(job.sources, like.sources));
+    .prepare(`SELECT * FROM batch_job WHERE input_sha256 = ? AND output_path = ? AND settings = ? AND version = ? AND state != 'done'
+      AND part_index IS ? AND part_count IS ? ORDER BY started_at DESC`)
+    .all(like.inputSha256, like.outputPath, like.settings, like.version, like.partIndex, like.partCount) as JobRow[];
+  return rows.map(fromRow).find((job) => sameSources(job.sources, like.sources) && (runTimestamp === undefined || job.runTimestamp === runTimestamp));
 }
 
 /** Sources are the same when every id has the same content hash. */
@@ -145,9 +161,9 @@ export function sameSources(a: Source[], b: Source[]): boolean {
 export function insertJob(db: Database.Database, job: BatchJob): void {
   db.prepare(
     `INSERT INTO batch_job (id, state, input_path, input_is_spool, input_sha256, input_bytes, encoding, delimiter, output_path,
-       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at)
+       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at, part_index, part_count)
      VALUES (@id, @state, @inputPath, @inputIsSpool, @inputSha256, @inputBytes, @encoding, @delimiter, @outputPath,
-       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt)`,
+       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt, @partIndex, @partCount)`,
   ).run({ ...job, inputIsSpool: job.inputIsSpool ? 1 : 0, sources: JSON.stringify(job.sources) });
 }
 

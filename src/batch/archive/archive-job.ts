@@ -51,6 +51,7 @@ export async function startBatch(options: BatchJobOptions): Promise<{ jobId: str
     const { jobId, done } = await startBatchJob(options);
     return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
   }
+  if (options.part) throw new Error('a Darwin Core Archive is georeferenced whole: --part cuts CSV and tab-separated files only');
   const archivePath = resolve(input);
   const outputPath = !options.output || options.output === '-' ? '-' : resolve(options.output);
   if (outputPath === archivePath) throw new Error(`the output ${outputPath} would replace the input`);

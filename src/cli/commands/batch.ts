@@ -2,6 +2,7 @@ import type { Command } from 'commander';
 import cliProgress from 'cli-progress';
 import { startBatch, type ArchiveSummary } from '../../batch/archive/archive-job.ts';
 import type { BatchProgressEvent } from '../../batch/run.ts';
+import { parsePartSpec } from '../../batch/partition.ts';
 
 interface BatchCommandOptions {
   out?: string;
@@ -10,6 +11,8 @@ interface BatchCommandOptions {
   threads?: number;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  part?: string;
+  runTimestamp?: string;
 }
 
 const PHASE_LABELS: Record<BatchProgressEvent['phase'], string> = {
@@ -33,6 +36,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")
+    .option('--part <K/N>', 'only part K (from 0) of N, cut by locality, written as a part file for `whereabouts merge` (needs --out and --run-timestamp; its job database is <out>.jobs.sqlite)')
+    .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
@@ -44,6 +49,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
         administrativeFallback: opts.administrativeFallback,
+        part: opts.part === undefined ? undefined : parsePartSpec(opts.part),
+        runTimestamp: opts.runTimestamp,
         onProgress: bar?.update,
       });
       if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n`);
