@@ -7,6 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { formatMetaXml, parseMetaXml } from '../../src/batch/archive/meta-xml.ts';
 import { withMethodStep } from '../../src/batch/archive/eml-method-step.ts';
+import { columnNames } from '../../src/batch/archive/core-table.ts';
 
 const DWC = 'http://rs.tdwg.org/dwc/terms/';
 
@@ -43,6 +44,13 @@ describe('parseMetaXml', () => {
   it('writes a metafile that reads back the same (round trip)', () => {
     const meta = parseMetaXml(`<archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml"><core encoding="UTF-8" fieldsTerminatedBy="\\t" linesTerminatedBy="\\r\\n" fieldsEnclosedBy='"' ignoreHeaderLines="1" rowType="${DWC}Occurrence"><files><location>a &amp; b.txt</location></files><id index="0"/><field index="0" term="${DWC}occurrenceID"/><field index="1" term="${DWC}countryCode" default="Q&quot;V"/></core></archive>`);
     expect(parseMetaXml(formatMetaXml(meta))).toEqual(meta);
+  });
+});
+
+describe('columnNames', () => {
+  it('names columns by their terms; an undescribed column by its header-line name unless the batch would read that name as a term (guide §2.4: meta.xml says what a column holds)', () => {
+    const core = parseMetaXml(`<archive xmlns="http://rs.tdwg.org/dwc/text/"><core rowType="${DWC}Occurrence"><files><location>o.txt</location></files><id index="0"/><field index="1" term="${DWC}locality"/><field index="2" term="http://example.org/terms/locality"/></core></archive>`).core;
+    expect(columnNames(core, 6, ['ID', 'where', 'other', 'note', 'decimalLatitude', ''])).toEqual(['id', 'locality', 'http://example.org/terms/locality', 'note', 'column4', 'column5']);
   });
 });
 

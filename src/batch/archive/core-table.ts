@@ -8,7 +8,9 @@ import { createWriteStream, renameSync } from 'node:fs';
 import { once } from 'node:events';
 import { parse } from 'csv-parse';
 import iconv from 'iconv-lite';
+import { GEOREFERENCE_TERMS } from '../../record/darwin-core.ts';
 import { termName } from '../../record/term-names.ts';
+import { LOCALITY_COLUMNS, REQUEST_COLUMNS } from '../locality-group.ts';
 import { csvLine } from '../rendered-group.ts';
 import type { MetaField, MetaTable } from './meta-xml.ts';
 import type { ZipReader } from './zip.ts';
@@ -26,7 +28,8 @@ export interface CoreTable {
  * A column's name: the term's name for a Darwin Core or Dublin Core term (so the batch finds
  * `locality`, `countryCode`, …), the full URI for a term of another namespace, `id` for an identifier
  * column no field names, and for a column the metafile does not describe, its name in the file's header
- * line (when there is one) or `column<N>`. A name already taken keeps the term's full URI.
+ * line (when there is one and it is not a term the batch reads) or `column<N>`. A name already taken
+ * keeps the term's full URI.
  * @example columnNames(core, 4, ['id', 'loc', 'cc', 'note']) // ['occurrenceID', 'locality', 'countryCode', 'note']
  */
 export function columnNames(core: MetaTable, width: number, headerLine: readonly string[] = []): string[] {
@@ -34,14 +37,19 @@ export function columnNames(core: MetaTable, width: number, headerLine: readonly
   const taken = new Set<string>();
   for (let i = 0; i < width; i++) {
     const field = core.fields.find((f) => f.index === i);
+    // A header-line name the batch would read as a term (locality, decimalLatitude, …) is not taken: only meta.xml says what a column holds.
     const written = headerLine[i]?.trim();
-    let name = field ? (isKnownTerm(field.term) ? termName(field.term) : field.term) : i === core.idIndex ? 'id' : written || `column${i}`;
+    const usable = written && !READ_AS_TERMS.has(termName(written)) ? written : undefined;
+    let name = field ? (isKnownTerm(field.term) ? termName(field.term) : field.term) : i === core.idIndex ? 'id' : usable ?? `column${i}`;
     if (taken.has(name)) name = field ? field.term : `column${i}`;
     taken.add(name);
     names.push(name);
   }
   return names;
 }
+
+/** Column names the batch reads or writes as Darwin Core terms. */
+const READ_AS_TERMS = new Set<string>([...LOCALITY_COLUMNS, ...REQUEST_COLUMNS, 'decimalLatitude', 'decimalLongitude', ...GEOREFERENCE_TERMS]);
 
 function isKnownTerm(term: string): boolean {
   return termName(term) !== term;
