@@ -5,8 +5,9 @@
  * eml-methods: the order of a dataset's and a methods element's children).
  */
 import { describe, expect, it } from 'vitest';
-import { formatMetaXml, parseMetaXml } from '../../src/batch/archive/meta-xml.ts';
-import { withMethodStep } from '../../src/batch/archive/eml-method-step.ts';
+import { parseMetaXml } from '../../src/batch/archive/meta-xml.ts';
+import { formatMetaXml } from '../../src/output/darwin-core-archive.ts';
+import { withMethodStep } from '../../src/output/eml-method-step.ts';
 import { columnNames } from '../../src/batch/archive/core-table.ts';
 
 const DWC = 'http://rs.tdwg.org/dwc/terms/';

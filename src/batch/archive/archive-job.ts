@@ -8,24 +8,14 @@ import { createHash } from 'node:crypto';
 import { closeSync, createReadStream, existsSync, openSync, readFileSync, readSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import { pipeline } from 'node:stream/promises';
-import { GEOREFERENCE_TERMS } from '../../record/darwin-core.ts';
-import { DWC_NAMESPACE } from '../../record/term-names.ts';
+import { describeCore, formatMetaXml, OCCURRENCE_ROW_TYPE, type MetaArchive } from '../../output/darwin-core-archive.ts';
+import { methodStepParagraphs, minimalEml, withMethodStep } from '../../output/eml-method-step.ts';
 import { loadJob, openJobs } from '../../store/jobs.ts';
 import { jobsDatabasePath } from '../../store/side-files.ts';
-import { COORDINATE_FLAGS_COLUMN } from '../coordinate-check.ts';
 import { startBatchJob, type BatchJobOptions, type BatchSummary } from '../run.ts';
 import { writeCoreTable } from './core-table.ts';
-import { minimalEml, withMethodStep } from './eml-method-step.ts';
-import { formatMetaXml, OCCURRENCE_ROW_TYPE, parseMetaXml, type MetaArchive, type MetaField } from './meta-xml.ts';
+import { parseMetaXml } from './meta-xml.ts';
 import { isZipFile, openZip, writeZip, type ZipReader, type ZipSource } from './zip.ts';
-
-/**
- * Namespace of the columns whereabouts adds that are not Darwin Core terms themselves [CHOICE]: a
- * `proposed_<term>` column holds a proposal beside the record's own value of the term, so describing it
- * as the term would make two columns claim one term. The `.invalid` domain (RFC 2606) never resolves:
- * these are whereabouts' names, not published terms.
- */
-export const PROPOSAL_NAMESPACE = 'http://whereabouts.invalid/terms/';
 
 /** What the job keeps beside its core table, so that a job resumed by id still ends in an archive. */
 interface ArchiveManifest {
@@ -156,45 +146,12 @@ function coreHeader(path: string): string[] {
   return line.split('\t').map((f) => (f.startsWith('"') ? f.slice(1, -1).replace(/""/g, '"') : f));
 }
 
-/**
- * The metafile of the new archive: the core as the batch writes it (UTF-8, tab, CRLF, fields enclosed
- * in '"' where needed, one header line), each original field at its index, each constant field at the
- * column it now fills (its default kept), and the appended columns after them: a Darwin Core term the
- * core did not have under its term URI, a proposal beside the core's own value and the coordinate flags
- * under PROPOSAL_NAMESPACE. Extensions are described as they were.
- */
-export function describeCore(meta: MetaArchive, header: readonly string[], metadata: string): MetaArchive {
-  const appended = GEOREFERENCE_TERMS.length + 1; // and the coordinate flags
-  const firstAppended = header.length - appended;
-  const fields: MetaField[] = [];
-  let constant = 0;
-  const indexed = meta.core.fields.filter((f) => f.index !== undefined);
-  const constants = meta.core.fields.filter((f) => f.index === undefined);
-  fields.push(...indexed);
-  const constantsStart = firstAppended - constants.length;
-  for (const f of constants) fields.push({ ...f, index: constantsStart + constant++ });
-  header.slice(firstAppended).forEach((name, k) => {
-    const term = name.startsWith('proposed_') || name === COORDINATE_FLAGS_COLUMN ? PROPOSAL_NAMESPACE + name : DWC_NAMESPACE + name;
-    fields.push({ index: firstAppended + k, term });
-  });
-  return {
-    metadata,
-    core: { ...meta.core, encoding: 'UTF-8', fieldsTerminatedBy: '\t', linesTerminatedBy: '\r\n', fieldsEnclosedBy: '"', ignoreHeaderLines: 1, fields },
-    extensions: meta.extensions,
-  };
-}
-
-/** The EML method step: who, which version and method, which sources (citation and sha256). */
+/** The EML method step of the job that georeferenced the core. */
 function methodStep(summary: BatchSummary, jobsPath: string): string[] {
   const jobs = openJobs(jobsPath);
   try {
     const job = loadJob(jobs, summary.jobId);
-    const sources = job.sources.map((s) => `${s.citation}${s.licence ? ` (${s.licence})` : ''}, sha256 ${s.contentHash}`);
-    return [
-      `Georeferences proposed by whereabouts ${job.version} on ${job.runTimestamp} by the point-radius method (Wieczorek, Guo & Hijmans 2004; Chapman & Wieczorek 2020, Georeferencing Best Practices) for the ${summary.rows} rows of the occurrence core; each row's georeferenceVerificationStatus and georeferenceRemarks say how it came out. Where a record already had a term, its value is unchanged and the proposal is in the column proposed_<term>.`,
-      `Gazetteer sources: ${sources.join('; ') || 'none'}.`,
-      'A georeference is an estimate, to be verified by a person; precise localities of sensitive taxa may need generalising under the holder\'s policy and local law.',
-    ];
+    return methodStepParagraphs({ version: job.version, runTimestamp: job.runTimestamp, rows: summary.rows, sources: job.sources });
   } finally {
     jobs.close();
   }

@@ -11,8 +11,8 @@ import iconv from 'iconv-lite';
 import { GEOREFERENCE_TERMS } from '../../record/darwin-core.ts';
 import { termName } from '../../record/term-names.ts';
 import { LOCALITY_COLUMNS, REQUEST_COLUMNS } from '../locality-group.ts';
-import { csvLine } from '../rendered-group.ts';
-import type { MetaField, MetaTable } from './meta-xml.ts';
+import type { MetaField, MetaTable } from '../../output/darwin-core-archive.ts';
+import { csvLine } from '../../output/csv.ts';
 import type { ZipReader } from './zip.ts';
 
 /** What the table holds beyond the core's own columns. */

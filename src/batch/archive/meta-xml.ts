@@ -1,46 +1,11 @@
 /**
- * The metafile of a Darwin Core Archive (meta.xml), read with the saxes XML parser and written back.
- * Element and attribute names, their defaults and the rules they follow are those of the Darwin Core
- * text guide (Darwin Core Maintenance Group 2023, TDWG, http://rs.tdwg.org/dwc/terms/guides/text/), cited
- * by section below.
+ * The metafile of a Darwin Core Archive (meta.xml), read with the saxes XML parser. Element and
+ * attribute names, their defaults and the rules they follow are those of the Darwin Core text guide
+ * (Darwin Core Maintenance Group 2023, TDWG, http://rs.tdwg.org/dwc/terms/guides/text/), cited by section
+ * below; the description it gives is written back by src/output/darwin-core-archive.ts.
  */
 import { SaxesParser, type SaxesTagNS } from 'saxes';
-
-/** One column (or, with no index, one constant value for every row) of a data file (§2.4). */
-export interface MetaField {
-  index?: number;
-  term: string;
-  default?: string;
-  vocabulary?: string;
-}
-
-/** A `<core>` or `<extension>` element: one data file and how to read it (§2.2, §2.3). */
-export interface MetaTable {
-  rowType: string;
-  /** File paths relative to the metafile (`<files><location>`). */
-  locations: string[];
-  /** Delimiters as characters (the metafile's `\t` already turned into a tab). */
-  fieldsTerminatedBy: string;
-  linesTerminatedBy: string;
-  /** '' when fields are not enclosed. */
-  fieldsEnclosedBy: string;
-  encoding: string;
-  ignoreHeaderLines: number;
-  dateFormat?: string;
-  /** Column of the record's identifier: `<id>` in the core, `<coreid>` in an extension. */
-  idIndex?: number;
-  fields: MetaField[];
-}
-
-export interface MetaArchive {
-  /** The `metadata` attribute of `<archive>` (§2.1), when given. */
-  metadata?: string;
-  core: MetaTable;
-  extensions: MetaTable[];
-}
-
-/** The occurrence row type (§2.2 rowType). */
-export const OCCURRENCE_ROW_TYPE = 'http://rs.tdwg.org/dwc/terms/Occurrence';
+import type { MetaArchive, MetaTable } from '../../output/darwin-core-archive.ts';
 
 /**
  * Read a metafile. Defaults follow §2.2: fieldsTerminatedBy ",", linesTerminatedBy "\n",
@@ -132,59 +97,4 @@ const ESCAPES: Record<string, string> = { t: '\t', n: '\n', r: '\r', '\\': '\\' 
 
 function unescape(value: string): string {
   return value.replace(/\\([tnr\\])/g, (_, c: string) => ESCAPES[c]);
-}
-
-function escapeAttribute(value: string): string {
-  return value.replace(/\\/g, '\\\\').replace(/\t/g, '\\t').replace(/\n/g, '\\n').replace(/\r/g, '\\r');
-}
-
-/** Text or an attribute value with XML's special characters escaped. */
-export function xmlText(value: string): string {
-  return value.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
-
-/**
- * A metafile for an archive description, in the layout of the text guide's own examples (§1.1, §3.1):
- * delimiters written as `\t`, `\n`, `\r` escapes.
- * @example formatMetaXml({ core: { rowType: OCCURRENCE_ROW_TYPE, locations: ['occurrence.txt'], … }, extensions: [] })
- */
-export function formatMetaXml(archive: MetaArchive): string {
-  const table = (element: 'core' | 'extension', t: MetaTable) => {
-    const attrs = [
-      ['encoding', t.encoding],
-      ['fieldsTerminatedBy', escapeAttribute(t.fieldsTerminatedBy)],
-      ['linesTerminatedBy', escapeAttribute(t.linesTerminatedBy)],
-      ['fieldsEnclosedBy', escapeAttribute(t.fieldsEnclosedBy)],
-      ['ignoreHeaderLines', String(t.ignoreHeaderLines)],
-      ['rowType', t.rowType],
-      ...(t.dateFormat ? [['dateFormat', t.dateFormat]] : []),
-    ].map(([k, v]) => `${k}="${xmlText(v)}"`).join(' ');
-    const id = t.idIndex === undefined ? [] : [`    <${element === 'core' ? 'id' : 'coreid'} index="${t.idIndex}"/>`];
-    const fields = t.fields.map((f) => {
-      const parts = [
-        ...(f.index !== undefined ? [`index="${f.index}"`] : []),
-        `term="${xmlText(f.term)}"`,
-        ...(f.default !== undefined ? [`default="${xmlText(f.default)}"`] : []),
-        ...(f.vocabulary !== undefined ? [`vocabulary="${xmlText(f.vocabulary)}"`] : []),
-      ];
-      return `    <field ${parts.join(' ')}/>`;
-    });
-    return [
-      `  <${element} ${attrs}>`,
-      '    <files>',
-      ...t.locations.map((l) => `      <location>${xmlText(l)}</location>`),
-      '    </files>',
-      ...id,
-      ...fields,
-      `  </${element}>`,
-    ].join('\n');
-  };
-  return [
-    '<?xml version="1.0" encoding="UTF-8"?>',
-    `<archive xmlns="http://rs.tdwg.org/dwc/text/"${archive.metadata ? ` metadata="${xmlText(archive.metadata)}"` : ''}>`,
-    table('core', archive.core),
-    ...archive.extensions.map((e) => table('extension', e)),
-    '</archive>',
-    '',
-  ].join('\n');
 }

@@ -6,7 +6,8 @@
  */
 import iconv from 'iconv-lite';
 import { SaxesParser } from 'saxes';
-import { xmlText } from './meta-xml.ts';
+import type { Source } from '../match/types.ts';
+import { xmlText } from './darwin-core-archive.ts';
 
 /** Children of `dataset` that come after `methods` in the EML 2.2.0 schema. */
 const AFTER_METHODS = new Set(['project', 'dataTable', 'spatialRaster', 'spatialVector', 'storedProcedure', 'view', 'otherEntity', 'referencePublication', 'usageCitation', 'literatureCited', 'annotation']);
@@ -86,4 +87,19 @@ function insertionPoint(text: string, step: string): Insertion {
   }
   if (!found) throw new Error('eml.xml has no <dataset> element, so it has no place for a method step (EML 2.2.0 eml-dataset)');
   return found;
+}
+
+/**
+ * The words of the method step: who proposed the georeferences, with which version and method, when,
+ * for how many rows, from which gazetteer sources (citation, licence, sha256), and the caution every
+ * georeference carries.
+ * @example methodStepParagraphs({ version: '0.1.0', runTimestamp: '2026-12-01T12:00:00Z', rows: 52, sources })[1] // 'Gazetteer sources: …, sha256 9f…'
+ */
+export function methodStepParagraphs(run: { version: string; runTimestamp: string; rows: number; sources: Source[] }): string[] {
+  const sources = run.sources.map((s) => `${s.citation}${s.licence ? ` (${s.licence})` : ''}, sha256 ${s.contentHash}`);
+  return [
+    `Georeferences proposed by whereabouts ${run.version} on ${run.runTimestamp} by the point-radius method (Wieczorek, Guo & Hijmans 2004; Chapman & Wieczorek 2020, Georeferencing Best Practices) for the ${run.rows} rows of the occurrence core; each row's georeferenceVerificationStatus and georeferenceRemarks say how it came out. Where a record already had a term, its value is unchanged and the proposal is in the column proposed_<term>.`,
+    `Gazetteer sources: ${sources.join('; ') || 'none'}.`,
+    "A georeference is an estimate, to be verified by a person; precise localities of sensitive taxa may need generalising under the holder's policy and local law.",
+  ];
 }
