@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
-import cliProgress from 'cli-progress';
-import { startBatch, type ArchiveSummary } from '../../batch/archive/archive-job.ts';
+import type cliProgress from 'cli-progress';
+import type { ArchiveSummary } from '../../batch/archive/archive-job.ts';
 import type { BatchProgressEvent } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
 
@@ -40,7 +40,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
-      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
+      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
+      const { startBatch } = await import('../../batch/archive/archive-job.ts');
       const { jobId, done } = await startBatch({
         dbPath: dbPath(),
         input,
@@ -72,10 +73,10 @@ function positiveInteger(value: string): number {
 }
 
 /** One bar a phase (georeferencing and writing run side by side), each with its rate and time left. */
-function progressBar() {
-  const bars = new cliProgress.MultiBar(
+function progressBar(progress: typeof cliProgress) {
+  const bars = new progress.MultiBar(
     { format: '{phase} {bar} {value}/{total} | {rate}/s | {eta_formatted} left', stream: process.stderr, hideCursor: true, etaBuffer: 50 },
-    cliProgress.Presets.shades_classic,
+    progress.Presets.shades_classic,
   );
   const started = new Map<BatchProgressEvent['phase'], { bar: cliProgress.SingleBar; at: number; from: number }>();
   return {

@@ -1,7 +1,5 @@
 import type { Command } from 'commander';
-import { SingleBar } from 'cli-progress';
-import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../store/import.ts';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
+import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 
 interface ImportCommandOptions {
   format?: string;
@@ -30,12 +28,13 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
     .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
-    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius, {})
+    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
     .action(async (file: string, opts: ImportCommandOptions) => {
+      const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
       if (format === null) throw new Error(`cannot tell the format of ${file} from its extension: give --format ${FORMATS.join('|')}`);
       if (!FORMATS.includes(format)) throw new Error(`--format must be one of ${FORMATS.join(', ')}, not '${format}'`);
-      const bar = process.stderr.isTTY ? new SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
+      const bar = process.stderr.isTTY ? new (await import('cli-progress')).SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
       bar?.start(0, 0);
       const store = openGazetteer(dbPath());
       try {
@@ -61,7 +60,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
  * Adds one `--default-radius type=meters` to those already given.
  * @example collectRadius('village=3000', {}) // { village: 3000 }
  */
-export function collectRadius(value: string, previous: Record<string, number>): Record<string, number> {
+export function collectRadius(value: string, previous: Record<string, number> = {}): Record<string, number> {
   const match = /^(.+)=(\d+(?:\.\d+)?)$/.exec(value);
   if (match === null) throw new Error(`--default-radius needs type=meters (e.g. village=3000), not '${value}'`);
   return { ...previous, [match[1].trim()]: Number(match[2]) };
