@@ -207,7 +207,7 @@ describe('archive input errors', () => {
     await zipFiles(plainZip, [['records.csv', Buffer.from('occurrenceID,locality\nx1,Vila Serena\n')]]);
     const failed = await whereabouts('batch', plainZip, '--out', join(dir, 'plain-out.zip'), '--quiet').then(() => undefined, (e: { code: number; stderr: string }) => e);
     expect(failed?.code).toBe(1);
-    expect(failed?.stderr).toMatch(/zip archive without a meta\.xml, so it is not a Darwin Core Archive/);
+    expect(failed?.stderr).toMatch(/is a ZIP archive, not CSV or tab-separated text: whereabouts reads a Darwin Core Archive \(a zip with a meta\.xml\)/);
   });
 
   it('a core of another row type is refused, naming it (guide §2.2 rowType)', async () => {

@@ -37,7 +37,8 @@ export interface ArchiveSummary extends BatchSummary {
  */
 export async function startBatch(options: BatchJobOptions): Promise<{ jobId: string; done: Promise<ArchiveSummary> }> {
   const input = options.input;
-  if (options.resume || typeof input !== 'string' || input === '-' || !existsSync(input) || !isZipFile(input)) {
+  if (options.resume || typeof input !== 'string' || input === '-' || !existsSync(input) || !isZipFile(input) || !(await hasMetafile(input))) {
+    // Not an archive (a zip without meta.xml among them): the batch reads it, or says what it is.
     const { jobId, done } = await startBatchJob(options);
     return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
   }
@@ -79,12 +80,25 @@ async function sha256(path: string): Promise<string> {
   return hash.digest('hex');
 }
 
-/** The metafile: `meta.xml` at the top of the archive or in its one folder. */
-async function readMeta(zip: ZipReader, archivePath: string): Promise<{ meta: MetaArchive; metaDir: string }> {
-  const metaEntry = zip.entries.map((e) => e.name).filter((n) => n === 'meta.xml' || n.endsWith('/meta.xml')).sort((a, b) => a.length - b.length)[0];
-  if (!metaEntry) {
-    throw new Error(`${archivePath} is a zip archive without a meta.xml, so it is not a Darwin Core Archive; unzip it and give whereabouts the CSV or tab-separated file inside`);
+/** The metafile's entry: `meta.xml` at the top of the archive or in a folder (the shortest path). */
+function metafileEntry(zip: ZipReader): string | undefined {
+  return zip.entries.map((e) => e.name).filter((n) => n === 'meta.xml' || n.endsWith('/meta.xml')).sort((a, b) => a.length - b.length)[0];
+}
+
+/** Whether a zip holds a meta.xml; false for one yauzl cannot read either (the batch then says what the file is). */
+async function hasMetafile(path: string): Promise<boolean> {
+  const zip = await openZip(path).catch(() => undefined);
+  if (!zip) return false;
+  try {
+    return metafileEntry(zip) !== undefined;
+  } finally {
+    zip.close();
   }
+}
+
+async function readMeta(zip: ZipReader, archivePath: string): Promise<{ meta: MetaArchive; metaDir: string }> {
+  const metaEntry = metafileEntry(zip);
+  if (!metaEntry) throw new Error(`${archivePath} has no meta.xml, so it is not a Darwin Core Archive`);
   return { meta: parseMetaXml((await zip.read(metaEntry)).toString('utf8').replace(/^\uFEFF/, '')), metaDir: metaEntry.slice(0, -'meta.xml'.length) };
 }
 
