@@ -3,6 +3,7 @@
  * `locate` is asked. Rows with the same key are georeferenced once.
  */
 import type { LocateRequest } from '../locate/locate.ts';
+import { termName } from '../record/term-names.ts';
 
 /** The optional batch columns passed to `locate` (issue 2 batch CSV contract), in key order. */
 export const REQUEST_COLUMNS = ['countryCode', 'country', 'stateProvince', 'county', 'municipality', 'geodeticDatum', 'verbatimCoordinates'] as const;
@@ -19,11 +20,14 @@ export interface ColumnIndex {
 }
 
 /**
- * Find the columns the batch reads; an error naming the missing column when there is no locality column.
+ * Find the columns the batch reads, named by term or by full term URI (a portal's download may use
+ * either); an error naming the missing column when there is no locality column.
  * @example indexColumns(['occurrenceID', 'locality', 'countryCode']).locality // [1]
+ * @example indexColumns(['http://rs.tdwg.org/dwc/terms/locality']).locality // [0]
  */
 export function indexColumns(header: readonly string[]): ColumnIndex {
-  const at = (name: string) => (header.indexOf(name) >= 0 ? header.indexOf(name) : undefined);
+  const names = header.map(termName);
+  const at = (name: string) => (names.indexOf(name) >= 0 ? names.indexOf(name) : undefined);
   const locality = LOCALITY_COLUMNS.map(at).filter((i): i is number => i !== undefined);
   if (locality.length === 0) {
     throw new Error(`the input has no "locality" or "verbatimLocality" column (its header is: ${header.map((h) => JSON.stringify(h)).join(', ')})`);

@@ -51,6 +51,8 @@ export interface BatchJobOptions {
   output?: string;
   /** Id of a job to finish. */
   resume?: string;
+  /** The input's delimiter when the caller knows it (an archive's core, written by whereabouts); found from the header otherwise. */
+  delimiter?: Delimiter;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
   /**
@@ -212,7 +214,7 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
       throw new Error(`the gazetteer ${resolve(options.dbPath)} holds no source, so no row could be georeferenced: load one first with whereabouts import <file> --source "<citation>" (or run the batch with --allow-empty-gazetteer to have every row come back not found)`);
     }
     const format = await inspectInput(inputPath);
-    const delimiter = await detectDelimiter(inputPath, format);
+    const delimiter = options.delimiter ?? (await detectDelimiter(inputPath, format));
     await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
     const like = {
       inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources,

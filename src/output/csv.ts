@@ -10,6 +10,7 @@
 import { stringify } from 'csv-stringify/sync';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { circleOf, type AdministrativeCenter, type Circle } from '../record/coordinate-check.ts';
+import { termName } from '../record/term-names.ts';
 
 /** The name of the output column that holds the flags; not a Darwin Core term (see the README). */
 export const COORDINATE_FLAGS_COLUMN = 'whereabouts_coordinateFlags';
@@ -60,11 +61,13 @@ export function csvDocument(rows: string[][]): string {
 }
 
 /**
- * Output column names for an input header: `proposed_<term>` where the record already has the term.
+ * Output column names for an input header: `proposed_<term>` where the record already has the term
+ * (by name or by its full URI, as a portal's download may write it).
  * @example appendedColumnNames(['locality', 'decimalLatitude'])[0] // 'proposed_decimalLatitude'
+ * @example appendedColumnNames(['http://rs.tdwg.org/dwc/terms/decimalLatitude'])[0] // 'proposed_decimalLatitude'
  */
 export function appendedColumnNames(inputHeader: readonly string[]): string[] {
-  const present = new Set(inputHeader);
+  const present = new Set(inputHeader.map(termName));
   return GEOREFERENCE_TERMS.map((term) => (present.has(term) ? `proposed_${term}` : term));
 }
 

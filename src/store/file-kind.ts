@@ -43,7 +43,7 @@ function zipKind(head: Uint8Array): NotText {
   if (names.includes('application/vnd.oasis.opendocument.spreadsheet')) return { format: 'an OpenDocument spreadsheet (.ods, a ZIP archive)', advice: EXPORT_CSV };
   return {
     format: 'a ZIP archive',
-    advice: 'whereabouts reads one CSV or tab-separated file at a time: unpack the archive and give the records file inside (for a workbook, export the sheet as CSV (UTF-8))',
+    advice: 'whereabouts reads a Darwin Core Archive (a zip with a meta.xml) or one CSV or tab-separated file at a time: unpack the archive and give the records file inside (for a workbook, export the sheet as CSV (UTF-8))',
   };
 }
 

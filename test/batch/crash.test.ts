@@ -4,13 +4,13 @@
  * The real CLI runs in a child process; WHEREABOUTS_TEST_DELAY_MS (documented in src/batch/run.ts)
  * slows each committed step so that the kill lands mid-run. Common practice, no source: compare bytes.
  */
-import { spawn, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
 import { jobsDatabasePath } from '../../src/store/side-files.ts';
-import { fixtureGazetteer, readOutput } from './helpers.ts';
+import { fixtureGazetteer, killWhen, progress, readOutput } from './helpers.ts';
 
 const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
 const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
@@ -23,32 +23,6 @@ function writeInput(path: string): void {
   const lines = ['occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude'];
   for (let i = 0; i < distinct.length * 3; i++) lines.push(`c-${i},"${distinct[i % distinct.length]}",QV,${i % 7 === 0 ? '45.5,-131.0' : ','}`);
   writeFileSync(path, `${lines.join('\n')}\n`);
-}
-
-/** The job's committed progress, read as another process would. */
-function progress(jobsPath: string): { state: string; distinct_done: number; distinct_total: number | null; rows_done: number; rows_total: number | null; run_timestamp: string } | undefined {
-  if (!existsSync(jobsPath)) return undefined;
-  const db = new Database(jobsPath, { readonly: true, fileMustExist: true });
-  try {
-    return db.prepare('SELECT * FROM batch_job ORDER BY started_at DESC LIMIT 1').get() as ReturnType<typeof progress>;
-  } catch {
-    return undefined;
-  } finally {
-    db.close();
-  }
-}
-
-async function killWhen(args: string[], env: NodeJS.ProcessEnv, jobsPath: string, when: (p: NonNullable<ReturnType<typeof progress>>) => boolean): Promise<void> {
-  const child = spawn(process.execPath, [BIN, ...args], { env, stdio: 'ignore' });
-  const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
-  for (;;) {
-    const p = progress(jobsPath);
-    if (p && when(p)) break;
-    if (child.exitCode !== null) throw new Error('the batch ended before it could be killed');
-    await new Promise((r) => setTimeout(r, 25));
-  }
-  child.kill('SIGKILL');
-  await exited;
 }
 
 function sameBytesBut(timestampA: string, a: string, timestampB: string, b: string): void {

@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import type cliProgress from 'cli-progress';
-import type { BatchProgressEvent, BatchSummary } from '../../batch/run.ts';
+import type { ArchiveSummary } from '../../batch/archive/archive-job.ts';
+import type { BatchProgressEvent } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
 
 interface BatchCommandOptions {
@@ -28,8 +29,8 @@ const PHASE_LABELS: Record<BatchProgressEvent['phase'], string> = {
 export function registerBatch(program: Command, dbPath: () => string): void {
   program
     .command('batch')
-    .description('georeference every row of a CSV or tab-separated file, as a job that can be stopped and resumed')
-    .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252), or - for standard input')
+    .description('georeference every row of a CSV or tab-separated file or of a Darwin Core Archive\'s occurrence core, as a job that can be stopped and resumed')
+    .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252; or a Darwin Core Archive, a zip with meta.xml, whose output is a new archive), or - for standard input')
     .option('--out <file>', 'the output file, or - for standard output', '-')
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
     .option('--quiet', 'no progress bar')
@@ -42,8 +43,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
-      const { startBatchJob } = await import('../../batch/run.ts');
-      const { jobId, done } = await startBatchJob({
+      const { startBatch } = await import('../../batch/archive/archive-job.ts');
+      const { jobId, done } = await startBatch({
         dbPath: dbPath(),
         input,
         output: opts.out,
@@ -98,12 +99,13 @@ function progressBar(progress: typeof cliProgress) {
   };
 }
 
-function describe(s: BatchSummary): string {
+function describe(s: ArchiveSummary): string {
   const statuses = Object.entries(s.byStatus).map(([status, n]) => `${n} ${status}`).join(', ');
   const lines = [
-    `whereabouts: ${s.rows} rows, ${s.distinctLocalities} distinct localities (${s.encoding}, delimiter ${JSON.stringify(s.delimiter)})${s.resumed ? ', job resumed' : ''}`,
+    `whereabouts: ${s.rows} rows, ${s.distinctLocalities} distinct localities (${s.archiveCore ? `the archive's core ${s.archiveCore.path}, ${s.archiveCore.encoding}` : `${s.encoding}, delimiter ${JSON.stringify(s.delimiter)}`})${s.resumed ? ', job resumed' : ''}`,
     `  ${statuses || 'no rows'}`,
     `  ${s.malformedRows} malformed rows, ${s.flaggedRows} rows with their coordinates flagged (column whereabouts_coordinateFlags)`,
+    ...(s.archiveCore ? ['  Darwin Core Archive: every other file copied unchanged; meta.xml describes the new columns; the EML metadata has a method step'] : []),
     `  output: ${s.outputPath === '-' ? 'standard output' : s.outputPath}`,
   ];
   return `${lines.join('\n')}\n`;
