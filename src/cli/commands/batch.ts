@@ -41,7 +41,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
       const { startBatchJob } = await import('../../batch/run.ts');
-      const { jobId, done } = await startBatchJob({
+      const { jobId, methodChoices, done } = await startBatchJob({
         dbPath: dbPath(),
         input,
         output: opts.out,
@@ -53,7 +53,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         runTimestamp: opts.runTimestamp,
         onProgress: bar?.update,
       });
-      if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n`);
+      if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n${describeChoices(methodChoices)}`);
       try {
         const summary = await done;
         bar?.stop();
@@ -93,6 +93,12 @@ function progressBar(progress: typeof cliProgress) {
       bars.stop();
     },
   };
+}
+
+/** The method choices the job records (`whereabouts method` says what each is), so a reviewer can reproduce them. */
+function describeChoices(choices: Record<string, number | string> | null): string {
+  if (!choices) return '  method choices: not recorded (a job stored before jobs recorded them)\n';
+  return `  method choices: ${Object.entries(choices).map(([id, value]) => `${id}=${value}`).join('; ')}\n`;
 }
 
 function describe(s: BatchSummary): string {
