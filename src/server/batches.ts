@@ -6,31 +6,25 @@
  */
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
-import { parse } from 'csv-parse/sync';
+import { dirname, isAbsolute, join } from 'node:path';
 import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
-import { groupOf, indexColumns } from '../batch/locality-group.ts';
+import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
+import { originalLine } from '../batch/original-line.ts';
+import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
 import type { LocateResult } from '../locate/locate.ts';
-import { COORDINATE_FLAGS_COLUMN, csvDocument, readFlags } from '../output/csv.ts';
+import { COORDINATE_FLAGS_COLUMN, csvLine, readFlags } from '../output/csv.ts';
 import { answerBody, type AnswerBody } from '../output/json.ts';
+import { decimalNumber } from '../record/coordinate-check.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { REVIEWED_STATUS } from '../record/verification-status.ts';
+import { HEAD_BYTES, notText } from '../store/file-kind.ts';
 import { RequestError } from './errors.ts';
-import { lookUp, type FeatureKey, type ServedGazetteer } from './lookup.ts';
+import type { RecordAnswer } from '../locate/georeference-record.ts';
+import { lookUp, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
+import type { Resolution, Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
 
-/** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
-const NOT_CSV: [string, number[]][] = [
-  ['a ZIP archive (an .xlsx or .ods workbook?)', [0x50, 0x4b, 0x03, 0x04]],
-  ['an old Excel workbook (.xls)', [0xd0, 0xcf, 0x11, 0xe0]],
-  ['a PDF document', [0x25, 0x50, 0x44, 0x46]],
-  ['a PNG image', [0x89, 0x50, 0x4e, 0x47]],
-  ['a JPEG image', [0xff, 0xd8, 0xff]],
-  ['a gzip file', [0x1f, 0x8b]],
-  ['an SQLite database', [...Buffer.from('SQLite format 3')]],
-];
 
 /** One record of the review list. */
 export interface RecordSummary {
@@ -60,23 +54,38 @@ export interface RecordDetail {
   flags: string[];
   review: Review | null;
   answer: AnswerBody;
+  /** What the reviewer's resolution did, in words (e.g. a sign corrected), when one is applied. */
+  resolutionNote?: string;
 }
 
+/** A record georeferenced again for review, with what the resolution applied to it did. */
+interface ResolvedRow {
+  answer: RecordAnswer;
+  note?: string;
+}
+
+/** Coordinate-check flags (src/batch/coordinate-check.ts) whose correction the reviewer may accept, and how each corrects. */
+const CORRECTIONS: Record<string, { fix: (lat: string, lon: string) => [string, string]; words: string }> = {
+  'fits-if-latitude-sign-flipped': { fix: (lat, lon) => [flipSign(lat), lon], words: 'the sign of latitude inverted' },
+  'fits-if-longitude-sign-flipped': { fix: (lat, lon) => [lat, flipSign(lon)], words: 'the sign of longitude inverted' },
+  'fits-if-both-signs-flipped': { fix: (lat, lon) => [flipSign(lat), flipSign(lon)], words: 'both signs inverted' },
+  'fits-if-latitude-longitude-exchanged': { fix: (lat, lon) => [lon, lat], words: 'latitude and longitude exchanged' },
+};
+
 interface ParsedOutput {
-  header: string[];
+  header: InputRecord;
   originalLength: number;
-  rows: string[][];
+  /** The job's rows as read from its output, original fields quoted as they stood. */
+  records: InputRecord[];
+  delimiter: Delimiter;
   summaries: RecordSummary[];
 }
 
-/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data. */
+/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data (src/store/file-kind.ts). */
 export function assertCsvContent(bytes: Buffer): void {
   if (bytes.length === 0) throw new RequestError(400, 'the uploaded file is empty', 'file');
-  for (const [what, signature] of NOT_CSV) {
-    if (signature.every((b, i) => bytes[i] === b)) throw new RequestError(415, `the uploaded file is ${what}, not CSV text: save it as CSV (UTF-8) and upload that`, 'file');
-  }
-  const utf16 = (bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff);
-  if (!utf16 && bytes.subarray(0, 65536).includes(0)) throw new RequestError(415, 'the uploaded file holds binary data (NUL bytes), not CSV text', 'file');
+  const kind = notText(bytes.subarray(0, HEAD_BYTES));
+  if (kind) throw new RequestError(415, `the uploaded file is ${kind.format} and not CSV text: ${kind.advice}`, 'file');
 }
 
 export class BatchService {
@@ -91,6 +100,8 @@ export class BatchService {
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
   ) {
+    // Output paths are kept absolute by the job store: so is this folder, for the two to compare equal.
+    if (!isAbsolute(dbPath)) throw new Error(`the batch service needs an absolute database path, not ${dbPath}`);
     this.folder = batchFolderPath(dbPath);
     this.jobsPath = jobsDatabasePath(dbPath);
   }
@@ -98,6 +109,8 @@ export class BatchService {
   /** Starts a job on the uploaded bytes; resolves with its id once the job is stored. */
   async start(bytes: Buffer): Promise<string> {
     assertCsvContent(bytes);
+    // Said here without the store's path, which an HTTP answer never shows.
+    if (this.store.sources().length === 0) throw new RequestError(409, 'the service\'s gazetteer holds no source, so no row could be georeferenced: load one with whereabouts import <file> --source "<citation>" and start the service again', 'file');
     mkdirSync(this.folder, { recursive: true });
     const output = join(this.folder, `${randomUUID()}.csv`);
     let started: Awaited<ReturnType<typeof startBatchJob>>;
@@ -162,23 +175,43 @@ export class BatchService {
     };
   }
 
-  /** One record, georeferenced again for the map (with the reviewer's candidate when given or stored). */
-  record(jobId: string, row: number, candidate?: FeatureKey): RecordDetail {
+  /**
+   * One record, georeferenced again for the map: with the resolution asked for (another candidate, a
+   * corrected locality, the record's own coordinates), else the one stored with its review.
+   */
+  record(jobId: string, row: number, resolution: Resolution = {}): RecordDetail {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
-    const answer = answerBody(this.lookUpRow(output, fields, candidate ?? review?.candidate));
-    const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
-    const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
-    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
+    const { answer, note } = this.lookUpRow(output, fields, hasResolution(resolution) ? resolution : (review ?? {}));
+    const original = Object.fromEntries(output.header.fields.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
+    const proposed = Object.fromEntries(output.header.fields.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
+    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer: answerBody(answer), ...(note ? { resolutionNote: note } : {}) };
   }
 
-  /** Stores a decision with who and when. */
-  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, candidate?: FeatureKey): Review {
+  /**
+   * Stores a decision with who and when. Verifying needs a point: an accept of a record that has none
+   * (not found, ambiguous, unreadable) is refused until a resolution gives it one.
+   */
+  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, resolution: Resolution = {}): Review {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
-    if (candidate) this.lookUpRow(output, fields, candidate); // refuses a candidate that is not offered
-    const review: Review = { decision, candidate, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
+    // Georeferencing again refuses a candidate that is not offered and coordinates the record does not have.
+    const resolved = hasResolution(resolution) ? this.lookUpRow(output, fields, resolution) : undefined;
+    if (decision === 'accepted') {
+      const hasPoint = resolved ? resolved.answer.result.georeference !== undefined : fields[termColumns(output.header.fields).decimalLatitude] !== '';
+      if (!hasPoint) {
+        const status = resolved?.answer.result.status ?? summaryStatus(output, row);
+        const reason = resolved?.answer.result.reason;
+        throw new RequestError(
+          409,
+          `row ${row} has no point to verify (${status}${reason ? `: ${reason}` : ''}): ` +
+            "choose a candidate, give a corrected locality, or accept the record's own coordinates, then accept",
+          'decision',
+        );
+      }
+    }
+    const review: Review = { decision, ...resolution, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
     this.reviews.record(jobId, row, review);
     return review;
   }
@@ -188,19 +221,26 @@ export class BatchService {
    * "requires georeference" with the proposal moved into the remarks; a chosen candidate recomputes
    * the appended terms. Originals are never changed.
    */
-  reviewedCsv(jobId: string): string {
+  reviewedCsv(jobId: string): { text: string; delimiter: Delimiter } {
     const output = this.output(jobId);
     const reviews = this.reviews.latest(jobId);
-    const column = termColumns(output.header);
-    const rows = output.rows.map((fields, index) => {
+    const column = termColumns(output.header.fields);
+    const rows = output.records.map(({ fields }, index) => {
       const review = reviews.get(index + 1);
       if (!review) return fields;
       const copy = [...fields];
       const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
-      if (review.candidate) {
-        const recomputed = this.lookUpRow(output, fields, review.candidate, review).darwinCore;
+      if (hasResolution(review)) {
+        const { answer, note } = this.lookUpRow(output, fields, review, review);
+        const recomputed = answer.darwinCore;
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
+        if (note) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
+      }
+      if (review.decision === 'accepted' && get('decimalLatitude') === '') {
+        // Kept from a review file written before an accept needed a point: nothing to verify.
+        set('georeferenceRemarks', [get('georeferenceRemarks'), `accepted by ${review.reviewer} on ${review.decidedAt} without a point, so not verified`].filter(Boolean).join('; '));
+        return copy;
       }
       const stamp = `${review.decision === 'accepted' ? 'verified' : 'rejected'} by ${review.reviewer} on ${review.decidedAt}`;
       if (review.decision === 'rejected' && get('decimalLatitude') !== '') {
@@ -212,7 +252,11 @@ export class BatchService {
       set('georeferenceRemarks', [get('georeferenceRemarks'), stamp].filter(Boolean).join('; '));
       return copy;
     });
-    return csvDocument([output.header, ...rows]);
+    // Original fields go back as the batch wrote them (README, Batches); the appended ones as CSV.
+    const { delimiter, originalLength } = output;
+    const line = (record: InputRecord, fields: string[]) => `${originalLine(record, originalLength, delimiter)}${delimiter}${csvLine(fields.slice(originalLength), delimiter)}\r\n`;
+    const text = [line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
+    return { text, delimiter };
   }
 
   /**
@@ -235,7 +279,11 @@ export class BatchService {
     const progress = this.ownProgress(jobId);
     if (progress.state !== 'done' || !progress.outputPath) throw new RequestError(409, `batch job ${jobId} is ${progress.state}, not done`, 'jobId');
     if (dirname(progress.outputPath) !== this.folder) throw new RequestError(404, `no batch job ${jobId} was started by this service`, 'jobId');
-    const [header, ...rows] = parse(readFileSync(progress.outputPath), { bom: true, relax_column_count: true }) as string[][];
+    // The output keeps the input's delimiter (a semicolon file stays one), and is read by the batch's own reader.
+    const delimiter = progress.delimiter as Delimiter;
+    const [headerRecord, ...records] = parseRecords(readFileSync(progress.outputPath, 'utf8'), delimiter);
+    const header = headerRecord.fields;
+    const rows = records.map((r) => r.fields);
     const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
     const column = termColumns(header);
     const columns = indexColumns(header.slice(0, originalLength));
@@ -254,38 +302,77 @@ export class BatchService {
         review: null,
       };
     });
-    const parsed = { header, originalLength, rows, summaries };
+    const parsed = { header: headerRecord, originalLength, records, delimiter, summaries };
     this.parsed.set(jobId, parsed);
     return parsed;
   }
 
   private rowOf(output: ParsedOutput, row: number): string[] {
-    const fields = output.rows[row - 1];
-    if (!fields) throw new RequestError(404, `the batch has no row ${row} (it has ${output.rows.length})`, 'row');
-    return fields;
+    const record = output.records[row - 1];
+    if (!record) throw new RequestError(404, `the batch has no row ${row} (it has ${output.records.length})`, 'row');
+    return record.fields;
   }
 
-  /** A row through the front door again, as the API answers it: with the reviewer's candidate, and, for the reviewed file, the reviewer as georeferencedBy. */
-  private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey, review?: Review) {
+  /**
+   * The row through the front door again, as the API answers it, with a reviewer's resolution applied,
+   * and, for the reviewed file, the reviewer as georeferencedBy.
+   */
+  private lookUpRow(output: ParsedOutput, fields: string[], resolution: Resolution, review?: Review): ResolvedRow {
     const originals = fields.slice(0, output.originalLength);
-    const columns = indexColumns(output.header.slice(0, output.originalLength));
+    const columns = indexColumns(output.header.fields.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
-    const coordinate = (i?: number) => (i === undefined || originals[i]?.trim() === '' ? undefined : Number(originals[i]));
+    const written = (i?: number) => (i === undefined ? '' : (originals[i] ?? '').trim().replace(',', '.'));
+    const coordinate = (i?: number) => (i === undefined ? undefined : decimalNumber(originals[i] ?? ''));
     const latitude = coordinate(columns.decimalLatitude);
     const longitude = coordinate(columns.decimalLongitude);
     const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
-    return lookUp(
+    const notes: string[] = [];
+    if (resolution.locality !== undefined) {
+      request.locality = normaliseText(resolution.locality);
+      notes.push(`locality text corrected by the reviewer to "${request.locality}" (the original column is unchanged)`);
+    }
+    if (resolution.recordCoordinates) {
+      if (!inRange) {
+        const what = latitude === undefined || longitude === undefined || Number.isNaN(latitude) || Number.isNaN(longitude) ? 'has no coordinates of its own to accept' : 'has coordinates beyond ±90° latitude or ±180° longitude';
+        throw new RequestError(409, `the record ${what} (decimalLatitude "${written(columns.decimalLatitude)}", decimalLongitude "${written(columns.decimalLongitude)}"): choose a candidate or give a corrected locality`, 'recordCoordinates');
+      }
+      const flags = readFlags(fields[output.header.fields.length - 1]);
+      const correction = flags.map((f) => CORRECTIONS[f]).find(Boolean);
+      const [lat, lon] = correction ? correction.fix(written(columns.decimalLatitude), written(columns.decimalLongitude)) : [written(columns.decimalLatitude), written(columns.decimalLongitude)];
+      // As verbatim coordinates the written decimals keep their precision and the record's datum applies (method §5.3, §5.4).
+      request.verbatimCoordinates = `${lat}, ${lon}`;
+      notes.push(
+        correction
+          ? `point from the record's own coordinates (${written(columns.decimalLatitude)}, ${written(columns.decimalLongitude)}) with ${correction.words}, as the coordinate check found (${lat}, ${lon}), accepted by the reviewer`
+          : `point from the record's own coordinates (${lat}, ${lon}), accepted by the reviewer`,
+      );
+    }
+    const answer = lookUp(
       this.store,
       {
         ...request,
         ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
         ...(review ? { georeferencedBy: review.reviewer } : {}),
-        options: candidate ? { candidate } : {},
+        options: resolution.candidate && !resolution.recordCoordinates ? { candidate: resolution.candidate } : {},
       },
       this.results,
       review ? new Date(review.decidedAt) : undefined,
     );
+    return { answer, ...(notes.length ? { note: notes.join('; ') } : {}) };
   }
+}
+
+function hasResolution(r: Resolution): boolean {
+  return r.candidate !== undefined || r.locality !== undefined || r.recordCoordinates === true;
+}
+
+/** "-45.3" ⇄ "45.3", keeping every written digit. */
+function flipSign(value: string): string {
+  return value.startsWith('-') ? value.slice(1) : `-${value.replace(/^\+/, '')}`;
+}
+
+function summaryStatus(output: ParsedOutput, row: number): string {
+  return output.summaries[row - 1]?.status || 'no georeference';
 }
 
 function termColumns(header: string[]): Record<GeoreferenceTerm, number> {

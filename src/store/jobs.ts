@@ -57,6 +57,8 @@ export interface JobProgress {
   startedAt: string;
   finishedAt?: string;
   outputPath?: string;
+  /** The input's delimiter, which the output keeps. */
+  delimiter: string;
   error?: string;
   /** The method choices the job uses, by id (absent for jobs stored before jobs recorded them). */
   methodChoices?: Record<string, number | string>;
@@ -204,6 +206,7 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
       startedAt: job.startedAt,
       finishedAt: job.finishedAt ?? undefined,
       outputPath: job.state === 'done' && job.outputPath !== '-' ? job.outputPath : undefined,
+      delimiter: job.delimiter,
       error: job.error ?? undefined,
       methodChoices: job.methodChoices ?? undefined,
     };

@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
 import { gazetteerSources } from '../../src/batch/run.ts';
-import { inspectInput } from '../../src/batch/input-format.ts';
+import { inspectInput } from '../../src/store/input-format.ts';
 import { methodChoiceValues } from '../../src/georef/method-choices.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { insertJob, jobProgress, loadJob, openJobs } from '../../src/store/jobs.ts';

@@ -1,4 +1,5 @@
 // The page's entry: three views (lookup and batch review, each with its own map; the method's choices).
+import { getJson } from './api.js';
 import { startBatch } from './batch.js';
 import { el, fill } from './dom.js';
 import { startLookup } from './lookup.js';
@@ -25,12 +26,14 @@ async function start() {
     showMethodChoices($('method-choices')).catch((error) => fill($('method-choices').tBodies[0], el('tr', {}, el('td', { colspan: 4, class: 'error' }, `The choices could not be loaded: ${error.message}`))));
   });
   maps.lookup = await createMap($('lookup-map'));
-  startLookup({ form: $('lookup-form'), output: $('lookup-result'), map: maps.lookup });
+  const { datums } = await getJson('/api/v1/datums');
+  startLookup({ form: $('lookup-form'), output: $('lookup-result'), map: maps.lookup, datums });
   // The review map is created while its view is hidden; it is resized when the review opens.
   maps.batch = await createMap($('review-map'));
   startBatch({
     form: $('batch-form'),
     progress: $('batch-progress'),
+    progressLine: $('batch-progress-line'),
     progressText: $('batch-progress-text'),
     review: $('batch-review'),
     list: $('review-list'),
