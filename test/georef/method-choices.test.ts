@@ -15,6 +15,7 @@ import { DEFAULT_PORT } from '../../src/cli/commands/serve.ts';
 import { MAX_PARTS } from '../../src/batch/partition.ts';
 import { MAX_ROW_CHARACTERS } from '../../src/batch/records.ts';
 import { CENTER_TOLERANCE_METERS } from '../../src/record/coordinate-check.ts';
+import { RECORDS_LIMITS } from '../../src/server/routes/records.ts';
 import { SERVER_DEFAULTS } from '../../src/server/defaults.ts';
 
 const root = new URL('../..', import.meta.url).pathname;
@@ -46,6 +47,7 @@ describe('method choices', () => {
     const f = FUZZY_ACCEPTANCE;
     expect(byId.get('fuzzyAcceptance')!.value).toBe(`${f.plausibleScore}, ${f.minimumScore}, ${f.minimumLead}, ${f.readingScore}`);
     expect(byId.get('centerToleranceMeters')!.value).toBe(CENTER_TOLERANCE_METERS);
+    expect(byId.get('recordsLimits')!.value).toBe(`${RECORDS_LIMITS.maxRecords} records; ${RECORDS_LIMITS.maxBytes / 1024 / 1024} MiB`);
     expect(byId.get('defaultPort')!.value).toBe(DEFAULT_PORT);
     expect(byId.get('maxParts')!.value).toBe(MAX_PARTS);
     expect(byId.get('maxRowCharacters')!.value).toBe(MAX_ROW_CHARACTERS);
