@@ -19,6 +19,7 @@ import type { LocateRequest } from '../locate/locate.ts';
 import { appendedLine, csvLine, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
 import { checkCoordinates } from '../record/coordinate-check.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
+import { methodChoiceValues } from '../georef/method-choices.ts';
 import { VERSION } from '../version.ts';
 import type { BatchSettings } from './georeference-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
@@ -131,7 +132,7 @@ const RESULT_CACHE_SIZE = 2000;
  *   const { jobId, done } = await startBatchJob({ dbPath: 'whereabouts.sqlite', input: 'in.csv', output: 'out.csv' });
  *   const summary = await done; // { rows: 52, distinctLocalities: 47, … }
  */
-export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: string; done: Promise<BatchSummary> }> {
+export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: string; methodChoices: BatchJob['methodChoices']; done: Promise<BatchSummary> }> {
   if (!existsSync(options.dbPath)) throw new Error(`no gazetteer database at ${options.dbPath}: import a gazetteer first (whereabouts import <file>)`);
   checkPartOptions(options);
   const jobsPath = options.jobsDbPath ?? (options.part ? `${resolve(options.output!)}.jobs.sqlite` : jobsDatabasePath(options.dbPath));
@@ -146,7 +147,7 @@ export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: 
         throw error;
       },
     ).finally(() => jobs.close());
-    return { jobId: job.id, done };
+    return { jobId: job.id, methodChoices: job.methodChoices, done };
   } catch (error) {
     jobs.close();
     throw error;
@@ -227,7 +228,7 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     }
     const id = randomUUID().slice(0, 8);
     const job: BatchJob = {
-      ...like, id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
+      ...like, methodChoices: methodChoiceValues(), id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
       partialPath: outputPath === '-' ? join(dirname(jobsPath), `whereabouts-job-${id}.partial`) : `${outputPath}.${id}.partial`,
       gazetteerPath: resolve(options.dbPath), runTimestamp: options.runTimestamp ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'), rowsTotal: null, rowsDone: 0,
       outputBytes: 0, distinctTotal: null, distinctDone: 0, tallies: {}, startedAt: new Date().toISOString(), finishedAt: null, error: null,

@@ -7,6 +7,7 @@ import { VERSION } from '../version.ts';
 import { registerBatch } from './commands/batch.ts';
 import { registerClusterScript } from './commands/cluster-script.ts';
 import { registerMerge } from './commands/merge.ts';
+import { registerMethod } from './commands/method.ts';
 import { registerDoctor } from './commands/doctor.ts';
 import { registerGazetteer } from './commands/gazetteer.ts';
 import { registerImport } from './commands/import.ts';
@@ -32,6 +33,7 @@ registerMerge(program, db);
 registerClusterScript(program, db);
 registerServe(program, db);
 registerDoctor(program, db);
+registerMethod(program);
 
 try {
   await program.parseAsync(rest, { from: 'user' });

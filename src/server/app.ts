@@ -29,6 +29,7 @@ import { featureRoutes } from './routes/features.ts';
 import { georeferenceRoutes } from './routes/georeference.ts';
 import { layersRoutes, type LayerSource } from './routes/layers.ts';
 import { loginRoutes } from './routes/login.ts';
+import { methodRoutes } from './routes/method.ts';
 import { recordsRoutes } from './routes/records.ts';
 import { shapedFeatureLister } from './shaped-features.ts';
 
@@ -163,6 +164,7 @@ export async function buildApp(stores: ServedStores, options: AppOptions): Promi
   await app.register(featureRoutes, { gazetteer: stores.gazetteer });
   await app.register(datumsRoutes);
   await app.register(layersRoutes, { layers: stores.layers });
+  await app.register(methodRoutes);
   if (stores.batches) await app.register(batchRoutes, { batches: stores.batches, uploadLimit: options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit });
   if (options.token) await app.register(loginRoutes, { token: options.token });
   app.get('/api/v1/openapi.json', { schema: { hide: true } }, async () => app.swagger());

@@ -26,6 +26,8 @@ export interface BatchJob {
   partialPath: string;
   gazetteerPath: string;
   settings: string;
+  /** The value of every method choice in force when the job started (src/georef/method-choices.ts), by id; null for jobs stored before jobs recorded them. */
+  methodChoices: Record<string, number | string> | null;
   version: string;
   sources: Source[];
   runTimestamp: string;
@@ -58,6 +60,8 @@ export interface JobProgress {
   /** The input's delimiter, which the output keeps. */
   delimiter: string;
   error?: string;
+  /** The method choices the job uses, by id (absent for jobs stored before jobs recorded them). */
+  methodChoices?: Record<string, number | string>;
 }
 
 const SCHEMA = `
@@ -69,7 +73,7 @@ CREATE TABLE IF NOT EXISTS batch_job (
   run_timestamp TEXT NOT NULL, rows_total INTEGER, rows_done INTEGER NOT NULL DEFAULT 0,
   output_bytes INTEGER NOT NULL DEFAULT 0, distinct_total INTEGER, distinct_done INTEGER NOT NULL DEFAULT 0,
   tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT, runner_pid INTEGER,
-  part_index INTEGER, part_count INTEGER
+  part_index INTEGER, part_count INTEGER, method_choices TEXT
 );
 CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
@@ -87,10 +91,10 @@ export function openJobs(path: string): Database.Database {
   db.pragma('journal_mode = WAL');
   db.pragma('busy_timeout = 5000');
   db.exec(SCHEMA);
-  // Job files made before jobs recorded their runner or their part lack those columns; add them rather than refuse the files.
+  // Job files made before jobs recorded their runner, their part or their method choices lack those columns; add them rather than refuse the files.
   const columns = db.prepare("SELECT name FROM pragma_table_info('batch_job')").all() as { name: string }[];
-  for (const column of ['runner_pid', 'part_index', 'part_count']) {
-    if (!columns.some((c) => c.name === column)) db.exec(`ALTER TABLE batch_job ADD COLUMN ${column} INTEGER`);
+  for (const [column, type] of [['runner_pid', 'INTEGER'], ['part_index', 'INTEGER'], ['part_count', 'INTEGER'], ['method_choices', 'TEXT']]) {
+    if (!columns.some((c) => c.name === column)) db.exec(`ALTER TABLE batch_job ADD COLUMN ${column} ${type}`);
   }
   return db;
 }
@@ -100,7 +104,7 @@ interface JobRow {
   encoding: string; delimiter: string; output_path: string; partial_path: string; gazetteer_path: string; settings: string;
   version: string; sources: string; run_timestamp: string; rows_total: number | null; rows_done: number; output_bytes: number;
   distinct_total: number | null; distinct_done: number; tallies: string; started_at: string; finished_at: string | null; error: string | null;
-  part_index: number | null; part_count: number | null;
+  part_index: number | null; part_count: number | null; method_choices: string | null;
 }
 
 function fromRow(row: JobRow): BatchJob {
@@ -108,6 +112,7 @@ function fromRow(row: JobRow): BatchJob {
     id: row.id, state: row.state, inputPath: row.input_path, inputIsSpool: row.input_is_spool === 1, inputSha256: row.input_sha256,
     inputBytes: row.input_bytes, encoding: row.encoding, delimiter: row.delimiter, outputPath: row.output_path,
     partialPath: row.partial_path, gazetteerPath: row.gazetteer_path, settings: row.settings, version: row.version,
+    methodChoices: row.method_choices === null ? null : (JSON.parse(row.method_choices) as Record<string, number | string>),
     sources: JSON.parse(row.sources) as Source[], runTimestamp: row.run_timestamp, partIndex: row.part_index, partCount: row.part_count, rowsTotal: row.rows_total,
     rowsDone: row.rows_done, outputBytes: row.output_bytes, distinctTotal: row.distinct_total, distinctDone: row.distinct_done,
     tallies: JSON.parse(row.tallies) as Record<string, number>, startedAt: row.started_at, finishedAt: row.finished_at, error: row.error,
@@ -166,10 +171,10 @@ export function sameSources(a: Source[], b: Source[]): boolean {
 export function insertJob(db: Database.Database, job: BatchJob): void {
   db.prepare(
     `INSERT INTO batch_job (id, state, input_path, input_is_spool, input_sha256, input_bytes, encoding, delimiter, output_path,
-       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at, part_index, part_count)
+       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at, part_index, part_count, method_choices)
      VALUES (@id, @state, @inputPath, @inputIsSpool, @inputSha256, @inputBytes, @encoding, @delimiter, @outputPath,
-       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt, @partIndex, @partCount)`,
-  ).run({ ...job, inputIsSpool: job.inputIsSpool ? 1 : 0, sources: JSON.stringify(job.sources) });
+       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt, @partIndex, @partCount, @methodChoices)`,
+  ).run({ ...job, inputIsSpool: job.inputIsSpool ? 1 : 0, sources: JSON.stringify(job.sources), methodChoices: job.methodChoices && JSON.stringify(job.methodChoices) });
 }
 
 /** Update the given columns of a job (names as in BatchJob). */
@@ -203,6 +208,7 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
       outputPath: job.state === 'done' && job.outputPath !== '-' ? job.outputPath : undefined,
       delimiter: job.delimiter,
       error: job.error ?? undefined,
+      methodChoices: job.methodChoices ?? undefined,
     };
   } finally {
     if (typeof jobs === 'string') db.close();

@@ -4,6 +4,7 @@
  * file comes back with every original column untouched and the new statuses (Darwin Core
  * georeferenceVerificationStatus recommended values: "verified by data custodian", "requires georeference").
  */
+import { methodChoiceValues } from '../../src/georef/method-choices.ts';
 import { readFileSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -60,6 +61,7 @@ describe('a batch from upload to reviewed file', () => {
     expect(progress.state).toBe('done');
     expect(progress.fraction).toBe(1);
     expect(progress.outputPath).toBeUndefined(); // no server path is ever shown
+    expect(progress.methodChoices).toEqual(methodChoiceValues()); // the values the job used, to reproduce it
   });
 
   it('lists every record with facets, and filters them', async () => {

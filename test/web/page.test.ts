@@ -7,6 +7,8 @@ import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { methodChoices } from '../../src/georef/method-choices.ts';
+import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
 import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
 
@@ -242,6 +244,19 @@ describe('batch review', () => {
     const reviewed = rows[Number(row) - 1];
     expect(reviewed.georeferenceVerificationStatus).toBe('verified by data custodian');
     expect(reviewed.georeferenceRemarks).toMatch(/verified by R\. Viewer/);
+  });
+});
+
+describe('method choices', () => {
+  it('lists every choice with the value in force, from GET /api/v1/method', async () => {
+    await page.click('#tab-method');
+    await page.waitForSelector('#method-choices[data-loaded="true"]');
+    const ids = await page.$$eval('#method-choices tbody tr', (rows) => rows.map((r) => (r as HTMLElement).dataset.choice));
+    expect(ids).toEqual(methodChoices().map((c) => c.id));
+    const near = await page.textContent('#method-choices tr[data-choice="nearMinimumMeters"] td');
+    expect(near).toBe(`${METHOD_DEFAULTS.nearMinimumMeters} m`);
+    await shot('method-choices');
+    expect(browser.cspViolations).toEqual([]);
   });
 });
 

@@ -1,13 +1,15 @@
-// The page's entry: two views (lookup, batch review), each with its own map.
+// The page's entry: three views (lookup and batch review, each with its own map; the method's choices).
 import { getJson } from './api.js';
 import { startBatch } from './batch.js';
+import { el, fill } from './dom.js';
 import { startLookup } from './lookup.js';
 import { createMap } from './map.js';
+import { showMethodChoices } from './method.js';
 
 const $ = (id) => document.getElementById(id);
 
 function showView(name) {
-  for (const view of ['lookup', 'batch']) {
+  for (const view of ['lookup', 'batch', 'method']) {
     $(`view-${view}`).hidden = view !== name;
     $(`tab-${view}`).setAttribute('aria-pressed', String(view === name));
   }
@@ -19,6 +21,10 @@ const maps = {};
 async function start() {
   $('tab-lookup').addEventListener('click', () => showView('lookup'));
   $('tab-batch').addEventListener('click', () => showView('batch'));
+  $('tab-method').addEventListener('click', () => {
+    showView('method');
+    showMethodChoices($('method-choices')).catch((error) => fill($('method-choices').tBodies[0], el('tr', {}, el('td', { colspan: 4, class: 'error' }, `The choices could not be loaded: ${error.message}`))));
+  });
   maps.lookup = await createMap($('lookup-map'));
   const { datums } = await getJson('/api/v1/datums');
   startLookup({ form: $('lookup-form'), output: $('lookup-result'), map: maps.lookup, datums });

@@ -25,6 +25,8 @@ interface ArchiveManifest {
   tablePath: string;
 }
 
+type StartedJob = Awaited<ReturnType<typeof startBatchJob>>;
+
 export interface ArchiveSummary extends BatchSummary {
   /** Set when the input was a Darwin Core Archive: its core's path inside the archive and its encoding as meta.xml gives it. */
   archiveCore?: { path: string; encoding: string };
@@ -35,12 +37,12 @@ export interface ArchiveSummary extends BatchSummary {
  * meta.xml). A zip without meta.xml is refused with a clear error.
  * @example const { jobId, done } = await startBatch({ dbPath, input: 'dwca.zip', output: 'dwca-georeferenced.zip' });
  */
-export async function startBatch(options: BatchJobOptions): Promise<{ jobId: string; done: Promise<ArchiveSummary> }> {
+export async function startBatch(options: BatchJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
   const input = options.input;
   if (options.resume || typeof input !== 'string' || input === '-' || !existsSync(input) || !isZipFile(input) || !(await hasMetafile(input))) {
     // Not an archive (a zip without meta.xml among them): the batch reads it, or says what it is.
-    const { jobId, done } = await startBatchJob(options);
-    return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
+    const { jobId, methodChoices, done } = await startBatchJob(options);
+    return { jobId, methodChoices, done: done.then((summary) => finishArchive(summary, options)) };
   }
   if (options.part) throw new Error('a Darwin Core Archive is georeferenced whole: --part cuts CSV and tab-separated files only');
   const archivePath = resolve(input);
@@ -61,8 +63,8 @@ export async function startBatch(options: BatchJobOptions): Promise<{ jobId: str
     const manifest: ArchiveManifest = { archivePath, outputPath, tablePath: table };
     writeFileSync(`${coreOut}.archive.json`, JSON.stringify(manifest));
     try {
-      const { jobId, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
-      return { jobId, done: done.then((summary) => finishArchive(summary, options)) };
+      const { jobId, methodChoices, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
+      return { jobId, methodChoices, done: done.then((summary) => finishArchive(summary, options)) };
     } catch (error) {
       // No job was stored (a core without a locality term, say): nothing is left behind.
       rmSync(table, { force: true });

@@ -44,7 +44,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
       const { startBatch } = await import('../../batch/archive/archive-job.ts');
-      const { jobId, done } = await startBatch({
+      const { jobId, methodChoices, done } = await startBatch({
         dbPath: dbPath(),
         input,
         output: opts.out,
@@ -57,7 +57,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         runTimestamp: opts.runTimestamp,
         onProgress: bar?.update,
       });
-      if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n`);
+      if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n${describeChoices(methodChoices)}`);
       try {
         const summary = await done;
         bar?.stop();
@@ -97,6 +97,12 @@ function progressBar(progress: typeof cliProgress) {
       bars.stop();
     },
   };
+}
+
+/** The method choices the job records (`whereabouts method` says what each is), so a reviewer can reproduce them. */
+function describeChoices(choices: Record<string, number | string> | null): string {
+  if (!choices) return '  method choices: not recorded (a job stored before jobs recorded them)\n';
+  return `  method choices: ${Object.entries(choices).map(([id, value]) => `${id}=${value}`).join('; ')}\n`;
 }
 
 function describe(s: ArchiveSummary): string {

@@ -1,0 +1,79 @@
+/**
+ * Every [CHOICE] whereabouts makes where the published method (WGH2004, BP2020) leaves the georeferencer free,
+ * and the few engineering limits marked the same way, as one list a reviewer can read: the value in force, why,
+ * and what changes it. Values of the method are read from METHOD_DEFAULTS, never copied; rules stated in words
+ * are fixed in this version. `whereabouts method`, GET /api/v1/method, the page and every batch job show this list.
+ * @example
+ *   methodChoices().find((c) => c.id === 'nearMinimumMeters')!.value; // 1000
+ */
+import { METHOD_DEFAULTS } from './method-defaults.ts';
+
+export interface MethodChoice {
+  /** Stable name of the choice (the METHOD_DEFAULTS key when it has one). */
+  id: string;
+  /** 'method' when it changes a georeference; 'service' for limits of the program that never do. */
+  kind: 'method' | 'service';
+  /** What is chosen, in a few words. */
+  choice: string;
+  /** The value in force: a number (with `unit`) or a rule in words. */
+  value: number | string;
+  unit?: string;
+  /** The section of docs/method.md and the published source, or "common practice, no source". */
+  source: string;
+  /** The CLI option, API field or batch setting that changes it, or "fixed". */
+  changedBy: string;
+  /** Files that hold or apply it (each carries a [CHOICE] marker). */
+  where: string[];
+}
+
+const LIBRARY_ONLY = (key: string) => `fixed for the CLI, API and batch; a program calling the core may pass MethodOptions.${key}`;
+
+/** The list, in the order of docs/method.md. Pure: no I/O. */
+export function methodChoices(): MethodChoice[] {
+  const d = METHOD_DEFAULTS;
+  return [
+    { id: 'distanceOnly', kind: 'method', choice: 'distance without heading: radius r_f + d + δ', value: 'as stated', source: 'docs/method.md §3; BP2020 describes a band around the feature, whereabouts uses the disc that holds it', changedBy: 'fixed', where: ['src/georef/offset-uncertainty.ts', 'src/georef/georeference.ts'] },
+    { id: 'headingSector', kind: 'method', choice: 'heading only: point and radial of the part of the bounding unit inside the sector', value: 'as stated', source: 'docs/method.md §3; our choice, no source', changedBy: 'fixed', where: ['src/georef/georeference.ts'] },
+    { id: 'between', kind: 'method', choice: 'between two places: midpoint, radius D/2 + max(r_f1, r_f2); more places: the smallest circle through them', value: 'as stated', source: 'docs/method.md §3; not in BP2020, our choice, no source', changedBy: 'fixed', where: ['src/georef/georeference.ts'] },
+    { id: 'nearMinimumMeters', kind: 'method', choice: '"near X": radius r_f + max(r_f, m)', value: d.nearMinimumMeters, unit: 'm', source: 'docs/method.md §3; common practice, no source', changedBy: LIBRARY_ONLY('nearMinimumMeters'), where: ['src/georef/method-defaults.ts', 'src/georef/georeference.ts'] },
+    { id: 'junctionExtentMeters', kind: 'method', choice: "a junction's own extent", value: d.junctionExtentMeters, unit: 'm', source: 'docs/method.md §3; common practice, no source', changedBy: LIBRARY_ONLY('junctionExtentMeters'), where: ['src/georef/method-defaults.ts', 'src/georef/georeference.ts'] },
+    { id: 'coverReadings', kind: 'method', choice: 'several readings covered by one circle: smallest circle through their points, reaching every circle\'s far edge', value: 'as stated', source: 'docs/method.md §3; our choice, no source', changedBy: 'CLI --cover-ambiguous; API coverAmbiguous; batch --cover-ambiguous', where: ['src/georef/cover.ts'] },
+    { id: 'maxCoveredReadings', kind: 'method', choice: 'most readings of an ambiguous text one circle covers', value: 50, source: 'docs/method.md §3; our choice, no source', changedBy: 'fixed', where: ['src/locate/locate.ts'] },
+    { id: 'fuzzyAcceptance', kind: 'method', choice: 'how near a name must match: plausible, minimum score, lead over the next, score of a reading', value: '0.7, 0.8, 0.1, 0.95', source: 'docs/method.md §2; common practice, no source', changedBy: 'fixed', where: ['src/locate/locate.ts'] },
+    { id: 'defaultRadii', kind: 'method', choice: 'radius of a point feature without one', value: 'by feature type (src/georef/default-radii.ts)', source: 'docs/method.md §4; BP2020 gives no table, so the values err large', changedBy: 'a gazetteer source may state its own', where: ['src/georef/default-radii.ts'] },
+    { id: 'outlineExactEdges', kind: 'method', choice: 'edges of an outline measured exactly near the best estimate', value: 'within a quarter and 1 km', source: 'docs/method.md §4; our choice, no source', changedBy: 'fixed', where: ['src/georef/outlines.ts'] },
+    { id: 'eighths', kind: 'method', choice: 'precision of a written fraction: .5 → 1/2, .25 .75 → 1/4, eighths → 1/8', value: 'as stated', source: 'docs/method.md §5.1; BP2020 δ = precision/2, the fractions our choice', changedBy: 'fixed', where: ['src/parse/numbers.ts'] },
+    { id: 'varyingUnits', kind: 'method', choice: 'leagues and other varying units: spread added to δ', value: 'as stated', source: 'docs/method.md §7', changedBy: 'fixed', where: ['src/parse/units.ts'] },
+    { id: 'cercaDe', kind: 'method', choice: '"cerca de": "about" before a number, "near" before a place', value: 'decided by what follows', source: 'docs/method.md §3; our choice, no source', changedBy: 'fixed', where: ['src/parse/lexicon.ts'] },
+    { id: 'unitlessDistanceUnits', kind: 'method', choice: 'a distance with no unit: read between two units like a range', value: d.unitlessDistanceUnits, source: 'docs/method.md §5.1; our choice, no source', changedBy: LIBRARY_ONLY('unitlessDistanceUnits'), where: ['src/georef/method-defaults.ts', 'src/georef/georeference.ts', 'src/georef/types.ts', 'src/parse/types.ts'] },
+    { id: 'doubtfulDatum', kind: 'method', choice: 'a datum stated for a point outside its EPSG area of use counts as unknown', value: 'as stated', source: 'docs/method.md §5.4; our choice, no source', changedBy: 'fixed', where: ['src/georef/georeference.ts'] },
+    { id: 'noDatumWords', kind: 'method', choice: 'datum fields that state no datum ("not recorded", "unknown" …) count as no datum', value: 'as stated', source: 'docs/method.md §5.4; common practice, no source', changedBy: 'fixed', where: ['src/geodesy/datum-option.ts'] },
+    { id: 'gda94DatumTerm', kind: 'method', choice: 'GDA94 datum term (EPSG states 1 m; the plate has moved about 1.8 m since)', value: 3, unit: 'm', source: 'docs/method.md §5.4; our choice, no source', changedBy: 'fixed', where: ['src/geodesy/datums.ts'] },
+    { id: 'unknownDatumMeters', kind: 'method', choice: 'unknown datum where no regional datum applies', value: d.unknownDatumMeters, unit: 'm', source: 'docs/method.md §5.4; BP2020 §Uncertainty related to unknown datum (the published worst case)', changedBy: 'CLI --geodetic-datum (states the datum); otherwise ' + LIBRARY_ONLY('unknownDatumMeters'), where: ['src/georef/method-defaults.ts'] },
+    { id: 'regionalDatum', kind: 'method', choice: 'unknown datum inside regional areas of use: largest pairwise distance + largest transformation accuracy', value: 'as stated', source: 'docs/method.md §5.4; BP2020 on datum uncertainty, the accuracy term our choice', changedBy: 'fixed', where: ['src/georef/georeference.ts', 'src/geodesy/unknown-datum.ts'] },
+    { id: 'mapStandard', kind: 'method', choice: 'map accuracy standard when only a scale is given', value: d.mapStandard, source: 'docs/method.md §5.5; 1 mm on the map, common practice, no source', changedBy: LIBRARY_ONLY('mapStandard'), where: ['src/georef/method-defaults.ts'] },
+    { id: 'naturalEarthToleranceMeters', kind: 'method', choice: 'plausibility: Natural Earth 1:50m shores and borders may be off by', value: d.naturalEarthToleranceMeters, unit: 'm', source: 'docs/method.md §2; common practice, no source', changedBy: 'fixed', where: ['src/georef/method-defaults.ts', 'src/georef/plausibility.ts'] },
+    { id: 'unusedFeatureMeters', kind: 'method', choice: 'a place the text names but no loaded gazetteer holds (or a later clause used for a missing first one): the radius grows by', value: d.unusedFeatureMeters, unit: 'm', source: 'docs/method.md §Every [CHOICE] in one list; measured on published records (README, "On real records"), no published rule', changedBy: LIBRARY_ONLY('unusedFeatureMeters'), where: ['src/georef/method-defaults.ts', 'src/georef/types.ts', 'src/locate/other-clauses.ts'] },
+    { id: 'unusedFeatureRule', kind: 'method', choice: "what such a place does: 'widen' the radius, or 'decline' with the reason", value: d.unusedFeatureRule, source: 'docs/method.md §Every [CHOICE] in one list; our choice, no source', changedBy: LIBRARY_ONLY('unusedFeatureRule'), where: ['src/georef/method-defaults.ts', 'src/locate/other-clauses.ts'] },
+    { id: 'unitWithoutPolygon', kind: 'method', choice: 'a text naming an administrative unit with no polygon loaded', value: d.unitWithoutPolygon, source: 'docs/method.md §Every [CHOICE] in one list; our choice, no source', changedBy: 'fixed', where: ['src/georef/method-defaults.ts', 'src/locate/administrative-unit.ts'] },
+    { id: 'justOutsideMeters', kind: 'method', choice: 'a reference place loaded only outside the stated county or state is taken within this distance of its polygon', value: d.justOutsideMeters, unit: 'm', source: 'docs/method.md §Every [CHOICE] in one list; our choice, no source', changedBy: LIBRARY_ONLY('justOutsideMeters'), where: ['src/georef/method-defaults.ts', 'src/locate/just-outside.ts'] },
+    { id: 'centerToleranceMeters', kind: 'method', choice: 'how close to a unit\'s center written coordinates count as "on" it (or the half-step of their last decimal when coarser)', value: 1000, unit: 'm', source: 'docs/method.md §2; common practice, no source', changedBy: 'fixed', where: ['src/record/coordinate-check.ts'] },
+    { id: 'footprintSegments', kind: 'method', choice: 'segments of a footprint circle', value: d.footprintSegments, source: 'docs/method.md §6; our choice, no source', changedBy: LIBRARY_ONLY('footprintSegments'), where: ['src/georef/method-defaults.ts'] },
+    { id: 'reportedDecimals', kind: 'method', choice: 'reported decimals: the fewest (at most 7) whose rounding moves the point no more than allowed; the shift added to the radius', value: 'as stated', source: 'docs/method.md §6; our choice, no source', changedBy: 'fixed', where: ['src/record/reported-precision.ts', 'src/record/darwin-core.ts'] },
+    { id: 'serverDefaults', kind: 'service', choice: 'service host, result cache, body and upload limits, rate limit', value: '127.0.0.1; 2000 results; 64 KiB; 50 MiB; 1200 a minute', source: 'common practice, no source', changedBy: 'fixed', where: ['src/server/defaults.ts'] },
+    { id: 'recordsLimits', kind: 'service', choice: 'most records and bytes in one request of many records', value: '1000 records; 4 MiB', source: 'our choice, no source (about a second of work a request)', changedBy: 'fixed', where: ['src/server/routes/records.ts'] },
+    { id: 'defaultPort', kind: 'service', choice: 'port of `whereabouts serve`', value: 8737, source: 'our choice, no source', changedBy: 'CLI serve --port', where: ['src/cli/commands/serve.ts'] },
+    { id: 'mapSimplifyDegrees', kind: 'service', choice: 'simplification of outlines drawn on the map', value: 0.0005, unit: '°', source: 'about 50 m at the equator; our choice, no source', changedBy: 'fixed', where: ['src/server/routes/layers.ts'] },
+    { id: 'batchChunks', kind: 'service', choice: 'batch work units: localities a chunk, rows a commit, main-thread limit, worker heap, cached results', value: '64; 1000; 2000; 128 MB; 2000', source: 'our choice, no source (never changes a result)', changedBy: 'batch --threads (workers only)', where: ['src/batch/run.ts'] },
+    { id: 'maxParts', kind: 'service', choice: 'most parts of a split batch', value: 100_000, source: 'our choice, no source', changedBy: 'fixed', where: ['src/batch/partition.ts'] },
+    { id: 'mergeChunks', kind: 'service', choice: 'bytes read from a part file and gathered before a write', value: '1 MiB; 1 MiB', source: 'our choice, no source', changedBy: 'fixed', where: ['src/batch/merge.ts'] },
+    { id: 'utf16Detection', kind: 'service', choice: 'input read as UTF-16 without a byte-order mark when every other byte is zero in', value: '90 % of the first 4 KB', source: 'our choice, no source', changedBy: 'fixed', where: ['src/store/input-format.ts'] },
+    { id: 'inputReadChunk', kind: 'service', choice: 'bytes of the input read at a time', value: '64 KiB', source: 'our choice, no source (a chunk\'s rows are held at once)', changedBy: 'fixed', where: ['src/batch/records.ts'] },
+    { id: 'maxRowCharacters', kind: 'service', choice: 'longest input row accepted', value: 1_000_000, unit: 'characters', source: 'our choice, no source', changedBy: 'fixed', where: ['src/batch/records.ts'] },
+  ];
+}
+
+/** The values in force, by id: what a batch job records so its output can be reproduced. */
+export function methodChoiceValues(): Record<string, number | string> {
+  return Object.fromEntries(methodChoices().map((c) => [c.id, c.value]));
+}
