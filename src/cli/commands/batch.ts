@@ -2,9 +2,11 @@ import type { Command } from 'commander';
 import cliProgress from 'cli-progress';
 import { startBatchJob, type BatchProgressEvent, type BatchSummary } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
+import { batchCsvPath, resultFormat, RESULT_FORMATS, writeResults, type ResultFormat } from '../../output/gis-results.ts';
 
 interface BatchCommandOptions {
   out?: string;
+  format: ResultFormat;
   resume?: string;
   quiet?: boolean;
   threads?: number;
@@ -30,6 +32,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .description('georeference every row of a CSV or tab-separated file, as a job that can be stopped and resumed')
     .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252), or - for standard input')
     .option('--out <file>', 'the output file, or - for standard output', '-')
+    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done)`, resultFormat, 'csv' as ResultFormat)
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
     .option('--quiet', 'no progress bar')
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
@@ -39,11 +42,12 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
+      if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
       const { jobId, done } = await startBatchJob({
         dbPath: dbPath(),
         input,
-        output: opts.out,
+        output: batchCsvPath(opts.format, opts.out ?? '-'),
         resume: opts.resume,
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
@@ -56,6 +60,9 @@ export function registerBatch(program: Command, dbPath: () => string): void {
       try {
         const summary = await done;
         bar?.stop();
+        const output = opts.out ?? '-';
+        await writeResults({ format: opts.format, csvPath: summary.outputPath, delimiter: summary.delimiter, output, runTimestamp: summary.runTimestamp });
+        summary.outputPath = opts.format === 'csv' ? summary.outputPath : output;
         if (!opts.quiet) process.stderr.write(describe(summary));
       } catch (error) {
         bar?.stop();
