@@ -9,13 +9,15 @@ import { basename, extname } from 'node:path';
 import { createInterface } from 'node:readline';
 import { StringDecoder } from 'node:string_decoder';
 import type { Readable } from 'node:stream';
+import { finished } from 'node:stream/promises';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
 import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
+import { readGisFile, type GisFieldMap } from './gis-import.ts';
 import type { GazetteerStore } from './gazetteer-store.ts';
 
-export type ImportFormat = 'csv' | 'geojson' | 'geonames';
+export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
 
 export interface ImportOptions {
   format: ImportFormat;
@@ -27,6 +29,8 @@ export interface ImportOptions {
   adminCodesFile?: string;
   /** Default radius overrides for this source, meters by feature type (see default-radii.ts). */
   radii?: Readonly<Record<string, number>>;
+  /** For a shapefile or GeoPackage: the layer, which attributes give the columns, the .dbf encoding. */
+  gis?: GisFieldMap;
   /** Called every few thousand rows with the number read so far. */
   onProgress?: (rows: number) => void;
 }
@@ -38,6 +42,8 @@ export interface ImportSummary {
   /** Row numbers are file line numbers for CSV and the dump layout, feature numbers (from 1) for GeoJSON. */
   rejected: { row: number; reason: string }[];
   seconds: number;
+  /** What the reader chose, e.g. a GIS file's layer and the coordinate conversion used. */
+  notes?: string[];
 }
 
 /** One row as a reader yields it (in arrays of rows): a feature to check, or why it could not be read. */
@@ -64,7 +70,10 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   const input = createReadStream(filePath, { highWaterMark: READ_BYTES });
   const hash = createHash('sha256');
   input.on('data', (chunk) => hash.update(chunk));
-  const rows = options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, admin1Names);
+  const notes: string[] = [];
+  const gis = options.format === 'shapefile' || options.format === 'gpkg';
+  const rows = gis ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
+    : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, admin1Names);
   const session = store.beginImport(sourceId);
   const rejected: { row: number; reason: string }[] = [];
   let rowsRead = 0;
@@ -80,6 +89,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
     }
+    if (gis) await finished(input); // the GIS readers read the file themselves; the hash still sees every byte
     session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format });
   } catch (error) {
     session.rollback();
@@ -87,7 +97,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     throw error;
   }
   options.onProgress?.(rowsRead);
-  return { sourceId, rowsRead, imported, rejected, seconds: Number(process.hrtime.bigint() - started) / 1e9 };
+  return { sourceId, rowsRead, imported, rejected, seconds: Number(process.hrtime.bigint() - started) / 1e9, ...(notes.length > 0 ? { notes } : {}) };
 }
 
 /**
@@ -99,6 +109,8 @@ export function formatFromFileName(filePath: string): ImportFormat | null {
   if (extension === '.csv') return 'csv';
   if (extension === '.geojson' || extension === '.json') return 'geojson';
   if (extension === '.txt' || extension === '.tsv') return 'geonames';
+  if (extension === '.shp' || extension === '.zip') return 'shapefile';
+  if (extension === '.gpkg') return 'gpkg';
   return null;
 }
 

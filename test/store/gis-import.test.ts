@@ -1,0 +1,148 @@
+/**
+ * Shapefiles and GeoPackages as gazetteer sources. GDAL (ogr2ogr, Debian's gdal-bin) writes the demo's
+ * administrative units in projected coordinate systems, one with a datum shift; the import must give back
+ * the same polygons in WGS84 and the same corrected centers and radials as the GeoJSON import of the
+ * originals, distances measured with Vincenty's inverse (geodesy 2.4.0, C. Veness, MIT; Vincenty 1975,
+ * Survey Review 23:88), and the imported units must bound and filter `locate` through the real CLI.
+ */
+import { execFile } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { zipSync } from 'fflate';
+import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
+import type { Feature as GeoJsonFeature, FeatureCollection, Position } from 'geojson';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { importGazetteer, type ImportOptions } from '../../src/store/import.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
+import type { Feature } from '../../src/match/types.ts';
+import { gdal, gdalAvailable } from '../support/gdal.ts';
+
+const run = promisify(execFile);
+const root = new URL('../..', import.meta.url).pathname;
+const cli = join(root, 'bin/whereabouts.js');
+const demo = join(root, 'gazetteer/demo.geojson');
+const dir = mkdtempSync(join(tmpdir(), 'whereabouts-gis-in-'));
+const hasGdal = gdalAvailable('test/store/gis-import.test.ts');
+const UNITS = "featureType IN ('county', 'stateProvince')";
+/** ogr2ogr shortens shapefile attribute names to 10 characters (dBASE III limit). */
+const SHAPEFILE_FIELDS = { idField: 'id', featureTypeField: 'featureTyp', stateProvinceField: 'stateProvi', countyField: 'county', countryCodeField: 'countryCod', alternateNamesField: 'alternateN' };
+const GPKG_FIELDS = { idField: 'id', featureTypeField: 'featureType', stateProvinceField: 'stateProvince', countyField: 'county', countryCodeField: 'countryCode', alternateNamesField: 'alternateNames' };
+
+const originals = (JSON.parse(readFileSync(demo, 'utf8')) as FeatureCollection).features.filter((f) => ['county', 'stateProvince'].includes(String(f.properties?.featureType)));
+
+async function importInto(dbPath: string, file: string, options: Omit<ImportOptions, 'citation'>) {
+  const store = openGazetteer(dbPath);
+  try {
+    return await importGazetteer(store, file, { citation: `${file} (invented demo units)`, ...options });
+  } finally {
+    store.close();
+  }
+}
+
+function featuresOf(dbPath: string, sourceId: string): Map<string, Feature> {
+  const store = openGazetteer(dbPath, { readonly: true });
+  try {
+    return new Map(originals.map((f) => [String(f.properties!.id), store.getFeature(sourceId, String(f.properties!.id), { withGeometry: true })!]));
+  } finally {
+    store.close();
+  }
+}
+
+const meters = (a: Position, b: Position) => new LatLon(a[1]!, a[0]!).distanceTo(new LatLon(b[1]!, b[0]!));
+
+const referenceDb = join(dir, 'reference.sqlite');
+const files = {
+  zippedUtm: join(dir, 'units-utm7s.zip'),
+  shpWgs72: join(dir, 'wgs72', 'units.shp'),
+  gpkgWgs72: join(dir, 'units-wgs72.gpkg'),
+};
+
+beforeAll(async () => {
+  if (!hasGdal) return;
+  await importInto(referenceDb, demo, { format: 'geojson', sourceId: 'geojson' });
+  // EPSG:32707 WGS 84 / UTM zone 7S: a projection, no datum shift; zipped as its users download it.
+  const utm = join(dir, 'utm');
+  gdal('ogr2ogr', '-f', 'ESRI Shapefile', '-t_srs', 'EPSG:32707', '-where', UNITS, '-lco', 'ENCODING=UTF-8', utm, demo);
+  const parts = Object.fromEntries(['shp', 'shx', 'dbf', 'prj', 'cpg'].map((ext) => [`units/demo.${ext}`, readFileSync(join(utm, `demo.${ext}`))]));
+  writeFileSync(files.zippedUtm, zipSync(parts));
+  // EPSG:32307 WGS 72 / UTM zone 7S: a datum shift (EPSG:1238, WGS 72 to WGS 84), as a file set and a GeoPackage.
+  mkdirSync(join(dir, 'wgs72'));
+  gdal('ogr2ogr', '-f', 'ESRI Shapefile', '-t_srs', 'EPSG:32307', '-where', UNITS, '-nln', 'units', '-lco', 'ENCODING=UTF-8', join(dir, 'wgs72'), demo);
+  gdal('ogr2ogr', '-f', 'GPKG', '-t_srs', 'EPSG:32307', '-where', UNITS, '-nln', 'units', files.gpkgWgs72, demo);
+}, 120_000);
+
+describe.skipIf(!hasGdal)('importing administrative units from GIS files', () => {
+  const cases = [
+    { label: 'a zipped shapefile in EPSG:32707 (WGS 84 / UTM 7S)', file: () => files.zippedUtm, format: 'shapefile' as const, fields: SHAPEFILE_FIELDS, crs: /WGS_1984_UTM_Zone_7S.*no datum shift/ },
+    { label: 'a shapefile file set in EPSG:32307 (WGS 72 / UTM 7S)', file: () => files.shpWgs72, format: 'shapefile' as const, fields: SHAPEFILE_FIELDS, crs: /WGS_1972_UTM_Zone_7S.*EPSG:1238/ },
+    { label: 'a GeoPackage in EPSG:32307 (WGS 72 / UTM 7S)', file: () => files.gpkgWgs72, format: 'gpkg' as const, fields: GPKG_FIELDS, crs: /WGS 72 \/ UTM zone 7S.*EPSG:1238/ },
+  ];
+  for (const { label, file, format, fields, crs } of cases) {
+    it(`${label}: every unit, vertices within 1 m, corrected center within 1 m and radial within 0.5 % of the GeoJSON import`, async () => {
+      const dbPath = join(dir, `${format}-${label.length}.sqlite`);
+      const summary = await importInto(dbPath, file(), { format, sourceId: 'units', gis: fields });
+      expect(summary.rejected).toEqual([]);
+      expect(summary.imported).toBe(originals.length);
+      expect(summary.notes?.join('\n')).toMatch(crs);
+      const reference = featuresOf(referenceDb, 'geojson');
+      const imported = featuresOf(dbPath, 'units');
+      for (const original of originals as GeoJsonFeature[]) {
+        const id = String(original.properties!.id);
+        const got = imported.get(id)!;
+        const want = reference.get(id)!;
+        expect(got.name).toBe(original.properties!.name);
+        expect(got.featureType).toBe(original.properties!.featureType);
+        expect(got.stateProvince).toBe(original.properties!.stateProvince);
+        expect(meters([got.longitude, got.latitude], [want.longitude, want.latitude])).toBeLessThan(1);
+        expect(Math.abs(got.radiusMeters - want.radiusMeters) / want.radiusMeters).toBeLessThan(0.005);
+        // Vertex for vertex (a shapefile may start rings elsewhere or turn them, so each original vertex has a near twin).
+        const vertices = (JSON.parse(String(got.geometry ? JSON.stringify(got.geometry) : 'null')) as { coordinates: unknown }).coordinates;
+        const flat = (c: unknown): Position[] => (typeof (c as Position)[0] === 'number' ? [c as Position] : (c as unknown[]).flatMap(flat));
+        const importedVertices = flat(vertices);
+        for (const vertex of flat((original.geometry as { coordinates: unknown }).coordinates)) {
+          expect(Math.min(...importedVertices.map((v) => meters(v, vertex)))).toBeLessThan(1);
+        }
+      }
+    });
+  }
+
+  it('refuses a datum with no known shift by name, and a zip of several shapefiles without --layer', async () => {
+    const odd = join(dir, 'odd');
+    mkdirSync(odd);
+    gdal('ogr2ogr', '-f', 'ESRI Shapefile', '-t_srs', '+proj=utm +zone=7 +south +a=6378300 +rf=296 +units=m', '-where', UNITS, '-nln', 'odd', odd, demo);
+    writeFileSync(join(odd, 'odd.prj'), readFileSync(join(odd, 'odd.prj'), 'utf8').replace(/DATUM\["[^"]*"/, 'DATUM["D_Isla_Verdemar_1901"'));
+    await expect(importInto(join(dir, 'odd.sqlite'), join(odd, 'odd.shp'), { format: 'shapefile', gis: SHAPEFILE_FIELDS })).rejects.toThrow(/datum "D_Isla_Verdemar_1901".*no shift to WGS84/);
+    const two = join(dir, 'two.zip');
+    const set = (stem: string) => Object.fromEntries(['shp', 'shx', 'dbf', 'prj'].map((ext) => [`${stem}.${ext}`, readFileSync(join(dir, 'wgs72', `units.${ext}`))]));
+    writeFileSync(two, zipSync({ ...set('a'), ...set('b') }));
+    await expect(importInto(join(dir, 'two.sqlite'), two, { format: 'shapefile', gis: SHAPEFILE_FIELDS })).rejects.toThrow(/several shapefiles \(a, b\): choose one with --layer/);
+  });
+});
+
+describe.skipIf(!hasGdal)('imported units bound and filter `locate` (real CLI)', () => {
+  const db = join(dir, 'cli.sqlite');
+  const whereabouts = (...args: string[]) => run(process.execPath, [cli, '--db', db, ...args], { cwd: root, maxBuffer: 64 << 20 });
+
+  beforeAll(async () => {
+    // Places without their county and state attributes, so only the units' polygons can place them.
+    const places = join(dir, 'places.geojson');
+    gdal('ogr2ogr', '-f', 'GeoJSON', '-where', `NOT (${UNITS})`, '-select', 'id,name,alternateNames,featureType,countryCode,radiusMeters', places, demo);
+    await whereabouts('import', places, '--source', 'demo places (invented)');
+    await whereabouts('import', files.zippedUtm, '--source-id', 'counties', '--source', 'demo counties (invented)', '--name-field', 'name', '--id-field', 'id',
+      '--type-field', 'featureTyp', '--state-province-field', 'stateProvi', '--county-field', 'county', '--country-code', 'QV');
+  }, 120_000);
+
+  it('picks the Los Pinos inside the stated county by its polygon, and clips the footprint to it', async () => {
+    // Two villages are named Los Pinos (demo: qv-0016 in Alisos, qv-0039 in Tres Cruces).
+    const ambiguous = JSON.parse((await whereabouts('locate', 'Los Pinos', '--country-code', 'QV', '--json')).stdout);
+    expect(ambiguous.status).not.toBe('georeferenced');
+    const body = JSON.parse((await whereabouts('locate', 'Los Pinos', '--country-code', 'QV', '--county', 'Tres Cruces', '--json')).stdout);
+    expect(body.status).toBe('georeferenced');
+    // The village, then the imported county whose polygon bounds the footprint.
+    const used = body.georeference.features.map((f: { sourceId: string; featureId: string }) => `${f.sourceId}:${f.featureId}`);
+    expect(used).toEqual(['places:qv-0039', 'counties:qv-0006']);
+    expect(body.darwinCore.georeferenceRemarks).toContain('clipped to county "Tres Cruces"');
+  });
+});
