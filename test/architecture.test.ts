@@ -28,8 +28,10 @@ const ALLOWED: Readonly<Record<string, readonly string[]>> = {
   store: ['match', 'georef', 'parse', 'geodesy'],
   // An edge may also call an edge below it (the service starts batch jobs, the CLI starts the service).
   batch: [...CORE, 'store', 'version'],
-  server: [...CORE, 'store', 'version', 'batch'],
-  cli: [...CORE, 'store', 'version', 'batch', 'server'],
+  // The output layer writes finished results in other formats (GeoJSON, GeoPackage) for the edges.
+  output: [...CORE, 'batch'],
+  server: [...CORE, 'store', 'version', 'batch', 'output'],
+  cli: [...CORE, 'store', 'version', 'batch', 'server', 'output'],
 };
 /**
  * Type-only imports allowed against the flow: the Darwin Core record is built from locate's result,

@@ -6,7 +6,7 @@ import type { MultiPolygon, Polygon } from 'geojson';
 import { readRecords, type Delimiter } from '../batch/records.ts';
 import { inspectInput } from '../batch/input-format.ts';
 import { GEOREFERENCE_TERMS } from '../record/darwin-core.ts';
-import { footprintGeometry } from '../server/wkt.ts';
+import { footprintGeometry } from '../geodesy/wkt.ts';
 
 export interface ResultRow {
   /** The row's fields, one for each column, as the CSV holds them. */

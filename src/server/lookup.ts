@@ -13,7 +13,7 @@ import { darwinCoreFields, type GeoreferenceTerm } from '../record/darwin-core.t
 import { VERSION } from '../version.ts';
 import { RequestError } from './errors.ts';
 import type { ResultCache } from './result-cache.ts';
-import { footprintGeometry } from './wkt.ts';
+import { footprintGeometry } from '../geodesy/wkt.ts';
 
 /** What the server needs of a gazetteer store (src/store/gazetteer-store.ts implements it). */
 export interface ServedGazetteer extends CandidateFinder {
