@@ -131,7 +131,8 @@ describe.skipIf(!hasGdal)('imported units bound and filter `locate` (real CLI)',
     gdal('ogr2ogr', '-f', 'GeoJSON', '-where', `NOT (${UNITS})`, '-select', 'id,name,alternateNames,featureType,countryCode,radiusMeters', places, demo);
     await whereabouts('import', places, '--source', 'demo places (invented)');
     await whereabouts('import', files.zippedUtm, '--source-id', 'counties', '--source', 'demo counties (invented)', '--name-field', 'name', '--id-field', 'id',
-      '--type-field', 'featureTyp', '--state-province-field', 'stateProvi', '--county-field', 'county', '--country-code', 'QV');
+      '--type-field', 'featureTyp', '--state-province-field', 'stateProvi', '--county-field', 'county', '--country-code', 'QV',
+      '--alternate-names-field', 'alternateN');
   }, 120_000);
 
   it('picks the Los Pinos inside the stated county by its polygon, and clips the footprint to it', async () => {
@@ -144,5 +145,15 @@ describe.skipIf(!hasGdal)('imported units bound and filter `locate` (real CLI)',
     const used = body.georeference.features.map((f: { sourceId: string; featureId: string }) => `${f.sourceId}:${f.featureId}`);
     expect(used).toEqual(['places:qv-0039', 'counties:qv-0006']);
     expect(body.darwinCore.georeferenceRemarks).toContain('clipped to county "Tres Cruces"');
+  });
+
+  it('matches a stated province by an alternate name of the imported unit and takes the Santa Rosa inside it', async () => {
+    // Two places are named Santa Rosa (demo: qv-0015 in Poniente, qv-0053 in Serra Alta); "Western Province"
+    // is an alternate name of Poniente (qv-0002) in the imported shapefile only.
+    const body = JSON.parse((await whereabouts('locate', 'Santa Rosa', '--country-code', 'QV', '--state-province', 'Western Province', '--json')).stdout);
+    expect(body.status).toBe('georeferenced');
+    const used = body.georeference.features.map((f: { sourceId: string; featureId: string }) => `${f.sourceId}:${f.featureId}`);
+    expect(used[0]).toBe('places:qv-0015');
+    expect(used).toContain('counties:qv-0002');
   });
 });
