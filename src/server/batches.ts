@@ -5,7 +5,7 @@
  * module's own folder: nothing a request says is ever used as a path.
  */
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
@@ -15,6 +15,7 @@ import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import type { LocateResult } from '../locate.ts';
 import { parseLocality } from '../parse/index.ts';
 import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import { writeResults } from '../output/gis-results.ts';
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
@@ -220,6 +221,25 @@ export class BatchService {
       return copy;
     });
     return stringify([output.header, ...rows]);
+  }
+
+  /**
+   * The reviewed output as a GeoJSON FeatureCollection or a GeoPackage (src/output), made from
+   * `reviewedCsv` in files beside the jobs that are removed once read.
+   */
+  async reviewedFile(jobId: string, format: 'geojson' | 'gpkg'): Promise<Buffer> {
+    const csv = this.reviewedCsv(jobId);
+    const stem = join(this.folder, `reviewed-${randomUUID()}`);
+    const csvPath = `${stem}.csv`;
+    const output = `${stem}.${format}`;
+    writeFileSync(csvPath, csv);
+    try {
+      await writeResults({ format, csvPath, delimiter: ',', output, runTimestamp: new Date().toISOString().replace(/\.\d+Z$/, 'Z') });
+      return readFileSync(output);
+    } finally {
+      rmSync(csvPath, { force: true });
+      rmSync(output, { force: true });
+    }
   }
 
   /**

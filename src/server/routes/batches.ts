@@ -17,7 +17,7 @@ const open = { type: 'object', additionalProperties: true } as const;
 /**
  * Batch upload and review: POST /api/v1/batches (multipart, field `file`), GET …/:jobId (progress,
  * for polling), GET …/:jobId/records (the review list), GET and PUT …/records/:row (one record, its
- * decision), GET …/:jobId/reviewed.csv (the reviewed file).
+ * decision), GET …/:jobId/reviewed.csv (the reviewed file; also reviewed.geojson and reviewed.gpkg).
  */
 export async function registerBatchRoutes(app: FastifyInstance, batches: BatchService, uploadLimit: number): Promise<void> {
   await app.register(async (scope) => {
@@ -139,5 +139,21 @@ export async function registerBatchRoutes(app: FastifyInstance, batches: BatchSe
           .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.csv"`)
           .send(batches.reviewedCsv(request.params.jobId)),
     );
+
+    const gisFormats = [
+      { format: 'geojson', type: 'application/geo+json', summary: 'The reviewed batch output as a GeoJSON FeatureCollection (RFC 7946)' },
+      { format: 'gpkg', type: 'application/geopackage+sqlite3', summary: 'The reviewed batch output as a GeoPackage: layers points and footprints' },
+    ] as const;
+    for (const { format, type, summary } of gisFormats) {
+      scope.get<{ Params: { jobId: string } }>(
+        `/api/v1/batches/:jobId/reviewed.${format}`,
+        { schema: { summary, tags: ['batch'], params: jobParams, produces: [type] } },
+        async (request, reply) =>
+          reply
+            .header('content-type', type)
+            .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.${format}"`)
+            .send(await batches.reviewedFile(request.params.jobId, format)),
+      );
+    }
   });
 }
