@@ -68,7 +68,7 @@ export function crsToWgs84(wkt: string, where: string): CrsToWgs84 {
   }
   const converter = proj4(name, WGS84);
   return {
-    forward: (position) => converter.forward([position[0]!, position[1]!]),
+    forward: (position) => snapToBounds(converter.forward([position[0]!, position[1]!])),
     description: `${label}, datum ${datumName || 'unnamed'} → WGS 84 by ${shift}`,
   };
 }
@@ -80,4 +80,12 @@ function tableDatum(geographic: ParsedWkt | NonNullable<ParsedWkt['GEOGCS']>, da
   if (byCode) return byCode;
   const readable = (text: string | undefined) => (text ?? '').replace(/^(D|GCS)_/i, '').replace(/_/g, ' ');
   return datumFromName(readable(datumName)) ?? datumFromName(readable(geographic.name));
+}
+
+/** Round-off of a projection's inverse (about 1e-14°) kept from pushing a vertex on ±180° or ±90° past it. */
+const BOUND_TOLERANCE_DEGREES = 1e-9;
+
+function snapToBounds([longitude, latitude]: Position): Position {
+  const snap = (value: number, bound: number) => (Math.abs(value) > bound && Math.abs(value) - bound < BOUND_TOLERANCE_DEGREES ? Math.sign(value) * bound : value);
+  return [snap(longitude!, 180), snap(latitude!, 90)];
 }
