@@ -122,6 +122,11 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
   }
   const crs = crsToWgs84(Buffer.from(parts.prj).toString('utf8'), `${parts.name}.prj`);
   const encoding = map.encoding ?? codePage(parts.cpg) ?? 'windows-1252';
+  try {
+    new TextDecoder(encoding);
+  } catch {
+    throw new Error(`${filePath}: the .dbf encoding "${encoding}" (${map.encoding ? '--encoding' : `${parts.name}.cpg`}) is not one whereabouts knows; give --encoding, e.g. windows-1252, iso-8859-1 or utf-8`);
+  }
   const source = await shapefile.open(toArrayBuffer(parts.shp), toArrayBuffer(parts.dbf), { encoding });
   const fields = dbfFieldNames(parts.dbf, encoding);
   async function* features() {
@@ -167,11 +172,12 @@ function shapefileBeside(shpPath: string): ShapefileParts {
   return { name: stem, shp: readFileSync(shpPath), dbf: part('dbf'), prj: part('prj'), cpg: part('cpg') };
 }
 
-/** A .cpg's code page as an encoding name TextDecoder knows ("1252" → windows-1252; "UTF-8" as is). */
+/** A .cpg's code page as an encoding name TextDecoder knows ("1252", "CP1252" → windows-1252; "UTF-8" as is). */
 function codePage(cpg: Uint8Array | undefined): string | undefined {
   if (!cpg) return undefined;
   const text = Buffer.from(cpg).toString('latin1').trim();
-  if (/^\d+$/.test(text)) return text === '65001' ? 'utf-8' : `windows-${text}`;
+  const number = /^(?:CP|ANSI\s*)?(\d+)$/i.exec(text)?.[1];
+  if (number) return number === '65001' ? 'utf-8' : `windows-${number}`;
   if (/^8859_?(\d+)$/.test(text)) return `iso-8859-${/(\d+)$/.exec(text)![1]}`;
   return text || undefined;
 }

@@ -6,7 +6,7 @@
  * Survey Review 23:88), and the imported units must bound and filter `locate` through the real CLI.
  */
 import { execFile } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
@@ -107,6 +107,31 @@ describe.skipIf(!hasGdal)('importing administrative units from GIS files', () =>
       }
     });
   }
+
+  it('reads a .dbf in its .cpg code page or the default windows-1252, and a GeoPackage with Z coordinates', async () => {
+    const cp1252 = join(dir, 'cp1252');
+    gdal('ogr2ogr', '-f', 'ESRI Shapefile', '-t_srs', 'EPSG:32707', '-where', UNITS, '-nln', 'units', '-lco', 'ENCODING=CP1252', cp1252, demo);
+    expect(readFileSync(join(cp1252, 'units.cpg'), 'latin1').trim()).toBe('CP1252');
+    const names = async (file: string, gis: object, sourceId: string) => {
+      const dbPath = join(dir, `${sourceId}.sqlite`);
+      const summary = await importInto(dbPath, file, { format: file.endsWith('.gpkg') ? 'gpkg' : 'shapefile', sourceId, gis });
+      return { summary, features: featuresOf(dbPath, sourceId) };
+    };
+    const withCpg = await names(join(cp1252, 'units.shp'), SHAPEFILE_FIELDS, 'cpg');
+    expect(withCpg.features.get('qv-0004')!.name).toBe('Côte-du-Levant');
+    rmSync(join(cp1252, 'units.cpg'));
+    expect((await names(join(cp1252, 'units.shp'), SHAPEFILE_FIELDS, 'nocpg')).features.get('qv-0004')!.name).toBe('Côte-du-Levant');
+    const wrong = await names(join(cp1252, 'units.shp'), { ...SHAPEFILE_FIELDS, encoding: 'utf-8' }, 'wrong');
+    expect(wrong.summary.rejected.map((r) => r.reason)).toContain('not valid UTF-8 (name)');
+    await expect(names(join(cp1252, 'units.shp'), { ...SHAPEFILE_FIELDS, encoding: 'klingon' }, 'unknown')).rejects.toThrow(/encoding "klingon" \(--encoding\) is not one whereabouts knows/);
+
+    const threeD = join(dir, 'units-z.gpkg');
+    gdal('ogr2ogr', '-f', 'GPKG', '-t_srs', 'EPSG:32707', '-dim', 'XYZ', '-where', UNITS, '-nln', 'units', threeD, demo);
+    const z = await names(threeD, GPKG_FIELDS, 'z');
+    expect(z.summary.rejected).toEqual([]);
+    const reference = featuresOf(referenceDb, 'geojson');
+    for (const [id, feature] of z.features) expect(meters([feature.longitude, feature.latitude], [reference.get(id)!.longitude, reference.get(id)!.latitude])).toBeLessThan(1);
+  });
 
   it('refuses a datum with no known shift by name, and a zip of several shapefiles without --layer', async () => {
     const odd = join(dir, 'odd');
