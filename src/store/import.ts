@@ -2,6 +2,7 @@
  * Streams a gazetteer file (CSV, GeoJSON FeatureCollection, or the world-gazetteer dump layout) into
  * the store in one transaction: constant memory for any file size, every refused row returned with its
  * row number and reason, the source recorded with its citation, licence and the file's sha256.
+ * Shapefiles and GeoPackages (gis-import.ts) go the same way, but are read whole.
  */
 import { createHash } from 'node:crypto';
 import { accessSync, constants, createReadStream } from 'node:fs';
