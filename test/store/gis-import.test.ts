@@ -172,6 +172,18 @@ describe.skipIf(!hasGdal)('imported units bound and filter `locate` (real CLI)',
     expect(body.darwinCore.georeferenceRemarks).toContain('clipped to county "Tres Cruces"');
   });
 
+  it('bounds and filters by a stated municipality when the units are imported as municipalities', async () => {
+    const municipalities = join(dir, 'municipalities.sqlite');
+    const own = (...args: string[]) => run(process.execPath, [cli, '--db', municipalities, ...args], { cwd: root, maxBuffer: 64 << 20 });
+    await own('import', join(dir, 'places.geojson'), '--source', 'demo places (invented)');
+    // The demo's counties, taken as municipalities (an invented scenario: the island's municipalities share their bounds).
+    await own('import', files.zippedUtm, '--source-id', 'municipalities', '--source', 'demo municipalities (invented)', '--id-field', 'id', '--feature-type', 'municipality', '--country-code', 'QV');
+    const body = JSON.parse((await own('locate', 'Los Pinos', '--country-code', 'QV', '--municipality', 'Tres Cruces', '--json')).stdout);
+    expect(body.status).toBe('georeferenced');
+    expect(body.georeference.features.map((f: { sourceId: string; featureId: string }) => `${f.sourceId}:${f.featureId}`)).toEqual(['places:qv-0039', 'municipalities:qv-0006']);
+    expect(body.darwinCore.georeferenceRemarks).toContain('clipped to municipality "Tres Cruces"');
+  });
+
   it('matches a stated province by an alternate name of the imported unit and takes the Santa Rosa inside it', async () => {
     // Two places are named Santa Rosa (demo: qv-0015 in Poniente, qv-0053 in Serra Alta); "Western Province"
     // is an alternate name of Poniente (qv-0002) in the imported shapefile only.
