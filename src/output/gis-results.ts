@@ -40,7 +40,8 @@ export function batchCsvPath(format: ResultFormat, output: string): string {
 }
 
 /**
- * Turn the finished CSV into the asked format and remove it (nothing to do for CSV).
+ * Turn the finished CSV into the asked format and remove it (nothing to do for CSV); when that fails, a
+ * CSV beside a file output is kept.
  * @example await writeResults({ format: 'geojson', csvPath: 'out.geojson.rows.csv', delimiter: ',', output: 'out.geojson', runTimestamp })
  */
 export async function writeResults(options: {
@@ -48,7 +49,13 @@ export async function writeResults(options: {
 }): Promise<void> {
   const { format, csvPath, delimiter, output } = options;
   if (format === 'csv') return;
-  if (format === 'gpkg') await writeGeoPackage(csvPath, delimiter, output, options.runTimestamp);
-  else await writeGeoJSON(csvPath, delimiter, output === '-' ? (options.stdout ?? process.stdout) : output);
+  try {
+    if (format === 'gpkg') await writeGeoPackage(csvPath, delimiter, output, options.runTimestamp);
+    else await writeGeoJSON(csvPath, delimiter, output === '-' ? (options.stdout ?? process.stdout) : output);
+  } catch (error) {
+    // Beside a file output the CSV stays, so that nothing is lost; a temporary one for standard output goes.
+    if (output === '-') rmSync(csvPath, { force: true });
+    throw error;
+  }
   rmSync(csvPath, { force: true });
 }
