@@ -8,7 +8,7 @@ import { join, resolve } from 'node:path';
 import { randomUUID } from 'node:crypto';
 import type { Writable } from 'node:stream';
 import type { Delimiter } from '../batch/records.ts';
-import { writeGeoJSON } from './geojson.ts';
+import { writeGeoJSON } from './batch-geojson.ts';
 import { writeGeoPackage } from './geopackage.ts';
 
 export const RESULT_FORMATS = ['csv', 'geojson', 'gpkg'] as const;
