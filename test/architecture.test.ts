@@ -12,7 +12,7 @@ import { describe, expect, it } from 'vitest';
 
 const SRC = new URL('../src/', import.meta.url).pathname;
 
-const CORE = ['geodesy', 'parse', 'match', 'georef', 'record', 'locate'] as const;
+const CORE = ['geodesy', 'parse', 'match', 'georef', 'record', 'locate', 'output'] as const;
 /**
  * What each folder may import besides itself. `version` (src/version.ts, the package version read
  * once) is metadata any folder may cite.
@@ -28,10 +28,10 @@ const ALLOWED: Readonly<Record<string, readonly string[]>> = {
   store: ['match', 'georef', 'parse', 'geodesy'],
   // An edge may also call an edge below it (the service starts batch jobs, the CLI starts the service).
   batch: [...CORE, 'store', 'version'],
-  // The output layer writes finished results in other formats (GeoJSON, GeoPackage) for the edges.
-  output: [...CORE, 'batch'],
-  server: [...CORE, 'store', 'version', 'batch', 'output'],
-  cli: [...CORE, 'store', 'version', 'batch', 'server', 'output'],
+  // What each output format holds (pure); the edges write the files.
+  output: ['locate', 'record', 'georef', 'match', 'parse', 'geodesy'],
+  server: [...CORE, 'store', 'version', 'batch'],
+  cli: [...CORE, 'store', 'version', 'batch', 'server'],
 };
 /**
  * Type-only imports allowed against the flow: the Darwin Core record is built from locate's result,

@@ -15,7 +15,7 @@ import { groupOf, indexColumns } from '../batch/locality-group.ts';
 import type { LocateResult } from '../locate.ts';
 import { parseLocality } from '../parse/index.ts';
 import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
-import { writeResults } from '../output/gis-results.ts';
+import { writeResults } from '../batch/gis-output.ts';
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';

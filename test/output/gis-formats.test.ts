@@ -1,5 +1,5 @@
 /**
- * `batch --format gpkg|geojson` read by an outside reader: Debian's GDAL (ogrinfo, gdal-bin) opens the
+ * `batch --format gpkg|geojson` (src/batch/gis-output.ts, src/output) read by an outside reader: Debian's GDAL (ogrinfo, gdal-bin) opens the
  * GeoPackage (OGC GeoPackage Encoding Standard 1.3, OGC 12-128) and the GeoJSON (RFC 7946) and reads
  * back every row with the same values as the CSV the same batch writes. Real CLI, real files.
  */

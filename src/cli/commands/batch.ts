@@ -2,7 +2,7 @@ import type { Command } from 'commander';
 import cliProgress from 'cli-progress';
 import { startBatchJob, type BatchProgressEvent, type BatchSummary } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
-import { batchCsvPath, resultFormat, RESULT_FORMATS, writeResults, type ResultFormat } from '../../output/gis-results.ts';
+import { batchCsvPath, resultFormat, RESULT_FORMATS, writeResults, type ResultFormat } from '../../batch/gis-output.ts';
 
 interface BatchCommandOptions {
   out?: string;
