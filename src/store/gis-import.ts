@@ -163,13 +163,30 @@ function zippedShapefile(filePath: string, layer: string | undefined): Shapefile
 }
 
 function shapefileBeside(shpPath: string): ShapefileParts {
+  const [dbf, prj, cpg] = SIDE_FILES.map((ext) => {
+    const path = sideFile(shpPath, ext);
+    return path === undefined ? undefined : readFileSync(path);
+  });
+  return { name: basename(shpPath, extname(shpPath)), shp: readFileSync(shpPath), dbf, prj, cpg };
+}
+
+const SIDE_FILES = ['dbf', 'prj', 'cpg'] as const;
+
+/** The file beside a .shp with another extension (any case), if there is one. */
+function sideFile(shpPath: string, ext: string): string | undefined {
   const stem = basename(shpPath, extname(shpPath));
-  const siblings = readdirSync(dirname(shpPath));
-  const part = (ext: string) => {
-    const found = siblings.find((f) => f.toLowerCase() === `${stem}.${ext}`.toLowerCase());
-    return found && existsSync(join(dirname(shpPath), found)) ? readFileSync(join(dirname(shpPath), found)) : undefined;
-  };
-  return { name: stem, shp: readFileSync(shpPath), dbf: part('dbf'), prj: part('prj'), cpg: part('cpg') };
+  const found = readdirSync(dirname(shpPath)).find((f) => f.toLowerCase() === `${stem}.${ext}`.toLowerCase());
+  return found && existsSync(join(dirname(shpPath), found)) ? join(dirname(shpPath), found) : undefined;
+}
+
+/**
+ * The files a .shp's features also come from (its .dbf, .prj, .cpg), so the source's content hash covers
+ * them; none for a zip or a GeoPackage, which hold everything.
+ * @example gisCompanionFiles('units.shp') // ['units.dbf', 'units.prj']
+ */
+export function gisCompanionFiles(filePath: string): string[] {
+  if (extname(filePath).toLowerCase() !== '.shp') return [];
+  return SIDE_FILES.flatMap((ext) => sideFile(filePath, ext) ?? []);
 }
 
 /** A .cpg's code page as an encoding name TextDecoder knows ("1252", "CP1252" → windows-1252; "UTF-8" as is). */

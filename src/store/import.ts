@@ -5,7 +5,7 @@
  * Shapefiles and GeoPackages (gis-import.ts) go the same way, but are read whole.
  */
 import { createHash } from 'node:crypto';
-import { accessSync, constants, createReadStream } from 'node:fs';
+import { accessSync, constants, createReadStream, readFileSync } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { createInterface } from 'node:readline';
 import { StringDecoder } from 'node:string_decoder';
@@ -15,7 +15,7 @@ import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
 import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
-import { readGisFile, type GisFieldMap } from './gis-import.ts';
+import { gisCompanionFiles, readGisFile, type GisFieldMap } from './gis-import.ts';
 import type { GazetteerStore } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
@@ -90,7 +90,10 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
     }
-    if (gis) await finished(input); // the GIS readers read the file themselves; the hash still sees every byte
+    if (gis) {
+      await finished(input); // the GIS readers read the file themselves; the hash still sees every byte …
+      for (const companion of gisCompanionFiles(filePath)) hash.update(readFileSync(companion)); // … and a .shp's side files
+    }
     session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format });
   } catch (error) {
     session.rollback();

@@ -50,6 +50,15 @@ function featuresOf(dbPath: string, sourceId: string): Map<string, Feature> {
   }
 }
 
+function sourceHash(dbPath: string): string {
+  const store = openGazetteer(dbPath, { readonly: true });
+  try {
+    return store.sources()[0]!.contentHash;
+  } finally {
+    store.close();
+  }
+}
+
 const meters = (a: Position, b: Position) => new LatLon(a[1]!, a[0]!).distanceTo(new LatLon(b[1]!, b[0]!));
 
 const referenceDb = join(dir, 'reference.sqlite');
@@ -119,8 +128,11 @@ describe.skipIf(!hasGdal)('importing administrative units from GIS files', () =>
     };
     const withCpg = await names(join(cp1252, 'units.shp'), SHAPEFILE_FIELDS, 'cpg');
     expect(withCpg.features.get('qv-0004')!.name).toBe('Côte-du-Levant');
+    const hashWithCpg = sourceHash(join(dir, 'cpg.sqlite'));
     rmSync(join(cp1252, 'units.cpg'));
     expect((await names(join(cp1252, 'units.shp'), SHAPEFILE_FIELDS, 'nocpg')).features.get('qv-0004')!.name).toBe('Côte-du-Levant');
+    // The source's content hash covers the side files: without the .cpg it differs.
+    expect(sourceHash(join(dir, 'nocpg.sqlite'))).not.toBe(hashWithCpg);
     const wrong = await names(join(cp1252, 'units.shp'), { ...SHAPEFILE_FIELDS, encoding: 'utf-8' }, 'wrong');
     expect(wrong.summary.rejected.map((r) => r.reason)).toContain('not valid UTF-8 (name)');
     await expect(names(join(cp1252, 'units.shp'), { ...SHAPEFILE_FIELDS, encoding: 'klingon' }, 'unknown')).rejects.toThrow(/encoding "klingon" \(--encoding\) is not one whereabouts knows/);
