@@ -3,11 +3,10 @@
  * gazetteer, which each worker opens read-only once and keeps open.
  */
 import { openGazetteer, type OpenOptions } from '../store/gazetteer-store.ts';
-import type { LocateRequest } from '../locate.ts';
+import type { LocateRequest } from '../locate/locate.ts';
+import { renderGroup, type Delimiter, type RenderedGroup } from '../output/csv.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { georeferenceGroup, type BatchSettings } from './georeference-group.ts';
-import type { Delimiter } from './records.ts';
-import { renderGroup, type RenderedGroup } from './rendered-group.ts';
 
 /**
  * How batch threads open the gazetteer: read-only, no memory map and a 16 MiB page cache, so that two
@@ -36,7 +35,10 @@ export default function georeferenceChunk(task: GeoreferenceTask): { id: number;
     opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, BATCH_STORE_OPTIONS) };
   }
   const store = opened.store;
-  return task.groups.map(({ id, request }) => ({ id, result: renderGroup(georeferenceGroup(store, request, task.settings, task.context), task.delimiter) }));
+  return task.groups.map(({ id, request }) => {
+    const group = georeferenceGroup(store, request, task.settings, task.context);
+    return { id, result: renderGroup(group, task.delimiter, group.localityType) };
+  });
 }
 
 /** Close the gazetteer this thread opened (the main thread, after doing a small batch itself). */

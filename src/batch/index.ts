@@ -5,6 +5,7 @@
  *   jobProgress(jobsDatabasePath(dbPath), jobId).rowsDone;
  */
 export { startBatchJob, type BatchJobOptions, type BatchProgressEvent, type BatchSummary } from './run.ts';
-export { jobProgress, type JobProgress, type JobState } from '../store/jobs.ts';
+export { jobProgress, storedLocalityTypes, type JobProgress, type JobState } from '../store/jobs.ts';
 export { jobsDatabasePath } from '../store/side-files.ts';
-export { COORDINATE_FLAGS, COORDINATE_FLAGS_COLUMN, type CoordinateFlag } from './coordinate-check.ts';
+export { COORDINATE_FLAGS, type CoordinateFlag } from '../record/coordinate-check.ts';
+export { COORDINATE_FLAGS_COLUMN } from '../output/csv.ts';

@@ -2,7 +2,7 @@
  * Which rows share a georeference: the locality text, normalised, plus every field that changes what
  * `locate` is asked. Rows with the same key are georeferenced once.
  */
-import type { LocateRequest } from '../locate.ts';
+import type { LocateRequest } from '../locate/locate.ts';
 
 /** The optional batch columns passed to `locate` (issue 2 batch CSV contract), in key order. */
 export const REQUEST_COLUMNS = ['countryCode', 'country', 'stateProvince', 'county', 'municipality', 'geodeticDatum', 'verbatimCoordinates'] as const;

@@ -6,6 +6,7 @@ import { createReadStream } from 'node:fs';
 import { Transform, type TransformCallback } from 'node:stream';
 import { parse } from 'csv-parse';
 import iconv from 'iconv-lite';
+import type { Delimiter } from '../output/csv.ts';
 import type { InputFormat } from './input-format.ts';
 
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
@@ -16,7 +17,7 @@ export interface InputRecord {
   problem?: string;
 }
 
-export type Delimiter = ',' | ';' | '\t';
+export type { Delimiter } from '../output/csv.ts';
 
 /** The longest row accepted [CHOICE]: a quote left open must not swallow the rest of a large file. */
 export const MAX_ROW_CHARACTERS = 1_000_000;

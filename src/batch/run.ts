@@ -14,16 +14,17 @@ import { setTimeout as sleep } from 'node:timers/promises';
 import type Database from 'better-sqlite3';
 import Tinypool from 'tinypool';
 import { openGazetteer } from '../store/gazetteer-store.ts';
-import type { LocateRequest } from '../locate.ts';
-import { appendedColumnNames, darwinCoreFields, type RecordContext } from '../record/darwin-core.ts';
+import { unreadableRecord } from '../locate/georeference-record.ts';
+import type { LocateRequest } from '../locate/locate.ts';
+import { appendedLine, csvLine, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
+import { checkCoordinates } from '../record/coordinate-check.ts';
+import type { RecordContext } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
-import { checkCoordinates, COORDINATE_FLAGS_COLUMN, FLAG_SEPARATOR } from './coordinate-check.ts';
-import { unreadableResult, type BatchSettings } from './georeference-group.ts';
-import { appendedLine, csvLine, renderGroup, type RenderedGroup } from './rendered-group.ts';
+import type { BatchSettings } from './georeference-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
 import {
-  claimJob, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
+  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
 } from '../store/jobs.ts';
 import { jobsDatabasePath } from '../store/side-files.ts';
@@ -249,7 +250,7 @@ async function runJob(jobs: Database.Database, started: BatchJob, format: InputF
   const job = loadJob(jobs, started.id);
   await deliver(job, options);
   updateJob(jobs, job.id, { state: 'done', finishedAt: new Date().toISOString() });
-  jobs.prepare('DELETE FROM batch_locality WHERE job_id = ?').run(job.id);
+  dropLocalityResults(jobs, job.id);
   if (job.inputIsSpool) rmSync(job.inputPath, { force: true });
   const { malformed = 0, flagged = 0, ...byStatus } = job.tallies;
   return {
@@ -380,7 +381,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
         if (position === 0) {
-          const headerLine = csvLine([...record.fields, ...appendedColumnNames(record.fields), COORDINATE_FLAGS_COLUMN], delimiter) + LINE_END;
+          const headerLine = csvLine(outputHeader(record.fields), delimiter) + LINE_END;
           writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
@@ -480,16 +481,16 @@ function outputRow(
 ): string {
   const originals = csvLine(Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? ''), delimiter);
   if (!group) {
-    const unreadable = renderGroup({ fields: darwinCoreFields(unreadableResult('', record.problem ?? 'the row could not be read'), context), centers: [] }, delimiter);
+    const unreadable = renderGroup({ fields: unreadableRecord(record.problem ?? 'the row could not be read', context), centers: [] }, delimiter);
     count(tallies, 'malformed');
     count(tallies, unreadable.status);
-    return `${originals}${delimiter}${appendedLine(unreadable, [], '', delimiter)}${LINE_END}`;
+    return `${originals}${delimiter}${appendedLine(unreadable, [], [], delimiter)}${LINE_END}`;
   }
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
   const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
   if (check.flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
-  return `${originals}${delimiter}${appendedLine(group, check.remarks, check.flags.join(FLAG_SEPARATOR), delimiter)}${LINE_END}`;
+  return `${originals}${delimiter}${appendedLine(group, check.remarks, check.flags, delimiter)}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {

@@ -3,7 +3,7 @@
  * row's proposed point and footprint, and a row as a GeoJSON Feature (RFC 7946). Pure.
  */
 import type { Feature, MultiPolygon, Point, Polygon } from 'geojson';
-import { footprintGeometry } from '../geodesy/wkt.ts';
+import { footprintGeometry } from './footprint-geometry.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 
 export interface ResultRow {

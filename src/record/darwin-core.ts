@@ -4,8 +4,18 @@
  */
 import type { Source } from '../match/types.ts';
 import { inverse } from '../geodesy/geodesic.ts';
-import type { LocateResult, LocateStatus } from '../locate.ts';
+import type { Georeference } from '../georef/types.ts';
+import type { Interpretation } from '../parse/types.ts';
 import { VERSION } from '../version.ts';
+import { VERIFICATION_STATUS, type LocateStatus } from './verification-status.ts';
+
+/** What the terms are written from: the outcome of locating a record (`LocateResult` has this shape). */
+export interface LocatedRecord {
+  status: LocateStatus;
+  georeference?: Georeference;
+  reason?: string;
+  interpretation: Pick<Interpretation, 'notes'>;
+}
 
 /** The appended terms, in output order. Every one is a Darwin Core term (TDWG, dwc terms list). */
 export const GEOREFERENCE_TERMS = [
@@ -35,14 +45,6 @@ export interface RecordContext {
   sources: Source[];
 }
 
-/** Verification status by outcome (Darwin Core georeferenceVerificationStatus recommended values). */
-export const VERIFICATION_STATUS: Record<LocateStatus, string> = {
-  georeferenced: 'requires verification',
-  ambiguous: 'requires georeference',
-  'not-found': 'requires georeference',
-  unparseable: 'unable to georeference',
-};
-
 export const PROTOCOL = `point-radius method (Wieczorek, Guo & Hijmans 2004, doi:10.1080/13658810412331280211; Chapman & Wieczorek 2020, Georeferencing Best Practices, doi:10.15468/doc-gg7h-s853) as applied by whereabouts ${VERSION}`;
 
 /**
@@ -65,7 +67,7 @@ export function reportingDecimals(uncertaintyMeters: number): number {
  *   darwinCoreFields(result, { georeferencedBy: 'whereabouts 0.1.0', georeferencedDate: '2026-12-01T12:00:00Z', sources })
  *   // { decimalLatitude: '-45.4321', ..., georeferenceVerificationStatus: 'requires verification' }
  */
-export function darwinCoreFields(result: LocateResult, context: RecordContext): Record<GeoreferenceTerm, string> {
+export function darwinCoreFields(result: LocatedRecord, context: RecordContext): Record<GeoreferenceTerm, string> {
   const status = VERIFICATION_STATUS[result.status];
   const common = {
     georeferencedBy: context.georeferencedBy,
@@ -103,12 +105,6 @@ export function darwinCoreFields(result: LocateResult, context: RecordContext): 
   };
 }
 
-/** Output column names for an input header: `proposed_<term>` where the record already has the term. */
-export function appendedColumnNames(inputHeader: readonly string[]): string[] {
-  const present = new Set(inputHeader);
-  return GEOREFERENCE_TERMS.map((term) => (present.has(term) ? `proposed_${term}` : term));
-}
-
 function blankCoordinates() {
   return { decimalLatitude: '', decimalLongitude: '', geodeticDatum: '', coordinateUncertaintyInMeters: '', coordinatePrecision: '', footprintWKT: '', footprintSRS: '' };
 }
@@ -119,7 +115,7 @@ function roundTo(value: number, decimals: number): number {
 }
 
 /** Each gazetteer source used, with its content hash and the feature ids, so the result can be reproduced. */
-function citeSources(result: LocateResult, sources: Source[]): string {
+function citeSources(result: LocatedRecord, sources: Source[]): string {
   const used = result.georeference?.features ?? [];
   const bySource = new Map<string, string[]>();
   for (const f of used) bySource.set(f.sourceId, [...(bySource.get(f.sourceId) ?? []), f.featureId]);

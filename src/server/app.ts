@@ -7,9 +7,10 @@ import cors from '@fastify/cors';
 import helmet from '@fastify/helmet';
 import rateLimit from '@fastify/rate-limit';
 import swagger from '@fastify/swagger';
+import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import Fastify, { type FastifyInstance } from 'fastify';
 import { openGazetteer } from '../store/gazetteer-store.ts';
-import type { LocateResult } from '../locate.ts';
+import type { LocateResult } from '../locate/locate.ts';
 import { VERSION } from '../version.ts';
 import { assertSafeBind, tokenGuard } from './access.ts';
 import { loadAssets, registerAssets } from './assets.ts';
@@ -19,16 +20,21 @@ import { ResultCache } from './result-cache.ts';
 import { BatchService } from './batches.ts';
 import { openReviews } from '../store/reviews.ts';
 import { reviewsDatabasePath } from '../store/side-files.ts';
-import { registerBatchRoutes } from './routes/batches.ts';
-import { registerFeatureRoute } from './routes/features.ts';
-import { registerGeoreferenceRoute } from './routes/georeference.ts';
-import { registerLayersRoute } from './routes/layers.ts';
-import { registerLoginRoute } from './routes/login.ts';
+import type { ServedGazetteer } from './lookup.ts';
+import { batchRoutes } from './routes/batches.ts';
+import { featureRoutes } from './routes/features.ts';
+import { georeferenceRoutes } from './routes/georeference.ts';
+import { layersRoutes, type LayerSource } from './routes/layers.ts';
+import { loginRoutes } from './routes/login.ts';
 import { shapedFeatureLister } from './shaped-features.ts';
 
-export interface ServerOptions {
+export interface ServerOptions extends AppOptions {
   /** The SQLite database holding the gazetteer (opened read-only by the service). */
   dbPath: string;
+}
+
+/** The service's settings, apart from where its files are. */
+export interface AppOptions {
   /** Access token; required when `host` is not a loopback address. */
   token?: string;
   /** The address the caller will listen on (default 127.0.0.1); checked here, bound by the caller. */
@@ -50,16 +56,49 @@ export interface ServerOptions {
 /** Defaults [CHOICE]: a label's text is well under 64 KiB; 1200 a minute is 20 lookups a second per client; 2000 results are a few MB. */
 export const SERVER_DEFAULTS = { host: '127.0.0.1', resultCache: 2000, bodyLimit: 64 * 1024, uploadLimit: 50 * 1024 * 1024, rateLimit: { max: 1200, timeWindowMs: 60_000 } } as const;
 
+/** The opened stores the routes work on, injected into them as plugin options. */
+export interface ServedStores {
+  gazetteer: ServedGazetteer;
+  /** The gazetteer's polygons and lines, for the map's layers. */
+  layers: LayerSource;
+  /** Batch upload and review; without it the batch routes are not offered. */
+  batches?: BatchService;
+  /** Results kept for repeated lookups. */
+  results?: ResultCache<LocateResult>;
+}
+
 /**
- * Builds the service (not yet listening). Refuses a non-loopback host without a token.
+ * Builds the service (not yet listening) on the files beside `dbPath`: the gazetteer (read-only), the
+ * reviews and the batch jobs, closed again when the service closes. Refuses a non-loopback host
+ * without a token.
  * @example
  *   const app = await buildServer({ dbPath: 'whereabouts.sqlite' });
  *   await app.listen({ host: '127.0.0.1', port: 8737 });
  */
 export async function buildServer(options: ServerOptions): Promise<FastifyInstance> {
+  assertSafeBind(options.host ?? SERVER_DEFAULTS.host, options.token);
+  const store = openGazetteer(options.dbPath, { readonly: true });
+  const reviews = openReviews(reviewsDatabasePath(options.dbPath));
+  const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
+  const batches = new BatchService(options.dbPath, store, reviews, results);
+  await batches.resumeUnfinished();
+  const app = await buildApp({ gazetteer: store, layers: shapedFeatureLister(options.dbPath, store), batches, results }, options);
+  // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.
+  app.addHook('onClose', async () => {
+    if (batches.runningJobs().length) app.log.info({ jobs: batches.runningJobs() }, 'batch jobs stopped at their last committed step');
+    reviews.close();
+    store.close();
+  });
+  return app;
+}
+
+/**
+ * Builds the service on stores the caller has opened (and closes). Refuses a non-loopback host without a token.
+ * @example const app = await buildApp({ gazetteer: store, layers: { shapedFeatures: () => [] } }, {});
+ */
+export async function buildApp(stores: ServedStores, options: AppOptions): Promise<FastifyInstance> {
   const host = options.host ?? SERVER_DEFAULTS.host;
   assertSafeBind(host, options.token);
-  const store = openGazetteer(options.dbPath, { readonly: true });
   const bodyLimit = options.bodyLimit ?? SERVER_DEFAULTS.bodyLimit;
   const app = Fastify({
     logger: options.logger ?? false,
@@ -67,17 +106,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     // Types are checked, never coerced; unknown fields are refused, never dropped in silence.
     ajv: { customOptions: { coerceTypes: false, removeAdditional: false, allErrors: false } },
     forceCloseConnections: 'idle',
-  });
-  const reviews = openReviews(reviewsDatabasePath(options.dbPath));
-  const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
-  const batches = new BatchService(options.dbPath, store, reviews, results);
-  await batches.resumeUnfinished();
-  // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.
-  app.addHook('onClose', async () => {
-    if (batches.runningJobs().length) app.log.info({ jobs: batches.runningJobs() }, 'batch jobs stopped at their last committed step');
-    reviews.close();
-    store.close();
-  });
+  }).withTypeProvider<TypeBoxTypeProvider>();
   app.setErrorHandler(errorHandler(bodyLimit));
   app.setNotFoundHandler((request, reply) => reply.code(404).send({ statusCode: 404, error: 'Not Found', message: `nothing at ${request.method} ${request.url.split('?')[0].slice(0, 200)}` }));
   registerStrictJson(app);
@@ -125,11 +154,11 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
     },
   });
 
-  registerGeoreferenceRoute(app, store, results);
-  registerFeatureRoute(app, store);
-  registerLayersRoute(app, shapedFeatureLister(options.dbPath, store));
-  await registerBatchRoutes(app, batches, options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit);
-  if (options.token) registerLoginRoute(app, options.token);
+  await app.register(georeferenceRoutes, { gazetteer: stores.gazetteer, results: stores.results });
+  await app.register(featureRoutes, { gazetteer: stores.gazetteer });
+  await app.register(layersRoutes, { layers: stores.layers });
+  if (stores.batches) await app.register(batchRoutes, { batches: stores.batches, uploadLimit: options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit });
+  if (options.token) await app.register(loginRoutes, { token: options.token });
   app.get('/api/v1/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   registerAssets(app, loadAssets());
   return app;

@@ -8,25 +8,19 @@ import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { stringify } from 'csv-stringify/sync';
-import { FLAG_SEPARATOR } from '../batch/coordinate-check.ts';
-import { COORDINATE_FLAGS_COLUMN, jobProgress, startBatchJob, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
-import type { LocateResult } from '../locate.ts';
-import { parseLocality } from '../parse/index.ts';
-import { darwinCoreFields, GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import type { LocateResult } from '../locate/locate.ts';
+import { COORDINATE_FLAGS_COLUMN, csvDocument, readFlags } from '../output/csv.ts';
+import { answerBody, type AnswerBody } from '../output/json.ts';
+import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { writeResults } from '../batch/gis-output.ts';
 import { RequestError } from './errors.ts';
-import { lookUp, type FeatureKey, type LookupResponse, type ServedGazetteer } from './lookup.ts';
+import { lookUp, type FeatureKey, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
 import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
-
-/** georeferenceVerificationStatus after a decision (Darwin Core recommended values; method §6). */
-const REVIEWED_STATUS: Record<ReviewDecision, string> = {
-  accepted: 'verified by data custodian',
-  rejected: 'requires georeference',
-};
 
 /** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
 const NOT_CSV: [string, number[]][] = [
@@ -66,7 +60,7 @@ export interface RecordDetail {
   proposed: Record<string, string>;
   flags: string[];
   review: Review | null;
-  answer: LookupResponse;
+  answer: AnswerBody;
 }
 
 interface ParsedOutput {
@@ -174,10 +168,10 @@ export class BatchService {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
-    const answer = this.lookUpRow(output, fields, candidate ?? review?.candidate);
+    const answer = answerBody(this.lookUpRow(output, fields, candidate ?? review?.candidate));
     const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
     const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
-    return { row, original, proposed, flags: splitFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
+    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
   }
 
   /** Stores a decision with who and when. */
@@ -206,8 +200,7 @@ export class BatchService {
       const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
       if (review.candidate) {
-        const answer = this.lookUpRow(output, fields, review.candidate);
-        const recomputed = darwinCoreFields(answer, { georeferencedBy: review.reviewer, georeferencedDate: review.decidedAt, sources: this.store.sources() });
+        const recomputed = this.lookUpRow(output, fields, review.candidate, review).darwinCore;
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
       }
       const stamp = `${review.decision === 'accepted' ? 'verified' : 'rejected'} by ${review.reviewer} on ${review.decidedAt}`;
@@ -220,7 +213,7 @@ export class BatchService {
       set('georeferenceRemarks', [get('georeferenceRemarks'), stamp].filter(Boolean).join('; '));
       return copy;
     });
-    return stringify([output.header, ...rows]);
+    return csvDocument([output.header, ...rows]);
   }
 
   /**
@@ -266,16 +259,18 @@ export class BatchService {
     const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
     const column = termColumns(header);
     const columns = indexColumns(header.slice(0, originalLength));
+    // The locality type as the batch read it, from its stored results: the text is not parsed again.
+    const localityTypes = storedLocalityTypes(this.jobsPath, jobId);
     const summaries = rows.map((fields, i): RecordSummary => {
-      const locality = groupOf(fields.slice(0, originalLength), columns).request.locality;
+      const group = groupOf(fields.slice(0, originalLength), columns);
       const radius = fields[column.coordinateUncertaintyInMeters];
       return {
         row: i + 1,
-        locality,
+        locality: group.request.locality,
         status: fields[column.georeferenceVerificationStatus] ?? '',
-        localityType: parseLocality(locality).type,
+        localityType: localityTypes.get(group.key) ?? '',
         radiusMeters: radius ? Number(radius) : null,
-        flags: splitFlags(fields[header.length - 1]),
+        flags: readFlags(fields[header.length - 1]),
         review: null,
       };
     });
@@ -290,7 +285,8 @@ export class BatchService {
     return fields;
   }
 
-  private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey): LookupResponse {
+  /** A row through the front door again, as the API answers it: with the reviewer's candidate, and, for the reviewed file, the reviewer as georeferencedBy. */
+  private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey, review?: Review) {
     const originals = fields.slice(0, output.originalLength);
     const columns = indexColumns(output.header.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
@@ -298,21 +294,23 @@ export class BatchService {
     const latitude = coordinate(columns.decimalLatitude);
     const longitude = coordinate(columns.decimalLongitude);
     const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
-    return lookUp(this.store, {
-      ...request,
-      ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
-      options: candidate ? { candidate } : {},
-    }, this.results);
+    return lookUp(
+      this.store,
+      {
+        ...request,
+        ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
+        ...(review ? { georeferencedBy: review.reviewer } : {}),
+        options: candidate ? { candidate } : {},
+      },
+      this.results,
+      review ? new Date(review.decidedAt) : undefined,
+    );
   }
 }
 
 function termColumns(header: string[]): Record<GeoreferenceTerm, number> {
   const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
   return Object.fromEntries(GEOREFERENCE_TERMS.map((term, i) => [term, originalLength + i])) as Record<GeoreferenceTerm, number>;
-}
-
-function splitFlags(text: string | undefined): string[] {
-  return text ? text.split(FLAG_SEPARATOR).map((f) => f.trim()).filter(Boolean) : [];
 }
 
 function reviewedStatus(status: string, review: Review | undefined): string {

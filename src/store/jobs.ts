@@ -73,6 +73,9 @@ CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
 );
 CREATE UNIQUE INDEX IF NOT EXISTS batch_locality_key ON batch_locality (job_id, key);
+CREATE TABLE IF NOT EXISTS batch_locality_type (
+  job_id TEXT NOT NULL, key TEXT NOT NULL, locality_type TEXT NOT NULL, PRIMARY KEY (job_id, key)
+) WITHOUT ROWID;
 `;
 
 
@@ -200,5 +203,33 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
     };
   } finally {
     if (typeof jobs === 'string') db.close();
+  }
+}
+
+/**
+ * A finished job's results are dropped; the locality type each distinct locality was read as is kept
+ * (for the review list's facets), so nothing is parsed again.
+ */
+export function dropLocalityResults(db: Database.Database, jobId: string): void {
+  db.transaction(() => {
+    db.prepare(
+      "INSERT OR REPLACE INTO batch_locality_type (job_id, key, locality_type) SELECT job_id, key, json_extract(result, '$.localityType') FROM batch_locality WHERE job_id = ? AND json_extract(result, '$.localityType') IS NOT NULL",
+    ).run(jobId);
+    db.prepare('DELETE FROM batch_locality WHERE job_id = ?').run(jobId);
+  })();
+}
+
+/**
+ * The locality type each distinct locality of a finished job was read as, by its group key (a job
+ * finished before the types were kept has none).
+ * @example storedLocalityTypes(jobsDatabasePath(dbPath), jobId).get(key) // 'offset-heading'
+ */
+export function storedLocalityTypes(jobsPath: string, jobId: string): Map<string, string> {
+  const db = openJobs(jobsPath);
+  try {
+    const rows = db.prepare('SELECT key, locality_type FROM batch_locality_type WHERE job_id = ?').all(jobId) as { key: string; locality_type: string }[];
+    return new Map(rows.map((r) => [r.key, r.locality_type]));
+  } finally {
+    db.close();
   }
 }

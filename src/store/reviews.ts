@@ -6,7 +6,6 @@
  */
 import Database from 'better-sqlite3';
 import type { FeatureKey } from '../match/types.ts';
-
 export type ReviewDecision = 'accepted' | 'rejected';
 
 export interface Review {

@@ -5,7 +5,7 @@
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { DARWIN_CORE_TERMS } from '../support/darwin-core-terms.ts';
-import { COORDINATE_FLAGS_COLUMN } from '../../src/batch/coordinate-check.ts';
+import { COORDINATE_FLAGS_COLUMN } from '../../src/output/csv.ts';
 import { startBatchJob } from '../../src/batch/run.ts';
 import { FIXTURES, fixtureGazetteer, readOutput } from './helpers.ts';
 

@@ -8,8 +8,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { startBatchJob } from '../../src/batch/run.ts';
-import { appendedColumnNames } from '../../src/record/darwin-core.ts';
-import { COORDINATE_FLAGS_COLUMN } from '../../src/batch/coordinate-check.ts';
+import { appendedColumnNames, COORDINATE_FLAGS_COLUMN } from '../../src/output/csv.ts';
 import { FIXTURES, fixtureGazetteer, readOutput } from './helpers.ts';
 
 interface Expected {

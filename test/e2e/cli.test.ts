@@ -59,6 +59,17 @@ describe('whereabouts locate', () => {
     expect(body.darwinCore.geodeticDatum).toBe('EPSG:4326');
   });
 
+  it('prints the answer as a GeoJSON FeatureCollection with --format geojson (RFC 7946 §3.1.1, §3.3)', async () => {
+    const { stdout } = await whereabouts('locate', '10 km NE of Vila Serena', '--country-code', 'QV', '--format', 'geojson', '--db', db);
+    const collection = JSON.parse(stdout);
+    expect(collection.type).toBe('FeatureCollection');
+    const [point, footprint] = collection.features;
+    // Positions are [longitude, latitude], the reported (rounded) decimals of the Darwin Core terms.
+    expect(point.geometry.coordinates).toEqual([Number(point.properties.decimalLongitude), Number(point.properties.decimalLatitude)]);
+    expect(point.properties.locality).toBe('10 km NE of Vila Serena');
+    expect(footprint.geometry.type).toMatch(/Polygon/);
+  });
+
   it('says why when the text names no place', async () => {
     const { stdout } = await whereabouts('--db', db, 'locate', 'locality unknown', '--json');
     const body = JSON.parse(stdout);

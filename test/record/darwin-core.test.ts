@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DARWIN_CORE_TERMS } from '../support/darwin-core-terms.ts';
-import { appendedColumnNames, GEOREFERENCE_TERMS, reportingDecimals, VERIFICATION_STATUS } from '../../src/record/darwin-core.ts';
+import { appendedColumnNames } from '../../src/output/csv.ts';
+import { GEOREFERENCE_TERMS, reportingDecimals } from '../../src/record/darwin-core.ts';
+import { VERIFICATION_STATUS } from '../../src/record/verification-status.ts';
 
 describe('appended Darwin Core fields', () => {
   it('names only Darwin Core terms', () => {

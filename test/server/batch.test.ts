@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
+import { parseLocality } from '../../src/parse/index.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
@@ -75,6 +76,15 @@ describe('a batch from upload to reviewed file', () => {
     const bad = await json(`/api/v1/batches/${jobId}/records?radiusMin=-5`);
     expect(bad.status).toBe(400);
     expect(bad.body.field).toBe('radiusMin');
+  });
+
+  it('gives each record the locality type the batch read it as (kept with the job, not parsed again)', async () => {
+    const input = parse(readFileSync(DEMO_LOCALITIES), { columns: true }) as Record<string, string>[];
+    const { body } = await json(`/api/v1/batches/${jobId}/records`);
+    // The parser itself is the reference: what parseLocality says of the text, or "coordinates" where the
+    // record's readable verbatimCoordinates were used (both rows of the demo file that have them).
+    body.records.forEach((r: any, i: number) => expect(r.localityType).toBe(input[i].verbatimCoordinates ? 'coordinates' : parseLocality(r.locality).type));
+    expect(body.facets.localityType).toEqual([...new Set(body.records.map((r: any) => r.localityType))].filter(Boolean).sort());
   });
 
   it('accepts, rejects and re-picks records, and stores who and when', async () => {

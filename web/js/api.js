@@ -28,5 +28,8 @@ export const postForm = (url, formData) => call('POST', url, formData);
 /** The georeference endpoint: the same call for the first lookup and for every edit. */
 export const georeference = (request) => postJson('/api/v1/georeference', request);
 
+/** The same answer as a file the server writes (format 'csv' or 'geojson'), as text. */
+export const georeferenceFile = (request, format) => postJson(`/api/v1/georeference.${format}`, request);
+
 /** A feature with its geometry, for drawing the feature used. */
 export const feature = (sourceId, featureId) => getJson(`/api/v1/features/${encodeURIComponent(sourceId)}/${encodeURIComponent(featureId)}`);

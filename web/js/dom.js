@@ -53,8 +53,3 @@ export function download(filename, type, text) {
   link.remove();
   setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
-
-/** One CSV line (RFC 4180): every field quoted, quotes doubled. */
-export function csvLine(values) {
-  return values.map((v) => `"${String(v ?? '').replaceAll('"', '""')}"`).join(',');
-}

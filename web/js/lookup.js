@@ -1,7 +1,7 @@
 // The lookup view: the form, then how the text was read, the candidates, the edits, the uncertainty
 // budget and the Darwin Core fields. Every edit calls the same API again with `options`.
-import { georeference } from './api.js';
-import { csvLine, definitionTable, download, el, fill, meters } from './dom.js';
+import { georeference, georeferenceFile } from './api.js';
+import { definitionTable, download, el, fill, meters } from './dom.js';
 
 const COMPONENT_LABELS = {
   extent: 'Extent of the feature',
@@ -122,7 +122,7 @@ export function budgetSection(answer) {
   );
 }
 
-/** The Darwin Core fields, ready to copy, and as a CSV row or a GeoJSON feature to download. */
+/** The Darwin Core fields, ready to copy, and as a CSV row or a GeoJSON feature to download (written by the server). */
 export function darwinCoreSection(answer, request) {
   const entries = Object.entries(answer.darwinCore);
   const asText = entries.map(([k, v]) => `${k}\t${v}`).join('\n');
@@ -137,8 +137,8 @@ export function darwinCoreSection(answer, request) {
       copyStatus.textContent = 'selected: press Ctrl+C to copy';
     }
   };
-  const csv = () => download('georeference.csv', 'text/csv', `${csvLine(['locality', ...entries.map(([k]) => k)])}\r\n${csvLine([request.locality, ...entries.map(([, v]) => v)])}\r\n`);
-  const geojson = () => download('georeference.geojson', 'application/geo+json', JSON.stringify(geoJsonOf(answer, request), null, 2));
+  const csv = async () => download('georeference.csv', 'text/csv', await georeferenceFile(request, 'csv'));
+  const geojson = async () => download('georeference.geojson', 'application/geo+json', await georeferenceFile(request, 'geojson'));
   const georeferenced = answer.status === 'georeferenced';
   return el(
     'section',
@@ -151,14 +151,6 @@ export function darwinCoreSection(answer, request) {
       el('button', { type: 'button', id: 'download-csv', onclick: csv }, 'Download CSV row'),
       el('button', { type: 'button', id: 'download-geojson', onclick: geojson, disabled: !georeferenced }, 'Download GeoJSON')),
   );
-}
-
-function geoJsonOf(answer, request) {
-  const g = answer.georeference;
-  const properties = { locality: request.locality, ...answer.darwinCore };
-  const features = [{ type: 'Feature', geometry: { type: 'Point', coordinates: [Number(answer.darwinCore.decimalLongitude), Number(answer.darwinCore.decimalLatitude)] }, properties }];
-  if (g && answer.footprint) features.push({ type: 'Feature', geometry: answer.footprint, properties: { role: 'footprint', footprintSRS: 'EPSG:4326' } });
-  return { type: 'FeatureCollection', features };
 }
 
 /** Distance precision, map scale and datum: each change recomputes through the API. */
@@ -241,7 +233,7 @@ export function startLookup({ form, output, map }) {
         run();
       }),
       answer.components ? budgetSection(answer) : undefined,
-      darwinCoreSection(answer, request),
+      darwinCoreSection(answer, { ...request, options }),
     );
   }
 

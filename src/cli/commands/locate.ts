@@ -1,12 +1,15 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
 import { openGazetteer } from '../../store/gazetteer-store.ts';
-import { locate, type LocateResult } from '../../locate.ts';
-import { darwinCoreFields } from '../../record/darwin-core.ts';
+import { georeferenceRecord } from '../../locate/georeference-record.ts';
+import type { LocateResult } from '../../locate/locate.ts';
+import { ANSWER_FORMATS } from '../../output/formats.ts';
+import { answerJson } from '../../output/json.ts';
 import { VERSION } from '../../version.ts';
 
 /**
- * `whereabouts locate "<text>"`: one locality, printed for a person, or with --json as the HTTP body.
+ * `whereabouts locate "<text>"`: one locality, printed for a person, with --json as the HTTP body, or
+ * with --format as a file in one of src/output's formats.
  * Exit code 0 whenever the text was processed, whatever the status (the status says what happened).
  */
 export function registerLocate(program: Command, dbPath: () => string): void {
@@ -25,13 +28,18 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
     .option('--json', 'print the HTTP API body as JSON')
+    .option('--format <name>', `print the answer as a file instead: ${ANSWER_FORMATS.map((f) => f.extension).join(' or ')} (as POST /api/v1/georeference.<name> writes it)`)
     .action((text: string, opts: LocateCommandOptions) => {
+      const format = opts.format === undefined ? undefined : ANSWER_FORMATS.find((f) => f.extension === opts.format);
+      if (opts.format !== undefined && !format) {
+        throw new Error(`--format ${opts.format} is not a format of the answer: use ${ANSWER_FORMATS.map((f) => f.extension).join(' or ')}`);
+      }
       if (!existsSync(dbPath())) {
         throw new Error(`no gazetteer at ${dbPath()}: import one first (whereabouts import <file>) or name another with --db`);
       }
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
-        const result = locate(store, {
+        const answer = georeferenceRecord(store, {
           locality: text,
           countryCode: opts.countryCode,
           country: opts.country,
@@ -41,13 +49,9 @@ export function registerLocate(program: Command, dbPath: () => string): void {
           verbatimCoordinates: opts.verbatimCoordinates,
           geodeticDatum: opts.geodeticDatum,
           options: { mapScale: opts.mapScale, coverAmbiguous: opts.coverAmbiguous, administrativeFallback: opts.administrativeFallback },
+          attribution: { georeferencedBy: `whereabouts ${VERSION}`, georeferencedDate: new Date().toISOString(), sources: store.sources() },
         });
-        const darwinCore = darwinCoreFields(result, {
-          georeferencedBy: `whereabouts ${VERSION}`,
-          georeferencedDate: new Date().toISOString(),
-          sources: store.sources(),
-        });
-        process.stdout.write(opts.json ? `${JSON.stringify({ ...result, darwinCore }, null, 2)}\n` : describe(result, darwinCore));
+        process.stdout.write(format ? format.write(answer, text) : opts.json ? answerJson(answer) : describe(answer.result, answer.darwinCore));
       } finally {
         store.close();
       }
@@ -66,6 +70,7 @@ interface LocateCommandOptions {
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
   json?: boolean;
+  format?: string;
 }
 
 /** A short reading for a person at a terminal: the outcome, then the Darwin Core fields. */

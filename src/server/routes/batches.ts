@@ -1,159 +1,151 @@
 import multipart from '@fastify/multipart';
-import type { FastifyInstance } from 'fastify';
+import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
+import { Type } from 'typebox';
 import type { BatchService, RecordFilter } from '../batches.ts';
 import { RequestError } from '../errors.ts';
-import type { FeatureKey } from '../lookup.ts';
-import { errorResponses, errorSchema, featureKeySchema } from '../schemas.ts';
+import { errorResponses, errorSchema, featureKeySchema, oneOf, openObject } from '../schemas.ts';
 
-const jobParams = { type: 'object', required: ['jobId'], properties: { jobId: { type: 'string', pattern: '^[A-Za-z0-9_-]{1,64}$' } } } as const;
-const recordParams = {
-  type: 'object',
-  required: ['jobId', 'row'],
-  properties: { jobId: jobParams.properties.jobId, row: { type: 'string', pattern: '^[1-9][0-9]{0,8}$', description: 'Data row number, from 1.' } },
-} as const;
-const wholeMeters = { type: 'string', pattern: '^[0-9]{1,9}$' } as const;
-const open = { type: 'object', additionalProperties: true } as const;
+const jobParams = Type.Object({ jobId: Type.String({ pattern: '^[A-Za-z0-9_-]{1,64}$' }) });
+const recordParams = Type.Object({ jobId: jobParams.properties.jobId, row: Type.String({ pattern: '^[1-9][0-9]{0,8}$', description: 'Data row number, from 1.' }) });
+const wholeMeters = Type.String({ pattern: '^[0-9]{1,9}$' });
+const open = openObject();
+
+export interface BatchRoutesOptions {
+  batches: BatchService;
+  /** Largest upload in bytes. */
+  uploadLimit: number;
+}
 
 /**
  * Batch upload and review: POST /api/v1/batches (multipart, field `file`), GET …/:jobId (progress,
  * for polling), GET …/:jobId/records (the review list), GET and PUT …/records/:row (one record, its
  * decision), GET …/:jobId/reviewed.csv (the reviewed file; also reviewed.geojson and reviewed.gpkg).
+ * @example await app.register(batchRoutes, { batches, uploadLimit: 50 * 1024 * 1024 })
  */
-export async function registerBatchRoutes(app: FastifyInstance, batches: BatchService, uploadLimit: number): Promise<void> {
-  await app.register(async (scope) => {
-    await scope.register(multipart, { limits: { fileSize: uploadLimit, files: 1, fields: 4, parts: 5, fieldSize: 1024 } });
+export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async (scope, { batches, uploadLimit }) => {
+  await scope.register(multipart, { limits: { fileSize: uploadLimit, files: 1, fields: 4, parts: 5, fieldSize: 1024 } });
 
-    scope.post(
-      '/api/v1/batches',
-      { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 415: errorSchema, ...errorResponses } } },
-      async (request, reply) => {
-        if (!request.isMultipart()) throw new RequestError(415, 'send the CSV as multipart/form-data in a field named "file"', 'file');
-        const part = await request.file();
-        if (!part || part.fieldname !== 'file') throw new RequestError(400, 'the upload needs a field named "file" holding the CSV', 'file');
-        const bytes = await part.toBuffer().catch((error: { code?: string }) => {
-          if (error.code === 'FST_REQ_FILE_TOO_LARGE') throw new RequestError(413, `the uploaded file is larger than the upload limit of ${uploadLimit} bytes`, 'file');
-          throw error;
-        });
-        const jobId = await batches.start(bytes);
-        return reply.code(202).send({ jobId, progress: `/api/v1/batches/${jobId}` });
-      },
-    );
+  scope.post(
+    '/api/v1/batches',
+    { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 415: errorSchema, ...errorResponses } } },
+    async (request, reply) => {
+      if (!request.isMultipart()) throw new RequestError(415, 'send the CSV as multipart/form-data in a field named "file"', 'file');
+      const part = await request.file();
+      if (!part || part.fieldname !== 'file') throw new RequestError(400, 'the upload needs a field named "file" holding the CSV', 'file');
+      const bytes = await part.toBuffer().catch((error: { code?: string }) => {
+        if (error.code === 'FST_REQ_FILE_TOO_LARGE') throw new RequestError(413, `the uploaded file is larger than the upload limit of ${uploadLimit} bytes`, 'file');
+        throw error;
+      });
+      const jobId = await batches.start(bytes);
+      return reply.code(202).send({ jobId, progress: `/api/v1/batches/${jobId}` });
+    },
+  );
 
-    scope.get<{ Params: { jobId: string } }>(
-      '/api/v1/batches/:jobId',
-      { schema: { summary: 'Progress of a batch job', tags: ['batch'], params: jobParams, response: { 200: open, 404: errorSchema } } },
-      async (request) => batches.progress(request.params.jobId),
-    );
+  scope.get(
+    '/api/v1/batches/:jobId',
+    { schema: { summary: 'Progress of a batch job', tags: ['batch'], params: jobParams, response: { 200: open, 404: errorSchema } } },
+    async (request) => batches.progress(request.params.jobId),
+  );
 
-    scope.get<{ Params: { jobId: string }; Querystring: Record<string, string | undefined> }>(
-      '/api/v1/batches/:jobId/records',
-      {
-        schema: {
-          summary: 'The review list of a finished batch, filtered',
-          tags: ['batch'],
-          params: jobParams,
-          querystring: {
-            type: 'object',
-            additionalProperties: false,
-            properties: {
-              status: { type: 'string', maxLength: 100 },
-              review: { type: 'string', enum: ['pending', 'accepted', 'rejected'] },
-              flag: { type: 'string', maxLength: 100 },
-              localityType: { type: 'string', maxLength: 100 },
-              radiusMin: wholeMeters,
-              radiusMax: wholeMeters,
-            },
+  scope.get(
+    '/api/v1/batches/:jobId/records',
+    {
+      schema: {
+        summary: 'The review list of a finished batch, filtered',
+        tags: ['batch'],
+        params: jobParams,
+        querystring: Type.Object(
+          {
+            status: Type.Optional(Type.String({ maxLength: 100 })),
+            review: Type.Optional(oneOf(['pending', 'accepted', 'rejected'])),
+            flag: Type.Optional(Type.String({ maxLength: 100 })),
+            localityType: Type.Optional(Type.String({ maxLength: 100 })),
+            radiusMin: Type.Optional(wholeMeters),
+            radiusMax: Type.Optional(wholeMeters),
           },
-          response: { 200: open, 404: errorSchema, 409: errorSchema },
-        },
+          { additionalProperties: false },
+        ),
+        response: { 200: open, 404: errorSchema, 409: errorSchema },
       },
-      async (request) => {
-        const q = request.query;
-        const filter: RecordFilter = {
-          status: q.status || undefined,
-          review: (q.review || undefined) as RecordFilter['review'],
-          flag: q.flag || undefined,
-          localityType: q.localityType || undefined,
-          radiusMin: q.radiusMin ? Number(q.radiusMin) : undefined,
-          radiusMax: q.radiusMax ? Number(q.radiusMax) : undefined,
-        };
-        return batches.list(request.params.jobId, filter);
-      },
-    );
+    },
+    async (request) => {
+      const q = request.query;
+      const filter: RecordFilter = {
+        status: q.status || undefined,
+        review: q.review || undefined,
+        flag: q.flag || undefined,
+        localityType: q.localityType || undefined,
+        radiusMin: q.radiusMin ? Number(q.radiusMin) : undefined,
+        radiusMax: q.radiusMax ? Number(q.radiusMax) : undefined,
+      };
+      return batches.list(request.params.jobId, filter);
+    },
+  );
 
-    scope.get<{ Params: { jobId: string; row: string }; Querystring: { candidateSource?: string; candidateFeature?: string } }>(
-      '/api/v1/batches/:jobId/records/:row',
-      {
-        schema: {
-          summary: 'One record of a batch with its georeference, candidates and review',
-          tags: ['batch'],
-          params: recordParams,
-          querystring: {
-            type: 'object',
-            additionalProperties: false,
-            dependencies: { candidateSource: ['candidateFeature'], candidateFeature: ['candidateSource'] },
-            properties: { candidateSource: featureKeySchema.properties.sourceId, candidateFeature: featureKeySchema.properties.featureId },
-          },
-          response: { 200: open, 404: errorSchema, 409: errorSchema },
-        },
+  scope.get(
+    '/api/v1/batches/:jobId/records/:row',
+    {
+      schema: {
+        summary: 'One record of a batch with its georeference, candidates and review',
+        tags: ['batch'],
+        params: recordParams,
+        querystring: Type.Object(
+          { candidateSource: Type.Optional(featureKeySchema.properties.sourceId), candidateFeature: Type.Optional(featureKeySchema.properties.featureId) },
+          { additionalProperties: false, dependencies: { candidateSource: ['candidateFeature'], candidateFeature: ['candidateSource'] } },
+        ),
+        response: { 200: open, 404: errorSchema, 409: errorSchema },
       },
-      async (request) => {
-        const { candidateSource, candidateFeature } = request.query;
-        const candidate = candidateSource && candidateFeature ? { sourceId: candidateSource, featureId: candidateFeature } : undefined;
-        return batches.record(request.params.jobId, Number(request.params.row), candidate);
-      },
-    );
+    },
+    async (request) => {
+      const { candidateSource, candidateFeature } = request.query;
+      const candidate = candidateSource && candidateFeature ? { sourceId: candidateSource, featureId: candidateFeature } : undefined;
+      return batches.record(request.params.jobId, Number(request.params.row), candidate);
+    },
+  );
 
-    scope.put<{ Params: { jobId: string; row: string }; Body: { decision: 'accepted' | 'rejected'; reviewer: string; candidate?: FeatureKey } }>(
-      '/api/v1/batches/:jobId/records/:row/review',
-      {
-        schema: {
-          summary: 'Accept or reject a record (optionally with another candidate); stored with who and when',
-          tags: ['batch'],
-          params: recordParams,
-          body: {
-            type: 'object',
-            additionalProperties: false,
-            required: ['decision', 'reviewer'],
-            properties: {
-              decision: { type: 'string', enum: ['accepted', 'rejected'] },
-              reviewer: { type: 'string', maxLength: 200 },
-              candidate: featureKeySchema,
-            },
-          },
-          response: { 200: open, ...errorResponses, 404: errorSchema, 409: errorSchema },
-        },
+  scope.put(
+    '/api/v1/batches/:jobId/records/:row/review',
+    {
+      schema: {
+        summary: 'Accept or reject a record (optionally with another candidate); stored with who and when',
+        tags: ['batch'],
+        params: recordParams,
+        body: Type.Object(
+          { decision: oneOf(['accepted', 'rejected']), reviewer: Type.String({ maxLength: 200 }), candidate: Type.Optional(featureKeySchema) },
+          { additionalProperties: false },
+        ),
+        response: { 200: open, ...errorResponses, 404: errorSchema, 409: errorSchema },
       },
-      async (request) => {
-        const { decision, reviewer, candidate } = request.body;
-        return batches.decide(request.params.jobId, Number(request.params.row), decision, reviewer, candidate);
-      },
-    );
+    },
+    async (request) => {
+      const { decision, reviewer, candidate } = request.body;
+      return batches.decide(request.params.jobId, Number(request.params.row), decision, reviewer, candidate);
+    },
+  );
 
-    scope.get<{ Params: { jobId: string } }>(
-      '/api/v1/batches/:jobId/reviewed.csv',
-      { schema: { summary: 'The batch output with every review decision applied, as CSV', tags: ['batch'], params: jobParams, produces: ['text/csv'] } },
+  scope.get(
+    '/api/v1/batches/:jobId/reviewed.csv',
+    { schema: { summary: 'The batch output with every review decision applied, as CSV', tags: ['batch'], params: jobParams, produces: ['text/csv'] } },
+    async (request, reply) =>
+      reply
+        .header('content-type', 'text/csv; charset=utf-8')
+        .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.csv"`)
+        .send(batches.reviewedCsv(request.params.jobId)),
+  );
+
+  const gisFormats = [
+    { format: 'geojson', type: 'application/geo+json', summary: 'The reviewed batch output as a GeoJSON FeatureCollection (RFC 7946)' },
+    { format: 'gpkg', type: 'application/geopackage+sqlite3', summary: 'The reviewed batch output as a GeoPackage: layers points and footprints' },
+  ] as const;
+  for (const { format, type, summary } of gisFormats) {
+    scope.get(
+      `/api/v1/batches/:jobId/reviewed.${format}`,
+      { schema: { summary, tags: ['batch'], params: jobParams, produces: [type] } },
       async (request, reply) =>
         reply
-          .header('content-type', 'text/csv; charset=utf-8')
-          .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.csv"`)
-          .send(batches.reviewedCsv(request.params.jobId)),
+          .header('content-type', type)
+          .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.${format}"`)
+          .send(await batches.reviewedFile(request.params.jobId, format)),
     );
-
-    const gisFormats = [
-      { format: 'geojson', type: 'application/geo+json', summary: 'The reviewed batch output as a GeoJSON FeatureCollection (RFC 7946)' },
-      { format: 'gpkg', type: 'application/geopackage+sqlite3', summary: 'The reviewed batch output as a GeoPackage: layers points and footprints' },
-    ] as const;
-    for (const { format, type, summary } of gisFormats) {
-      scope.get<{ Params: { jobId: string } }>(
-        `/api/v1/batches/:jobId/reviewed.${format}`,
-        { schema: { summary, tags: ['batch'], params: jobParams, produces: [type] } },
-        async (request, reply) =>
-          reply
-            .header('content-type', type)
-            .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.${format}"`)
-            .send(await batches.reviewedFile(request.params.jobId, format)),
-      );
-    }
-  });
-}
+  }
+};

@@ -1,23 +1,27 @@
-import type { FastifyInstance } from 'fastify';
+import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
+import { Type } from 'typebox';
 import { RequestError } from '../errors.ts';
 import type { ServedGazetteer } from '../lookup.ts';
-import { errorSchema, identifier } from '../schemas.ts';
+import { errorSchema, identifier, openObject } from '../schemas.ts';
 
-/** GET /api/v1/features/:sourceId/:featureId: one feature with its geometry, as GeoJSON, for the map. */
-export function registerFeatureRoute(app: FastifyInstance, store: ServedGazetteer): void {
-  app.get<{ Params: { sourceId: string; featureId: string } }>(
+/**
+ * GET /api/v1/features/:sourceId/:featureId: one feature with its geometry, as GeoJSON, for the map.
+ * @example await app.register(featureRoutes, { gazetteer: store })
+ */
+export const featureRoutes: FastifyPluginAsyncTypebox<{ gazetteer: Pick<ServedGazetteer, 'getFeature'> }> = async (app, { gazetteer }) => {
+  app.get(
     '/api/v1/features/:sourceId/:featureId',
     {
       schema: {
         summary: 'One gazetteer feature as a GeoJSON Feature',
         tags: ['gazetteer'],
-        params: { type: 'object', required: ['sourceId', 'featureId'], properties: { sourceId: identifier, featureId: identifier } },
-        response: { 200: { type: 'object', additionalProperties: true }, 404: errorSchema },
+        params: Type.Object({ sourceId: identifier, featureId: identifier }),
+        response: { 200: openObject(), 404: errorSchema },
       },
     },
     async (request) => {
       const { sourceId, featureId } = request.params;
-      const feature = store.getFeature(sourceId, featureId, { withGeometry: true });
+      const feature = gazetteer.getFeature(sourceId, featureId, { withGeometry: true });
       if (!feature) throw new RequestError(404, `no feature ${featureId} in source ${sourceId}`, 'featureId');
       const { geometry, latitude, longitude, ...properties } = feature;
       return {
@@ -28,4 +32,4 @@ export function registerFeatureRoute(app: FastifyInstance, store: ServedGazettee
       };
     },
   );
-}
+};

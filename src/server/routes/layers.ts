@@ -1,7 +1,8 @@
 import { simplify } from '@turf/turf';
-import type { FastifyInstance } from 'fastify';
+import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
 import type { Feature as GeoJsonFeature, FeatureCollection, Geometry } from 'geojson';
 import type { Feature } from '../../match/types.ts';
+import { openObject } from '../schemas.ts';
 
 /** About 50 m at the equator: finer than the map draws at county scale [CHOICE]. */
 const SIMPLIFY_TOLERANCE_DEGREES = 0.0005;
@@ -14,8 +15,9 @@ export interface LayerSource {
 /**
  * GET /api/v1/layers: the gazetteers' polygons and lines, simplified (Douglas–Peucker, turf), for the
  * map's reference layers. Built once, on the first request; the store is read-only while serving.
+ * @example await app.register(layersRoutes, { layers: { shapedFeatures: () => [] } })
  */
-export function registerLayersRoute(app: FastifyInstance, store: LayerSource): void {
+export const layersRoutes: FastifyPluginAsyncTypebox<{ layers: LayerSource }> = async (app, { layers }) => {
   let cached: FeatureCollection | undefined;
   app.get(
     '/api/v1/layers',
@@ -23,12 +25,12 @@ export function registerLayersRoute(app: FastifyInstance, store: LayerSource): v
       schema: {
         summary: "The gazetteers' polygons and lines as one simplified GeoJSON FeatureCollection",
         tags: ['gazetteer'],
-        response: { 200: { type: 'object', additionalProperties: true } },
+        response: { 200: openObject() },
       },
     },
-    async () => (cached ??= layerCollection(store.shapedFeatures())),
+    async () => (cached ??= layerCollection(layers.shapedFeatures())),
   );
-}
+};
 
 function layerCollection(features: Feature[]): FeatureCollection {
   return {

@@ -1,14 +1,10 @@
 /**
  * A check of the coordinates a record already has against the circle computed from its locality text,
- * and against the centers of the country and state it names. The record's values are never changed.
+ * and against the centers of the country and state it names: as flags (the batch output's flags
+ * column) and as a distance (the API's `recordPoint`). The record's values are never changed.
  */
 import { inverse } from '../geodesy/geodesic.ts';
-
-/** The name of the output column that holds the flags; not a Darwin Core term (see the README). */
-export const COORDINATE_FLAGS_COLUMN = 'whereabouts_coordinateFlags';
-
-/** Flags are joined with the separator Darwin Core recommends for lists (Darwin Core Text Guide §2.3.1.1, from memory). */
-export const FLAG_SEPARATOR = ' | ';
+import type { GeoreferenceTerm } from './darwin-core.ts';
 
 /** The flags whereabouts writes, each with what it means (the README lists them). */
 export const COORDINATE_FLAGS = {
@@ -43,6 +39,33 @@ export interface Circle {
   latitude: number;
   longitude: number;
   radiusMeters: number;
+}
+
+/** How far the record's own coordinates lie from the proposed point (the API's `recordPoint`). */
+export interface RecordPoint {
+  latitude: number;
+  longitude: number;
+  distanceMeters: number;
+  withinUncertainty: boolean;
+}
+
+/**
+ * The record's point against a circle; geodesic on WGS84 (geographiclib, about 15 nm).
+ * @example recordPoint(-45.5, -131, { latitude: -45.5, longitude: -131, radiusMeters: 10 }) // { …, distanceMeters: 0, withinUncertainty: true }
+ */
+export function recordPoint(latitude: number, longitude: number, circle: Circle): RecordPoint {
+  const distanceMeters = inverse(circle.latitude, circle.longitude, latitude, longitude).meters;
+  return { latitude, longitude, distanceMeters, withinUncertainty: distanceMeters <= circle.radiusMeters };
+}
+
+/**
+ * The proposed circle as the Darwin Core fields write it (rounded point, radius rounded up), or
+ * undefined when there is no point.
+ * @example circleOf({ decimalLatitude: '-45.5', decimalLongitude: '-131.0', coordinateUncertaintyInMeters: '2000', … }) // { latitude: -45.5, longitude: -131, radiusMeters: 2000 }
+ */
+export function circleOf(fields: Record<GeoreferenceTerm, string>): Circle | undefined {
+  if (fields.decimalLatitude === '' || fields.coordinateUncertaintyInMeters === '') return undefined;
+  return { latitude: Number(fields.decimalLatitude), longitude: Number(fields.decimalLongitude), radiusMeters: Number(fields.coordinateUncertaintyInMeters) };
 }
 
 export interface CoordinateCheck {
@@ -102,8 +125,8 @@ function compareWithCircle(
   written: string,
   add: (flag: CoordinateFlag, remark: string) => void,
 ): boolean {
-  const distance = (lat: number, lon: number) => inverse(circle.latitude, circle.longitude, lat, lon).meters;
-  const within = (lat: number, lon: number) => Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && distance(lat, lon) <= circle.radiusMeters;
+  const distance = (lat: number, lon: number) => recordPoint(lat, lon, circle).distanceMeters;
+  const within = (lat: number, lon: number) => Math.abs(lat) <= 90 && Math.abs(lon) <= 180 && recordPoint(lat, lon, circle).withinUncertainty;
   const radius = `${formatMeters(circle.radiusMeters)} circle of the proposed georeference`;
   if (inRange && within(latitude, longitude)) {
     add('agrees-with-locality', `${written} lie inside the ${radius}`);

@@ -4,7 +4,7 @@
  * coordinate flags column"), with distances geodesic on WGS84 (geographiclib; Karney 2013, J. Geodesy 87:43).
  */
 import { describe, expect, it } from 'vitest';
-import { checkCoordinates, type AdministrativeCenter, type Circle } from '../../src/batch/coordinate-check.ts';
+import { checkCoordinates, type AdministrativeCenter, type Circle } from '../../src/record/coordinate-check.ts';
 
 const circle: Circle = { latitude: -45.5, longitude: -131.0, radiusMeters: 2000 };
 const norte: AdministrativeCenter = { level: 'stateProvince', name: 'Norte', latitude: -45.55, longitude: -131.05 };

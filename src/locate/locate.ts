@@ -1,13 +1,18 @@
 /**
- * One locality from text to georeference: parse → candidates → georeference. The finder is the only
- * door to data, so this module stays free of I/O; the CLI, HTTP service and batch jobs all call it.
+ * One locality from text to georeference: parse → candidates → georeference, with the georeferencer's
+ * edits applied on the way (a chosen feature replaces the chooser's pick for its name; a distance
+ * precision changes the interpretation before the method runs), so the bounding unit, the path line
+ * and the clip hold for an edited record as for the first answer. The finder is the only door to data,
+ * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
-import { parseCoordinates, parseLocality } from './parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType } from './parse/types.ts';
-import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from './match/types.ts';
-import { coverGeoreferences } from './georef/cover.ts';
-import { georeference } from './georef/georeference.ts';
-import type { Georeference, MethodOptions, UncertaintyComponents } from './georef/types.ts';
+import { parseCoordinates, parseLocality } from '../parse/index.ts';
+import type { AdministrativeContext, Interpretation, LocalityType } from '../parse/types.ts';
+import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
+import { coverGeoreferences } from '../georef/cover.ts';
+import { georeference } from '../georef/georeference.ts';
+import type { Georeference, MethodOptions, UncertaintyComponents } from '../georef/types.ts';
+import type { LocateStatus } from '../record/verification-status.ts';
+import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits } from './edits.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -17,6 +22,8 @@ export interface LocateRequest extends AdministrativeContext {
   /** Datum of verbatimCoordinates when the record states it in its own field. */
   geodeticDatum?: string;
   options?: LocateOptions;
+  /** The georeferencer's edits, applied inside the pipeline. */
+  edits?: LocateEdits;
 }
 
 export interface LocateOptions extends MethodOptions {
@@ -26,7 +33,7 @@ export interface LocateOptions extends MethodOptions {
   administrativeFallback?: boolean;
 }
 
-export type LocateStatus = 'georeferenced' | 'ambiguous' | 'not-found' | 'unparseable';
+export type { LocateStatus };
 
 export interface LocateResult {
   status: LocateStatus;
@@ -65,9 +72,14 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
  *   locate(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
  */
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
-  const interpretation = interpretationOf(request);
+  const edits = request.edits ?? {};
+  const read = interpretationOf(request);
+  const interpretation = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
   const context = contextOf(request, interpretation);
   const options = request.options ?? {};
+  if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
+    throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
+  }
 
   if (interpretation.type === 'no-locality' && options.administrativeFallback) {
     return locateAdministrativeUnit(finder, interpretation, context, options);
@@ -80,9 +92,16 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
   /** For each name, the features it may mean: one when resolved, several only with coverAmbiguous. */
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
+  const chosenNotes: string[] = [];
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
+    const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
+    if (chosen) {
+      readings.push([chosen.feature]);
+      chosenNotes.push(`feature chosen by the georeferencer: ${chosen.feature.name} (${chosen.feature.sourceId}:${chosen.feature.featureId})`);
+      continue;
+    }
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
       return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) };
@@ -100,6 +119,20 @@ export function locate(finder: CandidateFinder, request: LocateRequest): LocateR
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
 
+  const edited = chosenNotes.length ? { ...interpretation, notes: [...interpretation.notes, ...chosenNotes] } : interpretation;
+  return georeferenceReadings(finder, edited, context, options, readings, candidates, matchRemarks);
+}
+
+/** The method over every combination of the features read for each name, bounded and clipped as the record allows. */
+function georeferenceReadings(
+  finder: CandidateFinder,
+  interpretation: Interpretation,
+  context: AdministrativeContext,
+  options: LocateOptions,
+  readings: Feature[][],
+  candidates: Candidate[],
+  matchRemarks: string[],
+): LocateResult {
   const pathLine = findPathLine(finder, interpretation, context);
   // The stated municipality, county or province clips the footprint; a heading alone may also be bounded by the country.
   const boundingUnit = findBoundingUnit(finder, context, interpretation.type === 'heading-only' ? 'country' : 'stateProvince');

@@ -3,23 +3,16 @@
  * Expected behaviours come from the method's workflow (Chapman & Wieczorek 2020, BP2020 §Georeferencing
  * Workflow – Localities, step 5: ambiguous or missing features are not georeferenced silently).
  */
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../src/store/import.ts';
-import { openGazetteer, type GazetteerStore } from '../src/store/gazetteer-store.ts';
-import { locate } from '../src/locate.ts';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { locate } from '../../src/locate/locate.ts';
+import { openDemoStore } from '../support/demo-store.ts';
 
 let store: GazetteerStore;
 
 beforeAll(async () => {
-  const db = join(mkdtempSync(join(tmpdir(), 'whereabouts-locate-')), 'demo.sqlite');
-  const writer = openGazetteer(db);
-  await importGazetteer(writer, new URL('../gazetteer/demo.geojson', import.meta.url).pathname, { format: 'geojson', citation: 'demo (invented)' });
-  writer.close();
-  store = openGazetteer(db, { readonly: true });
+  store = await openDemoStore('whereabouts-locate-');
 });
 afterAll(() => store.close());
 
