@@ -1,9 +1,11 @@
 import { defineConfig } from 'vitest/config';
 
 // The JSON report is what .ci/run reads to print its closing "N passed, N failed, N skipped" line.
+// globalSetup compiles dist/ first, so the CLI the tests spawn runs the current sources.
 export default defineConfig({
   test: {
     include: ['test/**/*.test.ts'],
+    globalSetup: ['test/support/build.ts'],
     testTimeout: 60_000,
     hookTimeout: 120_000,
     reporters: ['default', 'json'],

@@ -27,5 +27,5 @@ export interface BatchSettings {
 export function georeferenceGroup(finder: CandidateFinder, request: LocateRequest, settings: BatchSettings, context: RecordContext): GroupResult {
   const options = { coverAmbiguous: settings.coverAmbiguous, administrativeFallback: settings.administrativeFallback };
   const answer = georeferenceRecord(finder, { ...request, options, attribution: context, administrativeCenters: true });
-  return { fields: answer.darwinCore, centers: answer.centers, localityType: answer.result.interpretation.type };
+  return { fields: answer.darwinCore, centers: answer.centers, flags: answer.result.flags ?? [], localityType: answer.result.interpretation.type };
 }

@@ -14,25 +14,13 @@ import {
   Envelope, featureTableSql, GEOPACKAGE_APPLICATION_ID, GEOPACKAGE_CORE_TABLES, GEOPACKAGE_LAYERS, GEOPACKAGE_SPATIAL_REF_SYS,
   GEOPACKAGE_USER_VERSION, lastChange, multiPolygonBlob, pointBlob, quoted, WGS84_SRS_ID,
 } from '../output/geopackage-encoding.ts';
+import type { ResultFormat } from '../output/result-formats.ts';
 import { resultFeature, resultRowReader, uniqueColumnNames, type ResultRow } from '../output/result-rows.ts';
 import { inspectInput } from './input-format.ts';
 import { readRecords, type Delimiter } from './records.ts';
 
-export const RESULT_FORMATS = ['csv', 'geojson', 'gpkg'] as const;
-export type ResultFormat = (typeof RESULT_FORMATS)[number];
-
 /** Rows inserted into a GeoPackage a transaction [CHOICE]. */
 const ROWS_PER_TRANSACTION = 5000;
-
-/**
- * The format named by an option value, or a clear error.
- * @example resultFormat('gpkg') // 'gpkg'
- */
-export function resultFormat(value: string): ResultFormat {
-  const format = value.toLowerCase();
-  if (!(RESULT_FORMATS as readonly string[]).includes(format)) throw new Error(`--format must be one of ${RESULT_FORMATS.join(', ')}, not '${value}'`);
-  return format as ResultFormat;
-}
 
 /**
  * Where the job writes its CSV for a format: the output itself for CSV; for the others a file beside the

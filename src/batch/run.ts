@@ -32,6 +32,14 @@ import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
 import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
 import { checkRunTimestamp, partFileStart, partOfKey, partRowFrame, type PartMeta, type PartSpec } from './partition.ts';
 
+/**
+ * The module a worker thread loads. Compiled (dist/), the task module itself; run from the TypeScript
+ * sources, worker.js, which registers tsx first (worker threads do not inherit the main thread's loader).
+ */
+const WORKER_ENTRY = import.meta.url.endsWith('.ts')
+  ? new URL('./worker.js', import.meta.url).href
+  : new URL('./georeference-task.js', import.meta.url).href;
+
 export interface BatchJobOptions {
   /** The gazetteer database (opened read-only). */
   dbPath: string;
@@ -322,7 +330,7 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   };
   const threads = Math.max(1, options.threads ?? cpus().length - 1);
   const pool = total - distinctDone > IN_PROCESS_LIMIT
-    ? new Tinypool({ filename: new URL('./worker.js', import.meta.url).href, minThreads: threads, maxThreads: threads, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } })
+    ? new Tinypool({ filename: WORKER_ENTRY, minThreads: threads, maxThreads: threads, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } })
     : undefined;
   const run = pool ? (task: GeoreferenceTask) => pool.run(task) as Promise<ReturnType<typeof georeferenceChunk>> : async (task: GeoreferenceTask) => georeferenceChunk(task);
   const lane = async () => {
@@ -489,8 +497,9 @@ function outputRow(
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
   const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
-  if (check.flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
-  return `${originals}${delimiter}${appendedLine(group, check.remarks, check.flags, delimiter)}${LINE_END}`;
+  const flags = [...(group.flags ?? []), ...check.flags];
+  if (flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
+  return `${originals}${delimiter}${appendedLine(group, check.remarks, flags, delimiter)}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {

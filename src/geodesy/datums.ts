@@ -8,7 +8,7 @@
  * test/geodesy/datums.test.ts checks every entry against the dataset: the proj4 strings packaged in
  * epsg-index where they carry the shift, the transformation record itself where epsg-index has only a grid.
  */
-import proj4 from 'proj4';
+import { proj4 } from './proj4.ts';
 
 export interface DatumDefinition {
   /** EPSG code of the geographic CRS, e.g. "EPSG:4267". */
@@ -259,7 +259,7 @@ export function toWgs84(latitude: number, longitude: number, datumEpsg: string):
   const datum = datumDefinition(datumEpsg);
   const withinAreaOfUse = withinArea(latitude, longitude, datum.areaOfUse);
   if (datum.epsg === 'EPSG:4326') return { latitude, longitude, accuracyMeters: 0, transformation: datum.transformation, withinAreaOfUse };
-  const [lon, lat] = proj4(geographicProj4(datum), WGS84_PROJ4, [longitude, latitude]);
+  const [lon, lat] = proj4()(geographicProj4(datum), WGS84_PROJ4, [longitude, latitude]);
   return { latitude: lat!, longitude: lon!, accuracyMeters: datum.accuracyMeters, transformation: datum.transformation, withinAreaOfUse };
 }
 

@@ -4,7 +4,7 @@
  * Publication 373-7-2, §3.5.3.1, method EPSG:9807) gives; test/geodesy/utm.test.ts checks it against the
  * guidance note's worked example (within 1 cm, its printed precision).
  */
-import proj4 from 'proj4';
+import { proj4 } from './proj4.ts';
 import { datumDefinition } from './datums.ts';
 
 /** A UTM reference as written on a label: zone, hemisphere, easting and northing in meters. */
@@ -35,7 +35,7 @@ export function transverseMercatorToGeographic(grid: TransverseMercatorGrid, eas
   const definition =
     `+proj=tmerc +lat_0=${grid.latitudeOfOrigin} +lon_0=${grid.centralMeridian} +k_0=${grid.scaleFactor} ` +
     `+x_0=${grid.falseEasting} +y_0=${grid.falseNorthing} ${grid.ellipsoid} +units=m +no_defs`;
-  const [longitude, latitude] = proj4(definition, `+proj=longlat ${grid.ellipsoid} +no_defs`, [easting, northing]);
+  const [longitude, latitude] = proj4()(definition, `+proj=longlat ${grid.ellipsoid} +no_defs`, [easting, northing]);
   return { latitude: latitude!, longitude: longitude! };
 }
 

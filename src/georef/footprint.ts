@@ -1,6 +1,9 @@
 /** Footprints: the uncertainty circle as a polygon, sectors, and shapes clipped to an administrative unit. */
 import type { Geometry, MultiPolygon, Polygon, Position } from 'geojson';
-import { bboxClip, booleanPointInPolygon, featureCollection, intersect, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/turf';
+import { bboxClip } from '@turf/bbox-clip';
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
+import { featureCollection, multiPolygon as turfMultiPolygon, polygon as turfPolygon } from '@turf/helpers';
+import { intersect } from '@turf/intersect';
 import { intersection as fastIntersection, type Geometry as ClipGeometry } from 'martinez-polygon-clipping';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';

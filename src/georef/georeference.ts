@@ -12,7 +12,7 @@ import { regionalDatumBound } from '../geodesy/unknown-datum.ts';
 import { direct, inverse } from '../geodesy/geodesic.ts';
 import { normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
 import { unwrapGeometry } from '../geodesy/unwrap.ts';
-import { lineIntersect } from '@turf/turf';
+import { lineIntersect } from '@turf/line-intersect';
 import { enclosingCircle, featureExtent } from './feature-extent.ts';
 import { circleWKT, clipCircleToUnit, clipRingToUnit, sectorRing } from './footprint.ts';
 import { mapScaleErrorMeters } from './map-scale.ts';
@@ -168,8 +168,13 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
     return refuse(`the coordinates "${coordinates.written}" are out of range (latitude ${latitude}, longitude ${longitude})`);
   }
   const remarks = [`coordinates as written: "${coordinates.written}" (${coordinates.format}), docs/method.md §3`];
-  // Only datums of the table count as stated; any other code or name is reported as not convertible.
-  const datum = [coordinates.datum, coordinates.datumWritten, settings.datum].map((text) => (text ? datumFromName(text) : undefined)).find(Boolean);
+  // A datum written beside the coordinates is theirs; the one given with the record (settings.datum)
+  // applies only when none is written. Only datums of the table count as stated; any other code or
+  // name is reported as not convertible.
+  const writtenDatum = coordinates.datumWritten ?? coordinates.datum;
+  const stated = writtenDatum ?? settings.datum;
+  const datum = stated ? datumFromName(stated) : undefined;
+  const how = writtenDatum ? `as written ("${writtenDatum}")` : 'as given with the record';
   // A UTM reference is converted on the ellipsoid of the datum used (WGS84 when none is known), then shifted.
   const grid = coordinates.utm;
   const inDatum = grid ? utmToGeographic(grid, datum ?? 'EPSG:4326') : { latitude, longitude };
@@ -187,19 +192,18 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
     position = converted;
     datumMeters = settings.unknownDatumMeters;
     remarks.push(
-      `datum: ${datum} as stated, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (docs/method.md §5.4)`,
+      `datum: ${datum} ${how}, but the point lies outside its EPSG area of use, so the statement is doubtful: converted by ${converted.transformation}, datum term the unknown-datum ${meters(datumMeters)} [CHOICE] (docs/method.md §5.4)`,
     );
   } else if (converted) {
     position = converted;
     datumMeters = converted.accuracyMeters;
     remarks.push(
       datum === 'EPSG:4326'
-        ? 'datum: WGS84 (EPSG:4326) as stated; datum term 0 m (docs/method.md §5.4)'
-        : `datum: ${datum} as stated${coordinates.datumWritten ? ` ("${coordinates.datumWritten}")` : ''}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (docs/method.md §5.4)`,
+        ? `datum: WGS84 (EPSG:4326) ${how}; datum term 0 m (docs/method.md §5.4)`
+        : `datum: ${datum} ${how}, converted to WGS84 by ${converted.transformation}; datum term ${meters(datumMeters)}, the transformation's stated accuracy (docs/method.md §5.4)`,
     );
   } else {
-    const written = coordinates.datumWritten ?? coordinates.datum ?? settings.datum;
-    const unknown = `${written ? `datum written as "${written}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84`;
+    const unknown = `${stated ? `datum written as "${stated}" is not one we can convert` : 'datum not recorded'}: coordinates taken as WGS84`;
     // Bounded where the point lies when the datums in use there are known, never above the global figure.
     const regional = regionalDatumBound(inDatum, grid);
     if (regional && regional.meters < settings.unknownDatumMeters) {

@@ -23,4 +23,10 @@ export const METHOD_DEFAULTS = {
   unitlessDistanceUnits: 'km mi',
   /** Map accuracy standard when a map scale is given but no standard (docs/method.md §5.5: 1 mm only). */
   mapStandard: 'unknown',
+  /**
+   * How far a Natural Earth 1:50m shore or border may lie from the true one, for the plausibility checks
+   * [CHOICE: 0.1 mm at 1:50 000 000 is 5 km, the usual reading of a printed line's accuracy; common
+   * practice, no source].
+   */
+  naturalEarthToleranceMeters: 5000,
 } as const satisfies Record<string, number | string>;

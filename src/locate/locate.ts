@@ -13,13 +13,19 @@ import { georeference } from '../georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from '../georef/types.ts';
 import type { LocateStatus } from '../record/verification-status.ts';
 import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits } from './edits.ts';
+import { readDatumOption } from '../geodesy/datum-option.ts';
+import type { PlausibilityFlag } from '../georef/plausibility.ts';
+import { checkPlausibility } from '../georef/plausibility-check.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
   locality: string;
   /** Coordinates as written on the label or in the record; used when they can be read. */
   verbatimCoordinates?: string;
-  /** Datum of verbatimCoordinates when the record states it in its own field. */
+  /**
+   * Datum of the record's coordinates as its own field states it: applies to written coordinates (in the
+   * text or verbatimCoordinates) that carry no datum of their own; options.datum, when given, wins.
+   */
   geodeticDatum?: string;
   options?: LocateOptions;
   /** The georeferencer's edits, applied inside the pipeline. */
@@ -45,6 +51,8 @@ export interface LocateResult {
   candidates: Candidate[];
   /** Why no georeference was made, in plain words. */
   reason?: string;
+  /** What the plausibility checks found about a georeference (empty when nothing); each also has a remark. */
+  flags?: PlausibilityFlag[];
 }
 
 /**
@@ -72,11 +80,38 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
  *   locate(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
  */
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
+  return checkLocated(finder, request, locateOne(finder, request));
+}
+
+/**
+ * The plausibility checks (src/georef/plausibility-check.ts) of a result made for this request: flags
+ * and remarks added, the point left as it is.
+ * @example checkLocated(store, request, result).flags // e.g. ['outside-record-country']
+ */
+function checkLocated(finder: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
+  const g = result.georeference;
+  if (result.status !== 'georeferenced' || !g) return result;
+  const findings = checkPlausibility(finder, {
+    georeference: g,
+    interpretation: result.interpretation,
+    candidates: result.candidates,
+    countryCode: contextOf(request, result.interpretation).countryCode,
+    locateClause: (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined, edits: undefined }).georeference,
+  });
+  if (findings.length === 0) return { ...result, flags: [] };
+  const georeference = { ...g, remarks: [...g.remarks, ...findings.map((f) => f.remark)] };
+  return { ...result, georeference, components: georeference.components, flags: findings.map((f) => f.flag) };
+}
+
+/** The method alone, without the plausibility checks. */
+function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResult {
   const edits = request.edits ?? {};
   const read = interpretationOf(request);
   const interpretation = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
   const context = contextOf(request, interpretation);
-  const options = request.options ?? {};
+  const datum = datumGiven(request);
+  if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
+  const options = { ...request.options, datum: datum.epsg };
   if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
     throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
   }
@@ -172,15 +207,26 @@ function interpretationOf(request: LocateRequest): Interpretation {
   if ('problem' in written) {
     return { ...interpretation, notes: [...interpretation.notes, `verbatimCoordinates "${verbatim}" not used: ${written.problem}`] };
   }
-  const datumWritten = written.datumWritten ?? (request.geodeticDatum?.trim() || undefined);
   return {
     ...interpretation,
     type: 'coordinates',
     features: [],
     offsets: [],
-    coordinates: { ...written, datumWritten },
+    coordinates: written,
     notes: [...interpretation.notes, 'georeferenced from the record\'s verbatimCoordinates, the most specific part of the record'],
   };
+}
+
+/**
+ * The datum given with the record for coordinates that write none (one rule for CLI, HTTP and batch;
+ * see readDatumOption): the request's options.datum, else its geodeticDatum field; an unknown value is refused.
+ */
+function datumGiven(request: LocateRequest): { epsg?: string } | { problem: string } {
+  const field = readDatumOption(request.geodeticDatum, 'geodeticDatum');
+  const option = readDatumOption(request.options?.datum, 'options.datum');
+  if ('problem' in option) return option;
+  if ('problem' in field) return field;
+  return { epsg: option.epsg ?? field.epsg };
 }
 
 /** The record's own fields come first; administrative clauses of the text fill the gaps. */

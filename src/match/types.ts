@@ -75,6 +75,11 @@ export interface CandidateQuery {
 /** Finds candidate features for a name: the store implements it; the core only calls it. */
 export interface CandidateFinder {
   findCandidates(query: CandidateQuery): Candidate[];
+  /**
+   * The polygons of the country with this ISO 3166-1 alpha-2 code (features of type "country"), with
+   * their geometry, for the plausibility checks (optional for other finders).
+   */
+  countryOutlines?(countryCode: string): Feature[];
   /** The same lookup with the candidates the context dropped and why (optional for other finders). */
   lookupCandidates?(query: CandidateQuery): CandidateLookup;
 }

@@ -4,7 +4,7 @@
  * level's name no longer filters (contextMismatch). Pure: the units come from the caller.
  */
 import type { MultiPolygon, Polygon } from 'geojson';
-import { booleanPointInPolygon } from '@turf/turf';
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
 import type { ResolvedContext, SpatiallyDecided } from './context.ts';
 import type { Candidate, CandidateQuery, Feature } from './types.ts';
 

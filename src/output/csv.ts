@@ -23,6 +23,8 @@ export type Delimiter = ',' | ';' | '\t';
 export interface GroupFields {
   fields: Record<GeoreferenceTerm, string>;
   centers: AdministrativeCenter[];
+  /** What the plausibility checks found about the proposed point (the flags column); absent in jobs stored before them. */
+  flags?: string[];
 }
 
 export interface RenderedGroup {
@@ -37,6 +39,8 @@ export interface RenderedGroup {
   centers: AdministrativeCenter[];
   /** The locality type the text was read as, for the review list's facets. */
   localityType?: string;
+  /** The plausibility flags of the proposed point, shared by every row of the group. */
+  flags?: string[];
 }
 
 const REMARKS_AT = GEOREFERENCE_TERMS.indexOf('georeferenceRemarks');
@@ -85,6 +89,7 @@ export function renderGroup(result: GroupFields, delimiter: Delimiter, localityT
     status: result.fields.georeferenceVerificationStatus,
     circle: circleOf(result.fields),
     centers: result.centers,
+    flags: result.flags ?? [],
     ...(localityType ? { localityType } : {}),
   };
 }

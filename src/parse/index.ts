@@ -1,6 +1,6 @@
 import type { AdministrativeLevel, Clause, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
-import { findCoordinates } from './coordinates.ts';
+import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 
@@ -68,6 +68,16 @@ function clauseOf(text: string, tokens: Token[], from: number, to: number, kind:
   return { text: text.slice(start, end), start, end, kind };
 }
 
+/**
+ * A text that is nothing but a number pair ("-45.3, -131.0") is read as a coordinate field is, though in
+ * running text a bare pair needs two decimals a value to count as coordinates.
+ * @example wholeTextPair('-45.3, -131.0', tokenize('-45.3, -131.0'))?.coordinates.latitude // -45.3
+ */
+function wholeTextPair(text: string, tokens: Token[]): CoordinatesFound | null {
+  const found = findCoordinates(text, tokens, 0, tokens.length, true);
+  return found && found.startToken === 0 && found.endToken === tokens.length ? found : null;
+}
+
 function interpret(text: string): Interpretation {
   const result = empty(text);
   if (text.length > MAX_LOCALITY_LENGTH) return { ...result, reason: `text longer than ${MAX_LOCALITY_LENGTH} characters` };
@@ -79,7 +89,7 @@ function interpret(text: string): Interpretation {
   if (language) result.language = language;
 
   const pieces: Piece[] = [];
-  const found = findCoordinates(text, tokens);
+  const found = findCoordinates(text, tokens) ?? wholeTextPair(text, tokens);
   const segments: Segment[] = found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length);

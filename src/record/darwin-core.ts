@@ -1,5 +1,5 @@
 /**
- * The Darwin Core georeference terms whereabouts adds beside a record's own fields (docs/method.md §6).
+ * The Darwin Core georeference terms whereabouts adds beside a record's own fields (method §6).
  * Originals are never touched: where a record already has a term, the proposal is `proposed_<term>`.
  */
 import type { Source } from '../match/types.ts';
@@ -7,6 +7,7 @@ import { inverse } from '../geodesy/geodesic.ts';
 import type { Georeference } from '../georef/types.ts';
 import type { Interpretation } from '../parse/types.ts';
 import { VERSION } from '../version.ts';
+import { reportedPrecision } from './reported-precision.ts';
 import { VERIFICATION_STATUS, type LocateStatus } from './verification-status.ts';
 
 /** What the terms are written from: the outcome of locating a record (`LocateResult` has this shape). */
@@ -14,7 +15,7 @@ export interface LocatedRecord {
   status: LocateStatus;
   georeference?: Georeference;
   reason?: string;
-  interpretation: Pick<Interpretation, 'notes'>;
+  interpretation: Pick<Interpretation, 'notes' | 'type' | 'coordinates'>;
 }
 
 /** The appended terms, in output order. Every one is a Darwin Core term (TDWG, dwc terms list). */
@@ -48,20 +49,6 @@ export interface RecordContext {
 export const PROTOCOL = `point-radius method (Wieczorek, Guo & Hijmans 2004, doi:10.1080/13658810412331280211; Chapman & Wieczorek 2020, Georeferencing Best Practices, doi:10.15468/doc-gg7h-s853) as applied by whereabouts ${VERSION}`;
 
 /**
- * Reporting decimals [CHOICE]: the fewest (at most 7) whose rounding moves the point by no more than
- * 1 % of the radius; the displacement is then added to the radius, so rounding never hides error.
- */
-export function reportingDecimals(uncertaintyMeters: number): number {
-  // The longest degree on WGS84 on either axis: latitude at the poles, 111 694 m (docs/method.md §5.3, Llat(90°)).
-  const metersPerDegree = 111_694;
-  for (let k = 0; k < 7; k++) {
-    const worstShift = (10 ** -k / 2) * Math.SQRT2 * metersPerDegree;
-    if (worstShift <= uncertaintyMeters / 100) return k;
-  }
-  return 7;
-}
-
-/**
  * The appended Darwin Core fields for one result.
  * @example
  *   darwinCoreFields(result, { georeferencedBy: 'whereabouts 0.1.0', georeferencedDate: '2026-12-01T12:00:00Z', sources })
@@ -84,7 +71,8 @@ export function darwinCoreFields(result: LocatedRecord, context: RecordContext):
       georeferenceRemarks: [result.reason, ...result.interpretation.notes].filter(Boolean).join('; '),
     };
   }
-  const decimals = reportingDecimals(g.uncertaintyMeters);
+  const written = result.interpretation.type === 'coordinates' ? result.interpretation.coordinates : undefined;
+  const { decimals, coordinatePrecision, remark } = reportedPrecision(g.uncertaintyMeters, written);
   const latitude = roundTo(g.latitude, decimals);
   const longitude = roundTo(g.longitude, decimals);
   const shift = inverse(g.latitude, g.longitude, latitude, longitude).meters;
@@ -93,14 +81,14 @@ export function darwinCoreFields(result: LocatedRecord, context: RecordContext):
     decimalLongitude: longitude.toFixed(decimals),
     geodeticDatum: 'EPSG:4326',
     coordinateUncertaintyInMeters: String(Math.ceil(g.uncertaintyMeters + shift)),
-    coordinatePrecision: (10 ** -decimals).toFixed(decimals),
+    coordinatePrecision,
     footprintWKT: g.footprintWKT,
     footprintSRS: 'EPSG:4326',
     ...common,
     georeferenceSources: citeSources(result, context.sources),
     georeferenceRemarks: [
       ...g.remarks,
-      `reported to ${decimals} decimals (coordinatePrecision); the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (docs/method.md §6)`,
+      `${remark}; the ${shift.toFixed(1)} m this rounding moved the point is added before the radius is rounded up to whole meters [CHOICE] (docs/method.md §6)`,
     ].join('; '),
   };
 }

@@ -17,6 +17,7 @@ import { loadAssets, registerAssets } from './assets.ts';
 import { errorHandler } from './errors.ts';
 import { registerStrictJson } from './json-body.ts';
 import { ResultCache } from './result-cache.ts';
+import { SERVER_DEFAULTS } from './defaults.ts';
 import { BatchService } from './batches.ts';
 import { openReviews } from '../store/reviews.ts';
 import { reviewsDatabasePath } from '../store/side-files.ts';
@@ -53,8 +54,6 @@ export interface AppOptions {
   logger?: boolean;
 }
 
-/** Defaults [CHOICE]: a label's text is well under 64 KiB; 1200 a minute is 20 lookups a second per client; 2000 results are a few MB. */
-export const SERVER_DEFAULTS = { host: '127.0.0.1', resultCache: 2000, bodyLimit: 64 * 1024, uploadLimit: 50 * 1024 * 1024, rateLimit: { max: 1200, timeWindowMs: 60_000 } } as const;
 
 /** The opened stores the routes work on, injected into them as plugin options. */
 export interface ServedStores {

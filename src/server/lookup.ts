@@ -3,6 +3,7 @@
  * (`georeferenceRecord`), the page's edits passed as edits; the routes write the answer through src/output.
  */
 import type { CandidateFinder, Feature, Source } from '../match/types.ts';
+import { readDatumOption } from '../geodesy/datum-option.ts';
 import { EditRefused, type EditProblem, type FeatureKey } from '../locate/edits.ts';
 import { georeferenceRecord, type RecordAnswer } from '../locate/georeference-record.ts';
 import type { LocateResult } from '../locate/locate.ts';
@@ -29,6 +30,10 @@ export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: R
   const { options = {}, georeferencedBy, ...record } = request;
   const { candidate, candidates, distancePrecision, mapScale, datum, measurementErrorMeters, ...locateOptions } = options;
   const chosenFeatures = [...(candidate ? [candidate] : []), ...(candidates ?? [])];
+  for (const [field, value] of [['geodeticDatum', record.geodeticDatum], ['options.datum', datum]] as const) {
+    const read = readDatumOption(value, field);
+    if ('problem' in read) throw new RequestError(400, read.problem, field);
+  }
   try {
     return georeferenceRecord(
       store,

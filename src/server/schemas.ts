@@ -78,6 +78,7 @@ export const lookupResponseSchema = Type.Object({
   darwinCore: openObject('The Darwin Core georeference terms for this result, as strings.'),
   footprint: Type.Optional(openObject('The footprint as GeoJSON geometry.')),
   recordPoint: Type.Optional(openObject("The record's own coordinates and their distance from the proposed point.")),
+  flags: Type.Optional(Type.Array(Type.String(), { description: 'What the plausibility checks found about the proposed point (outside-record-country, at-sea, clauses-conflict); each is also explained in the remarks.' })),
 });
 
 export const errorSchema = Type.Object({

@@ -250,6 +250,15 @@ class SqliteGazetteer implements GazetteerStore {
     return this.matcher.lookup(query);
   }
 
+  countryOutlines(countryCode: string): Feature[] {
+    const rows = this.statements.countryPolygons.all(countryCode.toUpperCase(), GEOMETRY_TYPES.indexOf('Polygon'), GEOMETRY_TYPES.indexOf('MultiPolygon')) as FeatureRow[];
+    return rows.map((row) => {
+      const feature = toFeature(row);
+      attachGeometry(this.statements, feature);
+      return feature;
+    });
+  }
+
   getFeature(sourceId: string, featureId: string, options: { withGeometry?: boolean } = {}): Feature | null {
     const row = this.statements.featureBySourceId.get(sourceId, featureId) as FeatureRow | undefined;
     if (row === undefined) return null;
@@ -456,6 +465,8 @@ function prepareStatements(db: Database.Database) {
     featureById: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source WHERE f.id = ?`),
     featureBySourceId: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
+    countryPolygons: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
+      WHERE f.feature_type = 'country' AND f.country_code = ? AND f.geometry_type IN (?, ?) ORDER BY s.name, f.feature_id`),
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
     namesByIds: db.prepare('SELECT id, name, alternate_names FROM features WHERE id IN (SELECT value FROM json_each(?))'),

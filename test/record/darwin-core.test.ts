@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DARWIN_CORE_TERMS } from '../support/darwin-core-terms.ts';
 import { appendedColumnNames } from '../../src/output/csv.ts';
-import { GEOREFERENCE_TERMS, reportingDecimals } from '../../src/record/darwin-core.ts';
+import { GEOREFERENCE_TERMS } from '../../src/record/darwin-core.ts';
+import { reportingDecimals } from '../../src/record/reported-precision.ts';
 import { VERIFICATION_STATUS } from '../../src/record/verification-status.ts';
 
 describe('appended Darwin Core fields', () => {

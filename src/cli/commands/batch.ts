@@ -1,8 +1,8 @@
 import type { Command } from 'commander';
-import cliProgress from 'cli-progress';
-import { startBatchJob, type BatchProgressEvent, type BatchSummary } from '../../batch/run.ts';
+import type cliProgress from 'cli-progress';
+import type { BatchProgressEvent, BatchSummary } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
-import { batchCsvPath, resultFormat, RESULT_FORMATS, writeResults, type ResultFormat } from '../../batch/gis-output.ts';
+import { resultFormat, RESULT_FORMATS, type ResultFormat } from '../../output/result-formats.ts';
 
 interface BatchCommandOptions {
   out?: string;
@@ -43,7 +43,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
-      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar();
+      const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
+      const [{ startBatchJob }, { batchCsvPath, writeResults }] = await Promise.all([import('../../batch/run.ts'), import('../../batch/gis-output.ts')]);
       const { jobId, done } = await startBatchJob({
         dbPath: dbPath(),
         input,
@@ -78,10 +79,10 @@ function positiveInteger(value: string): number {
 }
 
 /** One bar a phase (georeferencing and writing run side by side), each with its rate and time left. */
-function progressBar() {
-  const bars = new cliProgress.MultiBar(
+function progressBar(progress: typeof cliProgress) {
+  const bars = new progress.MultiBar(
     { format: '{phase} {bar} {value}/{total} | {rate}/s | {eta_formatted} left', stream: process.stderr, hideCursor: true, etaBuffer: 50 },
-    cliProgress.Presets.shades_classic,
+    progress.Presets.shades_classic,
   );
   const started = new Map<BatchProgressEvent['phase'], { bar: cliProgress.SingleBar; at: number; from: number }>();
   return {

@@ -1,7 +1,5 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import type { Command } from 'commander';
-import { arrayJobScript } from '../../batch/array-script.ts';
-import { writeSharedGazetteerCopy } from '../../store/shared-copy.ts';
 
 interface ClusterScriptOptions {
   parts: string;
@@ -36,6 +34,7 @@ export function registerClusterScript(program: Command, dbPath: () => string): v
     .option('--cover-ambiguous', 'as batch --cover-ambiguous')
     .option('--administrative-fallback', 'as batch --administrative-fallback')
     .action(async (input: string, opts: ClusterScriptOptions) => {
+      const [{ arrayJobScript }, { writeSharedGazetteerCopy }] = await Promise.all([import('../../batch/array-script.ts'), import('../../store/shared-copy.ts')]);
       if (opts.gazetteerCopy) await writeSharedGazetteerCopy(dbPath(), opts.gazetteerCopy);
       mkdirSync(opts.workDir, { recursive: true }); // Slurm writes the tasks' logs there, and does not make folders
       const script = arrayJobScript({

@@ -1,5 +1,5 @@
 import type { Command } from 'commander';
-import { examineStore, type DoctorReport } from '../../store/doctor.ts';
+import type { DoctorReport } from '../../store/doctor.ts';
 
 const LABELS = { ok: 'ok     ', note: 'note   ', problem: 'PROBLEM' } as const;
 
@@ -13,7 +13,8 @@ export function registerDoctor(program: Command, dbPath: () => string): void {
     .description("check the store's integrity, schema version, journal mode, index rows and batch jobs, and say what to do")
     .option('--json', 'print the report as JSON')
     .option('--quick', 'a faster integrity check (PRAGMA quick_check) that skips comparing each index with its table')
-    .action((opts: { json?: boolean; quick?: boolean }) => {
+    .action(async (opts: { json?: boolean; quick?: boolean }) => {
+      const { examineStore } = await import('../../store/doctor.ts');
       const report = examineStore(dbPath(), { quick: opts.quick });
       process.stdout.write(opts.json ? `${JSON.stringify(report, null, 2)}\n` : describe(report));
       if (!report.healthy) process.exitCode = 1;

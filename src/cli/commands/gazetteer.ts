@@ -1,5 +1,4 @@
 import type { Command } from 'commander';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
 
 /**
  * `whereabouts gazetteer list` and `whereabouts gazetteer remove <source>`: the sources in the store,
@@ -11,7 +10,8 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .command('list')
     .description('list the gazetteer sources')
     .option('--json', 'print the sources as JSON')
-    .action((opts: { json?: boolean }) => {
+    .action(async (opts: { json?: boolean }) => {
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
         const sources = store.sources();
@@ -33,7 +33,8 @@ export function registerGazetteer(program: Command, dbPath: () => string): void 
     .command('remove')
     .description('remove a gazetteer source and all its features')
     .argument('<source>', 'the source id (see gazetteer list)')
-    .action((source: string) => {
+    .action(async (source: string) => {
+      const { openGazetteer } = await import('../../store/gazetteer-store.ts');
       const store = openGazetteer(dbPath());
       try {
         if (!store.removeSource(source)) throw new Error(`no gazetteer source '${source}' (see \`whereabouts gazetteer list\`)`);

@@ -1,7 +1,5 @@
 import type { Command } from 'commander';
-import { SingleBar } from 'cli-progress';
-import { formatFromFileName, importGazetteer, type ImportFormat, type ImportSummary } from '../../store/import.ts';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
+import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 
 interface ImportCommandOptions {
   format?: string;
@@ -41,7 +39,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
     .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
-    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius, {})
+    .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
     .option('--layer <name>', 'GIS files: the GeoPackage layer, or the shapefile inside a zip holding several')
     .option('--name-field <attribute>', 'GIS files: the attribute holding the name (default: name)')
     .option('--id-field <attribute>', "GIS files: the attribute holding the feature id (default: the feature's number)")
@@ -54,10 +52,11 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--county-field <attribute>', 'GIS files: the attribute holding the county a feature lies in')
     .option('--encoding <name>', "shapefiles: the .dbf's encoding when it has no .cpg (default windows-1252)")
     .action(async (file: string, opts: ImportCommandOptions) => {
+      const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
       if (format === null) throw new Error(`cannot tell the format of ${file} from its extension: give --format ${FORMATS.join('|')}`);
       if (!FORMATS.includes(format)) throw new Error(`--format must be one of ${FORMATS.join(', ')}, not '${format}'`);
-      const bar = process.stderr.isTTY ? new SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
+      const bar = process.stderr.isTTY ? new (await import('cli-progress')).SingleBar({ format: 'importing {value} rows read', stream: process.stderr }) : null;
       bar?.start(0, 0);
       const store = openGazetteer(dbPath());
       try {
@@ -88,7 +87,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
  * Adds one `--default-radius type=meters` to those already given.
  * @example collectRadius('village=3000', {}) // { village: 3000 }
  */
-export function collectRadius(value: string, previous: Record<string, number>): Record<string, number> {
+export function collectRadius(value: string, previous: Record<string, number> = {}): Record<string, number> {
   const match = /^(.+)=(\d+(?:\.\d+)?)$/.exec(value);
   if (match === null) throw new Error(`--default-radius needs type=meters (e.g. village=3000), not '${value}'`);
   return { ...previous, [match[1].trim()]: Number(match[2]) };

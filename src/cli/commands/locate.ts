@@ -1,10 +1,9 @@
 import { existsSync } from 'node:fs';
-import type { Command } from 'commander';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
-import { georeferenceRecord } from '../../locate/georeference-record.ts';
+import { InvalidArgumentError, type Command } from 'commander';
+import { readDatumOption } from '../../geodesy/datum-option.ts';
 import type { LocateResult } from '../../locate/locate.ts';
 import { ANSWER_FORMATS } from '../../output/formats.ts';
-import { answerJson } from '../../output/json.ts';
+import { LocalityCommand } from '../locality-command.ts';
 import { VERSION } from '../../version.ts';
 
 /**
@@ -13,8 +12,9 @@ import { VERSION } from '../../version.ts';
  * Exit code 0 whenever the text was processed, whatever the status (the status says what happened).
  */
 export function registerLocate(program: Command, dbPath: () => string): void {
-  program
-    .command('locate')
+  const locate = new LocalityCommand('locate');
+  program.addCommand(locate);
+  locate
     .description('georeference one locality text')
     .argument('<text>', 'the locality as written')
     .option('--country-code <XX>', 'ISO 3166-1 alpha-2 country code of the record')
@@ -23,13 +23,13 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--county <name>', 'county of the record')
     .option('--municipality <name>', 'municipality of the record')
     .option('--verbatim-coordinates <text>', 'coordinates as written in the record')
-    .option('--geodetic-datum <datum>', 'datum of the verbatim coordinates')
+    .option('--geodetic-datum <datum>', 'datum of written coordinates that name none (in the text or --verbatim-coordinates): an EPSG code or a name, e.g. EPSG:4267 or NAD27', datumArgument)
     .option('--map-scale <denominator>', 'scale of the map the coordinates were read from, e.g. 24000', Number)
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
     .option('--json', 'print the HTTP API body as JSON')
     .option('--format <name>', `print the answer as a file instead: ${ANSWER_FORMATS.map((f) => f.extension).join(' or ')} (as POST /api/v1/georeference.<name> writes it)`)
-    .action((text: string, opts: LocateCommandOptions) => {
+    .action(async (text: string, opts: LocateCommandOptions) => {
       const format = opts.format === undefined ? undefined : ANSWER_FORMATS.find((f) => f.extension === opts.format);
       if (opts.format !== undefined && !format) {
         throw new Error(`--format ${opts.format} is not a format of the answer: use ${ANSWER_FORMATS.map((f) => f.extension).join(' or ')}`);
@@ -37,6 +37,11 @@ export function registerLocate(program: Command, dbPath: () => string): void {
       if (!existsSync(dbPath())) {
         throw new Error(`no gazetteer at ${dbPath()}: import one first (whereabouts import <file>) or name another with --db`);
       }
+      const [{ openGazetteer }, { georeferenceRecord }, { answerJson }] = await Promise.all([
+        import('../../store/gazetteer-store.ts'),
+        import('../../locate/georeference-record.ts'),
+        import('../../output/json.ts'),
+      ]);
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
         const answer = georeferenceRecord(store, {
@@ -58,6 +63,13 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     });
 }
 
+/** Refuses an unknown datum at once, saying how to name one; the value itself goes on to locate. */
+function datumArgument(value: string): string {
+  const datum = readDatumOption(value, '--geodetic-datum');
+  if ('problem' in datum) throw new InvalidArgumentError(datum.problem);
+  return value;
+}
+
 interface LocateCommandOptions {
   countryCode?: string;
   country?: string;
@@ -77,6 +89,7 @@ interface LocateCommandOptions {
 function describe(result: LocateResult, darwinCore: Record<string, string>): string {
   const lines = [`status: ${result.status}`, `locality type: ${result.interpretation.type}`];
   if (result.reason) lines.push(`reason: ${result.reason}`);
+  if (result.flags?.length) lines.push(`flags: ${result.flags.join(' | ')} (see georeferenceRemarks)`);
   if (result.components) {
     lines.push('uncertainty budget (m):');
     for (const [source, meters] of Object.entries(result.components)) lines.push(`  ${source.padEnd(20)} ${meters.toFixed(1)}`);

@@ -1,8 +1,5 @@
 import { existsSync } from 'node:fs';
 import type { Command } from 'commander';
-import { inspectInput } from '../../batch/input-format.ts';
-import { mergeParts } from '../../batch/merge.ts';
-import { gazetteerSources } from '../../batch/run.ts';
 
 /**
  * `whereabouts merge <part files…> --out <file>`: join the part files of `batch --part K/N` into the
@@ -18,6 +15,11 @@ export function registerMerge(program: Command, dbPath: () => string): void {
     .option('--input <file>', 'check that the parts were made from this input file')
     .option('--quiet', 'no summary')
     .action(async (parts: string[], opts: { out: string; input?: string; quiet?: boolean }) => {
+      const [{ inspectInput }, { mergeParts }, { gazetteerSources }] = await Promise.all([
+        import('../../batch/input-format.ts'),
+        import('../../batch/merge.ts'),
+        import('../../batch/run.ts'),
+      ]);
       if (opts.input !== undefined && !existsSync(opts.input)) throw new Error(`cannot read the input ${opts.input}: no such file`);
       const summary = await mergeParts({
         parts,

@@ -1,10 +1,7 @@
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { InvalidArgumentError, type Command } from 'commander';
-import { importGazetteer } from '../../store/import.ts';
-import { openGazetteer } from '../../store/gazetteer-store.ts';
-import { readAccessToken } from '../../server/access.ts';
-import { buildServer, SERVER_DEFAULTS } from '../../server/app.ts';
+import { SERVER_DEFAULTS } from '../../server/defaults.ts';
 
 /** The port `serve` listens on unless told otherwise [CHOICE]; 0 asks the system for a free one. */
 export const DEFAULT_PORT = 8737;
@@ -21,7 +18,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
     .command('serve')
     .description('serve the georeference API and the web page (127.0.0.1 unless --host says otherwise)')
     .option('--host <address>', 'address to listen on; any but loopback needs WHEREABOUTS_TOKEN', SERVER_DEFAULTS.host)
-    .option('--port <n>', `port (0: any free port; default ${DEFAULT_PORT})`, parsePort, DEFAULT_PORT)
+    .option('--port <n>', 'port (0: any free port)', parsePort, DEFAULT_PORT)
     .option('--demo', 'on first run, import the demo gazetteer when the database has no sources')
     .option('--cors-origin <origin>', 'let pages from this origin call the API (no CORS by default)')
     .option('--rate-limit <n>', 'requests per client per minute, 0 for no limit', parseCount, SERVER_DEFAULTS.rateLimit.max)
@@ -31,6 +28,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
       const db = dbPath();
       if (opts.demo) await ensureDemoGazetteer(db);
       if (!existsSync(db)) throw new Error(`no database at ${db}: import a gazetteer first (whereabouts import <file>), or run with --demo`);
+      const [{ readAccessToken }, { buildServer }] = await Promise.all([import('../../server/access.ts'), import('../../server/app.ts')]);
       const token = readAccessToken(process.env);
       const app = await buildServer({
         dbPath: db,
@@ -68,6 +66,7 @@ interface ServeOptions {
 
 /** Imports gazetteer/demo.geojson when the database is new or has no sources; otherwise leaves it alone. */
 async function ensureDemoGazetteer(db: string): Promise<void> {
+  const [{ openGazetteer }, { importGazetteer }] = await Promise.all([import('../../store/gazetteer-store.ts'), import('../../store/import.ts')]);
   const store = openGazetteer(db);
   try {
     if (store.sources().length > 0) return;

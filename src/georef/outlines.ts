@@ -1,0 +1,101 @@
+/**
+ * Polygon outlines for point tests: inside or not, and how far to the nearest edge. Used by the
+ * plausibility checks (a point outside the record's country, a point at sea).
+ */
+import type { MultiPolygon, Polygon } from 'geojson';
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
+import { localProjection, normaliseLongitude } from '../geodesy/azimuthal-equidistant.ts';
+import { distanceToSegment, type PlanePoint } from '../geodesy/plane.ts';
+
+/** One polygon (outer ring and holes) with its bounding box [west, south, east, north], degrees. */
+export interface Outline {
+  polygon: Polygon;
+  bbox: [number, number, number, number];
+}
+
+/**
+ * The polygons of a Polygon or MultiPolygon, each with its bounding box.
+ * @example outlinesOf({ type: 'Polygon', coordinates: [[[0, 0], [1, 0], [1, 1], [0, 0]]] })[0].bbox // [0, 0, 1, 1]
+ */
+export function outlinesOf(geometry: Polygon | MultiPolygon): Outline[] {
+  const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
+  return polygons.map((rings) => {
+    let [west, south, east, north] = [Infinity, Infinity, -Infinity, -Infinity];
+    for (const [x, y] of rings[0] ?? []) {
+      west = Math.min(west, x!);
+      east = Math.max(east, x!);
+      south = Math.min(south, y!);
+      north = Math.max(north, y!);
+    }
+    return { polygon: { type: 'Polygon', coordinates: rings }, bbox: [west, south, east, north] };
+  });
+}
+
+/**
+ * Whether a point lies inside any of the outlines (turf's ray casting; holes excluded).
+ * @example insideOutlines(0.5, 0.5, outlinesOf(square)) // true
+ */
+export function insideOutlines(latitude: number, longitude: number, outlines: readonly Outline[]): boolean {
+  return outlines.some(({ bbox: [w, s, e, n], polygon }) =>
+    latitude >= s && latitude <= n && longitude >= w && longitude <= e && booleanPointInPolygon([longitude, latitude], polygon));
+}
+
+// Shortest length of a degree of latitude on WGS84 (at the equator, 110 574 m; method §5.3) and of longitude at the equator.
+const METERS_PER_DEGREE_LATITUDE = 110_574;
+const METERS_PER_DEGREE_LONGITUDE_AT_EQUATOR = 111_320;
+
+/**
+ * Shortest distance in meters from a point to the edges of the outlines, looking no farther than
+ * `withinMeters` (Infinity when no edge is that close). Edges are shortlisted by a plate carrée estimate
+ * around the point (cheap), then the shortlist is measured in a local azimuthal equidistant projection
+ * centred on the point: distances to vertices are geodesic, and to points inside an edge good to about
+ * (ρ/R)²/6 of ρ (under 0.1 % within 150 km). Beyond a few hundred km the shortlist may miss the nearest
+ * edge by the estimate's distortion, so a distance that large may be overstated by a few percent.
+ * @example distanceToOutlines(0.5, 2, outlinesOf(unitSquare), 500_000) // ≈ 111 000 (1° of longitude at the equator)
+ */
+export function distanceToOutlines(latitude: number, longitude: number, outlines: readonly Outline[], withinMeters: number): number {
+  const halfHeight = withinMeters / METERS_PER_DEGREE_LATITUDE;
+  const widestLatitude = Math.min(90, Math.abs(latitude) + halfHeight);
+  const cosine = Math.cos((widestLatitude * Math.PI) / 180);
+  const halfWidth = cosine < 0.01 ? 180 : Math.min(180, withinMeters / (METERS_PER_DEGREE_LONGITUDE_AT_EQUATOR * cosine));
+  // Positions relative to the point, longitude brought into [-180, 180) so windows work across 180°.
+  const relative = (x: number, y: number): PlanePoint => [normaliseLongitude(x - longitude), y - latitude];
+  const touchesWindow = (a: PlanePoint, b: PlanePoint) =>
+    Math.max(a[0], b[0]) >= -halfWidth && Math.min(a[0], b[0]) <= halfWidth && Math.max(a[1], b[1]) >= -halfHeight && Math.min(a[1], b[1]) <= halfHeight
+    && Math.abs(a[0] - b[0]) < 180; // an edge is never half the world wide; a wrapped pair is two sides of 180°
+  const projection = localProjection(latitude, longitude);
+  const metersPerDegreeLongitude = METERS_PER_DEGREE_LONGITUDE_AT_EQUATOR * Math.cos((latitude * Math.PI) / 180);
+  const estimate = ([x, y]: PlanePoint): PlanePoint => [x * metersPerDegreeLongitude, y * METERS_PER_DEGREE_LATITUDE];
+  const shortlist: { a: number[]; b: number[]; estimate: number }[] = [];
+  let nearestEstimate = Infinity;
+  for (const { bbox: [w, s, e, n], polygon } of outlines) {
+    if (s > latitude + halfHeight || n < latitude - halfHeight) continue;
+    if (halfWidth < 180 && !spansPoint(w, e, longitude, halfWidth)) continue;
+    for (const ring of polygon.coordinates) {
+      for (let i = 1; i < ring.length; i++) {
+        const a = ring[i - 1]!;
+        const b = ring[i]!;
+        const ra = relative(a[0]!, a[1]!);
+        const rb = relative(b[0]!, b[1]!);
+        if (!touchesWindow(ra, rb)) continue;
+        const estimated = distanceToSegment([0, 0], estimate(ra), estimate(rb));
+        nearestEstimate = Math.min(nearestEstimate, estimated);
+        shortlist.push({ a, b, estimate: estimated });
+      }
+    }
+  }
+  // [CHOICE] edges within a quarter and 1 km of the best estimate are measured exactly.
+  let nearest = Infinity;
+  for (const edge of shortlist) {
+    if (edge.estimate > nearestEstimate * 1.25 + 1000) continue;
+    const pa = projection.forward(edge.a[1]!, edge.a[0]!);
+    const pb = projection.forward(edge.b[1]!, edge.b[0]!);
+    nearest = Math.min(nearest, distanceToSegment([0, 0], pa, pb));
+  }
+  return nearest <= withinMeters ? nearest : Infinity;
+}
+
+/** Whether the longitudes west..east, widened by `margin` degrees, hold `longitude` (allowing for 180°). */
+function spansPoint(west: number, east: number, longitude: number, margin: number): boolean {
+  return [longitude - 360, longitude, longitude + 360].some((x) => x >= west - margin && x <= east + margin);
+}

@@ -1,0 +1,7 @@
+/**
+ * Defaults of the service [CHOICE]: a label's text is well under 64 KiB; 1200 a minute is 20 lookups a
+ * second per client; 2000 results are a few MB. Kept apart from the server so `whereabouts --help` can
+ * show them without loading fastify.
+ * @example SERVER_DEFAULTS.host // '127.0.0.1'
+ */
+export const SERVER_DEFAULTS = { host: '127.0.0.1', resultCache: 2000, bodyLimit: 64 * 1024, uploadLimit: 50 * 1024 * 1024, rateLimit: { max: 1200, timeWindowMs: 60_000 } } as const;
