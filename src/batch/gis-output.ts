@@ -16,7 +16,7 @@ import {
 } from '../output/geopackage-encoding.ts';
 import type { ResultFormat } from '../output/result-formats.ts';
 import { resultFeature, resultRowReader, uniqueColumnNames, type ResultRow } from '../output/result-rows.ts';
-import { inspectInput } from './input-format.ts';
+import { inspectInput } from '../store/input-format.ts';
 import { readRecords, type Delimiter } from './records.ts';
 
 /** Rows inserted into a GeoPackage a transaction [CHOICE]. */

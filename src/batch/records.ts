@@ -1,20 +1,29 @@
 /**
- * The rows of a CSV or tab-separated file (RFC 4180 quoting), streamed through csv-parse in constant
- * memory, with every malformed row kept and its problem stated by line number.
+ * The rows of a CSV or tab-separated file, streamed in constant memory, read by RFC 4180 (Shafranovich
+ * 2005, §2) with every malformed row kept and its problem stated by line number.
+ *
+ * The splitting is written here rather than left to csv-parse: csv-parse has one switch (relax_quotes)
+ * for both a quote mark inside an unquoted field (kept here, as spreadsheets write them) and a quoted
+ * field closed where the field does not end (a quote left open, which must be reported by its line);
+ * with the switch on the second is silently merged into the field, with it off the parser stops at the
+ * first of either and cannot go on from the next line. Neither keeps the line numbers the README promises.
  */
-import { createReadStream } from 'node:fs';
-import { Transform, type TransformCallback } from 'node:stream';
-import { parse } from 'csv-parse';
-import iconv from 'iconv-lite';
 import type { Delimiter } from '../output/csv.ts';
-import type { InputFormat } from './input-format.ts';
+import { decodedText, type InputFormat } from '../store/input-format.ts';
 
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
 export interface InputRecord {
   fields: string[];
+  /**
+   * Which fields the file enclosed in quote marks (RFC 4180 §2.5): such a field stood as `"` + its
+   * value with each `"` doubled + `"`, so the writer gives back its very bytes.
+   */
+  quoted: boolean[];
   line: number;
   /** What was wrong with the row, with its line number, when it could not be read as the header says. */
   problem?: string;
+  /** The row is a line that could not be read, cut at each delimiter as written (quote marks included). */
+  splitAsWritten?: boolean;
 }
 
 export type { Delimiter } from '../output/csv.ts';
@@ -22,10 +31,12 @@ export type { Delimiter } from '../output/csv.ts';
 /** The longest row accepted [CHOICE]: a quote left open must not swallow the rest of a large file. */
 export const MAX_ROW_CHARACTERS = 1_000_000;
 
-/** The decoded text of the file, after its byte order mark. */
-function decodedText(path: string, format: InputFormat): NodeJS.ReadableStream {
-  return createReadStream(path, { start: format.bomBytes, highWaterMark: 1 << 20 }).pipe(iconv.decodeStream(format.encoding));
-}
+/** Bytes read from the file at a time. */
+const READ_BYTES = 1 << 16;
+
+const QUOTE = 0x22;
+const LF = 0x0a;
+const CR = 0x0d;
 
 /**
  * The delimiter of the header line: whichever of comma, semicolon and tab occurs most often outside
@@ -55,68 +66,193 @@ export async function detectDelimiter(path: string, format: InputFormat): Promis
 
 /**
  * Every row of the file, the header first. Rows are never dropped: a row whose field count differs from
- * the header's, or a line where a quote is left open, comes back with `problem` set; after a quote left
- * open, reading starts again on the next line, and the line itself is kept split at each delimiter.
- * Blank lines are not rows and are passed over. Lines are counted at line feeds (a file that ends its
- * lines with a carriage return alone counts as one line). A quoted field that spans lines and starts with
- * a quote mark the parser had to keep (a quote not closed where the field should end) is read as a quote
- * left open. Reading again after such a line starts from the top of the file, so a file with many of
- * them reads slowly.
+ * the header's comes back with `problem` set, and so does a line where a quote is left open (a quoted
+ * field never closed, or closed by a quote mark that is not followed by a delimiter or a line end,
+ * RFC 4180 §2.7, on a later line than it opened); that line is kept as written, cut at each delimiter,
+ * and reading goes on from the next line. A quoted row spanning lines whose field count differs from the
+ * header's is taken for a quote left open in the same way. A quoted field closed on its own line before
+ * the field ends (`"São Bento" x`) is read as the plain text it is, quote marks included. In a
+ * tab-separated file, where a quote mark is commonly an ordinary character, a field is read as quoted
+ * only when its quoting closes properly; otherwise it is the text up to the next tab, quote marks
+ * included, and not a problem. A quote mark inside an unquoted field is kept as a character (RFC 4180
+ * §2.5 forbids it; spreadsheets write it). Blank lines are not rows. Lines end at LF or CRLF; lines are
+ * counted at line feeds.
  * @example for await (const r of readRecords('in.csv', format, ',')) console.log(r.line, r.fields)
  */
 export async function* readRecords(path: string, format: InputFormat, delimiter: Delimiter): AsyncGenerator<InputRecord> {
-  let headerLength: number | undefined;
-  let segment: Segment = { firstLine: 1 };
-  for (;;) {
-    const skipped = new LineSkipper(segment.badLine ? segment.badLine.line - 1 : segment.firstLine - 1, Boolean(segment.badLine));
-    const parser = decodedText(path, format).pipe(skipped).pipe(
-      parse({ delimiter, relax_column_count: true, relax_quotes: true, max_record_size: MAX_ROW_CHARACTERS }),
-    );
-    const firstLine = segment.firstLine;
-    let linesRead = 0;
-    let restart: Segment | undefined;
-    try {
-      for await (const record of parser as AsyncIterable<string[]>) {
-        if (skipped.captured !== undefined && segment.badLine) {
-          const text = skipped.captured;
-          yield { fields: text.split(delimiter), line: segment.badLine.line, problem: segment.badLine.problem };
-          skipped.captured = undefined;
-        }
-        // Line ends stand only inside quoted fields or at the row's end, so a row spans 1 + its fields' line feeds.
-        const line = firstLine + linesRead;
-        const lastLine = line + record.reduce((n, field) => n + lineFeeds(field), 0);
-        linesRead += lastLine - line + 1;
-        if (record.length === 1 && record[0] === '') continue;
-        if (headerLength === undefined) {
-          headerLength = record.length;
-          yield { fields: record, line };
-          continue;
-        }
-        if (lastLine > line && (record.length !== headerLength || record.some((f) => f.startsWith('"') && lineFeeds(f) > 0))) {
-          const fields = record.length;
-          restart = badLineSegment(line, () => `a quoted field opened on this line is not closed where the field should end, so the row runs on to line ${lastLine} with ${fields} fields (the header has ${headerLength})`);
-          break;
-        }
-        yield { fields: record, line, problem: raggedProblem(record, headerLength, line) };
-      }
-    } catch (error) {
-      if (!String((error as { code?: string }).code).startsWith('CSV_')) throw error;
-      const line = firstLine + linesRead;
-      restart = badLineSegment(line, () => parseProblem(error));
-    }
-    if (skipped.captured !== undefined && segment.badLine) {
-      yield { fields: skipped.captured.split(delimiter), line: segment.badLine.line, problem: segment.badLine.problem };
-    }
-    (parser as unknown as { destroy(): void }).destroy();
-    if (!restart) return;
-    segment = restart;
-  }
+  const splitter = new RecordSplitter(delimiter);
+  // 64 KiB reads [CHOICE]: a chunk's rows are held at once, and on 1 MiB reads the main thread's heap doubled.
+  for await (const chunk of decodedText(path, format, READ_BYTES) as AsyncIterable<string>) yield* splitter.push(chunk, false);
+  yield* splitter.push('', true);
 }
 
-/** Where reading starts again: after a line that could not be read, which is kept as a row of its own. */
-interface Segment {
-  firstLine: number;
-  badLine?: { line: number; problem: string };
+/**
+ * The rows of text already in memory, by the same rules as `readRecords`.
+ * @example parseRecords('a,b\r\n1,"x ""y"""\r\n', ',')[1].fields // ['1', 'x "y"']
+ */
+export function parseRecords(text: string, delimiter: Delimiter): InputRecord[] {
+  return new RecordSplitter(delimiter).push(text, true);
+}
+
+/** A field that could not be read as quoted, and why. */
+interface Unclosed {
+  why: string;
+  /** Whether the text from the opening quote to where reading gave up holds a line end. */
+  spansLines: boolean;
+}
+
+/** Splits text, given a chunk at a time, into rows; holds the unfinished end of the text between chunks. */
+class RecordSplitter {
+  private text = '';
+  /** Line number of the first character of `text`. */
+  private line = 1;
+  private headerLength: number | undefined;
+  private readonly delimiterCode: number;
+  /** Positions in `text` of the next delimiter and line feed (-1: not looked for yet; MAX_SAFE_INTEGER: none left). */
+  private nextDelimiter = -1;
+  private nextLineFeed = -1;
+
+  constructor(private readonly delimiter: Delimiter) {
+    this.delimiterCode = delimiter.charCodeAt(0);
+  }
+
+  /** The rows complete in the text read so far; with `last`, every row left. */
+  push(chunk: string, last: boolean): InputRecord[] {
+    this.text = this.text === '' ? chunk : this.text + chunk;
+    this.nextDelimiter = this.nextLineFeed = -1;
+    const records: InputRecord[] = [];
+    let position = 0;
+    while (position < this.text.length) {
+      const read = this.readRecord(position, last);
+      if (read === undefined) break;
+      if (read.record) {
+        if (this.headerLength === undefined) this.headerLength = read.record.fields.length;
+        records.push(read.record);
+      }
+      this.line += read.lines;
+      position = read.end;
+    }
+    this.text = this.text.slice(position);
+    return records;
+  }
+
+  /** The row starting at `start`, where it ends and how many line feeds it holds; undefined when more text is needed. */
+  private readRecord(start: number, last: boolean): { end: number; lines: number; record?: InputRecord } | undefined {
+    const text = this.text;
+    const first = text.charCodeAt(start);
+    if (first === LF) return { end: start + 1, lines: 1 };
+    if (first === CR && start + 1 < text.length && text.charCodeAt(start + 1) === LF) return { end: start + 2, lines: 1 };
+    if (first === CR && start + 1 === text.length) return last ? { end: start + 1, lines: 0 } : undefined;
+    const fields: string[] = [];
+    const quoted: boolean[] = [];
+    let lines = 0;
+    let position = start;
+    for (;;) {
+      let closedAt = -1;
+      if (text.charCodeAt(position) === QUOTE) {
+        const field = this.quotedField(position, start, last);
+        if (field === undefined) return undefined;
+        if ('why' in field) {
+          // §2.7 broken: closed on its own line, or in a tab-separated file, the field is plain text as
+          // written; a CSV quote that runs on to other lines is a quote left open, and the line a problem.
+          if (field.spansLines && this.delimiter !== '\t') return this.unreadableLine(start, last, field.why);
+        } else {
+          fields.push(field.value);
+          quoted.push(true);
+          lines += field.lineFeeds;
+          closedAt = field.end;
+        }
+      }
+      if (closedAt < 0) {
+        const end = this.plainFieldEnd(position, last);
+        if (end === undefined) return undefined;
+        const fieldEnd = end < text.length && text.charCodeAt(end - 1) === CR && text.charCodeAt(end) === LF && end > position ? end - 1 : end;
+        fields.push(text.slice(position, fieldEnd));
+        quoted.push(false);
+        closedAt = fieldEnd;
+      }
+      position = closedAt;
+      const next = text.charCodeAt(position);
+      if (next === this.delimiterCode) {
+        position++;
+        if (position === text.length && !last) return undefined;
+        continue;
+      }
+      let end = position;
+      if (next === LF) end = position + 1;
+      else if (next === CR) end = position + 2;
+      const record: InputRecord = { fields, quoted, line: this.line };
+      if (this.headerLength !== undefined && fields.length !== this.headerLength) {
+        if (lines > 0) {
+          const spanned = lines;
+          return this.unreadableLine(start, last, `a quoted field opened on this line is not closed where the field should end, so the row runs on to line ${this.line + spanned} with ${fields.length} fields (the header has ${this.headerLength})`);
+        }
+        record.problem = raggedProblem(fields, this.headerLength, this.line);
+      }
+      return { end, lines: lines + (end > position ? 1 : 0), record };
+    }
+  }
+
+  /**
+   * A quoted field starting at `at` (RFC 4180 §2.5–2.7: `""` stands for one quote mark; the closing quote
+   * is followed by a delimiter, a line end or the end of the file). Undefined when more text is needed.
+   */
+  private quotedField(at: number, rowStart: number, last: boolean): { value: string; end: number; lineFeeds: number } | Unclosed | undefined {
+    const text = this.text;
+    for (let from = at + 1; ;) {
+      const close = text.indexOf('"', from);
+      if (close < 0 || close - rowStart > MAX_ROW_CHARACTERS) {
+        if (close < 0 && !last && text.length - rowStart <= MAX_ROW_CHARACTERS) return undefined;
+        return {
+          spansLines: true,
+          why: close < 0 && text.length - rowStart <= MAX_ROW_CHARACTERS
+            ? 'a quoted field opened on this line is never closed (the file ends inside it)'
+            : `a quoted field opened on this line runs over ${MAX_ROW_CHARACTERS.toLocaleString('en')} characters (a quote left open?)`,
+        };
+      }
+      if (close + 1 === text.length && !last) return undefined;
+      const after = text.charCodeAt(close + 1);
+      if (after === QUOTE) {
+        from = close + 2;
+        continue;
+      }
+      if (after === CR && close + 2 === text.length && !last) return undefined;
+      const ends = close + 1 === text.length || after === this.delimiterCode || after === LF || (after === CR && text.charCodeAt(close + 2) === LF);
+      const inner = text.slice(at + 1, close);
+      if (!ends) return { why: 'a quoted field opened on this line is not closed where the field should end, so it runs on to later lines', spansLines: inner.includes('\n') };
+      return { value: inner.includes('""') ? inner.replaceAll('""', '"') : inner, end: close + 1, lineFeeds: lineFeeds(inner) };
+    }
+  }
+
+  /** Where an unquoted field starting at `at` ends (a delimiter, a line feed or the end); undefined when more text is needed. */
+  private plainFieldEnd(at: number, last: boolean): number | undefined {
+    const text = this.text;
+    if (this.nextDelimiter !== Number.MAX_SAFE_INTEGER && this.nextDelimiter < at) {
+      const found = text.indexOf(this.delimiter, at);
+      this.nextDelimiter = found < 0 ? Number.MAX_SAFE_INTEGER : found;
+    }
+    if (this.nextLineFeed !== Number.MAX_SAFE_INTEGER && this.nextLineFeed < at) {
+      const found = text.indexOf('\n', at);
+      this.nextLineFeed = found < 0 ? Number.MAX_SAFE_INTEGER : found;
+    }
+    const end = Math.min(this.nextDelimiter, this.nextLineFeed);
+    if (end !== Number.MAX_SAFE_INTEGER) return end;
+    return last ? text.length : undefined;
+  }
+
+  /** The line starting at `start`, kept as written and cut at each delimiter, with its problem. */
+  private unreadableLine(start: number, last: boolean, why: string): { end: number; lines: number; record: InputRecord } | undefined {
+    const text = this.text;
+    const lineFeed = text.indexOf('\n', start);
+    if (lineFeed < 0 && !last) return undefined;
+    const lineEnd = lineFeed < 0 ? text.length : lineFeed;
+    const written = text.slice(start, lineEnd > start && text.charCodeAt(lineEnd - 1) === CR ? lineEnd - 1 : lineEnd);
+    const fields = written.split(this.delimiter);
+    const problem = `line ${this.line}: ${why}; the line is kept as written, split at each delimiter, quote marks included`;
+    // The cached positions may lie inside the abandoned row: look again from the next line.
+    this.nextDelimiter = this.nextLineFeed = -1;
+    return { end: lineFeed < 0 ? text.length : lineFeed + 1, lines: 1, record: { fields, quoted: fields.map(() => false), line: this.line, problem, splitAsWritten: true } };
+  }
 }
 
 function lineFeeds(text: string): number {
@@ -125,71 +261,10 @@ function lineFeeds(text: string): number {
   return n;
 }
 
-function badLineSegment(line: number, why: () => string): Segment {
-  return {
-    firstLine: line + 1,
-    badLine: { line, problem: `line ${line}: ${why()}; the line is kept as written, split at each delimiter, quote marks included` },
-  };
-}
-
-function parseProblem(error: unknown): string {
-  const code = (error as { code?: string }).code;
-  if (code === 'CSV_QUOTE_NOT_CLOSED') return 'a quoted field opened on this line is never closed (the file ends inside it)';
-  if (code === 'CSV_MAX_RECORD_SIZE') return `a row starting on this line runs over ${MAX_ROW_CHARACTERS.toLocaleString('en')} characters (a quote left open?)`;
-  return error instanceof Error ? error.message : String(error);
-}
-
-function raggedProblem(record: string[], headerLength: number, line: number): string | undefined {
-  if (record.length === headerLength) return undefined;
-  if (record.length < headerLength) {
-    return `line ${line}: the row has ${record.length} fields where the header has ${headerLength}; the missing ones are left empty`;
+function raggedProblem(fields: string[], headerLength: number, line: number): string | undefined {
+  if (fields.length < headerLength) {
+    return `line ${line}: the row has ${fields.length} fields where the header has ${headerLength}; the missing ones are left empty`;
   }
-  const extra = record.slice(headerLength).map((v) => JSON.stringify(v)).join(', ');
-  return `line ${line}: the row has ${record.length} fields where the header has ${headerLength}; the fields past the header's last column are kept here as written: ${extra}`;
-}
-
-/**
- * Passes decoded text through after dropping its first `skip` lines; with `capture`, the next line is
- * held in `captured` (without its line end) instead of being passed on.
- */
-class LineSkipper extends Transform {
-  captured?: string;
-  private toSkip: number;
-  private capturing: boolean;
-  private partial = '';
-
-  constructor(skip: number, capture: boolean) {
-    super({ decodeStrings: false, encoding: 'utf8' });
-    this.toSkip = skip;
-    this.capturing = capture;
-  }
-
-  override _transform(chunk: string | Buffer, _encoding: BufferEncoding, done: TransformCallback): void {
-    let text = String(chunk);
-    while (this.toSkip > 0 && text.length > 0) {
-      const end = text.indexOf('\n');
-      if (end < 0) return done();
-      this.toSkip--;
-      text = text.slice(end + 1);
-    }
-    if (this.toSkip === 0 && this.capturing) {
-      const end = text.indexOf('\n');
-      if (end < 0) {
-        this.partial += text;
-        return done();
-      }
-      this.captured = (this.partial + text.slice(0, end)).replace(/\r$/, '');
-      this.capturing = false;
-      text = text.slice(end + 1);
-    }
-    done(null, text.length > 0 ? text : undefined);
-  }
-
-  override _flush(done: TransformCallback): void {
-    if (this.capturing && this.toSkip === 0) {
-      this.captured = this.partial.replace(/\r$/, '');
-      this.capturing = false;
-    }
-    done();
-  }
+  const extra = fields.slice(headerLength).map((v) => JSON.stringify(v)).join(', ');
+  return `line ${line}: the row has ${fields.length} fields where the header has ${headerLength}; the fields past the header's last column are kept here as written: ${extra}`;
 }

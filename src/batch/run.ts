@@ -22,7 +22,9 @@ import type { RecordContext } from '../record/darwin-core.ts';
 import { VERSION } from '../version.ts';
 import type { BatchSettings } from './georeference-group.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
-import { inspectInput, type InputEncoding, type InputFormat } from './input-format.ts';
+import { fileHead, notText } from '../store/file-kind.ts';
+import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
+import { originalLine } from './original-line.ts';
 import {
   claimJob, dropLocalityResults, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
@@ -56,6 +58,11 @@ export interface BatchJobOptions {
    * writes the rows meanwhile (on 2 cores, 1 worker keeps both busy within the 500 MB memory target).
    */
   threads?: number;
+  /**
+   * Run even though the gazetteer holds no source (every row then comes back not found). Without it a
+   * batch against an empty store is refused with a message saying how to load one.
+   */
+  allowEmptyGazetteer?: boolean;
   /** Job database; default `jobsDatabasePath(dbPath)`, or `<output>.jobs.sqlite` for a part. */
   jobsDbPath?: string;
   /**
@@ -198,11 +205,17 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
   try {
     if (outputPath === inputPath) throw new Error(`the output ${outputPath} would replace the input`);
     if (!existsSync(inputPath)) throw new Error(`cannot read the input ${inputPath}: no such file`);
+    const kind = notText(fileHead(inputPath));
+    if (kind) throw new Error(`the input ${spooled ? '' : `${inputPath} `}is ${kind.format}, not CSV or tab-separated text: ${kind.advice}`);
+    const sources = gazetteerSources(options.dbPath);
+    if (sources.length === 0 && !options.allowEmptyGazetteer) {
+      throw new Error(`the gazetteer ${resolve(options.dbPath)} holds no source, so no row could be georeferenced: load one first with whereabouts import <file> --source "<citation>" (or run the batch with --allow-empty-gazetteer to have every row come back not found)`);
+    }
     const format = await inspectInput(inputPath);
     const delimiter = await detectDelimiter(inputPath, format);
     await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
     const like = {
-      inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources: gazetteerSources(options.dbPath),
+      inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources,
       partIndex: options.part?.index ?? null, partCount: options.part?.count ?? null,
     };
     const unfinished = findUnfinishedJob(jobs, like, options.runTimestamp);
@@ -389,7 +402,8 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
         if (position === 0) {
-          const headerLine = csvLine(outputHeader(record.fields), delimiter) + LINE_END;
+          const appended = csvLine(outputHeader(record.fields).slice(headerLength), delimiter);
+          const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
           writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
@@ -487,7 +501,7 @@ function outputRow(
   tallies: Record<string, number>,
   delimiter: Delimiter,
 ): string {
-  const originals = csvLine(Array.from({ length: headerLength }, (_, i) => record.fields[i] ?? ''), delimiter);
+  const originals = originalLine(record, headerLength, delimiter);
   if (!group) {
     const unreadable = renderGroup({ fields: unreadableRecord(record.problem ?? 'the row could not be read', context), centers: [] }, delimiter);
     count(tallies, 'malformed');

@@ -83,6 +83,17 @@ export const CENTER_TOLERANCE_METERS = 1000;
 const DECIMAL = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)$/;
 
 /**
+ * A decimal number as a record writes it, with a decimal point or a decimal comma (the spreadsheet
+ * export of Spanish, Portuguese or French settings, usually semicolon-delimited); undefined for anything
+ * else (no thousands separators, exponents or signs after the digits). The text itself is never changed.
+ * @example decimalNumber('-45,3010') // -45.301
+ */
+export function decimalNumber(text: string): number | undefined {
+  const trimmed = text.trim();
+  return DECIMAL.test(trimmed) ? Number(trimmed.replace(',', '.')) : undefined;
+}
+
+/**
  * Check a record's decimalLatitude/decimalLongitude as written. Nothing is flagged when both are empty;
  * a unit's center is looked for only when the coordinates are not inside the circle.
  * Distances are geodesic on WGS84 (geographiclib, about 15 nm).
@@ -102,12 +113,12 @@ export function checkCoordinates(latitudeText: string, longitudeText: string, ci
     add('one-side-empty', `${written}: one coordinate is empty, which some programs read as zero; not compared`);
     return done();
   }
-  if (!DECIMAL.test(latText) || !DECIMAL.test(lonText)) {
+  const latitude = decimalNumber(latText);
+  const longitude = decimalNumber(lonText);
+  if (latitude === undefined || longitude === undefined) {
     add('not-a-decimal-number', `${written} are not decimal numbers; not compared`);
     return done();
   }
-  const latitude = Number(latText.replace(',', '.'));
-  const longitude = Number(lonText.replace(',', '.'));
   const inRange = Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
   if (!inRange) add('beyond-valid-range', `${written} are out of range (latitude beyond ±90 or longitude beyond ±180)`);
   if (latitude === 0 && longitude === 0) add('both-zero', `${written} are both zero, most likely an empty value written as zero`);

@@ -7,14 +7,17 @@
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import { parse } from 'csv-parse/sync';
 import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns } from '../batch/locality-group.ts';
+import { originalLine } from '../batch/original-line.ts';
+import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
 import type { LocateResult } from '../locate/locate.ts';
-import { COORDINATE_FLAGS_COLUMN, csvDocument, readFlags } from '../output/csv.ts';
+import { COORDINATE_FLAGS_COLUMN, csvLine, readFlags } from '../output/csv.ts';
 import { answerBody, type AnswerBody } from '../output/json.ts';
+import { decimalNumber } from '../record/coordinate-check.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { REVIEWED_STATUS } from '../record/verification-status.ts';
+import { HEAD_BYTES, notText } from '../store/file-kind.ts';
 import { writeResults } from '../batch/gis-output.ts';
 import { RequestError } from './errors.ts';
 import { lookUp, type FeatureKey, type ServedGazetteer } from './lookup.ts';
@@ -22,16 +25,6 @@ import type { ResultCache } from './result-cache.ts';
 import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
 
-/** Content signatures of files that are often uploaded by mistake for a CSV (first bytes). */
-const NOT_CSV: [string, number[]][] = [
-  ['a ZIP archive (an .xlsx or .ods workbook?)', [0x50, 0x4b, 0x03, 0x04]],
-  ['an old Excel workbook (.xls)', [0xd0, 0xcf, 0x11, 0xe0]],
-  ['a PDF document', [0x25, 0x50, 0x44, 0x46]],
-  ['a PNG image', [0x89, 0x50, 0x4e, 0x47]],
-  ['a JPEG image', [0xff, 0xd8, 0xff]],
-  ['a gzip file', [0x1f, 0x8b]],
-  ['an SQLite database', [...Buffer.from('SQLite format 3')]],
-];
 
 /** One record of the review list. */
 export interface RecordSummary {
@@ -64,20 +57,19 @@ export interface RecordDetail {
 }
 
 interface ParsedOutput {
-  header: string[];
+  header: InputRecord;
   originalLength: number;
-  rows: string[][];
+  /** The job's rows as read from its output, original fields quoted as they stood. */
+  records: InputRecord[];
+  delimiter: Delimiter;
   summaries: RecordSummary[];
 }
 
-/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data. */
+/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data (src/store/file-kind.ts). */
 export function assertCsvContent(bytes: Buffer): void {
   if (bytes.length === 0) throw new RequestError(400, 'the uploaded file is empty', 'file');
-  for (const [what, signature] of NOT_CSV) {
-    if (signature.every((b, i) => bytes[i] === b)) throw new RequestError(415, `the uploaded file is ${what}, not CSV text: save it as CSV (UTF-8) and upload that`, 'file');
-  }
-  const utf16 = (bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff);
-  if (!utf16 && bytes.subarray(0, 65536).includes(0)) throw new RequestError(415, 'the uploaded file holds binary data (NUL bytes), not CSV text', 'file');
+  const kind = notText(bytes.subarray(0, HEAD_BYTES));
+  if (kind) throw new RequestError(415, `the uploaded file is ${kind.format} and not CSV text: ${kind.advice}`, 'file');
 }
 
 export class BatchService {
@@ -99,6 +91,8 @@ export class BatchService {
   /** Starts a job on the uploaded bytes; resolves with its id once the job is stored. */
   async start(bytes: Buffer): Promise<string> {
     assertCsvContent(bytes);
+    // Said here without the store's path, which an HTTP answer never shows.
+    if (this.store.sources().length === 0) throw new RequestError(409, 'the service\'s gazetteer holds no source, so no row could be georeferenced: load one with whereabouts import <file> --source "<citation>" and start the service again', 'file');
     mkdirSync(this.folder, { recursive: true });
     const output = join(this.folder, `${randomUUID()}.csv`);
     let started: Awaited<ReturnType<typeof startBatchJob>>;
@@ -169,8 +163,8 @@ export class BatchService {
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
     const answer = answerBody(this.lookUpRow(output, fields, candidate ?? review?.candidate));
-    const original = Object.fromEntries(output.header.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
-    const proposed = Object.fromEntries(output.header.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
+    const original = Object.fromEntries(output.header.fields.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
+    const proposed = Object.fromEntries(output.header.fields.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
     return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
   }
 
@@ -189,11 +183,11 @@ export class BatchService {
    * "requires georeference" with the proposal moved into the remarks; a chosen candidate recomputes
    * the appended terms. Originals are never changed.
    */
-  reviewedCsv(jobId: string): string {
+  reviewedCsv(jobId: string): { text: string; delimiter: Delimiter } {
     const output = this.output(jobId);
     const reviews = this.reviews.latest(jobId);
-    const column = termColumns(output.header);
-    const rows = output.rows.map((fields, index) => {
+    const column = termColumns(output.header.fields);
+    const rows = output.records.map(({ fields }, index) => {
       const review = reviews.get(index + 1);
       if (!review) return fields;
       const copy = [...fields];
@@ -213,7 +207,11 @@ export class BatchService {
       set('georeferenceRemarks', [get('georeferenceRemarks'), stamp].filter(Boolean).join('; '));
       return copy;
     });
-    return csvDocument([output.header, ...rows]);
+    // Original fields go back as the batch wrote them (README, Batches); the appended ones as CSV.
+    const { delimiter, originalLength } = output;
+    const line = (record: InputRecord, fields: string[]) => `${originalLine(record, originalLength, delimiter)}${delimiter}${csvLine(fields.slice(originalLength), delimiter)}\r\n`;
+    const text = [line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
+    return { text, delimiter };
   }
 
   /**
@@ -221,13 +219,13 @@ export class BatchService {
    * `reviewedCsv` in files beside the jobs that are removed once read.
    */
   async reviewedFile(jobId: string, format: 'geojson' | 'gpkg'): Promise<Buffer> {
-    const csv = this.reviewedCsv(jobId);
+    const { text, delimiter } = this.reviewedCsv(jobId);
     const stem = join(this.folder, `reviewed-${randomUUID()}`);
     const csvPath = `${stem}.csv`;
     const output = `${stem}.${format}`;
-    writeFileSync(csvPath, csv);
+    writeFileSync(csvPath, text);
     try {
-      await writeResults({ format, csvPath, delimiter: ',', output, runTimestamp: new Date().toISOString().replace(/\.\d+Z$/, 'Z') });
+      await writeResults({ format, csvPath, delimiter, output, runTimestamp: new Date().toISOString().replace(/\.\d+Z$/, 'Z') });
       return readFileSync(output);
     } finally {
       rmSync(csvPath, { force: true });
@@ -255,7 +253,11 @@ export class BatchService {
     const progress = this.ownProgress(jobId);
     if (progress.state !== 'done' || !progress.outputPath) throw new RequestError(409, `batch job ${jobId} is ${progress.state}, not done`, 'jobId');
     if (dirname(progress.outputPath) !== this.folder) throw new RequestError(404, `no batch job ${jobId} was started by this service`, 'jobId');
-    const [header, ...rows] = parse(readFileSync(progress.outputPath), { bom: true, relax_column_count: true }) as string[][];
+    // The output keeps the input's delimiter (a semicolon file stays one), and is read by the batch's own reader.
+    const delimiter = progress.delimiter as Delimiter;
+    const [headerRecord, ...records] = parseRecords(readFileSync(progress.outputPath, 'utf8'), delimiter);
+    const header = headerRecord.fields;
+    const rows = records.map((r) => r.fields);
     const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
     const column = termColumns(header);
     const columns = indexColumns(header.slice(0, originalLength));
@@ -274,23 +276,23 @@ export class BatchService {
         review: null,
       };
     });
-    const parsed = { header, originalLength, rows, summaries };
+    const parsed = { header: headerRecord, originalLength, records, delimiter, summaries };
     this.parsed.set(jobId, parsed);
     return parsed;
   }
 
   private rowOf(output: ParsedOutput, row: number): string[] {
-    const fields = output.rows[row - 1];
-    if (!fields) throw new RequestError(404, `the batch has no row ${row} (it has ${output.rows.length})`, 'row');
-    return fields;
+    const record = output.records[row - 1];
+    if (!record) throw new RequestError(404, `the batch has no row ${row} (it has ${output.records.length})`, 'row');
+    return record.fields;
   }
 
   /** A row through the front door again, as the API answers it: with the reviewer's candidate, and, for the reviewed file, the reviewer as georeferencedBy. */
   private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey, review?: Review) {
     const originals = fields.slice(0, output.originalLength);
-    const columns = indexColumns(output.header.slice(0, output.originalLength));
+    const columns = indexColumns(output.header.fields.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
-    const coordinate = (i?: number) => (i === undefined || originals[i]?.trim() === '' ? undefined : Number(originals[i]));
+    const coordinate = (i?: number) => (i === undefined ? undefined : decimalNumber(originals[i] ?? ''));
     const latitude = coordinate(columns.decimalLatitude);
     const longitude = coordinate(columns.decimalLongitude);
     const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;

@@ -6,6 +6,7 @@
  * Each feature comes out as a RawFeature with GeoJSON geometry, checked and measured like a GeoJSON
  * import's (feature-record.ts).
  */
+import { createHash } from 'node:crypto';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
 import Database from 'better-sqlite3';
@@ -180,13 +181,16 @@ function sideFile(shpPath: string, ext: string): string | undefined {
 }
 
 /**
- * The files a .shp's features also come from (its .dbf, .prj, .cpg), so the source's content hash covers
- * them; none for a zip or a GeoPackage, which hold everything.
- * @example gisCompanionFiles('units.shp') // ['units.dbf', 'units.prj']
+ * The source's content hash: the file's own sha256, or for a .shp with side files (.dbf, .prj, .cpg) the
+ * sha256 of all of them in that order, so that a changed name or coordinate system changes it too.
+ * @example gisContentHash('units.zip', '9f86d0…') // '9f86d0…'
  */
-export function gisCompanionFiles(filePath: string): string[] {
-  if (extname(filePath).toLowerCase() !== '.shp') return [];
-  return SIDE_FILES.flatMap((ext) => sideFile(filePath, ext) ?? []);
+export function gisContentHash(filePath: string, fileSha256: string): string {
+  const sides = extname(filePath).toLowerCase() === '.shp' ? SIDE_FILES.flatMap((ext) => sideFile(filePath, ext) ?? []) : [];
+  if (sides.length === 0) return fileSha256;
+  const hash = createHash('sha256');
+  for (const path of [filePath, ...sides]) hash.update(readFileSync(path));
+  return hash.digest('hex');
 }
 
 /** A .cpg's code page as an encoding name TextDecoder knows ("1252", "CP1252" → windows-1252; "UTF-8" as is). */

@@ -4,25 +4,25 @@
  * row number and reason, the source recorded with its citation, licence and the file's sha256.
  * Shapefiles and GeoPackages (gis-import.ts) go the same way, but are read whole.
  */
-import { createHash } from 'node:crypto';
-import { accessSync, constants, createReadStream, readFileSync } from 'node:fs';
+import { accessSync, constants } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { createInterface } from 'node:readline';
-import { StringDecoder } from 'node:string_decoder';
 import type { Readable } from 'node:stream';
-import { finished } from 'node:stream/promises';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
+import { fileHead, notText } from './file-kind.ts';
+import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
 import { readAdmin1Line, readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
-import { gisCompanionFiles, readGisFile, type GisFieldMap } from './gis-import.ts';
+import { gisContentHash, readGisFile, type GisFieldMap } from './gis-import.ts';
 import type { GazetteerStore } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
 
 export interface ImportOptions {
   format: ImportFormat;
-  citation: string;
+  /** How to cite the source; without one, a stand-in is built from the file (see `standInCitation`). */
+  citation?: string;
   /** Defaults to the file name without its extension, e.g. "demo-towns". */
   sourceId?: string;
   licence?: string;
@@ -38,6 +38,11 @@ export interface ImportOptions {
 
 export interface ImportSummary {
   sourceId: string;
+  /** The citation recorded, and whether it is a stand-in built from the file, to be replaced by a real one. */
+  citation: string;
+  citationIsStandIn: boolean;
+  /** The file's text encoding, found as batch input's is (UTF-8, UTF-16, Windows-1252 or ISO-8859-1). */
+  encoding: InputFormat['encoding'];
   rowsRead: number;
   imported: number;
   /** Row numbers are file line numbers for CSV and the dump layout, feature numbers (from 1) for GeoJSON. */
@@ -64,15 +69,20 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   const started = process.hrtime.bigint();
   assertReadable(filePath);
   if (options.adminCodesFile !== undefined) assertReadable(options.adminCodesFile);
+  const gis = options.format === 'shapefile' || options.format === 'gpkg';
+  const kind = gis ? null : notText(fileHead(filePath));
+  if (kind) throw new Error(`${basename(filePath)} is ${kind.format}, not a gazetteer in ${options.format === 'geojson' ? 'GeoJSON' : 'CSV or tab-separated text'}: ${kind.advice}`);
   const sourceId = options.sourceId ?? defaultSourceId(filePath);
   const admin1Names = options.adminCodesFile === undefined ? new Map<string, string>() : await readAdmin1Names(options.adminCodesFile);
+  // The file's encoding and sha256 in one pass, by the module batch input uses; UTF-8 with damaged
+  // bytes is read as UTF-8, and its damaged rows refused (below), rather than all of it as Windows-1252.
+  const inspected = await inspectInput(filePath);
+  const format: InputFormat = inspected.damagedUtf8 ? { ...inspected, encoding: 'utf-8' } : inspected;
+  const citation = options.citation?.trim() || standInCitation(filePath, format, new Date());
   // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
   // young-generation collection cost heap until the next full one.
-  const input = createReadStream(filePath, { highWaterMark: READ_BYTES });
-  const hash = createHash('sha256');
-  input.on('data', (chunk) => hash.update(chunk));
+  const input = decodedText(filePath, format, READ_BYTES);
   const notes: string[] = [];
-  const gis = options.format === 'shapefile' || options.format === 'gpkg';
   const rows = gis ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
     : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, admin1Names);
   const session = store.beginImport(sourceId);
@@ -90,18 +100,37 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
     }
-    if (gis) {
-      await finished(input); // the GIS readers read the file themselves; the hash still sees every byte …
-      for (const companion of gisCompanionFiles(filePath)) hash.update(readFileSync(companion)); // … and a .shp's side files
-    }
-    session.commit({ citation: options.citation, licence: options.licence ?? null, contentHash: hash.digest('hex'), format: options.format });
+    // A source with no feature would only look like a success: nothing is registered.
+    if (imported === 0) throw new Error(nothingKept(filePath, rowsRead, rejected));
+    if (gis) input.destroy(); // the GIS readers read the file themselves
+    session.commit({ citation, licence: options.licence ?? null, contentHash: gis ? gisContentHash(filePath, format.sha256) : format.sha256, format: options.format });
   } catch (error) {
     session.rollback();
     input.destroy();
     throw error;
   }
   options.onProgress?.(rowsRead);
-  return { sourceId, rowsRead, imported, rejected, seconds: Number(process.hrtime.bigint() - started) / 1e9, ...(notes.length > 0 ? { notes } : {}) };
+  return {
+    sourceId, citation, citationIsStandIn: !options.citation?.trim(), encoding: format.encoding,
+    rowsRead, imported, rejected, seconds: Number(process.hrtime.bigint() - started) / 1e9, ...(notes.length > 0 ? { notes } : {}),
+  };
+}
+
+/**
+ * A citation for a file imported without one, from what is known of it: its name (never its folder,
+ * which is the importer's machine), size, the start of its sha256 and the import date. It identifies
+ * the file; it does not say who made the data, so it is to be replaced by a real citation.
+ * @example standInCitation('/home/a/towns.csv', { bytes: 2048, sha256: '9f86d08…' }, new Date('2026-12-02'))
+ *   // 'towns.csv (2,048 bytes, sha256 9f86d081884c, imported 2026-12-02; no citation given)'
+ */
+export function standInCitation(filePath: string, format: Pick<InputFormat, 'bytes' | 'sha256'>, when: Date): string {
+  return `${basename(filePath)} (${format.bytes.toLocaleString('en')} bytes, sha256 ${format.sha256.slice(0, 12)}, imported ${when.toISOString().slice(0, 10)}; no citation given)`;
+}
+
+function nothingKept(filePath: string, rowsRead: number, rejected: { row: number; reason: string }[]): string {
+  if (rowsRead === 0) return `${basename(filePath)} holds no rows to import; nothing was registered`;
+  const first = rejected.slice(0, 3).map(({ row, reason }) => `row ${row}: ${reason}`).join('; ');
+  return `none of the ${rowsRead} rows of ${basename(filePath)} could be imported, so nothing was registered (${first}${rejected.length > 3 ? '; …' : ''})`;
 }
 
 /**
@@ -124,7 +153,7 @@ function defaultSourceId(filePath: string): string {
 
 async function readAdmin1Names(filePath: string): Promise<Map<string, string>> {
   const names = new Map<string, string>();
-  for await (const line of createInterface({ input: createReadStream(filePath, 'utf8'), crlfDelay: Infinity })) {
+  for await (const line of createInterface({ input: decodedText(filePath, await inspectInput(filePath)), crlfDelay: Infinity })) {
     const entry = readAdmin1Line(line);
     if (entry !== null) names.set(entry[0], entry[1]);
   }
@@ -134,7 +163,7 @@ async function readAdmin1Names(filePath: string): Promise<Map<string, string>> {
 const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
 
 async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
-  const parser = input.pipe(parse({ bom: true, info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
+  const parser = input.pipe(parse({ info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
   let header: string[] | null = null;
   for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
     if (header === null) {
@@ -151,7 +180,7 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
     const fields: Record<string, string> = {};
     header.forEach((column, index) => { fields[column] = record[index]; });
     if (record.some((field) => field.includes('\uFFFD'))) {
-      yield [{ row: info.lines, raw: 'not valid UTF-8' }];
+      yield [{ row: info.lines, raw: 'not valid UTF-8 (damaged bytes in a UTF-8 file)' }];
       continue;
     }
     yield [{
@@ -166,7 +195,6 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
  * than one a line, which matters at millions of rows.
  */
 async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, string>): AsyncGenerator<ReadRow[]> {
-  const decoder = new StringDecoder('utf8');
   let row = 0;
   let rest = '';
   const read = (lines: string[]): ReadRow[] => {
@@ -178,12 +206,11 @@ async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, strin
     }
     return rows;
   };
-  for await (const chunk of input as AsyncIterable<Buffer>) {
-    const lines = (rest + decoder.write(chunk)).split('\n');
+  for await (const chunk of input as AsyncIterable<string>) {
+    const lines = (rest + chunk).split('\n');
     rest = lines.pop() ?? '';
     yield read(lines);
   }
-  rest += decoder.end();
   if (rest !== '') yield read([rest]);
 }
 
@@ -192,8 +219,6 @@ async function* readDump(input: Readable, admin1Names: ReadonlyMap<string, strin
  * being read, so memory stays constant however large the collection.
  */
 async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
-  // Decoded here rather than with setEncoding, so that the import's hash still sees the file's bytes.
-  const decoder = new StringDecoder('utf8');
   let depth = 0;
   let inString = false;
   let escaped = false;
@@ -202,8 +227,7 @@ async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
   let featuresDepth = -1;
   let buffer = '';
   let count = 0;
-  for await (const bytes of input as AsyncIterable<Buffer>) {
-    const chunk = decoder.write(bytes);
+  for await (const chunk of input as AsyncIterable<string>) {
     let featureStart = buffer === '' ? -1 : 0;
     for (let i = 0; i < chunk.length; i++) {
       const c = chunk[i];

@@ -55,6 +55,8 @@ export interface JobProgress {
   startedAt: string;
   finishedAt?: string;
   outputPath?: string;
+  /** The input's delimiter, which the output keeps. */
+  delimiter: string;
   error?: string;
 }
 
@@ -199,6 +201,7 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
       startedAt: job.startedAt,
       finishedAt: job.finishedAt ?? undefined,
       outputPath: job.state === 'done' && job.outputPath !== '-' ? job.outputPath : undefined,
+      delimiter: job.delimiter,
       error: job.error ?? undefined,
     };
   } finally {

@@ -11,6 +11,7 @@ import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
 import { parseLocality } from '../../src/parse/index.ts';
+import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
@@ -226,6 +227,77 @@ describe('a stop during a batch', () => {
       expect(out.every((r) => r.georeferenceVerificationStatus === 'requires verification')).toBe(true);
     } finally {
       await second.close();
+    }
+  });
+});
+
+describe('a semicolon-delimited upload with decimal commas (the usual export where the decimal separator is a comma)', () => {
+  // Invented records on the demo island; Vila Serena is at -45.301038, -131 in gazetteer/demo.geojson.
+  const input = [
+    'occurrenceID;locality;countryCode;decimalLatitude;decimalLongitude',
+    'sc-1;Vila Serena;QV;-45,3010;-131,0000',
+    'sc-2;"Puerto Lindo; muelle ""viejo""";QV;;',
+    'sc-3;Vila Serena;QV;45,3010;-131,0000',
+    '',
+  ].join('\r\n');
+  let jobId: string;
+
+  it('runs to the end, lists its records and shows one with the record\'s own coordinates read', async () => {
+    const started = await upload(Buffer.from(input, 'utf8'), 'export.csv');
+    expect(started.status).toBe(202);
+    jobId = started.json.jobId;
+    expect((await finished(jobId)).state).toBe('done');
+    const list = await json(`/api/v1/batches/${jobId}/records`);
+    expect(list.status).toBe(200);
+    expect(list.body.records.map((r: any) => r.locality)).toEqual(['Vila Serena', 'Puerto Lindo; muelle "viejo"', 'Vila Serena']);
+    // The coordinate check reads "-45,3010" as -45.301 (README, Batches): inside the circle, and a sign flip for sc-3.
+    expect(list.body.records[0].flags).toEqual(['agrees-with-locality']);
+    expect(list.body.records[2].flags).toContain('fits-if-latitude-sign-flipped');
+    const detail = await json(`/api/v1/batches/${jobId}/records/1`);
+    expect(detail.status).toBe(200);
+    expect(detail.body.original).toEqual({ occurrenceID: 'sc-1', locality: 'Vila Serena', countryCode: 'QV', decimalLatitude: '-45,3010', decimalLongitude: '-131,0000' });
+    expect(detail.body.answer.recordPoint.latitude).toBeCloseTo(-45.301, 6);
+    expect(detail.body.answer.recordPoint.withinUncertainty).toBe(true);
+  });
+
+  it('gives back the reviewed file semicolon-delimited, every original value byte for byte', async () => {
+    expect((await put(`/api/v1/batches/${jobId}/records/1/review`, { decision: 'accepted', reviewer: 'C. Curator' })).status).toBe(200);
+    const download = await fetch(`${server.url}/api/v1/batches/${jobId}/reviewed.csv`);
+    expect(download.status).toBe(200);
+    const text = await download.text();
+    const lines = input.split('\r\n').filter(Boolean);
+    let at = -1;
+    for (const line of lines) {
+      at = text.indexOf(`${line};`, at + 1);
+      expect(at, line).toBeGreaterThanOrEqual(0);
+    }
+    // Read by csv-parse's strict RFC 4180 mode, with the semicolon as delimiter: the same values.
+    const rows = parse(text, { delimiter: ';', columns: true, relax_quotes: false }) as Record<string, string>[];
+    expect(rows.map((r) => [r.occurrenceID, r.locality, r.decimalLatitude])).toEqual([
+      ['sc-1', 'Vila Serena', '-45,3010'], ['sc-2', 'Puerto Lindo; muelle "viejo"', ''], ['sc-3', 'Vila Serena', '45,3010'],
+    ]);
+    expect(term(rows[0], 'georeferenceVerificationStatus')).toBe('verified by data custodian');
+  });
+});
+
+describe('an upload to a service whose gazetteer holds no source', () => {
+  it('answers 409 saying how to load one, without the store\'s path', async () => {
+    const empty = await demoDatabase();
+    const store = openGazetteer(empty.dbPath);
+    for (const source of store.sources()) store.removeSource(source.id);
+    store.close();
+    const service = await listen({ dbPath: empty.dbPath, uploadLimit: 200_000 });
+    try {
+      const form = new FormData();
+      form.append('file', new Blob([Buffer.from('locality,countryCode\nVila Serena,QV\n')], { type: 'text/csv' }), 'records.csv');
+      const response = await fetch(`${service.url}/api/v1/batches`, { method: 'POST', body: form });
+      const body = (await response.json()) as { message: string };
+      expect(response.status).toBe(409);
+      expect(body.message).toMatch(/holds no source.*whereabouts import/);
+      expect(body.message).not.toContain(empty.dir);
+    } finally {
+      await service.close();
+      empty.remove();
     }
   });
 });

@@ -55,7 +55,8 @@ describe('whereabouts import and gazetteer', () => {
 
   it('lists the sources with citation, licence and hash, and removes one', async () => {
     const listed = await run('gazetteer', 'list');
-    expect(listed).toMatch(/^admin\t5 features\timported \S+\tsha256 [0-9a-f]{64}\n  citation: .*admin\.geojson\n  licence: not recorded\n/);
+    expect(listed).toMatch(/^admin\t5 features\timported \S+\tsha256 [0-9a-f]{64}\n  citation: admin\.geojson \(1,265 bytes, sha256 [0-9a-f]{12}, imported \d{4}-\d\d-\d\d; no citation given\)\n  licence: not recorded\n/);
+    expect(listed).not.toContain(FIXTURES); // never the importer's folder
     expect(listed).toContain('dump\t3 features');
     expect(listed).toContain('  citation: Fixture dump\n  licence: CC0-1.0\n');
     expect(await run('gazetteer', 'remove', 'dump')).toBe('removed source dump\n');

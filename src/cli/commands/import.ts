@@ -4,6 +4,7 @@ import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 interface ImportCommandOptions {
   format?: string;
   source?: string;
+  citation?: string;
   sourceId?: string;
   licence?: string;
   adminCodes?: string;
@@ -35,7 +36,8 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, the tab-separated world-gazetteer dump layout, a shapefile or a GeoPackage)')
     .argument('<file>', 'the gazetteer file')
     .option('--format <format>', `one of ${FORMATS.join(', ')} (default: from the file extension)`)
-    .option('--source <citation>', 'how to cite this gazetteer (default: the file name)')
+    .option('--source <citation>', 'how to cite this gazetteer, e.g. "Survey of towns, 2024, Land Office" (without it a stand-in is built from the file name, size and sha256, to be replaced)')
+    .option('--citation <citation>', 'the same as --source')
     .option('--source-id <id>', 'id of the source in the store (default: the file name without extension)')
     .option('--licence <text>', 'licence of the gazetteer')
     .option('--admin-codes <file>', 'admin1 code names for the dump layout ("CC.code", name, asciiname, id)')
@@ -62,7 +64,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
       try {
         const summary = await importGazetteer(store, file, {
           format,
-          citation: opts.source ?? file,
+          citation: opts.source ?? opts.citation,
           sourceId: opts.sourceId,
           licence: opts.licence,
           adminCodesFile: opts.adminCodes,
@@ -95,12 +97,16 @@ export function collectRadius(value: string, previous: Record<string, number> = 
 
 /**
  * The summary printed after an import.
- * @example formatSummary({ sourceId: 'x', rowsRead: 2, imported: 1, rejected: [{ row: 3, reason: 'name missing' }], seconds: 0.1 })
+ * @example formatSummary({ sourceId: 'x', citation: 'Towns, 2024', citationIsStandIn: false, encoding: 'utf-8', rowsRead: 2, imported: 1, rejected: [{ row: 3, reason: 'name missing' }], seconds: 0.1 })
  */
 export function formatSummary(summary: ImportSummary): string {
   const lines = [
     `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
     ...(summary.notes ?? []).map((note) => `  ${note}`),
+    ...(summary.encoding === 'utf-8' ? [] : [`  read as ${summary.encoding} (the file is not UTF-8)`]),
+    ...(summary.citationIsStandIn
+      ? [`  citation: ${summary.citation}`, `  this stand-in only names the file: replace it with a real citation by importing again with --source "<who, what, year, where from>"`]
+      : []),
     ...summary.rejected.slice(0, LISTED_REJECTIONS).map(({ row, reason }) => `  row ${row}: ${reason}`),
   ];
   if (summary.rejected.length > LISTED_REJECTIONS) lines.push(`  … and ${summary.rejected.length - LISTED_REJECTIONS} more rejected rows`);

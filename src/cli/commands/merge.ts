@@ -16,7 +16,7 @@ export function registerMerge(program: Command, dbPath: () => string): void {
     .option('--quiet', 'no summary')
     .action(async (parts: string[], opts: { out: string; input?: string; quiet?: boolean }) => {
       const [{ inspectInput }, { mergeParts }, { gazetteerSources }] = await Promise.all([
-        import('../../batch/input-format.ts'),
+        import('../../store/input-format.ts'),
         import('../../batch/merge.ts'),
         import('../../batch/run.ts'),
       ]);

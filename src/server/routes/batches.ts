@@ -27,7 +27,7 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
 
   scope.post(
     '/api/v1/batches',
-    { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 415: errorSchema, ...errorResponses } } },
+    { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 409: errorSchema, 415: errorSchema, ...errorResponses } } },
     async (request, reply) => {
       if (!request.isMultipart()) throw new RequestError(415, 'send the CSV as multipart/form-data in a field named "file"', 'file');
       const part = await request.file();
@@ -126,11 +126,15 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
   scope.get(
     '/api/v1/batches/:jobId/reviewed.csv',
     { schema: { summary: 'The batch output with every review decision applied, as CSV', tags: ['batch'], params: jobParams, produces: ['text/csv'] } },
-    async (request, reply) =>
-      reply
-        .header('content-type', 'text/csv; charset=utf-8')
-        .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.csv"`)
-        .send(batches.reviewedCsv(request.params.jobId)),
+    async (request, reply) => {
+      // The input's delimiter is kept: a tab-separated upload comes back as tab-separated values.
+      const { text, delimiter } = batches.reviewedCsv(request.params.jobId);
+      const [type, extension] = delimiter === '\t' ? ['text/tab-separated-values', 'tsv'] : ['text/csv', 'csv'];
+      return reply
+        .header('content-type', `${type}; charset=utf-8`)
+        .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.${extension}"`)
+        .send(text);
+    },
   );
 
   const gisFormats = [

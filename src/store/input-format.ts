@@ -4,6 +4,8 @@
  */
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
+import type { Readable } from 'node:stream';
+import iconv from 'iconv-lite';
 
 /** Encodings a batch file may come in; the names are the ones iconv-lite decodes. */
 export type InputEncoding = 'utf-8' | 'utf-16le' | 'utf-16be' | 'windows-1252' | 'latin1';
@@ -14,6 +16,13 @@ export interface InputFormat {
   encoding: InputEncoding;
   /** Length in bytes of the byte order mark to skip (0 when there is none). */
   bomBytes: number;
+  /**
+   * Not valid UTF-8, yet holding well-formed multi-byte UTF-8 sequences: most likely UTF-8 with some
+   * damaged bytes rather than Windows-1252 text (which forms such a sequence only where a capital
+   * accented letter stands before a symbol of 0x80–0xBF). Batches still read it as Windows-1252, so
+   * that no byte is lost; the gazetteer importer reads it as UTF-8 and refuses the damaged rows.
+   */
+  damagedUtf8?: boolean;
 }
 
 /**
@@ -34,13 +43,13 @@ export async function inspectInput(path: string): Promise<InputFormat> {
   let bytes = 0;
   let head: Buffer | undefined;
   let validUtf8 = true;
-  let undefinedIn1252 = false;
+  const high = { undefinedIn1252: false, utf8Sequences: 0 };
   for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 }) as AsyncIterable<Buffer>) {
     hash.update(chunk);
     head ??= chunk.subarray(0, 4096);
     bytes += chunk.length;
     if (validUtf8) validUtf8 = decodes(utf8, chunk, false);
-    if (!undefinedIn1252) undefinedIn1252 = chunk.some((b) => UNDEFINED_IN_WINDOWS_1252.has(b));
+    tallyHighBytes(chunk, high);
   }
   if (validUtf8) validUtf8 = decodes(utf8, new Uint8Array(0), true);
   const sha256 = hash.digest('hex');
@@ -50,7 +59,37 @@ export async function inspectInput(path: string): Promise<InputFormat> {
   const utf16 = utf16WithoutBom(start);
   if (utf16) return { sha256, bytes, encoding: utf16, bomBytes: 0 };
   if (validUtf8) return { sha256, bytes, encoding: 'utf-8', bomBytes: 0 };
-  return { sha256, bytes, encoding: undefinedIn1252 ? 'latin1' : 'windows-1252', bomBytes: 0 };
+  return { sha256, bytes, encoding: high.undefinedIn1252 ? 'latin1' : 'windows-1252', bomBytes: 0, damagedUtf8: high.utf8Sequences > 0 };
+}
+
+/**
+ * Notes, over the bytes of 0x80 and above, whether one is undefined in Windows-1252 and how many
+ * well-formed multi-byte UTF-8 sequences there are (RFC 3629 §4: a lead byte C2–F4 and its continuation
+ * bytes 80–BF; a sequence cut by the chunk's end is not counted).
+ */
+function tallyHighBytes(chunk: Buffer, tally: { undefinedIn1252: boolean; utf8Sequences: number }): void {
+  for (let i = 0; i < chunk.length; i++) {
+    const b = chunk[i];
+    if (b < 0x80) continue;
+    if (!tally.undefinedIn1252 && UNDEFINED_IN_WINDOWS_1252.has(b)) tally.undefinedIn1252 = true;
+    const length = b >= 0xc2 && b <= 0xdf ? 2 : b >= 0xe0 && b <= 0xef ? 3 : b >= 0xf0 && b <= 0xf4 ? 4 : 0;
+    if (length === 0 || i + length > chunk.length) continue;
+    let wellFormed = true;
+    for (let k = 1; wellFormed && k < length; k++) wellFormed = (chunk[i + k] & 0xc0) === 0x80;
+    if (!wellFormed) continue;
+    tally.utf8Sequences++;
+    for (let k = 1; k < length; k++) if (UNDEFINED_IN_WINDOWS_1252.has(chunk[i + k])) tally.undefinedIn1252 = true;
+    i += length - 1;
+  }
+}
+
+/**
+ * The file's text, decoded from the encoding `inspectInput` found, after its byte order mark: chunks of
+ * strings, in constant memory.
+ * @example for await (const text of decodedText('in.csv', await inspectInput('in.csv'))) …
+ */
+export function decodedText(path: string, format: InputFormat, highWaterMark = 1 << 20): Readable {
+  return createReadStream(path, { start: format.bomBytes, highWaterMark }).pipe(iconv.decodeStream(format.encoding)) as unknown as Readable;
 }
 
 function decodes(decoder: TextDecoder, chunk: Uint8Array, last: boolean): boolean {
@@ -60,6 +99,14 @@ function decodes(decoder: TextDecoder, chunk: Uint8Array, last: boolean): boolea
   } catch {
     return false;
   }
+}
+
+/**
+ * Whether a file's start is UTF-16 text, by its byte order mark or its layout (see below).
+ * @example isUtf16(Buffer.from('\ufeffid', 'utf16le')) // true
+ */
+export function isUtf16(start: Buffer): boolean {
+  return Boolean(encodingByBom(start)?.encoding.startsWith('utf-16') || utf16WithoutBom(start));
 }
 
 function encodingByBom(start: Buffer): { encoding: InputEncoding; bomBytes: number } | undefined {
