@@ -47,3 +47,20 @@ export function inverse(lat1: number, lon1: number, lat2: number, lon2: number):
   const result = wgs84.Inverse(lat1, lon1, lat2, lon2, INVERSE_MASK);
   return { meters: result.s12!, azimuth1: result.azi1!, azimuth2: result.azi2! };
 }
+
+/**
+ * The area of a polygon on the WGS84 ellipsoid in square meters, its edges geodesics (Karney 2013, §6):
+ * the outer ring's area less its holes', whatever the rings' orientation. Positions are [longitude,
+ * latitude] as in GeoJSON; a closing repeat of the first position is allowed. Accuracy: about 0.1 m²
+ * per ring for rings of continental size (Karney 2013, §6), far finer than any footprint needs.
+ * @example polygonAreaSquareMeters([[[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]]]) // ≈ 1.2308e10
+ */
+export function polygonAreaSquareMeters(rings: readonly (readonly (readonly number[])[])[]): number {
+  const ringArea = (ring: readonly (readonly number[])[]) => {
+    const polygon = wgs84.Polygon(false);
+    for (const [longitude, latitude] of ring) polygon.AddPoint(latitude!, longitude!);
+    return Math.abs(polygon.Compute(false, true).area ?? 0);
+  };
+  const [outer, ...holes] = rings;
+  return outer ? holes.reduce((area, hole) => area - ringArea(hole), ringArea(outer)) : 0;
+}

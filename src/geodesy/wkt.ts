@@ -1,6 +1,10 @@
-/** Polygons written as WKT in EPSG:4326 (lon lat order), split at the antimeridian. */
-import type { Position } from 'geojson';
+/**
+ * Polygons written as WKT in EPSG:4326 (lon lat order), split at the antimeridian, and footprints
+ * (as GeoJSON geometry, src/output/footprint-geometry.ts) summarised for a person.
+ */
+import type { MultiPolygon, Polygon, Position } from 'geojson';
 import { largest, smallest } from './extremes.ts';
+import { polygonAreaSquareMeters } from './geodesic.ts';
 
 /**
  * WKT of polygons whose longitudes may run past ±180 (rings unwrapped around a center): each polygon is
@@ -70,4 +74,26 @@ function clipRingToBand(ring: Position[], west: number, east: number): Position[
     (p, i, all) => { const q = all[(i + all.length - 1) % all.length]!; return p[0] !== q[0] || p[1] !== q[1]; },
   );
   return clipped.length >= 3 ? [...clipped, clipped[0]!] : [];
+}
+
+/** What a person needs to know of a footprint without reading its coordinates. */
+export interface FootprintSummary {
+  type: 'Polygon' | 'MultiPolygon';
+  /** Polygons in it (1 for a Polygon; more where the antimeridian or a unit's shape cuts it). */
+  parts: number;
+  /** Distinct vertices of every ring (a ring's closing repeat is not counted). */
+  vertices: number;
+  /** Geodesic area on WGS84 (polygonAreaSquareMeters: about 0.1 m² per ring). */
+  areaSquareMeters: number;
+}
+
+/**
+ * Type, parts, vertices and area of a footprint geometry.
+ * @example footprintSummary({ type: 'Polygon', coordinates: [[[0, 0], [1, 0], [1, 1], [0, 0]]] }) // { type: 'Polygon', parts: 1, vertices: 3, areaSquareMeters: ≈ 6.15e9 }
+ */
+export function footprintSummary(geometry: Polygon | MultiPolygon): FootprintSummary {
+  const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
+  const vertices = polygons.flat().reduce((n, ring) => n + Math.max(ring.length - 1, 0), 0);
+  const areaSquareMeters = polygons.reduce((sum, rings) => sum + polygonAreaSquareMeters(rings), 0);
+  return { type: geometry.type, parts: polygons.length, vertices, areaSquareMeters };
 }

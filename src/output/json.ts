@@ -9,12 +9,15 @@ import type { RecordAnswer } from '../locate/georeference-record.ts';
 import type { LocateResult } from '../locate/locate.ts';
 import type { RecordPoint } from '../record/coordinate-check.ts';
 import type { GeoreferenceTerm } from '../record/darwin-core.ts';
+import { footprintSummary, type FootprintSummary } from '../geodesy/wkt.ts';
 import { footprintGeometry } from './footprint-geometry.ts';
 
 /** The body: the locate result (candidates without their geometry), its Darwin Core fields, the footprint and the record's point. */
 export interface AnswerBody extends LocateResult {
   darwinCore: Record<GeoreferenceTerm, string>;
   footprint?: Polygon | MultiPolygon;
+  /** Type, vertex count and area of the footprint, to show instead of its coordinates. */
+  footprintSummary?: FootprintSummary;
   /** How far the record's own coordinates lie from the proposed point. */
   recordPoint?: RecordPoint;
 }
@@ -28,6 +31,7 @@ export function answerBody(answer: RecordAnswer): AnswerBody {
   const body: AnswerBody = { ...result, candidates: result.candidates.map(withoutGeometry), darwinCore };
   const g = result.georeference;
   if (g) body.footprint = footprintGeometry(g.footprintWKT);
+  if (body.footprint) body.footprintSummary = footprintSummary(body.footprint);
   if (coordinateCheck?.recordPoint) body.recordPoint = coordinateCheck.recordPoint;
   return body;
 }

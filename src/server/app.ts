@@ -7,6 +7,7 @@ import cors from '@fastify/cors';
 import helmet from '@fastify/helmet';
 import rateLimit from '@fastify/rate-limit';
 import swagger from '@fastify/swagger';
+import { resolve } from 'node:path';
 import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import Fastify, { type FastifyInstance } from 'fastify';
 import { openGazetteer } from '../store/gazetteer-store.ts';
@@ -23,6 +24,7 @@ import { openReviews } from '../store/reviews.ts';
 import { reviewsDatabasePath } from '../store/side-files.ts';
 import type { ServedGazetteer } from './lookup.ts';
 import { batchRoutes } from './routes/batches.ts';
+import { datumsRoutes } from './routes/datums.ts';
 import { featureRoutes } from './routes/features.ts';
 import { georeferenceRoutes } from './routes/georeference.ts';
 import { layersRoutes, type LayerSource } from './routes/layers.ts';
@@ -76,12 +78,14 @@ export interface ServedStores {
  */
 export async function buildServer(options: ServerOptions): Promise<FastifyInstance> {
   assertSafeBind(options.host ?? SERVER_DEFAULTS.host, options.token);
-  const store = openGazetteer(options.dbPath, { readonly: true });
-  const reviews = openReviews(reviewsDatabasePath(options.dbPath));
+  // Resolved once: every file beside the gazetteer (jobs, reviews, batch outputs) is named from this absolute path.
+  const dbPath = resolve(options.dbPath);
+  const store = openGazetteer(dbPath, { readonly: true });
+  const reviews = openReviews(reviewsDatabasePath(dbPath));
   const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
-  const batches = new BatchService(options.dbPath, store, reviews, results);
+  const batches = new BatchService(dbPath, store, reviews, results);
   await batches.resumeUnfinished();
-  const app = await buildApp({ gazetteer: store, layers: shapedFeatureLister(options.dbPath, store), batches, results }, options);
+  const app = await buildApp({ gazetteer: store, layers: shapedFeatureLister(dbPath, store), batches, results }, options);
   // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.
   app.addHook('onClose', async () => {
     if (batches.runningJobs().length) app.log.info({ jobs: batches.runningJobs() }, 'batch jobs stopped at their last committed step');
@@ -155,6 +159,7 @@ export async function buildApp(stores: ServedStores, options: AppOptions): Promi
 
   await app.register(georeferenceRoutes, { gazetteer: stores.gazetteer, results: stores.results });
   await app.register(featureRoutes, { gazetteer: stores.gazetteer });
+  await app.register(datumsRoutes);
   await app.register(layersRoutes, { layers: stores.layers });
   if (stores.batches) await app.register(batchRoutes, { batches: stores.batches, uploadLimit: options.uploadLimit ?? SERVER_DEFAULTS.uploadLimit });
   if (options.token) await app.register(loginRoutes, { token: options.token });

@@ -6,9 +6,9 @@
  */
 import { randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { dirname, isAbsolute, join } from 'node:path';
 import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
-import { groupOf, indexColumns } from '../batch/locality-group.ts';
+import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
 import { originalLine } from '../batch/original-line.ts';
 import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
 import type { LocateResult } from '../locate/locate.ts';
@@ -20,9 +20,10 @@ import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { HEAD_BYTES, notText } from '../store/file-kind.ts';
 import { writeResults } from '../batch/gis-output.ts';
 import { RequestError } from './errors.ts';
-import { lookUp, type FeatureKey, type ServedGazetteer } from './lookup.ts';
+import type { RecordAnswer } from '../locate/georeference-record.ts';
+import { lookUp, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import type { Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
+import type { Resolution, Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
 
 
@@ -54,7 +55,23 @@ export interface RecordDetail {
   flags: string[];
   review: Review | null;
   answer: AnswerBody;
+  /** What the reviewer's resolution did, in words (e.g. a sign corrected), when one is applied. */
+  resolutionNote?: string;
 }
+
+/** A record georeferenced again for review, with what the resolution applied to it did. */
+interface ResolvedRow {
+  answer: RecordAnswer;
+  note?: string;
+}
+
+/** Coordinate-check flags (src/batch/coordinate-check.ts) whose correction the reviewer may accept, and how each corrects. */
+const CORRECTIONS: Record<string, { fix: (lat: string, lon: string) => [string, string]; words: string }> = {
+  'fits-if-latitude-sign-flipped': { fix: (lat, lon) => [flipSign(lat), lon], words: 'the sign of latitude inverted' },
+  'fits-if-longitude-sign-flipped': { fix: (lat, lon) => [lat, flipSign(lon)], words: 'the sign of longitude inverted' },
+  'fits-if-both-signs-flipped': { fix: (lat, lon) => [flipSign(lat), flipSign(lon)], words: 'both signs inverted' },
+  'fits-if-latitude-longitude-exchanged': { fix: (lat, lon) => [lon, lat], words: 'latitude and longitude exchanged' },
+};
 
 interface ParsedOutput {
   header: InputRecord;
@@ -84,6 +101,8 @@ export class BatchService {
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
   ) {
+    // Output paths are kept absolute by the job store: so is this folder, for the two to compare equal.
+    if (!isAbsolute(dbPath)) throw new Error(`the batch service needs an absolute database path, not ${dbPath}`);
     this.folder = batchFolderPath(dbPath);
     this.jobsPath = jobsDatabasePath(dbPath);
   }
@@ -157,23 +176,43 @@ export class BatchService {
     };
   }
 
-  /** One record, georeferenced again for the map (with the reviewer's candidate when given or stored). */
-  record(jobId: string, row: number, candidate?: FeatureKey): RecordDetail {
+  /**
+   * One record, georeferenced again for the map: with the resolution asked for (another candidate, a
+   * corrected locality, the record's own coordinates), else the one stored with its review.
+   */
+  record(jobId: string, row: number, resolution: Resolution = {}): RecordDetail {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
-    const answer = answerBody(this.lookUpRow(output, fields, candidate ?? review?.candidate));
+    const { answer, note } = this.lookUpRow(output, fields, hasResolution(resolution) ? resolution : (review ?? {}));
     const original = Object.fromEntries(output.header.fields.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
     const proposed = Object.fromEntries(output.header.fields.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
-    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer };
+    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer: answerBody(answer), ...(note ? { resolutionNote: note } : {}) };
   }
 
-  /** Stores a decision with who and when. */
-  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, candidate?: FeatureKey): Review {
+  /**
+   * Stores a decision with who and when. Verifying needs a point: an accept of a record that has none
+   * (not found, ambiguous, unreadable) is refused until a resolution gives it one.
+   */
+  decide(jobId: string, row: number, decision: ReviewDecision, reviewer: string, resolution: Resolution = {}): Review {
     const output = this.output(jobId);
     const fields = this.rowOf(output, row);
-    if (candidate) this.lookUpRow(output, fields, candidate); // refuses a candidate that is not offered
-    const review: Review = { decision, candidate, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
+    // Georeferencing again refuses a candidate that is not offered and coordinates the record does not have.
+    const resolved = hasResolution(resolution) ? this.lookUpRow(output, fields, resolution) : undefined;
+    if (decision === 'accepted') {
+      const hasPoint = resolved ? resolved.answer.result.georeference !== undefined : fields[termColumns(output.header.fields).decimalLatitude] !== '';
+      if (!hasPoint) {
+        const status = resolved?.answer.result.status ?? summaryStatus(output, row);
+        const reason = resolved?.answer.result.reason;
+        throw new RequestError(
+          409,
+          `row ${row} has no point to verify (${status}${reason ? `: ${reason}` : ''}): ` +
+            "choose a candidate, give a corrected locality, or accept the record's own coordinates, then accept",
+          'decision',
+        );
+      }
+    }
+    const review: Review = { decision, ...resolution, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
     this.reviews.record(jobId, row, review);
     return review;
   }
@@ -193,9 +232,16 @@ export class BatchService {
       const copy = [...fields];
       const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
-      if (review.candidate) {
-        const recomputed = this.lookUpRow(output, fields, review.candidate, review).darwinCore;
+      if (hasResolution(review)) {
+        const { answer, note } = this.lookUpRow(output, fields, review, review);
+        const recomputed = answer.darwinCore;
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
+        if (note) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
+      }
+      if (review.decision === 'accepted' && get('decimalLatitude') === '') {
+        // Kept from a review file written before an accept needed a point: nothing to verify.
+        set('georeferenceRemarks', [get('georeferenceRemarks'), `accepted by ${review.reviewer} on ${review.decidedAt} without a point, so not verified`].filter(Boolean).join('; '));
+        return copy;
       }
       const stamp = `${review.decision === 'accepted' ? 'verified' : 'rejected'} by ${review.reviewer} on ${review.decidedAt}`;
       if (review.decision === 'rejected' && get('decimalLatitude') !== '') {
@@ -287,27 +333,66 @@ export class BatchService {
     return record.fields;
   }
 
-  /** A row through the front door again, as the API answers it: with the reviewer's candidate, and, for the reviewed file, the reviewer as georeferencedBy. */
-  private lookUpRow(output: ParsedOutput, fields: string[], candidate?: FeatureKey, review?: Review) {
+  /**
+   * The row through the front door again, as the API answers it, with a reviewer's resolution applied,
+   * and, for the reviewed file, the reviewer as georeferencedBy.
+   */
+  private lookUpRow(output: ParsedOutput, fields: string[], resolution: Resolution, review?: Review): ResolvedRow {
     const originals = fields.slice(0, output.originalLength);
     const columns = indexColumns(output.header.fields.slice(0, output.originalLength));
     const { request } = groupOf(originals, columns);
+    const written = (i?: number) => (i === undefined ? '' : (originals[i] ?? '').trim().replace(',', '.'));
     const coordinate = (i?: number) => (i === undefined ? undefined : decimalNumber(originals[i] ?? ''));
     const latitude = coordinate(columns.decimalLatitude);
     const longitude = coordinate(columns.decimalLongitude);
     const inRange = latitude !== undefined && longitude !== undefined && Math.abs(latitude) <= 90 && Math.abs(longitude) <= 180;
-    return lookUp(
+    const notes: string[] = [];
+    if (resolution.locality !== undefined) {
+      request.locality = normaliseText(resolution.locality);
+      notes.push(`locality text corrected by the reviewer to "${request.locality}" (the original column is unchanged)`);
+    }
+    if (resolution.recordCoordinates) {
+      if (!inRange) {
+        const what = latitude === undefined || longitude === undefined || Number.isNaN(latitude) || Number.isNaN(longitude) ? 'has no coordinates of its own to accept' : 'has coordinates beyond ±90° latitude or ±180° longitude';
+        throw new RequestError(409, `the record ${what} (decimalLatitude "${written(columns.decimalLatitude)}", decimalLongitude "${written(columns.decimalLongitude)}"): choose a candidate or give a corrected locality`, 'recordCoordinates');
+      }
+      const flags = readFlags(fields[output.header.fields.length - 1]);
+      const correction = flags.map((f) => CORRECTIONS[f]).find(Boolean);
+      const [lat, lon] = correction ? correction.fix(written(columns.decimalLatitude), written(columns.decimalLongitude)) : [written(columns.decimalLatitude), written(columns.decimalLongitude)];
+      // As verbatim coordinates the written decimals keep their precision and the record's datum applies (method §5.3, §5.4).
+      request.verbatimCoordinates = `${lat}, ${lon}`;
+      notes.push(
+        correction
+          ? `point from the record's own coordinates (${written(columns.decimalLatitude)}, ${written(columns.decimalLongitude)}) with ${correction.words}, as the coordinate check found (${lat}, ${lon}), accepted by the reviewer`
+          : `point from the record's own coordinates (${lat}, ${lon}), accepted by the reviewer`,
+      );
+    }
+    const answer = lookUp(
       this.store,
       {
         ...request,
         ...(inRange ? { decimalLatitude: latitude, decimalLongitude: longitude } : {}),
         ...(review ? { georeferencedBy: review.reviewer } : {}),
-        options: candidate ? { candidate } : {},
+        options: resolution.candidate && !resolution.recordCoordinates ? { candidate: resolution.candidate } : {},
       },
       this.results,
       review ? new Date(review.decidedAt) : undefined,
     );
+    return { answer, ...(notes.length ? { note: notes.join('; ') } : {}) };
   }
+}
+
+function hasResolution(r: Resolution): boolean {
+  return r.candidate !== undefined || r.locality !== undefined || r.recordCoordinates === true;
+}
+
+/** "-45.3" ⇄ "45.3", keeping every written digit. */
+function flipSign(value: string): string {
+  return value.startsWith('-') ? value.slice(1) : `-${value.replace(/^\+/, '')}`;
+}
+
+function summaryStatus(output: ParsedOutput, row: number): string {
+  return output.summaries[row - 1]?.status || 'no georeference';
 }
 
 function termColumns(header: string[]): Record<GeoreferenceTerm, number> {

@@ -77,6 +77,17 @@ export const lookupResponseSchema = Type.Object({
   reason: Type.Optional(Type.String({ description: 'Why no georeference was made.' })),
   darwinCore: openObject('The Darwin Core georeference terms for this result, as strings.'),
   footprint: Type.Optional(openObject('The footprint as GeoJSON geometry.')),
+  footprintSummary: Type.Optional(
+    Type.Object(
+      {
+        type: oneOf(['Polygon', 'MultiPolygon']),
+        parts: Type.Integer({ minimum: 1 }),
+        vertices: Type.Integer({ minimum: 0 }),
+        areaSquareMeters: Type.Number({ minimum: 0 }),
+      },
+      { description: 'The footprint in brief: its type, polygons, distinct vertices and geodesic area on WGS84.' },
+    ),
+  ),
   recordPoint: Type.Optional(openObject("The record's own coordinates and their distance from the proposed point.")),
   flags: Type.Optional(Type.Array(Type.String(), { description: 'What the plausibility checks found about the proposed point (outside-record-country, at-sea, clauses-conflict); each is also explained in the remarks.' })),
 });

@@ -106,3 +106,16 @@ describe('clear errors', () => {
   });
 });
 
+
+describe('the reading for a person', () => {
+  it('summarises the footprint instead of printing its coordinates', async () => {
+    const { stdout } = await whereabouts('locate', '10 km NE of Vila Serena', '--country-code', 'QV', '--db', db);
+    const line = stdout.split('\n').find((l) => l.trimStart().startsWith('footprintWKT:'));
+    // A 64-gon inscribed in the circle: area = (n/2) r² sin(2π/n), r the unrounded radius (elementary geometry).
+    const body = JSON.parse((await whereabouts('locate', '10 km NE of Vila Serena', '--country-code', 'QV', '--json', '--db', db)).stdout);
+    const r = body.georeference.uncertaintyMeters;
+    const expectedKm2 = (32 * r * r * Math.sin((2 * Math.PI) / 64)) / 1e6;
+    expect(line).toBe(`  footprintWKT: Polygon, 64 vertices, ${expectedKm2.toFixed(1)} km² (the WKT itself: --json)`);
+    expect(stdout).not.toMatch(/POLYGON/);
+  });
+});

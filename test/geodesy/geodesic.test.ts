@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { direct, inverse } from '../../src/geodesy/geodesic.ts';
+import { direct, inverse, polygonAreaSquareMeters } from '../../src/geodesy/geodesic.ts';
 import { localProjection } from '../../src/geodesy/azimuthal-equidistant.ts';
 
 const dms = (d: number, m: number, s: number) => Math.sign(d || 1) * (Math.abs(d) + m / 60 + s / 3600);
@@ -68,5 +68,39 @@ describe('local azimuthal-equidistant projection', () => {
     const [latitude, longitude] = projection.inverse(x, y);
     expect(latitude).toBeCloseTo(buninyong.latitude, 9);
     expect(longitude).toBeCloseTo(buninyong.longitude, 9);
+  });
+});
+
+// The area of a quadrangle bounded by parallels and meridians on an ellipsoid, in closed form:
+// A = (a² Δλ / 2) (q(φ2) − q(φ1)), q(φ) = (1 − e²)[sinφ / (1 − e² sin²φ) − ln((1 − e sinφ)/(1 + e sinφ)) / (2e)]
+// (Snyder 1987, Map Projections: A Working Manual, USGS PP 1395, eq. 3-12). WGS84: a = 6 378 137 m,
+// f = 1/298.257223563 (NIMA TR8350.2, 2000, §3). Its parallels are drawn as 0.001° geodesic steps.
+describe('polygon area on WGS84', () => {
+  const a = 6378137;
+  const e2 = (2 - 1 / 298.257223563) / 298.257223563;
+  const e = Math.sqrt(e2);
+  const q = (phi: number) => {
+    const s = Math.sin((phi * Math.PI) / 180);
+    return (1 - e2) * (s / (1 - e2 * s * s) - Math.log((1 - e * s) / (1 + e * s)) / (2 * e));
+  };
+  const quadrangle = (south: number, north: number, west: number, east: number) => {
+    const steps = Math.round((east - west) / 0.001);
+    const along = (lat: number, from: number, to: number) => Array.from({ length: steps + 1 }, (_, i) => [from + ((to - from) * i) / steps, lat]);
+    return [[...along(south, west, east), ...along(north, east, west), [west, south]]];
+  };
+
+  it('matches the closed form for a 1° × 1° quadrangle at 45° S and at the equator (Snyder 1987, eq. 3-12)', () => {
+    for (const [south, north] of [[-46, -45], [0, 1]]) {
+      const expected = ((a * a * (Math.PI / 180)) / 2) * (q(north) - q(south));
+      expect(polygonAreaSquareMeters(quadrangle(south, north, -131, -130)) / expected).toBeCloseTo(1, 6);
+    }
+  });
+
+  it('takes a hole away, whatever the rings\' orientation', () => {
+    const outer = quadrangle(-46, -45, -131, -130)[0];
+    const hole = quadrangle(-45.6, -45.4, -130.6, -130.4)[0];
+    const whole = polygonAreaSquareMeters([outer]);
+    expect(polygonAreaSquareMeters([[...outer].reverse()])).toBeCloseTo(whole, 0);
+    expect(polygonAreaSquareMeters([outer, hole])).toBeCloseTo(whole - polygonAreaSquareMeters([hole]), 0);
   });
 });

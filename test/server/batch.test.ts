@@ -301,3 +301,84 @@ describe('an upload to a service whose gazetteer holds no source', () => {
     }
   });
 });
+
+describe('accepting needs a point', () => {
+  // Row 1 is found; row 2 is the same text with the latitude's sign lost; row 3 names no known place
+  // but carries coordinates; row 4 names no known place and has none.
+  let jobId: string;
+  let proposed: { latitude: string; longitude: string };
+
+  beforeAll(async () => {
+    const found = (await json('/api/v1/georeference', { method: 'POST', body: JSON.stringify({ locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }), headers: { 'content-type': 'application/json' } })).body;
+    proposed = { latitude: found.darwinCore.decimalLatitude, longitude: found.darwinCore.decimalLongitude };
+    const csv = [
+      'occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude',
+      `a1,10 km NE of Puerto Lindo,QV,${proposed.latitude},${proposed.longitude}`,
+      `a2,10 km NE of Puerto Lindo,QV,${proposed.latitude.replace(/^-/, '')},${proposed.longitude}`,
+      'a3,Qzxv Wrrp,QV,-45.3010,-131.0000',
+      'a4,Qzxv Wrrp,QV,,',
+    ].join('\r\n');
+    jobId = (await upload(Buffer.from(csv))).json.jobId;
+    expect((await finished(jobId)).state).toBe('done');
+  });
+
+  const review = (row: number, body: object) => put(`/api/v1/batches/${jobId}/records/${row}/review`, { decision: 'accepted', reviewer: 'C. Checker', ...body });
+  const reviewed = async () => parse(await (await fetch(`${server.url}/api/v1/batches/${jobId}/reviewed.csv`)).text(), { columns: true }) as Record<string, string>[];
+
+  it('refuses an accept of a record with no point, naming why and what to do', async () => {
+    const refused = await review(4, {});
+    expect(refused.status).toBe(409);
+    expect(refused.body.field).toBe('decision');
+    expect(refused.body.message).toMatch(/row 4 has no point to verify \(requires georeference\).*choose a candidate, give a corrected locality, or accept the record's own coordinates/);
+    const noOwn = await review(4, { recordCoordinates: true });
+    expect(noOwn.status).toBe(409);
+    expect(noOwn.body.message).toMatch(/no coordinates of its own/);
+    const stillNone = await review(4, { locality: 'Qzxv Wrrp again' });
+    expect(stillNone.status).toBe(409);
+    expect(stillNone.body.message).toMatch(/no point to verify \(not-found/);
+    // Rejecting needs no point.
+    expect((await review(4, { decision: 'rejected' })).status).toBe(200);
+    expect((await reviewed())[3].georeferenceVerificationStatus).toBe('requires georeference');
+  });
+
+  it('accepts a corrected locality, georeferenced through the same lookup, the original text kept', async () => {
+    const preview = await json(`/api/v1/batches/${jobId}/records/3?locality=${encodeURIComponent('10 km NE of Puerto Lindo')}`);
+    expect(preview.body.answer.status).toBe('georeferenced');
+    expect(preview.body.resolutionNote).toMatch(/corrected by the reviewer/);
+    expect((await review(3, { locality: '10 km NE of Puerto Lindo' })).status).toBe(200);
+    const row = (await reviewed())[2];
+    expect(row.locality).toBe('Qzxv Wrrp');
+    expect(row.georeferenceVerificationStatus).toBe('verified by data custodian');
+    expect(row.decimalLatitude).toBe('-45.3010'); // the record's own column, unchanged
+    expect(term(row, 'decimalLatitude')).toBe(proposed.latitude);
+    expect(term(row, 'georeferenceRemarks')).toMatch(/locality text corrected by the reviewer to "10 km NE of Puerto Lindo"/);
+  });
+
+  it("accepts the record's own coordinates, with the sign error the coordinate check found corrected and said", async () => {
+    const detail = (await json(`/api/v1/batches/${jobId}/records/2`)).body;
+    expect(detail.flags).toContain('fits-if-latitude-sign-flipped');
+    expect((await review(2, { recordCoordinates: true })).status).toBe(200);
+    const row = (await reviewed())[1];
+    expect(row.georeferenceVerificationStatus).toBe('verified by data custodian');
+    expect(Number(term(row, 'decimalLatitude'))).toBeCloseTo(Number(proposed.latitude), 4);
+    expect(Number(term(row, 'decimalLongitude'))).toBeCloseTo(Number(proposed.longitude), 4);
+    expect(term(row, 'georeferenceRemarks')).toMatch(/record's own coordinates \([0-9.]+, -[0-9.]+\) with the sign of latitude inverted, as the coordinate check found/);
+    // The record's own columns are never changed.
+    expect(row.decimalLatitude).toBe(proposed.latitude.replace(/^-/, ''));
+  });
+
+  it('checks the resolution fields like every other field', async () => {
+    const empty = await review(3, { locality: '' });
+    expect(empty.status).toBe(400);
+    expect(empty.body.field).toBe('locality');
+    const notBoolean = await review(3, { recordCoordinates: 'yes' });
+    expect(notBoolean.status).toBe(400);
+    expect(notBoolean.body.field).toBe('recordCoordinates');
+    expect((await json(`/api/v1/batches/${jobId}/records/3?recordCoordinates=1`)).status).toBe(400);
+  });
+
+  it('accepts a record that already has a point without any resolution', async () => {
+    expect((await review(1, {})).status).toBe(200);
+    expect((await reviewed())[0].georeferenceVerificationStatus).toBe('verified by data custodian');
+  });
+});

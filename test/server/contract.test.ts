@@ -160,3 +160,30 @@ describe('map routes, OpenAPI and the page', () => {
     }
   });
 });
+
+describe('GET /api/v1/datums', () => {
+  it('lists every datum the service converts, each one accepted by the georeference endpoint', async () => {
+    const response = await app.inject({ url: '/api/v1/datums' });
+    expect(response.statusCode).toBe(200);
+    const { datums } = response.json() as { datums: { epsg: string; name: string; accuracyMeters: number }[] };
+    expect(datums.length).toBeGreaterThanOrEqual(15);
+    // EPSG Geodetic Parameter Dataset: EPSG:4326 is "WGS 84", EPSG:4267 "NAD27" (codes and names as EPSG gives them).
+    expect(datums).toContainEqual(expect.objectContaining({ epsg: 'EPSG:4326', name: 'WGS 84', accuracyMeters: 0 }));
+    expect(datums).toContainEqual(expect.objectContaining({ epsg: 'EPSG:4267', name: 'NAD27' }));
+    for (const d of datums) {
+      const answer = await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo, 45.2265 S, 131.3876 W', countryCode: 'QV', options: { datum: d.epsg } } });
+      expect(answer.statusCode, d.epsg).toBe(200);
+    }
+  });
+});
+
+describe('the footprint summary', () => {
+  it('gives the type, vertices and geodesic area of the footprint beside its geometry', async () => {
+    const { json } = await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
+    expect(json.footprintSummary).toMatchObject({ type: json.footprint.type, parts: 1, vertices: json.footprint.coordinates[0].length - 1 });
+    // An inscribed n-gon of radius r has area (n/2) r² sin(2π/n) (elementary geometry); geodesic edges on a circle this small differ by < 0.1 %.
+    const n = json.footprintSummary.vertices;
+    const r = json.georeference.uncertaintyMeters;
+    expect(json.footprintSummary.areaSquareMeters / ((n / 2) * r * r * Math.sin((2 * Math.PI) / n))).toBeCloseTo(1, 3);
+  });
+});

@@ -69,9 +69,13 @@ export async function post(url: string, body: unknown, headers: Record<string, s
   return { status: response.status, json, headers: response.headers };
 }
 
-/** The real `whereabouts serve` in a child process (no token in its environment); resolves with its printed URL. */
-export function spawnServe(args: string[]): Promise<{ url: string; child: ChildProcessWithoutNullStreams }> {
-  const child = spawn(process.execPath, [BIN, 'serve', ...args], { env: { ...process.env, WHEREABOUTS_TOKEN: '', WHEREABOUTS_TOKEN_FILE: '' } });
+/**
+ * The real `whereabouts serve` in a child process (no token in its environment), run in `cwd` (default
+ * this process's); resolves with its printed URL.
+ */
+export function spawnServe(args: string[], cwd?: string): Promise<{ url: string; child: ChildProcessWithoutNullStreams }> {
+  const { WHEREABOUTS_DB: _db, ...env } = process.env; // the database is the one the arguments or the default name
+  const child = spawn(process.execPath, [BIN, 'serve', ...args], { cwd, env: { ...env, WHEREABOUTS_TOKEN: '', WHEREABOUTS_TOKEN_FILE: '' } });
   return new Promise((resolve, reject) => {
     let out = '';
     child.stdout.on('data', (chunk) => {

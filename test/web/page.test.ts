@@ -2,13 +2,13 @@
  * The page in a real browser (Debian's chromium through playwright-core), against a real server on
  * 127.0.0.1 over a real SQLite gazetteer. Screenshots of the main screens go to test/artifacts/.
  */
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
+import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
 
 const ARTIFACTS = new URL('../artifacts/', import.meta.url).pathname;
 // The README's screenshots, rewritten only on purpose: UPDATE_SCREENSHOTS=1 npx vitest run test/web
@@ -24,38 +24,21 @@ const hostileFeature = (name: string, i: number) => ({
 
 let db: TempDatabase;
 let server: RunningServer;
-let context: BrowserContext;
+let browser: TestBrowser;
 let page: Page;
-let profile: string;
-const cspViolations: string[] = [];
 
 beforeAll(async () => {
   mkdirSync(ARTIFACTS, { recursive: true });
   db = await demoDatabase(HOSTILE_NAMES.map(hostileFeature));
   server = await listen({ dbPath: db.dbPath, rateLimit: false });
-  profile = mkdtempSync(join(tmpdir(), 'whereabouts-chromium-'));
-  context = await chromium.launchPersistentContext(profile, {
-    executablePath: '/usr/bin/chromium',
-    headless: true,
-    acceptDownloads: true,
-    viewport: { width: 1440, height: 900 },
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-  });
-  page = context.pages()[0] ?? (await context.newPage());
-  page.on('console', (message) => {
-    if (/Content Security Policy/i.test(message.text())) cspViolations.push(message.text());
-  });
-  // The page must need nothing but this server: any other request fails the run.
-  await context.route((url) => !url.href.startsWith(server.url), (route) => route.abort());
-  await page.goto(server.url);
-  await page.waitForSelector('body[data-ready="true"]');
+  browser = await openPage(server.url);
+  page = browser.page;
 });
 
 afterAll(async () => {
-  await context?.close();
+  await browser?.close();
   await server?.close();
   db?.remove();
-  if (profile) rmSync(profile, { recursive: true, force: true });
 });
 
 /** A screenshot under test/artifacts/ (git-ignored), and for the README when asked. */
@@ -89,6 +72,7 @@ describe('lookup', () => {
     expect(await page.locator('#lookup-map .leaflet-control-scale-line').count()).toBe(1);
     await page.mouse.move(1100, 450);
     expect(await page.textContent('.wa-cursor')).toMatch(/\d+\.\d{5}° [NS] {2}\d+\.\d{5}° [EW]/);
+    await page.mouse.move(5, 895); // off the map, so that no hover name covers the result in the picture
     await shot('lookup');
   });
 
@@ -156,18 +140,78 @@ describe('lookup', () => {
     expect(unlabelled).toEqual([]);
   });
 
+  it('says what turns the budget total into the reported radius, in one number format', async () => {
+    await lookUp('10 km NE of Vila Serena');
+    const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Vila Serena', countryCode: 'QV' })).json;
+    const total = Number(await page.textContent('#budget-total'));
+    const rounding = Number((await page.textContent('#budget-rounding'))!.replace('+', ''));
+    expect(total).toBeCloseTo(api.georeference.uncertaintyMeters, 1);
+    expect(await page.textContent('#reported-radius')).toBe(api.darwinCore.coordinateUncertaintyInMeters);
+    expect(total + rounding).toBeCloseTo(Number(api.darwinCore.coordinateUncertaintyInMeters), 1);
+    expect(await page.textContent('#budget-table tr.rounding th')).toContain('Rounding of the coordinates to 0.0001° adds the distance it moves the point');
+    // One format for meters everywhere: no thousands separators beside the reported value.
+    expect(await page.innerText('#lookup-result')).not.toMatch(/\d,\d{3}\b/);
+  });
+
+  it('shows the footprint as type, vertices and area, its WKT behind copy and download', async () => {
+    const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Vila Serena', countryCode: 'QV' })).json;
+    const km2 = (api.footprintSummary.areaSquareMeters / 1e6).toFixed(1);
+    expect(await page.textContent('#footprint-summary')).toBe(`Polygon, ${api.footprintSummary.vertices} vertices, ${km2} km²`);
+    expect(await page.innerText('#lookup-result')).not.toMatch(/POLYGON/);
+    const [wkt] = await Promise.all([page.waitForEvent('download'), page.click('#download-wkt')]);
+    expect(readFileSync((await wkt.path())!, 'utf8')).toBe(`${api.darwinCore.footprintWKT}\n`);
+  });
+
+  it("offers every datum the service knows, each name shown whole", async () => {
+    const { datums } = await (await fetch(`${server.url}/api/v1/datums`)).json();
+    const options = await page.locator('#e-datum option').allTextContents();
+    expect(options.slice(1)).toEqual(datums.map((d: { name: string; epsg: string }) => `${d.name} (${d.epsg})`));
+    await page.selectOption('#e-datum', 'EPSG:4225');
+    await page.waitForFunction(() => (document.querySelector('#e-datum') as HTMLSelectElement | null)?.value === 'EPSG:4225');
+    const cut = await page.evaluate(() => {
+      const select = document.querySelector('#e-datum') as HTMLSelectElement;
+      const probe = document.createElement('span');
+      probe.style.font = getComputedStyle(select).font;
+      probe.textContent = select.selectedOptions[0].textContent;
+      document.body.append(probe);
+      const wider = probe.getBoundingClientRect().width > select.clientWidth;
+      probe.remove();
+      return wider;
+    });
+    expect(cut).toBe(false);
+  });
+
+  it('labels the other candidates on the map with the name and number of the list', async () => {
+    await lookUp('Santa Rosa');
+    await page.click('label[for="cand-0"]');
+    await page.waitForFunction(() => document.querySelector('#lookup-map .wa-label-used')?.textContent?.includes('Santa Rosa'));
+    const listed = await page.locator('#lookup-result .cand-name').allTextContents();
+    const onMap = await page.locator('#lookup-map .wa-label-candidate').allTextContents();
+    expect(listed.length).toBeGreaterThan(1);
+    expect(onMap).toEqual(listed.slice(1));
+    expect(onMap[0]).toBe('2 Santa Rosa');
+    expect(await page.textContent('#lookup-map .wa-label-used')).toBe(`${listed[0]} (used)`);
+    expect(await page.locator('#lookup-map .wa-place').count()).toBeGreaterThan(0);
+  });
+
   it('meets its own content security policy', () => {
-    expect(cspViolations).toEqual([]);
+    expect(browser.cspViolations).toEqual([]);
   });
 });
 
 describe('batch review', () => {
-  it('uploads the demo file, completes, accepts a record by keyboard and downloads it with the new status', async () => {
+  it('shows a failed upload as a failure, in words and style, not as a full bar', async () => {
     await page.click('#tab-batch');
-    await page.fill('#b-reviewer', 'R. Viewer');
-    await page.setInputFiles('#b-file', DEMO_LOCALITIES);
+    await page.setInputFiles('#b-file', { name: 'records.csv', mimeType: 'text/csv', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a]) });
     await page.click('#batch-submit');
-    await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
+    await page.waitForSelector('#batch-progress-line[data-state="failed"]');
+    expect(await page.textContent('#batch-progress-text')).toMatch(/^Upload failed: the uploaded file is a PNG image, not CSV text/);
+    expect(await page.isVisible('#batch-progress')).toBe(false);
+    await shot('batch-upload-failed');
+  });
+
+  it('uploads the demo file, completes, accepts a record by keyboard and downloads it with the new status', async () => {
+    await uploadBatch(page, DEMO_LOCALITIES, 'R. Viewer');
     expect(await page.textContent('#batch-progress-text')).toMatch(/done: 53 rows/);
     await shot('batch-progress');
     await page.selectOption('#r-status', 'requires verification');
@@ -198,5 +242,36 @@ describe('batch review', () => {
     const reviewed = rows[Number(row) - 1];
     expect(reviewed.georeferenceVerificationStatus).toBe('verified by data custodian');
     expect(reviewed.georeferenceRemarks).toMatch(/verified by R\. Viewer/);
+  });
+});
+
+describe('on a phone', () => {
+  it('never breaks a number across lines at 375 px', async () => {
+    const phone = await openPage(server.url, { width: 375, height: 800 });
+    try {
+      await phone.page.fill('#f-locality', '10 km NE of Vila Serena');
+      await phone.page.fill('#f-countryCode', 'QV');
+      await phone.page.click('#lookup-submit');
+      await phone.page.waitForSelector('#result-radius');
+      await phone.page.screenshot({ path: join(ARTIFACTS, 'lookup-phone.png'), fullPage: true });
+      const broken = await phone.page.evaluate(() => {
+        // Numbers as values, not digits inside identifiers (a DOI, a feature id), which may break like words.
+        const found: string[] = [];
+        const walker = document.createTreeWalker(document.querySelector('#lookup-result')!, NodeFilter.SHOW_TEXT);
+        for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+          for (const match of (node.textContent ?? '').matchAll(/(?<![\p{L}\d._/:-])[-+]?\d[\d.,]*\d/gu)) {
+            const range = document.createRange();
+            range.setStart(node, match.index!);
+            range.setEnd(node, match.index! + match[0].length);
+            const tops = new Set([...range.getClientRects()].map((r) => Math.round(r.top)));
+            if (tops.size > 1) found.push(match[0]);
+          }
+        }
+        return found;
+      });
+      expect(broken).toEqual([]);
+    } finally {
+      await phone.close();
+    }
   });
 });

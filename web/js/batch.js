@@ -1,17 +1,20 @@
 // The batch view: upload, progress (polling), the review list with filters, one record at a time
 // with its map, and keyboard shortcuts: a accept, r reject, c next candidate, j/k next/previous.
+// Accepting verifies a point, so a record without one is resolved first: another candidate, a
+// corrected locality, or the record's own coordinates (the server refuses an accept without a point).
 import { getJson, postForm, putJson } from './api.js';
 import { definitionTable, el, fill } from './dom.js';
 import { budgetSection, candidatesSection, interpretationSection, statusBadge, summarySection } from './lookup.js';
 
 const POLL_MS = 400;
 
-export function startBatch({ form, progress, progressText, review, list, recordPanel, map, filters, downloadLink, gisLinks }) {
+export function startBatch({ form, progress, progressLine, progressText, review, list, recordPanel, map, filters, downloadLink, gisLinks }) {
   let jobId;
   let records = [];
   let current = -1;
   let detail;
-  let candidateChoice;
+  /** How the reviewer is resolving the current record: { candidate?, locality?, recordCoordinates? }. */
+  let resolution = {};
 
   const reviewer = () => form.elements.namedItem('reviewer').value.trim();
   form.elements.namedItem('reviewer').value = localStorage.getItem('whereabouts.reviewer') ?? '';
@@ -24,20 +27,29 @@ export function startBatch({ form, progress, progressText, review, list, recordP
     const data = new FormData();
     data.append('file', file);
     progress.value = 0;
-    progressText.textContent = 'uploading…';
+    showProgress('working', 'uploading…');
     try {
       ({ jobId } = await postForm('/api/v1/batches', data));
       await waitForJob();
     } catch (error) {
-      progressText.textContent = `upload failed: ${error.message}`;
+      showProgress('failed', `Upload failed: ${error.message}`);
     }
   });
+
+  /** The progress line's state is said in words and shown by its style: working, done or failed. */
+  function showProgress(state, words) {
+    progressLine.dataset.state = state;
+    progressText.textContent = words;
+    if (state === 'failed') progress.value = 0;
+  }
 
   async function waitForJob() {
     for (;;) {
       const p = await getJson(`/api/v1/batches/${jobId}`);
       progress.value = p.fraction;
-      progressText.textContent = p.state === 'done' ? `done: ${p.rowsTotal ?? p.rowsDone} rows` : p.state === 'failed' ? `failed: ${p.error}` : `${p.state}… ${Math.round(p.fraction * 100)} %`;
+      if (p.state === 'done') showProgress('done', `done: ${p.rowsTotal ?? p.rowsDone} rows`);
+      else if (p.state === 'failed') showProgress('failed', `Batch failed: ${p.error}`);
+      else showProgress('working', `${p.state}… ${Math.round(p.fraction * 100)} %`);
       if (p.state === 'done') return openReview();
       if (p.state === 'failed') return;
       await new Promise((r) => setTimeout(r, POLL_MS));
@@ -81,11 +93,12 @@ export function startBatch({ form, progress, progressText, review, list, recordP
     records = answer.records;
     const tbody = list.tBodies[0];
     fill(tbody, records.map((r, i) =>
-      el('tr', { dataset: { index: i }, class: r.review ? `reviewed ${r.review}` : '' },
-        el('td', { class: 'num' }, el('button', { type: 'button', class: 'link', onclick: () => select(i), 'aria-label': `Open row ${r.row}` }, String(r.row))),
+      // The whole row opens the record; its button is there for the keyboard (the click bubbles up).
+      el('tr', { dataset: { index: i, row: r.row }, class: r.review ? `reviewed ${r.review}` : '', onclick: () => select(i) },
+        el('td', { class: 'num' }, el('button', { type: 'button', class: 'link', 'aria-label': `Open row ${r.row}` }, String(r.row))),
         el('td', { class: 'loc' }, r.locality),
         el('td', {}, r.status, r.flags.length ? el('span', { class: 'flag' }, ` ⚑ ${r.flags.join(', ')}`) : ''),
-        el('td', { class: 'num' }, r.radiusMeters === null ? '—' : r.radiusMeters.toLocaleString('en-GB')),
+        el('td', { class: 'num' }, r.radiusMeters === null ? '—' : String(r.radiusMeters)),
         el('td', {}, r.review ?? 'not reviewed'))));
     const keep = records.findIndex((r) => r.row === row);
     if (records.length) await select(first || keep < 0 ? 0 : keep, !first);
@@ -95,7 +108,7 @@ export function startBatch({ form, progress, progressText, review, list, recordP
   async function select(index, keepFocus = false) {
     if (index < 0 || index >= records.length) return;
     current = index;
-    candidateChoice = undefined;
+    resolution = {};
     for (const tr of list.tBodies[0].rows) tr.classList.toggle('current', Number(tr.dataset.index) === index);
     list.tBodies[0].rows[index]?.scrollIntoView({ block: 'nearest' });
     await loadRecord();
@@ -104,10 +117,63 @@ export function startBatch({ form, progress, progressText, review, list, recordP
 
   async function loadRecord() {
     const r = records[current];
-    const q = candidateChoice ? `?candidateSource=${encodeURIComponent(candidateChoice.sourceId)}&candidateFeature=${encodeURIComponent(candidateChoice.featureId)}` : '';
-    detail = await getJson(`/api/v1/batches/${jobId}/records/${r.row}${q}`);
+    const q = new URLSearchParams();
+    if (resolution.candidate) {
+      q.set('candidateSource', resolution.candidate.sourceId);
+      q.set('candidateFeature', resolution.candidate.featureId);
+    }
+    if (resolution.locality !== undefined) q.set('locality', resolution.locality);
+    if (resolution.recordCoordinates) q.set('recordCoordinates', 'true');
+    try {
+      detail = await getJson(`/api/v1/batches/${jobId}/records/${r.row}${q.size ? `?${q}` : ''}`);
+    } catch (error) {
+      return say(error.message);
+    }
     renderRecord();
     await map.show(detail.answer);
+  }
+
+  /** A message about the current record (a refused decision, a resolution that did not work). */
+  function say(message) {
+    recordPanel.querySelector('#review-message')?.replaceChildren(message);
+  }
+
+  /** The three ways to give a record a point; the candidates are in their own section. */
+  function resolveSection() {
+    const a = detail.answer;
+    const { decimalLatitude: lat = '', decimalLongitude: lon = '' } = detail.original;
+    const hasOwn = lat.trim() !== '' && lon.trim() !== '';
+    const correction = detail.flags.find((f) => f.startsWith('fits-if-'));
+    const text = el('input', { id: 'resolve-locality', type: 'text', maxlength: '4000', value: resolution.locality ?? records[current].locality });
+    const correct = el('form', { class: 'resolve-locality', onsubmit: (event) => {
+      event.preventDefault();
+      if (text.value.trim()) resolveWith({ locality: text.value.trim() });
+    } },
+      el('label', { for: 'resolve-locality' }, 'Corrected locality text'),
+      el('div', { class: 'inline' }, text, el('button', { type: 'submit', id: 'resolve-locality-submit' }, 'Georeference this text')));
+    const unusable = detail.flags.find((f) => UNUSABLE_OWN_COORDINATES.has(f));
+    const own = hasOwn && unusable
+      ? el('p', { class: 'hint', id: 'own-coordinates-unusable' }, `The record's own coordinates (${lat}, ${lon}) cannot serve as the point: the coordinate check says ${unusable}.`)
+      : hasOwn
+      ? el('div', { class: 'inline' },
+          el('button', { type: 'button', id: 'use-record-coordinates', onclick: () => resolveWith({ recordCoordinates: true }) }, `Use the record's own coordinates (${lat}, ${lon})`),
+          correction ? el('span', { class: 'hint' }, `corrected as the coordinate check found: ${correction}`) : undefined)
+      : el('p', { class: 'hint' }, 'The record has no coordinates of its own.');
+    const parts = [
+      el('p', { class: 'hint' }, a.candidates.length ? 'Choose a candidate below, correct the locality text, or use the record\'s own coordinates.' : 'Correct the locality text, or use the record\'s own coordinates.'),
+      correct, own,
+      detail.resolutionNote ? el('p', { class: 'resolution-note', id: 'resolution-note' }, detail.resolutionNote) : undefined,
+      Object.keys(resolution).length ? el('button', { type: 'button', id: 'resolve-reset', onclick: () => resolveWith({}) }, "Back to the batch's proposal") : undefined,
+    ];
+    if (!a.georeference) return el('section', { class: 'card resolve needed', 'aria-labelledby': 'h-resolve' }, el('h2', { id: 'h-resolve' }, 'Give this record a point before accepting it'), parts);
+    // With a point already, the corrections stay folded unless one is in use or the coordinate check suggests one.
+    const open = Object.keys(resolution).length > 0 || Boolean(correction);
+    return el('details', { class: 'card resolve', open }, el('summary', { id: 'h-resolve' }, 'Correct the point'), parts);
+  }
+
+  function resolveWith(next) {
+    resolution = next;
+    return loadRecord();
   }
 
   function renderRecord() {
@@ -115,26 +181,29 @@ export function startBatch({ form, progress, progressText, review, list, recordP
     const reviewLine = detail.review
       ? el('p', { class: 'review-line' }, statusBadge(detail.review.decision), ` by ${detail.review.reviewer} at ${detail.review.decidedAt}`)
       : el('p', { class: 'review-line' }, 'not reviewed yet');
+    const hasPoint = Boolean(a.georeference);
     fill(
       recordPanel,
       el('h2', {}, `Row ${detail.row} of the batch`),
       reviewLine,
       el('div', { class: 'actions decision' },
-        el('button', { type: 'button', id: 'accept', class: 'primary', onclick: () => decide('accepted'), 'aria-keyshortcuts': 'a' }, 'Accept (a)'),
+        el('button', { type: 'button', id: 'accept', class: 'primary', onclick: () => decide('accepted'), disabled: !hasPoint, title: hasPoint ? undefined : 'no point to verify yet', 'aria-keyshortcuts': 'a' }, 'Accept (a)'),
         el('button', { type: 'button', id: 'reject', onclick: () => decide('rejected'), 'aria-keyshortcuts': 'r' }, 'Reject (r)'),
         el('button', { type: 'button', id: 'next-candidate', onclick: nextCandidate, disabled: a.candidates.length < 2, 'aria-keyshortcuts': 'c' }, 'Next candidate (c)'),
         el('button', { type: 'button', onclick: () => select(current + 1), 'aria-keyshortcuts': 'j' }, 'Next record (j)')),
-      definitionTable('The record as it came', Object.entries(detail.original)),
+      el('p', { id: 'review-message', class: 'error', role: 'alert' }),
       summarySection(a),
+      resolveSection(),
+      definitionTable('The record as it came', Object.entries(detail.original)),
       candidatesSection(a, (c) => chooseCandidate(c.feature), 'rcand'),
       interpretationSection(a.interpretation),
       a.components ? budgetSection(a) : undefined,
     );
   }
 
+  // A candidate of a corrected locality keeps the correction.
   function chooseCandidate(feature) {
-    candidateChoice = { sourceId: feature.sourceId, featureId: feature.featureId };
-    return loadRecord();
+    return resolveWith({ ...(resolution.locality !== undefined ? { locality: resolution.locality } : {}), candidate: { sourceId: feature.sourceId, featureId: feature.featureId } });
   }
 
   function nextCandidate() {
@@ -147,16 +216,20 @@ export function startBatch({ form, progress, progressText, review, list, recordP
 
   async function decide(decision) {
     const r = records[current];
-    const body = { decision, reviewer: reviewer() };
-    if (candidateChoice) body.candidate = candidateChoice;
-    await putJson(`/api/v1/batches/${jobId}/records/${r.row}/review`, body);
+    if (!r) return;
+    try {
+      await putJson(`/api/v1/batches/${jobId}/records/${r.row}/review`, { decision, reviewer: reviewer(), ...resolution });
+    } catch (error) {
+      return say(error.message);
+    }
     await refreshList();
   }
 
   for (const input of Object.values(filters)) input.addEventListener('change', () => refreshList(true));
 
-  recordPanel.addEventListener('keydown', (event) => {
-    if (event.target instanceof HTMLInputElement || event.target instanceof HTMLSelectElement || event.altKey || event.ctrlKey || event.metaKey) return;
+  // The review keys work wherever the focus is on the page, except while typing in a text field.
+  document.addEventListener('keydown', (event) => {
+    if (review.hidden || review.closest('.view')?.hidden || !detail || isTyping(event.target) || event.altKey || event.ctrlKey || event.metaKey) return;
     const actions = { a: () => decide('accepted'), r: () => decide('rejected'), c: nextCandidate, j: () => select(current + 1), k: () => select(current - 1) };
     const action = actions[event.key];
     if (action) {
@@ -164,4 +237,16 @@ export function startBatch({ form, progress, progressText, review, list, recordP
       action();
     }
   });
+}
+
+/** Coordinate-check flags under which a record's own coordinates are no point to verify (src/batch/coordinate-check.ts). */
+const UNUSABLE_OWN_COORDINATES = new Set(['beyond-valid-range', 'not-a-decimal-number', 'one-side-empty', 'both-zero']);
+
+const NOT_TYPED = new Set(['button', 'checkbox', 'radio', 'submit', 'reset', 'file', 'range', 'color', 'image']);
+
+/** True when keys go into a text: a text input, a text area, a list box, or editable content. */
+function isTyping(target) {
+  if (!(target instanceof HTMLElement)) return false;
+  if (target instanceof HTMLInputElement) return !NOT_TYPED.has(target.type);
+  return target instanceof HTMLTextAreaElement || target instanceof HTMLSelectElement || target.isContentEditable;
 }

@@ -39,9 +39,20 @@ export function definitionTable(caption, rows, className = 'pairs') {
   return el('table', { class: className }, el('caption', {}, caption), el('tbody', {}, body));
 }
 
-/** Meters for a person: whole meters, grouped. */
+/** Meters for a person: whole meters, written as coordinateUncertaintyInMeters is (no grouping), so the two read alike. */
 export function meters(value) {
-  return `${Math.round(value).toLocaleString('en-GB')} m`;
+  return `${Math.round(value)} m`;
+}
+
+/** Copies text to the clipboard, saying so in `status`; where the clipboard is refused, selects `area` for Ctrl+C. */
+export async function copyText(text, status, area) {
+  try {
+    await navigator.clipboard.writeText(text);
+    status.textContent = 'copied';
+  } catch {
+    area?.select();
+    status.textContent = area ? 'selected: press Ctrl+C to copy' : 'the clipboard is not available here: use Download';
+  }
 }
 
 /** Starts a download of text as a file, built in memory (no server round trip, no data URL in markup). */

@@ -1,7 +1,7 @@
 // The lookup view: the form, then how the text was read, the candidates, the edits, the uncertainty
 // budget and the Darwin Core fields. Every edit calls the same API again with `options`.
 import { georeference, georeferenceFile } from './api.js';
-import { definitionTable, download, el, fill, meters } from './dom.js';
+import { copyText, definitionTable, download, el, fill, meters } from './dom.js';
 
 const COMPONENT_LABELS = {
   extent: 'Extent of the feature',
@@ -12,16 +12,10 @@ const COMPONENT_LABELS = {
   measurement: 'Measurement error',
 };
 
-/** Datums the page offers; the API converts each to WGS84 (EPSG codes, EPSG Geodetic Parameter Dataset). */
-export const DATUM_CHOICES = [
-  ['', 'not stated (adds the unknown-datum term)'],
-  ['EPSG:4326', 'WGS 84 (EPSG:4326)'],
-  ['EPSG:4267', 'NAD27 (EPSG:4267)'],
-  ['EPSG:4269', 'NAD83 (EPSG:4269)'],
-  ['EPSG:4618', 'SAD69 (EPSG:4618)'],
-  ['EPSG:4674', 'SIRGAS 2000 (EPSG:4674)'],
-  ['EPSG:4230', 'ED50 (EPSG:4230)'],
-];
+/** The datum choices: "not stated", then every datum the service converts (GET /api/v1/datums), in its order. */
+function datumChoices(datums) {
+  return [['', 'not stated (adds the unknown-datum term)'], ...datums.map((d) => [d.epsg, `${d.name} (${d.epsg})`])];
+}
 
 const STATUS_WORDS = {
   georeferenced: 'Georeferenced: an estimate to verify',
@@ -69,11 +63,12 @@ export function interpretationSection(interpretation) {
   return section;
 }
 
-function candidateLabel(c) {
+function candidateLabel(c, number) {
   const f = c.feature;
   const where = [f.county, f.stateProvince, f.countryCode].filter(Boolean).join(', ');
   return [
-    el('span', { class: 'cand-name' }, f.name),
+    // The number is the one beside the candidate's dot on the map.
+    el('span', { class: 'cand-name' }, el('span', { class: 'cand-number' }, String(number)), ' ', f.name),
     el('span', { class: 'cand-meta' }, `${f.featureType ?? 'feature'}${where ? ` · ${where}` : ''} · ${f.sourceId}:${f.featureId}`),
     el('span', { class: 'cand-score' }, `score ${c.score.toFixed(2)} · ${c.why}`),
   ];
@@ -86,7 +81,7 @@ export function candidatesSection(answer, onChoose, idPrefix = 'cand') {
   const items = answer.candidates.map((c, i) => {
     const id = `${idPrefix}-${i}`;
     const input = el('input', { type: 'radio', name: `${idPrefix}-choice`, id, value: i, checked: isUsed(c), onchange: () => onChoose(c) });
-    return el('li', { class: isUsed(c) ? 'cand used' : 'cand' }, input, el('label', { for: id }, candidateLabel(c)));
+    return el('li', { class: isUsed(c) ? 'cand used' : 'cand' }, input, el('label', { for: id }, candidateLabel(c, i + 1)));
   });
   return el(
     'section',
@@ -98,13 +93,20 @@ export function candidatesSection(answer, onChoose, idPrefix = 'cand') {
   );
 }
 
-/** The uncertainty budget in meters, one row per source of the method, with the total. */
+/**
+ * The uncertainty budget in meters, one row per source of the method, their sum, and what turns the
+ * sum into the reported radius: rounding the point to the reported decimals moves it, and that
+ * distance is added before the radius is rounded up to whole meters (src/record/darwin-core.ts).
+ */
 export function budgetSection(answer) {
   const components = answer.components ?? {};
-  const total = Object.values(components).reduce((sum, v) => sum + v, 0);
+  const total = answer.georeference?.uncertaintyMeters ?? Object.values(components).reduce((sum, v) => sum + v, 0);
+  const reported = Number(answer.darwinCore.coordinateUncertaintyInMeters);
+  const tenths = (value) => value.toFixed(1);
   const rows = Object.entries(COMPONENT_LABELS).map(([key, label]) =>
-    el('tr', { class: components[key] ? '' : 'zero' }, el('th', { scope: 'row' }, label), el('td', { class: 'num' }, meters(components[key] ?? 0))),
+    el('tr', { class: components[key] ? '' : 'zero' }, el('th', { scope: 'row' }, label), el('td', { class: 'num' }, tenths(components[key] ?? 0))),
   );
+  const precision = answer.darwinCore.coordinatePrecision;
   return el(
     'section',
     { class: 'card', 'aria-labelledby': 'h-budget' },
@@ -116,27 +118,39 @@ export function budgetSection(answer) {
       el('thead', {}, el('tr', {}, el('th', { scope: 'col' }, 'Source'), el('th', { scope: 'col', class: 'num' }, 'Meters'))),
       el('tbody', {}, rows),
       el('tfoot', {},
-        el('tr', {}, el('th', { scope: 'row' }, 'Total'), el('td', { class: 'num' }, meters(total))),
-        el('tr', {}, el('th', { scope: 'row' }, 'Reported (rounded up, with the rounding of the point)'), el('td', { class: 'num', id: 'reported-radius' }, `${answer.darwinCore.coordinateUncertaintyInMeters} m`))),
+        el('tr', {}, el('th', { scope: 'row' }, 'Total'), el('td', { class: 'num', id: 'budget-total' }, tenths(total))),
+        el('tr', { class: 'rounding' },
+          el('th', { scope: 'row' }, `Rounding of the coordinates${precision ? ` to ${precision}°` : ''} adds the distance it moves the point; the radius is then rounded up to whole meters`),
+          el('td', { class: 'num', id: 'budget-rounding' }, `+${tenths(reported - total)}`)),
+        el('tr', {}, el('th', { scope: 'row' }, 'Reported radius (coordinateUncertaintyInMeters)'), el('td', { class: 'num', id: 'reported-radius' }, answer.darwinCore.coordinateUncertaintyInMeters))),
     ),
   );
+}
+
+/** "Polygon, 64 vertices, 114.0 km²": the footprint in words; its WKT is behind the copy and download buttons. */
+export function footprintWords(summary) {
+  const area = summary.areaSquareMeters >= 1e6 ? `${(summary.areaSquareMeters / 1e6).toFixed(1)} km²` : `${Math.round(summary.areaSquareMeters)} m²`;
+  return `${summary.type}${summary.parts > 1 ? ` of ${summary.parts} parts` : ''}, ${summary.vertices} vertices, ${area}`;
+}
+
+function footprintCell(answer, copyStatus) {
+  const wkt = answer.darwinCore.footprintWKT;
+  if (!wkt) return '';
+  const words = answer.footprintSummary ? footprintWords(answer.footprintSummary) : `${wkt.length} characters of WKT`;
+  return el('span', { class: 'footprint-cell' },
+    el('span', { id: 'footprint-summary' }, words), ' ',
+    el('button', { type: 'button', class: 'small', id: 'copy-wkt', onclick: () => copyText(wkt, copyStatus) }, 'Copy WKT'), ' ',
+    el('button', { type: 'button', class: 'small', id: 'download-wkt', onclick: () => download('footprint.wkt', 'text/plain', `${wkt}\n`) }, 'Download WKT'));
 }
 
 /** The Darwin Core fields, ready to copy, and as a CSV row or a GeoJSON feature to download (written by the server). */
 export function darwinCoreSection(answer, request) {
   const entries = Object.entries(answer.darwinCore);
   const asText = entries.map(([k, v]) => `${k}\t${v}`).join('\n');
-  const copyArea = el('textarea', { id: 'dwc-text', readonly: true, rows: 4, class: 'copy-area', 'aria-label': 'Darwin Core fields, tab-separated, ready to copy' }, asText);
   const copyStatus = el('span', { class: 'copy-status', 'aria-live': 'polite' });
-  const copy = async () => {
-    copyArea.select();
-    try {
-      await navigator.clipboard.writeText(asText);
-      copyStatus.textContent = 'copied';
-    } catch {
-      copyStatus.textContent = 'selected: press Ctrl+C to copy';
-    }
-  };
+  const shown = entries.map(([k, v]) => [k, k === 'footprintWKT' ? footprintCell(answer, copyStatus) : v]);
+  const copyArea = el('textarea', { id: 'dwc-text', readonly: true, rows: 4, class: 'copy-area', 'aria-label': 'Darwin Core fields, tab-separated, ready to copy' }, asText);
+  const copy = () => copyText(asText, copyStatus, copyArea);
   const csv = async () => download('georeference.csv', 'text/csv', await georeferenceFile(request, 'csv'));
   const geojson = async () => download('georeference.geojson', 'application/geo+json', await georeferenceFile(request, 'geojson'));
   const georeferenced = answer.status === 'georeferenced';
@@ -144,8 +158,8 @@ export function darwinCoreSection(answer, request) {
     'section',
     { class: 'card', 'aria-labelledby': 'h-dwc' },
     el('h2', { id: 'h-dwc' }, 'Darwin Core fields'),
-    definitionTable('Darwin Core georeference terms for this record', entries, 'pairs dwc'),
-    copyArea,
+    definitionTable('Darwin Core georeference terms for this record', shown, 'pairs dwc'),
+    el('details', { class: 'as-text' }, el('summary', {}, 'The fields as tab-separated text'), copyArea),
     el('div', { class: 'actions' },
       el('button', { type: 'button', onclick: copy }, 'Copy fields'), copyStatus,
       el('button', { type: 'button', id: 'download-csv', onclick: csv }, 'Download CSV row'),
@@ -154,11 +168,11 @@ export function darwinCoreSection(answer, request) {
 }
 
 /** Distance precision, map scale and datum: each change recomputes through the API. */
-export function editsSection(answer, options, onEdit) {
+export function editsSection(answer, options, datums, onEdit) {
   const distance = answer.interpretation.offsets.find((o) => o.distance)?.distance;
   const precision = el('input', { id: 'e-precision', type: 'number', min: '0', step: 'any', value: options.distancePrecision ?? '', placeholder: distance ? String(distance.precision) : 'no distance in the text', disabled: !distance });
   const scale = el('input', { id: 'e-scale', type: 'number', min: '1', step: '1', value: options.mapScale ?? '', placeholder: 'e.g. 50000' });
-  const datum = el('select', { id: 'e-datum' }, DATUM_CHOICES.map(([value, label]) => el('option', { value, selected: (options.datum ?? '') === value }, label)));
+  const datum = el('select', { id: 'e-datum' }, datumChoices(datums).map(([value, label]) => el('option', { value, selected: (options.datum ?? '') === value }, label)));
   const numberOrUndefined = (input) => (input.value === '' ? undefined : Number(input.value));
   const apply = () => onEdit({ distancePrecision: numberOrUndefined(precision), mapScale: numberOrUndefined(scale), datum: datum.value || undefined });
   for (const input of [precision, scale, datum]) input.addEventListener('change', apply);
@@ -169,7 +183,7 @@ export function editsSection(answer, options, onEdit) {
     el('div', { class: 'grid' },
       el('div', { class: 'field' }, el('label', { for: 'e-precision' }, `Distance precision${distance ? ` (${distance.unit})` : ''}`), precision),
       el('div', { class: 'field' }, el('label', { for: 'e-scale' }, 'Map scale 1 :'), scale),
-      el('div', { class: 'field' }, el('label', { for: 'e-datum' }, 'Datum of the coordinates'), datum)),
+      el('div', { class: 'field span-all' }, el('label', { for: 'e-datum' }, 'Datum of the coordinates'), datum)),
   );
 }
 
@@ -189,7 +203,7 @@ export function summarySection(answer) {
 }
 
 /** Wires the lookup form to the API, the result panel and the map. */
-export function startLookup({ form, output, map }) {
+export function startLookup({ form, output, map, datums }) {
   let request;
   let options = {};
 
@@ -227,7 +241,7 @@ export function startLookup({ form, output, map }) {
         run();
       }),
       interpretationSection(answer.interpretation),
-      editsSection(answer, options, (edits) => {
+      editsSection(answer, options, datums, (edits) => {
         options = { ...options, ...edits };
         for (const key of Object.keys(options)) if (options[key] === undefined) delete options[key];
         run();

@@ -1,4 +1,5 @@
 // The page's entry: two views (lookup, batch review), each with its own map.
+import { getJson } from './api.js';
 import { startBatch } from './batch.js';
 import { startLookup } from './lookup.js';
 import { createMap } from './map.js';
@@ -19,12 +20,14 @@ async function start() {
   $('tab-lookup').addEventListener('click', () => showView('lookup'));
   $('tab-batch').addEventListener('click', () => showView('batch'));
   maps.lookup = await createMap($('lookup-map'));
-  startLookup({ form: $('lookup-form'), output: $('lookup-result'), map: maps.lookup });
+  const { datums } = await getJson('/api/v1/datums');
+  startLookup({ form: $('lookup-form'), output: $('lookup-result'), map: maps.lookup, datums });
   // The review map is created while its view is hidden; it is resized when the review opens.
   maps.batch = await createMap($('review-map'));
   startBatch({
     form: $('batch-form'),
     progress: $('batch-progress'),
+    progressLine: $('batch-progress-line'),
     progressText: $('batch-progress-text'),
     review: $('batch-review'),
     list: $('review-list'),

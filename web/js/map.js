@@ -53,6 +53,20 @@ function nameTooltip(text) {
   return el('span', {}, text);
 }
 
+/**
+ * A name always shown beside its symbol (not only on hover), as a marker of its own so that clearing
+ * the result clears it too. The text goes in as a text node, never as markup.
+ */
+function label(latlng, text, kind) {
+  const icon = L.divIcon({ className: `wa-label wa-label-${kind}`, html: el('span', {}, text), iconSize: null, iconAnchor: [-9, 9] });
+  return L.marker(latlng, { icon, interactive: false, keyboard: false });
+}
+
+/** Gazetteer shapes named on the map itself: land, water and states; counties only on hover (they would crowd it). */
+const LABELLED_TYPES = new Set(['island', 'lake', 'bay', 'stateProvince', 'river']);
+/** Below this zoom the gazetteer's names are hidden: at island scale they would cover the result [CHOICE]. */
+const PLACE_LABEL_MIN_ZOOM = 8;
+
 function formatCoordinate(value, positive, negative, decimals = 5) {
   return `${Math.abs(value).toFixed(decimals)}° ${value >= 0 ? positive : negative}`;
 }
@@ -79,7 +93,7 @@ function legendControl() {
       'div',
       { class: 'wa-legend' },
       el('ul', {}, swatch('sw-point', 'proposed point'), swatch('sw-circle', 'uncertainty circle'), swatch('sw-footprint', 'footprint'),
-        swatch('sw-feature', 'feature used'), swatch('sw-unit', 'unit the footprint is clipped to'), swatch('sw-candidate', 'other candidate'), swatch('sw-record', "record's own coordinates")),
+        swatch('sw-feature', 'feature used'), swatch('sw-unit', 'unit the footprint is clipped to'), swatch('sw-candidate', 'other candidate (its number in the list)'), swatch('sw-record', "record's own coordinates")),
     );
   return control;
 }
@@ -102,9 +116,15 @@ export async function createMap(container) {
   const sorted = [...layers.features].sort((a, b) => layerOrder(a) - layerOrder(b));
   const gazetteer = L.geoJSON({ type: 'FeatureCollection', features: sorted }, {
     style: layerStyle,
-    onEachFeature: (f, layer) => layer.bindTooltip(nameTooltip(`${f.properties.name} · ${f.properties.featureType ?? 'feature'}`), { sticky: true, className: 'wa-tip' }),
+    onEachFeature: (f, layer) => {
+      if (LABELLED_TYPES.has(f.properties.featureType)) layer.bindTooltip(nameTooltip(f.properties.name), { permanent: true, direction: 'center', className: `wa-place wa-place-${f.properties.featureType}` });
+      else layer.bindTooltip(nameTooltip(`${f.properties.name} · ${f.properties.featureType ?? 'feature'}`), { sticky: true, className: 'wa-tip' });
+    },
   }).addTo(map);
+  const placeLabels = () => container.classList.toggle('wa-places-hidden', map.getZoom() < PLACE_LABEL_MIN_ZOOM);
+  map.on('zoomend', placeLabels);
   if (gazetteer.getLayers().length) map.fitBounds(gazetteer.getBounds(), { padding: [10, 10] });
+  placeLabels();
 
   const result = L.featureGroup().addTo(map);
 
@@ -117,13 +137,17 @@ export async function createMap(container) {
     const shapes = await Promise.all((g?.features ?? []).map((f) => fetchFeature(f.sourceId, f.featureId).catch(() => undefined)));
     if (generation !== shown) return;
     result.clearLayers();
-    for (const c of answer.candidates ?? []) {
+    // Each candidate's label carries its number in the candidate list, so two of one name are told apart.
+    (answer.candidates ?? []).forEach((c, i) => {
       const used = g?.features?.some((f) => f.sourceId === c.feature.sourceId && f.featureId === c.feature.featureId);
-      if (used) continue;
+      if (used) return;
       L.circleMarker([c.feature.latitude, c.feature.longitude], { radius: 6, color: '#fff', weight: 1.5, fillColor: PALETTE.candidate, fillOpacity: 1, className: 'wa-candidate' })
-        .bindTooltip(nameTooltip(`${c.feature.name} (candidate, score ${c.score.toFixed(2)})`), { className: 'wa-tip' })
+        .bindTooltip(nameTooltip(`${c.feature.name} (candidate ${i + 1}, score ${c.score.toFixed(2)})`), { className: 'wa-tip' })
         .addTo(result);
-    }
+      label([c.feature.latitude, c.feature.longitude], `${i + 1} ${c.feature.name}`, 'candidate').addTo(result);
+    });
+    const numberOf = (shape) => 1 + (answer.candidates ?? []).findIndex((c) => c.feature.sourceId === shape.properties.sourceId && c.feature.featureId === shape.properties.featureId);
+    const usedLabel = (shape) => `${numberOf(shape) ? `${numberOf(shape)} ` : ''}${shape.properties.name} (used)`;
     shapes.forEach((shape, index) => {
       if (!shape) return;
       const name = shape.properties.name;
@@ -134,10 +158,12 @@ export async function createMap(container) {
       } else if (shape.geometry.type === 'Point') {
         L.circleMarker([shape.properties.latitude, shape.properties.longitude], { radius: 7, color: PALETTE.featureUsed, weight: 3, fill: false, className: 'wa-feature' })
           .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
+        label([shape.properties.latitude, shape.properties.longitude], usedLabel(shape), 'used').addTo(result);
         L.circle([shape.properties.latitude, shape.properties.longitude], { radius: shape.properties.radiusMeters, color: PALETTE.featureUsed, weight: 1.5, dashArray: '3 3', fill: false, interactive: false }).addTo(result);
       } else {
         L.geoJSON(shape, { style: { color: PALETTE.featureUsed, weight: 3, fillColor: PALETTE.featureUsed, fillOpacity: 0.12, className: 'wa-feature' } })
-          .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip' }).addTo(result);
+          .bindTooltip(nameTooltip(`${name} (feature used)`), { className: 'wa-tip', sticky: true }).addTo(result);
+        label([shape.properties.latitude, shape.properties.longitude], usedLabel(shape), 'used').addTo(result);
       }
     });
     if (!g) {

@@ -4,6 +4,8 @@ import { readDatumOption } from '../../geodesy/datum-option.ts';
 import type { LocateResult } from '../../locate/locate.ts';
 import { ANSWER_FORMATS } from '../../output/formats.ts';
 import { LocalityCommand } from '../locality-command.ts';
+import { footprintSummary } from '../../geodesy/wkt.ts';
+import { footprintGeometry } from '../../output/footprint-geometry.ts';
 import { VERSION } from '../../version.ts';
 
 /**
@@ -100,7 +102,16 @@ function describe(result: LocateResult, darwinCore: Record<string, string>): str
     }
   }
   lines.push('Darwin Core:');
-  for (const [term, value] of Object.entries(darwinCore)) if (value) lines.push(`  ${term}: ${value}`);
+  for (const [term, value] of Object.entries(darwinCore)) if (value) lines.push(`  ${term}: ${term === 'footprintWKT' ? describeFootprint(value) : value}`);
   lines.push('A georeference is an estimate: verify it before use.');
   return `${lines.join('\n')}\n`;
+}
+
+/** A footprint in words (its coordinates would fill the terminal): "Polygon, 64 vertices, 113.1 km²". */
+function describeFootprint(wkt: string): string {
+  const geometry = footprintGeometry(wkt);
+  if (!geometry) return wkt;
+  const { type, parts, vertices, areaSquareMeters } = footprintSummary(geometry);
+  const area = areaSquareMeters >= 1e6 ? `${(areaSquareMeters / 1e6).toFixed(1)} km²` : `${Math.round(areaSquareMeters)} m²`;
+  return `${type}${parts > 1 ? ` of ${parts} parts` : ''}, ${vertices} vertices, ${area} (the WKT itself: --json)`;
 }

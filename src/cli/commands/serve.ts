@@ -39,7 +39,12 @@ export function registerServe(program: Command, dbPath: () => string): void {
         resultCache: opts.cache,
         logger: opts.log === true,
       });
-      await app.listen({ host: opts.host, port: opts.port });
+      try {
+        await app.listen({ host: opts.host, port: opts.port });
+      } catch (error) {
+        await app.close();
+        throw listenError(error, opts.host, opts.port);
+      }
       const address = app.server.address();
       const port = typeof address === 'object' && address ? address.port : opts.port;
       const shownHost = opts.host.includes(':') ? `[${opts.host}]` : opts.host;
@@ -75,6 +80,15 @@ async function ensureDemoGazetteer(db: string): Promise<void> {
   } finally {
     store.close();
   }
+}
+
+/** The few ways listening fails, each said in one line with what to do; anything else as it came. */
+function listenError(error: unknown, host: string, port: number): unknown {
+  const code = (error as NodeJS.ErrnoException).code;
+  if (code === 'EADDRINUSE') return new Error(`port ${port} on ${host} is already in use (another whereabouts serve, or another program): stop it, or choose a free port with --port <n> (--port 0 lets the system pick one)`);
+  if (code === 'EACCES') return new Error(`not allowed to listen on port ${port} on ${host} (ports below 1024 need special rights): choose another with --port <n>`);
+  if (code === 'EADDRNOTAVAIL') return new Error(`${host} is not an address of this machine: listen on 127.0.0.1 or one of its own addresses with --host`);
+  return error;
 }
 
 function parsePort(value: string): number {

@@ -3,12 +3,15 @@ import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
 import { Type } from 'typebox';
 import type { BatchService, RecordFilter } from '../batches.ts';
 import { RequestError } from '../errors.ts';
+import type { Resolution } from '../../store/reviews.ts';
 import { errorResponses, errorSchema, featureKeySchema, oneOf, openObject } from '../schemas.ts';
 
 const jobParams = Type.Object({ jobId: Type.String({ pattern: '^[A-Za-z0-9_-]{1,64}$' }) });
 const recordParams = Type.Object({ jobId: jobParams.properties.jobId, row: Type.String({ pattern: '^[1-9][0-9]{0,8}$', description: 'Data row number, from 1.' }) });
 const wholeMeters = Type.String({ pattern: '^[0-9]{1,9}$' });
 const open = openObject();
+const correctedLocality = Type.String({ minLength: 1, maxLength: 4000, description: "The locality text as the reviewer corrected it, georeferenced instead of the record's (which is kept unchanged)." });
+const recordCoordinatesDescription = "Use the record's own decimalLatitude/decimalLongitude as the point, with a sign or order error corrected when the coordinate check found one.";
 
 export interface BatchRoutesOptions {
   batches: BatchService;
@@ -90,16 +93,24 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
         tags: ['batch'],
         params: recordParams,
         querystring: Type.Object(
-          { candidateSource: Type.Optional(featureKeySchema.properties.sourceId), candidateFeature: Type.Optional(featureKeySchema.properties.featureId) },
+          {
+            candidateSource: Type.Optional(featureKeySchema.properties.sourceId),
+            candidateFeature: Type.Optional(featureKeySchema.properties.featureId),
+            locality: Type.Optional(correctedLocality),
+            recordCoordinates: Type.Optional(oneOf(['true'], recordCoordinatesDescription)),
+          },
           { additionalProperties: false, dependencies: { candidateSource: ['candidateFeature'], candidateFeature: ['candidateSource'] } },
         ),
         response: { 200: open, 404: errorSchema, 409: errorSchema },
       },
     },
     async (request) => {
-      const { candidateSource, candidateFeature } = request.query;
-      const candidate = candidateSource && candidateFeature ? { sourceId: candidateSource, featureId: candidateFeature } : undefined;
-      return batches.record(request.params.jobId, Number(request.params.row), candidate);
+      const { candidateSource, candidateFeature, locality, recordCoordinates } = request.query;
+      const resolution: Resolution = {};
+      if (candidateSource && candidateFeature) resolution.candidate = { sourceId: candidateSource, featureId: candidateFeature };
+      if (locality !== undefined) resolution.locality = locality;
+      if (recordCoordinates === 'true') resolution.recordCoordinates = true;
+      return batches.record(request.params.jobId, Number(request.params.row), resolution);
     },
   );
 
@@ -107,19 +118,29 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
     '/api/v1/batches/:jobId/records/:row/review',
     {
       schema: {
-        summary: 'Accept or reject a record (optionally with another candidate); stored with who and when',
+        summary: 'Accept or reject a record, with how its point was resolved; stored with who and when',
+        description:
+          'Accepting verifies a point, so a record without one (not found, ambiguous, unreadable) is refused with 409 until the body resolves it: ' +
+          "another candidate, a corrected locality (with a candidate if that is ambiguous), or the record's own coordinates.",
         tags: ['batch'],
         params: recordParams,
         body: Type.Object(
-          { decision: oneOf(['accepted', 'rejected']), reviewer: Type.String({ maxLength: 200 }), candidate: Type.Optional(featureKeySchema) },
+          {
+            decision: oneOf(['accepted', 'rejected']),
+            reviewer: Type.String({ maxLength: 200 }),
+            candidate: Type.Optional(featureKeySchema),
+            locality: Type.Optional(correctedLocality),
+            recordCoordinates: Type.Optional(Type.Boolean({ description: recordCoordinatesDescription })),
+          },
           { additionalProperties: false },
         ),
         response: { 200: open, ...errorResponses, 404: errorSchema, 409: errorSchema },
       },
     },
     async (request) => {
-      const { decision, reviewer, candidate } = request.body;
-      return batches.decide(request.params.jobId, Number(request.params.row), decision, reviewer, candidate);
+      const { decision, reviewer, ...resolution } = request.body;
+      if (resolution.recordCoordinates === false) delete resolution.recordCoordinates;
+      return batches.decide(request.params.jobId, Number(request.params.row), decision, reviewer, resolution);
     },
   );
 
