@@ -8,19 +8,22 @@ import { spawnSync } from 'node:child_process';
 import { accessSync, constants } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 
-/** A Debian package the tests need, and the programs whose presence shows it is installed. */
+/** A Debian package the tests need, and the files (programs, library descriptions) whose presence shows it is installed. */
 export interface SystemPackage {
   name: string;
   provides: readonly string[];
   neededBy: string;
 }
 
-/** The one list of system packages the tests need; add a package here when a test drives it. */
+/** The one list of system packages the tests need: add a package here when a test drives it. */
 export const SYSTEM_PACKAGES: readonly SystemPackage[] = [
   { name: 'chromium', provides: ['/usr/bin/chromium'], neededBy: 'the page tests (test/web, through playwright-core)' },
   { name: 'slurm-wlm', provides: ['/usr/sbin/slurmctld', '/usr/sbin/slurmd'], neededBy: 'the single-node cluster of the split-batch test (test/cluster)' },
   { name: 'munge', provides: ['/usr/sbin/munged'], neededBy: "Slurm's authentication in the split-batch test (test/cluster)" },
   { name: 'gdal-bin', provides: ['/usr/bin/ogrinfo', '/usr/bin/ogr2ogr', '/usr/bin/gdaltransform'], neededBy: 'reading the GeoPackage and GeoJSON batch writes, building the GIS files the import tests read (test/output, test/store/gis-import, test/geodesy/crs)' },
+  { name: 'r-base-core', provides: ['/usr/bin/Rscript'], neededBy: "the README's R recipe run against the real server (test/examples)" },
+  { name: 'r-cran-httr', provides: ['/usr/lib/R/site-library/httr/DESCRIPTION'], neededBy: "the README's R recipe (test/examples)" },
+  { name: 'r-cran-jsonlite', provides: ['/usr/lib/R/site-library/jsonlite/DESCRIPTION'], neededBy: "the README's R recipe (test/examples)" },
 ];
 
 export type SystemPackagePlan =
@@ -44,7 +47,7 @@ export function planSystemPackages(missing: readonly SystemPackage[], host: { is
 
 function isInstalled(p: SystemPackage): boolean {
   try {
-    for (const program of p.provides) accessSync(program, constants.X_OK);
+    for (const file of p.provides) accessSync(file, constants.F_OK);
     return true;
   } catch {
     return false;

@@ -29,6 +29,8 @@ export interface GeoreferenceInput {
   pathLine?: Feature;
   /** The administrative unit (with polygon geometry) that bounds a heading-only locality or clips the footprint. */
   boundingUnit?: Feature;
+  /** A term added to the radius because a place the text names could not be used, with the remark that says why. */
+  widening?: { meters: number; remark: string };
   options?: MethodOptions;
 }
 
@@ -423,7 +425,9 @@ function finish(input: GeoreferenceInput, placement: Placement, settings: Settin
     ...placement.components,
     mapScale,
     measurement,
+    ...(input.widening ? { unusedFeature: input.widening.meters } : {}),
   };
+  if (input.widening) remarks.push(input.widening.remark);
   for (const [name, value] of Object.entries(components)) {
     if (!(value >= 0) || !Number.isFinite(value)) throw new Error(`uncertainty component ${name} is ${value}: a bug, not an input problem`);
   }

@@ -29,4 +29,27 @@ export const METHOD_DEFAULTS = {
    * practice, no source].
    */
   naturalEarthToleranceMeters: 5000,
+  /**
+   * A locality clause names a place the gazetteer lacks ("Puerto Lindo, Laguna Negra" with no lake
+   * loaded), or the place named first is missing and a later clause is used instead: the radius
+   * grows by this much, the distance such a place may lie from the place used [CHOICE]. Chosen by
+   * measurement on the real-record set (test/fixtures/real, npm run bench:real): see README
+   * "On real records" for the figures of each value tried.
+   */
+  unusedFeatureMeters: 120000,
+  /** What such a place does to the answer: 'widen' by unusedFeatureMeters, or 'decline' with the reason [CHOICE]. */
+  unusedFeatureRule: 'widen',
+  /**
+   * A text that names an administrative unit whose polygon is not loaded is declined, never
+   * georeferenced as a town of that name [CHOICE]: a default extent for a level would be dishonest for
+   * most units of it (a Brazilian municipality spans from a few km² to over 150 000 km²; from memory).
+   */
+  unitWithoutPolygon: 'decline',
+  /**
+   * A reference place loaded only outside the record's stated county or state is accepted when it lies
+   * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
+   * collector measured from is often just across a county line. Common practice, no source; not
+   * measured on the real records (their gazetteer holds no unit polygons).
+   */
+  justOutsideMeters: 25000,
 } as const satisfies Record<string, number | string>;

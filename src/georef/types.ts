@@ -15,6 +15,11 @@ export interface UncertaintyComponents {
   mapScale: number;
   /** A stated measurement error, e.g. twice a GPS's displayed accuracy (docs/method.md §5.5). */
   measurement: number;
+  /**
+   * Present only when widened: how far a place the text names, but the gazetteer lacks, may lie from
+   * the place used (METHOD_DEFAULTS.unusedFeatureMeters [CHOICE]).
+   */
+  unusedFeature?: number;
 }
 
 /** Settings of the method that the sources leave to the georeferencer ([CHOICE] in the method). */
@@ -29,6 +34,12 @@ export interface MethodOptions {
   mapScale?: number;
   /** Stated measurement error in meters (added as given). */
   measurementErrorMeters?: number;
+  /** How far a named place the gazetteer lacks may lie from the place used; default 120 km ([CHOICE]). */
+  unusedFeatureMeters?: number;
+  /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
+  unusedFeatureRule?: 'widen' | 'decline';
+  /** How far outside the record's stated unit a reference place may lie and still be taken; default 25 km ([CHOICE]). */
+  justOutsideMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

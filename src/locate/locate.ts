@@ -16,6 +16,11 @@ import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits 
 import { readDatumOption } from '../geodesy/datum-option.ts';
 import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
+import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
+import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
+import { findUnit, unitArea, unitNamed } from './administrative-unit.ts';
+import { justOutside } from './just-outside.ts';
+import { kindMismatch } from './feature-kind.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -122,9 +127,74 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   if (interpretation.type === 'no-locality' || interpretation.type === 'unparseable') {
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
+  const unit = unitNamed(interpretation, context);
+  if (unit) {
+    const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
+    if (!found.feature) return { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
+  }
 
+  let used = interpretation;
+  let resolved = resolveFeatures(finder, interpretation, context, options, edits);
+  let fallbackFrom: string | undefined;
+  if (!resolved.ok && resolved.result.status === 'not-found') {
+    // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded).
+    for (const clause of interpretation.otherClauses) {
+      const alternative = readingOf(interpretation, clause);
+      const attempt = resolveFeatures(finder, alternative, context, options, edits);
+      // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
+      // at a second name, or a name met anywhere in the country, too often is another place of that name.
+      if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
+      fallbackFrom = interpretation.features.join('", "');
+      const usedText = interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ');
+      used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the next clause, "${usedText}", is used instead`] };
+      resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
+      break;
+    }
+  }
+  if (!resolved.ok) return resolved.result;
+  const { candidates, readings, matchRemarks, chosenNotes } = resolved;
+  if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
+  const mismatches = (readings[0] ?? []).map((feature) => kindMismatch(used.featureKind, used.features[0] ?? '', feature));
+  if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
+
+  const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
+  const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;
+  const unused = unusedPlaces(others, fallbackFrom, {
+    rule: options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule,
+    meters: options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters,
+  }, withinUnit);
+  if ('decline' in unused) return { status: 'not-found', interpretation: used, candidates, reason: unused.decline };
+  const { widening } = unused;
+  if (unused.note) used = { ...used, notes: [...used.notes, unused.note] };
+  const pathLine = findPathLine(finder, used, context);
+  // The stated municipality, county or province clips the footprint; a heading alone may also be bounded by the country.
+  const boundingUnit = findBoundingUnit(finder, context, used.type === 'heading-only' ? 'country' : 'stateProvince');
+  const combinations = cartesian(readings);
+  if (combinations.length > MAX_COVERED_READINGS) {
+    return { status: 'ambiguous', interpretation: used, candidates, reason: `${combinations.length} combinations of candidates: too many to cover with one circle (at most ${MAX_COVERED_READINGS})` };
+  }
+  const outcomes = combinations.map((features) => georeference({ interpretation: used, features, pathLine, boundingUnit, widening, options }));
+  const refused = outcomes.find((o) => !o.ok);
+  if (refused && !refused.ok) return { status: 'unparseable', interpretation: used, candidates, reason: refused.reason };
+  const georefs = outcomes.flatMap((o) => (o.ok ? [o.georeference] : []));
+  const georef = georefs.length === 1 ? georefs[0] : coverGeoreferences(georefs);
+  const conflict = conflictWith(georef, others.found);
+  if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
+  return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): boolean {
+  return resolution.matchRemarks.length === 0 && !!(context.stateProvince || context.county || context.municipality);
+}
+
+type Resolution =
+  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[] }
+  | { ok: false; result: LocateResult };
+
+/** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
+function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {
   const candidates: Candidate[] = [];
-  /** For each name, the features it may mean: one when resolved, several only with coverAmbiguous. */
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
   const chosenNotes: string[] = [];
@@ -139,12 +209,25 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     }
     const choice = chooseCandidate(found);
     if (choice.kind === 'none') {
-      return { status: 'not-found', interpretation, candidates, reason: notFoundReason(name, context, found) };
+      const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
+      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+      if (outside?.candidate) {
+        candidates.push(outside.candidate);
+        readings.push([outside.candidate.feature]);
+        matchRemarks.push(outside.remark);
+        continue;
+      }
+      const reason = [notFoundReason(name, context, found), outside?.reason].filter(Boolean).join('; ');
+      return { ok: false, result: { status: 'not-found', interpretation, candidates, reason } };
+    }
+    if (choice.kind === 'weak') {
+      const reason = `no feature named "${name}" in the loaded gazetteers; the only near name, ${describeCandidate(choice.candidate)}, scores below the ${FUZZY_ACCEPTANCE.minimumScore} a lone near match needs to be taken: verify the name`;
+      return { ok: false, result: { status: 'not-found', interpretation, candidates, reason } };
     }
     if (choice.kind === 'several') {
       const names = choice.candidates.map(describeCandidate).join('; ');
       if (!options.coverAmbiguous) {
-        return { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` };
+        return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` } };
       }
       readings.push(choice.candidates.map((c) => c.feature));
       matchRemarks.push(`"${name}" is ambiguous (${names}); every candidate covered, as asked`);
@@ -153,34 +236,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
-
-  const edited = chosenNotes.length ? { ...interpretation, notes: [...interpretation.notes, ...chosenNotes] } : interpretation;
-  return georeferenceReadings(finder, edited, context, options, readings, candidates, matchRemarks);
-}
-
-/** The method over every combination of the features read for each name, bounded and clipped as the record allows. */
-function georeferenceReadings(
-  finder: CandidateFinder,
-  interpretation: Interpretation,
-  context: AdministrativeContext,
-  options: LocateOptions,
-  readings: Feature[][],
-  candidates: Candidate[],
-  matchRemarks: string[],
-): LocateResult {
-  const pathLine = findPathLine(finder, interpretation, context);
-  // The stated municipality, county or province clips the footprint; a heading alone may also be bounded by the country.
-  const boundingUnit = findBoundingUnit(finder, context, interpretation.type === 'heading-only' ? 'country' : 'stateProvince');
-  const combinations = cartesian(readings);
-  if (combinations.length > MAX_COVERED_READINGS) {
-    return { status: 'ambiguous', interpretation, candidates, reason: `${combinations.length} combinations of candidates: too many to cover with one circle (at most ${MAX_COVERED_READINGS})` };
-  }
-  const outcomes = combinations.map((features) => georeference({ interpretation, features, pathLine, boundingUnit, options }));
-  const refused = outcomes.find((o) => !o.ok);
-  if (refused && !refused.ok) return { status: 'unparseable', interpretation, candidates, reason: refused.reason };
-  const georefs = outcomes.flatMap((o) => (o.ok ? [o.georeference] : []));
-  const georef = georefs.length === 1 ? georefs[0] : coverGeoreferences(georefs);
-  return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, interpretation, candidates);
+  return { ok: true, candidates, readings, matchRemarks, chosenNotes };
 }
 
 /** At most this many readings of an ambiguous text are covered by one circle [CHOICE]. */
@@ -248,7 +304,7 @@ function featureQuery(name: string, context: AdministrativeContext, type: Locali
     : { name, context };
 }
 
-type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };
+type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'weak'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };
 
 /** Applies FUZZY_ACCEPTANCE: never a silent pick among equally good candidates. */
 function chooseCandidate(found: Candidate[]): Choice {
@@ -259,7 +315,9 @@ function chooseCandidate(found: Candidate[]): Choice {
   if (ranked.length === 0) return { kind: 'none' };
   const [best, next] = ranked;
   const leads = !next || best.score - next.score >= FUZZY_ACCEPTANCE.minimumLead;
-  return best.score >= FUZZY_ACCEPTANCE.minimumScore && leads ? { kind: 'one', candidate: best } : { kind: 'several', candidates: ranked };
+  if (best.score >= FUZZY_ACCEPTANCE.minimumScore && leads) return { kind: 'one', candidate: best };
+  // One near name too weak to stand alone is not a choice between several: say so.
+  return next ? { kind: 'several', candidates: ranked } : { kind: 'weak', candidate: best };
 }
 
 function findPathLine(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Feature | undefined {
@@ -296,15 +354,15 @@ function locateAdministrativeUnit(
   if (!unit) {
     return { status: 'unparseable', interpretation, candidates: [], reason: `${interpretation.reason ?? 'the text names no place'}; no administrative unit of the record was found in the gazetteer` };
   }
-  const asNamedPlace: Interpretation = {
-    ...interpretation,
-    type: 'named-place',
-    features: [unit.name],
-    notes: [...interpretation.notes, `the text names no place; georeferenced to the record's ${unit.featureType} "${unit.name}" as asked`],
-  };
+  return georeferenceUnit(unit, interpretation, `the text names no place; georeferenced to the record's ${unit.featureType} "${unit.name}" as asked`, [], options);
+}
+
+/** A unit's own feature as the place: its polygon's corrected center and radial (method §4). */
+function georeferenceUnit(unit: Feature, interpretation: Interpretation, note: string, candidates: Candidate[], options: LocateOptions): LocateResult {
+  const asNamedPlace: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], notes: [...interpretation.notes, note] };
   const outcome = georeference({ interpretation: asNamedPlace, features: [unit], options });
-  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates: [], reason: outcome.reason };
-  return georeferenced(outcome.georeference, asNamedPlace, []);
+  if (!outcome.ok) return { status: 'unparseable', interpretation, candidates, reason: outcome.reason };
+  return georeferenced(outcome.georeference, asNamedPlace, candidates);
 }
 
 function describeCandidate(c: Candidate): string {

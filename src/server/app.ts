@@ -29,6 +29,7 @@ import { featureRoutes } from './routes/features.ts';
 import { georeferenceRoutes } from './routes/georeference.ts';
 import { layersRoutes, type LayerSource } from './routes/layers.ts';
 import { loginRoutes } from './routes/login.ts';
+import { recordsRoutes } from './routes/records.ts';
 import { shapedFeatureLister } from './shaped-features.ts';
 
 export interface ServerOptions extends AppOptions {
@@ -158,6 +159,7 @@ export async function buildApp(stores: ServedStores, options: AppOptions): Promi
   });
 
   await app.register(georeferenceRoutes, { gazetteer: stores.gazetteer, results: stores.results });
+  await app.register(recordsRoutes, { gazetteer: stores.gazetteer, results: stores.results });
   await app.register(featureRoutes, { gazetteer: stores.gazetteer });
   await app.register(datumsRoutes);
   await app.register(layersRoutes, { layers: stores.layers });

@@ -27,7 +27,7 @@ const PHRASES: Record<number, string> = {
   503: 'Service Unavailable',
 };
 
-interface ValidationItem {
+export interface ValidationItem {
   instancePath: string;
   keyword: string;
   message?: string;
@@ -40,11 +40,8 @@ interface ValidationItem {
  */
 export const errorHandler = (bodyLimit: number) => (error: FastifyError | RequestError, request: FastifyRequest, reply: FastifyReply) => {
   if ('validation' in error && error.validation) {
-    const context = (error as FastifyError).validationContext ?? 'body';
-    const item = error.validation[0] as ValidationItem;
-    const field = fieldOf(item);
-    const message = `${context}${field ? `.${field}` : ''} ${item.message ?? 'is not valid'}${detail(item)}`;
-    return send(reply, 400, message, field || context);
+    const { message, field } = validationProblem((error as FastifyError).validationContext ?? 'body', error.validation[0] as ValidationItem);
+    return send(reply, 400, message, field);
   }
   const status = error.statusCode ?? 500;
   if (status >= 500) {
@@ -57,6 +54,15 @@ export const errorHandler = (bodyLimit: number) => (error: FastifyError | Reques
 
 function send(reply: FastifyReply, statusCode: number, message: string, field?: string) {
   return reply.code(statusCode).send({ statusCode, error: PHRASES[statusCode] ?? 'Error', message, ...(field ? { field } : {}) });
+}
+
+/**
+ * A schema validation error in words, with the field it is about.
+ * @example validationProblem('body', { instancePath: '/locality', keyword: 'type', params: {}, message: 'must be string' }) // { message: 'body.locality must be string', field: 'locality' }
+ */
+export function validationProblem(context: string, item: ValidationItem): { message: string; field: string } {
+  const field = fieldOf(item);
+  return { message: `${context}${field ? `.${field}` : ''} ${item.message ?? 'is not valid'}${detail(item)}`, field: field || context };
 }
 
 /** `options.mapScale`, `locality`, or the missing/extra property. */

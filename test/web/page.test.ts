@@ -205,7 +205,7 @@ describe('batch review', () => {
     await page.setInputFiles('#b-file', { name: 'records.csv', mimeType: 'text/csv', buffer: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a]) });
     await page.click('#batch-submit');
     await page.waitForSelector('#batch-progress-line[data-state="failed"]');
-    expect(await page.textContent('#batch-progress-text')).toMatch(/^Upload failed: the uploaded file is a PNG image, not CSV text/);
+    expect(await page.textContent('#batch-progress-text')).toMatch(/^Upload failed: the uploaded file is a PNG image and not CSV text/);
     expect(await page.isVisible('#batch-progress')).toBe(false);
     await shot('batch-upload-failed');
   });

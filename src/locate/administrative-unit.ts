@@ -1,0 +1,101 @@
+/**
+ * A text that names an administrative unit is georeferenced as that unit, never as a town that shares
+ * its name: by the unit's polygon where one is loaded (its corrected center and radial, method §4),
+ * otherwise declined with the reason (METHOD_DEFAULTS.unitWithoutPolygon [CHOICE]). Pure: the
+ * gazetteer is reached only through the CandidateFinder it is given.
+ */
+import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
+import { countryCodeForName } from '../match/context.ts';
+import { foldName } from '../match/fold.ts';
+import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
+
+/**
+ * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
+ * municipality usually bears its seat's name, and a label that writes it alone means the town
+ * ("Mun. Brusque: … Brusque").
+ */
+const RECORD_LEVELS = [
+  ['county', 'county'],
+  ['stateProvince', 'stateProvince'],
+  ['country', 'country'],
+] as const satisfies readonly (readonly [keyof AdministrativeContext, AdministrativeLevel])[];
+
+/**
+ * The unit the reading names, or null: an 'administrative-unit' reading, or a lone named place
+ * whose name is one of the record's own units (its country, state/province or county).
+ * @example unitNamed(parseLocality('Alisos'), { countryCode: 'QV', county: 'Alisos' }) // { name: 'Alisos', level: 'county', written: 'Alisos' }
+ */
+export function unitNamed(interpretation: Interpretation, context: AdministrativeContext): NamedUnit | null {
+  if (interpretation.type === 'administrative-unit') {
+    const name = interpretation.unit?.name ?? interpretation.features[0];
+    return name ? interpretation.unit ?? { name, level: 'unit', written: name } : null;
+  }
+  if (interpretation.type !== 'named-place' || interpretation.features.length !== 1) return null;
+  const written = interpretation.features[0]!;
+  const key = foldName(written);
+  for (const [field, level] of RECORD_LEVELS) {
+    const value = context[field];
+    if (value && foldName(value) === key) return { name: value, level, written };
+  }
+  // A record with only a country code: the country's name in any of the four languages ("Brasil").
+  const code = context.countryCode?.trim().toUpperCase();
+  if (code && countryCodeForName(written) === code) return { name: written, level: 'country', written };
+  return null;
+}
+
+/** Feature types a unit of each level is stored under in a gazetteer. */
+const FEATURE_TYPES: Readonly<Record<AdministrativeLevel, string[]>> = {
+  country: ['country'],
+  stateProvince: ['stateProvince'],
+  county: ['county'],
+  municipality: ['municipality', 'county'],
+  unit: ['municipality', 'county', 'stateProvince', 'country'],
+};
+
+const LEVEL_WORDS: Readonly<Record<AdministrativeLevel, string>> = {
+  country: 'country',
+  stateProvince: 'state or province',
+  county: 'county',
+  municipality: 'municipality',
+  unit: 'administrative unit',
+};
+
+export type UnitLookup = { feature: Feature; candidates: Candidate[]; remark: string } | { feature: null; candidates: Candidate[]; reason: string };
+
+/**
+ * The unit's own feature with its polygon, or the reason there is none to georeference by.
+ * `acceptScore` is the least score that counts as the unit's name (FUZZY_ACCEPTANCE.readingScore).
+ * @example findUnit(store, { name: 'Alisos', level: 'county', written: 'Alisos' }, { countryCode: 'QV' }, 0.95).feature?.featureType // 'county'
+ */
+export function findUnit(finder: CandidateFinder, unit: NamedUnit, context: AdministrativeContext, acceptScore: number): UnitLookup {
+  const words = LEVEL_WORDS[unit.level];
+  const candidates = finder
+    .findCandidates({ name: unit.name, context: contextAbove(unit.level, context), featureTypes: FEATURE_TYPES[unit.level], withGeometry: true })
+    .filter((c) => c.score >= acceptScore);
+  const polygons = candidates.filter((c) => c.feature.geometryType === 'Polygon' || c.feature.geometryType === 'MultiPolygon');
+  if (polygons.length === 1) {
+    const feature = polygons[0]!.feature;
+    return { feature, candidates, remark: `"${unit.written}" names the ${words} "${feature.name}": georeferenced as that unit by its polygon, never as a place that shares its name` };
+  }
+  const why = polygons.length > 1
+    ? `${polygons.length} units of that name are loaded`
+    : 'no polygon of it is loaded [CHOICE unitWithoutPolygon \'decline\', src/georef/method-defaults.ts]';
+  return { feature: null, candidates, reason: `"${unit.written}" names the ${words} "${unit.name}", not a place; ${why}, and a town of that name with a town's radius would not be honest, so no georeference is given` };
+}
+
+/**
+ * The feature when it is an administrative unit's polygon, else undefined.
+ * @example unitArea(alisosCounty)?.name // 'Alisos'
+ */
+export function unitArea(feature: Feature): Feature | undefined {
+  const polygon = feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon';
+  return polygon && FEATURE_TYPES.unit.includes(feature.featureType ?? '') ? feature : undefined;
+}
+
+/** The record's units wider than `level`: a unit is looked for within them, not within itself. */
+function contextAbove(level: AdministrativeLevel, context: AdministrativeContext): AdministrativeContext {
+  const wider: AdministrativeContext = { countryCode: context.countryCode, country: context.country };
+  if (level === 'county' || level === 'municipality') wider.stateProvince = context.stateProvince;
+  if (level === 'municipality') wider.county = context.county;
+  return level === 'country' ? {} : wider;
+}

@@ -1,0 +1,196 @@
+/**
+ * The locate policy on the demo gazetteer (invented, CC0; gazetteer/README.md), through `locate` over a
+ * real SQLite file. What is checked is the method's workflow rule that a feature is never used silently
+ * when the text says more than the feature can carry (Chapman & Wieczorek 2020, Georeferencing Best
+ * Practices, §Georeferencing Workflow – Localities, step 5: do not georeference what the clauses do not
+ * support), with each [CHOICE] of src/georef/method-defaults.ts cited in the remarks or the reason.
+ * Distances between demo features by Vincenty (geodesy 2.4.0), independent of the code under test.
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
+import { FUZZY_ACCEPTANCE, locate } from '../../src/locate/locate.ts';
+import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
+import { kindMismatch } from '../../src/locate/feature-kind.ts';
+import { parseLocality, type Interpretation } from '../../src/parse/index.ts';
+
+const directory = mkdtempSync(join(tmpdir(), 'whereabouts-policy-'));
+let store: GazetteerStore;
+
+beforeAll(async () => {
+  const db = join(directory, 'demo.sqlite');
+  const writer = openGazetteer(db);
+  await importGazetteer(writer, new URL('../../gazetteer/demo.geojson', import.meta.url).pathname, { format: 'geojson', citation: 'demo (invented)' });
+  writer.close();
+  store = openGazetteer(db, { readonly: true });
+});
+afterAll(() => {
+  store.close();
+  rmSync(directory, { recursive: true, force: true });
+});
+
+const PUERTO_LINDO_RADIUS = 3500; // demo-places.csv, qv-0013
+
+describe('an administrative unit is georeferenced as the unit, never as a town', () => {
+  it.each([
+    ['Alisos', { county: 'Alisos' }, 'qv-0005', 'county'],
+    ['Poniente', { stateProvince: 'Poniente' }, 'qv-0002', 'state or province'],
+    ['Isla Verdemar', { country: 'Isla Verdemar' }, 'qv-0001', 'country'],
+  ])('"%s", equal to the record\'s own unit, by that unit\'s polygon', (locality, fields, featureId, words) => {
+    const result = locate(store, { locality, countryCode: 'QV', ...fields });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual([featureId]);
+    expect(result.georeference!.remarks.join('\n')).toContain(`names the ${words} "${locality}": georeferenced as that unit by its polygon`);
+  });
+
+  it('reads the record\'s country named in any of the four languages as the country ("Brasil" for BR)', () => {
+    // Country names from the CLDR region names that Node's Intl carries; no Brazil polygon is loaded.
+    const result = locate(store, { locality: 'Brasil', countryCode: 'BR' });
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/"Brasil" names the country "Brasil", not a place/);
+  });
+
+  it('declines a unit whose polygon is not loaded, and says why ([CHOICE] unitWithoutPolygon)', () => {
+    // "Puerto Lindo" as the record's county: no county polygon of that name, only the city.
+    const result = locate(store, { locality: 'Puerto Lindo', countryCode: 'QV', county: 'Puerto Lindo' });
+    expect(METHOD_DEFAULTS.unitWithoutPolygon).toBe('decline');
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/names the county "Puerto Lindo", not a place; no polygon of it is loaded \[CHOICE unitWithoutPolygon/);
+  });
+
+  it('takes the parser\'s administrative-unit reading as the unit ("Município de Serrana")', () => {
+    const interpretation: Interpretation = {
+      ...parseLocality('Serrana'),
+      type: 'administrative-unit',
+      features: ['Serrana'],
+      unit: { name: 'Serrana', level: 'county', written: 'Município de Serrana' },
+    };
+    const unit = unitNamed(interpretation, { countryCode: 'QV' });
+    expect(unit).toEqual({ name: 'Serrana', level: 'county', written: 'Município de Serrana' });
+    const found = findUnit(store, unit!, { countryCode: 'QV' }, FUZZY_ACCEPTANCE.readingScore);
+    expect(found.feature?.featureType).toBe('county');
+    expect(found.feature?.geometryType).toMatch(/Polygon/);
+  });
+});
+
+describe('a place the text names but the gazetteer lacks', () => {
+  it('widens the radius by the [CHOICE] distance and says so ("Puerto Lindo, Laguna Negra", no such lake)', () => {
+    const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.uncertaintyMeters).toBeCloseTo(PUERTO_LINDO_RADIUS + METHOD_DEFAULTS.unusedFeatureMeters, 6);
+    expect(g.remarks.join('\n')).toMatch(/"Laguna Negra" is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureMeters/);
+  });
+
+  it('declines instead when the rule is set to decline', () => {
+    const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV', options: { unusedFeatureRule: 'decline' } });
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/"Laguna Negra" is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureRule 'decline'/);
+  });
+
+  it('keeps the town\'s radius when the other clause is the record\'s own unit', () => {
+    const result = locate(store, { locality: 'Puerto Lindo, Poniente', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.components.unusedFeature).toBeUndefined();
+  });
+
+  it('declines when another clause names a loaded place far from the answer', () => {
+    // Laguna Azul lies 51 km from Puerto Lindo: one text cannot mean both.
+    const result = locate(store, { locality: 'Puerto Lindo, Laguna Azul', countryCode: 'QV' });
+    expect(result.status).toBe('unparseable');
+    expect(result.reason).toMatch(/also names "Laguna Azul", \d+ km from the answer's center.*the clauses disagree/);
+  });
+});
+
+describe('a later clause names the findable place', () => {
+  it('falls back to it, widened, when the first is missing ("Villa Quimera, Puerto Lindo")', () => {
+    const result = locate(store, { locality: 'Villa Quimera, Puerto Lindo', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0013');
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.remarks.join('\n')).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the next clause, "Puerto Lindo", is used instead/);
+  });
+
+  it('takes a unit named in the later clause by its polygon, with no term added ("Cerro Azul, Alisos")', () => {
+    const result = locate(store, { locality: 'Cerro Azul, Alisos', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0005');
+    expect(g.components.unusedFeature).toBeUndefined();
+    expect(g.remarks.join('\n')).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers; the text places it in the county "Alisos", whose polygon is the answer's extent/);
+  });
+
+  it('does not fall back without a stated state or county (a name met anywhere is too often another place)', () => {
+    const result = locate(store, { locality: 'Villa Quimera, Puerto Lindo', countryCode: 'QV' });
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/Villa Quimera/);
+  });
+});
+
+describe('the stated units are a soft wall', () => {
+  it('takes a reference place just outside the stated county, and says so ([CHOICE] justOutsideMeters)', () => {
+    // Las Garzas (Tres Cruces) lies 8.7 km outside county Alisos; 10 km N of it reaches into Alisos.
+    const result = locate(store, { locality: '10 km N of Las Garzas', countryCode: 'QV', county: 'Alisos' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.remarks[0]).toMatch(/"Las Garzas" is not inside the record's county "Alisos" .* but lies 8\.7 km outside it: accepted, within the 25 km allowed \[CHOICE justOutsideMeters/);
+  });
+
+  it('refuses a place farther out than the allowance, naming it', () => {
+    // El Molino (Cerrillos) lies 28.2 km outside county Alisos.
+    const result = locate(store, { locality: 'El Molino', countryCode: 'QV', county: 'Alisos' });
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/"El Molino" is loaded only outside county "Alisos": El Molino \(demo:qv-0029;.*none lies within 25 km of it/);
+  });
+
+  it('still refuses an answer wholly outside the stated unit', () => {
+    const result = locate(store, { locality: '10 km S of Las Garzas', countryCode: 'QV', county: 'Alisos' });
+    expect(result.status).toBe('unparseable');
+    expect(result.reason).toMatch(/wholly outside the bounding unit "Alisos"/);
+  });
+});
+
+describe('one weak near name is not "ambiguous"', () => {
+  it('reports a lone near name below the acceptance score as not found, naming it', () => {
+    // "Valle Hondito": its one near name, Valle Hondo, scores 0.79, under the 0.8 a lone match needs.
+    const result = locate(store, { locality: 'Valle Hondito', countryCode: 'QV' });
+    expect(result.status).toBe('not-found');
+    expect(result.reason).toMatch(/no feature named "Valle Hondito".*the only near name, Valle Hondo .*score 0\.79\), scores below the 0\.8 a lone near match needs/);
+  });
+
+  it('keeps "ambiguous" for two equally near names', () => {
+    const result = locate(store, { locality: 'Santa Rosita', countryCode: 'QV' });
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toMatch(/matches several features: Santa Rosa .*; Santa Rosa/);
+  });
+});
+
+describe('distances the cases above rest on (Vincenty, geodesy 2.4.0)', () => {
+  it('Laguna Azul is far from Puerto Lindo, beyond both radii', () => {
+    const lindo = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
+    const lake = store.findCandidates({ name: 'Laguna Azul', context: { countryCode: 'QV' } })[0]!.feature;
+    const d = new LatLon(lindo.latitude, lindo.longitude).distanceTo(new LatLon(lake.latitude, lake.longitude));
+    expect(d).toBeGreaterThan(lindo.radiusMeters + lake.radiusMeters);
+  });
+});
+
+describe('what the text says a place is', () => {
+  it('declines a town for a farm that shares its name', () => {
+    const town = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
+    expect(kindMismatch('farm', 'Estancia Puerto Lindo', town)).toMatch(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/);
+    expect(kindMismatch('populated-place', 'Puerto Lindo', town)).toBeNull();
+    expect(kindMismatch(undefined, 'Puerto Lindo', town)).toBeNull();
+  });
+
+  it('keeps a farm for a farm', () => {
+    const farm = store.findCandidates({ name: 'Fazenda Boa Vista', context: { countryCode: 'QV' } })[0]!.feature;
+    expect(farm.featureType).toBe('farm');
+    expect(kindMismatch('farm', 'Fazenda Boa Vista', farm)).toBeNull();
+  });
+});

