@@ -20,6 +20,7 @@ export const SYSTEM_PACKAGES: readonly SystemPackage[] = [
   { name: 'chromium', provides: ['/usr/bin/chromium'], neededBy: 'the page tests (test/web, through playwright-core)' },
   { name: 'slurm-wlm', provides: ['/usr/sbin/slurmctld', '/usr/sbin/slurmd'], neededBy: 'the single-node cluster of the split-batch test (test/cluster)' },
   { name: 'munge', provides: ['/usr/sbin/munged'], neededBy: "Slurm's authentication in the split-batch test (test/cluster)" },
+  { name: 'gdal-bin', provides: ['/usr/bin/ogrinfo', '/usr/bin/ogr2ogr', '/usr/bin/gdaltransform'], neededBy: 'reading the GeoPackage and GeoJSON batch writes, building the GIS files the import tests read (test/output, test/store/gis-import, test/geodesy/crs)' },
   { name: 'r-base-core', provides: ['/usr/bin/Rscript'], neededBy: "the README's R recipe run against the real server (test/examples)" },
   { name: 'r-cran-httr', provides: ['/usr/lib/R/site-library/httr/DESCRIPTION'], neededBy: "the README's R recipe (test/examples)" },
   { name: 'r-cran-jsonlite', provides: ['/usr/lib/R/site-library/jsonlite/DESCRIPTION'], neededBy: "the README's R recipe (test/examples)" },

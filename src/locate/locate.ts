@@ -72,6 +72,7 @@ export const FUZZY_ACCEPTANCE = { plausibleScore: 0.7, minimumScore: 0.8, minimu
 
 const LINES: GeometryType[] = ['LineString', 'MultiLineString'];
 const ADMINISTRATIVE_LEVELS = [
+  { field: 'municipality', featureType: 'municipality' },
   { field: 'county', featureType: 'county' },
   { field: 'stateProvince', featureType: 'stateProvince' },
   { field: 'country', featureType: 'country' },
@@ -167,7 +168,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const { widening } = unused;
   if (unused.note) used = { ...used, notes: [...used.notes, unused.note] };
   const pathLine = findPathLine(finder, used, context);
-  // The stated county or province clips the footprint; a heading alone may also be bounded by the country.
+  // The stated municipality, county or province clips the footprint; a heading alone may also be bounded by the country.
   const boundingUnit = findBoundingUnit(finder, context, used.type === 'heading-only' ? 'country' : 'stateProvince');
   const combinations = cartesian(readings);
   if (combinations.length > MAX_COVERED_READINGS) {

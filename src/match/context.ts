@@ -92,6 +92,7 @@ export function resolveContext(context: AdministrativeContext, gazetteerCountryC
 export interface SpatiallyDecided {
   stateProvince?: boolean;
   county?: boolean;
+  municipality?: boolean;
 }
 
 /**

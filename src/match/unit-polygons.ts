@@ -1,6 +1,6 @@
 /**
- * The administrative filter by polygon: when the gazetteer holds the polygon of the stated county or
- * state, a candidate whose center lies outside every polygon of that unit is dropped, and that
+ * The administrative filter by polygon: when the gazetteer holds the polygon of the stated municipality,
+ * county or state, a candidate whose center lies outside every polygon of that unit is dropped, and that
  * level's name no longer filters (contextMismatch). Pure: the units come from the caller.
  */
 import type { MultiPolygon, Polygon } from 'geojson';
@@ -9,7 +9,9 @@ import type { ResolvedContext, SpatiallyDecided } from './context.ts';
 import type { Candidate, CandidateQuery, Feature } from './types.ts';
 
 /** Administrative levels from the smallest up, for the spatial test. */
-const UNIT_RANK: Readonly<Record<string, number>> = { county: 1, stateProvince: 2, country: 3 };
+const UNIT_RANK: Readonly<Record<string, number>> = { municipality: 1, county: 2, stateProvince: 3, country: 4 };
+/** How each tested level is named in notes and reasons. */
+const LEVEL_WORDS = { municipality: 'municipality', county: 'county', stateProvince: 'state/province' } as const;
 
 /** The levels a polygon decided, and the test a candidate's center must pass. */
 export interface UnitPolygonFilter {
@@ -31,11 +33,12 @@ export function unitPolygonFilter(
   exactCandidates: (name: string) => Candidate[],
   attachGeometry: (feature: Feature) => void,
 ): UnitPolygonFilter {
-  const levels: { level: 'county' | 'stateProvince'; written: string | undefined }[] = [
+  const levels: { level: keyof typeof LEVEL_WORDS; written: string | undefined }[] = [
+    { level: 'municipality', written: query.context.municipality },
     { level: 'county', written: query.context.county },
     { level: 'stateProvince', written: query.context.stateProvince },
   ];
-  const tests: { level: string; units: Feature[] }[] = [];
+  const tests: { level: keyof typeof LEVEL_WORDS; units: Feature[] }[] = [];
   const decided: SpatiallyDecided = {};
   for (const { level, written } of levels) {
     if (written === undefined || written.trim() === '' || query.featureTypes?.includes(level)) continue;
@@ -48,7 +51,7 @@ export function unitPolygonFilter(
     for (const unit of units) attachGeometry(unit);
     decided[level] = true;
     tests.push({ level, units });
-    notes.push(`${level === 'county' ? 'county' : 'state/province'} '${written}' checked against its polygon (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`);
+    notes.push(`${LEVEL_WORDS[level]} '${written}' checked against its polygon (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`);
   }
   return {
     decided,
@@ -59,7 +62,7 @@ export function unitPolygonFilter(
         if (UNIT_RANK[feature.featureType ?? ''] > UNIT_RANK[level]) continue;
         const inside = units.some((unit) => booleanPointInPolygon([feature.longitude, feature.latitude], unit.geometry as Polygon | MultiPolygon));
         if (!inside) {
-          return `center outside the polygon of ${level === 'county' ? 'county' : 'state/province'} '${units[0].name}' (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`;
+          return `center outside the polygon of ${LEVEL_WORDS[level]} '${units[0].name}' (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`;
         }
       }
       return null;

@@ -5,7 +5,7 @@
  * module's own folder: nothing a request says is ever used as a path.
  */
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, isAbsolute, join } from 'node:path';
 import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
@@ -18,6 +18,7 @@ import { decimalNumber } from '../record/coordinate-check.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { HEAD_BYTES, notText } from '../store/file-kind.ts';
+import { writeResults } from '../batch/gis-output.ts';
 import { RequestError } from './errors.ts';
 import type { RecordAnswer } from '../locate/georeference-record.ts';
 import { lookUp, type ServedGazetteer } from './lookup.ts';
@@ -257,6 +258,25 @@ export class BatchService {
     const line = (record: InputRecord, fields: string[]) => `${originalLine(record, originalLength, delimiter)}${delimiter}${csvLine(fields.slice(originalLength), delimiter)}\r\n`;
     const text = [line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
     return { text, delimiter };
+  }
+
+  /**
+   * The reviewed output as a GeoJSON FeatureCollection or a GeoPackage (src/output), made from
+   * `reviewedCsv` in files beside the jobs that are removed once read.
+   */
+  async reviewedFile(jobId: string, format: 'geojson' | 'gpkg'): Promise<Buffer> {
+    const { text, delimiter } = this.reviewedCsv(jobId);
+    const stem = join(this.folder, `reviewed-${randomUUID()}`);
+    const csvPath = `${stem}.csv`;
+    const output = `${stem}.${format}`;
+    writeFileSync(csvPath, text);
+    try {
+      await writeResults({ format, csvPath, delimiter, output, runTimestamp: new Date().toISOString().replace(/\.\d+Z$/, 'Z') });
+      return readFileSync(output);
+    } finally {
+      rmSync(csvPath, { force: true });
+      rmSync(output, { force: true });
+    }
   }
 
   /**

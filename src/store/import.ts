@@ -3,8 +3,9 @@
  * zipped as distributed, with its alternate-names and admin code files) into the store in one
  * transaction: constant memory for any file size, every refused row returned with its row number and
  * reason, the source recorded with its citation, licence and the file's sha256.
+ * Shapefiles and GeoPackages (gis-import.ts) go the same way, but are read whole.
  */
-import { accessSync, constants } from 'node:fs';
+import { accessSync, closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { createInterface } from 'node:readline';
 import type { Readable } from 'node:stream';
@@ -17,9 +18,10 @@ import { fileHead, notText } from './file-kind.ts';
 import { isZipFile, openFileInput } from './file-input.ts';
 import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
+import { gisContentHash, readGisFile, type GisFieldMap } from './gis-import.ts';
 import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
-export type ImportFormat = 'csv' | 'geojson' | 'geonames';
+export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
 
 export interface ImportOptions {
   format: ImportFormat;
@@ -39,6 +41,8 @@ export interface ImportOptions {
   radii?: Readonly<Record<string, number>>;
   /** Rank of the source where several hold the same place (1 first); kept from the replaced source when not given. */
   priority?: number | null;
+  /** For a shapefile or GeoPackage: the layer, which attributes give the columns, the .dbf encoding. */
+  gis?: GisFieldMap;
   /** Called every few thousand rows with the number read so far. */
   onProgress?: (rows: number) => void;
 }
@@ -57,6 +61,8 @@ export interface ImportSummary {
   /** The alternate-names file, when one was given: its lines read, the names kept, the lines refused. */
   alternateNames?: { rowsRead: number; kept: number; rejected: { row: number; reason: string }[] };
   seconds: number;
+  /** What the reader chose, e.g. a GIS file's layer and the coordinate conversion used. */
+  notes?: string[];
 }
 
 /** One row as a reader yields it (in arrays of rows): a feature to check, or why it could not be read. */
@@ -77,9 +83,11 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   assertReadable(filePath);
   const adminCodeFiles = options.adminCodesFile === undefined ? [] : typeof options.adminCodesFile === 'string' ? [options.adminCodesFile] : options.adminCodesFile;
   for (const side of [...adminCodeFiles, ...(options.alternateNamesFile === undefined ? [] : [options.alternateNamesFile])]) assertReadable(side);
+  // Shapefiles and GeoPackages are binary by nature; their readers check them.
+  const gis = options.format === 'shapefile' || options.format === 'gpkg';
   // A zip archive (not a workbook) given as the dump layout is the dump as distributed: its data member
   // is read (file-input.ts).
-  const notTextKind = notText(fileHead(filePath));
+  const notTextKind = gis ? undefined : notText(fileHead(filePath));
   const zipped = options.format === 'geonames' && notTextKind !== undefined && isZipFile(filePath) && !/workbook|spreadsheet|Office/.test(notTextKind.format);
   const kind = zipped ? undefined : notTextKind;
   if (kind) throw new Error(`${basename(filePath)} is ${kind.format}, not a gazetteer in ${options.format === 'geojson' ? 'GeoJSON' : 'CSV or tab-separated text'}: ${kind.advice}`);
@@ -90,6 +98,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   const inspected = await inspectInput(filePath);
   const format: InputFormat = inspected.damagedUtf8 || zipped ? { ...inspected, encoding: 'utf-8', bomBytes: zipped ? 0 : inspected.bomBytes } : inspected;
   const citation = options.citation?.trim() || standInCitation(filePath, format, new Date());
+  const notes: string[] = [];
   const session = store.beginImport(sourceId);
   const rejected: { row: number; reason: string }[] = [];
   let alternateNames: ImportSummary['alternateNames'];
@@ -101,10 +110,13 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     const adminNames = await readAdminCodes(session, adminCodeFiles);
     // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
     // young-generation collection cost heap until the next full one.
-    input = zipped
-      ? (await openFileInput(filePath, READ_BYTES)).stream.pipe(iconv.decodeStream('utf-8')) as unknown as Readable
-      : decodedText(filePath, format, READ_BYTES);
-    const rows = options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames);
+    if (!gis) {
+      input = zipped
+        ? (await openFileInput(filePath, READ_BYTES)).stream.pipe(iconv.decodeStream('utf-8')) as unknown as Readable
+        : decodedText(filePath, format, READ_BYTES);
+    }
+    const rows = input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
+      : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames);
     for await (const batch of rows) {
       for (const { row, raw } of batch) {
         rowsRead++;
@@ -118,7 +130,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     }
     // A source with no feature would only look like a success: nothing is registered.
     if (imported === 0) throw new Error(nothingKept(filePath, rowsRead, rejected));
-    session.commit({ citation, licence: options.licence ?? null, contentHash: format.sha256, format: options.format, priority: options.priority });
+    session.commit({ citation, licence: options.licence ?? null, contentHash: gis ? gisContentHash(filePath, format.sha256) : format.sha256, format: options.format, priority: options.priority });
   } catch (error) {
     session.rollback();
     input?.destroy();
@@ -128,7 +140,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   return {
     sourceId, citation, citationIsStandIn: !options.citation?.trim(), encoding: format.encoding,
     rowsRead, imported, rejected, ...(alternateNames !== undefined && { alternateNames }),
-    seconds: Number(process.hrtime.bigint() - started) / 1e9,
+    seconds: Number(process.hrtime.bigint() - started) / 1e9, ...(notes.length > 0 ? { notes } : {}),
   };
 }
 
@@ -206,8 +218,29 @@ export function formatFromFileName(filePath: string): ImportFormat | null {
   const extension = extname(filePath).toLowerCase();
   if (extension === '.csv') return 'csv';
   if (extension === '.geojson' || extension === '.json') return 'geojson';
-  if (extension === '.txt' || extension === '.tsv' || extension === '.zip') return 'geonames';
+  if (extension === '.txt' || extension === '.tsv') return 'geonames';
+  if (extension === '.zip') return zipNamesShapefile(filePath) ? 'shapefile' : 'geonames';
+  if (extension === '.shp') return 'shapefile';
+  if (extension === '.gpkg') return 'gpkg';
   return null;
+}
+
+/**
+ * Whether a zip holds a shapefile: its central directory, at the end of the file (ZIP APPNOTE 4.3.12),
+ * names a `.shp` member. The tail read covers the directory of any zip of a few hundred members; a zip
+ * that names none is taken as the world-gazetteer dump as distributed.
+ */
+function zipNamesShapefile(filePath: string): boolean {
+  const tailBytes = 64 * 1024;
+  const fd = openSync(filePath, 'r');
+  try {
+    const size = fstatSync(fd).size;
+    const tail = Buffer.alloc(Math.min(size, tailBytes));
+    readSync(fd, tail, 0, tail.length, size - tail.length);
+    return /\.shp(?![a-z0-9])/i.test(tail.toString('latin1'));
+  } finally {
+    closeSync(fd);
+  }
 }
 
 function defaultSourceId(filePath: string): string {

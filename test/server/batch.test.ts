@@ -5,13 +5,16 @@
  * georeferenceVerificationStatus recommended values: "verified by data custodian", "requires georeference").
  */
 import { methodChoiceValues } from '../../src/georef/method-choices.ts';
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
 import { parseLocality } from '../../src/parse/index.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer } from '../../src/server/app.ts';
+import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
 
 let db: TempDatabase;
@@ -119,6 +122,20 @@ describe('a batch from upload to reviewed file', () => {
     expect(term(rows[second.row - 1], 'georeferenceVerificationStatus')).toBe('requires georeference');
     expect(term(rows[second.row - 1], 'decimalLatitude')).toBe('');
     expect(term(rows[second.row - 1], 'georeferenceRemarks')).toMatch(/proposed georeference rejected \(was -45\./);
+
+    // The same reviewed rows for a GIS: GeoJSON (RFC 7946) and a GeoPackage that GDAL's ogrinfo reads.
+    const geojson = await (await fetch(`${server.url}/api/v1/batches/${jobId}/reviewed.geojson`)).json();
+    expect(geojson.features.map((f: { properties: Record<string, string> }) => f.properties.georeferenceVerificationStatus)).toEqual(rows.map((r) => term(r, 'georeferenceVerificationStatus')));
+    expect(geojson.features[second.row - 1].geometry).toBeNull();
+    const gpkg = await fetch(`${server.url}/api/v1/batches/${jobId}/reviewed.gpkg`);
+    expect(gpkg.headers.get('content-disposition')).toMatch(/attachment; filename="whereabouts-reviewed-.*\.gpkg"/);
+    const bytes = Buffer.from(await gpkg.arrayBuffer());
+    expect(bytes.subarray(0, 16).toString('latin1')).toBe('SQLite format 3\0');
+    if (gdalAvailable('test/server/batch.test.ts (reviewed.gpkg)')) {
+      const path = join(mkdtempSync(join(tmpdir(), 'whereabouts-reviewed-')), 'reviewed.gpkg');
+      writeFileSync(path, bytes);
+      expect(ogrFeatures(path, 'points').map((f) => f.fields.georeferenceVerificationStatus)).toEqual(rows.map((r) => term(r, 'georeferenceVerificationStatus')));
+    }
   });
 
   it('takes another candidate for an ambiguous record and recomputes its terms', async () => {

@@ -66,6 +66,6 @@ describe('whereabouts import and gazetteer', () => {
   it('says what is wrong with a bad command line', async () => {
     await expect(run('gazetteer', 'remove', 'nothing')).rejects.toThrow("no gazetteer source 'nothing'");
     await expect(run('import', join(directory, 'places.xyz'))).rejects.toThrow('cannot tell the format of');
-    await expect(run('import', join(FIXTURES, 'places.csv'), '--format', 'xml')).rejects.toThrow("--format must be one of csv, geojson, geonames, not 'xml'");
+    await expect(run('import', join(FIXTURES, 'places.csv'), '--format', 'xml')).rejects.toThrow("--format must be one of csv, geojson, geonames, shapefile, gpkg, not 'xml'");
   });
 });

@@ -8,7 +8,7 @@ import { budgetSection, candidatesSection, interpretationSection, statusBadge, s
 
 const POLL_MS = 400;
 
-export function startBatch({ form, progress, progressLine, progressText, review, list, recordPanel, map, filters, downloadLink }) {
+export function startBatch({ form, progress, progressLine, progressText, review, list, recordPanel, map, filters, downloadLink, gisLinks }) {
   let jobId;
   let records = [];
   let current = -1;
@@ -59,6 +59,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
   async function openReview() {
     review.hidden = false;
     downloadLink.href = `/api/v1/batches/${jobId}/reviewed.csv`;
+    for (const [format, link] of Object.entries(gisLinks)) link.href = `/api/v1/batches/${jobId}/reviewed.${format}`;
     map.map.invalidateSize();
     await refreshList(true);
   }

@@ -40,6 +40,7 @@ async function start() {
     recordPanel: $('review-record'),
     map: maps.batch,
     downloadLink: $('batch-download'),
+    gisLinks: { geojson: $('batch-download-geojson'), gpkg: $('batch-download-gpkg') },
     filters: { status: $('r-status'), review: $('r-review'), flag: $('r-flag'), localityType: $('r-type'), radiusMin: $('r-radius-min'), radiusMax: $('r-radius-max') },
   });
   document.body.dataset.ready = 'true';

@@ -3,9 +3,11 @@ import type cliProgress from 'cli-progress';
 import type { ArchiveSummary } from '../../batch/archive/archive-job.ts';
 import type { BatchProgressEvent } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
+import { resultFormat, RESULT_FORMATS, type ResultFormat } from '../../output/result-formats.ts';
 
 interface BatchCommandOptions {
   out?: string;
+  format: ResultFormat;
   resume?: string;
   quiet?: boolean;
   threads?: number;
@@ -32,6 +34,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .description('georeference every row of a CSV or tab-separated file or of a Darwin Core Archive\'s occurrence core, as a job that can be stopped and resumed')
     .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252; or a Darwin Core Archive, a zip with meta.xml, whose output is a new archive), or - for standard input')
     .option('--out <file>', 'the output file, or - for standard output', '-')
+    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done)`, resultFormat, 'csv' as ResultFormat)
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
     .option('--quiet', 'no progress bar')
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
@@ -42,12 +45,20 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
+      if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
-      const { startBatch } = await import('../../batch/archive/archive-job.ts');
+      const [{ startBatch }, { batchCsvPath, writeResults }, { isZipFile }] = await Promise.all([
+        import('../../batch/archive/archive-job.ts'),
+        import('../../batch/gis-output.ts'),
+        import('../../batch/archive/zip.ts'),
+      ]);
+      if (opts.format !== 'csv' && input && input !== '-' && isZipFile(input)) {
+        throw new Error(`--format ${opts.format} applies to CSV and tab-separated input: a zip (a Darwin Core Archive) is answered with a new archive`);
+      }
       const { jobId, methodChoices, done } = await startBatch({
         dbPath: dbPath(),
         input,
-        output: opts.out,
+        output: batchCsvPath(opts.format, opts.out ?? '-'),
         resume: opts.resume,
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
@@ -61,6 +72,9 @@ export function registerBatch(program: Command, dbPath: () => string): void {
       try {
         const summary = await done;
         bar?.stop();
+        const output = opts.out ?? '-';
+        await writeResults({ format: opts.format, csvPath: summary.outputPath, delimiter: summary.delimiter, output, runTimestamp: summary.runTimestamp });
+        summary.outputPath = opts.format === 'csv' ? summary.outputPath : output;
         if (!opts.quiet) process.stderr.write(describe(summary));
       } catch (error) {
         bar?.stop();

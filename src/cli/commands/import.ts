@@ -12,9 +12,20 @@ interface ImportCommandOptions {
   alternateNames?: string;
   priority?: number | null;
   defaultRadius?: Record<string, number>;
+  layer?: string;
+  nameField?: string;
+  idField?: string;
+  alternateNamesField?: string;
+  typeField?: string;
+  featureType?: string;
+  countryCodeField?: string;
+  countryCode?: string;
+  stateProvinceField?: string;
+  countyField?: string;
+  encoding?: string;
 }
 
-const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames'];
+const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames', 'shapefile', 'gpkg'];
 /** Refused rows listed one by one in the summary; the rest are counted. */
 const LISTED_REJECTIONS = 20;
 
@@ -25,7 +36,7 @@ const LISTED_REJECTIONS = 20;
 export function registerImport(program: Command, dbPath: () => string): void {
   program
     .command('import')
-    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, or the tab-separated world-gazetteer dump layout, plain or zipped)')
+    .description('import a gazetteer file (CSV, GeoJSON FeatureCollection, the tab-separated world-gazetteer dump layout plain or zipped, a shapefile or a GeoPackage)')
     .argument('<file>', 'the gazetteer file')
     .option('--format <format>', `one of ${FORMATS.join(', ')} (default: from the file extension)`)
     .option('--source <citation>', 'how to cite this gazetteer, e.g. "Survey of towns, 2024, Land Office" (without it a stand-in is built from the file name, size and sha256, to be replaced)')
@@ -36,6 +47,17 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--alternate-names <file>', 'the dump layout\'s alternate-names file (10 columns, plain or zipped): names in other languages, former and colloquial names')
     .option('--priority <rank>', 'where several sources hold the same place, cite this one at this rank (1 first; see gazetteer priority)', parsePriority)
     .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
+    .option('--layer <name>', 'GIS files: the GeoPackage layer, or the shapefile inside a zip holding several')
+    .option('--name-field <attribute>', 'GIS files: the attribute holding the name (default: name)')
+    .option('--id-field <attribute>', "GIS files: the attribute holding the feature id (default: the feature's number)")
+    .option('--alternate-names-field <attribute>', 'GIS files: the attribute holding alternate names, |-separated')
+    .option('--type-field <attribute>', 'GIS files: the attribute holding the feature type')
+    .option('--feature-type <type>', 'GIS files: one feature type for every feature (county, stateProvince, country, or any other type)')
+    .option('--country-code-field <attribute>', 'GIS files: the attribute holding the ISO 3166-1 alpha-2 country code')
+    .option('--country-code <code>', 'GIS files: one country code for every feature')
+    .option('--state-province-field <attribute>', 'GIS files: the attribute holding the state or province a feature lies in')
+    .option('--county-field <attribute>', 'GIS files: the attribute holding the county a feature lies in')
+    .option('--encoding <name>', "shapefiles: the .dbf's encoding when it has no .cpg (default windows-1252)")
     .action(async (file: string, opts: ImportCommandOptions) => {
       const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
@@ -54,6 +76,11 @@ export function registerImport(program: Command, dbPath: () => string): void {
           alternateNamesFile: opts.alternateNames,
           priority: opts.priority,
           radii: opts.defaultRadius,
+          gis: {
+            layer: opts.layer, nameField: opts.nameField, idField: opts.idField, alternateNamesField: opts.alternateNamesField,
+            featureTypeField: opts.typeField, featureType: opts.featureType, countryCodeField: opts.countryCodeField, countryCode: opts.countryCode,
+            stateProvinceField: opts.stateProvinceField, countyField: opts.countyField, encoding: opts.encoding,
+          },
           onProgress: (rows) => bar?.update(rows),
         });
         bar?.stop();
@@ -87,6 +114,7 @@ export function collectRadius(value: string, previous: Record<string, number> = 
 export function formatSummary(summary: ImportSummary): string {
   const lines = [
     `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
+    ...(summary.notes ?? []).map((note) => `  ${note}`),
     ...(summary.encoding === 'utf-8' ? [] : [`  read as ${summary.encoding} (the file is not UTF-8)`]),
     ...(summary.citationIsStandIn
       ? [`  citation: ${summary.citation}`, `  this stand-in only names the file: replace it with a real citation by importing again with --source "<who, what, year, where from>"`]

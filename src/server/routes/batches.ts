@@ -22,7 +22,7 @@ export interface BatchRoutesOptions {
 /**
  * Batch upload and review: POST /api/v1/batches (multipart, field `file`), GET …/:jobId (progress,
  * for polling), GET …/:jobId/records (the review list), GET and PUT …/records/:row (one record, its
- * decision), GET …/:jobId/reviewed.csv (the reviewed file).
+ * decision), GET …/:jobId/reviewed.csv (the reviewed file; also reviewed.geojson and reviewed.gpkg).
  * @example await app.register(batchRoutes, { batches, uploadLimit: 50 * 1024 * 1024 })
  */
 export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async (scope, { batches, uploadLimit }) => {
@@ -157,4 +157,20 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
         .send(text);
     },
   );
+
+  const gisFormats = [
+    { format: 'geojson', type: 'application/geo+json', summary: 'The reviewed batch output as a GeoJSON FeatureCollection (RFC 7946)' },
+    { format: 'gpkg', type: 'application/geopackage+sqlite3', summary: 'The reviewed batch output as a GeoPackage: layers points and footprints' },
+  ] as const;
+  for (const { format, type, summary } of gisFormats) {
+    scope.get(
+      `/api/v1/batches/:jobId/reviewed.${format}`,
+      { schema: { summary, tags: ['batch'], params: jobParams, produces: [type] } },
+      async (request, reply) =>
+        reply
+          .header('content-type', type)
+          .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.${format}"`)
+          .send(await batches.reviewedFile(request.params.jobId, format)),
+    );
+  }
 };

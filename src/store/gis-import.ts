@@ -1,0 +1,318 @@
+/**
+ * Features of GIS files for the gazetteer: shapefiles (a .shp with its .dbf, .prj and .cpg, or all of
+ * them in a .zip; ESRI Shapefile Technical Description, 1998) and GeoPackages (OGC GeoPackage Encoding
+ * Standard 1.3, OGC 12-128), their attributes mapped to the gazetteer's columns by the caller's field
+ * names, their coordinates converted from the file's coordinate system to WGS84 (src/geodesy/crs.ts).
+ * Each feature comes out as a RawFeature with GeoJSON geometry, checked and measured like a GeoJSON
+ * import's (feature-record.ts).
+ */
+import { createHash } from 'node:crypto';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { basename, dirname, extname, join } from 'node:path';
+import Database from 'better-sqlite3';
+import { unzipSync } from 'fflate';
+import type { Geometry, Position } from 'geojson';
+import * as shapefile from 'shapefile';
+import { crsToWgs84, type CrsToWgs84 } from '../geodesy/crs.ts';
+import type { RawFeature } from './feature-record.ts';
+
+/** Which attribute gives each gazetteer column, or a value for every feature. */
+export interface GisFieldMap {
+  /** The layer: a GeoPackage table, or the shapefile's name inside a zip holding several. */
+  layer?: string;
+  /** Attribute with the name (default "name"). */
+  nameField?: string;
+  /** Attribute with the feature id (default: the feature's number in the layer). */
+  idField?: string;
+  /** Attribute with alternate names, `|`-separated. */
+  alternateNamesField?: string;
+  /** Attribute with the feature type, or … */
+  featureTypeField?: string;
+  /** … one feature type for every feature (e.g. "county", "stateProvince"). */
+  featureType?: string;
+  countryCodeField?: string;
+  /** One country code (ISO 3166-1 alpha-2) for every feature. */
+  countryCode?: string;
+  stateProvinceField?: string;
+  countyField?: string;
+  /** Encoding of a shapefile's .dbf when it has no .cpg (default windows-1252, the dBASE convention). */
+  encoding?: string;
+}
+
+export type GisFormat = 'shapefile' | 'gpkg';
+
+/** A feature read, or why it could not be, with its number in the layer (from 1). */
+export interface GisRow {
+  row: number;
+  raw: RawFeature | string;
+}
+
+/**
+ * The features of a GIS file, converted to WGS84; `notes` gets the layer and coordinate system used.
+ * Errors that concern the whole file (no layer, unknown datum, missing .dbf) are thrown before any row.
+ * @example for await (const rows of readGisFile('units.zip', 'shapefile', { featureType: 'county' }, notes)) …
+ */
+export async function* readGisFile(filePath: string, format: GisFormat, map: GisFieldMap, notes: string[]): AsyncGenerator<GisRow[]> {
+  const layer = format === 'gpkg' ? geoPackageLayer(filePath, map) : await shapefileLayer(filePath, map);
+  notes.push(`layer ${layer.name}: ${layer.crs.description}`);
+  const fields = new Set(layer.fields);
+  for (const [option, field] of Object.entries(fieldOptions(map))) {
+    if (field !== undefined && !fields.has(field)) {
+      throw new Error(`${filePath}: layer ${layer.name} has no attribute "${field}" (${option}); its attributes: ${layer.fields.join(', ')}`);
+    }
+  }
+  if (!fields.has(map.nameField ?? 'name')) {
+    throw new Error(`${filePath}: layer ${layer.name} has no attribute "name": give the one holding names with --name-field (attributes: ${layer.fields.join(', ')})`);
+  }
+  let row = 0;
+  for await (const { properties, geometry, problem } of layer.features) {
+    row++;
+    yield [{ row, raw: problem ?? rawFeature(properties, geometry === null ? null : reproject(geometry, layer.crs), map, row) }];
+  }
+}
+
+/** The attribute-name options, by their option names, for the message when one is missing. */
+function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
+  return {
+    '--name-field': map.nameField, '--id-field': map.idField, '--alternate-names-field': map.alternateNamesField,
+    '--type-field': map.featureTypeField, '--country-code-field': map.countryCodeField,
+    '--state-province-field': map.stateProvinceField, '--county-field': map.countyField,
+  };
+}
+
+function rawFeature(properties: Record<string, unknown>, geometry: Geometry | null, map: GisFieldMap, row: number): RawFeature {
+  const value = (field: string | undefined) => {
+    const v = field === undefined ? undefined : properties[field];
+    return v === null || v === undefined ? undefined : typeof v === 'string' ? v.trim() : String(v);
+  };
+  const alternates = value(map.alternateNamesField);
+  return {
+    id: value(map.idField) ?? String(row),
+    name: value(map.nameField ?? 'name'),
+    alternateNames: alternates ? alternates.split('|') : [],
+    featureType: map.featureType ?? value(map.featureTypeField),
+    countryCode: map.countryCode ?? value(map.countryCodeField),
+    stateProvince: value(map.stateProvinceField),
+    county: value(map.countyField),
+    geometry,
+  };
+}
+
+interface Layer {
+  name: string;
+  fields: string[];
+  crs: CrsToWgs84;
+  /** Each feature's attributes and geometry, or why its geometry cannot be read. */
+  features: AsyncIterable<{ properties: Record<string, unknown>; geometry: Geometry | null; problem?: string }>;
+}
+
+/** Every position of a geometry through the conversion to WGS84. */
+function reproject(geometry: Geometry, crs: CrsToWgs84): Geometry {
+  const each = (coordinates: unknown): unknown =>
+    typeof (coordinates as Position)[0] === 'number' ? crs.forward(coordinates as Position) : (coordinates as unknown[]).map(each);
+  if (geometry.type === 'GeometryCollection') return { ...geometry, geometries: geometry.geometries.map((g) => reproject(g, crs)) };
+  return { ...geometry, coordinates: each(geometry.coordinates) } as Geometry;
+}
+
+/** A shapefile's parts, from a zip or from the files beside the .shp, read whole. */
+async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer> {
+  const parts = extname(filePath).toLowerCase() === '.zip' ? zippedShapefile(filePath, map.layer) : shapefileBeside(filePath);
+  if (!parts.dbf) throw new Error(`${filePath}: the shapefile ${parts.name} has no .dbf beside it, so its features have no names`);
+  if (!parts.prj) {
+    throw new Error(`${filePath}: the shapefile ${parts.name} has no .prj, so its coordinate system is unknown: add the .prj (or reproject it to WGS84 with one)`);
+  }
+  const crs = crsToWgs84(Buffer.from(parts.prj).toString('utf8'), `${parts.name}.prj`);
+  const encoding = map.encoding ?? codePage(parts.cpg) ?? 'windows-1252';
+  try {
+    new TextDecoder(encoding);
+  } catch {
+    throw new Error(`${filePath}: the .dbf encoding "${encoding}" (${map.encoding ? '--encoding' : `${parts.name}.cpg`}) is not one whereabouts knows; give --encoding, e.g. windows-1252, iso-8859-1 or utf-8`);
+  }
+  const source = await shapefile.open(toArrayBuffer(parts.shp), toArrayBuffer(parts.dbf), { encoding });
+  const fields = dbfFieldNames(parts.dbf, encoding);
+  async function* features() {
+    for (let next = await source.read(); !next.done; next = await source.read()) {
+      yield { properties: (next.value.properties ?? {}) as Record<string, unknown>, geometry: next.value.geometry as Geometry | null };
+    }
+  }
+  return { name: parts.name, fields, crs, features: features() };
+}
+
+interface ShapefileParts {
+  name: string;
+  shp: Uint8Array;
+  dbf?: Uint8Array;
+  prj?: Uint8Array;
+  cpg?: Uint8Array;
+}
+
+function zippedShapefile(filePath: string, layer: string | undefined): ShapefileParts {
+  const files = unzipSync(readFileSync(filePath), { filter: (f) => /\.(shp|dbf|prj|cpg)$/i.test(f.name) && !f.name.startsWith('__MACOSX/') });
+  const stems = [...new Set(Object.keys(files).filter((f) => /\.shp$/i.test(f)).map((f) => f.slice(0, -4)))];
+  const named = layer === undefined ? stems : stems.filter((s) => basename(s).toLowerCase() === layer.toLowerCase());
+  if (named.length !== 1) {
+    const listed = stems.map((s) => basename(s)).join(', ') || 'none';
+    throw new Error(
+      layer === undefined && stems.length > 1
+        ? `${filePath} holds several shapefiles (${listed}): choose one with --layer`
+        : `${filePath} holds no shapefile${layer === undefined ? '' : ` named ${layer}`} (shapefiles in it: ${listed})`,
+    );
+  }
+  const stem = named[0]!;
+  const part = (ext: string) => files[Object.keys(files).find((f) => f.toLowerCase() === `${stem}.${ext}`.toLowerCase()) ?? ''];
+  return { name: basename(stem), shp: part('shp')!, dbf: part('dbf'), prj: part('prj'), cpg: part('cpg') };
+}
+
+function shapefileBeside(shpPath: string): ShapefileParts {
+  const [dbf, prj, cpg] = SIDE_FILES.map((ext) => {
+    const path = sideFile(shpPath, ext);
+    return path === undefined ? undefined : readFileSync(path);
+  });
+  return { name: basename(shpPath, extname(shpPath)), shp: readFileSync(shpPath), dbf, prj, cpg };
+}
+
+const SIDE_FILES = ['dbf', 'prj', 'cpg'] as const;
+
+/** The file beside a .shp with another extension (any case), if there is one. */
+function sideFile(shpPath: string, ext: string): string | undefined {
+  const stem = basename(shpPath, extname(shpPath));
+  const found = readdirSync(dirname(shpPath)).find((f) => f.toLowerCase() === `${stem}.${ext}`.toLowerCase());
+  return found && existsSync(join(dirname(shpPath), found)) ? join(dirname(shpPath), found) : undefined;
+}
+
+/**
+ * The source's content hash: the file's own sha256, or for a .shp with side files (.dbf, .prj, .cpg) the
+ * sha256 of all of them in that order, so that a changed name or coordinate system changes it too.
+ * @example gisContentHash('units.zip', '9f86d0…') // '9f86d0…'
+ */
+export function gisContentHash(filePath: string, fileSha256: string): string {
+  const sides = extname(filePath).toLowerCase() === '.shp' ? SIDE_FILES.flatMap((ext) => sideFile(filePath, ext) ?? []) : [];
+  if (sides.length === 0) return fileSha256;
+  const hash = createHash('sha256');
+  for (const path of [filePath, ...sides]) hash.update(readFileSync(path));
+  return hash.digest('hex');
+}
+
+/** A .cpg's code page as an encoding name TextDecoder knows ("1252", "CP1252" → windows-1252; "UTF-8" as is). */
+function codePage(cpg: Uint8Array | undefined): string | undefined {
+  if (!cpg) return undefined;
+  const text = Buffer.from(cpg).toString('latin1').trim();
+  const number = /^(?:CP|ANSI\s*)?(\d+)$/i.exec(text)?.[1];
+  if (number) return number === '65001' ? 'utf-8' : `windows-${number}`;
+  if (/^8859_?(\d+)$/.test(text)) return `iso-8859-${/(\d+)$/.exec(text)![1]}`;
+  return text || undefined;
+}
+
+/** The .dbf's field names from its header (dBASE III: 32-byte descriptors from byte 32, ended by 0x0D). */
+function dbfFieldNames(dbf: Uint8Array, encoding: string): string[] {
+  const names: string[] = [];
+  const decoder = new TextDecoder(encoding);
+  for (let at = 32; at + 32 <= dbf.length && dbf[at] !== 0x0d; at += 32) {
+    const raw = dbf.subarray(at, at + 11);
+    const end = raw.indexOf(0);
+    names.push(decoder.decode(raw.subarray(0, end < 0 ? 11 : end)).trim());
+  }
+  return names;
+}
+
+function toArrayBuffer(bytes: Uint8Array): ArrayBuffer {
+  return bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+}
+
+/** A GeoPackage feature table (§2.1.6) with its geometry column (§2.1.5) and coordinate system (§1.1.2). */
+function geoPackageLayer(filePath: string, map: GisFieldMap): Layer {
+  const db = new Database(filePath, { readonly: true, fileMustExist: true });
+  try {
+    const tables = db.prepare("SELECT table_name FROM gpkg_contents WHERE data_type = 'features' ORDER BY table_name").pluck().all() as string[];
+    const name = map.layer ?? (tables.length === 1 ? tables[0] : undefined);
+    if (name === undefined || !tables.includes(name)) {
+      db.close();
+      throw new Error(
+        tables.length === 0 ? `${filePath} has no feature layer`
+          : map.layer === undefined ? `${filePath} has several layers (${tables.join(', ')}): choose one with --layer`
+          : `${filePath} has no layer ${map.layer} (its layers: ${tables.join(', ')})`,
+      );
+    }
+    const column = db.prepare('SELECT column_name, srs_id FROM gpkg_geometry_columns WHERE table_name = ?').get(name) as { column_name: string; srs_id: number };
+    const srs = db.prepare('SELECT organization, organization_coordsys_id AS code, definition FROM gpkg_spatial_ref_sys WHERE srs_id = ?').get(column.srs_id) as
+      { organization: string; code: number; definition: string } | undefined;
+    const where = `${basename(filePath)} layer ${name}`;
+    if (!srs || srs.definition.trim().toLowerCase() === 'undefined') throw new Error(`${where}: its coordinate system (srs_id ${column.srs_id}) is undefined, so its coordinates cannot be placed`);
+    const crs = crsToWgs84(srs.definition, `${where} (${srs.organization}:${srs.code})`);
+    const fields = (db.prepare(`SELECT name FROM pragma_table_info(?)`).pluck().all(name) as string[]).filter((f) => f !== column.column_name);
+    const statement = db.prepare(`SELECT * FROM "${name.replace(/"/g, '""')}"`);
+    async function* features() {
+      try {
+        for (const record of statement.iterate() as Iterable<Record<string, unknown>>) {
+          const blob = record[column.column_name] as Buffer | null;
+          delete record[column.column_name];
+          try {
+            yield { properties: record, geometry: blob === null ? null : geoPackageGeometry(blob) };
+          } catch (error) {
+            yield { properties: record, geometry: null, problem: (error as Error).message };
+          }
+        }
+      } finally {
+        db.close();
+      }
+    }
+    return { name, fields, crs, features: features() };
+  } catch (error) {
+    if (db.open) db.close();
+    throw error;
+  }
+}
+
+/**
+ * §2.1.3 GeoPackageBinary: "GP", version, flags (bit 0 byte order of the header, bits 1–3 envelope kind,
+ * bit 4 empty, bit 5 extended), srs_id, envelope, then the WKB (ISO 13249-3 / OGC Simple Features §8).
+ */
+function geoPackageGeometry(blob: Buffer): Geometry | null {
+  if (blob.toString('latin1', 0, 2) !== 'GP') throw new Error('a geometry is not GeoPackageBinary (no "GP" magic)');
+  const flags = blob[3]!;
+  if (flags & 0b10_0000) throw new Error('an extended GeoPackageBinary geometry cannot be read');
+  if (flags & 0b1_0000) return null;
+  const envelopeBytes = [0, 32, 48, 48, 64][(flags >> 1) & 0b111];
+  if (envelopeBytes === undefined) throw new Error('a GeoPackageBinary geometry has an invalid envelope code');
+  return new WkbReader(blob, 8 + envelopeBytes).geometry();
+}
+
+/** Well-known binary (ISO and extended Z/M type codes) to GeoJSON; Z and M values are dropped. */
+class WkbReader {
+  constructor(private readonly bytes: Buffer, private at: number) {}
+
+  geometry(): Geometry {
+    const little = this.bytes[this.at] === 1;
+    this.at += 1;
+    const code = little ? this.bytes.readUInt32LE(this.at) : this.bytes.readUInt32BE(this.at);
+    this.at += 4;
+    const iso = code & 0x0fff_ffff;
+    const type = iso % 1000;
+    const isoDims = Math.floor(iso / 1000);
+    const dims = 2 + (isoDims === 1 || isoDims === 3 || code & 0x8000_0000 ? 1 : 0) + (isoDims === 2 || isoDims === 3 || code & 0x4000_0000 ? 1 : 0);
+    if (code & 0x2000_0000) this.at += 4; // an extended SRID, not needed here
+    const uint = () => {
+      const v = little ? this.bytes.readUInt32LE(this.at) : this.bytes.readUInt32BE(this.at);
+      this.at += 4;
+      return v;
+    };
+    const point = (): Position => {
+      const p: number[] = [];
+      for (let d = 0; d < dims; d++, this.at += 8) p.push(little ? this.bytes.readDoubleLE(this.at) : this.bytes.readDoubleBE(this.at));
+      return p.slice(0, 2);
+    };
+    const points = () => Array.from({ length: uint() }, point);
+    const rings = () => Array.from({ length: uint() }, points);
+    const parts = <T extends Geometry>() => Array.from({ length: uint() }, () => this.geometry() as T);
+    switch (type) {
+      case 1: return { type: 'Point', coordinates: point() };
+      case 2: return { type: 'LineString', coordinates: points() };
+      case 3: return { type: 'Polygon', coordinates: rings() };
+      case 4: return { type: 'MultiPoint', coordinates: parts<{ type: 'Point'; coordinates: Position }>().map((g) => g.coordinates) };
+      case 5: return { type: 'MultiLineString', coordinates: parts<{ type: 'LineString'; coordinates: Position[] }>().map((g) => g.coordinates) };
+      case 6: return { type: 'MultiPolygon', coordinates: parts<{ type: 'Polygon'; coordinates: Position[][] }>().map((g) => g.coordinates) };
+      case 7: return { type: 'GeometryCollection', geometries: parts() };
+      default: throw new Error(`WKB geometry type ${code} is not one whereabouts reads`);
+    }
+  }
+}
