@@ -1,3 +1,9 @@
+/**
+ * Splitting a locality text into its clauses and reading the ones that are not a locality: unit words
+ * ("County", "Municipio de"), written hierarchies ("COUNTRY: State: place"), elevations, and texts that
+ * name no place at all.
+ * @example unitWordLevel(tokenize('Municipio')[0]) // 'municipality'
+ */
 import type { AdministrativeContext, AdministrativeLevel, Language, NamedUnit } from './types.ts';
 import type { Token } from './tokens.ts';
 import * as L from './lexicon.ts';

@@ -1,3 +1,9 @@
+/**
+ * Coordinates written in a locality text or a verbatim coordinates field: decimal degrees, degrees and
+ * minutes, degrees, minutes and seconds, and UTM references, each with the precision its writing gives
+ * (docs/method.md §5.3). Values stay in the datum they were written in; src/georef converts them.
+ * @example parseCoordinates('45°18′S 131°00′W') // { latitude: -45.3, longitude: -131, format: 'degrees-minutes', precisionDegrees: 1/60, … }
+ */
 import type { WrittenCoordinates } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
 import { powerOfTen } from './numbers.ts';

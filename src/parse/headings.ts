@@ -1,3 +1,8 @@
+/**
+ * Headings as written: compass points of the 4-, 8-, 16- and 32-point rose ("NE", "N.N.E.", "NbE"),
+ * bearings in degrees, and "toward" bearings, each as a true azimuth with its half-width Δ (docs/method.md §5.2).
+ * @example compassPoint('ne') // { azimuth: 45, kind: 'rose8' }
+ */
 import type { WrittenHeading } from './types.ts';
 import type { Token } from './tokens.ts';
 import { powerOfTen } from './numbers.ts';

@@ -2,6 +2,7 @@
  * Words of locality texts in English, Spanish, Portuguese and French, lower-cased with accents removed
  * (the tokenizer's `norm`). Multi-word phrases are arrays of norms. Kept together so that a curator can
  * see, in one place, every word the parser gives a meaning to.
+ * @example APPROXIMATION_WORDS.has('circa') // true
  */
 
 const set = (words: string): ReadonlySet<string> => new Set(words.split(' '));

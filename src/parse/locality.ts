@@ -1,3 +1,8 @@
+/**
+ * Reading one locality clause: the feature names and the offsets from them (distance, heading, path),
+ * place-first and terse forms included, and the kind of place a generic word names ("Laguna", "Fazenda").
+ * @example featureKindOf('Laguna Negra') // 'water'
+ */
 import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, WrittenDistance, WrittenHeading } from './types.ts';
 import { fold, type Token } from './tokens.ts';
 import { readNumberAt } from './numbers.ts';

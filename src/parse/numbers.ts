@@ -1,3 +1,8 @@
+/**
+ * Numbers and ranges as written ("10", "1.5", "1 1/2", "3-5", "2,5"), with the precision read from how
+ * they are written, never from a converted value (docs/method.md §5.1).
+ * @example readDistanceNumber('1 1/2') // { value: 1.5, precision: 0.5, … }
+ */
 import { tokenize, type Token } from './tokens.ts';
 
 /** A number or range as written, with its precision read from the writing (docs/method.md §5.1). */

@@ -1,3 +1,8 @@
+/**
+ * Tokens of a locality text (numbers, words, symbols) with their offsets into the verbatim text and a
+ * folded form (lower case, accents removed) the lexicon is written in.
+ * @example tokenize('10 km NE').map((t) => t.kind) // ['number', 'word', 'word']
+ */
 /** One token of a locality text; offsets point into the verbatim text. */
 export interface Token {
   kind: 'number' | 'word' | 'symbol';

@@ -1,6 +1,7 @@
 /**
  * The parser's output: how a locality text was read. This is the contract between `src/parse`
  * and `src/georef`; every field is plain data so it can be shown to a curator and serialised.
+ * @example parseLocality('S of Millbrook') // { type: 'heading-only', features: ['Millbrook'], offsets: [{ heading: { azimuth: 180, … } }], … }
  */
 
 /** Units a distance can be written in (leagues vary by country and period: see src/parse/units.ts). */

@@ -1,3 +1,8 @@
+/**
+ * Distance units as written in four languages and their length in meters, the league with its
+ * documented range.
+ * @example toMeters(3, 'mi') // 4828.032
+ */
 import type { DistanceUnit } from './types.ts';
 
 /**
