@@ -136,6 +136,20 @@ describe('batch --sensitive-taxa', () => {
   }, 180_000);
 });
 
+describe('batch --sensitive-taxa --format geojson', () => {
+  it('puts the generalised rows at their cell centres (the GeoJSON is made from the generalised CSV)', async () => {
+    const geojson = JSON.parse(await batch(input, 'generalised.geojson', '--sensitive-taxa', taxa, '--format', 'geojson')) as { features: { geometry: { coordinates: number[] } | null; properties: Record<string, string> }[] };
+    const listed = geojson.features.filter((f) => f.properties.scientificName === 'Verdemaria lindoensis' && f.geometry);
+    expect(listed.length).toBeGreaterThan(0);
+    for (const f of listed) {
+      // GeoJSON positions are longitude, latitude (RFC 7946 §3.1.1): the centre of a 0.1° cell.
+      expect(f.geometry!.coordinates.map((c) => c.toFixed(2))).toEqual([f.properties.proposed_decimalLongitude, f.properties.proposed_decimalLatitude]);
+      for (const c of f.geometry!.coordinates) expect(Math.abs((Math.abs(c) * 100) % 10 - 5)).toBeLessThan(1e-6);
+      expect(f.properties.dataGeneralizations).toContain('0.1° grid cell');
+    }
+  }, 180_000);
+});
+
 describe('batch --sensitive-column', () => {
   it('generalises the marked rows to the grid of --generalise-to', async () => {
     const out = rowsOf(await batch(marked, 'marked-out.csv', '--sensitive-column', 'withhold', '--generalise-to', '0.1'));
