@@ -64,7 +64,7 @@ async function readResultTable(path: string, delimiter: Delimiter): Promise<{ co
   const first = await records.next();
   if (first.done) throw new Error(`the batch output ${path} is empty`);
   const columns = uniqueColumnNames(first.value.fields);
-  const rowOf = resultRowReader(columns.length);
+  const rowOf = resultRowReader(first.value.fields);
   async function* rows(): AsyncGenerator<ResultRow> {
     for (let next = await records.next(); !next.done; next = await records.next()) yield rowOf(next.value.fields);
   }

@@ -16,7 +16,9 @@ import Tinypool from 'tinypool';
 import { openGazetteer } from '../store/gazetteer-store.ts';
 import { unreadableRecord } from '../locate/georeference-record.ts';
 import type { LocateRequest } from '../locate/locate.ts';
-import { appendedLine, csvLine, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
+import { appendedLine, csvLine, groupFields, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
+import { GENERALISATION_TERMS, generaliseRecord, type WithheldTerm } from '../record/generalised-record.ts';
+import { sensitiveGrid, type GeneralisationSettings } from './sensitive-records.ts';
 import { checkCoordinates } from '../record/coordinate-check.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
@@ -78,6 +80,12 @@ export interface BatchJobOptions {
    * job's start. Every part of one input needs the same one.
    */
   runTimestamp?: string;
+  /**
+   * Generalise the rows of sensitive taxa (or marked rows) to a grid cell, keeping their precise georeference
+   * only in the job database (table batch_withheld); the output then has the columns dataGeneralizations
+   * and informationWithheld. Absent: the output is as without it, byte for byte.
+   */
+  generalise?: GeneralisationSettings;
   /** Called after each committed step. */
   onProgress?: (event: BatchProgressEvent) => void;
   /** Where output '-' goes (default process.stdout) and where input '-' comes from (default process.stdin). */
@@ -170,7 +178,11 @@ interface StartedJob {
 }
 
 function settingsOf(options: BatchJobOptions): string {
-  const settings: BatchSettings = { administrativeFallback: Boolean(options.administrativeFallback), coverAmbiguous: Boolean(options.coverAmbiguous) };
+  const settings: BatchSettings & { generalise?: GeneralisationSettings } = {
+    administrativeFallback: Boolean(options.administrativeFallback), coverAmbiguous: Boolean(options.coverAmbiguous),
+    // Only when asked, so that the settings (and with them an unfinished job's identity) are as before otherwise.
+    ...(options.generalise ? { generalise: options.generalise } : {}),
+  };
   return JSON.stringify(settings);
 }
 
@@ -380,6 +392,9 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
   const results = resultLookup(jobs, job.id);
+  const { generalise } = JSON.parse(job.settings) as { generalise?: GeneralisationSettings };
+  const withhold = jobs.prepare('INSERT OR REPLACE INTO batch_withheld (job_id, row_number, precise) VALUES (?, ?, ?)');
+  let gridOf: ((fields: readonly string[]) => number | undefined) | undefined;
   const writeText = (text: string) => {
     const bytes = Buffer.from(text, 'utf8');
     // writeSync may write less than asked (a disk filling up); only bytes really written count.
@@ -404,8 +419,9 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
       if (!columns) {
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
+        gridOf = generalise ? sensitiveGrid(record.fields, generalise) : undefined;
         if (position === 0) {
-          const appended = csvLine(outputHeader(record.fields).slice(headerLength), delimiter);
+          const appended = csvLine(outputHeader(record.fields, generalise ? GENERALISATION_TERMS : []).slice(headerLength), delimiter);
           const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
           writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
@@ -422,7 +438,15 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         group = results(key);
       }
       if (inPart) {
-        const line = outputRow(record, headerLength, columns, context, group, tallies, delimiter);
+        let extra: string[] | undefined;
+        if (gridOf) {
+          const grid = record.problem ? undefined : gridOf(record.fields);
+          const generalised = group && grid !== undefined ? generaliseGroup(group, grid, delimiter) : undefined;
+          if (generalised?.withheld) withhold.run(job.id, rowIndex, JSON.stringify(generalised.withheld));
+          group = generalised?.group ?? group;
+          extra = generalised?.terms ?? ['', ''];
+        }
+        const line = outputRow(record, headerLength, columns, context, group, tallies, delimiter, extra);
         buffer.push(job.partCount === null ? line : partRowFrame(rowIndex, line));
       }
       if (rowIndex - rowsDone >= ROWS_PER_CHUNK) {
@@ -503,20 +527,21 @@ function outputRow(
   group: RenderedGroup | undefined,
   tallies: Record<string, number>,
   delimiter: Delimiter,
+  extra?: string[],
 ): string {
   const originals = originalLine(record, headerLength, delimiter);
   if (!group) {
     const unreadable = renderGroup({ fields: unreadableRecord(record.problem ?? 'the row could not be read', context), centers: [] }, delimiter);
     count(tallies, 'malformed');
     count(tallies, unreadable.status);
-    return `${originals}${delimiter}${appendedLine(unreadable, [], [], delimiter)}${LINE_END}`;
+    return `${originals}${delimiter}${appendedLine(unreadable, [], [], delimiter, extra)}${LINE_END}`;
   }
   const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
   const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
   const flags = [...(group.flags ?? []), ...check.flags];
   if (flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
-  return `${originals}${delimiter}${appendedLine(group, check.remarks, flags, delimiter)}${LINE_END}`;
+  return `${originals}${delimiter}${appendedLine(group, check.remarks, flags, delimiter, extra)}${LINE_END}`;
 }
 
 function count(tallies: Record<string, number>, key: string): void {
@@ -531,4 +556,19 @@ async function deliver(job: BatchJob, options: BatchJobOptions): Promise<void> {
   }
   await pipeline(createReadStream(job.partialPath), options.stdout ?? process.stdout, { end: false });
   rmSync(job.partialPath, { force: true });
+}
+
+/**
+ * A group's result generalised for one row, with the two terms' values and the precise fields the private
+ * store keeps (none when the row has no point to generalise).
+ */
+function generaliseGroup(group: RenderedGroup, gridDegrees: number, delimiter: Delimiter): { group: RenderedGroup; terms: string[]; withheld?: Record<WithheldTerm, string> } {
+  const fields = groupFields(group, delimiter);
+  const generalised = generaliseRecord(fields, gridDegrees);
+  if (generalised.terms.dataGeneralizations === '') return { group, terms: ['', ''] };
+  return {
+    group: renderGroup({ fields: generalised.fields, centers: group.centers, flags: group.flags }, delimiter, group.localityType),
+    terms: GENERALISATION_TERMS.map((t) => generalised.terms[t]),
+    withheld: generalised.withheld,
+  };
 }

@@ -7,6 +7,7 @@
  * batch's row writer only joins strings: the fields before georeferenceRemarks, the remarks (to which a
  * row's coordinate check may add), and the status after them.
  */
+import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { circleOf, type AdministrativeCenter, type Circle } from '../record/coordinate-check.ts';
@@ -66,17 +67,18 @@ export function csvDocument(rows: string[][]): string {
  * @example appendedColumnNames(['locality', 'decimalLatitude'])[0] // 'proposed_decimalLatitude'
  * @example appendedColumnNames(['http://rs.tdwg.org/dwc/terms/decimalLatitude'])[0] // 'proposed_decimalLatitude'
  */
-export function appendedColumnNames(inputHeader: readonly string[]): string[] {
+export function appendedColumnNames(inputHeader: readonly string[], moreTerms: readonly string[] = []): string[] {
   const present = new Set(inputHeader.map(termName));
-  return GEOREFERENCE_TERMS.map((term) => (present.has(term) ? `proposed_${term}` : term));
+  return [...GEOREFERENCE_TERMS, ...moreTerms].map((term) => (present.has(term) ? `proposed_${term}` : term));
 }
 
 /**
- * The batch output's header: the input's columns, the appended terms, the flags column.
+ * The batch output's header: the input's columns, the appended terms (and any more asked for, such as the
+ * generalisation terms), the flags column.
  * @example outputHeader(['locality']).at(-1) // 'whereabouts_coordinateFlags'
  */
-export function outputHeader(inputHeader: readonly string[]): string[] {
-  return [...inputHeader, ...appendedColumnNames(inputHeader), COORDINATE_FLAGS_COLUMN];
+export function outputHeader(inputHeader: readonly string[], moreTerms: readonly string[] = []): string[] {
+  return [...inputHeader, ...appendedColumnNames(inputHeader, moreTerms), COORDINATE_FLAGS_COLUMN];
 }
 
 /**
@@ -101,9 +103,20 @@ export function renderGroup(result: GroupFields, delimiter: Delimiter, localityT
  * One row's appended fields with more remarks, and its flags, as the end of a CSV line.
  * @example appendedLine(group, ['the record\'s coordinates … lie inside …'], ['agrees-with-locality'], ',')
  */
-export function appendedLine(group: RenderedGroup, moreRemarks: string[], flags: string[], delimiter: Delimiter): string {
+export function appendedLine(group: RenderedGroup, moreRemarks: string[], flags: string[], delimiter: Delimiter, moreTerms: string[] = []): string {
   const remarks = moreRemarks.length === 0 ? group.remarks : [group.remarks, ...moreRemarks].filter(Boolean).join('; ');
-  return [group.head, csvLine([remarks], delimiter), group.tail, csvLine([flags.join(FLAG_SEPARATOR)], delimiter)].join(delimiter);
+  return [group.head, csvLine([remarks], delimiter), group.tail, ...(moreTerms.length ? [csvLine(moreTerms, delimiter)] : []), csvLine([flags.join(FLAG_SEPARATOR)], delimiter)].join(delimiter);
+}
+
+/**
+ * A rendered group's Darwin Core fields read back (the inverse of renderGroup's text parts).
+ * @example groupFields(renderGroup(result, ','), ',').decimalLatitude // '-45.5000'
+ */
+export function groupFields(group: RenderedGroup, delimiter: Delimiter): Record<GeoreferenceTerm, string> {
+  const [head] = parse(group.head, { delimiter, relax_quotes: false }) as string[][];
+  const [tail] = parse(group.tail, { delimiter }) as string[][];
+  const values = [...head, group.remarks, ...tail];
+  return Object.fromEntries(GEOREFERENCE_TERMS.map((term, i) => [term, values[i] ?? ''])) as Record<GeoreferenceTerm, string>;
 }
 
 /**

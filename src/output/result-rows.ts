@@ -5,6 +5,8 @@
 import type { Feature, MultiPolygon, Point, Polygon } from 'geojson';
 import { footprintGeometry } from './footprint-geometry.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
+import { GENERALISATION_TERMS } from '../record/generalised-record.ts';
+import { termName } from '../record/term-names.ts';
 
 export interface ResultRow {
   /** The row's fields, one for each column, as the CSV holds them. */
@@ -35,13 +37,16 @@ export function uniqueColumnNames(header: readonly string[]): string[] {
 }
 
 /**
- * A function reading rows of a batch output with this many columns. The appended terms are the last
- * columns but one (the flags are last), so the proposal is found by position even when the input had its
+ * A function reading rows of a batch output with this header. The appended terms are the last columns but
+ * one (the flags are last), or but three when the batch generalised sensitive rows (dataGeneralizations and
+ * informationWithheld before the flags), so the proposal is found by position even when the input had its
  * own decimalLatitude.
- * @example resultRowReader(26)(fields).point // [-131.3876, -45.2265]
+ * @example resultRowReader(header)(fields).point // [-131.3876, -45.2265]
  */
-export function resultRowReader(columnCount: number): (fields: readonly string[]) => ResultRow {
-  const termsStart = columnCount - 1 - GEOREFERENCE_TERMS.length;
+export function resultRowReader(header: readonly string[]): (fields: readonly string[]) => ResultRow {
+  const columnCount = header.length;
+  const generalised = termName(header.at(-2)?.replace(/^proposed_/, '') ?? '') === GENERALISATION_TERMS.at(-1);
+  const termsStart = columnCount - 1 - (generalised ? GENERALISATION_TERMS.length : 0) - GEOREFERENCE_TERMS.length;
   if (termsStart < 0) throw new Error('not a batch output: it has fewer columns than the appended terms');
   const at = (term: GeoreferenceTerm) => termsStart + GEOREFERENCE_TERMS.indexOf(term);
   return (given) => {

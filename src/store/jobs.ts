@@ -79,6 +79,11 @@ CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
 );
 CREATE UNIQUE INDEX IF NOT EXISTS batch_locality_key ON batch_locality (job_id, key);
+-- The precise georeference of each row a job generalised (for a sensitive taxon): kept here, in the private
+-- job store, and never written to the shared output. precise: JSON of the Darwin Core fields withheld.
+CREATE TABLE IF NOT EXISTS batch_withheld (
+  job_id TEXT NOT NULL, row_number INTEGER NOT NULL, precise TEXT NOT NULL, PRIMARY KEY (job_id, row_number)
+) WITHOUT ROWID;
 CREATE TABLE IF NOT EXISTS batch_locality_type (
   job_id TEXT NOT NULL, key TEXT NOT NULL, locality_type TEXT NOT NULL, PRIMARY KEY (job_id, key)
 ) WITHOUT ROWID;

@@ -3,6 +3,7 @@ import type cliProgress from 'cli-progress';
 import type { ArchiveSummary } from '../../batch/archive/archive-job.ts';
 import type { BatchProgressEvent } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
+import type { GeneralisationSettings } from '../../batch/sensitive-records.ts';
 import { resultFormat, RESULT_FORMATS, type ResultFormat } from '../../output/result-formats.ts';
 
 interface BatchCommandOptions {
@@ -16,6 +17,9 @@ interface BatchCommandOptions {
   allowEmptyGazetteer?: boolean;
   part?: string;
   runTimestamp?: string;
+  sensitiveTaxa?: string;
+  sensitiveColumn?: string;
+  generaliseTo?: string;
 }
 
 const PHASE_LABELS: Record<BatchProgressEvent['phase'], string> = {
@@ -43,9 +47,13 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--allow-empty-gazetteer', 'run even when the gazetteer holds no source (every row then comes back not found)')
     .option('--part <K/N>', 'only part K (from 0) of N, cut by locality, written as a part file for `whereabouts merge` (needs --out and --run-timestamp; its job database is <out>.jobs.sqlite)')
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
+    .option('--sensitive-taxa <file>', "generalise the rows of these taxa: a CSV with the columns scientificName and gridDegrees (the holder's policy), matched to the input's scientificName after folding case and white space; the point goes to the centre of its grid cell, the precise one stays in the job database")
+    .option('--sensitive-column <name>', 'generalise the rows this input column marks (any value but empty, 0, false or no), to the grid of --generalise-to')
+    .option('--generalise-to <degrees>', 'the grid for --sensitive-column, in degrees (such as 0.1 or 0.01)')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
+      const generalise = await generalisationOf(opts);
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
       const [{ startBatch }, { batchCsvPath, writeResults }, { isZipFile }] = await Promise.all([
         import('../../batch/archive/archive-job.ts'),
@@ -66,6 +74,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         allowEmptyGazetteer: opts.allowEmptyGazetteer,
         part: opts.part === undefined ? undefined : parsePartSpec(opts.part),
         runTimestamp: opts.runTimestamp,
+        generalise,
         onProgress: bar?.update,
       });
       if (!opts.quiet) process.stderr.write(`whereabouts: batch job ${jobId} (if stopped, finish it with: whereabouts batch --resume ${jobId})\n${describeChoices(methodChoices)}`);
@@ -81,6 +90,24 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         throw error;
       }
     });
+}
+
+/** The generalisation asked for, if any, read and checked before a job starts. */
+async function generalisationOf(opts: BatchCommandOptions): Promise<GeneralisationSettings | undefined> {
+  if (opts.sensitiveColumn === undefined && opts.generaliseTo !== undefined) throw new Error('--generalise-to is the grid for --sensitive-column: name the column that marks the rows');
+  if (opts.sensitiveColumn !== undefined && opts.generaliseTo === undefined) throw new Error('--sensitive-column needs --generalise-to <degrees>, the grid to generalise the marked rows to (such as 0.1)');
+  if (opts.sensitiveTaxa === undefined && opts.sensitiveColumn === undefined) return undefined;
+  if (opts.resume) throw new Error('a resumed job keeps the generalisation it was started with: leave out --sensitive-taxa, --sensitive-column and --generalise-to');
+  const [{ readFile }, { readSensitiveTaxa }, { parseGridDegrees }] = await Promise.all([
+    import('node:fs/promises'),
+    import('../../batch/sensitive-records.ts'),
+    import('../../georef/grid-generalisation.ts'),
+  ]);
+  const taxa = opts.sensitiveTaxa === undefined ? undefined : readSensitiveTaxa(await readFile(opts.sensitiveTaxa, 'utf8'), `the sensitive taxa list ${opts.sensitiveTaxa}`);
+  return {
+    ...(taxa ? { taxa } : {}),
+    ...(opts.sensitiveColumn !== undefined ? { column: opts.sensitiveColumn, gridDegrees: parseGridDegrees(opts.generaliseTo!) } : {}),
+  };
 }
 
 function positiveInteger(value: string): number {
