@@ -40,9 +40,21 @@ describe('POST /api/v1/georeference', () => {
     // Method §5.2 derived check: 10 km NE with δ 0.5 km → offset term 4.029 km; extent is the feature's 3500 m.
     expect(json.components.offset).toBeCloseTo(4029, -1);
     expect(json.components.extent).toBeCloseTo(PUERTO_LINDO.radiusMeters, 0);
-    const total = Object.values(json.components as Record<string, number>).reduce((a, b) => a + b, 0);
-    expect(json.georeference.uncertaintyMeters).toBeCloseTo(total, 6);
-    expect(Number(json.darwinCore.coordinateUncertaintyInMeters)).toBeGreaterThanOrEqual(Math.ceil(total));
+    // Each term from its own source, not re-added from the answer (so a wrong term cannot pass):
+    // offset, Method §5.2 (WGH2004): U(d=10, δ=0.5, Δ=22.5°) = sqrt(10.5² + 10² − 2·10·10.5·cos 22.5°) km;
+    // extent, gazetteer/demo.geojson qv-0013 radiusMeters; no coordinates, datum, map or measurement given → 0.
+    const offsetTerm = Math.sqrt(10.5 ** 2 + 10 ** 2 - 2 * 10 * 10.5 * Math.cos((22.5 * Math.PI) / 180)) * 1000;
+    const terms = { extent: PUERTO_LINDO.radiusMeters, offset: offsetTerm, coordinatePrecision: 0, datum: 0, mapScale: 0, measurement: 0 };
+    for (const [name, value] of Object.entries(terms)) {
+      expect(Math.abs(json.components[name] - value), name).toBeLessThanOrEqual(0.005 * value);
+    }
+    const total = Object.values(terms).reduce((a, b) => a + b, 0);
+    expect(Math.abs(json.georeference.uncertaintyMeters - total)).toBeLessThanOrEqual(0.005 * total);
+    // Method §6 (docs/method.md, decimalLatitude/coordinateUncertaintyInMeters): the distance the reported
+    // decimals move the point (geographiclib Inverse, Karney 2013) is added, then the total is rounded up.
+    const shift = geographiclib.Geodesic.WGS84.Inverse(json.georeference.latitude, json.georeference.longitude, Number(json.darwinCore.decimalLatitude), Number(json.darwinCore.decimalLongitude)).s12!;
+    expect(Number(json.darwinCore.coordinateUncertaintyInMeters)).toBe(Math.ceil(json.georeference.uncertaintyMeters + shift));
+    expect(Math.abs(Number(json.darwinCore.coordinateUncertaintyInMeters) - Math.ceil(total + shift))).toBeLessThanOrEqual(0.005 * total);
     expect(Object.keys(json.darwinCore).sort()).toEqual([...GEOREFERENCE_TERMS].sort());
     expect(json.darwinCore.georeferenceVerificationStatus).toBe('requires verification');
     expect(json.footprint.type).toMatch(/Polygon/);
