@@ -54,7 +54,9 @@ describe('edits through POST /api/v1/georeference', () => {
       const whole = area(circle([g.longitude, g.latitude], g.uncertaintyMeters / 1000, { steps: 256 }));
       expect(area(answer.footprint)).toBeLessThan(0.9 * whole);
     }
-    expect(edited.components.mapScale).toBeGreaterThan(0);
+    // Method §5.5 (BP2020 §Uncertainty in Paper Map Measurements): no map standard over HTTP, so the default
+    // 'unknown' gives 1 mm on the map only: 0.001 m × 50 000 = 50 m.
+    expect(Math.abs(edited.components.mapScale - 50)).toBeLessThanOrEqual(0.005 * 50);
     expect(area(edited.footprint)).toBeGreaterThan(area(first.footprint));
   });
 
