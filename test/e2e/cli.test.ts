@@ -51,10 +51,20 @@ describe('whereabouts locate', () => {
     // 10 km NE with δ 0.5 km → 4.029 km [DERIVED check value of the method document, §5.2].
     expect(body.components.extent).toBeCloseTo(town.radiusMeters, 6);
     expect(body.components.offset / 1000).toBeCloseTo(4.029, 3);
-    const total = Object.values(body.components as Record<string, number>).reduce((a, b) => a + b, 0);
+    // Each term from its own source, not re-added from the answer: offset from the WGH2004 formula (§5.2),
+    // extent from the demo gazetteer, the terms no option asked for 0.
+    const offsetTerm = Math.sqrt(10.5 ** 2 + 10 ** 2 - 2 * 10 * 10.5 * Math.cos((22.5 * Math.PI) / 180)) * 1000;
+    const terms = { extent: town.radiusMeters, offset: offsetTerm, coordinatePrecision: 0, datum: 0, mapScale: 0, measurement: 0 };
+    for (const [name, value] of Object.entries(terms)) {
+      expect(Math.abs(body.components[name] - value), name).toBeLessThanOrEqual(0.005 * value);
+    }
+    const total = Object.values(terms).reduce((a, b) => a + b, 0);
+    // §6: the distance the reported decimals move the point (Vincenty inverse, geodesy 2.4.0) is added, then
+    // the total is rounded up to a whole meter.
+    const shift = got.distanceTo(new LatLon(Number(body.darwinCore.decimalLatitude), Number(body.darwinCore.decimalLongitude)));
     const reported = Number(body.darwinCore.coordinateUncertaintyInMeters);
-    expect(reported).toBeGreaterThanOrEqual(Math.ceil(total));
-    expect(reported).toBeLessThanOrEqual(Math.ceil(total * 1.01) + 1);
+    expect(reported).toBe(Math.ceil(body.georeference.uncertaintyMeters + shift));
+    expect(Math.abs(reported - Math.ceil(total + shift))).toBeLessThanOrEqual(0.005 * total);
     expect(body.darwinCore.georeferenceVerificationStatus).toBe('requires verification');
     expect(body.darwinCore.geodeticDatum).toBe('EPSG:4326');
   });
