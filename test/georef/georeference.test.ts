@@ -313,6 +313,10 @@ describe('coordinates (docs/method.md §3, §5.3, §5.4)', () => {
     const g = ok({ interpretation: written('WGS84'), features: [], options: { mapScale: 24000, mapStandard: 'us-nmas', measurementErrorMeters: 20 } });
     expect(g.components.mapScale).toBeCloseTo(36.192, 6);
     expect(g.components.measurement).toBe(20);
+    // The total from the published terms, not the answer's own re-added: precision 1556.8 m (§5.3 worked
+    // example, 0.01° at 10.27° N), datum 0 (WGS84 stated), map 36.192 m (US NMAS 1947 + 1 mm), measurement 20 m.
+    const total = 1556.8 + 0 + 36.192 + 20;
+    expect(Math.abs(g.uncertaintyMeters - total)).toBeLessThanOrEqual(0.005 * total);
     expect(g.uncertaintyMeters).toBeCloseTo(sum(g), 9);
   });
 });
