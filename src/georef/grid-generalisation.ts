@@ -4,7 +4,7 @@
  * held (the cell's farthest corner from its centre, plus the original radius), and the footprint replaced
  * by the cell. Generalising to the centre of a 0.1° or 0.01° grid cell is the published practice for
  * sensitive occurrences (Chapman 2020, Current Best Practices for Generalizing Sensitive Species Occurrence
- * Data, GBIF Secretariat, doi:10.15468/doc-5jp4-5g10, on generalising to a grid; title and DOI checked,
+ * Data, Copenhagen, doi:10.15468/doc-5jp4-5g10, on generalising to a grid; title and DOI checked,
  * the grid sizes from memory). Which taxa, and which grid,
  * are the holder's policy and local law, which whereabouts does not decide.
  *

@@ -28,7 +28,7 @@ describe('parseMetaXml', () => {
     <field index="3" term="${DWC}locality" default="unknown"/>
     <field term="${DWC}countryCode" default="QV"/>
   </core>
-  <extension rowType="http://rs.gbif.org/terms/1.0/Multimedia"><files><location>m.txt</location></files><coreId index="0"/><field index="1" term="http://purl.org/dc/terms/identifier"/></extension>
+  <extension rowType="http://rs.tdwg.org/ac/terms/Multimedia"><files><location>m.txt</location></files><coreId index="0"/><field index="1" term="http://purl.org/dc/terms/identifier"/></extension>
 </archive>`);
     expect(meta.metadata).toBe('eml.xml');
     expect(meta.core).toMatchObject({ encoding: 'windows-1252', fieldsTerminatedBy: '\t', linesTerminatedBy: '\r\n', fieldsEnclosedBy: '', ignoreHeaderLines: 1, idIndex: 0 });

@@ -77,7 +77,7 @@ const metaXml = `<?xml version="1.0" encoding="UTF-8"?>
     <field index="6" term="${DWC}stateProvince" default="Poniente"/>
     <field term="${DWC}countryCode" default="QV"/>
   </core>
-  <extension encoding="UTF-8" fieldsTerminatedBy="," linesTerminatedBy="\\n" fieldsEnclosedBy='"' ignoreHeaderLines="1" rowType="http://rs.gbif.org/terms/1.0/Multimedia">
+  <extension encoding="UTF-8" fieldsTerminatedBy="," linesTerminatedBy="\\n" fieldsEnclosedBy='"' ignoreHeaderLines="1" rowType="http://rs.tdwg.org/ac/terms/Multimedia">
     <files><location>multimedia.txt</location></files>
     <coreid index="0"/>
     <field index="1" term="http://purl.org/dc/terms/identifier"/>
@@ -156,7 +156,7 @@ describe('batch over a Darwin Core Archive', () => {
     expect(byHeader.get('proposed_decimalLatitude')).toMatch(/proposed_decimalLatitude$/);
     // The extension is described as before.
     const extension = meta.find((e) => e.name === 'extension')!;
-    expect(extension.attributes).toMatchObject({ rowType: 'http://rs.gbif.org/terms/1.0/Multimedia', fieldsTerminatedBy: ',', linesTerminatedBy: '\\n', fieldsEnclosedBy: '"' });
+    expect(extension.attributes).toMatchObject({ rowType: 'http://rs.tdwg.org/ac/terms/Multimedia', fieldsTerminatedBy: ',', linesTerminatedBy: '\\n', fieldsEnclosedBy: '"' });
     expect(meta.filter((e) => e.parent === 'extension' && e.name === 'field').map((e) => e.attributes.term)).toEqual(['http://purl.org/dc/terms/identifier', 'http://purl.org/dc/terms/format']);
   });
 
