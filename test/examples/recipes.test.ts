@@ -16,7 +16,7 @@ const EXAMPLES = new URL('../../examples/', import.meta.url).pathname;
 const README = new URL('../../README.md', import.meta.url).pathname;
 
 const hasRscript = await run('Rscript', ['--version']).then(() => true, () => false);
-if (!hasRscript) console.warn('Rscript is missing: the R recipe is not run (install r-base-core r-cran-httr r-cran-jsonlite; .ci/run does)');
+if (!hasRscript) console.warn('Rscript is missing: the R recipe is not run (install r-base-core r-cran-httr r-cran-jsonlite; npm test does when run as root)');
 
 let db: TempDatabase;
 let server: RunningServer;

@@ -1,8 +1,10 @@
 import type { Command } from 'commander';
+import type { GisFieldMap } from '../../store/gis-import.ts';
 import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 import { parsePriority } from './gazetteer.ts';
 
-interface ImportCommandOptions {
+/** The GIS attribute options are the importer's field map, but `--type-field` for its featureTypeField. */
+interface ImportCommandOptions extends Omit<GisFieldMap, 'featureTypeField'> {
   format?: string;
   source?: string;
   citation?: string;
@@ -12,17 +14,7 @@ interface ImportCommandOptions {
   alternateNames?: string;
   priority?: number | null;
   defaultRadius?: Record<string, number>;
-  layer?: string;
-  nameField?: string;
-  idField?: string;
-  alternateNamesField?: string;
   typeField?: string;
-  featureType?: string;
-  countryCodeField?: string;
-  countryCode?: string;
-  stateProvinceField?: string;
-  countyField?: string;
-  encoding?: string;
 }
 
 const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames', 'shapefile', 'gpkg'];
