@@ -117,6 +117,8 @@ const queries = [1, 2].map((errors) => sample.map((name) => {
   for (let i = 0; i < errors; i++) query = typo(query);
   return { name, query };
 }));
+/** Groups of names by length in characters: label and the longest length in the group. */
+const LENGTH_GROUPS: readonly [string, number][] = [['1–5', 5], ['6–8', 8], ['9 and more', Infinity]];
 const isIntended = (name: string, matched: string[]) => matched.some((candidate) => foldName(candidate) === foldName(name));
 
 for (const [index, set] of queries.entries()) {
@@ -127,21 +129,30 @@ for (const [index, set] of queries.entries()) {
   // A typing error can make another name of the list ("San" → "Van"): found exactly, it comes first,
   // as it should; the share of such queries is printed, and the rate among the others.
   let typedAnotherName = 0;
+  // Hits by the intended name's length in characters: a short name within two errors of hundreds of others is a guess.
+  const byLength = LENGTH_GROUPS.map(() => ({ queries: 0, hits: 0 }));
   for (const { name, query } of set) {
+    const group = byLength[LENGTH_GROUPS.findIndex(([, longest]) => name.length <= longest)];
+    group.queries++;
     const cpu = process.cpuUsage();
     const started = performance.now();
     const candidates = reader.findCandidates({ name: query, context: {}, limit: 5 });
     times.push(performance.now() - started);
     cpuTimes.push(cpuSeconds(process.cpuUsage(cpu)) * 1000);
-    if (candidates.some((c) => isIntended(name, [c.feature.name, ...c.feature.alternateNames]))) hits++;
-    else if (candidates[0]?.why.startsWith('exact')) typedAnotherName++;
+    if (candidates.some((c) => isIntended(name, [c.feature.name, ...c.feature.alternateNames]))) {
+      hits++;
+      group.hits++;
+    } else if (candidates[0]?.why.startsWith('exact')) {
+      typedAnotherName++;
+    }
   }
   const target = index === 0 ? 98 : 90;
   console.log(`${index + 1} error${index === 0 ? '' : 's'}: ${set.length} queries, median ${ms(percentile(times, 50))}, p99 ${ms(percentile(times, 99))} `
     + `(CPU median ${ms(percentile(cpuTimes, 50))}, p99 ${ms(percentile(cpuTimes, 99))}; targets ≤ 1 ms, ≤ 5 ms), `
     + `intended name in the first five: ${(100 * hits / set.length).toFixed(1)} % (target ≥ ${target} %); `
     + `${(100 * typedAnotherName / set.length).toFixed(1)} % typed another name of the list exactly, `
-    + `${(100 * hits / (set.length - typedAnotherName)).toFixed(1)} % of the others`);
+    + `${(100 * hits / (set.length - typedAnotherName)).toFixed(1)} % of the others; by the name's length: `
+    + LENGTH_GROUPS.map(([label], i) => `${label} ${(100 * byLength[i].hits / Math.max(1, byLength[i].queries)).toFixed(1)} % of ${byLength[i].queries}`).join(', '));
 }
 
 console.log(`peak RSS with the lookups: ${Math.round(process.resourceUsage().maxRSS / 1024)} MB (counts the store's pages read through its memory map, which the system reclaims as file cache)`);
