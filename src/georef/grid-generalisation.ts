@@ -22,15 +22,18 @@ export interface PointRadius {
   radiusMeters: number;
 }
 
+/** A georeference moved to the centre of a grid cell (of a degree grid here, or a grid in meters). */
 export interface GridGeneralisation extends PointRadius {
-  /** The grid size in degrees, as given. */
-  gridDegrees: number;
+  /** The cell in words, for the remarks and dataGeneralizations: "0.1° cell of the latitude-longitude grid". */
+  cell: string;
   /** The cell as a WKT polygon (longitude latitude, EPSG:4326). */
   footprintWKT: string;
-  /** The centre's coordinates written to the grid's precision (one decimal more than the grid). */
+  /** The centre's coordinates as written (for a degree grid, one decimal more than the grid). */
   decimalLatitude: string;
   decimalLongitude: string;
-  /** The cell's farthest corner from its centre, meters (before the original radius is added). */
+  /** coordinatePrecision of the written centre, degrees. */
+  coordinatePrecision: string;
+  /** The cell's farthest corner from its written centre, meters (before the original radius is added). */
   halfDiagonalMeters: number;
 }
 
@@ -56,7 +59,8 @@ export function generaliseToGrid(point: PointRadius, gridDegrees: number): GridG
   const halfDiagonalMeters = Math.max(...[south, north].flatMap((lat) => [west, east].map((lon) => inverse(latitude, longitude, lat, lon).meters)));
   const ring = [[west, south], [east, south], [east, north], [west, north], [west, south]];
   return {
-    gridDegrees,
+    cell: `${gridDegrees}° cell of the latitude-longitude grid`,
+    coordinatePrecision: String(gridDegrees),
     latitude,
     longitude,
     decimalLatitude: latitude.toFixed(decimals + 1),
