@@ -229,7 +229,8 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     }
     const format = await inspectInput(inputPath);
     const delimiter = options.delimiter ?? (await detectDelimiter(inputPath, format));
-    await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
+    const { header } = await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
+    if (options.generalise) sensitiveGeneralisation(header, options.generalise); // a marking column or scientificName missing: said now too
     const like = {
       inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources,
       partIndex: options.part?.index ?? null, partCount: options.part?.count ?? null,

@@ -207,7 +207,8 @@ function withheldOf(jobId: string): Map<number, Record<string, string>> {
  * little-endian IEEE 754 double a GeoPackage geometry stores it as (OGC 12-128 §2.1.3, WKB of OGC 06-103r4 §8.2).
  */
 function holds(bytes: Buffer, value: string): boolean {
-  if (bytes.includes(Buffer.from(value, 'utf8'))) return true;
+  // As a whole number in text: not the first digits of a longer one (-45.3010 is not in -45.3010302).
+  if (new RegExp(`(?<![0-9])${value.replace(/[.+()-]/g, '\\$&')}(?![0-9])`).test(bytes.toString('latin1'))) return true;
   // A value on a line of the list's grids (0.1°, 0.01°) is also a corner of a cell's footprint: only the text counts for it.
   const onGridLine = Math.abs(Number(value) * 100 - Math.round(Number(value) * 100)) < 1e-9;
   const double = Buffer.alloc(8);

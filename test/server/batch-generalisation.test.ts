@@ -1,0 +1,167 @@
+/**
+ * Generalisation of sensitive rows through the HTTP batch upload (fastify inject): the same options as
+ * `whereabouts batch` (a taxa list as a second file, a marking column with one way to generalise), refused
+ * with a 400 naming the field when they do not read, recorded in the job with the method choices, and the
+ * precise point in nothing the service answers for a generalised row: the review list and record (JSON),
+ * the reviewed CSV, GeoJSON and GeoPackage, also after a reviewer re-georeferenced the row. The precise
+ * values come from the job's private store (batch_withheld); the Darwin Core terms are TDWG's.
+ */
+import Database from 'better-sqlite3';
+import { parse } from 'csv-parse/sync';
+import type { FastifyInstance } from 'fastify';
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { jobsDatabasePath } from '../../src/batch/index.ts';
+import { methodChoiceValues } from '../../src/georef/method-choices.ts';
+import { buildServer } from '../../src/server/app.ts';
+import { DEMO_LOCALITIES, demoDatabase, type TempDatabase } from './helpers.ts';
+
+let db: TempDatabase;
+let app: FastifyInstance;
+beforeAll(async () => {
+  db = await demoDatabase();
+  app = await buildServer({ dbPath: db.dbPath });
+});
+afterAll(async () => {
+  await app?.close();
+  db?.remove();
+});
+
+/** Only the rows of the listed taxa, whose own columns hold no coordinates: any precise value found is a leak, not another record's own. */
+const LISTED = (() => {
+  const rows = parse(readFileSync(DEMO_LOCALITIES)) as string[][];
+  const listed = rows.filter((r, i) => i === 0 || (['Verdemaria lindoensis', 'Serenella alticola', 'Telmoa ambigua'].includes(r[2]!) && r[8] === '' && r[11] === ''));
+  return listed.map((r) => r.map((f) => (/[",\n]/.test(f) ? `"${f.replace(/"/g, '""')}"` : f)).join(',')).join('\n') + '\n';
+})();
+
+const TAXA = 'scientificName,gridDegrees,gridMeters,distanceMeters\nVerdemaria lindoensis,,2000,\nSerenella alticola,,,5000\nTelmoa ambigua,0.1,,\n';
+
+/** A multipart upload as a browser's FormData encodes it, sent through inject. */
+async function upload(query: string, files: Record<string, string | Buffer>) {
+  const form = new FormData();
+  for (const [field, bytes] of Object.entries(files)) form.append(field, new Blob([typeof bytes === 'string' ? bytes : new Uint8Array(bytes)], { type: 'text/csv' }), `${field}.csv`);
+  const request = new Request('http://127.0.0.1/', { method: 'POST', body: form });
+  const payload = Buffer.from(await request.arrayBuffer());
+  const response = await app.inject({ method: 'POST', url: `/api/v1/batches${query}`, payload, headers: { 'content-type': request.headers.get('content-type')! } });
+  return { status: response.statusCode, json: response.json() as any };
+}
+
+async function finished(jobId: string) {
+  for (let i = 0; i < 600; i++) {
+    const progress = (await app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}` })).json() as any;
+    if (progress.state === 'done' || progress.state === 'failed') return progress;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error('the job did not finish in 60 s');
+}
+
+function withheld(jobId: string): Map<number, Record<string, string>> {
+  const jobs = new Database(jobsDatabasePath(db.dbPath), { readonly: true });
+  try {
+    const rows = jobs.prepare('SELECT row_number, precise FROM batch_withheld WHERE job_id = ?').all(jobId) as { row_number: number; precise: string }[];
+    return new Map(rows.map((r) => [r.row_number, JSON.parse(r.precise) as Record<string, string>]));
+  } finally {
+    jobs.close();
+  }
+}
+
+/** A precise coordinate as text, or as the little-endian double a GeoPackage geometry holds (OGC 12-128 §2.1.3). */
+function holds(bytes: Buffer, value: string): boolean {
+  const double = Buffer.alloc(8);
+  double.writeDoubleLE(Number(value));
+  // A value on a line of a 0.1° grid (the list's Telmoa ambigua) is also a corner of a cell's footprint: only the text counts for it.
+  const onGridLine = Math.abs(Number(value) * 10 - Math.round(Number(value) * 10)) < 1e-9;
+  return asNumber(value).test(bytes.toString('latin1')) || (!onGridLine && bytes.includes(double));
+}
+
+/** The value as a whole number in text: not the first digits of a longer one (-45.3010 is not in -45.3010302). */
+const asNumber = (value: string) => new RegExp(`(?<![0-9])${value.replace(/[.+-]/g, '\\$&')}(?![0-9])`);
+
+describe('POST /api/v1/batches with a list of sensitive taxa', () => {
+  let jobId: string;
+  let precise: string[];
+
+  it('starts a job that records its generalisation and method choices, and withholds the listed rows', async () => {
+    const started = await upload('', { file: LISTED, sensitiveTaxa: TAXA });
+    expect(started.status).toBe(202);
+    jobId = started.json.jobId;
+    const progress = await finished(jobId);
+    expect(progress.state).toBe('done');
+    expect(progress.methodChoices).toEqual(methodChoiceValues());
+    expect(progress.generalise).toEqual({ taxa: { 'verdemaria lindoensis': { gridMeters: 2000 }, 'serenella alticola': { distanceMeters: 5000 }, 'telmoa ambigua': { gridDegrees: 0.1 } } });
+    const rows = withheld(jobId);
+    expect(rows.size).toBeGreaterThanOrEqual(12);
+    precise = [...rows.values()].flatMap((p) => [p.decimalLatitude!, p.decimalLongitude!]);
+    for (const value of precise) expect(LISTED.includes(value)).toBe(false);
+  }, 90_000);
+
+  it('answers no precise point in the review list or in any record (JSON)', async () => {
+    const list = await app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records` });
+    for (const value of precise) expect(list.body).not.toMatch(asNumber(value));
+    for (const row of withheld(jobId).keys()) {
+      const detail = await app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records/${row}` });
+      expect(detail.statusCode).toBe(200);
+      for (const value of precise) expect(detail.body, `row ${row}`).not.toMatch(asNumber(value));
+      const body = detail.json() as any;
+      expect(body.proposed.dataGeneralizations).toMatch(/^Coordinates generalized from the original georeference/);
+      expect(body.answer.darwinCore.decimalLatitude).toBe(body.proposed[Object.keys(body.proposed).find((k) => k.endsWith('decimalLatitude'))!]);
+      expect(body.answer.candidates).toEqual([]);
+    }
+  }, 90_000);
+
+  it('keeps a row generalised when the reviewer re-georeferences it, in the reviewed CSV, GeoJSON and GeoPackage', async () => {
+    const [row] = [...withheld(jobId).keys()];
+    const detail = (await app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records/${row}` })).json() as any;
+    const decided = await app.inject({ method: 'PUT', url: `/api/v1/batches/${jobId}/records/${row}/review`, payload: { decision: 'accepted', reviewer: 'tester', locality: detail.original.locality } });
+    expect(decided.statusCode).toBe(200);
+    const csv = await app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/reviewed.csv` });
+    const rows = parse(csv.body) as string[][];
+    expect(rows[row]!.at(-3)).toMatch(/^Coordinates generalized from the original georeference/);
+    expect(rows[row]).toContain('verified by data custodian');
+    for (const format of ['csv', 'geojson', 'gpkg']) {
+      const file = await app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/reviewed.${format}` });
+      expect(file.statusCode).toBe(200);
+      for (const value of precise) expect(holds(file.rawPayload, value), `${format}: ${value}`).toBe(false);
+    }
+  }, 90_000);
+});
+
+describe('POST /api/v1/batches with a marking column', () => {
+  const marked = () => {
+    const rows = parse(readFileSync(DEMO_LOCALITIES)) as string[][];
+    return rows.map((r, i) => [...r, i === 0 ? 'withhold' : r[2] === 'Aubracia marina' ? 'yes' : ''].join(',')).join('\n') + '\n';
+  };
+
+  it('generalises the marked rows by a grid in meters', async () => {
+    const started = await upload('?sensitiveColumn=withhold&gridMeters=1000', { file: marked() });
+    expect(started.status).toBe(202);
+    const progress = await finished(started.json.jobId);
+    expect(progress.generalise).toEqual({ column: 'withhold', gridMeters: 1000 });
+    expect(withheld(started.json.jobId).size).toBeGreaterThan(0);
+  }, 90_000);
+
+  const refusals: [string, Record<string, string>, number, RegExp, string][] = [
+    ['a column with no way to generalise', { query: '?sensitiveColumn=withhold' }, 400, /give exactly one of gridDegrees/, 'sensitiveColumn'],
+    ['two ways', { query: '?sensitiveColumn=withhold&gridDegrees=0.1&distanceMeters=500' }, 400, /not gridDegrees and distanceMeters/, 'sensitiveColumn'],
+    ['a grid in meters out of its limits', { query: '?sensitiveColumn=withhold&gridMeters=5' }, 400, /from 10 to 100000, not "5"/, 'sensitiveColumn'],
+    ['a way without the column (schema)', { query: '?gridMeters=1000' }, 400, /sensitiveColumn/, ''],
+    ['an unknown query field (schema)', { query: '?generaliseTo=0.1' }, 400, /additional|generaliseTo/, ''],
+    ['a column the input lacks', { query: '?sensitiveColumn=nosuch&gridDegrees=0.1' }, 400, /no column "nosuch"/, 'file'],
+    ['a taxa list without a way for each taxon', { query: '', taxa: 'scientificName,gridKm\nTelmoa ambigua,1\n' }, 400, /needs the column scientificName and at least one of/, 'sensitiveTaxa'],
+  ];
+  for (const [what, { query, taxa }, status, message, field] of refusals) {
+    it(`refuses ${what} with ${status}`, async () => {
+      const answer = await upload(query!, { file: marked(), ...(taxa ? { sensitiveTaxa: taxa } : {}) });
+      expect(answer.status).toBe(status);
+      expect(answer.json.message).toMatch(message);
+      if (field) expect(answer.json.field).toBe(field);
+    });
+  }
+
+  it('is described in the OpenAPI document: the query fields and the taxa file', async () => {
+    const doc = (await app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
+    const post = doc.paths['/api/v1/batches'].post;
+    expect(post.parameters.filter((p: any) => p.in === 'query').map((p: any) => p.name)).toEqual(['sensitiveColumn', 'gridDegrees', 'gridMeters', 'distanceMeters']);
+    expect(post.description).toContain('sensitiveTaxa');
+  });
+});
