@@ -24,7 +24,8 @@ const isWorldWide = ([north, west, south, east]: DatumDefinition['areaOfUse']) =
  * the distance between the datums, and the global 5359 m it replaces is computed the same way).
  * A UTM reference is read on each datum's own ellipsoid before the shift. Undefined where only the
  * world-wide datums apply: the caller then uses the global figure. Areas of use are EPSG's bounding boxes,
- * and only datums of the table are compared (docs/method.md §5.4 says what that leaves out).
+ * and only datums of the table are compared [CHOICE: the table of datums in use by region] (docs/method.md
+ * §5.4 says what that leaves out).
  * Accuracy: that of the shifts (toWgs84) and of geographiclib's inverse (nanometers).
  * @example regionalDatumBound({ latitude: 39.2, longitude: -98.5 }) // ≈ { meters: 44.9, accuracyMeters: 10, datums: ['EPSG:4326', 'EPSG:4267', 'EPSG:4269', 'EPSG:4322'] }
  */

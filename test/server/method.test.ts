@@ -35,4 +35,17 @@ describe('GET /api/v1/method', () => {
     expect(schema.type).toBe('array');
     expect(Object.keys(schema.items.properties)).toEqual(expect.arrayContaining(['id', 'value', 'source', 'changedBy']));
   });
+
+  it('holds the same list as the route answers: the answer\'s example, and one line a choice in the description', async () => {
+    const doc = (await app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
+    const get = doc.paths['/api/v1/method'].get;
+    const answered = (await app.inject({ method: 'GET', url: '/api/v1/method' })).json() as { id: string; value: unknown; changedBy: string }[];
+    expect(get.responses['200'].content['application/json'].example).toEqual(answered);
+    const lines = (get.description as string).split('\n').filter((l) => l.startsWith('- '));
+    expect(lines).toHaveLength(answered.length);
+    answered.forEach((c, i) => {
+      expect(lines[i]).toContain(`\`${c.id}\`: `);
+      expect(lines[i]).toContain(` = ${c.value}`);
+    });
+  });
 });
