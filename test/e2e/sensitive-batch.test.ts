@@ -20,6 +20,7 @@ import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { beforeAll, describe, expect, it } from 'vitest';
 import yazl from 'yazl';
 import { unzip } from '../batch/helpers.ts';
+import { holdsCoordinate, withheldRows } from '../support/withheld.ts';
 
 const run = promisify(execFile);
 const root = new URL('../..', import.meta.url).pathname;
@@ -191,30 +192,10 @@ async function batchJob(inputPath: string, out: string, ...options: string[]): P
   return /batch job (\S+)/.exec(stderr)![1]!;
 }
 
-/** The precise georeference a job withheld, by row (the private job store). */
-function withheldOf(jobId: string): Map<number, Record<string, string>> {
-  const jobs = new Database(`${db.replace(/\.sqlite$/, '')}.jobs.sqlite`, { readonly: true });
-  try {
-    const rows = jobs.prepare('SELECT row_number, precise FROM batch_withheld WHERE job_id = ?').all(jobId) as { row_number: number; precise: string }[];
-    return new Map(rows.map((r) => [r.row_number, JSON.parse(r.precise) as Record<string, string>]));
-  } finally {
-    jobs.close();
-  }
-}
-
-/**
- * Whether bytes hold a precise coordinate: as text (CSV, GeoJSON, XML, GeoPackage attributes) or as the
- * little-endian IEEE 754 double a GeoPackage geometry stores it as (OGC 12-128 §2.1.3, WKB of OGC 06-103r4 §8.2).
- */
-function holds(bytes: Buffer, value: string): boolean {
-  // As a whole number in text: not the first digits of a longer one (-45.3010 is not in -45.3010302).
-  if (new RegExp(`(?<![0-9])${value.replace(/[.+()-]/g, '\\$&')}(?![0-9])`).test(bytes.toString('latin1'))) return true;
-  // A value on a line of the list's grids (0.1°, 0.01°) is also a corner of a cell's footprint: only the text counts for it.
-  const onGridLine = Math.abs(Number(value) * 100 - Math.round(Number(value) * 100)) < 1e-9;
-  const double = Buffer.alloc(8);
-  double.writeDoubleLE(Number(value));
-  return !onGridLine && bytes.includes(double);
-}
+const jobsPath = `${db.replace(/\.sqlite$/, '')}.jobs.sqlite`;
+const withheldOf = (jobId: string) => withheldRows(jobsPath, jobId);
+/** The list's grids are 0.1° and 0.01°: a value on a 0.01° line may be a cell's corner. */
+const holds = (bytes: Buffer, value: string) => holdsCoordinate(bytes, value, 0.01);
 
 describe('a grid in meters and a stated distance, from the taxa list', () => {
   it('moves listed rows to the centre of a UTM cell of the side given, or within the distance given, and the radius covers it', async () => {

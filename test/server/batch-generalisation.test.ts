@@ -6,7 +6,6 @@
  * the reviewed CSV, GeoJSON and GeoPackage, also after a reviewer re-georeferenced the row. The precise
  * values come from the job's private store (batch_withheld); the Darwin Core terms are TDWG's.
  */
-import Database from 'better-sqlite3';
 import { parse } from 'csv-parse/sync';
 import type { FastifyInstance } from 'fastify';
 import { readFileSync } from 'node:fs';
@@ -15,6 +14,7 @@ import { jobsDatabasePath } from '../../src/batch/index.ts';
 import { methodChoiceValues } from '../../src/georef/method-choices.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { DEMO_LOCALITIES, demoDatabase, type TempDatabase } from './helpers.ts';
+import { asNumber, holdsCoordinate, withheldRows } from '../support/withheld.ts';
 
 let db: TempDatabase;
 let app: FastifyInstance;
@@ -55,27 +55,9 @@ async function finished(jobId: string) {
   throw new Error('the job did not finish in 60 s');
 }
 
-function withheld(jobId: string): Map<number, Record<string, string>> {
-  const jobs = new Database(jobsDatabasePath(db.dbPath), { readonly: true });
-  try {
-    const rows = jobs.prepare('SELECT row_number, precise FROM batch_withheld WHERE job_id = ?').all(jobId) as { row_number: number; precise: string }[];
-    return new Map(rows.map((r) => [r.row_number, JSON.parse(r.precise) as Record<string, string>]));
-  } finally {
-    jobs.close();
-  }
-}
-
-/** A precise coordinate as text, or as the little-endian double a GeoPackage geometry holds (OGC 12-128 §2.1.3). */
-function holds(bytes: Buffer, value: string): boolean {
-  const double = Buffer.alloc(8);
-  double.writeDoubleLE(Number(value));
-  // A value on a line of a 0.1° grid (the list's Telmoa ambigua) is also a corner of a cell's footprint: only the text counts for it.
-  const onGridLine = Math.abs(Number(value) * 10 - Math.round(Number(value) * 10)) < 1e-9;
-  return asNumber(value).test(bytes.toString('latin1')) || (!onGridLine && bytes.includes(double));
-}
-
-/** The value as a whole number in text: not the first digits of a longer one (-45.3010 is not in -45.3010302). */
-const asNumber = (value: string) => new RegExp(`(?<![0-9])${value.replace(/[.+-]/g, '\\$&')}(?![0-9])`);
+const withheld = (jobId: string) => withheldRows(jobsDatabasePath(db.dbPath), jobId);
+/** Telmoa ambigua is listed with a 0.1° grid: a value on a 0.1° line may be a cell's corner. */
+const holds = (bytes: Buffer, value: string) => holdsCoordinate(bytes, value, 0.1);
 
 describe('POST /api/v1/batches with a list of sensitive taxa', () => {
   let jobId: string;
