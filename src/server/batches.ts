@@ -8,7 +8,7 @@ import { randomUUID } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, isAbsolute, join } from 'node:path';
 import { jobProgress, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
-import { NotAnArchive, startBatch, writeGeoreferencedArchive } from '../batch/archive/archive-job.ts';
+import { ArchiveTooLarge, NotAnArchive, startBatch, writeGeoreferencedArchive } from '../batch/archive/archive-job.ts';
 import { isZipStart } from '../batch/archive/zip.ts';
 import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
 import { originalLine } from '../batch/original-line.ts';
@@ -149,6 +149,7 @@ export class BatchService {
     } catch (error) {
       rmSync(files.archive, { force: true });
       const message = this.withoutPaths(error instanceof Error ? error.message : String(error));
+      if (error instanceof ArchiveTooLarge) throw new RequestError(413, message, 'file');
       if (error instanceof NotAnArchive) throw new RequestError(415, `${message}: send a Darwin Core Archive (a zip with a meta.xml) or one CSV or tab-separated file`, 'file');
       throw new RequestError(400, `the file could not be read as a batch: ${message}`, 'file');
     }

@@ -48,6 +48,9 @@ export interface ArchiveJobOptions extends BatchJobOptions {
 /** A zip that is not a Darwin Core Archive: it cannot be read as a zip, or it holds no meta.xml. */
 export class NotAnArchive extends Error {}
 
+/** An archive whose files hold more bytes uncompressed than `maxExpandedBytes`. */
+export class ArchiveTooLarge extends Error {}
+
 export interface ArchiveSummary extends BatchSummary {
   /** Set when the input was a Darwin Core Archive: its core's path inside the archive and its encoding as meta.xml gives it. */
   archiveCore?: { path: string; encoding: string };
@@ -124,7 +127,7 @@ async function checkArchive(path: string, options: ArchiveJobOptions): Promise<v
     if (!metafileEntry(zip)) throw new NotAnArchive(`${name} is a zip without a meta.xml, so it is not a Darwin Core Archive (Darwin Core text guide §2.1: the metafile describes the core and its extensions); its files: ${zip.entries.slice(0, 10).map((e) => e.name).join(', ')}${zip.entries.length > 10 ? ', …' : ''}`);
     const expanded = zip.entries.reduce((sum, e) => sum + e.size, 0);
     if (options.maxExpandedBytes !== undefined && expanded > options.maxExpandedBytes) {
-      throw new Error(`${name} holds ${expanded} bytes uncompressed, more than the limit of ${options.maxExpandedBytes} bytes`);
+      throw new ArchiveTooLarge(`${name} holds ${expanded} bytes uncompressed, more than the limit of ${options.maxExpandedBytes} bytes`);
     }
   } finally {
     zip.close();
