@@ -150,7 +150,7 @@ export class BatchService {
       rmSync(files.archive, { force: true });
       const message = this.withoutPaths(error instanceof Error ? error.message : String(error));
       if (error instanceof ArchiveTooLarge) throw new RequestError(413, message, 'file');
-      if (error instanceof NotAnArchive) throw new RequestError(415, `${message}: send a Darwin Core Archive (a zip with a meta.xml) or one CSV or tab-separated file`, 'file');
+      if (error instanceof NotAnArchive) throw new RequestError(415, `the uploaded file is a ZIP archive and not CSV text, nor a Darwin Core Archive: ${message}. Send a Darwin Core Archive (a zip with a meta.xml) or one CSV or tab-separated file`, 'file');
       throw new RequestError(400, `the file could not be read as a batch: ${message}`, 'file');
     }
     this.reviews.addJob(started.jobId);

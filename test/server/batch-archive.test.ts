@@ -173,11 +173,11 @@ describe('an uploaded zip that is not a Darwin Core Archive, or too large', () =
   };
 
   it('refuses a zip without meta.xml (guide §2.1), naming what it holds', async () => {
-    await refused(await zipped('plain.zip', [['records.csv', Buffer.from('occurrenceID,locality\nx1,Vila Serena\n')]]), 415, /the uploaded zip is a zip without a meta\.xml, so it is not a Darwin Core Archive.*records\.csv/);
+    await refused(await zipped('plain.zip', [['records.csv', Buffer.from('occurrenceID,locality\nx1,Vila Serena\n')]]), 415, /ZIP archive and not CSV text, nor a Darwin Core Archive: the uploaded zip has no meta\.xml .*its files: records\.csv/);
   });
 
   it('refuses a file that starts as a zip but cannot be read as one', async () => {
-    await refused(Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.alloc(200, 7)]), 415, /the uploaded zip is not a readable zip archive/);
+    await refused(Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.alloc(200, 7)]), 415, /nor a Darwin Core Archive: the uploaded zip cannot be read as a zip \(cannot read it: /);
   });
 
   it('refuses a meta.xml with no core (guide §2.1: exactly one), and a core file the archive lacks (guide §2.3)', async () => {

@@ -121,10 +121,10 @@ function metafileEntry(zip: ZipReader): string | undefined {
 async function checkArchive(path: string, options: ArchiveJobOptions): Promise<void> {
   const name = options.inputName ?? path;
   const zip = await openZip(path).catch((error: unknown) => {
-    throw new NotAnArchive(`${name} is not a readable zip archive (${error instanceof Error ? error.message.replace(path, 'the file') : String(error)}), so it is not a Darwin Core Archive`);
+    throw new NotAnArchive(`${name} cannot be read as a zip (${error instanceof Error ? error.message.replace(`the zip archive ${path}`, 'it') : String(error)})`);
   });
   try {
-    if (!metafileEntry(zip)) throw new NotAnArchive(`${name} is a zip without a meta.xml, so it is not a Darwin Core Archive (Darwin Core text guide §2.1: the metafile describes the core and its extensions); its files: ${zip.entries.slice(0, 10).map((e) => e.name).join(', ')}${zip.entries.length > 10 ? ', …' : ''}`);
+    if (!metafileEntry(zip)) throw new NotAnArchive(`${name} has no meta.xml (Darwin Core text guide §2.1: the metafile describes the core and its extensions); its files: ${zip.entries.slice(0, 10).map((e) => e.name).join(', ')}${zip.entries.length > 10 ? ', …' : ''}`);
     const expanded = zip.entries.reduce((sum, e) => sum + e.size, 0);
     if (options.maxExpandedBytes !== undefined && expanded > options.maxExpandedBytes) {
       throw new ArchiveTooLarge(`${name} holds ${expanded} bytes uncompressed, more than the limit of ${options.maxExpandedBytes} bytes`);
