@@ -7,6 +7,7 @@
  * XML with saxes, CSV with csv-parse: libraries independent of the code under test.
  */
 import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { dirname } from 'node:path';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
@@ -17,8 +18,9 @@ import { buildServer } from '../../src/server/app.ts';
 import { batchFolderPath } from '../../src/store/side-files.ts';
 import { unzip } from '../batch/helpers.ts';
 import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
-import { ARCHIVE_FILES, coreBytes, coreRows, DWC, metaXml, multimedia, SHORT_ROW, zipFiles } from '../support/demo-archive.ts';
-import { DEMO_LOCALITIES, demoDatabase, type TempDatabase } from './helpers.ts';
+import { ARCHIVE_FILES, coreBytes, coreRows, DWC, metaXml, multimedia, SHORT_ROW, writeManyRowArchive, zipFiles } from '../support/demo-archive.ts';
+import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
+import { DEMO_LOCALITIES, demoDatabase, spawnServe, type TempDatabase } from './helpers.ts';
 
 let db: TempDatabase;
 let app: FastifyInstance;
@@ -49,13 +51,13 @@ async function upload(bytes: Buffer, name: string, server = app) {
   return { status: response.statusCode, body: response.json() };
 }
 
-async function finished(jobId: string) {
-  for (let i = 0; i < 600; i++) {
-    const progress = (await app.inject({ url: `/api/v1/batches/${jobId}` })).json();
+async function finished(jobId: string, server = app) {
+  for (let i = 0; i < 1200; i++) {
+    const progress = (await server.inject({ url: `/api/v1/batches/${jobId}` })).json();
     if (progress.state === 'done' || progress.state === 'failed') return progress;
     await new Promise((r) => setTimeout(r, 100));
   }
-  throw new Error('the job did not finish in 60 s');
+  throw new Error('the job did not finish in 120 s');
 }
 
 const get = (url: string) => app.inject({ url });
@@ -209,4 +211,40 @@ describe('an uploaded zip that is not a Darwin Core Archive, or too large', () =
     expect(zip.statusCode).toBe(404);
     expect(zip.json().message).toMatch(/was a CSV upload/);
   });
+});
+
+describe('a stop during an archive batch', () => {
+  it('SIGTERM stops the service; the next start resumes the job over the core, and the archive has every row once', async () => {
+    const path = join(files, 'many.zip');
+    await writeManyRowArchive(path);
+    const { url, child } = await spawnServe(['--port', '0', '--db', db.dbPath]);
+    const form = new FormData();
+    form.append('file', new Blob([new Uint8Array(readFileSync(path))], { type: 'application/zip' }), 'many.zip');
+    const started = await fetch(`${url}/api/v1/batches`, { method: 'POST', body: form });
+    expect(started.status).toBe(202);
+    const { jobId } = (await started.json()) as { jobId: string };
+    const exited = new Promise((resolve) => child.on('exit', resolve));
+    child.kill('SIGTERM');
+    expect(await exited).toBe(0);
+    expect(jobProgress(jobsDatabasePath(db.dbPath), jobId).state).not.toBe('done'); // it was stopped part-way
+
+    const second = await buildServer({ dbPath: db.dbPath, rateLimit: false });
+    try {
+      const progress = await finished(jobId, second);
+      expect(progress.state).toBe('done');
+      expect(progress.input).toBe('darwin-core-archive');
+      const zip = await second.inject({ url: `/api/v1/batches/${jobId}/reviewed.zip` });
+      writeFileSync(join(files, 'many-reviewed.zip'), zip.rawPayload);
+      const entries = await unzip(join(files, 'many-reviewed.zip'));
+      expect(entries.map((e) => e.name)).toEqual(['meta.xml', 'occurrence.csv', 'eml.xml']);
+      const [header, ...body] = parse(entries[1].bytes, { delimiter: '\t', record_delimiter: '\r\n' }) as string[][];
+      expect(body.map((r) => r[0])).toEqual(Array.from({ length: 4000 }, (_, i) => `o-${i}`));
+      expect(body.every((r) => r[header.indexOf('georeferenceVerificationStatus')] !== '')).toBe(true);
+      // The core table and the job's note of its archive are gone once the job is done; the upload stays for the download.
+      expect(readdirSync(dirname(db.dbPath)).filter((f) => f.startsWith('whereabouts-archive-'))).toEqual([]);
+      expect(readdirSync(batchFolderPath(db.dbPath)).filter((f) => f.endsWith('.archive.json'))).toEqual([]);
+    } finally {
+      await second.close();
+    }
+  }, 180_000);
 });

@@ -3,7 +3,8 @@
  * 2023, TDWG, http://rs.tdwg.org/dwc/terms/guides/text/; "guide §" below) from invented demo records,
  * for the tests of the CLI's batch and of the HTTP upload: a Windows-1252 tab-separated core with a
  * constant field, a column meta.xml does not describe and one row cut short, an Audubon Core multimedia
- * extension (rowType http://rs.tdwg.org/ac/terms/Multimedia) and EML metadata.
+ * extension (rowType http://rs.tdwg.org/ac/terms/Multimedia) and EML metadata; and one of 4,000 rows, for
+ * jobs stopped part way.
  */
 import { createWriteStream, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -70,3 +71,17 @@ export const eml = Buffer.from(`<?xml version="1.0" encoding="UTF-8"?>
 
 /** The demo archive's files in the order they are zipped. */
 export const ARCHIVE_FILES: [string, Buffer][] = [['meta.xml', Buffer.from(metaXml)], ['eml.xml', eml], ['occurrence.txt', coreBytes], ['multimedia.txt', multimedia]];
+
+const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
+
+/** 4,000 invented occurrences (Darwin Core text guide §2.2: a comma-separated, quoted core with one header line). */
+export async function writeManyRowArchive(path: string): Promise<void> {
+  const rows = ['id,locality'];
+  for (let i = 0; i < 4000; i++) rows.push(`o-${i},"${(i % 40) + 1} km N of ${PLACES[i % PLACES.length]}"`);
+  const meta = `<archive xmlns="http://rs.tdwg.org/dwc/text/"><core ignoreHeaderLines="1" rowType="${DWC}Occurrence"><files><location>occurrence.csv</location></files><id index="0"/><field index="0" term="${DWC}occurrenceID"/><field index="1" term="${DWC}locality"/><field term="${DWC}countryCode" default="QV"/></core></archive>`;
+  const zip = new yazl.ZipFile();
+  zip.addBuffer(Buffer.from(meta), 'meta.xml');
+  zip.addBuffer(Buffer.from(`${rows.join('\n')}\n`), 'occurrence.csv');
+  zip.end();
+  await pipeline(zip.outputStream, createWriteStream(path));
+}
