@@ -20,7 +20,7 @@ import { unzip } from '../batch/helpers.ts';
 import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 import { ARCHIVE_FILES, coreBytes, coreRows, DWC, metaXml, multimedia, SHORT_ROW, writeManyRowArchive, zipFiles } from '../support/demo-archive.ts';
 import { jobProgress, jobsDatabasePath } from '../../src/batch/index.ts';
-import { DEMO_LOCALITIES, demoDatabase, spawnServe, type TempDatabase } from './helpers.ts';
+import { DEMO_LOCALITIES, demoDatabase, uploadThenStop, type TempDatabase } from './helpers.ts';
 
 let db: TempDatabase;
 let app: FastifyInstance;
@@ -217,15 +217,9 @@ describe('a stop during an archive batch', () => {
   it('SIGTERM stops the service; the next start resumes the job over the core, and the archive has every row once', async () => {
     const path = join(files, 'many.zip');
     await writeManyRowArchive(path);
-    const { url, child } = await spawnServe(['--port', '0', '--db', db.dbPath]);
-    const form = new FormData();
-    form.append('file', new Blob([new Uint8Array(readFileSync(path))], { type: 'application/zip' }), 'many.zip');
-    const started = await fetch(`${url}/api/v1/batches`, { method: 'POST', body: form });
-    expect(started.status).toBe(202);
-    const { jobId } = (await started.json()) as { jobId: string };
-    const exited = new Promise((resolve) => child.on('exit', resolve));
-    child.kill('SIGTERM');
-    expect(await exited).toBe(0);
+    const { jobId, uploadStatus, exitCode } = await uploadThenStop(db.dbPath, readFileSync(path), 'many.zip');
+    expect(uploadStatus).toBe(202);
+    expect(exitCode).toBe(0);
     expect(jobProgress(jobsDatabasePath(db.dbPath), jobId).state).not.toBe('done'); // it was stopped part-way
 
     const second = await buildServer({ dbPath: db.dbPath, rateLimit: false });
