@@ -97,7 +97,10 @@ export function uploadKind(bytes: Buffer): 'csv' | 'archive' {
   return 'csv';
 }
 
-/** The files of an upload's job: all named from one id, so a job's output path leads back to its upload. */
+/**
+ * The files of an upload's job: all named from one id, so a job's output path leads back to its upload.
+ * An archive's job writes no `archiveOutput` (`coreOnly`): its core table is named from it.
+ */
 function uploadFiles(folder: string, id: string) {
   return { csvOutput: join(folder, `${id}.csv`), archive: join(folder, `${id}.dwca.zip`), archiveOutput: join(folder, `${id}.zip`) };
 }
@@ -258,7 +261,7 @@ export class BatchService {
   /**
    * The job's output with every decision applied: accepted → "verified by data custodian", rejected →
    * "requires georeference" with the proposal moved into the remarks; a chosen candidate recomputes
-   * the appended terms. Originals are never changed.
+   * the appended terms. Originals are never changed. `as` is the delimiter to write (default the job's).
    */
   reviewedCsv(jobId: string, as?: Delimiter): { text: string; delimiter: Delimiter } {
     const output = this.output(jobId);
