@@ -86,6 +86,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
   }
 
   let listRequest = 0;
+  let recordRequest = 0;
   async function refreshList(first = false) {
     const asked = ++listRequest;
     const answer = await getJson(`/api/v1/batches/${jobId}/records?${filterQuery()}`);
@@ -128,11 +129,15 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     }
     if (resolution.locality !== undefined) q.set('locality', resolution.locality);
     if (resolution.recordCoordinates) q.set('recordCoordinates', 'true');
+    const asked = ++recordRequest;
+    let answer;
     try {
-      detail = await getJson(`/api/v1/batches/${jobId}/records/${r.row}${q.size ? `?${q}` : ''}`);
+      answer = await getJson(`/api/v1/batches/${jobId}/records/${r.row}${q.size ? `?${q}` : ''}`);
     } catch (error) {
       return say(error.message);
     }
+    if (asked !== recordRequest) return; // keys pressed quickly: only the newest record is shown
+    detail = answer;
     renderRecord();
     await map.show(detail.answer);
   }
