@@ -272,5 +272,14 @@ ${terms.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/term
     for (const { name, bytes } of entries) for (const value of values) expect(holds(bytes, value), `${name}: ${value}`).toBe(false);
     const core = entries.find((e) => e.name === 'occurrence.txt')!.bytes.toString('utf8');
     expect(core).toContain('Coordinates generalized from the original georeference');
+    // meta.xml names each appended column at its index (Darwin Core text guide §2.4), the two terms under the dwc namespace.
+    const header = core.split('\r\n')[0]!.split('\t');
+    const metafile = entries.find((e) => e.name === 'meta.xml')!.bytes.toString('utf8');
+    for (const term of ['dataGeneralizations', 'informationWithheld', 'decimalLatitude', 'footprintWKT']) {
+      const index = header.findIndex((h) => h === term || h === `proposed_${term}`);
+      expect(index, term).toBeGreaterThan(0);
+      expect(metafile).toMatch(new RegExp(`<field index="${index}" term="http://(rs\\.tdwg\\.org/dwc/terms|whereabouts\\.invalid/terms)/(proposed_)?${term}"/>`));
+    }
+    expect(metafile).toContain('term="http://rs.tdwg.org/dwc/terms/dataGeneralizations"');
   }, 180_000);
 });
