@@ -8,13 +8,17 @@
  */
 import { parse } from 'csv-parse/sync';
 import type { FastifyInstance } from 'fastify';
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jobsDatabasePath } from '../../src/batch/index.ts';
 import { methodChoiceValues } from '../../src/georef/method-choices.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { DEMO_LOCALITIES, demoDatabase, type TempDatabase } from './helpers.ts';
 import { asNumber, holdsCoordinate, withheldRows } from '../support/withheld.ts';
+import { ARCHIVE_FILES, coreBytes, zipFiles } from '../support/demo-archive.ts';
+import { unzip } from '../batch/helpers.ts';
 
 let db: TempDatabase;
 let app: FastifyInstance;
@@ -105,6 +109,30 @@ describe('POST /api/v1/batches with a list of sensitive taxa', () => {
       expect(file.statusCode).toBe(200);
       for (const value of precise) expect(holds(file.rawPayload, value), `${format}: ${value}`).toBe(false);
     }
+  }, 90_000);
+});
+
+describe('POST /api/v1/batches with a Darwin Core Archive and a list of sensitive taxa', () => {
+  it('generalises the core\'s listed rows; the reviewed archive holds no precise point in any file (Darwin Core text guide, TDWG 2023)', async () => {
+    const path = join(mkdtempSync(join(tmpdir(), 'whereabouts-dwca-')), 'records.zip');
+    await zipFiles(path, ARCHIVE_FILES);
+    const started = await upload('', { file: readFileSync(path), sensitiveTaxa: TAXA });
+    expect(started.status).toBe(202);
+    expect((await finished(started.json.jobId)).state).toBe('done');
+    const precise = [...withheld(started.json.jobId).values()].flatMap((p) => [p.decimalLatitude!, p.decimalLongitude!]).filter((v) => !asNumber(v).test(coreBytes.toString('latin1')));
+    expect(precise.length).toBeGreaterThan(0);
+    const archive = await app.inject({ method: 'GET', url: `/api/v1/batches/${started.json.jobId}/reviewed.zip` });
+    expect(archive.statusCode).toBe(200);
+    const zipped = join(path, '..', 'reviewed.zip');
+    writeFileSync(zipped, archive.rawPayload);
+    const entries = await unzip(zipped);
+    const core = entries.find((e) => e.name === 'occurrence.txt')!.bytes.toString('utf8');
+    expect(core).toContain('Coordinates generalized from the original georeference');
+    // An unlisted record may name the same place (its remarks give the place's centre): that value is its own, not a leak.
+    const unlisted = (parse(core, { delimiter: '\t', relax_quotes: true }) as string[][]).filter((r) => !/^(Verdemaria lindoensis|Serenella alticola|Telmoa ambigua)$/.test(r[2]!)).flat().join('\t');
+    const onlyListed = precise.filter((v) => !asNumber(v).test(unlisted));
+    expect(onlyListed.length).toBeGreaterThan(0);
+    for (const { name, bytes } of entries) for (const value of onlyListed) expect(holds(bytes, value), `${name}: ${value}`).toBe(false);
   }, 90_000);
 });
 
