@@ -4,6 +4,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { FastifyInstance } from 'fastify';
+import { afterAll, beforeAll } from 'vitest';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer, type ServerOptions } from '../../src/server/app.ts';
@@ -37,6 +38,24 @@ export async function demoDatabase(extraFeatures: object[] = []): Promise<TempDa
     store.close();
   }
   return { dir, dbPath, remove: () => rmSync(dir, { recursive: true, force: true }) };
+}
+
+/**
+ * The service on a fresh demo gazetteer, for inject: built before the calling file's tests, closed and
+ * removed after them. Read `app` and `db` inside the tests.
+ * @example const service = demoService(); it('…', async () => service.app.inject({ url: '/api/v1/method' }));
+ */
+export function demoService(): { app: FastifyInstance; db: TempDatabase } {
+  const service = {} as { app: FastifyInstance; db: TempDatabase };
+  beforeAll(async () => {
+    service.db = await demoDatabase();
+    service.app = await buildServer({ dbPath: service.db.dbPath });
+  });
+  afterAll(async () => {
+    await service.app?.close();
+    service.db?.remove();
+  });
+  return service;
 }
 
 export interface RunningServer {
