@@ -14,6 +14,7 @@
  * per degree from the geodesics to the corners at these sizes) [CHOICE: common practice, no source].
  */
 import { inverse } from '../geodesy/geodesic.ts';
+import { polygonsToWKT } from '../geodesy/wkt.ts';
 
 /** A point-radius georeference: decimal degrees on WGS84 and meters. */
 export interface PointRadius {
@@ -55,7 +56,9 @@ export function generaliseToGrid(point: PointRadius, gridDegrees: number): GridG
   const west = snap(Math.floor(point.longitude / gridDegrees + 1e-9) * gridDegrees);
   const east = snap(west + gridDegrees);
   const latitude = (south + north) / 2;
-  const longitude = (west + east) / 2;
+  // A cell past 180° has its centre written within ±180° too.
+  const middle = (west + east) / 2;
+  const longitude = middle > 180 ? Number((middle - 360).toFixed(decimals + 1)) : middle;
   const halfDiagonalMeters = Math.max(...[south, north].flatMap((lat) => [west, east].map((lon) => inverse(latitude, longitude, lat, lon).meters)));
   const ring = [[west, south], [east, south], [east, north], [west, north], [west, south]];
   return {
@@ -67,7 +70,8 @@ export function generaliseToGrid(point: PointRadius, gridDegrees: number): GridG
     decimalLongitude: longitude.toFixed(decimals + 1),
     halfDiagonalMeters,
     radiusMeters: Math.ceil(halfDiagonalMeters + point.radiusMeters),
-    footprintWKT: `POLYGON((${ring.map(([x, y]) => `${x} ${y}`).join(',')}))`,
+    // A cell past 180° (a size that does not divide 180) is cut there into two parts.
+    footprintWKT: polygonsToWKT([[ring]]),
   };
 }
 

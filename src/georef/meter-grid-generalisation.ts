@@ -8,7 +8,7 @@
  * to the cell's centre, written to a hundredth of the side or finer; the radius is the geodesic distance
  * from that written centre to the cell's farthest corner plus the original radius, rounded up, so the circle
  * holds the whole cell and every place the original circle held; the footprint is the cell, its sides
- * followed by 8 segments each [CHOICE: the local grid, common practice, no source].
+ * followed by 8 segments each, cut at ±180° where it crosses it [CHOICE: the local grid, common practice, no source].
  *
  * Accuracy: the grid through proj4's transverse Mercator (better than a millimetre within a zone; checked
  * against EPSG Guidance Note 7-2 in test/geodesy/utm.test.ts) and geographiclib's geodesics (about 15 nm).
@@ -18,6 +18,7 @@
  */
 import { inverse } from '../geodesy/geodesic.ts';
 import { proj4 } from '../geodesy/proj4.ts';
+import { polygonsToWKT } from '../geodesy/wkt.ts';
 import type { GridGeneralisation, PointRadius } from './grid-generalisation.ts';
 
 /** The sides accepted, meters: finer says nothing a grid should hide, coarser says nothing useful. */
@@ -57,7 +58,8 @@ export function generaliseToMeterGrid(point: PointRadius, sideMeters: number): G
     return Array.from({ length: SIDE_SEGMENTS }, (_, k) => toGeographic(e + ((nextE - e) * k) / SIDE_SEGMENTS, n + ((nextN - n) * k) / SIDE_SEGMENTS));
   });
   const halfDiagonalMeters = Math.max(...corners.map(([e, n]) => toGeographic(e, n)).map(([lon, lat]) => inverse(latitude, longitude, lat, lon).meters));
-  const vertices = [...ring, ring[0]!].map(([lon, lat]) => `${round7(lon)} ${round7(lat)}`);
+  // Longitudes next to the centre's, so that a cell across ±180° is cut there into two parts.
+  const unwrapped = [...ring, ring[0]!].map(([lon, lat]) => [lon + 360 * Math.round((longitude - lon) / 360), lat]);
   return {
     latitude,
     longitude,
@@ -67,13 +69,8 @@ export function generaliseToMeterGrid(point: PointRadius, sideMeters: number): G
     cell: `${sideMeters} m cell of the UTM zone ${zone}${south ? 'S' : 'N'} grid (WGS 84)`,
     halfDiagonalMeters,
     radiusMeters: Math.ceil(halfDiagonalMeters + point.radiusMeters),
-    footprintWKT: `POLYGON((${vertices.join(',')}))`,
+    footprintWKT: polygonsToWKT([[unwrapped]]),
   };
-}
-
-/** Degrees to 7 decimals (about 1 cm), as the footprint is written. */
-function round7(value: number): number {
-  return Math.round(value * 1e7) / 1e7;
 }
 
 function checkSide(value: number): void {

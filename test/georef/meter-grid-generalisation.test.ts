@@ -54,14 +54,28 @@ describe('a grid in meters: the UTM grid of the point\'s zone', () => {
       expect(Math.abs(g.halfDiagonalMeters - farthest)).toBeLessThan(0.001);
       expect(g.radiusMeters).toBe(Math.ceil(farthest + point.radiusMeters));
       // …and every vertex of the footprint (the cell's sides), and the original circle.
-      const vertices = /POLYGON\(\((.*)\)\)/.exec(g.footprintWKT)![1]!.split(',').map((v) => v.split(' ').map(Number) as [number, number]);
-      expect(vertices).toHaveLength(33);
+      const vertices = [...g.footprintWKT.matchAll(/(-?[\d.]+) (-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])] as [number, number]);
       for (const [lon, lat] of vertices) expect(vincenty(g.latitude, g.longitude, lat, lon)).toBeLessThanOrEqual(g.radiusMeters);
       expect(vincenty(g.latitude, g.longitude, point.latitude, point.longitude) + point.radiusMeters).toBeLessThanOrEqual(g.radiusMeters);
-      // The corners of the footprint are the cell's corners (to the 7 decimals written).
-      for (const k of [0, 8, 16, 24]) expect(vincenty(vertices[k]![1], vertices[k]![0], ...cell.corners[k / 8]!)).toBeLessThan(0.02);
+      if (g.footprintWKT.startsWith('POLYGON')) {
+        // One ring, 8 segments a side; its corners are the cell's corners (to the 7 decimals written).
+        expect(vertices).toHaveLength(33);
+        for (const k of [0, 8, 16, 24]) expect(vincenty(vertices[k]![1], vertices[k]![0], ...cell.corners[k / 8]!)).toBeLessThan(0.02);
+      }
     });
   }
+
+  it('a cell across the antimeridian: the footprint cut at ±180° into two parts (RFC 7946 §3.1.9), the radius still covering every corner', () => {
+    const point = { latitude: 64.98, longitude: 179.97, radiusMeters: 10 };
+    const g = generaliseToMeterGrid(point, 5000);
+    const cell = independentCell(point.latitude, point.longitude, 5000);
+    expect(cell.corners.some(([, lon]) => lon < 0)).toBe(true); // the cell does cross
+    expect(g.footprintWKT).toMatch(/^MULTIPOLYGON\(/);
+    const longitudes = [...g.footprintWKT.matchAll(/(-?[\d.]+) -?[\d.]+/g)].map((m) => Number(m[1]));
+    expect(longitudes.every((lon) => lon >= -180 && lon <= 180)).toBe(true);
+    expect(longitudes).toEqual(expect.arrayContaining([180, -180]));
+    expect(g.radiusMeters).toBe(Math.ceil(Math.max(...cell.corners.map(([lat, lon]) => vincenty(g.latitude, g.longitude, lat, lon))) + point.radiusMeters));
+  });
 
   it('is reproducible: two points of one cell give the same answer', () => {
     const a = generaliseToMeterGrid({ latitude: -45.4321, longitude: -131.0789, radiusMeters: 0 }, 10000);
