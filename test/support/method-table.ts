@@ -81,9 +81,9 @@ const named = (place: string) => (): Computed => {
   return { point: f.at, terms: { extent: f.radius } };
 };
 /** d km at a compass heading: geodesic from the feature, r_f + offset term (BP2020 §Offset at a Heading). */
-const atHeading = (km: number, heading: keyof typeof halfWidth, azimuth: number, place: string) => (): Computed => {
+const atHeading = (km: number, heading: keyof typeof halfWidth, place: string) => (): Computed => {
   const f = feature(place);
-  return { point: f.at.destinationPoint(km * 1000, azimuth), terms: { extent: f.radius, offset: offsetAtHeading(km * 1000, deltaMeters(km), halfWidth[heading]) } };
+  return { point: f.at.destinationPoint(km * 1000, azimuthOf[heading]), terms: { extent: f.radius, offset: offsetAtHeading(km * 1000, deltaMeters(km), halfWidth[heading]) } };
 };
 /** North/south then east/west, geodesically; r_f + √(δx² + δy²) (WGH2004, orthogonal offsets; BP2020 §Offset – Distance along Orthogonal Directions). */
 const orthogonal = (northKm: number, eastKm: number, place: string) => (): Computed => {
@@ -309,7 +309,7 @@ function row(language: TableRow['language'], type: string, label: string, comput
 
 export const METHOD_TABLE: TableRow[] = [
   row('en', 'named-place', 'Val-Marin', named('Val-Marin')),
-  row('en', 'offset-heading', '10 km NE of Vila Serena', atHeading(10, 'NE', 45, 'Vila Serena')),
+  row('en', 'offset-heading', '10 km NE of Vila Serena', atHeading(10, 'NE', 'Vila Serena')),
   row('en', 'offset-orthogonal', '3 km N and 2 km E of Valle Hondo', orthogonal(3, 2, 'Valle Hondo')),
   row('en', 'distance-only', '5 km from Saint-Aubrac', distanceOnly(5, 'Saint-Aubrac')),
   row('en', 'between', 'between Val-Marin and Millbrook', between('Val-Marin', 'Millbrook')),
@@ -321,7 +321,7 @@ export const METHOD_TABLE: TableRow[] = [
   row('en', 'coordinates', '45.2662 S, 131.0643 W', coordinates(-45.2662, -131.0643, 0.0001, 'none')),
   row('en', 'coordinates', "45°13.5'S 131°06.2'W WGS 72", coordinates(southWest(45, 13.5), southWest(131, 6.2), 0.1 * minute, 'WGS72')),
   row('es', 'named-place', 'Valle Hondo', named('Valle Hondo')),
-  row('es', 'offset-heading', 'ca. 10 km al NE de Valle Hondo', atHeading(10, 'NE', 45, 'Valle Hondo')),
+  row('es', 'offset-heading', 'ca. 10 km al NE de Valle Hondo', atHeading(10, 'NE', 'Valle Hondo')),
   row('es', 'offset-orthogonal', '3 km al N y 2 km al E de Valle Hondo', orthogonal(3, 2, 'Valle Hondo')),
   row('es', 'distance-only', 'a 5 km de Valle Hondo', distanceOnly(5, 'Valle Hondo')),
   row('es', 'between', 'entre Valle Hondo y Villa Alisos', between('Valle Hondo', 'Villa Alisos')),
@@ -332,7 +332,7 @@ export const METHOD_TABLE: TableRow[] = [
   row('es', 'coordinates', "45°36'S 131°25'O", coordinates(southWest(45, 36), southWest(131, 25), minute, 'none')),
   row('es', 'coordinates', 'Cerca de Valle Hondo, 45°36\'31" S, 131°25\'22" O, WGS84', coordinates(southWest(45, 36, 31), southWest(131, 25, 22), second, 'WGS84')),
   row('pt', 'named-place', 'Vila Serena', named('Vila Serena')),
-  row('pt', 'offset-heading', '3 km ao N de Vila Serena', atHeading(3, 'N', 0, 'Vila Serena')),
+  row('pt', 'offset-heading', '3 km ao N de Vila Serena', atHeading(3, 'N', 'Vila Serena')),
   row('pt', 'offset-orthogonal', '3 km ao N e 2 km a L de Vila Serena', orthogonal(3, 2, 'Vila Serena')),
   row('pt', 'distance-only', 'a 5 km de Vila Serena', distanceOnly(5, 'Vila Serena')),
   row('pt', 'between', 'entre Vila Serena e Porto Novo', between('Vila Serena', 'Porto Novo')),
@@ -340,12 +340,12 @@ export const METHOD_TABLE: TableRow[] = [
   row('pt', 'offset-path', '10 km ao longo da Trilha do Pico desde Vila Serena', alongPath(10, 'Trilha do Pico', 'Vila Serena')),
   row('pt', 'junction', 'confluência do Rio Fundo e Ribeirão das Pedras', junction('Rio Fundo', 'Ribeirão das Pedras')),
   row('pt', 'heading-only', 'ao N de Vila Serena', headingOnly('N', 'Vila Serena', 'Serrana'), 'Serrana'),
-  row('pt', 'offset-heading', '10 km a NE de Vila Serena', atHeading(10, 'NE', 45, 'Vila Serena')),
+  row('pt', 'offset-heading', '10 km a NE de Vila Serena', atHeading(10, 'NE', 'Vila Serena')),
   row('pt', 'offset-path', '8 km pela estrada de Vila Serena', pathWithoutLine(8, 'Vila Serena')),
   row('pt', 'coordinates', "45°18'S 131°00'O", coordinates(southWest(45, 18), southWest(131, 0), minute, 'none')),
   row('pt', 'coordinates', 'Vila Serena, 45°18\'04"S 131°00\'00"O (WGS84)', coordinates(southWest(45, 18, 4), southWest(131, 0, 0), second, 'WGS84')),
   row('fr', 'named-place', 'Saint-Aubrac', named('Saint-Aubrac')),
-  row('fr', 'offset-heading', 'à 5 km au sud-ouest de Saint-Aubrac', atHeading(5, 'SW', 225, 'Saint-Aubrac')),
+  row('fr', 'offset-heading', 'à 5 km au sud-ouest de Saint-Aubrac', atHeading(5, 'SW', 'Saint-Aubrac')),
   row('fr', 'offset-orthogonal', "3 km au N et 2 km à l'E de Saint-Aubrac", orthogonal(3, 2, 'Saint-Aubrac')),
   row('fr', 'distance-only', 'à 5 km de Saint-Aubrac', distanceOnly(5, 'Saint-Aubrac')),
   row('fr', 'between', 'entre Saint-Aubrac et Beaulieu', between('Saint-Aubrac', 'Beaulieu')),
@@ -353,7 +353,7 @@ export const METHOD_TABLE: TableRow[] = [
   row('fr', 'offset-path', '10 km par la Route de la Côte depuis Saint-Aubrac', alongPath(10, 'Route de la Côte', 'Saint-Aubrac')),
   row('fr', 'junction', 'confluent de la Rivière Blanche et du Ruisseau des Saules', junction('Rivière Blanche', 'Ruisseau des Saules')),
   row('fr', 'heading-only', 'au N de Saint-Aubrac', headingOnly('N', 'Saint-Aubrac', 'Haut-Levant'), 'Haut-Levant'),
-  row('fr', 'offset-heading', 'à 10 km au NE de Saint-Aubrac', atHeading(10, 'NE', 45, 'Saint-Aubrac')),
+  row('fr', 'offset-heading', 'à 10 km au NE de Saint-Aubrac', atHeading(10, 'NE', 'Saint-Aubrac')),
   row('fr', 'offset-path', '8 km par la route de Saint-Aubrac', pathWithoutLine(8, 'Saint-Aubrac')),
   row('fr', 'coordinates', "45°40'S 130°30'O", coordinates(southWest(45, 40), southWest(130, 30), minute, 'none')),
   row('fr', 'coordinates', "près de Saint-Aubrac, 45°16,97' S 130°29,24' O, WGS 72", coordinates(southWest(45, 16.97), southWest(130, 29.24), 0.01 * minute, 'WGS72')),
