@@ -16,7 +16,7 @@ import { createRequire } from 'node:module';
 import LatLonDatum from 'geodesy/latlon-ellipsoidal-datum.js';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { expect } from 'vitest';
-import { centerMinimax, edgeMinimax } from './independent-minimax.ts';
+import { centerMinimax, edgeMinimax, type Minimax } from './independent-minimax.ts';
 
 type Position = number[];
 interface DemoFeature {
@@ -223,10 +223,25 @@ const headingOnly = (heading: keyof typeof halfWidth, place: string, countyName:
     }
     if (inSector(current)) ring.push(current);
   }
-  const part = { type: 'Polygon' as const, coordinates: [ring] };
-  const free = centerMinimax(part);
-  const within = (p: Position) => inSector(p) && inPolygon(p, countyRing);
-  const center = within([free.longitude, free.latitude]) ? free : edgeMinimax(part, part.coordinates);
+  const center = correctedCenter(ring, (p) => inSector(p) && inPolygon(p, countyRing));
+  return { point: new LatLon(center.latitude, center.longitude), terms: { extent: center.radiusMeters } };
+};
+
+/**
+ * The corrected center and geographic radial of an area (BP2020 glossary; docs/method.md §4): the smallest
+ * circle holding its vertices when its center lies in the area (`within`), else the point of its boundary
+ * that minimises the largest distance to them (test/support/independent-minimax.ts).
+ */
+function correctedCenter(ring: Position[], within: (p: Position) => boolean): Minimax {
+  const area = { type: 'Polygon' as const, coordinates: [ring] };
+  const free = centerMinimax(area);
+  return within([free.longitude, free.latitude]) ? free : edgeMinimax(area, area.coordinates);
+}
+
+/** A named county: its polygon's corrected center and radial (BP2020 §Georeferencing a Named Place; docs/method.md §4). */
+const namedArea = (countyName: string) => (): Computed => {
+  const ring = county(countyName);
+  const center = correctedCenter(ring, (p) => inPolygon(p, ring));
   return { point: new LatLon(center.latitude, center.longitude), terms: { extent: center.radiusMeters } };
 };
 
@@ -309,6 +324,7 @@ function row(language: TableRow['language'], type: string, label: string, comput
 
 export const METHOD_TABLE: TableRow[] = [
   row('en', 'named-place', 'Val-Marin', named('Val-Marin')),
+  row('en', 'named-place', 'Eastmoor County', namedArea('Eastmoor')),
   row('en', 'offset-heading', '10 km NE of Vila Serena', atHeading(10, 'NE', 'Vila Serena')),
   row('en', 'offset-orthogonal', '3 km N and 2 km E of Valle Hondo', orthogonal(3, 2, 'Valle Hondo')),
   row('en', 'distance-only', '5 km from Saint-Aubrac', distanceOnly(5, 'Saint-Aubrac')),
@@ -321,6 +337,7 @@ export const METHOD_TABLE: TableRow[] = [
   row('en', 'coordinates', '45.2662 S, 131.0643 W', coordinates(-45.2662, -131.0643, 0.0001, 'none')),
   row('en', 'coordinates', "45°13.5'S 131°06.2'W WGS 72", coordinates(southWest(45, 13.5), southWest(131, 6.2), 0.1 * minute, 'WGS72')),
   row('es', 'named-place', 'Valle Hondo', named('Valle Hondo')),
+  row('es', 'named-place', 'Partido de Alisos', namedArea('Alisos')),
   row('es', 'offset-heading', 'ca. 10 km al NE de Valle Hondo', atHeading(10, 'NE', 'Valle Hondo')),
   row('es', 'offset-orthogonal', '3 km al N y 2 km al E de Valle Hondo', orthogonal(3, 2, 'Valle Hondo')),
   row('es', 'distance-only', 'a 5 km de Valle Hondo', distanceOnly(5, 'Valle Hondo')),
@@ -332,6 +349,7 @@ export const METHOD_TABLE: TableRow[] = [
   row('es', 'coordinates', "45°36'S 131°25'O", coordinates(southWest(45, 36), southWest(131, 25), minute, 'none')),
   row('es', 'coordinates', 'Cerca de Valle Hondo, 45°36\'31" S, 131°25\'22" O, WGS84', coordinates(southWest(45, 36, 31), southWest(131, 25, 22), second, 'WGS84')),
   row('pt', 'named-place', 'Vila Serena', named('Vila Serena')),
+  row('pt', 'named-place', 'Município de Rio Fundo', namedArea('Rio Fundo')),
   row('pt', 'offset-heading', '3 km ao N de Vila Serena', atHeading(3, 'N', 'Vila Serena')),
   row('pt', 'offset-orthogonal', '3 km ao N e 2 km a L de Vila Serena', orthogonal(3, 2, 'Vila Serena')),
   row('pt', 'distance-only', 'a 5 km de Vila Serena', distanceOnly(5, 'Vila Serena')),
@@ -345,6 +363,7 @@ export const METHOD_TABLE: TableRow[] = [
   row('pt', 'coordinates', "45°18'S 131°00'O", coordinates(southWest(45, 18), southWest(131, 0), minute, 'none')),
   row('pt', 'coordinates', 'Vila Serena, 45°18\'04"S 131°00\'00"O (WGS84)', coordinates(southWest(45, 18, 4), southWest(131, 0, 0), second, 'WGS84')),
   row('fr', 'named-place', 'Saint-Aubrac', named('Saint-Aubrac')),
+  row('fr', 'named-place', 'canton de Haut-Levant', namedArea('Haut-Levant')),
   row('fr', 'offset-heading', 'à 5 km au sud-ouest de Saint-Aubrac', atHeading(5, 'SW', 'Saint-Aubrac')),
   row('fr', 'offset-orthogonal', "3 km au N et 2 km à l'E de Saint-Aubrac", orthogonal(3, 2, 'Saint-Aubrac')),
   row('fr', 'distance-only', 'à 5 km de Saint-Aubrac', distanceOnly(5, 'Saint-Aubrac')),
