@@ -1,11 +1,13 @@
 /**
- * The end-to-end table shared by the CLI and HTTP runs (test/e2e/method-table.test.ts): labels of every
- * locality type the demo gazetteer can answer, in the four languages, each with the answer computed here,
- * independently of the code under test:
+ * The end-to-end table shared by the CLI and HTTP runs (test/e2e/method-table.test.ts) and the batch run
+ * (test/e2e/languages.test.ts): labels of every locality type the demo gazetteer answers (all but
+ * "administrative-unit", which it declines for want of a polygon, and the refusals), in the four languages,
+ * each with the answer computed here, independently of the code under test:
  * - points by Vincenty's direct and inverse solutions on WGS84 (Vincenty 1975, Survey Review 23:88), from the
  *   registry package geodesy (C. Veness, MIT), starting from the features as gazetteer/demo.geojson gives them;
  * - datum shifts by the Helmert transformation with the EPSG dataset's parameters (epsg-index), geocentric
  *   coordinates by geodesy;
+ * - corrected centers and radials of areas by an independent minimax (test/support/independent-minimax.ts);
  * - every uncertainty term on its own, from the published formulas restated below with their sections
  *   (Wieczorek, Guo & Hijmans 2004 = WGH2004; Chapman & Wieczorek 2020 = BP2020; docs/method.md restates them).
  * `expectAnswer` holds the tolerances: point within 1 m, each term within 0.5 %, the reported decimals and
