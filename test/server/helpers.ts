@@ -74,6 +74,42 @@ export async function listen(options: ServerOptions): Promise<RunningServer> {
   return { app, url: `http://127.0.0.1:${address.port}`, close: () => app.close() };
 }
 
+/** The demo database and a real server over it, made before a test file's tests and removed after them. */
+export interface DemoService {
+  readonly db: TempDatabase;
+  readonly server: RunningServer;
+}
+
+/**
+ * Registers beforeAll/afterAll for a test file: the demo gazetteer in a fresh SQLite file (plus any extra
+ * features, as `demoDatabase`) and `buildServer` over it on 127.0.0.1 with `options`; read `db` and `server`
+ * inside the tests.
+ * @example
+ *   const demo = useDemoServer();
+ *   it('answers', async () => expect((await post(`${demo.server.url}/api/v1/georeference`, body)).status).toBe(200));
+ */
+export function useDemoServer(options: Omit<ServerOptions, 'dbPath'> = {}, extraFeatures: object[] = []): DemoService {
+  let db: TempDatabase | undefined;
+  let server: RunningServer | undefined;
+  beforeAll(async () => {
+    db = await demoDatabase(extraFeatures);
+    server = await listen({ ...options, dbPath: db.dbPath });
+  }, 120_000);
+  afterAll(async () => {
+    await server?.close();
+    db?.remove();
+  });
+  const ready = <T>(value: T | undefined, what: string): T => value ?? (() => { throw new Error(`the demo ${what} is made in beforeAll; read it inside a test`); })();
+  return {
+    get db() {
+      return ready(db, 'database');
+    },
+    get server() {
+      return ready(server, 'server');
+    },
+  };
+}
+
 /** POST JSON (or raw bytes) to the running server. */
 export async function post(url: string, body: unknown, headers: Record<string, string> = {}): Promise<{ status: number; json: any; headers: Headers }> {
   const raw: string | Uint8Array = typeof body === 'string' ? body : body instanceof Uint8Array ? new Uint8Array(body) : JSON.stringify(body);
