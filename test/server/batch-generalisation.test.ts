@@ -13,12 +13,12 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { jobsDatabasePath } from '../../src/batch/index.ts';
 import { methodChoiceValues } from '../../src/georef/method-choices.ts';
-import { DEMO_LOCALITIES, demoService } from './helpers.ts';
+import { DEMO_LOCALITIES, useDemoServer } from './helpers.ts';
 import { asNumber, holdsCoordinate, withheldRows } from '../support/withheld.ts';
 import { ARCHIVE_FILES, coreBytes, zipFiles } from '../support/demo-archive.ts';
 import { unzip } from '../batch/helpers.ts';
 
-const service = demoService();
+const demo = useDemoServer();
 
 /** Only the rows of the listed taxa, whose own columns hold no coordinates: any precise value found is a leak, not another record's own. */
 const LISTED = (() => {
@@ -35,20 +35,20 @@ async function upload(query: string, files: Record<string, string | Buffer>) {
   for (const [field, bytes] of Object.entries(files)) form.append(field, new Blob([typeof bytes === 'string' ? bytes : new Uint8Array(bytes)], { type: 'text/csv' }), `${field}.csv`);
   const request = new Request('http://127.0.0.1/', { method: 'POST', body: form });
   const payload = Buffer.from(await request.arrayBuffer());
-  const response = await service.app.inject({ method: 'POST', url: `/api/v1/batches${query}`, payload, headers: { 'content-type': request.headers.get('content-type')! } });
+  const response = await demo.server.app.inject({ method: 'POST', url: `/api/v1/batches${query}`, payload, headers: { 'content-type': request.headers.get('content-type')! } });
   return { status: response.statusCode, json: response.json() as any };
 }
 
 async function finished(jobId: string) {
   for (let i = 0; i < 600; i++) {
-    const progress = (await service.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}` })).json() as any;
+    const progress = (await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}` })).json() as any;
     if (progress.state === 'done' || progress.state === 'failed') return progress;
     await new Promise((r) => setTimeout(r, 100));
   }
   throw new Error('the job did not finish in 60 s');
 }
 
-const withheld = (jobId: string) => withheldRows(jobsDatabasePath(service.db.dbPath), jobId);
+const withheld = (jobId: string) => withheldRows(jobsDatabasePath(demo.db.dbPath), jobId);
 /** Telmoa ambigua is listed with a 0.1° grid: a value on a 0.1° line may be a cell's corner. */
 const holds = (bytes: Buffer, value: string) => holdsCoordinate(bytes, value, 0.1);
 
@@ -71,10 +71,10 @@ describe('POST /api/v1/batches with a list of sensitive taxa', () => {
   }, 90_000);
 
   it('answers no precise point in the review list or in any record (JSON)', async () => {
-    const list = await service.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records` });
+    const list = await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records` });
     for (const value of precise) expect(list.body).not.toMatch(asNumber(value));
     for (const row of withheld(jobId).keys()) {
-      const detail = await service.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records/${row}` });
+      const detail = await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records/${row}` });
       expect(detail.statusCode).toBe(200);
       for (const value of precise) expect(detail.body, `row ${row}`).not.toMatch(asNumber(value));
       const body = detail.json() as any;
@@ -86,15 +86,15 @@ describe('POST /api/v1/batches with a list of sensitive taxa', () => {
 
   it('keeps a row generalised when the reviewer re-georeferences it, in the reviewed CSV, GeoJSON and GeoPackage', async () => {
     const [row] = [...withheld(jobId).keys()];
-    const detail = (await service.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records/${row}` })).json() as any;
-    const decided = await service.app.inject({ method: 'PUT', url: `/api/v1/batches/${jobId}/records/${row}/review`, payload: { decision: 'accepted', reviewer: 'tester', locality: detail.original.locality } });
+    const detail = (await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/records/${row}` })).json() as any;
+    const decided = await demo.server.app.inject({ method: 'PUT', url: `/api/v1/batches/${jobId}/records/${row}/review`, payload: { decision: 'accepted', reviewer: 'tester', locality: detail.original.locality } });
     expect(decided.statusCode).toBe(200);
-    const csv = await service.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/reviewed.csv` });
+    const csv = await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/reviewed.csv` });
     const rows = parse(csv.body) as string[][];
     expect(rows[row]!.at(-3)).toMatch(/^Coordinates generalized from the original georeference/);
     expect(rows[row]).toContain('verified by data custodian');
     for (const format of ['csv', 'geojson', 'gpkg']) {
-      const file = await service.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/reviewed.${format}` });
+      const file = await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${jobId}/reviewed.${format}` });
       expect(file.statusCode).toBe(200);
       for (const value of precise) expect(holds(file.rawPayload, value), `${format}: ${value}`).toBe(false);
     }
@@ -110,7 +110,7 @@ describe('POST /api/v1/batches with a Darwin Core Archive and a list of sensitiv
     expect((await finished(started.json.jobId)).state).toBe('done');
     const precise = [...withheld(started.json.jobId).values()].flatMap((p) => [p.decimalLatitude!, p.decimalLongitude!]).filter((v) => !asNumber(v).test(coreBytes.toString('latin1')));
     expect(precise.length).toBeGreaterThan(0);
-    const archive = await service.app.inject({ method: 'GET', url: `/api/v1/batches/${started.json.jobId}/reviewed.zip` });
+    const archive = await demo.server.app.inject({ method: 'GET', url: `/api/v1/batches/${started.json.jobId}/reviewed.zip` });
     expect(archive.statusCode).toBe(200);
     const zipped = join(path, '..', 'reviewed.zip');
     writeFileSync(zipped, archive.rawPayload);
@@ -158,7 +158,7 @@ describe('POST /api/v1/batches with a marking column', () => {
   }
 
   it('is described in the OpenAPI document: the query fields and the taxa file', async () => {
-    const doc = (await service.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
+    const doc = (await demo.server.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
     const post = doc.paths['/api/v1/batches'].post;
     expect(post.parameters.filter((p: any) => p.in === 'query').map((p: any) => p.name)).toEqual(['sensitiveColumn', 'gridDegrees', 'gridMeters', 'distanceMeters']);
     expect(post.description).toContain('sensitiveTaxa');

@@ -40,24 +40,6 @@ export async function demoDatabase(extraFeatures: object[] = []): Promise<TempDa
   return { dir, dbPath, remove: () => rmSync(dir, { recursive: true, force: true }) };
 }
 
-/**
- * The service on a fresh demo gazetteer, for inject: built before the calling file's tests, closed and
- * removed after them. Read `app` and `db` inside the tests.
- * @example const service = demoService(); it('…', async () => service.app.inject({ url: '/api/v1/method' }));
- */
-export function demoService(): { app: FastifyInstance; db: TempDatabase } {
-  const service = {} as { app: FastifyInstance; db: TempDatabase };
-  beforeAll(async () => {
-    service.db = await demoDatabase();
-    service.app = await buildServer({ dbPath: service.db.dbPath });
-  });
-  afterAll(async () => {
-    await service.app?.close();
-    service.db?.remove();
-  });
-  return service;
-}
-
 export interface RunningServer {
   app: FastifyInstance;
   /** e.g. http://127.0.0.1:41234 */

@@ -4,13 +4,13 @@
 import { describe, expect, it } from 'vitest';
 import { methodChoices } from '../../src/georef/method-choices.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
-import { demoService } from './helpers.ts';
+import { useDemoServer } from './helpers.ts';
 
-const service = demoService();
+const demo = useDemoServer();
 
 describe('GET /api/v1/method', () => {
   it('answers the list of choices with the values in force', async () => {
-    const response = await service.app.inject({ method: 'GET', url: '/api/v1/method' });
+    const response = await demo.server.app.inject({ method: 'GET', url: '/api/v1/method' });
     expect(response.statusCode).toBe(200);
     const body = response.json() as { id: string; value: unknown }[];
     expect(body).toEqual(methodChoices());
@@ -18,7 +18,7 @@ describe('GET /api/v1/method', () => {
   });
 
   it('is described in the OpenAPI document with its schema', async () => {
-    const doc = (await service.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
+    const doc = (await demo.server.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
     const get = doc.paths['/api/v1/method'].get;
     const schema = get.responses['200'].content['application/json'].schema;
     expect(schema.type).toBe('array');
@@ -26,9 +26,9 @@ describe('GET /api/v1/method', () => {
   });
 
   it('holds the same list as the route answers: the answer\'s example, and one line a choice in the description', async () => {
-    const doc = (await service.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
+    const doc = (await demo.server.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json() as any;
     const get = doc.paths['/api/v1/method'].get;
-    const answered = (await service.app.inject({ method: 'GET', url: '/api/v1/method' })).json() as { id: string; value: unknown; changedBy: string }[];
+    const answered = (await demo.server.app.inject({ method: 'GET', url: '/api/v1/method' })).json() as { id: string; value: unknown; changedBy: string }[];
     expect(get.responses['200'].content['application/json'].example).toEqual(answered);
     const lines = (get.description as string).split('\n').filter((l) => l.startsWith('- '));
     expect(lines).toHaveLength(answered.length);
