@@ -36,8 +36,44 @@ export function outlinesOf(geometry: Polygon | MultiPolygon): Outline[] {
  * @example insideOutlines(0.5, 0.5, outlinesOf(square)) // true
  */
 export function insideOutlines(latitude: number, longitude: number, outlines: readonly Outline[]): boolean {
-  return outlines.some(({ bbox: [w, s, e, n], polygon }) =>
+  return outlinesInBand(outlines, latitude, latitude).some(({ bbox: [w, s, e, n], polygon }) =>
     latitude >= s && latitude <= n && longitude >= w && longitude <= e && booleanPointInPolygon([longitude, latitude], polygon));
+}
+
+/**
+ * Outline indexes by whole degree of latitude: for each band [k − 90, k − 89) the outlines whose box reaches
+ * into it, in their order. Built once for each list (the lists come from caches: Natural Earth's land, a
+ * gazetteer's country outlines), so a point tested against a world of coastlines looks only at the few
+ * near its latitude.
+ */
+const bandsByOutlines = new WeakMap<readonly Outline[], number[][]>();
+
+function latitudeBand(latitude: number): number {
+  return Math.min(179, Math.max(0, Math.floor(latitude + 90)));
+}
+
+/**
+ * The outlines whose box may reach latitudes south..north, in their order: every outline whose box
+ * overlaps that range, and perhaps some near it (callers test the box themselves).
+ */
+function outlinesInBand(outlines: readonly Outline[], south: number, north: number): readonly Outline[] {
+  let bands = bandsByOutlines.get(outlines);
+  if (!bands) {
+    const built: number[][] = Array.from({ length: 180 }, () => []);
+    outlines.forEach(({ bbox: [, s, , n] }, i) => {
+      // A box that is no range (an empty ring's [Infinity, −Infinity]) goes in every band: the callers' own tests judge it.
+      const [from, to] = s <= n ? [latitudeBand(s), latitudeBand(n)] : [0, 179];
+      for (let band = from; band <= to; band++) built[band]!.push(i);
+    });
+    bandsByOutlines.set(outlines, (bands = built));
+  }
+  if (!(south <= north)) return outlines;
+  const first = latitudeBand(south);
+  const last = latitudeBand(north);
+  if (first === last) return bands[first]!.map((i) => outlines[i]!);
+  const indexes = new Set<number>();
+  for (let band = first; band <= last; band++) for (const i of bands[band]!) indexes.add(i);
+  return [...indexes].sort((a, b) => a - b).map((i) => outlines[i]!);
 }
 
 // Shortest length of a degree of latitude on WGS84 (at the equator, 110 574 m; method §5.3) and of longitude at the equator.
@@ -68,7 +104,7 @@ export function distanceToOutlines(latitude: number, longitude: number, outlines
   const estimate = ([x, y]: PlanePoint): PlanePoint => [x * metersPerDegreeLongitude, y * METERS_PER_DEGREE_LATITUDE];
   const shortlist: { a: number[]; b: number[]; estimate: number }[] = [];
   let nearestEstimate = Infinity;
-  for (const { bbox: [w, s, e, n], polygon } of outlines) {
+  for (const { bbox: [w, s, e, n], polygon } of outlinesInBand(outlines, latitude - halfHeight, latitude + halfHeight)) {
     if (s > latitude + halfHeight || n < latitude - halfHeight) continue;
     if (halfWidth < 180 && !spansPoint(w, e, longitude, halfWidth)) continue;
     for (const ring of polygon.coordinates) {
