@@ -52,4 +52,12 @@ export const METHOD_DEFAULTS = {
    * measured on the real records (their gazetteer holds no unit polygons).
    */
   justOutsideMeters: 25000,
+  /**
+   * The text's generic word says a river, lake, mountain, farm, road or park ("Rio X", "Serra Y") and the
+   * gazetteer holds only a settlement whose own name begins or ends with a word of that kind [CHOICE]:
+   * 'settlement' takes the settlement and says so in the remarks; 'decline' gives no georeference. A
+   * settlement that only shares the rest of the name ("Fazenda São Borja" and the town São Borja) is
+   * declined either way. Chosen by measurement on the real-record set (README "On real records").
+   */
+  settlementNamedLikeFeature: 'settlement',
 } as const satisfies Record<string, number | string>;

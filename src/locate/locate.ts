@@ -20,7 +20,7 @@ import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
 import { findUnit, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
-import { kindMismatch } from './feature-kind.ts';
+import { judgeKind } from './feature-kind.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -155,8 +155,11 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   if (!resolved.ok) return resolved.result;
   const { candidates, readings, matchRemarks, chosenNotes } = resolved;
   if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
-  const mismatches = (readings[0] ?? []).map((feature) => kindMismatch(used.featureKind, used.features[0] ?? '', feature));
-  if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
+  const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
+  const verdicts = (readings[0] ?? []).map((feature) => judgeKind(used.featureKind, used.features[0] ?? '', feature, kindRule));
+  const declined = verdicts.find((v) => v && 'decline' in v);
+  if (verdicts.length > 0 && verdicts.every((v) => v && 'decline' in v)) return { status: 'not-found', interpretation: used, candidates, reason: (declined as { decline: string }).decline };
+  for (const verdict of verdicts) if (verdict && 'remark' in verdict && !matchRemarks.includes(verdict.remark)) matchRemarks.push(verdict.remark);
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
   const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;

@@ -11,6 +11,7 @@ import { readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 
 export { parseCoordinates } from './coordinates.ts';
+export { featureKindOf } from './locality.ts';
 export { readDistanceNumber, type WrittenNumber } from './numbers.ts';
 export { METERS_PER_UNIT, LEAGUE_METERS, LEAGUE_RANGE_METERS, LEAGUE_RELATIVE_SPREAD, toMeters } from './units.ts';
 export type * from './types.ts';

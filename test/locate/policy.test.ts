@@ -16,7 +16,7 @@ import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-st
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { FUZZY_ACCEPTANCE, locate } from '../../src/locate/locate.ts';
 import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
-import { kindMismatch } from '../../src/locate/feature-kind.ts';
+import { judgeKind } from '../../src/locate/feature-kind.ts';
 import { parseLocality, type Interpretation } from '../../src/parse/index.ts';
 
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-policy-'));
@@ -183,14 +183,23 @@ describe('distances the cases above rest on (Vincenty, geodesy 2.4.0)', () => {
 describe('what the text says a place is', () => {
   it('declines a town for a farm that shares its name', () => {
     const town = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
-    expect(kindMismatch('farm', 'Estancia Puerto Lindo', town)).toMatch(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/);
-    expect(kindMismatch('populated-place', 'Puerto Lindo', town)).toBeNull();
-    expect(kindMismatch(undefined, 'Puerto Lindo', town)).toBeNull();
+    expect(judgeKind('farm', 'Estancia Puerto Lindo', town, 'settlement')).toEqual({ decline: expect.stringMatching(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/) });
+    expect(judgeKind('populated-place', 'Puerto Lindo', town, 'settlement')).toBeNull();
+    expect(judgeKind(undefined, 'Puerto Lindo', town, 'settlement')).toBeNull();
   });
 
   it('keeps a farm for a farm', () => {
     const farm = store.findCandidates({ name: 'Fazenda Boa Vista', context: { countryCode: 'QV' } })[0]!.feature;
     expect(farm.featureType).toBe('farm');
-    expect(kindMismatch('farm', 'Fazenda Boa Vista', farm)).toBeNull();
+    expect(judgeKind('farm', 'Fazenda Boa Vista', farm, 'settlement')).toBeNull();
+  });
+
+  it('takes a town whose own name carries the generic word, and says so, unless the [CHOICE] declines', () => {
+    // demo-places.csv qv-0061: the town Rio Fundo, named like the river qv-0161.
+    const town = store.findCandidates({ name: 'Rio Fundo', context: { countryCode: 'QV' }, featureTypes: ['town'] })[0]!.feature;
+    expect(town.featureId).toBe('qv-0061');
+    expect(METHOD_DEFAULTS.settlementNamedLikeFeature).toBe('settlement');
+    expect(judgeKind('stream', 'rio Fundo', town, 'settlement')).toEqual({ remark: expect.stringMatching(/"rio Fundo" may name a river or stream; the gazetteer's "Rio Fundo" \(town, demo:qv-0061\) is a settlement of that very name .*\[CHOICE settlementNamedLikeFeature/) });
+    expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/) });
   });
 });
