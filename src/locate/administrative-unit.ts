@@ -8,6 +8,7 @@ import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
 import { countryCodeForName } from '../match/context.ts';
 import { foldName } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
+import { readingOf } from './other-clauses.ts';
 
 /**
  * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
@@ -41,6 +42,21 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
   const code = context.countryCode?.trim().toUpperCase();
   if (code && countryCodeForName(written) === code) return { name: written, level: 'country', written };
   return null;
+}
+
+/**
+ * "Brazil, Bahia, Ilhéus" with the record's country and state: a clause that names one of the record's own
+ * units, followed by other clauses, heads a hierarchy written with commas; it is context, and the next clause
+ * is the reading (each such head noted). A unit named alone is left for `unitNamed`.
+ * @example pastUnitHeads(parseLocality('Isla Verdemar, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
+ */
+export function pastUnitHeads(interpretation: Interpretation, context: AdministrativeContext): Interpretation {
+  let reading = interpretation;
+  for (let unit = unitNamed(reading, context); unit && reading.type === 'named-place' && reading.otherClauses.length > 0; unit = unitNamed(reading, context)) {
+    const next = readingOf(reading, reading.otherClauses[0]!);
+    reading = { ...next, notes: [...next.notes, `"${unit.written}" names the record's ${LEVEL_WORDS[unit.level]}: read as context, the clause after it used`] };
+  }
+  return reading;
 }
 
 /** Feature types a unit of each level is stored under in a gazetteer. */

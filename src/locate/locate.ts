@@ -18,7 +18,7 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, unitArea, unitNamed } from './administrative-unit.ts';
+import { findUnit, pastUnitHeads, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { judgeKind } from './feature-kind.ts';
 
@@ -112,8 +112,9 @@ function checkLocated(finder: CandidateFinder, request: LocateRequest, result: L
 function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResult {
   const edits = request.edits ?? {};
   const read = interpretationOf(request);
-  const interpretation = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
-  const context = contextOf(request, interpretation);
+  const edited = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
+  const context = contextOf(request, edited);
+  const interpretation = pastUnitHeads(edited, context);
   const datum = datumGiven(request);
   if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };
@@ -150,6 +151,18 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
       used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the next clause, "${usedText}", is used instead`] };
       resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
       break;
+    }
+  }
+  const seat = interpretation.administrative.municipality;
+  if (!resolved.ok && resolved.result.status === 'not-found' && seat && !interpretation.features.includes(seat)) {
+    // "Mun. Alisos: Fazenda X" with no farm loaded: the municipality's seat, whose name it bears, with the
+    // radius widened as for any place named but not loaded.
+    const alternative: Interpretation = { ...interpretation, type: 'named-place', features: [seat], offsets: [], featureKind: undefined };
+    const attempt = resolveFeatures(finder, alternative, context, options, edits);
+    if (attempt.ok && fallbackAllowed(attempt, context)) {
+      fallbackFrom = interpretation.features.join('", "');
+      used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the town of the municipality the text names, "${seat}", is used instead`] };
+      resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
     }
   }
   if (!resolved.ok) return resolved.result;
