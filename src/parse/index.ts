@@ -186,6 +186,17 @@ function interpret(text: string): Interpretation {
       pieces[pieces.length - 1] = { clause, unit: { name: previous.reading.features[0]!, level, written: clause.text } };
       continue;
     }
+    // "Apiahy [= Apiaí]": a name given in brackets with "=" is the name of the place before it, as now written.
+    const glossed = previous?.reading && (previous.reading.type === 'named-place' || previous.reading.type === 'near') && previous.reading.features.length === 1;
+    if (tokens[from]!.norm === '=' && glossed && ['(', '['].includes(segments[index - 1]?.separator ?? '')) {
+      const name = readLocalityClause(text, tokens.slice(from + 1, to));
+      if (name.type === 'named-place' && name.features.length === 1) {
+        result.notes.push(`"${previous.reading!.features[0]}" read as "${name.features[0]}", the name given for it in brackets`);
+        previous.reading = { ...previous.reading!, features: name.features };
+        pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
+        continue;
+      }
+    }
     const reading = readSegment(index)!;
     pieces.push({ clause: clauseOf(text, tokens, from, to, reading.type === 'habitat' ? 'habitat' : 'locality'), reading });
   }

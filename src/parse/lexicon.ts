@@ -62,7 +62,9 @@ export const NEAR_PREFIXES = phrases(
     "near of | about | in the area of | en los alrededores | aux abords de | aux abords du | abords de | " +
     "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de | " +
     // Latin "prope" (near), written on older labels in every language.
-    'prope',
+    'prope | ' +
+    // "behind X" places the specimen near X, no heading given.
+    'behind | atras de | atras do | atras da | detras de | detras del | derriere',
 );
 /** near / vicinity as suffixes after the feature ("X vicinity", "X y alrededores"). */
 export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | area | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs | alentours | abords');
@@ -121,6 +123,8 @@ export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvinc
 ]);
 /** Unit words that count only written with a capital and a period ("Par.", "Est."). */
 export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');
+/** Of those, the ones that also count dotted in lower case ("(mun. Alisos)"): no other word of the four languages is written so. */
+export const LOWER_CASE_DOTTED_ADMINISTRATIVE_WORDS = set('mun');
 
 /**
  * Generic words that say what kind of place a name is, before it ("Laguna Negra", "Fazenda Boa Vista",
@@ -143,7 +147,9 @@ export const FEATURE_KIND_WORDS: ReadonlyMap<string, import('./types.ts').Featur
  */
 export const PLACE_TYPE_PREFIXES = phrases(
   'the town of | the city of | the village of | town of | city of | village of | ciudad de | ciudad del | pueblo de | pueblo del | localidad de | paraje de | ' +
-    "cidade de | cidade do | cidade da | povoado de | povoado do | povoado da | localidade de | ville de | ville d' | village de | village du",
+    "cidade de | cidade do | cidade da | povoado de | povoado do | povoado da | localidade de | ville de | ville d' | village de | village du | localite de | " +
+    // "10 km S of center of X": the gazetteer's point of a town is its center.
+    'center of | centre of | the center of | the centre of | centro de | centro del | centro do | centro da | centre de | centre du',
 );
 /** Feature-type words after a name or alone in brackets: "X (town)", "X city", "X (pueblo)". */
 export const PLACE_TYPE_SUFFIXES = set('town city village pueblo ciudad cidade povoado vila ville village localidad localidade');

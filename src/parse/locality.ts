@@ -452,7 +452,8 @@ function readPlaceFirst(s: Source, i: number, approximate: boolean): LocalityRea
 function readClause(s: Source): LocalityRead {
   const { text, tokens } = s;
   let { next: i, approximate } = skipApproximation(s, 0);
-  if (L.LEADING_PREPOSITIONS.has(norm(s, i) ?? '') && s.tokens[i + 1]?.kind === 'number') i++;
+  // "a 5 km de X", "a cerca de 5 km de X": the preposition before a distance, approximate or not.
+  if (L.LEADING_PREPOSITIONS.has(norm(s, i) ?? '') && (s.tokens[i + 1]?.kind === 'number' || skipApproximation(s, i + 1).approximate)) i++;
   const again = skipApproximation(s, i);
   i = again.next;
   approximate ||= again.approximate;
