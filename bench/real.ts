@@ -11,11 +11,12 @@ import { loadRealRecords, measureRecord, openRealGazetteer, ratesBy, ratesOf, ty
 const records = loadRealRecords();
 const store = await openRealGazetteer();
 const started = performance.now();
-/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE and BENCH_REAL_KIND_RULE override the [CHOICE]s, to measure them. */
+/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE and BENCH_REAL_NAMESAKES_METERS override the [CHOICE]s, to measure them. */
 const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
 const unusedFeatureRule = process.env.BENCH_REAL_UNUSED_RULE as 'widen' | 'decline' | undefined;
 const settlementNamedLikeFeature = process.env.BENCH_REAL_KIND_RULE as 'settlement' | 'decline' | undefined;
-const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature }));
+const namesakesWithinMeters = process.env.BENCH_REAL_NAMESAKES_METERS ? Number(process.env.BENCH_REAL_NAMESAKES_METERS) : undefined;
+const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters }));
 const seconds = (performance.now() - started) / 1000;
 store.close();
 

@@ -21,6 +21,7 @@ import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './othe
 import { findUnit, pastUnitHeads, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { judgeKind } from './feature-kind.ts';
+import { inverse } from '../geodesy/geodesic.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -242,6 +243,12 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     }
     if (choice.kind === 'several') {
       const names = choice.candidates.map(describeCandidate).join('; ');
+      const namesakesMeters = options.namesakesWithinMeters ?? METHOD_DEFAULTS.namesakesWithinMeters;
+      if (!options.coverAmbiguous && namesakes(choice.candidates.map((c) => c.feature), namesakesMeters)) {
+        readings.push(choice.candidates.map((c) => c.feature));
+        matchRemarks.push(`"${name}" matches ${choice.candidates.length} features within ${(namesakesMeters / 1000).toFixed(0)} km of each other (${names}): one circle covers them all [CHOICE namesakesWithinMeters, src/georef/method-defaults.ts]`);
+        continue;
+      }
       if (!options.coverAmbiguous) {
         return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` } };
       }
@@ -253,6 +260,16 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes };
+}
+
+/**
+ * True when the features are one kind of place in one state or province, no two farther apart than
+ * `meters` (geodesics on WGS84, geographiclib): a town held twice, or two hamlets of a name side by side.
+ */
+function namesakes(features: Feature[], meters: number): boolean {
+  const [first] = features;
+  if (!first?.stateProvince || !features.every((f) => f.featureType === first.featureType && f.stateProvince === first.stateProvince)) return false;
+  return features.every((a, k) => features.slice(k + 1).every((b) => inverse(a.latitude, a.longitude, b.latitude, b.longitude).meters <= meters));
 }
 
 /** At most this many readings of an ambiguous text are covered by one circle [CHOICE]. */
