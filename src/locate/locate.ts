@@ -201,12 +201,17 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
 }
 
+/**
+ * A stand-in for a missing place: every name found as written or by a documented reading of it (an
+ * abbreviation, a generic word left out: FUZZY_ACCEPTANCE.readingScore), never a near spelling or a place
+ * outside the stated units, and inside a stated state, county or municipality.
+ */
 function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): boolean {
-  return resolution.matchRemarks.length === 0 && !!(context.stateProvince || context.county || context.municipality);
+  return !resolution.guessed && !!(context.stateProvince || context.county || context.municipality);
 }
 
 type Resolution =
-  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[] }
+  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[]; guessed: boolean }
   | { ok: false; result: LocateResult };
 
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
@@ -215,6 +220,8 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
   const chosenNotes: string[] = [];
+  // A near spelling, a place just outside the stated units, or one of several taken.
+  let guessed = false;
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
@@ -232,6 +239,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
         matchRemarks.push(outside.remark);
+        guessed = true;
         continue;
       }
       const reason = [notFoundReason(name, context, found), outside?.reason].filter(Boolean).join('; ');
@@ -246,6 +254,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       const namesakesMeters = options.namesakesWithinMeters ?? METHOD_DEFAULTS.namesakesWithinMeters;
       if (!options.coverAmbiguous && namesakes(choice.candidates.map((c) => c.feature), namesakesMeters)) {
         readings.push(choice.candidates.map((c) => c.feature));
+        guessed = true;
         matchRemarks.push(`"${name}" matches ${choice.candidates.length} features within ${(namesakesMeters / 1000).toFixed(0)} km of each other (${names}): one circle covers them all [CHOICE namesakesWithinMeters, src/georef/method-defaults.ts]`);
         continue;
       }
@@ -254,12 +263,14 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       }
       readings.push(choice.candidates.map((c) => c.feature));
       matchRemarks.push(`"${name}" is ambiguous (${names}); every candidate covered, as asked`);
+      guessed = true;
       continue;
     }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
+    guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
-  return { ok: true, candidates, readings, matchRemarks, chosenNotes };
+  return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
 }
 
 /**
