@@ -192,7 +192,8 @@ function interpret(text: string): Interpretation {
       const name = readLocalityClause(text, tokens.slice(from + 1, to));
       if (name.type === 'named-place' && name.features.length === 1) {
         result.notes.push(`"${previous.reading!.features[0]}" read as "${name.features[0]}", the name given for it in brackets`);
-        previous.reading = { ...previous.reading!, features: name.features };
+        const { featureKind: _kind, ...rest } = previous.reading!;
+        previous.reading = { ...rest, features: name.features, ...(name.featureKind ? { featureKind: name.featureKind } : {}) };
         pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
         continue;
       }

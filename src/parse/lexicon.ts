@@ -162,7 +162,7 @@ export const PLACE_PREPOSITIONS = set('in on en em at');
  * nor a link of a written hierarchy. "Hab.:" heads a habitat.
  */
 export const FIELD_HEADINGS: ReadonlySet<string> = new Set(
-  'locality|loc|nearest named place|nearest place|named place|collecting locality|collection locality|site|localidad|lugar|sitio de colecta|localidade|local|local de coleta|localite|lieu|lieu dit|station|habitat|hab'.split('|'),
+  'locality|loc|nearest named place|nearest place|named place|collecting locality|collection locality|site|localidad|lugar|sitio de colecta|localidade|local|local de coleta|localite|lieu|lieu dit|lieu-dit|station|habitat|hab'.split('|'),
 );
 
 /**

@@ -255,8 +255,9 @@ function placeAt(s: Source, from: number, end: number): string | null {
   if (prefix && from + prefix < end) {
     s.featureKind = 'populated-place';
     from += prefix;
-  } else if (end - from >= 2 && L.PLACE_TYPE_SUFFIXES.has(norm(s, end - 1)!) && s.tokens[end - 1]!.text === s.tokens[end - 1]!.norm) {
-    // Only a lower-case suffix: "Millbrook town" is the town of Millbrook, "Puerto Ciudad" a name.
+  } else if (end - from >= 2 && L.PLACE_TYPE_SUFFIXES.has(norm(s, end - 1)!) && s.tokens[end - 1]!.text === s.tokens[end - 1]!.norm && hasNameWord(s, from, end - 1)) {
+    // Only a lower-case suffix: "Millbrook town" is the town of Millbrook, "Puerto Ciudad" a name; "the town",
+    // "la ciudad" alone keep their word (the town of a municipality named elsewhere, see seatOf).
     s.featureKind = 'populated-place';
     end--;
   }
