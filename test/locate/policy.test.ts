@@ -203,3 +203,45 @@ describe('what the text says a place is', () => {
     expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/) });
   });
 });
+
+describe('clauses that give context or stand in (method workflow step 5: the most specific clause the gazetteers support)', () => {
+  it('reads a leading clause that names the record\'s own state as context, and uses the clause after it', () => {
+    const result = locate(store, { locality: 'Serra Alta, Vila Serena', countryCode: 'QV', stateProvince: 'Serra Alta' });
+    expect(result.status).toBe('georeferenced');
+    // The place, then the stated state that bounds it.
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0048', 'qv-0003']);
+    expect(result.interpretation.notes.join('\n')).toContain('"Serra Alta" names the record\'s state or province: read as context, the clause after it used');
+  });
+
+  it('uses the town of a municipality the text names when no place of the text is loaded, widened by [CHOICE] unusedFeatureMeters', () => {
+    const result = locate(store, { locality: 'Mun. Vila Serena: Fazenda Nunca Vista', countryCode: 'QV' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features.map((f) => f.featureId)).toEqual(['qv-0048']);
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(result.interpretation.notes.join('\n')).toContain('the town of the municipality the text names, "Vila Serena", is used instead');
+  });
+
+  it('lets a later clause stand in when its name is found by a documented reading ("Sn." for San)', () => {
+    const result = locate(store, { locality: 'Cerro Nunca Visto, Sn. Telmo', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0027', 'qv-0002']);
+    expect(result.georeference!.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+  });
+
+  it('covers namesakes of one type in one province with one circle only within [CHOICE] namesakesWithinMeters', () => {
+    // demo-places.csv: Los Pinos qv-0016 and qv-0039, both villages of Poniente.
+    const request = { locality: 'Los Pinos', countryCode: 'QV', stateProvince: 'Poniente' };
+    const a = new LatLon(-45.06327, -131.21675);
+    const b = new LatLon(-45.687422, -131.67846);
+    const apart = a.distanceTo(b); // Vincenty, geodesy 2.4.0: about 77 km
+    expect(apart).toBeGreaterThan(METHOD_DEFAULTS.namesakesWithinMeters);
+    expect(locate(store, request).status).toBe('ambiguous');
+    const covered = locate(store, { ...request, options: { namesakesWithinMeters: 100000 } });
+    expect(covered.status).toBe('georeferenced');
+    const g = covered.georeference!;
+    const center = new LatLon(g.latitude, g.longitude);
+    for (const point of [a, b]) expect(center.distanceTo(point)).toBeLessThanOrEqual(g.uncertaintyMeters);
+    expect(g.remarks.join('\n')).toMatch(/"Los Pinos" matches 2 features within 100 km of each other .*\[CHOICE namesakesWithinMeters/);
+  });
+});
