@@ -435,6 +435,9 @@ function readPlaceFirst(s: Source, i: number, approximate: boolean): LocalityRea
     const t = s.tokens[k]!;
     if (t.kind === 'number') {
       const tail = readDistanceAt(s, k) ? readOffsets(s, k, approximate) : null;
+      // "Fazenda Boa Vista entrance 8 km E of Vila Serena": a whole offset after a name locates that name.
+      const whole = tail && !tail.bare && tail.type !== 'unparseable' && tail.features.length === 1 && hasNameWord(s, i, k);
+      if (whole) return { ...tail, notes: [...tail.notes, `"${s.text.slice(s.tokens[i]!.start, s.tokens[k - 1]!.end)}" read as the place the offset locates`] };
       // A distance alone after a name ("Ashcombe 5 km") may be anything; a heading makes it an offset.
       if (tail?.bare !== 'offset' || !tail.offsets[0]!.heading) continue;
       const place = placeAt(s, i, k);
