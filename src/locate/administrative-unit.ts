@@ -59,6 +59,23 @@ export function pastUnitHeads(interpretation: Interpretation, context: Administr
   return reading;
 }
 
+/**
+ * Towns the text's own administrative clauses name, most specific first, to stand in for a place the
+ * gazetteers lack: the municipality's and the county's towns (a municipality or, on labels in English, a
+ * county usually bears its seat's name), and the head of a hierarchy written into the text ("Alisos:
+ * Fazenda X") when it is no country name in the four languages.
+ * @example standInsNamed(parseLocality('Mun. Alisos: Fazenda Nunca Vista')) // [{ name: 'Alisos', what: 'the town of the municipality the text names' }]
+ */
+export function standInsNamed(interpretation: Interpretation): { name: string; what: string }[] {
+  const { municipality, county, country } = interpretation.administrative;
+  const named = [
+    municipality && { name: municipality, what: 'the town of the municipality the text names' },
+    county && { name: county, what: 'the town of the county the text names' },
+    country && countryCodeForName(country) === null && { name: country, what: 'the place the text writes at the head of its hierarchy' },
+  ];
+  return named.filter((n): n is { name: string; what: string } => !!n && !interpretation.features.includes(n.name));
+}
+
 /** Feature types a unit of each level is stored under in a gazetteer. */
 const FEATURE_TYPES: Readonly<Record<AdministrativeLevel, string[]>> = {
   country: ['country'],

@@ -18,7 +18,7 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, pastUnitHeads, unitArea, unitNamed } from './administrative-unit.ts';
+import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
@@ -154,17 +154,17 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
       break;
     }
   }
-  const seat = interpretation.administrative.municipality;
-  if (!resolved.ok && resolved.result.status === 'not-found' && seat && !interpretation.features.includes(seat)) {
-    // "Mun. Alisos: Fazenda X" with no farm loaded: the municipality's seat, whose name it bears, with the
-    // radius widened as for any place named but not loaded.
-    const alternative: Interpretation = { ...interpretation, type: 'named-place', features: [seat], offsets: [], featureKind: undefined };
+  // "Mun. Alisos: Fazenda X" with no farm loaded: the town the text's own units name, with the radius
+  // widened as for any place named but not loaded.
+  const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
+  for (const standIn of missed ? standInsNamed(interpretation) : []) {
+    const alternative: Interpretation = { ...interpretation, type: 'named-place', features: [standIn.name], offsets: [], featureKind: undefined };
     const attempt = resolveFeatures(finder, alternative, context, options, edits);
-    if (attempt.ok && fallbackAllowed(attempt, context)) {
-      fallbackFrom = interpretation.features.join('", "');
-      used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the town of the municipality the text names, "${seat}", is used instead`] };
-      resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
-    }
+    if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
+    fallbackFrom = interpretation.features.join('", "');
+    used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: ${standIn.what}, "${standIn.name}", is used instead`] };
+    resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
+    break;
   }
   if (!resolved.ok) return resolved.result;
   const { candidates, readings, matchRemarks, chosenNotes } = resolved;

@@ -222,6 +222,14 @@ describe('clauses that give context or stand in (method workflow step 5: the mos
     expect(result.interpretation.notes.join('\n')).toContain('the town of the municipality the text names, "Vila Serena", is used instead');
   });
 
+  it('uses the place written at the head of a hierarchy when it is no country name ("Vila Serena: Fazenda …")', () => {
+    const result = locate(store, { locality: 'Vila Serena: Fazenda Nunca Vista', countryCode: 'QV', stateProvince: 'Serra Alta' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features[0]!.featureId).toBe('qv-0048');
+    expect(result.georeference!.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(result.interpretation.notes.join('\n')).toContain('the place the text writes at the head of its hierarchy, "Vila Serena", is used instead');
+  });
+
   it('lets a later clause stand in when its name is found by a documented reading ("Sn." for San)', () => {
     const result = locate(store, { locality: 'Cerro Nunca Visto, Sn. Telmo', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
