@@ -52,6 +52,8 @@ export interface AppOptions {
   bodyLimit?: number;
   /** Largest batch upload in bytes (default 50 MiB). */
   uploadLimit?: number;
+  /** Largest sum of an uploaded Darwin Core Archive's files uncompressed, in bytes (default 512 MiB). */
+  archiveExpandedLimit?: number;
   /** Results kept in memory for repeated lookups (default 2000; 0 keeps none). */
   resultCache?: number;
   /** Log requests as JSON lines on stdout (default off). */
@@ -85,7 +87,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
   const store = openGazetteer(dbPath, { readonly: true });
   const reviews = openReviews(reviewsDatabasePath(dbPath));
   const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
-  const batches = new BatchService(dbPath, store, reviews, results);
+  const batches = new BatchService(dbPath, store, reviews, results, options.archiveExpandedLimit);
   await batches.resumeUnfinished();
   const app = await buildApp({ gazetteer: store, layers: shapedFeatureLister(dbPath, store), batches, results }, options);
   // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.

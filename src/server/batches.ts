@@ -5,9 +5,11 @@
  * module's own folder: nothing a request says is ever used as a path.
  */
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { dirname, isAbsolute, join } from 'node:path';
-import { jobProgress, startBatchJob, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { basename, dirname, isAbsolute, join } from 'node:path';
+import { jobProgress, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { ArchiveTooLarge, NotAnArchive, startBatch, writeGeoreferencedArchive } from '../batch/archive/archive-job.ts';
+import { isZipStart } from '../batch/archive/zip.ts';
 import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
 import { originalLine } from '../batch/original-line.ts';
 import { parseRecords, type Delimiter, type InputRecord } from '../batch/records.ts';
@@ -25,6 +27,7 @@ import { lookUp, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
 import type { Resolution, Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
+import { SERVER_DEFAULTS } from './defaults.ts';
 
 
 /** One record of the review list. */
@@ -82,11 +85,30 @@ interface ParsedOutput {
   summaries: RecordSummary[];
 }
 
-/** Checks an upload's bytes (never its name): CSV text, not a workbook, an archive or binary data (src/store/file-kind.ts). */
-export function assertCsvContent(bytes: Buffer): void {
+/**
+ * What an upload is, from its bytes (never its name): CSV text, or a zip to be read as a Darwin Core
+ * Archive; a workbook or other binary data is refused (src/store/file-kind.ts).
+ */
+export function uploadKind(bytes: Buffer): 'csv' | 'archive' {
   if (bytes.length === 0) throw new RequestError(400, 'the uploaded file is empty', 'file');
   const kind = notText(bytes.subarray(0, HEAD_BYTES));
+  if (kind?.mayBeArchive && isZipStart(bytes)) return 'archive';
   if (kind) throw new RequestError(415, `the uploaded file is ${kind.format} and not CSV text: ${kind.advice}`, 'file');
+  return 'csv';
+}
+
+/**
+ * The files of an upload's job: all named from one id, so a job's output path leads back to its upload.
+ * An archive's job writes no `archiveOutput` (`coreOnly`): its core table is named from it.
+ */
+function uploadFiles(folder: string, id: string) {
+  return { csvOutput: join(folder, `${id}.csv`), archive: join(folder, `${id}.dwca.zip`), archiveOutput: join(folder, `${id}.zip`) };
+}
+
+/** The downloads of a finished job, by format; the archive only for a job over an archive. */
+function downloads(jobId: string, archive: boolean): Record<string, string> {
+  const formats = archive ? ['zip', 'csv', 'geojson', 'gpkg'] : ['csv', 'geojson', 'gpkg'];
+  return Object.fromEntries(formats.map((f) => [f, `/api/v1/batches/${jobId}/reviewed.${f}`]));
 }
 
 export class BatchService {
@@ -100,6 +122,8 @@ export class BatchService {
     private readonly store: ServedGazetteer,
     private readonly reviews: ReviewStore,
     private readonly results?: ResultCache<LocateResult>,
+    /** Largest sum of an uploaded archive's files uncompressed, in bytes. */
+    private readonly archiveExpandedLimit = SERVER_DEFAULTS.archiveExpandedLimit,
   ) {
     // Output paths are kept absolute by the job store: so is this folder, for the two to compare equal.
     if (!isAbsolute(dbPath)) throw new Error(`the batch service needs an absolute database path, not ${dbPath}`);
@@ -107,18 +131,30 @@ export class BatchService {
     this.jobsPath = jobsDatabasePath(dbPath);
   }
 
-  /** Starts a job on the uploaded bytes; resolves with its id once the job is stored. */
+  /**
+   * Starts a job on the uploaded bytes, CSV text or a Darwin Core Archive (the same job the CLI's batch
+   * runs over an archive's core, src/batch/archive); resolves with its id once the job is stored.
+   */
   async start(bytes: Buffer): Promise<string> {
-    assertCsvContent(bytes);
+    const kind = uploadKind(bytes);
     // Said here without the store's path, which an HTTP answer never shows.
     if (this.store.sources().length === 0) throw new RequestError(409, 'the service\'s gazetteer holds no source, so no row could be georeferenced: load one with whereabouts import <file> --source "<citation>" and start the service again', 'file');
     mkdirSync(this.folder, { recursive: true });
-    const output = join(this.folder, `${randomUUID()}.csv`);
-    let started: Awaited<ReturnType<typeof startBatchJob>>;
+    const files = uploadFiles(this.folder, randomUUID());
+    if (kind === 'archive') writeFileSync(files.archive, bytes);
+    let started: Awaited<ReturnType<typeof startBatch>>;
     try {
-      started = await startBatchJob({ dbPath: this.dbPath, input: bytes, output });
+      started = await startBatch(
+        kind === 'archive'
+          ? { dbPath: this.dbPath, input: files.archive, output: files.archiveOutput, archiveOnly: true, coreOnly: true, inputName: 'the uploaded zip', maxExpandedBytes: this.archiveExpandedLimit }
+          : { dbPath: this.dbPath, input: bytes, output: files.csvOutput },
+      );
     } catch (error) {
-      throw new RequestError(400, `the file could not be read as a batch: ${error instanceof Error ? error.message : String(error)}`, 'file');
+      rmSync(files.archive, { force: true });
+      const message = this.withoutPaths(error instanceof Error ? error.message : String(error));
+      if (error instanceof ArchiveTooLarge) throw new RequestError(413, message, 'file');
+      if (error instanceof NotAnArchive) throw new RequestError(415, `the uploaded file is a ZIP archive and not CSV text, nor a Darwin Core Archive: ${message}. Send a Darwin Core Archive (a zip with a meta.xml) or one CSV or tab-separated file`, 'file');
+      throw new RequestError(400, `the file could not be read as a batch: ${message}`, 'file');
     }
     this.reviews.addJob(started.jobId);
     this.follow(started.jobId, started.done);
@@ -134,7 +170,7 @@ export class BatchService {
     for (const jobId of this.reviews.jobs()) {
       const state = this.progressOrUndefined(jobId)?.state;
       if (state === undefined || state === 'done' || state === 'failed') continue;
-      const started = await startBatchJob({ dbPath: this.dbPath, resume: jobId });
+      const started = await startBatch({ dbPath: this.dbPath, resume: jobId, coreOnly: true });
       this.follow(jobId, started.done);
       resumed.push(jobId);
     }
@@ -154,12 +190,17 @@ export class BatchService {
     }
   }
 
-  /** Progress without server paths; a 404 for a job this service did not start. */
-  progress(jobId: string): Omit<JobProgress, 'outputPath'> & { fraction: number } {
+  /**
+   * Progress without server paths; a 404 for a job this service did not start. A finished job says what
+   * was uploaded (`input`) and lists its downloads.
+   */
+  progress(jobId: string): Omit<JobProgress, 'outputPath'> & { fraction: number; input?: 'csv' | 'darwin-core-archive'; downloads?: Record<string, string> } {
     const { outputPath: _outputPath, ...progress } = this.ownProgress(jobId);
     const fraction = progress.state === 'done' ? 1 : progress.state === 'writing' && progress.rowsTotal ? 0.5 + (0.5 * progress.rowsDone) / progress.rowsTotal
       : progress.state === 'georeferencing' && progress.distinctTotal ? (0.5 * progress.distinctDone) / progress.distinctTotal : 0;
-    return { ...progress, fraction };
+    if (progress.state !== 'done') return { ...progress, fraction };
+    const archive = this.uploadedArchive(jobId) !== undefined;
+    return { ...progress, fraction, input: archive ? 'darwin-core-archive' : 'csv', downloads: downloads(jobId, archive) };
   }
 
   /** The records of a finished job, filtered, with the facets the filters offer. */
@@ -220,9 +261,9 @@ export class BatchService {
   /**
    * The job's output with every decision applied: accepted → "verified by data custodian", rejected →
    * "requires georeference" with the proposal moved into the remarks; a chosen candidate recomputes
-   * the appended terms. Originals are never changed.
+   * the appended terms. Originals are never changed. `as` is the delimiter to write (default the job's).
    */
-  reviewedCsv(jobId: string): { text: string; delimiter: Delimiter } {
+  reviewedCsv(jobId: string, as?: Delimiter): { text: string; delimiter: Delimiter } {
     const output = this.output(jobId);
     const reviews = this.reviews.latest(jobId);
     const column = termColumns(output.header.fields);
@@ -254,7 +295,8 @@ export class BatchService {
       return copy;
     });
     // Original fields go back as the batch wrote them (README, Batches); the appended ones as CSV.
-    const { delimiter, originalLength } = output;
+    const { originalLength } = output;
+    const delimiter = as ?? output.delimiter;
     const line = (record: InputRecord, fields: string[]) => `${originalLine(record, originalLength, delimiter)}${delimiter}${csvLine(fields.slice(originalLength), delimiter)}\r\n`;
     const text = [line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
     return { text, delimiter };
@@ -277,6 +319,38 @@ export class BatchService {
       rmSync(csvPath, { force: true });
       rmSync(output, { force: true });
     }
+  }
+
+  /**
+   * A job over an uploaded Darwin Core Archive, reviewed: the same new archive the CLI's batch writes
+   * (src/batch/archive), its core the reviewed rows. A 404 for a job over a CSV upload.
+   */
+  async reviewedArchive(jobId: string): Promise<Buffer> {
+    const archivePath = this.uploadedArchive(jobId);
+    if (!archivePath) throw new RequestError(404, `batch job ${jobId} was a CSV upload: its results come as CSV, GeoJSON or GeoPackage, not as a Darwin Core Archive`, 'jobId');
+    const { text } = this.reviewedCsv(jobId);
+    const stem = join(this.folder, `reviewed-${randomUUID()}`);
+    writeFileSync(`${stem}.core.txt`, text);
+    try {
+      await writeGeoreferencedArchive({ archivePath, corePath: `${stem}.core.txt`, target: `${stem}.zip`, jobsPath: this.jobsPath, jobId });
+      return readFileSync(`${stem}.zip`);
+    } finally {
+      rmSync(`${stem}.core.txt`, { force: true });
+      rmSync(`${stem}.zip`, { force: true });
+    }
+  }
+
+  /** The upload a job over an archive was started on (its output path begins with the upload's id), or undefined for a CSV upload. */
+  private uploadedArchive(jobId: string): string | undefined {
+    const { outputPath } = this.ownProgress(jobId);
+    if (!outputPath || dirname(outputPath) !== this.folder) return undefined;
+    const archive = uploadFiles(this.folder, basename(outputPath).split('.')[0]).archive;
+    return existsSync(archive) ? archive : undefined;
+  }
+
+  /** An error message with the service's own folders taken out, as an HTTP answer never shows a server path. */
+  private withoutPaths(message: string): string {
+    return message.replaceAll(this.folder + '/', '').replaceAll(dirname(this.dbPath) + '/', '');
   }
 
   /**

@@ -10,6 +10,8 @@ import { isUtf16 } from './input-format.ts';
 export interface NotText {
   format: string;
   advice: string;
+  /** A zip that is not a workbook: it may be a Darwin Core Archive, which a batch reads. */
+  mayBeArchive?: boolean;
 }
 
 /** How many bytes of the start are looked at. */
@@ -44,6 +46,7 @@ function zipKind(head: Uint8Array): NotText {
   return {
     format: 'a ZIP archive',
     advice: 'whereabouts reads a Darwin Core Archive (a zip with a meta.xml) or one CSV or tab-separated file at a time: unpack the archive and give the records file inside (for a workbook, export the sheet as CSV (UTF-8))',
+    mayBeArchive: true,
   };
 }
 

@@ -4,36 +4,20 @@
  * practice, no source: compare bytes, the run timestamp aside.
  */
 import { spawnSync } from 'node:child_process';
-import { createWriteStream, existsSync, readdirSync } from 'node:fs';
+import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { pipeline } from 'node:stream/promises';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
-import yazl from 'yazl';
 import { jobsDatabasePath } from '../../src/store/side-files.ts';
 import { fixtureGazetteer, killWhen, progress, unzip } from './helpers.ts';
+import { writeManyRowArchive } from '../support/demo-archive.ts';
 
 const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
-const DWC = 'http://rs.tdwg.org/dwc/terms/';
-const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
-
-/** 4,000 invented occurrences (Darwin Core text guide §2.2: a comma-separated, quoted core with one header line). */
-async function writeArchive(path: string): Promise<void> {
-  const rows = ['id,locality'];
-  for (let i = 0; i < 4000; i++) rows.push(`o-${i},"${(i % 40) + 1} km N of ${PLACES[i % PLACES.length]}"`);
-  const meta = `<archive xmlns="http://rs.tdwg.org/dwc/text/"><core ignoreHeaderLines="1" rowType="${DWC}Occurrence"><files><location>occurrence.csv</location></files><id index="0"/><field index="0" term="${DWC}occurrenceID"/><field index="1" term="${DWC}locality"/><field term="${DWC}countryCode" default="QV"/></core></archive>`;
-  const zip = new yazl.ZipFile();
-  zip.addBuffer(Buffer.from(meta), 'meta.xml');
-  zip.addBuffer(Buffer.from(`${rows.join('\n')}\n`), 'occurrence.csv');
-  zip.end();
-  await pipeline(zip.outputStream, createWriteStream(path));
-}
-
 describe('an archive batch killed part way', { timeout: 180_000 }, () => {
   it('finishes on resume with the archive of an unbroken run', async () => {
     const { dir, dbPath } = await fixtureGazetteer();
     const input = join(dir, 'dwca.zip');
-    await writeArchive(input);
+    await writeManyRowArchive(input);
     const jobsPath = jobsDatabasePath(dbPath);
 
     const reference = join(dir, 'reference.zip');

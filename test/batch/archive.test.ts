@@ -6,17 +6,15 @@
  * csv-parse: libraries independent of the code under test.
  */
 import { execFile } from 'node:child_process';
-import { createWriteStream, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { pipeline } from 'node:stream/promises';
 import { promisify } from 'node:util';
 import { parse } from 'csv-parse/sync';
-import iconv from 'iconv-lite';
 import { SaxesParser } from 'saxes';
 import { beforeAll, describe, expect, it } from 'vitest';
-import yazl from 'yazl';
 import { unzip } from './helpers.ts';
+import { ARCHIVE_FILES, coreBytes, coreRows, DWC, eml, metaXml, multimedia, SHORT_ROW, zipFiles } from '../support/demo-archive.ts';
 
 const run = promisify(execFile);
 const root = new URL('../..', import.meta.url).pathname;
@@ -26,13 +24,6 @@ const db = join(dir, 'demo.sqlite');
 
 function whereabouts(...args: string[]) {
   return run(process.execPath, [cli, '--db', db, ...args], { cwd: root, maxBuffer: 64 << 20 });
-}
-
-async function zipFiles(path: string, files: [string, Buffer][]): Promise<void> {
-  const zip = new yazl.ZipFile();
-  for (const [name, bytes] of files) zip.addBuffer(bytes, name, { mtime: new Date('2026-01-01T00:00:00Z') });
-  zip.end();
-  await pipeline(zip.outputStream, createWriteStream(path));
 }
 
 /** Elements of an XML document (saxes), each with its attributes and its parent's name. */
@@ -51,59 +42,13 @@ function elements(xml: string): { name: string; parent: string; attributes: Reco
   return found;
 }
 
-// Invented demo records (gazetteer/demo-localities.csv), among them one written in Windows-1252 ("Río").
-const demo = (parse(readFileSync(join(root, 'gazetteer/demo-localities.csv')), { columns: true }) as Record<string, string>[]).slice(0, 12);
-const DWC = 'http://rs.tdwg.org/dwc/terms/';
-
-// guide §2.2: a tab-separated core with no enclosing character, CRLF line ends, one header line, in
-// Windows-1252; guide §2.4: a field with a default and no index is a constant for every row, and a
-// column the metafile does not describe (index 5, "note") is allowed.
-const coreHeader = ['id', 'catalogNumber', 'scientificName', 'locality', 'decimalLatitude', 'note', 'stateProvince'];
-const coreRows = demo.map((r, i) => [r.occurrenceID, r.catalogNumber, r.scientificName, r.locality, i === 0 ? '-45.1' : '', `note ${i}`, r.stateProvince]);
-// One row cut short (three fields of seven): it must come back too, with a status saying why.
-const SHORT_ROW = 4;
-coreRows[SHORT_ROW] = coreRows[SHORT_ROW].slice(0, 3);
-const coreBytes = iconv.encode([coreHeader, ...coreRows].map((r) => r.join('\t')).join('\r\n') + '\r\n', 'windows-1252');
-const metaXml = `<?xml version="1.0" encoding="UTF-8"?>
-<archive xmlns="http://rs.tdwg.org/dwc/text/" metadata="eml.xml">
-  <core encoding="windows-1252" fieldsTerminatedBy="\\t" linesTerminatedBy="\\r\\n" fieldsEnclosedBy="" ignoreHeaderLines="1" rowType="${DWC}Occurrence">
-    <files><location>occurrence.txt</location></files>
-    <id index="0"/>
-    <field index="0" term="${DWC}occurrenceID"/>
-    <field index="1" term="${DWC}catalogNumber"/>
-    <field index="2" term="${DWC}scientificName"/>
-    <field index="3" term="${DWC}locality"/>
-    <field index="4" term="${DWC}decimalLatitude"/>
-    <field index="6" term="${DWC}stateProvince" default="Poniente"/>
-    <field term="${DWC}countryCode" default="QV"/>
-  </core>
-  <extension encoding="UTF-8" fieldsTerminatedBy="," linesTerminatedBy="\\n" fieldsEnclosedBy='"' ignoreHeaderLines="1" rowType="http://rs.tdwg.org/ac/terms/Multimedia">
-    <files><location>multimedia.txt</location></files>
-    <coreid index="0"/>
-    <field index="1" term="http://purl.org/dc/terms/identifier"/>
-    <field index="2" term="http://purl.org/dc/terms/format"/>
-  </extension>
-</archive>
-`;
-const multimedia = Buffer.from('coreid,identifier,format\nqvh-occ-0001,"https://example.org/img/1.jpg",image/jpeg\nqvh-occ-0001,"https://example.org/img/2,b.jpg",image/jpeg\n', 'utf8');
-const eml = Buffer.from(`<?xml version="1.0" encoding="UTF-8"?>
-<eml:eml xmlns:eml="https://eml.ecoinformatics.org/eml-2.2.0" packageId="qv-demo" system="demo">
-  <dataset>
-    <title>Herbario de Isla Verdemar — registros de demostración</title>
-    <creator><organizationName>Herbario QVH (invented)</organizationName></creator>
-    <contact><organizationName>Herbario QVH (invented)</organizationName></contact>
-    <project><title>Demo</title></project>
-  </dataset>
-</eml:eml>
-`, 'utf8');
-
 const input = join(dir, 'dwca.zip');
 const output = join(dir, 'dwca-georeferenced.zip');
 let entries: { name: string; bytes: Buffer }[];
 
 beforeAll(async () => {
   await whereabouts('import', 'gazetteer/demo.geojson', '--source', 'Isla Verdemar demo gazetteer (invented)');
-  await zipFiles(input, [['meta.xml', Buffer.from(metaXml)], ['eml.xml', eml], ['occurrence.txt', coreBytes], ['multimedia.txt', multimedia]]);
+  await zipFiles(input, ARCHIVE_FILES);
   await whereabouts('batch', input, '--out', output, '--quiet');
   entries = await unzip(output);
 }, 180_000);

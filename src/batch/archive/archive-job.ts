@@ -27,6 +27,30 @@ interface ArchiveManifest {
 
 type StartedJob = Awaited<ReturnType<typeof startBatchJob>>;
 
+/** Options of a batch that may be over an archive: a batch's, and how a caller other than the CLI wants the archive handled. */
+export interface ArchiveJobOptions extends BatchJobOptions {
+  /**
+   * The input is a zip given as a Darwin Core Archive (an upload whose first bytes are a zip's): one that
+   * is not an archive (unreadable, no meta.xml) is refused with `NotAnArchive`, never read as text.
+   */
+  archiveOnly?: boolean;
+  /**
+   * Write no archive when the job is done: the finished core table stays at the job's output path, for a
+   * caller that writes the archive later with `writeGeoreferencedArchive` (the HTTP service, after review).
+   */
+  coreOnly?: boolean;
+  /** How messages name the input (default its path; the HTTP service never shows its paths). */
+  inputName?: string;
+  /** Largest sum of the archive's files uncompressed, in bytes; a larger archive is refused before it is read. */
+  maxExpandedBytes?: number;
+}
+
+/** A zip that is not a Darwin Core Archive: it cannot be read as a zip, or it holds no meta.xml. */
+export class NotAnArchive extends Error {}
+
+/** An archive whose files hold more bytes uncompressed than `maxExpandedBytes`. */
+export class ArchiveTooLarge extends Error {}
+
 export interface ArchiveSummary extends BatchSummary {
   /** Set when the input was a Darwin Core Archive: its core's path inside the archive and its encoding as meta.xml gives it. */
   archiveCore?: { path: string; encoding: string };
@@ -37,27 +61,30 @@ export interface ArchiveSummary extends BatchSummary {
  * meta.xml). A zip without meta.xml is refused with a clear error.
  * @example const { jobId, done } = await startBatch({ dbPath, input: 'dwca.zip', output: 'dwca-georeferenced.zip' });
  */
-export async function startBatch(options: BatchJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
+export async function startBatch(options: ArchiveJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
   const input = options.input;
-  if (options.resume || typeof input !== 'string' || input === '-' || !existsSync(input) || !isZipFile(input) || !(await hasMetafile(input))) {
+  const zipPath = !options.resume && typeof input === 'string' && input !== '-' && existsSync(input) && isZipFile(input) ? input : undefined;
+  if (zipPath && options.archiveOnly) await checkArchive(zipPath, options);
+  if (!zipPath || !(await hasMetafile(zipPath))) {
     // Not an archive (a zip without meta.xml among them): the batch reads it, or says what it is.
     const { jobId, methodChoices, done } = await startBatchJob(options);
     return { jobId, methodChoices, done: done.then((summary) => finishArchive(summary, options)) };
   }
   if (options.part) throw new Error('a Darwin Core Archive is georeferenced whole: --part cuts CSV and tab-separated files only');
-  const archivePath = resolve(input);
+  const archivePath = resolve(zipPath);
   const outputPath = !options.output || options.output === '-' ? '-' : resolve(options.output);
   if (outputPath === archivePath) throw new Error(`the output ${outputPath} would replace the input`);
   const zip = await openZip(archivePath);
   try {
-    const { meta, metaDir } = await readMeta(zip, archivePath);
+    const { meta, metaDir } = await readMeta(zip, options.inputName ?? archivePath);
     if (meta.core.rowType !== OCCURRENCE_ROW_TYPE) {
       throw new Error(`the archive's core holds ${meta.core.rowType} rows; whereabouts georeferences an occurrence core (rowType ${OCCURRENCE_ROW_TYPE})`);
     }
     // Paths named by the archive's hash, so the same command run again finds the same job and resumes it.
     const key = (await sha256(archivePath)).slice(0, 16);
     const work = dirname(options.jobsDbPath ?? jobsDatabasePath(options.dbPath));
-    const table = join(work, `whereabouts-archive-${key}.core.txt`);
+    // The output's name in it too: the same archive georeferenced into two outputs at once (two uploads) has two tables.
+    const table = join(work, `whereabouts-archive-${key}.${createHash('sha256').update(outputPath).digest('hex').slice(0, 8)}.core.txt`);
     const coreOut = outputPath === '-' ? join(work, `whereabouts-archive-${key}.out.txt`) : `${outputPath}.${key}.core.txt`;
     await writeCoreTable(zip, metaDir, meta.core, table);
     const manifest: ArchiveManifest = { archivePath, outputPath, tablePath: table };
@@ -87,6 +114,26 @@ function metafileEntry(zip: ZipReader): string | undefined {
   return zip.entries.map((e) => e.name).filter((n) => n === 'meta.xml' || n.endsWith('/meta.xml')).sort((a, b) => a.length - b.length)[0];
 }
 
+/**
+ * Refuses a zip given as an archive that is not one: unreadable, without meta.xml, or larger uncompressed
+ * than `maxExpandedBytes` (yauzl checks each entry's bytes against the size its header declares).
+ */
+async function checkArchive(path: string, options: ArchiveJobOptions): Promise<void> {
+  const name = options.inputName ?? path;
+  const zip = await openZip(path).catch((error: unknown) => {
+    throw new NotAnArchive(`${name} cannot be read as a zip (${error instanceof Error ? error.message.replace(`the zip archive ${path}`, 'it') : String(error)})`);
+  });
+  try {
+    if (!metafileEntry(zip)) throw new NotAnArchive(`${name} has no meta.xml (Darwin Core text guide §2.1: the metafile describes the core and its extensions); its files: ${zip.entries.slice(0, 10).map((e) => e.name).join(', ')}${zip.entries.length > 10 ? ', …' : ''}`);
+    const expanded = zip.entries.reduce((sum, e) => sum + e.size, 0);
+    if (options.maxExpandedBytes !== undefined && expanded > options.maxExpandedBytes) {
+      throw new ArchiveTooLarge(`${name} holds ${expanded} bytes uncompressed, more than the limit of ${options.maxExpandedBytes} bytes`);
+    }
+  } finally {
+    zip.close();
+  }
+}
+
 /** Whether a zip holds a meta.xml; false for one yauzl cannot read either (the batch then says what the file is). */
 async function hasMetafile(path: string): Promise<boolean> {
   const zip = await openZip(path).catch(() => undefined);
@@ -98,38 +145,71 @@ async function hasMetafile(path: string): Promise<boolean> {
   }
 }
 
-async function readMeta(zip: ZipReader, archivePath: string): Promise<{ meta: MetaArchive; metaDir: string }> {
+async function readMeta(zip: ZipReader, name: string): Promise<{ meta: MetaArchive; metaDir: string }> {
   const metaEntry = metafileEntry(zip);
-  if (!metaEntry) throw new Error(`${archivePath} has no meta.xml, so it is not a Darwin Core Archive`);
+  if (!metaEntry) throw new NotAnArchive(`${name} has no meta.xml, so it is not a Darwin Core Archive`);
   return { meta: parseMetaXml((await zip.read(metaEntry)).toString('utf8').replace(/^\uFEFF/, '')), metaDir: metaEntry.slice(0, -'meta.xml'.length) };
 }
 
 /**
  * After a job over an archive's core: the new archive, from the finished core table and the original
- * archive; a summary naming it. A job over a plain file is passed through unchanged.
+ * archive (or, with `coreOnly`, the core table left for the caller); a summary naming it. A job over a
+ * plain file is passed through unchanged.
  */
-async function finishArchive(summary: BatchSummary, options: BatchJobOptions): Promise<ArchiveSummary> {
+async function finishArchive(summary: BatchSummary, options: ArchiveJobOptions): Promise<ArchiveSummary> {
   const manifestPath = `${summary.outputPath}.archive.json`;
   if (summary.outputPath === '-' || !existsSync(manifestPath)) return summary;
   const manifest = JSON.parse(readFileSync(manifestPath, 'utf8')) as ArchiveManifest;
-  const zip = await openZip(manifest.archivePath);
-  const target = manifest.outputPath === '-' ? `${summary.outputPath}.zip` : `${manifest.outputPath}.partial`;
-  let core: string;
-  let encoding: string;
+  const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
+  let archiveCore: ArchiveSummary['archiveCore'];
+  if (options.coreOnly) archiveCore = await coreOf(manifest.archivePath);
+  else {
+    const target = manifest.outputPath === '-' ? `${summary.outputPath}.zip` : `${manifest.outputPath}.partial`;
+    archiveCore = await writeGeoreferencedArchive({ archivePath: manifest.archivePath, corePath: summary.outputPath, target, jobsPath, jobId: summary.jobId });
+    if (manifest.outputPath === '-') {
+      await pipeline(createReadStream(target), options.stdout ?? process.stdout, { end: false });
+      rmSync(target, { force: true });
+    } else renameSync(target, manifest.outputPath);
+    rmSync(summary.outputPath, { force: true });
+  }
+  rmSync(manifest.tablePath, { force: true });
+  rmSync(manifestPath, { force: true });
+  return { ...summary, outputPath: options.coreOnly ? summary.outputPath : manifest.outputPath, archiveCore };
+}
+
+/** The core's path inside the archive and its encoding as meta.xml gives it. */
+async function coreOf(archivePath: string): Promise<{ path: string; encoding: string }> {
+  const zip = await openZip(archivePath);
   try {
-    const { meta, metaDir } = await readMeta(zip, manifest.archivePath);
-    core = metaDir + meta.core.locations[0].replace(/^\.\//, '');
-    encoding = meta.core.encoding;
-    const header = coreHeader(summary.outputPath);
-    const modified = new Date(summary.runTimestamp);
+    const { meta, metaDir } = await readMeta(zip, archivePath);
+    return { path: metaDir + meta.core.locations[0].replace(/^\.\//, ''), encoding: meta.core.encoding };
+  } finally {
+    zip.close();
+  }
+}
+
+/**
+ * Write the georeferenced archive: every file of the original archive byte for byte, but the core,
+ * which is `corePath` (a batch output over that core: UTF-8, tab-separated, RFC 4180 quoting), meta.xml
+ * describing it, and the EML metadata with the method step of job `jobId`. The CLI's batch writes it
+ * when the job is done; the HTTP service writes it from the reviewed core.
+ * @example await writeGeoreferencedArchive({ archivePath: 'dwca.zip', corePath: 'core.txt', target: 'out.zip', jobsPath, jobId }) // { path: 'occurrence.txt', encoding: 'UTF-8' }
+ */
+export async function writeGeoreferencedArchive(options: { archivePath: string; corePath: string; target: string; jobsPath: string; jobId: string }): Promise<{ path: string; encoding: string }> {
+  const { archivePath, corePath, target } = options;
+  const zip = await openZip(archivePath);
+  try {
+    const { meta, metaDir } = await readMeta(zip, archivePath);
+    const core = metaDir + meta.core.locations[0].replace(/^\.\//, '');
+    const header = coreHeader(corePath);
+    const { paragraphs, runTimestamp } = methodStep(options.jobsPath, options.jobId);
+    const modified = new Date(runTimestamp);
     const metadataName = meta.metadata ?? ['eml.xml', 'metadata.xml'].find((n) => zip.entries.some((e) => e.name === metaDir + n)) ?? 'eml.xml';
     const emlPath = metaDir + metadataName;
-    const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
-    const method = methodStep(summary, jobsPath);
     const newMeta = Buffer.from(formatMetaXml(describeCore(meta, header, metadataName)), 'utf8');
-    const eml = zip.entries.some((e) => e.name === emlPath) ? withMethodStep(await zip.read(emlPath), method) : minimalEml(`Occurrences of ${basename(core)}, georeferenced by whereabouts`, method);
+    const eml = zip.entries.some((e) => e.name === emlPath) ? withMethodStep(await zip.read(emlPath), paragraphs) : minimalEml(`Occurrences of ${basename(core)}, georeferenced by whereabouts`, paragraphs);
     const entries = zip.entries.map((e): { name: string; modified: Date; source: ZipSource } => {
-      if (e.name === core) return { name: e.name, modified, source: { file: summary.outputPath } };
+      if (e.name === core) return { name: e.name, modified, source: { file: corePath } };
       if (e.name === metaDir + 'meta.xml') return { name: e.name, modified, source: { buffer: newMeta } };
       if (e.name === emlPath) return { name: e.name, modified, source: { buffer: eml } };
       return { name: e.name, modified: e.modified, source: { stream: () => zip.open(e.name) } };
@@ -138,17 +218,10 @@ async function finishArchive(summary: BatchSummary, options: BatchJobOptions): P
       entries.push({ name: emlPath, modified, source: { buffer: eml } });
     }
     await writeZip(target, entries);
+    return { path: core, encoding: meta.core.encoding };
   } finally {
     zip.close();
   }
-  if (manifest.outputPath === '-') {
-    await pipeline(createReadStream(target), options.stdout ?? process.stdout, { end: false });
-    rmSync(target, { force: true });
-  } else renameSync(target, manifest.outputPath);
-  rmSync(summary.outputPath, { force: true });
-  rmSync(manifest.tablePath, { force: true });
-  rmSync(manifestPath, { force: true });
-  return { ...summary, outputPath: manifest.outputPath, archiveCore: { path: core, encoding } };
 }
 
 /** The finished core's header line (the batch writes UTF-8, tab-separated, RFC 4180 quoting). */
@@ -162,12 +235,12 @@ function coreHeader(path: string): string[] {
   return line.split('\t').map((f) => (f.startsWith('"') ? f.slice(1, -1).replace(/""/g, '"') : f));
 }
 
-/** The EML method step of the job that georeferenced the core. */
-function methodStep(summary: BatchSummary, jobsPath: string): string[] {
+/** The EML method step of the job that georeferenced the core, and the job's run timestamp. */
+function methodStep(jobsPath: string, jobId: string): { paragraphs: string[]; runTimestamp: string } {
   const jobs = openJobs(jobsPath);
   try {
-    const job = loadJob(jobs, summary.jobId);
-    return methodStepParagraphs({ version: job.version, runTimestamp: job.runTimestamp, rows: summary.rows, sources: job.sources });
+    const job = loadJob(jobs, jobId);
+    return { paragraphs: methodStepParagraphs({ version: job.version, runTimestamp: job.runTimestamp, rows: job.rowsTotal ?? 0, sources: job.sources }), runTimestamp: job.runTimestamp };
   } finally {
     jobs.close();
   }

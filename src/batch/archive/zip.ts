@@ -14,6 +14,8 @@ export interface ZipEntryInfo {
   name: string;
   modified: Date;
   isDirectory: boolean;
+  /** Bytes uncompressed, as the entry's header declares them (yauzl checks them as it reads). */
+  size: number;
 }
 
 /** An open zip archive: its entries in stored order and their contents. */
@@ -25,16 +27,23 @@ export interface ZipReader {
 }
 
 /**
- * Whether a file starts like a zip archive (a local file header or an empty archive's end record,
+ * Whether bytes start like a zip archive (a local file header or an empty archive's end record,
  * APPNOTE.TXT 6.3 §4.3.7 and §4.3.16).
+ * @example isZipStart(Buffer.from('PK\x03\x04')) // true
+ */
+export function isZipStart(head: Uint8Array): boolean {
+  return head.length >= 4 && head[0] === 0x50 && head[1] === 0x4b && ((head[2] === 3 && head[3] === 4) || (head[2] === 5 && head[3] === 6));
+}
+
+/**
+ * Whether a file starts like a zip archive (`isZipStart`).
  * @example isZipFile('records.zip') // true
  */
 export function isZipFile(path: string): boolean {
   const fd = openSync(path, 'r');
   try {
     const head = Buffer.alloc(4);
-    const n = readSync(fd, head, 0, 4, 0);
-    return n === 4 && head[0] === 0x50 && head[1] === 0x4b && ((head[2] === 3 && head[3] === 4) || (head[2] === 5 && head[3] === 6));
+    return isZipStart(head.subarray(0, readSync(fd, head, 0, 4, 0)));
   } finally {
     closeSync(fd);
   }
@@ -52,7 +61,7 @@ export async function openZip(path: string): Promise<ZipReader> {
   const entries: ZipEntryInfo[] = [];
   for await (const entry of zip.eachEntry()) {
     byName.set(entry.fileName, entry);
-    entries.push({ name: entry.fileName, modified: entry.getLastModDate(), isDirectory: entry.fileName.endsWith('/') });
+    entries.push({ name: entry.fileName, modified: entry.getLastModDate(), isDirectory: entry.fileName.endsWith('/'), size: entry.uncompressedSize });
   }
   const open = async (name: string) => {
     const entry = byName.get(name);

@@ -20,9 +20,10 @@ export interface BatchRoutesOptions {
 }
 
 /**
- * Batch upload and review: POST /api/v1/batches (multipart, field `file`), GET …/:jobId (progress,
- * for polling), GET …/:jobId/records (the review list), GET and PUT …/records/:row (one record, its
- * decision), GET …/:jobId/reviewed.csv (the reviewed file; also reviewed.geojson and reviewed.gpkg).
+ * Batch upload and review: POST /api/v1/batches (multipart, field `file`: CSV text or a Darwin Core
+ * Archive, told apart by content), GET …/:jobId (progress, for polling), GET …/:jobId/records (the
+ * review list), GET and PUT …/records/:row (one record, its decision), GET …/:jobId/reviewed.csv (the
+ * reviewed file; also reviewed.geojson and reviewed.gpkg, and reviewed.zip for an archive).
  * @example await app.register(batchRoutes, { batches, uploadLimit: 50 * 1024 * 1024 })
  */
 export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async (scope, { batches, uploadLimit }) => {
@@ -30,11 +31,22 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
 
   scope.post(
     '/api/v1/batches',
-    { schema: { summary: 'Upload a CSV and start a batch job', tags: ['batch'], consumes: ['multipart/form-data'], response: { 202: open, 409: errorSchema, 415: errorSchema, ...errorResponses } } },
+    {
+      schema: {
+        summary: 'Upload a CSV or a Darwin Core Archive and start a batch job',
+        description:
+          'The file is CSV or tab-separated text, or a Darwin Core Archive (a zip with a meta.xml, whose occurrence core is georeferenced), ' +
+          'told apart by its bytes, not its name. A zip that is not an archive (unreadable, no meta.xml) is refused with 415; ' +
+          'an archive whose meta.xml names no core, or a core that cannot be read, with 400.',
+        tags: ['batch'],
+        consumes: ['multipart/form-data'],
+        response: { 202: open, 409: errorSchema, 415: errorSchema, ...errorResponses },
+      },
+    },
     async (request, reply) => {
-      if (!request.isMultipart()) throw new RequestError(415, 'send the CSV as multipart/form-data in a field named "file"', 'file');
+      if (!request.isMultipart()) throw new RequestError(415, 'send the CSV or the Darwin Core Archive as multipart/form-data in a field named "file"', 'file');
       const part = await request.file();
-      if (!part || part.fieldname !== 'file') throw new RequestError(400, 'the upload needs a field named "file" holding the CSV', 'file');
+      if (!part || part.fieldname !== 'file') throw new RequestError(400, 'the upload needs a field named "file" holding the CSV or the Darwin Core Archive', 'file');
       const bytes = await part.toBuffer().catch((error: { code?: string }) => {
         if (error.code === 'FST_REQ_FILE_TOO_LARGE') throw new RequestError(413, `the uploaded file is larger than the upload limit of ${uploadLimit} bytes`, 'file');
         throw error;
@@ -148,8 +160,9 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
     '/api/v1/batches/:jobId/reviewed.csv',
     { schema: { summary: 'The batch output with every review decision applied, as CSV', tags: ['batch'], params: jobParams, produces: ['text/csv'] } },
     async (request, reply) => {
-      // The input's delimiter is kept: a tab-separated upload comes back as tab-separated values.
-      const { text, delimiter } = batches.reviewedCsv(request.params.jobId);
+      // The input's delimiter is kept: a tab-separated upload comes back as tab-separated values. An
+      // archive's core is the table whereabouts wrote from it (its originals are in the archive): CSV.
+      const { text, delimiter } = batches.reviewedCsv(request.params.jobId, batches.progress(request.params.jobId).input === 'darwin-core-archive' ? ',' : undefined);
       const [type, extension] = delimiter === '\t' ? ['text/tab-separated-values', 'tsv'] : ['text/csv', 'csv'];
       return reply
         .header('content-type', `${type}; charset=utf-8`)
@@ -173,4 +186,22 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
           .send(await batches.reviewedFile(request.params.jobId, format)),
     );
   }
+
+  scope.get(
+    '/api/v1/batches/:jobId/reviewed.zip',
+    {
+      schema: {
+        summary: 'A batch over a Darwin Core Archive as a new archive: every original file byte for byte, the core with the reviewed georeference terms, meta.xml describing them, the EML with a method step',
+        tags: ['batch'],
+        params: jobParams,
+        description: 'A job over a CSV upload has no archive: 404.',
+        produces: ['application/zip'],
+      },
+    },
+    async (request, reply) =>
+      reply
+        .header('content-type', 'application/zip')
+        .header('content-disposition', `attachment; filename="whereabouts-reviewed-${request.params.jobId}.zip"`)
+        .send(await batches.reviewedArchive(request.params.jobId)),
+  );
 };
