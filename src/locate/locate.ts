@@ -139,30 +139,17 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   let used = interpretation;
   let resolved = resolveFeatures(finder, interpretation, context, options, edits);
   let fallbackFrom: string | undefined;
-  if (!resolved.ok && resolved.result.status === 'not-found') {
-    // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded).
-    for (const clause of interpretation.otherClauses) {
-      const alternative = readingOf(interpretation, clause);
-      const attempt = resolveFeatures(finder, alternative, context, options, edits);
-      // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
-      // at a second name, or a name met anywhere in the country, too often is another place of that name.
-      if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
-      fallbackFrom = interpretation.features.join('", "');
-      const usedText = interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ');
-      used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the next clause, "${usedText}", is used instead`] };
-      resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
-      break;
-    }
-  }
-  // "Mun. Alisos: Fazenda X" with no farm loaded: the town the text's own units name, with the radius
-  // widened as for any place named but not loaded.
   const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
-  for (const standIn of missed ? standInsNamed(interpretation) : []) {
-    const alternative: Interpretation = { ...interpretation, type: 'named-place', features: [standIn.name], offsets: [], featureKind: undefined };
-    const attempt = resolveFeatures(finder, alternative, context, options, edits);
+  // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded); failing
+  // that, the town the text's own units name ("Mun. Alisos: Fazenda X" with no farm loaded). Either is
+  // widened as any place named but not loaded is.
+  for (const { reading, what } of missed ? standInReadings(interpretation) : []) {
+    const attempt = resolveFeatures(finder, reading, context, options, edits);
+    // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
+    // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
     fallbackFrom = interpretation.features.join('", "');
-    used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: ${standIn.what}, "${standIn.name}", is used instead`] };
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" is not in the loaded gazetteers: ${what} is used instead`] };
     resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
     break;
   }
@@ -199,6 +186,20 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const conflict = conflictWith(georef, others.found);
   if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+/** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */
+function standInReadings(interpretation: Interpretation): { reading: Interpretation; what: string }[] {
+  return [
+    ...interpretation.otherClauses.map((clause) => ({
+      reading: readingOf(interpretation, clause),
+      what: `the next clause, "${interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ')}",`,
+    })),
+    ...standInsNamed(interpretation).map(({ name, what }) => ({
+      reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined },
+      what: `${what}, "${name}",`,
+    })),
+  ];
 }
 
 /**
