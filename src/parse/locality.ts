@@ -550,6 +550,11 @@ function readClause(s: Source): LocalityRead {
   }
 
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
+  // "Paragem entre Alisos e Vila Serena", "camp between X and Y": a place named by the two it lies between.
+  for (let k = i + 1; k < end - 3; k++) {
+    const names = L.BETWEEN_WORDS.has(norm(s, k)!) && s.tokens[k + 1]?.kind !== 'number' ? twoNames(s, k + 1, end) : null;
+    if (names && hasNameWord(s, i, k)) return reading('between', names, { approximate, notes: [`"${s.text.slice(s.tokens[i]!.start, s.tokens[k - 1]!.end)}" read as the place between ${names[0]} and ${names[1]}`] });
+  }
   if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
   // "km 12 carretera a X": a road's kilometre post, measured from the road's own zero, which no clause gives.
   if (UNIT_WORDS.get(norm(s, i) ?? '') === 'km' && s.tokens[i + 1]?.kind === 'number') {
