@@ -169,7 +169,8 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
   const along = matchPhrase(s, i, L.ALONG_PHRASES);
   if (along) {
     const start = i + along;
-    const end = lineEnd(s, start, stopAtFrom);
+    // The line's own first word may be a direction: "along east shore of the island from X".
+    const end = lineEnd(s, readHeading(s, start) && start + 1 < s.tokens.length ? start + 1 : start, stopAtFrom);
     if (end === start) return null;
     const nounMode = end - start === 1 ? modeOfNoun(norm(s, start)) : undefined;
     if (nounMode) return { path: pathOf(nounMode, written(end)), next: end };
