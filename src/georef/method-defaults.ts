@@ -62,9 +62,10 @@ export const METHOD_DEFAULTS = {
   settlementNamedLikeFeature: 'settlement',
   /**
    * A name matching several features of one type in one state or province, all within this distance of
-   * one another (a gazetteer holding one town twice, or two hamlets of one name side by side), is answered with one circle covering them all,
-   * as the cover option does, with the remark [CHOICE]; farther apart the name stays ambiguous. 0 turns it
-   * off. Chosen by measurement on the real-record set (README "On real records").
+   * one another (a gazetteer holding one town twice, or two hamlets of one name side by side), is
+   * answered with one circle covering them all, as the cover option does, with the remark [CHOICE];
+   * farther apart the name stays ambiguous. 0 turns it off. Chosen by measurement on the real-record set
+   * (README "On real records").
    */
   namesakesWithinMeters: 30000,
 } as const satisfies Record<string, number | string>;

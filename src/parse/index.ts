@@ -5,12 +5,11 @@
  * @example parseLocality('10 km NE of Vila Serena').type // 'offset-heading'
  */
 import type { AdministrativeLevel, Clause, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
-import { tokenize, type Token } from './tokens.ts';
+import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import * as L from './lexicon.ts';
-import { fold } from './tokens.ts';
 
 export { parseCoordinates } from './coordinates.ts';
 export { featureKindOf } from './locality.ts';
@@ -139,7 +138,7 @@ function interpret(text: string): Interpretation {
     }
     const lead = unitAhead;
     unitAhead = undefined;
-    if (lead) {
+    if (lead && readSegment(index)?.type === 'named-place') {
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit: { name: clauseText, level: lead, written: text.slice(tokens[segments[index - 1]!.from]!.start, tokens[to - 1]!.end) } });
       continue;
     }
