@@ -18,7 +18,8 @@ import { unreadableRecord } from '../locate/georeference-record.ts';
 import type { LocateRequest } from '../locate/locate.ts';
 import { appendedLine, csvLine, groupFields, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
 import { GENERALISATION_TERMS, generaliseRecord, type WithheldTerm } from '../record/generalised-record.ts';
-import { sensitiveGrid, type GeneralisationSettings } from './sensitive-records.ts';
+import { sensitiveGeneralisation, type GeneralisationSettings } from './sensitive-records.ts';
+import type { Generalisation } from '../georef/generalisation.ts';
 import { checkCoordinates } from '../record/coordinate-check.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
@@ -228,7 +229,8 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     }
     const format = await inspectInput(inputPath);
     const delimiter = options.delimiter ?? (await detectDelimiter(inputPath, format));
-    await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
+    const { header } = await headerColumns(inputPath, format, delimiter); // a clear error now, before a job exists
+    if (options.generalise) sensitiveGeneralisation(header, options.generalise); // a marking column or scientificName missing: said now too
     const like = {
       inputSha256: format.sha256, outputPath, settings: settingsOf(options), version: VERSION, sources,
       partIndex: options.part?.index ?? null, partCount: options.part?.count ?? null,
@@ -394,7 +396,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const results = resultLookup(jobs, job.id);
   const { generalise } = JSON.parse(job.settings) as { generalise?: GeneralisationSettings };
   const withhold = jobs.prepare('INSERT OR REPLACE INTO batch_withheld (job_id, row_number, precise) VALUES (?, ?, ?)');
-  let gridOf: ((fields: readonly string[]) => number | undefined) | undefined;
+  let generalisationOf: ((fields: readonly string[]) => Generalisation | undefined) | undefined;
   const writeText = (text: string) => {
     const bytes = Buffer.from(text, 'utf8');
     // writeSync may write less than asked (a disk filling up); only bytes really written count.
@@ -419,7 +421,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
       if (!columns) {
         columns = indexColumns(record.fields);
         headerLength = record.fields.length;
-        gridOf = generalise ? sensitiveGrid(record.fields, generalise) : undefined;
+        generalisationOf = generalise ? sensitiveGeneralisation(record.fields, generalise) : undefined;
         if (position === 0) {
           const appended = csvLine(outputHeader(record.fields, generalise ? GENERALISATION_TERMS : []).slice(headerLength), delimiter);
           const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
@@ -439,9 +441,9 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
       }
       if (inPart) {
         let extra: string[] | undefined;
-        if (gridOf) {
-          const grid = record.problem ? undefined : gridOf(record.fields);
-          const generalised = group && grid !== undefined ? generaliseGroup(group, grid, delimiter) : undefined;
+        if (generalisationOf) {
+          const asked = record.problem ? undefined : generalisationOf(record.fields);
+          const generalised = group && asked !== undefined ? generaliseGroup(group, asked, delimiter) : undefined;
           if (generalised?.withheld) withhold.run(job.id, rowIndex, JSON.stringify(generalised.withheld));
           group = generalised?.group ?? group;
           extra = generalised?.terms ?? ['', ''];
@@ -562,9 +564,9 @@ async function deliver(job: BatchJob, options: BatchJobOptions): Promise<void> {
  * A group's result generalised for one row, with the two terms' values and the precise fields the private
  * store keeps (none when the row has no point to generalise).
  */
-function generaliseGroup(group: RenderedGroup, gridDegrees: number, delimiter: Delimiter): { group: RenderedGroup; terms: string[]; withheld?: Record<WithheldTerm, string> } {
+function generaliseGroup(group: RenderedGroup, generalisation: Generalisation, delimiter: Delimiter): { group: RenderedGroup; terms: string[]; withheld?: Record<WithheldTerm, string> } {
   const fields = groupFields(group, delimiter);
-  const generalised = generaliseRecord(fields, gridDegrees);
+  const generalised = generaliseRecord(fields, generalisation);
   if (generalised.terms.dataGeneralizations === '') return { group, terms: ['', ''] };
   return {
     group: renderGroup({ fields: generalised.fields, centers: group.centers, flags: group.flags }, delimiter, group.localityType),

@@ -213,7 +213,7 @@ function placeCoordinates(coordinates: WrittenCoordinates | undefined, settings:
       datumMeters = regional.meters;
       remarks.push(
         `${unknown}, datum term ${meters(datumMeters)}: the largest distance between its readings in the datums whose EPSG area of use holds the point ` +
-          `(${regional.datums.join(', ')}), ${meters(regional.spreadMeters)}, plus the largest transformation accuracy among them, ${meters(regional.accuracyMeters)} [CHOICE] (docs/method.md §5.4)`,
+          `(${regional.datums.join(', ')}) [CHOICE]; their transformations' stated accuracies (at most ${meters(regional.accuracyMeters)}) are not added (docs/method.md §5.4)`,
       );
     } else {
       datumMeters = settings.unknownDatumMeters;

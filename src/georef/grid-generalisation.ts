@@ -14,6 +14,7 @@
  * per degree from the geodesics to the corners at these sizes) [CHOICE: common practice, no source].
  */
 import { inverse } from '../geodesy/geodesic.ts';
+import { polygonsToWKT } from '../geodesy/wkt.ts';
 
 /** A point-radius georeference: decimal degrees on WGS84 and meters. */
 export interface PointRadius {
@@ -22,15 +23,18 @@ export interface PointRadius {
   radiusMeters: number;
 }
 
+/** A georeference moved to the centre of a grid cell (of a degree grid here, or a grid in meters). */
 export interface GridGeneralisation extends PointRadius {
-  /** The grid size in degrees, as given. */
-  gridDegrees: number;
+  /** The cell in words, for the remarks and dataGeneralizations: "0.1° cell of the latitude-longitude grid". */
+  cell: string;
   /** The cell as a WKT polygon (longitude latitude, EPSG:4326). */
   footprintWKT: string;
-  /** The centre's coordinates written to the grid's precision (one decimal more than the grid). */
+  /** The centre's coordinates as written (for a degree grid, one decimal more than the grid). */
   decimalLatitude: string;
   decimalLongitude: string;
-  /** The cell's farthest corner from its centre, meters (before the original radius is added). */
+  /** coordinatePrecision of the written centre, degrees. */
+  coordinatePrecision: string;
+  /** The cell's farthest corner from its written centre, meters (before the original radius is added). */
   halfDiagonalMeters: number;
 }
 
@@ -52,18 +56,22 @@ export function generaliseToGrid(point: PointRadius, gridDegrees: number): GridG
   const west = snap(Math.floor(point.longitude / gridDegrees + 1e-9) * gridDegrees);
   const east = snap(west + gridDegrees);
   const latitude = (south + north) / 2;
-  const longitude = (west + east) / 2;
+  // A cell past 180° has its centre written within ±180° too.
+  const middle = (west + east) / 2;
+  const longitude = middle > 180 ? Number((middle - 360).toFixed(decimals + 1)) : middle;
   const halfDiagonalMeters = Math.max(...[south, north].flatMap((lat) => [west, east].map((lon) => inverse(latitude, longitude, lat, lon).meters)));
   const ring = [[west, south], [east, south], [east, north], [west, north], [west, south]];
   return {
-    gridDegrees,
+    cell: `${gridDegrees}° cell of the latitude-longitude grid`,
+    coordinatePrecision: String(gridDegrees),
     latitude,
     longitude,
     decimalLatitude: latitude.toFixed(decimals + 1),
     decimalLongitude: longitude.toFixed(decimals + 1),
     halfDiagonalMeters,
     radiusMeters: Math.ceil(halfDiagonalMeters + point.radiusMeters),
-    footprintWKT: `POLYGON((${ring.map(([x, y]) => `${x} ${y}`).join(',')}))`,
+    // A cell past 180° (a size that does not divide 180) is cut there into two parts.
+    footprintWKT: polygonsToWKT([[ring]]),
   };
 }
 

@@ -4,7 +4,7 @@
  * (Darwin Core Maintenance Group 2023, TDWG, http://rs.tdwg.org/dwc/terms/guides/text/, "guide §"), and
  * the description of the georeferenced core.
  */
-import { GEOREFERENCE_TERMS } from '../record/darwin-core.ts';
+import { appendedColumns } from './result-rows.ts';
 import { DWC_NAMESPACE } from '../record/term-names.ts';
 import { COORDINATE_FLAGS_COLUMN } from './csv.ts';
 
@@ -115,8 +115,8 @@ export function formatMetaXml(archive: MetaArchive): string {
  * under PROPOSAL_NAMESPACE. Extensions are described as they were.
  */
 export function describeCore(meta: MetaArchive, header: readonly string[], metadata: string): MetaArchive {
-  const appended = GEOREFERENCE_TERMS.length + 1; // and the coordinate flags
-  const firstAppended = header.length - appended;
+  // The terms, dataGeneralizations and informationWithheld when rows were generalised, and the coordinate flags.
+  const firstAppended = appendedColumns(header).termsStart;
   const fields: MetaField[] = [];
   let constant = 0;
   const indexed = meta.core.fields.filter((f) => f.index !== undefined);

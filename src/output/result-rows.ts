@@ -45,9 +45,7 @@ export function uniqueColumnNames(header: readonly string[]): string[] {
  */
 export function resultRowReader(header: readonly string[]): (fields: readonly string[]) => ResultRow {
   const columnCount = header.length;
-  const generalised = termName(header.at(-2)?.replace(/^proposed_/, '') ?? '') === GENERALISATION_TERMS.at(-1);
-  const termsStart = columnCount - 1 - (generalised ? GENERALISATION_TERMS.length : 0) - GEOREFERENCE_TERMS.length;
-  if (termsStart < 0) throw new Error('not a batch output: it has fewer columns than the appended terms');
+  const { termsStart } = appendedColumns(header);
   const at = (term: GeoreferenceTerm) => termsStart + GEOREFERENCE_TERMS.indexOf(term);
   return (given) => {
     const fields = Array.from({ length: columnCount }, (_, i) => given[i] ?? '');
@@ -60,6 +58,18 @@ export function resultRowReader(header: readonly string[]): (fields: readonly st
       footprint: wkt ? footprintGeometry(wkt) : undefined,
     };
   };
+}
+
+/**
+ * Where a batch output's appended columns start: the Darwin Core terms, then, when the batch generalised
+ * sensitive rows, dataGeneralizations and informationWithheld, then the flags column (always last).
+ * @example appendedColumns(header) // { termsStart: 12, generalised: false }
+ */
+export function appendedColumns(header: readonly string[]): { termsStart: number; generalised: boolean } {
+  const generalised = termName(header.at(-2)?.replace(/^proposed_/, '') ?? '') === GENERALISATION_TERMS.at(-1);
+  const termsStart = header.length - 1 - (generalised ? GENERALISATION_TERMS.length : 0) - GEOREFERENCE_TERMS.length;
+  if (termsStart < 0) throw new Error('not a batch output: it has fewer columns than the appended terms');
+  return { termsStart, generalised };
 }
 
 /**

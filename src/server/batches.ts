@@ -16,11 +16,17 @@ import { parseRecords, type Delimiter, type InputRecord } from '../batch/records
 import type { LocateResult } from '../locate/locate.ts';
 import { COORDINATE_FLAGS_COLUMN, csvLine, readFlags } from '../output/csv.ts';
 import { answerBody, type AnswerBody } from '../output/json.ts';
+import { footprintGeometry } from '../output/footprint-geometry.ts';
+import { footprintSummary } from '../geodesy/wkt.ts';
 import { decimalNumber } from '../record/coordinate-check.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { HEAD_BYTES, notText } from '../store/file-kind.ts';
 import { writeResults } from '../batch/gis-output.ts';
+import { sensitiveGeneralisation, type GeneralisationSettings } from '../batch/sensitive-records.ts';
+import type { Generalisation } from '../georef/generalisation.ts';
+import { appendedColumns } from '../output/result-rows.ts';
+import { GENERALISATION_TERMS, generaliseRecord } from '../record/generalised-record.ts';
 import { RequestError } from './errors.ts';
 import type { RecordAnswer } from '../locate/georeference-record.ts';
 import { lookUp, type ServedGazetteer } from './lookup.ts';
@@ -79,6 +85,8 @@ const CORRECTIONS: Record<string, { fix: (lat: string, lon: string) => [string, 
 interface ParsedOutput {
   header: InputRecord;
   originalLength: number;
+  /** How the job generalises a row (undefined: not at all, or not this row): the job's own settings. */
+  generalisationOf: (originals: readonly string[]) => Generalisation | undefined;
   /** The job's rows as read from its output, original fields quoted as they stood. */
   records: InputRecord[];
   delimiter: Delimiter;
@@ -133,9 +141,10 @@ export class BatchService {
 
   /**
    * Starts a job on the uploaded bytes, CSV text or a Darwin Core Archive (the same job the CLI's batch
-   * runs over an archive's core, src/batch/archive); resolves with its id once the job is stored.
+   * runs over an archive's core, src/batch/archive), generalising sensitive rows when asked; resolves with
+   * its id once the job is stored.
    */
-  async start(bytes: Buffer): Promise<string> {
+  async start(bytes: Buffer, generalise?: GeneralisationSettings): Promise<string> {
     const kind = uploadKind(bytes);
     // Said here without the store's path, which an HTTP answer never shows.
     if (this.store.sources().length === 0) throw new RequestError(409, 'the service\'s gazetteer holds no source, so no row could be georeferenced: load one with whereabouts import <file> --source "<citation>" and start the service again', 'file');
@@ -144,10 +153,11 @@ export class BatchService {
     if (kind === 'archive') writeFileSync(files.archive, bytes);
     let started: Awaited<ReturnType<typeof startBatch>>;
     try {
+      const generalising = generalise ? { generalise } : {};
       started = await startBatch(
         kind === 'archive'
-          ? { dbPath: this.dbPath, input: files.archive, output: files.archiveOutput, archiveOnly: true, coreOnly: true, inputName: 'the uploaded zip', maxExpandedBytes: this.archiveExpandedLimit }
-          : { dbPath: this.dbPath, input: bytes, output: files.csvOutput },
+          ? { dbPath: this.dbPath, input: files.archive, output: files.archiveOutput, archiveOnly: true, coreOnly: true, inputName: 'the uploaded zip', maxExpandedBytes: this.archiveExpandedLimit, ...generalising }
+          : { dbPath: this.dbPath, input: bytes, output: files.csvOutput, ...generalising },
       );
     } catch (error) {
       rmSync(files.archive, { force: true });
@@ -226,9 +236,11 @@ export class BatchService {
     const fields = this.rowOf(output, row);
     const review = this.reviews.latest(jobId).get(row) ?? null;
     const { answer, note } = this.lookUpRow(output, fields, hasResolution(resolution) ? resolution : (review ?? {}));
+    const generalisation = output.generalisationOf(fields.slice(0, output.originalLength));
     const original = Object.fromEntries(output.header.fields.slice(0, output.originalLength).map((name, i) => [name, fields[i] ?? '']));
     const proposed = Object.fromEntries(output.header.fields.slice(output.originalLength).map((name, i) => [name, fields[output.originalLength + i] ?? '']));
-    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer: answerBody(answer), ...(note ? { resolutionNote: note } : {}) };
+    const body = generalisation ? generalisedAnswer(answerBody(answer), generalisation) : answerBody(answer);
+    return { row, original, proposed, flags: readFlags(proposed[COORDINATE_FLAGS_COLUMN]), review, answer: body, ...(note && !generalisation ? { resolutionNote: note } : {}) };
   }
 
   /**
@@ -275,9 +287,13 @@ export class BatchService {
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
       if (hasResolution(review)) {
         const { answer, note } = this.lookUpRow(output, fields, review, review);
-        const recomputed = answer.darwinCore;
+        // A generalised row stays generalised, however the reviewer resolved it: the precise answer is not written.
+        const generalisation = output.generalisationOf(fields.slice(0, output.originalLength));
+        const generalised = generalisation ? generaliseRecord(answer.darwinCore, generalisation) : undefined;
+        const recomputed = generalised?.fields ?? answer.darwinCore;
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
-        if (note) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
+        if (generalised) GENERALISATION_TERMS.forEach((term, i) => (copy[output.originalLength + GEOREFERENCE_TERMS.length + i] = generalised.terms[term]));
+        if (note && !generalised) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
       }
       if (review.decision === 'accepted' && get('decimalLatitude') === '') {
         // Kept from a review file written before an accept needed a point: nothing to verify.
@@ -378,9 +394,11 @@ export class BatchService {
     const [headerRecord, ...records] = parseRecords(readFileSync(progress.outputPath, 'utf8'), delimiter);
     const header = headerRecord.fields;
     const rows = records.map((r) => r.fields);
-    const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
+    const originalLength = appendedColumns(header).termsStart;
     const column = termColumns(header);
     const columns = indexColumns(header.slice(0, originalLength));
+    const settings = progress.generalise;
+    const generalisationOf = settings ? sensitiveGeneralisation(header.slice(0, originalLength), settings) : () => undefined;
     // The locality type as the batch read it, from its stored results: the text is not parsed again.
     const localityTypes = storedLocalityTypes(this.jobsPath, jobId);
     const summaries = rows.map((fields, i): RecordSummary => {
@@ -396,7 +414,7 @@ export class BatchService {
         review: null,
       };
     });
-    const parsed = { header: headerRecord, originalLength, records, delimiter, summaries };
+    const parsed = { header: headerRecord, originalLength, generalisationOf, records, delimiter, summaries };
     this.parsed.set(jobId, parsed);
     return parsed;
   }
@@ -470,7 +488,7 @@ function summaryStatus(output: ParsedOutput, row: number): string {
 }
 
 function termColumns(header: string[]): Record<GeoreferenceTerm, number> {
-  const originalLength = header.length - GEOREFERENCE_TERMS.length - 1;
+  const originalLength = appendedColumns(header).termsStart;
   return Object.fromEntries(GEOREFERENCE_TERMS.map((term, i) => [term, originalLength + i])) as Record<GeoreferenceTerm, number>;
 }
 
@@ -486,4 +504,33 @@ function matches(r: RecordSummary, f: RecordFilter): boolean {
   if (f.radiusMin !== undefined && (r.radiusMeters === null || r.radiusMeters < f.radiusMin)) return false;
   if (f.radiusMax !== undefined && (r.radiusMeters === null || r.radiusMeters > f.radiusMax)) return false;
   return true;
+}
+
+/**
+ * A generalised row's answer for the review page: the point, radius and footprint of its cell and the
+ * generalised Darwin Core fields, never the precise ones; the candidates, the features used, the
+ * plausibility flags and the distance to the record's own coordinates are left out, as each would place the
+ * record precisely (its georeferenceSources and remarks are withheld the same way).
+ */
+function generalisedAnswer(body: AnswerBody, generalisation: Generalisation): AnswerBody {
+  const { georeference, footprint: _footprint, footprintSummary: _summary, recordPoint: _recordPoint, flags: _flags, ...rest } = body;
+  const generalised = generaliseRecord(body.darwinCore, generalisation);
+  const answer: AnswerBody = { ...rest, candidates: [], darwinCore: generalised.fields };
+  if (!georeference || generalised.terms.dataGeneralizations === '') return { ...answer, georeference: undefined };
+  const radius = Number(generalised.fields.coordinateUncertaintyInMeters);
+  // The whole radius is the cell's (with the original radius inside it): one term, as the remarks say.
+  const components = { extent: radius, offset: 0, coordinatePrecision: 0, datum: 0, mapScale: 0, measurement: 0 };
+  answer.georeference = {
+    latitude: Number(generalised.fields.decimalLatitude),
+    longitude: Number(generalised.fields.decimalLongitude),
+    uncertaintyMeters: radius,
+    components,
+    footprintWKT: generalised.fields.footprintWKT,
+    features: [],
+    remarks: [generalised.fields.georeferenceRemarks, generalised.terms.dataGeneralizations, generalised.terms.informationWithheld],
+  };
+  answer.components = components;
+  answer.footprint = footprintGeometry(generalised.fields.footprintWKT);
+  if (answer.footprint) answer.footprintSummary = footprintSummary(answer.footprint);
+  return answer;
 }

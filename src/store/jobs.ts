@@ -4,6 +4,7 @@
  * (input sha256, settings, whereabouts version, gazetteer source hashes, one run timestamp) and its
  * progress: the result of each distinct locality and the number of rows written.
  */
+import type { GeneralisationSettings } from '../batch/sensitive-records.ts';
 import Database from 'better-sqlite3';
 import type { Source } from '../match/types.ts';
 
@@ -62,6 +63,8 @@ export interface JobProgress {
   error?: string;
   /** The method choices the job uses, by id (absent for jobs stored before jobs recorded them). */
   methodChoices?: Record<string, number | string>;
+  /** How the job generalises sensitive rows, when it was asked to (taxa list and/or marking column). */
+  generalise?: GeneralisationSettings;
 }
 
 const SCHEMA = `
@@ -214,6 +217,7 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
       delimiter: job.delimiter,
       error: job.error ?? undefined,
       methodChoices: job.methodChoices ?? undefined,
+      generalise: (JSON.parse(job.settings) as { generalise?: GeneralisationSettings }).generalise,
     };
   } finally {
     if (typeof jobs === 'string') db.close();

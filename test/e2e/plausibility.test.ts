@@ -8,27 +8,17 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { parse } from 'csv-parse/sync';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
+import { describe, expect, it } from 'vitest';
+import { post, useDemoServer } from '../server/helpers.ts';
 
 const run = promisify(execFile);
 const root = new URL('../..', import.meta.url).pathname;
 const cli = join(root, 'bin/whereabouts.js');
 
-let db: TempDatabase;
-let server: RunningServer;
-
-beforeAll(async () => {
-  db = await demoDatabase();
-  server = await listen({ dbPath: db.dbPath });
-});
-afterAll(async () => {
-  await server?.close();
-  db?.remove();
-});
+const demo = useDemoServer();
 
 async function locate(...args: string[]) {
-  return JSON.parse((await run(process.execPath, [cli, '--db', db.dbPath, 'locate', ...args, '--json'], { cwd: root })).stdout);
+  return JSON.parse((await run(process.execPath, [cli, '--db', demo.db.dbPath, 'locate', ...args, '--json'], { cwd: root })).stdout);
 }
 
 describe('whereabouts locate', () => {
@@ -58,26 +48,26 @@ describe('whereabouts locate', () => {
   });
 
   it('prints the flags in the reading for a person', async () => {
-    const { stdout } = await run(process.execPath, [cli, '--db', db.dbPath, 'locate', '10°, 10°', '--country-code', 'QV'], { cwd: root });
+    const { stdout } = await run(process.execPath, [cli, '--db', demo.db.dbPath, 'locate', '10°, 10°', '--country-code', 'QV'], { cwd: root });
     expect(stdout).toContain('flags: outside-record-country');
   });
 });
 
 describe('the service', () => {
   it('returns the flags and remarks in the body of POST /api/v1/georeference', async () => {
-    const { status, json } = await post(`${server.url}/api/v1/georeference`, { locality: '5 km N of Puerto Lindo; 3 km S of Vila Serena', countryCode: 'QV' });
+    const { status, json } = await post(`${demo.server.url}/api/v1/georeference`, { locality: '5 km N of Puerto Lindo; 3 km S of Vila Serena', countryCode: 'QV' });
     expect(status).toBe(200);
     expect(json.flags).toEqual(['clauses-conflict']);
     expect(json.darwinCore.georeferenceRemarks).toContain('[clauses-conflict]');
-    const far = await post(`${server.url}/api/v1/georeference`, { locality: '10°, 10°', countryCode: 'QV' });
+    const far = await post(`${demo.server.url}/api/v1/georeference`, { locality: '10°, 10°', countryCode: 'QV' });
     expect(far.json.flags).toContain('outside-record-country');
   });
 });
 
 describe('whereabouts batch', () => {
   it('writes the flags in whereabouts_coordinateFlags beside the record\'s own coordinate flags', async () => {
-    const input = join(db.dir, 'plausibility.csv');
-    const output = join(db.dir, 'plausibility.out.csv');
+    const input = join(demo.db.dir, 'plausibility.csv');
+    const output = join(demo.db.dir, 'plausibility.out.csv');
     writeFileSync(input, [
       'occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude',
       'p1,"10°, 10°",QV,,',
@@ -85,7 +75,7 @@ describe('whereabouts batch', () => {
       'p3,"10 km NE of Vila Serena",QV,,',
       'p4,"45.5 S, 150.2 W",QV,0,0',
     ].join('\n'));
-    await run(process.execPath, [cli, '--db', db.dbPath, 'batch', input, '--out', output, '--quiet'], { cwd: root });
+    await run(process.execPath, [cli, '--db', demo.db.dbPath, 'batch', input, '--out', output, '--quiet'], { cwd: root });
     const rows = parse(readFileSync(output), { columns: true }) as Record<string, string>[];
     expect(rows.map((r) => r.whereabouts_coordinateFlags)).toEqual([
       'outside-record-country',

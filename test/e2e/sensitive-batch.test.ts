@@ -8,15 +8,19 @@
  * distances on WGS84 from the registry package geodesy 2.4.0 (C. Veness, MIT).
  */
 import { execFile } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { createWriteStream, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { pipeline } from 'node:stream/promises';
 import { promisify } from 'node:util';
 import Database from 'better-sqlite3';
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { beforeAll, describe, expect, it } from 'vitest';
+import yazl from 'yazl';
+import { unzip } from '../batch/helpers.ts';
+import { holdsCoordinate, withheldRows } from '../support/withheld.ts';
 
 const run = promisify(execFile);
 const root = new URL('../..', import.meta.url).pathname;
@@ -52,6 +56,8 @@ function expectedCell(lat: number, lon: number, radius: number, grid: number, de
 }
 
 const input = join(dir, 'localities.csv');
+/** Only the rows of the listed taxa: any precise coordinate in an output of it is a leak, not another record's own. */
+const listedOnly = join(dir, 'listed-only.csv');
 const marked = join(dir, 'marked.csv');
 const taxa = join(dir, 'taxa.csv');
 let plain: string;
@@ -65,6 +71,7 @@ beforeAll(async () => {
   // A marking column built here: every row of Aubracia marina marked "yes".
   const rows = rowsOf(source);
   writeFileSync(marked, stringify(rows.map((r, i) => [...r, i === 0 ? 'withhold' : r[2] === 'Aubracia marina' ? 'yes' : ''])));
+  writeFileSync(listedOnly, stringify(rows.filter((r, i) => i === 0 || r[2] === 'Verdemaria lindoensis' || r[2] === 'Serenella alticola')));
   plain = await batch(input, 'plain.csv');
 }, 180_000);
 
@@ -117,8 +124,9 @@ describe('batch --sensitive-taxa', () => {
       expect(after[lonAt]).toBe(expected.longitude);
       expect(Number(after[radiusAt])).toBe(expected.radius);
       expect(after[footprintAt]).toMatch(/^POLYGON\(\(/);
-      expect(after.at(-3)).toBe(`coordinates generalised to the centre of a ${grid}° grid cell; radius grown to cover the cell and the original uncertainty; footprint is the cell`);
-      expect(after.at(-2)).toMatch(/^precise coordinates, their sources and remarks withheld under the holder's policy; available from the data custodian$/);
+      // Darwin Core's own example wording ("Coordinates generalized from original GPS coordinates to the nearest half degree grid cell"; from memory).
+      expect(after.at(-3)).toBe(`Coordinates generalized from the original georeference to the centre of a ${grid}° cell of the latitude-longitude grid; coordinateUncertaintyInMeters grown to cover the cell and the original uncertainty; footprintWKT is the cell`);
+      expect(after.at(-2)).toMatch(/^Precise location information withheld under the holder's policy \(decimalLatitude, .*\); available from the data custodian$/);
       // The precise georeference: in the job store, not in this row.
       expect(withheld.get(i), `row ${i}`).toMatchObject({ decimalLatitude: lat, decimalLongitude: lon, coordinateUncertaintyInMeters: String(radius), footprintWKT: before[footprintAt] });
       // Nothing appended to the row holds the precise point (its own columns are the holder's, kept as they came).
@@ -145,7 +153,7 @@ describe('batch --sensitive-taxa --format geojson', () => {
       // GeoJSON positions are longitude, latitude (RFC 7946 §3.1.1): the centre of a 0.1° cell.
       expect(f.geometry!.coordinates.map((c) => c.toFixed(2))).toEqual([f.properties.proposed_decimalLongitude, f.properties.proposed_decimalLatitude]);
       for (const c of f.geometry!.coordinates) expect(Math.abs((Math.abs(c) * 100) % 10 - 5)).toBeLessThan(1e-6);
-      expect(f.properties.dataGeneralizations).toContain('0.1° grid cell');
+      expect(f.properties.dataGeneralizations).toContain('0.1° cell of the latitude-longitude grid');
     }
   }, 180_000);
 });
@@ -161,7 +169,7 @@ describe('batch --sensitive-column', () => {
       if (isMarked && row[lat] !== '') {
         generalised++;
         expect(row[lat]).toMatch(/^-?\d+\.\d5$/); // a 0.1° cell's centre
-        expect(row.at(-3)).toContain('0.1° grid cell');
+        expect(row.at(-3)).toContain('0.1° cell of the latitude-longitude grid');
       } else {
         expect(row.slice(-3, -1)).toEqual(['', '']);
       }
@@ -172,7 +180,106 @@ describe('batch --sensitive-column', () => {
   it('refuses --sensitive-column without a grid, and a list without gridDegrees, with a clear error', async () => {
     await expect(whereabouts('batch', marked, '--out', join(dir, 'x.csv'), '--sensitive-column', 'withhold')).rejects.toThrow(/--sensitive-column needs --generalise-to/);
     const bad = join(dir, 'bad-taxa.csv');
-    writeFileSync(bad, 'scientificName,gridMeters\nTelmoa ambigua,1000\n');
-    await expect(whereabouts('batch', input, '--out', join(dir, 'y.csv'), '--sensitive-taxa', bad)).rejects.toThrow(/needs the columns scientificName and gridDegrees/);
+    writeFileSync(bad, 'scientificName,gridKm\nTelmoa ambigua,1\n');
+    await expect(whereabouts('batch', input, '--out', join(dir, 'y.csv'), '--sensitive-taxa', bad)).rejects.toThrow(/needs the column scientificName and at least one of gridDegrees, gridMeters, distanceMeters/);
+    await expect(whereabouts('batch', marked, '--out', join(dir, 'z.csv'), '--sensitive-column', 'withhold', '--generalise-to', '0.1', '--generalise-within', '500')).rejects.toThrow(/--sensitive-column: give exactly one of --generalise-to .* not --generalise-to and --generalise-within/);
   }, 60_000);
+});
+
+/** The job's id, as the CLI prints it on standard error when it starts. */
+async function batchJob(inputPath: string, out: string, ...options: string[]): Promise<string> {
+  const { stderr } = await whereabouts('batch', inputPath, '--out', out, '--run-timestamp', RUN_AT, ...options);
+  return /batch job (\S+)/.exec(stderr)![1]!;
+}
+
+const jobsPath = `${db.replace(/\.sqlite$/, '')}.jobs.sqlite`;
+const withheldOf = (jobId: string) => withheldRows(jobsPath, jobId);
+/** The list's grids are 0.1° and 0.01°: a value on a 0.01° line may be a cell's corner. */
+const holds = (bytes: Buffer, value: string) => holdsCoordinate(bytes, value, 0.01);
+
+describe('a grid in meters and a stated distance, from the taxa list', () => {
+  it('moves listed rows to the centre of a UTM cell of the side given, or within the distance given, and the radius covers it', async () => {
+    const meterTaxa = join(dir, 'taxa-meters.csv');
+    writeFileSync(meterTaxa, 'scientificName,gridDegrees,gridMeters,distanceMeters\nVerdemaria lindoensis,,2000,\nSerenella alticola,,,5000\n');
+    const out = join(dir, 'meters.csv');
+    const jobId = await batchJob(input, out, '--sensitive-taxa', meterTaxa);
+    const rows = rowsOf(readFileSync(out, 'utf8'));
+    const header = rows[0]!;
+    // A term the demo input has already (decimalLatitude …) is appended as proposed_<term>.
+    const at = (t: string) => (header.includes(`proposed_${t}`) ? header.indexOf(`proposed_${t}`) : header.indexOf(t));
+    const withheld = withheldOf(jobId);
+    expect(withheld.size).toBeGreaterThanOrEqual(8);
+    for (const [row, precise] of withheld) {
+      const r = rows[row]!;
+      const shown: [number, number] = [Number(r[at('decimalLatitude')]), Number(r[at('decimalLongitude')])];
+      const away = vincenty(shown, [Number(precise.decimalLatitude), Number(precise.decimalLongitude)]);
+      const radius = Number(r[at('coordinateUncertaintyInMeters')]);
+      // The circle shown holds the precise circle (triangle inequality, Vincenty distance).
+      expect(away + Number(precise.coordinateUncertaintyInMeters)).toBeLessThanOrEqual(radius);
+      if (r[header.indexOf('scientificName')] === 'Serenella alticola') {
+        expect(away).toBeLessThanOrEqual(5000 * 1.015); // within the stated distance (docs/method.md §8: to 1.5 %)
+        expect(r.at(-3)).toMatch(/within 5000 m of the precise point/);
+      } else {
+        // A 2000 m cell: the point is in it, so no farther from the centre than the half-diagonal, √2 × 1000 m (to UTM's scale factor).
+        expect(away).toBeLessThanOrEqual(1000 * Math.SQRT2 * 1.001);
+        expect(r.at(-3)).toMatch(/^Coordinates generalized from the original georeference to the centre of a 2000 m cell of the UTM zone \d+S grid \(WGS 84\)/);
+      }
+    }
+  }, 180_000);
+});
+
+describe('the precise point is in no shared output: CSV, GeoJSON, GeoPackage, Darwin Core Archive', () => {
+  const inputBytes = () => readFileSync(listedOnly);
+  /** The precise coordinates and footprints a job withheld, but those the input itself holds (the holder's own columns, kept as they came). */
+  const preciseValues = (jobId: string) =>
+    [...withheldOf(jobId).values()].flatMap((p) => [p.decimalLatitude!, p.decimalLongitude!, p.footprintWKT!]).filter((v) => v !== '' && !inputBytes().includes(Buffer.from(v)));
+
+  for (const format of ['csv', 'geojson', 'gpkg'] as const) {
+    it(`batch --format ${format}`, async () => {
+      const out = join(dir, `shared.${format}`);
+      const jobId = await batchJob(listedOnly, out, '--sensitive-taxa', taxa, '--format', format);
+      const values = preciseValues(jobId);
+      expect(values.length).toBeGreaterThanOrEqual(16);
+      const bytes = readFileSync(out);
+      for (const value of values) expect(holds(bytes, value), value).toBe(false);
+      // The generalised rows are there: their terms are in the file.
+      expect(bytes.includes(Buffer.from('Coordinates generalized from the original georeference'))).toBe(true);
+    }, 180_000);
+  }
+
+  it('a Darwin Core Archive in, a new archive out (guide: Darwin Core text guide, TDWG 2023)', async () => {
+    const terms = readFileSync(listedOnly, 'utf8').split(/\r?\n/)[0]!.split(',');
+    const meta = `<?xml version="1.0" encoding="UTF-8"?>
+<archive xmlns="http://rs.tdwg.org/dwc/text/">
+  <core encoding="UTF-8" fieldsTerminatedBy="," linesTerminatedBy="\\n" fieldsEnclosedBy='"' ignoreHeaderLines="1" rowType="http://rs.tdwg.org/dwc/terms/Occurrence">
+    <files><location>occurrence.txt</location></files>
+    <id index="0"/>
+${terms.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/terms/${t}"/>`).join('\n')}
+  </core>
+</archive>`;
+    const archive = join(dir, 'records.zip');
+    const zip = new yazl.ZipFile();
+    zip.addBuffer(Buffer.from(meta), 'meta.xml');
+    zip.addBuffer(inputBytes(), 'occurrence.txt');
+    zip.end();
+    await pipeline(zip.outputStream, createWriteStream(archive));
+    const out = join(dir, 'records-georeferenced.zip');
+    const jobId = await batchJob(archive, out, '--sensitive-taxa', taxa);
+    const values = preciseValues(jobId);
+    expect(values.length).toBeGreaterThanOrEqual(16);
+    const entries = await unzip(out);
+    expect(entries.map((e) => e.name)).toEqual(expect.arrayContaining(['meta.xml', 'occurrence.txt']));
+    for (const { name, bytes } of entries) for (const value of values) expect(holds(bytes, value), `${name}: ${value}`).toBe(false);
+    const core = entries.find((e) => e.name === 'occurrence.txt')!.bytes.toString('utf8');
+    expect(core).toContain('Coordinates generalized from the original georeference');
+    // meta.xml names each appended column at its index (Darwin Core text guide §2.4), the two terms under the dwc namespace.
+    const header = core.split('\r\n')[0]!.split('\t');
+    const metafile = entries.find((e) => e.name === 'meta.xml')!.bytes.toString('utf8');
+    for (const term of ['dataGeneralizations', 'informationWithheld', 'decimalLatitude', 'footprintWKT']) {
+      const index = header.findIndex((h) => h === term || h === `proposed_${term}`);
+      expect(index, term).toBeGreaterThan(0);
+      expect(metafile).toMatch(new RegExp(`<field index="${index}" term="http://(rs\\.tdwg\\.org/dwc/terms|whereabouts\\.invalid/terms)/(proposed_)?${term}"/>`));
+    }
+    expect(metafile).toContain('term="http://rs.tdwg.org/dwc/terms/dataGeneralizations"');
+  }, 180_000);
 });

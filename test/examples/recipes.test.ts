@@ -8,8 +8,8 @@ import { execFile } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { promisify } from 'node:util';
 import { parse } from 'csv-parse/sync';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
+import { describe, expect, it } from 'vitest';
+import { post, useDemoServer } from '../server/helpers.ts';
 
 const run = promisify(execFile);
 const EXAMPLES = new URL('../../examples/', import.meta.url).pathname;
@@ -18,16 +18,7 @@ const README = new URL('../../README.md', import.meta.url).pathname;
 const hasRscript = await run('Rscript', ['--version']).then(() => true, () => false);
 if (!hasRscript) console.warn('Rscript is missing: the R recipe is not run (install r-base-core r-cran-httr r-cran-jsonlite; npm test does when run as root)');
 
-let db: TempDatabase;
-let server: RunningServer;
-beforeAll(async () => {
-  db = await demoDatabase();
-  server = await listen({ dbPath: db.dbPath });
-});
-afterAll(async () => {
-  await server?.close();
-  db?.remove();
-});
+const demo = useDemoServer();
 
 /** The README's fenced code blocks in a language. */
 function readmeBlocks(language: string): string[] {
@@ -40,7 +31,7 @@ async function expectBoundAsSingle(csv: string) {
   const rows: Record<string, string>[] = parse(csv, { columns: true });
   expect(rows.map((row) => row.occurrenceID)).toEqual(['QV-1', 'QV-2', 'QV-3', 'QV-4']);
   for (const row of rows) {
-    const { json } = await post(`${server.url}/api/v1/georeference`, { locality: row.locality, countryCode: row.countryCode });
+    const { json } = await post(`${demo.server.url}/api/v1/georeference`, { locality: row.locality, countryCode: row.countryCode });
     expect(row.status, row.occurrenceID).toBe(json.status);
     for (const term of ['decimalLatitude', 'decimalLongitude', 'coordinateUncertaintyInMeters', 'georeferenceRemarks', 'georeferenceVerificationStatus']) {
       // R writes an empty term as NA in its CSV.
@@ -56,12 +47,12 @@ describe('R and Python recipes', () => {
   });
 
   it('Python (standard library) binds the answers back by occurrenceID', async () => {
-    const { stdout } = await run('python3', [`${EXAMPLES}georeference.py`, server.url]);
+    const { stdout } = await run('python3', [`${EXAMPLES}georeference.py`, demo.server.url]);
     await expectBoundAsSingle(stdout);
   });
 
   it.skipIf(!hasRscript)('R (httr, jsonlite) binds the answers back by occurrenceID', async () => {
-    const { stdout } = await run('Rscript', [`${EXAMPLES}georeference.R`, server.url]);
+    const { stdout } = await run('Rscript', [`${EXAMPLES}georeference.R`, demo.server.url]);
     await expectBoundAsSingle(stdout);
   });
 });

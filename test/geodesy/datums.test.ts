@@ -1,14 +1,12 @@
-import { createRequire } from 'node:module';
 import proj4 from 'proj4';
 import { describe, expect, it } from 'vitest';
 import { DATUMS, datumFromName, toWgs84 } from '../../src/geodesy/datums.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
+import { EPSG_INDEX, EPSG_TRANSFORMATIONS, transformationParameters, WGS84_PROJ4 } from '../support/epsg-transformations.ts';
 
-// The EPSG Geodetic Parameter Dataset as packaged in epsg-index 2.0.0 (derhuerst, npm): proj4 strings and
-// the accuracy of each CRS's default transformation to WGS 84.
-const require = createRequire(import.meta.url);
-const epsg = require('epsg-index/all.json') as Record<string, { name: string; proj4: string; accuracy: number | null; bbox: number[] }>;
-const WGS84 = '+proj=longlat +datum=WGS84 +no_defs';
+const epsg = EPSG_INDEX;
+const WGS84 = WGS84_PROJ4;
+const numbers = (list: string) => list.split(',').map(Number);
 
 /** A point inside each datum's area of use (EPSG area descriptions in epsg-index), [latitude, longitude]. */
 const AREA_SAMPLE: Record<string, [number, number]> = {
@@ -29,52 +27,13 @@ const AREA_SAMPLE: Record<string, [number, number]> = {
   'EPSG:4221': [-34.6, -58.4], // Buenos Aires, Argentina
 };
 
-
-/** The +towgs84 values of every epsg-index CRS on a datum (by its WKT datum name), with one CRS code for each value. */
-function towgs84OnDatum(datumName: string): Map<string, string> {
-  const values = new Map<string, string>();
-  for (const [code, crs] of Object.entries(epsg)) {
-    const wkt = (crs as { wkt?: string }).wkt ?? '';
-    if (!wkt.includes(`DATUM["${datumName}"`)) continue;
-    const towgs84 = /\+towgs84=(\S+)/.exec(crs.proj4)?.[1];
-    if (towgs84 && !values.has(towgs84)) values.set(towgs84, code);
-  }
-  return values;
-}
-const numbers = (list: string) => list.split(',').map(Number);
-
-/**
- * Each datum's reference: the EPSG transformation, its parameters in proj4's order (tx, ty, tz in m; rx, ry,
- * rz in arc-seconds, position-vector convention; ds in ppm) and where they were read. From epsg-index 2.0.0
- * (the proj4 string of the geographic CRS, or of the CRSs on the same datum when the geographic CRS has none)
- * where it carries them; transcribed from the EPSG transformation record where epsg-index has only a grid
- * file (NAD27, Corrego Alegre, OSGB36) or a mis-signed string (AGD66, below).
- */
-const REFERENCE: Record<string, { transformation: string; parameters: number[] | { epsgIndexDatum: string }; source: string }> = {
-  'EPSG:4326': { transformation: 'none', parameters: [0, 0, 0, 0, 0, 0, 0], source: 'WGS 84 itself' },
-  'EPSG:4267': { transformation: 'EPSG:1173', parameters: [-8, 160, 176, 0, 0, 0, 0], source: 'EPSG record 1173 "NAD27 to WGS 84 (4)", geocentric translations (method 9603), from DMA TR8350.2; epsg-index gives only the NTv2 grid' },
-  'EPSG:4269': { transformation: 'EPSG:1188', parameters: { epsgIndexDatum: 'North_American_Datum_1983' }, source: 'epsg-index, CRSs on NAD83' },
-  'EPSG:4618': { transformation: 'EPSG:1864', parameters: { epsgIndexDatum: 'South_American_Datum_1969' }, source: 'epsg-index EPSG:4618 (the code is our table\'s, not printed in epsg-index)' },
-  'EPSG:4674': { transformation: 'EPSG:15894', parameters: { epsgIndexDatum: 'Sistema_de_Referencia_Geocentrico_para_las_AmericaS_2000' }, source: 'epsg-index, CRSs on SIRGAS 2000' },
-  'EPSG:4230': { transformation: 'EPSG:1133', parameters: { epsgIndexDatum: 'European_Datum_1950' }, source: 'epsg-index EPSG:4230 (code as in our table, not printed in epsg-index)' },
-  'EPSG:4225': { transformation: 'EPSG:6194', parameters: [-206.05, 168.28, -3.82, 0, 0, 0, 0], source: 'EPSG record 6194 "Corrego Alegre 1970-72 to WGS 84 (4)", geocentric translations (method 9603); epsg-index gives only the IBGE grid' },
-  'EPSG:4248': { transformation: 'EPSG:1209', parameters: { epsgIndexDatum: 'Provisional_South_American_Datum_1956' }, source: 'epsg-index EPSG:4248 (code as in our table, not printed in epsg-index)' },
-  'EPSG:4202': { transformation: 'EPSG:15788', parameters: [-127.8, -52.3, 152.9, 0, 0, 0, 0], source: 'EPSG record 1278 "AGD66 to GDA94 (1)" (GDA Technical Manual), whose parameters EPSG names as the AGD66 to WGS 84 approximation, code 15788' },
-  'EPSG:4283': { transformation: 'EPSG:1150', parameters: { epsgIndexDatum: 'Geocentric_Datum_of_Australia_1994' }, source: 'epsg-index, CRSs on GDA94' },
-  'EPSG:4301': { transformation: 'EPSG:15484', parameters: { epsgIndexDatum: 'Tokyo' }, source: 'epsg-index EPSG:4301 = EPSG record 15484 "Tokyo to WGS 84 (108)"' },
-  'EPSG:4277': { transformation: 'EPSG:1314', parameters: [446.448, -125.157, 542.06, 0.15, 0.247, 0.842, -20.489], source: 'EPSG record 1314 "OSGB36 to WGS 84 (6)", position vector (method 9606), as the dataset exports it in the TOWGS84 of EPSG:27700; epsg-index gives only the OSTN15 grid' },
-  'EPSG:4258': { transformation: 'EPSG:1149', parameters: { epsgIndexDatum: 'European_Terrestrial_Reference_System_1989' }, source: 'epsg-index, CRSs on ETRS89' },
-  'EPSG:4322': { transformation: 'EPSG:1238', parameters: { epsgIndexDatum: 'World_Geodetic_System_1972' }, source: 'epsg-index, CRSs on WGS 72 (e.g. the WGS 72 UTM zones) = EPSG record 1238 "WGS 72 to WGS 84 (2)", position vector (9606)' },
-  'EPSG:4221': { transformation: 'EPSG:1127', parameters: { epsgIndexDatum: 'Campo_Inchauspe' }, source: 'epsg-index EPSG:4221 (code as in our table, not printed in epsg-index)' },
-};
+const REFERENCE = EPSG_TRANSFORMATIONS;
 
 function referenceParameters(datum: string): number[] {
-  const { parameters } = REFERENCE[datum]!;
-  if (Array.isArray(parameters)) return parameters;
-  const values = [...towgs84OnDatum(parameters.epsgIndexDatum).keys()];
+  const { parameters, valuesInDataset } = transformationParameters(datum);
   // The dataset must be unambiguous about the datum's shift for this check to mean anything.
-  expect(values).toHaveLength(1);
-  return numbers(values[0]!);
+  expect(valuesInDataset).toBe(1);
+  return parameters;
 }
 
 describe('datum shifts against the EPSG dataset', () => {

@@ -4,57 +4,29 @@ import { describe, expect, it } from 'vitest';
 import type { Geometry, Position } from 'geojson';
 import { enclosingCircle, featureExtent } from '../../src/georef/feature-extent.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
+import { centerMinimax, edgeMinimax, type Minimax } from '../support/independent-minimax.ts';
 
-// Independent check: the minimax point found by brute force — a grid search over candidate points in or
-// on the feature, measured with geodesic distances (geographiclib) to every vertex, refined twice.
+// Independent check: the minimax point computed with Vincenty's solutions (test/support/independent-minimax.ts).
+// featureExtent states its center to about 1 mm and its radius exact for that center (its doc comment), so
+// the radii must agree to 1 cm.
 const vertices = (geometry: Geometry): Position[] => coordAll(geometry);
 const worst = (lat: number, lon: number, points: Position[]) =>
   Math.max(...points.map(([x, y]) => inverse(lat, lon, y!, x!).meters));
 
-/** Candidate points: a dense sampling of the edges plus, for polygons, grid points inside. */
-function bruteForce(geometry: Geometry, candidates: Position[]) {
-  const points = vertices(geometry);
-  let best = { latitude: NaN, longitude: NaN, radiusMeters: Infinity };
-  for (const [lon, lat] of candidates) {
-    const r = worst(lat!, lon!, points);
-    if (r < best.radiusMeters) best = { latitude: lat!, longitude: lon!, radiusMeters: r };
-  }
-  return best;
-}
-function sampleEdges(lines: Position[][], steps: number): Position[] {
-  const out: Position[] = [];
-  for (const line of lines)
-    for (let i = 1; i < line.length; i++)
-      for (let k = 0; k <= steps; k++) {
-        const [a, b] = [line[i - 1]!, line[i]!];
-        const t = k / steps;
-        let dlon = b[0]! - a[0]!;
-        if (dlon > 180) dlon -= 360;
-        if (dlon < -180) dlon += 360;
-        out.push([a[0]! + t * dlon, a[1]! + t * (b[1]! - a[1]!)]);
-      }
-  return out;
-}
-function grid(lat0: number, lon0: number, halfDegrees: number, n: number): Position[] {
-  const out: Position[] = [];
-  for (let i = -n; i <= n; i++) for (let j = -n; j <= n; j++) out.push([lon0 + (j * halfDegrees) / n, lat0 + (i * halfDegrees) / n]);
-  return out;
+/** featureExtent's radius within 1 cm of the independent minimax. */
+function expectSameMinimax(result: Minimax, reference: Minimax) {
+  expect(Math.abs(result.radiusMeters - reference.radiusMeters), `radius ${result.radiusMeters} against ${reference.radiusMeters}`).toBeLessThan(0.01);
 }
 
-describe('featureExtent (method §4) against brute force over geodesic distances', () => {
+describe('featureExtent (method §4) against an independent minimax over Vincenty distances', () => {
   it('a point gives the point and radius 0', () => {
     expect(featureExtent({ type: 'Point', coordinates: [-60.5, -12.25] })).toEqual({ latitude: -12.25, longitude: -60.5, radiusMeters: 0 });
   });
 
-  it('convex polygon: SEC center inside; radius equals the minimax over a fine grid', () => {
+  it('convex polygon: SEC center inside; radius equals the independent smallest enclosing circle', () => {
     const polygon: Geometry = { type: 'Polygon', coordinates: [[[-47, -15], [-46, -15.2], [-45.8, -14.1], [-46.9, -14], [-47, -15]]] };
     const result = featureExtent(polygon);
-    const coarse = bruteForce(polygon, grid(-14.6, -46.4, 0.6, 30));
-    const fine = bruteForce(polygon, grid(coarse.latitude, coarse.longitude, 0.04, 20));
-    const finest = bruteForce(polygon, grid(fine.latitude, fine.longitude, 0.004, 20));
-    // The grid's last step is 0.0002° (about 22 m): the brute-force minimax is that close to the optimum.
-    expect(result.radiusMeters).toBeLessThanOrEqual(finest.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(finest.radiusMeters - 22);
+    expectSameMinimax(result, centerMinimax(polygon));
     expect(worst(result.latitude, result.longitude, vertices(polygon))).toBeCloseTo(result.radiusMeters, 3);
   });
 
@@ -67,9 +39,7 @@ describe('featureExtent (method §4) against brute force over geodesic distances
     const result = featureExtent(crescent);
     // The SEC of the two horns is centred near (10°E, 40°N), outside the crescent.
     expect(result.latitude).toBeGreaterThan(40.5);
-    const best = bruteForce(crescent, sampleEdges([ring], 200));
-    expect(result.radiusMeters).toBeLessThanOrEqual(best.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(best.radiusMeters - 5);
+    expectSameMinimax(result, edgeMinimax(crescent, [ring]));
   });
 
   it('multipart: two islands, the center lies on one of them', () => {
@@ -82,31 +52,22 @@ describe('featureExtent (method §4) against brute force over geodesic distances
     };
     const result = featureExtent(islands);
     const edges = [islands.coordinates[0]![0]!, islands.coordinates[1]![0]!];
-    const best = bruteForce(islands, sampleEdges(edges, 400));
-    expect(result.radiusMeters).toBeLessThanOrEqual(best.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(best.radiusMeters - 5);
+    const best = edgeMinimax(islands, edges);
+    expectSameMinimax(result, best);
     expect(result.longitude).toBeCloseTo(best.longitude, 2);
   });
 
   it('a bent line: the center is on the line', () => {
     const line: Geometry = { type: 'LineString', coordinates: [[-70, -30], [-69.5, -29.6], [-69, -30]] };
     const result = featureExtent(line);
-    const best = bruteForce(line, sampleEdges([line.coordinates], 2000));
-    expect(result.radiusMeters).toBeLessThanOrEqual(best.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(best.radiusMeters - 2);
+    expectSameMinimax(result, edgeMinimax(line, [line.coordinates]));
   });
 
   it('a polygon crossing the antimeridian', () => {
     const polygon: Geometry = { type: 'Polygon', coordinates: [[[179.6, -17], [-179.7, -17.1], [-179.8, -16.4], [179.5, -16.5], [179.6, -17]]] };
     const result = featureExtent(polygon);
     expect(Math.abs(result.longitude)).toBeGreaterThan(179.4);
-    const shifted = grid(-16.75, 179.9, 0.5, 40);
-    const coarse = bruteForce(polygon, shifted);
-    const fine = bruteForce(polygon, grid(coarse.latitude, coarse.longitude, 0.02, 20));
-    const finest = bruteForce(polygon, grid(fine.latitude, fine.longitude, 0.002, 20));
-    // Last grid step 0.0001° (about 11 m).
-    expect(result.radiusMeters).toBeLessThanOrEqual(finest.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(finest.radiusMeters - 11);
+    expectSameMinimax(result, centerMinimax(polygon));
   });
 
   it('rejects a geometry without coordinates with a clear error', () => {
@@ -121,16 +82,11 @@ describe('featureExtent (method §4) against brute force over geodesic distances
     expect(inverse(circle.latitude, circle.longitude, -12.3, -60.4).meters).toBeCloseTo(D / 2, 2);
   });
 
-  it('enclosingCircle of scattered points matches a brute-force grid search', () => {
+  it('enclosingCircle of scattered points matches the independent smallest enclosing circle', () => {
     const points: Position[] = [[30, 10], [30.8, 10.1], [30.3, 10.9], [30.5, 10.4], [30.1, 10.6]];
     const result = enclosingCircle(points);
     const multi: Geometry = { type: 'LineString', coordinates: points };
-    const coarse = bruteForce(multi, grid(10.5, 30.4, 0.6, 30));
-    const fine = bruteForce(multi, grid(coarse.latitude, coarse.longitude, 0.04, 20));
-    const finest = bruteForce(multi, grid(fine.latitude, fine.longitude, 0.004, 20));
-    // Last grid step 0.0002° (about 22 m).
-    expect(result.radiusMeters).toBeLessThanOrEqual(finest.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(finest.radiusMeters - 22);
+    expectSameMinimax(result, centerMinimax(multi));
   });
 
   it('annulus: the SEC center falls in the hole, so the center lies on the hole\'s edge', () => {
@@ -146,9 +102,7 @@ describe('featureExtent (method §4) against brute force over geodesic distances
     const annulus: Geometry = { type: 'Polygon', coordinates: [outer, hole] };
     const result = featureExtent(annulus);
     expect(inverse(5, 5, result.latitude, result.longitude).meters).toBeGreaterThan(0.29 * 111000);
-    const best = bruteForce(annulus, sampleEdges([hole], 40));
-    expect(result.radiusMeters).toBeLessThanOrEqual(best.radiusMeters + 0.01);
-    expect(result.radiusMeters).toBeGreaterThan(best.radiusMeters - 50);
+    expectSameMinimax(result, edgeMinimax(annulus, [outer, hole]));
   });
 });
 

@@ -277,7 +277,12 @@ describe('coordinates (docs/method.md §3, §5.3, §5.4)', () => {
     expect(bound.datums).toEqual(['EPSG:4326', 'EPSG:4267', 'EPSG:4322']);
     expect(g.components.datum).toBe(bound.meters);
     expect(g.components.datum).toBeLessThan(5359);
-    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*EPSG:4326, EPSG:4267, EPSG:4322.*\[CHOICE\] \(docs\/method\.md §5\.4\)/);
+    expect(g.remarks.join('\n')).toMatch(/datum not recorded.*EPSG:4326, EPSG:4267, EPSG:4322\) \[CHOICE\]; their transformations' stated accuracies \(at most 10 m\) are not added \(docs\/method\.md §5\.4\)/);
+  });
+  it('the regional bound never exceeds the unknown-datum figure in force: above it, that figure is used', () => {
+    const bound = regionalDatumBound({ latitude: 10.27, longitude: -123.6 })!;
+    const capped = ok({ interpretation: written(), features: [], options: { unknownDatumMeters: Math.floor(bound.meters / 2) } });
+    expect(capped.components.datum).toBe(Math.floor(bound.meters / 2));
   });
   it('NAD27 written: shifted to WGS84 by EPSG:1173, the transformation accuracy as datum term', () => {
     const g = ok({ interpretation: written('NAD 27'), features: [] });

@@ -32,6 +32,15 @@ describe('generaliseToGrid: the centre of the grid cell, the radius grown to cov
     });
   }
 
+  it('a cell past 180° (0.7° does not divide 180) is cut there into two parts (RFC 7946 §3.1.9), every longitude within ±180°', () => {
+    const g = generaliseToGrid({ latitude: 10.2, longitude: 179.95, radiusMeters: 0 }, 0.7);
+    expect(g.footprintWKT).toBe('MULTIPOLYGON(((179.9 9.8,180 9.8,180 10.5,179.9 10.5,179.9 9.8)),((-180 9.8,-179.4 9.8,-179.4 10.5,-180 10.5,-180 9.8)))');
+    expect([g.decimalLatitude, g.decimalLongitude]).toEqual(['10.15', '-179.75']);
+    // The radius: the farthest corner by Vincenty (geodesy 2.4.0), as for any cell.
+    const corners = [9.8, 10.5].flatMap((lat) => [179.9, -179.4].map((lon) => vincenty(10.15, -179.75, lat, lon)));
+    expect(g.radiusMeters).toBe(Math.ceil(Math.max(...corners)));
+  });
+
   it('refuses a grid that is not a positive number of degrees up to 10', () => {
     for (const bad of ['0', '-0.1', 'a tenth', '20']) expect(() => parseGridDegrees(bad)).toThrow(/generalisation grid must be a number of degrees/);
     expect(parseGridDegrees(' 0.01 ')).toBe(0.01);

@@ -17,6 +17,9 @@ import { MAX_ROW_CHARACTERS } from '../../src/batch/records.ts';
 import { CENTER_TOLERANCE_METERS } from '../../src/record/coordinate-check.ts';
 import { RECORDS_LIMITS } from '../../src/server/routes/records.ts';
 import { SERVER_DEFAULTS } from '../../src/server/defaults.ts';
+import { DISTANCE_LIMITS } from '../../src/georef/generalisation.ts';
+import { METER_GRID_LIMITS } from '../../src/georef/meter-grid-generalisation.ts';
+import { SENSITIVE_TAXA_LIMIT } from '../../src/server/generalisation-request.ts';
 
 const root = new URL('../..', import.meta.url).pathname;
 
@@ -51,6 +54,9 @@ describe('method choices', () => {
     expect(byId.get('defaultPort')!.value).toBe(DEFAULT_PORT);
     expect(byId.get('maxParts')!.value).toBe(MAX_PARTS);
     expect(byId.get('maxRowCharacters')!.value).toBe(MAX_ROW_CHARACTERS);
+    expect(byId.get('meterGrid')!.value).toBe(`${METER_GRID_LIMITS.smallest} to ${METER_GRID_LIMITS.largest}`);
+    expect(byId.get('generalisationDistance')!.value).toBe(`${DISTANCE_LIMITS.smallest} to ${DISTANCE_LIMITS.largest}`);
+    expect(byId.get('sensitiveTaxaLimit')!.value).toBe(`${SENSITIVE_TAXA_LIMIT / 1024 / 1024} MiB`);
     const s = SERVER_DEFAULTS;
     expect(byId.get('serverDefaults')!.value).toBe(`${s.host}; ${s.resultCache} results; ${s.bodyLimit / 1024} KiB; ${s.uploadLimit / 1024 / 1024} MiB; ${s.rateLimit.max} a minute`);
   });

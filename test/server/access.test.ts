@@ -5,30 +5,20 @@
 import { spawn } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { isLoopback, readAccessToken } from '../../src/server/access.ts';
 import { buildServer } from '../../src/server/app.ts';
-import { BIN, demoDatabase, listen, post, spawnServe, type RunningServer, type TempDatabase } from './helpers.ts';
+import { BIN, post, spawnServe, useDemoServer } from './helpers.ts';
 
 const TOKEN = 'correct-horse-battery-staple-42';
 
-let db: TempDatabase;
-let server: RunningServer;
-
-beforeAll(async () => {
-  db = await demoDatabase();
-  server = await listen({ dbPath: db.dbPath, token: TOKEN });
-});
-afterAll(async () => {
-  await server?.close();
-  db?.remove();
-});
+const demo = useDemoServer({ token: TOKEN });
 
 describe('with an access token set', () => {
   const body = { locality: 'Puerto Lindo', countryCode: 'QV' };
 
   it('answers 401 without the token, 401 with a wrong one, 200 with the right one', async () => {
-    const url = `${server.url}/api/v1/georeference`;
+    const url = `${demo.server.url}/api/v1/georeference`;
     const none = await post(url, body);
     expect(none.status).toBe(401);
     expect(none.json.message).toMatch(/an access token is required/);
@@ -42,17 +32,17 @@ describe('with an access token set', () => {
 
   it('guards every API route and the page, and leaves only the sign-in form open', async () => {
     for (const path of ['/api/v1/layers', '/api/v1/features/demo/qv-0013', '/api/v1/openapi.json', '/api/v1/batches/abc']) {
-      expect((await fetch(`${server.url}${path}`)).status, path).toBe(401);
+      expect((await fetch(`${demo.server.url}${path}`)).status, path).toBe(401);
     }
-    const page = await fetch(`${server.url}/`, { redirect: 'manual' });
+    const page = await fetch(`${demo.server.url}/`, { redirect: 'manual' });
     expect(page.status).toBe(303);
     expect(page.headers.get('location')).toBe('/login');
-    for (const path of ['/js/main.js', '/vendor/leaflet.js']) expect((await fetch(`${server.url}${path}`, { redirect: 'manual' })).status, path).toBe(303);
-    expect((await fetch(`${server.url}/login`)).status).toBe(200);
+    for (const path of ['/js/main.js', '/vendor/leaflet.js']) expect((await fetch(`${demo.server.url}${path}`, { redirect: 'manual' })).status, path).toBe(303);
+    expect((await fetch(`${demo.server.url}/login`)).status).toBe(200);
   });
 
   it('signs a browser in with the token as an HttpOnly SameSite=Strict cookie', async () => {
-    const form = (token: string) => fetch(`${server.url}/login`, { method: 'POST', redirect: 'manual', body: new URLSearchParams({ token }), headers: { 'content-type': 'application/x-www-form-urlencoded' } });
+    const form = (token: string) => fetch(`${demo.server.url}/login`, { method: 'POST', redirect: 'manual', body: new URLSearchParams({ token }), headers: { 'content-type': 'application/x-www-form-urlencoded' } });
     const refused = await form('guess-guess-guess-guess');
     expect(refused.headers.get('location')).toBe('/login?failed');
     expect(refused.headers.get('set-cookie')).toBeNull();
@@ -61,7 +51,7 @@ describe('with an access token set', () => {
     const cookie = accepted.headers.get('set-cookie') ?? '';
     expect(cookie).toMatch(/HttpOnly/);
     expect(cookie).toMatch(/SameSite=Strict/);
-    const page = await fetch(`${server.url}/`, { headers: { cookie: cookie.split(';')[0] } });
+    const page = await fetch(`${demo.server.url}/`, { headers: { cookie: cookie.split(';')[0] } });
     expect(page.status).toBe(200);
     expect(await page.text()).toContain('whereabouts');
   });
@@ -74,11 +64,11 @@ describe('binding', () => {
   });
 
   it('refuses a non-loopback address without a token, with a clear message', async () => {
-    await expect(buildServer({ dbPath: db.dbPath, host: '0.0.0.0' })).rejects.toThrow(/refusing to listen on 0\.0\.0\.0 without an access token.*WHEREABOUTS_TOKEN/);
+    await expect(buildServer({ dbPath: demo.db.dbPath, host: '0.0.0.0' })).rejects.toThrow(/refusing to listen on 0\.0\.0\.0 without an access token.*WHEREABOUTS_TOKEN/);
   });
 
   it('reads the token from the environment or a file, and refuses a short one', () => {
-    const file = join(db.dir, 'token');
+    const file = join(demo.db.dir, 'token');
     writeFileSync(file, `${TOKEN}\n`);
     expect(readAccessToken({ WHEREABOUTS_TOKEN_FILE: file })).toBe(TOKEN);
     expect(readAccessToken({ WHEREABOUTS_TOKEN: TOKEN })).toBe(TOKEN);
@@ -87,13 +77,13 @@ describe('binding', () => {
   });
 
   it('the serve verb refuses 0.0.0.0 without a token and exits non-zero', async () => {
-    const { code, stderr } = await run(['serve', '--host', '0.0.0.0', '--port', '0', '--db', db.dbPath], { WHEREABOUTS_TOKEN: undefined });
+    const { code, stderr } = await run(['serve', '--host', '0.0.0.0', '--port', '0', '--db', demo.db.dbPath], { WHEREABOUTS_TOKEN: undefined });
     expect(code).not.toBe(0);
     expect(stderr).toMatch(/refusing to listen on 0\.0\.0\.0 without an access token/);
   });
 
   it('the serve verb prints its URL with the port, answers, and finishes cleanly on SIGTERM', async () => {
-    const { url, child } = await spawnServe(['--port', '0', '--db', db.dbPath]);
+    const { url, child } = await spawnServe(['--port', '0', '--db', demo.db.dbPath]);
     const answer = await post(`${url}/api/v1/georeference`, { locality: 'Puerto Lindo', countryCode: 'QV' });
     expect(answer.status).toBe(200);
     const exited = new Promise<number | null>((resolve) => child.on('exit', resolve));

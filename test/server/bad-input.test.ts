@@ -2,22 +2,11 @@
  * The bad-input matrix (issue 7) through a real server on 127.0.0.1: each case gets its status code
  * and a message that says what is wrong (and names the field for a 400), and the server keeps answering.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoDatabase, listen, post, type RunningServer, type TempDatabase } from './helpers.ts';
+import { describe, expect, it } from 'vitest';
+import { listen, post, useDemoServer } from './helpers.ts';
 
-let db: TempDatabase;
-let server: RunningServer;
-let endpoint: string;
-
-beforeAll(async () => {
-  db = await demoDatabase();
-  server = await listen({ dbPath: db.dbPath, rateLimit: false });
-  endpoint = `${server.url}/api/v1/georeference`;
-});
-afterAll(async () => {
-  await server?.close();
-  db?.remove();
-});
+const demo = useDemoServer({ rateLimit: false });
+const endpoint = () => `${demo.server.url}/api/v1/georeference`;
 
 interface Case {
   name: string;
@@ -64,7 +53,7 @@ const CASES: Case[] = [
 describe('bad input gets the right status and a specific message', () => {
   for (const c of CASES) {
     it(c.name, async () => {
-      const { status, json } = await post(endpoint, c.body, c.headers);
+      const { status, json } = await post(endpoint(), c.body, c.headers);
       expect(status).toBe(c.status);
       expect(json.message).toMatch(c.message);
       expect(json.statusCode).toBe(c.status);
@@ -83,7 +72,7 @@ describe('SQL fragments and markup in every text field', () => {
     it(`${field}`, async () => {
       for (const text of HOSTILE) {
         const body = { locality: 'Puerto Lindo', countryCode: 'QV', [field]: text };
-        const { status, json } = await post(endpoint, body);
+        const { status, json } = await post(endpoint(), body);
         if (field === 'geodeticDatum') {
           // A datum whereabouts does not know is refused, naming the field (the one datum rule).
           expect(status, `${field}: ${text}`).toBe(400);
@@ -98,17 +87,17 @@ describe('SQL fragments and markup in every text field', () => {
   }
 
   it('leaves the gazetteer whole and the server answering after the whole matrix', async () => {
-    const { status, json } = await post(endpoint, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
+    const { status, json } = await post(endpoint(), { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
     expect(status).toBe(200);
     expect(json.status).toBe('georeferenced');
-    const sources = await (await fetch(`${server.url}/api/v1/features/demo/qv-0013`)).json();
+    const sources = await (await fetch(`${demo.server.url}/api/v1/features/demo/qv-0013`)).json();
     expect(sources.properties.name).toBe('Puerto Lindo');
   });
 });
 
 describe('rate limit', () => {
   it('answers 429 with the limit and when to retry once a client goes over it', async () => {
-    const limited = await listen({ dbPath: db.dbPath, rateLimit: { max: 5, timeWindowMs: 60_000 } });
+    const limited = await listen({ dbPath: demo.db.dbPath, rateLimit: { max: 5, timeWindowMs: 60_000 } });
     try {
       const statuses: number[] = [];
       let last: any;

@@ -3,33 +3,19 @@
  * 127.0.0.1, over a real SQLite file holding the demo gazetteer.
  */
 import geographiclib from 'geographiclib-geodesic';
-import type { FastifyInstance } from 'fastify';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { GEOREFERENCE_TERMS } from '../../src/record/darwin-core.ts';
 import { buildServer } from '../../src/server/app.ts';
-import { demoDatabase, listen, post, type RunningServer, type TempDatabase } from './helpers.ts';
+import { post, useDemoServer } from './helpers.ts';
 
 // Puerto Lindo as the demo gazetteer gives it (gazetteer/demo.geojson, feature qv-0013).
 const PUERTO_LINDO = { latitude: -45.226495, longitude: -131.3876, radiusMeters: 3500 };
 
-let db: TempDatabase;
-let app: FastifyInstance;
-let server: RunningServer;
-
-beforeAll(async () => {
-  db = await demoDatabase();
-  app = await buildServer({ dbPath: db.dbPath });
-  server = await listen({ dbPath: db.dbPath });
-});
-afterAll(async () => {
-  await app?.close();
-  await server?.close();
-  db?.remove();
-});
+const demo = useDemoServer();
 
 describe('POST /api/v1/georeference', () => {
   it('georeferences an offset from a demo town at the geodesic offset point, through a real server', async () => {
-    const { status, json, headers } = await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
+    const { status, json, headers } = await post(`${demo.server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
     expect(status).toBe(200);
     expect(headers.get('content-type')).toMatch(/^application\/json/);
     expect(json.status).toBe('georeferenced');
@@ -63,7 +49,7 @@ describe('POST /api/v1/georeference', () => {
   });
 
   it('lists the candidates of a shared name as ambiguous, and georeferences the one chosen', async () => {
-    const ambiguous = await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Santa Rosa', countryCode: 'QV' } });
+    const ambiguous = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Santa Rosa', countryCode: 'QV' } });
     expect(ambiguous.statusCode).toBe(200);
     const first = ambiguous.json();
     expect(first.status).toBe('ambiguous');
@@ -72,7 +58,7 @@ describe('POST /api/v1/georeference', () => {
     expect(ids).toEqual(['qv-0015', 'qv-0053']);
 
     const pick = async (featureId: string) =>
-      (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Santa Rosa', countryCode: 'QV', options: { candidate: { sourceId: 'demo', featureId } } } })).json();
+      (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Santa Rosa', countryCode: 'QV', options: { candidate: { sourceId: 'demo', featureId } } } })).json();
     const town = await pick('qv-0015');
     const village = await pick('qv-0053');
     expect(town.status).toBe('georeferenced');
@@ -84,13 +70,13 @@ describe('POST /api/v1/georeference', () => {
 
   it('recomputes with a distance precision, a map scale and a datum given as options', async () => {
     const base = { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' };
-    const plain = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: base })).json();
-    const coarse = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { distancePrecision: 10 } } })).json();
+    const plain = (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: base })).json();
+    const coarse = (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { distancePrecision: 10 } } })).json();
     // Method §5.2: U(d=10, δ=5, Δ=22.5°) = sqrt(15² + 10² − 2·10·15·cos 22.5°) km = 6.617 km (computed from the formula).
     const expected = Math.sqrt(15 ** 2 + 10 ** 2 - 2 * 10 * 15 * Math.cos((22.5 * Math.PI) / 180)) * 1000;
     expect(coarse.components.offset).toBeCloseTo(expected, -1);
     expect(coarse.components.offset).toBeGreaterThan(plain.components.offset);
-    const mapped = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { mapScale: 24000 } } })).json();
+    const mapped = (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { mapScale: 24000 } } })).json();
     // Method §5.5 (BP2020 §Uncertainty in Paper Map Measurements): the HTTP body names no map standard, so the
     // default `mapStandard: 'unknown'` applies and the term is 1 mm on the map only: 0.001 m × 24 000 = 24 m.
     // (With US NMAS 1947 it would be 1/50 inch × 24 000 = 12.192 m + 24 m = 36.192 m; not settable over HTTP.)
@@ -99,15 +85,15 @@ describe('POST /api/v1/georeference', () => {
 
   it('adds the unknown-datum term to written coordinates unless a datum is given', async () => {
     const base = { locality: 'Puerto Lindo', countryCode: 'QV', verbatimCoordinates: '45.2265 S, 131.3876 W' };
-    const unknown = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: base })).json();
+    const unknown = (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: base })).json();
     // Method §5.4 (Chapman & Wieczorek 2020, §Uncertainty from Unknown Datum): 5359 m when no datum is stated.
     expect(unknown.components.datum).toBe(5359);
-    const stated = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { datum: 'EPSG:4326' } } })).json();
+    const stated = (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { ...base, options: { datum: 'EPSG:4326' } } })).json();
     expect(stated.components.datum).toBe(0);
   });
 
   it('compares the record\'s own coordinates with the proposed point', async () => {
-    const answer = (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo', countryCode: 'QV', decimalLatitude: -45.2265, decimalLongitude: -131.3876 } })).json();
+    const answer = (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo', countryCode: 'QV', decimalLatitude: -45.2265, decimalLongitude: -131.3876 } })).json();
     expect(answer.recordPoint.withinUncertainty).toBe(true);
     expect(answer.recordPoint.distanceMeters).toBeLessThan(10);
   });
@@ -115,17 +101,17 @@ describe('POST /api/v1/georeference', () => {
 
 describe('map routes, OpenAPI and the page', () => {
   it('serves a feature with its geometry, and 404 for an unknown one', async () => {
-    const county = await app.inject({ url: '/api/v1/features/demo/qv-0005' });
+    const county = await demo.server.app.inject({ url: '/api/v1/features/demo/qv-0005' });
     expect(county.statusCode).toBe(200);
     expect(county.json().geometry.type).toBe('Polygon');
     expect(county.json().properties.name).toBe('Alisos');
-    const missing = await app.inject({ url: '/api/v1/features/demo/no-such' });
+    const missing = await demo.server.app.inject({ url: '/api/v1/features/demo/no-such' });
     expect(missing.statusCode).toBe(404);
     expect(missing.json().message).toMatch(/no feature no-such in source demo/);
   });
 
   it('serves the polygons and lines of the gazetteer as one FeatureCollection (RFC 7946)', async () => {
-    const layers = (await app.inject({ url: '/api/v1/layers' })).json();
+    const layers = (await demo.server.app.inject({ url: '/api/v1/layers' })).json();
     expect(layers.type).toBe('FeatureCollection');
     const types = new Set(layers.features.map((f: any) => f.geometry.type));
     expect(types.has('Polygon')).toBe(true);
@@ -134,7 +120,7 @@ describe('map routes, OpenAPI and the page', () => {
   });
 
   it('documents the routes as OpenAPI 3, generated from their schemas', async () => {
-    const doc = (await app.inject({ url: '/api/v1/openapi.json' })).json();
+    const doc = (await demo.server.app.inject({ url: '/api/v1/openapi.json' })).json();
     expect(doc.openapi).toMatch(/^3\./);
     const body = doc.paths['/api/v1/georeference'].post.requestBody.content['application/json'].schema;
     expect(body.required).toEqual(['locality']);
@@ -143,21 +129,21 @@ describe('map routes, OpenAPI and the page', () => {
   });
 
   it('serves the page and its vendor files from memory, and nothing outside them', async () => {
-    const page = await app.inject({ url: '/' });
+    const page = await demo.server.app.inject({ url: '/' });
     expect(page.statusCode).toBe(200);
     expect(page.headers['content-type']).toMatch(/text\/html/);
     expect(page.body).toContain('/api/v1/openapi.json');
     expect(page.body).not.toMatch(/<script>(?!<\/script>)|<script(?![^>]*src=)[^>]*>/);
     for (const url of ['/vendor/leaflet.js', '/vendor/leaflet.css', '/vendor/topojson-client.js', '/vendor/countries-110m.json', '/js/main.js', '/style.css']) {
-      expect((await app.inject({ url })).statusCode, url).toBe(200);
+      expect((await demo.server.app.inject({ url })).statusCode, url).toBe(200);
     }
     for (const url of ['/../package.json', '/%2e%2e/package.json', '/vendor/..%2f..%2fpackage.json', '/js/../../src/server/app.ts', '/etc/passwd']) {
-      expect((await app.inject({ url })).statusCode, url).toBe(404);
+      expect((await demo.server.app.inject({ url })).statusCode, url).toBe(404);
     }
   });
 
   it('sends security headers with a CSP that forbids inline scripts, and no CORS unless configured', async () => {
-    const page = await app.inject({ url: '/', headers: { origin: 'https://elsewhere.example' } });
+    const page = await demo.server.app.inject({ url: '/', headers: { origin: 'https://elsewhere.example' } });
     const csp = String(page.headers['content-security-policy']);
     expect(csp).toContain("script-src 'self'");
     expect(csp).not.toContain('unsafe-inline');
@@ -165,7 +151,7 @@ describe('map routes, OpenAPI and the page', () => {
     expect(page.headers['x-content-type-options']).toBe('nosniff');
     expect(page.headers['access-control-allow-origin']).toBeUndefined();
 
-    const withCors = await buildServer({ dbPath: db.dbPath, corsOrigin: 'https://collections.example' });
+    const withCors = await buildServer({ dbPath: demo.db.dbPath, corsOrigin: 'https://collections.example' });
     try {
       const allowed = await withCors.inject({ method: 'OPTIONS', url: '/api/v1/georeference', headers: { origin: 'https://collections.example', 'access-control-request-method': 'POST' } });
       expect(allowed.headers['access-control-allow-origin']).toBe('https://collections.example');
@@ -177,7 +163,7 @@ describe('map routes, OpenAPI and the page', () => {
 
 describe('GET /api/v1/datums', () => {
   it('lists every datum the service converts, each one accepted by the georeference endpoint', async () => {
-    const response = await app.inject({ url: '/api/v1/datums' });
+    const response = await demo.server.app.inject({ url: '/api/v1/datums' });
     expect(response.statusCode).toBe(200);
     const { datums } = response.json() as { datums: { epsg: string; name: string; accuracyMeters: number }[] };
     expect(datums.length).toBeGreaterThanOrEqual(15);
@@ -185,7 +171,7 @@ describe('GET /api/v1/datums', () => {
     expect(datums).toContainEqual(expect.objectContaining({ epsg: 'EPSG:4326', name: 'WGS 84', accuracyMeters: 0 }));
     expect(datums).toContainEqual(expect.objectContaining({ epsg: 'EPSG:4267', name: 'NAD27' }));
     for (const d of datums) {
-      const answer = await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo, 45.2265 S, 131.3876 W', countryCode: 'QV', options: { datum: d.epsg } } });
+      const answer = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: { locality: 'Puerto Lindo, 45.2265 S, 131.3876 W', countryCode: 'QV', options: { datum: d.epsg } } });
       expect(answer.statusCode, d.epsg).toBe(200);
     }
   });
@@ -193,7 +179,7 @@ describe('GET /api/v1/datums', () => {
 
 describe('the footprint summary', () => {
   it('gives the type, vertices and geodesic area of the footprint beside its geometry', async () => {
-    const { json } = await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
+    const { json } = await post(`${demo.server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' });
     expect(json.footprintSummary).toMatchObject({ type: json.footprint.type, parts: 1, vertices: json.footprint.coordinates[0].length - 1 });
     // An inscribed n-gon of radius r has area (n/2) r² sin(2π/n) (elementary geometry); geodesic edges on a circle this small differ by < 0.1 %.
     const n = json.footprintSummary.vertices;

@@ -4,6 +4,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { FastifyInstance } from 'fastify';
+import { afterAll, beforeAll } from 'vitest';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { buildServer, type ServerOptions } from '../../src/server/app.ts';
@@ -53,6 +54,42 @@ export async function listen(options: ServerOptions): Promise<RunningServer> {
   const address = app.server.address();
   if (typeof address !== 'object' || !address) throw new Error('no address');
   return { app, url: `http://127.0.0.1:${address.port}`, close: () => app.close() };
+}
+
+/** The demo database and a real server over it, made before a test file's tests and removed after them. */
+export interface DemoService {
+  readonly db: TempDatabase;
+  readonly server: RunningServer;
+}
+
+/**
+ * Registers beforeAll/afterAll for a test file: the demo gazetteer in a fresh SQLite file (plus any extra
+ * features, as `demoDatabase`) and `buildServer` over it on 127.0.0.1 with `options`; read `db` and `server`
+ * inside the tests.
+ * @example
+ *   const demo = useDemoServer();
+ *   it('answers', async () => expect((await post(`${demo.server.url}/api/v1/georeference`, body)).status).toBe(200));
+ */
+export function useDemoServer(options: Omit<ServerOptions, 'dbPath'> = {}, extraFeatures: object[] = []): DemoService {
+  let db: TempDatabase | undefined;
+  let server: RunningServer | undefined;
+  beforeAll(async () => {
+    db = await demoDatabase(extraFeatures);
+    server = await listen({ ...options, dbPath: db.dbPath });
+  }, 120_000);
+  afterAll(async () => {
+    await server?.close();
+    db?.remove();
+  });
+  const ready = <T>(value: T | undefined, what: string): T => value ?? (() => { throw new Error(`the demo ${what} is made in beforeAll; read it inside a test`); })();
+  return {
+    get db() {
+      return ready(db, 'database');
+    },
+    get server() {
+      return ready(server, 'server');
+    },
+  };
 }
 
 /** POST JSON (or raw bytes) to the running server. */

@@ -3,26 +3,11 @@
  * and through a real server on 127.0.0.1 (read line by line as the stream arrives), over a real SQLite
  * file holding the demo gazetteer. Each answer is checked against the one-record route's answer.
  */
-import type { FastifyInstance } from 'fastify';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildServer } from '../../src/server/app.ts';
+import { describe, expect, it } from 'vitest';
 import { RECORDS_LIMITS } from '../../src/server/routes/records.ts';
-import { demoDatabase, listen, type RunningServer, type TempDatabase } from './helpers.ts';
+import { useDemoServer } from './helpers.ts';
 
-let db: TempDatabase;
-let app: FastifyInstance;
-let server: RunningServer;
-
-beforeAll(async () => {
-  db = await demoDatabase();
-  app = await buildServer({ dbPath: db.dbPath });
-  server = await listen({ dbPath: db.dbPath });
-});
-afterAll(async () => {
-  await app?.close();
-  await server?.close();
-  db?.remove();
-});
+const demo = useDemoServer();
 
 const RECORDS = [
   { occurrenceID: 'QV-1', locality: '10 km NE of Puerto Lindo', countryCode: 'QV' },
@@ -37,12 +22,12 @@ const withoutDate = ({ georeferencedDate: _date, ...terms }: Record<string, stri
 
 async function single(record: object) {
   const { occurrenceID: _id, ...body } = record as { occurrenceID?: string };
-  return (await app.inject({ method: 'POST', url: '/api/v1/georeference', payload: body })).json();
+  return (await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference', payload: body })).json();
 }
 
 describe('POST /api/v1/georeference/records', () => {
   it('answers a JSON array with one NDJSON line a record, in order, each as the one-record route answers it', async () => {
-    const response = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: RECORDS });
+    const response = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: RECORDS });
     expect(response.statusCode).toBe(200);
     expect(response.headers['content-type']).toMatch(/^application\/x-ndjson/);
     expect(response.body.endsWith('\n')).toBe(true);
@@ -68,7 +53,7 @@ describe('POST /api/v1/georeference/records', () => {
       JSON.stringify(RECORDS[1]),
       '',
     ].join('\n');
-    const response = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: body, headers: { 'content-type': 'application/x-ndjson' } });
+    const response = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: body, headers: { 'content-type': 'application/x-ndjson' } });
     expect(response.statusCode).toBe(200);
     const answers = lines(response.body);
     expect(answers).toHaveLength(5);
@@ -82,30 +67,30 @@ describe('POST /api/v1/georeference/records', () => {
 
   it('answers an edit that does not fit its record with an error line naming the field', async () => {
     const payload = [{ occurrenceID: 'e', locality: 'Puerto Lindo', countryCode: 'QV', options: { candidate: { sourceId: 'demo', featureId: 'no-such' } } }, RECORDS[0]];
-    const answers = lines((await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload })).body);
+    const answers = lines((await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload })).body);
     expect(answers[0]).toMatchObject({ index: 0, occurrenceID: 'e', status: 'invalid', error: { field: 'options.candidate' } });
     expect(answers[1].status).toBe('georeferenced');
   });
 
   it('refuses more records than the limit with 413 naming it, and a body that is no list with 400', async () => {
     const many = Array.from({ length: RECORDS_LIMITS.maxRecords + 1 }, () => ({ locality: 'Puerto Lindo' }));
-    const tooMany = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: many });
+    const tooMany = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: many });
     expect(tooMany.statusCode).toBe(413);
     expect(tooMany.json().message).toContain(`limit of ${RECORDS_LIMITS.maxRecords} records`);
-    const notList = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: { locality: 'Puerto Lindo' } });
+    const notList = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: { locality: 'Puerto Lindo' } });
     expect(notList.statusCode).toBe(400);
     expect(notList.json().message).toMatch(/not a list of records/);
   });
 
   it('refuses a body over the byte limit with 413 naming the limit', async () => {
     const big = `${JSON.stringify({ locality: 'x'.repeat(3000) })}\n`.repeat(Math.ceil(RECORDS_LIMITS.maxBytes / 3000) + 10);
-    const response = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: big, headers: { 'content-type': 'application/x-ndjson' } });
+    const response = await demo.server.app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: big, headers: { 'content-type': 'application/x-ndjson' } });
     expect(response.statusCode).toBe(413);
     expect(response.json().message).toContain(`limit of ${RECORDS_LIMITS.maxBytes} bytes`);
   });
 
   it('is in the OpenAPI document with its record schema and limits', async () => {
-    const doc = (await app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json();
+    const doc = (await demo.server.app.inject({ method: 'GET', url: '/api/v1/openapi.json' })).json();
     const route = doc.paths['/api/v1/georeference/records'].post;
     const body = route.requestBody.content['application/json'].schema;
     expect(body.type).toBe('array');
@@ -118,7 +103,7 @@ describe('POST /api/v1/georeference/records', () => {
 
   it('streams lines from a real server on 127.0.0.1, read as they arrive', async () => {
     const payload = Array.from({ length: 200 }, (_, i) => ({ ...RECORDS[i % RECORDS.length], occurrenceID: `R-${i}` }));
-    const response = await fetch(`${server.url}/api/v1/georeference/records`, { method: 'POST', body: JSON.stringify(payload), headers: { 'content-type': 'application/json' } });
+    const response = await fetch(`${demo.server.url}/api/v1/georeference/records`, { method: 'POST', body: JSON.stringify(payload), headers: { 'content-type': 'application/json' } });
     expect(response.status).toBe(200);
     expect(response.headers.get('transfer-encoding')).toBe('chunked');
     const received: any[] = [];

@@ -7,6 +7,8 @@ declare module 'geodesy/latlon-ellipsoidal-vincenty.js' {
     destinationPoint(distance: number, initialBearing: number): LatLon;
     distanceTo(point: LatLon): number;
     initialBearingTo(point: LatLon): number;
+    /** Vincenty's inverse solution, unrounded (distanceTo rounds to 1 mm). */
+    inverse(point: LatLon): { distance: number; initialBearing: number; finalBearing: number };
   }
 }
 declare module 'geodesy/latlon-ellipsoidal-datum.js' {

@@ -247,6 +247,43 @@ describe('batch review', () => {
   });
 });
 
+describe('batch generalisation', () => {
+  it("offers the upload's generalisation with the sentence that it follows the holder's policy and local law", async () => {
+    await page.click('#tab-batch');
+    expect(await page.textContent('#b-generalise-note')).toContain("Generalising follows the holder's policy and local law, which whereabouts does not decide.");
+    for (const id of ['b-taxa', 'b-column', 'b-by', 'b-size']) expect(await page.locator(`label[for="${id}"]`).count(), id).toBe(1);
+    // A marking column the file lacks: refused before the job starts, said in words.
+    await page.setInputFiles('#b-file', DEMO_LOCALITIES);
+    await page.fill('#b-column', 'nosuch');
+    await page.selectOption('#b-by', 'gridDegrees');
+    await page.fill('#b-size', '0.1');
+    await page.click('#batch-submit');
+    await page.waitForSelector('#batch-progress-line[data-state="failed"]');
+    expect(await page.textContent('#batch-progress-text')).toMatch(/^Upload failed: .*no column "nosuch"/);
+    await page.fill('#b-column', '');
+    await page.fill('#b-size', '');
+  });
+
+  it('generalises the listed taxa by a grid in meters: the reviewed CSV holds the cell, dataGeneralizations and informationWithheld', async () => {
+    await page.setInputFiles('#b-taxa', { name: 'taxa.csv', mimeType: 'text/csv', buffer: Buffer.from('scientificName,gridMeters\nVerdemaria lindoensis,2000\n') });
+    // The review of the earlier batch is still shown: wait for this one's progress to say done (the last said failed).
+    await page.setInputFiles('#b-file', DEMO_LOCALITIES);
+    await page.click('#batch-submit');
+    await page.waitForSelector('#batch-progress-line[data-state="done"]', { timeout: 60_000 });
+    await page.setInputFiles('#b-taxa', []);
+    const [download] = await Promise.all([page.waitForEvent('download'), page.click('#batch-download')]);
+    const rows = parse(readFileSync((await download.path())!), { columns: true }) as Record<string, string>[];
+    const listed = rows.filter((r) => r.scientificName === 'Verdemaria lindoensis' && r.proposed_decimalLatitude !== '');
+    expect(listed.length).toBeGreaterThan(0);
+    for (const r of listed) {
+      // Darwin Core dataGeneralizations and informationWithheld (TDWG term list), filled on the listed rows only.
+      expect(r.dataGeneralizations).toMatch(/^Coordinates generalized from the original georeference to the centre of a 2000 m cell of the UTM zone \d+S grid/);
+      expect(r.informationWithheld).toMatch(/^Precise location information withheld/);
+    }
+    expect(rows.filter((r) => r.scientificName !== 'Verdemaria lindoensis').every((r) => r.dataGeneralizations === '')).toBe(true);
+  });
+});
+
 describe('method choices', () => {
   it('lists every choice with the value in force, from GET /api/v1/method', async () => {
     await page.click('#tab-method');

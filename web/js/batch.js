@@ -27,15 +27,31 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     if (!file) return void (progressText.textContent = 'choose a CSV file or a Darwin Core Archive first');
     const data = new FormData();
     data.append('file', file);
+    const { query, taxa } = generalisation();
+    if (taxa) data.append('sensitiveTaxa', taxa);
     progress.value = 0;
     showProgress('working', 'uploading…');
     try {
-      ({ jobId } = await postForm('/api/v1/batches', data));
+      ({ jobId } = await postForm(`/api/v1/batches${query}`, data));
       await waitForJob();
     } catch (error) {
       showProgress('failed', `Upload failed: ${error.message}`);
     }
   });
+
+  /** The generalisation asked for in the form: a taxa file and/or a marking column with one way; the server checks them. */
+  function generalisation() {
+    const field = (name) => form.elements.namedItem(name);
+    const taxa = field('sensitiveTaxa').files[0];
+    const column = field('sensitiveColumn').value.trim();
+    const params = new URLSearchParams();
+    if (column) {
+      params.set('sensitiveColumn', column);
+      const size = field('generaliseSize').value.trim();
+      if (size) params.set(field('generaliseBy').value, size);
+    }
+    return { query: column ? `?${params}` : '', taxa };
+  }
 
   /** The progress line's state is said in words and shown by its style: working, done or failed. */
   function showProgress(state, words) {

@@ -20,6 +20,8 @@ interface BatchCommandOptions {
   sensitiveTaxa?: string;
   sensitiveColumn?: string;
   generaliseTo?: string;
+  generaliseToMeters?: string;
+  generaliseWithin?: string;
 }
 
 const PHASE_LABELS: Record<BatchProgressEvent['phase'], string> = {
@@ -47,9 +49,11 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--allow-empty-gazetteer', 'run even when the gazetteer holds no source (every row then comes back not found)')
     .option('--part <K/N>', 'only part K (from 0) of N, cut by locality, written as a part file for `whereabouts merge` (needs --out and --run-timestamp; its job database is <out>.jobs.sqlite)')
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
-    .option('--sensitive-taxa <file>', "generalise the rows of these taxa: a CSV with the columns scientificName and gridDegrees (the holder's policy), matched to the input's scientificName after folding case and white space; the point goes to the centre of its grid cell, the precise one stays in the job database")
-    .option('--sensitive-column <name>', 'generalise the rows this input column marks (any value but empty, 0, false or no), to the grid of --generalise-to')
-    .option('--generalise-to <degrees>', 'the grid for --sensitive-column, in degrees (such as 0.1 or 0.01)')
+    .option('--sensitive-taxa <file>', "generalise the rows of these taxa: a CSV with the column scientificName and, for each taxon, one of gridDegrees, gridMeters or distanceMeters (the holder's policy), matched to the input's scientificName after folding case and white space; the point goes to the centre of its grid cell, the precise one stays in the job database")
+    .option('--sensitive-column <name>', 'generalise the rows this input column marks (any value but empty, 0, false or no), as one of --generalise-to, --generalise-to-meters or --generalise-within says')
+    .option('--generalise-to <degrees>', 'for --sensitive-column: a grid in degrees (such as 0.1 or 0.01)')
+    .option('--generalise-to-meters <meters>', 'for --sensitive-column: a grid in meters, the UTM grid of the point\'s zone with cells of this side (10 to 100000)')
+    .option('--generalise-within <meters>', 'for --sensitive-column: a stated distance, the precise point kept within it of the point shown (10 to 70710; a UTM grid cell whose half-diagonal is this distance)')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
       if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
@@ -94,20 +98,26 @@ export function registerBatch(program: Command, dbPath: () => string): void {
 
 /** The generalisation asked for, if any, read and checked before a job starts. */
 async function generalisationOf(opts: BatchCommandOptions): Promise<GeneralisationSettings | undefined> {
-  if (opts.sensitiveColumn === undefined && opts.generaliseTo !== undefined) throw new Error('--generalise-to is the grid for --sensitive-column: name the column that marks the rows');
-  if (opts.sensitiveColumn !== undefined && opts.generaliseTo === undefined) throw new Error('--sensitive-column needs --generalise-to <degrees>, the grid to generalise the marked rows to (such as 0.1)');
+  const ways = { gridDegrees: opts.generaliseTo, gridMeters: opts.generaliseToMeters, distanceMeters: opts.generaliseWithin };
+  const wayGiven = Object.values(ways).some((v) => v !== undefined);
+  if (opts.sensitiveColumn === undefined && wayGiven) throw new Error('--generalise-to, --generalise-to-meters and --generalise-within say how to generalise the rows of --sensitive-column: name the column that marks the rows');
+  if (opts.sensitiveColumn !== undefined && !wayGiven) throw new Error('--sensitive-column needs --generalise-to <degrees>, --generalise-to-meters <meters> or --generalise-within <meters>, how to generalise the marked rows (such as --generalise-to 0.1)');
   if (opts.sensitiveTaxa === undefined && opts.sensitiveColumn === undefined) return undefined;
-  if (opts.resume) throw new Error('a resumed job keeps the generalisation it was started with: leave out --sensitive-taxa, --sensitive-column and --generalise-to');
-  const [{ readFile }, { readSensitiveTaxa }, { parseGridDegrees }] = await Promise.all([
+  if (opts.resume) throw new Error('a resumed job keeps the generalisation it was started with: leave out --sensitive-taxa, --sensitive-column and the --generalise options');
+  const [{ readFile }, { readSensitiveTaxa }, { readGeneralisation }] = await Promise.all([
     import('node:fs/promises'),
     import('../../batch/sensitive-records.ts'),
-    import('../../georef/grid-generalisation.ts'),
+    import('../../georef/generalisation.ts'),
   ]);
   const taxa = opts.sensitiveTaxa === undefined ? undefined : readSensitiveTaxa(await readFile(opts.sensitiveTaxa, 'utf8'), `the sensitive taxa list ${opts.sensitiveTaxa}`);
-  return {
-    ...(taxa ? { taxa } : {}),
-    ...(opts.sensitiveColumn !== undefined ? { column: opts.sensitiveColumn, gridDegrees: parseGridDegrees(opts.generaliseTo!) } : {}),
+  const forColumn = () => {
+    try {
+      return readGeneralisation(ways);
+    } catch (error) {
+      throw new Error(`--sensitive-column: ${(error as Error).message.replaceAll('gridDegrees', '--generalise-to').replaceAll('gridMeters', '--generalise-to-meters').replaceAll('distanceMeters', '--generalise-within')}`);
+    }
   };
+  return { ...(taxa ? { taxa } : {}), ...(opts.sensitiveColumn !== undefined ? { column: opts.sensitiveColumn, ...forColumn() } : {}) };
 }
 
 function positiveInteger(value: string): number {

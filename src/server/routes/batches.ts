@@ -4,6 +4,7 @@ import { Type } from 'typebox';
 import type { BatchService, RecordFilter } from '../batches.ts';
 import { RequestError } from '../errors.ts';
 import type { Resolution } from '../../store/reviews.ts';
+import { generalisationQuerySchema, generalisationRequest } from '../generalisation-request.ts';
 import { errorResponses, errorSchema, featureKeySchema, oneOf, openObject } from '../schemas.ts';
 
 const jobParams = Type.Object({ jobId: Type.String({ pattern: '^[A-Za-z0-9_-]{1,64}$' }) });
@@ -27,7 +28,7 @@ export interface BatchRoutesOptions {
  * @example await app.register(batchRoutes, { batches, uploadLimit: 50 * 1024 * 1024 })
  */
 export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async (scope, { batches, uploadLimit }) => {
-  await scope.register(multipart, { limits: { fileSize: uploadLimit, files: 1, fields: 4, parts: 5, fieldSize: 1024 } });
+  await scope.register(multipart, { limits: { fileSize: uploadLimit, files: 2, fields: 4, parts: 6, fieldSize: 1024 } });
 
   scope.post(
     '/api/v1/batches',
@@ -37,21 +38,29 @@ export const batchRoutes: FastifyPluginAsyncTypebox<BatchRoutesOptions> = async 
         description:
           'The file is CSV or tab-separated text, or a Darwin Core Archive (a zip with a meta.xml, whose occurrence core is georeferenced), ' +
           'told apart by its bytes, not its name. A zip that is not an archive (unreadable, no meta.xml) is refused with 415; ' +
-          'an archive whose meta.xml names no core, or a core that cannot be read, with 400.',
+          'an archive whose meta.xml names no core, or a core that cannot be read, with 400. ' +
+          'A list of sensitive taxa, when rows are to be generalised, goes in a second file field, "sensitiveTaxa" (see the query fields).',
         tags: ['batch'],
         consumes: ['multipart/form-data'],
+        querystring: generalisationQuerySchema,
         response: { 202: open, 409: errorSchema, 415: errorSchema, ...errorResponses },
       },
     },
     async (request, reply) => {
       if (!request.isMultipart()) throw new RequestError(415, 'send the CSV or the Darwin Core Archive as multipart/form-data in a field named "file"', 'file');
-      const part = await request.file();
-      if (!part || part.fieldname !== 'file') throw new RequestError(400, 'the upload needs a field named "file" holding the CSV or the Darwin Core Archive', 'file');
-      const bytes = await part.toBuffer().catch((error: { code?: string }) => {
-        if (error.code === 'FST_REQ_FILE_TOO_LARGE') throw new RequestError(413, `the uploaded file is larger than the upload limit of ${uploadLimit} bytes`, 'file');
-        throw error;
-      });
-      const jobId = await batches.start(bytes);
+      const files = new Map<string, Buffer>();
+      for await (const part of request.files()) {
+        if (part.fieldname !== 'file' && part.fieldname !== 'sensitiveTaxa') {
+          throw new RequestError(400, `the upload needs a field named "file" holding the CSV or the Darwin Core Archive (and, to generalise sensitive taxa, "sensitiveTaxa"), not "${part.fieldname}"`, 'file');
+        }
+        files.set(part.fieldname, await part.toBuffer().catch((error: { code?: string }) => {
+          if (error.code === 'FST_REQ_FILE_TOO_LARGE') throw new RequestError(413, `the uploaded file is larger than the upload limit of ${uploadLimit} bytes`, part.fieldname);
+          throw error;
+        }));
+      }
+      const bytes = files.get('file');
+      if (!bytes) throw new RequestError(400, 'the upload needs a field named "file" holding the CSV or the Darwin Core Archive', 'file');
+      const jobId = await batches.start(bytes, generalisationRequest(request.query, files.get('sensitiveTaxa')));
       return reply.code(202).send({ jobId, progress: `/api/v1/batches/${jobId}` });
     },
   );

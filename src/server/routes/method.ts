@@ -29,8 +29,12 @@ export const methodRoutes: FastifyPluginAsyncTypebox = async (app) => {
     {
       schema: {
         summary: 'Every choice the method leaves open: value in force, source, and the option that changes it',
+        description: `The choices in force, one a line (id: choice = value; changed by):\n\n${methodChoices()
+          .map((c) => `- \`${c.id}\`: ${c.choice} = ${c.value}${c.unit ? ` ${c.unit}` : ''}; changed by: ${c.changedBy}`)
+          .join('\n')}`,
         tags: ['method'],
-        response: { 200: Type.Array(methodChoiceSchema) },
+        // The list itself is in the document too, as the answer's example: the same values the route answers.
+        response: { 200: Type.Array(methodChoiceSchema, { examples: [methodChoices()] }) },
       },
     },
     async () => methodChoices(),
