@@ -211,6 +211,7 @@ describe('clauses that give context or stand in (method workflow step 5: the mos
     // The place, then the stated state that bounds it.
     expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0048', 'qv-0003']);
     expect(result.interpretation.notes.join('\n')).toContain('"Serra Alta" names the record\'s state or province: read as context, the clause after it used');
+    expect(result.interpretation.notes.join('\n')).not.toContain('also named: "Vila Serena"');
   });
 
   it('uses the town of a municipality the text names when no place of the text is loaded, widened by [CHOICE] unusedFeatureMeters', () => {
