@@ -22,6 +22,7 @@ import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './a
 import { justOutside } from './just-outside.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
+import { lookupsOnce } from './lookups-once.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -86,15 +87,17 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
  *   locate(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).status // 'georeferenced'
  */
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
-  return checkLocated(finder, request, locateOne(finder, request));
+  const once = lookupsOnce(finder);
+  return checkLocated(finder, once, request, locateOne(once, request));
 }
 
 /**
  * The plausibility checks (src/georef/plausibility-check.ts) of a result made for this request: flags
- * and remarks added, the point left as it is.
- * @example checkLocated(store, request, result).flags // e.g. ['outside-record-country']
+ * and remarks added, the point left as it is. The checks read country outlines from `finder` (they keep
+ * them per finder); a clause georeferenced alone asks `once`, this record's lookups.
+ * @example checkLocated(store, lookupsOnce(store), request, result).flags // e.g. ['outside-record-country']
  */
-function checkLocated(finder: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
+function checkLocated(finder: CandidateFinder, once: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
   const g = result.georeference;
   if (result.status !== 'georeferenced' || !g) return result;
   const findings = checkPlausibility(finder, {
@@ -102,7 +105,7 @@ function checkLocated(finder: CandidateFinder, request: LocateRequest, result: L
     interpretation: result.interpretation,
     candidates: result.candidates,
     countryCode: contextOf(request, result.interpretation).countryCode,
-    locateClause: (text) => locateOne(finder, { ...request, locality: text, verbatimCoordinates: undefined, edits: undefined }).georeference,
+    locateClause: (text) => locateOne(once, { ...request, locality: text, verbatimCoordinates: undefined, edits: undefined }).georeference,
   });
   if (findings.length === 0) return { ...result, flags: [] };
   const georeference = { ...g, remarks: [...g.remarks, ...findings.map((f) => f.remark)] };
