@@ -6,7 +6,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { Agent, request } from 'node:http';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { importGazetteer } from '../src/store/import.ts';
@@ -129,5 +129,7 @@ export function describe(result: RunResult): string {
     `requests ${l.length} in ${result.seconds.toFixed(1)} s (${(l.length / result.seconds).toFixed(0)} per second)`,
     `latency p50 ${quantile(l, 0.5).toFixed(2)} ms, p99 ${quantile(l, 0.99).toFixed(2)} ms, max ${largest(l).toFixed(2)} ms`,
     `errors ${result.errors}${result.errorSamples.length ? ` (${result.errorSamples.join('; ')})` : ''}`,
+    // Other work on a shared machine moves these figures: the load says how much there was.
+    `machine load average at the end ${loadavg().map((l) => l.toFixed(2)).join(' ')} (${cpus().length} cores)`,
   ].join('\n');
 }

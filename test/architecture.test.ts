@@ -102,6 +102,11 @@ describe('folder rule (the project\'s own architecture, checked from import stat
     expect(wrong).toEqual([]);
   });
 
+  it('imports turf one package at a time (the whole of @turf/turf is about 110 modules every CLI start would load)', () => {
+    const wrong = edges.filter((edge) => !edge.typeOnly && edge.specifier === '@turf/turf').map((edge) => edge.file);
+    expect(wrong).toEqual([]);
+  });
+
   it('has no loop between folders', () => {
     const graph = new Map<string, Set<string>>();
     for (const { from, to } of edges) if (to !== null && to !== from) graph.set(from, (graph.get(from) ?? new Set()).add(to));

@@ -7,20 +7,8 @@
  * far is the holder's policy and local law; whereabouts only applies it.
  */
 import { parse } from 'csv-parse/sync';
-import { GENERALISATION_KINDS, generalisationSize, readGeneralisation, type Generalisation } from '../georef/generalisation.ts';
+import { GENERALISATION_KINDS, generalisationSize, readGeneralisation, type Generalisation, type GeneralisationSettings } from '../georef/generalisation.ts';
 import { termName } from '../record/term-names.ts';
-
-/**
- * What a job stores (in its settings) to pick the rows it generalises. For the marking column, the
- * generalisation's own field sits beside `column` (`{ column, gridMeters: 1000 }`), as jobs stored
- * `{ column, gridDegrees }` before grids in meters.
- */
-export type GeneralisationSettings = {
-  /** Folded scientific name → generalisation (a bare number is a grid in degrees, as older jobs stored it). */
-  taxa?: Record<string, Generalisation | number>;
-  /** The input column that marks rows to generalise. */
-  column?: string;
-} & Partial<{ gridDegrees: number; gridMeters: number; distanceMeters: number }>;
 
 /** The marking column's generalisation from stored settings, if a column is given. */
 function columnGeneralisation(settings: GeneralisationSettings): Generalisation | undefined {

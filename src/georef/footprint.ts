@@ -105,10 +105,11 @@ export function clipRingToUnit(ring: Position[], unitGeometry: Geometry): Clippe
   const unit = unitNear(unitGeometry, box);
   if (!unit) return undefined;
   const unitRings = unit.flat();
-  const whole: ClippedShape = { footprintWKT: polygonsToWKT([[ring]]), geometry: { type: 'Polygon', coordinates: [ring] } };
+  // Written only when the ring comes back whole: most clips cut it.
+  const whole = (): ClippedShape => ({ footprintWKT: polygonsToWKT([[ring]]), geometry: { type: 'Polygon', coordinates: [ring] } });
   if (!boundariesMeet(ring, box, unitRings)) {
     // No edge crosses and no part of the unit lies inside the ring: the ring is wholly in or wholly out.
-    return booleanPointInPolygon(ring[0]!, turfMultiPolygon(unit)) ? whole : undefined;
+    return booleanPointInPolygon(ring[0]!, turfMultiPolygon(unit)) ? whole() : undefined;
   }
   try {
     // Only the part of the unit inside the ring's box can meet it: cutting the unit to that box first
@@ -128,7 +129,7 @@ export function clipRingToUnit(ring: Position[], unitGeometry: Geometry): Clippe
       geometry: polygons.length === 1 ? { type: 'Polygon', coordinates: polygons[0]! } : { type: 'MultiPolygon', coordinates: polygons },
     };
   } catch (error) {
-    return { ...whole, unclippedBecause: `the polygon clipping failed (${error instanceof Error ? error.message : String(error)})` };
+    return { ...whole(), unclippedBecause: `the polygon clipping failed (${error instanceof Error ? error.message : String(error)})` };
   }
 }
 

@@ -63,3 +63,15 @@ export function generalisationSize(generalisation: Generalisation): number {
   if ('gridDegrees' in generalisation) return generalisation.gridDegrees * 111_319.49;
   return 'gridMeters' in generalisation ? generalisation.gridMeters : generalisation.distanceMeters * Math.SQRT2;
 }
+
+/**
+ * What a job stores (in its settings) to pick the rows it generalises. For the marking column, the
+ * generalisation's own field sits beside `column` (`{ column, gridMeters: 1000 }`), as jobs stored
+ * `{ column, gridDegrees }` before grids in meters.
+ */
+export type GeneralisationSettings = {
+  /** Folded scientific name → generalisation (a bare number is a grid in degrees, as older jobs stored it). */
+  taxa?: Record<string, Generalisation | number>;
+  /** The input column that marks rows to generalise. */
+  column?: string;
+} & Partial<{ gridDegrees: number; gridMeters: number; distanceMeters: number }>;

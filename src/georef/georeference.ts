@@ -437,9 +437,10 @@ function finish(input: GeoreferenceInput, placement: Placement, settings: Settin
 
   const latitude = placement.latitude;
   const longitude = normaliseLongitude(placement.longitude);
-  let footprintWKT = circleWKT(latitude, longitude, uncertaintyMeters, settings.footprintSegments);
+  let footprintWKT: string;
   const unit = input.boundingUnit;
   if (unit && uncertaintyMeters > 0 && unit.geometry && ['Polygon', 'MultiPolygon'].includes(unit.geometry.type)) {
+    // The circle is drawn once, for the clip: the unclipped circle's WKT would only be thrown away.
     const clipped = clipCircleToUnit({ latitude, longitude, radiusMeters: uncertaintyMeters }, unit.geometry, settings.footprintSegments);
     if (!clipped) refuse(`the georeference lies wholly outside the bounding unit "${unit.name}": the clauses contradict each other (docs/method.md §2, step 5)`);
     footprintWKT = clipped.footprintWKT;
@@ -449,6 +450,8 @@ function finish(input: GeoreferenceInput, placement: Placement, settings: Settin
         : `footprint: the circle clipped to ${unit.featureType ?? 'unit'} "${unit.name}"`,
     );
     used.push(unit);
+  } else {
+    footprintWKT = circleWKT(latitude, longitude, uncertaintyMeters, settings.footprintSegments);
   }
   const seen = new Set<string>();
   const features = used

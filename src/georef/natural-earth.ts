@@ -21,6 +21,8 @@ export const NATURAL_EARTH = {
 
 let land: Outline[] | undefined;
 let countries: { topology: Topology; byNumeric: Map<string, GeometryCollection['geometries'][number]> } | undefined;
+/** Each country's outlines decoded once: a batch checks every record of a country against the same outline. */
+const countryOutlines = new Map<string, Outline[] | undefined>();
 
 function topojson(): typeof TopoJSONClient {
   return require('topojson-client') as typeof TopoJSONClient;
@@ -53,9 +55,11 @@ export function naturalEarthCountry(alpha2: string): Outline[] | undefined {
     const collection = topology.objects.countries as GeometryCollection;
     countries = { topology, byNumeric: new Map(collection.geometries.filter((g) => g.id !== undefined).map((g) => [String(g.id), g])) };
   }
-  const geometry = countries.byNumeric.get(numeric);
-  if (!geometry) return undefined;
-  // A single geometry (not a collection) decodes to one Feature.
-  const shape = (topojson().feature(countries.topology, geometry) as Feature).geometry;
-  return shape.type === 'Polygon' || shape.type === 'MultiPolygon' ? outlinesOf(shape) : undefined;
+  if (!countryOutlines.has(numeric)) {
+    const geometry = countries.byNumeric.get(numeric);
+    // A single geometry (not a collection) decodes to one Feature.
+    const shape = geometry && (topojson().feature(countries.topology, geometry) as Feature).geometry;
+    countryOutlines.set(numeric, shape && (shape.type === 'Polygon' || shape.type === 'MultiPolygon') ? outlinesOf(shape) : undefined);
+  }
+  return countryOutlines.get(numeric);
 }

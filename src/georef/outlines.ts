@@ -36,8 +36,44 @@ export function outlinesOf(geometry: Polygon | MultiPolygon): Outline[] {
  * @example insideOutlines(0.5, 0.5, outlinesOf(square)) // true
  */
 export function insideOutlines(latitude: number, longitude: number, outlines: readonly Outline[]): boolean {
-  return outlines.some(({ bbox: [w, s, e, n], polygon }) =>
+  return outlinesInBand(outlines, latitude, latitude).some(({ bbox: [w, s, e, n], polygon }) =>
     latitude >= s && latitude <= n && longitude >= w && longitude <= e && booleanPointInPolygon([longitude, latitude], polygon));
+}
+
+/**
+ * Outline indexes by whole degree of latitude: for each band [k − 90, k − 89) the outlines whose box reaches
+ * into it, in their order. Built once for each list (the lists come from caches: Natural Earth's land, a
+ * gazetteer's country outlines), so a point tested against a world of coastlines looks only at the few
+ * near its latitude.
+ */
+const bandsByOutlines = new WeakMap<readonly Outline[], number[][]>();
+
+function latitudeBand(latitude: number): number {
+  return Math.min(179, Math.max(0, Math.floor(latitude + 90)));
+}
+
+/**
+ * The outlines whose box may reach latitudes south..north, in their order: every outline whose box
+ * overlaps that range, and perhaps some near it (callers test the box themselves).
+ */
+function outlinesInBand(outlines: readonly Outline[], south: number, north: number): readonly Outline[] {
+  let bands = bandsByOutlines.get(outlines);
+  if (!bands) {
+    const built: number[][] = Array.from({ length: 180 }, () => []);
+    outlines.forEach(({ bbox: [, s, , n] }, i) => {
+      // A box that is no range (an empty ring's [Infinity, −Infinity]) goes in every band: the callers' own tests judge it.
+      const [from, to] = s <= n ? [latitudeBand(s), latitudeBand(n)] : [0, 179];
+      for (let band = from; band <= to; band++) built[band]!.push(i);
+    });
+    bandsByOutlines.set(outlines, (bands = built));
+  }
+  if (!(south <= north)) return outlines;
+  const first = latitudeBand(south);
+  const last = latitudeBand(north);
+  if (first === last) return bands[first]!.map((i) => outlines[i]!);
+  const indexes = new Set<number>();
+  for (let band = first; band <= last; band++) for (const i of bands[band]!) indexes.add(i);
+  return [...indexes].sort((a, b) => a - b).map((i) => outlines[i]!);
 }
 
 // Shortest length of a degree of latitude on WGS84 (at the equator, 110 574 m; method §5.3) and of longitude at the equator.
@@ -68,21 +104,25 @@ export function distanceToOutlines(latitude: number, longitude: number, outlines
   const estimate = ([x, y]: PlanePoint): PlanePoint => [x * metersPerDegreeLongitude, y * METERS_PER_DEGREE_LATITUDE];
   const shortlist: { a: number[]; b: number[]; estimate: number }[] = [];
   let nearestEstimate = Infinity;
-  for (const { bbox: [w, s, e, n], polygon } of outlines) {
+  for (const { bbox: [w, s, e, n], polygon } of outlinesInBand(outlines, latitude - halfHeight, latitude + halfHeight)) {
     if (s > latitude + halfHeight || n < latitude - halfHeight) continue;
     if (halfWidth < 180 && !spansPoint(w, e, longitude, halfWidth)) continue;
-    for (const ring of polygon.coordinates) {
-      for (let i = 1; i < ring.length; i++) {
+    // A world outline (the Americas: 9,378 vertices) is read only where its edges reach the window's latitudes.
+    const near = edgesInBand(polygon, latitude - halfHeight - BAND_MARGIN_DEGREES, latitude + halfHeight + BAND_MARGIN_DEGREES);
+    polygon.coordinates.forEach((ring, r) => {
+      const visit = (i: number) => {
         const a = ring[i - 1]!;
         const b = ring[i]!;
         const ra = relative(a[0]!, a[1]!);
         const rb = relative(b[0]!, b[1]!);
-        if (!touchesWindow(ra, rb)) continue;
+        if (!touchesWindow(ra, rb)) return;
         const estimated = distanceToSegment([0, 0], estimate(ra), estimate(rb));
         nearestEstimate = Math.min(nearestEstimate, estimated);
         shortlist.push({ a, b, estimate: estimated });
-      }
-    }
+      };
+      if (near) for (const i of near[r]!) visit(i);
+      else for (let i = 1; i < ring.length; i++) visit(i);
+    });
   }
   // [CHOICE] edges within a quarter and 1 km of the best estimate are measured exactly.
   let nearest = Infinity;
@@ -93,6 +133,45 @@ export function distanceToOutlines(latitude: number, longitude: number, outlines
     nearest = Math.min(nearest, distanceToSegment([0, 0], pa, pb));
   }
   return nearest <= withinMeters ? nearest : Infinity;
+}
+
+/** The window's latitudes are widened by this before the bands are picked, against rounding in relative latitudes. */
+const BAND_MARGIN_DEGREES = 1e-6;
+
+/** Polygons with fewer vertices than this are read whole: an index of their edges would save little. */
+const INDEXED_POLYGON_VERTICES = 256;
+
+/** For a large polygon, by band (as bandsByOutlines), each ring's edges reaching into the band, by the index of their end vertex. */
+const edgeBandsByPolygon = new WeakMap<Polygon, number[][][]>();
+
+/**
+ * For each ring of a large polygon, the indexes i of the edges ring[i − 1]–ring[i] that may reach latitudes
+ * south..north, increasing: every edge that does, perhaps some near them (callers test each edge
+ * themselves). Undefined for a small polygon, or a range that is no range: read every edge.
+ */
+function edgesInBand(polygon: Polygon, south: number, north: number): number[][] | undefined {
+  const rings = polygon.coordinates;
+  if (!(south <= north) || rings.reduce((n, ring) => n + ring.length, 0) < INDEXED_POLYGON_VERTICES) return undefined;
+  let bands = edgeBandsByPolygon.get(polygon);
+  if (!bands) {
+    const built: number[][][] = Array.from({ length: 180 }, () => rings.map(() => []));
+    rings.forEach((ring, r) => {
+      for (let i = 1; i < ring.length; i++) {
+        const [y1, y2] = [ring[i - 1]![1]!, ring[i]![1]!];
+        // An edge with a latitude that is not a number is never near: touchesWindow refuses it too.
+        for (let band = latitudeBand(Math.min(y1, y2)); band <= latitudeBand(Math.max(y1, y2)); band++) built[band]![r]!.push(i);
+      }
+    });
+    edgeBandsByPolygon.set(polygon, (bands = built));
+  }
+  const first = latitudeBand(south);
+  const last = latitudeBand(north);
+  if (first === last) return bands[first];
+  return rings.map((_, r) => {
+    const indexes = new Set<number>();
+    for (let band = first; band <= last; band++) for (const i of bands![band]![r]!) indexes.add(i);
+    return [...indexes].sort((a, b) => a - b);
+  });
 }
 
 /** Whether the longitudes west..east, widened by `margin` degrees, hold `longitude` (allowing for 180°). */

@@ -4,7 +4,7 @@
  * polygon (METHOD_DEFAULTS.justOutsideMeters [CHOICE]) is accepted, and the remarks say so. Pure:
  * the gazetteer is reached only through the CandidateFinder it is given.
  */
-import { pointToPolygonDistance } from '@turf/turf';
+import { pointToPolygonDistance } from '@turf/point-to-polygon-distance';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature } from '../match/types.ts';
 
 export type JustOutside = { candidate: Candidate; remark: string } | { candidate: null; reason: string };

@@ -23,7 +23,8 @@ import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core
 import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { HEAD_BYTES, notText } from '../store/file-kind.ts';
 import { writeResults } from '../batch/gis-output.ts';
-import { sensitiveGeneralisation, type GeneralisationSettings } from '../batch/sensitive-records.ts';
+import { sensitiveGeneralisation } from '../batch/sensitive-records.ts';
+import type { GeneralisationSettings } from '../georef/generalisation.ts';
 import type { Generalisation } from '../georef/generalisation.ts';
 import { appendedColumns } from '../output/result-rows.ts';
 import { GENERALISATION_TERMS, generaliseRecord } from '../record/generalised-record.ts';

@@ -5,7 +5,8 @@
  * the holder's policy and local law, which whereabouts does not decide.
  */
 import { Type, type Static } from 'typebox';
-import { readSensitiveTaxa, type GeneralisationSettings } from '../batch/sensitive-records.ts';
+import { readSensitiveTaxa } from '../batch/sensitive-records.ts';
+import type { GeneralisationSettings } from '../georef/generalisation.ts';
 import { DISTANCE_LIMITS, readGeneralisation } from '../georef/generalisation.ts';
 import { METER_GRID_LIMITS } from '../georef/meter-grid-generalisation.ts';
 import { RequestError } from './errors.ts';

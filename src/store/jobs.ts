@@ -4,7 +4,7 @@
  * (input sha256, settings, whereabouts version, gazetteer source hashes, one run timestamp) and its
  * progress: the result of each distinct locality and the number of rows written.
  */
-import type { GeneralisationSettings } from '../batch/sensitive-records.ts';
+import type { GeneralisationSettings } from '../georef/generalisation.ts';
 import Database from 'better-sqlite3';
 import type { Source } from '../match/types.ts';
 

@@ -4,6 +4,7 @@
  * pointToPolygonDistance (@turf/point-to-polygon-distance 7.4.0, geodesic method on a sphere), an
  * implementation independent of ours; a sphere and the ellipsoid differ by up to about 0.5 %.
  */
+import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
 import { pointToPolygonDistance } from '@turf/point-to-polygon-distance';
 import geographiclib from 'geographiclib-geodesic';
 import { describe, expect, it } from 'vitest';
@@ -71,5 +72,18 @@ describe('clausesConflict', () => {
     const d = apart(A, B);
     expect(clausesConflict({ text: 'a', ...circle(...A, d / 2 - 100) }, { text: 'b', ...circle(...B, d / 2 - 100) })?.flag).toBe('clauses-conflict');
     expect(clausesConflict({ text: 'a', ...circle(...A, d / 2 + 100) }, { text: 'b', ...circle(...B, d / 2 + 100) })).toBeUndefined();
+  });
+});
+
+describe('insideOutlines over the whole land (outlines looked up by latitude band)', () => {
+  it('answers as turf\'s point-in-polygon over every outline, for points near every 97th shore vertex', () => {
+    // The reference: @turf/boolean-point-in-polygon 7.4.0 on each polygon, no index.
+    const points = land.outlines.flatMap(({ polygon }, i) => (i % 97 === 0 ? polygon.coordinates[0]!.filter((_, j) => j % 7 === 0) : []))
+      .flatMap(([lon, lat]) => [[lon! + 0.03, lat! + 0.02], [lon! - 0.02, lat! - 0.03]]);
+    expect(points.length).toBeGreaterThan(100);
+    for (const [lon, lat] of points) {
+      const reference = land.outlines.some(({ polygon }) => booleanPointInPolygon([lon!, lat!], polygon));
+      expect(insideOutlines(lat!, lon!, land.outlines)).toBe(reference);
+    }
   });
 });

@@ -3,7 +3,7 @@ import type cliProgress from 'cli-progress';
 import type { ArchiveSummary } from '../../batch/archive/archive-job.ts';
 import type { BatchProgressEvent } from '../../batch/run.ts';
 import { parsePartSpec } from '../../batch/partition.ts';
-import type { GeneralisationSettings } from '../../batch/sensitive-records.ts';
+import type { GeneralisationSettings } from '../../georef/generalisation.ts';
 import { resultFormat, RESULT_FORMATS, type ResultFormat } from '../../output/result-formats.ts';
 
 interface BatchCommandOptions {

@@ -1,4 +1,4 @@
-import { simplify } from '@turf/turf';
+import { simplify } from '@turf/simplify';
 import type { FastifyPluginAsyncTypebox } from '@fastify/type-provider-typebox';
 import type { Feature as GeoJsonFeature, FeatureCollection, Geometry } from 'geojson';
 import type { Feature } from '../../match/types.ts';
