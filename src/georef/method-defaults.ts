@@ -68,4 +68,13 @@ export const METHOD_DEFAULTS = {
    * (README "On real records").
    */
   namesakesWithinMeters: 30000,
+  /**
+   * A text that is only a place's name, found in the gazetteer only by a near spelling ("Milbrook" for
+   * Millbrook) with nothing else in the text to corroborate it [CHOICE]: 'review' gives no georeference and
+   * marks it ambiguous, to be confirmed by a person; 'answer' takes the near spelling, with a remark.
+   * A near spelling of a bare name with a town's small radius is a confident circle in the wrong place
+   * whenever the spelling names another town. Chosen by measurement on the real-record sets (README
+   * "On real records").
+   */
+  fuzzyLoneName: 'review',
 } as const satisfies Record<string, number | string>;

@@ -44,6 +44,8 @@ export interface MethodOptions {
   settlementNamedLikeFeature?: 'settlement' | 'decline';
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
+  /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
+  fuzzyLoneName?: 'review' | 'answer';
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

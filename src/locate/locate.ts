@@ -270,11 +270,20 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       guessed = true;
       continue;
     }
+    if (choice.candidate.score < FUZZY_ACCEPTANCE.readingScore && lonelyName(interpretation) && (options.fuzzyLoneName ?? METHOD_DEFAULTS.fuzzyLoneName) === 'review') {
+      const reason = `"${name}" is not in the loaded gazetteers as written; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
+      return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
+    }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/** True when the text is one place's name and nothing else: no offset, no second name, no other clause to check it against. */
+function lonelyName(interpretation: Interpretation): boolean {
+  return interpretation.type === 'named-place' && interpretation.features.length === 1 && interpretation.otherClauses.length === 0;
 }
 
 /**
