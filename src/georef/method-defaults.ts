@@ -46,6 +46,13 @@ export const METHOD_DEFAULTS = {
    */
   unitWithoutPolygon: 'decline',
   /**
+   * Except a county or municipality named alone (the label "Alisos" with the record's county Alisos),
+   * whose seat usually bears its name: the one town of that name in the stated state, its radius
+   * widened by this default extent of the unit [CHOICE]; 0 declines as for other units. Chosen by
+   * measurement on the real-record sets (README "On real records").
+   */
+  unitSeatMeters: 40000,
+  /**
    * A reference place loaded only outside the record's stated county or state is accepted when it lies
    * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
    * collector measured from is often just across a county line. Common practice, no source; not

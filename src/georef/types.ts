@@ -46,6 +46,8 @@ export interface MethodOptions {
   namesakesWithinMeters?: number;
   /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
   fuzzyLoneName?: 'review' | 'answer';
+  /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
+  unitSeatMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

@@ -6,7 +6,7 @@
  * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
 import { parseCoordinates, parseLocality } from '../parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType } from '../parse/types.ts';
+import type { AdministrativeContext, Interpretation, LocalityType, NamedUnit } from '../parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
 import { coverGeoreferences } from '../georef/cover.ts';
 import { georeference } from '../georef/georeference.ts';
@@ -135,7 +135,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const unit = unitNamed(interpretation, context);
   if (unit) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
-    if (!found.feature) return { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
@@ -189,6 +189,23 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const conflict = conflictWith(georef, others.found);
   if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+/**
+ * A county or municipality named alone, with no polygon of it loaded: its seat, the one town of the unit's
+ * name in the stated state, with the unit level's default extent added to the town's radius
+ * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held as written.
+ */
+function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
+  const meters = options.unitSeatMeters ?? METHOD_DEFAULTS.unitSeatMeters;
+  if (!meters || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
+  const town: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], otherClauses: [], featureKind: undefined };
+  const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+  if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
+  const remark = `"${unit.written}" names the ${unit.level === 'county' ? 'county' : 'municipality'} "${unit.name}", whose polygon is not loaded: georeferenced at its seat, the town of that name, with the radius widened by ${(meters / 1000).toFixed(0)} km, a default extent for the unit, never a town's radius alone [CHOICE unitSeatMeters, src/georef/method-defaults.ts]`;
+  const outcome = georeference({ interpretation: town, features: resolved.readings[0], widening: { meters, remark }, options });
+  if (!outcome.ok) return null;
+  return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
 }
 
 /** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */
