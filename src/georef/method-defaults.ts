@@ -53,6 +53,13 @@ export const METHOD_DEFAULTS = {
    */
   unitSeatMeters: 40000,
   /**
+   * A text that is only a name, found in the stated state where the gazetteer records no county, farther
+   * than this from the town named as the record's county (its seat, as a rule): likely another place of
+   * that name, so marked ambiguous for review [CHOICE]; 0 turns the check off. Chosen by measurement on
+   * the real-record sets (README "On real records").
+   */
+  countyReachMeters: 50000,
+  /**
    * A reference place loaded only outside the record's stated county or state is accepted when it lies
    * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
    * collector measured from is often just across a county line. Common practice, no source; not

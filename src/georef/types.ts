@@ -48,6 +48,8 @@ export interface MethodOptions {
   fuzzyLoneName?: 'review' | 'answer';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
+  /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */
+  countyReachMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

@@ -20,6 +20,7 @@ import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
 import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
+import { farFromCountySeat } from './county-reach.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
@@ -164,6 +165,10 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const declined = verdicts.find((v) => v && 'decline' in v);
   if (verdicts.length > 0 && verdicts.every((v) => v && 'decline' in v)) return { status: 'not-found', interpretation: used, candidates, reason: (declined as { decline: string }).decline };
   for (const verdict of verdicts) if (verdict && 'remark' in verdict && !matchRemarks.includes(verdict.remark)) matchRemarks.push(verdict.remark);
+
+  const lone = lonelyName(used) && readings[0]?.length === 1 ? readings[0][0]! : undefined;
+  const far = lone && farFromCountySeat(finder, lone, context, FUZZY_ACCEPTANCE.readingScore, options.countyReachMeters ?? METHOD_DEFAULTS.countyReachMeters);
+  if (far) return { status: 'ambiguous', interpretation: used, candidates, reason: far };
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
   const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;
