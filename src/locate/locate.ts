@@ -153,7 +153,8 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
     fallbackFrom = interpretation.features.join('", "');
-    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" is not in the loaded gazetteers: ${what} is used instead`] };
+    const where = missed!.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" ${where}: ${what} is used instead`] };
     resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
     break;
   }
@@ -203,7 +204,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
  */
 function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
   const meters = options.unitSeatMeters ?? METHOD_DEFAULTS.unitSeatMeters;
-  if (!meters || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
+  if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
   const town: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], otherClauses: [], featureKind: undefined };
   const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
   if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
