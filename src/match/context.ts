@@ -61,8 +61,11 @@ export function administrativeKey(name: string): string {
  */
 export function shortFormKey(name: string): string {
   const tokens = foldName(name).split(' ');
-  const cut = tokens.indexOf('de');
-  return cut > 0 ? administrativeKey(tokens.slice(0, cut).join(' ')) : administrativeKey(name);
+  // Words for the unit's kind lead some names ("Provincia de Salta"): the cut is after them.
+  let start = 0;
+  while (start < tokens.length && ADMINISTRATIVE_WORDS.has(tokens[start]!)) start++;
+  const cut = tokens.indexOf('de', start);
+  return cut > start ? administrativeKey(tokens.slice(start, cut).join(' ')) : administrativeKey(name);
 }
 
 /** The context a candidate must fit, resolved once per query. */
