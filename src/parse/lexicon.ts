@@ -172,6 +172,18 @@ export const PLACE_TYPE_PREFIXES = phrases(
 );
 /** Feature-type words after a name or alone in brackets: "X (town)", "X city", "X (pueblo)". */
 export const PLACE_TYPE_SUFFIXES = set('town city village pueblo ciudad cidade povoado vila ville village localidad localidade');
+/**
+ * Words naming a part of a mountain, before its name ("summit of X", "cumbre del X", "cume do X", "sommet du X"),
+ * after it in lower case ("X summit") or alone after it ("X, summit area"): the part lies within the mountain,
+ * so the mountain is the feature and its kind is kept, never a place named "summit".
+ */
+export const MOUNTAIN_PART_WORDS = phrases(
+  'summit | summit area | summit region | top | cumbre | zona de cumbre | cima | cume | topo | sommet | cime | zone sommitale',
+);
+export const MOUNTAIN_PART_PREFIXES = phrases(
+  'summit of | the summit of | summit area of | top of | the top of | cumbre de | cumbre del | cumbre de la | la cumbre de | la cumbre del | cima de | cima del | ' +
+    "cume de | cume do | cume da | topo de | topo do | topo da | sommet de | sommet du | sommet de la | sommet de l' | sommet des | cime de | cime du | cime de la",
+);
 /** Prepositions before a bare place name that are not part of it: "in X", "on X", "en X", "em X", "à X". */
 export const PLACE_PREPOSITIONS = set('in on en em at');
 

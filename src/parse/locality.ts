@@ -253,9 +253,16 @@ function hasNameWord(s: Source, from: number, to: number): boolean {
  */
 function placeAt(s: Source, from: number, end: number): string | null {
   const prefix = matchPhrase(s, from, L.PLACE_TYPE_PREFIXES);
+  const part = matchPhrase(s, from, L.MOUNTAIN_PART_PREFIXES);
   if (prefix && from + prefix < end) {
     s.featureKind = 'populated-place';
     from += prefix;
+  } else if (part && from + part < end) {
+    s.featureKind = 'mountain';
+    from += part;
+  } else if (mountainPartAtEnd(s, from, end) < end) {
+    s.featureKind = 'mountain';
+    end = mountainPartAtEnd(s, from, end);
   } else if (end - from >= 2 && L.PLACE_TYPE_SUFFIXES.has(norm(s, end - 1)!) && s.tokens[end - 1]!.text === s.tokens[end - 1]!.norm && hasNameWord(s, from, end - 1)) {
     // Only a lower-case suffix: "Millbrook town" is the town of Millbrook, "Puerto Ciudad" a name; "the town",
     // "la ciudad" alone keep their word (the town of a municipality named elsewhere, see seatOf).
@@ -263,6 +270,15 @@ function placeAt(s: Source, from: number, end: number): string | null {
     end--;
   }
   return hasDistance(s, from, end) || !hasNameWord(s, from, end) ? null : nameBetween(s, from, end);
+}
+
+/** Where a lower-case word for a part of a mountain that closes a name starts ("Monte Verdemar summit area"), else `end`. */
+function mountainPartAtEnd(s: Source, from: number, end: number): number {
+  for (let k = Math.max(from + 1, end - 3); k < end; k++) {
+    const lowerCase = s.tokens.slice(k, end).every((t) => t.text === t.norm);
+    if (lowerCase && matchPhrase(s, k, L.MOUNTAIN_PART_WORDS) === end - k && hasNameWord(s, from, k)) return k;
+  }
+  return end;
 }
 
 /**
@@ -387,6 +403,8 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const place = placeAt(s, j, placeEndAt);
   if (!place) return unparseable(`could not read the place after "${s.text.slice(s.tokens[i]!.start, s.tokens[j - 1]!.end)}"`, approximate);
   if (tail.path && !offset.path) offset.path = tail.path;
+  // "12 km by road from X on Ruta 12", "a 12 km por carretera de X por la Ruta 12": the line named after the place.
+  else if (tail.path?.lineName && offset.path && !offset.path.lineName) offset.path = { ...offset.path, lineName: tail.path.lineName, written: `${offset.path.written} … ${tail.path.written}` };
   if (tail.heading && !offset.heading && offsets.length === 1) offset.heading = tail.heading;
   if (tail.byAir) offset.byAir = true;
   if (toward && offset.heading) {
@@ -547,6 +565,8 @@ function readClause(s: Source): LocalityRead {
   const nearWord = matchPhrase(s, i, L.NEAR_SUFFIXES);
   if (nearWord && i + nearWord === end) return { ...reading('near', [], { approximate }), bare: 'near' };
   if (i + 1 === end && L.PLACE_TYPE_SUFFIXES.has(norm(s, i)!)) return { ...reading('named-place', [], { approximate, featureKind: 'populated-place' }), bare: 'kind' };
+  // "Monte Verdemar, summit area": a part of the mountain before it, which stays the feature.
+  if (matchPhrase(s, i, L.MOUNTAIN_PART_WORDS) === end - i) return { ...reading('named-place', [], { approximate, featureKind: 'mountain' }), bare: 'kind' };
   const placeFirst = readPlaceFirst(s, i, approximate);
   if (placeFirst) return placeFirst;
   const road = readRoadClause(s, i);
@@ -554,7 +574,8 @@ function readClause(s: Source): LocalityRead {
 
   for (let k = Math.max(i + 1, end - 3); k < end; k++) {
     const suffix = matchPhrase(s, k, L.NEAR_SUFFIXES);
-    const place = suffix && k + suffix === end ? placeAt(s, i, k) : null;
+    // "X summit area" is the summit of X, not its vicinity.
+    const place = suffix && k + suffix === end && mountainPartAtEnd(s, i, end) >= k ? placeAt(s, i, k) : null;
     if (place) return reading('near', [place], { approximate });
   }
 
