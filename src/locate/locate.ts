@@ -294,7 +294,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       continue;
     }
     if (choice.candidate.score < FUZZY_ACCEPTANCE.readingScore && lonelyName(interpretation) && (options.fuzzyLoneName ?? METHOD_DEFAULTS.fuzzyLoneName) === 'review') {
-      const reason = `"${name}" is not in the loaded gazetteers as written; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
+      const reason = `no feature named "${name}" as written in the loaded gazetteers; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
       return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
     }
     readings.push([choice.candidate.feature]);
