@@ -44,6 +44,12 @@ export interface MethodOptions {
   settlementNamedLikeFeature?: 'settlement' | 'decline';
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
+  /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
+  fuzzyLoneName?: 'review' | 'answer';
+  /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
+  unitSeatMeters?: number;
+  /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */
+  countyReachMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

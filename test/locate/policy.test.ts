@@ -63,6 +63,25 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
     expect(result.reason).toMatch(/names the county "Puerto Lindo", not a place; no polygon of it is loaded \[CHOICE unitWithoutPolygon/);
   });
 
+  it('takes a county named alone, with no polygon loaded, at its seat in the stated state, widened by the unit\'s default extent ([CHOICE] unitSeatMeters)', () => {
+    // "Puerto Lindo" as the record's county in Poniente: no county polygon of that name; the city qv-0013 is its seat.
+    const result = locate(store, { locality: 'Puerto Lindo', countryCode: 'QV', stateProvince: 'Poniente', county: 'Puerto Lindo' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0013']);
+    expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unitSeatMeters);
+    expect(result.georeference!.uncertaintyMeters).toBeGreaterThanOrEqual(PUERTO_LINDO_RADIUS + METHOD_DEFAULTS.unitSeatMeters);
+    expect(result.georeference!.remarks.join('\n')).toMatch(/names the county "Puerto Lindo", whose polygon is not loaded: georeferenced at its seat.*\[CHOICE unitSeatMeters/);
+  });
+
+  it('leaves a bare name found only by a near spelling for a person to confirm ([CHOICE] fuzzyLoneName)', () => {
+    const result = locate(store, { locality: 'Milbrook', countryCode: 'QV', stateProvince: 'Côte-du-Levant' });
+    expect(METHOD_DEFAULTS.fuzzyLoneName).toBe('review');
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toMatch(/the only near spelling, Millbrook .* left for a person to confirm \[CHOICE fuzzyLoneName/);
+    // With an offset the near spelling is still taken, with its remark: the rule is for a bare name only.
+    expect(locate(store, { locality: '5 km N of Milbrook', countryCode: 'QV', stateProvince: 'Côte-du-Levant' }).status).toBe('georeferenced');
+  });
+
   it('takes the parser\'s administrative-unit reading as the unit ("Município de Serrana")', () => {
     const interpretation: Interpretation = {
       ...parseLocality('Serrana'),
