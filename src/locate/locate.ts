@@ -20,6 +20,7 @@ import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
 import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
+import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
@@ -236,9 +237,24 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       continue;
     }
     const choice = chooseCandidate(found);
+    // The point, not the town, must lie in the stated unit: a town may lie as far out as the offset reaches.
+    const reach = reachMeters(interpretation, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+    if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && (choice.kind === 'one' || choice.kind === 'several')) {
+      const taken = choice.kind === 'one' ? [choice.candidate] : choice.candidates;
+      const wallUnit = context.county || context.stateProvince || context.municipality ? findBoundingUnit(finder, context, 'stateProvince') : undefined;
+      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation.type), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
+      if (byResult && 'ambiguous' in byResult) return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: byResult.ambiguous } };
+      if (byResult) {
+        if (!taken.includes(byResult.candidate)) candidates.push(byResult.candidate);
+        readings.push([byResult.candidate.feature]);
+        matchRemarks.push(byResult.remark);
+        guessed ||= !taken.includes(byResult.candidate);
+        continue;
+      }
+    }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach);
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
