@@ -24,6 +24,7 @@ import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
+import { foldName } from '../match/fold.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -228,8 +229,10 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   // A near spelling, a place just outside the stated units, or one of several taken.
   let guessed = false;
   for (const name of interpretation.features) {
-    const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
-    candidates.push(...found);
+    const all = finder.findCandidates(featureQuery(name, context, interpretation.type));
+    candidates.push(...all);
+    const { found, remark: ownUnit } = withoutOwnUnit(all, context);
+    if (ownUnit) matchRemarks.push(ownUnit);
     const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
     if (chosen) {
       readings.push([chosen.feature]);
@@ -239,8 +242,8 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     const choice = chooseCandidate(found);
     // The point, not the town, must lie in the stated unit: a town may lie as far out as the offset reaches.
     const reach = reachMeters(interpretation, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
-    if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && (choice.kind === 'one' || choice.kind === 'several')) {
-      const taken = choice.kind === 'one' ? [choice.candidate] : choice.candidates;
+    if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && choice.kind !== 'weak') {
+      const taken = choice.kind === 'one' ? [choice.candidate] : choice.kind === 'several' ? choice.candidates : [];
       const wallUnit = context.county || context.stateProvince || context.municipality ? findBoundingUnit(finder, context, 'stateProvince') : undefined;
       const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation.type), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
       if (byResult && 'ambiguous' in byResult) return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: byResult.ambiguous } };
@@ -291,6 +294,21 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/**
+ * A name shared by the record's own county, state or municipality and other features ("10 km N of Rio
+ * Fundo" in county Rio Fundo, which holds the town Rio Fundo): the unit is the record's context, not the
+ * place measured from, so it is left out, and the remark says so. Kept when it is the only candidate.
+ * @example withoutOwnUnit([countyRioFundo, townRioFundo], { county: 'Rio Fundo' }).found // [townRioFundo]
+ */
+function withoutOwnUnit(found: Candidate[], context: AdministrativeContext): { found: Candidate[]; remark?: string } {
+  const own = (c: Candidate) => ADMINISTRATIVE_LEVELS.some((l) => l.featureType === c.feature.featureType && !!context[l.field] && foldName(context[l.field]!) === foldName(c.feature.name));
+  const units = found.filter((c) => c.score >= 1 && own(c));
+  const rest = found.filter((c) => !units.includes(c));
+  if (units.length === 0 || !rest.some((c) => c.score >= 1)) return { found };
+  const unit = units[0]!.feature;
+  return { found: rest, remark: `"${unit.name}" is also the record's ${unit.featureType}: read as its context, not as the place measured from` };
 }
 
 /**

@@ -25,7 +25,7 @@ export function reachMeters(interpretation: Interpretation, justOutsideMeters: n
 
 /**
  * For a one-place offset text, the namesake whose footprint reaches the stated unit: `taken` (the
- * candidates the usual choice kept, exact or near) and every exact namesake the unit's wall dropped
+ * candidates the usual choice kept, exact or near; none when the units kept none) and every exact namesake the unit's wall dropped
  * within `reachMeters` of it. An exact name beats a near spelling unless its footprint misses the unit.
  * Null when the rule does not apply or decides nothing (every footprint misses: the usual choice stands).
  * Distances by turf's geodesic point-to-polygon distance (haversine: within about 0.5 %).
@@ -52,6 +52,8 @@ export function namesakeByResult(
   if (dropped.length === 0) return null;
   const exactTaken = taken.filter((c) => c.score >= 1);
   const pool = [...exactTaken, ...dropped];
+  // A lone place outside the unit with nothing to weigh it against is the just-outside rule's (src/locate/just-outside.ts).
+  if (pool.length < 2 && taken.length === 0) return null;
   const fits = pool.filter((c) => {
     const outcome = georeference({ interpretation, features: [c.feature], pathLine, options });
     return outcome.ok && away(outcome.georeference.latitude, outcome.georeference.longitude) <= outcome.georeference.uncertaintyMeters;
@@ -60,7 +62,7 @@ export function namesakeByResult(
   const rule = '[CHOICE namesakesJudgedBy, src/georef/method-defaults.ts]';
   if (fits.length === 1) {
     const c = fits[0]!;
-    const over = exactTaken.length === 0 ? `, preferred to the near spelling "${taken[0]!.matchedName}" inside it` : '';
+    const over = exactTaken.length === 0 && taken.length > 0 ? `, preferred to the near spelling "${taken[0]!.matchedName}" inside it` : '';
     return { candidate: c, remark: `"${query.name}": ${describe(c)} taken, the only one of ${pool.length} place(s) of that exact name within ${(reach / 1000).toFixed(0)} km of the record's ${where} whose answer's circle reaches it${over} ${rule}` };
   }
   if (fits.length > 1) return { ambiguous: `"${query.name}": ${fits.length} places of that name give points whose circles reach the record's ${where}: ${fits.map(describe).join('; ')} ${rule}` };

@@ -182,6 +182,23 @@ describe('places sharing a name are judged by where the answer lands ([CHOICE] n
     expect(locate(store, { locality: '13 km E of San Telmo', countryCode: 'QV', county: 'Rio Fundo', options: { namesakesJudgedBy: 'reference place' } }).status).toBe('georeferenced');
   });
 
+  it('judges namesakes that both lie outside the county the same way', () => {
+    // Bellevue: a hamlet in Serrana (qv-0052) and a village in Haut-Levant (qv-0075), neither in Rio Fundo.
+    const result = locate(store, { locality: '10 km SW of Bellevue', countryCode: 'QV', county: 'Rio Fundo' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toContain('qv-0052');
+  });
+
+  it('reads the record\'s own county as context, not as the place measured from', () => {
+    // Rio Fundo is a county (qv-0009), a town in it (qv-0061) and a river (qv-0161): with county Rio Fundo
+    // the county leaves the choice; the town and the river still make the text ambiguous.
+    const result = locate(store, { locality: '10 km W of Rio Fundo', countryCode: 'QV', county: 'Rio Fundo' });
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toMatch(/qv-0061/);
+    expect(result.reason).toMatch(/qv-0161/);
+    expect(result.reason).not.toMatch(/qv-0009/);
+  });
+
   it('prefers the exact name outside the county to a near spelling inside it when the answer reaches the county', () => {
     // Las Dunas (qv-0126, Tres Cruces) written exactly; Las Tunas (qv-0020) lies in Alisos, one letter off.
     const result = locate(store, { locality: '19 km NW of Las Dunas', countryCode: 'QV', county: 'Alisos' });
