@@ -63,9 +63,20 @@ export const METHOD_DEFAULTS = {
    * A reference place loaded only outside the record's stated county or state is accepted when it lies
    * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
    * collector measured from is often just across a county line. Common practice, no source; not
-   * measured on the real records (their gazetteer holds no unit polygons).
+   * measured on the real records (their gazetteer holds no unit polygons). The text's longest offset
+   * (its distance and δ) is added: the point, not the town, must lie in the unit (src/locate/namesakes-by-result.ts).
    */
   justOutsideMeters: 25000,
+  /**
+   * Places sharing a name in a one-place offset text ("10 km N of Santa Rosa", one Santa Rosa in the
+   * record's county, another across the line) [CHOICE]: 'result' georeferences each (the exact names
+   * kept and those the county's wall dropped within justOutsideMeters + the offset) and takes the one
+   * whose circle reaches the record's stated unit; several reaching it make the text ambiguous; none
+   * leaves the usual choice. An exact name so beats a near spelling unless its circle misses the unit.
+   * 'reference place' judges by where the town lies only. The published method leaves the choice of
+   * feature to the georeferencer; our choice, no source; measured on the clean labels (README, "On clean labels").
+   */
+  namesakesJudgedBy: 'result' as 'result' | 'reference place',
   /**
    * The text's generic word says a river, lake, mountain, farm, road or park ("Rio X", "Serra Y") and the
    * gazetteer holds only a settlement whose own name begins or ends with a word of that kind [CHOICE]:

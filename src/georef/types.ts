@@ -38,8 +38,10 @@ export interface MethodOptions {
   unusedFeatureMeters?: number;
   /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
   unusedFeatureRule?: 'widen' | 'decline';
-  /** How far outside the record's stated unit a reference place may lie and still be taken; default 25 km ([CHOICE]). */
+  /** How far outside the record's stated unit a reference place may lie and still be taken, plus the text's offset; default 25 km ([CHOICE]). */
   justOutsideMeters?: number;
+  /** Places sharing a name in an offset text: judged by where each one's 'result' lands (default) or only by where the 'reference place' lies ([CHOICE]). */
+  namesakesJudgedBy?: 'result' | 'reference place';
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
   settlementNamedLikeFeature?: 'settlement' | 'decline';
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */

@@ -21,9 +21,11 @@ import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './othe
 import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
+import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
+import { foldName } from '../match/fold.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -250,8 +252,10 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   // A near spelling, a place just outside the stated units, or one of several taken.
   let guessed = false;
   for (const name of interpretation.features) {
-    const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
-    candidates.push(...found);
+    const all = finder.findCandidates(featureQuery(name, context, interpretation.type));
+    candidates.push(...all);
+    const { found, remark: ownUnit } = withoutOwnUnit(all, context);
+    if (ownUnit) matchRemarks.push(ownUnit);
     const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
     if (chosen) {
       readings.push([chosen.feature]);
@@ -259,9 +263,24 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       continue;
     }
     const choice = chooseCandidate(found);
+    // The point, not the town, must lie in the stated unit: a town may lie as far out as the offset reaches.
+    const reach = reachMeters(interpretation, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+    if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && choice.kind !== 'weak') {
+      const taken = choice.kind === 'one' ? [choice.candidate] : choice.kind === 'several' ? choice.candidates : [];
+      const wallUnit = context.county || context.stateProvince || context.municipality ? findBoundingUnit(finder, context, 'stateProvince') : undefined;
+      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation.type), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
+      if (byResult && 'ambiguous' in byResult) return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: byResult.ambiguous } };
+      if (byResult) {
+        if (!taken.includes(byResult.candidate)) candidates.push(byResult.candidate);
+        readings.push([byResult.candidate.feature]);
+        matchRemarks.push(byResult.remark);
+        guessed ||= !taken.includes(byResult.candidate);
+        continue;
+      }
+    }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach);
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
@@ -307,6 +326,21 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
 /** True when the text is one place's name and nothing else: no offset, no second name, no other clause to check it against. */
 function lonelyName(interpretation: Interpretation): boolean {
   return interpretation.type === 'named-place' && interpretation.features.length === 1 && interpretation.otherClauses.length === 0;
+}
+
+/**
+ * A name shared by the record's own county, state or municipality and other features ("10 km N of Rio
+ * Fundo" in county Rio Fundo, which holds the town Rio Fundo): the unit is the record's context, not the
+ * place measured from, so it is left out, and the remark says so. Kept when it is the only candidate.
+ * @example withoutOwnUnit([countyRioFundo, townRioFundo], { county: 'Rio Fundo' }).found // [townRioFundo]
+ */
+function withoutOwnUnit(found: Candidate[], context: AdministrativeContext): { found: Candidate[]; remark?: string } {
+  const own = (c: Candidate) => ADMINISTRATIVE_LEVELS.some((l) => l.featureType === c.feature.featureType && !!context[l.field] && foldName(context[l.field]!) === foldName(c.feature.name));
+  const units = found.filter((c) => c.score >= 1 && own(c));
+  const rest = found.filter((c) => !units.includes(c));
+  if (units.length === 0 || !rest.some((c) => c.score >= 1)) return { found };
+  const unit = units[0]!.feature;
+  return { found: rest, remark: `"${unit.name}" is also the record's ${unit.featureType}: read as its context, not as the place measured from` };
 }
 
 /**

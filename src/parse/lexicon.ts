@@ -34,6 +34,8 @@ export const LEADING_PREPOSITIONS = set('a at');
 export const FROM_WORDS = set("of from off de del desde depuis do da dos das du des d'");
 /** FROM_WORDS that never stand inside a name ("from", "desde"), unlike "de", "do", "du". */
 export const STRONG_FROM_WORDS = set('from off desde depuis');
+/** A contracted "of the" that joins a line's capitalised generic word to the rest of its name: "Estrada do Sul", "Camino del Norte", "Sentier des Crêtes". */
+export const NAME_GENITIVES = set('do da dos das du des del');
 
 /** Words that introduce the feature a bearing points toward (the heading is reversed, docs/method.md §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');

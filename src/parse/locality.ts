@@ -145,11 +145,14 @@ function modeOfNoun(n: string | undefined): PathQualifier['mode'] | undefined {
  */
 function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
   if (!stopAtFrom) return s.tokens.length;
+  // "Estrada do Sul de X", "Sentier des Crêtes de X": the "do"/"des" after the line's capitalised generic
+  // word is part of its name, and so is the word after it, even a heading ("Sul"); the next "de" is "from".
+  const joins = (k: number) => k > i && L.NAME_GENITIVES.has(s.tokens[k]!.norm) && !!modeOfNoun(norm(s, k - 1)) && /^\p{Lu}/u.test(s.tokens[k - 1]!.text);
   let stop = -1;
   for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.STRONG_FROM_WORDS.has(s.tokens[k]!.norm)) stop = k;
-  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '')) stop = k;
+  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') && !joins(k)) stop = k;
   let k = i;
-  while (k < s.tokens.length && k !== stop && !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES))) k++;
+  while (k < s.tokens.length && k !== stop && (joins(k - 1) || !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
   return k;
 }
 
