@@ -138,10 +138,12 @@ export class CandidateMatcher {
   private exactCandidates(name: string): Candidate[] {
     const found = new Map<number, Candidate>();
     for (const variant of nameVariants(name)) {
-      for (const id of this.index.featureIdsByName(variant.key)) {
-        if (found.has(id)) continue;
-        const feature = this.index.feature(id);
-        if (feature === null) continue;
+      const ids = this.index.featureIdsByName(variant.key).filter((id) => !found.has(id));
+      // One statement for a reading's features: a common name ('San') has hundreds.
+      const features = ids.length === 0 ? new Map<number, Feature>() : this.index.features(ids);
+      for (const id of ids) {
+        const feature = features.get(id);
+        if (feature === undefined) continue;
         const stored = storedReading(feature, variant.key);
         const which = stored.written === feature.name ? 'name' : `alternate name '${stored.written}'`;
         const changes = [variant.change && `${variant.change} in the query`, stored.change && `${stored.change} in the gazetteer`].filter(Boolean);
@@ -164,7 +166,7 @@ export class CandidateMatcher {
    * query (the typing error made another stored word, say) is the lookup repeated with every word's
    * neighbours (`everyNeighbour`).
    */
-  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, everyNeighbour = false): Candidate[] {
+  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, everyNeighbour = false, foldedNames = new Map<number, string[]>()): Candidate[] {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
@@ -217,13 +219,13 @@ export class CandidateMatcher {
       .sort((a, b) => b.weight - a.weight || a.repeat - b.repeat)
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
-    const closest = this.closestNames(shortlist.map(([id]) => id), folded);
+    const closest = this.closestNames(shortlist.map(([id]) => id), folded, foldedNames);
     const neighboursLeftUnread = !everyNeighbour && matched.some(({ edits, index }) => {
       const length = queryTokens[index].length;
       return length >= MIN_FUZZY_TOKEN_LENGTH && (edits === 0 || (edits === 1 && queryTokens.length > 1 && length >= MIN_TWO_EDIT_LENGTH));
     });
     if (neighboursLeftUnread && Math.min(...[...closest.values()].map((entry) => entry.edits)) >= RETRY_NAME_EDITS) {
-      return this.fuzzyCandidates(name, context, poolSize, true);
+      return this.fuzzyCandidates(name, context, poolSize, true, foldedNames);
     }
     const seen = new Map<string, number>();
     const best = shortlist
@@ -311,14 +313,21 @@ export class CandidateMatcher {
     return [...found.values()];
   }
 
-  /** For each feature, its folded name or alternate name closest to a folded query, with the edits. */
-  private closestNames(ids: number[], foldedQuery: string): Map<number, { edits: number; key: string }> {
+  /**
+   * For each feature, its folded name or alternate name closest to a folded query, with the edits.
+   * `foldedNames` keeps the folded names read during one lookup: a repeated lookup (every neighbour)
+   * shortlists mostly the same features.
+   */
+  private closestNames(ids: number[], foldedQuery: string, foldedNames: Map<number, string[]>): Map<number, { edits: number; key: string }> {
+    const unread = ids.filter((id) => !foldedNames.has(id));
+    if (unread.length > 0) for (const { id, names } of this.index.namesOf(unread)) foldedNames.set(id, names.map(foldName));
     const limit = Math.min(MAX_NAME_EDITS, Math.max(2, foldedQuery.length >> 1));
     const closest = new Map<number, { edits: number; key: string }>();
-    for (const { id, names } of this.index.namesOf(ids)) {
+    for (const id of ids) {
+      const keys = foldedNames.get(id);
+      if (keys === undefined) continue;
       let best = { edits: Infinity, key: '' };
-      for (const written of names) {
-        const key = foldName(written);
+      for (const key of keys) {
         const edits = editDistance(foldedQuery, key, limit);
         if (edits < best.edits) best = { edits, key };
       }
