@@ -21,12 +21,12 @@ import { GENERALISATION_TERMS, generaliseRecord, type WithheldTerm } from '../re
 import { sensitiveGeneralisation } from './sensitive-records.ts';
 import type { GeneralisationSettings } from '../georef/generalisation.ts';
 import type { Generalisation } from '../georef/generalisation.ts';
-import { checkCoordinates } from '../record/coordinate-check.ts';
+import { checkCoordinates, hasCoordinates, isFlagged } from '../record/coordinate-check.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
 import { VERSION } from '../version.ts';
 import type { BatchSettings } from './georeference-group.ts';
-import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
+import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferencedGroup, type GeoreferenceTask } from './georeference-task.ts';
 import { fileHead, notText } from '../store/file-kind.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
 import { originalLine } from './original-line.ts';
@@ -345,10 +345,14 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
   // A walk along the rowid from the last chunk: the (job_id, key) index would sort the whole job each time.
   const next = jobs.prepare('SELECT id, request FROM batch_locality NOT INDEXED WHERE id > ? AND job_id = ? AND result IS NULL ORDER BY id LIMIT ?');
   const setResult = jobs.prepare('UPDATE batch_locality SET result = ? WHERE id = ?');
+  const setPlainRow = jobs.prepare('INSERT OR REPLACE INTO batch_plain_row (id, appended, status, flagged) VALUES (?, ?, ?, ?)');
   const total = job.distinctTotal ?? 0;
   let distinctDone = (jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ? AND result IS NOT NULL').get(job.id) as { n: number }).n;
-  const save = jobs.transaction((results: { id: number; result: RenderedGroup }[]) => {
-    for (const r of results) setResult.run(JSON.stringify(r.result), r.id);
+  const save = jobs.transaction((results: GeoreferencedGroup[]) => {
+    for (const r of results) {
+      setResult.run(JSON.stringify(r.result), r.id);
+      setPlainRow.run(r.id, Buffer.from(r.appendedWithoutCoordinates), r.result.status, isFlagged(r.result.flags ?? []) ? 1 : 0);
+    }
     distinctDone += results.length;
     updateJob(jobs, job.id, { distinctDone });
   });
@@ -395,11 +399,11 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
   const results = resultLookup(jobs, job.id);
+  const plainRows = plainRowLookup(jobs, job.id);
   const { generalise } = JSON.parse(job.settings) as { generalise?: GeneralisationSettings };
   const withhold = jobs.prepare('INSERT OR REPLACE INTO batch_withheld (job_id, row_number, precise) VALUES (?, ?, ?)');
   let generalisationOf: ((fields: readonly string[]) => Generalisation | undefined) | undefined;
-  const writeText = (text: string) => {
-    const bytes = Buffer.from(text, 'utf8');
+  const writeBytes = (bytes: Buffer) => {
     // writeSync may write less than asked (a disk filling up); only bytes really written count.
     for (let written = 0; written < bytes.length; ) written += writeSync(fd, bytes, written, bytes.length - written, position + written);
     position += bytes.length;
@@ -410,10 +414,11 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
     let columns: ColumnIndex | undefined;
     let headerLength = 0;
     let rowIndex = 0;
-    let buffer: string[] = [];
+    // UTF-8 bytes, not strings: a plain row's appended fields go from the job database to the file undecoded.
+    let buffer: Buffer[] = [];
     const flush = () => {
       if (rowIndex === rowsDone) return;
-      writeText(buffer.join(''));
+      writeBytes(Buffer.concat(buffer));
       rowsDone = rowIndex;
       buffer = [];
       updateJob(jobs, job.id, { rowsDone, outputBytes: position, tallies });
@@ -426,7 +431,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         if (position === 0) {
           const appended = csvLine(outputHeader(record.fields, generalise ? GENERALISATION_TERMS : []).slice(headerLength), delimiter);
           const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
-          writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
+          writeBytes(Buffer.from(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine)));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
         continue;
@@ -434,13 +439,23 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
       if (++rowIndex <= rowsDone) continue;
       const key = record.problem ? undefined : groupOf(record.fields, columns).key;
       const inPart = job.partCount === null || partOfKey(key, job.partCount) === job.partIndex;
-      let group = key === undefined || !inPart ? undefined : results(key);
-      while (inPart && key !== undefined && !group) {
+      // A row giving no coordinates (and not generalised) appends its group's plain row as stored; only the others need the whole result.
+      const plain = !generalisationOf && !record.problem && !hasCoordinates(fieldAt(record, columns.decimalLatitude), fieldAt(record, columns.decimalLongitude));
+      const lookup = (k: string) => (plain ? plainRows(k) : undefined) ?? results(k);
+      let found = key === undefined || !inPart ? undefined : lookup(key);
+      while (inPart && key !== undefined && !found) {
         if (ready.finished) throw new Error(`batch job ${job.id}: no result for the locality ${key}${ready.failed ? ` (${errorMessage(ready.failed)})` : ''}`);
         await ready.next();
-        group = results(key);
+        found = lookup(key);
       }
-      if (inPart) {
+      if (found !== undefined && 'appended' in found) {
+        count(tallies, found.status);
+        if (found.flagged) count(tallies, 'flagged');
+        const originals = `${originalLine(record, headerLength, delimiter)}${delimiter}`;
+        if (job.partCount === null) buffer.push(Buffer.from(originals), found.appended, LINE_END_BYTES);
+        else buffer.push(Buffer.from(partRowFrame(rowIndex, `${originals}${found.appended.toString('utf8')}${LINE_END}`)));
+      } else if (inPart) {
+        let group = found;
         let extra: string[] | undefined;
         if (generalisationOf) {
           const asked = record.problem ? undefined : generalisationOf(record.fields);
@@ -450,7 +465,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
           extra = generalised?.terms ?? ['', ''];
         }
         const line = outputRow(record, headerLength, columns, context, group, tallies, delimiter, extra);
-        buffer.push(job.partCount === null ? line : partRowFrame(rowIndex, line));
+        buffer.push(Buffer.from(job.partCount === null ? line : partRowFrame(rowIndex, line)));
       }
       if (rowIndex - rowsDone >= ROWS_PER_CHUNK) {
         flush();
@@ -488,8 +503,28 @@ function resultLookup(jobs: Database.Database, jobId: string): (key: string) => 
   };
 }
 
+/** What a row giving no coordinates of its own appends (UTF-8), with its status and whether it counts as flagged. */
+interface PlainRow {
+  appended: Buffer;
+  status: string;
+  flagged: boolean;
+}
+
+/**
+ * Plain rows by key, from the job; undefined while the locality is not georeferenced yet, or when its
+ * job was stored before plain rows were (the whole result then serves).
+ */
+function plainRowLookup(jobs: Database.Database, jobId: string): (key: string) => PlainRow | undefined {
+  const select = jobs.prepare('SELECT p.appended, p.status, p.flagged FROM batch_locality l JOIN batch_plain_row p ON p.id = l.id WHERE l.job_id = ? AND l.key = ?');
+  return (key) => {
+    const row = select.get(jobId, key) as { appended: Buffer; status: string; flagged: number } | undefined;
+    return row && { appended: row.appended, status: row.status, flagged: row.flagged === 1 };
+  };
+}
+
 /** RFC 4180 line ends (CRLF) for the output. */
 const LINE_END = '\r\n';
+const LINE_END_BYTES = Buffer.from(LINE_END);
 
 function errorMessage(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
@@ -539,12 +574,16 @@ function outputRow(
     count(tallies, unreadable.status);
     return `${originals}${delimiter}${appendedLine(unreadable, [], [], delimiter, extra)}${LINE_END}`;
   }
-  const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
-  const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
+  const check = checkCoordinates(fieldAt(record, columns.decimalLatitude), fieldAt(record, columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
   const flags = [...(group.flags ?? []), ...check.flags];
-  if (flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
+  if (isFlagged(flags)) count(tallies, 'flagged');
   return `${originals}${delimiter}${appendedLine(group, check.remarks, flags, delimiter, extra)}${LINE_END}`;
+}
+
+/** A record's field by column index; '' for a column the input lacks or the row leaves out. */
+function fieldAt(record: InputRecord, index: number | undefined): string {
+  return index === undefined ? '' : (record.fields[index] ?? '');
 }
 
 function count(tallies: Record<string, number>, key: string): void {
