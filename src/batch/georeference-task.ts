@@ -4,7 +4,7 @@
  */
 import { openGazetteer, type OpenOptions } from '../store/gazetteer-store.ts';
 import type { LocateRequest } from '../locate/locate.ts';
-import { appendedLine, renderGroup, type Delimiter, type RenderedGroup } from '../output/csv.ts';
+import { renderGroup, type Delimiter, type RenderedGroup } from '../output/csv.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { georeferenceGroup, type BatchSettings } from './georeference-group.ts';
 
@@ -29,14 +29,7 @@ let opened: { dbPath: string; store: ReturnType<typeof openGazetteer> } | undefi
  * Georeference every group of the task, in order, each rendered for the writer.
  * @example georeferenceChunk({ dbPath: 'g.sqlite', groups: [{ id: 1, request: { locality: 'Alba' } }], settings, context, delimiter: ',' })
  */
-/** A group georeferenced: its rendered result, and what a row giving no coordinates of its own appends (the same for every such row). */
-export interface GeoreferencedGroup {
-  id: number;
-  result: RenderedGroup;
-  appendedWithoutCoordinates: string;
-}
-
-export default function georeferenceChunk(task: GeoreferenceTask): GeoreferencedGroup[] {
+export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: RenderedGroup }[] {
   if (opened?.dbPath !== task.dbPath) {
     opened?.store.close();
     opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, BATCH_STORE_OPTIONS) };
@@ -44,9 +37,7 @@ export default function georeferenceChunk(task: GeoreferenceTask): Georeferenced
   const store = opened.store;
   return task.groups.map(({ id, request }) => {
     const group = georeferenceGroup(store, request, task.settings, task.context);
-    const result = renderGroup(group, task.delimiter, group.localityType);
-    // Formatted here, once for the group, so that the writing thread copies it into each such row.
-    return { id, result, appendedWithoutCoordinates: appendedLine(result, [], result.flags ?? [], task.delimiter) };
+    return { id, result: renderGroup(group, task.delimiter, group.localityType) };
   });
 }
 

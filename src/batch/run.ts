@@ -26,7 +26,7 @@ import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
 import { VERSION } from '../version.ts';
 import type { BatchSettings } from './georeference-group.ts';
-import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferencedGroup, type GeoreferenceTask } from './georeference-task.ts';
+import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { fileHead, notText } from '../store/file-kind.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
 import { originalLine } from './original-line.ts';
@@ -134,6 +134,12 @@ const IN_PROCESS_LIMIT = 2000;
 const WORKER_HEAP_MB = 128;
 /** Group results kept parsed in memory while writing [CHOICE]. */
 const RESULT_CACHE_SIZE = 2000;
+/**
+ * Bytes of plain rows (see PlainRows) kept in memory while writing [CHOICE]: at 200,000 rows of 39,209
+ * distinct localities (bench:batch) a plain row is about 3.4 kB, so this holds some 19,000 of them and the
+ * job's peak RSS stays under its 500 MB target however many localities a file has.
+ */
+const PLAIN_ROW_BUDGET = 40 * 2 ** 20;
 
 /**
  * Start (or resume) a batch job. Resolves once the job is stored, with its id and a promise of the
@@ -281,10 +287,11 @@ async function runJob(jobs: Database.Database, started: BatchJob, format: InputF
   const pending = read.distinctDone < (read.distinctTotal ?? 0);
   updateJob(jobs, read.id, { state: pending ? 'georeferencing' : 'writing', error: null });
   const results = new ResultSignal();
+  const plainRows = new PlainRows(delimiter);
   const georeferencing = pending
-    ? georeferenceGroups(jobs, read, options, results).then(() => results.finish(), (error: unknown) => results.finish(error))
+    ? georeferenceGroups(jobs, read, options, results, plainRows).then(() => results.finish(), (error: unknown) => results.finish(error))
     : results.finish();
-  const writing = writeRows(jobs, read, format, delimiter, options, results);
+  const writing = writeRows(jobs, read, format, delimiter, options, results, plainRows);
   await Promise.all([georeferencing, writing]);
   const job = loadJob(jobs, started.id);
   await deliver(job, options);
@@ -339,27 +346,30 @@ function recordContextOf(job: BatchJob): RecordContext {
 }
 
 /** Phase 2: each distinct locality not yet done, in chunks, over worker threads; each chunk committed as it comes back. */
-async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions, results: ResultSignal): Promise<void> {
+async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions, results: ResultSignal, plainRows: PlainRows): Promise<void> {
   const settings = JSON.parse(job.settings) as BatchSettings;
   const context = recordContextOf(job);
   // A walk along the rowid from the last chunk: the (job_id, key) index would sort the whole job each time.
-  const next = jobs.prepare('SELECT id, request FROM batch_locality NOT INDEXED WHERE id > ? AND job_id = ? AND result IS NULL ORDER BY id LIMIT ?');
+  const next = jobs.prepare('SELECT id, key, request FROM batch_locality NOT INDEXED WHERE id > ? AND job_id = ? AND result IS NULL ORDER BY id LIMIT ?');
   const setResult = jobs.prepare('UPDATE batch_locality SET result = ? WHERE id = ?');
-  const setPlainRow = jobs.prepare('INSERT OR REPLACE INTO batch_plain_row (id, appended, status, flagged) VALUES (?, ?, ?, ?)');
+  /** The keys of the localities out with the workers, by id. */
+  const keys = new Map<number, string>();
   const total = job.distinctTotal ?? 0;
   let distinctDone = (jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ? AND result IS NOT NULL').get(job.id) as { n: number }).n;
-  const save = jobs.transaction((results: GeoreferencedGroup[]) => {
+  const save = jobs.transaction((results: { id: number; result: RenderedGroup }[]) => {
     for (const r of results) {
       setResult.run(JSON.stringify(r.result), r.id);
-      setPlainRow.run(r.id, Buffer.from(r.appendedWithoutCoordinates), r.result.status, isFlagged(r.result.flags ?? []) ? 1 : 0);
+      plainRows.keep(keys.get(r.id)!, r.result);
+      keys.delete(r.id);
     }
     distinctDone += results.length;
     updateJob(jobs, job.id, { distinctDone });
   });
   let cursor = 0;
   const nextTask = (): GeoreferenceTask | undefined => {
-    const rows = next.all(cursor, job.id, GROUPS_PER_CHUNK) as { id: number; request: string }[];
+    const rows = next.all(cursor, job.id, GROUPS_PER_CHUNK) as { id: number; key: string; request: string }[];
     if (rows.length === 0) return undefined;
+    for (const r of rows) keys.set(r.id, r.key);
     cursor = rows[rows.length - 1].id;
     return { dbPath: job.gazetteerPath, groups: rows.map((r) => ({ id: r.id, request: JSON.parse(r.request) as LocateRequest })), settings, context, delimiter: job.delimiter as Delimiter };
   };
@@ -390,7 +400,9 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
  * chunks. A part writes only its own rows, each framed with its row number (see partition.ts); its
  * `rowsDone` counts the input rows passed, so that a resumed part starts after the same input row.
  */
-async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions, ready: ResultSignal): Promise<void> {
+async function writeRows(
+  jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions, ready: ResultSignal, plainRows: PlainRows,
+): Promise<void> {
   if (job.outputBytes > 0 && !existsSync(job.partialPath) && job.outputPath !== '-' && existsSync(job.outputPath)) return; // renamed before the crash
   const restart = job.outputBytes > 0 && !existsSync(job.partialPath);
   let position = restart ? 0 : job.outputBytes;
@@ -399,7 +411,6 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
   const results = resultLookup(jobs, job.id);
-  const plainRows = plainRowLookup(jobs, job.id);
   const { generalise } = JSON.parse(job.settings) as { generalise?: GeneralisationSettings };
   const withhold = jobs.prepare('INSERT OR REPLACE INTO batch_withheld (job_id, row_number, precise) VALUES (?, ?, ?)');
   let generalisationOf: ((fields: readonly string[]) => Generalisation | undefined) | undefined;
@@ -441,13 +452,14 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
       const inPart = job.partCount === null || partOfKey(key, job.partCount) === job.partIndex;
       // A row giving no coordinates (and not generalised) appends its group's plain row as stored; only the others need the whole result.
       const plain = !generalisationOf && !record.problem && !hasCoordinates(fieldAt(record, columns.decimalLatitude), fieldAt(record, columns.decimalLongitude));
-      const lookup = (k: string) => (plain ? plainRows(k) : undefined) ?? results(k);
+      const lookup = (k: string) => (plain ? plainRows.get(k) : undefined) ?? results(k);
       let found = key === undefined || !inPart ? undefined : lookup(key);
       while (inPart && key !== undefined && !found) {
         if (ready.finished) throw new Error(`batch job ${job.id}: no result for the locality ${key}${ready.failed ? ` (${errorMessage(ready.failed)})` : ''}`);
         await ready.next();
         found = lookup(key);
       }
+      if (plain && found !== undefined && !('appended' in found)) found = plainRows.keep(key!, found);
       if (found !== undefined && 'appended' in found) {
         count(tallies, found.status);
         if (found.flagged) count(tallies, 'flagged');
@@ -511,15 +523,38 @@ interface PlainRow {
 }
 
 /**
- * Plain rows by key, from the job; undefined while the locality is not georeferenced yet, or when its
- * job was stored before plain rows were (the whole result then serves).
+ * Plain rows by locality key: formatted once, from the group's result, and kept until PLAIN_ROW_BUDGET
+ * bytes are held; the localities after that are read from the job again each time (their parsed results
+ * partly kept, see resultLookup), so that memory stays bounded however many localities a file has.
  */
-function plainRowLookup(jobs: Database.Database, jobId: string): (key: string) => PlainRow | undefined {
-  const select = jobs.prepare('SELECT p.appended, p.status, p.flagged FROM batch_locality l JOIN batch_plain_row p ON p.id = l.id WHERE l.job_id = ? AND l.key = ?');
-  return (key) => {
-    const row = select.get(jobId, key) as { appended: Buffer; status: string; flagged: number } | undefined;
-    return row && { appended: row.appended, status: row.status, flagged: row.flagged === 1 };
-  };
+class PlainRows {
+  private readonly held = new Map<string, PlainRow>();
+  private bytes = 0;
+
+  constructor(private readonly delimiter: Delimiter) {}
+
+  get(key: string): PlainRow | undefined {
+    return this.held.get(key);
+  }
+
+  /**
+   * The plain row of a locality's group, kept when the budget allows.
+   * @example plainRows.keep(key, group).appended.toString() // '-45.5000,-131.0000,…,requires verification,'
+   */
+  keep(key: string, group: RenderedGroup): PlainRow {
+    const kept = this.held.get(key);
+    if (kept) return kept;
+    const text = appendedLine(group, [], group.flags ?? [], this.delimiter);
+    // A buffer of its own: Buffer.from would cut a small one from a shared 8 kB slab, which it would keep alive whole.
+    const appended = Buffer.allocUnsafeSlow(Buffer.byteLength(text));
+    appended.write(text);
+    const row = { appended, status: group.status, flagged: isFlagged(group.flags ?? []) };
+    if (this.bytes + row.appended.length <= PLAIN_ROW_BUDGET) {
+      this.held.set(key, row);
+      this.bytes += row.appended.length;
+    }
+    return row;
+  }
 }
 
 /** RFC 4180 line ends (CRLF) for the output. */

@@ -82,12 +82,6 @@ CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
 );
 CREATE UNIQUE INDEX IF NOT EXISTS batch_locality_key ON batch_locality (job_id, key);
--- What a row of the locality batch_locality.id giving no coordinates of its own appends (UTF-8), its status and whether
--- it counts as flagged: the writer copies these rows from here. A table apart, so that a row fits one page and
--- is read without the whole result (a job stored before this table has none; its results then serve).
-CREATE TABLE IF NOT EXISTS batch_plain_row (
-  id INTEGER PRIMARY KEY, appended BLOB NOT NULL, status TEXT NOT NULL, flagged INTEGER NOT NULL
-);
 -- The precise georeference of each row a job generalised (for a sensitive taxon): kept here, in the private
 -- job store, and never written to the shared output. precise: JSON of the Darwin Core fields withheld.
 CREATE TABLE IF NOT EXISTS batch_withheld (
@@ -239,7 +233,6 @@ export function dropLocalityResults(db: Database.Database, jobId: string): void 
     db.prepare(
       "INSERT OR REPLACE INTO batch_locality_type (job_id, key, locality_type) SELECT job_id, key, json_extract(result, '$.localityType') FROM batch_locality WHERE job_id = ? AND json_extract(result, '$.localityType') IS NOT NULL",
     ).run(jobId);
-    db.prepare('DELETE FROM batch_plain_row WHERE id IN (SELECT id FROM batch_locality WHERE job_id = ?)').run(jobId);
     db.prepare('DELETE FROM batch_locality WHERE job_id = ?').run(jobId);
   })();
 }
