@@ -52,4 +52,20 @@ export const METHOD_DEFAULTS = {
    * measured on the real records (their gazetteer holds no unit polygons).
    */
   justOutsideMeters: 25000,
+  /**
+   * The text's generic word says a river, lake, mountain, farm, road or park ("Rio X", "Serra Y") and the
+   * gazetteer holds only a settlement whose own name begins or ends with a word of that kind [CHOICE]:
+   * 'settlement' takes the settlement and says so in the remarks; 'decline' gives no georeference. A
+   * settlement that only shares the rest of the name ("Fazenda São Borja" and the town São Borja) is
+   * declined either way. Chosen by measurement on the real-record set (README "On real records").
+   */
+  settlementNamedLikeFeature: 'settlement',
+  /**
+   * A name matching several features of one type in one state or province, all within this distance of
+   * one another (a gazetteer holding one town twice, or two hamlets of one name side by side), is
+   * answered with one circle covering them all, as the cover option does, with the remark [CHOICE];
+   * farther apart the name stays ambiguous. 0 turns it off. Chosen by measurement on the real-record set
+   * (README "On real records").
+   */
+  namesakesWithinMeters: 30000,
 } as const satisfies Record<string, number | string>;

@@ -40,6 +40,10 @@ export interface MethodOptions {
   unusedFeatureRule?: 'widen' | 'decline';
   /** How far outside the record's stated unit a reference place may lie and still be taken; default 25 km ([CHOICE]). */
   justOutsideMeters?: number;
+  /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
+  settlementNamedLikeFeature?: 'settlement' | 'decline';
+  /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
+  namesakesWithinMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

@@ -8,6 +8,7 @@ import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
 import { countryCodeForName } from '../match/context.ts';
 import { foldName } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
+import { readingOf } from './other-clauses.ts';
 
 /**
  * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
@@ -41,6 +42,38 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
   const code = context.countryCode?.trim().toUpperCase();
   if (code && countryCodeForName(written) === code) return { name: written, level: 'country', written };
   return null;
+}
+
+/**
+ * "Brazil, Bahia, Ilhéus" with the record's country and state: a clause that names one of the record's own
+ * units, followed by other clauses, heads a hierarchy written with commas; it is context, and the next clause
+ * is the reading (each such head noted). A unit named alone is left for `unitNamed`.
+ * @example pastUnitHeads(parseLocality('Isla Verdemar, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
+ */
+export function pastUnitHeads(interpretation: Interpretation, context: AdministrativeContext): Interpretation {
+  let reading = interpretation;
+  for (let unit = unitNamed(reading, context); unit && reading.type === 'named-place' && reading.otherClauses.length > 0; unit = unitNamed(reading, context)) {
+    const next = readingOf(reading, reading.otherClauses[0]!);
+    reading = { ...next, notes: [...next.notes, `"${unit.written}" names the record's ${LEVEL_WORDS[unit.level]}: read as context, the clause after it used`] };
+  }
+  return reading;
+}
+
+/**
+ * Towns the text's own administrative clauses name, most specific first, to stand in for a place the
+ * gazetteers lack: the municipality's and the county's towns (a municipality or, on labels in English, a
+ * county usually bears its seat's name), and the head of a hierarchy written into the text ("Alisos:
+ * Fazenda X") when it is no country name in the four languages.
+ * @example standInsNamed(parseLocality('Mun. Alisos: Fazenda Nunca Vista')) // [{ name: 'Alisos', what: 'the town of the municipality the text names' }]
+ */
+export function standInsNamed(interpretation: Interpretation): { name: string; what: string }[] {
+  const { municipality, county, country } = interpretation.administrative;
+  const named = [
+    municipality && { name: municipality, what: 'the town of the municipality the text names' },
+    county && { name: county, what: 'the town of the county the text names' },
+    country && countryCodeForName(country) === null && { name: country, what: 'the place the text writes at the head of its hierarchy' },
+  ];
+  return named.filter((n): n is { name: string; what: string } => !!n && !interpretation.features.includes(n.name));
 }
 
 /** Feature types a unit of each level is stored under in a gazetteer. */

@@ -4,6 +4,7 @@
  */
 import type { Feature } from '../match/types.ts';
 import type { FeatureKind } from '../parse/types.ts';
+import { featureKindOf } from '../parse/index.ts';
 
 /** Gazetteer feature types that are settlements, the ones a generic word of another kind rules out. */
 const SETTLEMENTS = new Set(['city', 'town', 'village', 'hamlet']);
@@ -19,14 +20,27 @@ const KIND_WORDS: Readonly<Record<FeatureKind, string>> = {
   locality: 'a locality',
 };
 
+/** What the text's generic word does to a feature: nothing (null), a reason to decline, or a remark on taking it. */
+export type KindVerdict = null | { decline: string } | { remark: string };
+
 /**
- * Why `feature` cannot be the place the text names, or null: the text's generic word says the place is
- * a farm, water, a stream, a mountain, a road or a park, and the gazetteer's feature is a settlement.
- * @example kindMismatch('farm', 'Fazenda São Borja', saoBorjaTown)
- *   // '"Fazenda São Borja" names a farm or estate; the gazetteer's "São Borja" (town) is not it …'
+ * Whether `feature` can be the place the text names. The text's generic word says the place is a farm,
+ * water, a stream, a mountain, a road or a park, and the gazetteer's feature is a settlement: declined
+ * when the settlement's own name lacks that word (it only shares the rest of the name), and, by the
+ * [CHOICE] `settlementNamedLikeFeature`, taken with a remark when the settlement's own name begins or
+ * ends with a word of the same kind ("Rio de Janeiro", "Serra Grande"): a label naming a whole place
+ * the gazetteer holds only as a town most often means the town.
+ * @example judgeKind('farm', 'Fazenda São Borja', saoBorjaTown, 'settlement')
+ *   // { decline: '"Fazenda São Borja" names a farm or estate; the gazetteer's "São Borja" (town, …) is a settlement …' }
+ * @example judgeKind('stream', 'Rio Fundo', rioFundoTown, 'settlement')
+ *   // { remark: '"Rio Fundo" may name a river or stream; …taken as the town [CHOICE settlementNamedLikeFeature …]' }
  */
-export function kindMismatch(kind: FeatureKind | undefined, written: string, feature: Feature): string | null {
+export function judgeKind(kind: FeatureKind | undefined, written: string, feature: Feature, rule: 'settlement' | 'decline'): KindVerdict {
   if (!kind || kind === 'populated-place' || kind === 'locality') return null;
   if (!SETTLEMENTS.has(feature.featureType ?? '')) return null;
-  return `"${written}" names ${KIND_WORDS[kind]}; the gazetteer's "${feature.name}" (${feature.featureType}, ${feature.sourceId}:${feature.featureId}) is a settlement that shares the name, not that place, so no georeference is given`;
+  const described = `the gazetteer's "${feature.name}" (${feature.featureType}, ${feature.sourceId}:${feature.featureId})`;
+  if (rule === 'settlement' && featureKindOf(feature.name) === kind) {
+    return { remark: `"${written}" may name ${KIND_WORDS[kind]}; ${described} is a settlement of that very name and the feature found for it, so it is taken as the settlement: verify [CHOICE settlementNamedLikeFeature, src/georef/method-defaults.ts]` };
+  }
+  return { decline: `"${written}" names ${KIND_WORDS[kind]}; ${described} is a settlement that shares the name, not that place, so no georeference is given` };
 }

@@ -18,9 +18,10 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, unitArea, unitNamed } from './administrative-unit.ts';
+import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
-import { kindMismatch } from './feature-kind.ts';
+import { judgeKind } from './feature-kind.ts';
+import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -115,8 +116,9 @@ function checkLocated(finder: CandidateFinder, once: CandidateFinder, request: L
 function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResult {
   const edits = request.edits ?? {};
   const read = interpretationOf(request);
-  const interpretation = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
-  const context = contextOf(request, interpretation);
+  const edited = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
+  const context = contextOf(request, edited);
+  const interpretation = pastUnitHeads(edited, context);
   const datum = datumGiven(request);
   if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };
@@ -140,26 +142,28 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   let used = interpretation;
   let resolved = resolveFeatures(finder, interpretation, context, options, edits);
   let fallbackFrom: string | undefined;
-  if (!resolved.ok && resolved.result.status === 'not-found') {
-    // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded).
-    for (const clause of interpretation.otherClauses) {
-      const alternative = readingOf(interpretation, clause);
-      const attempt = resolveFeatures(finder, alternative, context, options, edits);
-      // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
-      // at a second name, or a name met anywhere in the country, too often is another place of that name.
-      if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
-      fallbackFrom = interpretation.features.join('", "');
-      const usedText = interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ');
-      used = { ...alternative, notes: [...alternative.notes, `"${fallbackFrom}" is not in the loaded gazetteers: the next clause, "${usedText}", is used instead`] };
-      resolved = { ...attempt, candidates: [...resolved.result.candidates, ...attempt.candidates] };
-      break;
-    }
+  const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
+  // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded); failing
+  // that, the town the text's own units name ("Mun. Alisos: Fazenda X" with no farm loaded). Either is
+  // widened as any place named but not loaded is.
+  for (const { reading, what } of missed ? standInReadings(interpretation) : []) {
+    const attempt = resolveFeatures(finder, reading, context, options, edits);
+    // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
+    // at a second name, or a name met anywhere in the country, too often is another place of that name.
+    if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
+    fallbackFrom = interpretation.features.join('", "');
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" is not in the loaded gazetteers: ${what} is used instead`] };
+    resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
+    break;
   }
   if (!resolved.ok) return resolved.result;
   const { candidates, readings, matchRemarks, chosenNotes } = resolved;
   if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
-  const mismatches = (readings[0] ?? []).map((feature) => kindMismatch(used.featureKind, used.features[0] ?? '', feature));
-  if (mismatches.length > 0 && mismatches.every(Boolean)) return { status: 'not-found', interpretation: used, candidates, reason: mismatches[0]! };
+  const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
+  const verdicts = (readings[0] ?? []).map((feature) => judgeKind(used.featureKind, used.features[0] ?? '', feature, kindRule));
+  const declined = verdicts.find((v) => v && 'decline' in v);
+  if (verdicts.length > 0 && verdicts.every((v) => v && 'decline' in v)) return { status: 'not-found', interpretation: used, candidates, reason: (declined as { decline: string }).decline };
+  for (const verdict of verdicts) if (verdict && 'remark' in verdict && !matchRemarks.includes(verdict.remark)) matchRemarks.push(verdict.remark);
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
   const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;
@@ -187,12 +191,31 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
 }
 
+/** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */
+function standInReadings(interpretation: Interpretation): { reading: Interpretation; what: string }[] {
+  return [
+    ...interpretation.otherClauses.map((clause) => ({
+      reading: readingOf(interpretation, clause),
+      what: `the next clause, "${interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ')}",`,
+    })),
+    ...standInsNamed(interpretation).map(({ name, what }) => ({
+      reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined },
+      what: `${what}, "${name}",`,
+    })),
+  ];
+}
+
+/**
+ * A stand-in for a missing place: every name found as written or by a documented reading of it (an
+ * abbreviation, a generic word left out: FUZZY_ACCEPTANCE.readingScore), never a near spelling or a place
+ * outside the stated units, and inside a stated state, county or municipality.
+ */
 function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): boolean {
-  return resolution.matchRemarks.length === 0 && !!(context.stateProvince || context.county || context.municipality);
+  return !resolution.guessed && !!(context.stateProvince || context.county || context.municipality);
 }
 
 type Resolution =
-  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[] }
+  | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[]; guessed: boolean }
   | { ok: false; result: LocateResult };
 
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
@@ -201,6 +224,8 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
   const chosenNotes: string[] = [];
+  // A near spelling, a place just outside the stated units, or one of several taken.
+  let guessed = false;
   for (const name of interpretation.features) {
     const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
     candidates.push(...found);
@@ -218,6 +243,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
         matchRemarks.push(outside.remark);
+        guessed = true;
         continue;
       }
       const reason = [notFoundReason(name, context, found), outside?.reason].filter(Boolean).join('; ');
@@ -229,17 +255,36 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     }
     if (choice.kind === 'several') {
       const names = choice.candidates.map(describeCandidate).join('; ');
+      const namesakesMeters = options.namesakesWithinMeters ?? METHOD_DEFAULTS.namesakesWithinMeters;
+      if (!options.coverAmbiguous && namesakes(choice.candidates.map((c) => c.feature), namesakesMeters)) {
+        readings.push(choice.candidates.map((c) => c.feature));
+        guessed = true;
+        matchRemarks.push(`"${name}" matches ${choice.candidates.length} features within ${(namesakesMeters / 1000).toFixed(0)} km of each other (${names}): one circle covers them all [CHOICE namesakesWithinMeters, src/georef/method-defaults.ts]`);
+        continue;
+      }
       if (!options.coverAmbiguous) {
         return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: `"${name}" matches several features: ${names}` } };
       }
       readings.push(choice.candidates.map((c) => c.feature));
       matchRemarks.push(`"${name}" is ambiguous (${names}); every candidate covered, as asked`);
+      guessed = true;
       continue;
     }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
+    guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
-  return { ok: true, candidates, readings, matchRemarks, chosenNotes };
+  return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/**
+ * True when the features are one kind of place in one state or province, no two farther apart than
+ * `meters` (geodesics on WGS84, geographiclib): a town held twice, or two hamlets of a name side by side.
+ */
+function namesakes(features: Feature[], meters: number): boolean {
+  const [first] = features;
+  if (!first?.stateProvince || !features.every((f) => f.featureType === first.featureType && f.stateProvince === first.stateProvince)) return false;
+  return features.every((a, k) => features.slice(k + 1).every((b) => inverse(a.latitude, a.longitude, b.latitude, b.longitude).meters <= meters));
 }
 
 /** At most this many readings of an ambiguous text are covered by one circle [CHOICE]. */

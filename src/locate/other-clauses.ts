@@ -100,8 +100,12 @@ export function conflictWith(georef: Georeference, found: OtherClauseCheck['foun
  * @example readingOf(parseLocality('Cerro Azul, Alisos'), { clause: 1, type: 'named-place', features: ['Alisos'], offsets: [] }).features // ['Alisos']
  */
 export function readingOf(interpretation: Interpretation, clause: ClauseReading): Interpretation {
+  // The parser's note that this clause is "not used for the point" no longer holds.
+  const text = interpretation.clauses[clause.clause]?.text;
+  const stale = (note: string) => text !== undefined && (note.startsWith(`also named: "${text}"`) || note.startsWith(`also read: "${text}"`));
   return {
     ...interpretation,
+    notes: interpretation.notes.filter((note) => !stale(note)),
     chosenClause: clause.clause,
     type: clause.type,
     features: clause.features,

@@ -6,6 +6,7 @@
  */
 import iconv from 'iconv-lite';
 import { SaxesParser } from 'saxes';
+import type { GeneralisationSettings } from '../georef/generalisation.ts';
 import type { Source } from '../match/types.ts';
 import { xmlText } from './darwin-core-archive.ts';
 
@@ -95,11 +96,27 @@ function insertionPoint(text: string, step: string): Insertion {
  * georeference carries.
  * @example methodStepParagraphs({ version: '0.1.0', runTimestamp: '2026-12-01T12:00:00Z', rows: 52, sources })[1] // 'Gazetteer sources: …, sha256 9f…'
  */
-export function methodStepParagraphs(run: { version: string; runTimestamp: string; rows: number; sources: Source[] }): string[] {
+export function methodStepParagraphs(run: { version: string; runTimestamp: string; rows: number; sources: Source[]; generalise?: GeneralisationSettings }): string[] {
   const sources = run.sources.map((s) => `${s.citation}${s.licence ? ` (${s.licence})` : ''}, sha256 ${s.contentHash}`);
   return [
     `Georeferences proposed by whereabouts ${run.version} on ${run.runTimestamp} by the point-radius method (Wieczorek, Guo & Hijmans 2004; Chapman & Wieczorek 2020, Georeferencing Best Practices) for the ${run.rows} rows of the occurrence core; each row's georeferenceVerificationStatus and georeferenceRemarks say how it came out. Where a record already had a term, its value is unchanged and the proposal is in the column proposed_<term>.`,
     `Gazetteer sources: ${sources.join('; ') || 'none'}.`,
+    ...(run.generalise ? [generalisationParagraph(run.generalise)] : []),
     "A georeference is an estimate, to be verified by a person; precise localities of sensitive taxa may need generalising under the holder's policy and local law.",
   ];
+}
+
+/**
+ * What a job that generalised sensitive rows says of it in the method step: which rows (by a list of taxa,
+ * by a marking column) and that the precise georeferences stayed out of the shared archive; each row's
+ * dataGeneralizations says how its own point was generalised.
+ * @example generalisationParagraph({ column: 'sensitive', gridMeters: 1000 })
+ */
+function generalisationParagraph(settings: GeneralisationSettings): string {
+  const taxa = Object.keys(settings.taxa ?? {}).length;
+  const which = [
+    ...(taxa ? [`records of the ${taxa} ${taxa === 1 ? 'taxon' : 'taxa'} on the holder's list of sensitive taxa`] : []),
+    ...(settings.column !== undefined ? [`records marked in the column ${settings.column}`] : []),
+  ].join(' and ');
+  return `The localities of ${which} were generalised as the holder asked, following its policy and local law (which whereabouts does not decide): each such row's dataGeneralizations and informationWithheld say how; the precise georeferences are not in this archive and are kept only in the private job store of whoever ran whereabouts.`;
 }

@@ -114,10 +114,10 @@ export function readElevation(
   return { elevation: { minimumMeters: Math.min(a, b), maximumMeters: Math.max(a, b), written }, notes };
 }
 
-/** The level a unit word at token t names, or undefined ("Par." and "Est." only dotted and capitalised). */
+/** The level a unit word at token t names, or undefined ("Par." and "Est." only dotted and capitalised, "mun." dotted). */
 export function unitWordLevel(t: Token | undefined): AdministrativeLevel | undefined {
   if (t?.kind !== 'word') return undefined;
-  if (L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm) && !(t.dotted && t.text[0] !== t.norm[0])) return undefined;
+  if (L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm) && !(t.dotted && (t.text[0] !== t.norm[0] || L.LOWER_CASE_DOTTED_ADMINISTRATIVE_WORDS.has(t.norm)))) return undefined;
   return L.ADMINISTRATIVE_WORDS.get(t.norm);
 }
 
@@ -136,7 +136,8 @@ export function readAdministrative(text: string, tokens: Token[], from: number, 
     return { name: slice(nameFrom, to), level: head, written };
   }
   const tail = unitWordLevel(tokens[to - 1]);
-  if (tail && tokens[to - 2]!.kind === 'word') return { name: slice(from, to - 1), level: tail, written };
+  // "Alisos County" names a unit; "Parque do Estado", "Reserva de la Provincia" name a place of the unit.
+  if (tail && tokens[to - 2]!.kind === 'word' && !L.FROM_WORDS.has(tokens[to - 2]!.norm)) return { name: slice(from, to - 1), level: tail, written };
   return null;
 }
 

@@ -5,12 +5,14 @@
  * @example parseLocality('10 km NE of Vila Serena').type // 'offset-heading'
  */
 import type { AdministrativeLevel, Clause, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
-import { tokenize, type Token } from './tokens.ts';
+import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
-import { ADMINISTRATIVE_ORDER, detectLanguage, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
+import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
+import * as L from './lexicon.ts';
 
 export { parseCoordinates } from './coordinates.ts';
+export { featureKindOf } from './locality.ts';
 export { readDistanceNumber, type WrittenNumber } from './numbers.ts';
 export { METERS_PER_UNIT, LEAGUE_METERS, LEAGUE_RANGE_METERS, LEAGUE_RELATIVE_SPREAD, toMeters } from './units.ts';
 export type * from './types.ts';
@@ -111,12 +113,37 @@ function interpret(text: string): Interpretation {
     if (segment && !readings[k]) readings[k] = readLocalityClause(text, tokens.slice(segment.from, segment.to));
     return readings[k];
   };
-  const links = hierarchyLinks(text, tokens, segments, readSegment);
+  const headings = segments.map((segment) => segment.separator === ':' && L.FIELD_HEADINGS.has(foldedWords(tokens, segment.from, segment.to)));
+  const links = hierarchyLinks(text, tokens, segments, readSegment).map((link, k) => link && !headings[k]);
+  // "Mun.: Alisos", "Municipio: Alisos": a unit word alone before a colon says what the next clause names.
+  let unitAhead: AdministrativeLevel | undefined;
+  // After "Hab.:" or "Habitat:" every clause describes the habitat.
+  let habitatAhead = false;
   for (const [index, segment] of segments.entries()) {
     if (coordinatesPiece && segment.from >= found!.endToken && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
     const { from, to } = segment;
     const clauseText = text.slice(tokens[from]!.start, tokens[to - 1]!.end);
     if (datumWritten && (clauseText === datumWritten || /^datum\b/i.test(clauseText) || clauseText.endsWith(datumWritten))) {
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
+      continue;
+    }
+    if (headings[index]) {
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
+      habitatAhead ||= ['habitat', 'hab'].includes(foldedWords(tokens, from, to));
+      continue;
+    }
+    if (habitatAhead) {
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'habitat') });
+      continue;
+    }
+    const lead = unitAhead;
+    unitAhead = undefined;
+    if (lead && readSegment(index)?.type === 'named-place') {
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit: { name: clauseText, level: lead, written: text.slice(tokens[segments[index - 1]!.from]!.start, tokens[to - 1]!.end) } });
+      continue;
+    }
+    if (segment.separator === ':' && to - from === 1 && unitWordLevel(tokens[from]) && segments[index + 1]) {
+      unitAhead = unitWordLevel(tokens[from]);
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
       continue;
     }
@@ -157,6 +184,18 @@ function interpret(text: string): Interpretation {
       const clause: Clause = { text: text.slice(previous.clause.start, end), start: previous.clause.start, end, kind: 'administrative' };
       pieces[pieces.length - 1] = { clause, unit: { name: previous.reading.features[0]!, level, written: clause.text } };
       continue;
+    }
+    // "Apiahy [= Apiaí]": a name given in brackets with "=" is the name of the place before it, as now written.
+    const glossed = previous?.reading && (previous.reading.type === 'named-place' || previous.reading.type === 'near') && previous.reading.features.length === 1;
+    if (tokens[from]!.norm === '=' && glossed && ['(', '['].includes(segments[index - 1]?.separator ?? '')) {
+      const name = readLocalityClause(text, tokens.slice(from + 1, to));
+      if (name.type === 'named-place' && name.features.length === 1) {
+        result.notes.push(`"${previous.reading!.features[0]}" read as "${name.features[0]}", the name given for it in brackets`);
+        const { featureKind: _kind, ...rest } = previous.reading!;
+        previous.reading = { ...rest, features: name.features, ...(name.featureKind ? { featureKind: name.featureKind } : {}) };
+        pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
+        continue;
+      }
     }
     const reading = readSegment(index)!;
     pieces.push({ clause: clauseOf(text, tokens, from, to, reading.type === 'habitat' ? 'habitat' : 'locality'), reading });
@@ -354,7 +393,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     delete result.coordinates;
     const reading = chosen.reading!;
     result.type = reading.type as LocalityType;
-    result.features = reading.features;
+    result.features = reading.features.map((feature) => seatOf(feature, result));
     result.offsets = reading.offsets;
     if (reading.featureKind) result.featureKind = reading.featureKind;
     result.notes.push(...reading.notes);
@@ -384,6 +423,23 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   }
   return result;
 }
+
+/**
+ * "Mun. Alisos, 17 km N da cidade": a place-type word alone ("the town", "la ciudad", "a cidade", "la ville")
+ * where a place is read names the town of the municipality the text names, whose seat bears its name
+ * [our rule, no source]. Any other name, or no municipality named, is left as written.
+ * @example seatOf('cidade', { administrative: { municipality: 'Alisos' }, notes: [] }) // 'Alisos'
+ */
+function seatOf(feature: string, result: Pick<Interpretation, 'administrative' | 'notes'>): string {
+  const municipality = result.administrative.municipality;
+  const words = fold(feature).split(/\s+/);
+  const [kind] = words.slice(words.length - 1);
+  const article = words.length === 2 && SMALL_ARTICLES.has(words[0]!);
+  if (!municipality || !kind || !L.PLACE_TYPE_SUFFIXES.has(kind) || (words.length > 1 && !article)) return feature;
+  result.notes.push(`"${feature}" read as the town of the municipality the text names, "${municipality}"`);
+  return municipality;
+}
+const SMALL_ARTICLES = new Set(['the', 'la', 'el', 'a', 'o', 'le']);
 
 /** The public reading of a clause other than the chosen one. */
 function clauseReading(reading: LocalityRead, clause: number): ClauseReading {

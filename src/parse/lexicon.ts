@@ -60,7 +60,11 @@ export const NEAR_PREFIXES = phrases(
     "en los alrededores de | en las afueras de | en las inmediaciones de | alrededores de | inmediaciones de | afueras de | cerca de | cerca del | proximo a | proximo al | junto a | prox a | " +
     "nos arredores de | nas proximidades de | arredores de | proximidades de | perto de | perto da | perto do | proximo de | proximo da | proximo do | periferia de | " +
     "near of | about | in the area of | en los alrededores | aux abords de | aux abords du | abords de | " +
-    "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de",
+    "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de | " +
+    // Latin "prope" (near), written on older labels in every language.
+    'prope | ' +
+    // "behind X" places the specimen near X, no heading given.
+    'behind | atras de | atras do | atras da | detras de | detras del | derriere',
 );
 /** near / vicinity as suffixes after the feature ("X vicinity", "X y alrededores"). */
 export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | area | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs | alentours | abords');
@@ -119,6 +123,8 @@ export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvinc
 ]);
 /** Unit words that count only written with a capital and a period ("Par.", "Est."). */
 export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');
+/** Of those, the ones that also count dotted in lower case ("(mun. Alisos)"): no other word of the four languages is written so. */
+export const LOWER_CASE_DOTTED_ADMINISTRATIVE_WORDS = set('mun');
 
 /**
  * Generic words that say what kind of place a name is, before it ("Laguna Negra", "Fazenda Boa Vista",
@@ -140,13 +146,36 @@ export const FEATURE_KIND_WORDS: ReadonlyMap<string, import('./types.ts').Featur
  * The name keeps its own "de" ("Ciudad de X" as a proper name is read as X, noted).
  */
 export const PLACE_TYPE_PREFIXES = phrases(
-  'town of | city of | village of | ciudad de | ciudad del | pueblo de | pueblo del | localidad de | paraje de | ' +
-    "cidade de | cidade do | cidade da | povoado de | povoado do | povoado da | localidade de | ville de | ville d' | village de | village du",
+  'the town of | the city of | the village of | town of | city of | village of | ciudad de | ciudad del | pueblo de | pueblo del | localidad de | paraje de | ' +
+    "cidade de | cidade do | cidade da | povoado de | povoado do | povoado da | localidade de | ville de | ville d' | village de | village du | localite de | " +
+    // "10 km S of center of X": the gazetteer's point of a town is its center.
+    'center of | centre of | the center of | the centre of | centro de | centro del | centro do | centro da | centre de | centre du',
 );
 /** Feature-type words after a name or alone in brackets: "X (town)", "X city", "X (pueblo)". */
 export const PLACE_TYPE_SUFFIXES = set('town city village pueblo ciudad cidade povoado vila ville village localidad localidade');
-/** Prepositions before a bare place name that are not part of it: "in X", "en X", "em X", "à X". */
-export const PLACE_PREPOSITIONS = set('in en em at');
+/**
+ * Words naming a part of a mountain, before its name ("summit of X", "cumbre del X", "cume do X", "sommet du X"),
+ * after it in lower case ("X summit") or alone after it ("X, summit area"): the part lies within the mountain,
+ * so the mountain is the feature and its kind is kept, never a place named "summit".
+ */
+export const MOUNTAIN_PART_WORDS = phrases(
+  'summit | summit area | summit region | top | cumbre | zona de cumbre | cima | cume | topo | sommet | cime | zone sommitale',
+);
+export const MOUNTAIN_PART_PREFIXES = phrases(
+  'summit of | the summit of | summit area of | top of | the top of | cumbre de | cumbre del | cumbre de la | la cumbre de | la cumbre del | cima de | cima del | ' +
+    "cume de | cume do | cume da | topo de | topo do | topo da | sommet de | sommet du | sommet de la | sommet de l' | sommet des | cime de | cime du | cime de la",
+);
+/** Prepositions before a bare place name that are not part of it: "in X", "on X", "en X", "em X", "à X". */
+export const PLACE_PREPOSITIONS = set('in on en em at');
+
+/**
+ * Headings of a label's or a database's locality field, followed by a colon: "Locality: X", "Nearest named
+ * place: X", "Localidad: X", "Localidade: X", "Lieu-dit: X". A heading names nothing; it is neither a place
+ * nor a link of a written hierarchy. "Hab.:" heads a habitat.
+ */
+export const FIELD_HEADINGS: ReadonlySet<string> = new Set(
+  'locality|loc|nearest named place|nearest place|named place|collecting locality|collection locality|site|localidad|lugar|sitio de colecta|localidade|local|local de coleta|localite|lieu|lieu dit|lieu-dit|station|habitat|hab'.split('|'),
+);
 
 /**
  * Texts that say no place is known, in four languages (whole clause, folded, punctuation dropped:

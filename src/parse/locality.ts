@@ -169,7 +169,8 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
   const along = matchPhrase(s, i, L.ALONG_PHRASES);
   if (along) {
     const start = i + along;
-    const end = lineEnd(s, start, stopAtFrom);
+    // The line's own first word may be a direction: "along east shore of the island from X".
+    const end = lineEnd(s, readHeading(s, start) && start + 1 < s.tokens.length ? start + 1 : start, stopAtFrom);
     if (end === start) return null;
     const nounMode = end - start === 1 ? modeOfNoun(norm(s, start)) : undefined;
     if (nounMode) return { path: pathOf(nounMode, written(end)), next: end };
@@ -252,15 +253,32 @@ function hasNameWord(s: Source, from: number, to: number): boolean {
  */
 function placeAt(s: Source, from: number, end: number): string | null {
   const prefix = matchPhrase(s, from, L.PLACE_TYPE_PREFIXES);
+  const part = matchPhrase(s, from, L.MOUNTAIN_PART_PREFIXES);
   if (prefix && from + prefix < end) {
     s.featureKind = 'populated-place';
     from += prefix;
-  } else if (end - from >= 2 && L.PLACE_TYPE_SUFFIXES.has(norm(s, end - 1)!) && s.tokens[end - 1]!.text === s.tokens[end - 1]!.norm) {
-    // Only a lower-case suffix: "Millbrook town" is the town of Millbrook, "Puerto Ciudad" a name.
+  } else if (part && from + part < end) {
+    s.featureKind = 'mountain';
+    from += part;
+  } else if (mountainPartAtEnd(s, from, end) < end) {
+    s.featureKind = 'mountain';
+    end = mountainPartAtEnd(s, from, end);
+  } else if (end - from >= 2 && L.PLACE_TYPE_SUFFIXES.has(norm(s, end - 1)!) && s.tokens[end - 1]!.text === s.tokens[end - 1]!.norm && hasNameWord(s, from, end - 1)) {
+    // Only a lower-case suffix: "Millbrook town" is the town of Millbrook, "Puerto Ciudad" a name; "the town",
+    // "la ciudad" alone keep their word (the town of a municipality named elsewhere, see seatOf).
     s.featureKind = 'populated-place';
     end--;
   }
   return hasDistance(s, from, end) || !hasNameWord(s, from, end) ? null : nameBetween(s, from, end);
+}
+
+/** Where a lower-case word for a part of a mountain that closes a name starts ("Monte Verdemar summit area"), else `end`. */
+function mountainPartAtEnd(s: Source, from: number, end: number): number {
+  for (let k = Math.max(from + 1, end - 3); k < end; k++) {
+    const lowerCase = s.tokens.slice(k, end).every((t) => t.text === t.norm);
+    if (lowerCase && matchPhrase(s, k, L.MOUNTAIN_PART_WORDS) === end - k && hasNameWord(s, from, k)) return k;
+  }
+  return end;
 }
 
 /**
@@ -385,6 +403,8 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const place = placeAt(s, j, placeEndAt);
   if (!place) return unparseable(`could not read the place after "${s.text.slice(s.tokens[i]!.start, s.tokens[j - 1]!.end)}"`, approximate);
   if (tail.path && !offset.path) offset.path = tail.path;
+  // "12 km by road from X on Ruta 12", "a 12 km por carretera de X por la Ruta 12": the line named after the place.
+  else if (tail.path?.lineName && offset.path && !offset.path.lineName) offset.path = { ...offset.path, lineName: tail.path.lineName, written: `${offset.path.written} … ${tail.path.written}` };
   if (tail.heading && !offset.heading && offsets.length === 1) offset.heading = tail.heading;
   if (tail.byAir) offset.byAir = true;
   if (toward && offset.heading) {
@@ -434,6 +454,9 @@ function readPlaceFirst(s: Source, i: number, approximate: boolean): LocalityRea
     const t = s.tokens[k]!;
     if (t.kind === 'number') {
       const tail = readDistanceAt(s, k) ? readOffsets(s, k, approximate) : null;
+      // "Fazenda Boa Vista entrance 8 km E of Vila Serena": a whole offset after a name locates that name.
+      const whole = tail && !tail.bare && tail.type !== 'unparseable' && tail.features.length === 1 && hasNameWord(s, i, k);
+      if (whole) return { ...tail, notes: [...tail.notes, `"${s.text.slice(s.tokens[i]!.start, s.tokens[k - 1]!.end)}" read as the place the offset locates`] };
       // A distance alone after a name ("Ashcombe 5 km") may be anything; a heading makes it an offset.
       if (tail?.bare !== 'offset' || !tail.offsets[0]!.heading) continue;
       const place = placeAt(s, i, k);
@@ -452,7 +475,8 @@ function readPlaceFirst(s: Source, i: number, approximate: boolean): LocalityRea
 function readClause(s: Source): LocalityRead {
   const { text, tokens } = s;
   let { next: i, approximate } = skipApproximation(s, 0);
-  if (L.LEADING_PREPOSITIONS.has(norm(s, i) ?? '') && s.tokens[i + 1]?.kind === 'number') i++;
+  // "a 5 km de X", "a cerca de 5 km de X": the preposition before a distance, approximate or not.
+  if (L.LEADING_PREPOSITIONS.has(norm(s, i) ?? '') && (s.tokens[i + 1]?.kind === 'number' || skipApproximation(s, i + 1).approximate)) i++;
   const again = skipApproximation(s, i);
   i = again.next;
   approximate ||= again.approximate;
@@ -533,6 +557,8 @@ function readClause(s: Source): LocalityRead {
   const nearWord = matchPhrase(s, i, L.NEAR_SUFFIXES);
   if (nearWord && i + nearWord === end) return { ...reading('near', [], { approximate }), bare: 'near' };
   if (i + 1 === end && L.PLACE_TYPE_SUFFIXES.has(norm(s, i)!)) return { ...reading('named-place', [], { approximate, featureKind: 'populated-place' }), bare: 'kind' };
+  // "Monte Verdemar, summit area": a part of the mountain before it, which stays the feature.
+  if (matchPhrase(s, i, L.MOUNTAIN_PART_WORDS) === end - i) return { ...reading('named-place', [], { approximate, featureKind: 'mountain' }), bare: 'kind' };
   const placeFirst = readPlaceFirst(s, i, approximate);
   if (placeFirst) return placeFirst;
   const road = readRoadClause(s, i);
@@ -540,11 +566,17 @@ function readClause(s: Source): LocalityRead {
 
   for (let k = Math.max(i + 1, end - 3); k < end; k++) {
     const suffix = matchPhrase(s, k, L.NEAR_SUFFIXES);
-    const place = suffix && k + suffix === end ? placeAt(s, i, k) : null;
+    // "X summit area" is the summit of X, not its vicinity.
+    const place = suffix && k + suffix === end && mountainPartAtEnd(s, i, end) >= k ? placeAt(s, i, k) : null;
     if (place) return reading('near', [place], { approximate });
   }
 
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
+  // "Paragem entre Alisos e Vila Serena", "camp between X and Y": a place named by the two it lies between.
+  for (let k = i + 1; k < end - 3; k++) {
+    const names = L.BETWEEN_WORDS.has(norm(s, k)!) && s.tokens[k + 1]?.kind !== 'number' ? twoNames(s, k + 1, end) : null;
+    if (names && hasNameWord(s, i, k)) return reading('between', names, { approximate, notes: [`"${s.text.slice(s.tokens[i]!.start, s.tokens[k - 1]!.end)}" read as the place between ${names[0]} and ${names[1]}`] });
+  }
   if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
   // "km 12 carretera a X": a road's kilometre post, measured from the road's own zero, which no clause gives.
   if (UNIT_WORDS.get(norm(s, i) ?? '') === 'km' && s.tokens[i + 1]?.kind === 'number') {

@@ -56,7 +56,12 @@ CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEX
 const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
 /** Alternate names are stored joined by the ASCII unit separator, which no name contains. */
 const NAME_SEPARATOR = '\u001f';
-const TOKEN_CACHE_LIMIT = 200_000;
+/**
+ * Token ids an import keeps in memory (tens of MB at most): the whole vocabulary of a million-name list
+ * (about 260,000 words with real word frequencies), so its tokens are never looked up again; when full,
+ * the cache starts afresh and tokens it lacks are looked up in the file.
+ */
+const TOKEN_CACHE_LIMIT = 1_000_000;
 /** Index pairs held before a sorted write: 8 MB for each index. */
 const PAIR_BUFFER = 1_000_000;
 /** Names held before a sorted write. */

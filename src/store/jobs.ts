@@ -197,6 +197,11 @@ export function updateJob(db: Database.Database, id: string, change: Partial<Pic
   db.prepare(`UPDATE batch_job SET ${entries.map(([k]) => `${columns[k]} = @${k}`).join(', ')} WHERE id = @id`).run({ ...values, id });
 }
 
+/** How a job generalises sensitive rows, from its stored settings (undefined: it does not). */
+export function jobGeneralisation(job: BatchJob): GeneralisationSettings | undefined {
+  return (JSON.parse(job.settings) as { generalise?: GeneralisationSettings }).generalise;
+}
+
 /**
  * The progress of a job, for the HTTP service and the progress bar.
  * @example jobProgress(jobsDatabasePath('whereabouts.sqlite'), 'k3v9q2xa') // { state: 'writing', rowsDone: 12000, … }
@@ -217,7 +222,7 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
       delimiter: job.delimiter,
       error: job.error ?? undefined,
       methodChoices: job.methodChoices ?? undefined,
-      generalise: (JSON.parse(job.settings) as { generalise?: GeneralisationSettings }).generalise,
+      generalise: jobGeneralisation(job),
     };
   } finally {
     if (typeof jobs === 'string') db.close();

@@ -281,5 +281,9 @@ ${terms.map((t, i) => `    <field index="${i}" term="http://rs.tdwg.org/dwc/term
       expect(metafile).toMatch(new RegExp(`<field index="${index}" term="http://(rs\\.tdwg\\.org/dwc/terms|whereabouts\\.invalid/terms)/(proposed_)?${term}"/>`));
     }
     expect(metafile).toContain('term="http://rs.tdwg.org/dwc/terms/dataGeneralizations"');
+    // The archive's metadata says rows were generalised, by whose list, and that the precise points stayed out.
+    const eml = entries.find((e) => e.name === 'eml.xml')!.bytes.toString('utf8');
+    expect(eml).toMatch(/records of the \d+ (taxon|taxa) on the holder's list of sensitive taxa were generalised/);
+    expect(eml).toContain('the precise georeferences are not in this archive');
   }, 180_000);
 });

@@ -16,7 +16,7 @@ import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-st
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { FUZZY_ACCEPTANCE, locate } from '../../src/locate/locate.ts';
 import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
-import { kindMismatch } from '../../src/locate/feature-kind.ts';
+import { judgeKind } from '../../src/locate/feature-kind.ts';
 import { parseLocality, type Interpretation } from '../../src/parse/index.ts';
 
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-policy-'));
@@ -183,14 +183,74 @@ describe('distances the cases above rest on (Vincenty, geodesy 2.4.0)', () => {
 describe('what the text says a place is', () => {
   it('declines a town for a farm that shares its name', () => {
     const town = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
-    expect(kindMismatch('farm', 'Estancia Puerto Lindo', town)).toMatch(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/);
-    expect(kindMismatch('populated-place', 'Puerto Lindo', town)).toBeNull();
-    expect(kindMismatch(undefined, 'Puerto Lindo', town)).toBeNull();
+    expect(judgeKind('farm', 'Estancia Puerto Lindo', town, 'settlement')).toEqual({ decline: expect.stringMatching(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/) });
+    expect(judgeKind('populated-place', 'Puerto Lindo', town, 'settlement')).toBeNull();
+    expect(judgeKind(undefined, 'Puerto Lindo', town, 'settlement')).toBeNull();
   });
 
   it('keeps a farm for a farm', () => {
     const farm = store.findCandidates({ name: 'Fazenda Boa Vista', context: { countryCode: 'QV' } })[0]!.feature;
     expect(farm.featureType).toBe('farm');
-    expect(kindMismatch('farm', 'Fazenda Boa Vista', farm)).toBeNull();
+    expect(judgeKind('farm', 'Fazenda Boa Vista', farm, 'settlement')).toBeNull();
+  });
+
+  it('takes a town whose own name carries the generic word, and says so, unless the [CHOICE] declines', () => {
+    // demo-places.csv qv-0061: the town Rio Fundo, named like the river qv-0161.
+    const town = store.findCandidates({ name: 'Rio Fundo', context: { countryCode: 'QV' }, featureTypes: ['town'] })[0]!.feature;
+    expect(town.featureId).toBe('qv-0061');
+    expect(METHOD_DEFAULTS.settlementNamedLikeFeature).toBe('settlement');
+    expect(judgeKind('stream', 'rio Fundo', town, 'settlement')).toEqual({ remark: expect.stringMatching(/"rio Fundo" may name a river or stream; the gazetteer's "Rio Fundo" \(town, demo:qv-0061\) is a settlement of that very name .*\[CHOICE settlementNamedLikeFeature/) });
+    expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/) });
+  });
+});
+
+describe('clauses that give context or stand in (method workflow step 5: the most specific clause the gazetteers support)', () => {
+  it('reads a leading clause that names the record\'s own state as context, and uses the clause after it', () => {
+    const result = locate(store, { locality: 'Serra Alta, Vila Serena', countryCode: 'QV', stateProvince: 'Serra Alta' });
+    expect(result.status).toBe('georeferenced');
+    // The place, then the stated state that bounds it.
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0048', 'qv-0003']);
+    expect(result.interpretation.notes.join('\n')).toContain('"Serra Alta" names the record\'s state or province: read as context, the clause after it used');
+    expect(result.interpretation.notes.join('\n')).not.toContain('also named: "Vila Serena"');
+  });
+
+  it('uses the town of a municipality the text names when no place of the text is loaded, widened by [CHOICE] unusedFeatureMeters', () => {
+    const result = locate(store, { locality: 'Mun. Vila Serena: Fazenda Nunca Vista', countryCode: 'QV' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features.map((f) => f.featureId)).toEqual(['qv-0048']);
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(result.interpretation.notes.join('\n')).toContain('the town of the municipality the text names, "Vila Serena", is used instead');
+  });
+
+  it('uses the place written at the head of a hierarchy when it is no country name ("Vila Serena: Fazenda …")', () => {
+    const result = locate(store, { locality: 'Vila Serena: Fazenda Nunca Vista', countryCode: 'QV', stateProvince: 'Serra Alta' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features[0]!.featureId).toBe('qv-0048');
+    expect(result.georeference!.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(result.interpretation.notes.join('\n')).toContain('the place the text writes at the head of its hierarchy, "Vila Serena", is used instead');
+  });
+
+  it('lets a later clause stand in when its name is found by a documented reading ("Sn." for San)', () => {
+    const result = locate(store, { locality: 'Cerro Nunca Visto, Sn. Telmo', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0027', 'qv-0002']);
+    expect(result.georeference!.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+  });
+
+  it('covers namesakes of one type in one province with one circle only within [CHOICE] namesakesWithinMeters', () => {
+    // demo-places.csv: Los Pinos qv-0016 and qv-0039, both villages of Poniente.
+    const request = { locality: 'Los Pinos', countryCode: 'QV', stateProvince: 'Poniente' };
+    const a = new LatLon(-45.06327, -131.21675);
+    const b = new LatLon(-45.687422, -131.67846);
+    const apart = a.distanceTo(b); // Vincenty, geodesy 2.4.0: about 77 km
+    expect(apart).toBeGreaterThan(METHOD_DEFAULTS.namesakesWithinMeters);
+    expect(locate(store, request).status).toBe('ambiguous');
+    const covered = locate(store, { ...request, options: { namesakesWithinMeters: 100000 } });
+    expect(covered.status).toBe('georeferenced');
+    const g = covered.georeference!;
+    const center = new LatLon(g.latitude, g.longitude);
+    for (const point of [a, b]) expect(center.distanceTo(point)).toBeLessThanOrEqual(g.uncertaintyMeters);
+    expect(g.remarks.join('\n')).toMatch(/"Los Pinos" matches 2 features within 100 km of each other .*\[CHOICE namesakesWithinMeters/);
   });
 });

@@ -3,8 +3,11 @@ import type { Interpretation, Offset } from '../../src/parse/index.ts';
 /** One corpus entry: the invented text and what a curator reads in it. */
 export interface CorpusEntry {
   text: string;
-  /** Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading. */
-  intent: { type: string; features: string[]; azimuth?: number };
+  /**
+   * Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading, the
+   * line a path offset follows, and what the feature is when the text says so ("summit of X": a mountain).
+   */
+  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string };
 }
 
 const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
@@ -69,5 +72,9 @@ export function intentMismatches(entry: CorpusEntry, r: Interpretation): string[
   if (entry.intent.azimuth !== undefined && r.offsets[0]?.heading?.azimuth !== entry.intent.azimuth) {
     problems.push(`azimuth ${r.offsets[0]?.heading?.azimuth}, expected ${entry.intent.azimuth}`);
   }
+  if (entry.intent.lineName !== undefined && r.offsets[0]?.path?.lineName !== entry.intent.lineName) {
+    problems.push(`line ${r.offsets[0]?.path?.lineName}, expected ${entry.intent.lineName}`);
+  }
+  if (entry.intent.featureKind !== undefined && r.featureKind !== entry.intent.featureKind) problems.push(`feature kind ${r.featureKind}, expected ${entry.intent.featureKind}`);
   return problems;
 }

@@ -187,7 +187,15 @@ export function ratesOf(outcomes: RecordOutcome[]): Rates {
 
 /** Outcomes grouped by a key, each group's rates, largest group first. */
 export function ratesBy(outcomes: RecordOutcome[], key: (o: RecordOutcome) => string): [string, Rates][] {
-  const groups = new Map<string, RecordOutcome[]>();
+  return groupRates(outcomes, key, ratesOf);
+}
+
+/**
+ * Any outcomes grouped by a key, each group's rates by `rates`, largest group first (shared with the clean-label measure).
+ * @example groupRates(outcomes, (o) => o.record.language, ratesOf) // [['es', {...}], ['en', {...}]]
+ */
+export function groupRates<O, R>(outcomes: O[], key: (o: O) => string, rates: (group: O[]) => R): [string, R][] {
+  const groups = new Map<string, O[]>();
   for (const o of outcomes) groups.set(key(o), [...(groups.get(key(o)) ?? []), o]);
-  return [...groups].map(([k, os]): [string, Rates] => [k, ratesOf(os)]).sort((a, b) => b[1].records - a[1].records);
+  return [...groups].sort((a, b) => b[1].length - a[1].length).map(([k, os]): [string, R] => [k, rates(os)]);
 }

@@ -10,7 +10,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { describeCore, formatMetaXml, OCCURRENCE_ROW_TYPE, type MetaArchive } from '../../output/darwin-core-archive.ts';
 import { methodStepParagraphs, minimalEml, withMethodStep } from '../../output/eml-method-step.ts';
-import { loadJob, openJobs } from '../../store/jobs.ts';
+import { jobGeneralisation, loadJob, openJobs } from '../../store/jobs.ts';
 import { jobsDatabasePath } from '../../store/side-files.ts';
 import { startBatchJob, type BatchJobOptions, type BatchSummary } from '../run.ts';
 import { writeCoreTable } from './core-table.ts';
@@ -240,7 +240,7 @@ function methodStep(jobsPath: string, jobId: string): { paragraphs: string[]; ru
   const jobs = openJobs(jobsPath);
   try {
     const job = loadJob(jobs, jobId);
-    return { paragraphs: methodStepParagraphs({ version: job.version, runTimestamp: job.runTimestamp, rows: job.rowsTotal ?? 0, sources: job.sources }), runTimestamp: job.runTimestamp };
+    return { paragraphs: methodStepParagraphs({ version: job.version, runTimestamp: job.runTimestamp, rows: job.rowsTotal ?? 0, sources: job.sources, generalise: jobGeneralisation(job) }), runTimestamp: job.runTimestamp };
   } finally {
     jobs.close();
   }
