@@ -46,12 +46,37 @@ export const METHOD_DEFAULTS = {
    */
   unitWithoutPolygon: 'decline',
   /**
+   * Except a county or municipality named alone (the label "Alisos" with the record's county Alisos),
+   * whose seat usually bears its name: the one town of that name in the stated state, its radius
+   * widened by this default extent of the unit [CHOICE]; 0 declines as for other units. Chosen by
+   * measurement on the real-record sets (README "On real records").
+   */
+  unitSeatMeters: 40000,
+  /**
+   * A text that is only a name, found in the stated state where the gazetteer records no county, farther
+   * than this from the town named as the record's county (its seat, as a rule): likely another place of
+   * that name, so marked ambiguous for review [CHOICE]; 0 turns the check off. Chosen by measurement on
+   * the real-record sets (README "On real records").
+   */
+  countyReachMeters: 50000,
+  /**
    * A reference place loaded only outside the record's stated county or state is accepted when it lies
    * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
    * collector measured from is often just across a county line. Common practice, no source; not
-   * measured on the real records (their gazetteer holds no unit polygons).
+   * measured on the real records (their gazetteer holds no unit polygons). The text's longest offset
+   * (its distance and δ) is added: the point, not the town, must lie in the unit (src/locate/namesakes-by-result.ts).
    */
   justOutsideMeters: 25000,
+  /**
+   * Places sharing a name in a one-place offset text ("10 km N of Santa Rosa", one Santa Rosa in the
+   * record's county, another across the line) [CHOICE]: 'result' georeferences each (the exact names
+   * kept and those the county's wall dropped within justOutsideMeters + the offset) and takes the one
+   * whose circle reaches the record's stated unit; several reaching it make the text ambiguous; none
+   * leaves the usual choice. An exact name so beats a near spelling unless its circle misses the unit.
+   * 'reference place' judges by where the town lies only. The published method leaves the choice of
+   * feature to the georeferencer; our choice, no source; measured on the clean labels (README, "On clean labels").
+   */
+  namesakesJudgedBy: 'result' as 'result' | 'reference place',
   /**
    * The text's generic word says a river, lake, mountain, farm, road or park ("Rio X", "Serra Y") and the
    * gazetteer holds only a settlement whose own name begins or ends with a word of that kind [CHOICE]:
@@ -68,4 +93,13 @@ export const METHOD_DEFAULTS = {
    * (README "On real records").
    */
   namesakesWithinMeters: 30000,
+  /**
+   * A text that is only a place's name, found in the gazetteer only by a near spelling ("Milbrook" for
+   * Millbrook) with nothing else in the text to corroborate it [CHOICE]: 'review' gives no georeference and
+   * marks it ambiguous, to be confirmed by a person; 'answer' takes the near spelling, with a remark.
+   * A near spelling of a bare name with a town's small radius is a confident circle in the wrong place
+   * whenever the spelling names another town. Chosen by measurement on the real-record sets (README
+   * "On real records").
+   */
+  fuzzyLoneName: 'review',
 } as const satisfies Record<string, number | string>;

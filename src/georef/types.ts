@@ -38,12 +38,20 @@ export interface MethodOptions {
   unusedFeatureMeters?: number;
   /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
   unusedFeatureRule?: 'widen' | 'decline';
-  /** How far outside the record's stated unit a reference place may lie and still be taken; default 25 km ([CHOICE]). */
+  /** How far outside the record's stated unit a reference place may lie and still be taken, plus the text's offset; default 25 km ([CHOICE]). */
   justOutsideMeters?: number;
+  /** Places sharing a name in an offset text: judged by where each one's 'result' lands (default) or only by where the 'reference place' lies ([CHOICE]). */
+  namesakesJudgedBy?: 'result' | 'reference place';
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
   settlementNamedLikeFeature?: 'settlement' | 'decline';
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
+  /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
+  fuzzyLoneName?: 'review' | 'answer';
+  /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
+  unitSeatMeters?: number;
+  /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */
+  countyReachMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

@@ -5,7 +5,7 @@
  * gazetteer is reached only through the CandidateFinder it is given.
  */
 import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
-import { countryCodeForName } from '../match/context.ts';
+import { countryCodeForName, shortFormKey } from '../match/context.ts';
 import { foldName } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
@@ -38,6 +38,8 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
     const value = context[field];
     if (value && foldName(value) === key) return { name: value, level, written };
   }
+  // "Comitán" for the record's county "Comitán de Domínguez": the unit's short form names it too.
+  if (context.county && shortFormKey(context.county) === key) return { name: context.county, level: 'county', written };
   // A record with only a country code: the country's name in any of the four languages ("Brasil").
   const code = context.countryCode?.trim().toUpperCase();
   if (code && countryCodeForName(written) === code) return { name: written, level: 'country', written };

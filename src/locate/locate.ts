@@ -6,7 +6,7 @@
  * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
 import { parseCoordinates, parseLocality } from '../parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType } from '../parse/types.ts';
+import type { AdministrativeContext, Interpretation, LocalityType, NamedUnit } from '../parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
 import { coverGeoreferences } from '../georef/cover.ts';
 import { georeference } from '../georef/georeference.ts';
@@ -20,9 +20,12 @@ import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
 import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
+import { farFromCountySeat } from './county-reach.ts';
+import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
 import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
+import { foldName } from '../match/fold.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -135,7 +138,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const unit = unitNamed(interpretation, context);
   if (unit) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
-    if (!found.feature) return { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
@@ -152,7 +155,8 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
     fallbackFrom = interpretation.features.join('", "');
-    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" is not in the loaded gazetteers: ${what} is used instead`] };
+    const where = missed!.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" ${where}: ${what} is used instead`] };
     resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
     break;
   }
@@ -164,6 +168,10 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const declined = verdicts.find((v) => v && 'decline' in v);
   if (verdicts.length > 0 && verdicts.every((v) => v && 'decline' in v)) return { status: 'not-found', interpretation: used, candidates, reason: (declined as { decline: string }).decline };
   for (const verdict of verdicts) if (verdict && 'remark' in verdict && !matchRemarks.includes(verdict.remark)) matchRemarks.push(verdict.remark);
+
+  const lone = lonelyName(used) && readings[0]?.length === 1 ? readings[0][0]! : undefined;
+  const far = lone && farFromCountySeat(finder, lone, context, FUZZY_ACCEPTANCE.readingScore, options.countyReachMeters ?? METHOD_DEFAULTS.countyReachMeters);
+  if (far) return { status: 'ambiguous', interpretation: used, candidates, reason: far };
 
   const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
   const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;
@@ -189,6 +197,23 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const conflict = conflictWith(georef, others.found);
   if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+/**
+ * A county or municipality named alone, with no polygon of it loaded: its seat, the one town of the unit's
+ * name in the stated state, with the unit level's default extent added to the town's radius
+ * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held as written.
+ */
+function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
+  const meters = options.unitSeatMeters ?? METHOD_DEFAULTS.unitSeatMeters;
+  if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
+  const town: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], otherClauses: [], featureKind: undefined };
+  const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+  if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
+  const remark = `"${unit.written}" names the ${unit.level === 'county' ? 'county' : 'municipality'} "${unit.name}", whose polygon is not loaded: georeferenced at its seat, the town of that name, with the radius widened by ${(meters / 1000).toFixed(0)} km, a default extent for the unit, never a town's radius alone [CHOICE unitSeatMeters, src/georef/method-defaults.ts]`;
+  const outcome = georeference({ interpretation: town, features: resolved.readings[0], widening: { meters, remark }, options });
+  if (!outcome.ok) return null;
+  return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
 }
 
 /** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */
@@ -227,8 +252,10 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   // A near spelling, a place just outside the stated units, or one of several taken.
   let guessed = false;
   for (const name of interpretation.features) {
-    const found = finder.findCandidates(featureQuery(name, context, interpretation.type));
-    candidates.push(...found);
+    const all = finder.findCandidates(featureQuery(name, context, interpretation.type));
+    candidates.push(...all);
+    const { found, remark: ownUnit } = withoutOwnUnit(all, context);
+    if (ownUnit) matchRemarks.push(ownUnit);
     const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
     if (chosen) {
       readings.push([chosen.feature]);
@@ -236,9 +263,24 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       continue;
     }
     const choice = chooseCandidate(found);
+    // The point, not the town, must lie in the stated unit: a town may lie as far out as the offset reaches.
+    const reach = reachMeters(interpretation, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+    if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && choice.kind !== 'weak') {
+      const taken = choice.kind === 'one' ? [choice.candidate] : choice.kind === 'several' ? choice.candidates : [];
+      const wallUnit = context.county || context.stateProvince || context.municipality ? findBoundingUnit(finder, context, 'stateProvince') : undefined;
+      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation.type), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
+      if (byResult && 'ambiguous' in byResult) return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: byResult.ambiguous } };
+      if (byResult) {
+        if (!taken.includes(byResult.candidate)) candidates.push(byResult.candidate);
+        readings.push([byResult.candidate.feature]);
+        matchRemarks.push(byResult.remark);
+        guessed ||= !taken.includes(byResult.candidate);
+        continue;
+      }
+    }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, options.justOutsideMeters ?? METHOD_DEFAULTS.justOutsideMeters);
+      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach);
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
@@ -270,11 +312,35 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       guessed = true;
       continue;
     }
+    if (choice.candidate.score < FUZZY_ACCEPTANCE.readingScore && lonelyName(interpretation) && (options.fuzzyLoneName ?? METHOD_DEFAULTS.fuzzyLoneName) === 'review') {
+      const reason = `no feature named "${name}" as written in the loaded gazetteers; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
+      return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
+    }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/** True when the text is one place's name and nothing else: no offset, no second name, no other clause to check it against. */
+function lonelyName(interpretation: Interpretation): boolean {
+  return interpretation.type === 'named-place' && interpretation.features.length === 1 && interpretation.otherClauses.length === 0;
+}
+
+/**
+ * A name shared by the record's own county, state or municipality and other features ("10 km N of Rio
+ * Fundo" in county Rio Fundo, which holds the town Rio Fundo): the unit is the record's context, not the
+ * place measured from, so it is left out, and the remark says so. Kept when it is the only candidate.
+ * @example withoutOwnUnit([countyRioFundo, townRioFundo], { county: 'Rio Fundo' }).found // [townRioFundo]
+ */
+function withoutOwnUnit(found: Candidate[], context: AdministrativeContext): { found: Candidate[]; remark?: string } {
+  const own = (c: Candidate) => ADMINISTRATIVE_LEVELS.some((l) => l.featureType === c.feature.featureType && !!context[l.field] && foldName(context[l.field]!) === foldName(c.feature.name));
+  const units = found.filter((c) => c.score >= 1 && own(c));
+  const rest = found.filter((c) => !units.includes(c));
+  if (units.length === 0 || !rest.some((c) => c.score >= 1)) return { found };
+  const unit = units[0]!.feature;
+  return { found: rest, remark: `"${unit.name}" is also the record's ${unit.featureType}: read as its context, not as the place measured from` };
 }
 
 /**

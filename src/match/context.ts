@@ -52,11 +52,29 @@ export function administrativeKey(name: string): string {
   return (kept.length > 0 ? kept : tokens).join(' ');
 }
 
+/**
+ * The short form of a unit's official long name, "X de <honoree>" ("Veracruz de Ignacio de la Llave",
+ * "Michoacán de Ocampo", "Comitán de Domínguez"): the folded words before the first "de"; the whole key
+ * when there is none. Only "de": "Mato Grosso do Sul" and "Santiago del Estero" are names of their own.
+ * Common practice in Spanish-speaking countries' official unit names, no source.
+ * @example shortFormKey('Veracruz de Ignacio de la Llave') // 'veracruz'
+ */
+export function shortFormKey(name: string): string {
+  const tokens = foldName(name).split(' ');
+  // Words for the unit's kind lead some names ("Provincia de Salta"): the cut is after them.
+  let start = 0;
+  while (start < tokens.length && ADMINISTRATIVE_WORDS.has(tokens[start]!)) start++;
+  const cut = tokens.indexOf('de', start);
+  return cut > start ? administrativeKey(tokens.slice(start, cut).join(' ')) : administrativeKey(name);
+}
+
 /** The context a candidate must fit, resolved once per query. */
 export interface ResolvedContext {
   /** Allowed country codes; empty when the context names no country. */
   countryCodes: Set<string>;
   stateProvinceKey?: string;
+  /** The state's short form (shortFormKey), matched against the short form of a feature's state. */
+  stateProvinceShortKey?: string;
   countyKey?: string;
   /** Keys of the names of units known by the state (county) name given in any of their names, from the gazetteer. */
   stateProvinceAliases?: ReadonlySet<string>;
@@ -83,6 +101,7 @@ export function resolveContext(context: AdministrativeContext, gazetteerCountryC
   return {
     countryCodes,
     stateProvinceKey: context.stateProvince?.trim() ? administrativeKey(context.stateProvince) : undefined,
+    stateProvinceShortKey: context.stateProvince?.trim() ? shortFormKey(context.stateProvince) : undefined,
     countyKey: context.county?.trim() ? administrativeKey(context.county) : undefined,
     unresolvedCountry,
   };
@@ -106,7 +125,8 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
   }
   if (!decided.stateProvince && context.stateProvinceKey !== undefined && feature.stateProvince !== null
     && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases)) {
+    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases)
+    && shortFormKey(feature.stateProvince) !== context.stateProvinceShortKey) {
     return `state/province '${feature.stateProvince}', not the one given`;
   }
   if (!decided.county && context.countyKey !== undefined && feature.county !== null

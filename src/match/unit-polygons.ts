@@ -1,10 +1,13 @@
 /**
  * The administrative filter by polygon: when the gazetteer holds the polygon of the stated municipality,
  * county or state, a candidate whose center lies outside every polygon of that unit is dropped, and that
- * level's name no longer filters (contextMismatch). Pure: the units come from the caller.
+ * level's name no longer filters (contextMismatch). A line (a road, a river) is kept when any part of it
+ * lies in the unit: a road that leaves the county is still the county's road. Pure: the units come from
+ * the caller.
  */
 import type { MultiPolygon, Polygon } from 'geojson';
 import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
+import { lineIntersect } from '@turf/line-intersect';
 import type { ResolvedContext, SpatiallyDecided } from './context.ts';
 import type { Candidate, CandidateQuery, Feature } from './types.ts';
 
@@ -61,11 +64,29 @@ export function unitPolygonFilter(
         // A state is not inside its county: units above the tested level are not tested.
         if (UNIT_RANK[feature.featureType ?? ''] > UNIT_RANK[level]) continue;
         const inside = units.some((unit) => booleanPointInPolygon([feature.longitude, feature.latitude], unit.geometry as Polygon | MultiPolygon));
-        if (!inside) {
+        if (!inside && !lineReaches(feature, units, attachGeometry)) {
           return `center outside the polygon of ${LEVEL_WORDS[level]} '${units[0].name}' (${units.map((u) => `${u.sourceId}:${u.featureId}`).join(', ')})`;
         }
       }
       return null;
     },
   };
+}
+
+/**
+ * True when a line feature has a vertex inside one of the units' polygons or crosses one's boundary
+ * (turf's planar intersection: segments taken as straight in longitude and latitude, not as geodesics, so a
+ * boundary grazed within that difference may be missed). False for points and polygons, whose center decides.
+ * @example lineReaches(estradaDoSul, [countyRioFundo], attach) // true: the road leaves the county
+ */
+function lineReaches(feature: Feature, units: Feature[], attachGeometry: (feature: Feature) => void): boolean {
+  if (feature.geometryType !== 'LineString' && feature.geometryType !== 'MultiLineString') return false;
+  attachGeometry(feature);
+  const line = feature.geometry;
+  if (!line || (line.type !== 'LineString' && line.type !== 'MultiLineString')) return false;
+  const vertices = line.type === 'LineString' ? line.coordinates : line.coordinates.flat();
+  return units.some((unit) => {
+    const polygon = unit.geometry as Polygon | MultiPolygon;
+    return vertices.some((v) => booleanPointInPolygon(v, polygon)) || lineIntersect(line, polygon).features.length > 0;
+  });
 }

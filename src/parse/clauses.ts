@@ -132,7 +132,9 @@ export function readAdministrative(text: string, tokens: Token[], from: number, 
   const written = slice(from, to);
   const head = unitWordLevel(tokens[from]);
   if (head && tokens[from + 1]!.kind === 'word') {
-    const nameFrom = L.FROM_WORDS.has(tokens[from + 1]!.norm) && to - from > 2 ? from + 2 : from + 1;
+    // "Municipio de X", and "Municipio d X" with "de" cut short: a lone "d" after a unit word is no name's first word.
+    const of = L.FROM_WORDS.has(tokens[from + 1]!.norm) || tokens[from + 1]!.norm === 'd';
+    const nameFrom = of && to - from > 2 ? from + 2 : from + 1;
     return { name: slice(nameFrom, to), level: head, written };
   }
   const tail = unitWordLevel(tokens[to - 1]);

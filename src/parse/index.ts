@@ -4,7 +4,7 @@
  * assumption in words). Pure and total: any text gets an answer, never an exception.
  * @example parseLocality('10 km NE of Vila Serena').type // 'offset-heading'
  */
-import type { AdministrativeLevel, Clause, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
+import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
@@ -408,7 +408,10 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
       others.push(clauseReading(piece.reading, index));
       return;
     }
-    const field = chainLevel > 0 && index < best ? ADMINISTRATIVE_ORDER[chainLevel] : undefined;
+    // "Alisos: Fazenda Boa Vista, …": a name whose generic word says farm, water, mountain, road or park is a
+    // feature, never a unit of the chain.
+    const kind = piece.reading.featureKind;
+    const field = chainLevel > 0 && index < best && (!kind || UNIT_LIKE_KINDS.has(kind)) ? ADMINISTRATIVE_ORDER[chainLevel] : undefined;
     if (field && !result.administrative[field] && index === pieces.findIndex((p) => p.reading?.type === 'named-place')) {
       result.administrative[field] = piece.reading.features[0]!;
       piece.clause.kind = 'administrative';
@@ -423,6 +426,9 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   }
   return result;
 }
+
+/** Kinds of place a link of an administrative chain may be written as: a settlement or a locality. */
+const UNIT_LIKE_KINDS: ReadonlySet<FeatureKind> = new Set(['populated-place', 'locality']);
 
 /**
  * "Mun. Alisos, 17 km N da cidade": a place-type word alone ("the town", "la ciudad", "a cidade", "la ville")

@@ -34,9 +34,17 @@ export const LEADING_PREPOSITIONS = set('a at');
 export const FROM_WORDS = set("of from off de del desde depuis do da dos das du des d'");
 /** FROM_WORDS that never stand inside a name ("from", "desde"), unlike "de", "do", "du". */
 export const STRONG_FROM_WORDS = set('from off desde depuis');
+/** A contracted "of the" that joins a line's capitalised generic word to the rest of its name: "Estrada do Sul", "Camino del Norte", "Sentier des Crêtes". */
+export const NAME_GENITIVES = set('do da dos das du des del');
 
 /** Words that introduce the feature a bearing points toward (the heading is reversed, docs/method.md §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
+
+/**
+ * "X hacia Y", "X toward Y", "X rumo a Y", "X vers Y" with no distance: somewhere on the way from X toward Y,
+ * read as between X and Y [CHOICE towardWithoutDistance]. Only words that cannot be part of a name ("to", "a" can).
+ */
+export const TOWARD_WITHOUT_DISTANCE = phrases('toward | towards | hacia | rumbo a | vers | en direction de | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a');
 
 /** Words that may stand before a heading: "al N", "ao sul", "au nord", "à l'est", "to the N". */
 export const HEADING_PREFIXES = phrases("a la | a l' | al | ao | au | a | to the | l' | at | on a bearing of | on bearing");
@@ -63,9 +71,22 @@ export const NEAR_PREFIXES = phrases(
     "aux environs de | aux environs du | aux alentours de | a proximite de | pres de | pres du | pres d' | proche de | environs de | alentours de | banlieue de | " +
     // Latin "prope" (near), written on older labels in every language.
     'prope | ' +
+    // "vecindad de X", "alrededor de X" (singular), "ao redor de X", "autour de X"; "cerca X" without "de".
+    'vecindad de | vecindad del | en la vecindad de | vecindades de | alrededor de | alrededor del | ao redor de | ao redor do | ao redor da | ' +
+    'nas vizinhancas de | vizinhancas de | vizinhanca de | au voisinage de | voisinage de | autour de | autour du | cerca | ' +
+    // "above X", "arriba de X", "acima de X", "au-dessus de X": higher ground by X, no heading given.
+    'above of | above | arriba de | arriba del | encima de | acima de | acima do | acima da | au dessus de | au dessus du | au-dessus de | au-dessus du | ' +
     // "behind X" places the specimen near X, no heading given.
     'behind | atras de | atras do | atras da | detras de | detras del | derriere',
 );
+/**
+ * Generic words of unnamed relief before "near"/"of"/"above" X ("Mountains near X", "Hills of X", "colinas
+ * cerca de X", "serras perto de X", "collines près de X"): the feature is unnamed; the reading is "near X".
+ */
+export const UNNAMED_RELIEF_WORDS = set('mountains mountain hills hill heights ridges ridge slopes montanas montes colinas lomas cerros serras morros colinas montagnes collines hauteurs');
+/** Words joining such an unnamed feature to the place: "near" prefixes, and "of", "above" ("Hills of X"). */
+export const UNNAMED_RELIEF_JOINERS = set('of above');
+
 /** near / vicinity as suffixes after the feature ("X vicinity", "X y alrededores"). */
 export const NEAR_SUFFIXES = phrases('and vicinity | vicinity | vic | area | outskirts | environs | surroundings | y alrededores | alrededores | e arredores | arredores | et environs | alentours | abords');
 

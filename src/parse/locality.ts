@@ -145,11 +145,14 @@ function modeOfNoun(n: string | undefined): PathQualifier['mode'] | undefined {
  */
 function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
   if (!stopAtFrom) return s.tokens.length;
+  // "Estrada do Sul de X", "Sentier des Crêtes de X": the "do"/"des" after the line's capitalised generic
+  // word is part of its name, and so is the word after it, even a heading ("Sul"); the next "de" is "from".
+  const joins = (k: number) => k > i && L.NAME_GENITIVES.has(s.tokens[k]!.norm) && !!modeOfNoun(norm(s, k - 1)) && /^\p{Lu}/u.test(s.tokens[k - 1]!.text);
   let stop = -1;
   for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.STRONG_FROM_WORDS.has(s.tokens[k]!.norm)) stop = k;
-  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '')) stop = k;
+  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') && !joins(k)) stop = k;
   let k = i;
-  while (k < s.tokens.length && k !== stop && !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES))) k++;
+  while (k < s.tokens.length && k !== stop && (joins(k - 1) || !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
   return k;
 }
 
@@ -514,8 +517,16 @@ function readClause(s: Source): LocalityRead {
     const inner = readLocalityClause(text, tokens.slice(i + nearPrefix));
     if (inner.type === 'junction') return { ...inner, approximate: approximate || inner.approximate, notes: [`written as "${s.text.slice(s.tokens[i]!.start, s.tokens[i + nearPrefix - 1]!.end)}" the junction`] };
     const place = placeAt(s, i + nearPrefix, end);
-    const notes = norm(s, i) === 'cerca' ? ['"cerca de" before a place read as "near" (before a number it means "about")'] : [];
+    const notes = norm(s, i) === 'cerca' ? [`"${s.text.slice(s.tokens[i]!.start, s.tokens[i + nearPrefix - 1]!.end)}" before a place read as "near" (before a number it means "about")`] : [];
     return place ? reading('near', [place], { approximate, notes }) : unparseable('"near" without a place', approximate);
+  }
+
+  // "Mountains near X", "Hills of X", "colinas cerca de X": an unnamed feature by X, read as near X.
+  const relief = norm(s, i) === 'the' ? i + 1 : i;
+  if (L.UNNAMED_RELIEF_WORDS.has(norm(s, relief) ?? '')) {
+    const joiner = matchPhrase(s, relief + 1, L.NEAR_PREFIXES) || (L.UNNAMED_RELIEF_JOINERS.has(norm(s, relief + 1) ?? '') ? 1 : 0);
+    const place = joiner && s.tokens[relief + 1 + joiner]?.kind !== 'number' ? placeAt(s, relief + 1 + joiner, end) : null;
+    if (place) return reading('near', [place], { approximate, notes: [`"${s.text.slice(s.tokens[i]!.start, s.tokens[relief + joiner]!.end)}" read as an unnamed feature near ${place}`] });
   }
 
   const offsets = readOffsets(s, i, approximate, true);
@@ -571,6 +582,13 @@ function readClause(s: Source): LocalityRead {
     if (place) return reading('near', [place], { approximate });
   }
 
+  // "X hacia Y", "X rumo a Y", "X vers Y", no distance: on the way from X toward Y [CHOICE towardWithoutDistance].
+  for (let k = i + 1; k < end - 1; k++) {
+    const length = matchPhrase(s, k, L.TOWARD_WITHOUT_DISTANCE);
+    const from = length && hasNameWord(s, i, k) ? placeAt(s, i, k) : null;
+    const aim = from ? placeAt(s, k + length, end) : null;
+    if (aim) return reading('between', [from!, aim], { approximate, notes: [`"${s.text.slice(s.tokens[k]!.start, s.tokens[end - 1]!.end)}" with no distance: read as on the way between ${from} and ${aim} [CHOICE towardWithoutDistance]`] });
+  }
   if (isHabitat(tokens, i, end)) return reading('habitat', [], { approximate, reason: 'habitat description, names no place' });
   // "Paragem entre Alisos e Vila Serena", "camp between X and Y": a place named by the two it lies between.
   for (let k = i + 1; k < end - 3; k++) {

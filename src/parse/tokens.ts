@@ -3,6 +3,8 @@
  * folded form (lower case, accents removed) the lexicon is written in.
  * @example tokenize('10 km NE').map((t) => t.kind) // ['number', 'word', 'word']
  */
+import { UNIT_WORDS } from './units.ts';
+
 /** One token of a locality text; offsets point into the verbatim text. */
 export interface Token {
   kind: 'number' | 'word' | 'symbol';
@@ -99,5 +101,32 @@ export function tokenize(text: string): Token[] {
     }
     space = false;
   }
-  return tokens;
+  return withNumberWords(tokens);
+}
+
+/**
+ * Whole numbers written out in the four languages. Left out: words that are also articles or other words
+ * ("un", "uno", "una", "um", "uma", "une"; Portuguese "dois" stays, Spanish "dos" is also Portuguese "of the").
+ */
+const NUMBER_WORDS: ReadonlyMap<string, number> = new Map([
+  ...'one two three four five six seven eight nine ten eleven twelve thirteen fourteen fifteen sixteen seventeen eighteen nineteen twenty'.split(' ').map((w, k) => [w, k + 1] as const),
+  ...'thirty forty fifty sixty seventy eighty ninety'.split(' ').map((w, k) => [w, (k + 3) * 10] as const),
+  ...'tres cuatro cinco seis siete ocho nueve diez once doce quince veinte treinta cuarenta cincuenta'.split(' ').map((w, k) => [w, [3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 15, 20, 30, 40, 50][k]!] as const),
+  ...'dois duas quatro sete oito dez doze quinze vinte trinta quarenta cinquenta'.split(' ').map((w, k) => [w, [2, 2, 4, 7, 8, 10, 12, 15, 20, 30, 40, 50][k]!] as const),
+  ...'deux trois quatre cinq sept huit neuf dix douze quinze vingt trente quarante cinquante'.split(' ').map((w, k) => [w, [2, 3, 4, 5, 7, 8, 9, 10, 12, 15, 20, 30, 40, 50][k]!] as const),
+]);
+
+/**
+ * "Forty miles S of X", "doce km al N de X": a number written out right before a distance unit becomes a
+ * number token (its text as written), read with the precision of the same number written in digits. The
+ * unit must be in lower case: "Twelve Mile Creek" is a name.
+ */
+function withNumberWords(tokens: Token[]): Token[] {
+  return tokens.map((t, k) => {
+    const value = t.kind === 'word' ? NUMBER_WORDS.get(t.norm) : undefined;
+    const unit = tokens[k + 1];
+    // A capitalised unit makes a name: "Twelve Mile Creek", "Forty Mile".
+    const lowerUnit = unit?.kind === 'word' && unit.text[0] === unit.text[0]!.toLowerCase();
+    return value !== undefined && lowerUnit && UNIT_WORDS.has(unit!.norm) ? { ...t, kind: 'number', norm: String(value), decimals: '', dotted: undefined } : t;
+  });
 }

@@ -51,8 +51,8 @@ describe('locate', () => {
     expect(result.reason).toMatch(/Villa Quimera/);
   });
 
-  it('says so in the remarks when a name was matched fuzzily', () => {
-    const result = locate(store, { locality: 'Kingsfery', countryCode: 'QV' });
+  it('says so in the remarks when a name was matched fuzzily (a bare name so matched is left for review: fuzzyLoneName)', () => {
+    const result = locate(store, { locality: '2 km N of Kingsfery', countryCode: 'QV' });
     expect(result.status).toBe('georeferenced');
     expect(result.georeference?.remarks.join(' ')).toMatch(/Kingsferry/);
   });

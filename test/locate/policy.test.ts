@@ -63,6 +63,25 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
     expect(result.reason).toMatch(/names the county "Puerto Lindo", not a place; no polygon of it is loaded \[CHOICE unitWithoutPolygon/);
   });
 
+  it('takes a county named alone, with no polygon loaded, at its seat in the stated state, widened by the unit\'s default extent ([CHOICE] unitSeatMeters)', () => {
+    // "Puerto Lindo" as the record's county in Poniente: no county polygon of that name; the city qv-0013 is its seat.
+    const result = locate(store, { locality: 'Puerto Lindo', countryCode: 'QV', stateProvince: 'Poniente', county: 'Puerto Lindo' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0013']);
+    expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unitSeatMeters);
+    expect(result.georeference!.uncertaintyMeters).toBeGreaterThanOrEqual(PUERTO_LINDO_RADIUS + METHOD_DEFAULTS.unitSeatMeters);
+    expect(result.georeference!.remarks.join('\n')).toMatch(/names the county "Puerto Lindo", whose polygon is not loaded: georeferenced at its seat.*\[CHOICE unitSeatMeters/);
+  });
+
+  it('leaves a bare name found only by a near spelling for a person to confirm ([CHOICE] fuzzyLoneName)', () => {
+    const result = locate(store, { locality: 'Milbrook', countryCode: 'QV', stateProvince: 'Côte-du-Levant' });
+    expect(METHOD_DEFAULTS.fuzzyLoneName).toBe('review');
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toMatch(/the only near spelling, Millbrook .* left for a person to confirm \[CHOICE fuzzyLoneName/);
+    // With an offset the near spelling is still taken, with its remark: the rule is for a bare name only.
+    expect(locate(store, { locality: '5 km N of Milbrook', countryCode: 'QV', stateProvince: 'Côte-du-Levant' }).status).toBe('georeferenced');
+  });
+
   it('takes the parser\'s administrative-unit reading as the unit ("Município de Serrana")', () => {
     const interpretation: Interpretation = {
       ...parseLocality('Serrana'),
@@ -137,9 +156,18 @@ describe('a later clause names the findable place', () => {
 describe('the stated units are a soft wall', () => {
   it('takes a reference place just outside the stated county, and says so ([CHOICE] justOutsideMeters)', () => {
     // Las Garzas (Tres Cruces) lies 8.7 km outside county Alisos; 10 km N of it reaches into Alisos.
+    // Allowed: 25 km + the offset, 10 km + δ 0.5 km (Chapman & Wieczorek 2020, offset precision table) = 35.5 km.
     const result = locate(store, { locality: '10 km N of Las Garzas', countryCode: 'QV', county: 'Alisos' });
     expect(result.status).toBe('georeferenced');
-    expect(result.georeference!.remarks[0]).toMatch(/"Las Garzas" is not inside the record's county "Alisos" .* but lies 8\.7 km outside it: accepted, within the 25 km allowed \[CHOICE justOutsideMeters/);
+    expect(result.georeference!.remarks[0]).toMatch(/"Las Garzas" is not inside the record's county "Alisos" .* but lies 8\.7 km outside it: accepted, within the 36 km allowed \[CHOICE justOutsideMeters/);
+  });
+
+  it('lets the allowance grow with the offset: the point, not the town, must lie in the county', () => {
+    // El Molino (Cerrillos) lies 28.2 km outside Alisos: refused as a bare name (below), taken 30 km NW of it
+    // (25 km + 30 km + δ 0.5 km), the answer's circle reaching into Alisos.
+    const result = locate(store, { locality: '30 km NW of El Molino', countryCode: 'QV', county: 'Alisos' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.remarks[0]).toMatch(/"El Molino" .* lies 28\.2 km outside it: accepted, within the 56 km allowed/);
   });
 
   it('refuses a place farther out than the allowance, naming it', () => {
@@ -153,6 +181,49 @@ describe('the stated units are a soft wall', () => {
     const result = locate(store, { locality: '10 km S of Las Garzas', countryCode: 'QV', county: 'Alisos' });
     expect(result.status).toBe('unparseable');
     expect(result.reason).toMatch(/wholly outside the bounding unit "Alisos"/);
+  });
+});
+
+describe('places sharing a name are judged by where the answer lands ([CHOICE] namesakesJudgedBy)', () => {
+  // Two San Telmo in the demo gazetteer: a village in Rio Fundo (qv-0062) and a town in Cerrillos (qv-0027).
+  it('takes the namesake whose answer reaches the record\'s county, and says so', () => {
+    const result = locate(store, { locality: '10 km W of San Telmo', countryCode: 'QV', county: 'Rio Fundo' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toContain('qv-0062');
+    expect(result.georeference!.remarks[0]).toMatch(/"San Telmo": San Telmo \(demo:qv-0062, Rio Fundo\) taken, the only one of 2 place\(s\) .* whose answer's circle reaches it \[CHOICE namesakesJudgedBy/);
+  });
+
+  it('calls the text ambiguous when both answers reach the county, though one town lies outside it', () => {
+    const result = locate(store, { locality: '13 km E of San Telmo', countryCode: 'QV', county: 'Rio Fundo' });
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toMatch(/2 places of that name give points whose circles reach the record's county "Rio Fundo": San Telmo \(demo:qv-0062, Rio Fundo\); San Telmo \(demo:qv-0027, Cerrillos\)/);
+    // Judged by the reference place only, the town inside the county is taken, as before.
+    expect(locate(store, { locality: '13 km E of San Telmo', countryCode: 'QV', county: 'Rio Fundo', options: { namesakesJudgedBy: 'reference place' } }).status).toBe('georeferenced');
+  });
+
+  it('judges namesakes that both lie outside the county the same way', () => {
+    // Bellevue: a hamlet in Serrana (qv-0052) and a village in Haut-Levant (qv-0075), neither in Rio Fundo.
+    const result = locate(store, { locality: '10 km SW of Bellevue', countryCode: 'QV', county: 'Rio Fundo' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toContain('qv-0052');
+  });
+
+  it('reads the record\'s own county as context, not as the place measured from', () => {
+    // Rio Fundo is a county (qv-0009), a town in it (qv-0061) and a river (qv-0161): with county Rio Fundo
+    // the county leaves the choice; the town and the river still make the text ambiguous.
+    const result = locate(store, { locality: '10 km W of Rio Fundo', countryCode: 'QV', county: 'Rio Fundo' });
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toMatch(/qv-0061/);
+    expect(result.reason).toMatch(/qv-0161/);
+    expect(result.reason).not.toMatch(/qv-0009/);
+  });
+
+  it('prefers the exact name outside the county to a near spelling inside it when the answer reaches the county', () => {
+    // Las Dunas (qv-0126, Tres Cruces) written exactly; Las Tunas (qv-0020) lies in Alisos, one letter off.
+    const result = locate(store, { locality: '19 km NW of Las Dunas', countryCode: 'QV', county: 'Alisos' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toContain('qv-0126');
+    expect(result.georeference!.remarks[0]).toMatch(/preferred to the near spelling "Las Tunas" inside it/);
   });
 });
 

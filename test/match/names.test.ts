@@ -5,7 +5,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
 import { foldName, nameVariants } from '../../src/match/fold.ts';
-import { administrativeKey, countryCodeForName } from '../../src/match/context.ts';
+import { administrativeKey, contextMismatch, countryCodeForName, resolveContext, shortFormKey } from '../../src/match/context.ts';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
 
 describe('foldName', () => {
@@ -52,6 +52,18 @@ describe('administrative names and countries', () => {
     expect(administrativeKey('Departamento del Cauca')).toBe('cauca');
     expect(administrativeKey('Worcester County')).toBe('worcester');
     expect(administrativeKey('County')).toBe('county');
+  });
+
+  it('compares a unit\'s official long form "X de <honoree>" by its short form, and no other "de"', () => {
+    // Official names of Mexican states as their constitutions give them (from memory): "Veracruz de Ignacio de
+    // la Llave", "Michoacán de Ocampo", "Coahuila de Zaragoza"; the gazetteer writes "Veracruz".
+    expect(shortFormKey('Veracruz de Ignacio de la Llave')).toBe('veracruz');
+    expect(shortFormKey('Michoacán de Ocampo')).toBe('michoacan');
+    expect(shortFormKey('Provincia de Salta')).toBe('salta');
+    expect(shortFormKey('Mato Grosso do Sul')).toBe('mato grosso sul');
+    const veracruz = { stateProvince: 'Veracruz', countryCode: 'MX' } as Parameters<typeof contextMismatch>[0];
+    expect(contextMismatch(veracruz, resolveContext({ countryCode: 'MX', stateProvince: 'VERACRUZ DE IGNACIO DE LA LLAVE' }))).toBeNull();
+    expect(contextMismatch(veracruz, resolveContext({ countryCode: 'MX', stateProvince: 'Puebla' }))).not.toBeNull();
   });
 
   it('resolves country names in four languages to ISO 3166-1 alpha-2 codes (CLDR names through Intl)', () => {
