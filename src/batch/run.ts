@@ -19,8 +19,7 @@ import type { LocateRequest } from '../locate/locate.ts';
 import { appendedLine, csvLine, groupFields, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
 import { GENERALISATION_TERMS, generaliseRecord, type WithheldTerm } from '../record/generalised-record.ts';
 import { sensitiveGeneralisation } from './sensitive-records.ts';
-import type { GeneralisationSettings } from '../georef/generalisation.ts';
-import type { Generalisation } from '../georef/generalisation.ts';
+import type { Generalisation, GeneralisationSettings } from '../georef/generalisation.ts';
 import { checkCoordinates, hasCoordinates, isFlagged } from '../record/coordinate-check.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
@@ -31,7 +30,7 @@ import { fileHead, notText } from '../store/file-kind.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
 import { originalLine } from './original-line.ts';
 import {
-  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
+  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, jobGeneralisation, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
 } from '../store/jobs.ts';
 import { jobsDatabasePath } from '../store/side-files.ts';
@@ -412,7 +411,7 @@ async function writeRows(
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
   const results = resultLookup(jobs, job.id);
-  const { generalise } = JSON.parse(job.settings) as { generalise?: GeneralisationSettings };
+  const generalise = jobGeneralisation(job);
   const withhold = jobs.prepare('INSERT OR REPLACE INTO batch_withheld (job_id, row_number, precise) VALUES (?, ?, ?)');
   let generalisationOf: ((fields: readonly string[]) => Generalisation | undefined) | undefined;
   const writeBytes = (bytes: Buffer) => {
