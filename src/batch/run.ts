@@ -19,9 +19,8 @@ import type { LocateRequest } from '../locate/locate.ts';
 import { appendedLine, csvLine, groupFields, outputHeader, renderGroup, type RenderedGroup } from '../output/csv.ts';
 import { GENERALISATION_TERMS, generaliseRecord, type WithheldTerm } from '../record/generalised-record.ts';
 import { sensitiveGeneralisation } from './sensitive-records.ts';
-import type { GeneralisationSettings } from '../georef/generalisation.ts';
-import type { Generalisation } from '../georef/generalisation.ts';
-import { checkCoordinates } from '../record/coordinate-check.ts';
+import type { Generalisation, GeneralisationSettings } from '../georef/generalisation.ts';
+import { checkCoordinates, hasCoordinates, isFlagged } from '../record/coordinate-check.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
 import { VERSION } from '../version.ts';
@@ -31,7 +30,7 @@ import { fileHead, notText } from '../store/file-kind.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
 import { originalLine } from './original-line.ts';
 import {
-  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, loadJob, openJobs, sameSources, updateJob,
+  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, jobGeneralisation, loadJob, openJobs, sameSources, updateJob,
   type BatchJob, type JobState,
 } from '../store/jobs.ts';
 import { jobsDatabasePath } from '../store/side-files.ts';
@@ -134,6 +133,13 @@ const IN_PROCESS_LIMIT = 2000;
 const WORKER_HEAP_MB = 128;
 /** Group results kept parsed in memory while writing [CHOICE]. */
 const RESULT_CACHE_SIZE = 2000;
+/**
+ * Bytes of plain rows (see PlainRows) kept in memory while writing [CHOICE]: a plain row of bench:batch is
+ * about 3.4 kB, so this holds some 12,000 localities; measured there (200,000 rows, 39,209 distinct), peak
+ * RSS 454 MB with it and 487 MB with 64 MB, against the 500 MB target. Bounded, so memory stays flat
+ * however many localities a file has.
+ */
+const PLAIN_ROW_BUDGET = 40 * 2 ** 20;
 
 /**
  * Start (or resume) a batch job. Resolves once the job is stored, with its id and a promise of the
@@ -281,10 +287,11 @@ async function runJob(jobs: Database.Database, started: BatchJob, format: InputF
   const pending = read.distinctDone < (read.distinctTotal ?? 0);
   updateJob(jobs, read.id, { state: pending ? 'georeferencing' : 'writing', error: null });
   const results = new ResultSignal();
+  const plainRows = new PlainRows(delimiter);
   const georeferencing = pending
-    ? georeferenceGroups(jobs, read, options, results).then(() => results.finish(), (error: unknown) => results.finish(error))
+    ? georeferenceGroups(jobs, read, options, results, plainRows).then(() => results.finish(), (error: unknown) => results.finish(error))
     : results.finish();
-  const writing = writeRows(jobs, read, format, delimiter, options, results);
+  const writing = writeRows(jobs, read, format, delimiter, options, results, plainRows);
   await Promise.all([georeferencing, writing]);
   const job = loadJob(jobs, started.id);
   await deliver(job, options);
@@ -339,23 +346,30 @@ function recordContextOf(job: BatchJob): RecordContext {
 }
 
 /** Phase 2: each distinct locality not yet done, in chunks, over worker threads; each chunk committed as it comes back. */
-async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions, results: ResultSignal): Promise<void> {
+async function georeferenceGroups(jobs: Database.Database, job: BatchJob, options: BatchJobOptions, results: ResultSignal, plainRows: PlainRows): Promise<void> {
   const settings = JSON.parse(job.settings) as BatchSettings;
   const context = recordContextOf(job);
   // A walk along the rowid from the last chunk: the (job_id, key) index would sort the whole job each time.
-  const next = jobs.prepare('SELECT id, request FROM batch_locality NOT INDEXED WHERE id > ? AND job_id = ? AND result IS NULL ORDER BY id LIMIT ?');
+  const next = jobs.prepare('SELECT id, key, request FROM batch_locality NOT INDEXED WHERE id > ? AND job_id = ? AND result IS NULL ORDER BY id LIMIT ?');
   const setResult = jobs.prepare('UPDATE batch_locality SET result = ? WHERE id = ?');
+  /** The keys of the localities out with the workers, by id. */
+  const keys = new Map<number, string>();
   const total = job.distinctTotal ?? 0;
   let distinctDone = (jobs.prepare('SELECT COUNT(*) AS n FROM batch_locality WHERE job_id = ? AND result IS NOT NULL').get(job.id) as { n: number }).n;
   const save = jobs.transaction((results: { id: number; result: RenderedGroup }[]) => {
-    for (const r of results) setResult.run(JSON.stringify(r.result), r.id);
+    for (const r of results) {
+      setResult.run(JSON.stringify(r.result), r.id);
+      plainRows.keep(keys.get(r.id)!, r.result);
+      keys.delete(r.id);
+    }
     distinctDone += results.length;
     updateJob(jobs, job.id, { distinctDone });
   });
   let cursor = 0;
   const nextTask = (): GeoreferenceTask | undefined => {
-    const rows = next.all(cursor, job.id, GROUPS_PER_CHUNK) as { id: number; request: string }[];
+    const rows = next.all(cursor, job.id, GROUPS_PER_CHUNK) as { id: number; key: string; request: string }[];
     if (rows.length === 0) return undefined;
+    for (const r of rows) keys.set(r.id, r.key);
     cursor = rows[rows.length - 1].id;
     return { dbPath: job.gazetteerPath, groups: rows.map((r) => ({ id: r.id, request: JSON.parse(r.request) as LocateRequest })), settings, context, delimiter: job.delimiter as Delimiter };
   };
@@ -386,7 +400,9 @@ async function georeferenceGroups(jobs: Database.Database, job: BatchJob, option
  * chunks. A part writes only its own rows, each framed with its row number (see partition.ts); its
  * `rowsDone` counts the input rows passed, so that a resumed part starts after the same input row.
  */
-async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions, ready: ResultSignal): Promise<void> {
+async function writeRows(
+  jobs: Database.Database, job: BatchJob, format: InputFormat, delimiter: Delimiter, options: BatchJobOptions, ready: ResultSignal, plainRows: PlainRows,
+): Promise<void> {
   if (job.outputBytes > 0 && !existsSync(job.partialPath) && job.outputPath !== '-' && existsSync(job.outputPath)) return; // renamed before the crash
   const restart = job.outputBytes > 0 && !existsSync(job.partialPath);
   let position = restart ? 0 : job.outputBytes;
@@ -395,11 +411,10 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
   const fd = openSync(job.partialPath, existsSync(job.partialPath) ? 'r+' : 'w');
   const context = recordContextOf(job);
   const results = resultLookup(jobs, job.id);
-  const { generalise } = JSON.parse(job.settings) as { generalise?: GeneralisationSettings };
+  const generalise = jobGeneralisation(job);
   const withhold = jobs.prepare('INSERT OR REPLACE INTO batch_withheld (job_id, row_number, precise) VALUES (?, ?, ?)');
   let generalisationOf: ((fields: readonly string[]) => Generalisation | undefined) | undefined;
-  const writeText = (text: string) => {
-    const bytes = Buffer.from(text, 'utf8');
+  const writeBytes = (bytes: Buffer) => {
     // writeSync may write less than asked (a disk filling up); only bytes really written count.
     for (let written = 0; written < bytes.length; ) written += writeSync(fd, bytes, written, bytes.length - written, position + written);
     position += bytes.length;
@@ -410,10 +425,11 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
     let columns: ColumnIndex | undefined;
     let headerLength = 0;
     let rowIndex = 0;
-    let buffer: string[] = [];
+    // UTF-8 bytes, not strings: a plain row's appended fields go from the job database to the file undecoded.
+    let buffer: Buffer[] = [];
     const flush = () => {
       if (rowIndex === rowsDone) return;
-      writeText(buffer.join(''));
+      writeBytes(Buffer.concat(buffer));
       rowsDone = rowIndex;
       buffer = [];
       updateJob(jobs, job.id, { rowsDone, outputBytes: position, tallies });
@@ -426,7 +442,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
         if (position === 0) {
           const appended = csvLine(outputHeader(record.fields, generalise ? GENERALISATION_TERMS : []).slice(headerLength), delimiter);
           const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
-          writeText(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine));
+          writeBytes(Buffer.from(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine)));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }
         continue;
@@ -434,13 +450,24 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
       if (++rowIndex <= rowsDone) continue;
       const key = record.problem ? undefined : groupOf(record.fields, columns).key;
       const inPart = job.partCount === null || partOfKey(key, job.partCount) === job.partIndex;
-      let group = key === undefined || !inPart ? undefined : results(key);
-      while (inPart && key !== undefined && !group) {
+      // A row giving no coordinates (and not generalised) appends its group's plain row as stored; only the others need the whole result.
+      const plain = !generalisationOf && !record.problem && !hasCoordinates(fieldAt(record, columns.decimalLatitude), fieldAt(record, columns.decimalLongitude));
+      const lookup = (k: string) => (plain ? plainRows.get(k) : undefined) ?? results(k);
+      let found = key === undefined || !inPart ? undefined : lookup(key);
+      while (inPart && key !== undefined && !found) {
         if (ready.finished) throw new Error(`batch job ${job.id}: no result for the locality ${key}${ready.failed ? ` (${errorMessage(ready.failed)})` : ''}`);
         await ready.next();
-        group = results(key);
+        found = lookup(key);
       }
-      if (inPart) {
+      if (plain && found !== undefined && !('appended' in found)) found = plainRows.keep(key!, found);
+      if (found !== undefined && 'appended' in found) {
+        count(tallies, found.status);
+        if (found.flagged) count(tallies, 'flagged');
+        const originals = `${originalLine(record, headerLength, delimiter)}${delimiter}`;
+        if (job.partCount === null) buffer.push(Buffer.from(originals), found.appended, LINE_END_BYTES);
+        else buffer.push(Buffer.from(partRowFrame(rowIndex, `${originals}${found.appended.toString('utf8')}${LINE_END}`)));
+      } else if (inPart) {
+        let group = found;
         let extra: string[] | undefined;
         if (generalisationOf) {
           const asked = record.problem ? undefined : generalisationOf(record.fields);
@@ -450,7 +477,7 @@ async function writeRows(jobs: Database.Database, job: BatchJob, format: InputFo
           extra = generalised?.terms ?? ['', ''];
         }
         const line = outputRow(record, headerLength, columns, context, group, tallies, delimiter, extra);
-        buffer.push(job.partCount === null ? line : partRowFrame(rowIndex, line));
+        buffer.push(Buffer.from(job.partCount === null ? line : partRowFrame(rowIndex, line)));
       }
       if (rowIndex - rowsDone >= ROWS_PER_CHUNK) {
         flush();
@@ -488,8 +515,51 @@ function resultLookup(jobs: Database.Database, jobId: string): (key: string) => 
   };
 }
 
+/** What a row giving no coordinates of its own appends (UTF-8), with its status and whether it counts as flagged. */
+interface PlainRow {
+  appended: Buffer;
+  status: string;
+  flagged: boolean;
+}
+
+/**
+ * Plain rows by locality key: formatted once, from the group's result, and kept until PLAIN_ROW_BUDGET
+ * bytes are held; the localities after that are read from the job again each time (their parsed results
+ * partly kept, see resultLookup), so that memory stays bounded however many localities a file has.
+ */
+class PlainRows {
+  private readonly held = new Map<string, PlainRow>();
+  private bytes = 0;
+
+  constructor(private readonly delimiter: Delimiter) {}
+
+  get(key: string): PlainRow | undefined {
+    return this.held.get(key);
+  }
+
+  /**
+   * The plain row of a locality's group, kept when the budget allows.
+   * @example plainRows.keep(key, group).appended.toString() // '-45.5000,-131.0000,…,requires verification,'
+   */
+  keep(key: string, group: RenderedGroup): PlainRow {
+    const kept = this.held.get(key);
+    if (kept) return kept;
+    const text = appendedLine(group, [], group.flags ?? [], this.delimiter);
+    // A buffer of its own: Buffer.from would cut a small one from a shared 8 kB slab, which it would keep alive whole.
+    const appended = Buffer.allocUnsafeSlow(Buffer.byteLength(text));
+    appended.write(text);
+    const row = { appended, status: group.status, flagged: isFlagged(group.flags ?? []) };
+    if (this.bytes + row.appended.length <= PLAIN_ROW_BUDGET) {
+      this.held.set(key, row);
+      this.bytes += row.appended.length;
+    }
+    return row;
+  }
+}
+
 /** RFC 4180 line ends (CRLF) for the output. */
 const LINE_END = '\r\n';
+const LINE_END_BYTES = Buffer.from(LINE_END);
 
 function errorMessage(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
@@ -539,12 +609,16 @@ function outputRow(
     count(tallies, unreadable.status);
     return `${originals}${delimiter}${appendedLine(unreadable, [], [], delimiter, extra)}${LINE_END}`;
   }
-  const at = (i?: number) => (i === undefined ? '' : (record.fields[i] ?? ''));
-  const check = checkCoordinates(at(columns.decimalLatitude), at(columns.decimalLongitude), group.circle, group.centers);
+  const check = checkCoordinates(fieldAt(record, columns.decimalLatitude), fieldAt(record, columns.decimalLongitude), group.circle, group.centers);
   count(tallies, group.status);
   const flags = [...(group.flags ?? []), ...check.flags];
-  if (flags.some((f) => f !== 'agrees-with-locality')) count(tallies, 'flagged');
+  if (isFlagged(flags)) count(tallies, 'flagged');
   return `${originals}${delimiter}${appendedLine(group, check.remarks, flags, delimiter, extra)}${LINE_END}`;
+}
+
+/** A record's field by column index; '' for a column the input lacks or the row leaves out. */
+function fieldAt(record: InputRecord, index: number | undefined): string {
+  return index === undefined ? '' : (record.fields[index] ?? '');
 }
 
 function count(tallies: Record<string, number>, key: string): void {

@@ -94,6 +94,23 @@ export function decimalNumber(text: string): number | undefined {
 }
 
 /**
+ * Whether a record gives any coordinate at all: a record giving none has nothing to check, so its
+ * check finds no flag and no remark whatever its locality.
+ * @example hasCoordinates(' ', '') // false
+ */
+export function hasCoordinates(latitudeText: string, longitudeText: string): boolean {
+  return latitudeText.trim() !== '' || longitudeText.trim() !== '';
+}
+
+/**
+ * Whether a row's flags count it as flagged: any flag but agreement with the locality.
+ * @example isFlagged(['agrees-with-locality']) // false
+ */
+export function isFlagged(flags: readonly string[]): boolean {
+  return flags.some((f) => f !== 'agrees-with-locality');
+}
+
+/**
  * Check a record's decimalLatitude/decimalLongitude as written. Nothing is flagged when both are empty;
  * a unit's center is looked for only when the coordinates are not inside the circle.
  * Distances are geodesic on WGS84 (geographiclib, about 15 nm).
@@ -107,7 +124,7 @@ export function checkCoordinates(latitudeText: string, longitudeText: string, ci
   const found: { flag: CoordinateFlag; remark: string }[] = [];
   const add = (flag: CoordinateFlag, remark: string) => found.push({ flag, remark });
   const done = () => ({ flags: found.map((f) => f.flag), remarks: found.map((f) => f.remark) });
-  if (latText === '' && lonText === '') return done();
+  if (!hasCoordinates(latText, lonText)) return done();
   const written = `the record's coordinates (${latText || 'empty'}, ${lonText || 'empty'})`;
   if (latText === '' || lonText === '') {
     add('one-side-empty', `${written}: one coordinate is empty, which some programs read as zero; not compared`);
