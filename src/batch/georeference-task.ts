@@ -2,7 +2,7 @@
  * The work a batch worker thread does: georeference a chunk of distinct localities against the
  * gazetteer, which each worker opens read-only once and keeps open.
  */
-import { openGazetteer, type OpenOptions } from '../store/gazetteer-store.ts';
+import { openGazetteer, type GazetteerStore, type OpenOptions } from '../store/gazetteer-store.ts';
 import type { LocateRequest } from '../locate/locate.ts';
 import { renderGroup, type Delimiter, type RenderedGroup } from '../output/csv.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
@@ -23,18 +23,27 @@ export interface GeoreferenceTask {
   delimiter: Delimiter;
 }
 
-let opened: { dbPath: string; store: ReturnType<typeof openGazetteer> } | undefined;
+let opened: { dbPath: string; store: GazetteerStore } | undefined;
+
+/**
+ * The gazetteer this thread keeps open (read-only) for its tasks: opened on the first task, again when
+ * a task names another file. Shared by the batch's and the service's worker tasks.
+ * @example gazetteerOfThread('g.sqlite', BATCH_STORE_OPTIONS).sources()
+ */
+export function gazetteerOfThread(dbPath: string, options: OpenOptions): GazetteerStore {
+  if (opened?.dbPath !== dbPath) {
+    opened?.store.close();
+    opened = { dbPath, store: openGazetteer(dbPath, options) };
+  }
+  return opened.store;
+}
 
 /**
  * Georeference every group of the task, in order, each rendered for the writer.
  * @example georeferenceChunk({ dbPath: 'g.sqlite', groups: [{ id: 1, request: { locality: 'Alba' } }], settings, context, delimiter: ',' })
  */
 export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: RenderedGroup }[] {
-  if (opened?.dbPath !== task.dbPath) {
-    opened?.store.close();
-    opened = { dbPath: task.dbPath, store: openGazetteer(task.dbPath, BATCH_STORE_OPTIONS) };
-  }
-  const store = opened.store;
+  const store = gazetteerOfThread(task.dbPath, BATCH_STORE_OPTIONS);
   return task.groups.map(({ id, request }) => {
     const group = georeferenceGroup(store, request, task.settings, task.context);
     return { id, result: renderGroup(group, task.delimiter, group.localityType) };

@@ -55,16 +55,10 @@ export type Memo = (key: string, compute: () => LocateResult) => LocateResult;
  *     .darwinCore.georeferenceVerificationStatus // 'requires verification'
  */
 export function georeferenceRecord(finder: CandidateFinder, request: RecordRequest, memo?: Memo): RecordAnswer {
-  const { decimalLatitude, decimalLongitude, edits = {}, attribution, administrativeCenters: wantCenters, ...record } = request;
-  const { chosenFeatures, distancePrecision, ...methodEdits } = edits;
-  const located: LocateRequest = {
-    ...record,
-    options: { ...record.options, ...definedValues(methodEdits) },
-    ...(chosenFeatures?.length || distancePrecision ? { edits: { chosenFeatures, distancePrecision } } : {}),
-  };
+  const { decimalLatitude, decimalLongitude, attribution, administrativeCenters: wantCenters, ...record } = request;
+  const located = locateRequestOf(request);
   const compute = () => locateSafely(finder, located);
-  // The loaded sources' content hashes are part of the key: a gazetteer imported meanwhile never gives a stale result.
-  const result = memo ? memo(JSON.stringify([attribution.sources.map((s) => s.contentHash), located]), compute) : compute();
+  const result = memo ? memo(memoKeyOf(attribution, located), compute) : compute();
   const darwinCore = darwinCoreFields(result, attribution);
   const centers = wantCenters ? administrativeCentersOf(finder, record) : [];
   const answer: RecordAnswer = { result, darwinCore, centers };
@@ -80,6 +74,31 @@ export function georeferenceRecord(finder: CandidateFinder, request: RecordReque
  */
 export function unreadableRecord(reason: string, attribution: RecordContext): Record<GeoreferenceTerm, string> {
   return darwinCoreFields(unreadableResult('', reason), attribution);
+}
+
+/**
+ * The key under which a `Memo` keeps the record's result: the same for two requests that locate alike.
+ * Lets a caller that computes elsewhere (the service's worker threads) look in its memo first.
+ * @example recordMemoKey({ locality: 'Alba', attribution }) === recordMemoKey({ locality: 'Alba', attribution, decimalLatitude: 1 }) // true
+ */
+export function recordMemoKey(request: RecordRequest): string {
+  return memoKeyOf(request.attribution, locateRequestOf(request));
+}
+
+// The loaded sources' content hashes are part of the key: a gazetteer imported meanwhile never gives a stale result.
+function memoKeyOf(attribution: RecordContext, located: LocateRequest): string {
+  return JSON.stringify([attribution.sources.map((s) => s.contentHash), located]);
+}
+
+/** What `locate` reads of a record: its text and options, with the georeferencer's method edits over the options. */
+function locateRequestOf(request: RecordRequest): LocateRequest {
+  const { decimalLatitude: _lat, decimalLongitude: _lon, edits = {}, attribution: _by, administrativeCenters: _centers, ...record } = request;
+  const { chosenFeatures, distancePrecision, ...methodEdits } = edits;
+  return {
+    ...record,
+    options: { ...record.options, ...definedValues(methodEdits) },
+    ...(chosenFeatures?.length || distancePrecision ? { edits: { chosenFeatures, distancePrecision } } : {}),
+  };
 }
 
 function locateSafely(finder: CandidateFinder, request: LocateRequest): LocateResult {

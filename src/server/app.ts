@@ -17,6 +17,7 @@ import { assertSafeBind, tokenGuard } from './access.ts';
 import { loadAssets, registerAssets } from './assets.ts';
 import { errorHandler } from './errors.ts';
 import { registerStrictJson } from './json-body.ts';
+import { RecordPool } from './record-pool.ts';
 import { ResultCache } from './result-cache.ts';
 import { SERVER_DEFAULTS } from './defaults.ts';
 import { BatchService } from './batches.ts';
@@ -36,6 +37,8 @@ import { shapedFeatureLister } from './shaped-features.ts';
 export interface ServerOptions extends AppOptions {
   /** The SQLite database holding the gazetteer (opened read-only by the service). */
   dbPath: string;
+  /** Worker threads that compute the georeference routes' answers (default one a core, at most 2); 0 computes them in the main thread. */
+  threads?: number;
 }
 
 /** The service's settings, apart from where its files are. */
@@ -70,6 +73,8 @@ export interface ServedStores {
   batches?: BatchService;
   /** Results kept for repeated lookups. */
   results?: ResultCache<LocateResult>;
+  /** Worker threads that compute the georeference routes' answers; without them the main thread does. */
+  pool?: RecordPool;
 }
 
 /**
@@ -89,10 +94,16 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
   const results = new ResultCache<LocateResult>(options.resultCache ?? SERVER_DEFAULTS.resultCache);
   const batches = new BatchService(dbPath, store, reviews, results, options.archiveExpandedLimit);
   await batches.resumeUnfinished();
-  const app = await buildApp({ gazetteer: store, layers: shapedFeatureLister(dbPath, store), batches, results }, options);
+  const threads = options.threads ?? SERVER_DEFAULTS.threads;
+  const pool = threads > 0 ? new RecordPool(dbPath, threads) : undefined;
+  const app = await buildApp({ gazetteer: store, layers: shapedFeatureLister(dbPath, store), batches, results, pool }, options).catch(async (error: unknown) => {
+    await pool?.close();
+    throw error;
+  });
   // On close (SIGTERM) requests in flight finish first; running jobs have committed their steps and resume on the next start.
   app.addHook('onClose', async () => {
     if (batches.runningJobs().length) app.log.info({ jobs: batches.runningJobs() }, 'batch jobs stopped at their last committed step');
+    await pool?.close();
     reviews.close();
     store.close();
   });
@@ -161,8 +172,8 @@ export async function buildApp(stores: ServedStores, options: AppOptions): Promi
     },
   });
 
-  await app.register(georeferenceRoutes, { gazetteer: stores.gazetteer, results: stores.results });
-  await app.register(recordsRoutes, { gazetteer: stores.gazetteer, results: stores.results });
+  await app.register(georeferenceRoutes, { gazetteer: stores.gazetteer, results: stores.results, pool: stores.pool });
+  await app.register(recordsRoutes, { gazetteer: stores.gazetteer, results: stores.results, pool: stores.pool });
   await app.register(featureRoutes, { gazetteer: stores.gazetteer });
   await app.register(datumsRoutes);
   await app.register(layersRoutes, { layers: stores.layers });

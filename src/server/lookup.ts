@@ -5,10 +5,11 @@
 import type { CandidateFinder, Feature, Source } from '../match/types.ts';
 import { readDatumOption } from '../geodesy/datum-option.ts';
 import { EditRefused, type EditProblem, type FeatureKey } from '../locate/edits.ts';
-import { georeferenceRecord, type RecordAnswer } from '../locate/georeference-record.ts';
+import { georeferenceRecord, type RecordAnswer, type RecordRequest } from '../locate/georeference-record.ts';
 import type { LocateResult } from '../locate/locate.ts';
 import { VERSION } from '../version.ts';
 import { RequestError } from './errors.ts';
+import type { RecordPool } from './record-pool.ts';
 import type { ResultCache } from './result-cache.ts';
 import type { LookupRequest } from './schemas.ts';
 
@@ -27,6 +28,30 @@ export interface ServedGazetteer extends CandidateFinder {
  * @example lookUp(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).result.status // 'georeferenced'
  */
 export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: ResultCache<LocateResult>, now = new Date()): RecordAnswer {
+  const record = recordRequestOf(store, request, now);
+  try {
+    return georeferenceRecord(store, record, cache && ((key, compute) => cache.get(key, compute)));
+  } catch (error) {
+    throw asRequestError(error, request);
+  }
+}
+
+/**
+ * `lookUp` with the computing done by the service's worker threads, when it has them; the same answer.
+ * @example (await lookUpIn(pool, store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' })).result.status // 'georeferenced'
+ */
+export async function lookUpIn(pool: RecordPool | undefined, store: ServedGazetteer, request: LookupRequest, cache?: ResultCache<LocateResult>, now = new Date()): Promise<RecordAnswer> {
+  if (!pool) return lookUp(store, request, cache, now);
+  const record = recordRequestOf(store, request, now);
+  try {
+    return await pool.answer(store, record, cache);
+  } catch (error) {
+    throw asRequestError(error, request);
+  }
+}
+
+/** The request body as the front door's record: the page's edits as edits, who and when as its attribution. A bad datum is a 400. */
+function recordRequestOf(store: ServedGazetteer, request: LookupRequest, now: Date): RecordRequest {
   const { options = {}, georeferencedBy, ...record } = request;
   const { candidate, candidates, distancePrecision, mapScale, datum, measurementErrorMeters, ...locateOptions } = options;
   const chosenFeatures = [...(candidate ? [candidate] : []), ...(candidates ?? [])];
@@ -34,21 +59,18 @@ export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: R
     const read = readDatumOption(value, field);
     if ('problem' in read) throw new RequestError(400, read.problem, field);
   }
-  try {
-    return georeferenceRecord(
-      store,
-      {
-        ...record,
-        options: locateOptions,
-        edits: { chosenFeatures, distancePrecision, mapScale, datum, measurementErrorMeters },
-        attribution: { georeferencedBy: georeferencedBy?.trim() || `whereabouts ${VERSION}`, georeferencedDate: now.toISOString(), sources: store.sources() },
-      },
-      cache && ((key, compute) => cache.get(key, compute)),
-    );
-  } catch (error) {
-    if (!(error instanceof EditRefused)) throw error;
-    throw editError(error.problem, candidates?.length ? 'options.candidates' : 'options.candidate');
-  }
+  return {
+    ...record,
+    options: locateOptions,
+    edits: { chosenFeatures, distancePrecision, mapScale, datum, measurementErrorMeters },
+    attribution: { georeferencedBy: georeferencedBy?.trim() || `whereabouts ${VERSION}`, georeferencedDate: now.toISOString(), sources: store.sources() },
+  };
+}
+
+/** A refused edit as the 400 naming the request's field; any other error as it came. */
+function asRequestError(error: unknown, request: LookupRequest): unknown {
+  if (!(error instanceof EditRefused)) return error;
+  return editError(error.problem, request.options?.candidates?.length ? 'options.candidates' : 'options.candidate');
 }
 
 function editError(problem: EditProblem, field: string): RequestError {

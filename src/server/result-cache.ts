@@ -9,6 +9,11 @@ export class ResultCache<T> {
   /** `capacity` 0 keeps nothing. */
   constructor(private readonly capacity: number) {}
 
+  /** Whether a value for `key` is kept (without making it the most recently used). */
+  has(key: string): boolean {
+    return this.entries.has(key);
+  }
+
   /** The cached value for `key`, or `compute()`'s, kept for next time. */
   get(key: string, compute: () => T): T {
     const hit = this.entries.get(key);

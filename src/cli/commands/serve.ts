@@ -9,7 +9,7 @@ const DEMO_GAZETTEER = fileURLToPath(new URL('../../../gazetteer/demo.geojson', 
 const DEMO_CITATION = 'whereabouts demo gazetteer: an invented island (gazetteer/demo.geojson), for trying the tool only';
 
 /**
- * `whereabouts serve [--host 127.0.0.1] [--port N] [--demo]`: the API and the page. The access token
+ * `whereabouts serve [--host 127.0.0.1] [--port N] [--demo] [--threads N]`: the API and the page. The access token
  * comes from env WHEREABOUTS_TOKEN or WHEREABOUTS_TOKEN_FILE, never from an argument. SIGTERM and
  * SIGINT finish the requests in flight, then stop.
  */
@@ -23,6 +23,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
     .option('--cors-origin <origin>', 'let pages from this origin call the API (no CORS by default)')
     .option('--rate-limit <n>', 'requests per client per minute, 0 for no limit', parseCount, SERVER_DEFAULTS.rateLimit.max)
     .option('--cache <n>', 'results kept in memory for repeated lookups, 0 for none', parseCount, SERVER_DEFAULTS.resultCache)
+    .option('--threads <n>', 'worker threads that compute the georeferences, 0 to compute them in the main thread', parseCount, SERVER_DEFAULTS.threads)
     .option('--log', 'log each request as a JSON line')
     .action(async (opts: ServeOptions) => {
       const db = dbPath();
@@ -37,6 +38,7 @@ export function registerServe(program: Command, dbPath: () => string): void {
         corsOrigin: opts.corsOrigin,
         rateLimit: opts.rateLimit === 0 ? false : { max: opts.rateLimit, timeWindowMs: 60_000 },
         resultCache: opts.cache,
+        threads: opts.threads,
         logger: opts.log === true,
       });
       try {
@@ -66,6 +68,7 @@ interface ServeOptions {
   corsOrigin?: string;
   rateLimit: number;
   cache: number;
+  threads: number;
   log?: boolean;
 }
 

@@ -3,13 +3,16 @@ import { Type } from 'typebox';
 import type { LocateResult } from '../../locate/locate.ts';
 import { ANSWER_FORMATS } from '../../output/formats.ts';
 import { answerBody } from '../../output/json.ts';
-import { lookUp, type ServedGazetteer } from '../lookup.ts';
+import { lookUpIn, type ServedGazetteer } from '../lookup.ts';
+import type { RecordPool } from '../record-pool.ts';
 import type { ResultCache } from '../result-cache.ts';
 import { errorResponses, lookupBodySchema, lookupResponseSchema } from '../schemas.ts';
 
 export interface GeoreferenceRoutesOptions {
   gazetteer: ServedGazetteer;
   results?: ResultCache<LocateResult>;
+  /** Worker threads that compute the answers; without them the main thread does. */
+  pool?: RecordPool;
 }
 
 const DESCRIPTION =
@@ -22,13 +25,13 @@ const DESCRIPTION =
  * (one row of Darwin Core fields), POST /api/v1/georeference.geojson (RFC 7946 FeatureCollection).
  * @example await app.register(georeferenceRoutes, { gazetteer: store, results: new ResultCache(100) })
  */
-export const georeferenceRoutes: FastifyPluginAsyncTypebox<GeoreferenceRoutesOptions> = async (app, { gazetteer, results }) => {
+export const georeferenceRoutes: FastifyPluginAsyncTypebox<GeoreferenceRoutesOptions> = async (app, { gazetteer, results, pool }) => {
   app.post(
     '/api/v1/georeference',
     {
       schema: { summary: 'Georeference one locality', description: DESCRIPTION, tags: ['georeference'], body: lookupBodySchema, response: { 200: lookupResponseSchema, ...errorResponses } },
     },
-    async (request) => answerBody(lookUp(gazetteer, request.body, results)),
+    async (request) => answerBody(await lookUpIn(pool, gazetteer, request.body, results)),
   );
   for (const format of ANSWER_FORMATS) {
     app.post(
@@ -46,7 +49,7 @@ export const georeferenceRoutes: FastifyPluginAsyncTypebox<GeoreferenceRoutesOpt
         reply
           .header('content-type', `${format.mediaType}; charset=utf-8`)
           .header('content-disposition', `attachment; filename="georeference.${format.extension}"`)
-          .send(format.write(lookUp(gazetteer, request.body, results), request.body.locality)),
+          .send(format.write(await lookUpIn(pool, gazetteer, request.body, results), request.body.locality)),
     );
   }
 };

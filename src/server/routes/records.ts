@@ -4,13 +4,16 @@ import { Type } from 'typebox';
 import type { LocateResult } from '../../locate/locate.ts';
 import { answerLine, errorLine } from '../../output/ndjson.ts';
 import { errorHandler, RequestError, validationProblem, type ValidationItem } from '../errors.ts';
-import { lookUp, type ServedGazetteer } from '../lookup.ts';
+import { lookUpIn, type ServedGazetteer } from '../lookup.ts';
+import type { RecordPool } from '../record-pool.ts';
 import type { ResultCache } from '../result-cache.ts';
 import { errorResponses, lookupBodySchema, oneOf, openObject, type LookupRequest } from '../schemas.ts';
 
 export interface RecordsRoutesOptions {
   gazetteer: ServedGazetteer;
   results?: ResultCache<LocateResult>;
+  /** Worker threads that compute the answers; without them the main thread does. */
+  pool?: RecordPool;
 }
 
 /**
@@ -62,7 +65,7 @@ class UnreadableLine {
  * same front door and output as the one-record route.
  * @example await app.register(recordsRoutes, { gazetteer: store, results: new ResultCache(100) })
  */
-export const recordsRoutes: FastifyPluginAsyncTypebox<RecordsRoutesOptions> = async (app, { gazetteer, results }) => {
+export const recordsRoutes: FastifyPluginAsyncTypebox<RecordsRoutesOptions> = async (app, { gazetteer, results, pool }) => {
   const parseJson = app.getDefaultJsonParser('error', 'error');
   const strictUtf8 = new TextDecoder('utf-8', { fatal: true });
   app.addContentTypeParser('application/x-ndjson', { parseAs: 'buffer', bodyLimit: RECORDS_LIMITS.maxBytes }, (_request, body, done) => {
@@ -107,27 +110,30 @@ export const recordsRoutes: FastifyPluginAsyncTypebox<RecordsRoutesOptions> = as
         throw new RequestError(413, `${records.length} records is more than the limit of ${RECORDS_LIMITS.maxRecords} records a request: send them in several requests`, 'body');
       }
       const isRecord = request.compileValidationSchema(recordSchema);
-      function* lines(): Generator<string> {
-        for (const [index, record] of records.entries()) {
-          const id = (record as { occurrenceID?: unknown } | null)?.occurrenceID;
-          const occurrenceID = typeof id === 'string' ? id : undefined;
-          if (record instanceof UnreadableLine) {
-            yield errorLine(index, undefined, { message: `records[${index}]: ${record.message}`, field: 'body' });
-          } else if (!isRecord(record)) {
-            yield errorLine(index, occurrenceID, validationProblem(`records[${index}]`, isRecord.errors?.[0] as ValidationItem));
-          } else {
-            const { occurrenceID: _id, ...lookup } = record as LookupRequest & { occurrenceID?: string };
-            try {
-              yield answerLine(index, occurrenceID, lookUp(gazetteer, lookup, results));
-            } catch (error) {
-              if (error instanceof RequestError) yield errorLine(index, occurrenceID, { message: `records[${index}].${error.message}`, ...(error.field ? { field: error.field } : {}) });
-              else {
-                request.log.error(error);
-                yield errorLine(index, occurrenceID, { message: 'the service could not answer this record' }, 'failed');
-              }
-            }
-          }
+      /** One record's answer line (or error line). */
+      const lineOf = async (index: number, record: unknown): Promise<string> => {
+        const id = (record as { occurrenceID?: unknown } | null)?.occurrenceID;
+        const occurrenceID = typeof id === 'string' ? id : undefined;
+        if (record instanceof UnreadableLine) return errorLine(index, undefined, { message: `records[${index}]: ${record.message}`, field: 'body' });
+        if (!isRecord(record)) return errorLine(index, occurrenceID, validationProblem(`records[${index}]`, isRecord.errors?.[0] as ValidationItem));
+        const { occurrenceID: _id, ...lookup } = record as LookupRequest & { occurrenceID?: string };
+        try {
+          return answerLine(index, occurrenceID, await lookUpIn(pool, gazetteer, lookup, results));
+        } catch (error) {
+          if (error instanceof RequestError) return errorLine(index, occurrenceID, { message: `records[${index}].${error.message}`, ...(error.field ? { field: error.field } : {}) });
+          request.log.error(error);
+          return errorLine(index, occurrenceID, { message: 'the service could not answer this record' }, 'failed');
         }
+      };
+      // In order, with a few records ahead in the worker threads so that they all keep busy; without them, one at a time.
+      const ahead = pool ? pool.threads * 2 : 1;
+      async function* lines(): AsyncGenerator<string> {
+        const pending: Promise<string>[] = [];
+        for (const [index, record] of records.entries()) {
+          pending.push(lineOf(index, record));
+          if (pending.length >= ahead) yield await pending.shift()!;
+        }
+        for (const line of pending) yield await line;
       }
       // A stream is sent as it is, never through the response schema, which documents one line.
       return reply.type('application/x-ndjson; charset=utf-8').send(Readable.from(lines()) as never);
