@@ -15,10 +15,14 @@ const MAX_SECONDS = 30;
 const P99_TARGET_MS = 20;
 const FIRST_LOAD_TARGET_BYTES = 1.5 * 1024 * 1024;
 
+// Options after `--` go to `whereabouts serve` (e.g. `npm run bench:server -- --threads 0`, to pair runs).
+const serveArgs = process.argv.slice(2);
+if (serveArgs.length) console.log(`whereabouts serve ${serveArgs.join(' ')}`);
+
 // Two runs: as served (repeated demo records come from the result cache), and with no cache, so every
 // request is computed from the gazetteer (the figure for distinct localities).
 for (const [label, args] of [['as served (result cache on)', []], ['every request computed (--cache 0)', ['--cache', '0']]] as const) {
-  const service = await startService([...args]);
+  const service = await startService([...args, ...serveArgs]);
   try {
     await run(service.url, CLIENTS, 500, 10); // warm-up: JIT and SQLite page cache
     const result = await run(service.url, CLIENTS, MAX_REQUESTS, MAX_SECONDS);
