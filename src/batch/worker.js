@@ -4,7 +4,7 @@ import { register } from 'tsx/esm/api';
 
 register();
 const task = await import('./georeference-task.ts');
-const recordTask = await import('../server/record-task.ts');
+const recordTask = await import('./record-task.ts');
 
 export default task.default;
 export const answerRecord = recordTask.answerRecord;

@@ -7,7 +7,7 @@ import Tinypool from 'tinypool';
 import { EditRefused } from '../locate/edits.ts';
 import { georeferenceRecord, recordMemoKey, type RecordAnswer, type RecordRequest } from '../locate/georeference-record.ts';
 import type { LocateResult } from '../locate/locate.ts';
-import type { RecordTask, RecordTaskAnswer } from './record-task.ts';
+import type { RecordTask, RecordTaskAnswer } from '../batch/record-task.ts';
 import type { ResultCache } from './result-cache.ts';
 import type { ServedGazetteer } from './lookup.ts';
 
@@ -17,7 +17,7 @@ import type { ServedGazetteer } from './lookup.ts';
  */
 const WORKER_ENTRY = import.meta.url.endsWith('.ts')
   ? new URL('../batch/worker.js', import.meta.url).href
-  : new URL('./record-task.js', import.meta.url).href;
+  : new URL('../batch/record-task.js', import.meta.url).href;
 
 /** Georeferences records in worker threads; `close` when the service stops. */
 export class RecordPool {

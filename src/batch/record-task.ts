@@ -1,9 +1,11 @@
 /**
- * The work a service worker thread does: one record through the front door (`georeferenceRecord`)
- * against the gazetteer, which each worker opens read-only once and keeps open. SQLite shows each
- * connection what other connections commit, so a gazetteer imported while serving is seen here too.
+ * The work a worker thread of the HTTP service does: one record through the front door
+ * (`georeferenceRecord`) against the gazetteer, which each worker opens read-only once and keeps open.
+ * SQLite shows each connection what other connections commit, so a gazetteer imported while serving is
+ * seen here too. It sits beside the batch's worker task because worker threads are this folder's; the
+ * service's record pool (src/server/record-pool.ts) loads it.
  */
-import { gazetteerOfThread } from '../batch/georeference-task.ts';
+import { gazetteerOfThread } from './georeference-task.ts';
 import { EditRefused, type EditProblem } from '../locate/edits.ts';
 import { georeferenceRecord, type RecordAnswer, type RecordRequest } from '../locate/georeference-record.ts';
 
