@@ -182,9 +182,17 @@ describe.skipIf(missing.length > 0)('a batch over a single-node Slurm cluster', 
     run('scontrol', ['requeue', task0], env);
     spawnSync('scontrol', ['update', `JobId=${task0}`, 'StartTime=now'], { env });
 
-    // A requeued task passes through states squeue does not list; it is finished only when Slurm says so.
-    const finished = (id: string) => /JobState=(COMPLETED|FAILED|CANCELLED|TIMEOUT|NODE_FAIL|OUT_OF_MEMORY)/.test(run('scontrol', ['show', 'job', id], env));
-    await waitFor('task 0 to run again and finish', 240, () => (/Restarts=1/.test(run('scontrol', ['show', 'job', task0], env)) && finished(task0) ? true : undefined));
+    // A requeued task passes through states squeue does not list, and right after the requeue Slurm may still
+    // show the killed run's end state: the task is done when its part is written, or when it has been seen
+    // running again and has ended (then the check below prints its log).
+    const ended = /JobState=(COMPLETED|FAILED|CANCELLED|TIMEOUT|NODE_FAIL|OUT_OF_MEMORY)/;
+    let ranAgain = false;
+    await waitFor('task 0 to run again and finish', 240, () => {
+      const shown = run('scontrol', ['show', 'job', task0], env);
+      if (/JobState=(RUNNING|COMPLETING)/.test(shown)) ranAgain = true;
+      if (existsSync(join(dir, 'parts', 'part-0.wpart'))) return true;
+      return ranAgain && ended.test(shown) ? true : undefined;
+    });
     await waitFor('every task to finish', 240, () => (run('squeue', ['-h', '-j', arrayJob!], env).trim() === '' ? true : undefined));
     const log = (k: number) => (existsSync(join(dir, 'parts', `part-${k}.log`)) ? readFileSync(join(dir, 'parts', `part-${k}.log`), 'utf8') : 'no log');
     for (let k = 0; k < PARTS; k++) expect(existsSync(join(dir, 'parts', `part-${k}.wpart`)), `part ${k} written; its task's log:\n${log(k)}`).toBe(true);
