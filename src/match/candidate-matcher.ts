@@ -40,6 +40,11 @@ const SHORTLIST_PER_TOKEN = 2;
 const COMMON_TOKEN_LIMIT = 5000;
 /** At most this many tokens of another query word are probed for a common token. */
 const MAX_PARTNERS = 6;
+/**
+ * Features of an exact reading loaded at once; an unfiltered lookup reads no further page once it
+ * holds the candidates asked for (a page is one statement).
+ */
+const EXACT_PAGE = 100;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 
@@ -95,10 +100,12 @@ export class CandidateMatcher {
       return true;
     };
     const limit = query.limit ?? DEFAULT_LIMIT;
-    const exact = this.exactCandidates(query.name).filter(fits);
     // Scoring costs grow with the pool: a short list unfiltered needs a smaller pool than a filtered one.
     const filtered = query.featureTypes !== undefined || query.geometryTypes !== undefined
       || Object.values(query.context).some((value) => value !== undefined && value !== '');
+    // Unfiltered, nothing is dropped and one source merges nothing: the first `limit` plain exact
+    // matches are the answer, and a common name ('San') need not load its thousands of features.
+    const exact = this.exactCandidates(query.name, filtered ? undefined : limit).filter(fits);
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
@@ -134,25 +141,37 @@ export class CandidateMatcher {
     return context;
   }
 
-  /** Features whose folded name, alternate name or one of their readings equals a reading of `name`. */
-  private exactCandidates(name: string): Candidate[] {
+  /**
+   * Features whose folded name, alternate name or one of their readings equals a reading of `name`,
+   * plain matches (score 1) first. With `enough`, and one source in the index (so that no place is
+   * merged with a later one), stops once `enough` plain matches are found: reading on could only add
+   * candidates after them (see EXACT_PAGE).
+   */
+  private exactCandidates(name: string, enough?: number): Candidate[] {
     const found = new Map<number, Candidate>();
+    let plain = 0;
+    let oneSource: boolean | undefined;
     for (const variant of nameVariants(name)) {
       const ids = this.index.featureIdsByName(variant.key).filter((id) => !found.has(id));
-      // One statement for a reading's features: a common name ('San') has hundreds.
-      const features = ids.length === 0 ? new Map<number, Feature>() : this.index.features(ids);
-      for (const id of ids) {
-        const feature = features.get(id);
-        if (feature === undefined) continue;
-        const stored = storedReading(feature, variant.key);
-        const which = stored.written === feature.name ? 'name' : `alternate name '${stored.written}'`;
-        const changes = [variant.change && `${variant.change} in the query`, stored.change && `${stored.change} in the gazetteer`].filter(Boolean);
-        found.set(id, {
-          feature,
-          score: changes.length === 0 ? 1 : READING_SCORE,
-          matchedName: stored.written,
-          why: changes.length === 0 ? `exact ${which}` : `exact ${which} with ${changes.join('; ')}`,
-        });
+      // One statement a page of a reading's features: a common name ('San') has thousands.
+      for (let start = 0; start < ids.length; start += EXACT_PAGE) {
+        if (enough !== undefined && plain >= enough && (oneSource ??= (this.index.sourceRanks?.().size ?? 2) <= 1)) break;
+        const page = ids.slice(start, start + EXACT_PAGE);
+        const features = this.index.features(page);
+        for (const id of page) {
+          const feature = features.get(id);
+          if (feature === undefined) continue;
+          const stored = storedReading(feature, variant.key);
+          const which = stored.written === feature.name ? 'name' : `alternate name '${stored.written}'`;
+          const changes = [variant.change && `${variant.change} in the query`, stored.change && `${stored.change} in the gazetteer`].filter(Boolean);
+          if (changes.length === 0) plain++;
+          found.set(id, {
+            feature,
+            score: changes.length === 0 ? 1 : READING_SCORE,
+            matchedName: stored.written,
+            why: changes.length === 0 ? `exact ${which}` : `exact ${which} with ${changes.join('; ')}`,
+          });
+        }
       }
     }
     return [...found.values()].sort((a, b) => b.score - a.score);

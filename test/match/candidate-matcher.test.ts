@@ -1,0 +1,50 @@
+/**
+ * Bounds on a lookup's work in src/match/candidate-matcher.ts, over small invented gazetteers held in
+ * memory (test/support/memory-name-index.ts): each bound must leave the answer as reading everything
+ * would give it. The bounds are ours (common practice, no source); what is checked is the rows the
+ * index was asked for and the candidates returned.
+ */
+import { describe, expect, it } from 'vitest';
+import { CandidateMatcher } from '../../src/match/candidate-matcher.ts';
+import type { Feature } from '../../src/match/types.ts';
+import { memoryNameIndex } from '../support/memory-name-index.ts';
+
+const place = (sourceId: string, featureId: string, name: string, countryCode = 'QV', latitude = -45): Feature => ({
+  sourceId, featureId, name, alternateNames: [], featureType: 'town', countryCode, stateProvince: null, county: null,
+  latitude, longitude: -131 + Number(featureId.replace(/\D/g, '')) / 100, radiusMeters: 2000, radiusIsDefault: true, geometryType: 'Point',
+});
+/** `count` places called `name` in one source, spread apart (never the same place). */
+const namesakes = (count: number, name: string, sourceId = 'atlas', countryOf = (_i: number) => 'QV') =>
+  Array.from({ length: count }, (_, i) => place(sourceId, `${name}-${i}`, name, countryOf(i), -45 + i / 50));
+const ids = (candidates: { feature: Feature }[]) => candidates.map((c) => c.feature.featureId);
+
+describe('exact matches of a common name', () => {
+  it('load only the first page of features when the lookup filters nothing and one source holds them', () => {
+    const index = memoryNameIndex([...namesakes(450, 'Alba'), ...namesakes(3, 'Albar')]);
+    const found = new CandidateMatcher(index).lookup({ name: 'Alba', context: {}, limit: 5 });
+    expect(ids(found.candidates)).toEqual(['Alba-0', 'Alba-1', 'Alba-2', 'Alba-3', 'Alba-4']);
+    expect(found.candidates.every((c) => c.why === 'exact name')).toBe(true);
+    expect(index.rowsRead.features).toBeLessThanOrEqual(100);
+    // The same first five as a lookup that reads every feature of the name.
+    expect(ids(new CandidateMatcher(memoryNameIndex(namesakes(450, 'Alba'))).lookup({ name: 'Alba', context: {}, limit: 450 }).candidates).slice(0, 5))
+      .toEqual(ids(found.candidates));
+  });
+
+  it('read every feature when a filter may drop some, and report the dropped ones', () => {
+    const index = memoryNameIndex(namesakes(450, 'Alba', 'atlas', (i) => (i < 300 ? 'QW' : 'QV')));
+    const found = new CandidateMatcher(index).lookup({ name: 'Alba', context: { countryCode: 'QV' }, limit: 5 });
+    expect(ids(found.candidates)).toEqual(['Alba-300', 'Alba-301', 'Alba-302', 'Alba-303', 'Alba-304']);
+    expect(found.dropped.length).toBe(50);
+    expect(index.rowsRead.features).toBe(450);
+  });
+
+  it('read every feature when several sources may hold the same place (merged into one candidate)', () => {
+    const atlas = namesakes(150, 'Alba');
+    // The survey holds the atlas's first place again, 100 m away: merged into the first candidate.
+    const survey = [{ ...place('survey', 's-1', 'Alba'), latitude: atlas[0].latitude + 0.0009, longitude: atlas[0].longitude }];
+    const index = memoryNameIndex([...atlas, ...survey]);
+    const found = new CandidateMatcher(index).lookup({ name: 'Alba', context: {}, limit: 5 });
+    expect(found.candidates[0].feature.alsoIn?.map((other) => other.featureId)).toEqual(['s-1']);
+    expect(index.rowsRead.features).toBe(151);
+  });
+});
