@@ -63,6 +63,22 @@ interface TokenMatchRow {
   df: number;
 }
 
+/**
+ * The stored tokens matching one query word, by what found them: the word (or its abbreviation's
+ * words) as written, its one-deletion keys, the rest of its keys; each read once, when first needed.
+ */
+interface WordMatches {
+  exact: TokenMatchRow[];
+  oneEdit?: TokenMatchRow[];
+  rest?: TokenMatchRow[];
+}
+
+/** The matches a lookup reads for a word, and whether some of its deletion keys were left unread. */
+interface WordView {
+  matches: TokenMatchRow[];
+  keysRead: 'none' | 'one edit' | 'all';
+}
+
 /** The countries a posting must lie in (or have none), or null when the context names none. */
 const countryList = (context: ResolvedContext): string[] | null => (context.countryCodes.size === 0 ? null : [...context.countryCodes]);
 
@@ -73,7 +89,7 @@ const countryList = (context: ResolvedContext): string[] | null => (context.coun
  * @example new CandidateMatcher(index).lookup({ name: 'Rosario', context: { countryCode: 'AR' } }).candidates[0].why // 'exact name'
  */
 export class CandidateMatcher {
-  private readonly tokenMatches = new Map<string, TokenMatchRow[]>();
+  private readonly tokenMatches = new Map<string, WordMatches>();
   private tokenMatchVersion = -1;
 
   constructor(private readonly index: NameIndex) {}
@@ -193,7 +209,7 @@ export class CandidateMatcher {
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const matched = queryTokens
-      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).map((match) => ({ ...match, index })))
+      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).matches.map((match) => ({ ...match, index })))
       .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
@@ -239,11 +255,13 @@ export class CandidateMatcher {
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
     const closest = this.closestNames(shortlist.map(([id]) => id), folded, foldedNames);
-    const neighboursLeftUnread = !everyNeighbour && matched.some(({ edits, index }) => {
-      const length = queryTokens[index].length;
-      return length >= MIN_FUZZY_TOKEN_LENGTH && (edits === 0 || (edits === 1 && queryTokens.length > 1 && length >= MIN_TWO_EDIT_LENGTH));
-    });
-    if (neighboursLeftUnread && Math.min(...[...closest.values()].map((entry) => entry.edits)) >= RETRY_NAME_EDITS) {
+    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).keysRead);
+    const neighboursLeftUnread = keysRead.some((read, index) => read !== 'all' && queryTokens[index].length >= MIN_FUZZY_TOKEN_LENGTH);
+    const editsFound = [...closest.values()].map((entry) => entry.edits);
+    // A lone word read within one edit: its two-edit neighbours could only come after the names
+    // within one edit, so they are read only when those do not fill the pool (the answer is the same).
+    const poolWithinOneEdit = queryTokens.length > 1 || keysRead[0] !== 'one edit' || editsFound.filter((edits) => edits <= 1).length >= poolSize;
+    if (neighboursLeftUnread && (Math.min(...editsFound) >= RETRY_NAME_EDITS || !poolWithinOneEdit)) {
       return this.fuzzyCandidates(name, context, poolSize, true, foldedNames);
     }
     const seen = new Map<string, number>();
@@ -290,9 +308,10 @@ export class CandidateMatcher {
   /**
    * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
    * for. Unless `everyNeighbour`: a token stored as written (or its abbreviation's words) alone, and a
-   * word of several found within one edit without its two-edit neighbours.
+   * word of 6 letters or more found within one edit without its two-edit neighbours. Kept between
+   * lookups; asked again with `everyNeighbour`, only the deletion keys not read yet are read.
    */
-  private matchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
+  private matchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): WordView {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.index.version();
@@ -300,36 +319,48 @@ export class CandidateMatcher {
       this.tokenMatches.clear();
       this.tokenMatchVersion = version;
     }
-    const cacheKey = `${severalTokens ? '+' : '-'}${everyNeighbour ? '*' : '='}${token}`;
-    const cached = this.tokenMatches.get(cacheKey);
-    if (cached !== undefined) return cached;
-    const matches = this.readMatchingTokens(token, severalTokens, everyNeighbour);
-    this.tokenMatches.set(cacheKey, matches);
-    return matches;
+    const cacheKey = `${severalTokens ? '+' : '-'}${token}`;
+    let word = this.tokenMatches.get(cacheKey);
+    if (word === undefined) {
+      word = { exact: this.exactTokens(token, severalTokens) };
+      this.tokenMatches.set(cacheKey, word);
+    }
+    if (token.length < MIN_FUZZY_TOKEN_LENGTH) return { matches: word.exact, keysRead: 'all' };
+    if (word.exact.length > 0 && !everyNeighbour) return { matches: word.exact, keysRead: 'none' };
+    // Keys within one edit are all the keys of a word shorter than MIN_TWO_EDIT_LENGTH.
+    word.oneEdit ??= this.nearTokens(token, oneEditQueryKeys(token), word.exact);
+    const oneEdit = [...word.exact, ...word.oneEdit];
+    if (token.length < MIN_TWO_EDIT_LENGTH) return { matches: oneEdit, keysRead: 'all' };
+    if (!everyNeighbour && oneEdit.some((match) => match.edits <= 1)) return { matches: oneEdit, keysRead: 'one edit' };
+    if (word.rest === undefined) {
+      const read = new Set(oneEditQueryKeys(token));
+      word.rest = this.nearTokens(token, queryTokenKeys(token).filter((key) => !read.has(key)), oneEdit);
+    }
+    return { matches: [...oneEdit, ...word.rest], keysRead: 'all' };
   }
 
-  private readMatchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
+  /** The stored tokens written as `token` or as the words its abbreviation stands for. */
+  private exactTokens(token: string, severalTokens: boolean): TokenMatchRow[] {
     const found = new Map<number, TokenMatchRow>();
     const exactWords = [token, ...(severalTokens && Object.hasOwn(ABBREVIATIONS, token) ? ABBREVIATIONS[token] : []).flatMap((words) => words.split(' '))];
     for (const word of exactWords) {
       const row = this.index.token(word);
       if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
     }
-    if (token.length < MIN_FUZZY_TOKEN_LENGTH || (found.size > 0 && !everyNeighbour)) return [...found.values()];
-    const near = (keys: number[]) => {
-      // One statement: each distinct token once (a token shares many keys with a query), as arrays.
-      for (const [id, stored, df] of this.index.tokensByDeletionKeys(keys)) {
-        if (found.has(id)) continue;
-        const edits = editDistance(token, stored, maxTokenEdits(stored));
-        if (edits <= maxTokenEdits(stored)) found.set(id, { id, edits, df });
-      }
-    };
-    // A word of a longer name found within one edit is read without its two-edit neighbours (most of
-    // the seeks): the other words of the name tell its features apart. A lone word keeps them all.
-    const oneEditFirst = !everyNeighbour && severalTokens && token.length >= MIN_TWO_EDIT_LENGTH;
-    if (oneEditFirst) near(oneEditQueryKeys(token));
-    if (!oneEditFirst || ![...found.values()].some((match) => match.edits <= 1)) near(queryTokenKeys(token));
     return [...found.values()];
+  }
+
+  /** The stored tokens within the allowed edits of `token` that these deletion keys find, other than `known`. */
+  private nearTokens(token: string, keys: number[], known: readonly TokenMatchRow[]): TokenMatchRow[] {
+    const seen = new Set(known.map((match) => match.id));
+    const found: TokenMatchRow[] = [];
+    // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+    for (const [id, stored, df] of keys.length === 0 ? [] : this.index.tokensByDeletionKeys(keys)) {
+      if (seen.has(id)) continue;
+      const edits = editDistance(token, stored, maxTokenEdits(stored));
+      if (edits <= maxTokenEdits(stored)) found.push({ id, edits, df });
+    }
+    return found;
   }
 
   /**

@@ -6,6 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { CandidateMatcher } from '../../src/match/candidate-matcher.ts';
+import { oneEditQueryKeys, queryTokenKeys } from '../../src/match/edit-distance.ts';
 import type { Feature } from '../../src/match/types.ts';
 import { memoryNameIndex } from '../support/memory-name-index.ts';
 
@@ -46,5 +47,33 @@ describe('exact matches of a common name', () => {
     const found = new CandidateMatcher(index).lookup({ name: 'Alba', context: {}, limit: 5 });
     expect(found.candidates[0].feature.alsoIn?.map((other) => other.featureId)).toEqual(['s-1']);
     expect(index.rowsRead.features).toBe(151);
+  });
+});
+
+describe('a lone word with typing errors', () => {
+  it('reads its two-edit neighbours only when the names within one edit do not fill the pool', () => {
+    // Twelve places one edit from 'moreno' fill the pool of ten: 'Marenu', two edits away, could only come after them.
+    const crowded = memoryNameIndex([...namesakes(12, 'Morena'), ...namesakes(1, 'Marenu')]);
+    const found = new CandidateMatcher(crowded).lookup({ name: 'Moreno', context: {}, limit: 5 });
+    expect(found.candidates.map((c) => c.feature.name)).toEqual(Array(5).fill('Morena'));
+    expect(crowded.rowsRead.deletionKeys).toBe(oneEditQueryKeys('moreno').length);
+    // With two such places, the two-edit neighbour is read and listed after them.
+    const sparse = memoryNameIndex([...namesakes(2, 'Morena'), ...namesakes(1, 'Marenu')]);
+    const names = new CandidateMatcher(sparse).lookup({ name: 'Moreno', context: {}, limit: 5 }).candidates.map((c) => c.feature.name);
+    expect(names).toEqual(['Morena', 'Morena', 'Marenu']);
+    expect(sparse.rowsRead.deletionKeys).toBe(queryTokenKeys('moreno').length);
+  });
+
+  it('keeps between lookups what it read: a lookup needing more reads only the keys not read yet', () => {
+    const index = memoryNameIndex([...namesakes(12, 'Morena'), ...namesakes(1, 'Marenu')]);
+    const matcher = new CandidateMatcher(index);
+    matcher.lookup({ name: 'Moreno', context: {}, limit: 5 });
+    matcher.lookup({ name: 'Moreno', context: {}, limit: 5 });
+    expect(index.rowsRead.deletionKeys).toBe(oneEditQueryKeys('moreno').length);
+    // 'Moreno Altoz': no name comes within three edits, so the lookup is repeated with every word's
+    // neighbours, and reads then only the keys of 'moreno' beyond one edit ('altoz' has no others).
+    const repeated = memoryNameIndex([...namesakes(12, 'Morena'), ...namesakes(1, 'Marenu')]);
+    new CandidateMatcher(repeated).lookup({ name: 'Moreno Altoz', context: {}, limit: 5 });
+    expect(repeated.rowsRead.deletionKeys).toBe(queryTokenKeys('moreno').length + queryTokenKeys('altoz').length);
   });
 });
