@@ -8,7 +8,7 @@ import { contextMismatch, resolveContext, type ResolvedContext } from './context
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
-import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex } from './types.ts';
+import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex, Posting } from './types.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
@@ -71,6 +71,22 @@ interface WordMatches {
   exact: TokenMatchRow[];
   oneEdit?: TokenMatchRow[];
   rest?: TokenMatchRow[];
+}
+
+/**
+ * How far a lookup reads a query word's neighbours: as written when stored (else as 'one edit'),
+ * within one edit (two when none comes within one), or every neighbour.
+ */
+type Reach = 'first' | 'one edit' | 'all';
+
+/**
+ * What one lookup has read, kept while it is repeated with more neighbours (which reads mostly the
+ * same rows again): folded names by feature, postings by token, postings by common token and partners.
+ */
+interface LookupReads {
+  foldedNames: Map<number, string[]>;
+  postings: Map<number, Posting[]>;
+  partnerPostings: Map<string, Posting[]>;
 }
 
 /** The matches a lookup reads for a word, and whether some of its deletion keys were left unread. */
@@ -199,9 +215,10 @@ export class CandidateMatcher {
    * found within one edit without its two-edit neighbours (see matchingTokens): most of a lookup's
    * index seeks are saved. Only when no shortlisted name then comes within RETRY_NAME_EDITS of the
    * query (the typing error made another stored word, say) is the lookup repeated with every word's
-   * neighbours (`everyNeighbour`).
+   * neighbours within one edit, and when no name then comes within one edit, with all of them.
    */
-  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, everyNeighbour = false, foldedNames = new Map<number, string[]>()): Candidate[] {
+  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, reach: Reach = 'first',
+    reads: LookupReads = { foldedNames: new Map(), postings: new Map(), partnerPostings: new Map() }): Candidate[] {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
@@ -209,7 +226,7 @@ export class CandidateMatcher {
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const matched = queryTokens
-      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).matches.map((match) => ({ ...match, index })))
+      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, reach).matches.map((match) => ({ ...match, index })))
       .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
@@ -226,8 +243,8 @@ export class CandidateMatcher {
       const weight = (optional ? 0.5 : 1) * Math.max(0.5, queryTokens[index].length - 1.5 * edits);
       byToken.set(id, [...(byToken.get(id) ?? []), { index, weight }]);
     }
-    const rows = this.index.postings([...byToken.keys()], countryList(context), POSTING_BUDGET);
-    const common = this.commonTokenPostings(matched, chosen, context);
+    const rows = this.postingsOf([...byToken.keys()], context, reads.postings);
+    const common = this.commonTokenPostings(matched, chosen, context, reads.partnerPostings);
     for (const { id, index } of common.tokens) byToken.set(id, [...(byToken.get(id) ?? []), { index, weight: queryTokens[index].length }]);
     const pool = new Map<number, { weights: number[]; token: number; weight: number }>();
     for (const { feature, token } of [...rows, ...common.rows]) {
@@ -254,15 +271,22 @@ export class CandidateMatcher {
       .sort((a, b) => b.weight - a.weight || a.repeat - b.repeat)
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
-    const closest = this.closestNames(shortlist.map(([id]) => id), folded, foldedNames);
-    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).keysRead);
-    const neighboursLeftUnread = keysRead.some((read, index) => read !== 'all' && queryTokens[index].length >= MIN_FUZZY_TOKEN_LENGTH);
-    const editsFound = [...closest.values()].map((entry) => entry.edits);
+    const closest = this.closestNames(shortlist.map(([id]) => id), folded, reads.foldedNames);
+    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach).keysRead);
+    const neighboursLeftUnread = keysRead.some((read) => read !== 'all');
+    const fewestEdits = Math.min(...[...closest.values()].map((entry) => entry.edits));
     // A lone word read within one edit: its two-edit neighbours could only come after the names
     // within one edit, so they are read only when those do not fill the pool (the answer is the same).
-    const poolWithinOneEdit = queryTokens.length > 1 || keysRead[0] !== 'one edit' || editsFound.filter((edits) => edits <= 1).length >= poolSize;
-    if (neighboursLeftUnread && (Math.min(...editsFound) >= RETRY_NAME_EDITS || !poolWithinOneEdit)) {
-      return this.fuzzyCandidates(name, context, poolSize, true, foldedNames);
+    const poolWithinOneEdit = queryTokens.length > 1 || keysRead[0] !== 'one edit'
+      || [...closest.values()].filter((entry) => entry.edits <= 1).length >= poolSize;
+    if (neighboursLeftUnread) {
+      // Repeated within one edit of every word first: a name within one edit found then is closer
+      // than any that two-edit neighbours add.
+      const tooFar = fewestEdits >= RETRY_NAME_EDITS;
+      if (reach === 'first' && tooFar && keysRead.includes('none')) return this.fuzzyCandidates(name, context, poolSize, 'one edit', reads);
+      if ((reach === 'first' && (tooFar || !poolWithinOneEdit)) || (reach === 'one edit' && fewestEdits > 1)) {
+        return this.fuzzyCandidates(name, context, poolSize, 'all', reads);
+      }
     }
     const seen = new Map<string, number>();
     const best = shortlist
@@ -287,7 +311,7 @@ export class CandidateMatcher {
    * through the postings of the common token with an index probe for the other; none when every
    * query word's closest match was read already.
    */
-  private commonTokenPostings(matched: TokenMatch[], chosen: TokenMatch[], context: ResolvedContext): {
+  private commonTokenPostings(matched: TokenMatch[], chosen: TokenMatch[], context: ResolvedContext, readBefore: Map<string, Posting[]>): {
     tokens: TokenMatch[]; rows: { feature: number; token: number }[];
   } {
     const read = new Set(chosen.map((match) => match.id));
@@ -301,17 +325,35 @@ export class CandidateMatcher {
       .sort((a, b) => a.df - b.df)
       .slice(0, MAX_PARTNERS);
     if (partners.length === 0) return { tokens: [], rows: [] };
-    const rows = this.index.postingsWithPartner(driver, partners, countryList(context), POSTING_BUDGET);
+    const key = `${driver.id}:${partners.map((partner) => partner.id).join(',')}`;
+    let rows = readBefore.get(key);
+    if (rows === undefined) {
+      rows = this.index.postingsWithPartner(driver, partners, countryList(context), POSTING_BUDGET);
+      readBefore.set(key, rows);
+    }
     return { tokens: [driver], rows };
   }
 
   /**
-   * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
-   * for. Unless `everyNeighbour`: a token stored as written (or its abbreviation's words) alone, and a
-   * word of 6 letters or more found within one edit without its two-edit neighbours. Kept between
-   * lookups; asked again with `everyNeighbour`, only the deletion keys not read yet are read.
+   * Every posting of these tokens (their postings together fit the budget), in token order; a
+   * token's postings read earlier in the same lookup (`read`) are not read again.
    */
-  private matchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): WordView {
+  private postingsOf(tokens: number[], context: ResolvedContext, read: Map<number, Posting[]>): Posting[] {
+    const unread = tokens.filter((token) => !read.has(token));
+    if (unread.length > 0) {
+      for (const token of unread) read.set(token, []);
+      for (const row of this.index.postings(unread, countryList(context), POSTING_BUDGET)) read.get(row.token)!.push(row);
+    }
+    return [...tokens].sort((a, b) => a - b).flatMap((token) => read.get(token)!);
+  }
+
+  /**
+   * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
+   * for, as far as `reach` says (a word of 6 letters or more within one edit, without its two-edit
+   * neighbours, unless none is that close). Kept between lookups, by what found them: a lookup
+   * reaching further reads only the deletion keys not read yet.
+   */
+  private matchingTokens(token: string, severalTokens: boolean, reach: Reach): WordView {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.index.version();
@@ -326,12 +368,15 @@ export class CandidateMatcher {
       this.tokenMatches.set(cacheKey, word);
     }
     if (token.length < MIN_FUZZY_TOKEN_LENGTH) return { matches: word.exact, keysRead: 'all' };
-    if (word.exact.length > 0 && !everyNeighbour) return { matches: word.exact, keysRead: 'none' };
+    if (word.exact.length > 0 && reach === 'first') return { matches: word.exact, keysRead: 'none' };
     // Keys within one edit are all the keys of a word shorter than MIN_TWO_EDIT_LENGTH.
     word.oneEdit ??= this.nearTokens(token, oneEditQueryKeys(token), word.exact);
     const oneEdit = [...word.exact, ...word.oneEdit];
     if (token.length < MIN_TWO_EDIT_LENGTH) return { matches: oneEdit, keysRead: 'all' };
-    if (!everyNeighbour && oneEdit.some((match) => match.edits <= 1)) return { matches: oneEdit, keysRead: 'one edit' };
+    // A common word stored as written is most likely written right: its two-edit neighbours (the most
+    // costly seeks, thousands of words in a world-size index) are not read.
+    const common = word.exact.some((match) => match.df > POSTING_BUDGET);
+    if ((reach !== 'all' || common) && oneEdit.some((match) => match.edits <= 1)) return { matches: oneEdit, keysRead: 'one edit' };
     if (word.rest === undefined) {
       const read = new Set(oneEditQueryKeys(token));
       word.rest = this.nearTokens(token, queryTokenKeys(token).filter((key) => !read.has(key)), oneEdit);
@@ -365,7 +410,7 @@ export class CandidateMatcher {
 
   /**
    * For each feature, its folded name or alternate name closest to a folded query, with the edits.
-   * `foldedNames` keeps the folded names read during one lookup: a repeated lookup (every neighbour)
+   * `foldedNames` keeps the folded names read during one lookup: a repeated lookup (more neighbours)
    * shortlists mostly the same features.
    */
   private closestNames(ids: number[], foldedQuery: string, foldedNames: Map<number, string[]>): Map<number, { edits: number; key: string }> {
