@@ -45,6 +45,8 @@ const MAX_PARTNERS = 6;
  * holds the candidates asked for (a page is one statement).
  */
 const EXACT_PAGE = 100;
+/** A lone word's neighbours too common for the posting budget whose features named by them alone are read. */
+const WHOLE_NAME_TOKENS = 6;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 
@@ -61,6 +63,8 @@ interface TokenMatchRow {
   id: number;
   edits: number;
   df: number;
+  /** The token as stored (folded). */
+  text: string;
 }
 
 /**
@@ -236,14 +240,24 @@ export class CandidateMatcher {
       budget -= match.df;
     }
     const byToken = new Map<number, { index: number; weight: number }[]>();
-    for (const { id, edits, index } of chosen) {
+    const weigh = ({ id, edits, index }: TokenMatch) => {
       const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
       // About the number of letters the token contributes to the match: long tokens found with few
       // edits say most about which feature is meant.
       const weight = (optional ? 0.5 : 1) * Math.max(0.5, queryTokens[index].length - 1.5 * edits);
       byToken.set(id, [...(byToken.get(id) ?? []), { index, weight }]);
-    }
+    };
+    for (const match of chosen) weigh(match);
     const rows = this.postingsOf([...byToken.keys()], context, reads.postings);
+    // A lone word: the features named by a neighbour too common for the budget ('santiago' for
+    // 'santigao') are read through the names, a few of each, closest and rarest first.
+    if (queryTokens.length === 1 && countryList(context) === null) {
+      const read = new Set(chosen.map((match) => match.id));
+      for (const match of matched.filter((m) => !read.has(m.id)).slice(0, WHOLE_NAME_TOKENS)) {
+        weigh(match);
+        for (const feature of this.index.featureIdsByName(match.text, SHORTLIST_PER_TOKEN)) rows.push({ feature, token: match.id });
+      }
+    }
     const common = this.commonTokenPostings(matched, chosen, context, reads.partnerPostings);
     for (const { id, index } of common.tokens) byToken.set(id, [...(byToken.get(id) ?? []), { index, weight: queryTokens[index].length }]);
     const pool = new Map<number, { weights: number[]; token: number; weight: number }>();
@@ -390,7 +404,7 @@ export class CandidateMatcher {
     const exactWords = [token, ...(severalTokens && Object.hasOwn(ABBREVIATIONS, token) ? ABBREVIATIONS[token] : []).flatMap((words) => words.split(' '))];
     for (const word of exactWords) {
       const row = this.index.token(word);
-      if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
+      if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df, text: word });
     }
     return [...found.values()];
   }
@@ -403,7 +417,7 @@ export class CandidateMatcher {
     for (const [id, stored, df] of keys.length === 0 ? [] : this.index.tokensByDeletionKeys(keys)) {
       if (seen.has(id)) continue;
       const edits = editDistance(token, stored, maxTokenEdits(stored));
-      if (edits <= maxTokenEdits(stored)) found.push({ id, edits, df });
+      if (edits <= maxTokenEdits(stored)) found.push({ id, edits, df, text: stored });
     }
     return found;
   }

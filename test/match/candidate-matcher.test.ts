@@ -77,3 +77,15 @@ describe('a lone word with typing errors', () => {
     expect(repeated.rowsRead.deletionKeys).toBe(queryTokenKeys('moreno').length + queryTokenKeys('altoz').length);
   });
 });
+
+describe('a lone word whose closest stored word is too common for the posting budget', () => {
+  it('reads a few of the places named by that word alone, not all its postings', () => {
+    // 850 places called 'Santiago' (more postings than a lookup reads), 'Santiago Alto' and two rare
+    // words two edits from 'santigao'.
+    const index = memoryNameIndex([...namesakes(850, 'Santiago'), ...namesakes(1, 'Santiago Alto'), ...namesakes(1, 'Santigma'), ...namesakes(1, 'Sanrigai')]);
+    const found = new CandidateMatcher(index).lookup({ name: 'Santigao', context: {}, limit: 5 });
+    expect(found.candidates[0].feature.name).toBe('Santiago');
+    expect(found.candidates[0].why).toBe("1 edit from name 'Santiago'");
+    expect(index.rowsRead.postings).toBeLessThan(10);
+  });
+});

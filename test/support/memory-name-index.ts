@@ -41,7 +41,7 @@ export function memoryNameIndex(features: readonly Feature[]): NameIndex & { row
   return {
     rowsRead,
     version: () => 0,
-    featureIdsByName: (key) => byName.get(key) ?? [],
+    featureIdsByName: (key, limit) => (byName.get(key) ?? []).slice(0, limit),
     feature: (id) => features[id] ?? null,
     features: (ids) => {
       rowsRead.features += ids.length;
