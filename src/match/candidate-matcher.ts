@@ -187,13 +187,15 @@ export class CandidateMatcher {
     const found = new Map<number, Candidate>();
     let plain = 0;
     let oneSource: boolean | undefined;
+    const done = () => enough !== undefined && plain >= enough && (oneSource ??= (this.index.sourceRanks?.().size ?? 2) <= 1);
     for (const variant of nameVariants(name)) {
-      const ids = this.index.featureIdsByName(variant.key).filter((id) => !found.has(id));
+      // With `enough`, the first page of ids alone: most often it holds every feature asked for.
+      let ids = this.index.featureIdsByName(variant.key, enough === undefined ? undefined : EXACT_PAGE);
       // One statement a page of a reading's features: a common name ('San') has thousands.
       for (let start = 0; start < ids.length; start += EXACT_PAGE) {
-        if (enough !== undefined && plain >= enough && (oneSource ??= (this.index.sourceRanks?.().size ?? 2) <= 1)) break;
-        const page = ids.slice(start, start + EXACT_PAGE);
-        const features = this.index.features(page);
+        if (done()) break;
+        const page = ids.slice(start, start + EXACT_PAGE).filter((id) => !found.has(id));
+        const features = page.length === 0 ? new Map<number, Feature>() : this.index.features(page);
         for (const id of page) {
           const feature = features.get(id);
           if (feature === undefined) continue;
@@ -208,6 +210,8 @@ export class CandidateMatcher {
             why: changes.length === 0 ? `exact ${which}` : `exact ${which} with ${changes.join('; ')}`,
           });
         }
+        // The rest of the ids (the same order), when the first page was full and did not hold enough.
+        if (start === 0 && ids.length === EXACT_PAGE && enough !== undefined && !done()) ids = this.index.featureIdsByName(variant.key);
       }
     }
     return [...found.values()].sort((a, b) => b.score - a.score);
