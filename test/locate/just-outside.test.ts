@@ -15,7 +15,7 @@ import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 
-// Invented towns of the island state Poniente and its neighbours; no unit polygons.
+// Invented towns of the island state Poniente (two of them with their county) and its neighbours; no unit polygons.
 const ROWS = [
   ['t1', 'Alisos', -20.0, -50.0, 'Poniente'],
   ['t2', 'Cerrillos', -20.0, -50.5, 'Poniente'],
@@ -26,6 +26,8 @@ const ROWS = [
   ['t7', 'Villa Capital', -20.0, -49.6, 'Distrito Capital'],
   ['t8', 'Los Pinos', -20.0, -49.9, null],
   ['t9', 'Isla Fecha', -16.0, -179.95, 'Oriente'],
+  ['t10', 'Valle Hondo', -21.0, -50.0, 'Poniente', 'Alisos'],
+  ['t11', 'El Molino', -21.0, -50.15, 'Poniente', 'Cerrillos'],
 ] as const;
 const row = (id: string) => ROWS.find((r) => r[0] === id)!;
 const km = (a: string, b: string) => new LatLon(row(a)[2], row(a)[3]).distanceTo(new LatLon(row(b)[2], row(b)[3])) / 1000;
@@ -35,8 +37,8 @@ let store: GazetteerStore;
 
 beforeAll(async () => {
   const csv = join(directory, 'towns.csv');
-  writeFileSync(csv, ['id,name,latitude,longitude,featureType,countryCode,stateProvince',
-    ...ROWS.map(([id, name, lat, lon, state]) => `${id},${name},${lat},${lon},town,QV,${state ?? ''}`)].join('\n'));
+  writeFileSync(csv, ['id,name,latitude,longitude,featureType,countryCode,stateProvince,county',
+    ...ROWS.map(([id, name, lat, lon, state, county]) => `${id},${name},${lat},${lon},town,QV,${state ?? ''},${county ?? ''}`)].join('\n'));
   const db = join(directory, 'towns.sqlite');
   const writer = openGazetteer(db);
   await importGazetteer(writer, csv, { format: 'csv', citation: 'invented towns', sourceId: 'towns' });
@@ -99,6 +101,16 @@ describe('a place loaded only outside the stated state, no polygon of it loaded'
     expect(result.georeference!.remarks[0]).toBe(
       `"Villa Capital" is not inside the record's state/province "Poniente" (state/province 'Distrito Capital', not the one given) but lies in "Distrito Capital", which the text names, about ${(km('t7', 't1') / 2).toFixed(1)} km outside it: half the ${km('t7', 't1').toFixed(1)} km to Alisos (towns:t1), the nearest loaded place inside it, the two units meeting between them: accepted, within the 25 km allowed, the unit's loaded places standing for its extent, as no polygon of it is loaded [CHOICE justOutsideMeters, src/georef/method-defaults.ts]`,
     );
+  });
+});
+
+describe('a place loaded only outside the stated county, no polygon of it loaded', () => {
+  it('is measured against the places recorded in that county', () => {
+    // El Molino (county Cerrillos) to Valle Hondo (county Alisos): 15.6 km.
+    expect(km('t11', 't10')).toBeCloseTo(15.6, 1);
+    const result = locate(store, { locality: 'El Molino', countryCode: 'QV', stateProvince: 'Poniente', county: 'Alisos' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.remarks[0]).toContain(`"El Molino" is not inside the record's county "Alisos" (county 'Cerrillos', not the one given) but lies at most ${km('t11', 't10').toFixed(1)} km outside it, the distance to Valle Hondo (towns:t10)`);
   });
 });
 
