@@ -240,7 +240,7 @@ export class CandidateMatcher {
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const matched = queryTokens
-      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, reach).matches.map((match) => ({ ...match, index })))
+      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize).matches.map((match) => ({ ...match, index })))
       .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
@@ -296,7 +296,7 @@ export class CandidateMatcher {
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
     const closest = this.closestNames(shortlist.map(([id]) => id), folded, reads.foldedNames);
-    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach).keysRead);
+    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize).keysRead);
     const neighboursLeftUnread = keysRead.some((read) => read !== 'all');
     const fewestEdits = Math.min(...[...closest.values()].map((entry) => entry.edits));
     // A lone word read within one edit: its two-edit neighbours could only come after the names
@@ -374,10 +374,11 @@ export class CandidateMatcher {
   /**
    * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
    * for, as far as `reach` says (a word of 6 letters or more within one edit, without its two-edit
-   * neighbours, unless none is that close). Kept between lookups, by what found them: a lookup
-   * reaching further reads only the deletion keys not read yet.
+   * neighbours, unless none is that close, or, for a lone word, those that close hold fewer features
+   * than `poolSize`). Kept between lookups, by what found them: a lookup reaching further reads only
+   * the deletion keys not read yet.
    */
-  private matchingTokens(token: string, severalTokens: boolean, reach: Reach): WordView {
+  private matchingTokens(token: string, severalTokens: boolean, reach: Reach, poolSize: number): WordView {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.index.version();
@@ -400,7 +401,11 @@ export class CandidateMatcher {
     // A common word stored as written is most likely written right: its two-edit neighbours (the most
     // costly seeks, thousands of words in a world-size index) are not read.
     const common = word.exact.some((match) => match.df > POSTING_BUDGET);
-    if ((reach !== 'all' || common) && oneEdit.some((match) => match.edits <= 1)) return { matches: oneEdit, keysRead: 'one edit' };
+    const withinOneEdit = oneEdit.filter((match) => match.edits <= 1);
+    // A lone word's names within one edit hold one of these words: too few to fill the pool, its
+    // two-edit neighbours will be wanted (see fuzzyCandidates), and are read at once.
+    const mayFillPool = severalTokens || withinOneEdit.reduce((sum, match) => sum + match.df, 0) >= poolSize;
+    if ((reach !== 'all' || common) && withinOneEdit.length > 0 && mayFillPool) return { matches: oneEdit, keysRead: 'one edit' };
     if (word.rest === undefined) {
       const read = new Set(oneEditQueryKeys(token));
       word.rest = this.nearTokens(token, queryTokenKeys(token).filter((key) => !read.has(key)), oneEdit);
