@@ -22,7 +22,7 @@ import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './a
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
-import { judgeKind } from './feature-kind.ts';
+import { judgeKind, type KindVerdict } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
@@ -142,32 +142,30 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
+  const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
   let used = interpretation;
-  let resolved = resolveFeatures(finder, interpretation, context, options, edits);
-  let fallbackFrom: string | undefined;
-  const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
-  // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded); failing
-  // that, the town the text's own units name ("Mun. Alisos: Fazenda X" with no farm loaded). Either is
-  // widened as any place named but not loaded is.
+  let resolved = judgedByKind(resolveFeatures(finder, interpretation, context, options, edits), interpretation, kindRule);
+  let fallbackFrom: { name: string; as?: string } | undefined;
+  const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved : undefined;
+  // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded, "Finca Las
+  // Palmas, Alisos" with only a town Las Palmas loaded); failing that, the town the text's own units name
+  // ("Mun. Alisos: Fazenda X" with no farm loaded). Either is widened as any place named but not loaded is.
   for (const { reading, what } of missed ? standInReadings(interpretation) : []) {
-    const attempt = resolveFeatures(finder, reading, context, options, edits);
+    const attempt = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
     // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
-    fallbackFrom = interpretation.features.join('", "');
-    const where = missed!.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
-    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" ${where}: ${what} is used instead`] };
-    resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
+    fallbackFrom = { name: interpretation.features.join('", "'), as: missed!.missingAs };
+    const where = missed!.missingAs
+      ? `is not in the loaded gazetteers ${missed!.missingAs}, only as a settlement that shares its name`
+      : missed!.result.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom.name}" ${where}: ${what} is used instead`] };
+    resolved = { ...attempt, candidates: [...missed!.result.candidates, ...attempt.candidates] };
     break;
   }
   if (!resolved.ok) return resolved.result;
   const { candidates, readings, matchRemarks, chosenNotes } = resolved;
   if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
-  const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
-  const verdicts = (readings[0] ?? []).map((feature) => judgeKind(used.featureKind, used.features[0] ?? '', feature, kindRule));
-  const declined = verdicts.find((v) => v && 'decline' in v);
-  if (verdicts.length > 0 && verdicts.every((v) => v && 'decline' in v)) return { status: 'not-found', interpretation: used, candidates, reason: (declined as { decline: string }).decline };
-  for (const verdict of verdicts) if (verdict && 'remark' in verdict && !matchRemarks.includes(verdict.remark)) matchRemarks.push(verdict.remark);
 
   const lone = lonelyName(used) && readings[0]?.length === 1 ? readings[0][0]! : undefined;
   const far = lone && farFromCountySeat(finder, lone, context, FUZZY_ACCEPTANCE.readingScore, options.countyReachMeters ?? METHOD_DEFAULTS.countyReachMeters);
@@ -241,7 +239,28 @@ function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context:
 
 type Resolution =
   | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[]; guessed: boolean }
-  | { ok: false; result: LocateResult };
+  /** `missingAs`: the place was found only as another kind of place ("as a farm or estate"), so counts as not loaded. */
+  | { ok: false; result: LocateResult; missingAs?: string };
+
+/**
+ * The resolution judged by what the text says its place is (judgeKind, [CHOICE] settlementNamedLikeFeature):
+ * when every feature found for the first name is a settlement the generic word rules out, the clause's place
+ * counts as not loaded as that kind (`missingAs`), so a later clause may stand in for it as for any missing
+ * place; otherwise the remarks on the features taken are added.
+ * @example judgedByKind(resolveFeatures(store, parseLocality('Finca Las Palmas'), …), parseLocality('Finca Las Palmas'), 'settlement')
+ *   // { ok: false, missingAs: 'as a farm or estate', result: { status: 'not-found', reason: '"Finca Las Palmas" names a farm or estate; …' } }
+ */
+function judgedByKind(resolution: Resolution, reading: Interpretation, rule: 'settlement' | 'decline'): Resolution {
+  if (!resolution.ok) return resolution;
+  const verdicts = (resolution.readings[0] ?? []).map((feature) => judgeKind(reading.featureKind, reading.features[0] ?? '', feature, rule));
+  const declines = verdicts.filter((v): v is Extract<KindVerdict, { decline: string }> => !!v && 'decline' in v);
+  if (verdicts.length > 0 && declines.length === verdicts.length) {
+    const result: LocateResult = { status: 'not-found', interpretation: reading, candidates: resolution.candidates, reason: declines[0]!.decline };
+    return { ok: false, result, missingAs: declines[0]!.missing };
+  }
+  const remarks = verdicts.flatMap((v) => (v && 'remark' in v ? [v.remark] : []));
+  return { ...resolution, matchRemarks: [...new Set([...resolution.matchRemarks, ...remarks])] };
+}
 
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
 function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {

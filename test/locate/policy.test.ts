@@ -146,6 +146,21 @@ describe('a later clause names the findable place', () => {
     expect(g.remarks.join('\n')).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers; the text places it in the county "Alisos", whose polygon is the answer's extent/);
   });
 
+  it('falls back to it, widened, when the first names a farm the gazetteer holds only as a town of that name ("Estancia Puerto Lindo, Santa Rosa")', () => {
+    // qv-0013 Puerto Lindo is a city, not the estate; qv-0015 Santa Rosa is a town in Poniente.
+    const result = locate(store, { locality: 'Estancia Puerto Lindo, Santa Rosa', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0015');
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    const remarks = g.remarks.join('\n');
+    expect(remarks).toMatch(/"Estancia Puerto Lindo" is not in the loaded gazetteers as a farm or estate, only as a settlement that shares its name: the next clause, "Santa Rosa", is used instead/);
+    expect(remarks).toMatch(/"Estancia Puerto Lindo" \(as a farm or estate\) is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureMeters/);
+    // Alone, or without a stated state or county, it is declined as before.
+    expect(locate(store, { locality: 'Estancia Puerto Lindo', countryCode: 'QV', stateProvince: 'Poniente' }).reason).toMatch(/names a farm or estate; the gazetteer's "Puerto Lindo" .* shares the name/);
+    expect(locate(store, { locality: 'Estancia Puerto Lindo, Santa Rosa', countryCode: 'QV' }).status).toBe('not-found');
+  });
+
   it('does not fall back without a stated state or county (a name met anywhere is too often another place)', () => {
     const result = locate(store, { locality: 'Villa Quimera, Puerto Lindo', countryCode: 'QV' });
     expect(result.status).toBe('not-found');
@@ -254,7 +269,7 @@ describe('distances the cases above rest on (Vincenty, geodesy 2.4.0)', () => {
 describe('what the text says a place is', () => {
   it('declines a town for a farm that shares its name', () => {
     const town = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
-    expect(judgeKind('farm', 'Estancia Puerto Lindo', town, 'settlement')).toEqual({ decline: expect.stringMatching(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/) });
+    expect(judgeKind('farm', 'Estancia Puerto Lindo', town, 'settlement')).toEqual({ decline: expect.stringMatching(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/), missing: 'as a farm or estate' });
     expect(judgeKind('populated-place', 'Puerto Lindo', town, 'settlement')).toBeNull();
     expect(judgeKind(undefined, 'Puerto Lindo', town, 'settlement')).toBeNull();
   });
@@ -271,7 +286,7 @@ describe('what the text says a place is', () => {
     expect(town.featureId).toBe('qv-0061');
     expect(METHOD_DEFAULTS.settlementNamedLikeFeature).toBe('settlement');
     expect(judgeKind('stream', 'rio Fundo', town, 'settlement')).toEqual({ remark: expect.stringMatching(/"rio Fundo" may name a river or stream; the gazetteer's "Rio Fundo" \(town, demo:qv-0061\) is a settlement of that very name .*\[CHOICE settlementNamedLikeFeature/) });
-    expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/) });
+    expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/), missing: 'as a river or stream' });
   });
 });
 
