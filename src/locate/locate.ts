@@ -18,7 +18,7 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
+import { findUnit, pastUnitHeads, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
@@ -26,6 +26,7 @@ import { judgeKind, type KindVerdict } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
+import { shortFormKey } from '../match/context.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -200,18 +201,31 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
 /**
  * A county or municipality named alone, with no polygon of it loaded: its seat, the one town of the unit's
  * name in the stated state, with the unit level's default extent added to the town's radius
- * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held as written.
+ * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held. The town
+ * is looked for under the unit's name, the name as written, and its short form, the words before the first
+ * "de" (seatNames: "ZACUALTIPAN DE ANGELES", whose seat is Zacualtipán); a name that is ambiguous or found
+ * only by a near spelling ends the search. A town whose own long form shortens to the unit's name is not
+ * taken: measured, it added one answer, and that one false.
  */
 function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
   const meters = options.unitSeatMeters ?? METHOD_DEFAULTS.unitSeatMeters;
   if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
-  const town: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], otherClauses: [], featureKind: undefined };
-  const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
-  if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
-  const remark = `"${unit.written}" names the ${unit.level === 'county' ? 'county' : 'municipality'} "${unit.name}", whose polygon is not loaded: georeferenced at its seat, the town of that name, with the radius widened by ${(meters / 1000).toFixed(0)} km, a default extent for the unit, never a town's radius alone [CHOICE unitSeatMeters, src/georef/method-defaults.ts]`;
-  const outcome = georeference({ interpretation: town, features: resolved.readings[0], widening: { meters, remark }, options });
-  if (!outcome.ok) return null;
-  return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
+  for (const name of seatNames(unit)) {
+    const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined };
+    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+    if (!resolved.ok && resolved.result.status === 'not-found') continue;
+    if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
+    const level = unit.level === 'county' ? 'county' : 'municipality';
+    const short = shortFormKey(unit.name);
+    const named = foldName(name) === short && short !== foldName(unit.name)
+      ? `the town "${resolved.readings[0][0]!.name}", the ${level}'s name without the "de <honoree>" of its official long form`
+      : 'the town of that name';
+    const remark = `"${unit.written}" names the ${level} "${unit.name}", whose polygon is not loaded: georeferenced at its seat, ${named}, with the radius widened by ${(meters / 1000).toFixed(0)} km, a default extent for the unit, never a town's radius alone [CHOICE unitSeatMeters, src/georef/method-defaults.ts]`;
+    const outcome = georeference({ interpretation: town, features: resolved.readings[0], widening: { meters, remark }, options });
+    if (!outcome.ok) return null;
+    return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
+  }
+  return null;
 }
 
 /** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */

@@ -15,7 +15,8 @@ import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { FUZZY_ACCEPTANCE, locate } from '../../src/locate/locate.ts';
-import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
+import { findUnit, seatNames, unitNamed } from '../../src/locate/administrative-unit.ts';
+import { foldName } from '../../src/match/fold.ts';
 import { judgeKind } from '../../src/locate/feature-kind.ts';
 import { parseLocality, type Interpretation } from '../../src/parse/index.ts';
 
@@ -71,6 +72,27 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
     expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unitSeatMeters);
     expect(result.georeference!.uncertaintyMeters).toBeGreaterThanOrEqual(PUERTO_LINDO_RADIUS + METHOD_DEFAULTS.unitSeatMeters);
     expect(result.georeference!.remarks.join('\n')).toMatch(/names the county "Puerto Lindo", whose polygon is not loaded: georeferenced at its seat.*\[CHOICE unitSeatMeters/);
+  });
+
+  it.each([
+    ['Valle Hondo', 'Valle Hondo de Alcántara'],
+    ['Valle Hondo de Alcántara', 'VALLE HONDO DE ALCANTARA'],
+    ['VALLE HONDO', 'Valle Hondo'],
+  ])('takes "%s" for the county "%s" at its seat, the town Valle Hondo: an official long form "X de <honoree>" is matched by its short form X', (locality, county) => {
+    // Invented honoree; qv-0026 Valle Hondo is a town of Poniente, and no county polygon of either form is loaded.
+    const result = locate(store, { locality, countryCode: 'QV', stateProvince: 'Poniente', county });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0026']);
+    expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unitSeatMeters);
+    const remarks = result.georeference!.remarks.join('\n');
+    expect(remarks).toMatch(/georeferenced at its seat, .*\[CHOICE unitSeatMeters/);
+    if (foldName(county) !== foldName('Valle Hondo')) expect(remarks).toContain('the town "Valle Hondo", the county\'s name without the "de <honoree>" of its official long form');
+  });
+
+  it('tries the unit\'s name, the name as written, then its short form, each once', () => {
+    expect(seatNames({ name: 'VALLE HONDO DE ALCANTARA', level: 'county', written: 'Valle Hondo de Alcántara' })).toEqual(['VALLE HONDO DE ALCANTARA', 'valle hondo']);
+    expect(seatNames({ name: 'Valle Hondo de Alcántara', level: 'county', written: 'Valle Hondo' })).toEqual(['Valle Hondo de Alcántara', 'Valle Hondo']);
+    expect(seatNames({ name: 'Alisos', level: 'county', written: 'ALISOS' })).toEqual(['Alisos']);
   });
 
   it('leaves a bare name found only by a near spelling for a person to confirm ([CHOICE] fuzzyLoneName)', () => {
