@@ -23,6 +23,7 @@ import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
 import { judgeKind, type KindVerdict } from './feature-kind.ts';
+import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
@@ -144,15 +145,22 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   }
 
   const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
-  let used = interpretation;
-  let resolved = judgedByKind(resolveFeatures(finder, interpretation, context, options, edits), interpretation, kindRule);
+  // The reading's place, under its name or else its second name written in brackets, judged by its kind.
+  const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
+    const first = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
+    const second = !first.ok && first.result.status === 'not-found' ? secondNameReading(reading, context) : undefined;
+    const attempt = second && judgedByKind(resolveFeatures(finder, second, context, options, edits), second, kindRule);
+    if (!attempt?.ok) return { reading, resolution: first };
+    return { reading: second!, resolution: { ...attempt, candidates: [...(first.ok ? [] : first.result.candidates), ...attempt.candidates] } };
+  };
+  let { reading: used, resolution: resolved } = resolveReading(interpretation);
   let fallbackFrom: { name: string; as?: string } | undefined;
   const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved : undefined;
   // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded, "Finca Las
   // Palmas, Alisos" with only a town Las Palmas loaded); failing that, the town the text's own units name
   // ("Mun. Alisos: Fazenda X" with no farm loaded). Either is widened as any place named but not loaded is.
-  for (const { reading, what } of missed ? standInReadings(interpretation) : []) {
-    const attempt = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
+  for (const { reading: standIn, what } of missed ? standInReadings(interpretation, context) : []) {
+    const { reading, resolution: attempt } = resolveReading(standIn);
     // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
@@ -211,7 +219,7 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
   const meters = options.unitSeatMeters ?? METHOD_DEFAULTS.unitSeatMeters;
   if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
   for (const name of seatNames(unit)) {
-    const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined };
+    const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined, secondName: undefined };
     const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
     if (!resolved.ok && resolved.result.status === 'not-found') continue;
     if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
@@ -228,15 +236,20 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
   return null;
 }
 
-/** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */
-function standInReadings(interpretation: Interpretation): { reading: Interpretation; what: string }[] {
+/**
+ * The readings that may stand in for a missing place, in order: a name in brackets that is the record's own
+ * unit, not a second name ("Cerro Azul (Alisos)" in the county Alisos), the other clauses, then the towns of
+ * the text's units.
+ */
+function standInReadings(interpretation: Interpretation, context: AdministrativeContext): { reading: Interpretation; what: string }[] {
+  const unitInBrackets = interpretation.secondName && !secondNameReading(interpretation, context) ? [{ name: interpretation.secondName, what: 'the record\'s unit written in brackets' }] : [];
   return [
     ...interpretation.otherClauses.map((clause) => ({
       reading: readingOf(interpretation, clause),
       what: `the next clause, "${interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ')}",`,
     })),
-    ...standInsNamed(interpretation).map(({ name, what }) => ({
-      reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined },
+    ...[...unitInBrackets, ...standInsNamed(interpretation)].map(({ name, what }) => ({
+      reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined, secondName: undefined },
       what: `${what}, "${name}",`,
     })),
   ];

@@ -34,9 +34,14 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
     if (reading.type === 'administrative-unit') continue;
     for (const name of reading.features) {
       if (units.has(foldName(name))) continue;
-      const named = finder.findCandidates({ name, context }).filter((c: Candidate) => c.score >= acceptScore);
+      const lookUp = (n: string) => finder.findCandidates({ name: n, context }).filter((c: Candidate) => c.score >= acceptScore);
+      // "Alisos (Alisitos)": the place is found under either name.
+      const second = reading.secondName && reading.features.length === 1 && !units.has(foldName(reading.secondName)) ? reading.secondName : undefined;
+      let named = lookUp(name);
+      let as = name;
+      if (named.length === 0 && second) [named, as] = [lookUp(second), second];
       if (named.length === 0) check.missing.push({ clause: reading.clause, name });
-      else if (PLACE_TYPES.has(reading.type)) check.found.push({ clause: reading.clause, name, features: named.map((c) => c.feature) });
+      else if (PLACE_TYPES.has(reading.type)) check.found.push({ clause: reading.clause, name: as, features: named.map((c) => c.feature) });
     }
   }
   return check;
@@ -113,6 +118,7 @@ export function readingOf(interpretation: Interpretation, clause: ClauseReading)
     features: clause.features,
     offsets: clause.offsets,
     featureKind: clause.featureKind,
+    secondName: clause.secondName,
     otherClauses: interpretation.otherClauses.filter((c) => c.clause !== clause.clause),
   };
 }

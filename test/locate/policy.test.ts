@@ -190,6 +190,39 @@ describe('a later clause names the findable place', () => {
   });
 });
 
+describe('a second name written in brackets ("X (Y)": an older or other name of the same place)', () => {
+  it('is used when the first name is not found, as the same place: the place\'s own radius, no widening', () => {
+    const result = locate(store, { locality: 'Puerto Nada (Santa Rosa)', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0015');
+    expect(g.components.unusedFeature).toBeUndefined();
+    expect(g.remarks.join('\n')).toMatch(/"Puerto Nada" is not in the loaded gazetteers: its second name written in brackets, "Santa Rosa", is used/);
+  });
+
+  it('is not tried when the first name is found', () => {
+    const result = locate(store, { locality: 'Puerto Lindo (Santa Rosa)', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.georeference!.features[0]!.featureId).toBe('qv-0013');
+    expect(result.georeference!.remarks.join('\n')).not.toMatch(/is used/);
+  });
+
+  it('is the record\'s unit, not a second name, when it names the record\'s county: a stand-in, as a later clause would be', () => {
+    const result = locate(store, { locality: 'Villa Quimera (Alisos)', countryCode: 'QV', stateProvince: 'Poniente', county: 'Alisos' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features[0]!.featureId).toBe('qv-0005');
+    expect(result.georeference!.remarks.join('\n')).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the record's unit written in brackets, "Alisos", is used instead/);
+  });
+
+  it('lets a later clause stand in under its second name, widened for the missing first place', () => {
+    const result = locate(store, { locality: 'Cerro Azul, Puerto Nada (Santa Rosa)', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0015');
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.remarks.join('\n')).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers/);
+  });
+});
+
 describe('the stated units are a soft wall', () => {
   it('takes a reference place just outside the stated county, and says so ([CHOICE] justOutsideMeters)', () => {
     // Las Garzas (Tres Cruces) lies 8.7 km outside county Alisos; 10 km N of it reaches into Alisos.
