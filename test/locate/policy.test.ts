@@ -37,6 +37,14 @@ afterAll(() => {
 
 const PUERTO_LINDO_RADIUS = 3500; // demo-places.csv, qv-0013
 
+/** The georeference of a demo text that must be answered, with the feature ids it rests on and its widening term. */
+function answered(locality: string, fields: { stateProvince?: string; county?: string }) {
+  const result = locate(store, { locality, countryCode: 'QV', ...fields });
+  expect(result.status, result.reason).toBe('georeferenced');
+  const g = result.georeference!;
+  return { featureIds: g.features.map((f) => f.featureId), widened: g.components.unusedFeature, remarks: g.remarks.join('\n') };
+}
+
 describe('an administrative unit is georeferenced as the unit, never as a town', () => {
   it.each([
     ['Alisos', { county: 'Alisos' }, 'qv-0005', 'county'],
@@ -80,13 +88,11 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
     ['VALLE HONDO', 'Valle Hondo'],
   ])('takes "%s" for the county "%s" at its seat, the town Valle Hondo: an official long form "X de <honoree>" is matched by its short form X', (locality, county) => {
     // Invented honoree; qv-0026 Valle Hondo is a town of Poniente, and no county polygon of either form is loaded.
-    const result = locate(store, { locality, countryCode: 'QV', stateProvince: 'Poniente', county });
-    expect(result.status).toBe('georeferenced');
-    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0026']);
-    expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unitSeatMeters);
-    const remarks = result.georeference!.remarks.join('\n');
-    expect(remarks).toMatch(/georeferenced at its seat, .*\[CHOICE unitSeatMeters/);
-    if (foldName(county) !== foldName('Valle Hondo')) expect(remarks).toContain('the town "Valle Hondo", the county\'s name without the "de <honoree>" of its official long form');
+    const g = answered(locality, { stateProvince: 'Poniente', county });
+    expect(g.featureIds).toEqual(['qv-0026']);
+    expect(g.widened).toBe(METHOD_DEFAULTS.unitSeatMeters);
+    expect(g.remarks).toMatch(/georeferenced at its seat, .*\[CHOICE unitSeatMeters/);
+    if (foldName(county) !== foldName('Valle Hondo')) expect(g.remarks).toContain('the town "Valle Hondo", the county\'s name without the "de <honoree>" of its official long form');
   });
 
   it('tries the unit\'s name, the name as written, then its short form, each once', () => {
@@ -170,14 +176,11 @@ describe('a later clause names the findable place', () => {
 
   it('falls back to it, widened, when the first names a farm the gazetteer holds only as a town of that name ("Estancia Puerto Lindo, Santa Rosa")', () => {
     // qv-0013 Puerto Lindo is a city, not the estate; qv-0015 Santa Rosa is a town in Poniente.
-    const result = locate(store, { locality: 'Estancia Puerto Lindo, Santa Rosa', countryCode: 'QV', stateProvince: 'Poniente' });
-    expect(result.status).toBe('georeferenced');
-    const g = result.georeference!;
-    expect(g.features[0]!.featureId).toBe('qv-0015');
-    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
-    const remarks = g.remarks.join('\n');
-    expect(remarks).toMatch(/"Estancia Puerto Lindo" is not in the loaded gazetteers as a farm or estate, only as a settlement that shares its name: the next clause, "Santa Rosa", is used instead/);
-    expect(remarks).toMatch(/"Estancia Puerto Lindo" \(as a farm or estate\) is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureMeters/);
+    const g = answered('Estancia Puerto Lindo, Santa Rosa', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0015');
+    expect(g.widened).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.remarks).toMatch(/"Estancia Puerto Lindo" is not in the loaded gazetteers as a farm or estate, only as a settlement that shares its name: the next clause, "Santa Rosa", is used instead/);
+    expect(g.remarks).toMatch(/"Estancia Puerto Lindo" \(as a farm or estate\) is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureMeters/);
     // Alone, or without a stated state or county, it is declined as before.
     expect(locate(store, { locality: 'Estancia Puerto Lindo', countryCode: 'QV', stateProvince: 'Poniente' }).reason).toMatch(/names a farm or estate; the gazetteer's "Puerto Lindo" .* shares the name/);
     expect(locate(store, { locality: 'Estancia Puerto Lindo, Santa Rosa', countryCode: 'QV' }).status).toBe('not-found');
@@ -192,34 +195,29 @@ describe('a later clause names the findable place', () => {
 
 describe('a second name written in brackets ("X (Y)": an older or other name of the same place)', () => {
   it('is used when the first name is not found, as the same place: the place\'s own radius, no widening', () => {
-    const result = locate(store, { locality: 'Puerto Nada (Santa Rosa)', countryCode: 'QV', stateProvince: 'Poniente' });
-    expect(result.status).toBe('georeferenced');
-    const g = result.georeference!;
-    expect(g.features[0]!.featureId).toBe('qv-0015');
-    expect(g.components.unusedFeature).toBeUndefined();
-    expect(g.remarks.join('\n')).toMatch(/"Puerto Nada" is not in the loaded gazetteers: its second name written in brackets, "Santa Rosa", is used/);
+    const g = answered('Puerto Nada (Santa Rosa)', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0015');
+    expect(g.widened).toBeUndefined();
+    expect(g.remarks).toMatch(/"Puerto Nada" is not in the loaded gazetteers: its second name written in brackets, "Santa Rosa", is used/);
   });
 
   it('is not tried when the first name is found', () => {
-    const result = locate(store, { locality: 'Puerto Lindo (Santa Rosa)', countryCode: 'QV', stateProvince: 'Poniente' });
-    expect(result.georeference!.features[0]!.featureId).toBe('qv-0013');
-    expect(result.georeference!.remarks.join('\n')).not.toMatch(/is used/);
+    const g = answered('Puerto Lindo (Santa Rosa)', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0013');
+    expect(g.remarks).not.toMatch(/is used/);
   });
 
   it('is the record\'s unit, not a second name, when it names the record\'s county: a stand-in, as a later clause would be', () => {
-    const result = locate(store, { locality: 'Villa Quimera (Alisos)', countryCode: 'QV', stateProvince: 'Poniente', county: 'Alisos' });
-    expect(result.status).toBe('georeferenced');
-    expect(result.georeference!.features[0]!.featureId).toBe('qv-0005');
-    expect(result.georeference!.remarks.join('\n')).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the record's unit written in brackets, "Alisos", is used instead/);
+    const g = answered('Villa Quimera (Alisos)', { stateProvince: 'Poniente', county: 'Alisos' });
+    expect(g.featureIds[0]).toBe('qv-0005');
+    expect(g.remarks).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the record's unit written in brackets, "Alisos", is used instead/);
   });
 
   it('lets a later clause stand in under its second name, widened for the missing first place', () => {
-    const result = locate(store, { locality: 'Cerro Azul, Puerto Nada (Santa Rosa)', countryCode: 'QV', stateProvince: 'Poniente' });
-    expect(result.status).toBe('georeferenced');
-    const g = result.georeference!;
-    expect(g.features[0]!.featureId).toBe('qv-0015');
-    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
-    expect(g.remarks.join('\n')).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers/);
+    const g = answered('Cerro Azul, Puerto Nada (Santa Rosa)', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0015');
+    expect(g.widened).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.remarks).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers/);
   });
 });
 
