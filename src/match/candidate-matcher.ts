@@ -47,8 +47,10 @@ const SHORTLIST = 60;
 const SHORTLIST_PER_TOKEN = 2;
 /** A common token is read with a partner only up to this many postings (the probe reads them all at worst). */
 const COMMON_TOKEN_LIMIT = 5000;
-/** At most this many tokens of another query word are probed for a common token. */
+/** At most this many closest-matching tokens of other query words are probed for a common token. */
 const MAX_PARTNERS = 6;
+/** At most this many tokens of other query words in all, farther neighbours included (one index range each). */
+const MAX_FAR_PARTNERS = 24;
 /**
  * Features of an exact reading loaded at once; an unfiltered lookup reads no further page once it
  * holds the candidates asked for (a page is one statement).
@@ -342,8 +344,10 @@ export class CandidateMatcher {
   /**
    * Features holding the rarest closest-matching token that was too common for the posting budget
    * ('bobaja' in a large gazetteer) together with a token matching another word of the query, read
-   * through the postings of the common token with an index probe for the other; none when every
-   * query word's closest match was read already.
+   * through the postings of whichever side is rarer with an index probe for the other; none when
+   * every query word's closest match was read already. The other words' closest matches are
+   * partners, and then their farther neighbours, rarest first, as far as COMMON_TOKEN_LIMIT postings
+   * allow ('corti' for 'cori' beside a common 'marina', which alone it would never meet).
    */
   private commonTokenPostings(matched: TokenMatch[], chosen: TokenMatch[], context: ResolvedContext, readBefore: Map<string, Posting[]>): {
     tokens: TokenMatch[]; rows: { feature: number; token: number }[];
@@ -351,13 +355,19 @@ export class CandidateMatcher {
     const read = new Set(chosen.map((match) => match.id));
     const closest = new Map<number, number>();
     for (const match of matched) closest.set(match.index, Math.min(closest.get(match.index) ?? Infinity, match.edits));
-    const skipped = matched.filter((match) => !read.has(match.id) && match.edits === closest.get(match.index) && match.df <= COMMON_TOKEN_LIMIT);
+    const skipped = matched.filter((match) => !read.has(match.id) && match.edits === closest.get(match.index));
     if (skipped.length === 0) return { tokens: [], rows: [] };
     const driver = skipped.reduce((a, b) => (b.df < a.df ? b : a));
-    const partners = matched
-      .filter((match) => match.index !== driver.index && match.edits === closest.get(match.index))
-      .sort((a, b) => a.df - b.df)
-      .slice(0, MAX_PARTNERS);
+    const others = matched.filter((match) => match.index !== driver.index);
+    const partners = others.filter((match) => match.edits === closest.get(match.index)).sort((a, b) => a.df - b.df).slice(0, MAX_PARTNERS);
+    let partnerPostings = partners.reduce((sum, match) => sum + match.df, 0);
+    for (const match of others.filter((m) => m.edits > closest.get(m.index)!).sort((a, b) => a.edits - b.edits || a.df - b.df)) {
+      if (partners.length >= MAX_FAR_PARTNERS || partnerPostings + match.df > COMMON_TOKEN_LIMIT) break;
+      partners.push(match);
+      partnerPostings += match.df;
+    }
+    // Neither side rare enough to read: the common token stays unread.
+    if (driver.df > COMMON_TOKEN_LIMIT && partnerPostings > COMMON_TOKEN_LIMIT) return { tokens: [], rows: [] };
     if (partners.length === 0) return { tokens: [], rows: [] };
     const key = `${driver.id}:${partners.map((partner) => partner.id).join(',')}`;
     let rows = readBefore.get(key);
