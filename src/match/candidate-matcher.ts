@@ -28,9 +28,9 @@ const MIN_FUZZY_POOL = 10;
 const TOKEN_MATCH_CACHE = 20_000;
 /**
  * Stored words (text and feature count) kept by row id between lookups, least recently used dropped
- * first: a query word's deletion keys find thousands of stored words, many found again by later
- * queries (half the rows on the 1 M-name benchmark's 3,800 lookups). Measured there: 65,000 words
- * held took 10.7 MB of heap with the matcher's other caches, so at most about 165 bytes each, 16 MB full.
+ * first (recent-map.ts): a query word's deletion keys find thousands of stored words, many found again
+ * by later queries (half the rows on the 1 M-name benchmark's 4,000 lookups). Measured there: 79,000
+ * words held took 9.7 MB of heap with the matcher's other caches, about 125 bytes each, 12.5 MB full.
  */
 const TOKEN_ROW_CACHE = 100_000;
 /** Whole-name edits counted exactly when re-ranking the shortlist; more are all alike (common practice, no source). */
@@ -448,19 +448,25 @@ export class CandidateMatcher {
   /** The stored tokens within the allowed edits of `token` that these deletion keys find, other than `known`. */
   private nearTokens(token: string, keys: number[], known: readonly TokenMatchRow[]): TokenMatchRow[] {
     const seen = new Set(known.map((match) => match.id));
-    const ids = keys.length === 0 ? [] : this.index.tokenIdsByDeletionKeys(keys).filter((id) => !seen.has(id));
+    // In row-id order, so that words alike in edits and features keep one order whatever was cached.
+    const ids = keys.length === 0 ? [] : this.index.tokenIdsByDeletionKeys(keys).filter((id) => !seen.has(id)).sort((a, b) => a - b);
     // Only the words not read by an earlier lookup are fetched (one statement).
-    const fetched = new Map<number, { text: string; df: number }>();
-    const unread = ids.filter((id) => !this.tokenRows.has(id));
+    const rows = new Map<number, { text: string; df: number }>();
+    const unread: number[] = [];
+    for (const id of ids) {
+      const row = this.tokenRows.get(id);
+      if (row === undefined) unread.push(id);
+      else rows.set(id, row);
+    }
     if (unread.length > 0) {
       for (const [id, text, df] of this.index.tokensByIds(unread)) {
-        fetched.set(id, { text, df });
+        rows.set(id, { text, df });
         this.tokenRows.set(id, { text, df });
       }
     }
     const found: TokenMatchRow[] = [];
     for (const id of ids) {
-      const row = fetched.get(id) ?? this.tokenRows.get(id);
+      const row = rows.get(id);
       if (row === undefined) continue;
       const edits = editDistance(token, row.text, maxTokenEdits(row.text));
       if (edits <= maxTokenEdits(row.text)) found.push({ id, edits, df: row.df, text: row.text });
