@@ -13,7 +13,6 @@ import { nearestPlace } from './nearest-place.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
-import { RecentMap } from './recent-map.ts';
 
 const DEFAULT_LIMIT = 10;
 /** Score of an exact match reached through an abbreviation or a left-out word, below a plain exact match. */
@@ -26,13 +25,6 @@ const FUZZY_POOL = 20;
 const MIN_FUZZY_POOL = 10;
 /** Query tokens whose matching stored tokens are kept between lookups (cleared when the index changes). */
 const TOKEN_MATCH_CACHE = 20_000;
-/**
- * Stored words (text and feature count) kept by row id between lookups, least recently used dropped
- * first (recent-map.ts): a query word's deletion keys find thousands of stored words, many found again
- * by later queries (half the rows on the 1 M-name benchmark's 4,000 lookups). Measured there: 79,000
- * words held took 9.7 MB of heap with the matcher's other caches, about 125 bytes each, 12.5 MB full.
- */
-const TOKEN_ROW_CACHE = 100_000;
 /** Whole-name edits counted exactly when re-ranking the shortlist; more are all alike (common practice, no source). */
 const MAX_NAME_EDITS = 4;
 /**
@@ -121,14 +113,12 @@ const countryList = (context: ResolvedContext): string[] | null => (context.coun
  */
 export class CandidateMatcher {
   private readonly tokenMatches = new Map<string, WordMatches>();
-  private readonly tokenRows = new RecentMap<number, { text: string; df: number }>(TOKEN_ROW_CACHE);
   private tokenMatchVersion = -1;
 
   constructor(private readonly index: NameIndex) {}
 
   forgetTokenMatches(): void {
     this.tokenMatches.clear();
-    this.tokenRows.clear();
   }
 
   /** Candidates for a name, best first, with those the context dropped and notes on how it was read. */
@@ -402,11 +392,10 @@ export class CandidateMatcher {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.index.version();
-    if (version !== this.tokenMatchVersion) {
-      this.forgetTokenMatches();
+    if (version !== this.tokenMatchVersion || this.tokenMatches.size >= TOKEN_MATCH_CACHE) {
+      this.tokenMatches.clear();
       this.tokenMatchVersion = version;
     }
-    if (this.tokenMatches.size >= TOKEN_MATCH_CACHE) this.tokenMatches.clear();
     const cacheKey = `${severalTokens ? '+' : '-'}${token}`;
     let word = this.tokenMatches.get(cacheKey);
     if (word === undefined) {
@@ -448,28 +437,12 @@ export class CandidateMatcher {
   /** The stored tokens within the allowed edits of `token` that these deletion keys find, other than `known`. */
   private nearTokens(token: string, keys: number[], known: readonly TokenMatchRow[]): TokenMatchRow[] {
     const seen = new Set(known.map((match) => match.id));
-    // In row-id order, so that words alike in edits and features keep one order whatever was cached.
-    const ids = keys.length === 0 ? [] : this.index.tokenIdsByDeletionKeys(keys).filter((id) => !seen.has(id)).sort((a, b) => a - b);
-    // Only the words not read by an earlier lookup are fetched (one statement).
-    const rows = new Map<number, { text: string; df: number }>();
-    const unread: number[] = [];
-    for (const id of ids) {
-      const row = this.tokenRows.get(id);
-      if (row === undefined) unread.push(id);
-      else rows.set(id, row);
-    }
-    if (unread.length > 0) {
-      for (const [id, text, df] of this.index.tokensByIds(unread)) {
-        rows.set(id, { text, df });
-        this.tokenRows.set(id, { text, df });
-      }
-    }
     const found: TokenMatchRow[] = [];
-    for (const id of ids) {
-      const row = rows.get(id);
-      if (row === undefined) continue;
-      const edits = editDistance(token, row.text, maxTokenEdits(row.text));
-      if (edits <= maxTokenEdits(row.text)) found.push({ id, edits, df: row.df, text: row.text });
+    // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+    for (const [id, stored, df] of keys.length === 0 ? [] : this.index.tokensByDeletionKeys(keys)) {
+      if (seen.has(id)) continue;
+      const edits = editDistance(token, stored, maxTokenEdits(stored));
+      if (edits <= maxTokenEdits(stored)) found.push({ id, edits, df, text: stored });
     }
     return found;
   }

@@ -194,10 +194,8 @@ export interface NameIndex {
   namesOf(ids: readonly number[]): { id: number; names: string[] }[];
   /** The stored token written exactly as `token`, if any. */
   token(token: string): IndexedToken | undefined;
-  /** Row ids of every stored token sharing one of these deletion keys, each once (the deletion index alone). */
-  tokenIdsByDeletionKeys(keys: readonly number[]): number[];
-  /** Stored tokens by row id (those that exist), as [id, token, df]. */
-  tokensByIds(ids: readonly number[]): [number, string, number][];
+  /** Every stored token sharing one of these deletion keys, each once, as [id, token, df]. */
+  tokensByDeletionKeys(keys: readonly number[]): [number, string, number][];
   /** Up to `limit` postings of these tokens; with `countries`, only features in them or without a country. */
   postings(tokenIds: readonly number[], countries: readonly string[] | null, limit: number): Posting[];
   /**

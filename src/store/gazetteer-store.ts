@@ -520,9 +520,8 @@ function sqliteNameIndex(s: Statements): NameIndex {
       const row = s.tokenByText.get(token) as TokenRow | undefined;
       return row === undefined ? undefined : { id: row.id, df: row.df };
     },
-    // One statement: each distinct token once (a token shares many keys with a query).
-    tokenIdsByDeletionKeys: (keys) => s.tokenIdsByDeletion.all(JSON.stringify(keys)) as number[],
-    tokensByIds: (ids) => s.tokensByIds.all(JSON.stringify(ids)) as [number, string, number][],
+    // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+    tokensByDeletionKeys: (keys) => s.tokensByDeletion.all(JSON.stringify(keys)) as [number, string, number][],
     postings: (tokenIds, countries, limit) => toPostings(countries === null
       ? s.postings.all(JSON.stringify(tokenIds), limit)
       : s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit)),
@@ -585,8 +584,8 @@ function prepareStatements(db: Database.Database) {
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
-    tokenIdsByDeletion: db.prepare('SELECT DISTINCT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?))').pluck(),
-    tokensByIds: db.prepare('SELECT id, token, df FROM tokens WHERE id IN (SELECT value FROM json_each(?))').raw(),
+    tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM tokens t
+      WHERE t.id IN (SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?)))`).raw(),
     postings: db.prepare('SELECT feature, token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?').raw(),
     postingsWithPartner: db.prepare(`SELECT p.feature, p.token FROM postings p WHERE p.token = @driver
       AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`).raw(),

@@ -90,24 +90,6 @@ describe('a lone word whose closest stored word is too common for the posting bu
   });
 });
 
-describe('stored words found through deletion keys', () => {
-  it('are fetched once by a matcher: a later lookup meeting the same words reads no word rows again', () => {
-    const index = memoryNameIndex([...namesakes(2, 'Morena'), ...namesakes(1, 'Marenu'), ...namesakes(1, 'Moreira')]);
-    const matcher = new CandidateMatcher(index);
-    const first = matcher.lookup({ name: 'Moreno', context: {}, limit: 5 }).candidates.map((c) => c.feature.name);
-    const rows = index.rowsRead.tokens;
-    expect(rows).toBeGreaterThan(0);
-    // Another typing error of the same name meets the same stored words through its own keys.
-    const second = matcher.lookup({ name: 'Morrno', context: {}, limit: 5 }).candidates.map((c) => c.feature.name);
-    expect(index.rowsRead.tokens).toBe(rows);
-    // The answers are those of matchers that cache nothing between them.
-    expect(first).toEqual(new CandidateMatcher(memoryNameIndex([...namesakes(2, 'Morena'), ...namesakes(1, 'Marenu'), ...namesakes(1, 'Moreira')]))
-      .lookup({ name: 'Moreno', context: {}, limit: 5 }).candidates.map((c) => c.feature.name));
-    expect(second).toEqual(new CandidateMatcher(memoryNameIndex([...namesakes(2, 'Morena'), ...namesakes(1, 'Marenu'), ...namesakes(1, 'Moreira')]))
-      .lookup({ name: 'Morrno', context: {}, limit: 5 }).candidates.map((c) => c.feature.name));
-  });
-});
-
 describe('a name of two words, one too common for the posting budget', () => {
   it('finds the place whose other word is a farther neighbour through the rarer side, checked against the common word', () => {
     // 'marina' in 900 places (more postings than a lookup reads); 'cori' is stored as written, and its

@@ -9,7 +9,7 @@ import { nameVariants } from '../../src/match/fold.ts';
 import type { Feature, NameIndex, Posting } from '../../src/match/types.ts';
 
 /** Rows read so far by each question of the index. */
-export type RowsRead = Record<'features' | 'postings' | 'names' | 'deletionKeys' | 'tokens', number>;
+export type RowsRead = Record<'features' | 'postings' | 'names' | 'deletionKeys', number>;
 
 export function memoryNameIndex(features: readonly Feature[]): NameIndex & { rowsRead: RowsRead } {
   const byName = new Map<string, number[]>();
@@ -35,7 +35,7 @@ export function memoryNameIndex(features: readonly Feature[]): NameIndex & { row
     }
   });
   const postingsOf = (id: number) => tokens.get(words[id])!.features;
-  const rowsRead: RowsRead = { features: 0, postings: 0, names: 0, deletionKeys: 0, tokens: 0 };
+  const rowsRead: RowsRead = { features: 0, postings: 0, names: 0, deletionKeys: 0 };
   const inCountries = (countries: readonly string[] | null) => (feature: number) =>
     countries === null || features[feature].countryCode === null || countries.includes(features[feature].countryCode!);
   return {
@@ -55,13 +55,9 @@ export function memoryNameIndex(features: readonly Feature[]): NameIndex & { row
       const token = tokens.get(word);
       return token === undefined ? undefined : { id: token.id, df: token.df };
     },
-    tokenIdsByDeletionKeys: (keys) => {
+    tokensByDeletionKeys: (keys) => {
       rowsRead.deletionKeys += keys.length;
-      return [...new Set(keys.flatMap((key) => [...(byKey.get(key) ?? [])]))];
-    },
-    tokensByIds: (ids) => {
-      rowsRead.tokens += ids.length;
-      return ids.filter((id) => words[id] !== undefined).map((id) => [id, words[id], tokens.get(words[id])!.df]);
+      return [...new Set(keys.flatMap((key) => [...(byKey.get(key) ?? [])]))].map((id) => [id, words[id], tokens.get(words[id])!.df]);
     },
     postings: (tokenIds, countries, limit) => {
       const rows: Posting[] = tokenIds.flatMap((token) => postingsOf(token).filter(inCountries(countries)).map((feature) => ({ feature, token })));
