@@ -105,4 +105,13 @@ export const METHOD_DEFAULTS = {
    * "On real records").
    */
   fuzzyLoneName: 'review',
+  /**
+   * A place name found neither as written nor by another documented reading is read as an older
+   * spelling of the record's country or the text's language ("Curityba" for Curitiba, "Jalapa" for
+   * Xalapa: src/match/older-spelling.ts, the rules of the Portuguese and Spanish reforms) [CHOICE]:
+   * 'on' takes such a match as a documented reading, not a near spelling, and the remarks name the
+   * rule; 'off' leaves the name to the near-spelling search. Chosen by measurement on the real-record
+   * sets (README "On real records").
+   */
+  olderSpellings: 'on' as 'on' | 'off',
 } as const satisfies Record<string, number | string>;

@@ -6,7 +6,7 @@
  * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
 import { parseCoordinates, parseLocality } from '../parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType, NamedUnit } from '../parse/types.ts';
+import type { AdministrativeContext, Interpretation, NamedUnit } from '../parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
 import { coverGeoreferences } from '../georef/cover.ts';
 import { georeference } from '../georef/georeference.ts';
@@ -252,7 +252,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   // A near spelling, a place just outside the stated units, or one of several taken.
   let guessed = false;
   for (const name of interpretation.features) {
-    const all = finder.findCandidates(featureQuery(name, context, interpretation.type));
+    const all = finder.findCandidates(featureQuery(name, context, interpretation, options));
     candidates.push(...all);
     const { found, remark: ownUnit } = withoutOwnUnit(all, context);
     if (ownUnit) matchRemarks.push(ownUnit);
@@ -268,7 +268,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && choice.kind !== 'weak') {
       const taken = choice.kind === 'one' ? [choice.candidate] : choice.kind === 'several' ? choice.candidates : [];
       const wallUnit = context.county || context.stateProvince || context.municipality ? findBoundingUnit(finder, context, 'stateProvince') : undefined;
-      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation.type), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
+      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation, options), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
       if (byResult && 'ambiguous' in byResult) return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: byResult.ambiguous } };
       if (byResult) {
         if (!taken.includes(byResult.candidate)) candidates.push(byResult.candidate);
@@ -280,7 +280,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation));
+      const outside = justOutside(finder, featureQuery(name, context, interpretation, options), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation));
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
@@ -418,10 +418,12 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
   };
 }
 
-function featureQuery(name: string, context: AdministrativeContext, type: LocalityType): CandidateQuery {
-  return type === 'junction'
-    ? { name, context, geometryTypes: LINES, withGeometry: true }
-    : { name, context };
+function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
+  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling.
+  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, language: interpretation.language };
+  return interpretation.type === 'junction'
+    ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
+    : { name, context, ...spelling };
 }
 
 type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'weak'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };
