@@ -8,7 +8,7 @@ import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpret
 import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
-import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
+import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import * as L from './lexicon.ts';
 
 export { parseCoordinates } from './coordinates.ts';
@@ -98,9 +98,10 @@ function interpret(text: string): Interpretation {
 
   const pieces: Piece[] = [];
   const found = findCoordinates(text, tokens) ?? wholeTextPair(text, tokens);
-  const segments: Segment[] = found
+  const segments: Segment[] = (found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
-    : splitSegments(tokens, 0, tokens.length);
+    : splitSegments(tokens, 0, tokens.length)
+  ).flatMap((segment) => splitElevationTail(text, tokens, segment));
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 

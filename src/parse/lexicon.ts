@@ -117,8 +117,12 @@ export const BY_AIR_PHRASES = phrases("by air | air | airline | air line | by ai
 /** Words after a road noun that make a standalone road clause: "camino a Y", "road to Y", "estrada para Y". */
 export const ROAD_TOWARD_WORDS = set('to a al para pour vers hacia rumo de');
 
-/** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.". */
-export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao');
+/** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.", "1900 m in height", "1200 m de haut". */
+export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao height high tall hauteur haut');
+/** Words that join a number and its unit to the elevation word after it without saying elevation themselves: "1900 m in height", "à 1200 m d'altitude". */
+export const ELEVATION_LINK_WORDS = set("in of de d'");
+/** Prepositions before an elevation's number ("à 1200 m d'altitude", "a 1200 m de altitud", "colline de 300 m de haut"): the clause then needs an elevation word. */
+export const ELEVATION_LEAD_WORDS = set('a at em de of');
 /** Units of an elevation clause, converted to meters (international foot, 1959). */
 export const ELEVATION_UNITS: ReadonlyMap<string, 'm' | 'ft'> = new Map([
   ...[...set('m mt mts meters metres metros metres msnm masl msm')].map((w) => [w, 'm'] as [string, 'm']),
