@@ -135,16 +135,20 @@ export const SEA_LEVEL_WORDS = set('a s l n m asl snm above sea level sobre el n
  * Unit words and the administrative level they name (accents removed, trailing period dropped). Levels follow
  * the usual first/second/third-level use of each word in the four languages' countries; words whose level
  * differs between countries ("District", "Distrito", "Freguesia") name a bare 'unit' and fill no field.
- * A township ("Twp.") is a civil division below the county, read as a municipality.
+ * A township ("Twp.") is a civil division below the county, read as a municipality. A "canton" is a state in one
+ * country, a county in another and a township in Québec, and a "paroisse" a county in Louisiana and a municipality
+ * in Québec: bare 'unit's. A Québec "MRC" (municipalité régionale de comté) is a county; a "comté" there is a
+ * former county, replaced by the MRCs in the 1980s (from memory), whose name is often a region's or a river's and
+ * no unit a gazetteer now holds: a bare 'unit', never a county to filter by or a town to stand in.
  * "Par." (parish), "Est." (estado), "Co.", "Mun.", "Dist." only count dotted and capitalised: "par" is French
  * "by", "est" "east".
  */
 export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit'> = new Map([
   ...[...set('country pais pays')].map((w) => [w, 'country'] as const),
   ...[...set('state province prov pcia provincia estado est edo dept depto dpto departamento department departement depart region regiao')].map((w) => [w, 'stateProvince'] as const),
-  ...[...set('county co cty parish par partido canton')].map((w) => [w, 'county'] as const),
+  ...[...set('county co cty parish par partido mrc')].map((w) => [w, 'county'] as const),
   ...[...set('municipality municipio municipios mun mpio munic municipalite commune comuna concelho township twp')].map((w) => [w, 'municipality'] as const),
-  ...[...set('district dist distrito distr freguesia parroquia')].map((w) => [w, 'unit'] as const),
+  ...[...set('district dist distrito distr freguesia parroquia canton paroisse comte')].map((w) => [w, 'unit'] as const),
 ]);
 /** Unit words that count only written with a capital and a period ("Par.", "Est."). */
 export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');
