@@ -102,4 +102,12 @@ export const METHOD_DEFAULTS = {
    * "On real records").
    */
   fuzzyLoneName: 'review',
+  /**
+   * A name found in the gazetteer only as the first word(s) of a longer name ("Redmere" for the town Redmere
+   * Springs) [CHOICE]: 'review' gives no georeference and marks it ambiguous, to be confirmed by a person;
+   * 'answer' takes the longer name as a near spelling, with a remark. A longer name is most often another place
+   * named after the first (a town after its region, lake or range), far from it. Chosen by measurement on the
+   * real-record sets (README "On real records").
+   */
+  nameAsFirstWords: 'review',
 } as const satisfies Record<string, number | string>;

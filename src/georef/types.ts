@@ -48,6 +48,8 @@ export interface MethodOptions {
   namesakesWithinMeters?: number;
   /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
   fuzzyLoneName?: 'review' | 'answer';
+  /** A name found only as the first word(s) of a longer name ("Redmere" for Redmere Springs): 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
+  nameAsFirstWords?: 'review' | 'answer';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */

@@ -316,11 +316,25 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       const reason = `no feature named "${name}" as written in the loaded gazetteers; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
       return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
     }
+    if (choice.candidate.score < FUZZY_ACCEPTANCE.readingScore && firstWordsOf(name, choice.candidate.matchedName) && (options.nameAsFirstWords ?? METHOD_DEFAULTS.nameAsFirstWords) === 'review') {
+      const reason = `no feature named "${name}" in the loaded gazetteers; the nearest, ${describeCandidate(choice.candidate)}, only begins with it, and a longer name is most often another place named after it (a town after its region, lake or range), so it is left for a person to confirm [CHOICE nameAsFirstWords, src/georef/method-defaults.ts]`;
+      return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
+    }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/**
+ * True when every word of `name` begins `longer`, which has more words: "Redmere" of "Redmere Springs" (folded).
+ * @example firstWordsOf('Labrador', 'Labrador City') // true
+ */
+function firstWordsOf(name: string, longer: string): boolean {
+  const words = foldName(name).split(' ');
+  const longerWords = foldName(longer).split(' ');
+  return longerWords.length > words.length && words.every((word, k) => longerWords[k] === word);
 }
 
 /** True when the text is one place's name and nothing else: no offset, no second name, no other clause to check it against. */
