@@ -40,14 +40,6 @@ export const METHOD_DEFAULTS = {
   /** What such a place does to the answer: 'widen' by unusedFeatureMeters, or 'decline' with the reason [CHOICE]. */
   unusedFeatureRule: 'widen',
   /**
-   * Such a place when neither the record nor the text states a state, county or municipality ("Selkirk; Alpine
-   * meadow" with only the country) [CHOICE]: 'decline' gives no georeference, as a later clause may stand in
-   * only inside a stated unit; 'widen' widens as above. Nothing bounds where the missing places lie, and a name
-   * found anywhere in a country is too often another place of that name. Chosen by measurement on the
-   * real-record sets (README "On real records").
-   */
-  unusedFeatureUnbounded: 'decline',
-  /**
    * A text that names an administrative unit whose polygon is not loaded is declined, never
    * georeferenced as a town of that name [CHOICE]: a default extent for a level would be dishonest for
    * most units of it (a Brazilian municipality spans from a few km² to over 150 000 km²; from memory).

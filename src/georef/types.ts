@@ -38,8 +38,6 @@ export interface MethodOptions {
   unusedFeatureMeters?: number;
   /** 'widen' (default) by unusedFeatureMeters, or 'decline' when such a place is named ([CHOICE]). */
   unusedFeatureRule?: 'widen' | 'decline';
-  /** Such a place with no state, county or municipality stated: 'decline' (default) or 'widen' ([CHOICE]). */
-  unusedFeatureUnbounded?: 'decline' | 'widen';
   /** How far outside the record's stated unit a reference place may lie and still be taken, plus the text's offset; default 25 km ([CHOICE]). */
   justOutsideMeters?: number;
   /** Places sharing a name in an offset text: judged by where each one's 'result' lands (default) or only by where the 'reference place' lies ([CHOICE]). */

@@ -178,8 +178,6 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const unused = unusedPlaces(others, fallbackFrom, {
     rule: options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule,
     meters: options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters,
-    // As for a stand-in: with no stated unit, a name met anywhere in the country is too often another place of that name.
-    unbounded: !unitStated(context) && (options.unusedFeatureUnbounded ?? METHOD_DEFAULTS.unusedFeatureUnbounded) === 'decline',
   }, withinUnit);
   if ('decline' in unused) return { status: 'not-found', interpretation: used, candidates, reason: unused.decline };
   const { widening } = unused;
@@ -238,12 +236,7 @@ function standInReadings(interpretation: Interpretation): { reading: Interpretat
  * outside the stated units, and inside a stated state, county or municipality.
  */
 function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): boolean {
-  return !resolution.guessed && unitStated(context);
-}
-
-/** True when the record or its text states a state, county or municipality: a bound for a name met anywhere in the country. */
-function unitStated(context: AdministrativeContext): boolean {
-  return !!(context.stateProvince || context.county || context.municipality);
+  return !resolution.guessed && !!(context.stateProvince || context.county || context.municipality);
 }
 
 type Resolution =

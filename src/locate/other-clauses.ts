@@ -46,8 +46,7 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
  * What the places the answer cannot rest on do to it: the missing names of the other clauses, and the
  * name of the chosen clause when a later clause had to be used instead (`fallbackFrom`). By the
  * [CHOICE]s unusedFeatureRule and unusedFeatureMeters: a radius term with its remark, or the reason to
- * decline; nothing when every named place was found. `unbounded` (no state, county or municipality stated,
- * [CHOICE] unusedFeatureUnbounded 'decline') declines. When the place used is an administrative unit's
+ * decline; nothing when every named place was found. When the place used is an administrative unit's
  * polygon (`withinUnit`), the text places the missing ones in it: a note, and no term.
  * @example unusedPlaces({ missing: [{ clause: 1, name: 'Laguna Negra' }], found: [] }, undefined, { rule: 'widen', meters: 120000 })
  *   // { widening: { meters: 120000, remark: '"Laguna Negra" is named but not in the loaded gazetteers: …' } }
@@ -55,7 +54,7 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
 export function unusedPlaces(
   check: OtherClauseCheck,
   fallbackFrom: string | undefined,
-  choice: { rule: 'widen' | 'decline'; meters: number; unbounded?: boolean },
+  choice: { rule: 'widen' | 'decline'; meters: number },
   withinUnit?: Feature,
 ): { widening?: { meters: number; remark: string }; note?: string } | { decline: string } {
   const names = [...(fallbackFrom ? [fallbackFrom] : []), ...check.missing.map((m) => m.name)];
@@ -65,9 +64,6 @@ export function unusedPlaces(
   if (withinUnit) {
     // "Cerro Azul, Alisos": the text places it in the unit, whose own polygon already bounds the answer.
     return { note: `${quoted} ${verb} named but not in the loaded gazetteers; the text places ${names.length === 1 ? 'it' : 'them'} in the ${withinUnit.featureType} "${withinUnit.name}", whose polygon is the answer's extent` };
-  }
-  if (choice.unbounded) {
-    return { decline: `${quoted} ${verb} named but not in the loaded gazetteers, and the record states no state, county or municipality to bound where ${names.length === 1 ? 'it lies' : 'they lie'}: a name met anywhere in the country is too often another place of that name, so no georeference is given [CHOICE unusedFeatureUnbounded, src/georef/method-defaults.ts]` };
   }
   if (choice.rule === 'decline') {
     return { decline: `${quoted} ${verb} named but not in the loaded gazetteers: the specimen may come from there, so no georeference is given [CHOICE unusedFeatureRule 'decline', src/georef/method-defaults.ts]` };

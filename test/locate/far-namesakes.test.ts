@@ -39,14 +39,14 @@ afterAll(() => {
 
 describe('a name found only as the first words of a longer name ([CHOICE] nameAsFirstWords)', () => {
   it('leaves "Fenwickham; Ashby Hollow" for a person to confirm, not the town Fenwickham City', () => {
-    const result = locate(store, { locality: 'Fenwickham; Ashby Hollow', countryCode: 'QV', stateProvince: 'Poniente' });
+    const result = locate(store, { locality: 'Fenwickham; Ashby Hollow', countryCode: 'QV' });
     expect(METHOD_DEFAULTS.nameAsFirstWords).toBe('review');
     expect(result.status).toBe('ambiguous');
     expect(result.reason).toMatch(/Fenwickham City .* only begins with it.*\[CHOICE nameAsFirstWords/);
   });
 
   it("answers with the longer name when asked ('answer'), with the near-name remark", () => {
-    const result = locate(store, { locality: 'Fenwickham; Ashby Hollow', countryCode: 'QV', stateProvince: 'Poniente', options: { nameAsFirstWords: 'answer' } });
+    const result = locate(store, { locality: 'Fenwickham; Ashby Hollow', countryCode: 'QV', options: { nameAsFirstWords: 'answer' } });
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['t-1']);
     expect(result.georeference!.remarks.join('\n')).toMatch(/"Fenwickham" is not in the gazetteer as written; taken as "Fenwickham City"/);
@@ -67,22 +67,5 @@ describe('an elevation is never an offset', () => {
     expect(result.interpretation.elevation).toMatchObject({ minimumMeters: 1900, maximumMeters: 1900 });
     expect(result.interpretation.offsets).toEqual([]);
     expect(result.components?.offset ?? 0).toBe(0);
-  });
-});
-
-describe('a place the text names but the gazetteer lacks, with no state, county or municipality stated ([CHOICE] unusedFeatureUnbounded)', () => {
-  it('declines "Ashcombe; Fenwick Hollow" with only the country, where nothing bounds the missing place', () => {
-    const result = locate(store, { locality: 'Ashcombe; Fenwick Hollow', countryCode: 'QV' });
-    expect(METHOD_DEFAULTS.unusedFeatureUnbounded).toBe('decline');
-    expect(result.status).toBe('not-found');
-    expect(result.reason).toMatch(/"Fenwick Hollow" is named but not in the loaded gazetteers, and the record states no state.*\[CHOICE unusedFeatureUnbounded/);
-  });
-
-  it('widens as before once the state is stated, or when asked to (\'widen\')', () => {
-    for (const request of [{ stateProvince: 'Poniente' }, { options: { unusedFeatureUnbounded: 'widen' as const } }]) {
-      const result = locate(store, { locality: 'Ashcombe; Fenwick Hollow', countryCode: 'QV', ...request });
-      expect(result.status).toBe('georeferenced');
-      expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
-    }
   });
 });

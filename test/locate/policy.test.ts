@@ -99,7 +99,7 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
 
 describe('a place the text names but the gazetteer lacks', () => {
   it('widens the radius by the [CHOICE] distance and says so ("Puerto Lindo, Laguna Negra", no such lake)', () => {
-    const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV', stateProvince: 'Poniente' });
+    const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV' });
     expect(result.status).toBe('georeferenced');
     const g = result.georeference!;
     expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
@@ -108,7 +108,7 @@ describe('a place the text names but the gazetteer lacks', () => {
   });
 
   it('declines instead when the rule is set to decline', () => {
-    const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV', stateProvince: 'Poniente', options: { unusedFeatureRule: 'decline' } });
+    const result = locate(store, { locality: 'Puerto Lindo, Laguna Negra', countryCode: 'QV', options: { unusedFeatureRule: 'decline' } });
     expect(result.status).toBe('not-found');
     expect(result.reason).toMatch(/"Laguna Negra" is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureRule 'decline'/);
   });
