@@ -26,6 +26,7 @@ import { judgeKind } from './feature-kind.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
+import { routeJudgement } from './route.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -142,8 +143,13 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
-  let used = interpretation;
-  let resolved = resolveFeatures(finder, interpretation, context, options, edits);
+  // "Ipala to Amatillo": one name if the gazetteer holds it, else the route between its two ends [CHOICE routeReading].
+  const routing = routeJudgement(finder, interpretation, context, options, FUZZY_ACCEPTANCE.readingScore, (reading) => resolveFeatures(finder, reading, context, options, edits));
+  if ('decline' in routing && routing.ambiguous) return { status: 'ambiguous', interpretation, candidates: [], reason: routing.decline };
+  let used = 'route' in routing ? routing.route : interpretation;
+  let resolved = 'route' in routing ? routing.resolved : resolveFeatures(finder, interpretation, context, options, edits);
+  if ('route' in routing && resolved.ok) resolved = { ...resolved, matchRemarks: [routing.remark, ...resolved.matchRemarks] };
+  if ('decline' in routing && !resolved.ok && resolved.result.status === 'not-found') resolved = { ok: false, result: { ...resolved.result, reason: routing.decline } };
   let fallbackFrom: string | undefined;
   const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
   // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded); failing

@@ -4,7 +4,7 @@
  * assumption in words). Pure and total: any text gets an answer, never an exception.
  * @example parseLocality('10 km NE of Vila Serena').type // 'offset-heading'
  */
-import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
+import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset, RouteReading } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
@@ -191,7 +191,7 @@ function interpret(text: string): Interpretation {
       const name = readLocalityClause(text, tokens.slice(from + 1, to));
       if (name.type === 'named-place' && name.features.length === 1) {
         result.notes.push(`"${previous.reading!.features[0]}" read as "${name.features[0]}", the name given for it in brackets`);
-        const { featureKind: _kind, ...rest } = previous.reading!;
+        const { featureKind: _kind, route: _route, ...rest } = previous.reading!;
         previous.reading = { ...rest, features: name.features, ...(name.featureKind ? { featureKind: name.featureKind } : {}) };
         pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
         continue;
@@ -396,6 +396,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.features = reading.features.map((feature) => seatOf(feature, result));
     result.offsets = reading.offsets;
     if (reading.featureKind) result.featureKind = reading.featureKind;
+    if (reading.route && reading.type === 'named-place') result.route = routeWithPost(reading.route, pieces);
     result.notes.push(...reading.notes);
     if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
   }
@@ -425,6 +426,12 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     if (piece !== chosen && piece.reading?.type === 'unparseable') result.notes.push(`clause "${piece.clause.text}" not read: ${piece.reading.reason}`);
   }
   return result;
+}
+
+/** A route with the road kilometre post another clause writes ("Ipala–Amatillo road, km 12"), if one does. */
+function routeWithPost(route: RouteReading, pieces: Piece[]): RouteReading {
+  const post = pieces.find((p) => p.reading?.kilometrePost)?.reading?.kilometrePost;
+  return post ? { ...route, kilometrePost: post } : route;
 }
 
 /** Kinds of place a link of an administrative chain may be written as: a settlement or a locality. */
