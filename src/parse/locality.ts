@@ -639,14 +639,15 @@ const startsCapitalised = (s: Source, from: number, to: number): boolean => {
  */
 function routeOf(s: Source, from: number, end: number): RouteReading | undefined {
   let start = from;
-  if (modeOfNoun(norm(s, start)) === 'road' || modeOfNoun(norm(s, start)) === 'trail' || L.ROUTE_STRETCH_WORDS.has(norm(s, start) ?? '')) {
+  const roadFirst = modeOfNoun(norm(s, start)) === 'road' || modeOfNoun(norm(s, start)) === 'trail' || L.ROUTE_STRETCH_WORDS.has(norm(s, start) ?? '');
+  if (roadFirst) {
     start++;
     start += matchPhrase(s, start, L.ROUTE_LINKS);
   }
   if ((L.STRONG_FROM_WORDS.has(norm(s, start) ?? '') || L.FROM_WORDS.has(norm(s, start) ?? '')) && startsCapitalised(s, start + 1, end)) start++;
   let stop = end;
   const last = s.tokens[end - 1]!;
-  if (stop - start >= 4 && last.text === last.norm && (modeOfNoun(last.norm) === 'road' || modeOfNoun(last.norm) === 'trail')) stop--;
+  if (stop - start >= 2 && last.text === last.norm && (modeOfNoun(last.norm) === 'road' || modeOfNoun(last.norm) === 'trail')) stop--;
   const ends: [string, string][] = [];
   for (let k = start + 1; k < stop - 1; k++) {
     if (!L.ROUTE_JOINERS.has(s.tokens[k]!.norm) || !startsCapitalised(s, start, k) || !startsCapitalised(s, k + 1, stop)) continue;
@@ -655,6 +656,16 @@ function routeOf(s: Source, from: number, end: number): RouteReading | undefined
     const b = placeAt(s, k + 1, stop);
     s.featureKind = kind;
     if (a && b) ends.push([a, b]);
+  }
+  // "road Ipala-Amatillo", "estrada Juara-Juina", "Ipala-Amatillo road": a hyphen inside a word joins two ends only
+  // beside a road word and when no joiner between words does; else it is a name's own ("Biritiba-Mirim", "Lissac / Mont-Clairet").
+  for (let k = start; ends.length === 0 && (roadFirst || stop < end) && k < stop; k++) {
+    const t = s.tokens[k]!;
+    const hyphen = t.kind === 'word' ? t.text.indexOf('-') : -1;
+    if (hyphen <= 0 || hyphen === t.text.length - 1) continue;
+    const a = s.text.slice(s.tokens[start]!.start, t.start + hyphen).trim();
+    const b = s.text.slice(t.start + hyphen + 1, s.tokens[stop - 1]!.end).trim();
+    if (/^\p{Lu}/u.test(a) && /^\p{Lu}/u.test(b)) ends.push([a, b]);
   }
   return ends.length ? { written: s.text.slice(s.tokens[start]!.start, s.tokens[stop - 1]!.end), ends } : undefined;
 }
