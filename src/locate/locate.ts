@@ -143,20 +143,14 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
-  // "Ipala to Amatillo": one name if the gazetteer holds it, else the route between its two ends [CHOICE routeReading].
-  const routing = routeJudgement(finder, interpretation, context, options, FUZZY_ACCEPTANCE.readingScore, (reading) => resolveFeatures(finder, reading, context, options, edits));
-  if ('decline' in routing && routing.ambiguous) return { status: 'ambiguous', interpretation, candidates: [], reason: routing.decline };
-  let used = 'route' in routing ? routing.route : interpretation;
-  let resolved = 'route' in routing ? routing.resolved : resolveFeatures(finder, interpretation, context, options, edits);
-  if ('route' in routing && resolved.ok) resolved = { ...resolved, matchRemarks: [routing.remark, ...resolved.matchRemarks] };
-  if ('decline' in routing && !resolved.ok && resolved.result.status === 'not-found') resolved = { ok: false, result: { ...resolved.result, reason: routing.decline } };
+  let { reading: used, resolved } = resolveReading(finder, interpretation, context, options, edits);
   let fallbackFrom: string | undefined;
   const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
   // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded); failing
   // that, the town the text's own units name ("Mun. Alisos: Fazenda X" with no farm loaded). Either is
   // widened as any place named but not loaded is.
-  for (const { reading, what } of missed ? standInReadings(interpretation) : []) {
-    const attempt = resolveFeatures(finder, reading, context, options, edits);
+  for (const { reading: standIn, what } of missed ? standInReadings(interpretation) : []) {
+    const { reading, resolved: attempt } = resolveReading(finder, standIn, context, options, edits);
     // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
@@ -248,6 +242,19 @@ function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context:
 type Resolution =
   | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[]; guessed: boolean }
   | { ok: false; result: LocateResult };
+
+/**
+ * The features of a reading, a named place that may be a route judged first: "Ipala to Amatillo" is one name if
+ * the gazetteer holds it, else the route between its two ends (src/locate/route.ts) [CHOICE routeReading].
+ */
+function resolveReading(finder: CandidateFinder, reading: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): { reading: Interpretation; resolved: Resolution } {
+  const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => resolveFeatures(finder, r, context, options, edits));
+  if ('decline' in routing && routing.ambiguous) return { reading, resolved: { ok: false, result: { status: 'ambiguous', interpretation: reading, candidates: [], reason: routing.decline } } };
+  if ('route' in routing) return { reading: routing.route, resolved: routing.resolved };
+  const resolved = resolveFeatures(finder, reading, context, options, edits);
+  if ('decline' in routing && !resolved.ok && resolved.result.status === 'not-found') return { reading, resolved: { ok: false, result: { ...resolved.result, reason: routing.decline } } };
+  return { reading, resolved };
+}
 
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
 function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {

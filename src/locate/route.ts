@@ -14,13 +14,13 @@ import type { MethodOptions } from '../georef/types.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 
 /** What the route judgement decided: keep the reading as it is, use the route, or decline with a reason. */
-export type RouteJudgement<R> = { keep: true } | { route: Interpretation; resolved: R; remark: string } | { decline: string; ambiguous?: true };
+export type RouteJudgement<R> = { keep: true } | { route: Interpretation; resolved: R } | { decline: string; ambiguous?: true };
 
 /**
  * Judges an interpretation's route reading. `resolve` finds the features of a reading (ok when every name is found).
  * @example
  *   routeJudgement(store, parseLocality('Ipala to Amatillo'), {}, {}, 0.95, resolve)
- *   // { route: { type: 'between', features: ['Ipala', 'Amatillo'], … }, resolved, remark: '"Ipala to Amatillo" … [CHOICE routeReading]' }
+ *   // { route: { type: 'between', features: ['Ipala', 'Amatillo'], notes: [… '[CHOICE routeReading, …]'] }, resolved }
  */
 export function routeJudgement<R extends { ok: boolean; guessed?: boolean }>(
   finder: CandidateFinder,
@@ -55,6 +55,6 @@ export function routeJudgement<R extends { ok: boolean; guessed?: boolean }>(
     return { decline: `"${route.written}" read as the route between ${ends[0]} and ${ends[1]}, but "${post}" is measured along the road from its own origin, which cannot be placed without the road's line [CHOICE routeKilometrePost, src/georef/method-defaults.ts]` };
   }
   const postNote = post ? `; "${post}" not placed (measured along the road from its own origin, no road line loaded): the circle covers the whole route [CHOICE routeKilometrePost, src/georef/method-defaults.ts]` : '';
-  const remark = `"${whole}" is not a loaded name; read as the route between ${ends[0]} and ${ends[1]}, both found: georeferenced on the route between them${postNote} ${rule}`;
-  return { route: { ...reading, notes: [...reading.notes, remark] }, resolved, remark };
+  const note = `"${whole}" is not a loaded name; read as the route between ${ends[0]} and ${ends[1]}, both found: georeferenced on the route between them${postNote} ${rule}`;
+  return { route: { ...reading, notes: [...reading.notes, note] }, resolved };
 }

@@ -406,7 +406,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     if (index === best || !piece.reading || piece.reading.type === 'habitat' || piece.reading.type === 'unparseable') return;
     if (piece.reading.type !== 'named-place') {
       result.notes.push(`also read: "${piece.clause.text}" as ${piece.reading.type} (not used for the point; check it agrees)`);
-      others.push(clauseReading(piece.reading, index));
+      others.push(clauseReading(piece.reading, index, pieces));
       return;
     }
     // "Alisos: Fazenda Boa Vista, …": a name whose generic word says farm, water, mountain, road or park is a
@@ -418,7 +418,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
       piece.clause.kind = 'administrative';
     } else {
       result.notes.push(`also named: "${piece.clause.text}" (not used for the point)`);
-      others.push(clauseReading(piece.reading, index));
+      others.push(clauseReading(piece.reading, index, pieces));
     }
   });
   result.otherClauses = others.sort((a, b) => SPECIFICITY[a.type] - SPECIFICITY[b.type] || a.clause - b.clause);
@@ -454,10 +454,11 @@ function seatOf(feature: string, result: Pick<Interpretation, 'administrative' |
 }
 const SMALL_ARTICLES = new Set(['the', 'la', 'el', 'a', 'o', 'le']);
 
-/** The public reading of a clause other than the chosen one. */
-function clauseReading(reading: LocalityRead, clause: number): ClauseReading {
-  const { type, features, offsets, featureKind } = reading;
-  return featureKind ? { clause, type: type as LocalityType, features, offsets, featureKind } : { clause, type: type as LocalityType, features, offsets };
+/** The public reading of a clause other than the chosen one, a route with the kilometre post another clause writes. */
+function clauseReading(reading: LocalityRead, clause: number, pieces: Piece[]): ClauseReading {
+  const { type, features, offsets, featureKind, route } = reading;
+  const read: ClauseReading = featureKind ? { clause, type: type as LocalityType, features, offsets, featureKind } : { clause, type: type as LocalityType, features, offsets };
+  return route && type === 'named-place' ? { ...read, route: routeWithPost(route, pieces) } : read;
 }
 
 /** Unit clauses other than the chosen one fill their level's field, the first written winning; 'unit' fills none. */

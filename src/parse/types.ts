@@ -164,6 +164,8 @@ export interface ClauseReading {
   offsets: Offset[];
   /** What the generic word of its (first) feature says it is ("Fazenda Boa Vista" → 'farm'). */
   featureKind?: FeatureKind;
+  /** A named place that may also be a route between two places (see RouteReading). */
+  route?: RouteReading;
 }
 
 /** The whole reading of one locality text. */
