@@ -6,13 +6,13 @@
  * distance plus the larger extent) is docs/method.md §3, our choice, no published source; the expected midpoint
  * and distance are by Vincenty on WGS84 (geodesy 2.4.0), independent of the code under test.
  */
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../../src/store/import.ts';
-import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { openCsvStore } from '../support/csv-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 
 // Invented towns of the island state Poniente, with their radii in meters; "Puerto a Dentro" is one town's name.
@@ -31,14 +31,8 @@ const directory = mkdtempSync(join(tmpdir(), 'whereabouts-route-'));
 let store: GazetteerStore;
 
 beforeAll(async () => {
-  const csv = join(directory, 'towns.csv');
-  writeFileSync(csv, ['id,name,latitude,longitude,featureType,countryCode,stateProvince,radiusMeters',
-    ...ROWS.map(([id, name, lat, lon, radius]) => `${id},${name},${lat},${lon},town,QV,Poniente,${radius}`)].join('\n'));
-  const db = join(directory, 'towns.sqlite');
-  const writer = openGazetteer(db);
-  await importGazetteer(writer, csv, { format: 'csv', citation: 'invented towns', sourceId: 'towns' });
-  writer.close();
-  store = openGazetteer(db, { readonly: true });
+  store = await openCsvStore(directory, ['id,name,latitude,longitude,featureType,countryCode,stateProvince,radiusMeters',
+    ...ROWS.map(([id, name, lat, lon, radius]) => `${id},${name},${lat},${lon},town,QV,Poniente,${radius}`)], 'towns');
 });
 afterAll(() => {
   store.close();
