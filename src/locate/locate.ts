@@ -249,7 +249,7 @@ type Resolution =
  */
 function resolveReading(finder: CandidateFinder, reading: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): { reading: Interpretation; resolved: Resolution } {
   const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => resolveFeatures(finder, r, context, options, edits));
-  if ('decline' in routing && routing.ambiguous) return { reading, resolved: { ok: false, result: { status: 'ambiguous', interpretation: reading, candidates: [], reason: routing.decline } } };
+  if ('decline' in routing && routing.final) return { reading, resolved: { ok: false, result: { status: routing.final, interpretation: reading, candidates: [], reason: routing.decline } } };
   if ('route' in routing) return { reading: routing.route, resolved: routing.resolved };
   const resolved = resolveFeatures(finder, reading, context, options, edits);
   if ('decline' in routing && !resolved.ok && resolved.result.status === 'not-found') return { reading, resolved: { ok: false, result: { ...resolved.result, reason: routing.decline } } };

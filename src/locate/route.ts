@@ -13,8 +13,8 @@ import type { CandidateFinder } from '../match/types.ts';
 import type { MethodOptions } from '../georef/types.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 
-/** What the route judgement decided: keep the reading as it is, use the route, or decline with a reason. */
-export type RouteJudgement<R> = { keep: true } | { route: Interpretation; resolved: R } | { decline: string; ambiguous?: true };
+/** What the route judgement decided: keep the reading as it is, use the route, or decline (`final`: whatever the whole name gives). */
+export type RouteJudgement<R> = { keep: true } | { route: Interpretation; resolved: R } | { decline: string; final?: 'ambiguous' | 'not-found' };
 
 /**
  * Judges an interpretation's route reading. `resolve` finds the features of a reading (ok when every name is found).
@@ -42,7 +42,7 @@ export function routeJudgement<R extends { ok: boolean; guessed?: boolean }>(
   const both = tried.filter((t) => t.resolved.ok && !t.resolved.guessed);
   const rule = '[CHOICE routeReading, src/georef/method-choices.ts]';
   if (both.length > 1) {
-    return { decline: `"${route.written}" splits into two places in ${both.length} ways (${both.map((t) => t.ends.join(' | ')).join('; ')}): which route is meant is for a person to say ${rule}`, ambiguous: true };
+    return { decline: `"${route.written}" splits into two places in ${both.length} ways (${both.map((t) => t.ends.join(' | ')).join('; ')}): which route is meant is for a person to say ${rule}`, final: 'ambiguous' };
   }
   if (both.length === 0) {
     const found = route.ends.flat().filter((name, k, all) => all.indexOf(name) === k && finder.findCandidates({ name, context }).some((c) => c.score >= readingScore));
@@ -52,7 +52,7 @@ export function routeJudgement<R extends { ok: boolean; guessed?: boolean }>(
   const [{ ends, reading, resolved }] = both as [(typeof both)[number]];
   const post = route.kilometrePost;
   if (post && (options.routeKilometrePost ?? METHOD_DEFAULTS.routeKilometrePost) === 'decline') {
-    return { decline: `"${route.written}" read as the route between ${ends[0]} and ${ends[1]}, but "${post}" is measured along the road from its own origin, which cannot be placed without the road's line [CHOICE routeKilometrePost, src/georef/method-defaults.ts]` };
+    return { decline: `"${route.written}" read as the route between ${ends[0]} and ${ends[1]}, but "${post}" is measured along the road from its own origin, which cannot be placed without the road's line [CHOICE routeKilometrePost, src/georef/method-defaults.ts]`, final: 'not-found' };
   }
   const postNote = post ? `; "${post}" not placed (measured along the road from its own origin, no road line loaded): the circle covers the whole route [CHOICE routeKilometrePost, src/georef/method-defaults.ts]` : '';
   const note = `"${whole}" is not a loaded name; read as the route between ${ends[0]} and ${ends[1]}, both found: georeferenced on the route between them${postNote} ${rule}`;

@@ -15,7 +15,8 @@ import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { openCsvStore } from '../support/csv-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 
-// Invented towns of the island state Poniente, with their radii in meters; "Puerto a Dentro" is one town's name.
+// Invented towns of the island state Poniente, with their radii in meters; "Puerto a Dentro" and "Dentro a Vaubrun"
+// are towns' names that hold a joiner.
 const ROWS = [
   ['r1', 'Alisos', -20.0, -50.0, 2000],
   ['r2', 'Vila Serena', -20.2, -50.3, 3000],
@@ -23,6 +24,7 @@ const ROWS = [
   ['r4', 'Puerto', -20.5, -50.5, 1000],
   ['r5', 'Dentro', -20.6, -50.9, 1000],
   ['r6', 'Vaubrun', -21.5, -50.0, 2500],
+  ['r7', 'Dentro a Vaubrun', -21.2, -50.2, 1000],
 ] as const;
 const row = (id: string) => ROWS.find((r) => r[0] === id)!;
 const point = (id: string) => new LatLon(row(id)[2], row(id)[3]);
@@ -64,6 +66,18 @@ describe('a route between two places', () => {
     expect(result.status).toBe('georeferenced');
     expect(result.interpretation.type).toBe('named-place');
     expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['r3']);
+  });
+
+  it('takes a name that holds a joiner as one end when only that split finds both ends', () => {
+    const result = locate(store, { locality: 'Alisos to Puerto a Dentro', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['r1', 'r3']);
+  });
+
+  it('leaves two splits that both find their ends for a person ("Puerto | Dentro a Vaubrun", "Puerto a Dentro | Vaubrun")', () => {
+    const result = locate(store, { locality: 'Puerto a Dentro a Vaubrun', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('ambiguous');
+    expect(result.reason).toContain('splits into two places in 2 ways');
   });
 
   it('declines when only one end is found, and says which, never answering with that end', () => {
