@@ -198,6 +198,20 @@ function interpret(text: string): Interpretation {
       }
     }
     const reading = readSegment(index)!;
+    const named = previous?.reading?.features.length === 1 && !previous.reading.bare && !previous.reading.secondName ? previous.reading : undefined;
+    const second = named && segments[index - 1]?.separator === '(' && tokens[to]?.norm === ')' && previous!.clause.text.endsWith(named.features[0]!)
+      ? secondNameIn(text, tokens.slice(L.SECOND_NAME_WORDS.has(tokens[from]!.norm) ? from + 1 : from, to), named.featureKind)
+      : undefined;
+    if (second) {
+      // "Alisos (Alisitos)", "Puerto Viejo (antes Alisitos)": one name alone in brackets right after a place's
+      // name is a second name of that place (an older or other name) [our rule, no source]. A name with a
+      // generic word of its own ("(Rio Fundo)") is another feature, and unit words, "(by air)", "(environs)",
+      // "(town)" keep their readings above and in joinBareClauses.
+      previous!.reading = { ...named!, secondName: second };
+      result.notes.push(`"${second}", in brackets after "${named!.features[0]}", read as a second name of it: tried only when "${named!.features[0]}" is not found`);
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
+      continue;
+    }
     pieces.push({ clause: clauseOf(text, tokens, from, to, reading.type === 'habitat' ? 'habitat' : 'locality'), reading });
   }
   if (coordinatesPiece && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
@@ -397,6 +411,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.offsets = reading.offsets;
     if (reading.featureKind) result.featureKind = reading.featureKind;
     if (reading.route && reading.type === 'named-place') result.route = routeWithPost(reading.route, pieces);
+    if (reading.secondName) result.secondName = reading.secondName;
     result.notes.push(...reading.notes);
     if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
   }
@@ -456,9 +471,23 @@ const SMALL_ARTICLES = new Set(['the', 'la', 'el', 'a', 'o', 'le']);
 
 /** The public reading of a clause other than the chosen one, a route with the kilometre post another clause writes. */
 function clauseReading(reading: LocalityRead, clause: number, pieces: Piece[]): ClauseReading {
-  const { type, features, offsets, featureKind, route } = reading;
-  const read: ClauseReading = featureKind ? { clause, type: type as LocalityType, features, offsets, featureKind } : { clause, type: type as LocalityType, features, offsets };
-  return route && type === 'named-place' ? { ...read, route: routeWithPost(route, pieces) } : read;
+  const { type, features, offsets, featureKind, secondName, route } = reading;
+  const routed = route && type === 'named-place' ? { route: routeWithPost(route, pieces) } : {};
+  return { clause, type: type as LocalityType, features, offsets, ...(featureKind ? { featureKind } : {}), ...(secondName ? { secondName } : {}), ...routed };
+}
+
+/**
+ * The name of a clause written in brackets when it is one name alone, a second name of the place before it
+ * (whose generic word says `kind`); undefined otherwise, or when its own generic word says it is another
+ * kind of place ("Porto Alegre (Rio Fundo)": a river by the town).
+ * @example secondNameIn('Alisitos', tokenize('Alisitos'), undefined) // 'Alisitos'
+ */
+function secondNameIn(text: string, tokens: Token[], kind: FeatureKind | undefined): string | undefined {
+  if (tokens.length === 0) return undefined;
+  const reading = readLocalityClause(text, tokens);
+  const ownKind = reading.featureKind;
+  const sameKind = !ownKind || ownKind === kind || UNIT_LIKE_KINDS.has(ownKind);
+  return reading.type === 'named-place' && !reading.bare && reading.features.length === 1 && sameKind ? reading.features[0] : undefined;
 }
 
 /** Unit clauses other than the chosen one fill their level's field, the first written winning; 'unit' fills none. */

@@ -166,6 +166,8 @@ export interface ClauseReading {
   featureKind?: FeatureKind;
   /** A named place that may also be a route between two places (see RouteReading). */
   route?: RouteReading;
+  /** A second name of its one feature, written in brackets after it (see `Interpretation.secondName`). */
+  secondName?: string;
 }
 
 /** The whole reading of one locality text. */
@@ -193,6 +195,11 @@ export interface Interpretation {
   featureKind?: FeatureKind;
   /** The chosen named place may also be a route between two places: its splits, for locate to judge. */
   route?: RouteReading;
+  /**
+   * A second name of the one feature, written alone in brackets after it ("Alisos (Alisitos)": an older or
+   * other name of the same place): the locate step tries it only when the first name is not found.
+   */
+  secondName?: string;
   /** The other locality clauses, each read on its own, most specific first; [] when there are none. */
   otherClauses: ClauseReading[];
   elevation?: { minimumMeters: number; maximumMeters: number; written: string };

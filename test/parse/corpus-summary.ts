@@ -5,10 +5,11 @@ export interface CorpusEntry {
   text: string;
   /**
    * Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading, the
-   * line a path offset follows, what the feature is when the text says so ("summit of X": a mountain), and the
-   * two ends of each way a name may be read as a route ("X to Y"; [] when it offers none).
+   * line a path offset follows, what the feature is when the text says so ("summit of X": a mountain), a
+   * second name of it written in brackets ("X (Y)", "X (formerly Y)"), and the two ends of each way a name may
+   * be read as a route ("X to Y"; [] when it offers none).
    */
-  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; routeEnds?: string[][] };
+  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; secondName?: string; routeEnds?: string[][] };
 }
 
 const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
@@ -43,6 +44,7 @@ export function summarize(r: Interpretation): Record<string, unknown> {
       offsets: r.offsets.map(summarizeOffset),
       featureKind: r.featureKind,
       route: r.route,
+      secondName: r.secondName,
       unit: r.unit,
       otherClauses: r.otherClauses.length > 0 ? r.otherClauses.map((c) => ({ ...c, offsets: c.offsets.map(summarizeOffset) })) : undefined,
       coordinates: r.coordinates && {
@@ -81,5 +83,6 @@ export function intentMismatches(entry: CorpusEntry, r: Interpretation): string[
     problems.push(`route ends ${JSON.stringify(r.route?.ends ?? [])}, expected ${JSON.stringify(entry.intent.routeEnds)}`);
   }
   if (entry.intent.featureKind !== undefined && r.featureKind !== entry.intent.featureKind) problems.push(`feature kind ${r.featureKind}, expected ${entry.intent.featureKind}`);
+  if (entry.intent.secondName !== undefined && r.secondName !== entry.intent.secondName) problems.push(`second name ${r.secondName}, expected ${entry.intent.secondName}`);
   return problems;
 }
