@@ -89,6 +89,13 @@ export const METHOD_DEFAULTS = {
    */
   settlementNamedLikeFeature: 'settlement',
   /**
+   * A route between two places with a road kilometre post beside it ("Ipala–Amatillo road, km 12") and no road
+   * line loaded [CHOICE]: 12 km from the road's own origin cannot be placed on a straight line honestly, so either
+   * the 'route' is answered with its circle (the whole segment and both ends' extents) and the post named as not
+   * placed, or the record is declined ('decline'). Chosen by measurement on the real-record sets (README "On real records").
+   */
+  routeKilometrePost: 'route',
+  /**
    * A name matching several features of one type in one state or province, all within this distance of
    * one another (a gazetteer holding one town twice, or two hamlets of one name side by side), is
    * answered with one circle covering them all, as the cover option does, with the remark [CHOICE];

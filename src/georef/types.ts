@@ -44,6 +44,8 @@ export interface MethodOptions {
   namesakesJudgedBy?: 'result' | 'reference place';
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
   settlementNamedLikeFeature?: 'settlement' | 'decline';
+  /** A route between two places with a road kilometre post beside it: answered as the whole 'route' (default) or 'decline' ([CHOICE]). */
+  routeKilometrePost?: 'route' | 'decline';
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
   /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */

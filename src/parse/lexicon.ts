@@ -120,6 +120,17 @@ export const BY_AIR_PHRASES = phrases("by air | air | airline | air line | by ai
 /** Words after a road noun that make a standalone road clause: "camino a Y", "road to Y", "estrada para Y". */
 export const ROAD_TOWARD_WORDS = set('to a al para pour vers hacia rumo de');
 
+/**
+ * Words joining the two ends of a route: "Ipala to Amatillo", "de X a Y", "de X à Y", "X até Y", "X - Y", "X – Y",
+ * "X / Y". Every one may also stand inside a name ("Puerto a Dentro"), so a split is only offered: the gazetteer
+ * decides (src/locate/route.ts) [CHOICE routeReading].
+ */
+export const ROUTE_JOINERS = set('to a ao ate hasta - – — /');
+/** Words for a stretch of road before its two ends: "trecho X/Y", "tramo X - Y", "tronçon X - Y" (road and trail nouns count too). */
+export const ROUTE_STRETCH_WORDS = set('trecho tramo troncon ramal');
+/** Words between a road noun and the first end: "estrada que liga X a Y", "camino que sigue de X a Y", "route qui relie X à Y". */
+export const ROUTE_LINKS = phrases('que liga | que sigue | que une | que va | que vai | que conecta | qui relie | that joins | that links');
+
 /** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.", "1900 m in height", "1200 m de haut". */
 export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao height high tall hauteur haut');
 /** Words that join a number and its unit to the elevation word after it without saying elevation themselves: "1900 m in height", "à 1200 m d'altitude". */

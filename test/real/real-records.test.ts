@@ -27,8 +27,8 @@ const STATUSES = ['georeferenced', 'ambiguous', 'not-found', 'unparseable'];
  * set 3 false 0.53 % (3 of 568), covered 94.8 % (55 of 58 answers), answered 10.2 % (58 of 568).
  */
 const EXPECTED = [
-  { title: 'set 1, tree ferns', set: REAL_SETS[0], records: 524, falseCeiling: 0.6, coveredFloor: 97.5, answeredFloor: 28.2 },
-  { title: 'set 2, oak types', set: REAL_SETS[1], records: 206, falseCeiling: 1.5, coveredFloor: 94, answeredFloor: 26.5 },
+  { title: 'set 1, tree ferns', set: REAL_SETS[0], records: 524, falseCeiling: 0.6, coveredFloor: 97.5, answeredFloor: 29 },
+  { title: 'set 2, oak types', set: REAL_SETS[1], records: 206, falseCeiling: 1.5, coveredFloor: 94, answeredFloor: 27.5 },
   { title: 'set 3, blueberries', set: REAL_SETS[2], records: 568, falseCeiling: 0.6, coveredFloor: 94.5, answeredFloor: 10 },
 ];
 
