@@ -9,7 +9,7 @@ import type { Geometry } from 'geojson';
 import { CandidateMatcher } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
-import { nameVariants } from '../match/fold.ts';
+import { indexTerms, type IndexTerms } from './index-terms.ts';
 import type {
   AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
 } from '../match/types.ts';
@@ -86,8 +86,11 @@ export interface SourceRecord {
 
 /** One import in progress: a single transaction, rolled back unless committed. */
 export interface ImportSession {
-  /** Adds a feature; returns null, or the reason it was refused (a duplicate id, say). */
-  add(record: FeatureRecord): string | null;
+  /**
+   * Adds a feature; returns null, or the reason it was refused (a duplicate id, say). `terms`, when the
+   * caller has worked them out already, are `indexTerms(record.name, record.alternateNames)`.
+   */
+  add(record: FeatureRecord, terms?: IndexTerms): string | null;
   /** Keeps an alternate name of a feature still to come, on disk for the length of the import. */
   stageAlternateName(featureId: string, name: AlternateName): void;
   /** The alternate names staged for a feature, in the order staged. */
@@ -349,7 +352,7 @@ class SqliteGazetteer implements GazetteerStore {
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
     // Into an empty token table, a token the cache has not seen is new: no need to look it up.
     let everyTokenCached = s.anyToken.get() === undefined;
-    const tokenId = (token: string): number => {
+    const tokenId = (token: string, deletionKeys?: readonly number[]): number => {
       const cached = tokenIds.get(token);
       if (cached !== undefined) return cached;
       const existing = everyTokenCached ? undefined : s.tokenByText.get(token) as TokenRow | undefined;
@@ -358,7 +361,7 @@ class SqliteGazetteer implements GazetteerStore {
         id = existing.id;
       } else {
         id = Number(s.insertToken.run(token).lastInsertRowid);
-        for (const hash of storedTokenKeys(token)) deletions.add(hash, id);
+        for (const hash of deletionKeys ?? storedTokenKeys(token)) deletions.add(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
         tokenIds.clear();
@@ -374,7 +377,7 @@ class SqliteGazetteer implements GazetteerStore {
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
     return {
-      add: (record) => {
+      add: (record, terms) => {
         let rowId: number;
         try {
           rowId = Number(s.insertFeature.run(
@@ -389,15 +392,9 @@ class SqliteGazetteer implements GazetteerStore {
           if (error instanceof Database.SqliteError && error.code === 'SQLITE_CONSTRAINT_UNIQUE') return `duplicate id '${record.featureId}'`;
           throw error;
         }
-        const keys = new Set<string>();
-        for (const written of [record.name, ...record.alternateNames]) for (const variant of nameVariants(written)) keys.add(variant.key);
-        const tokens = new Set<string>();
-        for (const key of keys) {
-          if (key === '') continue;
-          names.add(key, rowId);
-          for (const token of key.split(' ')) tokens.add(token);
-        }
-        for (const token of tokens) postings.add(tokenId(token), rowId);
+        const { keys, tokens, deletionKeys } = terms ?? indexTerms(record.name, record.alternateNames);
+        for (const key of keys) names.add(key, rowId);
+        for (const token of tokens) postings.add(tokenId(token, deletionKeys?.get(token)), rowId);
         count++;
         return null;
       },
