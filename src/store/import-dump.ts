@@ -2,7 +2,7 @@
  * Reading the world-gazetteer dump layout for an import on a thread of its own: the reading thread
  * (import-dump-thread.ts) reads the file, checks each row and works out what the store indexes it by,
  * while the importing thread only writes, so the two halves of the work run on two cores at once.
- * Rows cross between the threads in batches packed as one string and two typed arrays: a structured
+ * Rows cross between the threads in batches packed as a few strings and typed arrays: a structured
  * clone of the rows as objects would cost the writing thread about as much as the work it saves.
  */
 import type { Readable } from 'node:stream';
@@ -42,7 +42,13 @@ export interface DumpThreadData {
 
 /** A batch of rows as it crosses between threads (see `packRows`). */
 export interface PackedRows {
+  /** The rows' text fields, joined. */
   text: string;
+  /**
+   * The rows' index keys and words, each a string of its own: they outlive the batch in the store's
+   * buffers and token cache, and a piece cut from the joined text would keep all of it alive.
+   */
+  terms: string[];
   counts: Int32Array;
   numbers: Float64Array;
   /** For each row with words new to the reading thread: for each such word, its place among the row's words, the number of its keys, the keys. */
@@ -168,6 +174,7 @@ export async function* checkedDumpRows(data: Omit<DumpThreadData, 'taken'>): Asy
  */
 export function packRows(rows: readonly CheckedRow[], sentWords: Set<string>): PackedRows {
   const fields: string[] = [];
+  const terms: string[] = [];
   const counts = new Int32Array(rows.length * COUNTS_PER_ROW);
   const numbers = new Float64Array(rows.length * 3);
   const deletionKeys: number[] = [];
@@ -192,16 +199,18 @@ export function packRows(rows: readonly CheckedRow[], sentWords: Set<string>): P
     counts.set([1, checked.radiusIsDefault ? 1 : 0, checked.alternateNames.length, keys.length, tokens.length, newWords], i * COUNTS_PER_ROW + 1);
     numbers.set([checked.latitude, checked.longitude, checked.radiusMeters], i * 3);
     fields.push(checked.featureId, checked.name, checked.featureType ?? '', checked.countryCode ?? '', checked.stateProvince ?? '', checked.county ?? '',
-      ...checked.alternateNames, ...keys, ...tokens);
+      ...checked.alternateNames);
+    terms.push(...keys, ...tokens);
   });
-  return { text: fields.join(FIELD_SEPARATOR), counts, numbers, deletionKeys: Int32Array.from(deletionKeys) };
+  return { text: fields.join(FIELD_SEPARATOR), terms, counts, numbers, deletionKeys: Int32Array.from(deletionKeys) };
 }
 
 /** The rows `packRows` packed. An empty text field stands for null: the checked record holds no empty text. */
-function unpackRows({ text, counts, numbers, deletionKeys }: PackedRows): CheckedRow[] {
+function unpackRows({ text, terms, counts, numbers, deletionKeys }: PackedRows): CheckedRow[] {
   const fields = text.split(FIELD_SEPARATOR);
   const rows: CheckedRow[] = [];
   let at = 0;
+  let termAt = 0;
   let keyAt = 0;
   const orNull = (field: string) => (field === '' ? null : field);
   for (let i = 0; i * COUNTS_PER_ROW < counts.length; i++) {
@@ -219,9 +228,9 @@ function unpackRows({ text, counts, numbers, deletionKeys }: PackedRows): Checke
     const county = orNull(fields[at + 5]);
     at += 6;
     const alternateNames = fields.slice(at, at += counts[base + 3]);
-    const keys = fields.slice(at, at += counts[base + 4]);
-    const tokens = fields.slice(at, at += counts[base + 5]);
-    const terms: IndexTerms = { keys, tokens };
+    const keys = terms.slice(termAt, termAt += counts[base + 4]);
+    const tokens = terms.slice(termAt, termAt += counts[base + 5]);
+    const indexed: IndexTerms = { keys, tokens };
     if (counts[base + 6] > 0) {
       const byWord = new Map<string, number[]>();
       for (let word = 0; word < counts[base + 6]; word++) {
@@ -229,7 +238,7 @@ function unpackRows({ text, counts, numbers, deletionKeys }: PackedRows): Checke
         byWord.set(tokens[deletionKeys[keyAt]], Array.from(deletionKeys.subarray(keyAt + 2, keyAt + 2 + length)));
         keyAt += 2 + length;
       }
-      terms.deletionKeys = byWord;
+      indexed.deletionKeys = byWord;
     }
     rows.push({
       row,
@@ -238,7 +247,7 @@ function unpackRows({ text, counts, numbers, deletionKeys }: PackedRows): Checke
         latitude: numbers[i * 3], longitude: numbers[i * 3 + 1], radiusMeters: numbers[i * 3 + 2], radiusIsDefault: counts[base + 2] === 1,
         geometryType: 'Point', geometry: null,
       },
-      terms,
+      terms: indexed,
     });
   }
   return rows;
