@@ -10,6 +10,8 @@ import { CandidateMatcher } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
 import { indexTerms, type IndexTerms } from './index-terms.ts';
+import { NameBuffer, RowWriter, SortedPairs } from './import-writers.ts';
+import { importSortPath } from './side-files.ts';
 import type {
   AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
 } from '../match/types.ts';
@@ -62,10 +64,6 @@ const NAME_SEPARATOR = '\u001f';
  * the cache starts afresh and tokens it lacks are looked up in the file.
  */
 const TOKEN_CACHE_LIMIT = 1_000_000;
-/** Index pairs held before a sorted write: 8 MB for each index. */
-const PAIR_BUFFER = 1_000_000;
-/** Names held before a sorted write. */
-const NAME_BUFFER = 200_000;
 const IMPORT_CACHE_KIB = 98_304;
 const QUERY_CACHE_KIB = 65_536;
 /** Bytes of the file read through a memory map (SQLite caps it at its compile-time limit; the rest is read as usual). */
@@ -110,93 +108,6 @@ type FeatureRow = [
   countryCode: string | null, stateProvince: string | null, county: string | null, latitude: number, longitude: number,
   radius: number, radiusDefault: number, geometryType: number, nameDetails: string | null,
 ];
-
-/** Rows a multi-row INSERT writes at once: one statement of many rows costs far less than many statements. */
-const ROWS_PER_INSERT = 100;
-
-/**
- * INSERT OR IGNORE of rows into `table`, ROWS_PER_INSERT rows to a statement; `end` writes what is left.
- * @example const writer = new RowWriter(db, 'postings', 2); writer.add(1, 10); writer.end();
- */
-class RowWriter {
-  private readonly full: Database.Statement;
-  private readonly single: Database.Statement;
-  private readonly values: unknown[];
-  private size = 0;
-
-  constructor(db: Database.Database, table: string, private readonly columns: readonly string[]) {
-    const statement = (rows: number) => db.prepare(`INSERT OR IGNORE INTO ${table} (${columns.join(', ')}) VALUES `
-      + Array.from({ length: rows }, () => `(${columns.map(() => '?').join(', ')})`).join(', '));
-    this.full = statement(ROWS_PER_INSERT);
-    this.single = statement(1);
-    this.values = new Array<unknown>(columns.length * ROWS_PER_INSERT);
-  }
-
-  add(first: unknown, second: unknown): void {
-    this.values[this.size++] = first;
-    this.values[this.size++] = second;
-    if (this.size === this.values.length) {
-      this.full.run(this.values);
-      this.size = 0;
-    }
-  }
-
-  end(): void {
-    for (let at = 0; at < this.size; at += this.columns.length) this.single.run(this.values.slice(at, at + this.columns.length));
-    this.size = 0;
-  }
-}
-
-/**
- * Pairs of 32-bit integers waiting to be written to an index table (deletion keys, postings), sorted
- * before they go in: they arrive in random key order, and a B-tree fills faster in key order.
- * Holds at most PAIR_BUFFER.
- */
-class PairBuffer {
-  private pairs = new BigUint64Array(PAIR_BUFFER);
-  /** The same memory as 32-bit halves, the low half first (Node runs on little-endian machines). */
-  private halves = new Uint32Array(this.pairs.buffer);
-  private size = 0;
-
-  /** The first integer is written as a signed 32-bit value. */
-  constructor(private readonly writer: RowWriter) {}
-
-  add(first: number, second: number): void {
-    this.halves[2 * this.size] = second;
-    this.halves[2 * this.size + 1] = first;
-    if (++this.size === PAIR_BUFFER) this.flush();
-  }
-
-  flush(): void {
-    this.pairs.subarray(0, this.size).sort();
-    for (let i = 0; i < this.size; i++) this.writer.add(this.halves[2 * i + 1] | 0, this.halves[2 * i]);
-    this.writer.end();
-    this.size = 0;
-  }
-}
-
-/** Folded names waiting to be written to the names table in key order (see PairBuffer); at most NAME_BUFFER. */
-class NameBuffer {
-  private keys: string[] = [];
-  private features: number[] = [];
-
-  constructor(private readonly writer: RowWriter) {}
-
-  add(key: string, feature: number): void {
-    this.keys.push(key);
-    this.features.push(feature);
-    if (this.keys.length === NAME_BUFFER) this.flush();
-  }
-
-  flush(): void {
-    const keys = this.keys;
-    const order = Array.from(keys.keys()).sort((a, b) => (keys[a] < keys[b] ? -1 : keys[a] > keys[b] ? 1 : a - b));
-    for (const index of order) this.writer.add(keys[index], this.features[index]);
-    this.writer.end();
-    this.keys = [];
-    this.features = [];
-  }
-}
 
 interface TokenRow {
   id: number;
@@ -334,8 +245,9 @@ class SqliteGazetteer implements GazetteerStore {
   beginImport(sourceId: string): ImportSession {
     const db = this.db;
     const s = this.statements;
-    // synchronous stays NORMAL: in WAL mode it syncs only at checkpoints, so a large transaction costs
-    // no syncs. Sorts for the index writes stay in memory.
+    // In WAL mode a transaction syncs nothing until its commit, and FULL makes the commit wait for the
+    // log to reach the disk: the import is durable when it returns. Sorts stay in memory.
+    db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = MEMORY');
     this.matcher.forgetTokenMatches();
@@ -344,8 +256,8 @@ class SqliteGazetteer implements GazetteerStore {
     if (previous !== undefined) this.deleteSourceRows(previous.id);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    const deletions = new PairBuffer(new RowWriter(db, 'deletions', ['hash', 'token']));
-    const postings = new PairBuffer(new RowWriter(db, 'postings', ['token', 'feature']));
+    const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
+    const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
@@ -372,6 +284,9 @@ class SqliteGazetteer implements GazetteerStore {
     };
     const finish = () => {
       open = false;
+      deletions.discard();
+      postings.discard();
+      db.pragma('synchronous = NORMAL');
       staging = null;
       this.matcher.forgetTokenMatches();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
@@ -418,13 +333,15 @@ class SqliteGazetteer implements GazetteerStore {
       commit: (source) => {
         if (!open) throw new Error('import already finished');
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
-        deletions.flush();
-        postings.flush();
+        deletions.write();
+        postings.write();
         names.flush();
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
         db.exec('COMMIT');
+        // The log copied into the file, as far as no reader holds it back: readers need not search it.
+        db.pragma('wal_checkpoint(PASSIVE)');
         finish();
         return toSource(s.sourceByName.get(sourceId) as SourceRow);
       },
