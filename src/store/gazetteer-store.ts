@@ -264,7 +264,7 @@ class SqliteGazetteer implements GazetteerStore {
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
     // Into an empty token table, a token the cache has not seen is new: no need to look it up.
     let everyTokenCached = s.anyToken.get() === undefined;
-    const tokenId = (token: string, deletionKeys?: readonly number[]): number => {
+    const tokenId = (token: string, deletionKeys?: Iterable<number>): number => {
       const cached = tokenIds.get(token);
       if (cached !== undefined) return cached;
       const existing = everyTokenCached ? undefined : s.tokenByText.get(token) as TokenRow | undefined;

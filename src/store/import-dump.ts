@@ -232,10 +232,10 @@ function unpackRows({ text, terms, counts, numbers, deletionKeys }: PackedRows):
     const tokens = terms.slice(termAt, termAt += counts[base + 5]);
     const indexed: IndexTerms = { keys, tokens };
     if (counts[base + 6] > 0) {
-      const byWord = new Map<string, number[]>();
+      const byWord = new Map<string, Int32Array>();
       for (let word = 0; word < counts[base + 6]; word++) {
         const length = deletionKeys[keyAt + 1];
-        byWord.set(tokens[deletionKeys[keyAt]], Array.from(deletionKeys.subarray(keyAt + 2, keyAt + 2 + length)));
+        byWord.set(tokens[deletionKeys[keyAt]], deletionKeys.subarray(keyAt + 2, keyAt + 2 + length));
         keyAt += 2 + length;
       }
       indexed.deletionKeys = byWord;

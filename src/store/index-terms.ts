@@ -11,7 +11,7 @@ export interface IndexTerms {
   /** Distinct words of the keys, in the order first met. */
   tokens: string[];
   /** The deletion keys (`storedTokenKeys`) of some of the words, when worked out already. */
-  deletionKeys?: ReadonlyMap<string, readonly number[]>;
+  deletionKeys?: ReadonlyMap<string, Iterable<number>>;
 }
 
 /**
