@@ -339,9 +339,8 @@ class SqliteGazetteer implements GazetteerStore {
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
+        // The commit's automatic checkpoint then copies the log into the file, as far as no reader holds it back.
         db.exec('COMMIT');
-        // The log copied into the file, as far as no reader holds it back: readers need not search it.
-        db.pragma('wal_checkpoint(PASSIVE)');
         finish();
         return toSource(s.sourceByName.get(sourceId) as SourceRow);
       },

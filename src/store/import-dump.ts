@@ -65,8 +65,12 @@ export type DumpThreadMessage = { rows: PackedRows } | { done: true } | { error:
 export const READ_BYTES = 16 * 1024;
 /** Bytes a read takes on the reading thread (the importing thread reads other layouts in smaller reads, see import.ts). */
 export const THREAD_READ_BYTES = 64 * 1024;
-/** Batches the reading thread may post before the writing thread has taken them: it reads ahead this far, no further. */
-export const BATCHES_AHEAD = 4;
+/**
+ * Batches the reading thread may post before the writing thread has taken them: it reads ahead this
+ * far, no further (some 25,000 rows, a few MB). Enough that neither thread waits for the other when
+ * the system runs another process in between.
+ */
+export const BATCHES_AHEAD = 32;
 /**
  * Integers a packed row starts with: row number, kind (0 refused, 1 feature), default radius (1) or
  * not, and the numbers of alternate names, keys, words and words with their deletion keys.
