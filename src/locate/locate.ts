@@ -280,7 +280,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach);
+      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation));
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
@@ -321,6 +321,12 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/** The units the text itself writes: its administrative clauses and the fields read from them. */
+function unitsWritten(interpretation: Interpretation): string[] {
+  const fields = Object.values(interpretation.administrative).filter((v): v is string => typeof v === 'string' && v.trim() !== '');
+  return [...interpretation.clauses.filter((c) => c.kind === 'administrative').map((c) => c.text), ...fields];
 }
 
 /** True when the text is one place's name and nothing else: no offset, no second name, no other clause to check it against. */

@@ -18,8 +18,9 @@ export function lookupsOnce(finder: CandidateFinder): CandidateFinder {
   const once: CandidateFinder = {
     findCandidates: (query) => copyCandidates(remembered(found, query, () => finder.findCandidates(query))),
   };
-  const { countryOutlines, lookupCandidates } = finder;
+  const { countryOutlines, lookupCandidates, nearestPlace } = finder;
   if (countryOutlines) once.countryOutlines = (code) => countryOutlines.call(finder, code);
+  if (nearestPlace) once.nearestPlace = (query) => nearestPlace.call(finder, query);
   if (lookupCandidates) {
     once.lookupCandidates = (query) => {
       const lookup = remembered(looked, query, () => lookupCandidates.call(finder, query));

@@ -8,7 +8,8 @@ import { contextMismatch, resolveContext, type ResolvedContext } from './context
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
-import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex } from './types.ts';
+import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex, NearbyPlace, NearestPlaceQuery } from './types.ts';
+import { nearestPlace } from './nearest-place.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
@@ -104,6 +105,11 @@ export class CandidateMatcher {
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
+  }
+
+  /** The loaded place nearest a point that lies in the query's stated units, read as a lookup reads them (see nearest-place.ts). */
+  nearestPlace(query: NearestPlaceQuery): NearbyPlace | null {
+    return nearestPlace(this.index, query, this.resolve({ name: '', context: query.context }, []));
   }
 
   /** Where several sources hold one place, the rank of each source, read only when a place is merged. */

@@ -117,6 +117,36 @@ export interface CandidateFinder {
   countryOutlines?(countryCode: string): Feature[];
   /** The same lookup with the candidates the context dropped and why (optional for other finders). */
   lookupCandidates?(query: CandidateQuery): CandidateLookup;
+  /**
+   * The loaded place nearest a point, within `meters`, that lies in the context's stated units by what
+   * it records (an administrative unit's own feature is not a place of it); null when none (optional
+   * for other finders).
+   */
+  nearestPlace?(query: NearestPlaceQuery): NearbyPlace | null;
+}
+
+/** Where to look for the nearest place of the stated units. */
+export interface NearestPlaceQuery {
+  latitude: number;
+  longitude: number;
+  /** The units the place must record: every level given here must be recorded and be the one given. */
+  context: import('../parse/types.ts').AdministrativeContext;
+  /** How far to look, meters. */
+  meters: number;
+}
+
+/** A place found near a point, with its geodesic distance from it in meters. */
+export interface NearbyPlace {
+  feature: Feature;
+  meters: number;
+}
+
+/** A box of latitudes and longitudes, WGS84 degrees, west ≤ east (one that crosses 180° is asked as two). */
+export interface DegreeBox {
+  south: number;
+  west: number;
+  north: number;
+  east: number;
 }
 
 /** A candidate the context removed, with the reason kept (a name outside the stated county, say). */
@@ -185,4 +215,6 @@ export interface NameIndex {
    * one of whose names, in any language, has the key `key`; empty when the index knows none.
    */
   unitKeys?(level: 1 | 2, key: string): string[];
+  /** Row ids of the features whose center lies in the box (optional: without it no place is found near a point). */
+  featureIdsInBox?(box: DegreeBox): number[];
 }

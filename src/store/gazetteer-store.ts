@@ -13,11 +13,11 @@ import { indexTerms, type IndexTerms } from './index-terms.ts';
 import { NameBuffer, RowWriter, SortedPairs } from './import-writers.ts';
 import { importSortPath } from './side-files.ts';
 import type {
-  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, Posting, Source,
+  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source,
 } from '../match/types.ts';
 
 /** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
-export const SCHEMA_VERSION = 2;
+export const SCHEMA_VERSION = 3;
 
 /**
  * Each older schema version's step to the next, run in order in one transaction when a store of that
@@ -30,6 +30,8 @@ export const MIGRATIONS: Readonly<Record<number, string>> = {
     ALTER TABLE features ADD COLUMN name_details TEXT;
     CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
       PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;`,
+  // Version 3: features by position, for the places near a point (a stated unit's places standing for its extent).
+  2: 'CREATE INDEX features_by_position ON features (latitude, longitude);',
 };
 /** The oldest schema version this whereabouts reads (migrating it when opened). */
 export const OLDEST_READABLE_SCHEMA = 1;
@@ -47,6 +49,7 @@ CREATE TABLE features (
   geometry_type INTEGER NOT NULL, geometry TEXT, name_details TEXT
 );
 CREATE UNIQUE INDEX features_by_source_id ON features (source, feature_id);
+CREATE INDEX features_by_position ON features (latitude, longitude);
 CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
 CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
 CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
@@ -129,6 +132,7 @@ interface SourceRow {
 /** The SQLite gazetteer: CandidateFinder for the core, plus source management. */
 export interface GazetteerStore extends CandidateFinder {
   lookupCandidates(query: CandidateQuery): CandidateLookup;
+  nearestPlace(query: NearestPlaceQuery): NearbyPlace | null;
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
   /** Removes a source and all its features; returns false when there is no such source. */
@@ -203,6 +207,10 @@ class SqliteGazetteer implements GazetteerStore {
 
   lookupCandidates(query: CandidateQuery): CandidateLookup {
     return this.matcher.lookup(query);
+  }
+
+  nearestPlace(query: NearestPlaceQuery): NearbyPlace | null {
+    return this.matcher.nearestPlace(query);
   }
 
   countryOutlines(countryCode: string): Feature[] {
@@ -443,6 +451,7 @@ function sqliteNameIndex(s: Statements): NameIndex {
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
     unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
+    featureIdsInBox: (box) => s.featureIdsInBox.all(box.south, box.north, box.west, box.east) as number[],
   };
 }
 
@@ -478,6 +487,7 @@ function prepareStatements(db: Database.Database) {
       WHERE f.feature_type = 'country' AND f.country_code = ? AND f.geometry_type IN (?, ?) ORDER BY s.name, f.feature_id`).raw(),
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
+    featureIdsInBox: db.prepare('SELECT id FROM features WHERE latitude BETWEEN ? AND ? AND longitude BETWEEN ? AND ?').pluck(),
     namesByIds: db.prepare('SELECT id, name, alternate_names FROM features WHERE id IN (SELECT value FROM json_each(?))').raw(),
     featuresByIds: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE f.id IN (SELECT value FROM json_each(?))`).raw(),

@@ -146,18 +146,19 @@ describe('schema migration', () => {
     const v2 = openGazetteer(old);
     v2.close();
     const raw = new Database(old);
-    // The version-1 schema: without the columns and the table version 2 added.
-    raw.exec('ALTER TABLE sources DROP COLUMN priority; ALTER TABLE features DROP COLUMN name_details; DROP TABLE unit_names; PRAGMA user_version = 1;');
+    // The version-1 schema: without the columns and the table version 2 added, and the index version 3 added.
+    raw.exec('ALTER TABLE sources DROP COLUMN priority; ALTER TABLE features DROP COLUMN name_details; DROP TABLE unit_names; DROP INDEX features_by_position; PRAGMA user_version = 1;');
     raw.close();
     const note = examineStore(old).checks.find((check) => check.check === 'schema version')!;
     expect(note).toMatchObject({ status: 'note' });
-    expect(note.finding).toContain('schema version 1, older than version 2');
+    expect(note.finding).toContain(`schema version 1, older than version ${SCHEMA_VERSION}`);
     const reader = openGazetteer(old, { readonly: true });
     expect(reader.sources()).toEqual([]);
     reader.close();
     const check = new Database(old, { readonly: true });
     expect(check.pragma('user_version', { simple: true })).toBe(SCHEMA_VERSION);
     expect((check.prepare('SELECT name FROM pragma_table_info(?)').pluck().all('sources') as string[])).toContain('priority');
+    expect((check.prepare('SELECT name FROM pragma_index_list(?)').pluck().all('features') as string[])).toContain('features_by_position');
     check.close();
     expect(examineStore(old).checks.find((c) => c.check === 'schema version')!.status).toBe('ok');
   });
