@@ -262,6 +262,11 @@ class SqliteGazetteer implements GazetteerStore {
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
+    // Into a store with no feature left, the features' secondary indexes (not the one that finds a
+    // duplicate id) are built once all rows are in, from one sort: faster than a random insert a row,
+    // with full pages. Inside the transaction, so readers and a failed import see them as they were.
+    const laterIndexes = s.anyFeature.get() === undefined ? s.featureSecondaryIndexes.all() as { name: string; sql: string }[] : [];
+    for (const { name } of laterIndexes) db.exec(`DROP INDEX ${name}`);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
     const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
@@ -344,6 +349,7 @@ class SqliteGazetteer implements GazetteerStore {
         deletions.write();
         postings.write();
         names.flush();
+        for (const { sql } of laterIndexes) db.exec(sql);
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
@@ -495,6 +501,9 @@ function prepareStatements(db: Database.Database) {
     dataVersion: db.prepare('PRAGMA data_version').pluck(),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),
+    anyFeature: db.prepare('SELECT 1 FROM features LIMIT 1'),
+    featureSecondaryIndexes: db.prepare(`SELECT name, sql FROM sqlite_schema
+      WHERE type = 'index' AND tbl_name = 'features' AND sql IS NOT NULL AND sql NOT LIKE 'CREATE UNIQUE%'`),
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
     tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM tokens t
       WHERE t.id IN (SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?)))`).raw(),
