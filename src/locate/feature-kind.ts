@@ -20,8 +20,11 @@ const KIND_WORDS: Readonly<Record<FeatureKind, string>> = {
   locality: 'a locality',
 };
 
-/** What the text's generic word does to a feature: nothing (null), a reason to decline, or a remark on taking it. */
-export type KindVerdict = null | { decline: string } | { remark: string };
+/**
+ * What the text's generic word does to a feature: nothing (null), a reason to decline with what the gazetteer
+ * lacks (`missing`, the clause's place counted as not loaded), or a remark on taking it.
+ */
+export type KindVerdict = null | { decline: string; missing: string } | { remark: string };
 
 /**
  * Whether `feature` can be the place the text names. The text's generic word says the place is a farm,
@@ -31,7 +34,7 @@ export type KindVerdict = null | { decline: string } | { remark: string };
  * ends with a word of the same kind ("Rio de Janeiro", "Serra Grande"): a label naming a whole place
  * the gazetteer holds only as a town most often means the town.
  * @example judgeKind('farm', 'Fazenda São Borja', saoBorjaTown, 'settlement')
- *   // { decline: '"Fazenda São Borja" names a farm or estate; the gazetteer's "São Borja" (town, …) is a settlement …' }
+ *   // { decline: '"Fazenda São Borja" names a farm or estate; the gazetteer's "São Borja" (town, …) is a settlement …', missing: 'as a farm or estate' }
  * @example judgeKind('stream', 'Rio Fundo', rioFundoTown, 'settlement')
  *   // { remark: '"Rio Fundo" may name a river or stream; …taken as the town [CHOICE settlementNamedLikeFeature …]' }
  */
@@ -42,5 +45,8 @@ export function judgeKind(kind: FeatureKind | undefined, written: string, featur
   if (rule === 'settlement' && featureKindOf(feature.name) === kind) {
     return { remark: `"${written}" may name ${KIND_WORDS[kind]}; ${described} is a settlement of that very name and the feature found for it, so it is taken as the settlement: verify [CHOICE settlementNamedLikeFeature, src/georef/method-defaults.ts]` };
   }
-  return { decline: `"${written}" names ${KIND_WORDS[kind]}; ${described} is a settlement that shares the name, not that place, so no georeference is given` };
+  return {
+    decline: `"${written}" names ${KIND_WORDS[kind]}; ${described} is a settlement that shares the name, not that place, so no georeference is given`,
+    missing: `as ${KIND_WORDS[kind]}`,
+  };
 }

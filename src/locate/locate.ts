@@ -18,14 +18,16 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, pastUnitHeads, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
+import { findUnit, pastUnitHeads, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
-import { judgeKind } from './feature-kind.ts';
+import { judgeKind, type KindVerdict } from './feature-kind.ts';
+import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
+import { shortFormKey } from '../match/context.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -142,32 +144,37 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
-  let used = interpretation;
-  let resolved = resolveFeatures(finder, interpretation, context, options, edits);
-  let fallbackFrom: string | undefined;
-  const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved.result : undefined;
-  // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded); failing
-  // that, the town the text's own units name ("Mun. Alisos: Fazenda X" with no farm loaded). Either is
-  // widened as any place named but not loaded is.
-  for (const { reading, what } of missed ? standInReadings(interpretation) : []) {
-    const attempt = resolveFeatures(finder, reading, context, options, edits);
+  const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
+  // The reading's place, under its name or else its second name written in brackets, judged by its kind.
+  const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
+    const first = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
+    const second = !first.ok && first.result.status === 'not-found' ? secondNameReading(reading, context) : undefined;
+    const attempt = second && judgedByKind(resolveFeatures(finder, second, context, options, edits), second, kindRule);
+    if (!attempt?.ok) return { reading, resolution: first };
+    return { reading: second!, resolution: { ...attempt, candidates: [...(first.ok ? [] : first.result.candidates), ...attempt.candidates] } };
+  };
+  let { reading: used, resolution: resolved } = resolveReading(interpretation);
+  let fallbackFrom: { name: string; as?: string } | undefined;
+  const missed = !resolved.ok && resolved.result.status === 'not-found' ? resolved : undefined;
+  // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded, "Finca Las
+  // Palmas, Alisos" with only a town Las Palmas loaded); failing that, the town the text's own units name
+  // ("Mun. Alisos: Fazenda X" with no farm loaded). Either is widened as any place named but not loaded is.
+  for (const { reading: standIn, what } of missed ? standInReadings(interpretation, context) : []) {
+    const { reading, resolution: attempt } = resolveReading(standIn);
     // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
     if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
-    fallbackFrom = interpretation.features.join('", "');
-    const where = missed!.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
-    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom}" ${where}: ${what} is used instead`] };
-    resolved = { ...attempt, candidates: [...missed!.candidates, ...attempt.candidates] };
+    fallbackFrom = { name: interpretation.features.join('", "'), as: missed!.missingAs };
+    const where = missed!.missingAs
+      ? `is not in the loaded gazetteers ${missed!.missingAs}, only as a settlement that shares its name`
+      : missed!.result.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom.name}" ${where}: ${what} is used instead`] };
+    resolved = { ...attempt, candidates: [...missed!.result.candidates, ...attempt.candidates] };
     break;
   }
   if (!resolved.ok) return resolved.result;
   const { candidates, readings, matchRemarks, chosenNotes } = resolved;
   if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
-  const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
-  const verdicts = (readings[0] ?? []).map((feature) => judgeKind(used.featureKind, used.features[0] ?? '', feature, kindRule));
-  const declined = verdicts.find((v) => v && 'decline' in v);
-  if (verdicts.length > 0 && verdicts.every((v) => v && 'decline' in v)) return { status: 'not-found', interpretation: used, candidates, reason: (declined as { decline: string }).decline };
-  for (const verdict of verdicts) if (verdict && 'remark' in verdict && !matchRemarks.includes(verdict.remark)) matchRemarks.push(verdict.remark);
 
   const lone = lonelyName(used) && readings[0]?.length === 1 ? readings[0][0]! : undefined;
   const far = lone && farFromCountySeat(finder, lone, context, FUZZY_ACCEPTANCE.readingScore, options.countyReachMeters ?? METHOD_DEFAULTS.countyReachMeters);
@@ -202,29 +209,47 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
 /**
  * A county or municipality named alone, with no polygon of it loaded: its seat, the one town of the unit's
  * name in the stated state, with the unit level's default extent added to the town's radius
- * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held as written.
+ * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held. The town
+ * is looked for under the unit's name, the name as written, and its short form, the words before the first
+ * "de" (seatNames: "ZACUALTIPAN DE ANGELES", whose seat is Zacualtipán); a name that is ambiguous or found
+ * only by a near spelling ends the search. A town whose own long form shortens to the unit's name is not
+ * taken: measured, it added one answer, and that one false.
  */
 function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
   const meters = options.unitSeatMeters ?? METHOD_DEFAULTS.unitSeatMeters;
   if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
-  const town: Interpretation = { ...interpretation, type: 'named-place', features: [unit.name], otherClauses: [], featureKind: undefined };
-  const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
-  if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
-  const remark = `"${unit.written}" names the ${unit.level === 'county' ? 'county' : 'municipality'} "${unit.name}", whose polygon is not loaded: georeferenced at its seat, the town of that name, with the radius widened by ${(meters / 1000).toFixed(0)} km, a default extent for the unit, never a town's radius alone [CHOICE unitSeatMeters, src/georef/method-defaults.ts]`;
-  const outcome = georeference({ interpretation: town, features: resolved.readings[0], widening: { meters, remark }, options });
-  if (!outcome.ok) return null;
-  return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
+  for (const name of seatNames(unit)) {
+    const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined, secondName: undefined };
+    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+    if (!resolved.ok && resolved.result.status === 'not-found') continue;
+    if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
+    const level = unit.level === 'county' ? 'county' : 'municipality';
+    const short = shortFormKey(unit.name);
+    const named = foldName(name) === short && short !== foldName(unit.name)
+      ? `the town "${resolved.readings[0][0]!.name}", the ${level}'s name without the "de <honoree>" of its official long form`
+      : 'the town of that name';
+    const remark = `"${unit.written}" names the ${level} "${unit.name}", whose polygon is not loaded: georeferenced at its seat, ${named}, with the radius widened by ${(meters / 1000).toFixed(0)} km, a default extent for the unit, never a town's radius alone [CHOICE unitSeatMeters, src/georef/method-defaults.ts]`;
+    const outcome = georeference({ interpretation: town, features: resolved.readings[0], widening: { meters, remark }, options });
+    if (!outcome.ok) return null;
+    return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
+  }
+  return null;
 }
 
-/** The readings that may stand in for a missing place, in order: the other clauses, then the towns of the text's units. */
-function standInReadings(interpretation: Interpretation): { reading: Interpretation; what: string }[] {
+/**
+ * The readings that may stand in for a missing place, in order: a name in brackets that is the record's own
+ * unit, not a second name ("Cerro Azul (Alisos)" in the county Alisos), the other clauses, then the towns of
+ * the text's units.
+ */
+function standInReadings(interpretation: Interpretation, context: AdministrativeContext): { reading: Interpretation; what: string }[] {
+  const unitInBrackets = interpretation.secondName && !secondNameReading(interpretation, context) ? [{ name: interpretation.secondName, what: 'the record\'s unit written in brackets' }] : [];
   return [
     ...interpretation.otherClauses.map((clause) => ({
       reading: readingOf(interpretation, clause),
       what: `the next clause, "${interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ')}",`,
     })),
-    ...standInsNamed(interpretation).map(({ name, what }) => ({
-      reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined },
+    ...[...unitInBrackets, ...standInsNamed(interpretation)].map(({ name, what }) => ({
+      reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined, secondName: undefined },
       what: `${what}, "${name}",`,
     })),
   ];
@@ -241,7 +266,28 @@ function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context:
 
 type Resolution =
   | { ok: true; candidates: Candidate[]; readings: Feature[][]; matchRemarks: string[]; chosenNotes: string[]; guessed: boolean }
-  | { ok: false; result: LocateResult };
+  /** `missingAs`: the place was found only as another kind of place ("as a farm or estate"), so counts as not loaded. */
+  | { ok: false; result: LocateResult; missingAs?: string };
+
+/**
+ * The resolution judged by what the text says its place is (judgeKind, [CHOICE] settlementNamedLikeFeature):
+ * when every feature found for the first name is a settlement the generic word rules out, the clause's place
+ * counts as not loaded as that kind (`missingAs`), so a later clause may stand in for it as for any missing
+ * place; otherwise the remarks on the features taken are added.
+ * @example judgedByKind(resolveFeatures(store, parseLocality('Finca Las Palmas'), …), parseLocality('Finca Las Palmas'), 'settlement')
+ *   // { ok: false, missingAs: 'as a farm or estate', result: { status: 'not-found', reason: '"Finca Las Palmas" names a farm or estate; …' } }
+ */
+function judgedByKind(resolution: Resolution, reading: Interpretation, rule: 'settlement' | 'decline'): Resolution {
+  if (!resolution.ok) return resolution;
+  const verdicts = (resolution.readings[0] ?? []).map((feature) => judgeKind(reading.featureKind, reading.features[0] ?? '', feature, rule));
+  const declines = verdicts.filter((v): v is Extract<KindVerdict, { decline: string }> => !!v && 'decline' in v);
+  if (verdicts.length > 0 && declines.length === verdicts.length) {
+    const result: LocateResult = { status: 'not-found', interpretation: reading, candidates: resolution.candidates, reason: declines[0]!.decline };
+    return { ok: false, result, missingAs: declines[0]!.missing };
+  }
+  const remarks = verdicts.flatMap((v) => (v && 'remark' in v ? [v.remark] : []));
+  return { ...resolution, matchRemarks: [...new Set([...resolution.matchRemarks, ...remarks])] };
+}
 
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
 function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {

@@ -34,9 +34,14 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
     if (reading.type === 'administrative-unit') continue;
     for (const name of reading.features) {
       if (units.has(foldName(name))) continue;
-      const named = finder.findCandidates({ name, context }).filter((c: Candidate) => c.score >= acceptScore);
+      const lookUp = (n: string) => finder.findCandidates({ name: n, context }).filter((c: Candidate) => c.score >= acceptScore);
+      // "Alisos (Alisitos)": the place is found under either name.
+      const second = reading.secondName && reading.features.length === 1 && !units.has(foldName(reading.secondName)) ? reading.secondName : undefined;
+      let named = lookUp(name);
+      let as = name;
+      if (named.length === 0 && second) [named, as] = [lookUp(second), second];
       if (named.length === 0) check.missing.push({ clause: reading.clause, name });
-      else if (PLACE_TYPES.has(reading.type)) check.found.push({ clause: reading.clause, name, features: named.map((c) => c.feature) });
+      else if (PLACE_TYPES.has(reading.type)) check.found.push({ clause: reading.clause, name: as, features: named.map((c) => c.feature) });
     }
   }
   return check;
@@ -44,7 +49,8 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
 
 /**
  * What the places the answer cannot rest on do to it: the missing names of the other clauses, and the
- * name of the chosen clause when a later clause had to be used instead (`fallbackFrom`). By the
+ * name of the chosen clause when a later clause had to be used instead (`fallbackFrom`, with `as` when it was
+ * found only as another kind of place, "as a farm or estate"). By the
  * [CHOICE]s unusedFeatureRule and unusedFeatureMeters: a radius term with its remark, or the reason to
  * decline; nothing when every named place was found. When the place used is an administrative unit's
  * polygon (`withinUnit`), the text places the missing ones in it: a note, and no term.
@@ -53,13 +59,14 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
  */
 export function unusedPlaces(
   check: OtherClauseCheck,
-  fallbackFrom: string | undefined,
+  fallbackFrom: { name: string; as?: string } | undefined,
   choice: { rule: 'widen' | 'decline'; meters: number },
   withinUnit?: Feature,
 ): { widening?: { meters: number; remark: string }; note?: string } | { decline: string } {
-  const names = [...(fallbackFrom ? [fallbackFrom] : []), ...check.missing.map((m) => m.name)];
+  const names = [...(fallbackFrom ? [fallbackFrom] : []), ...check.missing.map((m) => ({ name: m.name, as: undefined }))];
   if (names.length === 0) return {};
-  const quoted = names.map((n) => `"${n}"`).join(', ');
+  // "Finca Las Palmas" with only a town of that name loaded: not loaded as the kind of place the text names.
+  const quoted = names.map((n) => `"${n.name}"${n.as ? ` (${n.as})` : ''}`).join(', ');
   const verb = names.length === 1 ? 'is' : 'are';
   if (withinUnit) {
     // "Cerro Azul, Alisos": the text places it in the unit, whose own polygon already bounds the answer.
@@ -111,6 +118,7 @@ export function readingOf(interpretation: Interpretation, clause: ClauseReading)
     features: clause.features,
     offsets: clause.offsets,
     featureKind: clause.featureKind,
+    secondName: clause.secondName,
     otherClauses: interpretation.otherClauses.filter((c) => c.clause !== clause.clause),
   };
 }

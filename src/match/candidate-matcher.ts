@@ -8,7 +8,7 @@ import { contextMismatch, resolveContext, type ResolvedContext } from './context
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
-import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex, NearbyPlace, NearestPlaceQuery } from './types.ts';
+import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
@@ -41,6 +41,13 @@ const SHORTLIST_PER_TOKEN = 2;
 const COMMON_TOKEN_LIMIT = 5000;
 /** At most this many tokens of another query word are probed for a common token. */
 const MAX_PARTNERS = 6;
+/**
+ * Features of an exact reading loaded at once; an unfiltered lookup reads no further page once it
+ * holds the candidates asked for (a page is one statement).
+ */
+const EXACT_PAGE = 100;
+/** A lone word's neighbours too common for the posting budget whose features named by them alone are read. */
+const WHOLE_NAME_TOKENS = 6;
 /** At most this many dropped candidates are reported. */
 const MAX_DROPPED = 50;
 
@@ -57,6 +64,40 @@ interface TokenMatchRow {
   id: number;
   edits: number;
   df: number;
+  /** The token as stored (folded). */
+  text: string;
+}
+
+/**
+ * The stored tokens matching one query word, by what found them: the word (or its abbreviation's
+ * words) as written, its one-deletion keys, the rest of its keys; each read once, when first needed.
+ */
+interface WordMatches {
+  exact: TokenMatchRow[];
+  oneEdit?: TokenMatchRow[];
+  rest?: TokenMatchRow[];
+}
+
+/**
+ * How far a lookup reads a query word's neighbours: as written when stored (else as 'one edit'),
+ * within one edit (two when none comes within one), or every neighbour.
+ */
+type Reach = 'first' | 'one edit' | 'all';
+
+/**
+ * What one lookup has read, kept while it is repeated with more neighbours (which reads mostly the
+ * same rows again): folded names by feature, postings by token, postings by common token and partners.
+ */
+interface LookupReads {
+  foldedNames: Map<number, string[]>;
+  postings: Map<number, Posting[]>;
+  partnerPostings: Map<string, Posting[]>;
+}
+
+/** The matches a lookup reads for a word, and whether some of its deletion keys were left unread. */
+interface WordView {
+  matches: TokenMatchRow[];
+  keysRead: 'none' | 'one edit' | 'all';
 }
 
 /** The countries a posting must lie in (or have none), or null when the context names none. */
@@ -69,7 +110,7 @@ const countryList = (context: ResolvedContext): string[] | null => (context.coun
  * @example new CandidateMatcher(index).lookup({ name: 'Rosario', context: { countryCode: 'AR' } }).candidates[0].why // 'exact name'
  */
 export class CandidateMatcher {
-  private readonly tokenMatches = new Map<string, TokenMatchRow[]>();
+  private readonly tokenMatches = new Map<string, WordMatches>();
   private tokenMatchVersion = -1;
 
   constructor(private readonly index: NameIndex) {}
@@ -96,10 +137,12 @@ export class CandidateMatcher {
       return true;
     };
     const limit = query.limit ?? DEFAULT_LIMIT;
-    const exact = this.exactCandidates(query.name).filter(fits);
     // Scoring costs grow with the pool: a short list unfiltered needs a smaller pool than a filtered one.
     const filtered = query.featureTypes !== undefined || query.geometryTypes !== undefined
       || Object.values(query.context).some((value) => value !== undefined && value !== '');
+    // Unfiltered, nothing is dropped and one source merges nothing: the first `limit` plain exact
+    // matches are the answer, and a common name ('San') need not load its thousands of features.
+    const exact = this.exactCandidates(query.name, filtered ? undefined : limit).filter(fits);
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
@@ -140,25 +183,41 @@ export class CandidateMatcher {
     return context;
   }
 
-  /** Features whose folded name, alternate name or one of their readings equals a reading of `name`. */
-  private exactCandidates(name: string): Candidate[] {
+  /**
+   * Features whose folded name, alternate name or one of their readings equals a reading of `name`,
+   * plain matches (score 1) first. With `enough`, and one source in the index (so that no place is
+   * merged with a later one), stops once `enough` plain matches are found: reading on could only add
+   * candidates after them (see EXACT_PAGE).
+   */
+  private exactCandidates(name: string, enough?: number): Candidate[] {
     const found = new Map<number, Candidate>();
+    let plain = 0;
+    let oneSource: boolean | undefined;
+    const done = () => enough !== undefined && plain >= enough && (oneSource ??= (this.index.sourceRanks?.().size ?? 2) <= 1);
     for (const variant of nameVariants(name)) {
-      const ids = this.index.featureIdsByName(variant.key).filter((id) => !found.has(id));
-      // One statement for a reading's features: a common name ('San') has hundreds.
-      const features = ids.length === 0 ? new Map<number, Feature>() : this.index.features(ids);
-      for (const id of ids) {
-        const feature = features.get(id);
-        if (feature === undefined) continue;
-        const stored = storedReading(feature, variant.key);
-        const which = stored.written === feature.name ? 'name' : `alternate name '${stored.written}'`;
-        const changes = [variant.change && `${variant.change} in the query`, stored.change && `${stored.change} in the gazetteer`].filter(Boolean);
-        found.set(id, {
-          feature,
-          score: changes.length === 0 ? 1 : READING_SCORE,
-          matchedName: stored.written,
-          why: changes.length === 0 ? `exact ${which}` : `exact ${which} with ${changes.join('; ')}`,
-        });
+      // With `enough`, the first page of ids alone: most often it holds every feature asked for.
+      let ids = this.index.featureIdsByName(variant.key, enough === undefined ? undefined : EXACT_PAGE);
+      // One statement a page of a reading's features: a common name ('San') has thousands.
+      for (let start = 0; start < ids.length; start += EXACT_PAGE) {
+        if (done()) break;
+        const page = ids.slice(start, start + EXACT_PAGE).filter((id) => !found.has(id));
+        const features = page.length === 0 ? new Map<number, Feature>() : this.index.features(page);
+        for (const id of page) {
+          const feature = features.get(id);
+          if (feature === undefined) continue;
+          const stored = storedReading(feature, variant.key);
+          const which = stored.written === feature.name ? 'name' : `alternate name '${stored.written}'`;
+          const changes = [variant.change && `${variant.change} in the query`, stored.change && `${stored.change} in the gazetteer`].filter(Boolean);
+          if (changes.length === 0) plain++;
+          found.set(id, {
+            feature,
+            score: changes.length === 0 ? 1 : READING_SCORE,
+            matchedName: stored.written,
+            why: changes.length === 0 ? `exact ${which}` : `exact ${which} with ${changes.join('; ')}`,
+          });
+        }
+        // The rest of the ids (the same order), when the first page was full and did not hold enough.
+        if (start === 0 && ids.length === EXACT_PAGE && enough !== undefined && !done()) ids = this.index.featureIdsByName(variant.key);
       }
     }
     return [...found.values()].sort((a, b) => b.score - a.score);
@@ -170,9 +229,10 @@ export class CandidateMatcher {
    * found within one edit without its two-edit neighbours (see matchingTokens): most of a lookup's
    * index seeks are saved. Only when no shortlisted name then comes within RETRY_NAME_EDITS of the
    * query (the typing error made another stored word, say) is the lookup repeated with every word's
-   * neighbours (`everyNeighbour`).
+   * neighbours within one edit, and when no name then comes within one edit, with all of them.
    */
-  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, everyNeighbour = false, foldedNames = new Map<number, string[]>()): Candidate[] {
+  private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, reach: Reach = 'first',
+    reads: LookupReads = { foldedNames: new Map(), postings: new Map(), partnerPostings: new Map() }): Candidate[] {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
@@ -180,7 +240,7 @@ export class CandidateMatcher {
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const matched = queryTokens
-      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, everyNeighbour).map((match) => ({ ...match, index })))
+      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize).matches.map((match) => ({ ...match, index })))
       .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
@@ -190,15 +250,25 @@ export class CandidateMatcher {
       budget -= match.df;
     }
     const byToken = new Map<number, { index: number; weight: number }[]>();
-    for (const { id, edits, index } of chosen) {
+    const weigh = ({ id, edits, index }: TokenMatch) => {
       const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
       // About the number of letters the token contributes to the match: long tokens found with few
       // edits say most about which feature is meant.
       const weight = (optional ? 0.5 : 1) * Math.max(0.5, queryTokens[index].length - 1.5 * edits);
       byToken.set(id, [...(byToken.get(id) ?? []), { index, weight }]);
+    };
+    for (const match of chosen) weigh(match);
+    const rows = this.postingsOf([...byToken.keys()], context, reads.postings);
+    // A lone word: the features named by a neighbour too common for the budget ('santiago' for
+    // 'santigao') are read through the names, a few of each, closest and rarest first.
+    if (queryTokens.length === 1 && countryList(context) === null) {
+      const read = new Set(chosen.map((match) => match.id));
+      for (const match of matched.filter((m) => !read.has(m.id)).slice(0, WHOLE_NAME_TOKENS)) {
+        weigh(match);
+        for (const feature of this.index.featureIdsByName(match.text, SHORTLIST_PER_TOKEN)) rows.push({ feature, token: match.id });
+      }
     }
-    const rows = this.index.postings([...byToken.keys()], countryList(context), POSTING_BUDGET);
-    const common = this.commonTokenPostings(matched, chosen, context);
+    const common = this.commonTokenPostings(matched, chosen, context, reads.partnerPostings);
     for (const { id, index } of common.tokens) byToken.set(id, [...(byToken.get(id) ?? []), { index, weight: queryTokens[index].length }]);
     const pool = new Map<number, { weights: number[]; token: number; weight: number }>();
     for (const { feature, token } of [...rows, ...common.rows]) {
@@ -225,13 +295,22 @@ export class CandidateMatcher {
       .sort((a, b) => b.weight - a.weight || a.repeat - b.repeat)
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
-    const closest = this.closestNames(shortlist.map(([id]) => id), folded, foldedNames);
-    const neighboursLeftUnread = !everyNeighbour && matched.some(({ edits, index }) => {
-      const length = queryTokens[index].length;
-      return length >= MIN_FUZZY_TOKEN_LENGTH && (edits === 0 || (edits === 1 && queryTokens.length > 1 && length >= MIN_TWO_EDIT_LENGTH));
-    });
-    if (neighboursLeftUnread && Math.min(...[...closest.values()].map((entry) => entry.edits)) >= RETRY_NAME_EDITS) {
-      return this.fuzzyCandidates(name, context, poolSize, true, foldedNames);
+    const closest = this.closestNames(shortlist.map(([id]) => id), folded, reads.foldedNames);
+    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize).keysRead);
+    const neighboursLeftUnread = keysRead.some((read) => read !== 'all');
+    const fewestEdits = Math.min(...[...closest.values()].map((entry) => entry.edits));
+    // A lone word read within one edit: its two-edit neighbours could only come after the names
+    // within one edit, so they are read only when those do not fill the pool (the answer is the same).
+    const poolWithinOneEdit = queryTokens.length > 1 || keysRead[0] !== 'one edit'
+      || [...closest.values()].filter((entry) => entry.edits <= 1).length >= poolSize;
+    if (neighboursLeftUnread) {
+      // Repeated within one edit of every word first: a name within one edit found then is closer
+      // than any that two-edit neighbours add.
+      const tooFar = fewestEdits >= RETRY_NAME_EDITS;
+      if (reach === 'first' && tooFar && keysRead.includes('none')) return this.fuzzyCandidates(name, context, poolSize, 'one edit', reads);
+      if ((reach === 'first' && (tooFar || !poolWithinOneEdit)) || (reach === 'one edit' && fewestEdits > 1)) {
+        return this.fuzzyCandidates(name, context, poolSize, 'all', reads);
+      }
     }
     const seen = new Map<string, number>();
     const best = shortlist
@@ -256,7 +335,7 @@ export class CandidateMatcher {
    * through the postings of the common token with an index probe for the other; none when every
    * query word's closest match was read already.
    */
-  private commonTokenPostings(matched: TokenMatch[], chosen: TokenMatch[], context: ResolvedContext): {
+  private commonTokenPostings(matched: TokenMatch[], chosen: TokenMatch[], context: ResolvedContext, readBefore: Map<string, Posting[]>): {
     tokens: TokenMatch[]; rows: { feature: number; token: number }[];
   } {
     const read = new Set(chosen.map((match) => match.id));
@@ -270,16 +349,36 @@ export class CandidateMatcher {
       .sort((a, b) => a.df - b.df)
       .slice(0, MAX_PARTNERS);
     if (partners.length === 0) return { tokens: [], rows: [] };
-    const rows = this.index.postingsWithPartner(driver, partners, countryList(context), POSTING_BUDGET);
+    const key = `${driver.id}:${partners.map((partner) => partner.id).join(',')}`;
+    let rows = readBefore.get(key);
+    if (rows === undefined) {
+      rows = this.index.postingsWithPartner(driver, partners, countryList(context), POSTING_BUDGET);
+      readBefore.set(key, rows);
+    }
     return { tokens: [driver], rows };
   }
 
   /**
-   * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
-   * for. Unless `everyNeighbour`: a token stored as written (or its abbreviation's words) alone, and a
-   * word of several found within one edit without its two-edit neighbours.
+   * Every posting of these tokens (their postings together fit the budget), in token order; a
+   * token's postings read earlier in the same lookup (`read`) are not read again.
    */
-  private matchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
+  private postingsOf(tokens: number[], context: ResolvedContext, read: Map<number, Posting[]>): Posting[] {
+    const unread = tokens.filter((token) => !read.has(token));
+    if (unread.length > 0) {
+      for (const token of unread) read.set(token, []);
+      for (const row of this.index.postings(unread, countryList(context), POSTING_BUDGET)) read.get(row.token)!.push(row);
+    }
+    return [...tokens].sort((a, b) => a - b).flatMap((token) => read.get(token)!);
+  }
+
+  /**
+   * Stored tokens within the allowed edits of a query token, plus the words its abbreviation stands
+   * for, as far as `reach` says (a word of 6 letters or more within one edit, without its two-edit
+   * neighbours, unless none is that close, or, for a lone word, those that close hold fewer features
+   * than `poolSize`). Kept between lookups, by what found them: a lookup reaching further reads only
+   * the deletion keys not read yet.
+   */
+  private matchingTokens(token: string, severalTokens: boolean, reach: Reach, poolSize: number): WordView {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.index.version();
@@ -287,41 +386,60 @@ export class CandidateMatcher {
       this.tokenMatches.clear();
       this.tokenMatchVersion = version;
     }
-    const cacheKey = `${severalTokens ? '+' : '-'}${everyNeighbour ? '*' : '='}${token}`;
-    const cached = this.tokenMatches.get(cacheKey);
-    if (cached !== undefined) return cached;
-    const matches = this.readMatchingTokens(token, severalTokens, everyNeighbour);
-    this.tokenMatches.set(cacheKey, matches);
-    return matches;
+    const cacheKey = `${severalTokens ? '+' : '-'}${token}`;
+    let word = this.tokenMatches.get(cacheKey);
+    if (word === undefined) {
+      word = { exact: this.exactTokens(token, severalTokens) };
+      this.tokenMatches.set(cacheKey, word);
+    }
+    if (token.length < MIN_FUZZY_TOKEN_LENGTH) return { matches: word.exact, keysRead: 'all' };
+    if (word.exact.length > 0 && reach === 'first') return { matches: word.exact, keysRead: 'none' };
+    // Keys within one edit are all the keys of a word shorter than MIN_TWO_EDIT_LENGTH.
+    word.oneEdit ??= this.nearTokens(token, oneEditQueryKeys(token), word.exact);
+    const oneEdit = [...word.exact, ...word.oneEdit];
+    if (token.length < MIN_TWO_EDIT_LENGTH) return { matches: oneEdit, keysRead: 'all' };
+    // A common word stored as written is most likely written right: its two-edit neighbours (the most
+    // costly seeks, thousands of words in a world-size index) are not read.
+    const common = word.exact.some((match) => match.df > POSTING_BUDGET);
+    const withinOneEdit = oneEdit.filter((match) => match.edits <= 1);
+    // A lone word's names within one edit hold one of these words: too few to fill the pool, its
+    // two-edit neighbours will be wanted (see fuzzyCandidates), and are read at once.
+    const mayFillPool = severalTokens || withinOneEdit.reduce((sum, match) => sum + match.df, 0) >= poolSize;
+    if ((reach !== 'all' || common) && withinOneEdit.length > 0 && mayFillPool) return { matches: oneEdit, keysRead: 'one edit' };
+    if (word.rest === undefined) {
+      const read = new Set(oneEditQueryKeys(token));
+      word.rest = this.nearTokens(token, queryTokenKeys(token).filter((key) => !read.has(key)), oneEdit);
+    }
+    return { matches: [...oneEdit, ...word.rest], keysRead: 'all' };
   }
 
-  private readMatchingTokens(token: string, severalTokens: boolean, everyNeighbour: boolean): TokenMatchRow[] {
+  /** The stored tokens written as `token` or as the words its abbreviation stands for. */
+  private exactTokens(token: string, severalTokens: boolean): TokenMatchRow[] {
     const found = new Map<number, TokenMatchRow>();
     const exactWords = [token, ...(severalTokens && Object.hasOwn(ABBREVIATIONS, token) ? ABBREVIATIONS[token] : []).flatMap((words) => words.split(' '))];
     for (const word of exactWords) {
       const row = this.index.token(word);
-      if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df });
+      if (row !== undefined) found.set(row.id, { id: row.id, edits: 0, df: row.df, text: word });
     }
-    if (token.length < MIN_FUZZY_TOKEN_LENGTH || (found.size > 0 && !everyNeighbour)) return [...found.values()];
-    const near = (keys: number[]) => {
-      // One statement: each distinct token once (a token shares many keys with a query), as arrays.
-      for (const [id, stored, df] of this.index.tokensByDeletionKeys(keys)) {
-        if (found.has(id)) continue;
-        const edits = editDistance(token, stored, maxTokenEdits(stored));
-        if (edits <= maxTokenEdits(stored)) found.set(id, { id, edits, df });
-      }
-    };
-    // A word of a longer name found within one edit is read without its two-edit neighbours (most of
-    // the seeks): the other words of the name tell its features apart. A lone word keeps them all.
-    const oneEditFirst = !everyNeighbour && severalTokens && token.length >= MIN_TWO_EDIT_LENGTH;
-    if (oneEditFirst) near(oneEditQueryKeys(token));
-    if (!oneEditFirst || ![...found.values()].some((match) => match.edits <= 1)) near(queryTokenKeys(token));
     return [...found.values()];
+  }
+
+  /** The stored tokens within the allowed edits of `token` that these deletion keys find, other than `known`. */
+  private nearTokens(token: string, keys: number[], known: readonly TokenMatchRow[]): TokenMatchRow[] {
+    const seen = new Set(known.map((match) => match.id));
+    const found: TokenMatchRow[] = [];
+    // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+    for (const [id, stored, df] of keys.length === 0 ? [] : this.index.tokensByDeletionKeys(keys)) {
+      if (seen.has(id)) continue;
+      const edits = editDistance(token, stored, maxTokenEdits(stored));
+      if (edits <= maxTokenEdits(stored)) found.push({ id, edits, df, text: stored });
+    }
+    return found;
   }
 
   /**
    * For each feature, its folded name or alternate name closest to a folded query, with the edits.
-   * `foldedNames` keeps the folded names read during one lookup: a repeated lookup (every neighbour)
+   * `foldedNames` keeps the folded names read during one lookup: a repeated lookup (more neighbours)
    * shortlists mostly the same features.
    */
   private closestNames(ids: number[], foldedQuery: string, foldedNames: Map<number, string[]>): Map<number, { edits: number; key: string }> {

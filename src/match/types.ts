@@ -184,8 +184,8 @@ export interface Posting {
 export interface NameIndex {
   /** Changes when another writer changed the indexes (the matcher's cached token matches then go). */
   version(): number;
-  /** Row ids of the features with a name, alternate name or reading folded to `key`. */
-  featureIdsByName(key: string): number[];
+  /** Row ids of the features with a name, alternate name or reading folded to `key`, in row-id order; at most `limit` when given. */
+  featureIdsByName(key: string, limit?: number): number[];
   /** One feature by row id, without its geometry; null when there is none. */
   feature(id: number): Feature | null;
   /** Features by row id (those that exist), without their geometry. */

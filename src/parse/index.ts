@@ -198,6 +198,20 @@ function interpret(text: string): Interpretation {
       }
     }
     const reading = readSegment(index)!;
+    const named = previous?.reading?.features.length === 1 && !previous.reading.bare && !previous.reading.secondName ? previous.reading : undefined;
+    const second = named && segments[index - 1]?.separator === '(' && tokens[to]?.norm === ')' && previous!.clause.text.endsWith(named.features[0]!)
+      ? secondNameIn(text, tokens.slice(L.SECOND_NAME_WORDS.has(tokens[from]!.norm) ? from + 1 : from, to), named.featureKind)
+      : undefined;
+    if (second) {
+      // "Alisos (Alisitos)", "Puerto Viejo (antes Alisitos)": one name alone in brackets right after a place's
+      // name is a second name of that place (an older or other name) [our rule, no source]. A name with a
+      // generic word of its own ("(Rio Fundo)") is another feature, and unit words, "(by air)", "(environs)",
+      // "(town)" keep their readings above and in joinBareClauses.
+      previous!.reading = { ...named!, secondName: second };
+      result.notes.push(`"${second}", in brackets after "${named!.features[0]}", read as a second name of it: tried only when "${named!.features[0]}" is not found`);
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
+      continue;
+    }
     pieces.push({ clause: clauseOf(text, tokens, from, to, reading.type === 'habitat' ? 'habitat' : 'locality'), reading });
   }
   if (coordinatesPiece && !pieces.includes(coordinatesPiece)) pieces.push(coordinatesPiece);
@@ -396,6 +410,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.features = reading.features.map((feature) => seatOf(feature, result));
     result.offsets = reading.offsets;
     if (reading.featureKind) result.featureKind = reading.featureKind;
+    if (reading.secondName) result.secondName = reading.secondName;
     result.notes.push(...reading.notes);
     if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
   }
@@ -449,8 +464,22 @@ const SMALL_ARTICLES = new Set(['the', 'la', 'el', 'a', 'o', 'le']);
 
 /** The public reading of a clause other than the chosen one. */
 function clauseReading(reading: LocalityRead, clause: number): ClauseReading {
-  const { type, features, offsets, featureKind } = reading;
-  return featureKind ? { clause, type: type as LocalityType, features, offsets, featureKind } : { clause, type: type as LocalityType, features, offsets };
+  const { type, features, offsets, featureKind, secondName } = reading;
+  return { clause, type: type as LocalityType, features, offsets, ...(featureKind ? { featureKind } : {}), ...(secondName ? { secondName } : {}) };
+}
+
+/**
+ * The name of a clause written in brackets when it is one name alone, a second name of the place before it
+ * (whose generic word says `kind`); undefined otherwise, or when its own generic word says it is another
+ * kind of place ("Porto Alegre (Rio Fundo)": a river by the town).
+ * @example secondNameIn('Alisitos', tokenize('Alisitos'), undefined) // 'Alisitos'
+ */
+function secondNameIn(text: string, tokens: Token[], kind: FeatureKind | undefined): string | undefined {
+  if (tokens.length === 0) return undefined;
+  const reading = readLocalityClause(text, tokens);
+  const ownKind = reading.featureKind;
+  const sameKind = !ownKind || ownKind === kind || UNIT_LIKE_KINDS.has(ownKind);
+  return reading.type === 'named-place' && !reading.bare && reading.features.length === 1 && sameKind ? reading.features[0] : undefined;
 }
 
 /** Unit clauses other than the chosen one fill their level's field, the first written winning; 'unit' fills none. */

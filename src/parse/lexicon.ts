@@ -27,6 +27,9 @@ export const APPROXIMATION_WORDS = set('ca c circa about approx approximately ap
 /** Approximation words that may also stand before a bare place name ("ca. Ashcombe", "~Vaubrun"). */
 export const APPROXIMATE_BEFORE_PLACE = set('ca c circa approx approximately aprox aproximadamente ~');
 
+/** Words before a second name in brackets that say it is an older or other name: "X (formerly Y)", "X (antes Y)", "X (ex Y)". */
+export const SECOND_NAME_WORDS = set('formerly previously aka alias antes antiguamente anteriormente antigamente anciennement autrefois outrora ex');
+
 /** Prepositions that may stand before a leading distance: "a 5 km de X", "à 5 km au sud de X", "at 5 km". */
 export const LEADING_PREPOSITIONS = set('a at');
 

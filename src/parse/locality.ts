@@ -22,6 +22,8 @@ export interface LocalityRead {
   reason?: string;
   notes: string[];
   featureKind?: FeatureKind;
+  /** A second name of the one feature, written in brackets after it ("Alisos (Alisitos)"). */
+  secondName?: string;
   bare?: 'offset' | 'path' | 'air' | 'near' | 'kind';
 }
 

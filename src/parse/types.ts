@@ -149,6 +149,8 @@ export interface ClauseReading {
   offsets: Offset[];
   /** What the generic word of its (first) feature says it is ("Fazenda Boa Vista" → 'farm'). */
   featureKind?: FeatureKind;
+  /** A second name of its one feature, written in brackets after it (see `Interpretation.secondName`). */
+  secondName?: string;
 }
 
 /** The whole reading of one locality text. */
@@ -174,6 +176,11 @@ export interface Interpretation {
   unit?: NamedUnit;
   /** What the generic word of the chosen feature says it is ("Laguna Negra" → 'water'); absent when no word says. */
   featureKind?: FeatureKind;
+  /**
+   * A second name of the one feature, written alone in brackets after it ("Alisos (Alisitos)": an older or
+   * other name of the same place): the locate step tries it only when the first name is not found.
+   */
+  secondName?: string;
   /** The other locality clauses, each read on its own, most specific first; [] when there are none. */
   otherClauses: ClauseReading[];
   elevation?: { minimumMeters: number; maximumMeters: number; written: string };

@@ -431,7 +431,8 @@ function attachGeometry(s: Statements, feature: Feature): void {
 function sqliteNameIndex(s: Statements): NameIndex {
   return {
     version: () => s.dataVersion.get() as number,
-    featureIdsByName: (key) => (s.featuresByKey.all(key) as { feature: number }[]).map((row) => row.feature),
+    // LIMIT -1 is no limit in SQLite.
+    featureIdsByName: (key, limit) => s.featuresByKey.all(key, limit ?? -1) as number[],
     feature: (id) => {
       const row = s.featureById.get(id) as FeatureRow | undefined;
       return row === undefined ? null : toFeature(row);
@@ -502,7 +503,7 @@ function prepareStatements(db: Database.Database) {
     namesByIds: db.prepare('SELECT id, name, alternate_names FROM features WHERE id IN (SELECT value FROM json_each(?))').raw(),
     featuresByIds: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE f.id IN (SELECT value FROM json_each(?))`).raw(),
-    featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ?'),
+    featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ? ORDER BY feature LIMIT ?').pluck(),
     dataVersion: db.prepare('PRAGMA data_version').pluck(),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),

@@ -15,7 +15,8 @@ import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { FUZZY_ACCEPTANCE, locate } from '../../src/locate/locate.ts';
-import { findUnit, unitNamed } from '../../src/locate/administrative-unit.ts';
+import { findUnit, seatNames, unitNamed } from '../../src/locate/administrative-unit.ts';
+import { foldName } from '../../src/match/fold.ts';
 import { judgeKind } from '../../src/locate/feature-kind.ts';
 import { parseLocality, type Interpretation } from '../../src/parse/index.ts';
 
@@ -35,6 +36,14 @@ afterAll(() => {
 });
 
 const PUERTO_LINDO_RADIUS = 3500; // demo-places.csv, qv-0013
+
+/** The georeference of a demo text that must be answered, with the feature ids it rests on and its widening term. */
+function answered(locality: string, fields: { stateProvince?: string; county?: string }) {
+  const result = locate(store, { locality, countryCode: 'QV', ...fields });
+  expect(result.status, result.reason).toBe('georeferenced');
+  const g = result.georeference!;
+  return { featureIds: g.features.map((f) => f.featureId), widened: g.components.unusedFeature, remarks: g.remarks.join('\n') };
+}
 
 describe('an administrative unit is georeferenced as the unit, never as a town', () => {
   it.each([
@@ -71,6 +80,25 @@ describe('an administrative unit is georeferenced as the unit, never as a town',
     expect(result.components!.unusedFeature).toBe(METHOD_DEFAULTS.unitSeatMeters);
     expect(result.georeference!.uncertaintyMeters).toBeGreaterThanOrEqual(PUERTO_LINDO_RADIUS + METHOD_DEFAULTS.unitSeatMeters);
     expect(result.georeference!.remarks.join('\n')).toMatch(/names the county "Puerto Lindo", whose polygon is not loaded: georeferenced at its seat.*\[CHOICE unitSeatMeters/);
+  });
+
+  it.each([
+    ['Valle Hondo', 'Valle Hondo de Alcántara'],
+    ['Valle Hondo de Alcántara', 'VALLE HONDO DE ALCANTARA'],
+    ['VALLE HONDO', 'Valle Hondo'],
+  ])('takes "%s" for the county "%s" at its seat, the town Valle Hondo: an official long form "X de <honoree>" is matched by its short form X', (locality, county) => {
+    // Invented honoree; qv-0026 Valle Hondo is a town of Poniente, and no county polygon of either form is loaded.
+    const g = answered(locality, { stateProvince: 'Poniente', county });
+    expect(g.featureIds).toEqual(['qv-0026']);
+    expect(g.widened).toBe(METHOD_DEFAULTS.unitSeatMeters);
+    expect(g.remarks).toMatch(/georeferenced at its seat, .*\[CHOICE unitSeatMeters/);
+    if (foldName(county) !== foldName('Valle Hondo')) expect(g.remarks).toContain('the town "Valle Hondo", the county\'s name without the "de <honoree>" of its official long form');
+  });
+
+  it('tries the unit\'s name, the name as written, then its short form, each once', () => {
+    expect(seatNames({ name: 'VALLE HONDO DE ALCANTARA', level: 'county', written: 'Valle Hondo de Alcántara' })).toEqual(['VALLE HONDO DE ALCANTARA', 'valle hondo']);
+    expect(seatNames({ name: 'Valle Hondo de Alcántara', level: 'county', written: 'Valle Hondo' })).toEqual(['Valle Hondo de Alcántara', 'Valle Hondo']);
+    expect(seatNames({ name: 'Alisos', level: 'county', written: 'ALISOS' })).toEqual(['Alisos']);
   });
 
   it('leaves a bare name found only by a near spelling for a person to confirm ([CHOICE] fuzzyLoneName)', () => {
@@ -146,10 +174,50 @@ describe('a later clause names the findable place', () => {
     expect(g.remarks.join('\n')).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers; the text places it in the county "Alisos", whose polygon is the answer's extent/);
   });
 
+  it('falls back to it, widened, when the first names a farm the gazetteer holds only as a town of that name ("Estancia Puerto Lindo, Santa Rosa")', () => {
+    // qv-0013 Puerto Lindo is a city, not the estate; qv-0015 Santa Rosa is a town in Poniente.
+    const g = answered('Estancia Puerto Lindo, Santa Rosa', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0015');
+    expect(g.widened).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.remarks).toMatch(/"Estancia Puerto Lindo" is not in the loaded gazetteers as a farm or estate, only as a settlement that shares its name: the next clause, "Santa Rosa", is used instead/);
+    expect(g.remarks).toMatch(/"Estancia Puerto Lindo" \(as a farm or estate\) is named but not in the loaded gazetteers.*\[CHOICE unusedFeatureMeters/);
+    // Alone, or without a stated state or county, it is declined as before.
+    expect(locate(store, { locality: 'Estancia Puerto Lindo', countryCode: 'QV', stateProvince: 'Poniente' }).reason).toMatch(/names a farm or estate; the gazetteer's "Puerto Lindo" .* shares the name/);
+    expect(locate(store, { locality: 'Estancia Puerto Lindo, Santa Rosa', countryCode: 'QV' }).status).toBe('not-found');
+  });
+
   it('does not fall back without a stated state or county (a name met anywhere is too often another place)', () => {
     const result = locate(store, { locality: 'Villa Quimera, Puerto Lindo', countryCode: 'QV' });
     expect(result.status).toBe('not-found');
     expect(result.reason).toMatch(/Villa Quimera/);
+  });
+});
+
+describe('a second name written in brackets ("X (Y)": an older or other name of the same place)', () => {
+  it('is used when the first name is not found, as the same place: the place\'s own radius, no widening', () => {
+    const g = answered('Puerto Nada (Santa Rosa)', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0015');
+    expect(g.widened).toBeUndefined();
+    expect(g.remarks).toMatch(/"Puerto Nada" is not in the loaded gazetteers: its second name written in brackets, "Santa Rosa", is used/);
+  });
+
+  it('is not tried when the first name is found', () => {
+    const g = answered('Puerto Lindo (Santa Rosa)', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0013');
+    expect(g.remarks).not.toMatch(/is used/);
+  });
+
+  it('is the record\'s unit, not a second name, when it names the record\'s county: a stand-in, as a later clause would be', () => {
+    const g = answered('Villa Quimera (Alisos)', { stateProvince: 'Poniente', county: 'Alisos' });
+    expect(g.featureIds[0]).toBe('qv-0005');
+    expect(g.remarks).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the record's unit written in brackets, "Alisos", is used instead/);
+  });
+
+  it('lets a later clause stand in under its second name, widened for the missing first place', () => {
+    const g = answered('Cerro Azul, Puerto Nada (Santa Rosa)', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0015');
+    expect(g.widened).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.remarks).toMatch(/"Cerro Azul" is named but not in the loaded gazetteers/);
   });
 });
 
@@ -254,7 +322,7 @@ describe('distances the cases above rest on (Vincenty, geodesy 2.4.0)', () => {
 describe('what the text says a place is', () => {
   it('declines a town for a farm that shares its name', () => {
     const town = store.findCandidates({ name: 'Puerto Lindo', context: { countryCode: 'QV' } })[0]!.feature;
-    expect(judgeKind('farm', 'Estancia Puerto Lindo', town, 'settlement')).toEqual({ decline: expect.stringMatching(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/) });
+    expect(judgeKind('farm', 'Estancia Puerto Lindo', town, 'settlement')).toEqual({ decline: expect.stringMatching(/"Estancia Puerto Lindo" names a farm or estate; the gazetteer's "Puerto Lindo" \(city, demo:qv-0013\) is a settlement that shares the name/), missing: 'as a farm or estate' });
     expect(judgeKind('populated-place', 'Puerto Lindo', town, 'settlement')).toBeNull();
     expect(judgeKind(undefined, 'Puerto Lindo', town, 'settlement')).toBeNull();
   });
@@ -271,7 +339,7 @@ describe('what the text says a place is', () => {
     expect(town.featureId).toBe('qv-0061');
     expect(METHOD_DEFAULTS.settlementNamedLikeFeature).toBe('settlement');
     expect(judgeKind('stream', 'rio Fundo', town, 'settlement')).toEqual({ remark: expect.stringMatching(/"rio Fundo" may name a river or stream; the gazetteer's "Rio Fundo" \(town, demo:qv-0061\) is a settlement of that very name .*\[CHOICE settlementNamedLikeFeature/) });
-    expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/) });
+    expect(judgeKind('stream', 'rio Fundo', town, 'decline')).toEqual({ decline: expect.stringMatching(/names a river or stream/), missing: 'as a river or stream' });
   });
 });
 

@@ -5,9 +5,10 @@ export interface CorpusEntry {
   text: string;
   /**
    * Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading, the
-   * line a path offset follows, and what the feature is when the text says so ("summit of X": a mountain).
+   * line a path offset follows, what the feature is when the text says so ("summit of X": a mountain), and a
+   * second name of it written in brackets ("X (Y)", "X (formerly Y)").
    */
-  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string };
+  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; secondName?: string };
 }
 
 const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
@@ -41,6 +42,7 @@ export function summarize(r: Interpretation): Record<string, unknown> {
       approximate: r.approximate || undefined,
       offsets: r.offsets.map(summarizeOffset),
       featureKind: r.featureKind,
+      secondName: r.secondName,
       unit: r.unit,
       otherClauses: r.otherClauses.length > 0 ? r.otherClauses.map((c) => ({ ...c, offsets: c.offsets.map(summarizeOffset) })) : undefined,
       coordinates: r.coordinates && {
@@ -76,5 +78,6 @@ export function intentMismatches(entry: CorpusEntry, r: Interpretation): string[
     problems.push(`line ${r.offsets[0]?.path?.lineName}, expected ${entry.intent.lineName}`);
   }
   if (entry.intent.featureKind !== undefined && r.featureKind !== entry.intent.featureKind) problems.push(`feature kind ${r.featureKind}, expected ${entry.intent.featureKind}`);
+  if (entry.intent.secondName !== undefined && r.secondName !== entry.intent.secondName) problems.push(`second name ${r.secondName}, expected ${entry.intent.secondName}`);
   return problems;
 }
