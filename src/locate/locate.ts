@@ -28,6 +28,7 @@ import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
 import { shortFormKey } from '../match/context.ts';
+import { routeJudgement } from './route.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -146,10 +147,16 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
 
   const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
   // The reading's place, under its name or else its second name written in brackets, judged by its kind.
+  // A named place that may be a route ("Ipala to Amatillo") is one name if the gazetteer holds it, else the
+  // route between its two ends (src/locate/route.ts) [CHOICE routeReading].
   const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
+    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => judgedByKind(resolveFeatures(finder, r, context, options, edits), r, kindRule));
+    if ('decline' in routing && routing.final) return { reading, resolution: { ok: false, result: { status: routing.final, interpretation: reading, candidates: [], reason: routing.decline } } };
+    if ('route' in routing) return { reading: routing.route, resolution: routing.resolved };
     const first = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
     const second = !first.ok && first.result.status === 'not-found' ? secondNameReading(reading, context) : undefined;
     const attempt = second && judgedByKind(resolveFeatures(finder, second, context, options, edits), second, kindRule);
+    if (!attempt?.ok && 'decline' in routing && !first.ok && first.result.status === 'not-found') return { reading, resolution: { ...first, result: { ...first.result, reason: routing.decline } } };
     if (!attempt?.ok) return { reading, resolution: first };
     return { reading: second!, resolution: { ...attempt, candidates: [...(first.ok ? [] : first.result.candidates), ...attempt.candidates] } };
   };
@@ -362,11 +369,25 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       const reason = `no feature named "${name}" as written in the loaded gazetteers; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
       return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
     }
+    if (choice.candidate.score < FUZZY_ACCEPTANCE.readingScore && firstWordsOf(name, choice.candidate.matchedName) && (options.nameAsFirstWords ?? METHOD_DEFAULTS.nameAsFirstWords) === 'review') {
+      const reason = `no feature named "${name}" in the loaded gazetteers; the nearest, ${describeCandidate(choice.candidate)}, only begins with it, and a longer name is most often another place named after it (a town after its region, lake or range), so it is left for a person to confirm [CHOICE nameAsFirstWords, src/georef/method-defaults.ts]`;
+      return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
+    }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/**
+ * True when every word of `name` begins `longer`, which has more words: "Redmere" of "Redmere Springs" (folded).
+ * @example firstWordsOf('Labrador', 'Labrador City') // true
+ */
+function firstWordsOf(name: string, longer: string): boolean {
+  const words = foldName(name).split(' ');
+  const longerWords = foldName(longer).split(' ');
+  return longerWords.length > words.length && words.every((word, k) => longerWords[k] === word);
 }
 
 /** The units the text itself writes: its administrative clauses and the fields read from them. */
