@@ -9,12 +9,14 @@ import { cpus, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { loadRealRecords, measureRecord, openRealGazetteer, ratesBy, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
 
-/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS and BENCH_REAL_JUST_OUTSIDE_METERS override the [CHOICE]s, to measure them. */
+/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS and BENCH_REAL_OLDER_SPELLINGS override the [CHOICE]s, to measure them. */
 const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
 const unusedFeatureRule = process.env.BENCH_REAL_UNUSED_RULE as 'widen' | 'decline' | undefined;
 const settlementNamedLikeFeature = process.env.BENCH_REAL_KIND_RULE as 'settlement' | 'decline' | undefined;
 const namesakesWithinMeters = process.env.BENCH_REAL_NAMESAKES_METERS ? Number(process.env.BENCH_REAL_NAMESAKES_METERS) : undefined;
 const justOutsideMeters = process.env.BENCH_REAL_JUST_OUTSIDE_METERS ? Number(process.env.BENCH_REAL_JUST_OUTSIDE_METERS) : undefined;
+const nameAsFirstWords = process.env.BENCH_REAL_FIRST_WORDS as 'review' | 'answer' | undefined;
+const olderSpellings = process.env.BENCH_REAL_OLDER_SPELLINGS as 'on' | 'off' | undefined;
 
 const row = (label: string, r: Rates) =>
   `${label.padEnd(26)} ${String(r.records).padStart(6)} ${r.answeredPercent.toFixed(1).padStart(9)} ${r.coveredPercentOfAnswered.toFixed(1).padStart(10)} ${r.falsePercent.toFixed(2).padStart(8)} ${(r.medianErrorMeters === null ? '-' : (r.medianErrorMeters / 1000).toFixed(1)).padStart(14)}`;
@@ -44,7 +46,7 @@ for (const [index, set] of REAL_SETS.entries()) {
   const records = loadRealRecords(set);
   const store = await openRealGazetteer(set);
   const started = performance.now();
-  const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters }));
+  const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings }));
   const seconds = (performance.now() - started) / 1000;
   store.close();
   report(`set ${index + 1}, ${set.name}: ${records.length} records, ${(records.length / seconds).toFixed(0)} records/s`, outcomes, false);

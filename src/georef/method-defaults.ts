@@ -89,6 +89,13 @@ export const METHOD_DEFAULTS = {
    */
   settlementNamedLikeFeature: 'settlement',
   /**
+   * A route between two places with a road kilometre post beside it ("Ipala–Amatillo road, km 12") and no road
+   * line loaded [CHOICE]: 12 km from the road's own origin cannot be placed on a straight line honestly, so either
+   * the 'route' is answered with its circle (the whole segment and both ends' extents) and the post named as not
+   * placed, or the record is declined ('decline'). Chosen by measurement on the real-record sets (README "On real records").
+   */
+  routeKilometrePost: 'route',
+  /**
    * A name matching several features of one type in one state or province, all within this distance of
    * one another (a gazetteer holding one town twice, or two hamlets of one name side by side), is
    * answered with one circle covering them all, as the cover option does, with the remark [CHOICE];
@@ -105,4 +112,21 @@ export const METHOD_DEFAULTS = {
    * "On real records").
    */
   fuzzyLoneName: 'review',
+  /**
+   * A name found in the gazetteer only as the first word(s) of a longer name ("Redmere" for the town Redmere
+   * Springs) [CHOICE]: 'review' gives no georeference and marks it ambiguous, to be confirmed by a person;
+   * 'answer' takes the longer name as a near spelling, with a remark. A longer name is most often another place
+   * named after the first (a town after its region, lake or range), far from it. Chosen by measurement on the
+   * real-record sets (README "On real records").
+   */
+  nameAsFirstWords: 'review',
+  /**
+   * A place name found neither as written nor by another documented reading is read as an older
+   * spelling of the record's country or the text's language ("Curityba" for Curitiba, "Jalapa" for
+   * Xalapa: src/match/older-spelling.ts, the rules of the Portuguese and Spanish reforms) [CHOICE]:
+   * 'on' takes such a match as a documented reading, not a near spelling, and the remarks name the
+   * rule; 'off' leaves the name to the near-spelling search. Chosen by measurement on the real-record
+   * sets (README "On real records").
+   */
+  olderSpellings: 'on' as 'on' | 'off',
 } as const satisfies Record<string, number | string>;

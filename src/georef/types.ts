@@ -44,10 +44,16 @@ export interface MethodOptions {
   namesakesJudgedBy?: 'result' | 'reference place';
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
   settlementNamedLikeFeature?: 'settlement' | 'decline';
+  /** A route between two places with a road kilometre post beside it: answered as the whole 'route' (default) or 'decline' ([CHOICE]). */
+  routeKilometrePost?: 'route' | 'decline';
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
   /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
   fuzzyLoneName?: 'review' | 'answer';
+  /** A name found only as the first word(s) of a longer name ("Redmere" for Redmere Springs): 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
+  nameAsFirstWords?: 'review' | 'answer';
+  /** A place name found neither as written nor by another reading is read as an older spelling of its country's or text's language: 'on' (default) or 'off' ([CHOICE]). */
+  olderSpellings?: 'on' | 'off';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */

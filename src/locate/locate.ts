@@ -6,7 +6,7 @@
  * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
 import { parseCoordinates, parseLocality } from '../parse/index.ts';
-import type { AdministrativeContext, Interpretation, LocalityType, NamedUnit } from '../parse/types.ts';
+import type { AdministrativeContext, Interpretation, NamedUnit } from '../parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
 import { coverGeoreferences } from '../georef/cover.ts';
 import { georeference } from '../georef/georeference.ts';
@@ -28,6 +28,7 @@ import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
 import { shortFormKey } from '../match/context.ts';
+import { routeJudgement } from './route.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -146,10 +147,16 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
 
   const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
   // The reading's place, under its name or else its second name written in brackets, judged by its kind.
+  // A named place that may be a route ("Ipala to Amatillo") is one name if the gazetteer holds it, else the
+  // route between its two ends (src/locate/route.ts) [CHOICE routeReading].
   const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
+    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => judgedByKind(resolveFeatures(finder, r, context, options, edits), r, kindRule));
+    if ('decline' in routing && routing.final) return { reading, resolution: { ok: false, result: { status: routing.final, interpretation: reading, candidates: [], reason: routing.decline } } };
+    if ('route' in routing) return { reading: routing.route, resolution: routing.resolved };
     const first = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
     const second = !first.ok && first.result.status === 'not-found' ? secondNameReading(reading, context) : undefined;
     const attempt = second && judgedByKind(resolveFeatures(finder, second, context, options, edits), second, kindRule);
+    if (!attempt?.ok && 'decline' in routing && !first.ok && first.result.status === 'not-found') return { reading, resolution: { ...first, result: { ...first.result, reason: routing.decline } } };
     if (!attempt?.ok) return { reading, resolution: first };
     return { reading: second!, resolution: { ...attempt, candidates: [...(first.ok ? [] : first.result.candidates), ...attempt.candidates] } };
   };
@@ -298,7 +305,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
   // A near spelling, a place just outside the stated units, or one of several taken.
   let guessed = false;
   for (const name of interpretation.features) {
-    const all = finder.findCandidates(featureQuery(name, context, interpretation.type));
+    const all = finder.findCandidates(featureQuery(name, context, interpretation, options));
     candidates.push(...all);
     const { found, remark: ownUnit } = withoutOwnUnit(all, context);
     if (ownUnit) matchRemarks.push(ownUnit);
@@ -314,7 +321,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     if ((options.namesakesJudgedBy ?? METHOD_DEFAULTS.namesakesJudgedBy) === 'result' && choice.kind !== 'weak') {
       const taken = choice.kind === 'one' ? [choice.candidate] : choice.kind === 'several' ? choice.candidates : [];
       const wallUnit = context.county || context.stateProvince || context.municipality ? findBoundingUnit(finder, context, 'stateProvince') : undefined;
-      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation.type), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
+      const byResult = namesakeByResult(finder, featureQuery(name, context, interpretation, options), taken, wallUnit, interpretation, findPathLine(finder, interpretation, context), options, reach);
       if (byResult && 'ambiguous' in byResult) return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason: byResult.ambiguous } };
       if (byResult) {
         if (!taken.includes(byResult.candidate)) candidates.push(byResult.candidate);
@@ -326,7 +333,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation.type), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation));
+      const outside = justOutside(finder, featureQuery(name, context, interpretation, options), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation));
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);
@@ -362,11 +369,25 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
       const reason = `no feature named "${name}" as written in the loaded gazetteers; the only near spelling, ${describeCandidate(choice.candidate)}, is not corroborated by anything else in the text, so it is left for a person to confirm [CHOICE fuzzyLoneName, src/georef/method-defaults.ts]`;
       return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
     }
+    if (choice.candidate.score < FUZZY_ACCEPTANCE.readingScore && firstWordsOf(name, choice.candidate.matchedName) && (options.nameAsFirstWords ?? METHOD_DEFAULTS.nameAsFirstWords) === 'review') {
+      const reason = `no feature named "${name}" in the loaded gazetteers; the nearest, ${describeCandidate(choice.candidate)}, only begins with it, and a longer name is most often another place named after it (a town after its region, lake or range), so it is left for a person to confirm [CHOICE nameAsFirstWords, src/georef/method-defaults.ts]`;
+      return { ok: false, result: { status: 'ambiguous', interpretation, candidates, reason } };
+    }
     readings.push([choice.candidate.feature]);
     if (choice.candidate.score < 1) matchRemarks.push(fuzzyRemark(name, choice.candidate));
     guessed ||= choice.candidate.score < FUZZY_ACCEPTANCE.readingScore;
   }
   return { ok: true, candidates, readings, matchRemarks, chosenNotes, guessed };
+}
+
+/**
+ * True when every word of `name` begins `longer`, which has more words: "Redmere" of "Redmere Springs" (folded).
+ * @example firstWordsOf('Labrador', 'Labrador City') // true
+ */
+function firstWordsOf(name: string, longer: string): boolean {
+  const words = foldName(name).split(' ');
+  const longerWords = foldName(longer).split(' ');
+  return longerWords.length > words.length && words.every((word, k) => longerWords[k] === word);
 }
 
 /** The units the text itself writes: its administrative clauses and the fields read from them. */
@@ -464,10 +485,12 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
   };
 }
 
-function featureQuery(name: string, context: AdministrativeContext, type: LocalityType): CandidateQuery {
-  return type === 'junction'
-    ? { name, context, geometryTypes: LINES, withGeometry: true }
-    : { name, context };
+function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
+  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling.
+  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, language: interpretation.language };
+  return interpretation.type === 'junction'
+    ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
+    : { name, context, ...spelling };
 }
 
 type Choice = { kind: 'none' } | { kind: 'one'; candidate: Candidate } | { kind: 'weak'; candidate: Candidate } | { kind: 'several'; candidates: Candidate[] };

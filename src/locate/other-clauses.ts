@@ -118,6 +118,7 @@ export function readingOf(interpretation: Interpretation, clause: ClauseReading)
     features: clause.features,
     offsets: clause.offsets,
     featureKind: clause.featureKind,
+    route: clause.route,
     secondName: clause.secondName,
     otherClauses: interpretation.otherClauses.filter((c) => c.clause !== clause.clause),
   };

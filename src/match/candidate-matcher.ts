@@ -6,16 +6,17 @@
  */
 import { contextMismatch, resolveContext, type ResolvedContext } from './context.ts';
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
-import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS } from './fold.ts';
+import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS, type NameVariant } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
+import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms } from './older-spelling.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
 
 const DEFAULT_LIMIT = 10;
-/** Score of an exact match reached through an abbreviation or a left-out word, below a plain exact match. */
+/** Score of an exact match reached through a documented reading (an abbreviation, a left-out word, an older spelling), below a plain exact match. */
 const READING_SCORE = 0.97;
 /** At most this many postings are read for one fuzzy lookup (rarest query tokens first). */
 const POSTING_BUDGET = 800;
@@ -146,7 +147,9 @@ export class CandidateMatcher {
     // matches are the answer, and a common name ('San') need not load its thousands of features.
     const exact = this.exactCandidates(query.name, filtered ? undefined : limit).filter(fits);
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
-    const candidates = exact.length > 0 ? exact : this.fuzzyCandidates(query.name, context, pool).filter(fits);
+    const older = exact.length > 0 || query.olderSpellings !== 'on' ? [] : this.olderSpellingCandidates(query, context).filter(fits);
+    const read = exact.length > 0 ? exact : older;
+    const candidates = read.length > 0 ? read : this.fuzzyCandidates(query.name, context, pool).filter(fits);
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
@@ -192,11 +195,27 @@ export class CandidateMatcher {
    * candidates after them (see EXACT_PAGE).
    */
   private exactCandidates(name: string, enough?: number): Candidate[] {
+    return this.candidatesByKeys(nameVariants(name), enough);
+  }
+
+  /**
+   * Features whose name equals a reading of the query's name in the older spelling of its country
+   * or language (older-spelling.ts), each reading of `name` (abbreviations…) read so in turn.
+   */
+  private olderSpellingCandidates(query: CandidateQuery, context: ResolvedContext): Candidate[] {
+    const reforms = spellingReforms(context.countryCodes, query.language);
+    const readings = nameVariants(query.name).flatMap((variant) => olderSpellingReadings(variant.key, reforms)
+      .map((older) => ({ key: older.key, change: variant.change ? `${variant.change}, ${older.change}` : older.change })));
+    return this.candidatesByKeys(readings.slice(0, MAX_OLDER_SPELLINGS));
+  }
+
+  /** Features whose folded name, alternate name or one of their readings equals one of the keys (`enough` as for exactCandidates). */
+  private candidatesByKeys(variants: readonly NameVariant[], enough?: number): Candidate[] {
     const found = new Map<number, Candidate>();
     let plain = 0;
     let oneSource: boolean | undefined;
     const done = () => enough !== undefined && plain >= enough && (oneSource ??= (this.index.sourceRanks?.().size ?? 2) <= 1);
-    for (const variant of nameVariants(name)) {
+    for (const variant of variants) {
       // With `enough`, the first page of ids alone: most often it holds every feature asked for.
       let ids = this.index.featureIdsByName(variant.key, enough === undefined ? undefined : EXACT_PAGE);
       // One statement a page of a reading's features: a common name ('San') has thousands.

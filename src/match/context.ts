@@ -38,7 +38,7 @@ export function countryCodeForName(name: string): string | null {
 const ADMINISTRATIVE_WORDS = new Set([
   'province', 'provincia', 'prov', 'state', 'estado', 'etat', 'county', 'condado', 'co', 'cty', 'comte',
   'department', 'departamento', 'depto', 'dpto', 'departement', 'dept', 'municipio', 'municipality', 'mun',
-  'district', 'distrito', 'region', 'parish', 'parroquia', 'canton', 'partido', 'of', 'de', 'del', 'do', 'da', 'du',
+  'district', 'distrito', 'region', 'parish', 'parroquia', 'paroisse', 'canton', 'partido', 'mrc', 'of', 'de', 'del', 'do', 'da', 'du',
 ]);
 
 /**

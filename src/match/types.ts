@@ -105,6 +105,14 @@ export interface CandidateQuery {
   withGeometry?: boolean;
   /** At most this many candidates, best first (default 10). */
   limit?: number;
+  /**
+   * When the name is found neither as written nor by another reading, also read it as an older
+   * spelling of the record's country or the text's language (src/match/older-spelling.ts): 'on' or
+   * 'off' (default). The METHOD_DEFAULTS choice `olderSpellings` sets it for a locality's places.
+   */
+  olderSpellings?: 'on' | 'off';
+  /** The language of the text the name was read from, when known (which older spellings apply). */
+  language?: import('../parse/types.ts').Language;
 }
 
 /** Finds candidate features for a name: the store implements it; the core only calls it. */

@@ -47,6 +47,21 @@ export function splitSegments(tokens: Token[], from: number, to: number): Segmen
   return segments;
 }
 
+/**
+ * A clause that ends in an elevation marked by its word ("unnamed peak 1900 m in height", "Mont X à 1200 m
+ * d'altitude") split in two: the place, then the elevation, which is a height and never an offset.
+ * @example splitElevationTail(text, tokenize('summit 1200 m high'), { from: 0, to: 4, separator: '' }) // [{ from: 0, to: 1, … }, { from: 1, to: 4, … }]
+ */
+export function splitElevationTail(text: string, tokens: Token[], segment: Segment): Segment[] {
+  if (readElevation(text, tokens, segment.from, segment.to)) return [segment];
+  for (let k = segment.from + 1; k < segment.to - 1; k++) {
+    // "colline de 300 m de haut": the preposition before the number goes with the elevation.
+    const start = k - 1 > segment.from && L.ELEVATION_LEAD_WORDS.has(tokens[k - 1]!.norm) ? k - 1 : k;
+    if (readElevation(text, tokens, k, segment.to, true)) return [{ from: segment.from, to: start, separator: ',' }, { ...segment, from: start }];
+  }
+  return [segment];
+}
+
 /** Words (and numbers) of tokens [from, to) joined by single spaces, punctuation dropped: "s. loc." → "s loc". */
 export function foldedWords(tokens: Token[], from: number, to: number): string {
   const words: string[] = [];
@@ -67,16 +82,20 @@ function elevationValue(t: Token): number {
 }
 
 /**
- * Reads an elevation clause: "800 m", "alt. 1200-1500 m", "1200 msnm", "elev. 2500 ft", "800 m a.s.l.".
- * Feet are converted with the international foot (0.3048 m, 1959 agreement). Returns null for other clauses.
+ * Reads an elevation clause: "800 m", "alt. 1200-1500 m", "1200 msnm", "elev. 2500 ft", "800 m a.s.l.",
+ * "1900 m in height", "à 1200 m d'altitude". Feet are converted with the international foot (0.3048 m,
+ * 1959 agreement). Returns null for other clauses; with `marked`, also for a bare "800 m" (no elevation word).
  */
 export function readElevation(
   text: string,
   tokens: Token[],
   from: number,
   to: number,
+  needsMark = false,
 ): { elevation: { minimumMeters: number; maximumMeters: number; written: string }; notes: string[] } | null {
-  let k = from;
+  // "à 1200 m", "at 1200 m": after a preposition only an elevation word makes the number a height.
+  const led = L.ELEVATION_LEAD_WORDS.has(tokens[from]?.norm ?? '') && tokens[from + 1]?.kind === 'number';
+  let k = led ? from + 1 : from;
   let marked = false;
   while (k < to && (L.ELEVATION_WORDS.has(tokens[k]!.norm) || L.APPROXIMATION_WORDS.has(tokens[k]!.norm) || tokens[k]!.norm === ':' || tokens[k]!.norm === '=')) {
     if (L.ELEVATION_WORDS.has(tokens[k]!.norm)) marked = true;
@@ -100,10 +119,10 @@ export function readElevation(
     const t = tokens[k]!;
     // One-letter pieces count only as dotted abbreviations ("a.s.l.", "s.n.m."): "500 m N" is an offset.
     if (t.norm.length === 1 && !t.dotted) return null;
-    if (!L.SEA_LEVEL_WORDS.has(t.norm) && !L.ELEVATION_WORDS.has(t.norm)) return null;
-    marked = true;
+    if (L.SEA_LEVEL_WORDS.has(t.norm) || L.ELEVATION_WORDS.has(t.norm)) marked = true;
+    else if (!L.ELEVATION_LINK_WORDS.has(t.norm)) return null;
   }
-  const alone = to - from <= 3;
+  const alone = !led && !needsMark && to - from <= 3;
   if (!marked && !alone) return null;
   const factor = unit === 'ft' ? 0.3048 : 1;
   const a = elevationValue(low) * factor;

@@ -4,11 +4,11 @@
  * assumption in words). Pure and total: any text gets an answer, never an exception.
  * @example parseLocality('10 km NE of Vila Serena').type // 'offset-heading'
  */
-import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset } from './types.ts';
+import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset, RouteReading } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
-import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
+import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import * as L from './lexicon.ts';
 
 export { parseCoordinates } from './coordinates.ts';
@@ -98,9 +98,10 @@ function interpret(text: string): Interpretation {
 
   const pieces: Piece[] = [];
   const found = findCoordinates(text, tokens) ?? wholeTextPair(text, tokens);
-  const segments: Segment[] = found
+  const segments: Segment[] = (found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
-    : splitSegments(tokens, 0, tokens.length);
+    : splitSegments(tokens, 0, tokens.length)
+  ).flatMap((segment) => splitElevationTail(text, tokens, segment));
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
@@ -191,7 +192,7 @@ function interpret(text: string): Interpretation {
       const name = readLocalityClause(text, tokens.slice(from + 1, to));
       if (name.type === 'named-place' && name.features.length === 1) {
         result.notes.push(`"${previous.reading!.features[0]}" read as "${name.features[0]}", the name given for it in brackets`);
-        const { featureKind: _kind, ...rest } = previous.reading!;
+        const { featureKind: _kind, route: _route, ...rest } = previous.reading!;
         previous.reading = { ...rest, features: name.features, ...(name.featureKind ? { featureKind: name.featureKind } : {}) };
         pieces.push({ clause: clauseOf(text, tokens, from, to, 'other') });
         continue;
@@ -410,6 +411,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     result.features = reading.features.map((feature) => seatOf(feature, result));
     result.offsets = reading.offsets;
     if (reading.featureKind) result.featureKind = reading.featureKind;
+    if (reading.route && reading.type === 'named-place') result.route = routeWithPost(reading.route, pieces);
     if (reading.secondName) result.secondName = reading.secondName;
     result.notes.push(...reading.notes);
     if (reading.type === 'offset-heading' && !reading.offsets[0]!.byAir) result.notes.push('no path qualifier: by air assumed (docs/method.md §3)');
@@ -420,7 +422,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     if (index === best || !piece.reading || piece.reading.type === 'habitat' || piece.reading.type === 'unparseable') return;
     if (piece.reading.type !== 'named-place') {
       result.notes.push(`also read: "${piece.clause.text}" as ${piece.reading.type} (not used for the point; check it agrees)`);
-      others.push(clauseReading(piece.reading, index));
+      others.push(clauseReading(piece.reading, index, pieces));
       return;
     }
     // "Alisos: Fazenda Boa Vista, …": a name whose generic word says farm, water, mountain, road or park is a
@@ -432,7 +434,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
       piece.clause.kind = 'administrative';
     } else {
       result.notes.push(`also named: "${piece.clause.text}" (not used for the point)`);
-      others.push(clauseReading(piece.reading, index));
+      others.push(clauseReading(piece.reading, index, pieces));
     }
   });
   result.otherClauses = others.sort((a, b) => SPECIFICITY[a.type] - SPECIFICITY[b.type] || a.clause - b.clause);
@@ -440,6 +442,12 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
     if (piece !== chosen && piece.reading?.type === 'unparseable') result.notes.push(`clause "${piece.clause.text}" not read: ${piece.reading.reason}`);
   }
   return result;
+}
+
+/** A route with the road kilometre post another clause writes ("Ipala–Amatillo road, km 12"), if one does. */
+function routeWithPost(route: RouteReading, pieces: Piece[]): RouteReading {
+  const post = pieces.find((p) => p.reading?.kilometrePost)?.reading?.kilometrePost;
+  return post ? { ...route, kilometrePost: post } : route;
 }
 
 /** Kinds of place a link of an administrative chain may be written as: a settlement or a locality. */
@@ -462,10 +470,11 @@ function seatOf(feature: string, result: Pick<Interpretation, 'administrative' |
 }
 const SMALL_ARTICLES = new Set(['the', 'la', 'el', 'a', 'o', 'le']);
 
-/** The public reading of a clause other than the chosen one. */
-function clauseReading(reading: LocalityRead, clause: number): ClauseReading {
-  const { type, features, offsets, featureKind, secondName } = reading;
-  return { clause, type: type as LocalityType, features, offsets, ...(featureKind ? { featureKind } : {}), ...(secondName ? { secondName } : {}) };
+/** The public reading of a clause other than the chosen one, a route with the kilometre post another clause writes. */
+function clauseReading(reading: LocalityRead, clause: number, pieces: Piece[]): ClauseReading {
+  const { type, features, offsets, featureKind, secondName, route } = reading;
+  const routed = route && type === 'named-place' ? { route: routeWithPost(route, pieces) } : {};
+  return { clause, type: type as LocalityType, features, offsets, ...(featureKind ? { featureKind } : {}), ...(secondName ? { secondName } : {}), ...routed };
 }
 
 /**

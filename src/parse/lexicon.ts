@@ -120,8 +120,23 @@ export const BY_AIR_PHRASES = phrases("by air | air | airline | air line | by ai
 /** Words after a road noun that make a standalone road clause: "camino a Y", "road to Y", "estrada para Y". */
 export const ROAD_TOWARD_WORDS = set('to a al para pour vers hacia rumo de');
 
-/** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.". */
-export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao');
+/**
+ * Words joining the two ends of a route: "Ipala to Amatillo", "de X a Y", "de X à Y", "X até Y", "X - Y", "X – Y",
+ * "X / Y". Every one may also stand inside a name ("Puerto a Dentro"), so a split is only offered: the gazetteer
+ * decides (src/locate/route.ts) [CHOICE routeReading].
+ */
+export const ROUTE_JOINERS = set('to a ao ate hasta - – — /');
+/** Words for a stretch of road before its two ends: "trecho X/Y", "tramo X - Y", "tronçon X - Y" (road and trail nouns count too). */
+export const ROUTE_STRETCH_WORDS = set('trecho tramo troncon ramal');
+/** Words between a road noun and the first end: "estrada que liga X a Y", "camino que sigue de X a Y", "route qui relie X à Y". */
+export const ROUTE_LINKS = phrases('que liga | que sigue | que une | que va | que vai | que conecta | qui relie | that joins | that links');
+
+/** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.", "1900 m in height", "1200 m de haut". */
+export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao height high tall hauteur haut');
+/** Words that join a number and its unit to the elevation word after it without saying elevation themselves: "1900 m in height", "à 1200 m d'altitude". */
+export const ELEVATION_LINK_WORDS = set("in of de d'");
+/** Prepositions before an elevation's number ("à 1200 m d'altitude", "a 1200 m de altitud", "colline de 300 m de haut"): the clause then needs an elevation word. */
+export const ELEVATION_LEAD_WORDS = set('a at em de of');
 /** Units of an elevation clause, converted to meters (international foot, 1959). */
 export const ELEVATION_UNITS: ReadonlyMap<string, 'm' | 'ft'> = new Map([
   ...[...set('m mt mts meters metres metros metres msnm masl msm')].map((w) => [w, 'm'] as [string, 'm']),
@@ -134,16 +149,20 @@ export const SEA_LEVEL_WORDS = set('a s l n m asl snm above sea level sobre el n
  * Unit words and the administrative level they name (accents removed, trailing period dropped). Levels follow
  * the usual first/second/third-level use of each word in the four languages' countries; words whose level
  * differs between countries ("District", "Distrito", "Freguesia") name a bare 'unit' and fill no field.
- * A township ("Twp.") is a civil division below the county, read as a municipality.
+ * A township ("Twp.") is a civil division below the county, read as a municipality. A "canton" is a state in one
+ * country, a county in another and a township in Québec, and a "paroisse" a county in Louisiana and a municipality
+ * in Québec: bare 'unit's. A Québec "MRC" (municipalité régionale de comté) is a county; a "comté" there is a
+ * former county, replaced by the MRCs in the 1980s (from memory), whose name is often a region's or a river's and
+ * no unit a gazetteer now holds: a bare 'unit', never a county to filter by or a town to stand in.
  * "Par." (parish), "Est." (estado), "Co.", "Mun.", "Dist." only count dotted and capitalised: "par" is French
  * "by", "est" "east".
  */
 export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvince' | 'county' | 'municipality' | 'unit'> = new Map([
   ...[...set('country pais pays')].map((w) => [w, 'country'] as const),
   ...[...set('state province prov pcia provincia estado est edo dept depto dpto departamento department departement depart region regiao')].map((w) => [w, 'stateProvince'] as const),
-  ...[...set('county co cty parish par partido canton')].map((w) => [w, 'county'] as const),
+  ...[...set('county co cty parish par partido mrc')].map((w) => [w, 'county'] as const),
   ...[...set('municipality municipio municipios mun mpio munic municipalite commune comuna concelho township twp')].map((w) => [w, 'municipality'] as const),
-  ...[...set('district dist distrito distr freguesia parroquia')].map((w) => [w, 'unit'] as const),
+  ...[...set('district dist distrito distr freguesia parroquia canton paroisse comte')].map((w) => [w, 'unit'] as const),
 ]);
 /** Unit words that count only written with a capital and a period ("Par.", "Est."). */
 export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');

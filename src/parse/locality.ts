@@ -3,7 +3,7 @@
  * place-first and terse forms included, and the kind of place a generic word names ("Laguna", "Fazenda").
  * @example featureKindOf('Laguna Negra') // 'water'
  */
-import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, WrittenDistance, WrittenHeading } from './types.ts';
+import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, RouteReading, WrittenDistance, WrittenHeading } from './types.ts';
 import { fold, type Token } from './tokens.ts';
 import { readNumberAt } from './numbers.ts';
 import { directionLetters, readHeadingAt } from './headings.ts';
@@ -25,6 +25,10 @@ export interface LocalityRead {
   /** A second name of the one feature, written in brackets after it ("Alisos (Alisitos)"). */
   secondName?: string;
   bare?: 'offset' | 'path' | 'air' | 'near' | 'kind';
+  /** A named place that may also be a route between two places (see RouteReading). */
+  route?: RouteReading;
+  /** A road kilometre post read as the whole clause ("km 12"), as written. */
+  kilometrePost?: string;
 }
 
 /** The verbatim text and the tokens of one clause; `featureKind` is set when a place-type word was taken off a name. */
@@ -575,7 +579,9 @@ function readClause(s: Source): LocalityRead {
   const placeFirst = readPlaceFirst(s, i, approximate);
   if (placeFirst) return placeFirst;
   const road = readRoadClause(s, i);
-  if (road) return { ...reading('named-place', [road.lineName!], { approximate }), bare: 'path', offsets: [{ path: road }] };
+  // "camino de X a Y", "route de X à Y": a road named by its two ends may be the route between them.
+  const roadRoute = road ? routeOf(s, i, end) : undefined;
+  if (road) return { ...reading('named-place', [road.lineName!], roadRoute ? { approximate, route: roadRoute } : { approximate }), bare: 'path', offsets: [{ path: road }] };
 
   for (let k = Math.max(i + 1, end - 3); k < end; k++) {
     const suffix = matchPhrase(s, k, L.NEAR_SUFFIXES);
@@ -600,7 +606,8 @@ function readClause(s: Source): LocalityRead {
   if (hasDistance(s, i, end)) return unparseable('a distance is written, but its heading or the place it is measured from could not be read', approximate);
   // "km 12 carretera a X": a road's kilometre post, measured from the road's own zero, which no clause gives.
   if (UNIT_WORDS.get(norm(s, i) ?? '') === 'km' && s.tokens[i + 1]?.kind === 'number') {
-    return unparseable(`road kilometre post ("${s.text.slice(s.tokens[i]!.start, s.tokens[i + 1]!.end)}"): its distance runs from the road's own origin, which the text does not give`, approximate);
+    const post = s.text.slice(s.tokens[i]!.start, s.tokens[i + 1]!.end);
+    return { ...unparseable(`road kilometre post ("${post}"): its distance runs from the road's own origin, which the text does not give`, approximate), kilometrePost: post };
   }
   // "ca. Ashcombe": the approximation is recorded and changes nothing (docs/method.md §3).
   let placeStart = i;
@@ -614,5 +621,53 @@ function readClause(s: Source): LocalityRead {
   const first = '"“«'.includes(tokens[placeStart]!.text) && placeStart < end - 1 ? tokens[placeStart + 1]! : tokens[placeStart]!;
   if (first.kind !== 'word') return unparseable(`no place name: the clause starts with "${tokens[placeStart]!.text}"`, approximate);
   const place = placeAt(s, placeStart, end);
-  return place ? reading('named-place', [place], { approximate }) : unparseable('no place name could be read', approximate);
+  if (!place) return unparseable('no place name could be read', approximate);
+  const route = routeOf(s, placeStart, end);
+  return reading('named-place', [place], route ? { approximate, route } : { approximate });
+}
+
+const startsCapitalised = (s: Source, from: number, to: number): boolean => {
+  const first = s.tokens.slice(from, to).find((t) => t.kind !== 'symbol' || '"“«('.includes(t.text));
+  return first?.kind === 'word' && /^\p{Lu}/u.test(first.text);
+};
+
+/**
+ * The ways a named place may be a route between two places: "Ipala to Amatillo", "Tlapa - Malinaltepec",
+ * "estrada Juara a Juina", "camino que sigue de X a Y", "route de X à Y", "trecho X/Y", "X – Y road". A road
+ * word and "from"/"de" before the first end, or a lower-case road word after the last, are not part of either
+ * end. Each end must begin with a capital letter ("Morro da Canastra a base da escarpa" is no route).
+ * Undefined when no split gives two names [CHOICE routeReading].
+ * @example routeOf(source('Ipala to Amatillo'), 0, 3) // { written: 'Ipala to Amatillo', ends: [['Ipala', 'Amatillo']] }
+ */
+function routeOf(s: Source, from: number, end: number): RouteReading | undefined {
+  let start = from;
+  const roadFirst = modeOfNoun(norm(s, start)) === 'road' || modeOfNoun(norm(s, start)) === 'trail' || L.ROUTE_STRETCH_WORDS.has(norm(s, start) ?? '');
+  if (roadFirst) {
+    start++;
+    start += matchPhrase(s, start, L.ROUTE_LINKS);
+  }
+  if ((L.STRONG_FROM_WORDS.has(norm(s, start) ?? '') || L.FROM_WORDS.has(norm(s, start) ?? '')) && startsCapitalised(s, start + 1, end)) start++;
+  let stop = end;
+  const last = s.tokens[end - 1]!;
+  if (stop - start >= 2 && last.text === last.norm && (modeOfNoun(last.norm) === 'road' || modeOfNoun(last.norm) === 'trail')) stop--;
+  const ends: [string, string][] = [];
+  for (let k = start + 1; k < stop - 1; k++) {
+    if (!L.ROUTE_JOINERS.has(s.tokens[k]!.norm) || !startsCapitalised(s, start, k) || !startsCapitalised(s, k + 1, stop)) continue;
+    const kind = s.featureKind;
+    const a = placeAt(s, start, k);
+    const b = placeAt(s, k + 1, stop);
+    s.featureKind = kind;
+    if (a && b) ends.push([a, b]);
+  }
+  // "road Ipala-Amatillo", "estrada Juara-Juina", "Ipala-Amatillo road": a hyphen inside a word joins two ends only
+  // beside a road word and when no joiner between words does; else it is a name's own ("Biritiba-Mirim", "Lissac / Mont-Clairet").
+  for (let k = start; ends.length === 0 && (roadFirst || stop < end) && k < stop; k++) {
+    const t = s.tokens[k]!;
+    const hyphen = t.kind === 'word' ? t.text.indexOf('-') : -1;
+    if (hyphen <= 0 || hyphen === t.text.length - 1) continue;
+    const a = s.text.slice(s.tokens[start]!.start, t.start + hyphen).trim();
+    const b = s.text.slice(t.start + hyphen + 1, s.tokens[stop - 1]!.end).trim();
+    if (/^\p{Lu}/u.test(a) && /^\p{Lu}/u.test(b)) ends.push([a, b]);
+  }
+  return ends.length ? { written: s.text.slice(s.tokens[start]!.start, s.tokens[stop - 1]!.end), ends } : undefined;
 }

@@ -140,6 +140,21 @@ export interface NamedUnit {
 /** What kind of place a generic word says a name is ("Laguna Negra" → 'water'). */
 export type FeatureKind = 'populated-place' | 'water' | 'stream' | 'mountain' | 'farm' | 'road' | 'protected-area' | 'locality';
 
+/**
+ * A named place that may also be a route between two places ("Ipala to Amatillo", "estrada X - Y", "de X a Y"):
+ * "to", "a", "-" can stand inside a name ("Puerto a Dentro"), so the parser offers every split and the gazetteer
+ * decides (src/locate/route.ts): the whole found as one name stays one name; else both ends found make the
+ * route between them [CHOICE routeReading].
+ */
+export interface RouteReading {
+  /** The clause's words for the route, as written ("Ipala to Amatillo"). */
+  written: string;
+  /** Each way to split it into its two ends, in the order written (first joiner first). */
+  ends: [string, string][];
+  /** A road kilometre post written beside the route ("km 12"): a distance along the road from its own origin. */
+  kilometrePost?: string;
+}
+
 /** A locality clause other than the chosen one, read on its own; most specific first. */
 export interface ClauseReading {
   /** Index into `Interpretation.clauses`. */
@@ -149,6 +164,8 @@ export interface ClauseReading {
   offsets: Offset[];
   /** What the generic word of its (first) feature says it is ("Fazenda Boa Vista" → 'farm'). */
   featureKind?: FeatureKind;
+  /** A named place that may also be a route between two places (see RouteReading). */
+  route?: RouteReading;
   /** A second name of its one feature, written in brackets after it (see `Interpretation.secondName`). */
   secondName?: string;
 }
@@ -176,6 +193,8 @@ export interface Interpretation {
   unit?: NamedUnit;
   /** What the generic word of the chosen feature says it is ("Laguna Negra" → 'water'); absent when no word says. */
   featureKind?: FeatureKind;
+  /** The chosen named place may also be a route between two places: its splits, for locate to judge. */
+  route?: RouteReading;
   /**
    * A second name of the one feature, written alone in brackets after it ("Alisos (Alisitos)": an older or
    * other name of the same place): the locate step tries it only when the first name is not found.

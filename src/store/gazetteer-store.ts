@@ -9,7 +9,9 @@ import type { Geometry } from 'geojson';
 import { CandidateMatcher } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
-import { nameVariants } from '../match/fold.ts';
+import { indexTerms, type IndexTerms } from './index-terms.ts';
+import { NameBuffer, RowWriter, SortedPairs } from './import-writers.ts';
+import { importSortPath } from './side-files.ts';
 import type {
   AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source,
 } from '../match/types.ts';
@@ -65,11 +67,12 @@ const NAME_SEPARATOR = '\u001f';
  * the cache starts afresh and tokens it lacks are looked up in the file.
  */
 const TOKEN_CACHE_LIMIT = 1_000_000;
-/** Index pairs held before a sorted write: 8 MB for each index. */
-const PAIR_BUFFER = 1_000_000;
-/** Names held before a sorted write. */
-const NAME_BUFFER = 200_000;
-const IMPORT_CACHE_KIB = 98_304;
+/**
+ * SQLite's page cache during an import: postings and deletion keys are written in key order at the end
+ * (import-writers.ts) and need little of it, so it is no larger than a reader's, which keeps the
+ * import's memory down now that a second thread reads the file.
+ */
+const IMPORT_CACHE_KIB = 65_536;
 const QUERY_CACHE_KIB = 65_536;
 /** Bytes of the file read through a memory map (SQLite caps it at its compile-time limit; the rest is read as usual). */
 const MMAP_BYTES = 2 ** 32;
@@ -89,8 +92,11 @@ export interface SourceRecord {
 
 /** One import in progress: a single transaction, rolled back unless committed. */
 export interface ImportSession {
-  /** Adds a feature; returns null, or the reason it was refused (a duplicate id, say). */
-  add(record: FeatureRecord): string | null;
+  /**
+   * Adds a feature; returns null, or the reason it was refused (a duplicate id, say). `terms`, when the
+   * caller has worked them out already, are `indexTerms(record.name, record.alternateNames)`.
+   */
+  add(record: FeatureRecord, terms?: IndexTerms): string | null;
   /** Keeps an alternate name of a feature still to come, on disk for the length of the import. */
   stageAlternateName(featureId: string, name: AlternateName): void;
   /** The alternate names staged for a feature, in the order staged. */
@@ -110,93 +116,6 @@ type FeatureRow = [
   countryCode: string | null, stateProvince: string | null, county: string | null, latitude: number, longitude: number,
   radius: number, radiusDefault: number, geometryType: number, nameDetails: string | null,
 ];
-
-/** Rows a multi-row INSERT writes at once: one statement of many rows costs far less than many statements. */
-const ROWS_PER_INSERT = 100;
-
-/**
- * INSERT OR IGNORE of rows into `table`, ROWS_PER_INSERT rows to a statement; `end` writes what is left.
- * @example const writer = new RowWriter(db, 'postings', 2); writer.add(1, 10); writer.end();
- */
-class RowWriter {
-  private readonly full: Database.Statement;
-  private readonly single: Database.Statement;
-  private readonly values: unknown[];
-  private size = 0;
-
-  constructor(db: Database.Database, table: string, private readonly columns: readonly string[]) {
-    const statement = (rows: number) => db.prepare(`INSERT OR IGNORE INTO ${table} (${columns.join(', ')}) VALUES `
-      + Array.from({ length: rows }, () => `(${columns.map(() => '?').join(', ')})`).join(', '));
-    this.full = statement(ROWS_PER_INSERT);
-    this.single = statement(1);
-    this.values = new Array<unknown>(columns.length * ROWS_PER_INSERT);
-  }
-
-  add(first: unknown, second: unknown): void {
-    this.values[this.size++] = first;
-    this.values[this.size++] = second;
-    if (this.size === this.values.length) {
-      this.full.run(this.values);
-      this.size = 0;
-    }
-  }
-
-  end(): void {
-    for (let at = 0; at < this.size; at += this.columns.length) this.single.run(this.values.slice(at, at + this.columns.length));
-    this.size = 0;
-  }
-}
-
-/**
- * Pairs of 32-bit integers waiting to be written to an index table (deletion keys, postings), sorted
- * before they go in: they arrive in random key order, and a B-tree fills faster in key order.
- * Holds at most PAIR_BUFFER.
- */
-class PairBuffer {
-  private pairs = new BigUint64Array(PAIR_BUFFER);
-  /** The same memory as 32-bit halves, the low half first (Node runs on little-endian machines). */
-  private halves = new Uint32Array(this.pairs.buffer);
-  private size = 0;
-
-  /** The first integer is written as a signed 32-bit value. */
-  constructor(private readonly writer: RowWriter) {}
-
-  add(first: number, second: number): void {
-    this.halves[2 * this.size] = second;
-    this.halves[2 * this.size + 1] = first;
-    if (++this.size === PAIR_BUFFER) this.flush();
-  }
-
-  flush(): void {
-    this.pairs.subarray(0, this.size).sort();
-    for (let i = 0; i < this.size; i++) this.writer.add(this.halves[2 * i + 1] | 0, this.halves[2 * i]);
-    this.writer.end();
-    this.size = 0;
-  }
-}
-
-/** Folded names waiting to be written to the names table in key order (see PairBuffer); at most NAME_BUFFER. */
-class NameBuffer {
-  private keys: string[] = [];
-  private features: number[] = [];
-
-  constructor(private readonly writer: RowWriter) {}
-
-  add(key: string, feature: number): void {
-    this.keys.push(key);
-    this.features.push(feature);
-    if (this.keys.length === NAME_BUFFER) this.flush();
-  }
-
-  flush(): void {
-    const keys = this.keys;
-    const order = Array.from(keys.keys()).sort((a, b) => (keys[a] < keys[b] ? -1 : keys[a] > keys[b] ? 1 : a - b));
-    for (const index of order) this.writer.add(keys[index], this.features[index]);
-    this.writer.end();
-    this.keys = [];
-    this.features = [];
-  }
-}
 
 interface TokenRow {
   id: number;
@@ -339,25 +258,31 @@ class SqliteGazetteer implements GazetteerStore {
   beginImport(sourceId: string): ImportSession {
     const db = this.db;
     const s = this.statements;
-    // synchronous stays NORMAL: in WAL mode it syncs only at checkpoints, so a large transaction costs
-    // no syncs. Sorts for the index writes stay in memory.
+    // In WAL mode a transaction syncs nothing until its commit, and FULL makes the commit wait for the
+    // log to reach the disk: the import is durable when it returns. Sorts stay in memory.
+    db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = MEMORY');
     this.matcher.forgetTokenMatches();
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
+    // Into a store with no feature left, the features' secondary indexes (not the one that finds a
+    // duplicate id) are built once all rows are in, from one sort: faster than a random insert a row,
+    // with full pages. Inside the transaction, so readers and a failed import see them as they were.
+    const laterIndexes = s.anyFeature.get() === undefined ? s.featureSecondaryIndexes.all() as { name: string; sql: string }[] : [];
+    for (const { name } of laterIndexes) db.exec(`DROP INDEX ${name}`);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    const deletions = new PairBuffer(new RowWriter(db, 'deletions', ['hash', 'token']));
-    const postings = new PairBuffer(new RowWriter(db, 'postings', ['token', 'feature']));
+    const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
+    const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
     let count = 0;
     let open = true;
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
     // Into an empty token table, a token the cache has not seen is new: no need to look it up.
     let everyTokenCached = s.anyToken.get() === undefined;
-    const tokenId = (token: string): number => {
+    const tokenId = (token: string, deletionKeys?: Iterable<number>): number => {
       const cached = tokenIds.get(token);
       if (cached !== undefined) return cached;
       const existing = everyTokenCached ? undefined : s.tokenByText.get(token) as TokenRow | undefined;
@@ -366,7 +291,7 @@ class SqliteGazetteer implements GazetteerStore {
         id = existing.id;
       } else {
         id = Number(s.insertToken.run(token).lastInsertRowid);
-        for (const hash of storedTokenKeys(token)) deletions.add(hash, id);
+        for (const hash of deletionKeys ?? storedTokenKeys(token)) deletions.add(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
         tokenIds.clear();
@@ -377,12 +302,15 @@ class SqliteGazetteer implements GazetteerStore {
     };
     const finish = () => {
       open = false;
+      deletions.discard();
+      postings.discard();
+      db.pragma('synchronous = NORMAL');
       staging = null;
       this.matcher.forgetTokenMatches();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
     return {
-      add: (record) => {
+      add: (record, terms) => {
         let rowId: number;
         try {
           rowId = Number(s.insertFeature.run(
@@ -397,15 +325,9 @@ class SqliteGazetteer implements GazetteerStore {
           if (error instanceof Database.SqliteError && error.code === 'SQLITE_CONSTRAINT_UNIQUE') return `duplicate id '${record.featureId}'`;
           throw error;
         }
-        const keys = new Set<string>();
-        for (const written of [record.name, ...record.alternateNames]) for (const variant of nameVariants(written)) keys.add(variant.key);
-        const tokens = new Set<string>();
-        for (const key of keys) {
-          if (key === '') continue;
-          names.add(key, rowId);
-          for (const token of key.split(' ')) tokens.add(token);
-        }
-        for (const token of tokens) postings.add(tokenId(token), rowId);
+        const { keys, tokens, deletionKeys } = terms ?? indexTerms(record.name, record.alternateNames);
+        for (const key of keys) names.add(key, rowId);
+        for (const token of tokens) postings.add(tokenId(token, deletionKeys?.get(token)), rowId);
         count++;
         return null;
       },
@@ -429,12 +351,14 @@ class SqliteGazetteer implements GazetteerStore {
       commit: (source) => {
         if (!open) throw new Error('import already finished');
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
-        deletions.flush();
-        postings.flush();
+        deletions.write();
+        postings.write();
         names.flush();
+        for (const { sql } of laterIndexes) db.exec(sql);
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
+        // The commit's automatic checkpoint then copies the log into the file, as far as no reader holds it back.
         db.exec('COMMIT');
         finish();
         return toSource(s.sourceByName.get(sourceId) as SourceRow);
@@ -583,6 +507,9 @@ function prepareStatements(db: Database.Database) {
     dataVersion: db.prepare('PRAGMA data_version').pluck(),
     tokenByText: db.prepare('SELECT id, token, df FROM tokens WHERE token = ?'),
     anyToken: db.prepare('SELECT 1 FROM tokens LIMIT 1'),
+    anyFeature: db.prepare('SELECT 1 FROM features LIMIT 1'),
+    featureSecondaryIndexes: db.prepare(`SELECT name, sql FROM sqlite_schema
+      WHERE type = 'index' AND tbl_name = 'features' AND sql IS NOT NULL AND sql NOT LIKE 'CREATE UNIQUE%'`),
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
     tokensByDeletion: db.prepare(`SELECT t.id, t.token, t.df FROM tokens t
       WHERE t.id IN (SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?)))`).raw(),

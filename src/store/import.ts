@@ -11,13 +11,13 @@ import { createInterface } from 'node:readline';
 import type { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
-import iconv from 'iconv-lite';
 import type { AlternateName } from '../match/types.ts';
-import { readAdminCodeLine, readAlternateNameLine, readDumpLine } from './dump-layout.ts';
+import { readAdminCodeLine, readAlternateNameLine } from './dump-layout.ts';
 import { fileHead, notText } from './file-kind.ts';
 import { isZipFile, openFileInput } from './file-input.ts';
 import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
-import { checkFeature, type RawFeature } from './feature-record.ts';
+import type { RawFeature } from './feature-record.ts';
+import { checkRow, checkedDumpRows, openDumpText, readDump, READ_BYTES, type CheckedRow, type ReadRow } from './import-dump.ts';
 import { gisContentHash, readGisFile, type GisFieldMap } from './gis-import.ts';
 import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
@@ -65,14 +65,7 @@ export interface ImportSummary {
   notes?: string[];
 }
 
-/** One row as a reader yields it (in arrays of rows): a feature to check, or why it could not be read. */
-interface ReadRow {
-  row: number;
-  raw: RawFeature | string;
-}
-
 const PROGRESS_EVERY = 5000;
-const READ_BYTES = 16 * 1024;
 
 /**
  * Imports a file as one source (replacing a source of the same id); a failure leaves the store as it was.
@@ -108,21 +101,18 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   try {
     if (options.alternateNamesFile !== undefined) alternateNames = await stageAlternateNames(session, options.alternateNamesFile);
     const adminNames = await readAdminCodes(session, adminCodeFiles);
-    // Small reads: the dump reader turns a whole read into rows at once, and rows that outlive a
-    // young-generation collection cost heap until the next full one.
-    if (!gis) {
-      input = zipped
-        ? (await openFileInput(filePath, READ_BYTES)).stream.pipe(iconv.decodeStream('utf-8')) as unknown as Readable
-        : decodedText(filePath, format, READ_BYTES);
-    }
-    const rows = input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
-      : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames);
+    // The dump is read and checked on a thread of its own while this one writes; its rows wait for
+    // staged alternate names, which only this thread's transaction can read, when there are some.
+    const onThread = options.format === 'geonames' && alternateNames === undefined;
+    if (!gis && !onThread) input = options.format === 'geonames' ? await openDumpText(filePath, zipped, format) : decodedText(filePath, format, READ_BYTES);
+    const rows = onThread ? checkedDumpRows({ filePath, zipped, format, adminNames, radii: options.radii })
+      : checkedRows(input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
+        : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames),
+      (raw) => (alternateNames !== undefined && raw.id !== undefined ? withStagedNames(raw, session.stagedAlternateNames(raw.id)) : raw), options.radii);
     for await (const batch of rows) {
-      for (const { row, raw } of batch) {
+      for (const { row, checked, terms } of batch) {
         rowsRead++;
-        if (alternateNames !== undefined && typeof raw !== 'string' && raw.id !== undefined) withStagedNames(raw, session.stagedAlternateNames(raw.id));
-        const checked = typeof raw === 'string' ? raw : checkFeature(raw, `row-${row}`, options.radii);
-        const reason = typeof checked === 'string' ? checked : session.add(checked);
+        const reason = typeof checked === 'string' ? checked : session.add(checked, terms);
         if (reason === null) imported++;
         else rejected.push({ row, reason });
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
@@ -145,12 +135,19 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
 }
 
 /** Adds the names staged for a feature to its own, with their details (language, former…). */
-function withStagedNames(raw: RawFeature, staged: AlternateName[]): void {
-  if (staged.length === 0) return;
+function withStagedNames(raw: RawFeature, staged: AlternateName[]): RawFeature {
+  if (staged.length === 0) return raw;
   const names = new Set(raw.alternateNames ?? []);
   for (const alternate of staged) names.add(alternate.name);
   raw.alternateNames = [...names];
   raw.nameDetails = staged;
+  return raw;
+}
+
+/** A reader's rows checked on this thread, each completed first by `complete` (staged alternate names). */
+async function* checkedRows(rows: AsyncIterable<ReadRow[]> | Iterable<ReadRow[]>, complete: (raw: RawFeature) => RawFeature,
+  radii?: Readonly<Record<string, number>>): AsyncGenerator<CheckedRow[]> {
+  for await (const batch of rows) yield batch.map(({ row, raw }) => checkRow({ row, raw: typeof raw === 'string' ? raw : complete(raw) }, radii));
 }
 
 /** Stages every name of the alternate-names file for the features to come; returns what was read. */
@@ -275,30 +272,6 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
       raw: { ...fields, alternateNames: fields.alternateNames === undefined ? [] : fields.alternateNames.split('|') },
     }];
   }
-}
-
-/**
- * The dump's lines (ending in LF or CRLF), a chunk of the file at a time: one await a chunk rather
- * than one a line, which matters at millions of rows.
- */
-async function* readDump(input: Readable, adminNames: ReadonlyMap<string, string>): AsyncGenerator<ReadRow[]> {
-  let row = 0;
-  let rest = '';
-  const read = (lines: string[]): ReadRow[] => {
-    const rows: ReadRow[] = [];
-    for (const line of lines) {
-      row++;
-      const text = line.endsWith('\r') ? line.slice(0, -1) : line;
-      if (text !== '') rows.push({ row, raw: readDumpLine(text, adminNames) });
-    }
-    return rows;
-  };
-  for await (const chunk of input as AsyncIterable<string>) {
-    const lines = (rest + chunk).split('\n');
-    rest = lines.pop() ?? '';
-    yield read(lines);
-  }
-  if (rest !== '') yield read([rest]);
 }
 
 /**

@@ -34,3 +34,13 @@ export function reviewsDatabasePath(gazetteerPath: string): string {
 export function batchFolderPath(gazetteerPath: string): string {
   return besideGazetteer(gazetteerPath, '.batches');
 }
+
+/**
+ * A temporary file an import sorts one index's pairs in (src/store/import-writers.ts), beside the
+ * gazetteer, where there is room for what the gazetteer will hold. It is removed from the folder as soon
+ * as it is opened, so no import, even one killed, leaves it behind.
+ * @example importSortPath('/data/whereabouts.sqlite', 'postings') // '/data/whereabouts.postings.import-sort'
+ */
+export function importSortPath(gazetteerPath: string, index: string): string {
+  return besideGazetteer(gazetteerPath, `.${index}.import-sort`);
+}

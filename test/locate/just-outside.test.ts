@@ -6,13 +6,13 @@
  * Best Practices, §Georeferencing Workflow – Localities, step 5), with the [CHOICE] justOutsideMeters
  * cited. Expected distances by Vincenty on WGS84 (geodesy 2.4.0), independent of the code under test.
  */
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { importGazetteer } from '../../src/store/import.ts';
-import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { openCsvStore } from '../support/csv-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 
 // Invented towns of the island state Poniente (two of them with their county) and its neighbours; no unit polygons.
@@ -36,14 +36,8 @@ const directory = mkdtempSync(join(tmpdir(), 'whereabouts-just-outside-'));
 let store: GazetteerStore;
 
 beforeAll(async () => {
-  const csv = join(directory, 'towns.csv');
-  writeFileSync(csv, ['id,name,latitude,longitude,featureType,countryCode,stateProvince,county',
-    ...ROWS.map(([id, name, lat, lon, state, county]) => `${id},${name},${lat},${lon},town,QV,${state ?? ''},${county ?? ''}`)].join('\n'));
-  const db = join(directory, 'towns.sqlite');
-  const writer = openGazetteer(db);
-  await importGazetteer(writer, csv, { format: 'csv', citation: 'invented towns', sourceId: 'towns' });
-  writer.close();
-  store = openGazetteer(db, { readonly: true });
+  store = await openCsvStore(directory, ['id,name,latitude,longitude,featureType,countryCode,stateProvince,county',
+    ...ROWS.map(([id, name, lat, lon, state, county]) => `${id},${name},${lat},${lon},town,QV,${state ?? ''},${county ?? ''}`)], 'towns');
 });
 afterAll(() => {
   store.close();

@@ -5,10 +5,11 @@ export interface CorpusEntry {
   text: string;
   /**
    * Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading, the
-   * line a path offset follows, what the feature is when the text says so ("summit of X": a mountain), and a
-   * second name of it written in brackets ("X (Y)", "X (formerly Y)").
+   * line a path offset follows, what the feature is when the text says so ("summit of X": a mountain), a
+   * second name of it written in brackets ("X (Y)", "X (formerly Y)"), and the two ends of each way a name may
+   * be read as a route ("X to Y"; [] when it offers none).
    */
-  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; secondName?: string };
+  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; secondName?: string; routeEnds?: string[][] };
 }
 
 const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
@@ -42,6 +43,7 @@ export function summarize(r: Interpretation): Record<string, unknown> {
       approximate: r.approximate || undefined,
       offsets: r.offsets.map(summarizeOffset),
       featureKind: r.featureKind,
+      route: r.route,
       secondName: r.secondName,
       unit: r.unit,
       otherClauses: r.otherClauses.length > 0 ? r.otherClauses.map((c) => ({ ...c, offsets: c.offsets.map(summarizeOffset) })) : undefined,
@@ -76,6 +78,9 @@ export function intentMismatches(entry: CorpusEntry, r: Interpretation): string[
   }
   if (entry.intent.lineName !== undefined && r.offsets[0]?.path?.lineName !== entry.intent.lineName) {
     problems.push(`line ${r.offsets[0]?.path?.lineName}, expected ${entry.intent.lineName}`);
+  }
+  if (entry.intent.routeEnds !== undefined && JSON.stringify(r.route?.ends ?? []) !== JSON.stringify(entry.intent.routeEnds)) {
+    problems.push(`route ends ${JSON.stringify(r.route?.ends ?? [])}, expected ${JSON.stringify(entry.intent.routeEnds)}`);
   }
   if (entry.intent.featureKind !== undefined && r.featureKind !== entry.intent.featureKind) problems.push(`feature kind ${r.featureKind}, expected ${entry.intent.featureKind}`);
   if (entry.intent.secondName !== undefined && r.secondName !== entry.intent.secondName) problems.push(`second name ${r.secondName}, expected ${entry.intent.secondName}`);

@@ -7,6 +7,8 @@ declare module 'geodesy/latlon-ellipsoidal-vincenty.js' {
     destinationPoint(distance: number, initialBearing: number): LatLon;
     distanceTo(point: LatLon): number;
     initialBearingTo(point: LatLon): number;
+    /** The point at `fraction` of the geodesic to `point` (Vincenty). */
+    intermediatePointTo(point: LatLon, fraction: number): LatLon;
     /** Vincenty's inverse solution, unrounded (distanceTo rounds to 1 mm). */
     inverse(point: LatLon): { distance: number; initialBearing: number; finalBearing: number };
   }
