@@ -283,14 +283,22 @@ function findDatum(text: string, tokens: Token[]): string | undefined {
 
 const DEGREE_SIGNS = new Set(['°', 'º', '˚', 'degrees', 'grados', 'graus', 'degres']);
 
+/** A hemisphere after degrees: a word ("sur", "ouest"), or a capital letter ("N", "O"), not the small "e" or "o" of running text. */
+const hemisphereAfterDegrees = (t: Token | undefined): boolean => hemisphereOf(t) !== undefined && (t!.norm.length > 1 || t!.text[0] !== t!.text[0]!.toLowerCase());
+
 /**
- * Whether tokens write coordinates, read or not: a number with a degree sign or word ("54°", "54 grados"),
- * or a latitude or longitude word before a number ("Lat. 54", "longitud 66"), in four languages. Such a
- * clause is never a place's name.
+ * Whether tokens write coordinates, read or not: a number with a degree sign or word followed by a number, a
+ * prime or a hemisphere ("54° 15", "54°'", "54 grados S"; not the ordinal "1º de Maio" nor "25°C"), or a
+ * latitude or longitude word before a number ("Lat. 54", "longitud 66"), in four languages. Such a clause is
+ * never a place's name.
  * @example writesCoordinates(tokenize('Lat. 54° 15 N')) // true
  */
 export function writesCoordinates(tokens: Token[]): boolean {
-  return tokens.some((t, k) => (t.kind === 'number' && normIn(tokens[k + 1], DEGREE_SIGNS))
+  const degreesWritten = (k: number): boolean => {
+    const after = tokens[k + 2];
+    return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
+  };
+  return tokens.some((t, k) => (t.kind === 'number' && degreesWritten(k))
     || ((normIn(t, LATITUDE_LABELS) || normIn(t, LONGITUDE_LABELS)) && tokens.slice(k + 1).some((n) => n.kind === 'number')));
 }
 
