@@ -49,4 +49,14 @@ describe('coordinates written beside a named place', () => {
     expect(result.georeference).toBeUndefined();
     expect(result.reason).toContain('coordinates written but not readable');
   });
+
+  it('beside a place the gazetteer lacks: the coordinates are not widened for it', () => {
+    // A missing lake would widen a town's answer by unusedFeatureMeters (120 km); written coordinates already
+    // say where the specimen was taken, so the radius is the coordinates' own (one minute of arc: a few km).
+    const result = locate(store, { locality: 'Laguna Escondida. Lat. 20° 01\' S. Long. 50° 02\' W.', countryCode: 'QV' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.components.unusedFeature).toBeUndefined();
+    expect(result.georeference!.uncertaintyMeters).toBeLessThan(5000);
+    expect(result.interpretation.notes.join('\n')).toContain('the written coordinates');
+  });
 });
