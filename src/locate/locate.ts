@@ -192,7 +192,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const unused = unusedPlaces(others, fallbackFrom, {
     rule: options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule,
     meters: options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters,
-  }, withinUnit);
+  }, withinUnit, used.type === 'coordinates' ? used.coordinates?.written : undefined);
   if ('decline' in unused) return { status: 'not-found', interpretation: used, candidates, reason: unused.decline };
   const widening = unused.widening ?? (lone && !fallbackFrom ? seatWidening(used, lone, context, options) : undefined);
   if (unused.note) used = { ...used, notes: [...used.notes, unused.note] };

@@ -53,7 +53,9 @@ export function checkOtherClauses(finder: CandidateFinder, clauses: ClauseReadin
  * found only as another kind of place, "as a farm or estate"). By the
  * [CHOICE]s unusedFeatureRule and unusedFeatureMeters: a radius term with its remark, or the reason to
  * decline; nothing when every named place was found. When the place used is an administrative unit's
- * polygon (`withinUnit`), the text places the missing ones in it: a note, and no term.
+ * polygon (`withinUnit`), the text places the missing ones in it: a note, and no term. So too when the answer
+ * rests on coordinates written in the text (`writtenCoordinates`): they say where the specimen was taken,
+ * more precisely than any place named beside them.
  * @example unusedPlaces({ missing: [{ clause: 1, name: 'Laguna Negra' }], found: [] }, undefined, { rule: 'widen', meters: 120000 })
  *   // { widening: { meters: 120000, remark: '"Laguna Negra" is named but not in the loaded gazetteers: …' } }
  */
@@ -62,6 +64,7 @@ export function unusedPlaces(
   fallbackFrom: { name: string; as?: string } | undefined,
   choice: { rule: 'widen' | 'decline'; meters: number },
   withinUnit?: Feature,
+  writtenCoordinates?: string,
 ): { widening?: { meters: number; remark: string }; note?: string } | { decline: string } {
   const names = [...(fallbackFrom ? [fallbackFrom] : []), ...check.missing.map((m) => ({ name: m.name, as: undefined }))];
   if (names.length === 0) return {};
@@ -71,6 +74,10 @@ export function unusedPlaces(
   if (withinUnit) {
     // "Cerro Azul, Alisos": the text places it in the unit, whose own polygon already bounds the answer.
     return { note: `${quoted} ${verb} named but not in the loaded gazetteers; the text places ${names.length === 1 ? 'it' : 'them'} in the ${withinUnit.featureType} "${withinUnit.name}", whose polygon is the answer's extent` };
+  }
+  if (writtenCoordinates !== undefined) {
+    // "Lago Escondido, 54° 15' N 130° 20' W": the coordinates locate the record; a missing lake widens nothing.
+    return { note: `${quoted} ${verb} named but not in the loaded gazetteers; the written coordinates, "${writtenCoordinates}", locate the record, so the radius is not widened for ${names.length === 1 ? 'it' : 'them'}` };
   }
   if (choice.rule === 'decline') {
     return { decline: `${quoted} ${verb} named but not in the loaded gazetteers: the specimen may come from there, so no georeference is given [CHOICE unusedFeatureRule 'decline', src/georef/method-defaults.ts]` };

@@ -23,6 +23,20 @@ const DEGREE_MARKS = new Set(['°', 'º', '˚', 'd', 'deg', 'degrees', 'grados',
 const MINUTE_MARKS = new Set(["'", '′', '’', '´', 'm', 'min', 'minutes', 'minutos']);
 const SECOND_MARKS = new Set(['"', '″', '”', 's', 'sec', 'seconds', 'segundos', 'secondes']);
 const PAIR_SEPARATORS = new Set([',', ';', '/', 'and', 'y', 'e', 'et', '-']);
+/** Prime signs proper: a minutes mark only (the letters "m", "min" are read as marks elsewhere). */
+const SINGLE_PRIMES = new Set(["'", '′', '’', '´']);
+const DOUBLE_PRIMES = new Set(['"', '″', '”']);
+const isDoublePrime = (t: Token | undefined): boolean => t?.kind === 'symbol' && DOUBLE_PRIMES.has(t.norm);
+
+/**
+ * "54° 15\" N" typed on a machine with no prime key: a double prime straight after the degrees, in a text
+ * that writes no single prime after any number, is read as minutes [CHOICE typewriterMinutes: common practice,
+ * no source]. Where the text does write single primes, the double prime keeps its standard reading, seconds.
+ * @example doublePrimeAsMinutes(tokenize('Lat. 54° 15" N')) // true
+ */
+export function doublePrimeAsMinutes(tokens: Token[]): boolean {
+  return !tokens.some((t, k) => t.kind === 'symbol' && SINGLE_PRIMES.has(t.norm) && tokens[k - 1]?.kind === 'number');
+}
 
 /** Meters per degree of latitude, rounded (WGS84 mean 111.1–111.7 km): used only to express UTM precision in degrees. */
 const METERS_PER_DEGREE = 111320;
@@ -41,13 +55,15 @@ interface Angle {
   start: number;
   next: number;
   problems: string[];
+  /** Degrees and minutes as written where a double prime was read as minutes (the typewriter's reading). */
+  typewritten: string[];
 }
 
 const isNum = (t: Token | undefined): t is Token => t?.kind === 'number' && !t.fraction;
 const normIn = (t: Token | undefined, set: ReadonlySet<string> | ReadonlyMap<string, unknown>): boolean => t !== undefined && t.kind !== 'number' && set.has(t.norm);
 const hemisphereOf = (t: Token | undefined): Hemisphere | undefined => (t && t.kind === 'word' ? HEMISPHERES.get(t.norm) : undefined);
 
-function readAngle(tokens: Token[], start: number): Angle | null {
+function readAngle(tokens: Token[], start: number, typewriter: boolean): Angle | null {
   let i = start;
   let axis: Angle['axis'];
   if (normIn(tokens[i], LATITUDE_LABELS)) axis = 'lat';
@@ -77,10 +93,20 @@ function readAngle(tokens: Token[], start: number): Angle | null {
   }
   // Minutes and seconds follow a whole number of degrees (or minutes), marked or, unmarked, before a hemisphere.
   const units = [MINUTE_MARKS, SECOND_MARKS];
+  const typewritten: string[] = [];
   for (const marks of units) {
     if (decimals > 0 || !isNum(tokens[i])) break;
     const value = tokens[i]!;
     const mark = tokens[i + 1];
+    if (marks === MINUTE_MARKS && degreeMarked && isDoublePrime(mark)) {
+      // Degrees then a double prime: minutes on a typewriter [CHOICE typewriterMinutes], else seconds with no minutes.
+      values.push(...(typewriter ? [Number(value.norm)] : [0, Number(value.norm)]));
+      decimals = value.decimals!.length;
+      if (typewriter) typewritten.push(`${degrees.text}${tokens[i - 1]!.text} ${value.text}${mark!.text}`);
+      i += 2;
+      marked = true;
+      break;
+    }
     const secondsLetter = marks === SECOND_MARKS && mark?.norm === 's' && hemisphereOf(tokens[i + 2]) === undefined && tokens[i - 1]?.norm !== 'm';
     if (normIn(mark, marks) && !secondsLetter) {
       values.push(Number(value.norm));
@@ -106,7 +132,7 @@ function readAngle(tokens: Token[], start: number): Angle | null {
   const magnitude = values[0]! + (values[1] ?? 0) / 60 + (values[2] ?? 0) / 3600;
   if (!Number.isFinite(magnitude)) return null;
   const step = powerOfTen(-decimals) / [1, 60, 3600][values.length - 1]!;
-  return { magnitude, negative, hemisphere, axis, precision: step, parts: values.length as 1 | 2 | 3, marked, decimals, start, next: i, problems };
+  return { magnitude, negative, hemisphere, axis, precision: step, parts: values.length as 1 | 2 | 3, marked, decimals, start, next: i, problems, typewritten };
 }
 
 /** True when, from i, at most one more number and then a hemisphere word follow (unmarked "12 30 15 S"). */
@@ -130,12 +156,12 @@ export interface CoordinatesFound {
   endToken: number;
 }
 
-function readPair(text: string, tokens: Token[], i: number, lenient: boolean): CoordinatesFound | null {
-  const first = readAngle(tokens, i);
+function readPair(text: string, tokens: Token[], i: number, lenient: boolean, typewriter: boolean): CoordinatesFound | null {
+  const first = readAngle(tokens, i, typewriter);
   if (!first) return null;
   let j = first.next;
   if (normIn(tokens[j], PAIR_SEPARATORS) && tokens[j]!.norm !== '-') j++;
-  const second = readAngle(tokens, j);
+  const second = readAngle(tokens, j, typewriter);
   if (!second) return null;
   const plainDecimals = !first.marked && !second.marked;
   // In running text a bare pair must look like coordinates (two decimals each); a coordinate field may be plainer.
@@ -155,6 +181,7 @@ function readPair(text: string, tokens: Token[], i: number, lenient: boolean): C
   }
   if (Math.abs(longitude) > 180) problems.push(`longitude ${longitude} is outside ±180°`);
   const parts = Math.max(first.parts, second.parts);
+  const typewritten = [...first.typewritten, ...second.typewritten];
   const coordinates: WrittenCoordinates = {
     written: text.slice(tokens[i]!.start, tokens[second.next - 1]!.end),
     latitude,
@@ -162,6 +189,7 @@ function readPair(text: string, tokens: Token[], i: number, lenient: boolean): C
     format: parts === 3 ? 'degrees-minutes-seconds' : parts === 2 ? 'degrees-minutes' : 'decimal',
     precisionDegrees: Math.min(first.precision, second.precision),
     problems,
+    ...(typewritten.length > 0 ? { notes: [`double prime read as minutes in ${typewritten.join(', ')}, as typewritten labels write minutes when no single prime is written [CHOICE typewriterMinutes: common practice, no source]`] } : {}),
   };
   return { coordinates, startToken: i, endToken: second.next };
 }
@@ -253,6 +281,27 @@ function findDatum(text: string, tokens: Token[]): string | undefined {
   return undefined;
 }
 
+const DEGREE_SIGNS = new Set(['°', 'º', '˚', 'degrees', 'grados', 'graus', 'degres']);
+
+/** A hemisphere after degrees: a word ("sur", "ouest"), or a capital letter ("N", "O"), not the small "e" or "o" of running text. */
+const hemisphereAfterDegrees = (t: Token | undefined): boolean => hemisphereOf(t) !== undefined && (t!.norm.length > 1 || t!.text[0] !== t!.text[0]!.toLowerCase());
+
+/**
+ * Whether tokens write coordinates, read or not: a number with a degree sign or word followed by a number, a
+ * prime or a hemisphere ("54° 15", "54°'", "54 grados S"; not the ordinal "1º de Maio" nor "25°C"), or a
+ * latitude or longitude word before a number ("Lat. 54", "longitud 66"), in four languages. Such a clause is
+ * never a place's name.
+ * @example writesCoordinates(tokenize('Lat. 54° 15 N')) // true
+ */
+export function writesCoordinates(tokens: Token[]): boolean {
+  const degreesWritten = (k: number): boolean => {
+    const after = tokens[k + 2];
+    return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
+  };
+  return tokens.some((t, k) => (t.kind === 'number' && degreesWritten(k))
+    || ((normIn(t, LATITUDE_LABELS) || normIn(t, LONGITUDE_LABELS)) && tokens.slice(k + 1).some((n) => n.kind === 'number')));
+}
+
 /**
  * Finds the first coordinate pair (decimal, degrees-minutes(-seconds) in any common punctuation, or UTM)
  * in tokens [from, to); `lenient` also accepts bare number pairs ("95.5, 45.2"), as in a coordinate field. A UTM
@@ -260,8 +309,9 @@ function findDatum(text: string, tokens: Token[]): string | undefined {
  */
 export function findCoordinates(text: string, tokens: Token[], from = 0, to = tokens.length, lenient = false): CoordinatesFound | null {
   const window = tokens.slice(from, to);
+  const typewriter = doublePrimeAsMinutes(tokens);
   for (let i = 0; i < window.length; i++) {
-    const found = readUtm(text, window, i) ?? readPair(text, window, i, lenient);
+    const found = readUtm(text, window, i) ?? readPair(text, window, i, lenient, typewriter);
     if (found) {
       const datumWritten = findDatum(text, window);
       if (datumWritten) found.coordinates.datumWritten = datumWritten;

@@ -6,7 +6,7 @@
  */
 import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset, RouteReading } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
-import { findCoordinates, type CoordinatesFound } from './coordinates.ts';
+import { findCoordinates, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import * as L from './lexicon.ts';
@@ -45,6 +45,8 @@ interface Piece {
   unit?: NamedUnit;
   /** A link of a hierarchy written into the text ("Brasil:" in "Brasil: Minas Gerais: Alisos"). */
   link?: boolean;
+  /** Coordinates written ("Lat. 54° 15 N") that could not be read: never a place's name. */
+  unreadCoordinates?: boolean;
 }
 
 /**
@@ -199,6 +201,10 @@ function interpret(text: string): Interpretation {
       }
     }
     const reading = readSegment(index)!;
+    if ((reading.type === 'named-place' || reading.type === 'unparseable') && writesCoordinates(tokens.slice(from, to))) {
+      pieces.push({ clause: clauseOf(text, tokens, from, to, 'other'), unreadCoordinates: true });
+      continue;
+    }
     const named = previous?.reading?.features.length === 1 && !previous.reading.bare && !previous.reading.secondName ? previous.reading : undefined;
     const second = named && segments[index - 1]?.separator === '(' && tokens[to]?.norm === ')' && previous!.clause.text.endsWith(named.features[0]!)
       ? secondNameIn(text, tokens.slice(L.SECOND_NAME_WORDS.has(tokens[from]!.norm) ? from + 1 : from, to), named.featureKind)
@@ -375,6 +381,12 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
       bestRank = rank;
     }
   });
+  // Coordinates written but not readable: the place they give is not known, so no other clause stands in for them.
+  const unread = pieces.find((p) => p.unreadCoordinates);
+  if (unread && !result.coordinates) {
+    return { ...result, type: 'unparseable', reason: `coordinates written but not readable: "${unread.clause.text}"; no other clause is used in their place, a person must read them` };
+  }
+  if (unread) result.notes.push(`"${unread.clause.text}" looks like coordinates but could not be read (not used; check it agrees)`);
   const refusal = pieces.find((p) => p.refusal);
   if (refusal && bestRank > 0) {
     return { ...result, type: 'no-locality', reason: `the text says "${refusal.clause.text}"` };
@@ -404,6 +416,7 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   result.chosenClause = best;
   if (chosen.clause.kind === 'coordinates') {
     result.type = 'coordinates';
+    result.notes.push(...(result.coordinates?.notes ?? []));
   } else {
     delete result.coordinates;
     const reading = chosen.reading!;

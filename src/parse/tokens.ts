@@ -95,7 +95,8 @@ export function tokenize(text: string): Token[] {
     } else {
       i++;
       // Two apostrophes written for seconds ('') read as one double prime.
-      if ((c === "'" || c === '′') && text[i] === c) i++;
+      // A double quote doubled ("") is one double prime, as a CSV export may leave it.
+      if ((c === "'" || c === '′' || c === '"') && text[i] === c) i++;
       const written = text.slice(start, i);
       tokens.push({ kind: 'symbol', text: written, norm: written.length === 2 ? '″' : c, start, end: i, spaceBefore: space });
     }

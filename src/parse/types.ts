@@ -102,6 +102,8 @@ export interface WrittenCoordinates {
   datumWritten?: string;
   /** Problems found (swapped, out of range): flagged, never silently fixed. */
   problems: string[];
+  /** Readings of the marks other than the standard one ("54° 15\"" typewritten: the double prime as minutes). */
+  notes?: string[];
 }
 
 /** A piece of the text that can be read on its own. */
