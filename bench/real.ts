@@ -7,9 +7,9 @@
  */
 import { cpus, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
-import { loadRealRecords, measureRecord, openRealGazetteer, ratesBy, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
+import { groupRates, loadRealRecords, measureRecord, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
 
-/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS and BENCH_REAL_OLDER_SPELLINGS override the [CHOICE]s, to measure them. */
+/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS and BENCH_REAL_BARE_SEAT_METERS override the [CHOICE]s, to measure them. */
 const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
 const unusedFeatureRule = process.env.BENCH_REAL_UNUSED_RULE as 'widen' | 'decline' | undefined;
 const settlementNamedLikeFeature = process.env.BENCH_REAL_KIND_RULE as 'settlement' | 'decline' | undefined;
@@ -17,16 +17,25 @@ const namesakesWithinMeters = process.env.BENCH_REAL_NAMESAKES_METERS ? Number(p
 const justOutsideMeters = process.env.BENCH_REAL_JUST_OUTSIDE_METERS ? Number(process.env.BENCH_REAL_JUST_OUTSIDE_METERS) : undefined;
 const nameAsFirstWords = process.env.BENCH_REAL_FIRST_WORDS as 'review' | 'answer' | undefined;
 const olderSpellings = process.env.BENCH_REAL_OLDER_SPELLINGS as 'on' | 'off' | undefined;
+const bareNameSeatMeters = process.env.BENCH_REAL_BARE_SEAT_METERS ? Number(process.env.BENCH_REAL_BARE_SEAT_METERS) : undefined;
 
-const row = (label: string, r: Rates) =>
-  `${label.padEnd(26)} ${String(r.records).padStart(6)} ${r.answeredPercent.toFixed(1).padStart(9)} ${r.coveredPercentOfAnswered.toFixed(1).padStart(10)} ${r.falsePercent.toFixed(2).padStart(8)} ${(r.medianErrorMeters === null ? '-' : (r.medianErrorMeters / 1000).toFixed(1)).padStart(14)}`;
-const header = `${'group'.padEnd(26)} ${'records'.padStart(6)} ${'answered%'.padStart(9)} ${'covered%'.padStart(10)} ${'false%'.padStart(8)} ${'median err km'.padStart(14)}`;
+/** The rates of a group and the median radius of its answers: what a wider circle costs. */
+type RatesAndRadius = Rates & { medianRadiusMeters: number | null };
+const ratesAndRadius = (outcomes: RecordOutcome[]): RatesAndRadius => {
+  const radii = outcomes.flatMap((o) => (o.answered && o.result.georeference ? [o.result.georeference.uncertaintyMeters] : [])).sort((a, b) => a - b);
+  return { ...ratesOf(outcomes), medianRadiusMeters: radii.length === 0 ? null : radii[Math.floor((radii.length - 1) / 2)]! };
+};
+const ratesBy = (outcomes: RecordOutcome[], key: (o: RecordOutcome) => string) => groupRates(outcomes, key, ratesAndRadius);
+const km = (meters: number | null, width: number) => (meters === null ? '-' : (meters / 1000).toFixed(1)).padStart(width);
+const row = (label: string, r: RatesAndRadius) =>
+  `${label.padEnd(26)} ${String(r.records).padStart(6)} ${r.answeredPercent.toFixed(1).padStart(9)} ${r.coveredPercentOfAnswered.toFixed(1).padStart(10)} ${r.falsePercent.toFixed(2).padStart(8)} ${km(r.medianErrorMeters, 14)} ${km(r.medianRadiusMeters, 14)}`;
+const header = `${'group'.padEnd(26)} ${'records'.padStart(6)} ${'answered%'.padStart(9)} ${'covered%'.padStart(10)} ${'false%'.padStart(8)} ${'median err km'.padStart(14)} ${'median r km'.padStart(14)}`;
 
 /** Prints one block of rates: overall, by language, by locality type, by widening and by status. */
 function report(title: string, outcomes: RecordOutcome[], bySet: boolean): void {
   console.log(`== ${title}`);
   console.log(header);
-  console.log(row('all', ratesOf(outcomes)));
+  console.log(row('all', ratesAndRadius(outcomes)));
   if (bySet) {
     console.log('-- by set');
     for (const [k, r] of ratesBy(outcomes, (o) => o.record.set)) console.log(row(k, r));
@@ -46,7 +55,7 @@ for (const [index, set] of REAL_SETS.entries()) {
   const records = loadRealRecords(set);
   const store = await openRealGazetteer(set);
   const started = performance.now();
-  const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings }));
+  const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, bareNameSeatMeters }));
   const seconds = (performance.now() - started) / 1000;
   store.close();
   report(`set ${index + 1}, ${set.name}: ${records.length} records, ${(records.length / seconds).toFixed(0)} records/s`, outcomes, false);

@@ -60,6 +60,15 @@ export const METHOD_DEFAULTS = {
    */
   countyReachMeters: 50000,
   /**
+   * A text that is only one place name, found as a town the gazetteer does not record as lying in a
+   * differently named county or municipality (it records none, or one of its own name): where
+   * municipalities tile the land and bear their seat's name, such a label often means the municipality,
+   * so the town's radius is widened by this much [CHOICE]; 0 keeps the town's radius. Chosen by
+   * measurement on the real-record sets (README "On real records"): of 10, 20, 30 and 40 km, 40 km (the
+   * value of unitSeatMeters) gave the most covered answers, and no width made a false rate rise.
+   */
+  bareNameSeatMeters: 40000,
+  /**
    * A reference place loaded only outside the record's stated county or state is accepted when it lies
    * within this distance of that unit's polygon, and the remarks say so [CHOICE]: the place a
    * collector measured from is often just across a county line. Common practice, no source. With no

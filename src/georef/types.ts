@@ -58,6 +58,8 @@ export interface MethodOptions {
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */
   countyReachMeters?: number;
+  /** A text that is only one place name, found as a town that may be its municipality's seat: its radius widened by this much; 0 keeps the town's radius ([CHOICE]). */
+  bareNameSeatMeters?: number;
   /** Datum of written coordinates when the record states one outside the text (EPSG code). */
   datum?: string;
   /** Accuracy standard of the map at `mapScale`; default 'unknown' (1 mm on the map only, docs/method.md §5.5). */

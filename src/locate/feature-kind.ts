@@ -7,7 +7,7 @@ import type { FeatureKind } from '../parse/types.ts';
 import { featureKindOf } from '../parse/index.ts';
 
 /** Gazetteer feature types that are settlements, the ones a generic word of another kind rules out. */
-const SETTLEMENTS = new Set(['city', 'town', 'village', 'hamlet']);
+export const SETTLEMENTS = new Set(['city', 'town', 'village', 'hamlet']);
 
 const KIND_WORDS: Readonly<Record<FeatureKind, string>> = {
   'populated-place': 'a populated place',

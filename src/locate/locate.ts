@@ -22,7 +22,7 @@ import { findUnit, pastUnitHeads, seatNames, standInsNamed, unitArea, unitNamed 
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
-import { judgeKind, type KindVerdict } from './feature-kind.ts';
+import { judgeKind, SETTLEMENTS, type KindVerdict } from './feature-kind.ts';
 import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
@@ -194,7 +194,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     meters: options.unusedFeatureMeters ?? METHOD_DEFAULTS.unusedFeatureMeters,
   }, withinUnit, used.type === 'coordinates' ? used.coordinates?.written : undefined);
   if ('decline' in unused) return { status: 'not-found', interpretation: used, candidates, reason: unused.decline };
-  const { widening } = unused;
+  const widening = unused.widening ?? (lone && !fallbackFrom ? seatWidening(used, lone, context, options) : undefined);
   if (unused.note) used = { ...used, notes: [...used.notes, unused.note] };
   const pathLine = findPathLine(finder, used, context);
   // The stated municipality, county or province clips the footprint; a heading alone may also be bounded by the country.
@@ -241,6 +241,21 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
     return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
   }
   return null;
+}
+
+/**
+ * The widening of a bare name (the whole text one place name, nothing else) found as a town that may be the
+ * seat of a municipality of its name: the gazetteer records it in no county or municipality of another
+ * name, and the record states none of another name [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
+ * @example seatWidening(parseLocality('Alisos'), townAlisos, { countryCode: 'QV' }, { bareNameSeatMeters: 20000 }) // { meters: 20000, remark: '"Alisos" is only a place name, …' }
+ */
+function seatWidening(used: Interpretation, town: Feature, context: AdministrativeContext, options: LocateOptions): { meters: number; remark: string } | undefined {
+  const meters = options.bareNameSeatMeters ?? METHOD_DEFAULTS.bareNameSeatMeters;
+  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name);
+  if (!meters || used.clauses.length !== 1 || used.featureKind || !SETTLEMENTS.has(town.featureType ?? '')) return undefined;
+  if (!ownName(town.county) || !ownName(context.county) || !ownName(context.municipality)) return undefined;
+  const remark = `"${used.features[0]}" is only a place name, found as the town ${town.name}, which may be the seat of a municipality of that name: the radius widened by ${(meters / 1000).toFixed(0)} km, as the label may mean anywhere in the municipality [CHOICE bareNameSeatMeters, src/georef/method-defaults.ts]`;
+  return { meters, remark };
 }
 
 /**
