@@ -259,7 +259,8 @@ class SqliteGazetteer implements GazetteerStore {
     const db = this.db;
     const s = this.statements;
     // In WAL mode a transaction syncs nothing until its commit, and FULL makes the commit wait for the
-    // log to reach the disk: the import is durable when it returns. Sorts stay in memory.
+    // log to reach the disk: the import is durable when it returns. Sorts stay in memory, but for the
+    // features' index built at commit (below), whose sort grows with the store.
     db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = MEMORY');
@@ -354,6 +355,8 @@ class SqliteGazetteer implements GazetteerStore {
         deletions.write();
         postings.write();
         names.flush();
+        // The index's sort spills to a temporary file past the page cache: in memory it would grow with the store.
+        if (laterIndexes.length > 0) db.pragma('temp_store = FILE');
         for (const { sql } of laterIndexes) db.exec(sql);
         this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
