@@ -18,20 +18,31 @@ let countryNameIndex: Map<string, string> | undefined;
 export function countryCodeForName(name: string): string | null {
   if (countryNameIndex === undefined) {
     countryNameIndex = new Map();
-    const displays = DISPLAY_LANGUAGES.map((language) => new Intl.DisplayNames([language], { type: 'region', fallback: 'none' }));
-    for (let first = 65; first <= 90; first++) {
-      for (let second = 65; second <= 90; second++) {
-        const code = String.fromCharCode(first, second);
-        for (const display of displays) {
-          const display_name = display.of(code);
-          if (display_name !== undefined && display_name !== code) countryNameIndex.set(foldName(display_name), code);
-        }
-      }
-    }
+    for (const { code, name: regionName } of regionNames(DISPLAY_LANGUAGES)) countryNameIndex.set(foldName(regionName), code);
   }
   const folded = foldName(name);
   if (/^[a-z]{2}$/.test(folded)) return folded.toUpperCase();
   return countryNameIndex.get(folded) ?? null;
+}
+
+/**
+ * Every two-letter region code that CLDR names in the languages (Node's Intl), with its name in each,
+ * code by code and, for one code, in the order of the languages.
+ * @example regionNames(['en']).find((r) => r.code === 'BR') // { code: 'BR', name: 'Brazil', language: 'en' }
+ */
+function regionNames(languages: readonly string[]): { code: string; name: string; language: string }[] {
+  const displays = languages.map((language) => ({ language, display: new Intl.DisplayNames([language], { type: 'region', fallback: 'none' }) }));
+  const names: { code: string; name: string; language: string }[] = [];
+  for (let first = 65; first <= 90; first++) {
+    for (let second = 65; second <= 90; second++) {
+      const code = String.fromCharCode(first, second);
+      for (const { language, display } of displays) {
+        const name = display.of(code);
+        if (name !== undefined && name !== code) names.push({ code, name, language });
+      }
+    }
+  }
+  return names;
 }
 
 /**
@@ -78,16 +89,7 @@ export function countryExonymLanguage(name: string, code: string): string | null
       exonymIndex!.set(country, names);
     };
     const languageNames = new Intl.DisplayNames(['en'], { type: 'language' });
-    for (const language of EXONYM_LANGUAGES) {
-      const display = new Intl.DisplayNames([language], { type: 'region', fallback: 'none' });
-      for (let first = 65; first <= 90; first++) {
-        for (let second = 65; second <= 90; second++) {
-          const country = String.fromCharCode(first, second);
-          const exonym = display.of(country);
-          if (exonym !== undefined && exonym !== country) add(country, exonym, languageNames.of(language) ?? language);
-        }
-      }
-    }
+    for (const { code, name: exonym, language } of regionNames(EXONYM_LANGUAGES)) add(code, exonym, languageNames.of(language) ?? language);
     for (const [country, exonyms] of Object.entries(LATIN_COUNTRY_NAMES)) for (const exonym of exonyms) add(country, exonym, 'Latin');
   }
   return exonymIndex.get(code.toUpperCase())?.get(caseFolded(name)) ?? null;
