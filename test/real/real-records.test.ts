@@ -10,7 +10,10 @@
  *   v1.16, Valencia & Flores-Franco 2006, rights holder CONABIO);
  * - set 3: 568 blueberry specimens of Canada and the northern United States, 55 of them with French
  *   locality text from Québec (CC0 1.0 or CC BY 4.0, per record; three occurrence downloads shipped in
- *   github.com/TerrellRoulston/vaccinium, commit 28bb394, each record crediting its dataset).
+ *   github.com/TerrellRoulston/vaccinium, commit 28bb394, each record crediting its dataset);
+ * - set 4, held out: 546 specimens from Central America (blueberries, from the same repository) and
+ *   Chile (amphibians; occurrence download 10.15468/dl.gh3ngh), CC0 1.0 or CC BY 4.0 per record,
+ *   measured before any rule was tuned to it and not tuned to since.
  * The ceilings and floors below are what the code reaches today (bench:real), with a little room;
  * the issue's targets are false ≤ 1 % of records, covered ≥ 97 % of answers, answered ≥ 50 %.
  */
@@ -25,12 +28,16 @@ const STATUSES = ['georeferenced', 'ambiguous', 'not-found', 'unparseable'];
  * false 0 % (0 of 524: the Latin "a Brasilia" is no longer taken for the capital), covered 100 % (158 of 158 answers), answered 30.2 % (158 of 524); set 2 false 0.97 % (2 of 206), covered 96.5 %
  * (55 of 57 answers), answered 27.7 % (57 of 206) (see the README, "On real records");
  * set 3 false 0.35 % (2 of 568), covered 96.4 % (54 of 56 answers), answered 9.9 % (56 of 568): the two labels whose
- * written coordinates lie far from the town they name are declined as disagreeing clauses.
+ * written coordinates lie far from the town they name are declined as disagreeing clauses;
+ * set 4, held out, false 0.37 % (2 of 546), covered 96.7 % (59 of 61 answers), answered 11.2 %
+ * (61 of 546), as first measured: no rule is tuned to it, so a fix for its two false georeferences
+ * has to come from other records.
  */
 const EXPECTED = [
   { title: 'set 1, tree ferns', set: REAL_SETS[0], records: 524, falseCeiling: 0.1, coveredFloor: 99.5, answeredFloor: 30.1 },
   { title: 'set 2, oak types', set: REAL_SETS[1], records: 206, falseCeiling: 1, coveredFloor: 96, answeredFloor: 27.5 },
   { title: 'set 3, blueberries', set: REAL_SETS[2], records: 568, falseCeiling: 0.6, coveredFloor: 94.5, answeredFloor: 9.8 },
+  { title: 'set 4, held out', set: REAL_SETS[3], records: 546, falseCeiling: 0.5, coveredFloor: 96, answeredFloor: 11.0 },
 ];
 
 for (const expected of EXPECTED) {
