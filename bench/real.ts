@@ -7,8 +7,7 @@
  * BENCH_REAL_LIST=false lists every false georeference.
  */
 import { cpus, loadavg } from 'node:os';
-import { performance } from 'node:perf_hooks';
-import { groupRates, loadRealRecords, measureRecord, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
+import { groupRates, loadRealRecords, measureSet, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
 
 /** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS, BENCH_REAL_SHORT_FORMS and BENCH_REAL_BARE_SEAT_METERS override the [CHOICE]s, to measure them. */
 const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
@@ -59,9 +58,7 @@ const everyOutcome: RecordOutcome[] = [];
 for (const [index, set] of REAL_SETS.entries()) {
   const records = loadRealRecords(set);
   const store = await openRealGazetteer(set);
-  const started = performance.now();
-  const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, honoreeShortForms, bareNameSeatMeters }));
-  const seconds = (performance.now() - started) / 1000;
+  const { outcomes, seconds } = measureSet(store, records, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, honoreeShortForms, bareNameSeatMeters });
   store.close();
   report(`set ${index + 1}, ${set.name}: ${records.length} records, ${(records.length / seconds).toFixed(0)} records/s`, outcomes, false);
   everyOutcome.push(...outcomes);

@@ -17,7 +17,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
-import { loadRealRecords, measureRecord, openRealGazetteer, ratesOf, REAL_SETS, type RecordOutcome } from './harness.ts';
+import { loadRealRecords, measureSet, openRealGazetteer, ratesOf, REAL_SETS, type RecordOutcome } from './harness.ts';
 
 const STATUSES = ['georeferenced', 'ambiguous', 'not-found', 'unparseable'];
 
@@ -42,7 +42,7 @@ for (const expected of EXPECTED) {
     let outcomes: RecordOutcome[] = [];
     beforeAll(async () => {
       store = await openRealGazetteer(expected.set);
-      outcomes = loadRealRecords(expected.set).map((record) => measureRecord(store, record));
+      outcomes = measureSet(store, loadRealRecords(expected.set)).outcomes;
     }, 180_000);
     afterAll(() => store?.close());
 
