@@ -21,8 +21,9 @@
  *   folded text (accents, case and punctuation folded, runs crossing punctuation) is looked up in the
  *   store exactly, under the name as written and the readings the matcher applies to any name
  *   (abbreviations, a generic word or leading article left out, older spellings, the short form of an
- *   official long name, as METHOD_DEFAULTS sets them), never by a near spelling (`nearSpellings: 'off'`). A run naming the record's stated country or state is its
- *   context, not a place, and is not counted. Generous on purpose: a town's name inside a road's or
+ *   official long name, as METHOD_DEFAULTS sets them), never by a near spelling (`nearSpellings: 'off'`).
+ *   A run naming the record's stated country or state (or the state's short form) is its context, not
+ *   a place, and is not counted. Generous on purpose: a town's name inside a road's or
  *   a reserve's name counts too, so answered % of answerable records is a lower bound on how much of
  *   what this gazetteer can answer we do answer. The rest, by why (`Answerability`): a run found only
  *   in another state of the stated country, only in another country of the set's gazetteer, or none.
@@ -39,7 +40,7 @@ import { parse } from 'csv-parse/sync';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
-import { administrativeKey, countryCodeForName } from '../../src/match/context.ts';
+import { administrativeKey, countryCodeForName, shortFormKey } from '../../src/match/context.ts';
 import { foldName } from '../../src/match/fold.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { georeferenceRecord } from '../../src/locate/georeference-record.ts';
@@ -210,8 +211,9 @@ export function measureSet(store: GazetteerStore, records: RealRecord[], options
 export function answerabilityOf(store: GazetteerStore, record: RealRecord): Answerability {
   const words = foldName(record.locality).split(' ').filter((word) => word !== '');
   const runs = new Set(words.flatMap((_, start) => [1, 2, 3, 4].flatMap((n) => (start + n <= words.length ? [words.slice(start, start + n).join(' ')] : []))));
-  const state = record.stateProvince ? administrativeKey(record.stateProvince) : undefined;
-  const places = [...runs].filter((run) => countryCodeForName(run) !== record.countryCode && administrativeKey(run) !== state);
+  // The state by its name or its short form ("Veracruz" of "Veracruz de Ignacio de la Llave").
+  const state = record.stateProvince ? [administrativeKey(record.stateProvince), shortFormKey(record.stateProvince)] : [];
+  const places = [...runs].filter((run) => countryCodeForName(run) !== record.countryCode && !state.includes(administrativeKey(run)));
   const holds = (context: { countryCode?: string; stateProvince?: string }) =>
     places.some((name) => store.findCandidates({ name, context, nearSpellings: 'off', olderSpellings: METHOD_DEFAULTS.olderSpellings, honoreeShortForms: METHOD_DEFAULTS.honoreeShortForms, limit: 1 }).length > 0);
   if (holds({ countryCode: record.countryCode, stateProvince: record.stateProvince || undefined })) return 'answerable';
