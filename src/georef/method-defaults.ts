@@ -149,4 +149,14 @@ export const METHOD_DEFAULTS = {
    * real-record sets (README "On real records").
    */
   honoreeShortForms: 'on' as 'on' | 'off',
+  /**
+   * A text that is only the record's country's name in another language than the four read throughout
+   * (German, Italian or Dutch from CLDR; Latin from memory), written with its own accents ("a Brasilia",
+   * Latin for Brazil), names the country, not a town; when a town also bears that name as written or by
+   * a documented reading (the capital Brasília) [CHOICE]: 'review' gives no georeference and marks it
+   * ambiguous, to be confirmed by a person; 'town' takes the town as any name. The town written with its
+   * own accents ("Brasília") is not the country's name and stays the town. Chosen by measurement on the
+   * real-record sets (README "On real records").
+   */
+  countryExonymTown: 'review' as 'review' | 'town',
 } as const satisfies Record<string, number | string>;

@@ -139,7 +139,13 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
   const unit = unitNamed(interpretation, context);
-  if (unit) {
+  const townOfExonym = unit?.exonymLanguage ? townSharingName(finder, interpretation, context, options) : undefined;
+  const exonymRule = options.countryExonymTown ?? METHOD_DEFAULTS.countryExonymTown;
+  if (unit && townOfExonym && exonymRule === 'review') {
+    const reason = `"${unit.written}" is the ${unit.exonymLanguage} name of the record's country ${context.countryCode?.trim().toUpperCase()}, and also ${townOfExonym.towns}: which one the label means is left for a person to confirm, never answered as the town [CHOICE countryExonymTown, src/georef/method-defaults.ts]`;
+    return { status: 'ambiguous', interpretation, candidates: townOfExonym.candidates, reason };
+  }
+  if (unit && !(townOfExonym && exonymRule === 'town')) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
     if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
@@ -213,6 +219,22 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const conflict = conflictWith(georef, others.found);
   if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+/**
+ * The town a name shares, found as written or by a documented reading (never by a near spelling), in
+ * plain words with the candidates; several such towns are named together; undefined when none is. For
+ * a country's name in another language that a town also bears.
+ * @example townSharingName(store, parseLocality('a Brasilia'), { countryCode: 'BR' }, {})?.towns // 'the town Brasília (city, Federal District, BR; …)'
+ */
+function townSharingName(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): { towns: string; candidates: Candidate[] } | undefined {
+  const resolved = resolveFeatures(finder, interpretation, context, options, {});
+  const candidates = resolved.ok ? resolved.candidates : resolved.result.candidates;
+  const taken = resolved.ok
+    ? (resolved.guessed ? [] : candidates.filter((c) => resolved.readings.flat().includes(c.feature)))
+    : resolved.result.status === 'ambiguous' ? candidates.filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore) : [];
+  if (taken.length === 0) return undefined;
+  return { towns: `${taken.length === 1 ? 'the town' : 'the towns'} ${taken.map(describeCandidate).join('; ')}`, candidates };
 }
 
 /**
