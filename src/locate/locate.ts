@@ -154,9 +154,11 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
   // The reading's place, under its name or else its second name written in brackets, judged by its kind.
   // A named place that may be a route ("Ipala to Amatillo") is one name if the gazetteer holds it, else the
-  // route between its two ends (src/locate/route.ts) [CHOICE routeReading].
+  // route between its two ends (src/locate/route.ts) [CHOICE routeReading]. An end is not read by the short form
+  // of a longer name [CHOICE honoreeShortForms]: splitting the text is a guess already, and the two guesses
+  // together placed the one route they reached on the real records 60 km from the publisher's point.
   const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
-    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => judgedByKind(resolveFeatures(finder, r, context, options, edits), r, kindRule));
+    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => judgedByKind(resolveFeatures(finder, r, context, { ...options, honoreeShortForms: 'off' }, edits), r, kindRule));
     if ('decline' in routing && routing.final) return { reading, resolution: { ok: false, result: { status: routing.final, interpretation: reading, candidates: [], reason: routing.decline } } };
     if ('route' in routing) return { reading: routing.route, resolution: routing.resolved };
     const first = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
@@ -249,7 +251,8 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
   if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
   for (const name of seatNames(unit)) {
     const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined, secondName: undefined };
-    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+    // Not by [CHOICE honoreeShortForms]: a seat whose own long form shortens to the unit's name is not taken (above).
+    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, { ...options, honoreeShortForms: 'off' }, {});
     if (!resolved.ok && resolved.result.status === 'not-found') continue;
     if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
     const level = unit.level === 'county' ? 'county' : 'municipality';
@@ -268,12 +271,13 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
 /**
  * The widening of a bare name (the whole text one place name, nothing else) found as a town that may be the
  * seat of a municipality of its name: the gazetteer records it in no county or municipality of another
- * name, and the record states none of another name [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
+ * name, and the record states none of another name (its short form, shortFormKey, is its name too) [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
  * @example seatWidening(parseLocality('Alisos'), townAlisos, { countryCode: 'QV' }, { bareNameSeatMeters: 20000 }) // { meters: 20000, remark: '"Alisos" is only a place name, …' }
  */
 function seatWidening(used: Interpretation, town: Feature, context: AdministrativeContext, options: LocateOptions): { meters: number; remark: string } | undefined {
   const meters = options.bareNameSeatMeters ?? METHOD_DEFAULTS.bareNameSeatMeters;
-  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name);
+  // A unit named by the town's short form ("Xalapa" for the town Xalapa de Enríquez) is of its own name too.
+  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name) || foldName(unit) === shortFormKey(town.name);
   if (!meters || used.clauses.length !== 1 || used.featureKind || !SETTLEMENTS.has(town.featureType ?? '')) return undefined;
   if (!ownName(town.county) || !ownName(context.county) || !ownName(context.municipality)) return undefined;
   const remark = `"${used.features[0]}" is only a place name, found as the town ${town.name}, which may be the seat of a municipality of that name: the radius widened by ${(meters / 1000).toFixed(0)} km, as the label may mean anywhere in the municipality [CHOICE bareNameSeatMeters, src/georef/method-defaults.ts]`;
@@ -523,8 +527,9 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
 }
 
 function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
-  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling.
-  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, language: interpretation.language };
+  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling;
+  // [CHOICE honoreeShortForms]: or by the short form of an official long name.
+  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms, language: interpretation.language };
   return interpretation.type === 'junction'
     ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
     : { name, context, ...spelling };
