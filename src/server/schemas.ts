@@ -4,6 +4,7 @@
  * type provider), so none of the three can drift from the others.
  */
 import { Type, type Static } from 'typebox';
+import { ROUTE_KILOMETRE_POST_RULES } from '../georef/types.ts';
 
 /** Text fields of a record: bounded so that no single field can make the service do unbounded work. */
 const text = (description: string, maxLength = 500) => Type.String({ maxLength, description });
@@ -40,6 +41,9 @@ const lookupOptionsSchema = Type.Object(
     measurementErrorMeters: Type.Optional(Type.Number({ minimum: 0, maximum: 20000000, description: 'A stated measurement error in meters.' })),
     coverAmbiguous: Type.Optional(Type.Boolean({ description: 'For an ambiguous name, one circle covering every candidate.' })),
     administrativeFallback: Type.Optional(Type.Boolean({ description: "For text naming no place, use the record's smallest administrative unit." })),
+    routeKilometrePost: Type.Optional(
+      oneOf(ROUTE_KILOMETRE_POST_RULES, "A route between two places with a road kilometre post beside it and no road line loaded: 'route' answers the whole route, the post not placed; 'decline' gives no georeference (GET /api/v1/method, routeKilometrePost, gives the rule in force)."),
+    ),
   },
   { additionalProperties: false, description: 'Edits and method settings; every one is optional.' },
 );

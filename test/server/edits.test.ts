@@ -93,6 +93,31 @@ describe('edits through POST /api/v1/georeference', () => {
   });
 });
 
+describe('the method choice routeKilometrePost in the request', () => {
+  // [CHOICE routeKilometrePost] (docs/method.md, every choice in one list): a kilometre post is measured along the
+  // road from its own origin, which no straight line between the route's ends can place (our choice, no source).
+  const body = { locality: 'Puerto Lindo - Santa Rosa road, km 12', countryCode: 'QV', stateProvince: 'Poniente' };
+  it("answers the whole route unless told 'decline', on the one-record and many-record routes alike", async () => {
+    const unset = (await ask(body)).json();
+    expect(unset.status).toBe('georeferenced');
+    expect(unset.georeference.remarks.join('\n')).toContain('"km 12" not placed');
+    expect((await ask({ ...body, options: { routeKilometrePost: 'route' } })).json().georeference.latitude).toBe(unset.georeference.latitude);
+    const declined = (await ask({ ...body, options: { routeKilometrePost: 'decline' } })).json();
+    expect(declined.status).toBe('not-found');
+    expect(declined.reason).toMatch(/cannot be placed without the road's line \[CHOICE routeKilometrePost/);
+    const many = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: [body, { ...body, options: { routeKilometrePost: 'decline' } }] });
+    expect(many.statusCode).toBe(200);
+    const lines = many.body.trim().split('\n').map((line) => JSON.parse(line));
+    expect(lines.map((line: any) => line.status)).toEqual(['georeferenced', 'not-found']);
+  });
+  it('refuses a rule it does not know, naming the field', async () => {
+    const wrong = await ask({ ...body, options: { routeKilometrePost: 'skip' } });
+    expect(wrong.statusCode).toBe(400);
+    expect(wrong.json().field).toBe('options.routeKilometrePost');
+    expect(wrong.json().message).toMatch(/route, decline|allowed values/);
+  });
+});
+
 describe('the answer as a file', () => {
   it('POST /api/v1/georeference.csv: a header and one row, every field quoted, CR LF line ends (RFC 4180 §2)', async () => {
     const response = await ask({ locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }, '/api/v1/georeference.csv');
