@@ -320,7 +320,12 @@ function withReadingsAside(result: LocateResult, aside: ReadingsTried['aside']):
   if (result.status !== 'not-found' || aside.length === 0) return result;
   const key = (c: Candidate) => `${c.feature.sourceId}:${c.feature.featureId}`;
   const listed = new Set(result.candidates.map(key));
-  const candidates = [...result.candidates, ...aside.flatMap((a) => a.candidates).filter((c) => !listed.has(key(c)) && listed.add(key(c)))];
+  const candidates = [...result.candidates];
+  for (const candidate of aside.flatMap((a) => a.candidates)) {
+    if (listed.has(key(candidate))) continue;
+    listed.add(key(candidate));
+    candidates.push(candidate);
+  }
   const reason = [result.reason, ...aside.map((a) => `${a.what} was tried: ${a.why}`)].filter(Boolean).join('; ');
   return { ...result, candidates, reason };
 }

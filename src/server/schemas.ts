@@ -33,7 +33,7 @@ const chosenFeatureSchema = Type.Object(
 
 const lookupOptionsSchema = Type.Object(
   {
-    candidate: Type.Optional(Type.Object(featureKeySchema.properties, { additionalProperties: false, description: 'Use this candidate feature instead of the one the matcher chose (a text that names one place).' })),
+    candidate: Type.Optional(Type.Object(featureKeySchema.properties, { additionalProperties: false, description: 'Use this candidate feature instead of the one the matcher chose (a text that names one place): a candidate of its name, of its second name in brackets, or of a later clause that stands in for a place the gazetteer lacks.' })),
     candidates: Type.Optional(Type.Array(chosenFeatureSchema, { maxItems: 20, description: 'For a text that names several places: the candidate chosen for each name.' })),
     distancePrecision: Type.Optional(Type.Number({ exclusiveMinimum: 0, maximum: 100000, description: 'Distance precision in the written unit (method §5.1: δ = precision / 2).' })),
     mapScale: Type.Optional(Type.Number({ minimum: 1, maximum: 100000000, description: 'Scale denominator of the map the coordinates were read from, e.g. 24000.' })),
