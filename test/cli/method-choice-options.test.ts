@@ -1,15 +1,20 @@
 /**
- * Method choices set from the command line: `whereabouts locate --route-kilometre-post <rule>` sets
- * [CHOICE routeKilometrePost] (docs/method.md, every choice in one list; our choice, no source) as the API's
- * options.routeKilometrePost does, and `whereabouts method` names the option. The real CLI in a child process
- * over a real SQLite file holding the demo gazetteer (invented, gazetteer/README.md).
+ * Method choices set from the command line: `--route-kilometre-post <rule>` of `locate`, `batch` and
+ * `cluster-script` sets [CHOICE routeKilometrePost] (docs/method.md, every choice in one list; our choice, no
+ * source) as the API's options.routeKilometrePost does; a batch job records the value it used, and `whereabouts
+ * method` names the option. The real CLI in a child process over a real SQLite file holding the demo gazetteer
+ * (invented, gazetteer/README.md). Verification statuses are Darwin Core's recommended values.
  */
 import { execFile } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { promisify } from 'node:util';
+import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { jobsDatabasePath } from '../../src/batch/index.ts';
+import { methodChoiceValues } from '../../src/georef/method-choices.ts';
+import { loadJob, openJobs } from '../../src/store/jobs.ts';
 
 const run = promisify(execFile);
 const root = new URL('../..', import.meta.url).pathname;
@@ -39,6 +44,34 @@ describe('locate --route-kilometre-post', () => {
 
   it('is named where `whereabouts method` lists the choice', async () => {
     const choices = JSON.parse((await whereabouts('method', '--json')).stdout) as { id: string; changedBy: string }[];
-    expect(choices.find((c) => c.id === 'routeKilometrePost')?.changedBy).toMatch(/CLI locate --route-kilometre-post; API options\.routeKilometrePost/);
+    expect(choices.find((c) => c.id === 'routeKilometrePost')?.changedBy).toMatch(/CLI locate, batch and cluster-script --route-kilometre-post; API options\.routeKilometrePost/);
+  });
+});
+
+describe('batch and cluster-script --route-kilometre-post', () => {
+  const input = join(dirname(db), 'routes.csv');
+  const batch = async (out: string, ...rule: string[]) => {
+    writeFileSync(input, 'occurrenceID,locality,countryCode,stateProvince\nk-1,"Puerto Lindo - Santa Rosa road, km 12",QV,Poniente\n');
+    await whereabouts('batch', input, '--out', join(dirname(db), out), '--quiet', ...rule);
+    return (parse(readFileSync(join(dirname(db), out)), { columns: true }) as Record<string, string>[])[0]!;
+  };
+
+  it('declines the route with a post when told, and the job records the rule it used', async () => {
+    expect((await batch('unset.csv')).georeferenceVerificationStatus).toBe('requires verification');
+    const declined = await batch('declined.csv', '--route-kilometre-post', 'decline');
+    expect(declined.georeferenceVerificationStatus).toBe('requires georeference');
+    expect(declined.decimalLatitude).toBe('');
+    const jobs = openJobs(jobsDatabasePath(db));
+    try {
+      const recorded = (jobs.prepare('SELECT id FROM batch_job ORDER BY started_at').all() as { id: string }[]).map(({ id }) => loadJob(jobs, id).methodChoices);
+      expect(recorded).toEqual([methodChoiceValues(), { ...methodChoiceValues(), routeKilometrePost: 'decline' }]);
+    } finally {
+      jobs.close();
+    }
+  });
+
+  it('passes the rule on to every task of a cluster script', async () => {
+    const { stdout } = await whereabouts('cluster-script', input, '--parts', '2', '--work-dir', join(dirname(db), 'parts'), '--out', join(dirname(db), 'merged.csv'), '--route-kilometre-post', 'decline');
+    expect(stdout).toMatch(/ batch [^\n]*\\\n[^]*--route-kilometre-post decline\n/);
   });
 });

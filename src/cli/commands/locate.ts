@@ -1,6 +1,7 @@
 import { existsSync } from 'node:fs';
-import { InvalidArgumentError, Option, type Command } from 'commander';
-import { ROUTE_KILOMETRE_POST_RULES, type RouteKilometrePostRule } from '../../georef/types.ts';
+import { InvalidArgumentError, type Command } from 'commander';
+import type { RouteKilometrePostRule } from '../../georef/types.ts';
+import { routeKilometrePostOption } from '../method-options.ts';
 import { readDatumOption } from '../../geodesy/datum-option.ts';
 import type { LocateResult } from '../../locate/locate.ts';
 import { ANSWER_FORMATS } from '../../output/formats.ts';
@@ -30,7 +31,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--map-scale <denominator>', 'scale of the map the coordinates were read from, e.g. 24000', Number)
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
-    .addOption(new Option('--route-kilometre-post <rule>', "a route between two places with a road kilometre post beside it and no road line: 'route' answers the whole route, the post not placed; 'decline' gives no georeference (`whereabouts method` gives the rule in force)").choices(ROUTE_KILOMETRE_POST_RULES))
+    .addOption(routeKilometrePostOption())
     .option('--json', 'print the HTTP API body as JSON')
     .option('--format <name>', `print the answer as a file instead: ${ANSWER_FORMATS.map((f) => f.extension).join(' or ')} (as POST /api/v1/georeference.<name> writes it)`)
     .action(async (text: string, opts: LocateCommandOptions) => {
