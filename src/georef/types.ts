@@ -58,6 +58,10 @@ export interface MethodOptions {
   nameAsFirstWords?: 'review' | 'answer';
   /** A place name found neither as written nor by another reading is read as an older spelling of its country's or text's language: 'on' (default) or 'off' ([CHOICE]). */
   olderSpellings?: 'on' | 'off';
+  /** A name found only as the first words of an official long form "X de <honoree>" of its stated state ("Texcoco" for Texcoco de Mora): read as its short form, 'on' (default) or 'off' ([CHOICE]). */
+  honoreeShortForms?: 'on' | 'off';
+  /** A text that is only the record's country's name in another language (Latin "Brasilia"), which a town also bears: 'review' (default, ambiguous) or 'town' ([CHOICE]). */
+  countryExonymTown?: 'review' | 'town';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */

@@ -139,7 +139,13 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
   const unit = unitNamed(interpretation, context);
-  if (unit) {
+  const townOfExonym = unit?.exonymLanguage ? townSharingName(finder, interpretation, context, options) : undefined;
+  const exonymRule = options.countryExonymTown ?? METHOD_DEFAULTS.countryExonymTown;
+  if (unit && townOfExonym && exonymRule === 'review') {
+    const reason = `"${unit.written}" is the ${unit.exonymLanguage} name of the record's country ${context.countryCode?.trim().toUpperCase()}, and also ${townOfExonym.towns}: which one the label means is left for a person to confirm, never answered as the town [CHOICE countryExonymTown, src/georef/method-defaults.ts]`;
+    return { status: 'ambiguous', interpretation, candidates: townOfExonym.candidates, reason };
+  }
+  if (unit && !(townOfExonym && exonymRule === 'town')) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
     if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
@@ -150,12 +156,14 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   // standing in): a reading it does not fit is resolved as if unedited, and the edit is refused only when the
   // reading used has not taken it. Readings tried but not used keep their candidates, for a person to choose from.
   const tried: ReadingsTried = { aside: [] };
-  const resolveEdited = (r: Interpretation) => judgedByKind(resolveFeatures(finder, r, context, options, edits, tried), r, kindRule);
+  const resolveEdited = (r: Interpretation, readingOptions: LocateOptions = options) => judgedByKind(resolveFeatures(finder, r, context, readingOptions, edits, tried), r, kindRule);
   // The reading's place, under its name or else its second name written in brackets, judged by its kind.
   // A named place that may be a route ("Ipala to Amatillo") is one name if the gazetteer holds it, else the
-  // route between its two ends (src/locate/route.ts) [CHOICE routeReading].
+  // route between its two ends (src/locate/route.ts) [CHOICE routeReading]. An end is not read by the short form
+  // of a longer name [CHOICE honoreeShortForms]: splitting the text is a guess already, and the two guesses
+  // together placed the one route they reached on the real records 60 km from the publisher's point.
   const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
-    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, resolveEdited);
+    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => resolveEdited(r, { ...options, honoreeShortForms: 'off' }));
     if ('decline' in routing && routing.final) return { reading, resolution: { ok: false, result: { status: routing.final, interpretation: reading, candidates: [], reason: routing.decline } } };
     if ('route' in routing) return { reading: routing.route, resolution: routing.resolved };
     const first = resolveEdited(reading);
@@ -228,6 +236,22 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
 }
 
 /**
+ * The town a name shares, found as written or by a documented reading (never by a near spelling), in
+ * plain words with the candidates; several such towns are named together; undefined when none is. For
+ * a country's name in another language that a town also bears.
+ * @example townSharingName(store, parseLocality('a Brasilia'), { countryCode: 'BR' }, {})?.towns // 'the town Brasília (city, Federal District, BR; …)'
+ */
+function townSharingName(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): { towns: string; candidates: Candidate[] } | undefined {
+  const resolved = resolveFeatures(finder, interpretation, context, options, {});
+  const candidates = resolved.ok ? resolved.candidates : resolved.result.candidates;
+  const taken = resolved.ok
+    ? (resolved.guessed ? [] : candidates.filter((c) => resolved.readings.flat().includes(c.feature)))
+    : resolved.result.status === 'ambiguous' ? candidates.filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore) : [];
+  if (taken.length === 0) return undefined;
+  return { towns: `${taken.length === 1 ? 'the town' : 'the towns'} ${taken.map(describeCandidate).join('; ')}`, candidates };
+}
+
+/**
  * A county or municipality named alone, with no polygon of it loaded: its seat, the one town of the unit's
  * name in the stated state, with the unit level's default extent added to the town's radius
  * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held. The town
@@ -241,7 +265,8 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
   if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
   for (const name of seatNames(unit)) {
     const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined, secondName: undefined };
-    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+    // Not by [CHOICE honoreeShortForms]: a seat whose own long form shortens to the unit's name is not taken (above).
+    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, { ...options, honoreeShortForms: 'off' }, {});
     if (!resolved.ok && resolved.result.status === 'not-found') continue;
     if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
     const level = unit.level === 'county' ? 'county' : 'municipality';
@@ -260,12 +285,13 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
 /**
  * The widening of a bare name (the whole text one place name, nothing else) found as a town that may be the
  * seat of a municipality of its name: the gazetteer records it in no county or municipality of another
- * name, and the record states none of another name [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
+ * name, and the record states none of another name (its short form, shortFormKey, is its name too) [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
  * @example seatWidening(parseLocality('Alisos'), townAlisos, { countryCode: 'QV' }, { bareNameSeatMeters: 20000 }) // { meters: 20000, remark: '"Alisos" is only a place name, …' }
  */
 function seatWidening(used: Interpretation, town: Feature, context: AdministrativeContext, options: LocateOptions): { meters: number; remark: string } | undefined {
   const meters = options.bareNameSeatMeters ?? METHOD_DEFAULTS.bareNameSeatMeters;
-  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name);
+  // A unit named by the town's short form ("Xalapa" for the town Xalapa de Enríquez) is of its own name too.
+  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name) || foldName(unit) === shortFormKey(town.name);
   if (!meters || used.clauses.length !== 1 || used.featureKind || !SETTLEMENTS.has(town.featureType ?? '')) return undefined;
   if (!ownName(town.county) || !ownName(context.county) || !ownName(context.municipality)) return undefined;
   const remark = `"${used.features[0]}" is only a place name, found as the town ${town.name}, which may be the seat of a municipality of that name: the radius widened by ${(meters / 1000).toFixed(0)} km, as the label may mean anywhere in the municipality [CHOICE bareNameSeatMeters, src/georef/method-defaults.ts]`;
@@ -561,8 +587,9 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
 }
 
 function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
-  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling.
-  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, language: interpretation.language };
+  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling;
+  // [CHOICE honoreeShortForms]: or by the short form of an official long name.
+  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms, language: interpretation.language };
   return interpretation.type === 'junction'
     ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
     : { name, context, ...spelling };
