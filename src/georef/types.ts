@@ -22,6 +22,10 @@ export interface UncertaintyComponents {
   unusedFeature?: number;
 }
 
+/** The rules of [CHOICE routeKilometrePost], as the CLI and the HTTP API accept them. */
+export const ROUTE_KILOMETRE_POST_RULES = ['route', 'decline'] as const;
+export type RouteKilometrePostRule = (typeof ROUTE_KILOMETRE_POST_RULES)[number];
+
 /** Settings of the method that the sources leave to the georeferencer ([CHOICE] in the method). */
 export interface MethodOptions {
   /** Uncertainty when the datum is not stated; default 5359 m (docs/method.md §5.4). */
@@ -45,7 +49,7 @@ export interface MethodOptions {
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
   settlementNamedLikeFeature?: 'settlement' | 'decline';
   /** A route between two places with a road kilometre post beside it: answered as the whole 'route' (default) or 'decline' ([CHOICE]). */
-  routeKilometrePost?: 'route' | 'decline';
+  routeKilometrePost?: RouteKilometrePostRule;
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
   /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
