@@ -260,8 +260,9 @@ export class CandidateMatcher {
     // Every stored token that matches a query token, closest and rarest first, as many as the posting
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
-    const matched = queryTokens
-      .flatMap((token, index) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize).matches.map((match) => ({ ...match, index })))
+    const views = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize));
+    const matched = views
+      .flatMap((view, index) => view.matches.map(({ id, edits, df, text }) => ({ id, edits, df, text, index })))
       .sort((a, b) => a.edits - b.edits || a.df - b.df);
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
@@ -317,7 +318,7 @@ export class CandidateMatcher {
       .slice(0, SHORTLIST)
       .map(({ id, weight }) => [id, weight] as const);
     const closest = this.closestNames(shortlist.map(([id]) => id), folded, reads.foldedNames);
-    const keysRead = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize).keysRead);
+    const keysRead = views.map((view) => view.keysRead);
     const neighboursLeftUnread = keysRead.some((read) => read !== 'all');
     const fewestEdits = Math.min(...[...closest.values()].map((entry) => entry.edits));
     // A lone word read within one edit: its two-edit neighbours could only come after the names

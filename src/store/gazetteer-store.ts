@@ -453,7 +453,7 @@ function sqliteNameIndex(s: Statements): NameIndex {
     postings: (tokenIds, countries, limit) => {
       if (countries !== null) return toPostings(s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit));
       // A statement a token, in token order, each row a bare feature id: better-sqlite3 builds a row's
-      // array in about the time SQLite takes to find ten postings (paired at 13 M names: half the time).
+      // array in about the time SQLite takes to find ten postings (measured at 13 M names: half the time).
       const rows: Posting[] = [];
       for (const token of [...new Set(tokenIds)].sort((a, b) => a - b)) {
         if (rows.length >= limit) break;
