@@ -8,9 +8,9 @@
  * token's length and the side (two edits leave one half within one edit; whole-token two-deletion
  * sets would be too large there). A query looks up its own zero-, one- and (from 6 letters)
  * two-deletion variants and the halves it would share with tokens of each length within two of its
- * own (see queryTokenKeys for which). So a query finds every stored token within one edit, and every stored token of 6 letters or
- * more within two. Keys are never shorter than 4 letters for two-edit matches, which keeps each
- * lookup selective in a vocabulary of hundreds of thousands of tokens.
+ * own (queryTokenKeys says which). So a query finds every stored token within one edit, and every
+ * stored token of 6 letters or more within two. Keys are never shorter than 4 letters for two-edit
+ * matches, which keeps each lookup selective in a vocabulary of hundreds of thousands of tokens.
  */
 
 /** Tokens shorter than this are found only exactly: one deletion of a 2-letter token matches too much. */
