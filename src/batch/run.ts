@@ -25,6 +25,7 @@ import type { RecordContext } from '../record/darwin-core.ts';
 import { methodChoiceValues } from '../georef/method-choices.ts';
 import { VERSION } from '../version.ts';
 import type { BatchSettings } from './georeference-group.ts';
+import type { RouteKilometrePostRule } from '../georef/types.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { fileHead, notText } from '../store/file-kind.ts';
 import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
@@ -59,6 +60,8 @@ export interface BatchJobOptions {
   delimiter?: Delimiter;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  /** The method choice routeKilometrePost for this job (src/georef/method-defaults.ts); the method's own rule when left out. */
+  routeKilometrePost?: RouteKilometrePostRule;
   /**
    * Worker threads for the distinct localities. Default: one a core but one, as the main thread reads and
    * writes the rows meanwhile (on 2 cores, 1 worker keeps both busy within the 500 MB memory target).
@@ -189,6 +192,7 @@ function settingsOf(options: BatchJobOptions): string {
   const settings: BatchSettings & { generalise?: GeneralisationSettings } = {
     administrativeFallback: Boolean(options.administrativeFallback), coverAmbiguous: Boolean(options.coverAmbiguous),
     // Only when asked, so that the settings (and with them an unfinished job's identity) are as before otherwise.
+    ...(options.routeKilometrePost ? { routeKilometrePost: options.routeKilometrePost } : {}),
     ...(options.generalise ? { generalise: options.generalise } : {}),
   };
   return JSON.stringify(settings);
@@ -249,7 +253,7 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     }
     const id = randomUUID().slice(0, 8);
     const job: BatchJob = {
-      ...like, methodChoices: methodChoiceValues(), id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
+      ...like, methodChoices: { ...methodChoiceValues(), ...(options.routeKilometrePost ? { routeKilometrePost: options.routeKilometrePost } : {}) }, id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
       partialPath: outputPath === '-' ? join(dirname(jobsPath), `whereabouts-job-${id}.partial`) : `${outputPath}.${id}.partial`,
       gazetteerPath: resolve(options.dbPath), runTimestamp: options.runTimestamp ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'), rowsTotal: null, rowsDone: 0,
       outputBytes: 0, distinctTotal: null, distinctDone: 0, tallies: {}, startedAt: new Date().toISOString(), finishedAt: null, error: null,

@@ -126,7 +126,8 @@ export const METHOD_DEFAULTS = {
    * Springs) [CHOICE]: 'review' gives no georeference and marks it ambiguous, to be confirmed by a person;
    * 'answer' takes the longer name as a near spelling, with a remark. A longer name is most often another place
    * named after the first (a town after its region, lake or range), far from it. Chosen by measurement on the
-   * real-record sets (README "On real records").
+   * real-record sets (README "On real records"). The official long forms "X de <honoree>" are read by
+   * honoreeShortForms before this applies.
    */
   nameAsFirstWords: 'review',
   /**
@@ -138,4 +139,24 @@ export const METHOD_DEFAULTS = {
    * sets (README "On real records").
    */
   olderSpellings: 'on' as 'on' | 'off',
+  /**
+   * A name found only as the first words of a longer name that is it followed by "de" or "del" and the
+   * surname or title of a person honoured, in a Spanish-speaking country ("Texcoco" for Texcoco de Mora,
+   * "Jalapa" for Xalapa de Enríquez: an official long form whose town labels call by its own name) [CHOICE]:
+   * 'on' reads it as that town, a documented reading named in the remarks, but only inside a stated state
+   * and only when no other loaded place of that state begins with the name (src/match/short-form.ts);
+   * 'off' leaves it to the near-spelling search and nameAsFirstWords. Chosen by measurement on the
+   * real-record sets (README "On real records").
+   */
+  honoreeShortForms: 'on' as 'on' | 'off',
+  /**
+   * A text that is only the record's country's name in another language than the four read throughout
+   * (German, Italian or Dutch from CLDR; Latin from memory), written with its own accents ("a Brasilia",
+   * Latin for Brazil), names the country, not a town; when a town also bears that name as written or by
+   * a documented reading (the capital Brasília) [CHOICE]: 'review' gives no georeference and marks it
+   * ambiguous, to be confirmed by a person; 'town' takes the town as any name. The town written with its
+   * own accents ("Brasília") is not the country's name and stays the town. Chosen by measurement on the
+   * real-record sets (README "On real records").
+   */
+  countryExonymTown: 'review' as 'review' | 'town',
 } as const satisfies Record<string, number | string>;

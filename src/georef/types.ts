@@ -22,6 +22,10 @@ export interface UncertaintyComponents {
   unusedFeature?: number;
 }
 
+/** The rules of [CHOICE routeKilometrePost], as the CLI and the HTTP API accept them. */
+export const ROUTE_KILOMETRE_POST_RULES = ['route', 'decline'] as const;
+export type RouteKilometrePostRule = (typeof ROUTE_KILOMETRE_POST_RULES)[number];
+
 /** Settings of the method that the sources leave to the georeferencer ([CHOICE] in the method). */
 export interface MethodOptions {
   /** Uncertainty when the datum is not stated; default 5359 m (docs/method.md §5.4). */
@@ -45,7 +49,7 @@ export interface MethodOptions {
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */
   settlementNamedLikeFeature?: 'settlement' | 'decline';
   /** A route between two places with a road kilometre post beside it: answered as the whole 'route' (default) or 'decline' ([CHOICE]). */
-  routeKilometrePost?: 'route' | 'decline';
+  routeKilometrePost?: RouteKilometrePostRule;
   /** Features of one name all within this distance of one another are covered by one circle; default 30 km ([CHOICE]). */
   namesakesWithinMeters?: number;
   /** A text that is only a name, found only by a near spelling: 'review' (default, ambiguous) or 'answer' ([CHOICE]). */
@@ -54,6 +58,10 @@ export interface MethodOptions {
   nameAsFirstWords?: 'review' | 'answer';
   /** A place name found neither as written nor by another reading is read as an older spelling of its country's or text's language: 'on' (default) or 'off' ([CHOICE]). */
   olderSpellings?: 'on' | 'off';
+  /** A name found only as the first words of an official long form "X de <honoree>" of its stated state ("Texcoco" for Texcoco de Mora): read as its short form, 'on' (default) or 'off' ([CHOICE]). */
+  honoreeShortForms?: 'on' | 'off';
+  /** A text that is only the record's country's name in another language (Latin "Brasilia"), which a town also bears: 'review' (default, ambiguous) or 'town' ([CHOICE]). */
+  countryExonymTown?: 'review' | 'town';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */

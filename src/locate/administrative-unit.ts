@@ -5,8 +5,8 @@
  * gazetteer is reached only through the CandidateFinder it is given.
  */
 import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
-import { countryCodeForName, shortFormKey } from '../match/context.ts';
-import { foldName } from '../match/fold.ts';
+import { countryCodeForName, countryExonymLanguage, shortFormKey } from '../match/context.ts';
+import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
 
@@ -40,10 +40,20 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
   }
   // "Comitán" for the record's county "Comitán de Domínguez": the unit's short form names it too.
   if (context.county && shortFormKey(context.county) === key) return { name: context.county, level: 'county', written };
-  // A record with only a country code: the country's name in any of the four languages ("Brasil").
+  // A record with only a country code: the country's name in any of the four languages ("Brasil"), or
+  // in another language of older labels ("a Brasilia", Latin), after a leading article or "a" ("from").
   const code = context.countryCode?.trim().toUpperCase();
-  if (code && countryCodeForName(written) === code) return { name: written, level: 'country', written };
-  return null;
+  if (!code) return null;
+  const name = withoutLeadingArticle(written);
+  if (countryCodeForName(name) === code) return { name, level: 'country', written };
+  const exonymLanguage = countryExonymLanguage(name, code);
+  return exonymLanguage ? { name, level: 'country', written, exonymLanguage } : null;
+}
+
+/** The name without a leading article ("o Brasil", "the United States"); a lone word is kept. */
+function withoutLeadingArticle(written: string): string {
+  const words = written.trim().split(/\s+/);
+  return words.length > 1 && LEADING_ARTICLES.has(foldName(words[0]!)) ? words.slice(1).join(' ') : written.trim();
 }
 
 /**

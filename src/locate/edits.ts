@@ -15,7 +15,10 @@ export interface ChosenFeature extends FeatureKey {
 }
 
 export interface LocateEdits {
-  /** One chosen feature per name at most; each must be among the candidates offered for its name. */
+  /**
+   * One chosen feature per name at most; each must be among the candidates of a reading the answer tries: the
+   * text's first name, its second name in brackets, or a later clause standing in for a missing place.
+   */
   chosenFeatures?: ChosenFeature[];
   /** Distance precision in the written unit of the distance (method §5.1: δ = precision / 2). */
   distancePrecision?: number;

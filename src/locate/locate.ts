@@ -12,7 +12,7 @@ import { coverGeoreferences } from '../georef/cover.ts';
 import { georeference } from '../georef/georeference.ts';
 import type { Georeference, MethodOptions, UncertaintyComponents } from '../georef/types.ts';
 import type { LocateStatus } from '../record/verification-status.ts';
-import { chosenFeatureFor, EditRefused, withDistancePrecision, type LocateEdits } from './edits.ts';
+import { chosenFeatureFor, EditRefused, withDistancePrecision, type EditProblem, type LocateEdits } from './edits.ts';
 import { readDatumOption } from '../geodesy/datum-option.ts';
 import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
@@ -139,23 +139,37 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
   const unit = unitNamed(interpretation, context);
-  if (unit) {
+  const townOfExonym = unit?.exonymLanguage ? townSharingName(finder, interpretation, context, options) : undefined;
+  const exonymRule = options.countryExonymTown ?? METHOD_DEFAULTS.countryExonymTown;
+  if (unit && townOfExonym && exonymRule === 'review') {
+    const reason = `"${unit.written}" is the ${unit.exonymLanguage} name of the record's country ${context.countryCode?.trim().toUpperCase()}, and also ${townOfExonym.towns}: which one the label means is left for a person to confirm, never answered as the town [CHOICE countryExonymTown, src/georef/method-defaults.ts]`;
+    return { status: 'ambiguous', interpretation, candidates: townOfExonym.candidates, reason };
+  }
+  if (unit && !(townOfExonym && exonymRule === 'town')) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
     if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
   const kindRule = options.settlementNamedLikeFeature ?? METHOD_DEFAULTS.settlementNamedLikeFeature;
+  // The georeferencer's chosen feature may be a candidate of any reading tried (a second name, a later clause
+  // standing in): a reading it does not fit is resolved as if unedited, and the edit is refused only when the
+  // reading used has not taken it. Readings tried but not used keep their candidates, for a person to choose from.
+  const tried: ReadingsTried = { aside: [] };
+  const resolveEdited = (r: Interpretation, readingOptions: LocateOptions = options) => judgedByKind(resolveFeatures(finder, r, context, readingOptions, edits, tried), r, kindRule);
   // The reading's place, under its name or else its second name written in brackets, judged by its kind.
   // A named place that may be a route ("Ipala to Amatillo") is one name if the gazetteer holds it, else the
-  // route between its two ends (src/locate/route.ts) [CHOICE routeReading].
+  // route between its two ends (src/locate/route.ts) [CHOICE routeReading]. An end is not read by the short form
+  // of a longer name [CHOICE honoreeShortForms]: splitting the text is a guess already, and the two guesses
+  // together placed the one route they reached on the real records 60 km from the publisher's point.
   const resolveReading = (reading: Interpretation): { reading: Interpretation; resolution: Resolution } => {
-    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => judgedByKind(resolveFeatures(finder, r, context, options, edits), r, kindRule));
+    const routing = routeJudgement(finder, reading, context, options, FUZZY_ACCEPTANCE.readingScore, (r) => resolveEdited(r, { ...options, honoreeShortForms: 'off' }));
     if ('decline' in routing && routing.final) return { reading, resolution: { ok: false, result: { status: routing.final, interpretation: reading, candidates: [], reason: routing.decline } } };
     if ('route' in routing) return { reading: routing.route, resolution: routing.resolved };
-    const first = judgedByKind(resolveFeatures(finder, reading, context, options, edits), reading, kindRule);
+    const first = resolveEdited(reading);
     const second = !first.ok && first.result.status === 'not-found' ? secondNameReading(reading, context) : undefined;
-    const attempt = second && judgedByKind(resolveFeatures(finder, second, context, options, edits), second, kindRule);
+    const attempt = second && resolveEdited(second);
+    if (attempt && !attempt.ok && attempt.result.status === 'ambiguous') tried.aside.push({ what: `its second name written in brackets, "${second!.features[0]}",`, candidates: attempt.result.candidates, why: attempt.result.reason });
     if (!attempt?.ok && 'decline' in routing && !first.ok && first.result.status === 'not-found') return { reading, resolution: { ...first, result: { ...first.result, reason: routing.decline } } };
     if (!attempt?.ok) return { reading, resolution: first };
     return { reading: second!, resolution: { ...attempt, candidates: [...(first.ok ? [] : first.result.candidates), ...attempt.candidates] } };
@@ -170,16 +184,24 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     const { reading, resolution: attempt } = resolveReading(standIn);
     // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
-    if (!attempt.ok || !fallbackAllowed(attempt, context)) continue;
+    // A feature the georeferencer chose for it is no guess.
+    const refused = attempt.ok ? standInRefused(attempt, context) : undefined;
+    if (!attempt.ok || (refused && attempt.chosenNotes.length === 0)) {
+      if (attempt.ok) tried.aside.push({ what, candidates: attempt.candidates, why: refused });
+      else if (attempt.result.status === 'ambiguous') tried.aside.push({ what, candidates: attempt.result.candidates, why: attempt.result.reason });
+      continue;
+    }
     fallbackFrom = { name: interpretation.features.join('", "'), as: missed!.missingAs };
     const where = missed!.missingAs
       ? `is not in the loaded gazetteers ${missed!.missingAs}, only as a settlement that shares its name`
       : missed!.result.reason?.includes('is loaded only outside') ? 'is loaded only outside the record\'s stated units' : 'is not in the loaded gazetteers';
-    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom.name}" ${where}: ${what} is used instead`] };
+    const onChoice = refused ? ` on the georeferencer's choice of its feature (else not taken: ${refused})` : '';
+    used = { ...reading, notes: [...reading.notes, `"${fallbackFrom.name}" ${where}: ${what} is used instead${onChoice}`] };
     resolved = { ...attempt, candidates: [...missed!.result.candidates, ...attempt.candidates] };
     break;
   }
-  if (!resolved.ok) return resolved.result;
+  if (tried.refused && !(resolved.ok && resolved.chosenNotes.length > 0)) throw new EditRefused(tried.refused);
+  if (!resolved.ok) return withReadingsAside(resolved.result, tried.aside);
   const { candidates, readings, matchRemarks, chosenNotes } = resolved;
   if (chosenNotes.length) used = { ...used, notes: [...used.notes, ...chosenNotes] };
 
@@ -214,6 +236,22 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
 }
 
 /**
+ * The town a name shares, found as written or by a documented reading (never by a near spelling), in
+ * plain words with the candidates; several such towns are named together; undefined when none is. For
+ * a country's name in another language that a town also bears.
+ * @example townSharingName(store, parseLocality('a Brasilia'), { countryCode: 'BR' }, {})?.towns // 'the town Brasília (city, Federal District, BR; …)'
+ */
+function townSharingName(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): { towns: string; candidates: Candidate[] } | undefined {
+  const resolved = resolveFeatures(finder, interpretation, context, options, {});
+  const candidates = resolved.ok ? resolved.candidates : resolved.result.candidates;
+  const taken = resolved.ok
+    ? (resolved.guessed ? [] : candidates.filter((c) => resolved.readings.flat().includes(c.feature)))
+    : resolved.result.status === 'ambiguous' ? candidates.filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore) : [];
+  if (taken.length === 0) return undefined;
+  return { towns: `${taken.length === 1 ? 'the town' : 'the towns'} ${taken.map(describeCandidate).join('; ')}`, candidates };
+}
+
+/**
  * A county or municipality named alone, with no polygon of it loaded: its seat, the one town of the unit's
  * name in the stated state, with the unit level's default extent added to the town's radius
  * [CHOICE unitSeatMeters]; null when the choice is 0, the level is wider, or no such town is held. The town
@@ -227,7 +265,8 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
   if (!meters || !context.stateProvince || (unit.level !== 'county' && unit.level !== 'municipality')) return null;
   for (const name of seatNames(unit)) {
     const town: Interpretation = { ...interpretation, type: 'named-place', features: [name], otherClauses: [], featureKind: undefined, secondName: undefined };
-    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, options, {});
+    // Not by [CHOICE honoreeShortForms]: a seat whose own long form shortens to the unit's name is not taken (above).
+    const resolved = resolveFeatures(finder, town, { ...context, [unit.level]: undefined }, { ...options, honoreeShortForms: 'off' }, {});
     if (!resolved.ok && resolved.result.status === 'not-found') continue;
     if (!resolved.ok || resolved.guessed || resolved.readings[0]?.length !== 1) return null;
     const level = unit.level === 'county' ? 'county' : 'municipality';
@@ -246,12 +285,13 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
 /**
  * The widening of a bare name (the whole text one place name, nothing else) found as a town that may be the
  * seat of a municipality of its name: the gazetteer records it in no county or municipality of another
- * name, and the record states none of another name [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
+ * name, and the record states none of another name (its short form, shortFormKey, is its name too) [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
  * @example seatWidening(parseLocality('Alisos'), townAlisos, { countryCode: 'QV' }, { bareNameSeatMeters: 20000 }) // { meters: 20000, remark: '"Alisos" is only a place name, …' }
  */
 function seatWidening(used: Interpretation, town: Feature, context: AdministrativeContext, options: LocateOptions): { meters: number; remark: string } | undefined {
   const meters = options.bareNameSeatMeters ?? METHOD_DEFAULTS.bareNameSeatMeters;
-  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name);
+  // A unit named by the town's short form ("Xalapa" for the town Xalapa de Enríquez) is of its own name too.
+  const ownName = (unit: string | null | undefined) => !unit || foldName(unit) === foldName(town.name) || foldName(unit) === shortFormKey(town.name);
   if (!meters || used.clauses.length !== 1 || used.featureKind || !SETTLEMENTS.has(town.featureType ?? '')) return undefined;
   if (!ownName(town.county) || !ownName(context.county) || !ownName(context.municipality)) return undefined;
   const remark = `"${used.features[0]}" is only a place name, found as the town ${town.name}, which may be the seat of a municipality of that name: the radius widened by ${(meters / 1000).toFixed(0)} km, as the label may mean anywhere in the municipality [CHOICE bareNameSeatMeters, src/georef/method-defaults.ts]`;
@@ -278,12 +318,42 @@ function standInReadings(interpretation: Interpretation, context: Administrative
 }
 
 /**
- * A stand-in for a missing place: every name found as written or by a documented reading of it (an
- * abbreviation, a generic word left out: FUZZY_ACCEPTANCE.readingScore), never a near spelling or a place
- * outside the stated units, and inside a stated state, county or municipality.
+ * Why a stand-in for a missing place is not taken, or undefined when it is: it must be found as written or
+ * by a documented reading of it (an abbreviation, a generic word left out: FUZZY_ACCEPTANCE.readingScore),
+ * never a near spelling or a place outside the stated units, and inside a stated state, county or municipality.
+ * @example standInRefused(resolved, { countryCode: 'QV' }) // 'the record states no state, county or municipality …'
  */
-function fallbackAllowed(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): boolean {
-  return !resolution.guessed && !!(context.stateProvince || context.county || context.municipality);
+function standInRefused(resolution: Extract<Resolution, { ok: true }>, context: AdministrativeContext): string | undefined {
+  if (resolution.guessed) return 'found only by a near spelling, as one of several, or outside the stated units';
+  if (!(context.stateProvince || context.county || context.municipality)) return 'the record states no state, county or municipality, and a name met anywhere in the country is too often another place';
+  return undefined;
+}
+
+/** The readings a not-found answer tried and set aside, and an edit that did not fit a reading tried. */
+interface ReadingsTried {
+  aside: { what: string; candidates: Candidate[]; why?: string }[];
+  refused?: EditProblem;
+}
+
+/**
+ * A not-found answer with the candidates of the readings it set aside (a second name or a later clause
+ * matching several features, a later clause found but not taken), so that a person may choose among them,
+ * and the reason saying why each was set aside.
+ * @example withReadingsAside(notFound, [{ what: 'the next clause, "Los Pinos",', candidates, why: '"Los Pinos" matches several features: …' }]).reason
+ *   // 'no feature named "Villa Quimera" …; the next clause, "Los Pinos", was tried: "Los Pinos" matches several features: …'
+ */
+function withReadingsAside(result: LocateResult, aside: ReadingsTried['aside']): LocateResult {
+  if (result.status !== 'not-found' || aside.length === 0) return result;
+  const key = (c: Candidate) => `${c.feature.sourceId}:${c.feature.featureId}`;
+  const listed = new Set(result.candidates.map(key));
+  const candidates = [...result.candidates];
+  for (const candidate of aside.flatMap((a) => a.candidates)) {
+    if (listed.has(key(candidate))) continue;
+    listed.add(key(candidate));
+    candidates.push(candidate);
+  }
+  const reason = [result.reason, ...aside.map((a) => `${a.what} was tried: ${a.why}`)].filter(Boolean).join('; ');
+  return { ...result, candidates, reason };
 }
 
 type Resolution =
@@ -311,8 +381,24 @@ function judgedByKind(resolution: Resolution, reading: Interpretation, rule: 'se
   return { ...resolution, matchRemarks: [...new Set([...resolution.matchRemarks, ...remarks])] };
 }
 
+/**
+ * `resolveNames` with the georeferencer's chosen features. A reading they do not fit (they are candidates of
+ * its second name or of a later clause standing in for it) is resolved as if unedited, the first refusal kept
+ * in `tried` for the caller, who raises it when the reading used has not taken the edit; without `tried` it is raised here.
+ */
+function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits, tried?: ReadingsTried): Resolution {
+  if (!edits.chosenFeatures?.length || !tried) return resolveNames(finder, interpretation, context, options, edits);
+  try {
+    return resolveNames(finder, interpretation, context, options, edits);
+  } catch (error) {
+    if (!(error instanceof EditRefused)) throw error;
+    tried.refused ??= error.problem;
+    return resolveNames(finder, interpretation, context, options, {});
+  }
+}
+
 /** For each name of the reading, the features it may mean: one when resolved, several only with coverAmbiguous. */
-function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {
+function resolveNames(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions, edits: LocateEdits): Resolution {
   const candidates: Candidate[] = [];
   const readings: Feature[][] = [];
   const matchRemarks: string[] = [];
@@ -327,7 +413,7 @@ function resolveFeatures(finder: CandidateFinder, interpretation: Interpretation
     const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
     if (chosen) {
       readings.push([chosen.feature]);
-      chosenNotes.push(`feature chosen by the georeferencer: ${chosen.feature.name} (${chosen.feature.sourceId}:${chosen.feature.featureId})`);
+      chosenNotes.push(`feature chosen by the georeferencer: ${chosen.feature.name} (${chosen.feature.sourceId}:${chosen.feature.featureId}) for "${name}"`);
       continue;
     }
     const choice = chooseCandidate(found);
@@ -501,8 +587,9 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
 }
 
 function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
-  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling.
-  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, language: interpretation.language };
+  // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling;
+  // [CHOICE honoreeShortForms]: or by the short form of an official long name.
+  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms, language: interpretation.language };
   return interpretation.type === 'junction'
     ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
     : { name, context, ...spelling };

@@ -8,11 +8,12 @@ import { contextMismatch, resolveContext, type ResolvedContext } from './context
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS, type NameVariant } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
-import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
+import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
 import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms } from './older-spelling.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
+import { honoreeCountry, honoreeLongForm } from './short-form.ts';
 import { unitPolygonFilter } from './unit-polygons.ts';
 
 const DEFAULT_LIMIT = 10;
@@ -128,11 +129,12 @@ export class CandidateMatcher {
     const context = this.resolve(query, notes);
     const dropped: DroppedCandidate[] = [];
     const constraint = unitPolygonFilter(query, context, notes, (name) => this.exactCandidates(name), (feature) => this.index.attachGeometry(feature));
+    const misfit = (feature: Feature): string | null => contextMismatch(feature, context, constraint.decided) ?? constraint.outside(feature);
     const fits = (candidate: Candidate): boolean => {
       const feature = candidate.feature;
       if (query.featureTypes !== undefined && (feature.featureType === null || !query.featureTypes.includes(feature.featureType))) return false;
       if (query.geometryTypes !== undefined && !query.geometryTypes.includes(feature.geometryType)) return false;
-      const reason = contextMismatch(feature, context, constraint.decided) ?? constraint.outside(feature);
+      const reason = misfit(feature);
       if (reason !== null) {
         if (dropped.length < MAX_DROPPED) dropped.push({ candidate, reason });
         return false;
@@ -148,8 +150,9 @@ export class CandidateMatcher {
     const exact = this.exactCandidates(query.name, filtered ? undefined : limit).filter(fits);
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const older = exact.length > 0 || query.olderSpellings !== 'on' ? [] : this.olderSpellingCandidates(query, context).filter(fits);
-    const read = exact.length > 0 ? exact : older;
-    const candidates = read.length > 0 ? read : this.fuzzyCandidates(query.name, context, pool).filter(fits);
+    const written = exact.length > 0 ? exact : older;
+    const read = written.length > 0 || query.honoreeShortForms !== 'on' ? written : this.shortFormCandidates(query, context, (feature) => misfit(feature) === null).filter(fits);
+    const candidates = read.length > 0 || query.nearSpellings === 'off' ? read : this.fuzzyCandidates(query.name, context, pool).filter(fits);
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
@@ -207,6 +210,40 @@ export class CandidateMatcher {
     const readings = nameVariants(query.name).flatMap((variant) => olderSpellingReadings(variant.key, reforms)
       .map((older) => ({ key: older.key, change: variant.change ? `${variant.change}, ${older.change}` : older.change })));
     return this.candidatesByKeys(readings.slice(0, MAX_OLDER_SPELLINGS));
+  }
+
+  /**
+   * Features named "<the name, or its older spelling> de|del <honoree>" in a Spanish-speaking country
+   * (short-form.ts), read only inside a stated state and only when no other feature the context keeps
+   * (`kept`) begins with that name: "Texcoco" for Texcoco de Mora, "Jalapa" for Xalapa de Enríquez.
+   * The features beginning with a name are read through the postings of its rarest word; a word too
+   * common for the posting budget leaves the name unread (its state could not be checked).
+   */
+  private shortFormCandidates(query: CandidateQuery, context: ResolvedContext, kept: (feature: Feature) => boolean): Candidate[] {
+    if (context.stateProvinceKey === undefined) return [];
+    const folded = foldName(query.name);
+    const older = query.olderSpellings === 'on' ? olderSpellingReadings(folded, spellingReforms(context.countryCodes, query.language)).slice(0, MAX_OLDER_SPELLINGS) : [];
+    const found: Candidate[] = [];
+    for (const reading of [{ key: folded } as NameVariant, ...older]) {
+      const words = reading.key.split(' ').map((word) => this.index.token(word));
+      if (reading.key === '' || words.some((word) => word === undefined)) continue;
+      const rarest = (words as IndexedToken[]).reduce((a, b) => (b.df < a.df ? b : a));
+      if (rarest.df > POSTING_BUDGET) return [];
+      const ids = [...new Set(this.index.postings([rarest.id], countryList(context), POSTING_BUDGET).map((posting) => posting.feature))];
+      const longer = this.index.namesOf(ids).filter(({ names }) => names.some((name) => foldName(name).startsWith(`${reading.key} `)));
+      const features = longer.length === 0 ? new Map<number, Feature>() : this.index.features(longer.map(({ id }) => id));
+      for (const { id, names } of longer) {
+        const feature = features.get(id);
+        if (feature === undefined || !kept(feature)) continue;
+        const long = names.find((name) => honoreeLongForm(name, reading.key));
+        // Another place of the state begins with the name: which one the text means is for a person to say.
+        if (long === undefined || !honoreeCountry(feature.countryCode)) return [];
+        const which = long === feature.name ? 'name' : `alternate name '${long}'`;
+        const changes = [reading.change && `${reading.change} in the query`, `'${reading.key}' read as the short form of the official long form "X de <honoree>" [CHOICE honoreeShortForms, src/georef/method-defaults.ts]`].filter(Boolean);
+        found.push({ feature, score: READING_SCORE, matchedName: long, why: `exact ${which} with ${changes.join('; ')}` });
+      }
+    }
+    return found;
   }
 
   /** Features whose folded name, alternate name or one of their readings equals one of the keys (`enough` as for exactCandidates). */

@@ -18,20 +18,81 @@ let countryNameIndex: Map<string, string> | undefined;
 export function countryCodeForName(name: string): string | null {
   if (countryNameIndex === undefined) {
     countryNameIndex = new Map();
-    const displays = DISPLAY_LANGUAGES.map((language) => new Intl.DisplayNames([language], { type: 'region', fallback: 'none' }));
-    for (let first = 65; first <= 90; first++) {
-      for (let second = 65; second <= 90; second++) {
-        const code = String.fromCharCode(first, second);
-        for (const display of displays) {
-          const display_name = display.of(code);
-          if (display_name !== undefined && display_name !== code) countryNameIndex.set(foldName(display_name), code);
-        }
-      }
-    }
+    for (const { code, name: regionName } of regionNames(DISPLAY_LANGUAGES)) countryNameIndex.set(foldName(regionName), code);
   }
   const folded = foldName(name);
   if (/^[a-z]{2}$/.test(folded)) return folded.toUpperCase();
   return countryNameIndex.get(folded) ?? null;
+}
+
+/**
+ * Every two-letter region code that CLDR names in the languages (Node's Intl), with its name in each,
+ * code by code and, for one code, in the order of the languages.
+ * @example regionNames(['en']).find((r) => r.code === 'BR') // { code: 'BR', name: 'Brazil', language: 'en' }
+ */
+function regionNames(languages: readonly string[]): { code: string; name: string; language: string }[] {
+  const displays = languages.map((language) => ({ language, display: new Intl.DisplayNames([language], { type: 'region', fallback: 'none' }) }));
+  const names: { code: string; name: string; language: string }[] = [];
+  for (let first = 65; first <= 90; first++) {
+    for (let second = 65; second <= 90; second++) {
+      const code = String.fromCharCode(first, second);
+      for (const { language, display } of displays) {
+        const name = display.of(code);
+        if (name !== undefined && name !== code) names.push({ code, name, language });
+      }
+    }
+  }
+  return names;
+}
+
+/**
+ * Languages whose country names stand on older labels beside the four read throughout: German, Italian
+ * and Dutch, from the CLDR region names Node's Intl carries (labels of European herbaria are often
+ * written in them; common practice, no source).
+ */
+const EXONYM_LANGUAGES = ['de', 'it', 'nl'] as const;
+
+/**
+ * Latin names of countries written on older labels, which CLDR does not carry: from memory (the
+ * New Latin names of the Americas' countries), so short and only where the Latin differs from the
+ * names in the other languages.
+ */
+const LATIN_COUNTRY_NAMES: Readonly<Record<string, readonly string[]>> = {
+  BR: ['Brasilia'], MX: ['Mexicum'], PY: ['Paraquaria'], UY: ['Uruguaia'], PE: ['Peruvia'], CO: ['Columbia'],
+  VE: ['Venetiola'], CL: ['Chilia'], EC: ['Aequatoria'], GT: ['Guatimala'], US: ['Civitates Foederatae Americae'],
+};
+
+let exonymIndex: Map<string, Map<string, string>> | undefined;
+
+/** Case and spacing folded, accents kept: "Brasília" (the capital) stays apart from "Brasilia" (Latin for Brazil). */
+function caseFolded(name: string): string {
+  return name.normalize('NFC').toLocaleLowerCase('und').replace(/\s+/g, ' ').trim();
+}
+
+/**
+ * The language in which `name` is, letter for letter (case aside, accents kept), another name of the
+ * country `code` than those of the four languages (countryCodeForName): its German, Italian or Dutch
+ * name from CLDR, or its Latin name (LATIN_COUNTRY_NAMES, from memory); null when it is none of them.
+ * Accents are kept because such a name is often also a town's, which a label writes with its accents;
+ * what a name so found does when a town bears it too is [CHOICE countryExonymTown, src/georef/method-defaults.ts].
+ * @example countryExonymLanguage('Brasilia', 'BR') // 'Latin'
+ * @example countryExonymLanguage('Brasília', 'BR') // null (the spelling of the capital)
+ * @example countryExonymLanguage('Brasilien', 'BR') // 'German'
+ */
+export function countryExonymLanguage(name: string, code: string): string | null {
+  if (exonymIndex === undefined) {
+    exonymIndex = new Map();
+    const add = (country: string, exonym: string, language: string) => {
+      if (countryCodeForName(exonym) === country) return;
+      const names = exonymIndex!.get(country) ?? new Map<string, string>();
+      if (!names.has(caseFolded(exonym))) names.set(caseFolded(exonym), language);
+      exonymIndex!.set(country, names);
+    };
+    const languageNames = new Intl.DisplayNames(['en'], { type: 'language' });
+    for (const { code, name: exonym, language } of regionNames(EXONYM_LANGUAGES)) add(code, exonym, languageNames.of(language) ?? language);
+    for (const [country, exonyms] of Object.entries(LATIN_COUNTRY_NAMES)) for (const exonym of exonyms) add(country, exonym, 'Latin');
+  }
+  return exonymIndex.get(code.toUpperCase())?.get(caseFolded(name)) ?? null;
 }
 
 /** Words that name the kind of unit rather than the unit ("Provincia de Salta" = "Salta"); common practice, no source. */

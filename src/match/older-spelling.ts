@@ -59,10 +59,13 @@ const RULES: readonly SpellingRule[] = [
 
 const SOURCES: Record<SpellingReform, string> = { portuguese: PORTUGUESE_SOURCE, spanish: SPANISH_SOURCE };
 
+/** Countries where Spanish is the official language (ISO 3166-1 alpha-2; Puerto Rico with English). */
+export const SPANISH_SPEAKING_COUNTRIES: ReadonlySet<string> = new Set(['AR', 'BO', 'CL', 'CO', 'CR', 'CU', 'DO', 'EC', 'ES', 'GQ', 'GT', 'HN', 'MX', 'NI', 'PA', 'PE', 'PR', 'PY', 'SV', 'UY', 'VE']);
+
 /** Countries whose place names follow each reform (ISO 3166-1 alpha-2): Portuguese for Brazil and Portugal, Spanish where it is the official language. */
 const COUNTRIES: Record<SpellingReform, ReadonlySet<string>> = {
   portuguese: new Set(['BR', 'PT']),
-  spanish: new Set(['AR', 'BO', 'CL', 'CO', 'CR', 'CU', 'DO', 'EC', 'ES', 'GQ', 'GT', 'HN', 'MX', 'NI', 'PA', 'PE', 'PR', 'PY', 'SV', 'UY', 'VE']),
+  spanish: SPANISH_SPEAKING_COUNTRIES,
 };
 const LANGUAGES: Partial<Record<Language, SpellingReform>> = { pt: 'portuguese', es: 'spanish' };
 

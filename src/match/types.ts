@@ -113,6 +113,17 @@ export interface CandidateQuery {
   olderSpellings?: 'on' | 'off';
   /** The language of the text the name was read from, when known (which older spellings apply). */
   language?: import('../parse/types.ts').Language;
+  /**
+   * 'off': only the name as written and its documented readings, no near-spelling search (default 'on').
+   * What a gazetteer holds under a name, as a measure asks it (test/real/harness.ts, answerability).
+   */
+  nearSpellings?: 'on' | 'off';
+  /**
+   * When the name is found neither as written nor as an older spelling, also read it as the short form
+   * of a Spanish-speaking country's official long form "X de <honoree>" inside the stated state
+   * (src/match/short-form.ts): 'on' or 'off' (default). The METHOD_DEFAULTS choice `honoreeShortForms` sets it.
+   */
+  honoreeShortForms?: 'on' | 'off';
 }
 
 /** Finds candidate features for a name: the store implements it; the core only calls it. */

@@ -6,7 +6,7 @@
  */
 import type { WrittenCoordinates } from './types.ts';
 import { tokenize, type Token } from './tokens.ts';
-import { powerOfTen } from './numbers.ts';
+import { ordinalAt, powerOfTen } from './numbers.ts';
 import { utmToGeographic } from '../geodesy/utm.ts';
 
 type Hemisphere = 'n' | 's' | 'e' | 'w';
@@ -81,7 +81,7 @@ function readAngle(tokens: Token[], start: number, typewriter: boolean): Angle |
     i++;
   }
   const degrees = tokens[i];
-  if (!isNum(degrees)) return null;
+  if (!isNum(degrees) || ordinalAt(tokens, i)) return null;
   i++;
   const values = [Number(degrees.norm)];
   let decimals = degrees.decimals!.length;
@@ -120,7 +120,9 @@ function readAngle(tokens: Token[], start: number, typewriter: boolean): Angle |
     } else break;
   }
   if (hemisphere === undefined) {
-    hemisphere = hemisphereOf(tokens[i]);
+    // "1º e 2º": a small "e" or "o" with another number after it is "and" or "or", not a hemisphere.
+    const conjunction = (tokens[i]?.text === 'e' || tokens[i]?.text === 'o') && isNum(tokens[i + 1]);
+    hemisphere = conjunction ? undefined : hemisphereOf(tokens[i]);
     if (hemisphere) {
       i++;
       marked = true;
@@ -167,6 +169,9 @@ function readPair(text: string, tokens: Token[], i: number, lenient: boolean, ty
   // In running text a bare pair must look like coordinates (two decimals each); a coordinate field may be plainer.
   if (plainDecimals && !lenient && (first.decimals < 2 || second.decimals < 2 || first.parts > 1 || second.parts > 1)) return null;
   if (!plainDecimals && (!first.marked || !second.marked)) return null;
+  // In running text, two whole degrees that say neither which is latitude nor which longitude are no pair ("1° e 2°").
+  const unplaced = (a: Angle) => a.parts === 1 && a.decimals === 0 && !a.hemisphere && !a.axis;
+  if (!lenient && unplaced(first) && unplaced(second)) return null;
   const problems = [...first.problems, ...second.problems];
   const axisA = axisOf(first);
   const axisB = axisOf(second);

@@ -131,6 +131,19 @@ export const ROUTE_STRETCH_WORDS = set('trecho tramo troncon ramal');
 /** Words between a road noun and the first end: "estrada que liga X a Y", "camino que sigue de X a Y", "route qui relie X à Y". */
 export const ROUTE_LINKS = phrases('que liga | que sigue | que une | que va | que vai | que conecta | qui relie | that joins | that links');
 
+/**
+ * Ordinal marks and endings written on a number: "1º", "2ª", "3o", "1er", "2e", "1st", "2nd", "3rd", "4th"
+ * (the masculine ordinal "º" is also typed as a degree sign, and "°" for it).
+ */
+export const ORDINAL_ENDINGS = set('º ª ° o a er re e eme st nd rd th');
+/** Words an ordinal numbers in locality text: districts, sections, branch lines, leagues, kilometres. */
+export const ORDINAL_NOUNS = set(
+  'distrito distritos subdistrito subdistritos district districts arrondissement arrondissements secao secoes seccao seccoes seccion secciones ' +
+    'section sections ramal ramais ramales legua leguas league leagues lieue lieues km quilometro kilometro kilometre kilometer',
+);
+/** What joins ordinals in a list: "1º e 2º", "1st and 2nd", "1er et 2e", "1º, 2º". */
+export const ORDINAL_JOINS = set(', e y et and & a to');
+
 /** Elevation clauses: "alt. 1200-1500 m", "elev. 2500 ft", "1200 msnm", "800 m a.s.l.", "1900 m in height", "1200 m de haut". */
 export const ELEVATION_WORDS = set('elev elevation alt altitude altitud altura elevacion elevacao height high tall hauteur haut');
 /** Words that join a number and its unit to the elevation word after it without saying elevation themselves: "1900 m in height", "à 1200 m d'altitude". */

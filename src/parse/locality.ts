@@ -5,7 +5,7 @@
  */
 import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, RouteReading, WrittenDistance, WrittenHeading } from './types.ts';
 import { fold, type Token } from './tokens.ts';
-import { readNumberAt } from './numbers.ts';
+import { ordinalAt, readNumberAt } from './numbers.ts';
 import { directionLetters, readHeadingAt } from './headings.ts';
 import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
 import * as L from './lexicon.ts';
@@ -88,7 +88,7 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
   const unitToken = s.tokens[number.next];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
   let next = number.next + 1;
-  if (!unit && unitless && readHeading(s, number.next)) {
+  if (!unit && unitless && !ordinalAt(s.tokens, i) && readHeading(s, number.next)) {
     const written = s.text.slice(s.tokens[i]!.start, s.tokens[number.next - 1]!.end);
     const distance: WrittenDistance = {
       written, value: number.value, unit: 'mi', precision: number.precision, uncertainty: number.uncertainty,

@@ -4,6 +4,7 @@
  * @example readDistanceNumber('1 1/2') // { value: 1.5, precision: 0.5, … }
  */
 import { tokenize, type Token } from './tokens.ts';
+import { ORDINAL_ENDINGS, ORDINAL_JOINS, ORDINAL_NOUNS } from './lexicon.ts';
 
 /** A number or range as written, with its precision read from the writing (docs/method.md §5.1). */
 export interface WrittenNumber {
@@ -123,4 +124,21 @@ export function readDistanceNumber(written: string): WrittenNumber | null {
   const tokens = tokenize(written);
   const read = readNumberAt(tokens, 0);
   return read && read.next === tokens.length ? read : null;
+}
+
+/**
+ * True when the number at `k` is an ordinal: an ordinal mark or ending is written on it, and an ordinal noun
+ * comes before it or after its list ("1º e 2º distritos", "distrito 1º", "2ª seção", "2e district"): it counts
+ * districts, not degrees or miles.
+ * @example ordinalAt(tokenize('Alisos, 1º e 2º distritos'), 2) // true
+ */
+export function ordinalAt(tokens: Token[], k: number): boolean {
+  const ordinal = (i: number) => tokens[i]?.kind === 'number' && tokens[i + 1] !== undefined && !tokens[i + 1]!.spaceBefore && ORDINAL_ENDINGS.has(tokens[i + 1]!.norm);
+  const among = (t: Token | undefined, words: ReadonlySet<string>) => t !== undefined && t.kind !== 'number' && words.has(t.norm);
+  if (!ordinal(k)) return false;
+  let first = k;
+  while (ordinal(first - 3) && among(tokens[first - 1], ORDINAL_JOINS)) first -= 3;
+  let last = k;
+  while (ordinal(last + 3) && among(tokens[last + 2], ORDINAL_JOINS)) last += 3;
+  return among(tokens[first - 1], ORDINAL_NOUNS) || among(tokens[last + 2], ORDINAL_NOUNS);
 }

@@ -137,6 +137,11 @@ export interface NamedUnit {
   level: AdministrativeLevel;
   /** The clause as written ("Municipio de Alisos"). */
   written: string;
+  /**
+   * The language of the country's name when the text names the record's country only by a name in
+   * another language than the four read throughout (the Latin "Brasilia"), which a town may share.
+   */
+  exonymLanguage?: string;
 }
 
 /** What kind of place a generic word says a name is ("Laguna Negra" → 'water'). */

@@ -4,6 +4,7 @@
  * type provider), so none of the three can drift from the others.
  */
 import { Type, type Static } from 'typebox';
+import { ROUTE_KILOMETRE_POST_RULES } from '../georef/types.ts';
 
 /** Text fields of a record: bounded so that no single field can make the service do unbounded work. */
 const text = (description: string, maxLength = 500) => Type.String({ maxLength, description });
@@ -32,7 +33,7 @@ const chosenFeatureSchema = Type.Object(
 
 const lookupOptionsSchema = Type.Object(
   {
-    candidate: Type.Optional(Type.Object(featureKeySchema.properties, { additionalProperties: false, description: 'Use this candidate feature instead of the one the matcher chose (a text that names one place).' })),
+    candidate: Type.Optional(Type.Object(featureKeySchema.properties, { additionalProperties: false, description: 'Use this candidate feature instead of the one the matcher chose (a text that names one place): a candidate of its name, of its second name in brackets, or of a later clause that stands in for a place the gazetteer lacks.' })),
     candidates: Type.Optional(Type.Array(chosenFeatureSchema, { maxItems: 20, description: 'For a text that names several places: the candidate chosen for each name.' })),
     distancePrecision: Type.Optional(Type.Number({ exclusiveMinimum: 0, maximum: 100000, description: 'Distance precision in the written unit (method §5.1: δ = precision / 2).' })),
     mapScale: Type.Optional(Type.Number({ minimum: 1, maximum: 100000000, description: 'Scale denominator of the map the coordinates were read from, e.g. 24000.' })),
@@ -40,6 +41,9 @@ const lookupOptionsSchema = Type.Object(
     measurementErrorMeters: Type.Optional(Type.Number({ minimum: 0, maximum: 20000000, description: 'A stated measurement error in meters.' })),
     coverAmbiguous: Type.Optional(Type.Boolean({ description: 'For an ambiguous name, one circle covering every candidate.' })),
     administrativeFallback: Type.Optional(Type.Boolean({ description: "For text naming no place, use the record's smallest administrative unit." })),
+    routeKilometrePost: Type.Optional(
+      oneOf(ROUTE_KILOMETRE_POST_RULES, "A route between two places with a road kilometre post beside it and no road line loaded: 'route' answers the whole route, the post not placed; 'decline' gives no georeference (GET /api/v1/method, routeKilometrePost, gives the rule in force)."),
+    ),
   },
   { additionalProperties: false, description: 'Edits and method settings; every one is optional.' },
 );

@@ -105,3 +105,13 @@ describe('a name of two words, one too common for the posting budget', () => {
     expect(index.rowsRead.postings).toBeLessThan(900 + 800);
   });
 });
+
+describe('a lookup of exact names and readings only (nearSpellings off)', () => {
+  it('reads no neighbour of a word and returns no near spelling', () => {
+    const index = memoryNameIndex(namesakes(3, 'Morena'));
+    const found = new CandidateMatcher(index).lookup({ name: 'Moreno', context: {}, nearSpellings: 'off' });
+    expect(found.candidates).toEqual([]);
+    expect(index.rowsRead.deletionKeys).toBe(0);
+    expect(ids(new CandidateMatcher(index).lookup({ name: 'Morena', context: {}, nearSpellings: 'off' }).candidates)).toEqual(['Morena-0', 'Morena-1', 'Morena-2']);
+  });
+});

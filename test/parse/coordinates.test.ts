@@ -48,6 +48,28 @@ describe('written coordinates (fixture coordinates.json)', () => {
   });
 });
 
+describe('ordinal numbers are not degrees', () => {
+  // "1º" is the Portuguese and Spanish masculine ordinal indicator (first), "ª" the feminine; "1er", "2e", "1st",
+  // "3o" write ordinals too. Beside a word they number (districts, sections, branch lines, leagues, kilometres)
+  // they are no coordinates, and two whole degrees that name no hemisphere or axis are no latitude-longitude pair.
+  it('reads "Alisos, 1º e 2º distritos" as the place Alisos, not as 2° N 1° E', () => {
+    const r = parseLocality('Alisos, 1º e 2º distritos');
+    expect(r.type).toBe('named-place');
+    expect(r.features).toEqual(['Alisos']);
+    expect(r.coordinates).toBeUndefined();
+  });
+  it('reads no pair from "Alisos, 1º e 2º", whose small "e" is "and", nor a distance east from "Alisos, 2e district"', () => {
+    expect(parseLocality('Alisos, 1º e 2º').coordinates).toBeUndefined();
+    const district = parseLocality('Alisos, 2e district');
+    expect(district.type).toBe('named-place');
+    expect(district.offsets).toEqual([]);
+  });
+  it('still reads degrees with a hemisphere, and a capital E as east', () => {
+    expect(parseLocality('Alisos, 12º S e 45º O').coordinates).toMatchObject({ latitude: -12, longitude: -45 });
+    expect(parseLocality('Alisos, 1º N 2º E').coordinates).toMatchObject({ latitude: 1, longitude: 2 });
+  });
+});
+
 describe('UTM to latitude/longitude on the WGS84 ellipsoid', () => {
   // On the central meridian (easting 500000 m) UTM northing = k0 · meridian arc from the equator, k0 = 0.9996
   // (Snyder 1987, Map Projections — A Working Manual, USGS PP 1395, §8). The meridian arc is measured here with

@@ -70,6 +70,52 @@ describe('edits through POST /api/v1/georeference', () => {
     expect(wrong.statusCode).toBe(400);
     expect(wrong.json().field).toBe('options.candidates');
   });
+
+  it('takes a candidate of a second name in brackets, and of a later clause standing in for a missing place', async () => {
+    // Two Santa Rosas in the demo (qv-0015, qv-0053): the second name alone cannot choose.
+    const second = { locality: 'Puerto Nada (Santa Rosa)', countryCode: 'QV' };
+    const unchosen = (await ask(second)).json();
+    expect(unchosen.status).toBe('not-found');
+    expect(unchosen.candidates.map((c: any) => c.feature.featureId)).toEqual(expect.arrayContaining(['qv-0015', 'qv-0053']));
+    const chosen = (await ask({ ...second, options: { candidate: { sourceId: 'demo', featureId: 'qv-0053' } } })).json();
+    expect(chosen.status).toBe('georeferenced');
+    expect(chosen.georeference.features.map((f: any) => f.featureId)).toEqual(['qv-0053']);
+    expect(chosen.georeference.remarks.join('\n')).toMatch(/feature chosen by the georeferencer: Santa Rosa \(demo:qv-0053\) for "Santa Rosa"/);
+    // With no state stated a later clause is not taken for a missing place; the reviewer's choice of its feature is, and the remarks say so.
+    const standIn = { locality: 'Villa Quimera, Puerto Lindo', countryCode: 'QV' };
+    expect((await ask(standIn)).json().status).toBe('not-found');
+    const taken = (await ask({ ...standIn, options: { candidate: PUERTO_LINDO } })).json();
+    expect(taken.status).toBe('georeferenced');
+    expect(taken.georeference.remarks.join('\n')).toMatch(/the next clause, "Puerto Lindo", is used instead on the georeferencer's choice of its feature \(else not taken: the record states no state/);
+    const notOffered = await ask({ ...standIn, options: { candidate: { sourceId: 'demo', featureId: 'qv-0053' } } });
+    expect(notOffered.statusCode).toBe(400);
+    expect(notOffered.json().field).toBe('options.candidate');
+  });
+});
+
+describe('the method choice routeKilometrePost in the request', () => {
+  // [CHOICE routeKilometrePost] (docs/method.md, every choice in one list): a kilometre post is measured along the
+  // road from its own origin, which no straight line between the route's ends can place (our choice, no source).
+  const body = { locality: 'Puerto Lindo - Santa Rosa road, km 12', countryCode: 'QV', stateProvince: 'Poniente' };
+  it("answers the whole route unless told 'decline', on the one-record and many-record routes alike", async () => {
+    const unset = (await ask(body)).json();
+    expect(unset.status).toBe('georeferenced');
+    expect(unset.georeference.remarks.join('\n')).toContain('"km 12" not placed');
+    expect((await ask({ ...body, options: { routeKilometrePost: 'route' } })).json().georeference.latitude).toBe(unset.georeference.latitude);
+    const declined = (await ask({ ...body, options: { routeKilometrePost: 'decline' } })).json();
+    expect(declined.status).toBe('not-found');
+    expect(declined.reason).toMatch(/cannot be placed without the road's line \[CHOICE routeKilometrePost/);
+    const many = await app.inject({ method: 'POST', url: '/api/v1/georeference/records', payload: [body, { ...body, options: { routeKilometrePost: 'decline' } }] });
+    expect(many.statusCode).toBe(200);
+    const lines = many.body.trim().split('\n').map((line) => JSON.parse(line));
+    expect(lines.map((line: any) => line.status)).toEqual(['georeferenced', 'not-found']);
+  });
+  it('refuses a rule it does not know, naming the field', async () => {
+    const wrong = await ask({ ...body, options: { routeKilometrePost: 'skip' } });
+    expect(wrong.statusCode).toBe(400);
+    expect(wrong.json().field).toBe('options.routeKilometrePost');
+    expect(wrong.json().message).toMatch(/route, decline|allowed values/);
+  });
 });
 
 describe('the answer as a file', () => {

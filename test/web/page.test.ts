@@ -105,6 +105,17 @@ describe('lookup', () => {
     await shot('lookup-candidate');
   });
 
+  it('takes a candidate of a second name in brackets when the text names two places of that name', async () => {
+    // Both demo Santa Rosas (qv-0015, qv-0053) are listed for "Puerto Nada (Santa Rosa)"; choosing one answers
+    // at that feature (its point, from gazetteer/demo.geojson, as the page rounds it).
+    await lookUp('Puerto Nada (Santa Rosa)');
+    expect(await page.textContent('#h-summary')).toContain('not-found');
+    await page.click('li.cand:has-text("demo:qv-0053") label');
+    await page.waitForSelector('#result-latitude');
+    expect(Number(await page.textContent('#result-latitude'))).toBeCloseTo(-45.213296, 4);
+    expect(await page.textContent('li.cand.used')).toContain('demo:qv-0053');
+  });
+
   it('recomputes when the distance precision is edited', async () => {
     await lookUp('10 km NE of Puerto Lindo');
     const before = Number(await page.textContent('#result-radius'));

@@ -1,4 +1,6 @@
 import type { Command } from 'commander';
+import type { RouteKilometrePostRule } from '../../georef/types.ts';
+import { routeKilometrePostOption } from '../method-options.ts';
 import type cliProgress from 'cli-progress';
 import type { ArchiveSummary } from '../../batch/archive/archive-job.ts';
 import type { BatchProgressEvent } from '../../batch/run.ts';
@@ -14,6 +16,7 @@ interface BatchCommandOptions {
   threads?: number;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  routeKilometrePost?: RouteKilometrePostRule;
   allowEmptyGazetteer?: boolean;
   part?: string;
   runTimestamp?: string;
@@ -46,6 +49,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")
+    .addOption(routeKilometrePostOption())
     .option('--allow-empty-gazetteer', 'run even when the gazetteer holds no source (every row then comes back not found)')
     .option('--part <K/N>', 'only part K (from 0) of N, cut by locality, written as a part file for `whereabouts merge` (needs --out and --run-timestamp; its job database is <out>.jobs.sqlite)')
     .option('--run-timestamp <time>', 'the georeferencedDate to record, UTC to the second (2026-05-01T09:30:00Z); default the time the job starts')
@@ -75,6 +79,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
         administrativeFallback: opts.administrativeFallback,
+        routeKilometrePost: opts.routeKilometrePost,
         allowEmptyGazetteer: opts.allowEmptyGazetteer,
         part: opts.part === undefined ? undefined : parsePartSpec(opts.part),
         runTimestamp: opts.runTimestamp,

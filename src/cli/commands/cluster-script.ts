@@ -1,5 +1,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import type { Command } from 'commander';
+import type { RouteKilometrePostRule } from '../../georef/types.ts';
+import { routeKilometrePostOption } from '../method-options.ts';
 
 interface ClusterScriptOptions {
   parts: string;
@@ -12,6 +14,7 @@ interface ClusterScriptOptions {
   gazetteerCopy?: string;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  routeKilometrePost?: RouteKilometrePostRule;
 }
 
 /**
@@ -33,6 +36,7 @@ export function registerClusterScript(program: Command, dbPath: () => string): v
     .option('--gazetteer-copy <file>', "first write a read-only copy of the gazetteer (rollback journal, not WAL) there, for the tasks to read over a network file system")
     .option('--cover-ambiguous', 'as batch --cover-ambiguous')
     .option('--administrative-fallback', 'as batch --administrative-fallback')
+    .addOption(routeKilometrePostOption())
     .action(async (input: string, opts: ClusterScriptOptions) => {
       const [{ arrayJobScript }, { writeSharedGazetteerCopy }] = await Promise.all([import('../../batch/array-script.ts'), import('../../store/shared-copy.ts')]);
       if (opts.gazetteerCopy) await writeSharedGazetteerCopy(dbPath(), opts.gazetteerCopy);
@@ -44,7 +48,7 @@ export function registerClusterScript(program: Command, dbPath: () => string): v
         workDir: opts.workDir,
         output: opts.out,
         runTimestamp: opts.runTimestamp ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'),
-        settings: { coverAmbiguous: Boolean(opts.coverAmbiguous), administrativeFallback: Boolean(opts.administrativeFallback) },
+        settings: { coverAmbiguous: Boolean(opts.coverAmbiguous), administrativeFallback: Boolean(opts.administrativeFallback), ...(opts.routeKilometrePost ? { routeKilometrePost: opts.routeKilometrePost } : {}) },
         cpusPerTask: opts.cpus === undefined ? undefined : wholeNumber(opts.cpus, '--cpus'),
         sbatchOptions: opts.sbatch,
       });

@@ -1,5 +1,7 @@
 import { existsSync } from 'node:fs';
 import { InvalidArgumentError, type Command } from 'commander';
+import type { RouteKilometrePostRule } from '../../georef/types.ts';
+import { routeKilometrePostOption } from '../method-options.ts';
 import { readDatumOption } from '../../geodesy/datum-option.ts';
 import type { LocateResult } from '../../locate/locate.ts';
 import { ANSWER_FORMATS } from '../../output/formats.ts';
@@ -29,6 +31,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
     .option('--map-scale <denominator>', 'scale of the map the coordinates were read from, e.g. 24000', Number)
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', 'for text naming no place, georeference to the record\'s smallest administrative unit')
+    .addOption(routeKilometrePostOption())
     .option('--json', 'print the HTTP API body as JSON')
     .option('--format <name>', `print the answer as a file instead: ${ANSWER_FORMATS.map((f) => f.extension).join(' or ')} (as POST /api/v1/georeference.<name> writes it)`)
     .action(async (text: string, opts: LocateCommandOptions) => {
@@ -55,7 +58,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
           municipality: opts.municipality,
           verbatimCoordinates: opts.verbatimCoordinates,
           geodeticDatum: opts.geodeticDatum,
-          options: { mapScale: opts.mapScale, coverAmbiguous: opts.coverAmbiguous, administrativeFallback: opts.administrativeFallback },
+          options: { mapScale: opts.mapScale, coverAmbiguous: opts.coverAmbiguous, administrativeFallback: opts.administrativeFallback, routeKilometrePost: opts.routeKilometrePost },
           attribution: { georeferencedBy: `whereabouts ${VERSION}`, georeferencedDate: new Date().toISOString(), sources: store.sources() },
         });
         process.stdout.write(format ? format.write(answer, text) : opts.json ? answerJson(answer) : describe(answer.result, answer.darwinCore));
@@ -83,6 +86,7 @@ interface LocateCommandOptions {
   mapScale?: number;
   coverAmbiguous?: boolean;
   administrativeFallback?: boolean;
+  routeKilometrePost?: RouteKilometrePostRule;
   json?: boolean;
   format?: string;
 }
