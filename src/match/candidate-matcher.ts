@@ -298,9 +298,7 @@ export class CandidateMatcher {
     // budget holds. A token that does not fit (a common 'rio', 'do', 'sul') is read only through the
     // features the chosen tokens found, or, when no token fits at all, together with the next query token.
     const views = queryTokens.map((token) => this.matchingTokens(token, queryTokens.length > 1, reach, poolSize));
-    const matched = views
-      .flatMap((view, index) => view.matches.map(({ id, edits, df, text }) => ({ id, edits, df, text, index })))
-      .sort((a, b) => a.edits - b.edits || a.df - b.df);
+    const matched = closestRarestFirst(views.flatMap((view, index) => view.matches.map(({ id, edits, df, text }) => ({ id, edits, df, text, index }))));
     const chosen: typeof matched = [];
     let budget = POSTING_BUDGET;
     for (const match of matched) {
@@ -309,12 +307,17 @@ export class CandidateMatcher {
       budget -= match.df;
     }
     const byToken = new Map<number, { index: number; weight: number }[]>();
+    const addWeight = (id: number, index: number, weight: number) => {
+      const weights = byToken.get(id);
+      if (weights === undefined) byToken.set(id, [{ index, weight }]);
+      else weights.push({ index, weight });
+    };
     const weigh = ({ id, edits, index }: TokenMatch) => {
       const optional = OPTIONAL_GENERIC_WORDS.has(queryTokens[index]) || LEADING_ARTICLES.has(queryTokens[index]);
       // About the number of letters the token contributes to the match: long tokens found with few
       // edits say most about which feature is meant.
       const weight = (optional ? 0.5 : 1) * Math.max(0.5, queryTokens[index].length - 1.5 * edits);
-      byToken.set(id, [...(byToken.get(id) ?? []), { index, weight }]);
+      addWeight(id, index, weight);
     };
     for (const match of chosen) weigh(match);
     const rows = this.postingsOf([...byToken.keys()], context, reads.postings);
@@ -328,32 +331,26 @@ export class CandidateMatcher {
       }
     }
     const common = this.commonTokenPostings(matched, chosen, context, reads.partnerPostings);
-    for (const { id, index } of common.tokens) byToken.set(id, [...(byToken.get(id) ?? []), { index, weight: queryTokens[index].length }]);
-    const pool = new Map<number, { weights: number[]; token: number; weight: number }>();
-    for (const { feature, token } of [...rows, ...common.rows]) {
-      const entry = pool.get(feature) ?? { weights: new Array<number>(queryTokens.length).fill(0), token, weight: 0 };
-      for (const { index, weight } of byToken.get(token) ?? []) {
-        entry.weights[index] = Math.max(entry.weights[index], weight);
-        if (weight > entry.weight) Object.assign(entry, { token, weight });
+    for (const { id, index } of common.tokens) addWeight(id, index, queryTokens[index].length);
+    const pool = new Map<number, PoolEntry>();
+    for (const { feature, token } of rows.concat(common.rows)) {
+      let entry = pool.get(feature);
+      if (entry === undefined) {
+        entry = { id: feature, weights: new Array<number>(queryTokens.length).fill(0), token, weight: 0 };
+        pool.set(feature, entry);
       }
-      pool.set(feature, entry);
+      for (const { index, weight } of byToken.get(token) ?? []) {
+        if (weight > entry.weights[index]) entry.weights[index] = weight;
+        if (weight > entry.weight) {
+          entry.token = token;
+          entry.weight = weight;
+        }
+      }
     }
-    const total = (weights: number[]) => weights.reduce((sum, weight) => sum + weight, 0);
     // The token weights only shortlist, features of many different tokens before many features of one
     // token; a common token skipped above ("monte") counts for nobody, so the shortlist is re-ranked by
     // the edit distance of the whole name before fuse.js scores the best.
-    const perToken = new Map<number, number>();
-    const shortlist = [...pool.entries()]
-      .map(([id, entry]) => ({ id, entry, weight: total(entry.weights) }))
-      .sort((a, b) => b.weight - a.weight)
-      .map(({ id, entry, weight }) => {
-        const repeat = perToken.get(entry.token) ?? 0;
-        perToken.set(entry.token, repeat + 1);
-        return { id, weight, repeat: Math.floor(repeat / SHORTLIST_PER_TOKEN) };
-      })
-      .sort((a, b) => b.weight - a.weight || a.repeat - b.repeat)
-      .slice(0, SHORTLIST)
-      .map(({ id, weight }) => [id, weight] as const);
+    const shortlist = shortlistByWeight(pool.values());
     const closest = this.closestNames(shortlist.map(([id]) => id), folded, reads.foldedNames);
     const keysRead = views.map((view) => view.keysRead);
     const neighboursLeftUnread = keysRead.some((read) => read !== 'all');
@@ -435,7 +432,9 @@ export class CandidateMatcher {
       for (const token of unread) read.set(token, []);
       for (const row of this.index.postings(unread, countryList(context), POSTING_BUDGET)) read.get(row.token)!.push(row);
     }
-    return [...tokens].sort((a, b) => a - b).flatMap((token) => read.get(token)!);
+    const postings: Posting[] = [];
+    for (const token of [...tokens].sort((a, b) => a - b)) for (const posting of read.get(token)!) postings.push(posting);
+    return postings;
   }
 
   /**
@@ -540,6 +539,66 @@ export class CandidateMatcher {
       return feature === undefined ? [] : [feature];
     });
   }
+}
+
+/** A feature found through the postings, with the weight of each query word's best token and its best token. */
+interface PoolEntry {
+  id: number;
+  weights: number[];
+  token: number;
+  weight: number;
+}
+
+/**
+ * The SHORTLIST features of the greatest total weight as [id, weight], best first; among equal
+ * weights, the first SHORTLIST_PER_TOKEN of each best token before further ones of it, then in the
+ * order found. The same order as sorting the whole pool, got by grouping it by weight (a few
+ * distinct weights) and ordering only the groups that are taken.
+ * @example shortlistByWeight([{ id: 7, weights: [6, 0], token: 3, weight: 6 }]) // [[7, 6]]
+ */
+function shortlistByWeight(entries: Iterable<PoolEntry>): [number, number][] {
+  const byWeight = new Map<number, PoolEntry[]>();
+  for (const entry of entries) {
+    let weight = 0;
+    for (const tokenWeight of entry.weights) weight += tokenWeight;
+    const group = byWeight.get(weight);
+    if (group === undefined) byWeight.set(weight, [entry]);
+    else group.push(entry);
+  }
+  const shortlist: [number, number][] = [];
+  const perToken = new Map<number, number>();
+  for (const weight of [...byWeight.keys()].sort((a, b) => b - a)) {
+    if (shortlist.length >= SHORTLIST) break;
+    const group = byWeight.get(weight)!.map(({ id, token }) => {
+      const repeat = perToken.get(token) ?? 0;
+      perToken.set(token, repeat + 1);
+      return { id, repeat: Math.floor(repeat / SHORTLIST_PER_TOKEN) };
+    });
+    // Array sort is stable: equal repeats stay in the order found.
+    group.sort((a, b) => a.repeat - b.repeat);
+    for (const { id } of group.slice(0, SHORTLIST - shortlist.length)) shortlist.push([id, weight]);
+  }
+  return shortlist;
+}
+
+/**
+ * Matches by fewest edits, then fewest postings, then as given (a stable order): one whole-number key
+ * a match, sorted without a callback, for the thousands of matches of words' two-edit neighbours.
+ * @example closestRarestFirst([{ edits: 1, df: 3 }, { edits: 0, df: 9 }]) // [{ edits: 0, df: 9 }, { edits: 1, df: 3 }]
+ */
+function closestRarestFirst<T extends { edits: number; df: number }>(matches: T[]): T[] {
+  let mostEdits = 0;
+  let mostPostings = 0;
+  for (const { edits, df } of matches) {
+    if (edits > mostEdits) mostEdits = edits;
+    if (df > mostPostings) mostPostings = df;
+  }
+  const span = (mostPostings + 1) * matches.length;
+  if (!Number.isSafeInteger((mostEdits + 1) * span)) return matches.sort((a, b) => a.edits - b.edits || a.df - b.df);
+  const keys = new Float64Array(matches.length);
+  for (let i = 0; i < matches.length; i++) keys[i] = matches[i].edits * span + matches[i].df * matches.length + i;
+  keys.sort();
+  return Array.from(keys, (key) => matches[key % matches.length]);
 }
 
 /** The name of a feature whose folded form, or one of whose readings, is `key` (with that reading). */

@@ -441,8 +441,8 @@ function sqliteNameIndex(s: Statements): NameIndex {
       return row === undefined ? null : toFeature(row);
     },
     features: (ids) => new Map((s.featuresByIds.all(JSON.stringify(ids)) as FeatureRow[]).map((row) => [row[0], toFeature(row)])),
-    namesOf: (ids) => (s.namesByIds.all(JSON.stringify(ids)) as [id: number, name: string, alternateNames: string | null][])
-      .map(([id, name, alternates]) => ({ id, names: alternates === null ? [name] : [name, ...alternates.split(NAME_SEPARATOR)] })),
+    // One text a row, the id and the names joined by NAME_SEPARATOR (see namesRow).
+    namesOf: (ids) => (s.namesByIds.all(JSON.stringify(ids)) as string[]).map(namesRow),
     token: (token) => {
       const row = s.tokenByText.get(token) as TokenRow | undefined;
       return row === undefined ? undefined : { id: row.id, df: row.df };
@@ -505,7 +505,8 @@ function prepareStatements(db: Database.Database) {
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
     featureIdsInBox: db.prepare('SELECT id FROM features WHERE latitude BETWEEN ? AND ? AND longitude BETWEEN ? AND ?').pluck(),
-    namesByIds: db.prepare('SELECT id, name, alternate_names FROM features WHERE id IN (SELECT value FROM json_each(?))').raw(),
+    namesByIds: db.prepare(`SELECT id || char(31) || name || ifnull(char(31) || alternate_names, '') FROM features
+      WHERE id IN (SELECT value FROM json_each(?))`).pluck(),
     featuresByIds: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE f.id IN (SELECT value FROM json_each(?))`).raw(),
     featuresByKey: db.prepare('SELECT feature FROM names WHERE key = ? ORDER BY feature LIMIT ?').pluck(),
@@ -577,6 +578,15 @@ function tokenRow(row: string): [number, string, number] {
 function postingRow(row: string): Posting {
   const space = row.indexOf(' ');
   return { feature: Number(row.slice(0, space)), token: Number(row.slice(space + 1)) };
+}
+
+/**
+ * A feature's names read as one text, its id, name and alternate names joined by NAME_SEPARATOR (see tokenRow).
+ * @example namesRow('1200\u001fRosario\u001fVilla del Rosario') // { id: 1200, names: ['Rosario', 'Villa del Rosario'] }
+ */
+function namesRow(row: string): { id: number; names: string[] } {
+  const names = row.split(NAME_SEPARATOR);
+  return { id: Number(names.shift()), names };
 }
 
 function toSource(row: SourceRow): Source {
