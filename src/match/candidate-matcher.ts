@@ -370,12 +370,15 @@ export class CandidateMatcher {
     }
     const seen = new Map<string, number>();
     const best = shortlist
-      .map(([id, weight]) => ({ id, weight, ...(closest.get(id) ?? { edits: Infinity, key: '' }) }))
+      .map(([id, weight]) => {
+        const { edits, key } = closest.get(id) ?? { edits: Infinity, key: '' };
+        return { id, weight, edits, key, repeat: 0 };
+      })
       .sort((a, b) => a.edits - b.edits || b.weight - a.weight)
       .map((entry) => {
-        const repeat = seen.get(entry.key) ?? 0;
-        seen.set(entry.key, repeat + 1);
-        return { ...entry, repeat };
+        entry.repeat = seen.get(entry.key) ?? 0;
+        seen.set(entry.key, entry.repeat + 1);
+        return entry;
       })
       // Distinct names before more features of a name already in: thirty places called 'Gamar' must
       // not crowd out the one 'Guamar' as close to the query.
