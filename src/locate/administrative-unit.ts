@@ -59,7 +59,7 @@ function withoutLeadingArticle(written: string): string {
 /**
  * "Brazil, Bahia, Ilhéus" with the record's country and state: a clause that names one of the record's own
  * units, followed by other clauses, heads a hierarchy written with commas or periods; it is context, and the
- * next clause is the reading (each such head noted, and written into its administrative context). A unit
+ * next clause is the reading (each such head noted; a state or county head also written into its administrative context). A unit
  * named alone is left for `unitNamed`.
  * @example pastUnitHeads(parseLocality('Isla Verdemar, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
  */
