@@ -452,7 +452,7 @@ function sqliteNameIndex(s: Statements): NameIndex {
     tokensByDeletionKeys: (keys) => (s.tokensByDeletion.all(JSON.stringify(keys)) as string[]).map(tokenRow),
     // One text a row, 'feature token' (see tokenRow): 35-50 % faster than arrays at 13 M names.
     postings: (tokenIds, countries, limit) => (countries === null
-      ? s.postings.all(JSON.stringify(tokenIds), limit) as string[]
+      ? s.postings.all(JSON.stringify([...new Set(tokenIds)].sort((a, b) => a - b)), limit) as string[]
       : s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
       const partnerIds = JSON.stringify(partners.map((token) => token.id));
@@ -517,9 +517,13 @@ function prepareStatements(db: Database.Database) {
     featureSecondaryIndexes: db.prepare(`SELECT name, sql FROM sqlite_schema
       WHERE type = 'index' AND tbl_name = 'features' AND sql IS NOT NULL AND sql NOT LIKE 'CREATE UNIQUE%'`),
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
+    // The keys joined rather than read through 'hash IN (…)', which first copies them into a sorted
+    // temporary index: each word's one-edit read took half the CPU at 1 M names (4,541 words, 116 ms against 234 ms).
     tokensByDeletion: db.prepare(`SELECT t.id || ' ' || t.df || ' ' || t.token FROM tokens t
-      WHERE t.id IN (SELECT token FROM deletions WHERE hash IN (SELECT value FROM json_each(?)))`).pluck(),
-    postings: db.prepare(`SELECT feature || ' ' || token FROM postings WHERE token IN (SELECT value FROM json_each(?)) LIMIT ?`).pluck(),
+      WHERE t.id IN (SELECT d.token FROM json_each(?) k CROSS JOIN deletions d ON d.hash = k.value)`).pluck(),
+    // Joined for the same reason as tokensByDeletion; the ids come sorted and once each, so the rows
+    // come in the order 'token IN (…)' gives them (by token, then feature) and LIMIT keeps the same ones.
+    postings: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) k CROSS JOIN postings p ON p.token = k.value LIMIT ?`).pluck(),
     postingsWithPartner: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p WHERE p.token = @driver
       AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`).pluck(),
     postingsWithPartnerInCountries: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p JOIN features f ON f.id = p.feature
