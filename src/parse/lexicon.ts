@@ -99,6 +99,8 @@ export const SIDE_WORDS = set('side end part edge slope slopes flank bank shore 
 /** Roads, trails and rivers, for path offsets ("by road", "por camino", "par la route", "along the river"). */
 /** Nouns of roads: a path offset in mode 'road'. */
 export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ctra carr ruta estrada estr rod rodovia caminho chemin br');
+/** English words written between a distance's number and its unit that say how it was measured: "17 air miles", "12 road km", "3.5 trail mi" (es/pt/fr write these after the unit: "km en línea recta", "km pela estrada", "km à vol d'oiseau"). */
+export const DISTANCE_HOW_WORDS: ReadonlyMap<string, 'air' | 'road' | 'trail'> = new Map([['air', 'air'], ['road', 'road'], ['trail', 'trail']]);
 /** Nouns of trails and tracks: mode 'trail'. */
 export const TRAIL_NOUNS = set('trail track path sendero vereda trocha picada trilha senda sentier piste');
 /** Nouns of rivers and of travel by water: mode 'river'. */
