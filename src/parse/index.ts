@@ -103,7 +103,7 @@ function interpret(text: string): Interpretation {
   const segments: Segment[] = (found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length)
-  ).flatMap((segment) => splitElevationTail(text, tokens, segment));
+  ).flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(text, tokens, segment));
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
@@ -226,6 +226,41 @@ function interpret(text: string): Interpretation {
   joinBareClauses(text, pieces, result.notes);
   if (found) result.coordinates = found.coordinates;
   return choose(pieces, result, chainLevel);
+}
+
+/**
+ * Two clauses written as one, split in two [our rule, no source]: a "near" word inside what was read as a place's
+ * name alone ("Puente Alto near Alisos": no name holds "near", so it starts a clause, as "Puente Alto, near
+ * Alisos" would), and two offsets from two places joined by "and" ("1 mi NE of
+ * Wexley and 11 mi SE of Ashcombe", read as two clauses; "3 km N and 2 km E of X" stays one orthogonal offset).
+ * @example splitJoinedClauses(text, tokenize('Puente Alto near Alisos'), { from: 0, to: 4, separator: '' }) // [{ from: 0, to: 2, … }, { from: 2, to: 4, … }]
+ */
+function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Segment[] {
+  const { from, to } = segment;
+  const read = (a: number, b: number) => readLocalityClause(text, tokens.slice(a, b));
+  const whole = read(from, to);
+  const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(text, tokens, { ...segment, from: k + skip })];
+  const named = (r: LocalityRead) => r.type === 'named-place' && !r.bare && r.features.length > 0;
+  const offsetFrom = (r: LocalityRead) => isOffsetType(r.type) && !r.bare && r.features.length > 0;
+  for (let k = from + 1; k < to - 1; k++) {
+    const near = matchPhrase(tokens, k, L.INNER_NEAR_PHRASES);
+    const inName = near > 0 && tokens[k + near]?.kind === 'word' && whole.features.some((f) => f.split(/\s+/).includes(tokens[k]!.text));
+    // Only after a name alone: "3 km S of X near Z" stays one offset from "X near Z"; split too, it added two right
+    // answers and one false on the real records (a label stating no state, whose X has a namesake in another state).
+    if (inName && named(read(from, k))) return halves(k, 0);
+    const joined = whole.type === 'unparseable' && tokens[k]!.kind === 'word' && L.CONJUNCTIONS.has(tokens[k]!.norm);
+    if (joined && offsetFrom(read(from, k)) && offsetFrom(read(k + 1, to))) return halves(k, 1);
+  }
+  return [segment];
+}
+
+/** Length of the phrase of `list` that starts at token i (longest first), or 0. */
+function matchPhrase(tokens: Token[], i: number, list: L.PhraseList): number {
+  let best = 0;
+  for (const phrase of list.get(tokens[i]?.norm ?? '') ?? []) {
+    if (phrase.length > best && phrase.every((w, n) => tokens[i + n]?.norm === w)) best = phrase.length;
+  }
+  return best;
 }
 
 /**

@@ -83,6 +83,16 @@ export const NEAR_PREFIXES = phrases(
     'behind | atras de | atras do | atras da | detras de | detras del | derriere',
 );
 /**
+ * "near" words no place's name holds, so that one written inside what would be a name ends the name and starts
+ * a clause of its own ("Puente Alto near Alisos", "Cañada Fría cerca de Alisos", "Morro Alto perto de Alisos",
+ * "Pont Vieux près de Vaubrun"). Words that may be part of a name ("above", "behind", "around", "cerca" alone,
+ * "junto a") are left out.
+ */
+export const INNER_NEAR_PHRASES = phrases(
+  'near | near to | close to | in the vicinity of | vicinity of | cerca de | cerca del | alrededor de | alrededor del | en las inmediaciones de | en los alrededores de | ' +
+    'perto de | perto da | perto do | nas proximidades de | nos arredores de | pres de | pres du | pres d\' | proche de | aux environs de | a proximite de',
+);
+/**
  * Generic words of unnamed relief before "near"/"of"/"above" X ("Mountains near X", "Hills of X", "colinas
  * cerca de X", "serras perto de X", "collines près de X"): the feature is unnamed; the reading is "near X".
  */
