@@ -237,6 +237,8 @@ function interpret(text: string): Interpretation {
  */
 function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Segment[] {
   const { from, to } = segment;
+  // Each split reads its halves again: a longer run of tokens is no label's clause, and is left whole to bound the work.
+  if (to - from > MAX_JOINED_TOKENS) return [segment];
   const read = (a: number, b: number) => readLocalityClause(text, tokens.slice(a, b));
   const whole = read(from, to);
   const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(text, tokens, { ...segment, from: k + skip })];
@@ -253,6 +255,9 @@ function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Se
   }
   return [segment];
 }
+
+/** The most tokens a clause split by splitJoinedClauses may hold (those split on the real records hold at most 17). */
+const MAX_JOINED_TOKENS = 60;
 
 /** Length of the phrase of `list` that starts at token i (longest first), or 0. */
 function matchPhrase(tokens: Token[], i: number, list: L.PhraseList): number {
