@@ -8,9 +8,9 @@
  * token's length and the side (two edits leave one half within one edit; whole-token two-deletion
  * sets would be too large there). A query looks up its own zero-, one- and (from 6 letters)
  * two-deletion variants and the halves it would share with tokens of each length within two of its
- * own. So a query finds every stored token within one edit, and every stored token of 6 letters or
- * more within two. Keys are never shorter than 4 letters for two-edit matches, which keeps each
- * lookup selective in a vocabulary of hundreds of thousands of tokens.
+ * own (queryTokenKeys says which). So a query finds every stored token within one edit, and every
+ * stored token of 6 letters or more within two. Keys are never shorter than 4 letters for two-edit
+ * matches, which keeps each lookup selective in a vocabulary of hundreds of thousands of tokens.
  */
 
 /** Tokens shorter than this are found only exactly: one deletion of a 2-letter token matches too much. */
@@ -53,9 +53,9 @@ function addDeletionKeys(text: string, deletions: number, into: Set<number>, tag
   if (deletions >= 2 && n - 2 < shorterThan) for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) hashSkipping(i, j);
 }
 
-/** Keys of one half ('<' front, '>' back) of a token of `length` letters. */
-function halfKeys(length: number, side: '<' | '>', half: string, into: Set<number>): void {
-  addDeletionKeys(half, 1, into, String.fromCharCode(length) + side);
+/** Keys of one half ('<' front, '>' back) of a token of `length` letters, with up to `deletions` letters deleted. */
+function halfKeys(length: number, side: '<' | '>', half: string, into: Set<number>, deletions = 1): void {
+  addDeletionKeys(half, deletions, into, String.fromCharCode(length) + side);
 }
 
 /**
@@ -92,11 +92,17 @@ export function queryTokenKeys(token: string): number[] {
     // token longer than the query), longer only when it gained some.
     const lowest = length < token.length ? 0 : -1;
     const highest = length > token.length ? 0 : 1;
+    // Fronts with a letter deleted, backs whole, are enough: a stored token within two edits has its
+    // front within one edit of one of these fronts, or its back untouched, or (two letters swapped
+    // across its middle) its back but the first letter, which is the back one letter shorter. A query
+    // shorter than the stored token lost letters, and its fronts too are looked up whole. Backs with a
+    // letter deleted would find the thousands of words sharing a common ending ('-ville') for nothing.
+    const frontDeletions = length > token.length ? 0 : 1;
     for (let shift = lowest; shift <= highest; shift++) {
       const frontLength = half + shift;
       const backLength = length - half + shift;
-      if (frontLength > 0 && frontLength <= token.length) halfKeys(length, '<', token.slice(0, frontLength), keys);
-      if (backLength > 0 && backLength <= token.length) halfKeys(length, '>', token.slice(token.length - backLength), keys);
+      if (frontLength > 0 && frontLength <= token.length) halfKeys(length, '<', token.slice(0, frontLength), keys, frontDeletions);
+      if (backLength > 0 && backLength <= token.length) halfKeys(length, '>', token.slice(token.length - backLength), keys, 0);
     }
   }
   return [...keys];

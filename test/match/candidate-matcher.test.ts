@@ -71,10 +71,11 @@ describe('a lone word with typing errors', () => {
     matcher.lookup({ name: 'Moreno', context: {}, limit: 5 });
     expect(index.rowsRead.deletionKeys).toBe(oneEditQueryKeys('moreno').length);
     // 'Moreno Altoz': no name comes within three edits, so the lookup is repeated with every word's
-    // neighbours, and reads then only the keys of 'moreno' beyond one edit ('altoz' has no others).
+    // neighbours; 'moreno', a word of a longer name found within one edit ('morena'), is not read
+    // within two ('altoz' has no keys beyond one edit).
     const repeated = memoryNameIndex([...namesakes(12, 'Morena'), ...namesakes(1, 'Marenu')]);
     new CandidateMatcher(repeated).lookup({ name: 'Moreno Altoz', context: {}, limit: 5 });
-    expect(repeated.rowsRead.deletionKeys).toBe(queryTokenKeys('moreno').length + queryTokenKeys('altoz').length);
+    expect(repeated.rowsRead.deletionKeys).toBe(oneEditQueryKeys('moreno').length + queryTokenKeys('altoz').length);
   });
 });
 

@@ -3,7 +3,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
+import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
 import { foldName, nameVariants } from '../../src/match/fold.ts';
 import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey } from '../../src/match/context.ts';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
@@ -142,6 +142,21 @@ describe('the deletion-neighbourhood index finds what it promises (fast-check pr
       const query = typo(typo(stored, k1, a1, l1), k2, a2, l2);
       expect(shareKey(stored, query)).toBe(true);
     }), { numRuns: 2000 });
+  });
+
+  // Every string within two edits of a query (its own letters and one other inserted or substituted):
+  // the halves' keys (fronts with a letter deleted, backs whole) leave out none long enough to be kept by halves.
+  it.each(['abcdefgh', 'abcdefghij', 'abcdefghijk', 'abcdefghijklm'])(`every stored token of ${MIN_HALVES_LENGTH} letters or more within two edits of %s`, (query) => {
+    const letters = [...query, 'z'];
+    const oneEdit = (text: string) => [
+      ...Array.from({ length: text.length + 1 }, (_, i) => letters.map((letter) => text.slice(0, i) + letter + text.slice(i))).flat(),
+      ...Array.from({ length: text.length }, (_, i) => [text.slice(0, i) + text.slice(i + 1), ...letters.map((letter) => text.slice(0, i) + letter + text.slice(i + 1))]).flat(),
+      ...Array.from({ length: text.length - 1 }, (_, i) => text.slice(0, i) + text[i + 1] + text[i] + text.slice(i + 2)),
+    ];
+    const keys = new Set(queryTokenKeys(query));
+    const missed = [...new Set(oneEdit(query).flatMap((once) => [once, ...oneEdit(once)]))]
+      .filter((stored) => stored.length >= MIN_HALVES_LENGTH && !storedTokenKeys(stored).some((key) => keys.has(key)));
+    expect(missed).toEqual([]);
   });
 });
 

@@ -104,6 +104,7 @@ export const REAL_SETS: RealSet[] = [
   { name: 'tree ferns (BR, AR, PY)', file: 'records.csv', countries: ['AR', 'BO', 'BR', 'CO', 'GF', 'GY', 'PE', 'PY', 'SR', 'UY', 'VE'] },
   { name: 'oak types (MX, C. America)', file: 'records-2.csv', countries: ['BZ', 'CA', 'CO', 'CR', 'GT', 'HN', 'MX', 'NI', 'PA', 'SV', 'US'] },
   { name: 'blueberries (CA, northern US)', file: 'records-3.csv', countries: ['CA', 'GL', 'MX', 'PM', 'US'] },
+  { name: 'held out (C. America, Chile)', file: 'records-4.csv', countries: ['AR', 'BO', 'BZ', 'CL', 'CO', 'CR', 'GT', 'HN', 'MX', 'NI', 'PA', 'PE', 'SV'] },
 ];
 
 /** The cached file is rebuilt whenever the code that builds or reads it changes. */

@@ -10,7 +10,10 @@
  *   v1.16, Valencia & Flores-Franco 2006, rights holder CONABIO);
  * - set 3: 568 blueberry specimens of Canada and the northern United States, 55 of them with French
  *   locality text from Québec (CC0 1.0 or CC BY 4.0, per record; three occurrence downloads shipped in
- *   github.com/TerrellRoulston/vaccinium, commit 28bb394, each record crediting its dataset).
+ *   github.com/TerrellRoulston/vaccinium, commit 28bb394, each record crediting its dataset);
+ * - set 4, held out: 546 specimens from Central America (blueberries, from the same repository) and
+ *   Chile (amphibians; occurrence download 10.15468/dl.gh3ngh), CC0 1.0 or CC BY 4.0 per record,
+ *   measured before any rule was tuned to it and not tuned to since.
  * The ceilings and floors below are what the code reaches today (bench:real), with a little room;
  * the issue's targets are false ≤ 1 % of records, covered ≥ 97 % of answers, answered ≥ 50 %; the
  * answered share of the records answerable with this gazetteer says how far the ceiling lies.
@@ -29,11 +32,17 @@ const STATUSES = ['georeferenced', 'ambiguous', 'not-found', 'unparseable'];
  * written coordinates lie far from the town they name are declined as disagreeing clauses.
  * Of the records answerable with this gazetteer (harness.ts: a run of 1–4 words of the text held in the
  * stated country and state), set 1 answers 56.6 % (146 of 258), set 2 61.1 % (66 of 108), set 3 26.1 % (65 of 249).
+ * Set 4, held out, as first measured (before this merge's code): false 0.37 % (2 of 546), covered 96.7 %
+ * (59 of 61 answers), answered 11.2 % (61 of 546); no rule is tuned to it, so a fix for its false
+ * georeferences has to come from other records. With the code of this commit: false 0.37 % (the same 2),
+ * covered 96.8 % (60 of 62 answers), answered 11.4 % (62 of 546), and it answers 40.9 % (54 of 132) of its
+ * records answerable with this gazetteer.
  */
 const EXPECTED = [
   { title: 'set 1, tree ferns', set: REAL_SETS[0], records: 524, falseCeiling: 0.1, coveredFloor: 99.5, answeredFloor: 30.4, answerableFloor: 56.4 },
   { title: 'set 2, oak types', set: REAL_SETS[1], records: 206, falseCeiling: 1, coveredFloor: 96.5, answeredFloor: 34.3, answerableFloor: 60.9 },
   { title: 'set 3, blueberries', set: REAL_SETS[2], records: 568, falseCeiling: 0.6, coveredFloor: 94.5, answeredFloor: 11.6, answerableFloor: 25.9 },
+  { title: 'set 4, held out', set: REAL_SETS[3], records: 546, falseCeiling: 0.5, coveredFloor: 96, answeredFloor: 11.0, answerableFloor: 40.5 },
 ];
 
 for (const expected of EXPECTED) {
