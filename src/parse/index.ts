@@ -7,7 +7,7 @@
 import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset, RouteReading } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
-import { readLocalityClause, type LocalityRead } from './locality.ts';
+import { phraseLengthAt, readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import * as L from './lexicon.ts';
 
@@ -245,7 +245,7 @@ function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Se
   const named = (r: LocalityRead) => r.type === 'named-place' && !r.bare && r.features.length > 0;
   const offsetFrom = (r: LocalityRead) => isOffsetType(r.type) && !r.bare && r.features.length > 0;
   for (let k = from + 1; k < to - 1; k++) {
-    const near = matchPhrase(tokens, k, L.INNER_NEAR_PHRASES);
+    const near = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES);
     const inName = near > 0 && tokens[k + near]?.kind === 'word' && whole.features.some((f) => f.split(/\s+/).includes(tokens[k]!.text));
     // Only after a name alone: "3 km S of X near Z" stays one offset from "X near Z"; split too, it added two right
     // answers and one false on the real records (a label stating no state, whose X has a namesake in another state).
@@ -258,15 +258,6 @@ function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Se
 
 /** The most tokens a clause split by splitJoinedClauses may hold (those split on the real records hold at most 17). */
 const MAX_JOINED_TOKENS = 60;
-
-/** Length of the phrase of `list` that starts at token i (longest first), or 0. */
-function matchPhrase(tokens: Token[], i: number, list: L.PhraseList): number {
-  let best = 0;
-  for (const phrase of list.get(tokens[i]?.norm ?? '') ?? []) {
-    if (phrase.length > best && phrase.every((w, n) => tokens[i + n]?.norm === w)) best = phrase.length;
-  }
-  return best;
-}
 
 /**
  * Which segments are links of an administrative hierarchy written into the text [our rule, no source]: those

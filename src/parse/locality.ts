@@ -41,11 +41,16 @@ interface Source {
 const norm = (s: Source, i: number): string | undefined => s.tokens[i]?.norm;
 
 /** Length of the phrase of `list` that starts at i (longest first), or 0. */
-function matchPhrase(s: Source, i: number, list: L.PhraseList): number {
-  const candidates = list.get(norm(s, i) ?? '');
+const matchPhrase = (s: Source, i: number, list: L.PhraseList): number => phraseLengthAt(s.tokens, i, list);
+
+/**
+ * Length of the phrase of `list` that starts at token i (longest first), or 0.
+ * @example phraseLengthAt(tokenize('close to Alisos'), 0, L.INNER_NEAR_PHRASES) // 2
+ */
+export function phraseLengthAt(tokens: Token[], i: number, list: L.PhraseList): number {
   let best = 0;
-  for (const phrase of candidates ?? []) {
-    if (phrase.length > best && phrase.every((w, k) => norm(s, i + k) === w)) best = phrase.length;
+  for (const phrase of list.get(tokens[i]?.norm ?? '') ?? []) {
+    if (phrase.length > best && phrase.every((w, k) => tokens[i + k]?.norm === w)) best = phrase.length;
   }
   return best;
 }
