@@ -239,6 +239,11 @@ function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Se
   const { from, to } = segment;
   // Each split reads its halves again: a longer run of tokens is no label's clause, and is left whole to bound the work.
   if (to - from > MAX_JOINED_TOKENS) return [segment];
+  // Most clauses hold neither word: they are not read twice.
+  const joiners = (k: number) => phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES) > 0 || L.CONJUNCTIONS.has(tokens[k]!.norm);
+  let some = false;
+  for (let k = from + 1; k < to - 1 && !some; k++) some = joiners(k);
+  if (!some) return [segment];
   const read = (a: number, b: number) => readLocalityClause(text, tokens.slice(a, b));
   const whole = read(from, to);
   const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(text, tokens, { ...segment, from: k + skip })];
