@@ -58,15 +58,19 @@ function withoutLeadingArticle(written: string): string {
 
 /**
  * "Brazil, Bahia, Ilhéus" with the record's country and state: a clause that names one of the record's own
- * units, followed by other clauses, heads a hierarchy written with commas; it is context, and the next clause
- * is the reading (each such head noted). A unit named alone is left for `unitNamed`.
+ * units, followed by other clauses, heads a hierarchy written with commas or periods; it is context, and the
+ * next clause is the reading (each such head noted; a state or county head also written into its administrative context). A unit
+ * named alone is left for `unitNamed`.
  * @example pastUnitHeads(parseLocality('Isla Verdemar, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
  */
 export function pastUnitHeads(interpretation: Interpretation, context: AdministrativeContext): Interpretation {
   let reading = interpretation;
   for (let unit = unitNamed(reading, context); unit && reading.type === 'named-place' && reading.otherClauses.length > 0; unit = unitNamed(reading, context)) {
     const next = readingOf(reading, reading.otherClauses[0]!);
-    reading = { ...next, notes: [...next.notes, `"${unit.written}" names the record's ${LEVEL_WORDS[unit.level]}: read as context, the clause after it used`] };
+    // Context written into the text, as a hierarchy's link is: a county's town may stand in for a place not
+    // found (standInsNamed). Not a country: its name in another language may be a town's ("Brasilia").
+    const administrative = unit.level === 'country' || unit.level === 'unit' ? next.administrative : { [unit.level]: unit.name, ...next.administrative };
+    reading = { ...next, administrative, notes: [...next.notes, `"${unit.written}" names the record's ${LEVEL_WORDS[unit.level]}: read as context, the clause after it used`] };
   }
   return reading;
 }

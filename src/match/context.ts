@@ -3,10 +3,10 @@
  * comparison of state and county names. Pure functions, no I/O.
  */
 import type { AdministrativeContext } from '../parse/types.ts';
+import { COUNTRY_NAME_LANGUAGES, EXONYM_LANGUAGES, LATIN_COUNTRY_NAMES, regionNames } from '../parse/country-names.ts';
 import { foldName } from './fold.ts';
 import type { Feature } from './types.ts';
 
-const DISPLAY_LANGUAGES = ['en', 'es', 'pt', 'fr'] as const;
 let countryNameIndex: Map<string, string> | undefined;
 
 /**
@@ -18,49 +18,12 @@ let countryNameIndex: Map<string, string> | undefined;
 export function countryCodeForName(name: string): string | null {
   if (countryNameIndex === undefined) {
     countryNameIndex = new Map();
-    for (const { code, name: regionName } of regionNames(DISPLAY_LANGUAGES)) countryNameIndex.set(foldName(regionName), code);
+    for (const { code, name: regionName } of regionNames(COUNTRY_NAME_LANGUAGES)) countryNameIndex.set(foldName(regionName), code);
   }
   const folded = foldName(name);
   if (/^[a-z]{2}$/.test(folded)) return folded.toUpperCase();
   return countryNameIndex.get(folded) ?? null;
 }
-
-/**
- * Every two-letter region code that CLDR names in the languages (Node's Intl), with its name in each,
- * code by code and, for one code, in the order of the languages.
- * @example regionNames(['en']).find((r) => r.code === 'BR') // { code: 'BR', name: 'Brazil', language: 'en' }
- */
-function regionNames(languages: readonly string[]): { code: string; name: string; language: string }[] {
-  const displays = languages.map((language) => ({ language, display: new Intl.DisplayNames([language], { type: 'region', fallback: 'none' }) }));
-  const names: { code: string; name: string; language: string }[] = [];
-  for (let first = 65; first <= 90; first++) {
-    for (let second = 65; second <= 90; second++) {
-      const code = String.fromCharCode(first, second);
-      for (const { language, display } of displays) {
-        const name = display.of(code);
-        if (name !== undefined && name !== code) names.push({ code, name, language });
-      }
-    }
-  }
-  return names;
-}
-
-/**
- * Languages whose country names stand on older labels beside the four read throughout: German, Italian
- * and Dutch, from the CLDR region names Node's Intl carries (labels of European herbaria are often
- * written in them; common practice, no source).
- */
-const EXONYM_LANGUAGES = ['de', 'it', 'nl'] as const;
-
-/**
- * Latin names of countries written on older labels, which CLDR does not carry: from memory (the
- * New Latin names of the Americas' countries), so short and only where the Latin differs from the
- * names in the other languages.
- */
-const LATIN_COUNTRY_NAMES: Readonly<Record<string, readonly string[]>> = {
-  BR: ['Brasilia'], MX: ['Mexicum'], PY: ['Paraquaria'], UY: ['Uruguaia'], PE: ['Peruvia'], CO: ['Columbia'],
-  VE: ['Venetiola'], CL: ['Chilia'], EC: ['Aequatoria'], GT: ['Guatimala'], US: ['Civitates Foederatae Americae'],
-};
 
 let exonymIndex: Map<string, Map<string, string>> | undefined;
 

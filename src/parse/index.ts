@@ -9,6 +9,7 @@ import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { phraseLengthAt, readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
+import { namesCountry } from './country-names.ts';
 import * as L from './lexicon.ts';
 
 export { parseCoordinates } from './coordinates.ts';
@@ -268,8 +269,8 @@ const MAX_JOINED_TOKENS = 60;
  * Which segments are links of an administrative hierarchy written into the text [our rule, no source]: those
  * followed by ":", "|" or a spaced dash ("Country: State: place", "Country | State | County", "Country - State -
  * place"); the last segment of a "|" export when it reads as a bare name; two or more leading segments ended
- * by a period that read as bare names ("Country. State. place"). "Place: 10 km NE" is no chain: the colon
- * introduces the offset.
+ * by a period that read as bare names, the first a country's name ("Brasil. Paraná. Curitiba"). "Place: 10 km
+ * NE" is no chain: the colon introduces the offset.
  */
 function hierarchyLinks(text: string, tokens: Token[], segments: Segment[], read: (k: number) => LocalityRead | undefined): boolean[] {
   const last = segments.length - 1;
@@ -281,7 +282,10 @@ function hierarchyLinks(text: string, tokens: Token[], segments: Segment[], read
   if (last > 0 && segments[last - 1]!.separator === '|' && isBareName(text, tokens, segments[last]!, read(last))) links[last] = true;
   let periods = 0;
   while (periods < last && segments[periods]!.separator === '.' && isBareName(text, tokens, segments[periods]!, read(periods))) periods++;
-  if (periods >= 2) for (let k = 0; k < periods; k++) links[k] = true;
+  // A period also ends sentences ("Z. P. Las Tablas. Cordillera de Talamanca. San Vito."): only a first part
+  // that is a country's name heads a hierarchy; other parts stay clauses, to be found or checked.
+  const head = segments[0]!;
+  if (periods >= 2 && namesCountry(tokens.slice(head.from, head.to))) for (let k = 0; k < periods; k++) links[k] = true;
   return links;
 }
 

@@ -369,6 +369,30 @@ describe('clauses that give context or stand in (method workflow step 5: the mos
     expect(result.interpretation.notes.join('\n')).not.toContain('also named: "Vila Serena"');
   });
 
+  it('reads clauses written with periods as a hierarchy when they are the record\'s own units ("Isla Verdemar. Poniente. Puerto Lindo")', () => {
+    const result = locate(store, { locality: 'Isla Verdemar. Poniente. Puerto Lindo', countryCode: 'QV', country: 'Isla Verdemar', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0013', 'qv-0002']);
+    expect(result.georeference!.components.unusedFeature).toBeUndefined();
+    expect(result.interpretation.notes.join('\n')).toContain('"Isla Verdemar" names the record\'s country: read as context, the clause after it used');
+  });
+
+  it('never takes period-separated places that head no hierarchy as context: missing, they widen the answer ("Reserva Nunca Vista. Cordillera Nunca Vista. Puerto Lindo.")', () => {
+    const result = locate(store, { locality: 'Reserva Nunca Vista. Cordillera Nunca Vista. Puerto Lindo.', countryCode: 'QV', stateProvince: 'Poniente' });
+    expect(result.status).toBe('georeferenced');
+    const g = result.georeference!;
+    expect(g.features[0]!.featureId).toBe('qv-0013');
+    expect(g.components.unusedFeature).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+    expect(g.uncertaintyMeters).toBeCloseTo(PUERTO_LINDO_RADIUS + METHOD_DEFAULTS.unusedFeatureMeters, 6);
+  });
+
+  it('lets the record\'s county, written as a leading clause, stand in by its town when the place after it is not loaded', () => {
+    const result = locate(store, { locality: 'Alisos. Fazenda Nunca Vista', countryCode: 'QV', county: 'Alisos' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0005']);
+    expect(result.interpretation.notes.join('\n')).toContain('the town of the county the text names, "Alisos", is used instead');
+  });
+
   it('uses the town of a municipality the text names when no place of the text is loaded, widened by [CHOICE] unusedFeatureMeters', () => {
     const result = locate(store, { locality: 'Mun. Vila Serena: Fazenda Nunca Vista', countryCode: 'QV' });
     expect(result.status).toBe('georeferenced');
