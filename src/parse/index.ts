@@ -7,7 +7,7 @@
 import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset, RouteReading } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
-import { readLocalityClause, type LocalityRead } from './locality.ts';
+import { phraseLengthAt, readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import { namesCountry } from './country-names.ts';
 import * as L from './lexicon.ts';
@@ -104,7 +104,7 @@ function interpret(text: string): Interpretation {
   const segments: Segment[] = (found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length)
-  ).flatMap((segment) => splitElevationTail(text, tokens, segment));
+  ).flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(text, tokens, segment));
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
@@ -228,6 +228,42 @@ function interpret(text: string): Interpretation {
   if (found) result.coordinates = found.coordinates;
   return choose(pieces, result, chainLevel);
 }
+
+/**
+ * Two clauses written as one, split in two [our rule, no source]: a "near" word inside what was read as a place's
+ * name alone ("Puente Alto near Alisos": no name holds "near", so it starts a clause, as "Puente Alto, near
+ * Alisos" would), and two offsets from two places joined by "and" ("1 mi NE of
+ * Wexley and 11 mi SE of Ashcombe", read as two clauses; "3 km N and 2 km E of X" stays one orthogonal offset).
+ * @example splitJoinedClauses(text, tokenize('Puente Alto near Alisos'), { from: 0, to: 4, separator: '' }) // [{ from: 0, to: 2, … }, { from: 2, to: 4, … }]
+ */
+function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Segment[] {
+  const { from, to } = segment;
+  // Each split reads its halves again: a longer run of tokens is no label's clause, and is left whole to bound the work.
+  if (to - from > MAX_JOINED_TOKENS) return [segment];
+  // Most clauses hold neither word: they are not read twice.
+  const joiners = (k: number) => phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES) > 0 || L.CONJUNCTIONS.has(tokens[k]!.norm);
+  let some = false;
+  for (let k = from + 1; k < to - 1 && !some; k++) some = joiners(k);
+  if (!some) return [segment];
+  const read = (a: number, b: number) => readLocalityClause(text, tokens.slice(a, b));
+  const whole = read(from, to);
+  const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(text, tokens, { ...segment, from: k + skip })];
+  const named = (r: LocalityRead) => r.type === 'named-place' && !r.bare && r.features.length > 0;
+  const offsetFrom = (r: LocalityRead) => isOffsetType(r.type) && !r.bare && r.features.length > 0;
+  for (let k = from + 1; k < to - 1; k++) {
+    const near = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES);
+    const inName = near > 0 && tokens[k + near]?.kind === 'word' && whole.features.some((f) => f.split(/\s+/).includes(tokens[k]!.text));
+    // Only after a name alone: "3 km S of X near Z" stays one offset from "X near Z"; split too, it added two right
+    // answers and one false on the real records (a label stating no state, whose X has a namesake in another state).
+    if (inName && named(read(from, k))) return halves(k, 0);
+    const joined = whole.type === 'unparseable' && tokens[k]!.kind === 'word' && L.CONJUNCTIONS.has(tokens[k]!.norm);
+    if (joined && offsetFrom(read(from, k)) && offsetFrom(read(k + 1, to))) return halves(k, 1);
+  }
+  return [segment];
+}
+
+/** The most tokens a clause split by splitJoinedClauses may hold (those split on the real records hold at most 17). */
+const MAX_JOINED_TOKENS = 60;
 
 /**
  * Which segments are links of an administrative hierarchy written into the text [our rule, no source]: those

@@ -83,6 +83,16 @@ export const NEAR_PREFIXES = phrases(
     'behind | atras de | atras do | atras da | detras de | detras del | derriere',
 );
 /**
+ * "near" words no place's name holds, so that one written inside what would be a name ends the name and starts
+ * a clause of its own ("Puente Alto near Alisos", "Cañada Fría cerca de Alisos", "Morro Alto perto de Alisos",
+ * "Pont Vieux près de Vaubrun"). Words that may be part of a name ("above", "behind", "around", "cerca" alone,
+ * "junto a") are left out.
+ */
+export const INNER_NEAR_PHRASES = phrases(
+  'near | near to | close to | in the vicinity of | vicinity of | cerca de | cerca del | alrededor de | alrededor del | en las inmediaciones de | en los alrededores de | ' +
+    'perto de | perto da | perto do | nas proximidades de | nos arredores de | pres de | pres du | pres d\' | proche de | aux environs de | a proximite de',
+);
+/**
  * Generic words of unnamed relief before "near"/"of"/"above" X ("Mountains near X", "Hills of X", "colinas
  * cerca de X", "serras perto de X", "collines près de X"): the feature is unnamed; the reading is "near X".
  */
@@ -99,6 +109,8 @@ export const SIDE_WORDS = set('side end part edge slope slopes flank bank shore 
 /** Roads, trails and rivers, for path offsets ("by road", "por camino", "par la route", "along the river"). */
 /** Nouns of roads: a path offset in mode 'road'. */
 export const ROAD_NOUNS = set('road rd roads hwy highway route rte camino carretera ctra carr ruta estrada estr rod rodovia caminho chemin br');
+/** English words written between a distance's number and its unit that say how it was measured: "17 air miles", "12 road km", "3.5 trail mi" (es/pt/fr write these after the unit: "km en línea recta", "km pela estrada", "km à vol d'oiseau"). */
+export const DISTANCE_HOW_WORDS: ReadonlyMap<string, 'air' | 'road' | 'trail'> = new Map([['air', 'air'], ['road', 'road'], ['trail', 'trail']]);
 /** Nouns of trails and tracks: mode 'trail'. */
 export const TRAIL_NOUNS = set('trail track path sendero vereda trocha picada trilha senda sentier piste');
 /** Nouns of rivers and of travel by water: mode 'river'. */

@@ -41,11 +41,16 @@ interface Source {
 const norm = (s: Source, i: number): string | undefined => s.tokens[i]?.norm;
 
 /** Length of the phrase of `list` that starts at i (longest first), or 0. */
-function matchPhrase(s: Source, i: number, list: L.PhraseList): number {
-  const candidates = list.get(norm(s, i) ?? '');
+const matchPhrase = (s: Source, i: number, list: L.PhraseList): number => phraseLengthAt(s.tokens, i, list);
+
+/**
+ * Length of the phrase of `list` that starts at token i (longest first), or 0.
+ * @example phraseLengthAt(tokenize('close to Alisos'), 0, L.INNER_NEAR_PHRASES) // 2
+ */
+export function phraseLengthAt(tokens: Token[], i: number, list: L.PhraseList): number {
   let best = 0;
-  for (const phrase of candidates ?? []) {
-    if (phrase.length > best && phrase.every((w, k) => norm(s, i + k) === w)) best = phrase.length;
+  for (const phrase of list.get(tokens[i]?.norm ?? '') ?? []) {
+    if (phrase.length > best && phrase.every((w, k) => tokens[i + k]?.norm === w)) best = phrase.length;
   }
   return best;
 }
@@ -82,12 +87,15 @@ const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'm
  * `unitless`: a number followed directly by a heading ("0.5 NW of X") is read with no unit: marked
  * `unitAssumed`, provisionally in miles, the larger plausible unit (the method widens it, method-defaults.ts).
  */
-function readDistanceAt(s: Source, i: number, unitless = false): { distance: WrittenDistance; next: number } | null {
+function readDistanceAt(s: Source, i: number, unitless = false): { distance: WrittenDistance; next: number; how?: 'air' | PathQualifier } | null {
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
-  const unitToken = s.tokens[number.next];
+  // "17 air miles", "12 road km", "3.5 trail mi": how the distance was measured, written before its unit.
+  const how = L.DISTANCE_HOW_WORDS.get(norm(s, number.next) ?? '');
+  const measured = how && UNIT_WORDS.has(norm(s, number.next + 1) ?? '') ? number.next + 1 : number.next;
+  const unitToken = s.tokens[measured];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
-  let next = number.next + 1;
+  let next = measured + 1;
   if (!unit && unitless && !ordinalAt(s.tokens, i) && readHeading(s, number.next)) {
     const written = s.text.slice(s.tokens[i]!.start, s.tokens[number.next - 1]!.end);
     const distance: WrittenDistance = {
@@ -118,7 +126,8 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
     uncertaintyMeters: toMeters(uncertainty, unit),
   };
   if (number.range) distance.range = number.range;
-  return { distance, next };
+  if (measured === number.next) return { distance, next };
+  return { distance, next, how: how === 'air' ? 'air' : pathOf(how!, s.tokens[number.next]!.text) };
 }
 
 /** A heading at i, after optional "al", "ao", "au", "à l'", "to the". "sur la ..." is French "on", not south. */
@@ -333,6 +342,8 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const first = readDistanceAt(s, i, unitless);
   if (!first) return null;
   const offset: Offset = { distance: first.distance };
+  if (first.how === 'air') offset.byAir = true;
+  else if (first.how) offset.path = first.how;
   const notes: string[] = [];
   let j = first.next;
   let pathStart = -1;

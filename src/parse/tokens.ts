@@ -32,6 +32,12 @@ const VULGAR_FRACTIONS: ReadonlyMap<string, [number, number]> = new Map([
 /** Abbreviations longer than four letters that keep their period as part of the word. */
 const LONG_ABBREVIATIONS = new Set(['approx', 'aprox', 'depto', 'dept', 'depart', 'mpio', 'munic', 'confl', 'junct', 'prov', 'vicin', 'apprx', 'envir', 'aprx', 'distr']);
 
+/**
+ * Short generic words of places that are whole words, never cut short: a period after one ends a sentence
+ * ("Lake City. Fall Creek", "Stevens Pass. Wenatchee National Forest", "Lago Azul. Campo", "Lac Vert. Route").
+ */
+const WHOLE_SHORT_WORDS = new Set(['city', 'town', 'lake', 'pass', 'park', 'peak', 'hill', 'bay', 'cove', 'mesa', 'lago', 'rio', 'pico', 'isla', 'ilha', 'lac', 'baie', 'ile']);
+
 const isDigit = (c: string): boolean => c >= '0' && c <= '9';
 const LETTER = /\p{L}/u;
 const MARK = /\p{M}/u;
@@ -86,7 +92,7 @@ export function tokenize(text: string): Token[] {
       let word = text.slice(start, i);
       const norm = fold(word).replace('’', "'");
       let dotted = false;
-      if (text[i] === '.' && (norm.length <= 4 || LONG_ABBREVIATIONS.has(norm))) {
+      if (text[i] === '.' && (norm.length <= 4 || LONG_ABBREVIATIONS.has(norm)) && !WHOLE_SHORT_WORDS.has(norm)) {
         i++;
         dotted = true;
         word = text.slice(start, i);

@@ -165,6 +165,22 @@ describe('a later clause names the findable place', () => {
     expect(g.remarks.join('\n')).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the next clause, "Puerto Lindo", is used instead/);
   });
 
+  it('reads a place named before "near" as its own clause, so "near" the findable place stands in, widened ("Villa Quimera near Puerto Lindo", four languages)', () => {
+    // Common practice, no source: no place's name holds "near"; the text reads as "Villa Quimera, near Puerto Lindo".
+    for (const locality of ['Villa Quimera near Puerto Lindo', 'Villa Quimera cerca de Puerto Lindo', 'Villa Quimera perto de Puerto Lindo', 'Villa Quimera près de Puerto Lindo']) {
+      const g = answered(locality, { stateProvince: 'Poniente' });
+      expect(g.featureIds[0], locality).toBe('qv-0013');
+      expect(g.widened, locality).toBe(METHOD_DEFAULTS.unusedFeatureMeters);
+      expect(g.remarks, locality).toMatch(/"Villa Quimera" is named but not in the loaded gazetteers/);
+    }
+  });
+
+  it('reads two offsets from two places joined by "and" as two clauses: the second stands in when the first place is missing ("1 air mi NE of Villa Quimera and 11 air mi SE of Puerto Lindo")', () => {
+    const g = answered('ca 1 air mi NE of Villa Quimera and ca 11 air mi SE of Puerto Lindo', { stateProvince: 'Poniente' });
+    expect(g.featureIds[0]).toBe('qv-0013');
+    expect(g.remarks).toMatch(/"Villa Quimera" is not in the loaded gazetteers: the next clause, "ca 11 air mi SE of Puerto Lindo", is used instead/);
+  });
+
   it('takes a unit named in the later clause by its polygon, with no term added ("Cerro Azul, Alisos")', () => {
     const result = locate(store, { locality: 'Cerro Azul, Alisos', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
