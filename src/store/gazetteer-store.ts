@@ -455,7 +455,8 @@ function sqliteNameIndex(s: Statements): NameIndex {
       ? s.postings.all(JSON.stringify([...new Set(tokenIds)].sort((a, b) => a - b)), limit) as string[]
       : s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
-      const partnerIds = JSON.stringify(partners.map((token) => token.id));
+      // Sorted and each once: partnerPostingsWithDriver joins them (see postings).
+      const partnerIds = JSON.stringify([...new Set(partners.map((token) => token.id))].sort((a, b) => a - b));
       // Whichever side has fewer postings is read, each probed for the other side (one index seek a row).
       const partnerPostings = partners.reduce((sum, token) => sum + token.df, 0);
       const [plain, inCountries] = partnerPostings < driver.df * partners.length
@@ -530,9 +531,8 @@ function prepareStatements(db: Database.Database) {
       WHERE p.token = @driver
         AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners)))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`).pluck(),
-    partnerPostingsWithDriver: db.prepare(`SELECT q.feature || ' ' || @driver FROM postings q
-      WHERE q.token IN (SELECT value FROM json_each(@partners))
-        AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature) LIMIT @limit`).pluck(),
+    partnerPostingsWithDriver: db.prepare(`SELECT q.feature || ' ' || @driver FROM json_each(@partners) k CROSS JOIN postings q ON q.token = k.value
+      WHERE EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature) LIMIT @limit`).pluck(),
     partnerPostingsWithDriverInCountries: db.prepare(`SELECT q.feature || ' ' || @driver FROM postings q JOIN features f ON f.id = q.feature
       WHERE q.token IN (SELECT value FROM json_each(@partners))
         AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
