@@ -60,19 +60,54 @@ function withoutLeadingArticle(written: string): string {
  * "Brazil, Bahia, Ilhéus" with the record's country and state: a clause that names one of the record's own
  * units, followed by other clauses, heads a hierarchy written with commas or periods; it is context, and the
  * next clause is the reading (each such head noted; a state or county head also written into its administrative context). A unit
- * named alone is left for `unitNamed`.
- * @example pastUnitHeads(parseLocality('Isla Verdemar, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
+ * named alone is left for `unitNamed`. So is a clause the loaded gazetteer holds as a unit of the record's
+ * country (headUnitLoaded: "Isla Verdemar. Poniente. Puerto Lindo" with only the country code QV), when the
+ * clause after it is no unit as wide.
+ * @example pastUnitHeads(store, parseLocality('Isla Verdemar, Poniente, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
  */
-export function pastUnitHeads(interpretation: Interpretation, context: AdministrativeContext): Interpretation {
+export function pastUnitHeads(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Interpretation {
   let reading = interpretation;
-  for (let unit = unitNamed(reading, context); unit && reading.type === 'named-place' && reading.otherClauses.length > 0; unit = unitNamed(reading, context)) {
+  while (reading.type === 'named-place' && reading.otherClauses.length > 0) {
     const next = readingOf(reading, reading.otherClauses[0]!);
+    const own = unitNamed(reading, context);
+    const loaded = own ? null : headUnitLoaded(finder, reading, context);
+    const unit = own ?? (loaded && !isAsWide(headUnitLoaded(finder, next, context), loaded) ? loaded : null);
+    if (!unit) break;
     // Context written into the text, as a hierarchy's link is: a county's town may stand in for a place not
     // found (standInsNamed). Not a country: its name in another language may be a town's ("Brasilia").
     const administrative = unit.level === 'country' || unit.level === 'unit' ? next.administrative : { [unit.level]: unit.name, ...next.administrative };
-    reading = { ...next, administrative, notes: [...next.notes, `"${unit.written}" names the record's ${LEVEL_WORDS[unit.level]}: read as context, the clause after it used`] };
+    const why = own ? `names the record's ${LEVEL_WORDS[unit.level]}` : `names the loaded gazetteer's ${LEVEL_WORDS[unit.level]} "${unit.name}", in the record's country`;
+    reading = { ...next, administrative, notes: [...next.notes, `"${unit.written}" ${why}: read as context, the clause after it used`] };
   }
   return reading;
+}
+
+/** Unit levels from the widest. */
+const LEVEL_ORDER: readonly AdministrativeLevel[] = ['country', 'stateProvince', 'county'];
+
+/** Whether `unit` (if any) is as wide as `than` or wider: then it is no more specific clause. */
+function isAsWide(unit: NamedUnit | null, than: NamedUnit): boolean {
+  return unit !== null && LEVEL_ORDER.indexOf(unit.level) <= LEVEL_ORDER.indexOf(than.level);
+}
+
+/**
+ * The unit of the record's country that the loaded gazetteer holds under the reading's lone name, exactly (its
+ * name or an alternate name): a country or state/province, or a county one of whose names is the record's
+ * county; null otherwise, and for a record with no country code (a state's name alone, anywhere, too often is a town's).
+ * @example headUnitLoaded(store, parseLocality('Verdemar'), { countryCode: 'QV' }) // { name: 'Isla Verdemar', level: 'country', written: 'Verdemar' }
+ */
+function headUnitLoaded(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): NamedUnit | null {
+  const code = context.countryCode?.trim().toUpperCase();
+  if (!code || interpretation.type !== 'named-place' || interpretation.features.length !== 1) return null;
+  const written = interpretation.features[0]!;
+  const county = context.county ? foldName(context.county) : undefined;
+  const isUnit = ({ feature }: Candidate) =>
+    feature.featureType === 'country' || feature.featureType === 'stateProvince'
+    || (county !== undefined && [feature.name, ...feature.alternateNames].some((name) => foldName(name) === county));
+  const found = finder
+    .findCandidates({ name: written, context: { countryCode: code }, featureTypes: ['country', 'stateProvince', 'county'] })
+    .find((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === code && isUnit(c));
+  return found ? { name: found.feature.name, level: found.feature.featureType as AdministrativeLevel, written } : null;
 }
 
 /**

@@ -123,8 +123,9 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const edits = request.edits ?? {};
   const read = interpretationOf(request);
   const edited = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
-  const context = contextOf(request, edited);
-  const interpretation = pastUnitHeads(edited, context);
+  const interpretation = pastUnitHeads(finder, edited, contextOf(request, edited));
+  // A state or county the text's hierarchy names bounds the search as the record's would.
+  const context = contextOf(request, interpretation);
   const datum = datumGiven(request);
   if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };

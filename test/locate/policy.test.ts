@@ -377,6 +377,26 @@ describe('clauses that give context or stand in (method workflow step 5: the mos
     expect(result.interpretation.notes.join('\n')).toContain('"Isla Verdemar" names the record\'s country: read as context, the clause after it used');
   });
 
+  it('reads a leading clause the gazetteer holds as a unit of the record\'s country as context when only the country code is given ("Isla Verdemar. Poniente. Puerto Lindo")', () => {
+    for (const locality of ['Isla Verdemar. Poniente. Puerto Lindo', 'Verdemar, Poniente, Puerto Lindo', 'Poniente. Puerto Lindo']) {
+      const result = locate(store, { locality, countryCode: 'QV' });
+      expect(result.status, locality).toBe('georeferenced');
+      // The town (qv-0013), bounded by the province the text names (qv-0002), not the 78 km country polygon.
+      expect(result.georeference!.features.map((f) => f.featureId), locality).toEqual(['qv-0013', 'qv-0002']);
+      expect(result.interpretation.notes.join('\n'), locality).toContain('names the loaded gazetteer\'s state or province "Poniente", in the record\'s country: read as context, the clause after it used');
+    }
+  });
+
+  it('bounds the place by the province a gazetteer-found head names: a town of another province is a contradiction, not an answer', () => {
+    const result = locate(store, { locality: 'Isla Verdemar, Serra Alta, Puerto Lindo', countryCode: 'QV' });
+    expect(result.status).not.toBe('georeferenced');
+  });
+
+  it('keeps a unit named after a narrower one as the answer: no more specific clause follows ("Poniente, Isla Verdemar")', () => {
+    const result = locate(store, { locality: 'Poniente, Isla Verdemar', countryCode: 'QV' });
+    expect(result.georeference!.features.map((f) => f.featureId)).toEqual(['qv-0002']);
+  });
+
   it('never takes period-separated places that head no hierarchy as context: missing, they widen the answer ("Reserva Nunca Vista. Cordillera Nunca Vista. Puerto Lindo.")', () => {
     const result = locate(store, { locality: 'Reserva Nunca Vista. Cordillera Nunca Vista. Puerto Lindo.', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
