@@ -3,7 +3,7 @@
  * comparison of state and county names. Pure functions, no I/O.
  */
 import type { AdministrativeContext } from '../parse/types.ts';
-import { COUNTRY_NAME_LANGUAGES, EXONYM_LANGUAGES, LATIN_COUNTRY_NAMES, regionNames } from '../parse/country-names.ts';
+import { COUNTRY_NAME_LANGUAGES, countryCodeWritten, EXONYM_LANGUAGES, LATIN_COUNTRY_NAMES, regionNames } from '../parse/country-names.ts';
 import { foldName } from './fold.ts';
 import type { Feature } from './types.ts';
 
@@ -14,6 +14,7 @@ let countryNameIndex: Map<string, string> | undefined;
  * from the CLDR region names that Node's Intl carries; null when the name is not one of them.
  * @example countryCodeForName('Brasil') // 'BR'
  * @example countryCodeForName('Côte d’Ivoire') // 'CI'
+ * @example countryCodeForName('BRA') // 'BR' (an alpha-3 code written in capitals, as a hierarchy's head may be)
  */
 export function countryCodeForName(name: string): string | null {
   if (countryNameIndex === undefined) {
@@ -22,6 +23,8 @@ export function countryCodeForName(name: string): string | null {
   }
   const folded = foldName(name);
   if (/^[a-z]{2}$/.test(folded)) return folded.toUpperCase();
+  const alpha3 = /^[a-z]{3}$/.test(folded) ? countryCodeWritten(name) : null;
+  if (alpha3) return alpha3;
   return countryNameIndex.get(folded) ?? null;
 }
 

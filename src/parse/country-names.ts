@@ -3,6 +3,7 @@
  * to tell, from the text alone, whether a clause names a country ("Brasil", "Costa Rica").
  * Pure; the tables are built once, on first use.
  */
+import { whereAlpha2, whereAlpha3 } from 'iso-3166-1';
 import { foldedWords } from './clauses.ts';
 import { tokenize, type Token } from './tokens.ts';
 
@@ -64,4 +65,16 @@ export function namesCountry(tokens: Token[]): boolean {
     return foldedWords(words, 0, words.length);
   }));
   return countryNames.has(foldedWords(tokens, 0, tokens.length));
+}
+
+/**
+ * The ISO 3166-1 alpha-2 code a text writes as a code in capitals, alpha-2 or alpha-3 (the registry
+ * package iso-3166-1 2.1.1), or null ("Brazil", "Bra", "XX").
+ * @example countryCodeWritten('BRA') // 'BR'
+ * @example countryCodeWritten('CR') // 'CR'
+ */
+export function countryCodeWritten(written: string): string | null {
+  const code = written.trim();
+  if (/^[A-Z]{2}$/.test(code)) return whereAlpha2(code)?.alpha2 ?? null;
+  return /^[A-Z]{3}$/.test(code) ? whereAlpha3(code)?.alpha2 ?? null : null;
 }

@@ -9,7 +9,7 @@ import { fold, tokenize, type Token } from './tokens.ts';
 import { findCoordinates, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { phraseLengthAt, readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
-import { namesCountry } from './country-names.ts';
+import { countryCodeWritten, namesCountry } from './country-names.ts';
 import * as L from './lexicon.ts';
 
 export { parseCoordinates } from './coordinates.ts';
@@ -105,6 +105,7 @@ function interpret(text: string): Interpretation {
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length)
   ).flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(text, tokens, segment));
+  splitDottedHierarchy(tokens, segments);
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
@@ -285,8 +286,48 @@ function hierarchyLinks(text: string, tokens: Token[], segments: Segment[], read
   // A period also ends sentences ("Z. P. Las Tablas. Cordillera de Talamanca. San Vito."): only a first part
   // that is a country's name heads a hierarchy; other parts stay clauses, to be found or checked.
   const head = segments[0]!;
-  if (periods >= 2 && namesCountry(tokens.slice(head.from, head.to))) for (let k = 0; k < periods; k++) links[k] = true;
+  if (periods >= 2 && headsCountry(tokens, head.from, head.to)) for (let k = 0; k < periods; k++) links[k] = true;
   return links;
+}
+
+/**
+ * Tokens [from, to) name a country: its name (namesCountry), or its ISO 3166-1 code in capitals ("CR", "BRA")
+ * before a clause not all in capitals ("MT. BAKER" is a mountain), that is no compass heading ("NE", "SO").
+ */
+function headsCountry(tokens: Token[], from: number, to: number): boolean {
+  if (namesCountry(tokens.slice(from, to))) return true;
+  const code = to - from === 1 ? tokens[from]!.text.replace(/\.$/, '') : '';
+  const next = tokens[to]?.kind === 'symbol' ? tokens[to + 1] : tokens[to];
+  return !/^[NSEWOL]+$/.test(code) && countryCodeWritten(code) !== null && next?.kind === 'word' && next.text !== next.text.toUpperCase();
+}
+
+/**
+ * "Costa Rica. Puntarenas. San Vito", "CR. Puntarenas. San Vito", "Brasil. Serra Alta. Vila Serena": the
+ * tokenizer keeps the period of a word of four letters or fewer as an abbreviation's ("Sta. Rosa"), so the
+ * clause runs on. In a text headed by a country's name or code and a period, such a period ends the clause
+ * [our rule, no source]: the head's, and one after the last word of a name of two or more words that is no
+ * unit word and has three letters or more with a vowel (abbreviations written after a name, "Co.", "Mts.",
+ * "Rd.", seldom have), before a capitalised word. The word loses its period; the segments change in place.
+ */
+function splitDottedHierarchy(tokens: Token[], segments: Segment[]): void {
+  let headed = segments[0]?.separator === '.' && headsCountry(tokens, segments[0].from, segments[0].to);
+  for (let index = 0; index < segments.length && (index === 0 || (headed && segments[index - 1]!.separator === '.')); index++) {
+    const segment = segments[index]!;
+    for (let k = segment.from; k < segment.to - 1; k++) {
+      const t = tokens[k]!;
+      const next = tokens[k + 1]!;
+      if (t.kind !== 'word' || !t.dotted || next.kind !== 'word' || next.text[0] === next.text[0]!.toLowerCase()) continue;
+      const ends = headed
+        ? k > segment.from && t.norm.length >= 3 && /[aeiou]/.test(t.norm) && !unitWordLevel(t) && !L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm)
+        : index === 0 && headsCountry(tokens, segment.from, k + 1);
+      if (!headed && !ends) break;
+      if (!ends) continue;
+      tokens[k] = { ...t, text: t.text.slice(0, -1), end: t.end - 1, dotted: false };
+      segments.splice(index, 1, { from: segment.from, to: k + 1, separator: '.' }, { ...segment, from: k + 1 });
+      headed = true;
+      break;
+    }
+  }
 }
 
 /** A segment that is only a name: a unit by its unit word, or a named place with nothing else. */
