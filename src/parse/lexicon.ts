@@ -210,6 +210,13 @@ export const FEATURE_KIND_WORDS: ReadonlyMap<string, import('./types.ts').Featur
 ]);
 
 /**
+ * Two words before a name that say it is a protected area, written out or by their initials: "Zona Protectora
+ * Las Tablas", "Z. P. Las Tablas", "P. N." (parque nacional), "R. B." (reserva biológica), "R. F." (reserva
+ * forestal); common practice on labels from Central and South America, no source.
+ */
+export const PROTECTED_AREA_LEADS = set('zona-protectora z-p p-n r-b r-f');
+
+/**
  * Feature-type words before a name, not part of it: "town of X", "ciudad de X", "povoado de X", "ville de X".
  * The name keeps its own "de" ("Ciudad de X" as a proper name is read as X, noted).
  */

@@ -303,12 +303,15 @@ function mountainPartAtEnd(s: Source, from: number, end: number): number {
  * What the generic word of a name says it is: the first word ("Laguna Negra", "Fazenda Boa Vista") or the last
  * ("Otter Creek", "Alisos Ranch", "Verdemar National Park"). A hint for matching, never a reason to refuse.
  * @example featureKindOf("Laguna Negra") // 'water'
+ * @example featureKindOf("R. B. Alisos") // 'protected-area'
  */
 export function featureKindOf(name: string): FeatureKind | undefined {
   const firstSpace = name.indexOf(' ');
   if (firstSpace < 0) return undefined;
   const firstKind = L.FEATURE_KIND_WORDS.get(wordOf(name, 0, firstSpace));
   if (firstKind) return firstKind;
+  const secondSpace = name.indexOf(' ', firstSpace + 1);
+  if (secondSpace > 0 && L.PROTECTED_AREA_LEADS.has(`${wordOf(name, 0, firstSpace)}-${wordOf(name, firstSpace + 1, secondSpace)}`)) return 'protected-area';
   const lastSpace = name.lastIndexOf(' ');
   // A last word after "de"/"del" is part of a name ("San Aurelio del Monte"), not its generic word.
   if (L.FROM_WORDS.has(wordOf(name, name.lastIndexOf(' ', lastSpace - 1) + 1, lastSpace))) return undefined;
