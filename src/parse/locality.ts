@@ -310,8 +310,11 @@ export function featureKindOf(name: string): FeatureKind | undefined {
   if (firstSpace < 0) return undefined;
   const firstKind = L.FEATURE_KIND_WORDS.get(wordOf(name, 0, firstSpace));
   if (firstKind) return firstKind;
+  // The lead's two words, or its two initials written without a space ("P.N. La Amistad").
+  const initials = /^(\p{L})\.(\p{L})\.$/u.exec(name.slice(0, firstSpace));
   const secondSpace = name.indexOf(' ', firstSpace + 1);
-  if (secondSpace > 0 && L.PROTECTED_AREA_LEADS.has(`${wordOf(name, 0, firstSpace)}-${wordOf(name, firstSpace + 1, secondSpace)}`)) return 'protected-area';
+  const lead = initials ? fold(`${initials[1]}-${initials[2]}`) : secondSpace > 0 ? `${wordOf(name, 0, firstSpace)}-${wordOf(name, firstSpace + 1, secondSpace)}` : '';
+  if (L.PROTECTED_AREA_LEADS.has(lead)) return 'protected-area';
   const lastSpace = name.lastIndexOf(' ');
   // A last word after "de"/"del" is part of a name ("San Aurelio del Monte"), not its generic word.
   if (L.FROM_WORDS.has(wordOf(name, name.lastIndexOf(' ', lastSpace - 1) + 1, lastSpace))) return undefined;
