@@ -158,6 +158,9 @@ export interface CoordinatesFound {
   endToken: number;
 }
 
+/** One whole degree with no hemisphere and no axis: it does not say whether it is latitude or longitude. */
+const unplaced = (a: Angle): boolean => a.parts === 1 && a.decimals === 0 && !a.hemisphere && !a.axis;
+
 function readPair(text: string, tokens: Token[], i: number, lenient: boolean, typewriter: boolean): CoordinatesFound | null {
   const first = readAngle(tokens, i, typewriter);
   if (!first) return null;
@@ -170,7 +173,6 @@ function readPair(text: string, tokens: Token[], i: number, lenient: boolean, ty
   if (plainDecimals && !lenient && (first.decimals < 2 || second.decimals < 2 || first.parts > 1 || second.parts > 1)) return null;
   if (!plainDecimals && (!first.marked || !second.marked)) return null;
   // In running text, two whole degrees that say neither which is latitude nor which longitude are no pair ("1° e 2°").
-  const unplaced = (a: Angle) => a.parts === 1 && a.decimals === 0 && !a.hemisphere && !a.axis;
   if (!lenient && unplaced(first) && unplaced(second)) return null;
   const problems = [...first.problems, ...second.problems];
   const axisA = axisOf(first);
@@ -316,14 +318,29 @@ export function findCoordinates(text: string, tokens: Token[], from = 0, to = to
   const window = tokens.slice(from, to);
   const typewriter = doublePrimeAsMinutes(tokens);
   for (let i = 0; i < window.length; i++) {
-    const found = readUtm(text, window, i) ?? readPair(text, window, i, lenient, typewriter);
-    if (found) {
-      const datumWritten = findDatum(text, window);
-      if (datumWritten) found.coordinates.datumWritten = datumWritten;
-      return { ...found, startToken: found.startToken + from, endToken: found.endToken + from };
-    }
+    const found = coordinatesAt(text, window, i, lenient, typewriter);
+    if (found) return { ...found, startToken: found.startToken + from, endToken: found.endToken + from };
   }
   return null;
+}
+
+/**
+ * The coordinate pair that starts at the first token, read leniently as a coordinate field is (bare number
+ * pairs too), or null: what findCoordinates(…, true) finds when its pair starts the text, without trying
+ * every later token.
+ * @example pairAtStart('-45.3, -131.0', tokenize('-45.3, -131.0'))?.endToken // 3
+ */
+export function pairAtStart(text: string, tokens: Token[]): CoordinatesFound | null {
+  return tokens.length === 0 ? null : coordinatesAt(text, tokens, 0, true, doublePrimeAsMinutes(tokens));
+}
+
+/** The UTM reference or coordinate pair that starts at token i, with the datum written anywhere in the tokens. */
+function coordinatesAt(text: string, tokens: Token[], i: number, lenient: boolean, typewriter: boolean): CoordinatesFound | null {
+  const found = readUtm(text, tokens, i) ?? readPair(text, tokens, i, lenient, typewriter);
+  if (!found) return null;
+  const datumWritten = findDatum(text, tokens);
+  if (datumWritten) found.coordinates.datumWritten = datumWritten;
+  return found;
 }
 
 /**

@@ -6,7 +6,7 @@
  */
 import type { AdministrativeLevel, Clause, FeatureKind, ClauseReading, Interpretation, LocalityType, NamedUnit, Offset, RouteReading } from './types.ts';
 import { fold, tokenize, type Token } from './tokens.ts';
-import { findCoordinates, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
+import { findCoordinates, pairAtStart, writesCoordinates, type CoordinatesFound } from './coordinates.ts';
 import { phraseLengthAt, readLocalityClause, type LocalityRead } from './locality.ts';
 import { ADMINISTRATIVE_ORDER, detectLanguage, foldedWords, isRefusal, readAdministrative, readElevation, splitElevationTail, splitSegments, unitWordLevel, type Segment } from './clauses.ts';
 import { countryCodeWritten, namesCountry } from './country-names.ts';
@@ -85,8 +85,8 @@ function clauseOf(text: string, tokens: Token[], from: number, to: number, kind:
  * @example wholeTextPair('-45.3, -131.0', tokenize('-45.3, -131.0'))?.coordinates.latitude // -45.3
  */
 function wholeTextPair(text: string, tokens: Token[]): CoordinatesFound | null {
-  const found = findCoordinates(text, tokens, 0, tokens.length, true);
-  return found && found.startToken === 0 && found.endToken === tokens.length ? found : null;
+  const found = pairAtStart(text, tokens);
+  return found && found.endToken === tokens.length ? found : null;
 }
 
 function interpret(text: string): Interpretation {
@@ -100,23 +100,29 @@ function interpret(text: string): Interpretation {
   if (language) result.language = language;
 
   const pieces: Piece[] = [];
+  // Each span of tokens is read at most once, whether the clause split, the chain rule or the loop below asks first.
+  const spanReadings = new Map<number, LocalityRead>();
+  const readSpan = (from: number, to: number): LocalityRead => {
+    const key = from * (tokens.length + 1) + to;
+    let reading = spanReadings.get(key);
+    if (!reading) spanReadings.set(key, (reading = readLocalityClause(text, tokens.slice(from, to))));
+    return reading;
+  };
   const found = findCoordinates(text, tokens) ?? wholeTextPair(text, tokens);
-  const segments: Segment[] = (found
+  const separated = found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
-    : splitSegments(tokens, 0, tokens.length)
-  ).flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(text, tokens, segment));
-  splitDottedHierarchy(tokens, segments);
+    : splitSegments(tokens, 0, tokens.length);
+  // Before any span is read: it may take a period back from a short word.
+  splitDottedHierarchy(tokens, separated);
+  const segments: Segment[] = separated.flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(tokens, segment, readSpan));
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
   // Segments followed by ":" (or "|", spaced dashes, leading periods) form the chain "Country: State: County".
   let chainLevel = 0;
-  // Each segment is read at most once, whether the chain rule or the loop below asks first.
-  const readings: Array<LocalityRead | undefined> = [];
   const readSegment = (k: number): LocalityRead | undefined => {
     const segment = segments[k];
-    if (segment && !readings[k]) readings[k] = readLocalityClause(text, tokens.slice(segment.from, segment.to));
-    return readings[k];
+    return segment && readSpan(segment.from, segment.to);
   };
   const headings = segments.map((segment) => segment.separator === ':' && L.FIELD_HEADINGS.has(foldedWords(tokens, segment.from, segment.to)));
   const links = hierarchyLinks(text, tokens, segments, readSegment).map((link, k) => link && !headings[k]);
@@ -230,35 +236,37 @@ function interpret(text: string): Interpretation {
   return choose(pieces, result, chainLevel);
 }
 
+/** A place's name read alone, not bare, for the clause split. */
+const namedAlone = (r: LocalityRead): boolean => r.type === 'named-place' && !r.bare && r.features.length > 0;
+/** An offset from a named place, not bare, for the clause split. */
+const offsetFromPlace = (r: LocalityRead): boolean => isOffsetType(r.type) && !r.bare && r.features.length > 0;
+
 /**
  * Two clauses written as one, split in two [our rule, no source]: a "near" word inside what was read as a place's
  * name alone ("Puente Alto near Alisos": no name holds "near", so it starts a clause, as "Puente Alto, near
  * Alisos" would), and two offsets from two places joined by "and" ("1 mi NE of
  * Wexley and 11 mi SE of Ashcombe", read as two clauses; "3 km N and 2 km E of X" stays one orthogonal offset).
- * @example splitJoinedClauses(text, tokenize('Puente Alto near Alisos'), { from: 0, to: 4, separator: '' }) // [{ from: 0, to: 2, … }, { from: 2, to: 4, … }]
+ * `read` reads a span of tokens as a clause (memoised by the caller: the halves are read again as segments).
+ * @example splitJoinedClauses(tokenize('Puente Alto near Alisos'), { from: 0, to: 4, separator: '' }, read) // [{ from: 0, to: 2, … }, { from: 2, to: 4, … }]
  */
-function splitJoinedClauses(text: string, tokens: Token[], segment: Segment): Segment[] {
+function splitJoinedClauses(tokens: Token[], segment: Segment, read: (from: number, to: number) => LocalityRead): Segment[] {
   const { from, to } = segment;
   // Each split reads its halves again: a longer run of tokens is no label's clause, and is left whole to bound the work.
   if (to - from > MAX_JOINED_TOKENS) return [segment];
   // Most clauses hold neither word: they are not read twice.
-  const joiners = (k: number) => phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES) > 0 || L.CONJUNCTIONS.has(tokens[k]!.norm);
   let some = false;
-  for (let k = from + 1; k < to - 1 && !some; k++) some = joiners(k);
+  for (let k = from + 1; k < to - 1 && !some; k++) some = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES) > 0 || L.CONJUNCTIONS.has(tokens[k]!.norm);
   if (!some) return [segment];
-  const read = (a: number, b: number) => readLocalityClause(text, tokens.slice(a, b));
   const whole = read(from, to);
-  const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(text, tokens, { ...segment, from: k + skip })];
-  const named = (r: LocalityRead) => r.type === 'named-place' && !r.bare && r.features.length > 0;
-  const offsetFrom = (r: LocalityRead) => isOffsetType(r.type) && !r.bare && r.features.length > 0;
+  const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(tokens, { ...segment, from: k + skip }, read)];
   for (let k = from + 1; k < to - 1; k++) {
     const near = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES);
     const inName = near > 0 && tokens[k + near]?.kind === 'word' && whole.features.some((f) => f.split(/\s+/).includes(tokens[k]!.text));
     // Only after a name alone: "3 km S of X near Z" stays one offset from "X near Z"; split too, it added two right
     // answers and one false on the real records (a label stating no state, whose X has a namesake in another state).
-    if (inName && named(read(from, k))) return halves(k, 0);
+    if (inName && namedAlone(read(from, k))) return halves(k, 0);
     const joined = whole.type === 'unparseable' && tokens[k]!.kind === 'word' && L.CONJUNCTIONS.has(tokens[k]!.norm);
-    if (joined && offsetFrom(read(from, k)) && offsetFrom(read(k + 1, to))) return halves(k, 1);
+    if (joined && offsetFromPlace(read(from, k)) && offsetFromPlace(read(k + 1, to))) return halves(k, 1);
   }
   return [segment];
 }

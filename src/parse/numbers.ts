@@ -133,12 +133,22 @@ export function readDistanceNumber(written: string): WrittenNumber | null {
  * @example ordinalAt(tokenize('Alisos, 1º e 2º distritos'), 2) // true
  */
 export function ordinalAt(tokens: Token[], k: number): boolean {
-  const ordinal = (i: number) => tokens[i]?.kind === 'number' && tokens[i + 1] !== undefined && !tokens[i + 1]!.spaceBefore && ORDINAL_ENDINGS.has(tokens[i + 1]!.norm);
-  const among = (t: Token | undefined, words: ReadonlySet<string>) => t !== undefined && t.kind !== 'number' && words.has(t.norm);
-  if (!ordinal(k)) return false;
+  if (!ordinalMarked(tokens, k)) return false;
   let first = k;
-  while (ordinal(first - 3) && among(tokens[first - 1], ORDINAL_JOINS)) first -= 3;
+  while (ordinalMarked(tokens, first - 3) && wordAmong(tokens[first - 1], ORDINAL_JOINS)) first -= 3;
   let last = k;
-  while (ordinal(last + 3) && among(tokens[last + 2], ORDINAL_JOINS)) last += 3;
-  return among(tokens[first - 1], ORDINAL_NOUNS) || among(tokens[last + 2], ORDINAL_NOUNS);
+  while (ordinalMarked(tokens, last + 3) && wordAmong(tokens[last + 2], ORDINAL_JOINS)) last += 3;
+  return wordAmong(tokens[first - 1], ORDINAL_NOUNS) || wordAmong(tokens[last + 2], ORDINAL_NOUNS);
+}
+
+// Module-level rather than closures in ordinalAt: it runs on every number the coordinate reader tries.
+/** A number at i with an ordinal mark or ending written right on it ("1º", "2e"). */
+function ordinalMarked(tokens: Token[], i: number): boolean {
+  const mark = tokens[i + 1];
+  return tokens[i]?.kind === 'number' && mark !== undefined && !mark.spaceBefore && ORDINAL_ENDINGS.has(mark.norm);
+}
+
+/** A token other than a number whose folded form is one of `words`. */
+function wordAmong(t: Token | undefined, words: ReadonlySet<string>): boolean {
+  return t !== undefined && t.kind !== 'number' && words.has(t.norm);
 }
