@@ -159,4 +159,14 @@ export const METHOD_DEFAULTS = {
    * real-record sets (README "On real records").
    */
   countryExonymTown: 'review' as 'review' | 'town',
+  /**
+   * The record's state or province names no unit the gazetteer loaded, as written or by another of its
+   * names ("Labrador", "Aisén Region", "Quezaltenango") [CHOICE]: 'on' reads it as the one loaded unit it
+   * names by a looser reading — written with or without spaces, another language's "and", one of the two
+   * names a unit joins ("Newfoundland and Labrador"), one letter apart in a name of 5 letters or more
+   * (src/match/context.ts looseUnitReading; common practice, no source) — and says so in the remarks;
+   * 'off' keeps it as written, which walls off every place the gazetteer records in a named unit. Chosen
+   * by measurement on the real-record sets (README "On real records").
+   */
+  statedUnitReadings: 'on' as 'on' | 'off',
 } as const satisfies Record<string, number | string>;

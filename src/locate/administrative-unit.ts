@@ -5,7 +5,7 @@
  * gazetteer is reached only through the CandidateFinder it is given.
  */
 import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
-import { countryCodeForName, countryExonymLanguage, shortFormKey } from '../match/context.ts';
+import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReading, shortFormKey } from '../match/context.ts';
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
@@ -196,3 +196,30 @@ export function seatNames(unit: NamedUnit): string[] {
   return names.filter((name, k) => names.findIndex((other) => foldName(other) === foldName(name)) === k);
 }
 
+
+/**
+ * The record's stated state or province read as the one loaded unit it names by a looser reading
+ * (looseUnitReading: "Labrador" for Newfoundland and Labrador, "Aisén" for Aysén), with the note saying so;
+ * the context unchanged when the stated name names a loaded unit as written or by another of its names,
+ * when it names none or several by the looser readings, or when the gazetteer records no unit names.
+ * Else every place would be walled off as outside a unit the gazetteer does not know [CHOICE
+ * statedUnitReadings, src/georef/method-defaults.ts].
+ * @example readStatedState(store, { countryCode: 'CA', stateProvince: 'Labrador' }).context.stateProvince // 'newfoundland and labrador'
+ */
+export function readStatedState(finder: CandidateFinder, context: AdministrativeContext): { context: AdministrativeContext; note?: string } {
+  const stated = context.stateProvince;
+  const names = stated && finder.unitNames ? finder.unitNames(1) : [];
+  const key = stated ? administrativeKey(stated) : '';
+  if (!stated || names.length === 0 || names.some((name) => name.key === key)) return { context };
+  const read = new Map<string, string>();
+  for (const name of names) {
+    const how = looseUnitReading(key, name.key);
+    if (how && !read.has(name.unitKey)) read.set(name.unitKey, how);
+  }
+  if (read.size !== 1) return { context };
+  const [[unit, how]] = [...read];
+  return {
+    context: { ...context, stateProvince: unit },
+    note: `the record's state/province "${stated}" names no loaded unit as written; read as the loaded unit "${unit}" (${how}) [CHOICE statedUnitReadings, src/georef/method-defaults.ts]`,
+  };
+}
