@@ -164,7 +164,9 @@ export const METHOD_DEFAULTS = {
    * names ("Labrador", "Aisén Region", "Quezaltenango") [CHOICE]: 'on' reads it as the one loaded unit it
    * names by a looser reading — written with or without spaces, another language's "and", one of the two
    * names a unit joins ("Newfoundland and Labrador"), one letter apart in a name of 5 letters or more
-   * (src/match/context.ts looseUnitReading; common practice, no source) — and says so in the remarks;
+   * (src/match/context.ts looseUnitReading; common practice, no source) — or, with none such, as a unit
+   * within the one state where the gazetteer records the towns of that name (a unit is usually named after
+   * its seat: "Llanquihue"), and says so in the remarks;
    * 'off' keeps it as written, which walls off every place the gazetteer records in a named unit. Chosen
    * by measurement on the real-record sets (README "On real records").
    */

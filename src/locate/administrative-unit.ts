@@ -9,6 +9,7 @@ import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnit
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
+import { SETTLEMENTS } from './feature-kind.ts';
 
 /**
  * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
@@ -200,8 +201,9 @@ export function seatNames(unit: NamedUnit): string[] {
 /**
  * The record's stated state or province read as the one loaded unit it names by a looser reading
  * (looseUnitReading: "Labrador" for Newfoundland and Labrador, "Aisén" for Aysén), with the note saying so;
- * the context unchanged when the stated name names a loaded unit as written or by another of its names,
- * when it names none or several by the looser readings, or when the gazetteer records no unit names.
+ * with none such, a unit within the one state of the towns of its name (withinSeatState); the context
+ * unchanged when the stated name names a loaded unit as written or by another of its names, when it names
+ * several by the looser readings or no state is found, or when the gazetteer records no unit names.
  * Else every place would be walled off as outside a unit the gazetteer does not know [CHOICE
  * statedUnitReadings, src/georef/method-defaults.ts].
  * @example readStatedState(store, { countryCode: 'CA', stateProvince: 'Labrador' }).context.stateProvince // 'newfoundland and labrador'
@@ -210,16 +212,39 @@ export function readStatedState(finder: CandidateFinder, context: Administrative
   const stated = context.stateProvince;
   const names = stated && finder.unitNames ? finder.unitNames(1) : [];
   const key = stated ? administrativeKey(stated) : '';
-  if (!stated || names.length === 0 || names.some((name) => name.key === key)) return { context };
+  // Named as the matcher names it: by its key, or by the short form of an official long name either side.
+  const short = stated ? shortFormKey(stated) : '';
+  const named = (unitKey: string) => unitKey === key || unitKey === short || (unitKey.startsWith(`${short} `) && !looseUnitReading(key, unitKey));
+  if (!stated || names.length === 0 || names.some((name) => named(name.key))) return { context };
   const read = new Map<string, string>();
   for (const name of names) {
     const how = looseUnitReading(key, name.key);
     if (how && !read.has(name.unitKey)) read.set(name.unitKey, how);
   }
-  if (read.size !== 1) return { context };
-  const [[unit, how]] = [...read];
+  if (read.size === 1) {
+    const [[unit, how]] = [...read];
+    return {
+      context: { ...context, stateProvince: unit },
+      note: `the record's state/province "${stated}" names no loaded unit as written; read as the loaded unit "${unit}" (${how}) [CHOICE statedUnitReadings, src/georef/method-defaults.ts]`,
+    };
+  }
+  return read.size === 0 ? withinSeatState(finder, context, stated) : { context };
+}
+
+/**
+ * A stated state or province that names no loaded unit but is the name of towns of the record's country all
+ * recorded in one state ("Valdivia", a province named after its seat, in the Los Ríos region): read as a unit
+ * within that state, which then bounds the search; the context unchanged otherwise.
+ */
+function withinSeatState(finder: CandidateFinder, context: AdministrativeContext, stated: string): { context: AdministrativeContext; note?: string } {
+  if (!context.countryCode) return { context };
+  const towns = finder.findCandidates({ name: stated, context: { countryCode: context.countryCode }, nearSpellings: 'off' })
+    .filter((c) => c.score >= 1 && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  const states = new Set(towns.map((c) => c.feature.stateProvince));
+  const state = states.size === 1 ? [...states][0] : null;
+  if (!state) return { context };
   return {
-    context: { ...context, stateProvince: unit },
-    note: `the record's state/province "${stated}" names no loaded unit as written; read as the loaded unit "${unit}" (${how}) [CHOICE statedUnitReadings, src/georef/method-defaults.ts]`,
+    context: { ...context, stateProvince: state },
+    note: `the record's state/province "${stated}" names no loaded unit; read as a unit within "${state}", where the gazetteer records the town${towns.length > 1 ? 's' : ''} of that name, as a unit is usually named after its seat [CHOICE statedUnitReadings, src/georef/method-defaults.ts]`,
   };
 }

