@@ -210,12 +210,14 @@ export function seatNames(unit: NamedUnit): string[] {
  */
 export function readStatedState(finder: CandidateFinder, context: AdministrativeContext): { context: AdministrativeContext; note?: string } {
   const stated = context.stateProvince;
-  const names = stated && finder.unitNames ? finder.unitNames(1) : [];
-  const key = stated ? administrativeKey(stated) : '';
+  if (!stated || !finder.unitNames) return { context };
   // Named as the matcher names it: by its key, or by the short form of an official long name either side.
-  const short = stated ? shortFormKey(stated) : '';
-  const named = (unitKey: string) => unitKey === key || unitKey === short || (unitKey.startsWith(`${short} `) && !looseUnitReading(key, unitKey));
-  if (!stated || names.length === 0 || names.some((name) => named(name.key))) return { context };
+  const key = administrativeKey(stated);
+  const short = shortFormKey(stated);
+  if (finder.unitNames(1, key).length > 0 || finder.unitNames(1, short).length > 0) return { context };
+  const names = finder.unitNames(1);
+  const named = (unitKey: string) => unitKey.startsWith(`${short} `) && !looseUnitReading(key, unitKey);
+  if (names.length === 0 || names.some((name) => named(name.key))) return { context };
   const read = new Map<string, string>();
   for (const name of names) {
     const how = looseUnitReading(key, name.key);

@@ -21,7 +21,7 @@ export function lookupsOnce(finder: CandidateFinder): CandidateFinder {
   const { countryOutlines, lookupCandidates, nearestPlace, unitNames } = finder;
   if (countryOutlines) once.countryOutlines = (code) => countryOutlines.call(finder, code);
   if (nearestPlace) once.nearestPlace = (query) => nearestPlace.call(finder, query);
-  if (unitNames) once.unitNames = (level) => unitNames.call(finder, level);
+  if (unitNames) once.unitNames = (level, key) => unitNames.call(finder, level, key);
   if (lookupCandidates) {
     once.lookupCandidates = (query) => {
       const lookup = remembered(looked, query, () => lookupCandidates.call(finder, query));

@@ -143,10 +143,11 @@ export interface CandidateFinder {
    */
   nearestPlace?(query: NearestPlaceQuery): NearbyPlace | null;
   /**
-   * Every name of the loaded state (level 1) or county (level 2) units, each with its unit's comparison key
-   * (administrativeKey); empty when the gazetteer records none (optional for other finders).
+   * Every name of the loaded state (level 1) or county (level 2) units, or those with the key `key`, each
+   * with its unit's comparison key (administrativeKey); empty when the gazetteer records none (optional for
+   * other finders).
    */
-  unitNames?(level: 1 | 2): UnitName[];
+  unitNames?(level: 1 | 2, key?: string): UnitName[];
 }
 
 /** One name of a loaded administrative unit: its key and its unit's key (both administrativeKey). */

@@ -138,7 +138,7 @@ interface SourceRow {
 export interface GazetteerStore extends CandidateFinder {
   lookupCandidates(query: CandidateQuery): CandidateLookup;
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null;
-  unitNames(level: 1 | 2): UnitName[];
+  unitNames(level: 1 | 2, key?: string): UnitName[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
   /** Removes a source and all its features; returns false when there is no such source. */
@@ -219,8 +219,8 @@ class SqliteGazetteer implements GazetteerStore {
     return this.matcher.nearestPlace(query);
   }
 
-  unitNames(level: 1 | 2): UnitName[] {
-    return this.statements.unitNamesAt.all(level) as UnitName[];
+  unitNames(level: 1 | 2, key?: string): UnitName[] {
+    return (key === undefined ? this.statements.unitNamesAt.all(level) : this.statements.unitNamesByKey.all(key, level)) as UnitName[];
   }
 
   countryOutlines(countryCode: string): Feature[] {
@@ -501,6 +501,7 @@ function prepareStatements(db: Database.Database) {
     deleteSourceUnitNames: db.prepare('DELETE FROM unit_names WHERE source = ?'),
     unitKeys: db.prepare('SELECT DISTINCT unit_key FROM unit_names WHERE key = ? AND level = ?').pluck(),
     unitNamesAt: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE level = ?'),
+    unitNamesByKey: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE key = ? AND level = ?'),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
     sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
