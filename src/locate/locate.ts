@@ -136,6 +136,8 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   if (interpretation.type === 'no-locality' && options.administrativeFallback) {
     return locateAdministrativeUnit(finder, interpretation, context, options);
   }
+  const chainEnd = interpretation.type === 'no-locality' ? hierarchyEndSeat(finder, interpretation, context, options) : null;
+  if (chainEnd) return chainEnd;
   if (interpretation.type === 'no-locality' || interpretation.type === 'unparseable') {
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
@@ -281,6 +283,23 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
     return georeferenced({ ...outcome.georeference, remarks: [...resolved.matchRemarks, ...outcome.georeference.remarks] }, town, resolved.candidates);
   }
   return null;
+}
+
+/**
+ * A text that is only a hierarchy ("CRI | Puntarenas | San Vito", read as country, state, county) whose last
+ * link is a county or municipality the store holds no unit of: that link may name a place as well as a unit, so
+ * it is georeferenced as a county named alone is, at its seat, the one town of its name in the stated state,
+ * widened by the unit's default extent [CHOICE unitSeatMeters]; null otherwise (a unit the store holds stays the
+ * unit, no town of the name is declined as before).
+ * @example hierarchyEndSeat(store, parseLocality('CRI | Puntarenas | San Vito'), { countryCode: 'CR', stateProvince: 'Puntarenas' }, {})?.georeference?.features[0]?.name // 'San Vito'
+ */
+function hierarchyEndSeat(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
+  const { municipality, county } = interpretation.administrative;
+  const name = municipality ?? county;
+  if (!name || !interpretation.clauses.every((clause) => clause.kind === 'administrative')) return null;
+  const unit: NamedUnit = { name, level: municipality ? 'municipality' : 'county', written: name };
+  if (findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore).feature) return null;
+  return locateSeat(finder, unit, interpretation, context, options);
 }
 
 /**

@@ -321,11 +321,13 @@ export function featureKindOf(name: string): FeatureKind | undefined {
   return L.FEATURE_KIND_WORDS.get(wordOf(name, lastSpace + 1, name.length));
 }
 
+const PLURAL_OF_WORDS = new Set(['des', 'dos', 'das']);
+
 /**
  * The name a protected area bears, without its lead and the words saying which kind of area it is, when the text
  * names one ("Reserva Biológica de Una" → Una, "P. N. Alisos" → Alisos, "Verdemar National Park" → Verdemar,
  * "Parc national de la Gaspésie" → la Gaspésie), and whether "of" joins it to them (`of`: "de", "do", "of"…): an
- * area of a place, often a town's, which locate may stand in for the area ([CHOICE protectedAreaTown]); a name
+ * area of a place, often a town's (not after a plural "des", "dos", "das"), which locate may stand in for the area ([CHOICE protectedAreaTown]); a name
  * in apposition is the area's own, often an honoree's. Undefined for other names or when nothing is left.
  * @example protectedAreaNamesake('Parque Nacional do Itatiaia') // { name: 'Itatiaia', of: true }
  */
@@ -343,7 +345,9 @@ export function protectedAreaNamesake(name: string): { name: string; of: boolean
   else while (from < to && skipped(from)) from++;
   const rest = words.slice(from, to).join(' ').replace(/\.$/, '');
   if (rest === '' || (from === 0 && to === words.length)) return undefined;
-  return { name: rest, of: from > 0 && L.FROM_WORDS.has(folded[from - 1]!) };
+  // "Of the" in the plural ("Réserve faunique des Laurentides", "Parque Estadual das Fontes") names a range, lakes
+  // or springs, not the one town a name of the same words may be.
+  return { name: rest, of: from > 0 && L.FROM_WORDS.has(folded[from - 1]!) && !PLURAL_OF_WORDS.has(folded[from - 1]!) };
 }
 
 /** The word of `name` at [from, to), folded, without a trailing period ("Mt." → "mt"). */

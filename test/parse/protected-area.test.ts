@@ -19,6 +19,8 @@ describe('protectedAreaNamesake', () => {
     ['Verdemar National Park', { name: 'Verdemar', of: false }],
     ['Alisos State Park', { name: 'Alisos', of: false }],
     ['Parc national de la Gaspésie', { name: 'la Gaspésie', of: true }],
+    ['Réserve faunique des Laurentides', { name: 'Laurentides', of: false }],
+    ['Parque Estadual das Fontes', { name: 'Fontes', of: false }],
   ])('reads "%s"', (name, expected) => {
     expect(protectedAreaNamesake(name)).toEqual(expected);
   });
