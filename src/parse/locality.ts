@@ -326,9 +326,10 @@ const PLURAL_OF_WORDS = new Set(['des', 'dos', 'das']);
 /**
  * The name a protected area bears, without its lead and the words saying which kind of area it is, when the text
  * names one ("Reserva Biológica de Una" → Una, "P. N. Alisos" → Alisos, "Verdemar National Park" → Verdemar,
- * "Parc national de la Gaspésie" → la Gaspésie), and whether "of" joins it to them (`of`: "de", "do", "of"…): an
- * area of a place, often a town's (not after a plural "des", "dos", "das"), which locate may stand in for the area ([CHOICE protectedAreaTown]); a name
- * in apposition is the area's own, often an honoree's. Undefined for other names or when nothing is left.
+ * "Parc national de la Gaspésie" → la Gaspésie), and whether a singular "of" joins it to them (`of`: "de", "do",
+ * "of"…, not "des", "dos", "das"): the area of a place, often a town's, which locate may stand in for the area
+ * ([CHOICE protectedAreaTown]); a name in apposition is the area's own, often an honoree's. Undefined for other
+ * names or when nothing is left.
  * @example protectedAreaNamesake('Parque Nacional do Itatiaia') // { name: 'Itatiaia', of: true }
  */
 export function protectedAreaNamesake(name: string): { name: string; of: boolean } | undefined {
