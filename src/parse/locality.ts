@@ -327,13 +327,12 @@ function wordOf(name: string, from: number, to: number): string {
 }
 
 /**
- * The area closing a clause after an offset's place, from the word `k` ("in Jocko Mountains", "en la Sierra
+ * The area closing a clause after an offset's place, from the "in" at `k` ("in Jocko Mountains", "en la Sierra
  * Jocko", "na Serra do Jocko", "dans le parc Jocko"): a capitalised name whose generic word makes it a mountain
  * range or a protected area, with a capital, where the point lies, not part of the place's name; else null
  * [CHOICE areaAfterOffset].
  */
 function areaAt(s: Source, k: number): string | null {
-  if (!L.WITHIN_WORDS.has(norm(s, k) ?? '')) return null;
   const start = L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') ? k + 2 : k + 1;
   const capitalised = s.tokens.slice(start).some((t) => t.kind === 'word' && t.text[0] !== t.text[0]!.toLowerCase());
   if (!capitalised) return null;
@@ -344,9 +343,16 @@ function areaAt(s: Source, k: number): string | null {
 
 /** Where the feature name after an offset ends: the clause end, a trailing path qualifier ("on Rd. 12") or the area the point lies in ("in Jocko Mountains"). */
 function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true; heading?: WrittenHeading; area?: string } {
+  let named = false;
+  let areaTried = false;
   for (let k = from + 1; k < s.tokens.length; k++) {
-    const area = hasNameWord(s, from, k) ? areaAt(s, k) : null;
-    if (area) return { end: k, area };
+    named ||= hasNameWord(s, k - 1, k);
+    // Only the first "in" after a name word may open the area, so that long texts stay linear.
+    if (named && !areaTried && L.WITHIN_WORDS.has(norm(s, k) ?? '')) {
+      areaTried = true;
+      const area = areaAt(s, k);
+      if (area) return { end: k, area };
+    }
     const path = readPath(s, k, false);
     if (path && path.next === s.tokens.length && (path.path || path.byAir)) {
       return { end: k, ...(path.path ? { path: path.path } : {}), ...(path.byAir ? { byAir: true as const } : {}) };
