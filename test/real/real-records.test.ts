@@ -28,7 +28,7 @@ const STATUSES = ['georeferenced', 'ambiguous', 'not-found', 'unparseable'];
  * What each set reaches with the code of this commit (npm run bench:real), with a little room: set 1
  * false 0 % (0 of 524: the Latin "a Brasilia" is no longer taken for the capital), covered 100 % (164 of 164 answers), answered 31.3 % (164 of 524; four more by a protected area's
  * town, [CHOICE] protectedAreaTown); set 2 false 0.97 % (2 of 206), covered 97.2 %
- * (69 of 71 answers), answered 34.5 % (71 of 206) (see the README, "On real records");
+ * (69 of 71 answers), answered 34.5 % (71 of 206) (see the docs/real-records.md);
  * set 3 false 0.35 % (2 of 568), covered 97.1 % (68 of 70 answers), answered 12.3 % (70 of 568; 11.8 % before a stated
  * state naming no loaded unit was read as the unit it names, [CHOICE] statedUnitReadings: "Newfoundland", and the readings
  * offsetAfterNear and areaAfterOffset): the two labels whose
