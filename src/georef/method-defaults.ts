@@ -171,6 +171,14 @@ export const METHOD_DEFAULTS = {
    */
   statedUnitReadings: 'on' as 'on' | 'off',
   /**
+   * A leading clause of a record stating no state that is a name of a state or province in the gazetteer's
+   * unit-name table ("US, Colorado, Vail") [CHOICE]: 'on' reads it as that state, context and not a place,
+   * when the clause after it names a place the gazetteer records in a state of that name in the record's
+   * country; 'off' leaves it a clause to be matched as a place (a town or a near spelling of one). Common
+   * practice, no source; measured on the real-record sets (docs/real-records.md).
+   */
+  headStateByPlace: 'on' as 'on' | 'off',
+  /**
    * A protected area the gazetteer lacks, named after a place the gazetteer holds as a town ("Reserva Biológica de
    * Una": the name after its lead and the words saying which kind of area it is) [CHOICE]: 'of' lets the one town
    * of that name in the stated state stand in for the area when "of" joins the name ("de", "do", "du": the area of

@@ -64,6 +64,8 @@ export interface MethodOptions {
   countryExonymTown?: 'review' | 'town';
   /** The record's state or province that names no loaded unit, read as the one loaded unit it names by a looser reading ("Labrador"): 'on' (default) or 'off' ([CHOICE]). */
   statedUnitReadings?: 'on' | 'off';
+  /** A leading clause naming a loaded state of a record stating none, read as that state when the next clause's place lies in it ("US, Colorado, Vail"): 'on' (default) or 'off' ([CHOICE]). */
+  headStateByPlace?: 'on' | 'off';
   /** A protected area the gazetteer lacks, named after a town: the town stands in, widened, when "of" joins its name ('of', default), also in apposition ('any'), or never ('decline') ([CHOICE]). */
   protectedAreaTown?: 'of' | 'any' | 'decline';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */

@@ -10,6 +10,7 @@ import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
 import { SETTLEMENTS } from './feature-kind.ts';
+import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 
 /**
  * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
@@ -69,18 +70,21 @@ function withoutLeadingArticle(written: string): string {
  * clause after it is no unit as wide.
  * @example pastUnitHeads(store, parseLocality('Isla Verdemar, Poniente, Puerto Lindo'), { countryCode: 'QV' }).features // ['Puerto Lindo']
  */
-export function pastUnitHeads(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Interpretation {
+export function pastUnitHeads(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, headStates: 'on' | 'off' = METHOD_DEFAULTS.headStateByPlace): Interpretation {
   let reading = interpretation;
   while (reading.type === 'named-place' && reading.otherClauses.length > 0) {
     const next = readingOf(reading, reading.otherClauses[0]!);
     const own = unitNamed(reading, context);
     const loaded = own ? null : headUnitLoaded(finder, reading, context);
-    const unit = own ?? (loaded && !isAsWide(headUnitLoaded(finder, next, context), loaded) ? loaded : null);
+    const holding = own || loaded || headStates === 'off' ? null : headStateHolding(finder, reading, next, context);
+    const unit = own ?? (loaded && !isAsWide(headUnitLoaded(finder, next, context), loaded) ? loaded : null) ?? holding;
     if (!unit) break;
     // Context written into the text, as a hierarchy's link is: a county's town may stand in for a place not
     // found (standInsNamed). Not a country: its name in another language may be a town's ("Brasilia").
     const administrative = unit.level === 'country' || unit.level === 'unit' ? next.administrative : { [unit.level]: unit.name, ...next.administrative };
-    const why = own ? `names the record's ${LEVEL_WORDS[unit.level]}` : `names the loaded gazetteer's ${LEVEL_WORDS[unit.level]} "${unit.name}", in the record's country`;
+    const why = own ? `names the record's ${LEVEL_WORDS[unit.level]}`
+      : holding ? `names a state or province the loaded gazetteer records, which holds the place "${next.features[0]}" in the record's country [CHOICE headStateByPlace, src/georef/method-defaults.ts]`
+        : `names the loaded gazetteer's ${LEVEL_WORDS[unit.level]} "${unit.name}", in the record's country`;
     reading = { ...next, administrative, notes: [...next.notes, `"${unit.written}" ${why}: read as context, the clause after it used`] };
   }
   return reading;
@@ -112,6 +116,25 @@ function headUnitLoaded(finder: CandidateFinder, interpretation: Interpretation,
     .findCandidates({ name: written, context: { countryCode: code }, featureTypes: ['country', 'stateProvince', 'county'] })
     .find((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === code && isUnit(c));
   return found ? { name: found.feature.name, level: found.feature.featureType as AdministrativeLevel, written } : null;
+}
+
+/**
+ * "US, Colorado, Vail" on a record stating no state: a head that is one of the names of a state or province in
+ * the gazetteer's unit-name table (gazetteers that load states only as codes of their towns hold no feature of
+ * it) is that state when the clause after it names a place the gazetteer records in a state of that name, in
+ * the record's country [CHOICE headStateByPlace]; null otherwise. A state's name alone is not enough: it is
+ * often a town's in another country ("Paraná").
+ * @example headStateHolding(store, parseLocality('Colorado, Vail'), parseLocality('Vail'), { countryCode: 'US' }) // { name: 'Colorado', level: 'stateProvince', written: 'Colorado' }
+ */
+function headStateHolding(finder: CandidateFinder, head: Interpretation, next: Interpretation, context: AdministrativeContext): NamedUnit | null {
+  const code = context.countryCode?.trim().toUpperCase();
+  if (!code || context.stateProvince || !finder.unitNames || head.type !== 'named-place' || head.features.length !== 1 || next.features.length === 0) return null;
+  const written = head.features[0]!;
+  if (finder.unitNames(1, administrativeKey(written)).length === 0) return null;
+  const held = finder
+    .findCandidates({ name: next.features[0]!, context: { countryCode: code, stateProvince: written }, nearSpellings: 'off' })
+    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === code && c.feature.stateProvince !== null && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  return held ? { name: written, level: 'stateProvince', written } : null;
 }
 
 /**

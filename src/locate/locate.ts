@@ -123,7 +123,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const edits = request.edits ?? {};
   const read = interpretationOf(request);
   const edited = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
-  const headless = pastUnitHeads(finder, edited, contextOf(request, edited));
+  const headless = pastUnitHeads(finder, edited, contextOf(request, edited), request.options?.headStateByPlace ?? METHOD_DEFAULTS.headStateByPlace);
   const datum = datumGiven(request);
   if ('problem' in datum) return { status: 'unparseable', interpretation: headless, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };

