@@ -119,6 +119,35 @@ function headUnitLoaded(finder: CandidateFinder, interpretation: Interpretation,
 }
 
 /**
+ * "BOCAS DEL TORO: Cordillera de Talamanca", "San José: Pérez Zeledón": the head of a hierarchy written into the
+ * text ("X:", "X |") is read as a country by its place in the chain; when it is no country's name but names a
+ * state or province of the record (its stated one, by any name the gazetteer's unit-name table holds; with none
+ * stated, one of the table's states holding a place of that name or a place of the text, in the record's
+ * country), it is that state: context bounding the search, never a town standing in for the place
+ * [CHOICE headStateByPlace]. The reading unchanged otherwise.
+ * @example headAsState(store, parseLocality('Colorado: Vail'), { countryCode: 'US' }).administrative // { stateProvince: 'Colorado' }
+ */
+export function headAsState(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext): Interpretation {
+  const { country: head, ...rest } = interpretation.administrative;
+  const code = context.countryCode?.trim().toUpperCase();
+  if (!head || !code || rest.stateProvince || !finder.unitNames || countryCodeForName(head) !== null || countryExonymLanguage(head, code)) return interpretation;
+  const units = new Set(finder.unitNames(1, administrativeKey(head)).map((name) => name.unitKey));
+  if (units.size === 0) return interpretation;
+  const stated = context.stateProvince ? finder.unitNames(1, administrativeKey(context.stateProvince)).map((name) => name.unitKey) : [];
+  const held = (name: string) => finder
+    .findCandidates({ name, context: { countryCode: code, stateProvince: head }, nearSpellings: 'off' })
+    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === code && c.feature.stateProvince !== null && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  const names = context.stateProvince ? stated.some((unit) => units.has(unit)) : [head, ...interpretation.features].some(held);
+  if (!names) return interpretation;
+  const why = context.stateProvince ? 'the record\'s state or province' : 'a state or province the loaded gazetteer records, holding a place of the text in the record\'s country';
+  return {
+    ...interpretation,
+    administrative: { ...rest, stateProvince: head },
+    notes: [...interpretation.notes, `"${head}", at the head of the text's hierarchy, names ${why}: read as that state, context and not a place [CHOICE headStateByPlace, src/georef/method-defaults.ts]`],
+  };
+}
+
+/**
  * "US, Colorado, Vail" on a record stating no state: a head that is one of the names of a state or province in
  * the gazetteer's unit-name table (gazetteers that load states only as codes of their towns hold no feature of
  * it) is that state when the clause after it names a place the gazetteer records in a state of that name, in

