@@ -134,10 +134,7 @@ export function headAsState(finder: CandidateFinder, interpretation: Interpretat
   const units = new Set(finder.unitNames(1, administrativeKey(head)).map((name) => name.unitKey));
   if (units.size === 0) return interpretation;
   const stated = context.stateProvince ? finder.unitNames(1, administrativeKey(context.stateProvince)).map((name) => name.unitKey) : [];
-  const held = (name: string) => finder
-    .findCandidates({ name, context: { countryCode: code, stateProvince: head }, nearSpellings: 'off' })
-    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === code && c.feature.stateProvince !== null && SETTLEMENTS.has(c.feature.featureType ?? ''));
-  const names = context.stateProvince ? stated.some((unit) => units.has(unit)) : [head, ...interpretation.features].some(held);
+  const names = context.stateProvince ? stated.some((unit) => units.has(unit)) : [head, ...interpretation.features].some((name) => placeInState(finder, name, head, code));
   if (!names) return interpretation;
   const why = context.stateProvince ? 'the record\'s state or province' : 'a state or province the loaded gazetteer records, holding a place of the text in the record\'s country';
   return {
@@ -160,10 +157,14 @@ function headStateHolding(finder: CandidateFinder, head: Interpretation, next: I
   if (!code || context.stateProvince || !finder.unitNames || head.type !== 'named-place' || head.features.length !== 1 || next.features.length === 0) return null;
   const written = head.features[0]!;
   if (finder.unitNames(1, administrativeKey(written)).length === 0) return null;
-  const held = finder
-    .findCandidates({ name: next.features[0]!, context: { countryCode: code, stateProvince: written }, nearSpellings: 'off' })
-    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === code && c.feature.stateProvince !== null && SETTLEMENTS.has(c.feature.featureType ?? ''));
-  return held ? { name: written, level: 'stateProvince', written } : null;
+  return placeInState(finder, next.features[0]!, written, code) ? { name: written, level: 'stateProvince', written } : null;
+}
+
+/** Whether the gazetteer records a town of that name, as written, in a state of that name of the country. */
+function placeInState(finder: CandidateFinder, name: string, state: string, countryCode: string): boolean {
+  return finder
+    .findCandidates({ name, context: { countryCode, stateProvince: state }, nearSpellings: 'off' })
+    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === countryCode && c.feature.stateProvince !== null && SETTLEMENTS.has(c.feature.featureType ?? ''));
 }
 
 /**
