@@ -95,12 +95,15 @@ type Reach = 'first' | 'one edit' | 'all';
 
 /**
  * What one lookup has read, kept while it is repeated with more neighbours (which reads mostly the
- * same rows again): folded names by feature, postings by token, postings by common token and partners.
+ * same rows again): folded names by feature, postings by token, postings by common token and
+ * partners, and which features were probed for which unread tokens (see heldAmong).
  */
 interface LookupReads {
   foldedNames: Map<number, string[]>;
   postings: Map<number, Posting[]>;
   partnerPostings: Map<string, Posting[]>;
+  /** By token, the features probed for it and whether they hold it. */
+  held: Map<number, Map<number, boolean>>;
 }
 
 /** The matches a lookup reads for a word, and whether some of its deletion keys were left unread. */
@@ -296,7 +299,7 @@ export class CandidateMatcher {
    * every word's neighbours within one edit, and when no name then comes within one edit, with all of them.
    */
   private fuzzyCandidates(name: string, context: ResolvedContext, poolSize: number, reach: Reach = 'first',
-    reads: LookupReads = { foldedNames: new Map(), postings: new Map(), partnerPostings: new Map() }): Candidate[] {
+    reads: LookupReads = { foldedNames: new Map(), postings: new Map(), partnerPostings: new Map(), held: new Map() }): Candidate[] {
     const folded = foldName(name);
     const queryTokens = [...new Set(folded.split(' ').filter((token) => token !== ''))];
     if (queryTokens.length === 0) return [];
@@ -373,7 +376,7 @@ export class CandidateMatcher {
       const unread = closestUnread(matched, new Set(chosen.map((match) => match.id))).slice(0, MAX_PARTNERS);
       if (unread.length > 0) {
         for (const match of unread) weigh(match);
-        credit(this.index.postingsAmong(unread.map((match) => match.id), [...pool.keys()]));
+        credit(this.heldAmong(unread.map((match) => match.id), [...pool.keys()], reads.held));
         shortlist = shortlistByWeight(pool.values());
         closest = this.closestNames(shortlist.map(([id]) => id), folded, reads.foldedNames);
         fewestEdits = Math.min(...[...closest.values()].map((entry) => entry.edits));
@@ -448,6 +451,25 @@ export class CandidateMatcher {
       readBefore.set(key, rows);
     }
     return { tokens: [driver], partners, rows };
+  }
+
+  /**
+   * The postings of these tokens held by these features, one probe a feature and token; a pair
+   * probed earlier in the same lookup (`probed`, by token) is not probed again.
+   */
+  private heldAmong(tokens: number[], features: number[], probed: Map<number, Map<number, boolean>>): Posting[] {
+    const unprobed = features.filter((feature) => tokens.some((token) => probed.get(token)?.has(feature) !== true));
+    if (unprobed.length > 0) {
+      for (const token of tokens) {
+        const byFeature = probed.get(token) ?? new Map<number, boolean>();
+        probed.set(token, byFeature);
+        for (const feature of unprobed) byFeature.set(feature, false);
+      }
+      for (const { feature, token } of this.index.postingsAmong(tokens, unprobed)) probed.get(token)!.set(feature, true);
+    }
+    // In the order of the store's answer, by token and feature.
+    const inOrder = [...features].sort((a, b) => a - b);
+    return [...new Set(tokens)].sort((a, b) => a - b).flatMap((token) => inOrder.filter((feature) => probed.get(token)!.get(feature)).map((feature) => ({ feature, token })));
   }
 
   /**
