@@ -159,4 +159,14 @@ export const METHOD_DEFAULTS = {
    * real-record sets (README "On real records").
    */
   countryExonymTown: 'review' as 'review' | 'town',
+  /**
+   * A protected area the gazetteer lacks, named after a place the gazetteer holds as a town ("Reserva Biológica de
+   * Una": the name after its lead and the words saying which kind of area it is) [CHOICE]: 'of' lets the one town
+   * of that name in the stated state stand in for the area when "of" joins the name ("de", "do", "du": the area of
+   * a place), after the text's other clauses, widened by unusedFeatureMeters as any place named but not loaded
+   * (how far the area reaches from the town is unknown in a gazetteer of towns); 'any' also a name in apposition
+   * ("P. N. Alisos", "Alisos Provincial Park": the area's own name, often an honoree's); 'decline' leaves the area
+   * unfound. Chosen by measurement on the real-record sets (README "On real records").
+   */
+  protectedAreaTown: 'of' as 'of' | 'any' | 'decline',
 } as const satisfies Record<string, number | string>;

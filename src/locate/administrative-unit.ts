@@ -23,7 +23,8 @@ const RECORD_LEVELS = [
 
 /**
  * The unit the reading names, or null: an 'administrative-unit' reading, or a lone named place
- * whose name is one of the record's own units (its country, state/province or county).
+ * whose name is one of the record's own units (its country, state/province or county) and that no word of the
+ * text calls a town.
  * @example unitNamed(parseLocality('Alisos'), { countryCode: 'QV', county: 'Alisos' }) // { name: 'Alisos', level: 'county', written: 'Alisos' }
  */
 export function unitNamed(interpretation: Interpretation, context: AdministrativeContext): NamedUnit | null {
@@ -32,6 +33,8 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
     return name ? interpretation.unit ?? { name, level: 'unit', written: name } : null;
   }
   if (interpretation.type !== 'named-place' || interpretation.features.length !== 1) return null;
+  // "Ciudad de Panamá", "Guatemala City": the text's own word says the town, not the country or state of its name.
+  if (interpretation.featureKind === 'populated-place') return null;
   const written = interpretation.features[0]!;
   const key = foldName(written);
   for (const [field, level] of RECORD_LEVELS) {

@@ -5,7 +5,7 @@
  * and the clip hold for an edited record as for the first answer. The finder is the only door to data,
  * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
-import { parseCoordinates, parseLocality } from '../parse/index.ts';
+import { parseCoordinates, parseLocality, protectedAreaNamesake } from '../parse/index.ts';
 import type { AdministrativeContext, Interpretation, NamedUnit } from '../parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
 import { coverGeoreferences } from '../georef/cover.ts';
@@ -136,6 +136,8 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   if (interpretation.type === 'no-locality' && options.administrativeFallback) {
     return locateAdministrativeUnit(finder, interpretation, context, options);
   }
+  const chainEnd = interpretation.type === 'no-locality' ? hierarchyEndSeat(finder, interpretation, context, options) : null;
+  if (chainEnd) return chainEnd;
   if (interpretation.type === 'no-locality' || interpretation.type === 'unparseable') {
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
@@ -181,7 +183,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   // A later clause may name the findable place ("Cerro Azul, Alisos" with only Alisos loaded, "Finca Las
   // Palmas, Alisos" with only a town Las Palmas loaded); failing that, the town the text's own units name
   // ("Mun. Alisos: Fazenda X" with no farm loaded). Either is widened as any place named but not loaded is.
-  for (const { reading: standIn, what } of missed ? standInReadings(interpretation, context) : []) {
+  for (const { reading: standIn, what } of missed ? standInReadings(interpretation, context, options) : []) {
     const { reading, resolution: attempt } = resolveReading(standIn);
     // Only a place the gazetteer holds under that very name, inside a stated state or county: a guess
     // at a second name, or a name met anywhere in the country, too often is another place of that name.
@@ -284,6 +286,23 @@ function locateSeat(finder: CandidateFinder, unit: NamedUnit, interpretation: In
 }
 
 /**
+ * A text that is only a hierarchy ("CRI | Puntarenas | San Vito", read as country, state, county) whose last
+ * link is a county or municipality the store holds no unit of: that link may name a place as well as a unit, so
+ * it is georeferenced as a county named alone is, at its seat, the one town of its name in the stated state,
+ * widened by the unit's default extent [CHOICE unitSeatMeters]; null otherwise (a unit the store holds stays the
+ * unit, no town of the name is declined as before).
+ * @example hierarchyEndSeat(store, parseLocality('CRI | Puntarenas | San Vito'), { countryCode: 'CR', stateProvince: 'Puntarenas' }, {})?.georeference?.features[0]?.name // 'San Vito'
+ */
+function hierarchyEndSeat(finder: CandidateFinder, interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): LocateResult | null {
+  const { municipality, county } = interpretation.administrative;
+  const name = municipality ?? county;
+  if (!name || !interpretation.clauses.every((clause) => clause.kind === 'administrative')) return null;
+  const unit: NamedUnit = { name, level: municipality ? 'municipality' : 'county', written: name };
+  if (findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore).feature) return null;
+  return locateSeat(finder, unit, interpretation, context, options);
+}
+
+/**
  * The widening of a bare name (the whole text one place name, nothing else) found as a town that may be the
  * seat of a municipality of its name: the gazetteer records it in no county or municipality of another
  * name, and the record states none of another name (its short form, shortFormKey, is its name too) [CHOICE bareNameSeatMeters]; undefined when the choice is 0.
@@ -301,21 +320,40 @@ function seatWidening(used: Interpretation, town: Feature, context: Administrati
 
 /**
  * The readings that may stand in for a missing place, in order: a name in brackets that is the record's own
- * unit, not a second name ("Cerro Azul (Alisos)" in the county Alisos), the other clauses, then the towns of
- * the text's units.
+ * unit, not a second name ("Cerro Azul (Alisos)" in the county Alisos), the other clauses, the towns the text's
+ * protected areas are named after ([CHOICE protectedAreaTown]), then the towns of the text's units.
  */
-function standInReadings(interpretation: Interpretation, context: AdministrativeContext): { reading: Interpretation; what: string }[] {
+function standInReadings(interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): { reading: Interpretation; what: string }[] {
   const unitInBrackets = interpretation.secondName && !secondNameReading(interpretation, context) ? [{ name: interpretation.secondName, what: 'the record\'s unit written in brackets' }] : [];
   return [
     ...interpretation.otherClauses.map((clause) => ({
       reading: readingOf(interpretation, clause),
       what: `the next clause, "${interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ')}",`,
     })),
-    ...[...unitInBrackets, ...standInsNamed(interpretation)].map(({ name, what }) => ({
+    ...[...unitInBrackets, ...protectedAreaTowns(interpretation, options), ...standInsNamed(interpretation)].map(({ name, what }) => ({
       reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined, secondName: undefined },
       what: `${what}, "${name}",`,
     })),
   ];
+}
+
+/**
+ * The towns the text's protected areas are named after ("Reserva Biológica de Una": Una), its first clause's area
+ * first: with no polygon of the area loaded, the town it is named after may stand in for it, widened as any place
+ * named but not loaded is, since how far the area reaches from the town is unknown [CHOICE protectedAreaTown]:
+ * 'of' only a name joined by "of" (de, do, du…: the area of a place), 'any' also one in apposition ("P. N.
+ * Alisos", "Alisos Provincial Park", often an honoree's), 'decline' none.
+ * @example protectedAreaTowns(parseLocality('Reserva Biológica de Alisos. Sendero'), {}) // [{ name: 'Alisos', what: 'the town the protected area "Reserva Biológica de Alisos" is named after [CHOICE protectedAreaTown, …]' }]
+ */
+function protectedAreaTowns(interpretation: Interpretation, options: LocateOptions): { name: string; what: string }[] {
+  const rule = options.protectedAreaTown ?? METHOD_DEFAULTS.protectedAreaTown;
+  if (rule === 'decline') return [];
+  const areas = [interpretation, ...interpretation.otherClauses].flatMap((r) => (r.featureKind === 'protected-area' && r.features.length === 1 ? [r.features[0]!] : []));
+  return areas.flatMap((area) => {
+    const named = protectedAreaNamesake(area);
+    if (!named || (rule === 'of' && !named.of)) return [];
+    return [{ name: named.name, what: `the town the protected area "${area}" is named after [CHOICE protectedAreaTown, src/georef/method-defaults.ts]` }];
+  });
 }
 
 /**

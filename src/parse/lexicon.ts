@@ -215,6 +215,16 @@ export const FEATURE_KIND_WORDS: ReadonlyMap<string, import('./types.ts').Featur
  * forestal); common practice on labels from Central and South America, no source.
  */
 export const PROTECTED_AREA_LEADS = set('zona-protectora z-p p-n r-b r-f');
+/**
+ * Words that say which kind of park or reserve a lead names, between the lead and the name it bears ("Parque
+ * Nacional do Itatiaia", "Reserva Nac. Estricta San Antonio", "Reserva de Biósfera Yabotí", "Alisos State Park"):
+ * not part of that name. Common practice on labels, no source.
+ */
+export const PROTECTED_AREA_QUALIFIERS = set(
+  'nacional nac national estadual estatal provincial prov municipal regional federal state biologica biol biological forestal florestal ' +
+    'forest natural nature ecologica ecological particular privada private estricta biosfera biosphere vida silvestre wildlife indigena ' +
+    'nationale naturelle provinciale ecologique faunique',
+);
 
 /**
  * Feature-type words before a name, not part of it: "town of X", "ciudad de X", "povoado de X", "ville de X".

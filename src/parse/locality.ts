@@ -321,6 +321,36 @@ export function featureKindOf(name: string): FeatureKind | undefined {
   return L.FEATURE_KIND_WORDS.get(wordOf(name, lastSpace + 1, name.length));
 }
 
+const PLURAL_OF_WORDS = new Set(['des', 'dos', 'das']);
+
+/**
+ * The name a protected area bears, without its lead and the words saying which kind of area it is, when the text
+ * names one ("Reserva Biológica de Una" → Una, "P. N. Alisos" → Alisos, "Verdemar National Park" → Verdemar,
+ * "Parc national de la Gaspésie" → la Gaspésie), and whether a singular "of" joins it to them (`of`: "de", "do",
+ * "of"…, not "des", "dos", "das"): the area of a place, often a town's, which locate may stand in for the area
+ * ([CHOICE protectedAreaTown]); a name in apposition is the area's own, often an honoree's. Undefined for other
+ * names or when nothing is left.
+ * @example protectedAreaNamesake('Parque Nacional do Itatiaia') // { name: 'Itatiaia', of: true }
+ */
+export function protectedAreaNamesake(name: string): { name: string; of: boolean } | undefined {
+  if (featureKindOf(name) !== 'protected-area') return undefined;
+  const words = name.trim().split(/\s+/);
+  const folded = words.map((word) => fold(word.replace(/\.$/, '')));
+  const kind = (k: number) => L.FEATURE_KIND_WORDS.get(folded[k] ?? '') === 'protected-area';
+  const skipped = (k: number) => L.PROTECTED_AREA_QUALIFIERS.has(folded[k] ?? '') || L.FROM_WORDS.has(folded[k] ?? '') ||
+    // An article or "and" only between such words ("Reserva de la Biosfera", "Reserva Florestal e Indígena").
+    (L.SMALL_WORDS.has(folded[k] ?? '') && L.PROTECTED_AREA_QUALIFIERS.has(folded[k + 1] ?? ''));
+  let from = /^\p{L}\.\p{L}\.$/u.test(words[0]!) ? 1 : L.PROTECTED_AREA_LEADS.has(`${folded[0]}-${folded[1]}`) ? 2 : kind(0) ? 1 : 0;
+  let to = words.length;
+  if (from === 0 && kind(to - 1)) for (to -= 1; to > 0 && L.PROTECTED_AREA_QUALIFIERS.has(folded[to - 1]!); to--);
+  else while (from < to && skipped(from)) from++;
+  const rest = words.slice(from, to).join(' ').replace(/\.$/, '');
+  if (rest === '' || (from === 0 && to === words.length)) return undefined;
+  // "Of the" in the plural ("Réserve faunique des Laurentides", "Parque Estadual das Fontes") names a range, lakes
+  // or springs, not the one town a name of the same words may be.
+  return { name: rest, of: from > 0 && L.FROM_WORDS.has(folded[from - 1]!) && !PLURAL_OF_WORDS.has(folded[from - 1]!) };
+}
+
 /** The word of `name` at [from, to), folded, without a trailing period ("Mt." → "mt"). */
 function wordOf(name: string, from: number, to: number): string {
   return fold(name.charAt(to - 1) === '.' ? name.slice(from, to - 1) : name.slice(from, to));

@@ -4,6 +4,7 @@
  * @example tokenize('10 km NE').map((t) => t.kind) // ['number', 'word', 'word']
  */
 import { UNIT_WORDS } from './units.ts';
+import { DOTTED_ONLY_ADMINISTRATIVE_WORDS } from './lexicon.ts';
 
 /** One token of a locality text; offsets point into the verbatim text. */
 export interface Token {
@@ -37,6 +38,14 @@ const LONG_ABBREVIATIONS = new Set(['approx', 'aprox', 'depto', 'dept', 'depart'
  * ("Lake City. Fall Creek", "Stevens Pass. Wenatchee National Forest", "Lago Azul. Campo", "Lac Vert. Route").
  */
 const WHOLE_SHORT_WORDS = new Set(['city', 'town', 'lake', 'pass', 'park', 'peak', 'hill', 'bay', 'cove', 'mesa', 'lago', 'rio', 'pico', 'isla', 'ilha', 'lac', 'baie', 'ile']);
+
+/**
+ * A period followed by two spaces or more after a word of two letters or more ends a sentence, as typists wrote
+ * it ("Reserva Biológica de Una.  Em fundo de vale"), and is no abbreviation's [our rule, no source]; an initial's
+ * period may still be followed so ("Z. P.  Las Tablas"), and a unit word counts only dotted ("South Dist.  Swale Island").
+ */
+const typedSentenceEnd = (text: string, period: number, norm: string): boolean =>
+  norm.length >= 2 && text[period + 1] === ' ' && text[period + 2] === ' ' && !DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(norm);
 
 const isDigit = (c: string): boolean => c >= '0' && c <= '9';
 const LETTER = /\p{L}/u;
@@ -92,7 +101,7 @@ export function tokenize(text: string): Token[] {
       let word = text.slice(start, i);
       const norm = fold(word).replace('’', "'");
       let dotted = false;
-      if (text[i] === '.' && (norm.length <= 4 || LONG_ABBREVIATIONS.has(norm)) && !WHOLE_SHORT_WORDS.has(norm)) {
+      if (text[i] === '.' && (norm.length <= 4 || LONG_ABBREVIATIONS.has(norm)) && !WHOLE_SHORT_WORDS.has(norm) && !typedSentenceEnd(text, i, norm)) {
         i++;
         dotted = true;
         word = text.slice(start, i);
