@@ -342,8 +342,10 @@ export class CandidateMatcher {
     const common = this.commonTokenPostings(matched, chosen, context, reads.partnerPostings);
     for (const { id, index } of common.tokens) addWeight(id, index, queryTokens[index].length);
     // A partner counts for its word as a read token would: the feature holds both words.
-    const weighed = new Set(chosen.map((match) => `${match.id}:${match.index}`));
-    for (const partner of common.partners) if (!weighed.has(`${partner.id}:${partner.index}`)) weigh(partner);
+    if (common.partners.length > 0) {
+      const weighed = new Set(chosen.map((match) => `${match.id}:${match.index}`));
+      for (const partner of common.partners) if (!weighed.has(`${partner.id}:${partner.index}`)) weigh(partner);
+    }
     const pool = new Map<number, PoolEntry>();
     const credit = (postings: Posting[]) => {
       for (const { feature, token } of postings) {
@@ -375,7 +377,7 @@ export class CandidateMatcher {
     if (queryTokens.length > 1 && fewestEdits >= RETRY_NAME_EDITS && pool.size > 0) {
       // Only words stored as written: checking the common neighbours of a misspelt word too found 10
       // more names of 1,904 two-error queries at 13 M names, but raised their 99th percentile by a sixth.
-      const unread = closestUnread(matched, new Set(chosen.map((match) => match.id))).filter((match) => match.edits === 0).slice(0, MAX_PARTNERS);
+      const unread = closestUnread(matched, new Set(chosen.map((match) => match.id)), closestEdits(matched)).filter((match) => match.edits === 0).slice(0, MAX_PARTNERS);
       if (unread.length > 0) {
         for (const match of unread) weigh(match);
         credit(this.heldAmong(unread.map((match) => match.id), [...pool.keys()], reads.held));
@@ -432,7 +434,7 @@ export class CandidateMatcher {
     tokens: TokenMatch[]; partners: TokenMatch[]; rows: { feature: number; token: number }[];
   } {
     const closest = closestEdits(matched);
-    const skipped = closestUnread(matched, new Set(chosen.map((match) => match.id)));
+    const skipped = closestUnread(matched, new Set(chosen.map((match) => match.id)), closest);
     if (skipped.length === 0) return { tokens: [], partners: [], rows: [] };
     const driver = skipped.reduce((a, b) => (b.df < a.df ? b : a));
     const others = matched.filter((match) => match.index !== driver.index);
@@ -667,11 +669,10 @@ function closestEdits(matches: readonly TokenMatch[]): Map<number, number> {
 }
 
 /**
- * The matches as close as any of their word's, whose postings were not read (`read`), in the order given.
- * @example closestUnread([{ id: 1, edits: 0, df: 9000, index: 0 }, { id: 2, edits: 1, df: 4, index: 0 }], new Set()) // [{ id: 1, … }]
+ * The matches as close as any of their word's (`closest`, see closestEdits), whose postings were not read (`read`), in the order given.
+ * @example closestUnread(matches, new Set(), closestEdits(matches)) // for [{ id: 1, edits: 0, index: 0 }, { id: 2, edits: 1, index: 0 }]: [{ id: 1, … }]
  */
-function closestUnread(matches: readonly TokenMatch[], read: ReadonlySet<number>): TokenMatch[] {
-  const closest = closestEdits(matches);
+function closestUnread(matches: readonly TokenMatch[], read: ReadonlySet<number>, closest: ReadonlyMap<number, number>): TokenMatch[] {
   return matches.filter((match) => !read.has(match.id) && match.edits === closest.get(match.index));
 }
 
