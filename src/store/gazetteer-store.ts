@@ -468,10 +468,12 @@ function sqliteNameIndex(s: Statements): NameIndex {
       const pairs = (countries === null
         ? s.postingsWithPartner.all(parameters) as string[]
         : s.postingsWithPartnerInCountries.all({ ...parameters, countries: JSON.stringify(countries) }) as string[]).map(postingRow);
-      // The pairs come by feature: the driver's posting before the first pair of each feature.
+      // The driver's posting before the first pair of each feature.
       const rows: Posting[] = [];
-      for (const [i, pair] of pairs.entries()) {
-        if (i === 0 || pairs[i - 1].feature !== pair.feature) rows.push({ feature: pair.feature, token: driver.id });
+      const seen = new Set<number>();
+      for (const pair of pairs) {
+        if (!seen.has(pair.feature)) rows.push({ feature: pair.feature, token: driver.id });
+        seen.add(pair.feature);
         rows.push(pair);
       }
       return rows;
@@ -549,10 +551,10 @@ function prepareStatements(db: Database.Database) {
     // Joined for the same reason as tokensByDeletion; the ids come sorted and once each, so the rows
     // come in the order 'token IN (…)' gives them (by token, then feature) and LIMIT keeps the same ones.
     postings: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) k CROSS JOIN postings p ON p.token = k.value LIMIT ?`).pluck(),
-    // The first pairs by feature id (see PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
-    postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) ORDER BY feature LIMIT @limit`).pluck(),
+    // The first pairs, the rarer partners' first (see PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
+    postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) LIMIT @limit`).pluck(),
     postingsWithPartnerInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
-      WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries)) ORDER BY u.feature LIMIT @limit`).pluck(),
+      WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries)) LIMIT @limit`).pluck(),
     // Each token's postings probed for each feature, in key order (sorted ids): neighbouring seeks share pages.
     postingsAmong: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) t CROSS JOIN json_each(?) f
       CROSS JOIN postings p ON p.token = t.value AND p.feature = f.value`).pluck(),
