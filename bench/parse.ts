@@ -26,7 +26,7 @@ const perSecond = (rounds * texts.length) / seconds;
 console.log(`parse: ${texts.length} corpus strings × ${rounds} rounds in ${seconds.toFixed(2)} s = ${Math.round(perSecond)} strings/s on one core (target ≥ 20000)`);
 
 let worst = { piece: '', ms: 0 };
-for (const piece of ['1 ', 'N ', 'de ', '°', '10 km N of X ', 'X, ', "12°30'", 'on road ', 'along ', 'between a ']) {
+for (const piece of ['1 ', 'N ', 'de ', '°', '10 km N of X ', 'X, ', "12°30'", 'on road ', 'along ', 'between a ', 'Lat ', 'Lat. x ', '5 km N of X in y ']) {
   const text = piece.repeat(Math.ceil(10000 / piece.length)).slice(0, 10000);
   const t = process.hrtime.bigint();
   parseLocality(text);

@@ -33,8 +33,8 @@ export const METHOD_DEFAULTS = {
    * A locality clause names a place the gazetteer lacks ("Puerto Lindo, Laguna Negra" with no lake
    * loaded), or the place named first is missing and a later clause is used instead: the radius
    * grows by this much, the distance such a place may lie from the place used [CHOICE]. Chosen by
-   * measurement on the real-record set (test/fixtures/real, npm run bench:real): see README
-   * "On real records" for the figures of each value tried.
+   * measurement on the real-record set (test/fixtures/real, npm run bench:real): see
+   * docs/real-records.md for the figures of each value tried.
    */
   unusedFeatureMeters: 120000,
   /** What such a place does to the answer: 'widen' by unusedFeatureMeters, or 'decline' with the reason [CHOICE]. */
@@ -49,14 +49,14 @@ export const METHOD_DEFAULTS = {
    * Except a county or municipality named alone (the label "Alisos" with the record's county Alisos),
    * whose seat usually bears its name: the one town of that name in the stated state, its radius
    * widened by this default extent of the unit [CHOICE]; 0 declines as for other units. Chosen by
-   * measurement on the real-record sets (README "On real records").
+   * measurement on the real-record sets (docs/real-records.md).
    */
   unitSeatMeters: 40000,
   /**
    * A text that is only a name, found in the stated state where the gazetteer records no county, farther
    * than this from the town named as the record's county (its seat, as a rule): likely another place of
    * that name, so marked ambiguous for review [CHOICE]; 0 turns the check off. Chosen by measurement on
-   * the real-record sets (README "On real records").
+   * the real-record sets (docs/real-records.md).
    */
   countyReachMeters: 50000,
   /**
@@ -64,7 +64,7 @@ export const METHOD_DEFAULTS = {
    * differently named county or municipality (it records none, or one of its own name): where
    * municipalities tile the land and bear their seat's name, such a label often means the municipality,
    * so the town's radius is widened by this much [CHOICE]; 0 keeps the town's radius. Chosen by
-   * measurement on the real-record sets (README "On real records"): of 10, 20, 30 and 40 km, 40 km (the
+   * measurement on the real-record sets (docs/real-records.md): of 10, 20, 30 and 40 km, 40 km (the
    * value of unitSeatMeters) gave the most covered answers, and no width made a false rate rise.
    */
   bareNameSeatMeters: 40000,
@@ -75,7 +75,7 @@ export const METHOD_DEFAULTS = {
    * polygon of the unit loaded, the distance is estimated from the unit's loaded places (at most the
    * distance to the nearest of them; half of it when the text names the unit the place lies in) and
    * held to the same value (src/locate/just-outside.ts); on the real records (cities only) 10 to 75 km
-   * give the same false rates, 25 km and up one more answer (README, "On real records"). The text's
+   * give the same false rates, 25 km and up one more answer (docs/real-records.md). The text's
    * longest offset (its distance and δ) is added: the point, not the town, must lie in the unit (src/locate/namesakes-by-result.ts).
    */
   justOutsideMeters: 25000,
@@ -86,7 +86,7 @@ export const METHOD_DEFAULTS = {
    * whose circle reaches the record's stated unit; several reaching it make the text ambiguous; none
    * leaves the usual choice. An exact name so beats a near spelling unless its circle misses the unit.
    * 'reference place' judges by where the town lies only. The published method leaves the choice of
-   * feature to the georeferencer; our choice, no source; measured on the clean labels (README, "On clean labels").
+   * feature to the georeferencer; our choice, no source; measured on the clean labels (docs/real-records.md, "On clean labels").
    */
   namesakesJudgedBy: 'result' as 'result' | 'reference place',
   /**
@@ -94,14 +94,14 @@ export const METHOD_DEFAULTS = {
    * gazetteer holds only a settlement whose own name begins or ends with a word of that kind [CHOICE]:
    * 'settlement' takes the settlement and says so in the remarks; 'decline' gives no georeference. A
    * settlement that only shares the rest of the name ("Fazenda São Borja" and the town São Borja) is
-   * declined either way. Chosen by measurement on the real-record set (README "On real records").
+   * declined either way. Chosen by measurement on the real-record set (docs/real-records.md).
    */
   settlementNamedLikeFeature: 'settlement',
   /**
    * A route between two places with a road kilometre post beside it ("Ipala–Amatillo road, km 12") and no road
    * line loaded [CHOICE]: 12 km from the road's own origin cannot be placed on a straight line honestly, so either
    * the 'route' is answered with its circle (the whole segment and both ends' extents) and the post named as not
-   * placed, or the record is declined ('decline'). Chosen by measurement on the real-record sets (README "On real records").
+   * placed, or the record is declined ('decline'). Chosen by measurement on the real-record sets (docs/real-records.md).
    */
   routeKilometrePost: 'route',
   /**
@@ -109,7 +109,7 @@ export const METHOD_DEFAULTS = {
    * one another (a gazetteer holding one town twice, or two hamlets of one name side by side), is
    * answered with one circle covering them all, as the cover option does, with the remark [CHOICE];
    * farther apart the name stays ambiguous. 0 turns it off. Chosen by measurement on the real-record set
-   * (README "On real records").
+   * (docs/real-records.md).
    */
   namesakesWithinMeters: 30000,
   /**
@@ -117,8 +117,7 @@ export const METHOD_DEFAULTS = {
    * Millbrook) with nothing else in the text to corroborate it [CHOICE]: 'review' gives no georeference and
    * marks it ambiguous, to be confirmed by a person; 'answer' takes the near spelling, with a remark.
    * A near spelling of a bare name with a town's small radius is a confident circle in the wrong place
-   * whenever the spelling names another town. Chosen by measurement on the real-record sets (README
-   * "On real records").
+   * whenever the spelling names another town. Chosen by measurement on the real-record sets (docs/real-records.md).
    */
   fuzzyLoneName: 'review',
   /**
@@ -126,7 +125,7 @@ export const METHOD_DEFAULTS = {
    * Springs) [CHOICE]: 'review' gives no georeference and marks it ambiguous, to be confirmed by a person;
    * 'answer' takes the longer name as a near spelling, with a remark. A longer name is most often another place
    * named after the first (a town after its region, lake or range), far from it. Chosen by measurement on the
-   * real-record sets (README "On real records"). The official long forms "X de <honoree>" are read by
+   * real-record sets (docs/real-records.md). The official long forms "X de <honoree>" are read by
    * honoreeShortForms before this applies.
    */
   nameAsFirstWords: 'review',
@@ -136,7 +135,7 @@ export const METHOD_DEFAULTS = {
    * Xalapa: src/match/older-spelling.ts, the rules of the Portuguese and Spanish reforms) [CHOICE]:
    * 'on' takes such a match as a documented reading, not a near spelling, and the remarks name the
    * rule; 'off' leaves the name to the near-spelling search. Chosen by measurement on the real-record
-   * sets (README "On real records").
+   * sets (docs/real-records.md).
    */
   olderSpellings: 'on' as 'on' | 'off',
   /**
@@ -146,7 +145,7 @@ export const METHOD_DEFAULTS = {
    * 'on' reads it as that town, a documented reading named in the remarks, but only inside a stated state
    * and only when no other loaded place of that state begins with the name (src/match/short-form.ts);
    * 'off' leaves it to the near-spelling search and nameAsFirstWords. Chosen by measurement on the
-   * real-record sets (README "On real records").
+   * real-record sets (docs/real-records.md).
    */
   honoreeShortForms: 'on' as 'on' | 'off',
   /**
@@ -156,9 +155,21 @@ export const METHOD_DEFAULTS = {
    * a documented reading (the capital Brasília) [CHOICE]: 'review' gives no georeference and marks it
    * ambiguous, to be confirmed by a person; 'town' takes the town as any name. The town written with its
    * own accents ("Brasília") is not the country's name and stays the town. Chosen by measurement on the
-   * real-record sets (README "On real records").
+   * real-record sets (docs/real-records.md).
    */
   countryExonymTown: 'review' as 'review' | 'town',
+  /**
+   * The record's state or province names no unit the gazetteer loaded, as written or by another of its
+   * names ("Labrador", "Aisén Region", "Quezaltenango") [CHOICE]: 'on' reads it as the one loaded unit it
+   * names by a looser reading — written with or without spaces, another language's "and", one of the two
+   * names a unit joins ("Newfoundland and Labrador"), one letter apart in a name of 5 letters or more
+   * (src/match/context.ts looseUnitReading; common practice, no source) — or, with none such, as a unit
+   * within the one state where the gazetteer records the towns of that name (a unit is usually named after
+   * its seat: "Llanquihue"), and says so in the remarks;
+   * 'off' keeps it as written, which walls off every place the gazetteer records in a named unit. Chosen
+   * by measurement on the real-record sets (docs/real-records.md).
+   */
+  statedUnitReadings: 'on' as 'on' | 'off',
   /**
    * A protected area the gazetteer lacks, named after a place the gazetteer holds as a town ("Reserva Biológica de
    * Una": the name after its lead and the words saying which kind of area it is) [CHOICE]: 'of' lets the one town
@@ -166,7 +177,7 @@ export const METHOD_DEFAULTS = {
    * a place), after the text's other clauses, widened by unusedFeatureMeters as any place named but not loaded
    * (how far the area reaches from the town is unknown in a gazetteer of towns); 'any' also a name in apposition
    * ("P. N. Alisos", "Alisos Provincial Park": the area's own name, often an honoree's); 'decline' leaves the area
-   * unfound. Chosen by measurement on the real-record sets (README "On real records").
+   * unfound. Chosen by measurement on the real-record sets (docs/real-records.md).
    */
   protectedAreaTown: 'of' as 'of' | 'any' | 'decline',
 } as const satisfies Record<string, number | string>;

@@ -62,6 +62,8 @@ export interface MethodOptions {
   honoreeShortForms?: 'on' | 'off';
   /** A text that is only the record's country's name in another language (Latin "Brasilia"), which a town also bears: 'review' (default, ambiguous) or 'town' ([CHOICE]). */
   countryExonymTown?: 'review' | 'town';
+  /** The record's state or province that names no loaded unit, read as the one loaded unit it names by a looser reading ("Labrador"): 'on' (default) or 'off' ([CHOICE]). */
+  statedUnitReadings?: 'on' | 'off';
   /** A protected area the gazetteer lacks, named after a town: the town stands in, widened, when "of" joins its name ('of', default), also in apposition ('any'), or never ('decline') ([CHOICE]). */
   protectedAreaTown?: 'of' | 'any' | 'decline';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */

@@ -5,10 +5,11 @@
  * gazetteer is reached only through the CandidateFinder it is given.
  */
 import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
-import { countryCodeForName, countryExonymLanguage, shortFormKey } from '../match/context.ts';
+import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReading, shortFormKey } from '../match/context.ts';
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
+import { SETTLEMENTS } from './feature-kind.ts';
 
 /**
  * The record fields whose value, written alone, names the unit, widest last. Not the municipality: a
@@ -199,3 +200,56 @@ export function seatNames(unit: NamedUnit): string[] {
   return names.filter((name, k) => names.findIndex((other) => foldName(other) === foldName(name)) === k);
 }
 
+
+/**
+ * The record's stated state or province read as the one loaded unit it names by a looser reading
+ * (looseUnitReading: "Labrador" for Newfoundland and Labrador, "Aisén" for Aysén), with the note saying so;
+ * with none such, a unit within the one state of the towns of its name (withinSeatState); the context
+ * unchanged when the stated name names a loaded unit as written or by another of its names, when it names
+ * several by the looser readings or no state is found, or when the gazetteer records no unit names.
+ * Else every place would be walled off as outside a unit the gazetteer does not know [CHOICE
+ * statedUnitReadings, src/georef/method-defaults.ts].
+ * @example readStatedState(store, { countryCode: 'CA', stateProvince: 'Labrador' }).context.stateProvince // 'newfoundland and labrador'
+ */
+export function readStatedState(finder: CandidateFinder, context: AdministrativeContext): { context: AdministrativeContext; note?: string } {
+  const stated = context.stateProvince;
+  if (!stated || !finder.unitNames) return { context };
+  // Named as the matcher names it: by its key, or by the short form of an official long name either side.
+  const key = administrativeKey(stated);
+  const short = shortFormKey(stated);
+  if (finder.unitNames(1, key).length > 0 || finder.unitNames(1, short).length > 0) return { context };
+  const names = finder.unitNames(1);
+  const named = (unitKey: string) => unitKey.startsWith(`${short} `) && !looseUnitReading(key, unitKey);
+  if (names.length === 0 || names.some((name) => named(name.key))) return { context };
+  const read = new Map<string, string>();
+  for (const name of names) {
+    const how = looseUnitReading(key, name.key);
+    if (how && !read.has(name.unitKey)) read.set(name.unitKey, how);
+  }
+  if (read.size === 1) {
+    const [[unit, how]] = [...read];
+    return {
+      context: { ...context, stateProvince: unit },
+      note: `the record's state/province "${stated}" names no loaded unit as written; read as the loaded unit "${unit}" (${how}) [CHOICE statedUnitReadings, src/georef/method-defaults.ts]`,
+    };
+  }
+  return read.size === 0 ? withinSeatState(finder, context, stated) : { context };
+}
+
+/**
+ * A stated state or province that names no loaded unit but is the name of towns of the record's country all
+ * recorded in one state ("Valdivia", a province named after its seat, in the Los Ríos region): read as a unit
+ * within that state, which then bounds the search; the context unchanged otherwise.
+ */
+function withinSeatState(finder: CandidateFinder, context: AdministrativeContext, stated: string): { context: AdministrativeContext; note?: string } {
+  if (!context.countryCode) return { context };
+  const towns = finder.findCandidates({ name: stated, context: { countryCode: context.countryCode }, nearSpellings: 'off' })
+    .filter((c) => c.score >= 1 && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  const states = new Set(towns.map((c) => c.feature.stateProvince));
+  const state = states.size === 1 ? [...states][0] : null;
+  if (!state) return { context };
+  return {
+    context: { ...context, stateProvince: state },
+    note: `the record's state/province "${stated}" names no loaded unit; read as a unit within "${state}", where the gazetteer records the town${towns.length > 1 ? 's' : ''} of that name, as a unit is usually named after its seat [CHOICE statedUnitReadings, src/georef/method-defaults.ts]`,
+  };
+}

@@ -18,7 +18,7 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, pastUnitHeads, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
+import { findUnit, pastUnitHeads, readStatedState, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
@@ -123,12 +123,15 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const edits = request.edits ?? {};
   const read = interpretationOf(request);
   const edited = edits.distancePrecision ? withDistancePrecision(read, edits.distancePrecision) : read;
-  const interpretation = pastUnitHeads(finder, edited, contextOf(request, edited));
-  // A state or county the text's hierarchy names bounds the search as the record's would.
-  const context = contextOf(request, interpretation);
+  const headless = pastUnitHeads(finder, edited, contextOf(request, edited));
   const datum = datumGiven(request);
-  if ('problem' in datum) return { status: 'unparseable', interpretation, candidates: [], reason: datum.problem };
+  if ('problem' in datum) return { status: 'unparseable', interpretation: headless, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };
+  // A state or county the text's hierarchy names bounds the search as the record's would; a stated state the
+  // gazetteer knows by another form is read as that unit [CHOICE statedUnitReadings].
+  const stated = contextOf(request, headless);
+  const { context, note } = (options.statedUnitReadings ?? METHOD_DEFAULTS.statedUnitReadings) === 'on' ? readStatedState(finder, stated) : { context: stated };
+  const interpretation = note ? { ...headless, notes: [...headless.notes, note] } : headless;
   if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
     throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
   }

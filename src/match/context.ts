@@ -4,6 +4,7 @@
  */
 import type { AdministrativeContext } from '../parse/types.ts';
 import { COUNTRY_NAME_LANGUAGES, countryCodeWritten, EXONYM_LANGUAGES, LATIN_COUNTRY_NAMES, regionNames } from '../parse/country-names.ts';
+import { editDistance } from './edit-distance.ts';
 import { foldName } from './fold.ts';
 import type { Feature } from './types.ts';
 
@@ -93,6 +94,32 @@ export function shortFormKey(name: string): string {
   while (start < tokens.length && ADMINISTRATIVE_WORDS.has(tokens[start]!)) start++;
   const cut = tokens.indexOf('de', start);
   return cut > start ? administrativeKey(tokens.slice(start, cut).join(' ')) : administrativeKey(name);
+}
+
+/** Words joining the two names of a unit ("Newfoundland and Labrador", "Arica y Parinacota"), read alike. */
+const CONJUNCTIONS = new Set(['and', 'y', 'e', 'et']);
+
+/**
+ * How a stated unit's comparison key (administrativeKey) names the loaded unit with key `unitKey` by a looser
+ * reading, or null: written with or without spaces ("Bío Bío", "Biobío"), joined by another language's "and"
+ * ("Arica and Parinacota", "Arica y Parinacota"), one of the two names joined ("Labrador" of "Newfoundland and
+ * Labrador", "Magallanes y Antártica Chilena" of "Magallanes"), or one letter apart in a name of 5 letters or
+ * more ("Aisén", "Aysén"; "Quezaltenango", "Quetzaltenango"). Used only for a stated unit that names no loaded
+ * unit as written [CHOICE statedUnitReadings, src/georef/method-defaults.ts]. Common practice, no source.
+ * @example looseUnitReading('labrador', 'newfoundland and labrador') // 'one of the names the unit joins'
+ * @example looseUnitReading('aisen', 'aysen') // 'one letter apart'
+ */
+export function looseUnitReading(statedKey: string, unitKey: string): string | null {
+  const words = (key: string) => key.split(' ').map((word) => (CONJUNCTIONS.has(word) ? 'and' : word));
+  const stated = words(statedKey);
+  const unit = words(unitKey);
+  if (stated.join('') === unit.join('')) return stated.join(' ') === unit.join(' ') ? 'another language\'s "and"' : 'written with or without spaces';
+  const parts = (w: string[]) => w.join(' ').split(' and ').filter((part) => part !== '');
+  if (parts(unit).length > 1 && parts(unit).includes(stated.join(' '))) return 'one of the names the unit joins';
+  if (parts(stated).length > 1 && parts(stated).includes(unit.join(' '))) return 'one of the names the unit joins';
+  const compact = [stated.join(''), unit.join('')];
+  if (Math.min(compact[0]!.length, compact[1]!.length) >= 5 && editDistance(compact[0]!, compact[1]!, 1) <= 1) return 'one letter apart';
+  return null;
 }
 
 /** The context a candidate must fit, resolved once per query. */

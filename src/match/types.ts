@@ -142,6 +142,18 @@ export interface CandidateFinder {
    * for other finders).
    */
   nearestPlace?(query: NearestPlaceQuery): NearbyPlace | null;
+  /**
+   * Every name of the loaded state (level 1) or county (level 2) units, or those with the key `key`, each
+   * with its unit's comparison key (administrativeKey); empty when the gazetteer records none (optional for
+   * other finders).
+   */
+  unitNames?(level: 1 | 2, key?: string): UnitName[];
+}
+
+/** One name of a loaded administrative unit: its key and its unit's key (both administrativeKey). */
+export interface UnitName {
+  key: string;
+  unitKey: string;
 }
 
 /** Where to look for the nearest place of the stated units. */

@@ -305,8 +305,11 @@ export function writesCoordinates(tokens: Token[]): boolean {
     const after = tokens[k + 2];
     return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
   };
+  // A label counts when any number follows it: before the last number. Found once, so long texts stay linear.
+  let lastNumber = -1;
+  tokens.forEach((t, k) => { if (t.kind === 'number') lastNumber = k; });
   return tokens.some((t, k) => (t.kind === 'number' && degreesWritten(k))
-    || ((normIn(t, LATITUDE_LABELS) || normIn(t, LONGITUDE_LABELS)) && tokens.slice(k + 1).some((n) => n.kind === 'number')));
+    || (k < lastNumber && (normIn(t, LATITUDE_LABELS) || normIn(t, LONGITUDE_LABELS))));
 }
 
 /**

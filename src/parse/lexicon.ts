@@ -250,6 +250,8 @@ export const MOUNTAIN_PART_PREFIXES = phrases(
   'summit of | the summit of | summit area of | top of | the top of | cumbre de | cumbre del | cumbre de la | la cumbre de | la cumbre del | cima de | cima del | ' +
     "cume de | cume do | cume da | topo de | topo do | topo da | sommet de | sommet du | sommet de la | sommet de l' | sommet des | cime de | cime du | cime de la",
 );
+/** Words before the area a point lies in, after an offset's place: "in Jocko Mountains", "en la Sierra X", "na Serra X", "dans le parc X". */
+export const WITHIN_WORDS = set('in within en em na no dans');
 /** Prepositions before a bare place name that are not part of it: "in X", "on X", "en X", "em X", "à X". */
 export const PLACE_PREPOSITIONS = set('in on en em at');
 

@@ -356,9 +356,33 @@ function wordOf(name: string, from: number, to: number): string {
   return fold(name.charAt(to - 1) === '.' ? name.slice(from, to - 1) : name.slice(from, to));
 }
 
-/** Where the feature name after an offset ends: the clause end, or a trailing path qualifier ("on Rd. 12"). */
-function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true; heading?: WrittenHeading } {
+/**
+ * The area closing a clause after an offset's place, from the "in" at `k` ("in Jocko Mountains", "en la Sierra
+ * Jocko", "na Serra do Jocko", "dans le parc Jocko"): a capitalised name whose generic word makes it a mountain
+ * range or a protected area, with a capital, where the point lies, not part of the place's name; else null
+ * [CHOICE areaAfterOffset].
+ */
+function areaAt(s: Source, k: number): string | null {
+  const start = L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') ? k + 2 : k + 1;
+  const capitalised = s.tokens.slice(start).some((t) => t.kind === 'word' && t.text[0] !== t.text[0]!.toLowerCase());
+  if (!capitalised) return null;
+  const name = nameBetween(s, start, s.tokens.length);
+  const kind = name ? featureKindOf(name) : undefined;
+  return kind === 'mountain' || kind === 'protected-area' ? s.text.slice(s.tokens[k]!.start, s.tokens[s.tokens.length - 1]!.end) : null;
+}
+
+/** Where the feature name after an offset ends: the clause end, a trailing path qualifier ("on Rd. 12") or the area the point lies in ("in Jocko Mountains"). */
+function placeEnd(s: Source, from: number): { end: number; path?: PathQualifier; byAir?: true; heading?: WrittenHeading; area?: string } {
+  let named = false;
+  let areaTried = false;
   for (let k = from + 1; k < s.tokens.length; k++) {
+    named ||= hasNameWord(s, k - 1, k);
+    // Only the first "in" after a name word may open the area, so that long texts stay linear.
+    if (named && !areaTried && L.WITHIN_WORDS.has(norm(s, k) ?? '')) {
+      areaTried = true;
+      const area = areaAt(s, k);
+      if (area) return { end: k, area };
+    }
     const path = readPath(s, k, false);
     if (path && path.next === s.tokens.length && (path.path || path.byAir)) {
       return { end: k, ...(path.path ? { path: path.path } : {}), ...(path.byAir ? { byAir: true as const } : {}) };
@@ -463,6 +487,7 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   else if (tail.path?.lineName && offset.path && !offset.path.lineName) offset.path = { ...offset.path, lineName: tail.path.lineName, written: `${offset.path.written} … ${tail.path.written}` };
   if (tail.heading && !offset.heading && offsets.length === 1) offset.heading = tail.heading;
   if (tail.byAir) offset.byAir = true;
+  if (tail.area) notes.push(`"${tail.area}" read as the area the point lies in, not part of the place's name [CHOICE areaAfterOffset]`);
   if (toward && offset.heading) {
     offset.heading = { ...offset.heading, azimuth: (offset.heading.azimuth + 180) % 360, toward: true };
     notes.push(`bearing written toward ${place}: heading from it reversed by 180°`);
@@ -568,9 +593,13 @@ function readClause(s: Source): LocalityRead {
   if (nearPrefix && s.tokens[i + nearPrefix]?.kind !== 'number') {
     // "near the junction of X and Y": the junction is the feature; "near" is kept as a note.
     const inner = readLocalityClause(text, tokens.slice(i + nearPrefix));
-    if (inner.type === 'junction') return { ...inner, approximate: approximate || inner.approximate, notes: [`written as "${s.text.slice(s.tokens[i]!.start, s.tokens[i + nearPrefix - 1]!.end)}" the junction`] };
+    const written = s.text.slice(s.tokens[i]!.start, s.tokens[i + nearPrefix - 1]!.end);
+    if (inner.type === 'junction') return { ...inner, approximate: approximate || inner.approximate, notes: [`written as "${written}" the junction`] };
     const place = placeAt(s, i + nearPrefix, end);
-    const notes = norm(s, i) === 'cerca' ? [`"${s.text.slice(s.tokens[i]!.start, s.tokens[i + nearPrefix - 1]!.end)}" before a place read as "near" (before a number it means "about")`] : [];
+    // "near the sand road 7 mi E of X", "près de la route à 7 milles à l'est de X": the offset locates what is
+    // near, and "near" adds nothing the offset's own uncertainty does not hold [CHOICE offsetAfterNear].
+    if (!place && inner.features.length > 0 && inner.offsets.some((o) => o.distance)) return { ...inner, approximate: approximate || inner.approximate, notes: [...inner.notes, `"${written}" before an offset: the offset's point is used [CHOICE offsetAfterNear]`] };
+    const notes = norm(s, i) === 'cerca' ? [`"${written}" before a place read as "near" (before a number it means "about")`] : [];
     return place ? reading('near', [place], { approximate, notes }) : unparseable('"near" without a place', approximate);
   }
 

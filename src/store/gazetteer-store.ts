@@ -13,7 +13,7 @@ import { indexTerms, type IndexTerms } from './index-terms.ts';
 import { NameBuffer, RowWriter, SortedPairs } from './import-writers.ts';
 import { importSortPath } from './side-files.ts';
 import type {
-  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source,
+  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source, UnitName,
 } from '../match/types.ts';
 
 /** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
@@ -138,6 +138,7 @@ interface SourceRow {
 export interface GazetteerStore extends CandidateFinder {
   lookupCandidates(query: CandidateQuery): CandidateLookup;
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null;
+  unitNames(level: 1 | 2, key?: string): UnitName[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
   /** Removes a source and all its features; returns false when there is no such source. */
@@ -216,6 +217,10 @@ class SqliteGazetteer implements GazetteerStore {
 
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null {
     return this.matcher.nearestPlace(query);
+  }
+
+  unitNames(level: 1 | 2, key?: string): UnitName[] {
+    return (key === undefined ? this.statements.unitNamesAt.all(level) : this.statements.unitNamesByKey.all(key, level)) as UnitName[];
   }
 
   countryOutlines(countryCode: string): Feature[] {
@@ -521,6 +526,8 @@ function prepareStatements(db: Database.Database) {
     insertUnitName: db.prepare('INSERT OR IGNORE INTO unit_names (key, level, unit_key, source) VALUES (?, ?, ?, ?)'),
     deleteSourceUnitNames: db.prepare('DELETE FROM unit_names WHERE source = ?'),
     unitKeys: db.prepare('SELECT DISTINCT unit_key FROM unit_names WHERE key = ? AND level = ?').pluck(),
+    unitNamesAt: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE level = ?'),
+    unitNamesByKey: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE key = ? AND level = ?'),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
     sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),

@@ -98,7 +98,7 @@ const documented: Record<string, { expected: Partial<Expected>; rule: string }> 
     expected: { status: 'not found', features: [], name: 'Kingsfery', type: undefined },
     rule:
       'a text that is only a name, found only by a near spelling with nothing else to corroborate it, is left for a ' +
-      'person to confirm, not answered ([CHOICE] fuzzyLoneName, src/georef/method-defaults.ts; README, "On real records")',
+      'person to confirm, not answered ([CHOICE] fuzzyLoneName, src/georef/method-defaults.ts; docs/real-records.md)',
   },
 };
 

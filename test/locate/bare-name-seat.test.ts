@@ -3,8 +3,8 @@
  * name, is answered with the town's radius widened ([CHOICE] bareNameSeatMeters): where municipalities
  * tile the land and bear their seat's name, such a label often means the municipality. A small invented
  * gazetteer (demo island style, CC0) of towns of the island QV, imported from CSV into a real SQLite
- * file. The rule is common practice, no source; its width was measured on the real-record sets (README,
- * "On real records"). What is checked is the rule's reach — only a bare name, only a town recorded in no
+ * file. The rule is common practice, no source; its width was measured on the real-record sets (docs/real-records.md).
+ * What is checked is the rule's reach — only a bare name, only a town recorded in no
  * differently named county — and that the remarks cite it whenever it is used, as every default
  * extent must be stated (Chapman & Wieczorek 2020, Georeferencing Best Practices, §Documenting
  * Georeferences).

@@ -41,7 +41,7 @@ describe('clean labels of every form in four languages, judged against their tru
   });
 
   // Issue 11 target: ≤ 0.3 % false. The benchmark's 4,500 labels give 0.16 % (7 "between" labels whose
-  // second place has a namesake or a near spelling; README "On clean labels").
+  // second place has a namesake or a near spelling; docs/real-records.md, "On clean labels").
   it('keeps false georeferences at or below 0.3 % (issue 11 target: reached)', () => {
     expect(cleanRatesOf(outcomes).falsePercent).toBeLessThanOrEqual(FALSE_PERCENT_TARGET);
   });
