@@ -230,10 +230,14 @@ export interface NameIndex {
   /** Up to `limit` postings of these tokens; with `countries`, only features in them or without a country. */
   postings(tokenIds: readonly number[], countries: readonly string[] | null, limit: number): Posting[];
   /**
-   * Up to `limit` postings (token = `driver`) of the features holding `driver` and one of `partners`;
-   * with `countries`, only features in them or without a country.
+   * The postings of `driver` and of `partners` of the features holding `driver` and one of `partners`,
+   * by feature, the driver's first: a feature's driver posting, then one posting of each partner it
+   * holds, for up to `limit` (feature, partner) pairs; with `countries`, only features in them or without a country.
+   * @example postingsWithPartner(santa, [cruz], null, 800) // [{ feature: 7, token: santa.id }, { feature: 7, token: cruz.id }, …]
    */
   postingsWithPartner(driver: IndexedToken, partners: readonly IndexedToken[], countries: readonly string[] | null, limit: number): Posting[];
+  /** The postings of these tokens held by these features (one index probe a pair). */
+  postingsAmong(tokenIds: readonly number[], featureIds: readonly number[]): Posting[];
   /** Loads a line's or polygon's full geometry into the feature (nothing for points or when present). */
   attachGeometry(feature: Feature): void;
   /**

@@ -460,17 +460,31 @@ function sqliteNameIndex(s: Statements): NameIndex {
       ? s.postings.all(JSON.stringify([...new Set(tokenIds)].sort((a, b) => a - b)), limit) as string[]
       : s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
-      // Sorted and each once: partnerPostingsWithDriver joins them (see postings).
-      const partnerIds = JSON.stringify([...new Set(partners.map((token) => token.id))].sort((a, b) => a - b));
-      // Whichever side has fewer postings is read, each probed for the other side (one index seek a row).
-      const partnerPostings = partners.reduce((sum, token) => sum + token.df, 0);
-      const [plain, inCountries] = partnerPostings < driver.df * partners.length
-        ? [s.partnerPostingsWithDriver, s.partnerPostingsWithDriverInCountries]
-        : [s.postingsWithPartner, s.postingsWithPartnerInCountries];
-      return (countries === null
-        ? plain.all({ driver: driver.id, partners: partnerIds, limit }) as string[]
-        : inCountries.all({ driver: driver.id, partners: partnerIds, limit, countries: JSON.stringify(countries) }) as string[]).map(postingRow);
+      // Each partner on its cheaper side (one index seek a row read): one rarer than the driver has its
+      // postings read, each probed for the driver; for the others the driver's postings are read, each
+      // probed for them. Reading every partner on one side cost the sum of the partners' postings or
+      // the driver's times the number of partners; this costs the sum of the smaller of the two.
+      const ids = (side: readonly IndexedToken[]) => JSON.stringify([...new Set(side.map((token) => token.id))].sort((a, b) => a - b));
+      const parameters = {
+        driver: driver.id, limit,
+        rarer: ids(partners.filter((token) => token.df < driver.df)),
+        commoner: ids(partners.filter((token) => token.df >= driver.df)),
+      };
+      const pairs = (countries === null
+        ? s.postingsWithPartner.all(parameters) as string[]
+        : s.postingsWithPartnerInCountries.all({ ...parameters, countries: JSON.stringify(countries) }) as string[]).map(postingRow);
+      // The driver's posting before the first pair of each feature.
+      const rows: Posting[] = [];
+      const seen = new Set<number>();
+      for (const pair of pairs) {
+        if (!seen.has(pair.feature)) rows.push({ feature: pair.feature, token: driver.id });
+        seen.add(pair.feature);
+        rows.push(pair);
+      }
+      return rows;
     },
+    postingsAmong: (tokenIds, featureIds) => (s.postingsAmong.all(JSON.stringify([...new Set(tokenIds)].sort((a, b) => a - b)),
+      JSON.stringify([...new Set(featureIds)].sort((a, b) => a - b))) as string[]).map(postingRow),
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
     unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
@@ -481,6 +495,18 @@ function sqliteNameIndex(s: Statements): NameIndex {
 
 const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
   f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type, f.name_details`;
+
+/**
+ * The features holding the token @driver and one of the tokens @rarer or @commoner (JSON arrays of
+ * ids, sorted, each once), as (feature, partner) pairs: the partners rarer than the driver read
+ * through their postings, each probed for the driver; the commoner ones probed from the driver's
+ * postings. A side with no partner reads nothing (its constant condition fails before its loop).
+ */
+const PARTNER_PAIRS = `SELECT q.feature AS feature, q.token AS partner FROM json_each(@rarer) k CROSS JOIN postings q ON q.token = k.value
+    WHERE json_array_length(@rarer) > 0 AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
+  UNION ALL
+  SELECT p.feature, q.token FROM postings p CROSS JOIN json_each(@commoner) k CROSS JOIN postings q ON q.token = k.value AND q.feature = p.feature
+    WHERE json_array_length(@commoner) > 0 AND p.token = @driver`;
 
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
@@ -532,18 +558,13 @@ function prepareStatements(db: Database.Database) {
     // Joined for the same reason as tokensByDeletion; the ids come sorted and once each, so the rows
     // come in the order 'token IN (…)' gives them (by token, then feature) and LIMIT keeps the same ones.
     postings: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) k CROSS JOIN postings p ON p.token = k.value LIMIT ?`).pluck(),
-    postingsWithPartner: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p WHERE p.token = @driver
-      AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners))) LIMIT @limit`).pluck(),
-    postingsWithPartnerInCountries: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p JOIN features f ON f.id = p.feature
-      WHERE p.token = @driver
-        AND EXISTS (SELECT 1 FROM postings q WHERE q.feature = p.feature AND q.token IN (SELECT value FROM json_each(@partners)))
-        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`).pluck(),
-    partnerPostingsWithDriver: db.prepare(`SELECT q.feature || ' ' || @driver FROM json_each(@partners) k CROSS JOIN postings q ON q.token = k.value
-      WHERE EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature) LIMIT @limit`).pluck(),
-    partnerPostingsWithDriverInCountries: db.prepare(`SELECT q.feature || ' ' || @driver FROM postings q JOIN features f ON f.id = q.feature
-      WHERE q.token IN (SELECT value FROM json_each(@partners))
-        AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
-        AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries))) LIMIT @limit`).pluck(),
+    // The first pairs, the rarer partners' first (see PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
+    postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) LIMIT @limit`).pluck(),
+    postingsWithPartnerInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
+      WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries)) LIMIT @limit`).pluck(),
+    // Each token's postings probed for each feature, in key order (sorted ids): neighbouring seeks share pages.
+    postingsAmong: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) t CROSS JOIN json_each(?) f
+      CROSS JOIN postings p ON p.token = t.value AND p.feature = f.value`).pluck(),
     postingsInCountries: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p JOIN features f ON f.id = p.feature
       WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`).pluck(),

@@ -106,6 +106,34 @@ describe('a name of two words, one too common for the posting budget', () => {
   });
 });
 
+describe('a name of several words with words too common for the posting budget', () => {
+  it('checks the places its rarer word found for the common words, and reads no neighbour of a common word', () => {
+    // 'vieja' and 'rosa' in more places than a probe reads (COMMON_TOKEN_LIMIT); 'dormida', one edit
+    // from 'dbormida', names a hundred places before the one meant, 'Vieja Rosa Dormida'.
+    const index = memoryNameIndex([
+      ...namesakes(5001, 'Vieja'), ...namesakes(5001, 'Rosa'), ...namesakes(100, 'Dormida'), ...namesakes(1, 'Vieja Rosa Dormida'),
+    ]);
+    const found = new CandidateMatcher(index).lookup({ name: 'Vieja Rosa Dbormida', context: {}, limit: 5 });
+    expect(found.candidates[0].feature.name).toBe('Vieja Rosa Dormida');
+    // Only the misspelt word's keys within one edit: the common words are taken as written, and the
+    // lookup is not repeated with farther neighbours.
+    expect(index.rowsRead.deletionKeys).toBe(oneEditQueryKeys('dbormida').length);
+    // The rarer word's postings, then one probe a place and common word.
+    expect(index.rowsRead.postings).toBeLessThanOrEqual(101 + 2 * 101);
+  });
+
+  it('counts a partner word for the places found with the common word: the place holding both comes first', () => {
+    // 'salto' is too common for the budget and the rarest unread word: its places are read with
+    // those of 'santa' and 'castillo' (partners, more common than it) and of the rare 'castilho'.
+    const index = memoryNameIndex([
+      ...namesakes(900, 'Santa'), ...namesakes(820, 'Salto'), ...namesakes(830, 'Castillo'), ...namesakes(2, 'Salto Castilho'),
+      ...namesakes(60, 'Castico'), ...namesakes(1, 'Santa Salto Castillo'),
+    ]);
+    const found = new CandidateMatcher(index).lookup({ name: 'Santa Salto Castilco', context: {}, limit: 5 });
+    expect(found.candidates[0].feature.name).toBe('Santa Salto Castillo');
+  });
+});
+
 describe('a lookup of exact names and readings only (nearSpellings off)', () => {
   it('reads no neighbour of a word and returns no near spelling', () => {
     const index = memoryNameIndex(namesakes(3, 'Morena'));

@@ -65,11 +65,17 @@ export function memoryNameIndex(features: readonly Feature[]): NameIndex & { row
       return rows.slice(0, limit);
     },
     postingsWithPartner: (driver, partners, countries, limit) => {
-      const partnerFeatures = new Set(partners.flatMap((partner) => postingsOf(partner.id)));
-      const rows = postingsOf(driver.id).filter((feature) => partnerFeatures.has(feature) && inCountries(countries)(feature))
-        .map((feature) => ({ feature, token: driver.id }));
-      rowsRead.postings += Math.min(limit, rows.length);
-      return rows.slice(0, limit);
+      const partnerIds = [...new Set(partners.map((partner) => partner.id))].sort((a, b) => a - b);
+      const pairs = [...postingsOf(driver.id)].sort((a, b) => a - b).filter(inCountries(countries))
+        .flatMap((feature) => partnerIds.filter((partner) => postingsOf(partner).includes(feature)).map((token) => ({ feature, token })))
+        .slice(0, limit);
+      rowsRead.postings += pairs.length;
+      return pairs.flatMap((pair, i) => (i === 0 || pairs[i - 1].feature !== pair.feature ? [{ feature: pair.feature, token: driver.id }, pair] : [pair]));
+    },
+    postingsAmong: (tokenIds, featureIds) => {
+      const rows = tokenIds.flatMap((token) => featureIds.filter((feature) => postingsOf(token).includes(feature)).map((feature) => ({ feature, token })));
+      rowsRead.postings += rows.length;
+      return rows;
     },
     attachGeometry: () => {},
     sourceRanks: () => new Map([...new Set(features.map((feature) => feature.sourceId))].map((source, rank) => [source, rank])),
