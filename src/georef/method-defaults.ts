@@ -174,9 +174,10 @@ export const METHOD_DEFAULTS = {
    * A leading clause of a record stating no state that is a name of a state or province in the gazetteer's
    * unit-name table ("US, Colorado, Vail") [CHOICE]: 'on' reads it as that state, context and not a place,
    * when the clause after it names a place the gazetteer records in a state of that name in the record's
-   * country; and the head of a hierarchy ("BOCAS DEL TORO: …", read as a country by its place in the chain)
+   * country, or when no town of the record's country bears its name ("British Columbia"); and the head of a hierarchy ("BOCAS DEL TORO: …", read as a country by its place in the chain)
    * that is no country's name but names the record's stated state by any of its names, or, with none stated, a
-   * state of the table holding a place of that name or of the text in the record's country, is that state,
+   * state of the table holding a place of that name or of the text in the record's country, or one no town of
+   * the country is named after, is that state,
    * never a town standing in for the place. 'off' leaves the first a clause to be matched as a place (a town or
    * a near spelling of one) and the second a country-level head whose town may stand in. Common practice, no
    * source; measured on the real-record sets (docs/real-records.md).

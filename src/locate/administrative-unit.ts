@@ -83,7 +83,7 @@ export function pastUnitHeads(finder: CandidateFinder, interpretation: Interpret
     // found (standInsNamed). Not a country: its name in another language may be a town's ("Brasilia").
     const administrative = unit.level === 'country' || unit.level === 'unit' ? next.administrative : { [unit.level]: unit.name, ...next.administrative };
     const why = own ? `names the record's ${LEVEL_WORDS[unit.level]}`
-      : holding ? `names a state or province the loaded gazetteer records, which holds the place "${next.features[0]}" in the record's country [CHOICE headStateByPlace, src/georef/method-defaults.ts]`
+      : holding ? `names a state or province the loaded gazetteer records (named after no town of the record's country, or holding the place after it there) [CHOICE headStateByPlace, src/georef/method-defaults.ts]`
         : `names the loaded gazetteer's ${LEVEL_WORDS[unit.level]} "${unit.name}", in the record's country`;
     reading = { ...next, administrative, notes: [...next.notes, `"${unit.written}" ${why}: read as context, the clause after it used`] };
   }
@@ -122,8 +122,8 @@ function headUnitLoaded(finder: CandidateFinder, interpretation: Interpretation,
  * "BOCAS DEL TORO: Cordillera de Talamanca", "San José: Pérez Zeledón": the head of a hierarchy written into the
  * text ("X:", "X |") is read as a country by its place in the chain; when it is no country's name but names a
  * state or province of the record (its stated one, by any name the gazetteer's unit-name table holds; with none
- * stated, one of the table's states holding a place of that name or a place of the text, in the record's
- * country), it is that state: context bounding the search, never a town standing in for the place
+ * stated, one of the table's states holding a place of that name or a place of the text in the record's
+ * country, or one no town of the country is named after), it is that state: context bounding the search, never a town standing in for the place
  * [CHOICE headStateByPlace]. The reading unchanged otherwise.
  * @example headAsState(store, parseLocality('Colorado: Vail'), { countryCode: 'US' }).administrative // { stateProvince: 'Colorado' }
  */
@@ -134,9 +134,9 @@ export function headAsState(finder: CandidateFinder, interpretation: Interpretat
   const units = new Set(finder.unitNames(1, administrativeKey(head)).map((name) => name.unitKey));
   if (units.size === 0) return interpretation;
   const stated = context.stateProvince ? finder.unitNames(1, administrativeKey(context.stateProvince)).map((name) => name.unitKey) : [];
-  const names = context.stateProvince ? stated.some((unit) => units.has(unit)) : [head, ...interpretation.features].some((name) => placeInState(finder, name, head, code));
+  const names = context.stateProvince ? stated.some((unit) => units.has(unit)) : !townNamed(finder, head, code) || [head, ...interpretation.features].some((name) => placeInState(finder, name, head, code));
   if (!names) return interpretation;
-  const why = context.stateProvince ? 'the record\'s state or province' : 'a state or province the loaded gazetteer records, holding a place of the text in the record\'s country';
+  const why = context.stateProvince ? 'the record\'s state or province' : 'a state or province the loaded gazetteer records (named after no town of the record\'s country, or holding a place of the text there)';
   return {
     ...interpretation,
     administrative: { ...rest, stateProvince: head },
@@ -148,16 +148,25 @@ export function headAsState(finder: CandidateFinder, interpretation: Interpretat
  * "US, Colorado, Vail" on a record stating no state: a head that is one of the names of a state or province in
  * the gazetteer's unit-name table (gazetteers that load states only as codes of their towns hold no feature of
  * it) is that state when the clause after it names a place the gazetteer records in a state of that name, in
- * the record's country [CHOICE headStateByPlace]; null otherwise. A state's name alone is not enough: it is
- * often a town's in another country ("Paraná").
+ * the record's country, or when no town of the record's country bears its name ("British Columbia") [CHOICE
+ * headStateByPlace]; null otherwise. A state's name that is also a town's of the country ("Paraná") needs the
+ * place after it.
  * @example headStateHolding(store, parseLocality('Colorado, Vail'), parseLocality('Vail'), { countryCode: 'US' }) // { name: 'Colorado', level: 'stateProvince', written: 'Colorado' }
  */
 function headStateHolding(finder: CandidateFinder, head: Interpretation, next: Interpretation, context: AdministrativeContext): NamedUnit | null {
   const code = context.countryCode?.trim().toUpperCase();
-  if (!code || context.stateProvince || !finder.unitNames || head.type !== 'named-place' || head.features.length !== 1 || next.features.length === 0) return null;
+  if (!code || context.stateProvince || !finder.unitNames || head.type !== 'named-place' || head.features.length !== 1) return null;
   const written = head.features[0]!;
   if (finder.unitNames(1, administrativeKey(written)).length === 0) return null;
-  return placeInState(finder, next.features[0]!, written, code) ? { name: written, level: 'stateProvince', written } : null;
+  const held = next.features.length > 0 && placeInState(finder, next.features[0]!, written, code);
+  return held || !townNamed(finder, written, code) ? { name: written, level: 'stateProvince', written } : null;
+}
+
+/** Whether the gazetteer records a town of that name, as written, in the country. */
+function townNamed(finder: CandidateFinder, name: string, countryCode: string): boolean {
+  return finder
+    .findCandidates({ name, context: { countryCode }, nearSpellings: 'off' })
+    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === countryCode && SETTLEMENTS.has(c.feature.featureType ?? ''));
 }
 
 /** Whether the gazetteer records a town of that name, as written, in a state of that name of the country. */
