@@ -146,9 +146,17 @@ interface City { name: string; lat: string; lng: string; country: string; admin1
  * @example const store = await openRealGazetteer(REAL_SETS[0]); store.findCandidates({ name: 'Manaus', context: { countryCode: 'BR' } })
  */
 export async function openRealGazetteer(set: RealSet): Promise<GazetteerStore> {
+  return openGazetteer(await realGazetteerPath(set), { readonly: true });
+}
+
+/**
+ * The file of a set's open gazetteer, imported on first use (for a command given the file, as batch is).
+ * @example spawnSync(process.execPath, [BIN, '--db', await realGazetteerPath(REAL_SETS[2]), 'batch', input])
+ */
+export async function realGazetteerPath(set: RealSet): Promise<string> {
   const path = join(tmpdir(), `${gazetteerKey(set)}.sqlite`);
   if (!existsSync(path)) await buildGazetteer(path, set);
-  return openGazetteer(path, { readonly: true });
+  return path;
 }
 
 async function buildGazetteer(path: string, set: RealSet): Promise<void> {
