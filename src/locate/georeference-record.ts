@@ -85,9 +85,10 @@ export function recordMemoKey(request: RecordRequest): string {
   return memoKeyOf(request.attribution, locateRequestOf(request));
 }
 
-// The loaded sources' content hashes are part of the key: a gazetteer imported meanwhile never gives a stale result.
+// What an answer reads of the loaded sources is part of the key: their ids and content hashes (a
+// gazetteer imported meanwhile) and their ranks (which source a place found in several is cited from).
 function memoKeyOf(attribution: RecordContext, located: LocateRequest): string {
-  return JSON.stringify([attribution.sources.map((s) => s.contentHash), located]);
+  return JSON.stringify([attribution.sources.map((s) => [s.id, s.contentHash, s.priority]), located]);
 }
 
 /** What `locate` reads of a record: its text and options, with the georeferencer's method edits over the options. */

@@ -17,6 +17,8 @@ import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { compatibleTypes, SAME_PLACE_RULE } from '../../src/match/same-place.ts';
 import { examineStore } from '../../src/store/doctor.ts';
+import { georeferenceRecord, type Memo } from '../../src/locate/georeference-record.ts';
+import type { LocateResult } from '../../src/locate/locate.ts';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, SCHEMA_VERSION, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { listen, post } from '../server/helpers.ts';
@@ -100,6 +102,23 @@ describe('the same place in several sources is one candidate', () => {
     expect(store.setPriority('nothing', 1)).toBe(false);
     expect(store.setPriority('moved', null)).toBe(true);
     expect(store.setPriority('survey', null)).toBe(true);
+  });
+
+  it('gives a remembered answer only while the sources are ranked as when it was computed', () => {
+    // A memo as the service keeps one: a cache may save work, never change an answer (common practice, no source).
+    const memory = new Map<string, LocateResult>();
+    const memo: Memo = (key, compute) => memory.get(key) ?? memory.set(key, compute()).get(key)!;
+    const answer = (withMemo: boolean) => georeferenceRecord(store, {
+      locality: 'Villa Alisos', attribution: { georeferencedBy: 'test', georeferencedDate: '2026-01-01T00:00:00Z', sources: store.sources() },
+    }, withMemo ? memo : undefined).result;
+    expect(answer(true).candidates[0].feature.sourceId).toBe('atlas');
+    expect(store.setPriority('moved', 1)).toBe(true);
+    try {
+      expect(answer(true)).toEqual(answer(false));
+      expect(answer(true).candidates[0].feature.sourceId).toBe('moved');
+    } finally {
+      expect(store.setPriority('moved', null)).toBe(true);
+    }
   });
 });
 
