@@ -10,9 +10,11 @@ import { georeferenceGroup, type BatchSettings } from './georeference-group.ts';
 
 /**
  * How batch threads open the gazetteer: read-only, no memory map and a 16 MiB page cache, so that two
- * connections (main thread and worker) keep a batch under its memory budget [measured with bench:batch].
+ * connections (main thread and worker) keep a batch under its memory budget [measured with bench:batch];
+ * query words' neighbours kept up to 8 MiB a connection (about 80,000 neighbours: a batch's recurring
+ * words, whose count was bounded before but not their bytes).
  */
-export const BATCH_STORE_OPTIONS: OpenOptions = { readonly: true, memoryMap: false, cacheKiB: 16_384 };
+export const BATCH_STORE_OPTIONS: OpenOptions = { readonly: true, memoryMap: false, cacheKiB: 16_384, wordCacheKiB: 8192 };
 
 export interface GeoreferenceTask {
   dbPath: string;

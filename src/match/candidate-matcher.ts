@@ -13,6 +13,7 @@ import { contextMismatch, resolveContext, type ResolvedContext } from './context
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS, type NameVariant } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
+import { WordCache } from './word-cache.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
 import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms } from './older-spelling.ts';
@@ -30,8 +31,16 @@ const POSTING_BUDGET = 800;
 const FUZZY_POOL = 20;
 /** At least this many, when the lookup asks for few candidates and filters none. */
 const MIN_FUZZY_POOL = 10;
-/** Query tokens whose matching stored tokens are kept between lookups (cleared when the index changes). */
-const TOKEN_MATCH_CACHE = 20_000;
+/**
+ * Estimated bytes of the query words' stored neighbours kept between lookups (WordCache, cleared when
+ * the index changes), by default: a 1,904-query benchmark batch at 13 M names keeps about 4,200 words
+ * and 128,000 neighbours (about 13 MB) and forgets none.
+ */
+export const WORD_CACHE_BYTES = 32 * 1024 * 1024;
+/** A kept word's bytes besides its neighbours (its entry, key and arrays), estimated; from a V8 heap measurement. */
+const WORD_BYTES = 200;
+/** A kept neighbour's bytes besides its text (object, numbers, array slot): about 100 bytes a 10-letter token in V8's heap. */
+const NEIGHBOUR_BYTES = 80;
 /** Whole-name edits counted exactly when re-ranking the shortlist; more are all alike (common practice, no source). */
 const MAX_NAME_EDITS = 4;
 /**
@@ -117,15 +126,18 @@ const countryList = (context: ResolvedContext): string[] | null => (context.coun
 
 /**
  * Ranked candidates for names, read through a NameIndex. Keeps the stored tokens matching recent
- * query words until the index's version changes; an index's owner calls `forgetTokenMatches` after
- * its own writes (which do not move the version it reports).
+ * query words (at most `wordCacheBytes`, estimated; 0 keeps none) until the index's version changes;
+ * an index's owner calls `forgetTokenMatches` after its own writes (which do not move the version it
+ * reports). What is kept never changes an answer: a word's matches are the rows the index gives for it.
  * @example new CandidateMatcher(index).lookup({ name: 'Rosario', context: { countryCode: 'AR' } }).candidates[0].why // 'exact name'
  */
 export class CandidateMatcher {
-  private readonly tokenMatches = new Map<string, WordMatches>();
+  private readonly tokenMatches: WordCache<WordMatches>;
   private tokenMatchVersion = -1;
 
-  constructor(private readonly index: NameIndex) {}
+  constructor(private readonly index: NameIndex, wordCacheBytes = WORD_CACHE_BYTES) {
+    this.tokenMatches = new WordCache(wordCacheBytes, wordMatchBytes);
+  }
 
   forgetTokenMatches(): void {
     this.tokenMatches.clear();
@@ -503,7 +515,7 @@ export class CandidateMatcher {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
     // changes (data_version moves when another connection commits; this one's writes clear the cache).
     const version = this.index.version();
-    if (version !== this.tokenMatchVersion || this.tokenMatches.size >= TOKEN_MATCH_CACHE) {
+    if (version !== this.tokenMatchVersion) {
       this.tokenMatches.clear();
       this.tokenMatchVersion = version;
     }
@@ -511,7 +523,7 @@ export class CandidateMatcher {
     let word = this.tokenMatches.get(cacheKey);
     if (word === undefined) {
       word = { exact: this.exactTokens(token, severalTokens) };
-      this.tokenMatches.set(cacheKey, word);
+      this.tokenMatches.keep(cacheKey, word);
     }
     if (token.length < MIN_FUZZY_TOKEN_LENGTH) return { matches: word.exact, keysRead: 'all' };
     // A word of a longer name stored as written and too common for the posting budget ('santa', 'lake')
@@ -523,7 +535,10 @@ export class CandidateMatcher {
     if (severalTokens && common) return { matches: word.exact, keysRead: 'all' };
     if (word.exact.length > 0 && reach === 'first') return { matches: word.exact, keysRead: 'none' };
     // Keys within one edit are all the keys of a word shorter than MIN_TWO_EDIT_LENGTH.
-    word.oneEdit ??= this.nearTokens(token, oneEditQueryKeys(token), word.exact);
+    if (word.oneEdit === undefined) {
+      word.oneEdit = this.nearTokens(token, oneEditQueryKeys(token), word.exact);
+      this.tokenMatches.keep(cacheKey, word);
+    }
     const oneEdit = [...word.exact, ...word.oneEdit];
     if (token.length < MIN_TWO_EDIT_LENGTH) return { matches: oneEdit, keysRead: 'all' };
     // Two-edit neighbours are the most costly seeks (thousands of words in a world-size index, most of
@@ -540,6 +555,7 @@ export class CandidateMatcher {
     if (word.rest === undefined) {
       const read = new Set(oneEditQueryKeys(token));
       word.rest = this.nearTokens(token, queryTokenKeys(token).filter((key) => !read.has(key)), oneEdit);
+      this.tokenMatches.keep(cacheKey, word);
     }
     return { matches: [...oneEdit, ...word.rest], keysRead: 'all' };
   }
@@ -599,6 +615,16 @@ export class CandidateMatcher {
       return feature === undefined ? [] : [feature];
     });
   }
+}
+
+/**
+ * A kept word's estimated bytes in the heap (see WORD_CACHE_BYTES).
+ * @example wordMatchBytes({ exact: [{ id: 1, edits: 0, df: 3, text: 'san' }] }) // 200 + 80 + 6
+ */
+function wordMatchBytes(word: WordMatches): number {
+  let bytes = WORD_BYTES;
+  for (const rows of [word.exact, word.oneEdit ?? [], word.rest ?? []]) for (const row of rows) bytes += NEIGHBOUR_BYTES + 2 * row.text.length;
+  return bytes;
 }
 
 /** A feature found through the postings, with the weight of each query word's best token and its best token. */

@@ -6,7 +6,7 @@
  */
 import Database from 'better-sqlite3';
 import type { Geometry } from 'geojson';
-import { CandidateMatcher } from '../match/candidate-matcher.ts';
+import { CandidateMatcher, WORD_CACHE_BYTES } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
 import { indexTerms, type IndexTerms } from './index-terms.ts';
@@ -167,10 +167,17 @@ export interface OpenOptions {
   memoryMap?: boolean;
   /** SQLite page cache of a reading connection in KiB (default 65536). */
   cacheKiB?: number;
+  /**
+   * Query words' stored neighbours kept between lookups, in KiB of heap (estimated; default 32768, 0
+   * keeps none): at most this much besides SQLite's cache. Never changes an answer; cleared by an
+   * import, a source's removal or another connection's write.
+   */
+  wordCacheKiB?: number;
 }
 
 export function openGazetteer(path: string, options: OpenOptions = {}): GazetteerStore {
-  return new SqliteGazetteer(path, options.readonly === true, options.memoryMap !== false, options.cacheKiB ?? QUERY_CACHE_KIB);
+  const wordCacheBytes = options.wordCacheKiB === undefined ? WORD_CACHE_BYTES : 1024 * options.wordCacheKiB;
+  return new SqliteGazetteer(path, options.readonly === true, options.memoryMap !== false, options.cacheKiB ?? QUERY_CACHE_KIB, wordCacheBytes);
 }
 
 class SqliteGazetteer implements GazetteerStore {
@@ -178,7 +185,7 @@ class SqliteGazetteer implements GazetteerStore {
   private readonly statements: Statements;
   private readonly matcher: CandidateMatcher;
 
-  constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number) {
+  constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number, wordCacheBytes: number) {
     let db = new Database(path, { readonly, fileMustExist: readonly });
     let version = db.pragma('user_version', { simple: true }) as number;
     if (readonly && version >= OLDEST_READABLE_SCHEMA && version < SCHEMA_VERSION) {
@@ -204,7 +211,7 @@ class SqliteGazetteer implements GazetteerStore {
     // Lookups seek into the token indexes at random: through a memory map a page costs no read call.
     if (memoryMap) this.db.pragma(`mmap_size = ${MMAP_BYTES}`);
     this.statements = prepareStatements(this.db);
-    this.matcher = new CandidateMatcher(sqliteNameIndex(this.statements));
+    this.matcher = new CandidateMatcher(sqliteNameIndex(this.statements), wordCacheBytes);
   }
 
   findCandidates(query: CandidateQuery): Candidate[] {

@@ -80,6 +80,29 @@ describe('fuzzy matching through the index', () => {
   });
 });
 
+describe('query words kept between lookups (OpenOptions.wordCacheKiB)', () => {
+  // Misspellings sharing words, as a batch's records do; what a connection keeps must never change an
+  // answer, whatever came before (common practice, no source: a cache is transparent).
+  const queries = ['Santa Rosaa', 'Sant Rosa', 'Rosalnda', 'Puerto Albaran', 'Pto Albaran', 'Cero Pleón', 'Cerro Pelom',
+    'Sao Tome de Baxo', 'Arroyo Hndo', 'Santa Rossa', 'Rosarop', 'Mount Greyhil', 'Fazenda Boa Vsta', 'Sata Rosa', 'Rosalnda', 'Santa Rosaa'];
+  const answers = (options: { wordCacheKiB?: number }, order: string[]) => {
+    const reader = openGazetteer(join(directory, 'g.sqlite'), { readonly: true, ...options });
+    const found = new Map(order.map((name) => [name, reader.findCandidates({ name, context: {}, limit: 5 })
+      .map((c) => `${c.feature.featureId} ${c.score} ${c.why}`)]));
+    reader.close();
+    return queries.map((name) => found.get(name));
+  };
+
+  it('gives the same candidates in order, reversed, with none kept, and with so few kept that words are forgotten', () => {
+    const inOrder = answers({}, queries);
+    expect(inOrder.flat().length).toBeGreaterThan(queries.length);
+    expect(answers({}, [...queries].reverse())).toEqual(inOrder);
+    expect(answers({ wordCacheKiB: 0 }, queries)).toEqual(inOrder);
+    expect(answers({ wordCacheKiB: 1 }, queries)).toEqual(inOrder);
+    expect(answers({ wordCacheKiB: 1 }, [...queries].reverse())).toEqual(inOrder);
+  });
+});
+
 describe('administrative context', () => {
   it('keeps every candidate the context cannot separate (ambiguous, never a silent pick)', () => {
     expect(ids('Santa Rosa', { countryCode: 'QX' })).toHaveLength(4);
