@@ -9,7 +9,7 @@
  * BENCH_CLEAN_COUNT sets the number of labels (default 4,500); BENCH_CLEAN_LIST=1 lists every false
  * georeference and every label that can be georeferenced but was not answered.
  */
-import { cpus, loadavg } from 'node:os';
+import { machineLoad } from './machine-load.ts';
 import { performance } from 'node:perf_hooks';
 import { openDemoStore } from '../test/support/demo-store.ts';
 import { groupRates } from '../test/real/harness.ts';
@@ -23,7 +23,7 @@ const row = (label: string, r: CleanRates) =>
   `${label.padEnd(34)} ${String(r.labels).padStart(6)} ${String(r.georeferenceable).padStart(5)} ${r.answeredPercent.toFixed(1).padStart(9)} ${r.falsePercent.toFixed(2).padStart(7)} ${r.coveredPercentOfAnswered.toFixed(1).padStart(9)}`;
 
 const store = await openDemoStore('whereabouts-bench-clean-');
-console.log(`load at start: ${loadavg().map((l) => l.toFixed(2)).join(' ')} on ${cpus().length} cores`);
+console.log(`load at start: ${machineLoad()}`);
 
 function run(rounding: Rounding): CleanOutcome[] {
   const labels = generateCleanLabels(COUNT, SEED, rounding);
@@ -63,4 +63,4 @@ const fiveKmSteps = run('5 km steps');
 console.log('-- by form');
 for (const [k, r] of groupRates(fiveKmSteps, (o) => o.label.form, cleanRatesOf)) console.log(row(k, r));
 store.close();
-console.log(`uptime: load ${loadavg().map((l) => l.toFixed(2)).join(' ')} on ${cpus().length} cores`);
+console.log(`uptime: load ${machineLoad()}`);

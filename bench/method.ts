@@ -2,7 +2,7 @@
  * Method core benchmark: corrected center and radial (featureExtent) of seeded synthetic polygons of
  * BENCH_VERTICES vertices each (a comma list, default "50,500,5000"; wavy, concave rings a few tens of km
  * across) and of lines, then georeference() of offset-heading and named-place interpretations. Prints
- * features/s and georeferences/s. The importer computes featureExtent once per polygon, so thousands of
+ * features/s and georeferences/s, and the machine's load before and after. The importer computes featureExtent once per polygon, so thousands of
  * polygons of a few hundred vertices should take seconds. Run: `npm run bench:method`.
  */
 import { performance } from 'node:perf_hooks';
@@ -11,9 +11,11 @@ import { featureExtent } from '../src/georef/feature-extent.ts';
 import { georeference } from '../src/georef/georeference.ts';
 import type { Feature } from '../src/match/types.ts';
 import type { Interpretation } from '../src/parse/types.ts';
+import { machineLoad } from './machine-load.ts';
 import { seededRandom } from './seeded-random.ts';
 
 const SIZES = (process.env.BENCH_VERTICES ?? '50,500,5000').split(',').map(Number);
+console.log(`load at start: ${machineLoad()}`);
 
 
 function wavyRing(vertices: number, random: () => number): Position[] {
@@ -55,3 +57,4 @@ const offsetHeading: Interpretation = {
 };
 measure('georeference, offset-heading', 20_000, () => georeference({ interpretation: offsetHeading, features: [town] }));
 measure('georeference, named-place', 20_000, () => georeference({ interpretation: { ...base, type: 'named-place' }, features: [town] }));
+console.log(`load at the end: ${machineLoad()}`);

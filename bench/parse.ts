@@ -1,10 +1,11 @@
 /**
  * Parser speed on one core: the four-language fixture corpus repeated, in strings per second
  * (target ≥ 20,000/s, issue 4), plus the slowest adversarial 10,000-character input.
- * Run: npm run bench:parse
+ * Prints the machine's load before and after. Run: npm run bench:parse
  */
 import { readFileSync } from 'node:fs';
 import { parseLocality } from '../src/parse/index.ts';
+import { machineLoad } from './machine-load.ts';
 
 const fixtures = new URL('../test/fixtures/parse/', import.meta.url);
 const texts = ['en', 'es', 'pt', 'fr'].flatMap((language) =>
@@ -17,6 +18,7 @@ function run(rounds: number): number {
   return types;
 }
 
+console.log(`load at start: ${machineLoad()}`);
 run(20); // warm-up
 const rounds = 200;
 const start = process.hrtime.bigint();
@@ -34,3 +36,4 @@ for (const piece of ['1 ', 'N ', 'de ', '°', '10 km N of X ', 'X, ', "12°30'",
   if (ms > worst.ms) worst = { piece, ms };
 }
 console.log(`parse: slowest adversarial 10000-character input ${JSON.stringify(worst.piece)} repeated: ${worst.ms.toFixed(1)} ms`);
+console.log(`load at the end: ${machineLoad()}`);

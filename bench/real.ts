@@ -6,7 +6,7 @@
  * the loaded gazetteer (harness definition), answered % of those, and why the rest are not. Run: `npm run bench:real`.
  * BENCH_REAL_LIST=false lists every false georeference.
  */
-import { cpus, loadavg } from 'node:os';
+import { machineLoad } from './machine-load.ts';
 import { groupRates, loadRealRecords, measureSet, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
 
 /** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS, BENCH_REAL_SHORT_FORMS, BENCH_REAL_BARE_SEAT_METERS, BENCH_REAL_COUNTRY_EXONYM_TOWN, BENCH_REAL_PROTECTED_AREA_TOWN and BENCH_REAL_STATED_UNITS override the [CHOICE]s, to measure them. */
@@ -74,4 +74,4 @@ if (process.env.BENCH_REAL_LIST === 'false') {
     console.log(`FALSE ${o.record.set} ${o.record.id} [${o.record.stateProvince}] "${o.record.locality}" -> ${g.latitude.toFixed(3)},${g.longitude.toFixed(3)} r=${(g.uncertaintyMeters / 1000).toFixed(1)} km, off ${((o.errorMeters ?? 0) / 1000).toFixed(1)} km (${o.result.interpretation.type}: ${g.features.map((f) => f.name).join(', ')})`);
   }
 }
-console.log(`uptime: load ${loadavg().map((l) => l.toFixed(2)).join(' ')} on ${cpus().length} cores`);
+console.log(`uptime: load ${machineLoad()}`);
