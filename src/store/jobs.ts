@@ -169,9 +169,13 @@ export function findUnfinishedJob(
   return rows.map(fromRow).find((job) => sameSources(job.sources, like.sources) && (runTimestamp === undefined || job.runTimestamp === runTimestamp));
 }
 
-/** Sources are the same when every id has the same content hash. */
+/**
+ * Sources are the same when every id has the same content hash and rank: the rank decides which source
+ * a place found in several is cited from, so a job resumed across a rank change would mix two answers.
+ * A job stored before ranks existed holds none, which reads as unranked.
+ */
 export function sameSources(a: Source[], b: Source[]): boolean {
-  const key = (s: Source[]) => JSON.stringify(s.map((x) => [x.id, x.contentHash]).sort());
+  const key = (s: Source[]) => JSON.stringify(s.map((x) => [x.id, x.contentHash, x.priority ?? null]).sort());
   return key(a) === key(b);
 }
 
