@@ -87,7 +87,7 @@ function checkParts(readers: PartReader[], options: MergeOptions): PartMeta {
     if (m.inputSha256 !== first.inputSha256) throw differs('inputs (SHA-256)', m.inputSha256, first.inputSha256);
     if (m.settings !== first.settings) throw differs('settings', m.settings, first.settings);
     if (m.version !== first.version) throw differs('whereabouts versions', m.version, first.version);
-    if (!sameSources(m.sources, first.sources)) throw differs('gazetteers (source content hashes)', sourceList(m.sources), sourceList(first.sources));
+    if (!sameSources(m.sources, first.sources)) throw differs('gazetteers (source content hashes and ranks)', sourceList(m.sources), sourceList(first.sources));
     if (m.runTimestamp !== first.runTimestamp) throw differs('run timestamps', m.runTimestamp, first.runTimestamp);
     if (m.parts !== first.parts) throw differs('part counts', m.parts, first.parts);
     const twin = seen.get(m.part);
@@ -108,7 +108,7 @@ function checkParts(readers: PartReader[], options: MergeOptions): PartMeta {
 }
 
 function sourceList(sources: Source[]): string {
-  return sources.map((s) => `${s.id}:${s.contentHash.slice(0, 12)}`).join(' ') || 'none';
+  return sources.map((s) => `${s.id}:${s.contentHash.slice(0, 12)}${s.priority ? ` ranked ${s.priority}` : ''}`).join(' ') || 'none';
 }
 
 function missingRowReason(readers: PartReader[], row: number): string {
