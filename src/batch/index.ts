@@ -5,7 +5,7 @@
  *   jobProgress(jobsDatabasePath(dbPath), jobId).rowsDone;
  */
 export { startBatchJob, type BatchJobOptions, type BatchProgressEvent, type BatchSummary } from './run.ts';
-export { jobProgress, storedLocalityTypes, type JobProgress, type JobState } from '../store/jobs.ts';
+export { failJob, jobProgress, storedLocalityTypes, type JobProgress, type JobState } from '../store/jobs.ts';
 export { jobsDatabasePath } from '../store/side-files.ts';
 export { COORDINATE_FLAGS, type CoordinateFlag } from '../record/coordinate-check.ts';
 export { COORDINATE_FLAGS_COLUMN } from '../output/csv.ts';

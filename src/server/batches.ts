@@ -7,7 +7,7 @@
 import { randomUUID } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, isAbsolute, join } from 'node:path';
-import { jobProgress, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
+import { failJob, jobProgress, storedLocalityTypes, type BatchSummary, type JobProgress } from '../batch/index.ts';
 import { ArchiveTooLarge, NotAnArchive, startBatch, writeGeoreferencedArchive } from '../batch/archive/archive-job.ts';
 import { isZipStart } from '../batch/archive/zip.ts';
 import { groupOf, indexColumns, normaliseText } from '../batch/locality-group.ts';
@@ -174,16 +174,22 @@ export class BatchService {
 
   /**
    * Resumes the jobs this service started that a stop (SIGTERM, a crash) left unfinished: each has
-   * committed its steps (src/batch), so it goes on where it was, with nothing lost or repeated.
+   * committed its steps (src/batch), so it goes on where it was, with nothing lost or repeated. A job
+   * that cannot go on with the answers it started with (the gazetteer's sources or the job's input
+   * changed meanwhile) is stored as failed with the reason, which its progress shows; the service starts.
    */
   async resumeUnfinished(): Promise<string[]> {
     const resumed: string[] = [];
     for (const jobId of this.reviews.jobs()) {
       const state = this.progressOrUndefined(jobId)?.state;
       if (state === undefined || state === 'done' || state === 'failed') continue;
-      const started = await startBatch({ dbPath: this.dbPath, resume: jobId, coreOnly: true });
-      this.follow(jobId, started.done);
-      resumed.push(jobId);
+      try {
+        const started = await startBatch({ dbPath: this.dbPath, resume: jobId, coreOnly: true });
+        this.follow(jobId, started.done);
+        resumed.push(jobId);
+      } catch (error) {
+        failJob(this.jobsPath, jobId, this.withoutPaths(error instanceof Error ? error.message : String(error)));
+      }
     }
     return resumed;
   }

@@ -234,6 +234,19 @@ export function jobProgress(jobs: string | Database.Database, jobId: string): Jo
 }
 
 /**
+ * Stores a job as failed, with why, when it cannot be run on (a resume refused): its progress says so.
+ * @example failJob(jobsDatabasePath('whereabouts.sqlite'), '3f2a9c1e', 'the gazetteer sources have changed since the job started')
+ */
+export function failJob(jobsPath: string, jobId: string, error: string): void {
+  const db = openJobs(jobsPath);
+  try {
+    updateJob(db, jobId, { state: 'failed', error });
+  } finally {
+    db.close();
+  }
+}
+
+/**
  * A finished job's results are dropped; the locality type each distinct locality was read as is kept
  * (for the review list's facets), so nothing is parsed again.
  */
