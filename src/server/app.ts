@@ -112,7 +112,7 @@ export async function buildServer(options: ServerOptions): Promise<FastifyInstan
 
 /**
  * Builds the service on stores the caller has opened (and closes). Refuses a non-loopback host without a token.
- * @example const app = await buildApp({ gazetteer: store, layers: { shapedFeatures: () => [] } }, {});
+ * @example const app = await buildApp({ gazetteer: store, layers: { shapedFeatures: () => [], sources: () => [] } }, {});
  */
 export async function buildApp(stores: ServedStores, options: AppOptions): Promise<FastifyInstance> {
   const host = options.host ?? SERVER_DEFAULTS.host;

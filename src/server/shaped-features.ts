@@ -6,10 +6,12 @@
 import Database from 'better-sqlite3';
 import type { Feature } from '../match/types.ts';
 import type { ServedGazetteer } from './lookup.ts';
+import type { LayerSource } from './routes/layers.ts';
 
 /** Read-only, prepared; geometry_type 0 is Point in the store's GEOMETRY_TYPES order. */
-export function shapedFeatureLister(dbPath: string, store: ServedGazetteer): { shapedFeatures(): Feature[] } {
+export function shapedFeatureLister(dbPath: string, store: ServedGazetteer): LayerSource {
   return {
+    sources: () => store.sources(),
     shapedFeatures() {
       const db = new Database(dbPath, { readonly: true, fileMustExist: true });
       try {

@@ -22,7 +22,7 @@ let app: FastifyInstance;
 beforeAll(async () => {
   db = await demoDatabase();
   store = openGazetteer(db.dbPath, { readonly: true });
-  app = await buildApp({ gazetteer: store, layers: { shapedFeatures: () => [] } }, {});
+  app = await buildApp({ gazetteer: store, layers: { shapedFeatures: () => [], sources: () => [] } }, {});
 });
 afterAll(async () => {
   await app?.close();
