@@ -3,6 +3,7 @@
  * gazetteer, which each worker opens read-only once and keeps open.
  */
 import { openGazetteer, type GazetteerStore, type OpenOptions } from '../store/gazetteer-store.ts';
+import { sameSources } from '../store/jobs.ts';
 import type { LocateRequest } from '../locate/locate.ts';
 import { renderGroup, type Delimiter, type RenderedGroup } from '../output/csv.ts';
 import type { RecordContext } from '../record/darwin-core.ts';
@@ -41,14 +42,22 @@ export function gazetteerOfThread(dbPath: string, options: OpenOptions): Gazette
 }
 
 /**
- * Georeference every group of the task, in order, each rendered for the writer.
+ * Georeference every group of the task, in order, each rendered for the writer, against the store as of
+ * one moment. A job's rows cite the sources it started with (`task.context`): when the store holds
+ * others by now (another process imported, replaced, removed or ranked a source), the chunk throws,
+ * and the job fails saying so, rather than write answers of another gazetteer under those sources.
  * @example georeferenceChunk({ dbPath: 'g.sqlite', groups: [{ id: 1, request: { locality: 'Alba' } }], settings, context, delimiter: ',' })
  */
 export default function georeferenceChunk(task: GeoreferenceTask): { id: number; result: RenderedGroup }[] {
   const store = gazetteerOfThread(task.dbPath, BATCH_STORE_OPTIONS);
-  return task.groups.map(({ id, request }) => {
-    const group = georeferenceGroup(store, request, task.settings, task.context);
-    return { id, result: renderGroup(group, task.delimiter, group.localityType) };
+  return store.asOfOneMoment(() => {
+    if (!sameSources(store.sources(), task.context.sources)) {
+      throw new Error('the gazetteer changed while the job ran (a source imported, replaced, removed or ranked anew), so its rows would mix the answers of two gazetteers; start a new batch');
+    }
+    return task.groups.map(({ id, request }) => {
+      const group = georeferenceGroup(store, request, task.settings, task.context);
+      return { id, result: renderGroup(group, task.delimiter, group.localityType) };
+    });
   });
 }
 

@@ -141,6 +141,13 @@ export interface GazetteerStore extends CandidateFinder {
   unitNames(level: 1 | 2, key?: string): UnitName[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
+  /**
+   * `read()`'s value, every statement in it reading the store as it stood at its first (one read
+   * transaction): the sources an answer names and the rows it was found in are of one store, though
+   * another process imports meanwhile.
+   * @example store.asOfOneMoment(() => [store.sources(), store.findCandidates(query)])
+   */
+  asOfOneMoment<T>(read: () => T): T;
   /** Removes a source and all its features; returns false when there is no such source. */
   removeSource(id: string): boolean;
   /** Starts an import of a source (replacing it if it exists, keeping its priority) in one transaction. */
@@ -249,6 +256,11 @@ class SqliteGazetteer implements GazetteerStore {
 
   sources(): Source[] {
     return (this.statements.allSources.all() as SourceRow[]).map(toSource);
+  }
+
+  asOfOneMoment<T>(read: () => T): T {
+    // A deferred transaction: in WAL mode it takes no lock that would keep another process from importing.
+    return this.db.transaction(read)();
   }
 
   setPriority(sourceId: string, priority: number | null): boolean {

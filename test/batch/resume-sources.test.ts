@@ -7,7 +7,7 @@
  */
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { jobsDatabasePath, startBatchJob } from '../../src/batch/index.ts';
+import { jobProgress, jobsDatabasePath, startBatchJob } from '../../src/batch/index.ts';
 import { openGazetteer } from '../../src/store/gazetteer-store.ts';
 import { openJobs, updateJob } from '../../src/store/jobs.ts';
 import { FIXTURES, fixtureGazetteer } from './helpers.ts';
@@ -31,5 +31,31 @@ describe('resuming a job after the gazetteer changed', () => {
     const rerun = await startBatchJob(options);
     expect(rerun.jobId).not.toBe(jobId);
     expect((await rerun.done).resumed).toBe(false);
+  });
+});
+
+describe('the gazetteer changed while a job runs', () => {
+  it('fails the job, saying so, rather than write rows of two gazetteers under the sources it started with', async () => {
+    const { dir, dbPath } = await fixtureGazetteer();
+    // 200 distinct localities: four chunks, answered one after another in this process.
+    const rows = Array.from({ length: 200 }, (_, i) => `occ-${i + 1},${(i + 1) / 10} km N of Caleta Brava,QV`);
+    const input = Buffer.from(['occurrenceID,locality,countryCode', ...rows].join('\n'));
+    let ranked = false;
+    const { jobId, done } = await startBatchJob({
+      dbPath, input, output: join(dir, 'running.csv'),
+      // After the first chunk is stored, another connection ranks the source anew.
+      onProgress: (event) => {
+        if (event.phase !== 'georeferencing' || ranked) return;
+        const store = openGazetteer(dbPath);
+        store.setPriority(store.sources()[0].id, 1);
+        store.close();
+        ranked = true;
+      },
+    });
+    await expect(done).rejects.toThrow(/gazetteer changed while the job ran/);
+    expect(ranked).toBe(true);
+    const jobs = openJobs(jobsDatabasePath(dbPath));
+    expect(jobProgress(jobs, jobId)).toMatchObject({ state: 'failed', error: expect.stringMatching(/gazetteer changed while the job ran/) });
+    jobs.close();
   });
 });
