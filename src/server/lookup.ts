@@ -18,22 +18,28 @@ export type { FeatureKey };
 /** What the server needs of a gazetteer store (src/store/gazetteer-store.ts implements it). */
 export interface ServedGazetteer extends CandidateFinder {
   sources(): Source[];
+  /** `read()` against the store as it stood at its first statement, whatever another process commits meanwhile. */
+  asOfOneMoment<T>(read: () => T): T;
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
 }
 
 /**
- * Georeference one request with the page's edits applied. With a cache, a repeated request (same
- * record, options and gazetteer sources) reuses its result; the Darwin Core fields are always new.
+ * Georeference one request with the page's edits applied, against the store as of one moment. With a
+ * cache, a repeated request (same record, options and gazetteer sources) reuses its result; the Darwin
+ * Core fields are always new.
  * An edit that does not fit the record is a 400 naming `options.candidate`.
  * @example lookUp(store, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' }).result.status // 'georeferenced'
  */
 export function lookUp(store: ServedGazetteer, request: LookupRequest, cache?: ResultCache<LocateResult>, now = new Date()): RecordAnswer {
-  const record = recordRequestOf(store, request, now);
-  try {
-    return georeferenceRecord(store, record, cache && ((key, compute) => cache.get(key, compute)));
-  } catch (error) {
-    throw asRequestError(error, request);
-  }
+  // The sources read for the cache's key and the answer's terms, and the rows the answer is found in, are of one store.
+  return store.asOfOneMoment(() => {
+    const record = recordRequestOf(store, request, now);
+    try {
+      return georeferenceRecord(store, record, cache && ((key, compute) => cache.get(key, compute)));
+    } catch (error) {
+      throw asRequestError(error, request);
+    }
+  });
 }
 
 /**

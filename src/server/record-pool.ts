@@ -30,17 +30,17 @@ export class RecordPool {
 
   /**
    * The record's answer, as `georeferenceRecord(store, request, cache)` gives it: a result the cache
-   * holds is reused here (only its Darwin Core terms are written anew); any other is computed in a worker
-   * and kept in the cache. An edit that does not fit the record throws `EditRefused`, as in the main thread.
+   * holds is reused here (only its Darwin Core terms are written anew); any other is computed in a worker,
+   * on the sources loaded then, and kept in the cache under them. An edit that does not fit the record throws `EditRefused`, as in the main thread.
    * @example await pool.answer(store, { locality: 'Alba', attribution }, cache)
    */
   async answer(store: ServedGazetteer, request: RecordRequest, cache?: ResultCache<LocateResult>): Promise<RecordAnswer> {
-    const key = recordMemoKey(request);
-    if (cache?.has(key)) return georeferenceRecord(store, request, (k, compute) => cache.get(k, compute));
+    if (cache?.has(recordMemoKey(request))) return georeferenceRecord(store, request, (k, compute) => cache.get(k, compute));
     const task: RecordTask = { dbPath: this.dbPath, request };
     const reply = (await this.pool.run(task)) as RecordTaskAnswer;
     if ('refused' in reply) throw new EditRefused(reply.refused);
-    cache?.get(key, () => reply.answer.result);
+    // Kept under the sources the worker found it in, which another process may have changed since `request` was made.
+    cache?.get(reply.memoKey, () => reply.answer.result);
     return reply.answer;
   }
 
