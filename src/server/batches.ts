@@ -32,7 +32,7 @@ import { RequestError } from './errors.ts';
 import type { RecordAnswer } from '../locate/georeference-record.ts';
 import { lookUp, type ServedGazetteer } from './lookup.ts';
 import type { ResultCache } from './result-cache.ts';
-import type { Resolution, Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
+import type { Resolution, ResolvedTerms, Review, ReviewDecision, ReviewStore } from '../store/reviews.ts';
 import { batchFolderPath, jobsDatabasePath } from '../store/side-files.ts';
 import { SERVER_DEFAULTS } from './defaults.ts';
 
@@ -273,7 +273,9 @@ export class BatchService {
       }
     }
     const review: Review = { decision, ...resolution, reviewer: reviewer.trim() || 'anonymous reviewer', decidedAt: new Date().toISOString() };
-    this.reviews.record(jobId, row, review);
+    // The reviewed file writes these terms, as the reviewer decided on them, not a later gazetteer's.
+    const kept = resolved && this.lookUpRow(output, fields, resolution, review);
+    this.reviews.record(jobId, row, review, kept ? { darwinCore: kept.answer.darwinCore, ...(kept.note ? { note: kept.note } : {}) } : undefined);
     return review;
   }
 
@@ -285,6 +287,7 @@ export class BatchService {
   reviewedCsv(jobId: string, as?: Delimiter): { text: string; delimiter: Delimiter } {
     const output = this.output(jobId);
     const reviews = this.reviews.latest(jobId);
+    const resolvedTerms = this.reviews.resolved(jobId);
     const column = termColumns(output.header.fields);
     const rows = output.records.map(({ fields }, index) => {
       const review = reviews.get(index + 1);
@@ -293,11 +296,12 @@ export class BatchService {
       const set = (term: GeoreferenceTerm, value: string) => (copy[column[term]] = value);
       const get = (term: GeoreferenceTerm) => copy[column[term]] ?? '';
       if (hasResolution(review)) {
-        const { answer, note } = this.lookUpRow(output, fields, review, review);
+        // As kept when the reviewer decided; a review file written before terms were kept is georeferenced again.
+        const { darwinCore, note } = resolvedTerms.get(index + 1) ?? this.resolvedNow(output, fields, review);
         // A generalised row stays generalised, however the reviewer resolved it: the precise answer is not written.
         const generalisation = output.generalisationOf(fields.slice(0, output.originalLength));
-        const generalised = generalisation ? generaliseRecord(answer.darwinCore, generalisation) : undefined;
-        const recomputed = generalised?.fields ?? answer.darwinCore;
+        const generalised = generalisation ? generaliseRecord(darwinCore as Record<GeoreferenceTerm, string>, generalisation) : undefined;
+        const recomputed = generalised?.fields ?? (darwinCore as Record<GeoreferenceTerm, string>);
         for (const term of GEOREFERENCE_TERMS) set(term, recomputed[term]);
         if (generalised) GENERALISATION_TERMS.forEach((term, i) => (copy[output.originalLength + GEOREFERENCE_TERMS.length + i] = generalised.terms[term]));
         if (note && !generalised) set('georeferenceRemarks', [get('georeferenceRemarks'), note].filter(Boolean).join('; '));
@@ -424,6 +428,12 @@ export class BatchService {
     const parsed = { header: headerRecord, originalLength, generalisationOf, records, delimiter, summaries };
     this.parsed.set(jobId, parsed);
     return parsed;
+  }
+
+  /** A resolved row's terms as the gazetteer gives them now, with the reviewer as georeferencedBy. */
+  private resolvedNow(output: ParsedOutput, fields: string[], review: Review): ResolvedTerms {
+    const { answer, note } = this.lookUpRow(output, fields, review, review);
+    return { darwinCore: answer.darwinCore, ...(note ? { note } : {}) };
   }
 
   private rowOf(output: ParsedOutput, row: number): string[] {

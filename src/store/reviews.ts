@@ -28,14 +28,26 @@ export interface Review extends Resolution {
   decidedAt: string;
 }
 
+/**
+ * What a resolution gave the record when the reviewer decided: its Darwin Core terms and what the
+ * resolution did, in words. Kept so that the reviewed file writes what was verified, whatever the
+ * gazetteer holds by the time it is downloaded.
+ */
+export interface ResolvedTerms {
+  darwinCore: Record<string, string>;
+  note?: string;
+}
+
 export interface ReviewStore {
   /** Remembers a batch job this service started, so that it can be resumed after a stop. */
   addJob(jobId: string): void;
   /** The jobs this service started, oldest first. */
   jobs(): string[];
-  record(jobId: string, row: number, review: Review): void;
+  record(jobId: string, row: number, review: Review, resolved?: ResolvedTerms): void;
   /** The latest decision for each reviewed row of a job. */
   latest(jobId: string): Map<number, Review>;
+  /** The terms the latest decision's resolution gave, for each row whose latest decision kept them. */
+  resolved(jobId: string): Map<number, ResolvedTerms>;
   close(): void;
 }
 
@@ -52,17 +64,27 @@ export function openReviews(path: string): ReviewStore {
   const columns = new Set((db.pragma('table_info(review_decision)') as { name: string }[]).map((c) => c.name));
   if (!columns.has('corrected_locality')) db.exec('ALTER TABLE review_decision ADD COLUMN corrected_locality TEXT');
   if (!columns.has('record_coordinates')) db.exec('ALTER TABLE review_decision ADD COLUMN record_coordinates INTEGER NOT NULL DEFAULT 0');
+  if (!columns.has('resolved_terms')) db.exec('ALTER TABLE review_decision ADD COLUMN resolved_terms TEXT');
   const insertJob = db.prepare('INSERT OR IGNORE INTO served_job (job_id, started_at) VALUES (?, ?)');
   const selectJobs = db.prepare('SELECT job_id FROM served_job ORDER BY started_at, job_id');
   const insert = db.prepare(
-    'INSERT INTO review_decision (job_id, row, decision, candidate_source, candidate_feature, corrected_locality, record_coordinates, reviewer, decided_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)',
+    'INSERT INTO review_decision (job_id, row, decision, candidate_source, candidate_feature, corrected_locality, record_coordinates, reviewer, decided_at, resolved_terms) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
   );
+  const selectResolved = db.prepare('SELECT row, resolved_terms FROM review_decision WHERE job_id = ? ORDER BY id');
   const select = db.prepare('SELECT row, decision, candidate_source, candidate_feature, corrected_locality, record_coordinates, reviewer, decided_at FROM review_decision WHERE job_id = ? ORDER BY id');
   return {
     addJob: (jobId) => void insertJob.run(jobId, new Date().toISOString()),
     jobs: () => (selectJobs.all() as { job_id: string }[]).map((r) => r.job_id),
-    record(jobId, row, r) {
-      insert.run(jobId, row, r.decision, r.candidate?.sourceId ?? null, r.candidate?.featureId ?? null, r.locality ?? null, r.recordCoordinates ? 1 : 0, r.reviewer, r.decidedAt);
+    record(jobId, row, r, resolved) {
+      insert.run(jobId, row, r.decision, r.candidate?.sourceId ?? null, r.candidate?.featureId ?? null, r.locality ?? null, r.recordCoordinates ? 1 : 0, r.reviewer, r.decidedAt, resolved ? JSON.stringify(resolved) : null);
+    },
+    resolved(jobId) {
+      const terms = new Map<number, ResolvedTerms>();
+      for (const r of selectResolved.all(jobId) as { row: number; resolved_terms: string | null }[]) {
+        if (r.resolved_terms === null) terms.delete(r.row);
+        else terms.set(r.row, JSON.parse(r.resolved_terms) as ResolvedTerms);
+      }
+      return terms;
     },
     latest(jobId) {
       const reviews = new Map<number, Review>();

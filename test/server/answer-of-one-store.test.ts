@@ -14,17 +14,15 @@ import { georeferenceRecord, recordMemoKey } from '../../src/locate/georeference
 import type { LocateResult } from '../../src/locate/locate.ts';
 import { lookUp } from '../../src/server/lookup.ts';
 import { ResultCache } from '../../src/server/result-cache.ts';
-import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
-import { DEMO_GAZETTEER, demoDatabase, type TempDatabase } from './helpers.ts';
+import { demoDatabase, withDemoCopy, type TempDatabase } from './helpers.ts';
 
 let db: TempDatabase;
 let served: GazetteerStore;
 let other: GazetteerStore;
 beforeAll(async () => {
   db = await demoDatabase();
-  other = openGazetteer(db.dbPath);
-  await importGazetteer(other, DEMO_GAZETTEER, { format: 'geojson', citation: 'whereabouts demo gazetteer, second copy (invented island)', sourceId: 'copy' });
+  other = await withDemoCopy(db);
   served = openGazetteer(db.dbPath, { readonly: true });
 });
 afterAll(() => {

@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import type { FastifyInstance } from 'fastify';
 import { afterAll, beforeAll } from 'vitest';
 import { importGazetteer } from '../../src/store/import.ts';
-import { openGazetteer } from '../../src/store/gazetteer-store.ts';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { buildServer, type ServerOptions } from '../../src/server/app.ts';
 
 export const DEMO_GAZETTEER = new URL('../../gazetteer/demo.geojson', import.meta.url).pathname;
@@ -38,6 +38,17 @@ export async function demoDatabase(extraFeatures: object[] = []): Promise<TempDa
     store.close();
   }
   return { dir, dbPath, remove: () => rmSync(dir, { recursive: true, force: true }) };
+}
+
+/**
+ * The demo gazetteer imported again as a second source, "copy": every place in two sources, cited from
+ * the one ranked first (docs/method.md §4a). Returns the writable connection that imported it, for the
+ * test's changes made as another process would make them.
+ */
+export async function withDemoCopy(db: TempDatabase): Promise<GazetteerStore> {
+  const other = openGazetteer(db.dbPath);
+  await importGazetteer(other, DEMO_GAZETTEER, { format: 'geojson', citation: 'whereabouts demo gazetteer, second copy (invented island)', sourceId: 'copy' });
+  return other;
 }
 
 export interface RunningServer {
