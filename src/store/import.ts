@@ -222,10 +222,15 @@ export function formatFromFileName(filePath: string): ImportFormat | null {
   return null;
 }
 
+/** Central directory file header signature, "PK\x01\x02" (ZIP APPNOTE 4.3.12). */
+const CENTRAL_HEADER = Buffer.from([0x50, 0x4b, 0x01, 0x02]);
+
 /**
  * Whether a zip holds a shapefile: its central directory, at the end of the file (ZIP APPNOTE 4.3.12),
- * names a `.shp` member. The tail read covers the directory of any zip of a few hundred members; a zip
- * that names none is taken as the world-gazetteer dump as distributed.
+ * names a `.shp` member. Each header's name is read by its stated length, since the extra field that
+ * follows it (Info-ZIP's "UT" timestamp) may begin with a letter. The tail read covers the directory of
+ * any zip of a few hundred members; a zip that names none is taken as the world-gazetteer dump as
+ * distributed.
  */
 function zipNamesShapefile(filePath: string): boolean {
   const tailBytes = 64 * 1024;
@@ -234,7 +239,11 @@ function zipNamesShapefile(filePath: string): boolean {
     const size = fstatSync(fd).size;
     const tail = Buffer.alloc(Math.min(size, tailBytes));
     readSync(fd, tail, 0, tail.length, size - tail.length);
-    return /\.shp(?![a-z0-9])/i.test(tail.toString('latin1'));
+    for (let at = tail.indexOf(CENTRAL_HEADER); at >= 0 && at + 46 <= tail.length; at = tail.indexOf(CENTRAL_HEADER, at + 46)) {
+      const name = tail.toString('latin1', at + 46, Math.min(tail.length, at + 46 + tail.readUInt16LE(at + 28)));
+      if (/\.shp$/i.test(name)) return true;
+    }
+    return false;
   } finally {
     closeSync(fd);
   }

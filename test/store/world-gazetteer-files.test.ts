@@ -16,7 +16,7 @@ import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
 import { ALTERNATE_NAME_COLUMNS, DUMP_COLUMNS } from '../../src/store/dump-layout.ts';
-import { importGazetteer, type ImportSummary } from '../../src/store/import.ts';
+import { formatFromFileName, importGazetteer, type ImportSummary } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
 
 const root = new URL('../..', import.meta.url).pathname;
@@ -144,6 +144,15 @@ describe('zipped as distributed, through the real CLI', () => {
     expect(located.status).toBe('georeferenced');
     expect(located.georeference.remarks.join('\n')).toContain('feature used: "Puerto Nuevo", found by its former name \'Puerto Viejo\' (es, until 1921) (qx:900010)');
   }, 60_000);
+
+  it('tells a zipped shapefile from a zipped dump by its member names, with the extra fields Info-ZIP writes after each name', () => {
+    // Info-ZIP stores an extended-timestamp extra field ("UT", header id 0x5455; PKWARE APPNOTE.TXT §4.6,
+    // third-party mappings, from memory) right after each name in the central directory.
+    const shapefile = zipOf('counties.zip', { 'counties.shp': 'shape', 'counties.shx': 'index', 'counties.dbf': 'table', 'counties.prj': 'GEOGCS["WGS 84"]' });
+    expect(readFileSync(shapefile).includes('counties.shpUT')).toBe(true);
+    expect(formatFromFileName(shapefile)).toBe('shapefile');
+    expect(formatFromFileName(zipOf('QY.zip', { 'QY.txt': readFileSync(file('QX.txt'), 'utf8'), 'readme.txt': 'invented extract\n' }))).toBe('geonames');
+  });
 
   it('refuses an archive whose data member it cannot tell, naming the members', async () => {
     const two = zipOf('two.zip', { 'QX.txt': readFileSync(file('QX.txt'), 'utf8'), 'QY.txt': readFileSync(file('QX.txt'), 'utf8') });

@@ -45,7 +45,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--out <file>', 'the output file, or - for standard output', '-')
     .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done)`, resultFormat, 'csv' as ResultFormat)
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
-    .option('--quiet', 'no progress bar')
+    .option('--quiet', 'write nothing to standard error but errors: no progress bar, job id, method choices or summary')
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
     .option('--cover-ambiguous', 'for an ambiguous name, one circle covering every candidate')
     .option('--administrative-fallback', "for text naming no place, georeference to the record's smallest administrative unit")

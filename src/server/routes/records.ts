@@ -61,6 +61,15 @@ class UnreadableLine {
 }
 
 /**
+ * What a line's JSON error adds to "this line is not valid JSON": nothing for the parser's generic syntax
+ * error, the message otherwise.
+ * @example lineError(new Error('Unexpected end')) // ': Unexpected end'
+ */
+function lineError(error: Error): string {
+  return (error as { code?: string }).code === 'FST_ERR_CTP_INVALID_JSON_BODY' ? '' : `: ${error.message}`;
+}
+
+/**
  * POST /api/v1/georeference/records: many records in, one answer line each out, in order, through the
  * same front door and output as the one-record route.
  * @example await app.register(recordsRoutes, { gazetteer: store, results: new ResultCache(100) })
@@ -80,7 +89,8 @@ export const recordsRoutes: FastifyPluginAsyncTypebox<RecordsRoutesOptions> = as
     const lines = text.split('\n').filter((line) => line.trim() !== '');
     done(null, lines.map((line) => {
       let value: unknown;
-      parseJson(_request, line, (error, parsed) => (value = error ? new UnreadableLine(`this line is not valid JSON: ${error.message}`) : parsed));
+      // The parser's own message for a syntax error speaks of an application/json body, not of this line.
+      parseJson(_request, line, (error, parsed) => (value = error ? new UnreadableLine(`this line is not valid JSON${lineError(error)}`) : parsed));
       return value;
     }));
   });
