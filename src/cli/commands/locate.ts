@@ -49,7 +49,8 @@ export function registerLocate(program: Command, dbPath: () => string): void {
       ]);
       const store = openGazetteer(dbPath(), { readonly: true });
       try {
-        const answer = georeferenceRecord(store, {
+        // The sources cited and the rows the answer is found in are of one store, whatever an import commits meanwhile.
+        const answer = store.asOfOneMoment(() => georeferenceRecord(store, {
           locality: text,
           countryCode: opts.countryCode,
           country: opts.country,
@@ -60,7 +61,7 @@ export function registerLocate(program: Command, dbPath: () => string): void {
           geodeticDatum: opts.geodeticDatum,
           options: { mapScale: opts.mapScale, coverAmbiguous: opts.coverAmbiguous, administrativeFallback: opts.administrativeFallback, routeKilometrePost: opts.routeKilometrePost },
           attribution: { georeferencedBy: `whereabouts ${VERSION}`, georeferencedDate: new Date().toISOString(), sources: store.sources() },
-        });
+        }));
         process.stdout.write(format ? format.write(answer, text) : opts.json ? answerJson(answer) : describe(answer.result, answer.darwinCore));
       } finally {
         store.close();
