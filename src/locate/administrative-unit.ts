@@ -162,18 +162,25 @@ function headStateHolding(finder: CandidateFinder, head: Interpretation, next: I
   return held || !townNamed(finder, written, code) ? { name: written, level: 'stateProvince', written } : null;
 }
 
+/**
+ * The towns the gazetteer records under that name as written (or by a documented reading of it, never a near
+ * spelling) within the context.
+ */
+function townsNamed(finder: CandidateFinder, name: string, context: AdministrativeContext): Candidate[] {
+  return finder
+    .findCandidates({ name, context, nearSpellings: 'off' })
+    .filter((c) => c.score >= 1 && SETTLEMENTS.has(c.feature.featureType ?? ''));
+}
+
 /** Whether the gazetteer records a town of that name, as written, in the country. */
 function townNamed(finder: CandidateFinder, name: string, countryCode: string): boolean {
-  return finder
-    .findCandidates({ name, context: { countryCode }, nearSpellings: 'off' })
-    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === countryCode && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  return townsNamed(finder, name, { countryCode }).some((c) => c.feature.countryCode?.toUpperCase() === countryCode);
 }
 
 /** Whether the gazetteer records a town of that name, as written, in a state of that name of the country. */
 function placeInState(finder: CandidateFinder, name: string, state: string, countryCode: string): boolean {
-  return finder
-    .findCandidates({ name, context: { countryCode, stateProvince: state }, nearSpellings: 'off' })
-    .some((c) => c.score >= 1 && c.feature.countryCode?.toUpperCase() === countryCode && c.feature.stateProvince !== null && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  return townsNamed(finder, name, { countryCode, stateProvince: state })
+    .some((c) => c.feature.countryCode?.toUpperCase() === countryCode && c.feature.stateProvince !== null);
 }
 
 /**
@@ -305,8 +312,7 @@ export function readStatedState(finder: CandidateFinder, context: Administrative
  */
 function withinSeatState(finder: CandidateFinder, context: AdministrativeContext, stated: string): { context: AdministrativeContext; note?: string } {
   if (!context.countryCode) return { context };
-  const towns = finder.findCandidates({ name: stated, context: { countryCode: context.countryCode }, nearSpellings: 'off' })
-    .filter((c) => c.score >= 1 && SETTLEMENTS.has(c.feature.featureType ?? ''));
+  const towns = townsNamed(finder, stated, { countryCode: context.countryCode });
   const states = new Set(towns.map((c) => c.feature.stateProvince));
   const state = states.size === 1 ? [...states][0] : null;
   if (!state) return { context };
