@@ -227,7 +227,11 @@ export interface NameIndex {
   token(token: string): IndexedToken | undefined;
   /** Every stored token sharing one of these deletion keys, each once, as [id, token, df]. */
   tokensByDeletionKeys(keys: readonly number[]): [number, string, number][];
-  /** Up to `limit` postings of these tokens; with `countries`, only features in them or without a country. */
+  /**
+   * Up to `limit` postings of these tokens, by token (in id order) and feature; with `countries`, only
+   * features in them or without a country. Meant for tokens whose postings together fit `limit` (their
+   * df): without `countries` a store may read each token's postings whole before cutting.
+   */
   postings(tokenIds: readonly number[], countries: readonly string[] | null, limit: number): Posting[];
   /**
    * The postings of `driver` and of `partners` of the features holding `driver` and one of `partners`,

@@ -474,10 +474,10 @@ function sqliteNameIndex(s: Statements): NameIndex {
     // One statement: each distinct token once (a token shares many keys with a query), as one text a
     // row (see tokenRow).
     tokensByDeletionKeys: (keys) => (s.tokensByDeletion.all(JSON.stringify(keys)) as string[]).map(tokenRow),
-    // One text a row, 'feature token' (see tokenRow): 35-50 % faster than arrays at 13 M names.
+    // Unfiltered, one text a token (see postingGroups); filtered, one text a row, 'feature token' (see postingRow).
     postings: (tokenIds, countries, limit) => (countries === null
-      ? s.postings.all(idList(tokenIds), limit) as string[]
-      : s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow),
+      ? postingGroups(s.postingsByToken.all(idList(tokenIds)) as (string | null)[], limit)
+      : (s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow)),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
       // Each partner on its cheaper side (one index seek a row read): one rarer than the driver has its
       // postings read, each probed for the driver; for the others the driver's postings are read, each
@@ -575,7 +575,13 @@ function prepareStatements(db: Database.Database) {
       WHERE t.id IN (SELECT d.token FROM json_each(?) k CROSS JOIN deletions d ON d.hash = k.value)`).pluck(),
     // Joined for the same reason as tokensByDeletion; the ids come sorted and once each, so the rows
     // come in the order 'token IN (…)' gives them (by token, then feature) and LIMIT keeps the same ones.
-    postings: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) k CROSS JOIN postings p ON p.token = k.value LIMIT ?`).pluck(),
+    // A token's postings as one text, 'token feature feature …', in key order (by feature), the tokens in
+    // the order given (sorted ids): rows come as 'token IN (…)' would give them. A text a token, not a
+    // row a posting, because better-sqlite3 spends more on building a row than SQLite on reading it
+    // (826,000 postings in 1,561 lookups at 13 M names: 0.52 s against 1.31 s, load 9). Each token
+    // is read whole: the matcher asks only for tokens whose postings fit the limit (their df).
+    postingsByToken: db.prepare(`SELECT k.value || ' ' || (SELECT group_concat(p.feature, ' ') FROM postings p WHERE p.token = k.value)
+      FROM json_each(?) k`).pluck(),
     // The first pairs, the rarer partners' first (see PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
     postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) LIMIT @limit`).pluck(),
     postingsWithPartnerInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
@@ -628,6 +634,30 @@ function tokenRow(row: string): [number, string, number] {
   const first = row.indexOf(' ');
   const second = row.indexOf(' ', first + 1);
   return [Number(row.slice(0, first)), row.slice(second + 1), Number(row.slice(first + 1, second))];
+}
+
+/**
+ * Postings read as one text a token, 'token feature feature …' (null for a token without postings), as
+ * postings in the order read, at most `limit`; digits are read in place, without a substring a number.
+ * @example postingGroups(['42 7 1200', null, '43 7'], 2) // [{ feature: 7, token: 42 }, { feature: 1200, token: 42 }]
+ */
+function postingGroups(rows: readonly (string | null)[], limit: number): Posting[] {
+  const postings: Posting[] = [];
+  for (const row of rows) {
+    if (row === null) continue;
+    let at = row.indexOf(' ');
+    const token = Number(row.slice(0, at));
+    while (at < row.length && postings.length < limit) {
+      let feature = 0;
+      for (at++; at < row.length; at++) {
+        const digit = row.charCodeAt(at) - 48;
+        if (digit < 0) break;
+        feature = feature * 10 + digit;
+      }
+      postings.push({ feature, token });
+    }
+  }
+  return postings;
 }
 
 /**
