@@ -12,8 +12,6 @@ export const MAX_FUZZY_SCORE = 0.95;
 /** fuse.js score (0 perfect, 1 nothing alike) above which a name is not a plausible reading; common practice, no source. */
 export const FUSE_THRESHOLD = 0.5;
 
-const sameReading = (a: Candidate, b: Candidate) => a.score === b.score && foldName(a.matchedName) === foldName(b.matchedName);
-
 interface NameEntry {
   key: string;
   written: string;
@@ -52,6 +50,7 @@ export function scoreFuzzy(foldedQuery: string, features: readonly Feature[]): C
     const previous = best.get(result.item.feature);
     if (previous === undefined || score > previous.score) best.set(result.item.feature, { entry: result.item, score, edits });
   }
+  const readings = new Map<string, number>();
   return [...best.entries()]
     .map(([index, { entry, score, edits }]) => ({
       candidate: {
@@ -61,12 +60,18 @@ export function scoreFuzzy(foldedQuery: string, features: readonly Feature[]): C
         why: `${edits} edit${edits === 1 ? '' : 's'} from ${entry.alternate ? 'alternate name' : 'name'} '${entry.written}'`,
       },
       edits,
+      key: entry.key,
     }))
     .sort((a, b) => b.candidate.score - a.candidate.score || a.edits - b.edits)
-    .map(({ candidate }, rank) => ({ candidate, rank, repeat: 0 }))
-    .map((entry, _, all) => ({ ...entry, repeat: all.slice(0, entry.rank).filter((e) => sameReading(e.candidate, entry.candidate)).length }))
     // Among equal scores, distinct names before more features of a name already listed: a short list
-    // then shows every reading the index found, not five places of one name.
+    // then shows every reading the index found, not five places of one name. The same reading is the
+    // same score and folded name: counted in one pass, by that pair.
+    .map(({ candidate, key }, rank) => {
+      const reading = `${candidate.score} ${key}`;
+      const repeat = readings.get(reading) ?? 0;
+      readings.set(reading, repeat + 1);
+      return { candidate, rank, repeat };
+    })
     .sort((a, b) => b.candidate.score - a.candidate.score || a.repeat - b.repeat || a.rank - b.rank)
     .map(({ candidate }) => candidate);
 }
