@@ -217,12 +217,12 @@ export function startBatch({ form, progress, progressLine, progressText, review,
         el('button', { type: 'button', id: 'next-candidate', onclick: nextCandidate, disabled: a.candidates.length < 2, 'aria-keyshortcuts': 'c' }, 'Next candidate (c)'),
         el('button', { type: 'button', onclick: () => select(current + 1), 'aria-keyshortcuts': 'j' }, 'Next record (j)')),
       el('p', { id: 'review-message', class: 'error', role: 'alert' }),
-      summarySection(a),
+      summarySection(a, { verificationStatus: records[current].status, idPrefix: 'r-' }),
       resolveSection(),
       definitionTable('The record as it came', Object.entries(detail.original)),
       candidatesSection(a, (c) => chooseCandidate(c.feature), 'rcand'),
-      interpretationSection(a.interpretation),
-      a.components ? budgetSection(a) : undefined,
+      interpretationSection(a.interpretation, 'r-'),
+      a.components ? budgetSection(a, 'r-') : undefined,
     );
   }
 

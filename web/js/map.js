@@ -105,8 +105,9 @@ function legendControl() {
 export async function createMap(container) {
   const map = L.map(container, { worldCopyJump: true, zoomSnap: 0.25, minZoom: 1, maxZoom: 18 });
   map.attributionControl.setPrefix('Leaflet');
-  map.attributionControl.addAttribution('country outlines: Natural Earth (world-atlas)');
-  L.control.scale({ metric: true, imperial: false, maxWidth: 160 }).addTo(map);
+  // Short, so that it and the scale bar share the bottom edge of a narrow map (the footer gives the whole credit).
+  map.attributionControl.addAttribution('Natural Earth');
+  L.control.scale({ metric: true, imperial: false, maxWidth: 100 }).addTo(map);
   cursorControl().addTo(map);
   legendControl().addTo(map);
   map.setView([0, 0], 2);

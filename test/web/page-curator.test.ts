@@ -1,0 +1,189 @@
+/**
+ * The page as a curator meets it, in a real browser (Debian's chromium through playwright-core) against a
+ * real server on 127.0.0.1 over the demo gazetteer: every answer says its georeferenceVerificationStatus
+ * (Darwin Core's recommended values, TDWG dwc terms list) beside the point and radius, a wrong entry is
+ * kept as typed and answered beside its field, and the review fits a 1280×800 screen and a 390 px phone.
+ * What "fits" means here is ours (common practice, no source): no table column hidden behind a scroll bar,
+ * no page wider than the window, no map control drawn over another.
+ */
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_LOCALITIES, demoDatabase, listen, type RunningServer, type TempDatabase } from '../server/helpers.ts';
+import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
+
+let db: TempDatabase;
+let server: RunningServer;
+let browser: TestBrowser;
+let page: Page;
+
+beforeAll(async () => {
+  db = await demoDatabase();
+  server = await listen({ dbPath: db.dbPath, rateLimit: false });
+  browser = await openPage(server.url, { width: 1280, height: 800 });
+  page = browser.page;
+}, 60_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  db?.remove();
+});
+
+async function lookUp(locality: string, countryCode = 'QV') {
+  await page.click('#tab-lookup');
+  await page.fill('#f-locality', locality);
+  await page.fill('#f-countryCode', countryCode);
+  await page.click('#lookup-submit');
+  await page.waitForSelector('#h-summary, #lookup-result .error');
+}
+
+/** Whether two boxes overlap. */
+const overlap = (a: DOMRect, b: DOMRect) => a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+
+/** The map's bottom controls (scale bar, pointer coordinates, attribution) as boxes, and whether any two overlap. */
+async function mapControlsOverlap(map: string): Promise<boolean> {
+  const boxes = await page.$$eval(`${map} .leaflet-control-scale, ${map} .wa-cursor, ${map} .leaflet-control-attribution`, (nodes) => nodes.map((n) => n.getBoundingClientRect().toJSON() as DOMRect));
+  expect(boxes).toHaveLength(3);
+  return boxes.some((a, i) => boxes.some((b, j) => j > i && overlap(a, b)));
+}
+
+/** Ids that more than one element of the page carries. */
+const duplicateIds = () => page.$$eval('[id]', (nodes) => {
+  const seen = new Map<string, number>();
+  for (const n of nodes) seen.set(n.id, (seen.get(n.id) ?? 0) + 1);
+  return [...seen].filter(([, count]) => count > 1).map(([id]) => id);
+});
+
+describe('every answer says how far to trust it', () => {
+  it('a point: the radius in words and "requires verification" in the headline card', async () => {
+    await lookUp('10 km NE of Puerto Lindo');
+    const summary = page.locator('#lookup-result .summary');
+    expect(await page.textContent('#result-verification')).toBe('requires verification');
+    const radius = await page.textContent('#result-radius');
+    expect(await summary.textContent()).toContain(`the place lies within ${radius} m of the point: check the point, the circle and the feature used`);
+    expect(await mapControlsOverlap('#lookup-map')).toBe(false);
+  });
+
+  it('no point: "requires georeference", and the candidates are a choice to make, not "the feature used"', async () => {
+    await lookUp('Santa Rosa');
+    expect(await page.textContent('#h-summary')).toContain('ambiguous');
+    expect(await page.textContent('#result-verification')).toBe('requires georeference');
+    expect(await page.textContent('#lookup-result .candidates legend')).toBe('None is used yet: choose the feature the text means, if one is');
+    await page.click('label[for="cand-0"]');
+    await page.waitForSelector('#result-latitude');
+    expect(await page.textContent('#lookup-result .candidates legend')).toBe('Feature used for the georeference');
+  });
+
+  it('text that cannot be read: "unable to georeference"', async () => {
+    await lookUp('along the creek behind the old sawmill');
+    expect(await page.textContent('#result-verification')).toBe('unable to georeference');
+  });
+});
+
+describe('a wrong entry is kept as typed and answered beside its field', () => {
+  it("a country's name in the country code field is not cut to its first two letters (Mexico is not ME)", async () => {
+    await lookUp('Puerto Lindo', 'Mexico');
+    await page.waitForSelector('#f-countryCode[aria-invalid="true"]');
+    expect(await page.inputValue('#f-countryCode')).toBe('Mexico');
+    const error = await page.getAttribute('#f-countryCode', 'aria-describedby');
+    expect(await page.textContent(`#${error}`)).toMatch(/a two-letter ISO 3166-1 alpha-2 code such as MX; a country's name goes in "country"/);
+    // Put right, the error and its link go.
+    await lookUp('Puerto Lindo', 'QV');
+    expect(await page.getAttribute('#f-countryCode', 'aria-invalid')).toBeNull();
+    expect(await page.getAttribute('#f-countryCode', 'aria-describedby')).toBeNull();
+    expect(await page.locator('.field-error').count()).toBe(0);
+  });
+});
+
+describe('the review at 1280×800', () => {
+  it('shows an empty progress bar as empty: a light track, never a full dark bar', async () => {
+    await page.click('#tab-batch');
+    const colourAt = async (value: number) => {
+      await page.$eval('#batch-progress', (p, v) => ((p as HTMLProgressElement).value = v), value);
+      return averageColour(await page.locator('#batch-progress').screenshot());
+    };
+    const empty = await colourAt(0);
+    expect(Math.min(...empty)).toBeGreaterThan(200); // light: every channel of the track above 200 of 255
+    const full = await colourAt(1);
+    expect(full[1] - full[0]).toBeGreaterThan(60); // the filled bar is the green of --ok (#009e73)
+  });
+
+  it("shows every column of the list, keeps the map's controls apart and says the review's own status", async () => {
+    await uploadBatch(page, DEMO_LOCALITIES, 'R. Viewer');
+    await page.waitForSelector('#review-map path.wa-circle, #review-record #r-result-verification');
+    const fits = await page.$eval('.review-list-wrap', (wrap) => wrap.scrollWidth <= wrap.clientWidth);
+    expect(fits).toBe(true);
+    expect(await mapControlsOverlap('#review-map')).toBe(false);
+    // The review's copies of the answer's sections carry ids of their own, so each heading labels its own section.
+    expect(await duplicateIds()).toEqual([]);
+
+    await page.selectOption('#r-status', 'requires verification');
+    await page.waitForFunction(() => [...document.querySelectorAll('#review-list tbody tr td:nth-child(3)')].every((td) => td.textContent?.startsWith('requires verification')));
+    const row = await page.getAttribute('#review-list tbody tr.current', 'data-row');
+    await page.waitForFunction((r) => document.querySelector('#review-record h2')?.textContent === `Row ${r} of the batch`, row);
+    expect(await page.textContent('#r-result-verification')).toBe('requires verification');
+    await page.click('#accept');
+    await page.selectOption('#r-status', 'verified by data custodian');
+    await page.waitForSelector(`#review-list tbody tr.accepted[data-row="${row}"]`);
+    await page.waitForFunction(() => document.querySelector('#r-result-verification')?.textContent === 'verified by data custodian');
+    expect(await page.textContent('#review-record .summary')).not.toContain('check the point, the circle');
+  });
+
+  it('keeps the focus ring visible on the dark masthead (white, not the blue used on paper)', async () => {
+    await page.click('#tab-batch');
+    await page.keyboard.press('Shift+Tab');
+    await page.keyboard.press('Tab');
+    const ring = await page.evaluate(() => {
+      const focused = document.activeElement as HTMLElement;
+      return { id: focused.id, colour: getComputedStyle(focused).outlineColor, style: getComputedStyle(focused).outlineStyle };
+    });
+    expect(ring).toEqual({ id: 'tab-batch', colour: 'rgb(255, 255, 255)', style: 'solid' });
+  });
+});
+
+describe('the review on a 390 px phone', () => {
+  it('is no wider than the window, and the list scrolls in its own box so that the record follows it', async () => {
+    const phone = await openPage(server.url, { width: 390, height: 844 });
+    try {
+      await uploadBatch(phone.page, DEMO_LOCALITIES, 'R. Viewer');
+      const sizes = await phone.page.evaluate(() => {
+        const wrap = document.querySelector('.review-list-wrap') as HTMLElement;
+        return { page: document.documentElement.scrollWidth, window: innerWidth, listHeight: wrap.getBoundingClientRect().height, listFits: wrap.scrollWidth <= wrap.clientWidth };
+      });
+      expect(sizes.page).toBeLessThanOrEqual(sizes.window);
+      expect(sizes.listFits).toBe(true);
+      expect(sizes.listHeight).toBeLessThan(844 / 2);
+    } finally {
+      await phone.close();
+    }
+  });
+});
+
+/**
+ * The mean colour of the middle row of a PNG, as [r, g, b], decoded by the browser itself on a blank page
+ * (no PNG decoder of our own to trust).
+ */
+async function averageColour(png: Buffer): Promise<[number, number, number]> {
+  const blank = await browser.context.newPage();
+  try {
+    return await blank.evaluate(async (data) => {
+      const image = new Image();
+      image.src = `data:image/png;base64,${data}`;
+      await image.decode();
+      const canvas = document.createElement('canvas');
+      canvas.width = image.width;
+      canvas.height = image.height;
+      const context = canvas.getContext('2d')!;
+      context.drawImage(image, 0, 0);
+      // The inner part of the middle row: the rounded ends and the border are left out.
+      const inset = Math.ceil(image.width * 0.1);
+      const pixels = context.getImageData(inset, Math.floor(image.height / 2), image.width - 2 * inset, 1).data;
+      const sum = [0, 0, 0];
+      for (let i = 0; i < pixels.length; i += 4) for (let c = 0; c < 3; c++) sum[c] += pixels[i + c];
+      const n = pixels.length / 4;
+      return sum.map((s) => s / n) as [number, number, number];
+    }, png.toString('base64'));
+  } finally {
+    await blank.close();
+  }
+}
