@@ -80,6 +80,37 @@ describe('every answer says how far to trust it', () => {
   });
 });
 
+interface Ring { name: string; ring: number[][] }
+
+describe('the basemap', () => {
+  // Natural Earth 1:110m (world-atlas 2.0.2, public domain) holds Fiji's ring at -180° and +180° at once;
+  // drawn as it is, its edge crossed the whole map as a band at 16–17° S.
+  it('draws no ring across the whole map: a ring over the antimeridian is moved whole turns to one side of it', async () => {
+    // A string, so that the test runner does not rewrite the page's own import().
+    const rings: { raw: Ring[]; drawn: Ring[] } = await page.evaluate(`(async () => {
+      const { basemapFeatures } = await import('/js/basemap.js');
+      const topo = await (await fetch('/vendor/countries-110m.json')).json();
+      const ringsOf = (fc) => fc.features.flatMap((f) => (f.geometry.type === 'Polygon' ? [f.geometry.coordinates] : f.geometry.coordinates).flat().map((ring) => ({ name: f.properties.name, ring })));
+      return { raw: ringsOf(topojson.feature(topo, topo.objects.countries)), drawn: ringsOf(basemapFeatures(structuredClone(topo))) };
+    })()`);
+    expect(rings.drawn.length).toBe(rings.raw.length);
+    const span = (ring: number[][]) => Math.max(...ring.map(([lon]) => lon)) - Math.min(...ring.map(([lon]) => lon));
+    const moved: string[] = [];
+    const acrossTheMap: string[] = [];
+    rings.drawn.forEach(({ name, ring }, i) => {
+      const raw = rings.raw[i].ring;
+      // Not one vertex moves on the globe: the same latitude, the longitude the same or a whole turn on.
+      if (ring.length !== raw.length || ring.some(([lon, lat], j) => lat !== raw[j][1] || ![0, 360].includes(Math.round(lon - raw[j][0])))) moved.push(name);
+      if (!ring.some(([, lat]) => Math.abs(lat) > 80) && span(ring) > 180) acrossTheMap.push(name);
+    });
+    expect(moved).toEqual([]);
+    expect(acrossTheMap).toEqual([]);
+    const fiji = rings.drawn.filter((r) => r.name === 'Fiji').flatMap((r) => r.ring.map(([lon]) => lon));
+    expect(Math.min(...fiji)).toBeGreaterThan(170);
+    expect(Math.max(...fiji)).toBeLessThan(190);
+  });
+});
+
 describe('a wrong entry is kept as typed and answered beside its field', () => {
   it("a country's name in the country code field is not cut to its first two letters (Mexico is not ME)", async () => {
     await lookUp('Puerto Lindo', 'Mexico');
