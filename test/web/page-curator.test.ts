@@ -74,6 +74,15 @@ describe('every answer says how far to trust it', () => {
     expect(await page.textContent('#lookup-result .candidates legend')).toBe('Feature used for the georeference');
   });
 
+  it('reads written coordinates back in degrees a person can read (at most 7 decimals), not as binary fractions', async () => {
+    await page.click('#tab-lookup');
+    await page.fill('#f-verbatimCoordinates', "45°12'S 131°32'W");
+    await lookUp('Puerto Lindo');
+    await page.fill('#f-verbatimCoordinates', '');
+    // 12′ = 0.2°, 32′ = 0.5333…°, 1′ = 0.01666…° (1° = 60′).
+    expect(await page.textContent('#lookup-result table.pairs tr:has(th:text-is("Coordinates")) td')).toBe(`"45°12'S 131°32'W" → -45.2, -131.5333333 (degrees-minutes, precision 0.0166667°)`);
+  });
+
   it('text that cannot be read: "unable to georeference"', async () => {
     await lookUp('along the creek behind the old sawmill');
     expect(await page.textContent('#result-verification')).toBe('unable to georeference');

@@ -40,6 +40,15 @@ function describeHeading(h) {
   return `"${h.written}" = azimuth ${h.azimuth}°, Δ ±${h.halfWidth}° (${h.kind}${h.toward ? ', toward the feature, reversed' : ''})`;
 }
 
+/**
+ * Degrees as a person reads them: at most 7 decimals (about 1 cm), so that 32′ shows as 0.5333333, not
+ * 0.5333333333333333. Display only: the answer's own numbers are not rounded by it.
+ * @example degrees(19.533333333333335) // 19.5333333
+ */
+function degrees(value) {
+  return Number(value.toFixed(7));
+}
+
 /** How the text was read: one table, with a row per offset and the assumptions as a list. `idPrefix` keeps the review's ids apart from the lookup's. */
 export function interpretationSection(interpretation, idPrefix = '') {
   const chosen = interpretation.chosenClause === null ? undefined : interpretation.clauses[interpretation.chosenClause];
@@ -56,7 +65,7 @@ export function interpretationSection(interpretation, idPrefix = '') {
     rows.push([`Distance${n}`, describeDistance(o.distance)], [`Heading${n}`, describeHeading(o.heading)], [`Path${n}`, o.path ? `${o.path.mode}${o.path.lineName ? ` along ${o.path.lineName}` : ''}` : o.byAir ? 'by air (stated)' : undefined]);
   });
   const c = interpretation.coordinates;
-  if (c) rows.push(['Coordinates', `"${c.written}" → ${c.latitude}, ${c.longitude} (${c.format}, precision ${c.precisionDegrees}°${c.datum ? `, datum ${c.datum}` : ''})`], ['Coordinate problems', c.problems.join('; ')]);
+  if (c) rows.push(['Coordinates', `"${c.written}" → ${degrees(c.latitude)}, ${degrees(c.longitude)} (${c.format}, precision ${degrees(c.precisionDegrees)}°${c.datum ? `, datum ${c.datum}` : ''})`], ['Coordinate problems', c.problems.join('; ')]);
   if (interpretation.elevation) rows.push(['Elevation', interpretation.elevation.written]);
   const section = el('section', { class: 'card', 'aria-labelledby': `${idPrefix}h-reading` }, el('h2', { id: `${idPrefix}h-reading` }, 'How the text was read'), definitionTable('Reading of the locality text', rows));
   if (interpretation.notes.length) section.append(el('h3', {}, 'Assumptions and notes'), el('ul', { class: 'notes' }, interpretation.notes.map((n) => el('li', {}, n))));
