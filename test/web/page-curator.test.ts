@@ -55,6 +55,18 @@ const duplicateIds = () => page.$$eval('[id]', (nodes) => {
 });
 
 describe('every answer says how far to trust it', () => {
+  it('says on every view that a georeference is an estimate, and that sensitive localities may need generalising', async () => {
+    for (const view of ['lookup', 'batch', 'method']) {
+      await page.click(`#tab-${view}`);
+      expect(await page.isVisible('#caution'), view).toBe(true);
+    }
+    const caution = await page.textContent('#caution');
+    expect(caution).toContain('A georeference is an estimate to verify, not a fact');
+    expect(caution).toContain("Precise localities of threatened or sensitive taxa may need generalising under the holder's policy and local law");
+    // It points to where the generalisation is, not to "below" on a view that has none.
+    expect(caution).toContain('the options of an upload under Batch review');
+  });
+
   it('a point: the radius in words and "requires verification" in the headline card', async () => {
     await lookUp('10 km NE of Puerto Lindo');
     const summary = page.locator('#lookup-result .summary');
@@ -148,7 +160,7 @@ describe('the review at 1280×800', () => {
     expect(full[1] - full[0]).toBeGreaterThan(60); // the filled bar is the green of --ok (#009e73)
   });
 
-  it("shows every column of the list, keeps the map's controls apart and says the review's own status", async () => {
+  it("shows every column of the list, keeps the map's controls apart, says the review's own status and goes on to the next record after a decision", async () => {
     await uploadBatch(page, DEMO_LOCALITIES, 'R. Viewer');
     await page.waitForSelector('#review-map path.wa-circle, #review-record #r-result-verification');
     const fits = await page.$eval('.review-list-wrap', (wrap) => wrap.scrollWidth <= wrap.clientWidth);
@@ -159,10 +171,18 @@ describe('the review at 1280×800', () => {
 
     await page.selectOption('#r-status', 'requires verification');
     await page.waitForFunction(() => [...document.querySelectorAll('#review-list tbody tr td:nth-child(3)')].every((td) => td.textContent?.startsWith('requires verification')));
-    const row = await page.getAttribute('#review-list tbody tr.current', 'data-row');
+    const listed = await page.$$eval('#review-list tbody tr', (rows) => rows.map((r) => (r as HTMLElement).dataset.row));
+    expect(listed.length).toBeGreaterThan(2);
+    const [, row, next] = listed;
+    await page.click(`#review-list tbody tr[data-row="${row}"] button`);
     await page.waitForFunction((r) => document.querySelector('#review-record h2')?.textContent === `Row ${r} of the batch`, row);
     expect(await page.textContent('#r-result-verification')).toBe('requires verification');
+    expect(await page.textContent('#review-record .summary')).toContain('check the point, the circle and the feature used');
     await page.click('#accept');
+    // Accepted, the record leaves this filter and the one after it takes its place under review (not the top of the list).
+    await page.waitForFunction((n) => document.querySelectorAll('#review-list tbody tr').length === n - 1, listed.length);
+    await page.waitForFunction((r) => document.querySelector('#review-record h2')?.textContent === `Row ${r} of the batch`, next);
+    expect(await page.getAttribute('#review-list tbody tr.current', 'data-row')).toBe(next);
     await page.selectOption('#r-status', 'verified by data custodian');
     await page.waitForSelector(`#review-list tbody tr.accepted[data-row="${row}"]`);
     await page.waitForFunction(() => document.querySelector('#r-result-verification')?.textContent === 'verified by data custodian');

@@ -214,7 +214,7 @@ export function summarySection(answer, { verificationStatus = answer.darwinCore.
   const verification = el('p', { class: 'verification' },
     'georeferenceVerificationStatus: ', el('strong', { id: `${idPrefix}result-verification` }, verificationStatus ?? ''),
     answer.status === 'georeferenced'
-      ? `. By this reading the place lies within ${d.coordinateUncertaintyInMeters} m of the point${verificationStatus === d.georeferenceVerificationStatus ? ': check the point, the circle and the feature used' : ''}.`
+      ? `. By this reading the place lies within ${d.coordinateUncertaintyInMeters} m of the point${verificationStatus?.startsWith('verified') ? '' : ': check the point, the circle and the feature used'}.`
       : '');
   const extra = answer.recordPoint
     ? el('p', {}, `The record's own coordinates are ${meters(answer.recordPoint.distanceMeters)} from the proposed point, ${answer.recordPoint.withinUncertainty ? 'inside' : 'outside'} the circle.`)
