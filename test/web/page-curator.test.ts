@@ -7,35 +7,15 @@
  * no page wider than the window, no map control drawn over another.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_LOCALITIES, demoDatabase, listen, type RunningServer, type TempDatabase } from '../server/helpers.ts';
-import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_LOCALITIES } from '../server/helpers.ts';
+import { lookUp, openPage, uploadBatch, useDemoPage } from './browser.ts';
 
-let db: TempDatabase;
-let server: RunningServer;
-let browser: TestBrowser;
+const demo = useDemoPage({ width: 1280, height: 800 });
 let page: Page;
-
-beforeAll(async () => {
-  db = await demoDatabase();
-  server = await listen({ dbPath: db.dbPath, rateLimit: false });
-  browser = await openPage(server.url, { width: 1280, height: 800 });
-  page = browser.page;
-}, 60_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  db?.remove();
+beforeAll(() => {
+  page = demo.page;
 });
-
-async function lookUp(locality: string, countryCode = 'QV') {
-  await page.click('#tab-lookup');
-  await page.fill('#f-locality', locality);
-  await page.fill('#f-countryCode', countryCode);
-  await page.click('#lookup-submit');
-  await page.waitForSelector('#h-summary, #lookup-result .error');
-}
 
 /** Whether two boxes overlap. */
 const overlap = (a: DOMRect, b: DOMRect) => a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
@@ -68,7 +48,7 @@ describe('every answer says how far to trust it', () => {
   });
 
   it('a point: the radius in words and "requires verification" in the headline card', async () => {
-    await lookUp('10 km NE of Puerto Lindo');
+    await lookUp(page, '10 km NE of Puerto Lindo');
     const summary = page.locator('#lookup-result .summary');
     expect(await page.textContent('#result-verification')).toBe('requires verification');
     const radius = await page.textContent('#result-radius');
@@ -77,7 +57,7 @@ describe('every answer says how far to trust it', () => {
   });
 
   it('no point: "requires georeference", and the candidates are a choice to make, not "the feature used"', async () => {
-    await lookUp('Santa Rosa');
+    await lookUp(page, 'Santa Rosa');
     expect(await page.textContent('#h-summary')).toContain('ambiguous');
     expect(await page.textContent('#result-verification')).toBe('requires georeference');
     expect(await page.textContent('#lookup-result .candidates legend')).toBe('None is used yet: choose the feature the text means, if one is');
@@ -89,14 +69,14 @@ describe('every answer says how far to trust it', () => {
   it('reads written coordinates back in degrees a person can read (at most 7 decimals), not as binary fractions', async () => {
     await page.click('#tab-lookup');
     await page.fill('#f-verbatimCoordinates', "45°12'S 131°32'W");
-    await lookUp('Puerto Lindo');
+    await lookUp(page, 'Puerto Lindo');
     await page.fill('#f-verbatimCoordinates', '');
     // 12′ = 0.2°, 32′ = 0.5333…°, 1′ = 0.01666…° (1° = 60′).
     expect(await page.textContent('#lookup-result table.pairs tr:has(th:text-is("Coordinates")) td')).toBe(`"45°12'S 131°32'W" → -45.2, -131.5333333 (degrees-minutes, precision 0.0166667°)`);
   });
 
   it('text that cannot be read: "unable to georeference"', async () => {
-    await lookUp('along the creek behind the old sawmill');
+    await lookUp(page, 'along the creek behind the old sawmill');
     expect(await page.textContent('#result-verification')).toBe('unable to georeference');
   });
 });
@@ -134,13 +114,13 @@ describe('the basemap', () => {
 
 describe('a wrong entry is kept as typed and answered beside its field', () => {
   it("a country's name in the country code field is not cut to its first two letters (Mexico is not ME)", async () => {
-    await lookUp('Puerto Lindo', 'Mexico');
+    await lookUp(page, 'Puerto Lindo', 'Mexico');
     await page.waitForSelector('#f-countryCode[aria-invalid="true"]');
     expect(await page.inputValue('#f-countryCode')).toBe('Mexico');
     const error = await page.getAttribute('#f-countryCode', 'aria-describedby');
     expect(await page.textContent(`#${error}`)).toMatch(/a two-letter ISO 3166-1 alpha-2 code such as MX; a country's name goes in "country"/);
     // Put right, the error and its link go.
-    await lookUp('Puerto Lindo', 'QV');
+    await lookUp(page, 'Puerto Lindo', 'QV');
     expect(await page.getAttribute('#f-countryCode', 'aria-invalid')).toBeNull();
     expect(await page.getAttribute('#f-countryCode', 'aria-describedby')).toBeNull();
     expect(await page.locator('.field-error').count()).toBe(0);
@@ -203,7 +183,7 @@ describe('the review at 1280×800', () => {
 
 describe('the review on a 390 px phone', () => {
   it('is no wider than the window, and the list scrolls in its own box so that the record follows it', async () => {
-    const phone = await openPage(server.url, { width: 390, height: 844 });
+    const phone = await openPage(demo.server.url, { width: 390, height: 844 });
     try {
       await uploadBatch(phone.page, DEMO_LOCALITIES, 'R. Viewer');
       const sizes = await phone.page.evaluate(() => {
@@ -224,7 +204,7 @@ describe('the review on a 390 px phone', () => {
  * (no PNG decoder of our own to trust).
  */
 async function averageColour(png: Buffer): Promise<[number, number, number]> {
-  const blank = await browser.context.newPage();
+  const blank = await demo.browser.context.newPage();
   try {
     return await blank.evaluate(async (data) => {
       const image = new Image();
