@@ -181,8 +181,28 @@ describe('the review at 1280×800', () => {
   });
 });
 
-describe('the review on a 390 px phone', () => {
-  it('is no wider than the window, and the list scrolls in its own box so that the record follows it', async () => {
+describe('on a 390 px phone', () => {
+  it('brings a new answer into view below the form, and writes each view tab on one line', async () => {
+    const phone = await openPage(demo.server.url, { width: 390, height: 844 });
+    try {
+      await lookUp(phone.page, '10 km NE of Puerto Lindo');
+      await phone.page.waitForFunction(() => {
+        const box = document.querySelector('#lookup-result .summary')!.getBoundingClientRect();
+        return box.top >= 0 && box.bottom <= innerHeight;
+      });
+      // The lines a tab's words take: the distinct tops of the boxes of its text.
+      const lines = await phone.page.$$eval('nav .tab', (nodes) => nodes.map((n) => {
+        const range = document.createRange();
+        range.selectNodeContents(n);
+        return [n.textContent, new Set([...range.getClientRects()].map((r) => Math.round(r.top))).size];
+      }));
+      for (const [text, count] of lines) expect(count, String(text)).toBe(1);
+    } finally {
+      await phone.close();
+    }
+  });
+
+  it('shows the review no wider than the window, with the list scrolling in its own box so that the record follows it', async () => {
     const phone = await openPage(demo.server.url, { width: 390, height: 844 });
     try {
       await uploadBatch(phone.page, DEMO_LOCALITIES, 'R. Viewer');

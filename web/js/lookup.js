@@ -284,7 +284,8 @@ export function startLookup({ form, output, map, datums }) {
     request.locality ??= '';
     localStorage.setItem('whereabouts.georeferencedBy', request.georeferencedBy ?? '');
     options = {};
-    run();
+    // A new answer is brought into view (on a phone it starts below the form); an edit's stays where the reader is.
+    run().then(() => output.firstElementChild?.scrollIntoView({ block: 'nearest' }));
   });
   fieldOf('georeferencedBy').value = localStorage.getItem('whereabouts.georeferencedBy') ?? '';
 }
