@@ -20,8 +20,20 @@ beforeAll(() => {
 /** Whether two boxes overlap. */
 const overlap = (a: DOMRect, b: DOMRect) => a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
 
-/** The map's bottom controls (scale bar, pointer coordinates, attribution) as boxes, and whether any two overlap. */
+/** Whether the map's bottom controls (scale bar, pointer coordinates, attribution) overlap, or the scale's words run past its bar. */
 async function mapControlsOverlap(map: string): Promise<boolean> {
+  // The narrowest bar Leaflet draws is half its maxWidth (120 px here): its round numbers 1, 2, 3, 5 × 10ⁿ
+  // leave at least half (Leaflet 1.9 Control.Scale, _getRoundNum). A six-character label must fit that bar.
+  const scaleOverflows = await page.$eval(`${map} .leaflet-control-scale-line`, (line) => {
+    const bar = line.cloneNode() as HTMLElement;
+    Object.assign(bar.style, { width: '60px', position: 'absolute', visibility: 'hidden' });
+    bar.textContent = '300 km';
+    line.parentElement!.append(bar);
+    const overflows = bar.scrollWidth > bar.clientWidth;
+    bar.remove();
+    return overflows;
+  });
+  if (scaleOverflows) return true;
   const boxes = await page.$$eval(`${map} .leaflet-control-scale, ${map} .wa-cursor, ${map} .leaflet-control-attribution`, (nodes) => nodes.map((n) => n.getBoundingClientRect().toJSON() as DOMRect));
   expect(boxes).toHaveLength(3);
   return boxes.some((a, i) => boxes.some((b, j) => j > i && overlap(a, b)));
@@ -146,6 +158,11 @@ describe('the review at 1280×800', () => {
     const fits = await page.$eval('.review-list-wrap', (wrap) => wrap.scrollWidth <= wrap.clientWidth);
     expect(fits).toBe(true);
     expect(await mapControlsOverlap('#review-map')).toBe(false);
+    // With every download shown (an archive's job offers four), no filter is squeezed below a usable width.
+    await page.$eval('#batch-download-zip', (link) => ((link as HTMLElement).hidden = false));
+    const narrowest = await page.$$eval('.filters .field', (fields) => Math.min(...fields.map((f) => f.getBoundingClientRect().width)));
+    expect(narrowest).toBeGreaterThanOrEqual(100);
+    await page.$eval('#batch-download-zip', (link) => ((link as HTMLElement).hidden = true));
     // The review's copies of the answer's sections carry ids of their own, so each heading labels its own section.
     expect(await duplicateIds()).toEqual([]);
 

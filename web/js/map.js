@@ -108,7 +108,7 @@ export async function createMap(container) {
   map.attributionControl.setPrefix('Leaflet');
   // Short, so that it and the scale bar share the bottom edge of a narrow map (the footer gives the whole credit).
   map.attributionControl.addAttribution('Natural Earth');
-  L.control.scale({ metric: true, imperial: false, maxWidth: 100 }).addTo(map);
+  L.control.scale({ metric: true, imperial: false, maxWidth: 120 }).addTo(map);
   cursorControl().addTo(map);
   legendControl().addTo(map);
   map.setView([0, 0], 2);
