@@ -5,7 +5,7 @@
  * gazetteer is reached only through the CandidateFinder it is given.
  */
 import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
-import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReading, shortFormKey } from '../match/context.ts';
+import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReader, shortFormKey } from '../match/context.ts';
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
@@ -288,11 +288,12 @@ export function readStatedState(finder: CandidateFinder, context: Administrative
   const short = shortFormKey(stated);
   if (finder.unitNames(1, key).length > 0 || finder.unitNames(1, short).length > 0) return { context };
   const names = finder.unitNames(1);
-  const named = (unitKey: string) => unitKey.startsWith(`${short} `) && !looseUnitReading(key, unitKey);
+  const reading = looseUnitReader(key);
+  const named = (unitKey: string) => unitKey.startsWith(`${short} `) && !reading(unitKey);
   if (names.length === 0 || names.some((name) => named(name.key))) return { context };
   const read = new Map<string, string>();
   for (const name of names) {
-    const how = looseUnitReading(key, name.key);
+    const how = reading(name.key);
     if (how && !read.has(name.unitKey)) read.set(name.unitKey, how);
   }
   if (read.size === 1) {

@@ -147,7 +147,7 @@ export interface CandidateFinder {
    * with its unit's comparison key (administrativeKey); empty when the gazetteer records none (optional for
    * other finders).
    */
-  unitNames?(level: 1 | 2, key?: string): UnitName[];
+  unitNames?(level: 1 | 2, key?: string): readonly UnitName[];
 }
 
 /** One name of a loaded administrative unit: its key and its unit's key (both administrativeKey). */

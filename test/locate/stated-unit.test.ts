@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 import { readStatedState } from '../../src/locate/administrative-unit.ts';
-import { looseUnitReading } from '../../src/match/context.ts';
+import { looseUnitReader, looseUnitReading } from '../../src/match/context.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { openRealGazetteer, REAL_SETS } from '../real/harness.ts';
 
@@ -44,6 +44,18 @@ describe('the looser readings of a unit\'s name (looseUnitReading)', () => {
     expect(looseUnitReading('iowa', 'ohio')).toBeNull();
     expect(looseUnitReading('para', 'parana')).toBeNull();
     expect(looseUnitReading('virginia', 'west virginia')).toBeNull();
+  });
+
+  it('reads the same with the stated name read once against many (looseUnitReader), whatever the lengths', () => {
+    // Names of every length around the stated one's, and names that join two, which no length tells apart.
+    const loaded = ['aysen', 'aisenn', 'aise', 'ai sen', 'aysen y baker', 'baker e aisen', 'aisen and baker', 'general carrera', 'ohio', 'y', ''];
+    expect(loaded.map(looseUnitReader('aisen'))).toEqual([
+      'one letter apart', 'one letter apart', null, 'written with or without spaces', null, 'one of the names the unit joins',
+      'one of the names the unit joins', null, null, null, null,
+    ]);
+    expect(['magallanes', 'antartica chilena', 'antartica chilena y magallanes', 'los lagos'].map(looseUnitReader('magallanes y antartica chilena'))).toEqual([
+      'one of the names the unit joins', 'one of the names the unit joins', null, null,
+    ]);
   });
 });
 
