@@ -32,15 +32,21 @@ async function importUnit(store: GazetteerStore, sourceId: string, code: string,
 
 const unitKeys = (store: GazetteerStore) => store.unitNames(1).map((name) => name.unitKey).sort();
 
+/** A file with the unit Costa Alta, written through one connection and read through another, which has read its units once. */
+async function twoConnections(file: string): Promise<{ writer: GazetteerStore; reader: GazetteerStore }> {
+  const path = join(directory, file);
+  const writer = openGazetteer(path);
+  open.push(writer);
+  await importUnit(writer, 'north', '01', 'Costa Alta', 'Puerto Quieto');
+  const reader = openGazetteer(path, { readonly: true });
+  open.push(reader);
+  expect(unitKeys(reader)).toEqual(['costa alta']);
+  return { writer, reader };
+}
+
 describe('a level\'s unit names kept between lookups', () => {
   it('sees a source imported and removed through another connection on its next lookup', async () => {
-    const path = join(directory, 'two-connections.sqlite');
-    const writer = openGazetteer(path);
-    open.push(writer);
-    await importUnit(writer, 'north', '01', 'Costa Alta', 'Puerto Quieto');
-    const reader = openGazetteer(path, { readonly: true });
-    open.push(reader);
-    expect(unitKeys(reader)).toEqual(['costa alta']);
+    const { writer, reader } = await twoConnections('two-connections.sqlite');
     // Asked again: the kept names, the same answer.
     expect(unitKeys(reader)).toEqual(['costa alta']);
     expect(readStatedState(reader, { countryCode: 'QX', stateProvince: 'Sierra Baja' }).note).toBeUndefined();
@@ -56,13 +62,7 @@ describe('a level\'s unit names kept between lookups', () => {
   });
 
   it('reads the names as of the one moment of a read transaction begun after another connection\'s import', async () => {
-    const path = join(directory, 'one-moment.sqlite');
-    const writer = openGazetteer(path);
-    open.push(writer);
-    await importUnit(writer, 'north', '01', 'Costa Alta', 'Puerto Quieto');
-    const reader = openGazetteer(path, { readonly: true });
-    open.push(reader);
-    expect(unitKeys(reader)).toEqual(['costa alta']);
+    const { writer, reader } = await twoConnections('one-moment.sqlite');
     await importUnit(writer, 'south', '02', 'Sierra Baja y Llanos', 'Vado Seco');
     expect(reader.asOfOneMoment(() => [reader.sources().map((source) => source.id), unitKeys(reader)])).toEqual([
       ['north', 'south'], ['costa alta', 'sierra baja y llanos'],
