@@ -16,7 +16,7 @@ import { scoreFuzzy } from './fuzzy-score.ts';
 import { WordCache } from './word-cache.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
-import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms } from './older-spelling.ts';
+import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms, tilSpellingReadings } from './older-spelling.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { honoreeCountry, honoreeLongForm } from './short-form.ts';
@@ -227,8 +227,8 @@ export class CandidateMatcher {
    */
   private olderSpellingCandidates(query: CandidateQuery, context: ResolvedContext): Candidate[] {
     const reforms = spellingReforms(context.countryCodes, query.language);
-    const readings = nameVariants(query.name).flatMap((variant) => olderSpellingReadings(variant.key, reforms)
-      .map((older) => ({ key: older.key, change: variant.change ? `${variant.change}, ${older.change}` : older.change })));
+    const readings = [...tilSpellingReadings(query.name, reforms), ...nameVariants(query.name).flatMap((variant) => olderSpellingReadings(variant.key, reforms)
+      .map((older) => ({ key: older.key, change: variant.change ? `${variant.change}, ${older.change}` : older.change })))];
     return this.candidatesByKeys(readings.slice(0, MAX_OLDER_SPELLINGS));
   }
 

@@ -17,12 +17,15 @@ import { locate } from '../../src/locate/locate.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { openCsvStore } from '../support/csv-store.ts';
 
-// Invented towns: one Itacorá, Vila Nova in two states, and Xocotal.
+// Invented towns: one Itacorá, Vila Nova in two states, Xocotal, and two whose final nasal a the
+// gazetteer spells in the two ways (Guaracan, older; Tamburã, modern).
 const ROWS = [
   ['t1', 'Itacorá', -20.0, -50.0, 'Poniente'],
   ['t2', 'Vila Nova', -20.5, -50.5, 'Poniente'],
   ['t3', 'Vila Nova', -21.5, -49.5, 'Levante'],
   ['t4', 'Xocotal', -19.0, -49.0, 'Levante'],
+  ['t5', 'Guaracan', -18.0, -48.0, 'Levante'],
+  ['t6', 'Tamburã', -17.0, -47.0, 'Levante'],
 ] as const;
 
 const directory = mkdtempSync(join(tmpdir(), 'whereabouts-older-spelling-'));
@@ -54,6 +57,17 @@ describe('a place written in an older spelling ([CHOICE] olderSpellings)', () =>
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.features[0]!.featureId).toBe('t4');
     expect(result.georeference!.remarks.join('\n')).toContain("'x' and 'j' for one sound; Real Academia Española, Ortografía of 1815; from memory");
+  });
+
+  it.each([
+    // label as written / the town it is read as, and the rule named in the remarks
+    ['8 km ao norte de Guaracã', 't5', "'guaracã' read as the modern spelling of 'guaracan' ('an' for a final 'ã'"],
+    ['8 km ao norte de Tamburan', 't6', "'tamburan' read as an older spelling of 'tambura' ('an' for a final 'ã'"],
+  ])('reads a final "ã" and the older "an" each as the other: %s', (locality, id, remark) => {
+    const result = locate(store, { locality, countryCode: 'QV' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features[0]!.featureId).toBe(id);
+    expect(result.georeference!.remarks.join('\n')).toContain(remark);
   });
 
   it('is not read where no reform applies (a bare name in QV): the near spelling is left for review', () => {
