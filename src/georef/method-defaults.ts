@@ -171,6 +171,14 @@ export const METHOD_DEFAULTS = {
    */
   statedUnitReadings: 'on' as 'on' | 'off',
   /**
+   * The record's state or province written by the former name of a unit since renamed ("Distrito Federal" in
+   * Mexico, ISO 3166-2 MX-DIF, now MX-CMX Ciudad de México) [CHOICE]: 'on' reads it as the renamed unit when
+   * the gazetteer loads it by a present name, from a small cited table (src/match/former-unit-names.ts), and
+   * says so in the remarks; 'off' keeps it as written, which walls off every place recorded in a named unit.
+   * Measured on the real-record sets (docs/real-records.md).
+   */
+  formerUnitNames: 'on' as 'on' | 'off',
+  /**
    * A leading clause of a record stating no state that is a name of a state or province in the gazetteer's
    * unit-name table ("US, Colorado, Vail") [CHOICE]: 'on' reads it as that state, context and not a place,
    * when the clause after it names a place the gazetteer records in a state of that name in the record's
