@@ -149,6 +149,16 @@ export const METHOD_DEFAULTS = {
    */
   honoreeShortForms: 'on' as 'on' | 'off',
   /**
+   * A place name found neither as written nor by the readings above, but as a loaded name with the small words
+   * joining its parts ("de", "del", "da", "do", "dos", "das", "du", "des", "of", "la") left out, added or changed
+   * ("San Manuel Colohete" for San Manuel de Colohete, "Campos de Jordão" for Campos do Jordão) [CHOICE]: 'on'
+   * reads it so, only inside a stated country and state and for names of two or more other words, a documented
+   * reading named in the remarks (ambiguity and the stated units as for any name; src/match/connector-words.ts;
+   * common practice, no source); 'off' leaves it to the near-spelling search. Measured on the real-record sets
+   * (docs/real-records.md).
+   */
+  connectorReadings: 'on' as 'on' | 'off',
+  /**
    * A text that is only the record's country's name in another language than the four read throughout
    * (German, Italian or Dutch from CLDR; Latin from memory), written with its own accents ("a Brasilia",
    * Latin for Brazil), names the country, not a town; when a town also bears that name as written or by

@@ -635,8 +635,14 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
 
 function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
   // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling;
-  // [CHOICE honoreeShortForms]: or by the short form of an official long name.
-  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms, language: interpretation.language };
+  // [CHOICE honoreeShortForms]: or by the short form of an official long name; [CHOICE connectorReadings]: or
+  // without the words joining its parts, inside a stated state.
+  const spelling = {
+    olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings,
+    honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms,
+    connectorReadings: options.connectorReadings ?? METHOD_DEFAULTS.connectorReadings,
+    language: interpretation.language,
+  };
   return interpretation.type === 'junction'
     ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
     : { name, context, ...spelling };

@@ -224,7 +224,7 @@ export function answerabilityOf(store: GazetteerStore, record: RealRecord): Answ
   const state = record.stateProvince ? [administrativeKey(record.stateProvince), shortFormKey(record.stateProvince)] : [];
   const places = [...runs].filter((run) => countryCodeForName(run) !== record.countryCode && !state.includes(administrativeKey(run)));
   const holds = (context: { countryCode?: string; stateProvince?: string }) =>
-    places.some((name) => store.findCandidates({ name, context, nearSpellings: 'off', olderSpellings: METHOD_DEFAULTS.olderSpellings, honoreeShortForms: METHOD_DEFAULTS.honoreeShortForms, limit: 1 }).length > 0);
+    places.some((name) => store.findCandidates({ name, context, nearSpellings: 'off', olderSpellings: METHOD_DEFAULTS.olderSpellings, honoreeShortForms: METHOD_DEFAULTS.honoreeShortForms, connectorReadings: METHOD_DEFAULTS.connectorReadings, limit: 1 }).length > 0);
   if (holds({ countryCode: record.countryCode, stateProvince: record.stateProvince || undefined })) return 'answerable';
   if (record.stateProvince && holds({ countryCode: record.countryCode })) return 'a loaded name only in another state';
   return holds({}) ? 'a loaded name only in another country' : 'no loaded name';
