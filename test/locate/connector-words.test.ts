@@ -7,14 +7,10 @@
  * Practices, §Georeferencing Workflow – Localities, step 5), that it needs the stated state, and that it keeps
  * the ambiguity rule.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { describe, expect, it } from 'vitest';
 import { locate } from '../../src/locate/locate.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
-import { openCsvStore } from '../support/csv-store.ts';
+import { useTownStore } from '../support/csv-store.ts';
 
 // Invented towns: San Telmo de Alisos, Porto das Pedras, and Vila do Mar in two states.
 const ROWS = [
@@ -25,17 +21,7 @@ const ROWS = [
   ['t5', 'Vila da Mar', -21.2, -49.2, 'Poniente'],
 ] as const;
 
-const directory = mkdtempSync(join(tmpdir(), 'whereabouts-connector-words-'));
-let store: GazetteerStore;
-
-beforeAll(async () => {
-  store = await openCsvStore(directory, ['id,name,latitude,longitude,featureType,countryCode,stateProvince',
-    ...ROWS.map(([id, name, lat, lon, state]) => `${id},${name},${lat},${lon},town,QV,${state}`)], 'towns');
-});
-afterAll(() => {
-  store.close();
-  rmSync(directory, { recursive: true, force: true });
-});
+const store = useTownStore('connector-words', ROWS);
 
 const remarks = (result: ReturnType<typeof locate>) => result.georeference?.remarks.join('\n') ?? '';
 
@@ -51,27 +37,27 @@ describe('a name without its joining words ([CHOICE] connectorReadings)', () => 
     ['7 km a noroeste de Porto de Pedras', 't2', "'porto de pedras' read as 'porto das pedras'"],
     ['à 7 km au nord-ouest de Porto des Pedras', 't2', "'porto des pedras' read as 'porto das pedras'"],
   ])('reads "%s" inside the stated state, and says so', (locality, id, remark) => {
-    const result = locate(store, { locality, countryCode: 'QV', stateProvince: 'Poniente' });
+    const result = locate(store(), { locality, countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.features[0]!.featureId).toBe(id);
     expect(remarks(result)).toContain(`${remark}, the words joining its parts left out, added or changed [CHOICE connectorReadings`);
   });
 
   it('needs a stated state: with the country alone the name is not read so', () => {
-    const result = locate(store, { locality: '7 km al noroeste de San Telmo Alisos', countryCode: 'QV' });
+    const result = locate(store(), { locality: '7 km al noroeste de San Telmo Alisos', countryCode: 'QV' });
     expect(remarks(result)).not.toContain('connectorReadings');
   });
 
   it('keeps the ambiguity rule: two towns of the state read so ("Vila Mar") are left for a person', () => {
-    const result = locate(store, { locality: '3 km ao sul de Vila Mar', countryCode: 'QV', stateProvince: 'Poniente' });
+    const result = locate(store(), { locality: '3 km ao sul de Vila Mar', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('ambiguous');
   });
 
   it('is not tried when the name is found as written, nor when the choice is off', () => {
-    const written = locate(store, { locality: '3 km ao sul de Vila do Mar', countryCode: 'QV', stateProvince: 'Levante' });
+    const written = locate(store(), { locality: '3 km ao sul de Vila do Mar', countryCode: 'QV', stateProvince: 'Levante' });
     expect(written.georeference!.features[0]!.featureId).toBe('t4');
     expect(remarks(written)).not.toContain('connectorReadings');
-    const off = locate(store, { locality: '7 km al noroeste de San Telmo Alisos', countryCode: 'QV', stateProvince: 'Poniente', options: { connectorReadings: 'off' } });
+    const off = locate(store(), { locality: '7 km al noroeste de San Telmo Alisos', countryCode: 'QV', stateProvince: 'Poniente', options: { connectorReadings: 'off' } });
     expect(remarks(off)).not.toContain('connectorReadings');
   });
 });
