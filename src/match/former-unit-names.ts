@@ -21,7 +21,7 @@ export const FORMER_UNIT_NAMES: readonly FormerUnitName[] = [
     countryCode: 'MX',
     former: 'Distrito Federal',
     current: ['Ciudad de México', 'Mexico City'],
-    source: 'ISO 3166-2:MX, subdivision MX-DIF "Distrito Federal" changed to MX-CMX "Ciudad de México" (ISO 3166/MA change of 2016-11-15), after the reform of the Mexican constitution published in the Diario Oficial de la Federación of 29 January 2016; from memory',
+    source: 'ISO 3166-2:MX, subdivision MX-DIF "Distrito Federal" in the ISO 3166/MA list before 2016, MX-CMX "Ciudad de México" in the list today, after the reform of the Mexican constitution of 2016; the dates from memory',
   },
   {
     countryCode: 'BR',
