@@ -15,6 +15,7 @@ import type { Geometry, Position } from 'geojson';
 import * as shapefile from 'shapefile';
 import { crsToWgs84, type CrsToWgs84 } from '../geodesy/crs.ts';
 import type { RawFeature } from './feature-record.ts';
+import { withoutShp } from './file-input.ts';
 
 /** Which attribute gives each gazetteer column, or a value for every feature. */
 export interface GisFieldMap {
@@ -117,6 +118,7 @@ function reproject(geometry: Geometry, crs: CrsToWgs84): Geometry {
 /** A shapefile's parts, from a zip or from the files beside the .shp, read whole. */
 async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer> {
   const parts = extname(filePath).toLowerCase() === '.zip' ? zippedShapefile(filePath, map.layer) : shapefileBeside(filePath);
+  checkShapefileHeader(parts.shp, `${parts.name}.shp`);
   if (!parts.dbf) throw new Error(`${filePath}: the shapefile ${parts.name} has no .dbf beside it, so its features have no names`);
   if (!parts.prj) {
     throw new Error(`${filePath}: the shapefile ${parts.name} has no .prj, so its coordinate system is unknown: add the .prj (or reproject it to WGS84 with one)`);
@@ -138,6 +140,34 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
   return { name: parts.name, fields, crs, features: features() };
 }
 
+/** Shape types a main file may hold (ESRI Shapefile Technical Description, 1998, p. 4). */
+const SHAPE_TYPES = new Set([0, 1, 3, 5, 8, 11, 13, 15, 18, 21, 23, 25, 28, 31]);
+
+/**
+ * Refuses a .shp whose 100-byte header is not a shapefile's, naming what is wrong: file code 9994 (big-endian,
+ * byte 0), version 1000 (little-endian, byte 28) and a known shape type (byte 32) (ESRI Shapefile Technical
+ * Description, 1998, pp. 3–4). A file sent through a text channel has its bytes above 0x7F replaced, which
+ * shifts the header; without this check the reader's own message ("unsupported shape type: 957") names
+ * neither the file nor the cause.
+ * @example checkShapefileHeader(readFileSync('units.shp'), 'units.shp') // returns, or throws naming the file
+ */
+function checkShapefileHeader(shp: Uint8Array, name: string): void {
+  const header = Buffer.from(shp.buffer, shp.byteOffset, shp.byteLength);
+  const problem =
+    header.length < 100
+      ? `it is ${header.length} bytes long, shorter than the 100-byte header`
+      : header.readInt32BE(0) !== 9994
+        ? `it does not begin with the shapefile file code 9994`
+        : header.readInt32LE(28) !== 1000
+          ? `its header gives version ${header.readInt32LE(28)}, not 1000`
+          : !SHAPE_TYPES.has(header.readInt32LE(32))
+            ? `its header gives shape type ${header.readInt32LE(32)}, which is none of the shapefile's`
+            : undefined;
+  if (problem !== undefined) {
+    throw new Error(`${name} cannot be read as a shapefile: ${problem}. The file is damaged (a copy made as text replaces bytes) or is not a shapefile; take it again from its source`);
+  }
+}
+
 interface ShapefileParts {
   name: string;
   shp: Uint8Array;
@@ -152,6 +182,9 @@ function zippedShapefile(filePath: string, layer: string | undefined): Shapefile
   const named = layer === undefined ? stems : stems.filter((s) => basename(s).toLowerCase() === layer.toLowerCase());
   if (named.length !== 1) {
     const listed = stems.map((s) => basename(s)).join(', ') || 'none';
+    if (stems.length === 0 && Object.keys(files).length > 0) {
+      throw new Error(withoutShp(filePath, Object.keys(files)));
+    }
     throw new Error(
       layer === undefined && stems.length > 1
         ? `${filePath} holds several shapefiles (${listed}): choose one with --layer`

