@@ -11,7 +11,7 @@ import { createInterface } from 'node:readline';
 import type { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
-import type { AlternateName } from '../match/types.ts';
+import type { AlternateName, Source } from '../match/types.ts';
 import { readAdminCodeLine, readAlternateNameLine } from './dump-layout.ts';
 import { fileHead, notText } from './file-kind.ts';
 import { isZipFile, openFileInput } from './file-input.ts';
@@ -63,6 +63,11 @@ export interface ImportSummary {
   seconds: number;
   /** What the reader chose, e.g. a GIS file's layer and the coordinate conversion used. */
   notes?: string[];
+  /**
+   * The source of the same id this import replaced, when there was one: a second layer of one GeoPackage
+   * or zip imported without --source-id takes the first layer's id, and the user must be told.
+   */
+  replaced?: Pick<Source, 'importedAt' | 'featureCount'>;
 }
 
 const PROGRESS_EVERY = 5000;
@@ -92,6 +97,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   const format: InputFormat = inspected.damagedUtf8 || zipped ? { ...inspected, encoding: 'utf-8', bomBytes: zipped ? 0 : inspected.bomBytes } : inspected;
   const citation = options.citation?.trim() || standInCitation(filePath, format, new Date());
   const notes: string[] = [];
+  const previous = store.sources().find((source) => source.id === sourceId);
   const session = store.beginImport(sourceId);
   const rejected: { row: number; reason: string }[] = [];
   let alternateNames: ImportSummary['alternateNames'];
@@ -131,6 +137,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     sourceId, citation, citationIsStandIn: !options.citation?.trim(), encoding: format.encoding,
     rowsRead, imported, rejected, ...(alternateNames !== undefined && { alternateNames }),
     seconds: Number(process.hrtime.bigint() - started) / 1e9, ...(notes.length > 0 ? { notes } : {}),
+    ...(previous !== undefined && { replaced: { importedAt: previous.importedAt, featureCount: previous.featureCount } }),
   };
 }
 

@@ -259,4 +259,10 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     expect(Number(row!.fields.footprints)).toBe(clipped);
     expect(Number(row!.fields.inside)).toBe(clipped);
   }, 300_000);
+
+  it('imported again under the same source id, the states say they replaced the source, and how to keep both', async () => {
+    const again = await cli2('import', join(real, 'gis/natural-earth-brazil-states-polyconic.zip'), '--name-field', 'name', '--feature-type', 'stateProvince', '--country-code', 'BR');
+    expect(again.code).toBe(0);
+    expect(again.stdout).toMatch(/replaced the source natural-earth-brazil-states-polyconic imported \S+ \(4 features\); to keep both, import with --source-id/);
+  });
 });

@@ -107,6 +107,9 @@ export function formatSummary(summary: ImportSummary): string {
   const lines = [
     `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
     ...(summary.notes ?? []).map((note) => `  ${note}`),
+    ...(summary.replaced === undefined
+      ? []
+      : [`  replaced the source ${summary.sourceId} imported ${summary.replaced.importedAt} (${summary.replaced.featureCount} features); to keep both, import with --source-id <another id>`]),
     ...(summary.encoding === 'utf-8' ? [] : [`  read as ${summary.encoding} (the file is not UTF-8)`]),
     ...(summary.citationIsStandIn
       ? [`  citation: ${summary.citation}`, `  this stand-in only names the file: replace it with a real citation by importing again with --source "<who, what, year, where from>"`]
