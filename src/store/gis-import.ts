@@ -55,7 +55,7 @@ export interface GisRow {
  */
 export async function* readGisFile(filePath: string, format: GisFormat, map: GisFieldMap, notes: string[]): AsyncGenerator<GisRow[]> {
   const layer = format === 'gpkg' ? geoPackageLayer(filePath, map) : await shapefileLayer(filePath, map);
-  notes.push(`layer ${layer.name}: ${layer.crs.description}`);
+  notes.push(`layer ${layer.name}: ${layer.crs.description}`, ...(layer.encodingNote === undefined ? [] : [layer.encodingNote]));
   const fields = new Set(layer.fields);
   for (const [option, field] of Object.entries(fieldOptions(map))) {
     if (field !== undefined && !fields.has(field)) {
@@ -115,6 +115,8 @@ interface Layer {
   crs: CrsToWgs84;
   /** Each feature's attributes and geometry, or why its geometry cannot be read. */
   features: AsyncIterable<{ properties: Record<string, unknown>; geometry: Geometry | null; problem?: string }>;
+  /** How the attributes' encoding was chosen, when the file does not say it (a .dbf without .cpg). */
+  encodingNote?: string;
 }
 
 /** Every position of a geometry through the conversion to WGS84. */
@@ -134,7 +136,10 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
     throw new Error(`${filePath}: the shapefile ${parts.name} has no .prj, so its coordinate system is unknown: add the .prj (or reproject it to WGS84 with one)`);
   }
   const crs = crsToWgs84(Buffer.from(parts.prj).toString('utf8'), `${parts.name}.prj`);
-  const encoding = map.encoding ?? codePage(parts.cpg) ?? 'windows-1252';
+  const encoding = map.encoding ?? codePage(parts.cpg) ?? dbfEncoding(parts.dbf);
+  const encodingNote = map.encoding ?? parts.cpg
+    ? undefined
+    : `${parts.name}.dbf has no .cpg: read as ${encoding}${encoding === 'utf-8' ? ' (its bytes are UTF-8)' : ' (the dBASE convention)'}; give --encoding if its names look wrong`;
   try {
     new TextDecoder(encoding);
   } catch {
@@ -147,7 +152,7 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
       yield { properties: (next.value.properties ?? {}) as Record<string, unknown>, geometry: next.value.geometry as Geometry | null };
     }
   }
-  return { name: parts.name, fields, crs, features: features() };
+  return { name: parts.name, fields, crs, features: features(), ...(encodingNote !== undefined && { encodingNote }) };
 }
 
 /** Shape types a main file may hold (ESRI Shapefile Technical Description, 1998, p. 4). */
@@ -244,6 +249,25 @@ function codePage(cpg: Uint8Array | undefined): string | undefined {
   if (number) return number === '65001' ? 'utf-8' : `windows-${number}`;
   if (/^8859_?(\d+)$/.test(text)) return `iso-8859-${/(\d+)$/.exec(text)![1]}`;
   return text || undefined;
+}
+
+/**
+ * The encoding of a .dbf that has no .cpg: UTF-8 when its bytes hold a non-ASCII character and are valid
+ * UTF-8 throughout (RFC 3629; text in a single-byte code page almost never is, as for batch input in
+ * input-format.ts), else windows-1252, the dBASE convention. GIS programs write UTF-8 .dbf files and a
+ * .cpg beside them, and the .cpg is the file most often left out when a shapefile is zipped by hand.
+ * @example dbfEncoding(readFileSync('ufs.dbf')) // 'utf-8' when it holds "São Paulo" as C3 A3
+ */
+function dbfEncoding(dbf: Uint8Array): 'utf-8' | 'windows-1252' {
+  // the records only: the header's counts and lengths are binary (dBASE III: its length at bytes 8–9)
+  const records = dbf.subarray(dbf.length >= 10 ? dbf[8]! | (dbf[9]! << 8) : dbf.length);
+  if (!records.some((byte) => byte >= 0x80)) return 'windows-1252';
+  try {
+    new TextDecoder('utf-8', { fatal: true }).decode(records);
+    return 'utf-8';
+  } catch {
+    return 'windows-1252';
+  }
 }
 
 /** The .dbf's field names from its header (dBASE III: 32-byte descriptors from byte 32, ended by 0x0D). */

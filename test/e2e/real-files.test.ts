@@ -9,7 +9,7 @@
  * (Debian gdal-bin) for GeoJSON and GeoPackage.
  */
 import { execFile } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -274,6 +274,21 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     const refused = await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--feature-type', 'town');
     expect(refused.code).toBe(1);
     expect(refused.stderr).toMatch(/--feature-type map a GIS file's or a GeoJSON feature's attributes; a CSV gazetteer names its columns in its header/);
+  }, 120_000);
+
+  it('the same states in a UTF-8 .dbf whose .cpg was left out are read as UTF-8, not as Windows-1252 ("SÃ£o Paulo"), and the import says which it read', async () => {
+    const folder = mkdtempSync(join(dir, 'utf8-dbf-'));
+    gdal('ogr2ogr', '--config', 'SHAPE_ENCODING', 'CP1252', '-f', 'ESRI Shapefile', '-lco', 'ENCODING=UTF-8', join(folder, 'estados.shp'), '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    rmSync(join(folder, 'estados.cpg'));
+    expect(readFileSync(join(folder, 'estados.dbf')).includes(Buffer.from('São Paulo'))).toBe(true); // ã is C3 A3 in UTF-8
+    const store = join(dir, 'estados-utf8.sqlite');
+    const imported = await whereaboutsOn(store, 'import', join(folder, 'estados.shp'), '--feature-type', 'stateProvince', '--country-code', 'BR');
+    expect(imported.stdout).toContain('estados.dbf has no .cpg: read as utf-8');
+    const listed = await whereaboutsOn(store, 'locate', 'São Paulo', '--country-code', 'BR', '--json');
+    expect(JSON.parse(listed.stdout).candidates.map((c: { feature: { name: string } }) => c.feature.name)).toContain('São Paulo');
+    // the shipped zip's Windows-1252 .dbf (ã is E3) is read as Windows-1252, and says so
+    const cp1252 = await whereaboutsOn(join(dir, 'estados-1252.sqlite'), 'import', join(real, 'gis/natural-earth-brazil-states-polyconic.zip'), '--feature-type', 'stateProvince');
+    expect(cp1252.stdout).toContain('estados.dbf has no .cpg: read as windows-1252 (the dBASE convention)');
   }, 120_000);
 
   it('imported again under the same source id, the states say they replaced the source, and how to keep both', async () => {
