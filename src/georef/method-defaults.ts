@@ -80,6 +80,19 @@ export const METHOD_DEFAULTS = {
    */
   justOutsideMeters: 25000,
   /**
+   * With no polygon of the stated state or county loaded (a gazetteer of towns holds none), how far outside
+   * it a reference place loaded only in the next unit lies is told from the unit's own loaded places [CHOICE]:
+   * 'nearest place' takes the distance to the nearest place recorded in the unit (that place lies inside, so
+   * the line lies nearer: an upper bound, never an understatement); 'halfway' puts the line halfway to it
+   * (the expected place of a line known only to lie between them, twice as far reached); 'off' takes no
+   * such place (the stated unit a hard wall wherever no polygon is loaded). Whichever is used, a text
+   * naming the unit the place lies in puts the line halfway (text and gazetteer agree where the place is),
+   * and the remarks give the distance and the place it is measured to. Our choice, no source; measured on
+   * the real-record sets (docs/real-records.md, "Issue 11"): on sets 1–3 'halfway' answers nothing more
+   * and 'off' one covered answer fewer (set 1, "Near Brasília, federal district", answered by the text's unit).
+   */
+  unitEdgeByPlaces: 'nearest place' as 'nearest place' | 'halfway' | 'off',
+  /**
    * Places sharing a name in a one-place offset text ("10 km N of Santa Rosa", one Santa Rosa in the
    * record's county, another across the line) [CHOICE]: 'result' georeferences each (the exact names
    * kept and those the county's wall dropped within justOutsideMeters + the offset) and takes the one

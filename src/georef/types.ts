@@ -44,6 +44,8 @@ export interface MethodOptions {
   unusedFeatureRule?: 'widen' | 'decline';
   /** How far outside the record's stated unit a reference place may lie and still be taken, plus the text's offset; default 25 km ([CHOICE]). */
   justOutsideMeters?: number;
+  /** With no polygon of the stated unit loaded, how far outside it a place lies, from its nearest loaded place: 'nearest place' (default), 'halfway' or 'off' ([CHOICE]). */
+  unitEdgeByPlaces?: 'nearest place' | 'halfway' | 'off';
   /** Places sharing a name in an offset text: judged by where each one's 'result' lands (default) or only by where the 'reference place' lies ([CHOICE]). */
   namesakesJudgedBy?: 'result' | 'reference place';
   /** A name whose generic word says river, mountain… held only as a settlement of that very name: 'settlement' (default) or 'decline' ([CHOICE]). */

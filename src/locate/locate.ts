@@ -478,7 +478,7 @@ function resolveNames(finder: CandidateFinder, interpretation: Interpretation, c
     }
     if (choice.kind === 'none') {
       const wallUnit = findBoundingUnit(finder, context, 'stateProvince');
-      const outside = justOutside(finder, featureQuery(name, context, interpretation, options), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation));
+      const outside = justOutside(finder, featureQuery(name, context, interpretation, options), wallUnit, FUZZY_ACCEPTANCE.readingScore, reach, unitsWritten(interpretation), options.unitEdgeByPlaces);
       if (outside?.candidate) {
         candidates.push(outside.candidate);
         readings.push([outside.candidate.feature]);

@@ -52,7 +52,7 @@ describe('a place loaded only outside the stated state, no polygon of it loaded'
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.features[0]!.featureId).toBe('t3');
     expect(result.georeference!.remarks[0]).toBe(
-      `"Las Garzas" is not inside the record's state/province "Poniente" (state/province 'Levante', not the one given) but lies at most ${km('t3', 't1').toFixed(1)} km outside it, the distance to Alisos (towns:t1), the nearest loaded place inside it: accepted, within the 25 km allowed, the unit's loaded places standing for its extent, as no polygon of it is loaded [CHOICE justOutsideMeters, src/georef/method-defaults.ts]`,
+      `"Las Garzas" is not inside the record's state/province "Poniente" (state/province 'Levante', not the one given) but just outside it: ${km('t3', 't1').toFixed(1)} km from its nearest loaded place, Alisos (towns:t1), so at most that far outside it, as no polygon of it is loaded: accepted, within the 25 km allowed [CHOICE justOutsideMeters, unitEdgeByPlaces, src/georef/method-defaults.ts]`,
     );
   });
 
@@ -60,7 +60,7 @@ describe('a place loaded only outside the stated state, no polygon of it loaded'
     expect(km('t4', 't1')).toBeGreaterThan(100);
     const result = locate(store, { locality: 'Punta Fria', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('not-found');
-    expect(result.reason).toMatch(/"Punta Fria" is loaded only outside the record's stated units: Punta Fria \(towns:t4; .*\); none lies within 25 km of a loaded place of the stated unit, .*\[CHOICE justOutsideMeters/);
+    expect(result.reason).toMatch(/"Punta Fria" is loaded only outside the record's stated units: Punta Fria \(towns:t4; .*\); none lies within 25 km of a loaded place of the stated unit, .*\[CHOICE justOutsideMeters, unitEdgeByPlaces/);
   });
 
   it('lets the allowance grow with the offset: the point, not the town, must lie in the state', () => {
@@ -68,7 +68,7 @@ describe('a place loaded only outside the stated state, no polygon of it loaded'
     // to tens of km: half of 10 km; Chapman & Wieczorek 2020, offset precision table).
     const result = locate(store, { locality: '150 km W of Punta Fria', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
-    expect(result.georeference!.remarks[0]).toContain(`but lies at most ${km('t4', 't1').toFixed(1)} km outside it, the distance to Alisos (towns:t1), the nearest loaded place inside it: accepted, within the 180 km allowed`);
+    expect(result.georeference!.remarks[0]).toContain(`but just outside it: ${km('t4', 't1').toFixed(1)} km from its nearest loaded place, Alisos (towns:t1), so at most that far outside it, as no polygon of it is loaded: accepted, within the 180 km allowed`);
   });
 
   it('declines namesakes both just outside as ambiguous', () => {
@@ -83,7 +83,7 @@ describe('a place loaded only outside the stated state, no polygon of it loaded'
     const result = locate(store, { locality: 'San Telmo, Estado de Levante', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.features[0]!.featureId).toBe('t5');
-    expect(result.georeference!.remarks[0]).toMatch(/lies in "Levante", which the text names/);
+    expect(result.georeference!.remarks[0]).toMatch(/just outside it, in "Levante", which the text names/);
   });
 
   it('puts the line halfway when the text names the unit the place lies in ("Near Villa Capital, Distrito Capital")', () => {
@@ -93,9 +93,37 @@ describe('a place loaded only outside the stated state, no polygon of it loaded'
     const result = locate(store, { locality: 'Near Villa Capital, Distrito Capital.', countryCode: 'QV', stateProvince: 'Poniente' });
     expect(result.status).toBe('georeferenced');
     expect(result.georeference!.remarks[0]).toBe(
-      `"Villa Capital" is not inside the record's state/province "Poniente" (state/province 'Distrito Capital', not the one given) but lies in "Distrito Capital", which the text names, about ${(km('t7', 't1') / 2).toFixed(1)} km outside it: half the ${km('t7', 't1').toFixed(1)} km to Alisos (towns:t1), the nearest loaded place inside it, the two units meeting between them: accepted, within the 25 km allowed, the unit's loaded places standing for its extent, as no polygon of it is loaded [CHOICE justOutsideMeters, src/georef/method-defaults.ts]`,
+      `"Villa Capital" is not inside the record's state/province "Poniente" (state/province 'Distrito Capital', not the one given) but just outside it, in "Distrito Capital", which the text names: ${km('t7', 't1').toFixed(1)} km from its nearest loaded place, Alisos (towns:t1), the line between the two units put halfway, about ${(km('t7', 't1') / 2).toFixed(1)} km outside it, as no polygon of it is loaded: accepted, within the 25 km allowed [CHOICE justOutsideMeters, unitEdgeByPlaces, src/georef/method-defaults.ts]`,
     );
   });
+});
+
+describe('how far outside the stated state a place lies, told from its loaded places [CHOICE unitEdgeByPlaces]', () => {
+  // Input and expected side by side: text, choice, the status, and the distance the remark gives as outside the
+  // state (Vincenty on WGS84 from the rows above). Villa Capital to Alisos 41.9 km: beyond 25 km as an upper
+  // bound, 20.9 km with the line put halfway; Las Garzas to Alisos 20.9 km.
+  const cases: { text: string; edge: 'nearest place' | 'halfway' | 'off'; status: string; outsideKm?: number }[] = [
+    { text: 'Las Garzas', edge: 'nearest place', status: 'georeferenced', outsideKm: km('t3', 't1') },
+    { text: 'Las Garzas', edge: 'halfway', status: 'georeferenced', outsideKm: km('t3', 't1') / 2 },
+    { text: 'Las Garzas', edge: 'off', status: 'not-found' },
+    { text: 'Near Villa Capital', edge: 'nearest place', status: 'not-found' },
+    { text: 'Near Villa Capital', edge: 'halfway', status: 'georeferenced', outsideKm: km('t7', 't1') / 2 },
+    { text: 'Near Villa Capital, Distrito Capital.', edge: 'off', status: 'not-found' },
+  ];
+  for (const c of cases) {
+    it(`"${c.text}" with '${c.edge}': ${c.status}`, () => {
+      const result = locate(store, { locality: c.text, countryCode: 'QV', stateProvince: 'Poniente', options: { unitEdgeByPlaces: c.edge } });
+      expect(result.status).toBe(c.status);
+      if (c.outsideKm === undefined) {
+        expect(result.reason).toMatch(/loaded only outside the record's stated units/);
+        if (c.edge === 'off') expect(result.reason).toContain('no polygon of the stated unit is loaded to tell how far outside, so none is taken [CHOICE justOutsideMeters, unitEdgeByPlaces');
+        return;
+      }
+      const remark = result.georeference!.remarks[0]!;
+      expect(remark).toContain(c.edge === 'halfway' ? `the line between the two units put halfway, about ${c.outsideKm.toFixed(1)} km outside it` : `so at most that far outside it`);
+      expect(remark).toContain('[CHOICE justOutsideMeters, unitEdgeByPlaces, src/georef/method-defaults.ts]');
+    });
+  }
 });
 
 describe('a place loaded only outside the stated county, no polygon of it loaded', () => {
@@ -104,7 +132,7 @@ describe('a place loaded only outside the stated county, no polygon of it loaded
     expect(km('t11', 't10')).toBeCloseTo(15.6, 1);
     const result = locate(store, { locality: 'El Molino', countryCode: 'QV', stateProvince: 'Poniente', county: 'Alisos' });
     expect(result.status).toBe('georeferenced');
-    expect(result.georeference!.remarks[0]).toContain(`"El Molino" is not inside the record's county "Alisos" (county 'Cerrillos', not the one given) but lies at most ${km('t11', 't10').toFixed(1)} km outside it, the distance to Valle Hondo (towns:t10)`);
+    expect(result.georeference!.remarks[0]).toContain(`"El Molino" is not inside the record's county "Alisos" (county 'Cerrillos', not the one given) but just outside it: ${km('t11', 't10').toFixed(1)} km from its nearest loaded place, Valle Hondo (towns:t10)`);
   });
 });
 
