@@ -251,7 +251,7 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     expect(clipped).toBeGreaterThan(20);
     // The states' own polygons beside the footprints, in WGS84, and every footprint tested against its state
     // (the .dbf has no .cpg: GDAL is told its code page, as whereabouts assumes it by default)
-    gdal('ogr2ogr', '--config', 'SHAPE_ENCODING', 'CP1252', '-update', '-append', '-t_srs', 'EPSG:4326', '-nln', 'states', '-nlt', 'MULTIPOLYGON', out, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-update', '-append', '-t_srs', 'EPSG:4326', '-nln', 'states', '-nlt', 'MULTIPOLYGON', out, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
     const sql =
       'SELECT count(*) AS footprints, sum(ST_Within(f.geom, ST_Buffer(s.geom, 0.00001))) AS inside FROM footprints f JOIN states s ' +
       "ON f.georeferenceRemarks LIKE '%clipped to stateProvince \"' || s.name || '\"%'";
@@ -262,7 +262,7 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
 
   it('the same states as GeoJSON (RFC 7946, written by ogr2ogr) take --feature-type and --country-code-field as the shapefile does, and bound the answer', async () => {
     const geojson = join(dir, 'estados.geojson');
-    gdal('ogr2ogr', '--config', 'SHAPE_ENCODING', 'CP1252', '-f', 'GeoJSON', '-t_srs', 'EPSG:4326', geojson, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-f', 'GeoJSON', '-t_srs', 'EPSG:4326', geojson, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
     const store = join(dir, 'estados-geojson.sqlite');
     const imported = await whereaboutsOn(store, 'import', geojson, '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
     expect(imported.stdout).toMatch(/4 rows read, 4 imported, 0 rejected/);
@@ -278,7 +278,7 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
 
   it('the same states in a UTF-8 .dbf whose .cpg was left out are read as UTF-8, not as Windows-1252 ("SÃ£o Paulo"), and the import says which it read', async () => {
     const folder = mkdtempSync(join(dir, 'utf8-dbf-'));
-    gdal('ogr2ogr', '--config', 'SHAPE_ENCODING', 'CP1252', '-f', 'ESRI Shapefile', '-lco', 'ENCODING=UTF-8', join(folder, 'estados.shp'), '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-f', 'ESRI Shapefile', '-lco', 'ENCODING=UTF-8', join(folder, 'estados.shp'), '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
     rmSync(join(folder, 'estados.cpg'));
     expect(readFileSync(join(folder, 'estados.dbf')).includes(Buffer.from('São Paulo'))).toBe(true); // ã is C3 A3 in UTF-8
     const store = join(dir, 'estados-utf8.sqlite');
