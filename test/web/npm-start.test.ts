@@ -96,7 +96,7 @@ describe('npm start, then a batch review', () => {
   it('accepts a record once a corrected locality gives it a point', async () => {
     await page.fill('#resolve-locality', '3 km N of Vila Serena');
     await page.click('#resolve-locality-submit');
-    await page.waitForSelector('#result-radius');
+    await page.waitForSelector('#r-result-radius');
     expect(await page.textContent('#resolution-note')).toContain('locality text corrected by the reviewer to "3 km N of Vila Serena"');
     expect(await page.isDisabled('#accept')).toBe(false);
     await page.click('#accept');
@@ -107,7 +107,7 @@ describe('npm start, then a batch review', () => {
     await openRow(18); // Santa Rosa: two places of that name
     expect(await page.isDisabled('#accept')).toBe(true);
     await page.click('label[for="rcand-1"]');
-    await page.waitForSelector('#result-radius');
+    await page.waitForSelector('#r-result-radius');
     await page.click('#accept');
     await page.waitForSelector('#review-list tbody tr.accepted[data-row="18"]');
   });
@@ -118,7 +118,7 @@ describe('npm start, then a batch review', () => {
     await page.click('#use-record-coordinates');
     await page.waitForSelector('#resolution-note');
     expect(await page.textContent('#resolution-note')).toMatch(/with the sign of longitude inverted/);
-    expect(await page.textContent('#result-longitude')).toMatch(/^-130\.5/);
+    expect(await page.textContent('#r-result-longitude')).toMatch(/^-130\.5/);
     await page.click('#accept');
     await page.waitForSelector('#review-list tbody tr.accepted[data-row="36"]');
   });
