@@ -162,6 +162,16 @@ export const METHOD_DEFAULTS = {
    */
   honoreeShortForms: 'on' as 'on' | 'off',
   /**
+   * A place name found neither as written nor by the readings above, but as a loaded name with the small words
+   * joining its parts ("de", "del", "da", "do", "dos", "das", "du", "des", "of", "la") left out, added or changed
+   * ("San Manuel Colohete" for San Manuel de Colohete, "Campos de Jordão" for Campos do Jordão) [CHOICE]: 'on'
+   * reads it so, only inside a stated country and state and for names of two or more other words, a documented
+   * reading named in the remarks (ambiguity and the stated units as for any name; src/match/connector-words.ts;
+   * common practice, no source); 'off' leaves it to the near-spelling search. Measured on the real-record sets
+   * (docs/real-records.md).
+   */
+  connectorReadings: 'on' as 'on' | 'off',
+  /**
    * A text that is only the record's country's name in another language than the four read throughout
    * (German, Italian or Dutch from CLDR; Latin from memory), written with its own accents ("a Brasilia",
    * Latin for Brazil), names the country, not a town; when a town also bears that name as written or by
@@ -183,6 +193,14 @@ export const METHOD_DEFAULTS = {
    * by measurement on the real-record sets (docs/real-records.md).
    */
   statedUnitReadings: 'on' as 'on' | 'off',
+  /**
+   * The record's state or province written by the former name of a unit since renamed ("Distrito Federal" in
+   * Mexico, ISO 3166-2 MX-DIF, now MX-CMX Ciudad de México) [CHOICE]: 'on' reads it as the renamed unit when
+   * the gazetteer loads it by a present name, from a small cited table (src/match/former-unit-names.ts), and
+   * says so in the remarks; 'off' keeps it as written, which walls off every place recorded in a named unit.
+   * Measured on the real-record sets (docs/real-records.md).
+   */
+  formerUnitNames: 'on' as 'on' | 'off',
   /**
    * A leading clause of a record stating no state that is a name of a state or province in the gazetteer's
    * unit-name table ("US, Colorado, Vail") [CHOICE]: 'on' reads it as that state, context and not a place,

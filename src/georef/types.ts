@@ -62,10 +62,14 @@ export interface MethodOptions {
   olderSpellings?: 'on' | 'off';
   /** A name found only as the first words of an official long form "X de <honoree>" of its stated state ("Texcoco" for Texcoco de Mora): read as its short form, 'on' (default) or 'off' ([CHOICE]). */
   honoreeShortForms?: 'on' | 'off';
+  /** A name found by no other reading, read with the words joining its parts left out, added or changed ("San Manuel Colohete"), inside a stated state: 'on' (default) or 'off' ([CHOICE]). */
+  connectorReadings?: 'on' | 'off';
   /** A text that is only the record's country's name in another language (Latin "Brasilia"), which a town also bears: 'review' (default, ambiguous) or 'town' ([CHOICE]). */
   countryExonymTown?: 'review' | 'town';
   /** The record's state or province that names no loaded unit, read as the one loaded unit it names by a looser reading ("Labrador"): 'on' (default) or 'off' ([CHOICE]). */
   statedUnitReadings?: 'on' | 'off';
+  /** The record's state or province written by a renamed unit's former name ("Distrito Federal" in Mexico), read as that unit: 'on' (default) or 'off' ([CHOICE]). */
+  formerUnitNames?: 'on' | 'off';
   /** A leading clause naming a loaded state of a record stating none, read as that state when the next clause's place lies in it ("US, Colorado, Vail"), and a hierarchy's head naming a state read as the state, not a town ("BOCAS DEL TORO: …"): 'on' (default) or 'off' ([CHOICE]). */
   headStateByPlace?: 'on' | 'off';
   /** A protected area the gazetteer lacks, named after a town: the town stands in, widened, when "of" joins its name ('of', default), also in apposition ('any'), or never ('decline') ([CHOICE]). */

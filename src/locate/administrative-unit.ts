@@ -5,8 +5,9 @@
  * gazetteer is reached only through the CandidateFinder it is given.
  */
 import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
-import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReading, shortFormKey } from '../match/context.ts';
+import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReader, shortFormKey } from '../match/context.ts';
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
+import { formerUnitName } from '../match/former-unit-names.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
 import { SETTLEMENTS } from './feature-kind.ts';
@@ -280,19 +281,28 @@ export function seatNames(unit: NamedUnit): string[] {
  * statedUnitReadings, src/georef/method-defaults.ts].
  * @example readStatedState(store, { countryCode: 'CA', stateProvince: 'Labrador' }).context.stateProvince // 'newfoundland and labrador'
  */
-export function readStatedState(finder: CandidateFinder, context: AdministrativeContext): { context: AdministrativeContext; note?: string } {
+export function readStatedState(
+  finder: CandidateFinder,
+  context: AdministrativeContext,
+  choices: { statedUnitReadings: 'on' | 'off'; formerUnitNames: 'on' | 'off' } = METHOD_DEFAULTS,
+): { context: AdministrativeContext; note?: string } {
   const stated = context.stateProvince;
   if (!stated || !finder.unitNames) return { context };
+  // First, as the unit-name table is not held by country: Mexico's former "Distrito Federal" is also a name of Brazil's.
+  const renamed = choices.formerUnitNames === 'on' ? renamedUnit(finder, context.countryCode, stated) : undefined;
+  if (renamed) return renamed(context);
+  if (choices.statedUnitReadings === 'off') return { context };
   // Named as the matcher names it: by its key, or by the short form of an official long name either side.
   const key = administrativeKey(stated);
   const short = shortFormKey(stated);
   if (finder.unitNames(1, key).length > 0 || finder.unitNames(1, short).length > 0) return { context };
   const names = finder.unitNames(1);
-  const named = (unitKey: string) => unitKey.startsWith(`${short} `) && !looseUnitReading(key, unitKey);
+  const reading = looseUnitReader(key);
+  const named = (unitKey: string) => unitKey.startsWith(`${short} `) && !reading(unitKey);
   if (names.length === 0 || names.some((name) => named(name.key))) return { context };
   const read = new Map<string, string>();
   for (const name of names) {
-    const how = looseUnitReading(key, name.key);
+    const how = reading(name.key);
     if (how && !read.has(name.unitKey)) read.set(name.unitKey, how);
   }
   if (read.size === 1) {
@@ -303,6 +313,22 @@ export function readStatedState(finder: CandidateFinder, context: Administrative
     };
   }
   return read.size === 0 ? withinSeatState(finder, context, stated) : { context };
+}
+
+/**
+ * A stated state or province written by the former name of a renamed unit (src/match/former-unit-names.ts:
+ * "Distrito Federal" in Mexico), when the gazetteer loads the unit by one of its present names: the context
+ * read as that unit, with the note naming the change and its source [CHOICE formerUnitNames,
+ * src/georef/method-defaults.ts]; undefined otherwise.
+ */
+function renamedUnit(finder: CandidateFinder, countryCode: string | undefined, stated: string): ((context: AdministrativeContext) => { context: AdministrativeContext; note: string }) | undefined {
+  const renamed = formerUnitName(countryCode, stated);
+  const unit = renamed?.current.flatMap((name) => finder.unitNames!(1, administrativeKey(name)))[0]?.unitKey;
+  if (!renamed || unit === undefined) return undefined;
+  return (context) => ({
+    context: { ...context, stateProvince: unit },
+    note: `the record's state/province "${stated}" is the former name of the unit now named ${renamed.current.map((name) => `"${name}"`).join(' or ')} (${renamed.source}); read as the loaded unit "${unit}" [CHOICE formerUnitNames, src/georef/method-defaults.ts]`,
+  });
 }
 
 /**

@@ -130,9 +130,12 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   if ('problem' in datum) return { status: 'unparseable', interpretation: headless, candidates: [], reason: datum.problem };
   const options = { ...request.options, datum: datum.epsg };
   // A state or county the text's hierarchy names bounds the search as the record's would; a stated state the
-  // gazetteer knows by another form is read as that unit [CHOICE statedUnitReadings].
+  // gazetteer knows by another form [CHOICE statedUnitReadings] or by its former name [CHOICE formerUnitNames] is read as that unit.
   const stated = contextOf(request, headless);
-  const { context, note } = (options.statedUnitReadings ?? METHOD_DEFAULTS.statedUnitReadings) === 'on' ? readStatedState(finder, stated) : { context: stated };
+  const { context, note } = readStatedState(finder, stated, {
+    statedUnitReadings: options.statedUnitReadings ?? METHOD_DEFAULTS.statedUnitReadings,
+    formerUnitNames: options.formerUnitNames ?? METHOD_DEFAULTS.formerUnitNames,
+  });
   const interpretation = note ? { ...headless, notes: [...headless.notes, note] } : headless;
   if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
     throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
@@ -632,8 +635,14 @@ function contextOf(request: LocateRequest, interpretation: Interpretation): Admi
 
 function featureQuery(name: string, context: AdministrativeContext, interpretation: Interpretation, options: LocateOptions): CandidateQuery {
   // [CHOICE olderSpellings, src/georef/method-defaults.ts]: the places of the text may be written in an older spelling;
-  // [CHOICE honoreeShortForms]: or by the short form of an official long name.
-  const spelling = { olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings, honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms, language: interpretation.language };
+  // [CHOICE honoreeShortForms]: or by the short form of an official long name; [CHOICE connectorReadings]: or
+  // without the words joining its parts, inside a stated state.
+  const spelling = {
+    olderSpellings: options.olderSpellings ?? METHOD_DEFAULTS.olderSpellings,
+    honoreeShortForms: options.honoreeShortForms ?? METHOD_DEFAULTS.honoreeShortForms,
+    connectorReadings: options.connectorReadings ?? METHOD_DEFAULTS.connectorReadings,
+    language: interpretation.language,
+  };
   return interpretation.type === 'junction'
     ? { name, context, geometryTypes: LINES, withGeometry: true, ...spelling }
     : { name, context, ...spelling };

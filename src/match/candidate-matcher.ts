@@ -16,7 +16,8 @@ import { scoreFuzzy } from './fuzzy-score.ts';
 import { WordCache } from './word-cache.ts';
 import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
-import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms } from './older-spelling.ts';
+import { withoutConnectors } from './connector-words.ts';
+import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms, tilSpellingReadings } from './older-spelling.ts';
 import { withNameKind } from './name-kind.ts';
 import { mergeSamePlaces } from './same-place.ts';
 import { honoreeCountry, honoreeLongForm } from './short-form.ts';
@@ -171,7 +172,9 @@ export class CandidateMatcher {
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
     const older = exact.length > 0 || query.olderSpellings !== 'on' ? [] : this.olderSpellingCandidates(query, context).filter(fits);
     const written = exact.length > 0 ? exact : older;
-    const read = written.length > 0 || query.honoreeShortForms !== 'on' ? written : this.shortFormCandidates(query, context, (feature) => misfit(feature) === null).filter(fits);
+    const kept = (feature: Feature) => misfit(feature) === null;
+    const short = written.length > 0 || query.honoreeShortForms !== 'on' ? written : this.shortFormCandidates(query, context, kept).filter(fits);
+    const read = short.length > 0 || query.connectorReadings !== 'on' ? short : this.connectorCandidates(query, context, kept).filter(fits);
     const candidates = read.length > 0 || query.nearSpellings === 'off' ? read : this.fuzzyCandidates(query.name, context, pool).filter(fits);
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
@@ -227,8 +230,8 @@ export class CandidateMatcher {
    */
   private olderSpellingCandidates(query: CandidateQuery, context: ResolvedContext): Candidate[] {
     const reforms = spellingReforms(context.countryCodes, query.language);
-    const readings = nameVariants(query.name).flatMap((variant) => olderSpellingReadings(variant.key, reforms)
-      .map((older) => ({ key: older.key, change: variant.change ? `${variant.change}, ${older.change}` : older.change })));
+    const readings = [...tilSpellingReadings(query.name, reforms), ...nameVariants(query.name).flatMap((variant) => olderSpellingReadings(variant.key, reforms)
+      .map((older) => ({ key: older.key, change: variant.change ? `${variant.change}, ${older.change}` : older.change })))];
     return this.candidatesByKeys(readings.slice(0, MAX_OLDER_SPELLINGS));
   }
 
@@ -245,12 +248,10 @@ export class CandidateMatcher {
     const older = query.olderSpellings === 'on' ? olderSpellingReadings(folded, spellingReforms(context.countryCodes, query.language)).slice(0, MAX_OLDER_SPELLINGS) : [];
     const found: Candidate[] = [];
     for (const reading of [{ key: folded } as NameVariant, ...older]) {
-      const words = reading.key.split(' ').map((word) => this.index.token(word));
-      if (reading.key === '' || words.some((word) => word === undefined)) continue;
-      const rarest = (words as IndexedToken[]).reduce((a, b) => (b.df < a.df ? b : a));
-      if (rarest.df > POSTING_BUDGET) return [];
-      const ids = [...new Set(this.index.postings([rarest.id], countryList(context), POSTING_BUDGET).map((posting) => posting.feature))];
-      const longer = this.index.namesOf(ids).filter(({ names }) => names.some((name) => foldName(name).startsWith(`${reading.key} `)));
+      const named = this.namesByRarestWord(reading.key, context);
+      if (named === 'too common') return [];
+      if (named === 'not indexed') continue;
+      const longer = named.filter(({ names }) => names.some((name) => foldName(name).startsWith(`${reading.key} `)));
       const features = longer.length === 0 ? new Map<number, Feature>() : this.index.features(longer.map(({ id }) => id));
       for (const { id, names } of longer) {
         const feature = features.get(id);
@@ -264,6 +265,45 @@ export class CandidateMatcher {
       }
     }
     return found;
+  }
+
+  /**
+   * Features whose name is the query's with the words joining its parts left out, added or changed
+   * (connector-words.ts: "San Manuel Colohete" for San Manuel de Colohete), read only inside a stated country and
+   * state, each kept by the context (`kept`), through the postings of the rarest other word.
+   */
+  private connectorCandidates(query: CandidateQuery, context: ResolvedContext, kept: (feature: Feature) => boolean): Candidate[] {
+    const folded = foldName(query.name);
+    const bare = withoutConnectors(folded);
+    if (bare === null || context.stateProvinceKey === undefined || context.countryCodes.size === 0) return [];
+    const named = this.namesByRarestWord(bare, context);
+    if (typeof named === 'string') return [];
+    const joined = named.flatMap(({ id, names }) => {
+      const written = names.find((name) => foldName(name) !== folded && withoutConnectors(foldName(name)) === bare);
+      return written === undefined ? [] : [{ id, written }];
+    });
+    const features = joined.length === 0 ? new Map<number, Feature>() : this.index.features(joined.map(({ id }) => id));
+    return joined.flatMap(({ id, written }) => {
+      const feature = features.get(id);
+      if (feature === undefined || !kept(feature)) return [];
+      const which = written === feature.name ? 'name' : `alternate name '${written}'`;
+      const change = `'${folded}' read as '${foldName(written)}', the words joining its parts left out, added or changed [CHOICE connectorReadings, src/georef/method-defaults.ts]`;
+      return [{ feature, score: READING_SCORE, matchedName: written, why: `exact ${which} with ${change}` }];
+    });
+  }
+
+  /**
+   * The names of the features of the context's countries holding the rarest word of `key`, by their ids, read
+   * through that word's postings: 'not indexed' when a word of the key is in no stored name, 'too common' when
+   * the rarest word's postings exceed the posting budget (the names could not all be read).
+   */
+  private namesByRarestWord(key: string, context: ResolvedContext): { id: number; names: string[] }[] | 'not indexed' | 'too common' {
+    const words = key.split(' ').map((word) => this.index.token(word));
+    if (key === '' || words.some((word) => word === undefined)) return 'not indexed';
+    const rarest = (words as IndexedToken[]).reduce((a, b) => (b.df < a.df ? b : a));
+    if (rarest.df > POSTING_BUDGET) return 'too common';
+    const ids = [...new Set(this.index.postings([rarest.id], countryList(context), POSTING_BUDGET).map((posting) => posting.feature))];
+    return this.index.namesOf(ids);
   }
 
   /** Features whose folded name, alternate name or one of their readings equals one of the keys (`enough` as for exactCandidates). */

@@ -110,16 +110,44 @@ const CONJUNCTIONS = new Set(['and', 'y', 'e', 'et']);
  * @example looseUnitReading('aisen', 'aysen') // 'one letter apart'
  */
 export function looseUnitReading(statedKey: string, unitKey: string): string | null {
-  const words = (key: string) => key.split(' ').map((word) => (CONJUNCTIONS.has(word) ? 'and' : word));
-  const stated = words(statedKey);
-  const unit = words(unitKey);
-  if (stated.join('') === unit.join('')) return stated.join(' ') === unit.join(' ') ? 'another language\'s "and"' : 'written with or without spaces';
-  const parts = (w: string[]) => w.join(' ').split(' and ').filter((part) => part !== '');
-  if (parts(unit).length > 1 && parts(unit).includes(stated.join(' '))) return 'one of the names the unit joins';
-  if (parts(stated).length > 1 && parts(stated).includes(unit.join(' '))) return 'one of the names the unit joins';
-  const compact = [stated.join(''), unit.join('')];
-  if (Math.min(compact[0]!.length, compact[1]!.length) >= 5 && editDistance(compact[0]!, compact[1]!, 1) <= 1) return 'one letter apart';
-  return null;
+  return looseUnitReader(statedKey)(unitKey);
+}
+
+/**
+ * looseUnitReading with the stated key read once, for a stated unit compared with every loaded unit's
+ * name: the stated side's words and parts are not worked out again for each of thousands of names.
+ * @example ['aysen', 'ohio'].map(looseUnitReader('aisen')) // ['one letter apart', null]
+ */
+export function looseUnitReader(statedKey: string): (unitKey: string) => string | null {
+  const stated = unitKeyReading(statedKey);
+  const statedParts = stated.parts.length > 1 ? new Set(stated.parts) : new Set<string>();
+  return (unitKey) => {
+    // Most loaded names neither join two names nor come within a letter of the stated one's length: told
+    // apart by their length alone (their words unchanged, without spaces), as the readings below would.
+    if (statedParts.size === 0 && !JOINING_WORD.test(unitKey) && Math.abs(lengthWithoutSpaces(unitKey) - stated.compact.length) > 1) return null;
+    const unit = unitKeyReading(unitKey);
+    if (stated.compact === unit.compact) return stated.joined === unit.joined ? 'another language\'s "and"' : 'written with or without spaces';
+    if (unit.parts.length > 1 && unit.parts.includes(stated.joined)) return 'one of the names the unit joins';
+    if (statedParts.has(unit.joined)) return 'one of the names the unit joins';
+    if (Math.min(stated.compact.length, unit.compact.length) >= 5 && editDistance(stated.compact, unit.compact, 1) <= 1) return 'one letter apart';
+    return null;
+  };
+}
+
+/** A conjunction (CONJUNCTIONS) written as a word of a key. */
+const JOINING_WORD = new RegExp(`(?:^| )(?:${[...CONJUNCTIONS].join('|')})(?= |$)`);
+
+function lengthWithoutSpaces(key: string): number {
+  let spaces = 0;
+  for (let i = 0; i < key.length; i++) if (key.charCodeAt(i) === 32) spaces++;
+  return key.length - spaces;
+}
+
+/** A unit key's words with every conjunction read as "and": joined by spaces, joined without them, and the names it joins. */
+function unitKeyReading(key: string): { joined: string; compact: string; parts: string[] } {
+  const words = key.split(' ').map((word) => (CONJUNCTIONS.has(word) ? 'and' : word));
+  const joined = words.join(' ');
+  return { joined, compact: words.join(''), parts: joined.split(' and ').filter((part) => part !== '') };
 }
 
 /** The context a candidate must fit, resolved once per query. */

@@ -12,13 +12,15 @@
  *   rh and ch for /k/, the letters y, k and w (y → i; k → qu before e and i, c elsewhere; w → v or u),
  *   most doubled consonants, and the silent h between vowels; they fixed j or g before e and i by the
  *   word's origin (Lages → Lajes). From memory; "Bahia" kept its h by custom, which is why each rule is
- *   only a possible reading and the gazetteer decides.
+ *   only a possible reading and the gazetteer decides. The same reforms write a word's final nasal a
+ *   with the til, "ã", where older spellings wrote "an" ("Camaquan" → Camaquã); gazetteers hold towns
+ *   in either spelling ("Camacan" beside the labels' "Camacã"), so the til is read both ways. From memory.
  * - Spanish: the Real Academia Española's Ortografía of 1815 wrote j, not x, for the sound /x/
  *   (Xalapa → Jalapa, Méjico for México), and i, not y, for the vowel (Ysla → Isla). Many Mexican
  *   names kept or took back the x, so x and j are read both ways. From memory.
  */
 import type { Language } from '../parse/types.ts';
-import type { NameVariant } from './fold.ts';
+import { nameVariants, type NameVariant } from './fold.ts';
 
 /** The spelling reforms whose older forms a name may be written in. */
 export type SpellingReform = 'portuguese' | 'spanish';
@@ -52,6 +54,8 @@ const RULES: readonly SpellingRule[] = [
   { reform: 'portuguese', older: /(?<=[aeiouy])h(?=[aeiouy])/g, modern: [''], says: "a silent 'h' between vowels" },
   { reform: 'portuguese', older: /g(?=[eiy])/g, modern: ['j'], says: "'g' and 'j' before e or i", eitherWay: true },
   { reform: 'portuguese', older: /j(?=[eiy])/g, modern: ['g'], says: "'g' and 'j' before e or i", eitherWay: true },
+  // A folded "ã" is "a": "an" ending a word of two syllables or more stands for it.
+  { reform: 'portuguese', older: /(?<=[a-z][aeiouy][^aeiouy ]?)an(?= |$)/g, modern: ['a'], says: "'an' for a final 'ã'" },
   { reform: 'spanish', older: /x/g, modern: ['j'], says: "'x' and 'j' for one sound", eitherWay: true },
   { reform: 'spanish', older: /j/g, modern: ['x'], says: "'x' and 'j' for one sound", eitherWay: true },
   { reform: 'spanish', older: /y(?![aeiou])/g, modern: ['i'], says: "'y' for the vowel 'i'" },
@@ -123,6 +127,24 @@ export function olderSpellingReadings(folded: string, reforms: readonly Spelling
     variants.push({ key, change: `'${folded}' read as ${reading} '${key}' (${describeRules(rules)})` });
   }
   return variants;
+}
+
+/** A word's final "ã" as written (before folding erases the til), the letters the older spelling wrote for it. */
+const FINAL_TIL = /ã(?!\p{L})/giu;
+
+/**
+ * The older spellings of a name as written whose words end in "ã" ("Camacã" → "Camacan"), for
+ * gazetteers that keep a town's older spelling; the til is erased by folding, so this reads the written
+ * name. Each reading is folded with its other readings (nameVariants); none unless the Portuguese reform is read.
+ * @example tilSpellingReadings('Camacã', ['portuguese'])[0]
+ * // { key: 'camacan', change: "'camacã' read as the modern spelling of 'camacan' ('an' for a final 'ã'; Portuguese reform of 1911, …)" }
+ */
+export function tilSpellingReadings(written: string, reforms: readonly SpellingReform[]): NameVariant[] {
+  const composed = written.normalize('NFC');
+  const older = composed.replace(FINAL_TIL, (til) => (til === 'Ã' ? 'AN' : 'an'));
+  if (!reforms.includes('portuguese') || older === composed) return [];
+  const says = `'${composed.toLowerCase()}' read as the modern spelling of '${older.toLowerCase()}' ('an' for a final 'ã'; ${PORTUGUESE_SOURCE})`;
+  return nameVariants(older).map((variant) => ({ key: variant.key, change: variant.change ? `${says}, ${variant.change}` : says }));
 }
 
 /** Where each rule applies in a name, the places not overlapping (the earlier rule keeps a letter). */

@@ -124,6 +124,12 @@ export interface CandidateQuery {
    * (src/match/short-form.ts): 'on' or 'off' (default). The METHOD_DEFAULTS choice `honoreeShortForms` sets it.
    */
   honoreeShortForms?: 'on' | 'off';
+  /**
+   * When the name is found by none of the readings above, also read it with the words joining its parts left
+   * out, added or changed ("San Manuel Colohete" for San Manuel de Colohete; src/match/connector-words.ts), only
+   * inside a stated country and state: 'on' or 'off' (default). The METHOD_DEFAULTS choice `connectorReadings` sets it.
+   */
+  connectorReadings?: 'on' | 'off';
 }
 
 /** Finds candidate features for a name: the store implements it; the core only calls it. */
@@ -147,7 +153,7 @@ export interface CandidateFinder {
    * with its unit's comparison key (administrativeKey); empty when the gazetteer records none (optional for
    * other finders).
    */
-  unitNames?(level: 1 | 2, key?: string): UnitName[];
+  unitNames?(level: 1 | 2, key?: string): readonly UnitName[];
 }
 
 /** One name of a loaded administrative unit: its key and its unit's key (both administrativeKey). */

@@ -138,7 +138,7 @@ interface SourceRow {
 export interface GazetteerStore extends CandidateFinder {
   lookupCandidates(query: CandidateQuery): CandidateLookup;
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null;
-  unitNames(level: 1 | 2, key?: string): UnitName[];
+  unitNames(level: 1 | 2, key?: string): readonly UnitName[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
   /**
@@ -177,7 +177,7 @@ export interface OpenOptions {
   /**
    * Query words' stored neighbours kept between lookups, in KiB of heap (estimated; default 32768, 0
    * keeps none): at most this much besides SQLite's cache. Never changes an answer; cleared by an
-   * import, a source's removal or another connection's write.
+   * import, a source's removal or another connection's write (as are a level's unit names, see unitNames).
    */
   wordCacheKiB?: number;
 }
@@ -191,6 +191,9 @@ class SqliteGazetteer implements GazetteerStore {
   private readonly db: Database.Database;
   private readonly statements: Statements;
   private readonly matcher: CandidateMatcher;
+  /** Every unit name of a level as read at `levelNamesVersion` of the file (see unitNames). */
+  private readonly levelNames = new Map<1 | 2, readonly UnitName[]>();
+  private levelNamesVersion = -1;
 
   constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number, wordCacheBytes: number) {
     let db = new Database(path, { readonly, fileMustExist: readonly });
@@ -233,8 +236,23 @@ class SqliteGazetteer implements GazetteerStore {
     return this.matcher.nearestPlace(query);
   }
 
-  unitNames(level: 1 | 2, key?: string): UnitName[] {
-    return (key === undefined ? this.statements.unitNamesAt.all(level) : this.statements.unitNamesByKey.all(key, level)) as UnitName[];
+  unitNames(level: 1 | 2, key?: string): readonly UnitName[] {
+    if (key !== undefined) return this.statements.unitNamesByKey.all(key, level) as UnitName[];
+    // A stated unit the gazetteer does not know reads every name of its level, a whole table (10 ms and
+    // more a record): read once until the file changes, as the word cache is (data_version moves when
+    // another connection commits, in or out of asOfOneMoment; this connection's writes call forgetReadings).
+    // Frozen, as every caller is handed the same rows.
+    const version = this.statements.dataVersion.get() as number;
+    if (version !== this.levelNamesVersion) {
+      this.levelNames.clear();
+      this.levelNamesVersion = version;
+    }
+    let names = this.levelNames.get(level);
+    if (names === undefined) {
+      names = Object.freeze((this.statements.unitNamesAt.all(level) as UnitName[]).map((name) => Object.freeze(name)));
+      this.levelNames.set(level, names);
+    }
+    return names;
   }
 
   countryOutlines(countryCode: string): Feature[] {
@@ -269,7 +287,7 @@ class SqliteGazetteer implements GazetteerStore {
   }
 
   removeSource(id: string): boolean {
-    this.matcher.forgetTokenMatches();
+    this.forgetReadings();
     const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
     if (row === undefined) return false;
     this.db.transaction(() => {
@@ -288,7 +306,7 @@ class SqliteGazetteer implements GazetteerStore {
     db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = MEMORY');
-    this.matcher.forgetTokenMatches();
+    this.forgetReadings();
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
@@ -331,7 +349,7 @@ class SqliteGazetteer implements GazetteerStore {
       postings.discard();
       db.pragma('synchronous = NORMAL');
       staging = null;
-      this.matcher.forgetTokenMatches();
+      this.forgetReadings();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
     return {
@@ -400,6 +418,12 @@ class SqliteGazetteer implements GazetteerStore {
 
   close(): void {
     this.db.close();
+  }
+
+  /** Forgets what lookups keep between them: this connection's own writes do not move data_version. */
+  private forgetReadings(): void {
+    this.matcher.forgetTokenMatches();
+    this.levelNames.clear();
   }
 
   private deleteSourceRows(sourceRowId: number): void {

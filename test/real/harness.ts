@@ -21,7 +21,7 @@
  *   folded text (accents, case and punctuation folded, runs crossing punctuation) is looked up in the
  *   store exactly, under the name as written and the readings the matcher applies to any name
  *   (abbreviations, a generic word or leading article left out, older spellings, the short form of an
- *   official long name, as METHOD_DEFAULTS sets them), never by a near spelling (`nearSpellings: 'off'`).
+ *   official long name, a name's joining words left out or changed, as METHOD_DEFAULTS sets them), never by a near spelling (`nearSpellings: 'off'`).
  *   A run naming the record's stated country or state (or the state's short form) is its context, not
  *   a place, and is not counted. Generous on purpose: a town's name inside a road's or
  *   a reserve's name counts too, so answered % of answerable records is a lower bound on how much of
@@ -224,7 +224,7 @@ export function answerabilityOf(store: GazetteerStore, record: RealRecord): Answ
   const state = record.stateProvince ? [administrativeKey(record.stateProvince), shortFormKey(record.stateProvince)] : [];
   const places = [...runs].filter((run) => countryCodeForName(run) !== record.countryCode && !state.includes(administrativeKey(run)));
   const holds = (context: { countryCode?: string; stateProvince?: string }) =>
-    places.some((name) => store.findCandidates({ name, context, nearSpellings: 'off', olderSpellings: METHOD_DEFAULTS.olderSpellings, honoreeShortForms: METHOD_DEFAULTS.honoreeShortForms, limit: 1 }).length > 0);
+    places.some((name) => store.findCandidates({ name, context, nearSpellings: 'off', olderSpellings: METHOD_DEFAULTS.olderSpellings, honoreeShortForms: METHOD_DEFAULTS.honoreeShortForms, connectorReadings: METHOD_DEFAULTS.connectorReadings, limit: 1 }).length > 0);
   if (holds({ countryCode: record.countryCode, stateProvince: record.stateProvince || undefined })) return 'answerable';
   if (record.stateProvince && holds({ countryCode: record.countryCode })) return 'a loaded name only in another state';
   return holds({}) ? 'a loaded name only in another country' : 'no loaded name';
