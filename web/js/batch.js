@@ -134,8 +134,10 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     resolution = {};
     for (const tr of list.tBodies[0].rows) tr.classList.toggle('current', Number(tr.dataset.index) === index);
     list.tBodies[0].rows[index]?.scrollIntoView({ block: 'nearest' });
+    const focusBefore = document.activeElement;
     await loadRecord();
-    if (!keepFocus) recordPanel.focus();
+    // Not when the person has moved the focus while the record loaded: their keys must go where they put them.
+    if (!keepFocus && document.activeElement === focusBefore) recordPanel.focus();
   }
 
   async function loadRecord() {
