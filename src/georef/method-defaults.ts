@@ -155,8 +155,11 @@ export const METHOD_DEFAULTS = {
    * A name found only as the first words of a longer name that is it followed by "de" or "del" and the
    * surname or title of a person honoured, in a Spanish-speaking country ("Texcoco" for Texcoco de Mora,
    * "Jalapa" for Xalapa de Enríquez: an official long form whose town labels call by its own name) [CHOICE]:
-   * 'on' reads it as that town, a documented reading named in the remarks, but only inside a stated state
-   * and only when no other loaded place of that state begins with the name (src/match/short-form.ts);
+   * 'on' reads it as that town, a documented reading named in the remarks, beside (never shadowed by) the
+   * towns its older spellings name, and only when no other loaded place of the stated state begins with the
+   * name (src/match/short-form.ts); without a stated state, the name as written is read in the stated
+   * countries only beside what the older or near spellings find and at no higher a score, so that it is
+   * offered to a person and never taken alone ("Xalapa", MX: Xalapa de Enríquez beside the towns Jalapa);
    * 'off' leaves it to the near-spelling search and nameAsFirstWords. Chosen by measurement on the
    * real-record sets (docs/real-records.md).
    */

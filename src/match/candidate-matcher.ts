@@ -170,12 +170,8 @@ export class CandidateMatcher {
     // matches are the answer, and a common name ('San') need not load its thousands of features.
     const exact = this.exactCandidates(query.name, filtered ? undefined : limit).filter(fits);
     const pool = filtered ? FUZZY_POOL : Math.min(FUZZY_POOL, Math.max(MIN_FUZZY_POOL, 2 * limit));
-    const older = exact.length > 0 || query.olderSpellings !== 'on' ? [] : this.olderSpellingCandidates(query, context).filter(fits);
-    const written = exact.length > 0 ? exact : older;
     const kept = (feature: Feature) => misfit(feature) === null;
-    const short = written.length > 0 || query.honoreeShortForms !== 'on' ? written : this.shortFormCandidates(query, context, kept).filter(fits);
-    const read = short.length > 0 || query.connectorReadings !== 'on' ? short : this.connectorCandidates(query, context, kept).filter(fits);
-    const candidates = read.length > 0 || query.nearSpellings === 'off' ? read : this.fuzzyCandidates(query.name, context, pool).filter(fits);
+    const candidates = exact.length > 0 ? exact : this.readingCandidates(query, context, kept, fits, pool);
     const result = mergeSamePlaces(candidates, this.sourceRank(), limit).map(withNameKind);
     if (query.withGeometry) for (const candidate of result) this.index.attachGeometry(candidate.feature);
     return { candidates: result, dropped, notes };
@@ -236,16 +232,45 @@ export class CandidateMatcher {
   }
 
   /**
+   * Candidates of a name not found as written, through its documented readings and then its near spellings.
+   * The readings are read in turn, each only when those before it find nothing: the short form of an official
+   * long form (shortFormCandidates) together with the older spellings, then the words joining a name's parts,
+   * then near spellings. A short form is read beside the older spellings, listed first, and never shadowed by
+   * them: it keeps every letter written, where an older spelling changes some ("Xalapa" is Xalapa de Enríquez
+   * before it is a Jalapa). Both score READING_SCORE, so neither outranks the other and the choice among them
+   * is left to a person (Chapman & Wieczorek 2020, Georeferencing Best Practices, §The Georeferencing
+   * Process: a locality that may name several places is not resolved by picking one silently; its words on
+   * ambiguity from memory). Listing the short form first is common practice, no source. Without a stated state the short form of the name as written is read in the stated countries
+   * only beside what the other readings found, at no higher a score than the best of them, so that it never
+   * stands alone where its uniqueness inside a state could not be checked ([CHOICE honoreeShortForms]).
+   * @example matcher.lookup({ name: 'Xalapa', context: { countryCode: 'MX' }, olderSpellings: 'on', honoreeShortForms: 'on' })
+   * // Xalapa de Enríquez (short form) beside the towns Jalapa (older spelling), all at 0.97
+   */
+  private readingCandidates(query: CandidateQuery, context: ResolvedContext, kept: (feature: Feature) => boolean, fits: (candidate: Candidate) => boolean, pool: number): Candidate[] {
+    const stated = context.stateProvinceKey !== undefined;
+    const shortForms = () => (query.honoreeShortForms === 'on' ? this.shortFormCandidates(query, context, kept).filter(fits) : []);
+    const older = query.olderSpellings === 'on' ? this.olderSpellingCandidates(query, context).filter(fits) : [];
+    const documented = besideOthers(stated ? shortForms() : [], older);
+    const read = documented.length > 0 || query.connectorReadings !== 'on' ? documented : this.connectorCandidates(query, context, kept).filter(fits);
+    const found = read.length > 0 || query.nearSpellings === 'off' ? read : this.fuzzyCandidates(query.name, context, pool).filter(fits);
+    if (stated || found.length === 0) return found;
+    const best = Math.max(...found.map((candidate) => candidate.score));
+    return besideOthers(shortForms().map((candidate) => ({ ...candidate, score: Math.min(candidate.score, best) })), found);
+  }
+
+  /**
    * Features named "<the name, or its older spelling> de|del <honoree>" in a Spanish-speaking country
-   * (short-form.ts), read only inside a stated state and only when no other feature the context keeps
-   * (`kept`) begins with that name: "Texcoco" for Texcoco de Mora, "Jalapa" for Xalapa de Enríquez.
-   * The features beginning with a name are read through the postings of its rarest word; a word too
-   * common for the posting budget leaves the name unread (its state could not be checked).
+   * (short-form.ts), read only when no other feature the context keeps (`kept`) begins with that name:
+   * "Texcoco" for Texcoco de Mora, "Jalapa" for Xalapa de Enríquez. Inside a stated state the name and its
+   * older spellings are read; without one, only the name as written, in the stated countries (none stated:
+   * none read). The features beginning with a name are read through the postings of its rarest word; a word
+   * too common for the posting budget leaves the name unread (its state could not be checked).
    */
   private shortFormCandidates(query: CandidateQuery, context: ResolvedContext, kept: (feature: Feature) => boolean): Candidate[] {
-    if (context.stateProvinceKey === undefined) return [];
+    const stated = context.stateProvinceKey !== undefined;
+    if (!stated && context.countryCodes.size === 0) return [];
     const folded = foldName(query.name);
-    const older = query.olderSpellings === 'on' ? olderSpellingReadings(folded, spellingReforms(context.countryCodes, query.language)).slice(0, MAX_OLDER_SPELLINGS) : [];
+    const older = stated && query.olderSpellings === 'on' ? olderSpellingReadings(folded, spellingReforms(context.countryCodes, query.language)).slice(0, MAX_OLDER_SPELLINGS) : [];
     const found: Candidate[] = [];
     for (const reading of [{ key: folded } as NameVariant, ...older]) {
       const named = this.namesByRarestWord(reading.key, context);
@@ -740,6 +765,15 @@ function closestEdits(matches: readonly TokenMatch[]): Map<number, number> {
  */
 function closestUnread(matches: readonly TokenMatch[], read: ReadonlySet<number>, closest: ReadonlyMap<number, number>): TokenMatch[] {
   return matches.filter((match) => !read.has(match.id) && match.edits === closest.get(match.index));
+}
+
+/**
+ * The candidates `first` and then `others`, each feature once (where both hold it, as in `first`).
+ * @example besideOthers([xalapaDeEnriquez], [jalapaTabasco, jalapaGuerrero]) // [xalapaDeEnriquez, jalapaTabasco, jalapaGuerrero]
+ */
+function besideOthers(first: readonly Candidate[], others: readonly Candidate[]): Candidate[] {
+  const held = new Set(first.map(({ feature }) => `${feature.sourceId}:${feature.featureId}`));
+  return [...first, ...others.filter(({ feature }) => !held.has(`${feature.sourceId}:${feature.featureId}`))];
 }
 
 /** The name of a feature whose folded form, or one of whose readings, is `key` (with that reading). */

@@ -2,9 +2,10 @@
  * The short form of a town's official long name: in Spanish-speaking countries many towns add to their
  * own name "de" or "del" and the surname or title of a person they honour ("Texcoco de Mora",
  * "Xalapa de Enríquez", "Tixtla de Guerrero"), and labels write the town's own name ("Texcoco", "Jalapa").
- * Read only while [CHOICE honoreeShortForms, src/georef/method-defaults.ts] is 'on', only inside a
- * stated state, and only when no other loaded place of that state begins with the short name (the
- * matcher checks that; a longer name is otherwise most often another place, [CHOICE nameAsFirstWords]).
+ * Read only while [CHOICE honoreeShortForms, src/georef/method-defaults.ts] is 'on', and only when no
+ * other loaded place of the stated state (of the stated countries, when no state is stated) begins with
+ * the short name (the matcher checks that; a longer name is otherwise most often another place, [CHOICE
+ * nameAsFirstWords]); without a stated state only beside what looser readings find, never alone.
  * Common practice in those countries' official names, no source. Pure, no I/O.
  */
 import { FEATURE_KIND_WORDS } from '../parse/lexicon.ts';

@@ -119,9 +119,10 @@ export interface CandidateQuery {
    */
   nearSpellings?: 'on' | 'off';
   /**
-   * When the name is found neither as written nor as an older spelling, also read it as the short form
-   * of a Spanish-speaking country's official long form "X de <honoree>" inside the stated state
-   * (src/match/short-form.ts): 'on' or 'off' (default). The METHOD_DEFAULTS choice `honoreeShortForms` sets it.
+   * When the name is not found as written, also read it as the short form of a Spanish-speaking
+   * country's official long form "X de <honoree>" (src/match/short-form.ts), beside its older spellings:
+   * inside the stated state, or without one only beside what the looser readings find, at no higher a
+   * score (candidate-matcher.ts, readingCandidates): 'on' or 'off' (default). The METHOD_DEFAULTS choice `honoreeShortForms` sets it.
    */
   honoreeShortForms?: 'on' | 'off';
   /**

