@@ -127,9 +127,8 @@ const countryList = (context: ResolvedContext): string[] | null => (context.coun
 
 /**
  * Ranked candidates for names, read through a NameIndex. Keeps the stored tokens matching recent
- * query words (at most `wordCacheBytes`, estimated; 0 keeps none) until the index's version changes;
- * an index's owner calls `forgetTokenMatches` after its own writes (which do not move the version it
- * reports). What is kept never changes an answer: a word's matches are the rows the index gives for it.
+ * query words (at most `wordCacheBytes`, estimated; 0 keeps none) until the index's version changes.
+ * What is kept never changes an answer: a word's matches are the rows the index gives for it.
  * @example new CandidateMatcher(index).lookup({ name: 'Rosario', context: { countryCode: 'AR' } }).candidates[0].why // 'exact name'
  */
 export class CandidateMatcher {
@@ -138,10 +137,6 @@ export class CandidateMatcher {
 
   constructor(private readonly index: NameIndex, wordCacheBytes = WORD_CACHE_BYTES) {
     this.tokenMatches = new WordCache(wordCacheBytes, wordMatchBytes);
-  }
-
-  forgetTokenMatches(): void {
-    this.tokenMatches.clear();
   }
 
   /** Candidates for a name, best first, with those the context dropped and notes on how it was read. */
@@ -553,7 +548,7 @@ export class CandidateMatcher {
    */
   private matchingTokens(token: string, severalTokens: boolean, reach: Reach, poolSize: number): WordView {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
-    // changes (data_version moves when another connection commits; this one's writes clear the cache).
+    // changes (the index's version: another connection's commit or the store's own write).
     const version = this.index.version();
     if (version !== this.tokenMatchVersion) {
       this.tokenMatches.clear();
