@@ -178,7 +178,8 @@ export interface OpenOptions {
   /**
    * Query words' stored neighbours kept between lookups, in KiB of heap (estimated; default 32768, 0
    * keeps none): at most this much besides SQLite's cache. Never changes an answer; cleared by an
-   * import, a source's removal or another connection's write (as are a level's unit names, see unitNames).
+   * import, a source's removal or another connection's write (as are a level's unit names and country
+   * outlines, see unitNames and countryOutlines; content-version.ts).
    */
   wordCacheKiB?: number;
 }
