@@ -11,6 +11,8 @@
 import type { Delimiter } from '../output/csv.ts';
 import { decodedText, type InputFormat } from '../store/input-format.ts';
 
+export { detectDelimiter } from '../store/input-format.ts';
+
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
 export interface InputRecord {
   fields: string[];
@@ -38,31 +40,6 @@ const QUOTE = 0x22;
 const LF = 0x0a;
 const CR = 0x0d;
 
-/**
- * The delimiter of the header line: whichever of comma, semicolon and tab occurs most often outside
- * quotes (comma on a tie or when none occurs, as RFC 4180 has it).
- * @example await detectDelimiter('records.tsv', format) // '\t'
- */
-export async function detectDelimiter(path: string, format: InputFormat): Promise<Delimiter> {
-  let header = '';
-  for await (const chunk of decodedText(path, format) as AsyncIterable<string>) {
-    header += chunk;
-    const end = header.indexOf('\n');
-    if (end >= 0 || header.length > 65_536) {
-      header = end >= 0 ? header.slice(0, end) : header;
-      break;
-    }
-  }
-  const counts = new Map<Delimiter, number>([[',', 0], [';', 0], ['\t', 0]]);
-  let quoted = false;
-  for (const ch of header) {
-    if (ch === '"') quoted = !quoted;
-    else if (!quoted && counts.has(ch as Delimiter)) counts.set(ch as Delimiter, counts.get(ch as Delimiter)! + 1);
-  }
-  let best: Delimiter = ',';
-  for (const [delimiter, count] of counts) if (count > counts.get(best)!) best = delimiter;
-  return best;
-}
 
 /**
  * Every row of the file, the header first. Rows are never dropped: a row whose field count differs from

@@ -184,6 +184,26 @@ export const DATUMS: readonly DatumDefinition[] = [
     accuracyMeters: 9,
     areaOfUse: [-21.78, -73.59, -54.93, -53.65],
   },
+  {
+    epsg: 'EPSG:4619',
+    name: 'SWEREF99',
+    names: ['SWEREF 99', 'SWEREF 1999'],
+    ellipsoid: '+ellps=GRS80',
+    towgs84: identity,
+    transformation: 'EPSG:1879 SWEREF99 to WGS 84 (1), null transformation',
+    accuracyMeters: 1,
+    areaOfUse: [69.07, 10.03, 54.96, 24.17],
+  },
+  {
+    epsg: 'EPSG:4171',
+    name: 'RGF93 v1',
+    names: ['RGF 93', 'RGF 1993', 'RGF93', 'Reseau Geodesique Francais 1993', 'Reseau Geodesique Francais 1993 v1'],
+    ellipsoid: '+ellps=GRS80',
+    towgs84: identity,
+    transformation: 'EPSG:1671 RGF93 v1 to WGS 84 (1), null transformation',
+    accuracyMeters: 1,
+    areaOfUse: [51.56, -9.86, 41.15, 10.38],
+  },
 ];
 
 const byCode = new Map(DATUMS.map((datum) => [datum.epsg, datum]));

@@ -265,12 +265,13 @@ export const FIELD_HEADINGS: ReadonlySet<string> = new Set(
 );
 
 /**
- * Texts that say no place is known, in four languages (whole clause, folded, punctuation dropped:
- * "s. loc." → "s loc").
+ * Texts that say no place is known, or that it is withheld ("[Redacted]", as portal downloads write a
+ * locality their publisher withholds: not a place named "Redacted"), in four languages (whole clause,
+ * folded, punctuation dropped: "s. loc." → "s loc").
  */
 export const REFUSAL_PHRASES: ReadonlySet<string> = new Set(
   [
-    'locality unknown|unknown locality|locality not known|locality not given|no locality|without locality|no locality given|no data|no loc|s loc|sl|s l|sine loco|sine loc|illegible|locality illegible|unknown|not recorded|none|na|n a|no information|not stated|exact locality unknown',
+    'locality unknown|unknown locality|locality not known|locality not given|no locality|without locality|no locality given|no data|no loc|s loc|sl|s l|sine loco|sine loc|illegible|locality illegible|unknown|not recorded|none|na|n a|no information|not stated|exact locality unknown|redacted|locality redacted|withheld|locality withheld|location withheld',
     'sin localidad|localidad desconocida|localidad no indicada|sin datos|sin loc|ilegible|desconocido|desconocida|sin informacion|localidad ilegible|no indicada|sin procedencia',
     'sem localidade|localidade desconhecida|sem dados|sem local|ilegivel|desconhecido|desconhecida|localidade ilegivel|sem procedencia|local desconhecido|localidade nao informada',
     'sans localite|localite inconnue|sans donnees|illisible|inconnu|inconnue|lieu inconnu|localite illisible|sans indication|non precise|localite non precisee',

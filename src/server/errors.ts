@@ -73,8 +73,15 @@ function fieldOf(item: ValidationItem): string {
   return path.join('.');
 }
 
+/** What a pattern asks for, in words, after the pattern itself (which stays for those who read it). */
+const PATTERN_WORDS: Record<string, string> = {
+  '^[A-Za-z]{2}$': 'a two-letter ISO 3166-1 alpha-2 code such as MX; a country\'s name goes in "country"',
+  '^EPSG:[0-9]{4,5}$': 'an EPSG code such as EPSG:4267 (GET /api/v1/datums lists those converted)',
+};
+
 function detail(item: ValidationItem): string {
   if (item.keyword === 'additionalProperties') return `: "${String(item.params.additionalProperty).slice(0, 64)}" is not a field of this request`;
+  if (item.keyword === 'pattern' && PATTERN_WORDS[String(item.params.pattern)]) return `: ${PATTERN_WORDS[String(item.params.pattern)]}`;
   // JSON numbers like 1e999 parse to Infinity, which is no number to the schema.
   if (item.keyword === 'type' && String(item.params.type).includes('number')) return ' (a finite number)';
   return '';

@@ -61,8 +61,8 @@ export function checkFeature(raw: RawFeature, fallbackId: string, radii?: Readon
       radiusIsDefault: false, geometryType: geometry.type as GeometryType, geometry: JSON.stringify(geometry),
     };
   }
-  const latitude = number(geometry !== null ? geometry.coordinates?.[1] : raw.latitude);
-  const longitude = number(geometry !== null ? geometry.coordinates?.[0] : raw.longitude);
+  const latitude = number(geometry !== null ? geometry.coordinates?.[1] : raw.latitude, 'decimal comma');
+  const longitude = number(geometry !== null ? geometry.coordinates?.[0] : raw.longitude, 'decimal comma');
   if (latitude === undefined || longitude === undefined) return 'coordinates missing';
   if (Number.isNaN(latitude)) return `latitude '${String(raw.latitude)}' is not a number`;
   if (Number.isNaN(longitude)) return `longitude '${String(raw.longitude)}' is not a number`;
@@ -87,12 +87,19 @@ function text(value: unknown): string | null {
   return trimmed === '' ? null : trimmed;
 }
 
-/** undefined when absent, NaN when not a plain decimal number. */
-function number(value: unknown): number | undefined {
+/**
+ * undefined when absent, NaN when not a plain decimal number. A coordinate may be written with a decimal
+ * comma (`-8,07556`, as a spreadsheet of Spanish, Portuguese or French settings saves it): no coordinate
+ * has a thousands separator, so the comma can only be the decimal one. A radius may not (`1,500` could be
+ * 1.5 m or 1500 m), so it stays refused.
+ * @example number('-8,07556', 'decimal comma') // -8.07556
+ */
+function number(value: unknown, comma?: 'decimal comma'): number | undefined {
   if (typeof value === 'number') return Number.isFinite(value) ? value : Number.NaN;
   const written = text(value);
   if (written === null) return undefined;
-  return /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(written) ? Number(written) : Number.NaN;
+  const decimal = comma !== undefined && /^[-+]?\d+,\d+$/.test(written) ? written.replace(',', '.') : written;
+  return /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(decimal) ? Number(decimal) : Number.NaN;
 }
 
 function rangeProblem(latitude: number, longitude: number): string | null {

@@ -32,12 +32,35 @@ export function isZipFile(path: string): boolean {
   }
 }
 
+/** Parts of a shapefile that may travel without their `.shp` (ESRI Shapefile Technical Description, 1998, p. 2). */
+const SHAPEFILE_PARTS = /\.(dbf|shx|prj|cpg)$/i;
+
+/**
+ * The refusal of a zip that holds a shapefile's other parts but not its `.shp`.
+ * @example withoutShp('units.zip', ['units.dbf', 'units.prj']) // 'units.zip: holds parts of a shapefile (units.dbf, units.prj) but no .shp, …'
+ */
+export function withoutShp(archive: string, parts: readonly string[]): string {
+  return `${archive}: holds parts of a shapefile (${parts.join(', ')}) but no .shp, the file with the shapes: add the .shp to the zip and import it again`;
+}
+
 /**
  * The data file of an archive: the only text file besides the publisher's readme and language list,
- * or the one named like the archive ("QX.zip" → "QX.txt"); an error names the members otherwise.
+ * or the one named like the archive ("QX.zip" → "QX.txt"); an error names the members otherwise. A
+ * Darwin Core Archive (a `meta.xml` at its root: Darwin Core text guide, TDWG 2023, §2) holds records,
+ * not a gazetteer, and a zip of a shapefile's parts without its `.shp` has no shapes: both are refused
+ * saying so, rather than read as the dump layout.
  * @example dataEntry('QX.zip', ['QX.txt', 'readme.txt']) // 'QX.txt'
  */
 export function dataEntry(archive: string, members: readonly string[]): string {
+  if (members.some((name) => name.toLowerCase() === 'meta.xml')) {
+    throw new Error(
+      `${archive}: a Darwin Core Archive (it holds meta.xml): it holds records to georeference, not a gazetteer; give it to whereabouts batch`,
+    );
+  }
+  const parts = members.filter((name) => SHAPEFILE_PARTS.test(name));
+  if (parts.length > 0 && !members.some((name) => /\.(txt|tsv|csv)$/i.test(name) && !NOT_DATA.test(name))) {
+    throw new Error(withoutShp(archive, parts));
+  }
   const texts = members.filter((name) => !name.endsWith('/') && /\.(txt|tsv|csv)$/i.test(name) && !NOT_DATA.test(name));
   if (texts.length === 1) return texts[0];
   const named = `${basename(archive, extname(archive))}.txt`.toLowerCase();

@@ -15,6 +15,7 @@ import type { Geometry, Position } from 'geojson';
 import * as shapefile from 'shapefile';
 import { crsToWgs84, type CrsToWgs84 } from '../geodesy/crs.ts';
 import type { RawFeature } from './feature-record.ts';
+import { withoutShp } from './file-input.ts';
 
 /** Which attribute gives each gazetteer column, or a value for every feature. */
 export interface GisFieldMap {
@@ -54,7 +55,7 @@ export interface GisRow {
  */
 export async function* readGisFile(filePath: string, format: GisFormat, map: GisFieldMap, notes: string[]): AsyncGenerator<GisRow[]> {
   const layer = format === 'gpkg' ? geoPackageLayer(filePath, map) : await shapefileLayer(filePath, map);
-  notes.push(`layer ${layer.name}: ${layer.crs.description}`);
+  notes.push(`layer ${layer.name}: ${layer.crs.description}`, ...(layer.encodingNote === undefined ? [] : [layer.encodingNote]));
   const fields = new Set(layer.fields);
   for (const [option, field] of Object.entries(fieldOptions(map))) {
     if (field !== undefined && !fields.has(field)) {
@@ -72,7 +73,7 @@ export async function* readGisFile(filePath: string, format: GisFormat, map: Gis
 }
 
 /** The attribute-name options, by their option names, for the message when one is missing. */
-function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
+export function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
   return {
     '--name-field': map.nameField, '--id-field': map.idField, '--alternate-names-field': map.alternateNamesField,
     '--type-field': map.featureTypeField, '--country-code-field': map.countryCodeField,
@@ -81,20 +82,30 @@ function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
 }
 
 function rawFeature(properties: Record<string, unknown>, geometry: Geometry | null, map: GisFieldMap, row: number): RawFeature {
+  const columns = mappedColumns(properties, { ...map, nameField: map.nameField ?? 'name' });
+  return { alternateNames: [], ...columns, id: columns.id ?? String(row), geometry };
+}
+
+/**
+ * The gazetteer columns the attribute options give (`--name-field`, `--feature-type`, `--country-code-field`…),
+ * only those whose option is set: a GIS layer's every column, or what overrides a GeoJSON feature's own
+ * properties of the gazetteer's names.
+ * @example mappedColumns({ NOMBRE: 'Alisos' }, { nameField: 'NOMBRE', featureType: 'county' }) // { name: 'Alisos', featureType: 'county' }
+ */
+export function mappedColumns(properties: Record<string, unknown>, map: GisFieldMap): Partial<RawFeature> {
   const value = (field: string | undefined) => {
     const v = field === undefined ? undefined : properties[field];
     return v === null || v === undefined ? undefined : typeof v === 'string' ? v.trim() : String(v);
   };
   const alternates = value(map.alternateNamesField);
   return {
-    id: value(map.idField) ?? String(row),
-    name: value(map.nameField ?? 'name'),
-    alternateNames: alternates ? alternates.split('|') : [],
-    featureType: map.featureType ?? value(map.featureTypeField),
-    countryCode: map.countryCode ?? value(map.countryCodeField),
-    stateProvince: value(map.stateProvinceField),
-    county: value(map.countyField),
-    geometry,
+    ...(map.idField !== undefined && { id: value(map.idField) }),
+    ...(map.nameField !== undefined && { name: value(map.nameField) }),
+    ...(map.alternateNamesField !== undefined && { alternateNames: alternates ? alternates.split('|') : [] }),
+    ...((map.featureType ?? map.featureTypeField) !== undefined && { featureType: map.featureType ?? value(map.featureTypeField) }),
+    ...((map.countryCode ?? map.countryCodeField) !== undefined && { countryCode: map.countryCode ?? value(map.countryCodeField) }),
+    ...(map.stateProvinceField !== undefined && { stateProvince: value(map.stateProvinceField) }),
+    ...(map.countyField !== undefined && { county: value(map.countyField) }),
   };
 }
 
@@ -104,6 +115,8 @@ interface Layer {
   crs: CrsToWgs84;
   /** Each feature's attributes and geometry, or why its geometry cannot be read. */
   features: AsyncIterable<{ properties: Record<string, unknown>; geometry: Geometry | null; problem?: string }>;
+  /** How the attributes' encoding was chosen, when the file does not say it (a .dbf without .cpg). */
+  encodingNote?: string;
 }
 
 /** Every position of a geometry through the conversion to WGS84. */
@@ -117,12 +130,16 @@ function reproject(geometry: Geometry, crs: CrsToWgs84): Geometry {
 /** A shapefile's parts, from a zip or from the files beside the .shp, read whole. */
 async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer> {
   const parts = extname(filePath).toLowerCase() === '.zip' ? zippedShapefile(filePath, map.layer) : shapefileBeside(filePath);
+  checkShapefileHeader(parts.shp, `${parts.name}.shp`);
   if (!parts.dbf) throw new Error(`${filePath}: the shapefile ${parts.name} has no .dbf beside it, so its features have no names`);
   if (!parts.prj) {
     throw new Error(`${filePath}: the shapefile ${parts.name} has no .prj, so its coordinate system is unknown: add the .prj (or reproject it to WGS84 with one)`);
   }
   const crs = crsToWgs84(Buffer.from(parts.prj).toString('utf8'), `${parts.name}.prj`);
-  const encoding = map.encoding ?? codePage(parts.cpg) ?? 'windows-1252';
+  const encoding = map.encoding ?? codePage(parts.cpg) ?? dbfEncoding(parts.dbf);
+  const encodingNote = map.encoding ?? parts.cpg
+    ? undefined
+    : `${parts.name}.dbf has no .cpg: read as ${encoding}${encoding === 'utf-8' ? ' (its bytes are UTF-8)' : ' (the dBASE convention)'}; give --encoding if its names look wrong`;
   try {
     new TextDecoder(encoding);
   } catch {
@@ -135,7 +152,35 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
       yield { properties: (next.value.properties ?? {}) as Record<string, unknown>, geometry: next.value.geometry as Geometry | null };
     }
   }
-  return { name: parts.name, fields, crs, features: features() };
+  return { name: parts.name, fields, crs, features: features(), ...(encodingNote !== undefined && { encodingNote }) };
+}
+
+/** Shape types a main file may hold (ESRI Shapefile Technical Description, 1998, p. 4). */
+const SHAPE_TYPES = new Set([0, 1, 3, 5, 8, 11, 13, 15, 18, 21, 23, 25, 28, 31]);
+
+/**
+ * Refuses a .shp whose 100-byte header is not a shapefile's, naming what is wrong: file code 9994 (big-endian,
+ * byte 0), version 1000 (little-endian, byte 28) and a known shape type (byte 32) (ESRI Shapefile Technical
+ * Description, 1998, pp. 3–4). A file sent through a text channel has its bytes above 0x7F replaced, which
+ * shifts the header; without this check the reader's own message ("unsupported shape type: 957") names
+ * neither the file nor the cause.
+ * @example checkShapefileHeader(readFileSync('units.shp'), 'units.shp') // returns, or throws naming the file
+ */
+function checkShapefileHeader(shp: Uint8Array, name: string): void {
+  const header = Buffer.from(shp.buffer, shp.byteOffset, shp.byteLength);
+  const problem =
+    header.length < 100
+      ? `it is ${header.length} bytes long, shorter than the 100-byte header`
+      : header.readInt32BE(0) !== 9994
+        ? `it does not begin with the shapefile file code 9994`
+        : header.readInt32LE(28) !== 1000
+          ? `its header gives version ${header.readInt32LE(28)}, not 1000`
+          : !SHAPE_TYPES.has(header.readInt32LE(32))
+            ? `its header gives shape type ${header.readInt32LE(32)}, which is none of the shapefile's`
+            : undefined;
+  if (problem !== undefined) {
+    throw new Error(`${name} cannot be read as a shapefile: ${problem}. The file is damaged (a copy made as text replaces bytes) or is not a shapefile; take it again from its source`);
+  }
 }
 
 interface ShapefileParts {
@@ -152,6 +197,9 @@ function zippedShapefile(filePath: string, layer: string | undefined): Shapefile
   const named = layer === undefined ? stems : stems.filter((s) => basename(s).toLowerCase() === layer.toLowerCase());
   if (named.length !== 1) {
     const listed = stems.map((s) => basename(s)).join(', ') || 'none';
+    if (stems.length === 0 && Object.keys(files).length > 0) {
+      throw new Error(withoutShp(filePath, Object.keys(files)));
+    }
     throw new Error(
       layer === undefined && stems.length > 1
         ? `${filePath} holds several shapefiles (${listed}): choose one with --layer`
@@ -201,6 +249,25 @@ function codePage(cpg: Uint8Array | undefined): string | undefined {
   if (number) return number === '65001' ? 'utf-8' : `windows-${number}`;
   if (/^8859_?(\d+)$/.test(text)) return `iso-8859-${/(\d+)$/.exec(text)![1]}`;
   return text || undefined;
+}
+
+/**
+ * The encoding of a .dbf that has no .cpg: UTF-8 when its bytes hold a non-ASCII character and are valid
+ * UTF-8 throughout (RFC 3629; text in a single-byte code page almost never is, as for batch input in
+ * input-format.ts), else windows-1252, the dBASE convention. GIS programs write UTF-8 .dbf files and a
+ * .cpg beside them, and the .cpg is the file most often left out when a shapefile is zipped by hand.
+ * @example dbfEncoding(readFileSync('ufs.dbf')) // 'utf-8' when it holds "São Paulo" as C3 A3
+ */
+function dbfEncoding(dbf: Uint8Array): 'utf-8' | 'windows-1252' {
+  // the records only: the header's counts and lengths are binary (dBASE III: its length at bytes 8–9)
+  const records = dbf.subarray(dbf.length >= 10 ? dbf[8]! | (dbf[9]! << 8) : dbf.length);
+  if (!records.some((byte) => byte >= 0x80)) return 'windows-1252';
+  try {
+    new TextDecoder('utf-8', { fatal: true }).decode(records);
+    return 'utf-8';
+  } catch {
+    return 'windows-1252';
+  }
 }
 
 /** The .dbf's field names from its header (dBASE III: 32-byte descriptors from byte 32, ended by 0x0D). */

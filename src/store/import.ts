@@ -11,14 +11,14 @@ import { createInterface } from 'node:readline';
 import type { Readable } from 'node:stream';
 import { parse } from 'csv-parse';
 import type { Feature as GeoJsonFeature } from 'geojson';
-import type { AlternateName } from '../match/types.ts';
+import type { AlternateName, Source } from '../match/types.ts';
 import { readAdminCodeLine, readAlternateNameLine } from './dump-layout.ts';
 import { fileHead, notText } from './file-kind.ts';
 import { isZipFile, openFileInput } from './file-input.ts';
-import { decodedText, inspectInput, type InputFormat } from './input-format.ts';
+import { decodedText, detectDelimiter, inspectInput, type HeaderDelimiter, type InputFormat } from './input-format.ts';
 import type { RawFeature } from './feature-record.ts';
 import { checkRow, checkedDumpRows, openDumpText, readDump, READ_BYTES, type CheckedRow, type ReadRow } from './import-dump.ts';
-import { gisContentHash, readGisFile, type GisFieldMap } from './gis-import.ts';
+import { fieldOptions, gisContentHash, mappedColumns, readGisFile, type GisFieldMap } from './gis-import.ts';
 import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
@@ -63,6 +63,11 @@ export interface ImportSummary {
   seconds: number;
   /** What the reader chose, e.g. a GIS file's layer and the coordinate conversion used. */
   notes?: string[];
+  /**
+   * The source of the same id this import replaced, when there was one: a second layer of one GeoPackage
+   * or zip imported without --source-id takes the first layer's id, and the user must be told.
+   */
+  replaced?: Pick<Source, 'importedAt' | 'featureCount'>;
 }
 
 const PROGRESS_EVERY = 5000;
@@ -78,6 +83,13 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   for (const side of [...adminCodeFiles, ...(options.alternateNamesFile === undefined ? [] : [options.alternateNamesFile])]) assertReadable(side);
   // Shapefiles and GeoPackages are binary by nature; their readers check them.
   const gis = options.format === 'shapefile' || options.format === 'gpkg';
+  // The attribute options map a GIS layer's or a GeoJSON feature's properties; a CSV or the dump layout
+  // names its columns itself, and an option it would ignore is refused rather than silently dropped.
+  const map = options.gis ?? {};
+  const given = Object.entries({ ...fieldOptions(map), '--feature-type': map.featureType, '--country-code': map.countryCode }).filter(([, value]) => value !== undefined).map(([option]) => option);
+  if (!gis && options.format !== 'geojson' && given.length > 0) {
+    throw new Error(`${given.join(', ')} map a GIS file's or a GeoJSON feature's attributes; a ${options.format === 'csv' ? 'CSV gazetteer names its columns in its header' : 'file of the dump layout has fixed columns'} (${options.format === 'csv' ? CSV_COLUMNS.join(', ') : 'see the README'}): rename its columns instead`);
+  }
   // A zip archive (not a workbook) given as the dump layout is the dump as distributed: its data member
   // is read (file-input.ts).
   const notTextKind = gis ? undefined : notText(fileHead(filePath));
@@ -92,6 +104,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   const format: InputFormat = inspected.damagedUtf8 || zipped ? { ...inspected, encoding: 'utf-8', bomBytes: zipped ? 0 : inspected.bomBytes } : inspected;
   const citation = options.citation?.trim() || standInCitation(filePath, format, new Date());
   const notes: string[] = [];
+  const previous = store.sources().find((source) => source.id === sourceId);
   const session = store.beginImport(sourceId);
   const rejected: { row: number; reason: string }[] = [];
   let alternateNames: ImportSummary['alternateNames'];
@@ -107,7 +120,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     if (!gis && !onThread) input = options.format === 'geonames' ? await openDumpText(filePath, zipped, format) : decodedText(filePath, format, READ_BYTES);
     const rows = onThread ? checkedDumpRows({ filePath, zipped, format, adminNames, radii: options.radii })
       : checkedRows(input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
-        : options.format === 'csv' ? readCsv(input) : options.format === 'geojson' ? readGeoJson(input) : readDump(input, adminNames),
+        : options.format === 'csv' ? readCsv(input, await detectDelimiter(filePath, format)) : options.format === 'geojson' ? readGeoJson(input, options.gis ?? {}) : readDump(input, adminNames),
       (raw) => (alternateNames !== undefined && raw.id !== undefined ? withStagedNames(raw, session.stagedAlternateNames(raw.id)) : raw), options.radii);
     for await (const batch of rows) {
       for (const { row, checked, terms } of batch) {
@@ -131,6 +144,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     sourceId, citation, citationIsStandIn: !options.citation?.trim(), encoding: format.encoding,
     rowsRead, imported, rejected, ...(alternateNames !== undefined && { alternateNames }),
     seconds: Number(process.hrtime.bigint() - started) / 1e9, ...(notes.length > 0 ? { notes } : {}),
+    ...(previous !== undefined && { replaced: { importedAt: previous.importedAt, featureCount: previous.featureCount } }),
   };
 }
 
@@ -255,8 +269,12 @@ function defaultSourceId(filePath: string): string {
 
 const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
 
-async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
-  const parser = input.pipe(parse({ info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
+/**
+ * The gazetteer CSV's rows, in the delimiter its header line uses (a spreadsheet of Spanish, Portuguese or
+ * French settings saves a semicolon-delimited "CSV").
+ */
+async function* readCsv(input: Readable, delimiter: HeaderDelimiter): AsyncGenerator<ReadRow[]> {
+  const parser = input.pipe(parse({ delimiter, info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
   let header: string[] | null = null;
   for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
     if (header === null) {
@@ -287,7 +305,7 @@ async function* readCsv(input: Readable): AsyncGenerator<ReadRow[]> {
  * Streams the members of a FeatureCollection's "features" array: a scanner keeps only the feature
  * being read, so memory stays constant however large the collection.
  */
-async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
+async function* readGeoJson(input: Readable, map: GisFieldMap): AsyncGenerator<ReadRow[]> {
   let depth = 0;
   let inString = false;
   let escaped = false;
@@ -321,7 +339,7 @@ async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
         depth--;
         if (c === '}' && depth === featuresDepth && featureStart >= 0) {
           count++;
-          yield [{ row: count, raw: readGeoJsonFeature(buffer + chunk.slice(featureStart, i + 1)) }];
+          yield [{ row: count, raw: readGeoJsonFeature(buffer + chunk.slice(featureStart, i + 1), map) }];
           buffer = '';
           featureStart = -1;
         } else if (c === ']' && depth === featuresDepth - 1) {
@@ -335,7 +353,12 @@ async function* readGeoJson(input: Readable): AsyncGenerator<ReadRow[]> {
   if (depth !== 0 || inString) throw new Error('GeoJSON ends before the FeatureCollection is closed');
 }
 
-function readGeoJsonFeature(text: string): RawFeature | string {
+/**
+ * A FeatureCollection member as a gazetteer row: its properties of the gazetteer's names (name,
+ * featureType, countryCode…), each overridden by the attribute option given for it (`--name-field`,
+ * `--feature-type`…), as for a shapefile.
+ */
+function readGeoJsonFeature(text: string, map: GisFieldMap): RawFeature | string {
   let feature: GeoJsonFeature;
   try {
     feature = JSON.parse(text) as GeoJsonFeature;
@@ -349,6 +372,7 @@ function readGeoJsonFeature(text: string): RawFeature | string {
     ...properties,
     id: properties.id !== undefined ? String(properties.id) : feature.id !== undefined ? String(feature.id) : undefined,
     alternateNames: Array.isArray(alternates) ? alternates.map(String) : typeof alternates === 'string' ? alternates.split('|') : [],
+    ...mappedColumns(properties, map),
     geometry: feature.geometry,
   };
 }

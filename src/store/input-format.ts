@@ -130,3 +130,32 @@ function utf16WithoutBom(start: Buffer): InputEncoding | undefined {
   if (evenZeros >= pairs * 0.9 && oddZeros === 0) return 'utf-16be';
   return undefined;
 }
+
+/** The delimiters a header line is told by (the batch writer's `Delimiter` in src/output/csv.ts). */
+export type HeaderDelimiter = ',' | ';' | '\t';
+
+/**
+ * The delimiter of the header line: whichever of comma, semicolon and tab occurs most often outside
+ * quotes (comma on a tie or when none occurs, as RFC 4180 has it). Batches and gazetteer CSVs alike.
+ * @example await detectDelimiter('records.tsv', format) // '\t'
+ */
+export async function detectDelimiter(path: string, format: InputFormat): Promise<HeaderDelimiter> {
+  let header = '';
+  for await (const chunk of decodedText(path, format) as AsyncIterable<string>) {
+    header += chunk;
+    const end = header.indexOf('\n');
+    if (end >= 0 || header.length > 65_536) {
+      header = end >= 0 ? header.slice(0, end) : header;
+      break;
+    }
+  }
+  const counts = new Map<HeaderDelimiter, number>([[',', 0], [';', 0], ['\t', 0]]);
+  let quoted = false;
+  for (const ch of header) {
+    if (ch === '"') quoted = !quoted;
+    else if (!quoted && counts.has(ch as HeaderDelimiter)) counts.set(ch as HeaderDelimiter, counts.get(ch as HeaderDelimiter)! + 1);
+  }
+  let best: HeaderDelimiter = ',';
+  for (const [delimiter, count] of counts) if (count > counts.get(best)!) best = delimiter;
+  return best;
+}

@@ -3,6 +3,7 @@
  * gdal-bin, PROJ underneath) for the same WKT: an implementation independent of proj4.
  */
 import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import LatLon from 'geodesy/latlon-ellipsoidal-vincenty.js';
 import { crsToWgs84 } from '../../src/geodesy/crs.ts';
@@ -39,6 +40,25 @@ describe.skipIf(!hasGdal)('crsToWgs84 against gdaltransform', () => {
     const crs = crsToWgs84(named, 'test');
     expect(crs.description).toMatch(/ED50|European/);
     expect(meters(crs.forward([431_000, 4_582_000]), gdaltransform(ED50_UTM31_TOWGS84, [431_000, 4_582_000]))).toBeLessThan(0.01);
+  });
+});
+
+describe.skipIf(!hasGdal)('crsToWgs84 on a real .prj', () => {
+  /**
+   * test/fixtures/real/gis/sweref99-tm.prj: the .prj of data/boundaries.shp of
+   * github.com/ahrberg/swedish-geoboundaries (commit e7eb03e; CC0 1.0, from Lantmäteriet's district division,
+   * CC0), byte for byte: SWEREF99 TM as ESRI writes it, a datum named "D_SWEREF99" with no TOWGS84.
+   * SWEREF99 to WGS 84 is the null transformation (EPSG dataset as packaged in epsg-index: EPSG:3006 carries
+   * +towgs84=0,0,0,0,0,0,0, accuracy 1 m), so the file must be read, not refused for its datum.
+   */
+  const prj = readFileSync(new URL('../fixtures/real/gis/sweref99-tm.prj', import.meta.url), 'utf8');
+  it('reads SWEREF99 TM and converts as GDAL does (to 1 cm), saying which shift it used', () => {
+    const crs = crsToWgs84(prj, 'boundaries.prj');
+    expect(crs.description).toMatch(/SWEREF99.*EPSG:1879/);
+    // Stockholm, Uppsala, Kiruna and Malmö in SWEREF99 TM meters (rounded from their WGS84 positions)
+    for (const point of [[674_032, 6_580_822], [647_000, 6_638_000], [733_000, 7_530_000], [374_000, 6_164_000]] as [number, number][]) {
+      expect(meters(crs.forward(point), gdaltransform(prj, point))).toBeLessThan(0.01);
+    }
   });
 });
 

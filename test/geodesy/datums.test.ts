@@ -25,6 +25,8 @@ const AREA_SAMPLE: Record<string, [number, number]> = {
   'EPSG:4258': [52.5, 13.4], // Berlin, Germany
   'EPSG:4322': [45, 10],
   'EPSG:4221': [-34.6, -58.4], // Buenos Aires, Argentina
+  'EPSG:4619': [59.33, 18.07], // Stockholm, Sweden
+  'EPSG:4171': [48.86, 2.35], // Paris, France
 };
 
 const REFERENCE = EPSG_TRANSFORMATIONS;

@@ -25,6 +25,8 @@ const CASES: Case[] = [
   { name: 'body is an array', body: [{ locality: 'x' }], status: 400, message: /body must be object/, field: 'body' },
   { name: 'body is a JSON string', body: '"Puerto Lindo"', status: 400, message: /body must be object/, field: 'body' },
   { name: 'countryCode of the wrong shape', body: { locality: 'x', countryCode: 'QVX' }, status: 400, message: /countryCode must match pattern/, field: 'countryCode' },
+  // A country's name where the code goes: the pattern, then what it asks for in words (the page shows this beside the field).
+  { name: "a country's name as countryCode", body: { locality: 'x', countryCode: 'Mexico' }, status: 400, message: /countryCode must match pattern "\^\[A-Za-z\]\{2\}\$": a two-letter ISO 3166-1 alpha-2 code such as MX; a country's name goes in "country"$/, field: 'countryCode' },
   { name: 'countryCode as a number', body: { locality: 'x', countryCode: 12 }, status: 400, message: /countryCode must be string/, field: 'countryCode' },
   { name: 'options as a string', body: { locality: 'x', options: 'fast' }, status: 400, message: /options must be object/, field: 'options' },
   { name: 'mapScale as a string', body: { locality: 'x', options: { mapScale: '24000' } }, status: 400, message: /options\.mapScale must be number/, field: 'options.mapScale' },
@@ -40,7 +42,7 @@ const CASES: Case[] = [
   { name: 'latitude beyond -90', body: { locality: 'x', decimalLatitude: -91, decimalLongitude: 0 }, status: 400, message: /decimalLatitude must be >= -90/, field: 'decimalLatitude' },
   { name: 'longitude beyond 180', body: { locality: 'x', decimalLatitude: 0, decimalLongitude: 180.01 }, status: 400, message: /decimalLongitude must be <= 180/, field: 'decimalLongitude' },
   { name: 'a negative distance precision', body: { locality: 'x', options: { distancePrecision: -1 } }, status: 400, message: /options\.distancePrecision must be > 0/, field: 'options.distancePrecision' },
-  { name: 'a datum that is not an EPSG code', body: { locality: 'x', options: { datum: 'WGS84; DROP TABLE features' } }, status: 400, message: /options\.datum must match pattern/, field: 'options.datum' },
+  { name: 'a datum that is not an EPSG code', body: { locality: 'x', options: { datum: 'WGS84; DROP TABLE features' } }, status: 400, message: /options\.datum must match pattern "\^EPSG:\[0-9\]\{4,5\}\$": an EPSG code such as EPSG:4267 \(GET \/api\/v1\/datums lists those converted\)$/, field: 'options.datum' },
   { name: 'a candidate of the wrong shape', body: { locality: 'x', options: { candidate: { sourceId: 'demo' } } }, status: 400, message: /required property 'featureId'/, field: 'options.candidate.featureId' },
   { name: 'deeply nested arrays', body: nested(20_000), status: 400, message: /locality must be string|not valid JSON/ },
   { name: 'deeply nested objects', body: `{"locality": "x", "options": ${'{"candidate": '.repeat(2000)}{}${'}'.repeat(2000)}}`, status: 400, message: /options\.candidate\.sourceId must have required property/, field: 'options.candidate.sourceId' },

@@ -38,6 +38,8 @@ export const EPSG_TRANSFORMATIONS: Record<string, { transformation: string; para
   'EPSG:4258': { transformation: 'EPSG:1149', parameters: { epsgIndexDatum: 'European_Terrestrial_Reference_System_1989' }, source: 'epsg-index, CRSs on ETRS89' },
   'EPSG:4322': { transformation: 'EPSG:1238', parameters: { epsgIndexDatum: 'World_Geodetic_System_1972' }, source: 'epsg-index, CRSs on WGS 72 (e.g. the WGS 72 UTM zones) = EPSG record 1238 "WGS 72 to WGS 84 (2)", position vector (9606)' },
   'EPSG:4221': { transformation: 'EPSG:1127', parameters: { epsgIndexDatum: 'Campo_Inchauspe' }, source: 'epsg-index EPSG:4221 (code as in our table, not printed in epsg-index)' },
+  'EPSG:4619': { transformation: 'EPSG:1879', parameters: { epsgIndexDatum: 'SWEREF99' }, source: 'epsg-index, CRSs on SWEREF99 (EPSG:3006 SWEREF99 TM, accuracy 1 m); the transformation code is from memory, not printed in epsg-index' },
+  'EPSG:4171': { transformation: 'EPSG:1671', parameters: { epsgIndexDatum: 'Reseau_Geodesique_Francais_1993_v1' }, source: 'epsg-index, CRSs on RGF93 v1 (EPSG:2154 Lambert-93, accuracy 1 m); the transformation code is from memory, not printed in epsg-index' },
 };
 
 /** The +towgs84 values of every epsg-index CRS on a datum (by its WKT datum name), with one CRS code for each value. */

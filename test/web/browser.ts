@@ -3,6 +3,8 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
+import { useDemoServer, type RunningServer } from '../server/helpers.ts';
 
 export interface TestBrowser {
   context: BrowserContext;
@@ -51,4 +53,48 @@ export async function uploadBatch(page: Page, file: string, reviewer: string): P
   await page.setInputFiles('#b-file', file);
   await page.click('#batch-submit');
   await page.waitForSelector('#batch-review:not([hidden])', { timeout: 60_000 });
+}
+
+/** The demo server (as `useDemoServer`, no rate limit) and a browser with its page open, for one test file. */
+export interface DemoPage {
+  readonly server: RunningServer;
+  readonly browser: TestBrowser;
+  readonly page: Page;
+}
+
+/**
+ * Registers beforeAll/afterAll for a test file: the demo gazetteer, a server over it and a fresh browser
+ * on its page at `viewport`; read them inside the tests.
+ * @example const demo = useDemoPage({ width: 1280, height: 800 }); it('looks up', () => lookUp(demo.page, 'Puerto Lindo'));
+ */
+export function useDemoPage(viewport?: { width: number; height: number }): DemoPage {
+  const demo = useDemoServer({ rateLimit: false });
+  let browser: TestBrowser | undefined;
+  beforeAll(async () => {
+    browser = await openPage(demo.server.url, viewport);
+  }, 60_000);
+  afterAll(async () => {
+    await browser?.close();
+  });
+  const opened = () => browser ?? (() => { throw new Error('the browser is opened in beforeAll; read it inside a test'); })();
+  return {
+    get server() {
+      return demo.server;
+    },
+    get browser() {
+      return opened();
+    },
+    get page() {
+      return opened().page;
+    },
+  };
+}
+
+/** Looks up one locality in the lookup view as a person would, and waits for its answer or its error. */
+export async function lookUp(page: Page, locality: string, countryCode = 'QV'): Promise<void> {
+  await page.click('#tab-lookup');
+  await page.fill('#f-locality', locality);
+  await page.fill('#f-countryCode', countryCode);
+  await page.click('#lookup-submit');
+  await page.waitForSelector('#h-summary, #lookup-result .error');
 }

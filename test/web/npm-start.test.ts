@@ -82,6 +82,29 @@ describe('npm start, then a batch review', () => {
     await page.waitForSelector('#review-list tbody tr.accepted[data-row="3"]');
   });
 
+  it('leaves the focus where the person put it while a slow record loads', async () => {
+    // A record answer held back, as on a loaded machine: the page must not pull the focus to the record
+    // once it arrives, or the next key typed into a filter would move through the list instead.
+    const recordAnswer = /\/api\/v1\/batches\/[^/]+\/records\/\d+(\?|$)/;
+    await page.route(recordAnswer, async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 400));
+      await route.continue();
+    });
+    try {
+      await page.focus('#review-map');
+      await page.keyboard.press('j');
+      await page.focus('#r-radius-min');
+      await page.waitForFunction(() => document.querySelector('#review-record h2')?.textContent === 'Row 4 of the batch');
+      await page.waitForTimeout(200); // the map is drawn after the heading
+      expect(await page.evaluate(() => document.activeElement?.id)).toBe('r-radius-min');
+    } finally {
+      await page.unroute(recordAnswer);
+    }
+    await page.focus('#review-map');
+    await page.keyboard.press('k');
+    await page.waitForFunction(() => document.querySelector('#review-record h2')?.textContent === 'Row 3 of the batch');
+  });
+
   it('refuses to accept a record without a point, and offers the three ways to give it one', async () => {
     await openRow(23); // Villa Quimera: in no loaded gazetteer, no coordinates of its own
     expect(await page.isDisabled('#accept')).toBe(true);
@@ -96,7 +119,7 @@ describe('npm start, then a batch review', () => {
   it('accepts a record once a corrected locality gives it a point', async () => {
     await page.fill('#resolve-locality', '3 km N of Vila Serena');
     await page.click('#resolve-locality-submit');
-    await page.waitForSelector('#result-radius');
+    await page.waitForSelector('#r-result-radius');
     expect(await page.textContent('#resolution-note')).toContain('locality text corrected by the reviewer to "3 km N of Vila Serena"');
     expect(await page.isDisabled('#accept')).toBe(false);
     await page.click('#accept');
@@ -107,7 +130,7 @@ describe('npm start, then a batch review', () => {
     await openRow(18); // Santa Rosa: two places of that name
     expect(await page.isDisabled('#accept')).toBe(true);
     await page.click('label[for="rcand-1"]');
-    await page.waitForSelector('#result-radius');
+    await page.waitForSelector('#r-result-radius');
     await page.click('#accept');
     await page.waitForSelector('#review-list tbody tr.accepted[data-row="18"]');
   });
@@ -118,7 +141,7 @@ describe('npm start, then a batch review', () => {
     await page.click('#use-record-coordinates');
     await page.waitForSelector('#resolution-note');
     expect(await page.textContent('#resolution-note')).toMatch(/with the sign of longitude inverted/);
-    expect(await page.textContent('#result-longitude')).toMatch(/^-130\.5/);
+    expect(await page.textContent('#r-result-longitude')).toMatch(/^-130\.5/);
     await page.click('#accept');
     await page.waitForSelector('#review-list tbody tr.accepted[data-row="36"]');
   });

