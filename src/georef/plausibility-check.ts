@@ -6,7 +6,7 @@
  * status stay as the method made them, for the reviewer to decide (src/locate.ts adds them to the result).
  */
 import type { MultiPolygon, Polygon } from 'geojson';
-import type { Candidate, CandidateFinder } from '../match/types.ts';
+import type { Candidate, CandidateFinder, Feature } from '../match/types.ts';
 import type { Interpretation } from '../parse/types.ts';
 import { NATURAL_EARTH, naturalEarthCountry, naturalEarthLand } from './natural-earth.ts';
 import { insideOutlines, outlinesOf } from './outlines.ts';
@@ -32,7 +32,7 @@ export interface CheckedGeoreference {
 export function checkPlausibility(finder: CandidateFinder, checked: CheckedGeoreference): PlausibilityFinding[] {
   const { georeference: g, countryCode } = checked;
   const circle = { latitude: g.latitude, longitude: g.longitude, radiusMeters: g.uncertaintyMeters };
-  const gazetteerCountry = countryOutlinesOf(finder);
+  const gazetteerCountry = (code: string) => gazetteerCountryOutlines(finder, code);
   const findings: (PlausibilityFinding | undefined)[] = [];
 
   if (countryCode) {
@@ -65,33 +65,29 @@ export function checkPlausibility(finder: CandidateFinder, checked: CheckedGeore
   return findings.filter((f): f is PlausibilityFinding => f !== undefined);
 }
 
+/**
+ * A gazetteer's outlines of a country, or undefined when it holds none. Made once for each array the
+ * finder hands out: a country polygon can hold many thousand vertices, and a batch checks every
+ * locality against it; the store hands out the same array until its file changes, and a new one then.
+ */
 function gazetteerCountryOutlines(finder: CandidateFinder, code: string): NamedOutlines | undefined {
   const features = finder.countryOutlines?.(code) ?? [];
   if (features.length === 0) return undefined;
-  return {
-    name: `gazetteer ${features.map((f) => `${f.sourceId}:${f.featureId}`).join(', ')}`,
-    outlines: features.flatMap((f) => outlinesOf(f.geometry as Polygon | MultiPolygon)),
-    toleranceMeters: 0,
-  };
+  let outlines = outlinesByFeatures.get(features);
+  if (outlines === undefined) {
+    outlines = {
+      name: `gazetteer ${features.map((f) => `${f.sourceId}:${f.featureId}`).join(', ')}`,
+      outlines: features.flatMap((f) => outlinesOf(f.geometry as Polygon | MultiPolygon)),
+      toleranceMeters: 0,
+    };
+    outlinesByFeatures.set(features, outlines);
+  }
+  return outlines;
 }
+
+const outlinesByFeatures = new WeakMap<readonly Feature[], NamedOutlines>();
 
 function naturalEarthCountryOutlines(code: string): NamedOutlines | undefined {
   const outlines = naturalEarthCountry(code);
   return outlines && { name: `${NATURAL_EARTH.name} country outline`, outlines, toleranceMeters: NATURAL_EARTH.toleranceMeters };
-}
-
-/**
- * Country outlines are read from a finder once: a country polygon can hold many thousand vertices, and a
- * batch checks every locality against it. The stores locate is given are opened read-only.
- */
-const outlinesByFinder = new WeakMap<CandidateFinder, Map<string, NamedOutlines | undefined>>();
-
-function countryOutlinesOf(finder: CandidateFinder): (code: string) => NamedOutlines | undefined {
-  let cache = outlinesByFinder.get(finder);
-  if (!cache) outlinesByFinder.set(finder, (cache = new Map()));
-  const known = cache;
-  return (code) => {
-    if (!known.has(code)) known.set(code, gazetteerCountryOutlines(finder, code));
-    return known.get(code);
-  };
 }

@@ -94,19 +94,19 @@ type AdministrativeLevel = (typeof ADMINISTRATIVE_LEVELS)[number]['field'];
  */
 export function locate(finder: CandidateFinder, request: LocateRequest): LocateResult {
   const once = lookupsOnce(finder);
-  return checkLocated(finder, once, request, locateOne(once, request));
+  return checkLocated(once, request, locateOne(once, request));
 }
 
 /**
  * The plausibility checks (src/georef/plausibility-check.ts) of a result made for this request: flags
- * and remarks added, the point left as it is. The checks read country outlines from `finder` (they keep
- * them per finder); a clause georeferenced alone asks `once`, this record's lookups.
- * @example checkLocated(store, lookupsOnce(store), request, result).flags // e.g. ['outside-record-country']
+ * and remarks added, the point left as it is. Country outlines and a clause georeferenced alone are
+ * asked of `once`, this record's lookups.
+ * @example checkLocated(lookupsOnce(store), request, result).flags // e.g. ['outside-record-country']
  */
-function checkLocated(finder: CandidateFinder, once: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
+function checkLocated(once: CandidateFinder, request: LocateRequest, result: LocateResult): LocateResult {
   const g = result.georeference;
   if (result.status !== 'georeferenced' || !g) return result;
-  const findings = checkPlausibility(finder, {
+  const findings = checkPlausibility(once, {
     georeference: g,
     interpretation: result.interpretation,
     candidates: result.candidates,

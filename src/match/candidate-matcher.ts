@@ -38,6 +38,12 @@ const MIN_FUZZY_POOL = 10;
  * and 128,000 neighbours (about 13 MB) and forgets none.
  */
 export const WORD_CACHE_BYTES = 32 * 1024 * 1024;
+/**
+ * The share of the word cache's bound that a stated unit's other names (NameIndex.unitKeys) may hold
+ * besides it: a few short keys a unit, so 1/32 of the default keeps about ten thousand units. Common
+ * practice, no source.
+ */
+const UNIT_KEYS_SHARE = 1 / 32;
 /** A kept word's bytes besides its neighbours (its entry, key and arrays), estimated; from a V8 heap measurement. */
 const WORD_BYTES = 200;
 /** A kept neighbour's bytes besides its text (object, numbers, array slot): about 100 bytes a 10-letter token in V8's heap. */
@@ -127,25 +133,24 @@ const countryList = (context: ResolvedContext): string[] | null => (context.coun
 
 /**
  * Ranked candidates for names, read through a NameIndex. Keeps the stored tokens matching recent
- * query words (at most `wordCacheBytes`, estimated; 0 keeps none) until the index's version changes;
- * an index's owner calls `forgetTokenMatches` after its own writes (which do not move the version it
- * reports). What is kept never changes an answer: a word's matches are the rows the index gives for it.
+ * query words (at most `wordCacheBytes`, estimated; 0 keeps none) until the index's version changes.
+ * What is kept never changes an answer: a word's matches are the rows the index gives for it.
  * @example new CandidateMatcher(index).lookup({ name: 'Rosario', context: { countryCode: 'AR' } }).candidates[0].why // 'exact name'
  */
 export class CandidateMatcher {
   private readonly tokenMatches: WordCache<WordMatches>;
-  private tokenMatchVersion = -1;
+  /** A stated unit's keys by level and key (NameIndex.unitKeys), read for most lookups of a batch. */
+  private readonly unitKeys: WordCache<string[]>;
+  private keptVersion = -1;
 
   constructor(private readonly index: NameIndex, wordCacheBytes = WORD_CACHE_BYTES) {
     this.tokenMatches = new WordCache(wordCacheBytes, wordMatchBytes);
-  }
-
-  forgetTokenMatches(): void {
-    this.tokenMatches.clear();
+    this.unitKeys = new WordCache(wordCacheBytes * UNIT_KEYS_SHARE, (keys) => WORD_BYTES + keys.reduce((bytes, key) => bytes + NEIGHBOUR_BYTES + 2 * key.length, 0));
   }
 
   /** Candidates for a name, best first, with those the context dropped and notes on how it was read. */
   lookup(query: CandidateQuery): CandidateLookup {
+    this.forgetWhenChanged();
     const notes: string[] = [];
     const context = this.resolve(query, notes);
     const dropped: DroppedCandidate[] = [];
@@ -179,7 +184,33 @@ export class CandidateMatcher {
 
   /** The loaded place nearest a point that lies in the query's stated units, read as a lookup reads them (see nearest-place.ts). */
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null {
+    this.forgetWhenChanged();
     return nearestPlace(this.index, query, this.resolve({ name: '', context: query.context }, []));
+  }
+
+  /**
+   * Forgets what lookups keep between them (query words' matches, stated units' keys) when the index has
+   * changed since: asked once a lookup, which reads the index as of one moment when its caller asks
+   * for one (the store's asOfOneMoment), as every caller that serves records does.
+   */
+  private forgetWhenChanged(): void {
+    const version = this.index.version();
+    if (version !== this.keptVersion) {
+      this.tokenMatches.clear();
+      this.unitKeys.clear();
+      this.keptVersion = version;
+    }
+  }
+
+  /** The keys of the units one of whose names has `key` (NameIndex.unitKeys), kept between lookups. */
+  private unitKeysOf(level: 1 | 2, key: string): string[] {
+    const cacheKey = `${level}${key}`;
+    let keys = this.unitKeys.get(cacheKey);
+    if (keys === undefined) {
+      keys = this.index.unitKeys!(level, key);
+      this.unitKeys.keep(cacheKey, keys);
+    }
+    return keys;
   }
 
   /** Where several sources hold one place, the rank of each source, read only when a place is merged. */
@@ -203,8 +234,8 @@ export class CandidateMatcher {
     const context = resolveContext(query.context, gazetteerCodes);
     // A state or county written in another language or by a former name: the units it names.
     if (this.index.unitKeys !== undefined) {
-      if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.index.unitKeys(1, context.stateProvinceKey));
-      if (context.countyKey !== undefined) context.countyAliases = new Set(this.index.unitKeys(2, context.countyKey));
+      if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.unitKeysOf(1, context.stateProvinceKey));
+      if (context.countyKey !== undefined) context.countyAliases = new Set(this.unitKeysOf(2, context.countyKey));
     }
     if (context.unresolvedCountry !== undefined) notes.push(`country '${context.unresolvedCountry}' not recognised: not used to filter`);
     return context;
@@ -578,12 +609,7 @@ export class CandidateMatcher {
    */
   private matchingTokens(token: string, severalTokens: boolean, reach: Reach, poolSize: number): WordView {
     // Words such as 'san', 'rio' or 'santa' recur in most lookups; their matches hold until the file
-    // changes (data_version moves when another connection commits; this one's writes clear the cache).
-    const version = this.index.version();
-    if (version !== this.tokenMatchVersion) {
-      this.tokenMatches.clear();
-      this.tokenMatchVersion = version;
-    }
+    // changes (the index's version: another connection's commit or the store's own write; see forgetWhenChanged).
     const cacheKey = `${severalTokens ? '+' : '-'}${token}`;
     let word = this.tokenMatches.get(cacheKey);
     if (word === undefined) {

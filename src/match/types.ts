@@ -138,9 +138,10 @@ export interface CandidateFinder {
   findCandidates(query: CandidateQuery): Candidate[];
   /**
    * The polygons of the country with this ISO 3166-1 alpha-2 code (features of type "country"), with
-   * their geometry, for the plausibility checks (optional for other finders).
+   * their geometry, for the plausibility checks (optional for other finders). A finder may hand out the
+   * same array again while its data stays the same (the store does): the checks keep their reading of it by it.
    */
-  countryOutlines?(countryCode: string): Feature[];
+  countryOutlines?(countryCode: string): readonly Feature[];
   /** The same lookup with the candidates the context dropped and why (optional for other finders). */
   lookupCandidates?(query: CandidateQuery): CandidateLookup;
   /**
@@ -220,7 +221,7 @@ export interface Posting {
  * Row ids are the index's own, stable while `version` stays the same.
  */
 export interface NameIndex {
-  /** Changes when another writer changed the indexes (the matcher's cached token matches then go). */
+  /** Changes whenever the indexes may have changed, by any writer (the matcher's cached token matches then go). */
   version(): number;
   /** Row ids of the features with a name, alternate name or reading folded to `key`, in row-id order; at most `limit` when given. */
   featureIdsByName(key: string, limit?: number): number[];

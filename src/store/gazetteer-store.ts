@@ -9,6 +9,7 @@ import type { Geometry } from 'geojson';
 import { CandidateMatcher, WORD_CACHE_BYTES } from '../match/candidate-matcher.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
+import { ContentVersion, KeptWhileUnchanged } from './content-version.ts';
 import { indexTerms, type IndexTerms } from './index-terms.ts';
 import { NameBuffer, RowWriter, SortedPairs } from './import-writers.ts';
 import { importSortPath } from './side-files.ts';
@@ -177,7 +178,8 @@ export interface OpenOptions {
   /**
    * Query words' stored neighbours kept between lookups, in KiB of heap (estimated; default 32768, 0
    * keeps none): at most this much besides SQLite's cache. Never changes an answer; cleared by an
-   * import, a source's removal or another connection's write (as are a level's unit names, see unitNames).
+   * import, a source's removal or another connection's write (as are a level's unit names and country
+   * outlines, see unitNames and countryOutlines; content-version.ts).
    */
   wordCacheKiB?: number;
 }
@@ -191,9 +193,14 @@ class SqliteGazetteer implements GazetteerStore {
   private readonly db: Database.Database;
   private readonly statements: Statements;
   private readonly matcher: CandidateMatcher;
-  /** Every unit name of a level as read at `levelNamesVersion` of the file (see unitNames). */
-  private readonly levelNames = new Map<1 | 2, readonly UnitName[]>();
-  private levelNamesVersion = -1;
+  /** What lookups keep between them (the matcher's word cache too) holds while this stays (content-version.ts). */
+  private readonly content: ContentVersion;
+  /** Every unit name of a level (see unitNames). */
+  private readonly levelNames: KeptWhileUnchanged<1 | 2, readonly UnitName[]>;
+  /** A country's outlines by its code (see countryOutlines). */
+  private readonly outlines: KeptWhileUnchanged<string, readonly Feature[]>;
+  /** Every country polygon's row, without its geometry, by country code (see countryOutlines). */
+  private readonly countryRows: KeptWhileUnchanged<'every country', ReadonlyMap<string, FeatureRow[]>>;
 
   constructor(path: string, readonly: boolean, memoryMap: boolean, cacheKiB: number, wordCacheBytes: number) {
     let db = new Database(path, { readonly, fileMustExist: readonly });
@@ -221,7 +228,11 @@ class SqliteGazetteer implements GazetteerStore {
     // Lookups seek into the token indexes at random: through a memory map a page costs no read call.
     if (memoryMap) this.db.pragma(`mmap_size = ${MMAP_BYTES}`);
     this.statements = prepareStatements(this.db);
-    this.matcher = new CandidateMatcher(sqliteNameIndex(this.statements), wordCacheBytes);
+    this.content = new ContentVersion(() => this.statements.dataVersion.get() as number);
+    this.levelNames = new KeptWhileUnchanged(this.content);
+    this.outlines = new KeptWhileUnchanged(this.content);
+    this.countryRows = new KeptWhileUnchanged(this.content);
+    this.matcher = new CandidateMatcher(sqliteNameIndex(this.statements, this.content), wordCacheBytes);
   }
 
   findCandidates(query: CandidateQuery): Candidate[] {
@@ -239,28 +250,33 @@ class SqliteGazetteer implements GazetteerStore {
   unitNames(level: 1 | 2, key?: string): readonly UnitName[] {
     if (key !== undefined) return this.statements.unitNamesByKey.all(key, level) as UnitName[];
     // A stated unit the gazetteer does not know reads every name of its level, a whole table (10 ms and
-    // more a record): read once until the file changes, as the word cache is (data_version moves when
-    // another connection commits, in or out of asOfOneMoment; this connection's writes call forgetReadings).
-    // Frozen, as every caller is handed the same rows.
-    const version = this.statements.dataVersion.get() as number;
-    if (version !== this.levelNamesVersion) {
-      this.levelNames.clear();
-      this.levelNamesVersion = version;
-    }
-    let names = this.levelNames.get(level);
-    if (names === undefined) {
-      names = Object.freeze((this.statements.unitNamesAt.all(level) as UnitName[]).map((name) => Object.freeze(name)));
-      this.levelNames.set(level, names);
-    }
-    return names;
+    // more a record): read once until the file changes, as the word cache is. Frozen, as every caller
+    // is handed the same rows.
+    return this.levelNames.get(level, () => Object.freeze((this.statements.unitNamesAt.all(level) as UnitName[]).map((name) => Object.freeze(name))));
   }
 
-  countryOutlines(countryCode: string): Feature[] {
-    const rows = this.statements.countryPolygons.all(countryCode.toUpperCase(), GEOMETRY_TYPES.indexOf('Polygon'), GEOMETRY_TYPES.indexOf('MultiPolygon')) as FeatureRow[];
-    return rows.map((row) => {
-      const feature = toFeature(row);
-      attachGeometry(this.statements, feature);
-      return feature;
+  countryOutlines(countryCode: string): readonly Feature[] {
+    // Every georeferenced record's country is checked against its outlines, which can hold many thousand
+    // vertices: read once until the file changes, as the word cache is. Frozen (the array and each
+    // feature), as every caller is handed the same array: the plausibility stage keeps what it makes of it by it.
+    const code = countryCode.toUpperCase();
+    return this.outlines.get(code, () => {
+      // No index finds a country's polygons, and most gazetteers hold none: the features are read through
+      // once for every country's rows rather than once a country (at 1 M features, 0.15-0.5 s a read).
+      const byCountry = this.countryRows.get('every country', () => {
+        const rows = new Map<string, FeatureRow[]>();
+        for (const row of this.statements.countryPolygons.all(GEOMETRY_TYPES.indexOf('Polygon'), GEOMETRY_TYPES.indexOf('MultiPolygon')) as FeatureRow[]) {
+          const country = rows.get(row[6] ?? '');
+          if (country === undefined) rows.set(row[6] ?? '', [row]);
+          else country.push(row);
+        }
+        return rows;
+      });
+      return Object.freeze((byCountry.get(code) ?? []).map((row) => {
+        const feature = toFeature(row);
+        attachGeometry(this.statements, feature);
+        return Object.freeze(feature);
+      }));
     });
   }
 
@@ -287,7 +303,7 @@ class SqliteGazetteer implements GazetteerStore {
   }
 
   removeSource(id: string): boolean {
-    this.forgetReadings();
+    this.content.changed();
     const row = this.statements.sourceByName.get(id) as SourceRow | undefined;
     if (row === undefined) return false;
     this.db.transaction(() => {
@@ -306,7 +322,7 @@ class SqliteGazetteer implements GazetteerStore {
     db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = MEMORY');
-    this.forgetReadings();
+    this.content.changed();
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
@@ -349,7 +365,7 @@ class SqliteGazetteer implements GazetteerStore {
       postings.discard();
       db.pragma('synchronous = NORMAL');
       staging = null;
-      this.forgetReadings();
+      this.content.changed();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
     };
     return {
@@ -420,12 +436,6 @@ class SqliteGazetteer implements GazetteerStore {
     this.db.close();
   }
 
-  /** Forgets what lookups keep between them: this connection's own writes do not move data_version. */
-  private forgetReadings(): void {
-    this.matcher.forgetTokenMatches();
-    this.levelNames.clear();
-  }
-
   private deleteSourceRows(sourceRowId: number): void {
     const s = this.statements;
     s.deleteSourcePostings.run(sourceRowId);
@@ -477,11 +487,11 @@ function attachGeometry(s: Statements, feature: Feature): void {
 /**
  * The store's answers to matching's questions: one prepared statement each, id lists passed as JSON
  * arrays (json_each), so a lookup costs a few statements whatever the number of ids.
- * @example new CandidateMatcher(sqliteNameIndex(prepareStatements(db))).lookup({ name: 'Alto', context: {} })
+ * @example new CandidateMatcher(sqliteNameIndex(prepareStatements(db), content)).lookup({ name: 'Alto', context: {} })
  */
-function sqliteNameIndex(s: Statements): NameIndex {
+function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
   return {
-    version: () => s.dataVersion.get() as number,
+    version: () => content.current(),
     // LIMIT -1 is no limit in SQLite.
     featureIdsByName: (key, limit) => s.featuresByKey.all(key, limit ?? -1) as number[],
     feature: (id) => {
@@ -577,7 +587,7 @@ function prepareStatements(db: Database.Database) {
     featureBySourceId: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`).raw(),
     countryPolygons: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
-      WHERE f.feature_type = 'country' AND f.country_code = ? AND f.geometry_type IN (?, ?) ORDER BY s.name, f.feature_id`).raw(),
+      WHERE f.feature_type = 'country' AND f.geometry_type IN (?, ?) ORDER BY s.name, f.feature_id`).raw(),
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
     featureIdsInBox: db.prepare('SELECT id FROM features WHERE latitude BETWEEN ? AND ? AND longitude BETWEEN ? AND ?').pluck(),
