@@ -139,7 +139,7 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
   const encoding = map.encoding ?? codePage(parts.cpg) ?? dbfEncoding(parts.dbf);
   const encodingNote = map.encoding ?? parts.cpg
     ? undefined
-    : `${parts.name}.dbf has no .cpg: read as ${encoding}${encoding === 'utf-8' ? ' (its bytes are UTF-8)' : ' (the dBASE convention)'}; give --encoding if its names look wrong`;
+    : `${parts.name}.dbf has no .cpg: read as ${encoding}${encoding === 'utf-8' ? ' (its bytes are UTF-8)' : DBF_LANGUAGE_DRIVERS.get(parts.dbf[29]!) === encoding ? ` (its header's language driver 0x${parts.dbf[29]!.toString(16).padStart(2, '0')})` : ' (the dBASE convention)'}; give --encoding if its names look wrong`;
   try {
     new TextDecoder(encoding);
   } catch {
@@ -252,21 +252,41 @@ function codePage(cpg: Uint8Array | undefined): string | undefined {
 }
 
 /**
+ * Code pages named by a .dbf header's language driver id (byte 29), as encoding names the .dbf reader's
+ * TextDecoder knows (WHATWG Encoding Standard labels). Values: dBASE language driver ids as listed in the
+ * open TDbf sources (dbf_lang.pas: 0x03 FoxLangId_Windows_1252, 0x57 DbfLangId_Ascii_1252, 0x26
+ * DbfLangId_RUS_866, 0x4D DbfLangId_CHS_936); 0xC8 → 1250 and 0xC9 → 1251 from memory. DOS code pages
+ * 437 and 850 (ids 0x01, 0x02) are left out: the reader's decoder does not know them, and they fall back
+ * to windows-1252 as before.
+ */
+const DBF_LANGUAGE_DRIVERS: ReadonlyMap<number, string> = new Map([
+  [0x03, 'windows-1252'],
+  [0x57, 'windows-1252'],
+  [0x26, 'ibm866'],
+  [0x4d, 'gbk'],
+  [0xc8, 'windows-1250'],
+  [0xc9, 'windows-1251'],
+]);
+
+/**
  * The encoding of a .dbf that has no .cpg: UTF-8 when its bytes hold a non-ASCII character and are valid
  * UTF-8 throughout (RFC 3629; text in a single-byte code page almost never is, as for batch input in
- * input-format.ts), else windows-1252, the dBASE convention. GIS programs write UTF-8 .dbf files and a
- * .cpg beside them, and the .cpg is the file most often left out when a shapefile is zipped by hand.
- * @example dbfEncoding(readFileSync('ufs.dbf')) // 'utf-8' when it holds "São Paulo" as C3 A3
+ * input-format.ts), else the code page its header's language driver id names (byte 29, see
+ * `DBF_LANGUAGE_DRIVERS`), else windows-1252, the dBASE convention. GIS programs write UTF-8 .dbf files
+ * and a .cpg beside them, and the .cpg is the file most often left out when a shapefile is zipped by hand.
+ * UTF-8 is tried before the driver byte because a writer may leave its default id on a UTF-8 file.
+ * @example dbfEncoding(readFileSync('ufs.dbf')) // 'utf-8' when it holds "São Paulo" as C3 A3; 'windows-1251' for driver 0xC9
  */
-function dbfEncoding(dbf: Uint8Array): 'utf-8' | 'windows-1252' {
+function dbfEncoding(dbf: Uint8Array): string {
   // the records only: the header's counts and lengths are binary (dBASE III: its length at bytes 8–9)
   const records = dbf.subarray(dbf.length >= 10 ? dbf[8]! | (dbf[9]! << 8) : dbf.length);
-  if (!records.some((byte) => byte >= 0x80)) return 'windows-1252';
+  const byDriver = (dbf.length >= 32 && DBF_LANGUAGE_DRIVERS.get(dbf[29]!)) || 'windows-1252';
+  if (!records.some((byte) => byte >= 0x80)) return byDriver;
   try {
     new TextDecoder('utf-8', { fatal: true }).decode(records);
     return 'utf-8';
   } catch {
-    return 'windows-1252';
+    return byDriver;
   }
 }
 
