@@ -57,7 +57,8 @@ const CR = 0x0d;
  * @example for await (const r of readRecords('in.csv', format, ',')) console.log(r.line, r.fields)
  */
 export async function* readRecords(path: string, format: InputFormat, delimiter: Delimiter): AsyncGenerator<InputRecord> {
-  const splitter = new RecordSplitter(delimiter);
+  // a delimiter declaration line ("sep=;") is skipped by decodedText; lines are still counted from the file's first
+  const splitter = new RecordSplitter(delimiter, format.delimiterDeclaration ? 2 : 1);
   // 64 KiB reads [CHOICE]: a chunk's rows are held at once, and on 1 MiB reads the main thread's heap doubled.
   for await (const chunk of decodedText(path, format, READ_BYTES) as AsyncIterable<string>) yield* splitter.push(chunk, false);
   yield* splitter.push('', true);
@@ -82,15 +83,16 @@ interface Unclosed {
 class RecordSplitter {
   private text = '';
   /** Line number of the first character of `text`. */
-  private line = 1;
+  private line: number;
   private headerLength: number | undefined;
   private readonly delimiterCode: number;
   /** Positions in `text` of the next delimiter and line feed (-1: not looked for yet; MAX_SAFE_INTEGER: none left). */
   private nextDelimiter = -1;
   private nextLineFeed = -1;
 
-  constructor(private readonly delimiter: Delimiter) {
+  constructor(private readonly delimiter: Delimiter, firstLine = 1) {
     this.delimiterCode = delimiter.charCodeAt(0);
+    this.line = firstLine;
   }
 
   /** The rows complete in the text read so far; with `last`, every row left. */

@@ -445,7 +445,8 @@ async function writeRows(
         generalisationOf = generalise ? sensitiveGeneralisation(record.fields, generalise) : undefined;
         if (position === 0) {
           const appended = csvLine(outputHeader(record.fields, generalise ? GENERALISATION_TERMS : []).slice(headerLength), delimiter);
-          const headerLine = `${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
+          // a delimiter declaration ("sep=;") is written back as it stood, so the output opens as the input did
+          const headerLine = `${format.delimiterDeclaration?.line ?? ''}${originalLine(record, headerLength, delimiter)}${delimiter}${appended}${LINE_END}`;
           writeBytes(Buffer.from(job.partCount === null ? headerLine : partFileStart(partMeta(job), headerLine)));
           updateJob(jobs, job.id, { outputBytes: position, rowsDone: 0 });
         }

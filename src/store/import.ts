@@ -120,7 +120,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     if (!gis && !onThread) input = options.format === 'geonames' ? await openDumpText(filePath, zipped, format) : decodedText(filePath, format, READ_BYTES);
     const rows = onThread ? checkedDumpRows({ filePath, zipped, format, adminNames, radii: options.radii })
       : checkedRows(input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
-        : options.format === 'csv' ? readCsv(input, await detectDelimiter(filePath, format)) : options.format === 'geojson' ? readGeoJson(input, options.gis ?? {}) : readDump(input, adminNames),
+        : options.format === 'csv' ? readCsv(input, await detectDelimiter(filePath, format), format.delimiterDeclaration ? 1 : 0) : options.format === 'geojson' ? readGeoJson(input, options.gis ?? {}) : readDump(input, adminNames),
       (raw) => (alternateNames !== undefined && raw.id !== undefined ? withStagedNames(raw, session.stagedAlternateNames(raw.id)) : raw), options.radii);
     for await (const batch of rows) {
       for (const { row, checked, terms } of batch) {
@@ -271,9 +271,10 @@ const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'f
 
 /**
  * The gazetteer CSV's rows, in the delimiter its header line uses (a spreadsheet of Spanish, Portuguese or
- * French settings saves a semicolon-delimited "CSV").
+ * French settings saves a semicolon-delimited "CSV"). `linesBefore`: lines of the file before the text read
+ * (a delimiter declaration "sep=;"), so that rows keep the file's line numbers.
  */
-async function* readCsv(input: Readable, delimiter: HeaderDelimiter): AsyncGenerator<ReadRow[]> {
+async function* readCsv(input: Readable, delimiter: HeaderDelimiter, linesBefore: number): AsyncGenerator<ReadRow[]> {
   const parser = input.pipe(parse({ delimiter, info: true, relax_column_count: true, skip_empty_lines: true, relax_quotes: true }));
   let header: string[] | null = null;
   for await (const { record, info } of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
@@ -285,17 +286,17 @@ async function* readCsv(input: Readable, delimiter: HeaderDelimiter): AsyncGener
       continue;
     }
     if (record.length !== header.length) {
-      yield [{ row: info.lines, raw: `${record.length} columns, the header has ${header.length}` }];
+      yield [{ row: info.lines + linesBefore, raw: `${record.length} columns, the header has ${header.length}` }];
       continue;
     }
     const fields: Record<string, string> = {};
     header.forEach((column, index) => { fields[column] = record[index]; });
     if (record.some((field) => field.includes('\uFFFD'))) {
-      yield [{ row: info.lines, raw: 'not valid UTF-8 (damaged bytes in a UTF-8 file)' }];
+      yield [{ row: info.lines + linesBefore, raw: 'not valid UTF-8 (damaged bytes in a UTF-8 file)' }];
       continue;
     }
     yield [{
-      row: info.lines,
+      row: info.lines + linesBefore,
       raw: { ...fields, alternateNames: fields.alternateNames === undefined ? [] : fields.alternateNames.split('|') },
     }];
   }

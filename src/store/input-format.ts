@@ -23,6 +23,15 @@ export interface InputFormat {
    * that no byte is lost; the gazetteer importer reads it as UTF-8 and refuses the damaged rows.
    */
   damagedUtf8?: boolean;
+  /** A first line declaring the delimiter ("sep=;"), which is not the header (see `delimiterDeclaration`). */
+  delimiterDeclaration?: DelimiterDeclaration;
+}
+
+/** The line "sep=X" and its line end as written, the delimiter it names, and its length in the file's bytes. */
+export interface DelimiterDeclaration {
+  delimiter: HeaderDelimiter;
+  line: string;
+  bytes: number;
 }
 
 /**
@@ -55,11 +64,30 @@ export async function inspectInput(path: string): Promise<InputFormat> {
   const sha256 = hash.digest('hex');
   const start = head ?? Buffer.alloc(0);
   const byBom = encodingByBom(start);
-  if (byBom) return { sha256, bytes, ...byBom };
   const utf16 = utf16WithoutBom(start);
-  if (utf16) return { sha256, bytes, encoding: utf16, bomBytes: 0 };
-  if (validUtf8) return { sha256, bytes, encoding: 'utf-8', bomBytes: 0 };
-  return { sha256, bytes, encoding: high.undefinedIn1252 ? 'latin1' : 'windows-1252', bomBytes: 0, damagedUtf8: high.utf8Sequences > 0 };
+  const format: InputFormat = byBom
+    ? { sha256, bytes, ...byBom }
+    : utf16
+      ? { sha256, bytes, encoding: utf16, bomBytes: 0 }
+      : validUtf8
+        ? { sha256, bytes, encoding: 'utf-8', bomBytes: 0 }
+        : { sha256, bytes, encoding: high.undefinedIn1252 ? 'latin1' : 'windows-1252', bomBytes: 0, damagedUtf8: high.utf8Sequences > 0 };
+  const declaration = delimiterDeclaration(start, format);
+  return declaration ? { ...format, delimiterDeclaration: declaration } : format;
+}
+
+/**
+ * A first line "sep=;", "sep=," or "sep=" and a tab, written by some spreadsheet exports to tell the
+ * delimiter (common practice, no published source): the delimiter it names, and the line as written with
+ * its line end, so that the reading starts at the header after it and a batch writes the line back before
+ * its output's header. Other delimiters after "sep=" are not read as a declaration.
+ * @example delimiterDeclaration(Buffer.from('sep=;\r\nid;locality\r\n'), format) // { delimiter: ';', line: 'sep=;\r\n', bytes: 7 }
+ */
+function delimiterDeclaration(start: Buffer, format: InputFormat): DelimiterDeclaration | undefined {
+  const text = iconv.decode(start.subarray(format.bomBytes, format.bomBytes + 64), format.encoding);
+  const match = /^sep=([,;\t])(\r?\n)/i.exec(text);
+  if (!match) return undefined;
+  return { delimiter: match[1] as HeaderDelimiter, line: match[0], bytes: iconv.encode(match[0], format.encoding).length };
 }
 
 /**
@@ -84,12 +112,12 @@ function tallyHighBytes(chunk: Buffer, tally: { undefinedIn1252: boolean; utf8Se
 }
 
 /**
- * The file's text, decoded from the encoding `inspectInput` found, after its byte order mark: chunks of
- * strings, in constant memory.
+ * The file's text, decoded from the encoding `inspectInput` found, after its byte order mark and its
+ * delimiter declaration (a first line "sep=;"), if any: chunks of strings, in constant memory.
  * @example for await (const text of decodedText('in.csv', await inspectInput('in.csv'))) …
  */
 export function decodedText(path: string, format: InputFormat, highWaterMark = 1 << 20): Readable {
-  return createReadStream(path, { start: format.bomBytes, highWaterMark }).pipe(iconv.decodeStream(format.encoding)) as unknown as Readable;
+  return createReadStream(path, { start: format.bomBytes + (format.delimiterDeclaration?.bytes ?? 0), highWaterMark }).pipe(iconv.decodeStream(format.encoding)) as unknown as Readable;
 }
 
 function decodes(decoder: TextDecoder, chunk: Uint8Array, last: boolean): boolean {
@@ -135,11 +163,13 @@ function utf16WithoutBom(start: Buffer): InputEncoding | undefined {
 export type HeaderDelimiter = ',' | ';' | '\t';
 
 /**
- * The delimiter of the header line: whichever of comma, semicolon and tab occurs most often outside
- * quotes (comma on a tie or when none occurs, as RFC 4180 has it). Batches and gazetteer CSVs alike.
+ * The delimiter a first line "sep=;" declares, else that of the header line: whichever of comma,
+ * semicolon and tab occurs most often outside quotes (comma on a tie or when none occurs, as RFC 4180 has
+ * it). Batches and gazetteer CSVs alike.
  * @example await detectDelimiter('records.tsv', format) // '\t'
  */
 export async function detectDelimiter(path: string, format: InputFormat): Promise<HeaderDelimiter> {
+  if (format.delimiterDeclaration) return format.delimiterDeclaration.delimiter;
   let header = '';
   for await (const chunk of decodedText(path, format) as AsyncIterable<string>) {
     header += chunk;

@@ -5,7 +5,7 @@
  * read again giving the same values. For comma and semicolon the output is also read by csv-parse in
  * its strict RFC 4180 mode, a reader independent of whereabouts'.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
@@ -61,6 +61,35 @@ describe('original values come back byte for byte', async () => {
         const want = expected.rows[i].flags;
         if (want) expect(r.fields[flagsAt] === '' ? [] : r.fields[flagsAt].split(FLAG_SEPARATOR)).toEqual(want);
       });
+    });
+  }
+
+  // A first line "sep=X" declares the delimiter (common practice of spreadsheet exports, no published
+  // source). It is not the header: the header is the next line, every row comes back as written, and the
+  // line itself is written back first, as it stood, so the output opens in a spreadsheet as the input did.
+  for (const [name, declared] of [['roundtrip-comma.csv', ','], ['roundtrip-semicolon.csv', ';'], ['roundtrip-tab.tsv', '\t']] as const) {
+    it(`${name} after a "sep=" line: read by the delimiter it declares, the line written back before the header`, async () => {
+      const expected = JSON.parse(readFileSync(join(FIXTURES, name.replace(/\.\w+$/, '.expected.json')), 'utf8')) as Expected;
+      const plain = readFileSync(join(FIXTURES, name), 'utf8');
+      const input = join(dir, `sep-${name}`);
+      const declaration = `sep=${declared}\r\n`;
+      writeFileSync(input, declaration + plain);
+      const output = join(dir, `sep-${name}.out`);
+      const summary = await (await startBatchJob({ dbPath, input, output, threads: 1 })).done;
+      expect(summary.delimiter).toBe(expected.delimiter);
+      expect(summary.malformedRows).toBe(0);
+      const text = readFileSync(output, 'utf8');
+      const headerLine = plain.slice(0, plain.indexOf('\r\n'));
+      expect(text.startsWith(`${declaration}${headerLine}${declared}`)).toBe(true);
+      const [, ...rows] = parseRecords(text.slice(declaration.length), declared);
+      const width = headerLine.split(declared).length;
+      expect(rows.map((r) => r.fields.slice(0, width))).toEqual(expected.rows.map((r) => r.fields));
+      let at = 0;
+      for (const row of expected.rows) {
+        const found = text.indexOf(`\r\n${row.written}${declared}`, at);
+        expect(found, row.written).toBeGreaterThan(at - 1);
+        at = found + 1;
+      }
     });
   }
 });

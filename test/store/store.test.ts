@@ -202,6 +202,17 @@ describe('sources', () => {
     expect(local.findCandidates({ name: 'Vila Nueva', context: {} })).toEqual([]);
     local.close();
   });
+
+  it('reads a gazetteer CSV after a first line "sep=;" (common practice of spreadsheet exports, no published source), rows keeping the file\'s line numbers', async () => {
+    const local = openGazetteer(join(directory, 'sep.sqlite'));
+    const csv = join(directory, 'sep.csv');
+    writeFileSync(csv, 'sep=;\r\nid;name;latitude;longitude;countryCode\r\nq1;Villa Nueva;-10,5;-150;QX\r\nq2;Loma Baja;-11;-151\r\n');
+    const summary = await importGazetteer(local, csv, { format: 'csv', citation: 'sep', sourceId: 's' });
+    expect(summary.imported).toBe(1);
+    expect(summary.rejected).toEqual([{ row: 4, reason: '4 columns, the header has 5' }]);
+    expect(local.findCandidates({ name: 'Villa Nueva', context: {} })).toHaveLength(1);
+    local.close();
+  });
 });
 
 describe('imports that fail', () => {
