@@ -64,7 +64,7 @@ async function readNames(languageDriver: number, name: Buffer): Promise<{ names:
   const notes: string[] = [];
   const rows: GisRow[] = [];
   for await (const chunk of readGisFile(join(dir, 'places.shp'), 'shapefile', { idField: 'id', featureType: 'populatedPlace' }, notes)) rows.push(...chunk);
-  return { names: rows.map((r) => (typeof r.raw === 'string' ? r.raw : r.raw.name ?? '')), notes };
+  return { names: rows.map((r) => (typeof r.raw === 'string' ? r.raw : String(r.raw.name))), notes };
 }
 
 describe('a .dbf without a .cpg is read in its language driver code page', () => {
