@@ -22,6 +22,7 @@ import { decimalNumber } from '../record/coordinate-check.ts';
 import { GEOREFERENCE_TERMS, type GeoreferenceTerm } from '../record/darwin-core.ts';
 import { REVIEWED_STATUS } from '../record/verification-status.ts';
 import { HEAD_BYTES, notText } from '../store/file-kind.ts';
+import { delimiterDeclarationLine } from '../store/input-format.ts';
 import { writeResults } from '../batch/gis-output.ts';
 import { sensitiveGeneralisation } from '../batch/sensitive-records.ts';
 import type { GeneralisationSettings } from '../georef/generalisation.ts';
@@ -84,6 +85,8 @@ const CORRECTIONS: Record<string, { fix: (lat: string, lon: string) => [string, 
 };
 
 interface ParsedOutput {
+  /** The output's first line "sep=;" as written, or ''. */
+  declaration: string;
   header: InputRecord;
   originalLength: number;
   /** How the job generalises a row (undefined: not at all, or not this row): the job's own settings. */
@@ -325,7 +328,9 @@ export class BatchService {
     const { originalLength } = output;
     const delimiter = as ?? output.delimiter;
     const line = (record: InputRecord, fields: string[]) => `${originalLine(record, originalLength, delimiter)}${delimiter}${csvLine(fields.slice(originalLength), delimiter)}\r\n`;
-    const text = [line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
+    // a "sep=" line goes back as the batch wrote it, naming the delimiter asked for when it is another
+    const declaration = output.declaration && (delimiter === output.delimiter ? output.declaration : `sep=${delimiter}\r\n`);
+    const text = [declaration, line(output.header, output.header.fields), ...output.records.map((record, i) => line(record, rows[i]))].join('');
     return { text, delimiter };
   }
 
@@ -402,7 +407,10 @@ export class BatchService {
     if (dirname(progress.outputPath) !== this.folder) throw new RequestError(404, `no batch job ${jobId} was started by this service`, 'jobId');
     // The output keeps the input's delimiter (a semicolon file stays one), and is read by the batch's own reader.
     const delimiter = progress.delimiter as Delimiter;
-    const [headerRecord, ...records] = parseRecords(readFileSync(progress.outputPath, 'utf8'), delimiter);
+    // a delimiter declaration ("sep=;") the batch wrote back before the header is kept for the reviewed file
+    const text = readFileSync(progress.outputPath, 'utf8');
+    const declaration = delimiterDeclarationLine(text)?.line ?? '';
+    const [headerRecord, ...records] = parseRecords(text.slice(declaration.length), delimiter);
     const header = headerRecord.fields;
     const rows = records.map((r) => r.fields);
     const originalLength = appendedColumns(header).termsStart;
@@ -425,7 +433,7 @@ export class BatchService {
         review: null,
       };
     });
-    const parsed = { header: headerRecord, originalLength, generalisationOf, records, delimiter, summaries };
+    const parsed = { declaration, header: headerRecord, originalLength, generalisationOf, records, delimiter, summaries };
     this.parsed.set(jobId, parsed);
     return parsed;
   }

@@ -78,16 +78,21 @@ export async function inspectInput(path: string): Promise<InputFormat> {
 
 /**
  * A first line "sep=;", "sep=," or "sep=" and a tab, written by some spreadsheet exports to tell the
- * delimiter (common practice, no published source): the delimiter it names, and the line as written with
- * its line end, so that the reading starts at the header after it and a batch writes the line back before
- * its output's header. Other delimiters after "sep=" are not read as a declaration.
- * @example delimiterDeclaration(Buffer.from('sep=;\r\nid;locality\r\n'), format) // { delimiter: ';', line: 'sep=;\r\n', bytes: 7 }
+ * delimiter (common practice, no published source): the delimiter it names and the line as written with
+ * its line end. The reading starts at the header after it, and a batch writes the line back before its
+ * output's header, so that the output opens as the input did. Other delimiters after "sep=" are not read
+ * as a declaration.
+ * @example delimiterDeclarationLine('sep=;\r\nid;locality\r\n') // { delimiter: ';', line: 'sep=;\r\n' }
  */
-function delimiterDeclaration(start: Buffer, format: InputFormat): DelimiterDeclaration | undefined {
-  const text = iconv.decode(start.subarray(format.bomBytes, format.bomBytes + 64), format.encoding);
+export function delimiterDeclarationLine(text: string): Omit<DelimiterDeclaration, 'bytes'> | undefined {
   const match = /^sep=([,;\t])(\r?\n)/i.exec(text);
-  if (!match) return undefined;
-  return { delimiter: match[1] as HeaderDelimiter, line: match[0], bytes: iconv.encode(match[0], format.encoding).length };
+  return match ? { delimiter: match[1] as HeaderDelimiter, line: match[0] } : undefined;
+}
+
+/** The declaration at the file's start (after its byte order mark), with its length in the file's bytes. */
+function delimiterDeclaration(start: Buffer, format: InputFormat): DelimiterDeclaration | undefined {
+  const declared = delimiterDeclarationLine(iconv.decode(start.subarray(format.bomBytes, format.bomBytes + 64), format.encoding));
+  return declared && { ...declared, bytes: iconv.encode(declared.line, format.encoding).length };
 }
 
 /**
