@@ -281,6 +281,22 @@ describe('a semicolon-delimited upload with decimal commas (the usual export whe
     ]);
     expect(term(rows[0], 'georeferenceVerificationStatus')).toBe('verified by data custodian');
   });
+
+  it('reads the same upload after a first line "sep=;" (common practice of spreadsheet exports, no published source), and keeps the line in the reviewed file', async () => {
+    const started = await upload(Buffer.from(`sep=;\r\n${input}`, 'utf8'), 'export-sep.csv');
+    expect(started.status).toBe(202);
+    const sepJob = started.json.jobId as string;
+    expect((await finished(sepJob)).state).toBe('done');
+    const list = await json(`/api/v1/batches/${sepJob}/records`);
+    expect(list.body.records.map((r: any) => r.locality)).toEqual(['Vila Serena', 'Puerto Lindo; muelle "viejo"', 'Vila Serena']);
+    expect((await put(`/api/v1/batches/${sepJob}/records/1/review`, { decision: 'accepted', reviewer: 'C. Curator' })).status).toBe(200);
+    const text = await (await fetch(`${server.url}/api/v1/batches/${sepJob}/reviewed.csv`)).text();
+    expect(text.startsWith(`sep=;\r\n${input.split('\r\n')[0]};`)).toBe(true);
+    const rows = parse(text.slice('sep=;\r\n'.length), { delimiter: ';', columns: true, relax_quotes: false }) as Record<string, string>[];
+    expect(rows.map((r) => [r.occurrenceID, r.locality, r.decimalLatitude])).toEqual([
+      ['sc-1', 'Vila Serena', '-45,3010'], ['sc-2', 'Puerto Lindo; muelle "viejo"', ''], ['sc-3', 'Vila Serena', '45,3010'],
+    ]);
+  });
 });
 
 describe('an upload to a service whose gazetteer holds no source', () => {
