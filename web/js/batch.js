@@ -216,7 +216,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
       el('h2', {}, `Row ${detail.row} of the batch`),
       reviewLine,
       el('div', { class: 'actions decision' },
-        el('button', { type: 'button', id: 'accept', class: 'primary', onclick: () => decide('accepted'), disabled: !hasPoint, title: hasPoint ? undefined : 'no point to verify yet', 'aria-keyshortcuts': 'a' }, 'Accept (a)'),
+        el('button', { type: 'button', id: 'accept', class: 'primary', onclick: accept, disabled: !hasPoint, title: hasPoint ? undefined : NO_POINT_TO_ACCEPT, 'aria-keyshortcuts': 'a' }, 'Accept (a)'),
         el('button', { type: 'button', id: 'reject', onclick: () => decide('rejected'), 'aria-keyshortcuts': 'r' }, 'Reject (r)'),
         el('button', { type: 'button', id: 'next-candidate', onclick: nextCandidate, disabled: a.candidates.length < 2, 'aria-keyshortcuts': 'c' }, 'Next candidate (c)'),
         el('button', { type: 'button', onclick: () => select(current + 1), 'aria-keyshortcuts': 'j' }, 'Next record (j)')),
@@ -243,6 +243,12 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     return chooseCandidate(candidates[(at + 1) % candidates.length].feature);
   }
 
+  /** The accept key does what the accept button does: without a point it is disabled, so nothing is sent and its title is said. */
+  function accept() {
+    if (!detail.answer.georeference) return say(NO_POINT_TO_ACCEPT);
+    return decide('accepted');
+  }
+
   async function decide(decision) {
     const r = records[current];
     if (!r) return;
@@ -259,7 +265,7 @@ export function startBatch({ form, progress, progressLine, progressText, review,
   // The review keys work wherever the focus is on the page, except while typing in a text field.
   document.addEventListener('keydown', (event) => {
     if (review.hidden || review.closest('.view')?.hidden || !detail || isTyping(event.target) || event.altKey || event.ctrlKey || event.metaKey) return;
-    const actions = { a: () => decide('accepted'), r: () => decide('rejected'), c: nextCandidate, j: () => select(current + 1), k: () => select(current - 1) };
+    const actions = { a: accept, r: () => decide('rejected'), c: nextCandidate, j: () => select(current + 1), k: () => select(current - 1) };
     const action = actions[event.key];
     if (action) {
       event.preventDefault();
@@ -267,6 +273,9 @@ export function startBatch({ form, progress, progressLine, progressText, review,
     }
   });
 }
+
+/** Why the accept button is disabled on a record without a point; the accept key says it too. */
+const NO_POINT_TO_ACCEPT = 'Nothing to accept: no point to verify yet. Give this record a point first.';
 
 /** Coordinate-check flags under which a record's own coordinates are no point to verify (src/batch/coordinate-check.ts). */
 const UNUSABLE_OWN_COORDINATES = new Set(['beyond-valid-range', 'not-a-decimal-number', 'one-side-empty', 'both-zero']);

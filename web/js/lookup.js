@@ -181,7 +181,7 @@ export function darwinCoreSection(answer, request) {
 /** Distance precision, map scale and datum: each change recomputes through the API. */
 export function editsSection(answer, options, datums, onEdit) {
   const distance = answer.interpretation.offsets.find((o) => o.distance)?.distance;
-  const precision = el('input', { id: 'e-precision', type: 'number', min: '0', step: 'any', value: options.distancePrecision ?? '', placeholder: distance ? String(distance.precision) : 'no distance in the text', disabled: !distance });
+  const precision = el('input', { id: 'e-precision', type: 'number', min: '0', step: 'any', value: options.distancePrecision ?? '', placeholder: distance ? String(distance.precision) : 'no distance given', disabled: !distance });
   const scale = el('input', { id: 'e-scale', type: 'number', min: '1', step: '1', value: options.mapScale ?? '', placeholder: 'e.g. 50000' });
   const datum = el('select', { id: 'e-datum' }, datumChoices(datums).map(([value, label]) => el('option', { value, selected: (options.datum ?? '') === value }, label)));
   const numberOrUndefined = (input) => (input.value === '' ? undefined : Number(input.value));

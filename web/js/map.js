@@ -65,6 +65,10 @@ function label(latlng, text, kind) {
 
 /** Gazetteer shapes named on the map itself: land, water and states; counties only on hover (they would crowd it). */
 const LABELLED_TYPES = new Set(['island', 'lake', 'bay', 'stateProvince', 'river']);
+
+/** The narrowest view, in meters across, around a candidate when there is no point (common practice, no source) [CHOICE]. */
+const CANDIDATE_MIN_VIEW_METERS = 5000;
+
 /** Below this zoom the gazetteer's names are hidden: at island scale they would cover the result [CHOICE]. */
 const PLACE_LABEL_MIN_ZOOM = 8;
 
@@ -170,7 +174,14 @@ export async function createMap(container) {
     });
     if (!g) {
       delete container.dataset.circleRadius;
-      if (result.getLayers().length) map.fitBounds(result.getBounds().pad(0.3), { maxZoom: 12, animate: false });
+      // Each candidate is framed as a point's circle is, its own radius in about the middle third of the
+      // view, and never closer than a few kilometres across (common practice, no source): a lone dot at
+      // street scale shows nothing to choose by.
+      const frame = L.latLngBounds([]);
+      for (const c of answer.candidates ?? []) {
+        frame.extend(L.latLng(c.feature.latitude, c.feature.longitude).toBounds(Math.max(6 * (c.feature.radiusMeters ?? 0), CANDIDATE_MIN_VIEW_METERS)));
+      }
+      if (frame.isValid()) map.fitBounds(frame, { maxZoom: 14, animate: false });
       return;
     }
     if (answer.footprint) {
