@@ -11,8 +11,6 @@
 import type { Delimiter } from '../output/csv.ts';
 import { decodedText, type InputFormat } from '../store/input-format.ts';
 
-export { detectDelimiter } from '../store/input-format.ts';
-
 /** One row as read. `line` is the physical line (1-based) where the row starts. */
 export interface InputRecord {
   fields: string[];
@@ -39,7 +37,6 @@ const READ_BYTES = 1 << 16;
 const QUOTE = 0x22;
 const LF = 0x0a;
 const CR = 0x0d;
-
 
 /**
  * Every row of the file, the header first. Rows are never dropped: a row whose field count differs from

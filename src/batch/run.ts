@@ -28,7 +28,7 @@ import type { BatchSettings } from './georeference-group.ts';
 import type { RouteKilometrePostRule } from '../georef/types.ts';
 import georeferenceChunk, { BATCH_STORE_OPTIONS, closeGazetteerOfThread, type GeoreferenceTask } from './georeference-task.ts';
 import { fileHead, notText } from '../store/file-kind.ts';
-import { inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
+import { detectDelimiter, inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
 import { originalLine } from './original-line.ts';
 import {
   claimJob, dropLocalityResults, findUnfinishedJob, insertJob, jobGeneralisation, loadJob, openJobs, sameSources, updateJob,
@@ -36,7 +36,7 @@ import {
 } from '../store/jobs.ts';
 import { jobsDatabasePath } from '../store/side-files.ts';
 import { groupOf, indexColumns, type ColumnIndex } from './locality-group.ts';
-import { detectDelimiter, readRecords, type Delimiter, type InputRecord } from './records.ts';
+import { readRecords, type Delimiter, type InputRecord } from './records.ts';
 import { checkRunTimestamp, partFileStart, partOfKey, partRowFrame, type PartMeta, type PartSpec } from './partition.ts';
 
 /**

@@ -136,10 +136,10 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
     throw new Error(`${filePath}: the shapefile ${parts.name} has no .prj, so its coordinate system is unknown: add the .prj (or reproject it to WGS84 with one)`);
   }
   const crs = crsToWgs84(Buffer.from(parts.prj).toString('utf8'), `${parts.name}.prj`);
-  const encoding = map.encoding ?? codePage(parts.cpg) ?? dbfEncoding(parts.dbf);
-  const encodingNote = map.encoding ?? parts.cpg
-    ? undefined
-    : `${parts.name}.dbf has no .cpg: read as ${encoding}${encoding === 'utf-8' ? ' (its bytes are UTF-8)' : DBF_LANGUAGE_DRIVERS.get(parts.dbf[29]!) === encoding ? ` (its header's language driver 0x${parts.dbf[29]!.toString(16).padStart(2, '0')})` : ' (the dBASE convention)'}; give --encoding if its names look wrong`;
+  const stated = map.encoding ?? codePage(parts.cpg);
+  const guessed = stated === undefined ? dbfEncoding(parts.dbf) : undefined;
+  const encoding = stated ?? guessed!.encoding;
+  const encodingNote = guessed && `${parts.name}.dbf has no .cpg: read as ${guessed.encoding} (${guessed.why}); give --encoding if its names look wrong`;
   try {
     new TextDecoder(encoding);
   } catch {
@@ -275,16 +275,19 @@ const DBF_LANGUAGE_DRIVERS: ReadonlyMap<number, string> = new Map([
  * `DBF_LANGUAGE_DRIVERS`), else windows-1252, the dBASE convention. GIS programs write UTF-8 .dbf files
  * and a .cpg beside them, and the .cpg is the file most often left out when a shapefile is zipped by hand.
  * UTF-8 is tried before the driver byte because a writer may leave its default id on a UTF-8 file.
- * @example dbfEncoding(readFileSync('ufs.dbf')) // 'utf-8' when it holds "São Paulo" as C3 A3; 'windows-1251' for driver 0xC9
+ * @example dbfEncoding(readFileSync('ufs.dbf')).encoding // 'utf-8' when it holds "São Paulo" as C3 A3; 'windows-1251' for driver 0xC9
  */
-function dbfEncoding(dbf: Uint8Array): string {
+function dbfEncoding(dbf: Uint8Array): { encoding: string; why: string } {
   // the records only: the header's counts and lengths are binary (dBASE III: its length at bytes 8–9)
   const records = dbf.subarray(dbf.length >= 10 ? dbf[8]! | (dbf[9]! << 8) : dbf.length);
-  const byDriver = (dbf.length >= 32 && DBF_LANGUAGE_DRIVERS.get(dbf[29]!)) || 'windows-1252';
+  const driver = dbf.length >= 32 ? DBF_LANGUAGE_DRIVERS.get(dbf[29]!) : undefined;
+  const byDriver = driver === undefined
+    ? { encoding: 'windows-1252', why: 'the dBASE convention' }
+    : { encoding: driver, why: `its header's language driver 0x${dbf[29]!.toString(16).padStart(2, '0')}` };
   if (!records.some((byte) => byte >= 0x80)) return byDriver;
   try {
     new TextDecoder('utf-8', { fatal: true }).decode(records);
-    return 'utf-8';
+    return { encoding: 'utf-8', why: 'its bytes are UTF-8' };
   } catch {
     return byDriver;
   }

@@ -21,9 +21,9 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import iconv from 'iconv-lite';
 import { describe, expect, it } from 'vitest';
-import { inspectInput } from '../../src/store/input-format.ts';
+import { detectDelimiter, inspectInput } from '../../src/store/input-format.ts';
 import { originalLine } from '../../src/batch/original-line.ts';
-import { detectDelimiter, parseRecords, readRecords, type Delimiter, type InputRecord } from '../../src/batch/records.ts';
+import { parseRecords, readRecords, type Delimiter, type InputRecord } from '../../src/batch/records.ts';
 
 const FILES = 4000;
 const MAX_ROWS = 40;
