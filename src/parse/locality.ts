@@ -725,7 +725,8 @@ function routeOf(s: Source, from: number, end: number): RouteReading | undefined
   if ((L.STRONG_FROM_WORDS.has(norm(s, start) ?? '') || L.FROM_WORDS.has(norm(s, start) ?? '')) && startsCapitalised(s, start + 1, end)) start++;
   let stop = end;
   const last = s.tokens[end - 1]!;
-  if (stop - start >= 2 && last.text === last.norm && (modeOfNoun(last.norm) === 'road' || modeOfNoun(last.norm) === 'trail')) stop--;
+  // Lower case as written, a sentence's period after it aside ("Ipala-Amatillo road.").
+  if (stop - start >= 2 && last.text.replace(/\.$/, '') === last.norm && (modeOfNoun(last.norm) === 'road' || modeOfNoun(last.norm) === 'trail')) stop--;
   const ends: [string, string][] = [];
   for (let k = start + 1; k < stop - 1; k++) {
     if (!L.ROUTE_JOINERS.has(s.tokens[k]!.norm) || !startsCapitalised(s, start, k) || !startsCapitalised(s, k + 1, stop)) continue;
