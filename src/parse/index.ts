@@ -113,7 +113,7 @@ function interpret(text: string): Interpretation {
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length);
   // Before any span is read: it may take a period back from a short word.
-  splitDottedHierarchy(tokens, separated);
+  result.notes.push(...splitDottedHierarchy(tokens, separated));
   const segments: Segment[] = separated.flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(tokens, segment, readSpan));
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
@@ -315,28 +315,39 @@ function headsCountry(tokens: Token[], from: number, to: number): boolean {
  * clause runs on. In a text headed by a country's name or code and a period, such a period ends the clause
  * [our rule, no source]: the head's, and one after the last word of a name of two or more words that is no
  * unit word and has three letters or more with a vowel (abbreviations written after a name, "Co.", "Mts.",
- * "Rd.", seldom have), before a capitalised word. The word loses its period; the segments change in place.
+ * "Rd.", seldom have), before a capitalised word. In any other text it ends the clause only after a capitalised
+ * word so ended that follows a capitalised word or a joining word of the same name and is no road, trail or river
+ * word nor a short form names are written with ("Reserva do Alisos. Trilha …", "Vila Nova Lima. Fazenda …"; not
+ * "Rod. Alisos", "Cerro Sta. Rosa") [CHOICE periodEndsName, common practice, no source]. The word loses its
+ * period; the segments change in place.
  */
-function splitDottedHierarchy(tokens: Token[], segments: Segment[]): void {
+function splitDottedHierarchy(tokens: Token[], segments: Segment[]): string[] {
+  const notes: string[] = [];
   let headed = segments[0]?.separator === '.' && headsCountry(tokens, segments[0].from, segments[0].to);
-  for (let index = 0; index < segments.length && (index === 0 || (headed && segments[index - 1]!.separator === '.')); index++) {
+  for (let index = 0; index < segments.length; index++) {
     const segment = segments[index]!;
+    const chain = headed && (index === 0 || segments[index - 1]!.separator === '.');
     for (let k = segment.from; k < segment.to - 1; k++) {
       const t = tokens[k]!;
       const next = tokens[k + 1]!;
       if (t.kind !== 'word' || !t.dotted || next.kind !== 'word' || next.text[0] === next.text[0]!.toLowerCase()) continue;
-      const ends = headed
-        ? k > segment.from && t.norm.length >= 3 && /[aeiou]/.test(t.norm) && !unitWordLevel(t) && !L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm)
-        : index === 0 && headsCountry(tokens, segment.from, k + 1);
-      if (!headed && !ends) break;
-      if (!ends) continue;
+      const nameEnd = k > segment.from && t.norm.length >= 3 && /[aeiou]/.test(t.norm) && !unitWordLevel(t) && !L.DOTTED_ONLY_ADMINISTRATIVE_WORDS.has(t.norm);
+      const country = !headed && index === 0 && headsCountry(tokens, segment.from, k + 1);
+      if (!(country || (nameEnd && (chain || periodEndsName(t, tokens[k - 1]!))))) continue;
+      if (!country && !chain) notes.push(`the period after "${t.text.slice(0, -1)}" read as ending a name, no short form's [CHOICE periodEndsName, docs/method.md]`);
       tokens[k] = { ...t, text: t.text.slice(0, -1), end: t.end - 1, dotted: false };
       segments.splice(index, 1, { from: segment.from, to: k + 1, separator: '.' }, { ...segment, from: k + 1 });
-      headed = true;
+      headed ||= country;
       break;
     }
   }
+  return notes;
 }
+
+/** Outside a country-headed chain, the tests splitDottedHierarchy adds before a period ends a name ([CHOICE periodEndsName]). */
+const periodEndsName = (t: Token, before: Token): boolean =>
+  t.text[0] !== t.text[0]!.toLowerCase() && before.kind === 'word' && (before.text[0] !== before.text[0]!.toLowerCase() || L.SMALL_WORDS.has(before.norm))
+  && !L.ROAD_NOUNS.has(t.norm) && !L.TRAIL_NOUNS.has(t.norm) && !L.RIVER_NOUNS.has(t.norm) && !L.NAME_ABBREVIATIONS.has(t.norm);
 
 /** A segment that is only a name: a unit by its unit word, or a named place with nothing else. */
 function isBareName(text: string, tokens: Token[], segment: Segment, reading: LocalityRead | undefined): boolean {
