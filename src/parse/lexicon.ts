@@ -189,7 +189,7 @@ export const ADMINISTRATIVE_WORDS: ReadonlyMap<string, 'country' | 'stateProvinc
   ...[...set('municipality municipio municipios mun mpio munic municipalite commune comuna concelho township twp')].map((w) => [w, 'municipality'] as const),
   ...[...set('district dist distrito distr freguesia parroquia canton paroisse comte')].map((w) => [w, 'unit'] as const),
 ]);
-/** Short forms that names are written with, dotted ("Sta. Rosa", "Faz. Alisos", "Res. Biol."): a period after one never ends a name. */
+/** Short forms that names are written with, dotted ("Sta. Rosa", "Faz. Alisos", "Res. Biol."): a period after one never ends a name [CHOICE periodEndsName]. */
 export const NAME_ABBREVIATIONS = set('sta sto ste sra snra faz hda fda est mte pto pte pta res rep biol nat natl prov dept gen pres cel cap gral');
 /** Unit words that count only written with a capital and a period ("Par.", "Est."). */
 export const DOTTED_ONLY_ADMINISTRATIVE_WORDS = set('par est co mun dist');
