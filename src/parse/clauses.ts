@@ -5,7 +5,7 @@
  * @example unitWordLevel(tokenize('Municipio')[0]) // 'municipality'
  */
 import type { AdministrativeContext, AdministrativeLevel, Language, NamedUnit } from './types.ts';
-import type { Token } from './tokens.ts';
+import { writtenText, type Token } from './tokens.ts';
 import * as L from './lexicon.ts';
 
 /** A run of tokens between separators, [from, to), with the separator that ended it. */
@@ -147,43 +147,64 @@ export function unitWordLevel(t: Token | undefined): AdministrativeLevel | undef
  */
 export function readAdministrative(text: string, tokens: Token[], from: number, to: number): NamedUnit | null {
   if (to - from < 2 || tokens.slice(from, to).some((t) => t.kind === 'number')) return null;
-  const slice = (a: number, b: number): string => text.slice(tokens[a]!.start, tokens[b - 1]!.end);
-  const written = slice(from, to);
+  const written = writtenText(text, tokens, from, to);
   const head = unitWordLevel(tokens[from]);
   if (head && tokens[from + 1]!.kind === 'word') {
     // "Municipio de X", and "Municipio d X" with "de" cut short: a lone "d" after a unit word is no name's first word.
     const of = L.FROM_WORDS.has(tokens[from + 1]!.norm) || tokens[from + 1]!.norm === 'd';
     const nameFrom = of && to - from > 2 ? from + 2 : from + 1;
-    return { name: slice(nameFrom, to), level: head, written };
+    return { name: writtenText(text, tokens, nameFrom, to), level: head, written };
   }
   const tail = unitWordLevel(tokens[to - 1]);
   // "Alisos County" names a unit; "Parque do Estado", "Reserva de la Provincia" name a place of the unit.
-  if (tail && tokens[to - 2]!.kind === 'word' && !L.FROM_WORDS.has(tokens[to - 2]!.norm)) return { name: slice(from, to - 1), level: tail, written };
+  if (tail && tokens[to - 2]!.kind === 'word' && !L.FROM_WORDS.has(tokens[to - 2]!.norm)) return { name: writtenText(text, tokens, from, to - 1), level: tail, written };
   return null;
 }
 
 /** Administrative levels in the order labels write them: "Country: State: County: Municipality". */
 export const ADMINISTRATIVE_ORDER: Array<keyof AdministrativeContext> = ['country', 'stateProvince', 'county', 'municipality'];
 
+const LANGUAGES: readonly Language[] = ['en', 'es', 'pt', 'fr'];
+
+/** Each marker word of exactly one language, with that language; a word two languages share marks neither. */
+const SOLE_MARKERS: ReadonlyMap<string, Language> = (() => {
+  const sole = new Map<string, Language>();
+  for (const language of LANGUAGES) {
+    for (const word of L.LANGUAGE_MARKERS[language]) {
+      if (LANGUAGES.filter((other) => L.LANGUAGE_MARKERS[other].has(word)).length === 1) sole.set(word, language);
+    }
+  }
+  return sole;
+})();
+
 /**
  * The language of a text, when its words mark one language more than any other (marker words in
  * lexicon.ts; "à", "ç", "ã", "õ" and "ñ" count too). Undefined when unclear.
+ * @example detectLanguage('5 km al norte del río', tokenize('5 km al norte del río')) // 'es'
  */
 export function detectLanguage(text: string, tokens: Token[]): Language | undefined {
   const score: Record<Language, number> = { en: 0, es: 0, pt: 0, fr: 0 };
-  const languages = Object.keys(score) as Language[];
   for (const t of tokens) {
     // One-letter words ("e", "a", "o") are also direction letters and hemispheres: not counted.
     if (t.kind !== 'word' || t.norm.length < 2) continue;
-    const marking = languages.filter((language) => L.LANGUAGE_MARKERS[language].has(t.norm));
-    if (marking.length === 1) score[marking[0]!] += 1;
+    const marked = SOLE_MARKERS.get(t.norm);
+    if (marked) score[marked] += 1;
   }
-  for (const c of text) {
+  // The marked letters are single UTF-16 units, so reading the text unit by unit counts them all.
+  for (let k = 0; k < text.length; k++) {
+    const c = text[k];
     if (c === 'à' || c === 'è') score.fr += 1;
     if (c === 'ã' || c === 'õ' || c === 'ç') score.pt += 1;
     if (c === 'ñ') score.es += 1;
   }
-  const ranked = languages.sort((a, b) => score[b] - score[a]);
-  const [best, second] = ranked;
-  return score[best!] > 0 && score[best!] > score[second!] ? best : undefined;
+  // The one language scoring highest, when no other scores as high.
+  let best: Language | undefined;
+  let tied = false;
+  for (const language of LANGUAGES) {
+    if (best === undefined || score[language] > score[best]) {
+      best = language;
+      tied = false;
+    } else if (score[language] === score[best]) tied = true;
+  }
+  return best !== undefined && score[best] > 0 && !tied ? best : undefined;
 }

@@ -4,7 +4,7 @@
  * @example featureKindOf('Laguna Negra') // 'water'
  */
 import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, RouteReading, WrittenDistance, WrittenHeading } from './types.ts';
-import { fold, type Token } from './tokens.ts';
+import { fold, writtenText, type Token } from './tokens.ts';
 import { ordinalAt, readNumberAt } from './numbers.ts';
 import { directionLetters, readHeadingAt } from './headings.ts';
 import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
@@ -49,8 +49,13 @@ const matchPhrase = (s: Source, i: number, list: L.PhraseList): number => phrase
  */
 export function phraseLengthAt(tokens: Token[], i: number, list: L.PhraseList): number {
   let best = 0;
-  for (const phrase of list.get(tokens[i]?.norm ?? '') ?? []) {
-    if (phrase.length > best && phrase.every((w, k) => tokens[i + k]?.norm === w)) best = phrase.length;
+  const phrases = list.get(tokens[i]?.norm ?? '');
+  if (!phrases) return 0;
+  for (const phrase of phrases) {
+    if (phrase.length <= best) continue;
+    let k = 0;
+    while (k < phrase.length && tokens[i + k]?.norm === phrase[k]) k++;
+    if (k === phrase.length) best = phrase.length;
   }
   return best;
 }
@@ -154,20 +159,25 @@ function modeOfNoun(n: string | undefined): PathQualifier['mode'] | undefined {
 }
 
 /**
+ * "Estrada do Sul de X", "Sentier des Crêtes de X": the "do"/"des" at k, after the capitalised generic word of a
+ * line whose name starts at i, is part of its name, and so is the word after it, even a heading ("Sul"); the
+ * next "de" is "from".
+ */
+const joinsLineName = (s: Source, i: number, k: number): boolean =>
+  k > i && L.NAME_GENITIVES.has(s.tokens[k]!.norm) && !!modeOfNoun(norm(s, k - 1)) && /^\p{Lu}/u.test(s.tokens[k - 1]!.text);
+
+/**
  * End of a line name starting at i: the clause end, or (when the place follows) a heading, "upstream", or the
  * first "from"/"desde" ("along Rio de Ouro from Vila Serena"), else the first "de" not followed by an article:
  * "de la" belongs to the name ("10 km along Rio de la Plata de Vila Serena").
  */
 function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
   if (!stopAtFrom) return s.tokens.length;
-  // "Estrada do Sul de X", "Sentier des Crêtes de X": the "do"/"des" after the line's capitalised generic
-  // word is part of its name, and so is the word after it, even a heading ("Sul"); the next "de" is "from".
-  const joins = (k: number) => k > i && L.NAME_GENITIVES.has(s.tokens[k]!.norm) && !!modeOfNoun(norm(s, k - 1)) && /^\p{Lu}/u.test(s.tokens[k - 1]!.text);
   let stop = -1;
   for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.STRONG_FROM_WORDS.has(s.tokens[k]!.norm)) stop = k;
-  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') && !joins(k)) stop = k;
+  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') && !joinsLineName(s, i, k)) stop = k;
   let k = i;
-  while (k < s.tokens.length && k !== stop && (joins(k - 1) || !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
+  while (k < s.tokens.length && k !== stop && (joinsLineName(s, i, k - 1) || !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
   return k;
 }
 
@@ -177,12 +187,11 @@ function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
  * `stopAtFrom`: the feature follows, so a line name ends at "from"/"de".
  */
 function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQualifier; byAir?: true; next: number } | null {
-  const written = (to: number): string => s.text.slice(s.tokens[i]!.start, s.tokens[to - 1]!.end);
   const air = matchPhrase(s, i, L.BY_AIR_PHRASES);
   if (air) return { byAir: true, next: i + air };
   for (const [list, mode] of [[L.UPSTREAM_PHRASES, 'upstream'], [L.DOWNSTREAM_PHRASES, 'downstream']] as const) {
     const n = matchPhrase(s, i, list);
-    if (n) return { path: pathOf(mode, written(i + n)), next: i + n };
+    if (n) return { path: pathOf(mode, writtenText(s.text, s.tokens, i, i + n)), next: i + n };
   }
   const along = matchPhrase(s, i, L.ALONG_PHRASES);
   if (along) {
@@ -191,9 +200,9 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
     const end = lineEnd(s, readHeading(s, start) && start + 1 < s.tokens.length ? start + 1 : start, stopAtFrom);
     if (end === start) return null;
     const nounMode = end - start === 1 ? modeOfNoun(norm(s, start)) : undefined;
-    if (nounMode) return { path: pathOf(nounMode, written(end)), next: end };
+    if (nounMode) return { path: pathOf(nounMode, writtenText(s.text, s.tokens, i, end)), next: end };
     const first = modeOfNoun(norm(s, start));
-    return { path: pathOf(first ?? 'along', written(end), nameBetween(s, start, end)), next: end };
+    return { path: pathOf(first ?? 'along', writtenText(s.text, s.tokens, i, end), nameBetween(s, start, end)), next: end };
   }
   if (L.PATH_PREPOSITIONS.has(norm(s, i) ?? '')) {
     let k = i + 1;
@@ -205,7 +214,7 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
     const onlyRoads = ['on', 'en', 'na', 'no', 'sur'].includes(preposition);
     if (!mode || (onlyRoads && mode === 'river')) return null;
     const end = lineEnd(s, k + 1, stopAtFrom);
-    return { path: pathOf(mode, written(end), end > k + 1 ? nameBetween(s, k, end) : null), next: end };
+    return { path: pathOf(mode, writtenText(s.text, s.tokens, i, end), end > k + 1 ? nameBetween(s, k, end) : null), next: end };
   }
   return null;
 }

@@ -63,6 +63,14 @@ export function fold(text: string): string {
 }
 
 /**
+ * The verbatim text of tokens [from, to): from the first one's start to the last one's end.
+ * @example writtenText('10 km N of X', tokenize('10 km N of X'), 0, 3) // '10 km N'
+ */
+export function writtenText(text: string, tokens: Token[], from: number, to: number): string {
+  return text.slice(tokens[from]!.start, tokens[to - 1]!.end);
+}
+
+/**
  * Splits a locality text into numbers, words and single-character symbols in one left-to-right pass
  * (linear time, no backtracking).
  * @example tokenize("10 km. N of X").map(t => t.norm) // ['10', 'km', 'n', 'of', 'x']
