@@ -319,6 +319,7 @@ export function writesCoordinates(tokens: Token[]): boolean {
  */
 export function findCoordinates(text: string, tokens: Token[], from = 0, to = tokens.length, lenient = false): CoordinatesFound | null {
   const window = tokens.slice(from, to);
+  if (!window.some(isNum)) return null;
   const typewriter = doublePrimeAsMinutes(tokens);
   for (let i = 0; i < window.length; i++) {
     const found = coordinatesAt(text, window, i, lenient, typewriter);
@@ -334,10 +335,13 @@ export function findCoordinates(text: string, tokens: Token[], from = 0, to = to
  * @example pairAtStart('-45.3, -131.0', tokenize('-45.3, -131.0'))?.endToken // 3
  */
 export function pairAtStart(text: string, tokens: Token[]): CoordinatesFound | null {
-  return tokens.length === 0 ? null : coordinatesAt(text, tokens, 0, true, doublePrimeAsMinutes(tokens));
+  return !tokens.some(isNum) ? null : coordinatesAt(text, tokens, 0, true, doublePrimeAsMinutes(tokens));
 }
 
-/** The UTM reference or coordinate pair that starts at token i, with the datum written anywhere in the tokens. */
+/**
+ * The UTM reference or coordinate pair that starts at token i, with the datum written anywhere in the tokens.
+ * Each holds a number (a zone, degrees), so callers pass over a text with none at once.
+ */
 function coordinatesAt(text: string, tokens: Token[], i: number, lenient: boolean, typewriter: boolean): CoordinatesFound | null {
   const found = readUtm(text, tokens, i) ?? readPair(text, tokens, i, lenient, typewriter);
   if (!found) return null;

@@ -26,9 +26,16 @@ const DIRECTION_PIECES: ReadonlyArray<[string, string]> = [
 /** Letters of abbreviated directions: O is oeste/ouest (west), L is leste (east). */
 const LETTER_CARDINAL: Readonly<Record<string, string>> = { n: 'n', s: 's', e: 'e', w: 'w', o: 'w', l: 'e' };
 
+/**
+ * Words made of the pieces alone: what segmentDirectionWord splits, told at once for the many words it cannot
+ * ("river", "sierra"), which would otherwise try every piece at every step.
+ */
+const PIECES_ONLY = new RegExp(`^(?:${DIRECTION_PIECES.map(([piece]) => piece).join('|')})*$`);
+
 /** Splits a written-out direction word into cardinal letters, or null. Bounded: words over 24 letters are refused. */
 function segmentDirectionWord(word: string): string | null {
   if (word.length > 24) return null;
+  if (!PIECES_ONLY.test(word)) return null;
   if (word === '') return '';
   for (const [piece, letter] of DIRECTION_PIECES) {
     if (word.startsWith(piece)) {
@@ -39,13 +46,22 @@ function segmentDirectionWord(word: string): string | null {
   return null;
 }
 
+/** Cardinal letters of an abbreviation written with the letters of LETTER_CARDINAL alone ("nne", "so", "l"), or null. */
+function abbreviationLetters(word: string): string | null {
+  let letters = '';
+  for (const c of word) {
+    const letter = LETTER_CARDINAL[c];
+    if (letter === undefined) return null;
+    letters += letter;
+  }
+  return letters;
+}
+
 /** Cardinal letters ("n", "ne", "nne") of one direction word or abbreviation, or null. */
 export function directionLetters(norm: string): string | null {
-  const word = norm.replace(/-/g, '');
-  if (word.length >= 1 && word.length <= 3 && [...word].every((c) => c in LETTER_CARDINAL)) {
-    return [...word].map((c) => LETTER_CARDINAL[c]).join('');
-  }
-  return segmentDirectionWord(word);
+  const word = norm.includes('-') ? norm.replace(/-/g, '') : norm;
+  const abbreviation = word.length >= 1 && word.length <= 3 ? abbreviationLetters(word) : null;
+  return abbreviation ?? segmentDirectionWord(word);
 }
 
 /** Mean of two azimuths along the shorter arc. */

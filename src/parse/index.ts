@@ -576,6 +576,7 @@ const UNIT_LIKE_KINDS: ReadonlySet<FeatureKind> = new Set(['populated-place', 'l
  */
 function seatOf(feature: string, result: Pick<Interpretation, 'administrative' | 'notes'>): string {
   const municipality = result.administrative.municipality;
+  if (!municipality) return feature;
   const words = fold(feature).split(/\s+/);
   const [kind] = words.slice(words.length - 1);
   const article = words.length === 2 && SMALL_ARTICLES.has(words[0]!);

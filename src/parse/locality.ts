@@ -264,11 +264,14 @@ const hasDistance = (s: Source, from: number, to: number): boolean => {
 function hasNameWord(s: Source, from: number, to: number): boolean {
   for (let k = from; k < to; k++) {
     const t = s.tokens[k]!;
-    // A direction word counts as a name when written like one ("El Sur"), not as an abbreviation ("NNE").
-    const capitalised = t.text.length >= 3 && t.text[0] !== t.text[0]!.toLowerCase() && t.text.slice(1) !== t.text.slice(1).toUpperCase();
     if (t.kind !== 'word') continue;
+    const small = L.SMALL_WORDS.has(t.norm);
+    // Most words are long and no small word: no need to ask whether they are directions.
+    if (!small && t.norm.length > 3) return true;
     const direction = directionLetters(t.norm) !== null;
-    if ((!L.SMALL_WORDS.has(t.norm) && (t.norm.length > 3 || !direction)) || (capitalised && direction)) return true;
+    if (!small && !direction) return true;
+    // A direction word counts as a name when written like one ("El Sur"), not as an abbreviation ("NNE").
+    if (direction && t.text.length >= 3 && t.text[0] !== t.text[0]!.toLowerCase() && t.text.slice(1) !== t.text.slice(1).toUpperCase()) return true;
   }
   return false;
 }
@@ -320,7 +323,7 @@ export function featureKindOf(name: string): FeatureKind | undefined {
   const firstKind = L.FEATURE_KIND_WORDS.get(wordOf(name, 0, firstSpace));
   if (firstKind) return firstKind;
   // The lead's two words, or its two initials written without a space ("P.N. La Amistad").
-  const initials = /^(\p{L})\.(\p{L})\.$/u.exec(name.slice(0, firstSpace));
+  const initials = name.charAt(firstSpace - 1) === '.' ? /^(\p{L})\.(\p{L})\.$/u.exec(name.slice(0, firstSpace)) : null;
   const secondSpace = name.indexOf(' ', firstSpace + 1);
   const lead = initials ? fold(`${initials[1]}-${initials[2]}`) : secondSpace > 0 ? `${wordOf(name, 0, firstSpace)}-${wordOf(name, firstSpace + 1, secondSpace)}` : '';
   if (L.PROTECTED_AREA_LEADS.has(lead)) return 'protected-area';
