@@ -293,6 +293,12 @@ const DEGREE_SIGNS = new Set(['°', 'º', '˚', 'degrees', 'grados', 'graus', 'd
 /** A hemisphere after degrees: a word ("sur", "ouest"), or a capital letter ("N", "O"), not the small "e" or "o" of running text. */
 const hemisphereAfterDegrees = (t: Token | undefined): boolean => hemisphereOf(t) !== undefined && (t!.norm.length > 1 || t!.text[0] !== t!.text[0]!.toLowerCase());
 
+/** After the number at k, a degree sign or word and then a number, a prime or a hemisphere ("54° 15", "54 grados S"). */
+function degreesWrittenAt(tokens: Token[], k: number): boolean {
+  const after = tokens[k + 2];
+  return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
+}
+
 /**
  * Whether tokens write coordinates, read or not: a number with a degree sign or word followed by a number, a
  * prime or a hemisphere ("54° 15", "54°'", "54 grados S"; not the ordinal "1º de Maio" nor "25°C"), or a
@@ -301,14 +307,10 @@ const hemisphereAfterDegrees = (t: Token | undefined): boolean => hemisphereOf(t
  * @example writesCoordinates(tokenize('Lat. 54° 15 N')) // true
  */
 export function writesCoordinates(tokens: Token[]): boolean {
-  const degreesWritten = (k: number): boolean => {
-    const after = tokens[k + 2];
-    return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
-  };
   // A label counts when any number follows it: before the last number. Found once, so long texts stay linear.
   let lastNumber = -1;
   tokens.forEach((t, k) => { if (t.kind === 'number') lastNumber = k; });
-  return tokens.some((t, k) => (t.kind === 'number' && degreesWritten(k))
+  return tokens.some((t, k) => (t.kind === 'number' && degreesWrittenAt(tokens, k))
     || (k < lastNumber && (normIn(t, LATITUDE_LABELS) || normIn(t, LONGITUDE_LABELS))));
 }
 

@@ -72,7 +72,8 @@ export function writtenText(text: string, tokens: Token[], from: number, to: num
 
 /**
  * Splits a locality text into numbers, words and single-character symbols in one left-to-right pass
- * (linear time, no backtracking).
+ * (linear time, no backtracking). Every token is written with the same fields in the same order, the ones
+ * its kind lacks left undefined: one shape of object, which the readers go through fastest.
  * @example tokenize("10 km. N of X").map(t => t.norm) // ['10', 'km', 'n', 'of', 'x']
  */
 export function tokenize(text: string): Token[] {
@@ -98,10 +99,10 @@ export function tokenize(text: string): Token[] {
         decimals = text.slice(d0, i);
       }
       const written = text.slice(start, i);
-      tokens.push({ kind: 'number', text: written, norm: written.replace(',', '.'), start, end: i, spaceBefore: space, decimals });
+      tokens.push({ kind: 'number', text: written, norm: written.replace(',', '.'), start, end: i, spaceBefore: space, dotted: false, decimals, fraction: undefined });
     } else if (VULGAR_FRACTIONS.has(c)) {
       i++;
-      tokens.push({ kind: 'number', text: c, norm: c, start, end: i, spaceBefore: space, decimals: '', fraction: VULGAR_FRACTIONS.get(c)! });
+      tokens.push({ kind: 'number', text: c, norm: c, start, end: i, spaceBefore: space, dotted: false, decimals: '', fraction: VULGAR_FRACTIONS.get(c)! });
     } else if (isLetter(c)) {
       while (i < text.length && (isLetter(text[i]) || (text[i]! > '\u007f' && MARK.test(text[i]!)) || (text[i] === '-' && isLetter(text[i + 1])))) i++;
       // French elision: "d'", "l'", "qu'" stay one word so "au nord d'Aubrac" reads "d'" as "of".
@@ -114,14 +115,14 @@ export function tokenize(text: string): Token[] {
         dotted = true;
         word = text.slice(start, i);
       }
-      tokens.push({ kind: 'word', text: word, norm, start, end: i, spaceBefore: space, dotted });
+      tokens.push({ kind: 'word', text: word, norm, start, end: i, spaceBefore: space, dotted, decimals: undefined, fraction: undefined });
     } else {
       i++;
       // Two apostrophes written for seconds ('') read as one double prime.
       // A double quote doubled ("") is one double prime, as a CSV export may leave it.
       if ((c === "'" || c === '′' || c === '"') && text[i] === c) i++;
       const written = text.slice(start, i);
-      tokens.push({ kind: 'symbol', text: written, norm: written.length === 2 ? '″' : c, start, end: i, spaceBefore: space });
+      tokens.push({ kind: 'symbol', text: written, norm: written.length === 2 ? '″' : c, start, end: i, spaceBefore: space, dotted: false, decimals: undefined, fraction: undefined });
     }
     space = false;
   }
