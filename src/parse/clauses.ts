@@ -5,7 +5,7 @@
  * @example unitWordLevel(tokenize('Municipio')[0]) // 'municipality'
  */
 import type { AdministrativeContext, AdministrativeLevel, Language, NamedUnit } from './types.ts';
-import { writtenText, type Token } from './tokens.ts';
+import { someTokenIn, writtenText, type Token } from './tokens.ts';
 import * as L from './lexicon.ts';
 
 /** A run of tokens between separators, [from, to), with the separator that ended it. */
@@ -72,7 +72,7 @@ export function foldedWords(tokens: Token[], from: number, to: number): string {
 /** True when the clause says no place is known ("locality unknown", "sin localidad", "s. loc."). */
 export function isRefusal(tokens: Token[], from: number, to: number): boolean {
   const words = foldedWords(tokens, from, to);
-  return L.REFUSAL_PHRASES.has(words) || (words === '' && tokens.slice(from, to).some((t) => t.norm === '?'));
+  return L.REFUSAL_PHRASES.has(words) || (words === '' && someTokenIn(tokens, from, to, (t) => t.norm === '?'));
 }
 
 /** Value of an elevation number; "1.200" with three decimals after a period is read as 1200 (thousands separator). */
@@ -146,7 +146,7 @@ export function unitWordLevel(t: Token | undefined): AdministrativeLevel | undef
  * @example readAdministrative(text, tokenize("Municipio de Alisos"), 0, 3) // { name: 'Alisos', level: 'municipality', written: 'Municipio de Alisos' }
  */
 export function readAdministrative(text: string, tokens: Token[], from: number, to: number): NamedUnit | null {
-  if (to - from < 2 || tokens.slice(from, to).some((t) => t.kind === 'number')) return null;
+  if (to - from < 2 || someTokenIn(tokens, from, to, (t) => t.kind === 'number')) return null;
   const written = writtenText(text, tokens, from, to);
   const head = unitWordLevel(tokens[from]);
   if (head && tokens[from + 1]!.kind === 'word') {

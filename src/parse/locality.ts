@@ -4,7 +4,7 @@
  * @example featureKindOf('Laguna Negra') // 'water'
  */
 import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, RouteReading, WrittenDistance, WrittenHeading } from './types.ts';
-import { fold, writtenText, type Token } from './tokens.ts';
+import { fold, someTokenIn, writtenText, type Token } from './tokens.ts';
 import { ordinalAt, readNumberAt } from './numbers.ts';
 import { directionLetters, readHeadingAt } from './headings.ts';
 import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
@@ -64,8 +64,11 @@ export function phraseLengthAt(tokens: Token[], i: number, list: L.PhraseList): 
 function nameBetween(s: Source, from: number, to: number): string | null {
   while (from < to && s.tokens[from]!.kind === 'symbol' && !'"“«('.includes(s.tokens[from]!.text)) from++;
   while (to > from && s.tokens[to - 1]!.kind === 'symbol' && !'"”»)'.includes(s.tokens[to - 1]!.text)) to--;
-  if (from >= to || !s.tokens.slice(from, to).some((t) => t.kind === 'word')) return null;
-  const name = s.text.slice(s.tokens[from]!.start, s.tokens[to - 1]!.end).replace(/^["“«(\s]+|["”»)\s]+$/g, '');
+  if (from >= to || !someTokenIn(s.tokens, from, to, (t) => t.kind === 'word')) return null;
+  const written = writtenText(s.text, s.tokens, from, to);
+  // A token starts and ends with no space, so only a quotation mark or bracket at either end is trimmed.
+  const quoted = '"“«('.includes(written[0]!) || '"”»)'.includes(written[written.length - 1]!);
+  const name = quoted ? written.replace(/^["“«(\s]+|["”»)\s]+$/g, '') : written;
   return name === '' ? null : name;
 }
 
@@ -305,7 +308,7 @@ function placeAt(s: Source, from: number, end: number): string | null {
 /** Where a lower-case word for a part of a mountain that closes a name starts ("Monte Verdemar summit area"), else `end`. */
 function mountainPartAtEnd(s: Source, from: number, end: number): number {
   for (let k = Math.max(from + 1, end - 3); k < end; k++) {
-    const lowerCase = s.tokens.slice(k, end).every((t) => t.text === t.norm);
+    const lowerCase = !someTokenIn(s.tokens, k, end, (t) => t.text !== t.norm);
     if (lowerCase && matchPhrase(s, k, L.MOUNTAIN_PART_WORDS) === end - k && hasNameWord(s, from, k)) return k;
   }
   return end;

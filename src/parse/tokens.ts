@@ -57,9 +57,11 @@ const isLetter = (c: string | undefined): boolean =>
 
 /** Lower case with accents (combining marks) removed. */
 export function fold(text: string): string {
-  // ASCII needs no decomposition.
-  if (/^[\x00-\x7f]*$/.test(text)) return text.toLowerCase();
-  return text.normalize('NFD').replace(/\p{M}+/gu, '').toLowerCase();
+  // ASCII needs no decomposition (told by a loop: faster than a pattern on the short words folded most).
+  for (let k = 0; k < text.length; k++) {
+    if (text.charCodeAt(k) > 0x7f) return text.normalize('NFD').replace(/\p{M}+/gu, '').toLowerCase();
+  }
+  return text.toLowerCase();
 }
 
 /**
@@ -68,6 +70,15 @@ export function fold(text: string): string {
  */
 export function writtenText(text: string, tokens: Token[], from: number, to: number): string {
   return text.slice(tokens[from]!.start, tokens[to - 1]!.end);
+}
+
+/**
+ * True when a token of [from, to) passes `test`: `some` over a span of tokens, without copying the span.
+ * @example someTokenIn(tokenize('10 km N'), 1, 3, (t) => t.kind === 'number') // false
+ */
+export function someTokenIn(tokens: Token[], from: number, to: number, test: (t: Token) => boolean): boolean {
+  for (let k = Math.max(from, 0); k < Math.min(to, tokens.length); k++) if (test(tokens[k]!)) return true;
+  return false;
 }
 
 /**
