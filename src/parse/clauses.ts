@@ -53,6 +53,8 @@ export function splitSegments(tokens: Token[], from: number, to: number): Segmen
  * @example splitElevationTail(text, tokenize('summit 1200 m high'), { from: 0, to: 4, separator: '' }) // [{ from: 0, to: 1, … }, { from: 1, to: 4, … }]
  */
 export function splitElevationTail(text: string, tokens: Token[], segment: Segment): Segment[] {
+  // An elevation holds a number: most clauses hold none and are not tried at every token.
+  if (!someTokenIn(tokens, segment.from, segment.to, (t) => t.kind === 'number')) return [segment];
   if (readElevation(text, tokens, segment.from, segment.to)) return [segment];
   for (let k = segment.from + 1; k < segment.to - 1; k++) {
     // "colline de 300 m de haut": the preposition before the number goes with the elevation.
@@ -64,9 +66,14 @@ export function splitElevationTail(text: string, tokens: Token[], segment: Segme
 
 /** Words (and numbers) of tokens [from, to) joined by single spaces, punctuation dropped: "s. loc." → "s loc". */
 export function foldedWords(tokens: Token[], from: number, to: number): string {
-  const words: string[] = [];
-  for (let k = from; k < to; k++) if (tokens[k]!.kind !== 'symbol') words.push(tokens[k]!.norm);
-  return words.join(' ');
+  let words = '';
+  let first = true;
+  for (let k = from; k < to; k++) {
+    if (tokens[k]!.kind === 'symbol') continue;
+    words = first ? tokens[k]!.norm : `${words} ${tokens[k]!.norm}`;
+    first = false;
+  }
+  return words;
 }
 
 /** True when the clause says no place is known ("locality unknown", "sin localidad", "s. loc."). */
@@ -192,10 +199,11 @@ export function detectLanguage(text: string, tokens: Token[]): Language | undefi
   }
   // The marked letters are single UTF-16 units, so reading the text unit by unit counts them all.
   for (let k = 0; k < text.length; k++) {
-    const c = text[k];
-    if (c === 'à' || c === 'è') score.fr += 1;
-    if (c === 'ã' || c === 'õ' || c === 'ç') score.pt += 1;
-    if (c === 'ñ') score.es += 1;
+    const c = text.charCodeAt(k);
+    if (c < 0xe0) continue;
+    if (c === 0xe0 || c === 0xe8) score.fr += 1; // à è
+    if (c === 0xe3 || c === 0xf5 || c === 0xe7) score.pt += 1; // ã õ ç
+    if (c === 0xf1) score.es += 1; // ñ
   }
   // The one language scoring highest, when no other scores as high.
   let best: Language | undefined;

@@ -271,17 +271,21 @@ function splitJoinedClauses(tokens: Token[], segment: Segment, read: (from: numb
   for (let k = from + 1; k < to - 1 && !some; k++) some = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES) > 0 || L.CONJUNCTIONS.has(tokens[k]!.norm);
   if (!some) return [segment];
   const whole = read(from, to);
-  const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(tokens, { ...segment, from: k + skip }, read)];
   for (let k = from + 1; k < to - 1; k++) {
     const near = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES);
     const inName = near > 0 && tokens[k + near]?.kind === 'word' && whole.features.some((f) => f.split(/\s+/).includes(tokens[k]!.text));
     // Only after a name alone: "3 km S of X near Z" stays one offset from "X near Z"; split too, it added two right
     // answers and one false on the real records (a label stating no state, whose X has a namesake in another state).
-    if (inName && namedAlone(read(from, k))) return halves(k, 0);
+    if (inName && namedAlone(read(from, k))) return splitAt(tokens, segment, k, 0, read);
     const joined = whole.type === 'unparseable' && tokens[k]!.kind === 'word' && L.CONJUNCTIONS.has(tokens[k]!.norm);
-    if (joined && offsetFromPlace(read(from, k)) && offsetFromPlace(read(k + 1, to))) return halves(k, 1);
+    if (joined && offsetFromPlace(read(from, k)) && offsetFromPlace(read(k + 1, to))) return splitAt(tokens, segment, k, 1, read);
   }
   return [segment];
+}
+
+/** The segment split before token k, the second part from k + skip (past an "and") split again in its turn. */
+function splitAt(tokens: Token[], segment: Segment, k: number, skip: number, read: (from: number, to: number) => LocalityRead): Segment[] {
+  return [{ from: segment.from, to: k, separator: ',' }, ...splitJoinedClauses(tokens, { ...segment, from: k + skip }, read)];
 }
 
 /** The most tokens a clause split by splitJoinedClauses may hold (those split on the real records hold at most 17). */
