@@ -219,6 +219,25 @@ describe('a gazetteer saved by a spreadsheet of Portuguese settings: semicolons,
   });
 });
 
+describe('states in a DOS code page, as older GIS programs write a .dbf (gis/natural-earth-admin-1-cp850.zip, -cp437.zip)', () => {
+  // Natural Earth 1:50m admin-1 (public domain), written by ogr2ogr in CP850 with a .cpg and in CP437 with
+  // only the header's language driver byte 0x01; the names as the UTF-8 source writes them.
+  it('imports them with their accents, says which code page it read and why, and finds a state by its name', async () => {
+    for (const [file, note, name] of [
+      ['natural-earth-admin-1-cp850.zip', 'admin1.dbf read as cp850 (its .cpg says "CP850")', 'São Paulo'],
+      ['natural-earth-admin-1-cp437.zip', "admin1.dbf has no .cpg: read as cp437 (its header's language driver 0x01)", 'Espírito Santo'],
+    ] as const) {
+      const store = join(dir, `${file}.sqlite`);
+      const imported = await whereaboutsOn(store, 'import', join(real, 'gis', file), '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
+      expect(imported.stderr).toBe('');
+      expect(imported.stdout).toContain(note);
+      expect(imported.stdout).toMatch(/(\d) rows read, \1 imported, 0 rejected/);
+      const located = JSON.parse((await whereaboutsOn(store, 'locate', name, '--country-code', 'BR', '--json')).stdout);
+      expect(located.candidates.map((c: { feature: { name: string } }) => c.feature.name)).toContain(name);
+    }
+  }, 120_000);
+});
+
 describe('GIS files that arrive broken', () => {
   it('a zip of a shapefile\'s .prj and .shx without its .shp is refused naming what is missing, whether the format is told or not', async () => {
     const zip = join(real, 'gis/sweref99-boundaries-without-shp.zip');
