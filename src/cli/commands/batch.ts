@@ -43,7 +43,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .description('georeference every row of a CSV or tab-separated file or of a Darwin Core Archive\'s occurrence core, as a job that can be stopped and resumed')
     .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252; or a Darwin Core Archive, a zip with meta.xml, whose output is a new archive, or with --format geojson|gpkg a GIS file of its core\'s rows), or - for standard input')
     .option('--out <file>', 'the output file, or - for standard output', '-')
-    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done; for a Darwin Core Archive the default is a new archive, and GeoJSON and GeoPackage hold the core's rows, not the extensions')`, resultFormat, 'csv' as ResultFormat)
+    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done; a Darwin Core Archive with csv comes back as a new archive, and as GeoJSON or GeoPackage only its core's rows, not its extensions')`, resultFormat, 'csv' as ResultFormat)
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
     .option('--quiet', 'write nothing to standard error but errors: no progress bar, job id, method choices or summary')
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
