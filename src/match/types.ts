@@ -233,8 +233,12 @@ export interface NameIndex {
   namesOf(ids: readonly number[]): { id: number; names: string[] }[];
   /** The stored token written exactly as `token`, if any. */
   token(token: string): IndexedToken | undefined;
-  /** Every stored token sharing one of these deletion keys, each once, as [id, token, df]. */
-  tokensByDeletionKeys(keys: readonly number[]): [number, string, number][];
+  /**
+   * Every stored token sharing one of these deletion keys that `near` accepts (asked once a token,
+   * with the token as stored), each once, in id order, as [id, token, df].
+   * @example tokensByDeletionKeys(oneEditQueryKeys('rosrio'), (stored) => editDistance('rosrio', stored, 1) <= 1) // [[42, 'rosario', 7]]
+   */
+  tokensByDeletionKeys(keys: readonly number[], near: (token: string) => boolean): [number, string, number][];
   /**
    * Up to `limit` postings of these tokens, by token (in id order) and feature; with `countries`, only
    * features in them or without a country. Meant for tokens whose postings together fit `limit` (their

@@ -18,7 +18,18 @@ import type {
 } from '../match/types.ts';
 
 /** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
-export const SCHEMA_VERSION = 3;
+export const SCHEMA_VERSION = 4;
+
+const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
+/** Which features are country outlines (see countryOutlines): written out, so that the partial index below serves the query. */
+const COUNTRY_POLYGONS = `feature_type = 'country' AND geometry_type IN (${GEOMETRY_TYPES.indexOf('Polygon')}, ${GEOMETRY_TYPES.indexOf('MultiPolygon')})`;
+/** The country outlines alone: most gazetteers hold none, and a world dump a few hundred among millions of features. */
+const COUNTRY_POLYGONS_INDEX = `CREATE INDEX features_country_polygons ON features (country_code) WHERE ${COUNTRY_POLYGONS};`;
+/**
+ * The postings again, a feature's in one row: its token ids, ascending, joined by spaces. Whether a
+ * feature holds any of several tokens is then one seek, not one a token (see postingsWithPartner).
+ */
+const FEATURE_TOKENS_TABLE = 'CREATE TABLE feature_tokens (feature INTEGER PRIMARY KEY, tokens TEXT NOT NULL);';
 
 /**
  * Each older schema version's step to the next, run in order in one transaction when a store of that
@@ -33,6 +44,16 @@ export const MIGRATIONS: Readonly<Record<number, string>> = {
       PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;`,
   // Version 3: features by position, for the places near a point (a stated unit's places standing for its extent).
   2: 'CREATE INDEX features_by_position ON features (latitude, longitude);',
+  // Version 4: each deletion key's word beside its token id, so that a word's neighbours are checked
+  // before any of them is read from the tokens table; each feature's tokens in one row; and the country
+  // polygons indexed.
+  3: `${FEATURE_TOKENS_TABLE}
+    INSERT INTO feature_tokens (feature, tokens) SELECT feature, group_concat(token, ' ' ORDER BY token) FROM postings GROUP BY feature ORDER BY feature;
+    CREATE TABLE deletions_with_text (hash INTEGER NOT NULL, token INTEGER NOT NULL, text TEXT NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+    INSERT INTO deletions_with_text (hash, token, text) SELECT d.hash, d.token, t.token FROM deletions d JOIN tokens t ON t.id = d.token ORDER BY d.hash, d.token;
+    DROP TABLE deletions;
+    ALTER TABLE deletions_with_text RENAME TO deletions;
+    ${COUNTRY_POLYGONS_INDEX}`,
 };
 /** The oldest schema version this whereabouts reads (migrating it when opened). */
 export const OLDEST_READABLE_SCHEMA = 1;
@@ -51,15 +72,16 @@ CREATE TABLE features (
 );
 CREATE UNIQUE INDEX features_by_source_id ON features (source, feature_id);
 CREATE INDEX features_by_position ON features (latitude, longitude);
+${COUNTRY_POLYGONS_INDEX}
 CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
 CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
 CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
-CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+${FEATURE_TOKENS_TABLE}
+CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, text TEXT NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
 CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
   PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;
 `;
 
-const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
 /** Alternate names are stored joined by the ASCII unit separator, which no name contains. */
 const NAME_SEPARATOR = '\u001f';
 /**
@@ -261,11 +283,10 @@ class SqliteGazetteer implements GazetteerStore {
     // feature), as every caller is handed the same array: the plausibility stage keeps what it makes of it by it.
     const code = countryCode.toUpperCase();
     return this.outlines.get(code, () => {
-      // No index finds a country's polygons, and most gazetteers hold none: the features are read through
-      // once for every country's rows rather than once a country (at 1 M features, 0.15-0.5 s a read).
+      // Every country's rows at once, through their own index (features_country_polygons): a few hundred at most.
       const byCountry = this.countryRows.get('every country', () => {
         const rows = new Map<string, FeatureRow[]>();
-        for (const row of this.statements.countryPolygons.all(GEOMETRY_TYPES.indexOf('Polygon'), GEOMETRY_TYPES.indexOf('MultiPolygon')) as FeatureRow[]) {
+        for (const row of this.statements.countryPolygons.all() as FeatureRow[]) {
           const country = rows.get(row[6] ?? '');
           if (country === undefined) rows.set(row[6] ?? '', [row]);
           else country.push(row);
@@ -333,9 +354,19 @@ class SqliteGazetteer implements GazetteerStore {
     for (const { name } of laterIndexes) db.exec(`DROP INDEX ${name}`);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
+    // The words of the tokens this import adds, by id: a deletion key is written with its word. Their ids
+    // follow one another (a new rowid is the largest so far plus one), from the first one's.
+    const newTokens: string[] = [];
+    let firstNewToken = 0;
+    const deletionRows = new RowWriter(db, 'deletions', ['hash', 'token', 'text']);
+    const deletions = new SortedPairs({
+      add: (hash, token) => deletionRows.add(hash, token, newTokens[token - firstNewToken]),
+      end: () => deletionRows.end(),
+    }, importSortPath(db.name, 'deletions'));
     const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
+    // In feature order as they come: a new feature's id is larger than any before.
+    const featureTokens = new RowWriter(db, 'feature_tokens', ['feature', 'tokens']);
     let count = 0;
     let open = true;
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
@@ -350,6 +381,9 @@ class SqliteGazetteer implements GazetteerStore {
         id = existing.id;
       } else {
         id = Number(s.insertToken.run(token).lastInsertRowid);
+        if (newTokens.length === 0) firstNewToken = id;
+        if (id !== firstNewToken + newTokens.length) throw new Error(`token id ${id} does not follow ${firstNewToken + newTokens.length - 1}`);
+        newTokens.push(token);
         for (const hash of deletionKeys ?? storedTokenKeys(token)) deletions.add(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
@@ -363,6 +397,7 @@ class SqliteGazetteer implements GazetteerStore {
       open = false;
       deletions.discard();
       postings.discard();
+      newTokens.length = 0;
       db.pragma('synchronous = NORMAL');
       staging = null;
       this.content.changed();
@@ -386,7 +421,9 @@ class SqliteGazetteer implements GazetteerStore {
         }
         const { keys, tokens, deletionKeys } = terms ?? indexTerms(record.name, record.alternateNames);
         for (const key of keys) names.add(key, rowId);
-        for (const token of tokens) postings.add(tokenId(token, deletionKeys?.get(token)), rowId);
+        const ids = tokens.map((token) => tokenId(token, deletionKeys?.get(token)));
+        for (const id of ids) postings.add(id, rowId);
+        if (ids.length > 0) featureTokens.add(rowId, ids.sort((a, b) => a - b).join(' '));
         count++;
         return null;
       },
@@ -410,6 +447,7 @@ class SqliteGazetteer implements GazetteerStore {
       commit: (source) => {
         if (!open) throw new Error('import already finished');
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
+        featureTokens.end();
         deletions.write();
         postings.write();
         names.flush();
@@ -439,6 +477,7 @@ class SqliteGazetteer implements GazetteerStore {
   private deleteSourceRows(sourceRowId: number): void {
     const s = this.statements;
     s.deleteSourcePostings.run(sourceRowId);
+    s.deleteSourceFeatureTokens.run(sourceRowId);
     s.deleteSourceNames.run(sourceRowId);
     s.deleteSourceUnitNames.run(sourceRowId);
     s.deleteSourceFeatures.run(sourceRowId);
@@ -505,27 +544,58 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       const row = s.tokenByText.get(token) as TokenRow | undefined;
       return row === undefined ? undefined : { id: row.id, df: row.df };
     },
-    // One statement: each distinct token once (a token shares many keys with a query), as one text a
-    // row (see tokenRow).
-    tokensByDeletionKeys: (keys) => (s.tokensByDeletion.all(JSON.stringify(keys)) as string[]).map(tokenRow),
+    tokensByDeletionKeys: (keys, near) => {
+      // Each token's word is read beside its key and checked before the token's row is read: at 13 M
+      // names a word's keys meet about four tokens for each one near it, and reading every token met
+      // took six times as long as reading the keys.
+      const met = new Set<number>();
+      const ids: number[] = [];
+      const words = new Map<number, string>();
+      for (const row of s.deletionWords.all(JSON.stringify(keys)) as string[]) {
+        const space = row.indexOf(' ');
+        const id = Number(row.slice(0, space));
+        if (met.has(id)) continue;
+        met.add(id);
+        const word = row.slice(space + 1);
+        if (!near(word)) continue;
+        ids.push(id);
+        words.set(id, word);
+      }
+      if (ids.length === 0) return [];
+      return (s.tokenCounts.all(idList(ids)) as string[]).map((row) => {
+        const space = row.indexOf(' ');
+        const id = Number(row.slice(0, space));
+        return [id, words.get(id)!, Number(row.slice(space + 1))];
+      });
+    },
     // Unfiltered, one text a token (see postingGroups); filtered, one text a row, 'feature token' (see postingRow).
     postings: (tokenIds, countries, limit) => (countries === null
       ? postingGroups(s.postingsByToken.all(idList(tokenIds)) as (string | null)[], limit)
       : (s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow)),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
-      // Each partner on its cheaper side (one index seek a row read): one rarer than the driver has its
-      // postings read, each probed for the driver; for the others the driver's postings are read, each
-      // probed for them. Reading every partner on one side cost the sum of the partners' postings or
-      // the driver's times the number of partners; this costs the sum of the smaller of the two.
-      const ids = (side: readonly IndexedToken[]) => idList(side.map((token) => token.id));
-      const parameters = {
-        driver: driver.id, limit,
-        rarer: ids(partners.filter((token) => token.df < driver.df)),
-        commoner: ids(partners.filter((token) => token.df >= driver.df)),
-      };
-      const pairs = (countries === null
-        ? s.postingsWithPartner.all(parameters) as string[]
-        : s.postingsWithPartnerInCountries.all({ ...parameters, countries: JSON.stringify(countries) }) as string[]).map(postingRow);
+      // Each partner on its cheaper side: those rarer than the driver have their postings read, each
+      // probed for the driver (RARER_PARTNER_PAIRS); for the others the driver's features are read with
+      // their tokens (feature_tokens), one seek a feature whatever the number of partners, where a probe
+      // a feature and partner took up to 11,000 seeks a lookup at 13 M names.
+      const rarer = idList(partners.filter((token) => token.df < driver.df).map((token) => token.id));
+      const commoner = new Set(partners.filter((token) => token.df >= driver.df).map((token) => token.id));
+      const inCountries = countries === null ? null : JSON.stringify(countries);
+      const pairs = rarer === '[]' ? [] : (inCountries === null
+        ? s.rarerPartnerPairs.all({ driver: driver.id, rarer, limit }) as string[]
+        : s.rarerPartnerPairsInCountries.all({ driver: driver.id, rarer, limit, countries: inCountries }) as string[]).map(postingRow);
+      if (pairs.length < limit && commoner.size > 0) {
+        // By feature, and a feature's partners in id order (its tokens are stored so).
+        let held: Posting[] = [];
+        for (const row of s.driverTokenLists.all(driver.id) as string[]) {
+          const [feature, ...tokens] = numbersOf(row);
+          for (const token of tokens) if (commoner.has(token)) held.push({ feature, token });
+        }
+        if (inCountries !== null && held.length > 0) {
+          const kept = new Set(s.featuresInCountries.all(idList(held.map((pair) => pair.feature)), inCountries) as number[]);
+          held = held.filter((pair) => kept.has(pair.feature));
+        }
+        for (const pair of held.slice(0, limit - pairs.length)) pairs.push(pair);
+      }
       // The driver's posting before the first pair of each feature.
       const rows: Posting[] = [];
       const seen = new Set<number>();
@@ -536,7 +606,15 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       }
       return rows;
     },
-    postingsAmong: (tokenIds, featureIds) => (s.postingsAmong.all(idList(tokenIds), idList(featureIds)) as string[]).map(postingRow),
+    postingsAmong: (tokenIds, featureIds) => {
+      // One seek a feature (its tokens in one row), not one a feature and token; by token, then feature.
+      const wanted = new Map([...new Set(tokenIds)].sort((a, b) => a - b).map((token) => [token, [] as number[]]));
+      for (const row of s.tokenListsOf.all(idList(featureIds)) as string[]) {
+        const [feature, ...tokens] = numbersOf(row);
+        for (const token of tokens) wanted.get(token)?.push(feature);
+      }
+      return [...wanted].flatMap(([token, features]) => features.map((feature) => ({ feature, token })));
+    },
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
     unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
@@ -549,16 +627,11 @@ const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.al
   f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type, f.name_details`;
 
 /**
- * The features holding the token @driver and one of the tokens @rarer or @commoner (JSON arrays of
- * ids, sorted, each once), as (feature, partner) pairs: the partners rarer than the driver read
- * through their postings, each probed for the driver; the commoner ones probed from the driver's
- * postings. A side with no partner reads nothing (its constant condition fails before its loop).
+ * The features holding the token @driver and one of the tokens @rarer (a JSON array of ids, sorted,
+ * each once), as (feature, partner) pairs: each partner's postings read, each probed for the driver.
  */
-const PARTNER_PAIRS = `SELECT q.feature AS feature, q.token AS partner FROM json_each(@rarer) k CROSS JOIN postings q ON q.token = k.value
-    WHERE json_array_length(@rarer) > 0 AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
-  UNION ALL
-  SELECT p.feature, q.token FROM postings p CROSS JOIN json_each(@commoner) k CROSS JOIN postings q ON q.token = k.value AND q.feature = p.feature
-    WHERE json_array_length(@commoner) > 0 AND p.token = @driver`;
+const RARER_PARTNER_PAIRS = `SELECT q.feature AS feature, q.token AS partner FROM json_each(@rarer) k CROSS JOIN postings q ON q.token = k.value
+  WHERE EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)`;
 
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
@@ -572,6 +645,7 @@ function prepareStatements(db: Database.Database) {
     deleteSourceFeatures: db.prepare('DELETE FROM features WHERE source = ?'),
     deleteSourceNames: db.prepare('DELETE FROM names WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     deleteSourcePostings: db.prepare('DELETE FROM postings WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
+    deleteSourceFeatureTokens: db.prepare('DELETE FROM feature_tokens WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
       state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry, name_details)
       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
@@ -587,7 +661,7 @@ function prepareStatements(db: Database.Database) {
     featureBySourceId: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`).raw(),
     countryPolygons: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source
-      WHERE f.feature_type = 'country' AND f.geometry_type IN (?, ?) ORDER BY s.name, f.feature_id`).raw(),
+      WHERE ${COUNTRY_POLYGONS} ORDER BY s.name, f.feature_id`).raw(),
     geometryBySourceId: db.prepare(`SELECT f.geometry FROM features f JOIN sources s ON s.id = f.source
       WHERE s.name = ? AND f.feature_id = ?`),
     featureIdsInBox: db.prepare('SELECT id FROM features WHERE latitude BETWEEN ? AND ? AND longitude BETWEEN ? AND ?').pluck(),
@@ -605,8 +679,10 @@ function prepareStatements(db: Database.Database) {
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
     // The keys joined rather than read through 'hash IN (…)', which first copies them into a sorted
     // temporary index: each word's one-edit read took half the CPU at 1 M names (4,541 words, 116 ms against 234 ms).
-    tokensByDeletion: db.prepare(`SELECT t.id || ' ' || t.df || ' ' || t.token FROM tokens t
-      WHERE t.id IN (SELECT d.token FROM json_each(?) k CROSS JOIN deletions d ON d.hash = k.value)`).pluck(),
+    // One text a row, 'token word' (a word holds no space).
+    deletionWords: db.prepare("SELECT d.token || ' ' || d.text FROM json_each(?) k CROSS JOIN deletions d ON d.hash = k.value").pluck(),
+    // Tokens' feature counts, 'id df', in the order of the ids given.
+    tokenCounts: db.prepare("SELECT t.id || ' ' || t.df FROM json_each(?) k CROSS JOIN tokens t ON t.id = k.value").pluck(),
     // Joined for the same reason as tokensByDeletion; the ids come sorted and once each, so the rows
     // come in the order 'token IN (…)' gives them (by token, then feature) and LIMIT keeps the same ones.
     // A token's postings as one text, 'token feature feature …', in key order (by feature), the tokens in
@@ -616,13 +692,17 @@ function prepareStatements(db: Database.Database) {
     // is read whole: the matcher asks only for tokens whose postings fit the limit (their df).
     postingsByToken: db.prepare(`SELECT k.value || ' ' || (SELECT group_concat(p.feature, ' ') FROM postings p WHERE p.token = k.value)
       FROM json_each(?) k`).pluck(),
-    // The first pairs, the rarer partners' first (see PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
-    postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) LIMIT @limit`).pluck(),
-    postingsWithPartnerInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
+    // The first pairs (see RARER_PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
+    rarerPartnerPairs: db.prepare(`SELECT feature || ' ' || partner FROM (${RARER_PARTNER_PAIRS}) LIMIT @limit`).pluck(),
+    rarerPartnerPairsInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${RARER_PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
       WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries)) LIMIT @limit`).pluck(),
-    // Each token's postings probed for each feature, in key order (sorted ids): neighbouring seeks share pages.
-    postingsAmong: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) t CROSS JOIN json_each(?) f
-      CROSS JOIN postings p ON p.token = t.value AND p.feature = f.value`).pluck(),
+    // A token's features, each with its tokens, 'feature token token …', by feature.
+    driverTokenLists: db.prepare("SELECT p.feature || ' ' || t.tokens FROM postings p CROSS JOIN feature_tokens t ON t.feature = p.feature WHERE p.token = ?").pluck(),
+    // These features' tokens, 'feature token token …', in the order of the ids given.
+    tokenListsOf: db.prepare("SELECT t.feature || ' ' || t.tokens FROM json_each(?) k CROSS JOIN feature_tokens t ON t.feature = k.value").pluck(),
+    // Which of these features lie in these countries or in none.
+    featuresInCountries: db.prepare(`SELECT f.id FROM json_each(?) k CROSS JOIN features f ON f.id = k.value
+      WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))`).pluck(),
     postingsInCountries: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p JOIN features f ON f.id = p.feature
       WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`).pluck(),
@@ -660,17 +740,6 @@ function idList(ids: Iterable<number>): string {
 }
 
 /**
- * A stored token read as one text, 'id df token' (a token holds no space), as [id, token, df]:
- * better-sqlite3 returns a text a row in less time than it takes to build a row's array.
- * @example tokenRow('42 7 rosario') // [42, 'rosario', 7]
- */
-function tokenRow(row: string): [number, string, number] {
-  const first = row.indexOf(' ');
-  const second = row.indexOf(' ', first + 1);
-  return [Number(row.slice(0, first)), row.slice(second + 1), Number(row.slice(first + 1, second))];
-}
-
-/**
  * Postings read as one text a token, 'token feature feature …' (null for a token without postings), as
  * postings in the order read, at most `limit`; digits are read in place, without a substring a number.
  * @example postingGroups(['42 7 1200', null, '43 7'], 2) // [{ feature: 7, token: 42 }, { feature: 1200, token: 42 }]
@@ -695,7 +764,28 @@ function postingGroups(rows: readonly (string | null)[], limit: number): Posting
 }
 
 /**
- * A posting read as one text, 'feature token' (see tokenRow).
+ * Whole numbers read from one text, separated by single spaces.
+ * @example numbersOf('1200 7 42') // [1200, 7, 42]
+ */
+function numbersOf(row: string): number[] {
+  const numbers: number[] = [];
+  let value = 0;
+  for (let at = 0; at < row.length; at++) {
+    const digit = row.charCodeAt(at) - 48;
+    if (digit >= 0 && digit <= 9) {
+      value = value * 10 + digit;
+    } else {
+      numbers.push(value);
+      value = 0;
+    }
+  }
+  numbers.push(value);
+  return numbers;
+}
+
+/**
+ * A posting read as one text, 'feature token': better-sqlite3 returns a text a row in less time than
+ * it takes to build a row's array.
  * @example postingRow('1200 42') // { feature: 1200, token: 42 }
  */
 function postingRow(row: string): Posting {
@@ -704,7 +794,7 @@ function postingRow(row: string): Posting {
 }
 
 /**
- * A feature's names read as one text, its id, name and alternate names joined by NAME_SEPARATOR (see tokenRow).
+ * A feature's names read as one text, its id, name and alternate names joined by NAME_SEPARATOR (see postingRow).
  * @example namesRow('1200\u001fRosario\u001fVilla del Rosario') // { id: 1200, names: ['Rosario', 'Villa del Rosario'] }
  */
 function namesRow(row: string): { id: number; names: string[] } {
