@@ -252,7 +252,7 @@ export interface NameIndex {
    * @example postingsWithPartner(santa, [cruz], null, 800) // [{ feature: 7, token: santa.id }, { feature: 7, token: cruz.id }, …]
    */
   postingsWithPartner(driver: IndexedToken, partners: readonly IndexedToken[], countries: readonly string[] | null, limit: number): Posting[];
-  /** The postings of these tokens held by these features (one index probe a pair). */
+  /** The postings of these tokens held by these features, in no set order. */
   postingsAmong(tokenIds: readonly number[], featureIds: readonly number[]): Posting[];
   /** Loads a line's or polygon's full geometry into the feature (nothing for points or when present). */
   attachGeometry(feature: Feature): void;

@@ -504,6 +504,8 @@ function migrate(db: Database.Database, path: string, version: number): void {
     // Several processes may open an old store at once (batch workers): the first migrates, the others
     // wait for its write lock and then find the file migrated.
     db.pragma('busy_timeout = 10000');
+    // Version 4's step sorts every posting by feature: with an import's page cache, not SQLite's default 2 MB.
+    db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.exec('BEGIN IMMEDIATE');
     const now = db.pragma('user_version', { simple: true }) as number;
     const steps = Array.from({ length: SCHEMA_VERSION - now }, (_, i) => MIGRATIONS[now + i]).join('\n');
@@ -573,29 +575,18 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       ? postingGroups(s.postingsByToken.all(idList(tokenIds)) as (string | null)[], limit)
       : (s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow)),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
-      // Each partner on its cheaper side: those rarer than the driver have their postings read, each
-      // probed for the driver (RARER_PARTNER_PAIRS); for the others the driver's features are read with
-      // their tokens (feature_tokens), one seek a feature whatever the number of partners, where a probe
-      // a feature and partner took up to 11,000 seeks a lookup at 13 M names.
-      const rarer = idList(partners.filter((token) => token.df < driver.df).map((token) => token.id));
-      const commoner = new Set(partners.filter((token) => token.df >= driver.df).map((token) => token.id));
-      const inCountries = countries === null ? null : JSON.stringify(countries);
-      const pairs = rarer === '[]' ? [] : (inCountries === null
-        ? s.rarerPartnerPairs.all({ driver: driver.id, rarer, limit }) as string[]
-        : s.rarerPartnerPairsInCountries.all({ driver: driver.id, rarer, limit, countries: inCountries }) as string[]).map(postingRow);
-      if (pairs.length < limit && commoner.size > 0) {
-        // By feature, and a feature's partners in id order (its tokens are stored so).
-        let held: Posting[] = [];
-        for (const row of s.driverTokenLists.all(driver.id) as string[]) {
-          const [feature, ...tokens] = numbersOf(row);
-          for (const token of tokens) if (commoner.has(token)) held.push({ feature, token });
-        }
-        if (inCountries !== null && held.length > 0) {
-          const kept = new Set(s.featuresInCountries.all(idList(held.map((pair) => pair.feature)), inCountries) as number[]);
-          held = held.filter((pair) => kept.has(pair.feature));
-        }
-        for (const pair of held.slice(0, limit - pairs.length)) pairs.push(pair);
-      }
+      // Each partner on its cheaper side (see PARTNER_PAIRS): reading every partner on one side cost the
+      // sum of the partners' postings or the driver's times the number of partners; this costs the sum
+      // of the rarer partners' postings and the driver's.
+      const ids = (side: readonly IndexedToken[]) => idList(side.map((token) => token.id));
+      const parameters = {
+        driver: driver.id, limit,
+        rarer: ids(partners.filter((token) => token.df < driver.df)),
+        commoner: ids(partners.filter((token) => token.df >= driver.df)),
+      };
+      const pairs = (countries === null
+        ? s.postingsWithPartner.all(parameters) as string[]
+        : s.postingsWithPartnerInCountries.all({ ...parameters, countries: JSON.stringify(countries) }) as string[]).map(postingRow);
       // The driver's posting before the first pair of each feature.
       const rows: Posting[] = [];
       const seen = new Set<number>();
@@ -606,15 +597,7 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       }
       return rows;
     },
-    postingsAmong: (tokenIds, featureIds) => {
-      // One seek a feature (its tokens in one row), not one a feature and token; by token, then feature.
-      const wanted = new Map([...new Set(tokenIds)].sort((a, b) => a - b).map((token) => [token, [] as number[]]));
-      for (const row of s.tokenListsOf.all(idList(featureIds)) as string[]) {
-        const [feature, ...tokens] = numbersOf(row);
-        for (const token of tokens) wanted.get(token)?.push(feature);
-      }
-      return [...wanted].flatMap(([token, features]) => features.map((feature) => ({ feature, token })));
-    },
+    postingsAmong: (tokenIds, featureIds) => (s.postingsAmong.all(idList(featureIds), idList(tokenIds)) as string[]).map(postingRow),
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
     unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
@@ -626,12 +609,22 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
 const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
   f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type, f.name_details`;
 
+/** Whether the token list `t.tokens` (see FEATURE_TOKENS_TABLE) holds the token `k.value`. */
+const LISTED = "instr(' ' || t.tokens || ' ', ' ' || k.value || ' ') > 0";
+
 /**
- * The features holding the token @driver and one of the tokens @rarer (a JSON array of ids, sorted,
- * each once), as (feature, partner) pairs: each partner's postings read, each probed for the driver.
+ * The features holding the token @driver and one of the tokens @rarer or @commoner (JSON arrays of
+ * ids, sorted, each once), as (feature, partner) pairs: the partners rarer than the driver read
+ * through their postings, each probed for the driver; the commoner ones looked for in the token list
+ * of each of the driver's features, one seek a feature whatever the number of partners (a probe a
+ * feature and partner took up to 11,000 seeks a lookup at 13 M names). A side with no partner reads
+ * nothing (its constant condition fails before its loop).
  */
-const RARER_PARTNER_PAIRS = `SELECT q.feature AS feature, q.token AS partner FROM json_each(@rarer) k CROSS JOIN postings q ON q.token = k.value
-  WHERE EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)`;
+const PARTNER_PAIRS = `SELECT q.feature AS feature, q.token AS partner FROM json_each(@rarer) k CROSS JOIN postings q ON q.token = k.value
+    WHERE json_array_length(@rarer) > 0 AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
+  UNION ALL
+  SELECT p.feature, k.value FROM postings p CROSS JOIN feature_tokens t ON t.feature = p.feature CROSS JOIN json_each(@commoner) k
+    WHERE json_array_length(@commoner) > 0 AND p.token = @driver AND ${LISTED}`;
 
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
@@ -692,17 +685,13 @@ function prepareStatements(db: Database.Database) {
     // is read whole: the matcher asks only for tokens whose postings fit the limit (their df).
     postingsByToken: db.prepare(`SELECT k.value || ' ' || (SELECT group_concat(p.feature, ' ') FROM postings p WHERE p.token = k.value)
       FROM json_each(?) k`).pluck(),
-    // The first pairs (see RARER_PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
-    rarerPartnerPairs: db.prepare(`SELECT feature || ' ' || partner FROM (${RARER_PARTNER_PAIRS}) LIMIT @limit`).pluck(),
-    rarerPartnerPairsInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${RARER_PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
+    // The first pairs, the rarer partners' first (see PARTNER_PAIRS), one text a row, 'feature partner' (see postingRow).
+    postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) LIMIT @limit`).pluck(),
+    postingsWithPartnerInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
       WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries)) LIMIT @limit`).pluck(),
-    // A token's features, each with its tokens, 'feature token token …', by feature.
-    driverTokenLists: db.prepare("SELECT p.feature || ' ' || t.tokens FROM postings p CROSS JOIN feature_tokens t ON t.feature = p.feature WHERE p.token = ?").pluck(),
-    // These features' tokens, 'feature token token …', in the order of the ids given.
-    tokenListsOf: db.prepare("SELECT t.feature || ' ' || t.tokens FROM json_each(?) k CROSS JOIN feature_tokens t ON t.feature = k.value").pluck(),
-    // Which of these features lie in these countries or in none.
-    featuresInCountries: db.prepare(`SELECT f.id FROM json_each(?) k CROSS JOIN features f ON f.id = k.value
-      WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))`).pluck(),
+    // Each feature's token list read once and looked through for each token (see LISTED).
+    postingsAmong: db.prepare(`SELECT t.feature || ' ' || k.value FROM json_each(?) f CROSS JOIN feature_tokens t ON t.feature = f.value
+      CROSS JOIN json_each(?) k WHERE ${LISTED}`).pluck(),
     postingsInCountries: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p JOIN features f ON f.id = p.feature
       WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`).pluck(),
@@ -761,26 +750,6 @@ function postingGroups(rows: readonly (string | null)[], limit: number): Posting
     }
   }
   return postings;
-}
-
-/**
- * Whole numbers read from one text, separated by single spaces.
- * @example numbersOf('1200 7 42') // [1200, 7, 42]
- */
-function numbersOf(row: string): number[] {
-  const numbers: number[] = [];
-  let value = 0;
-  for (let at = 0; at < row.length; at++) {
-    const digit = row.charCodeAt(at) - 48;
-    if (digit >= 0 && digit <= 9) {
-      value = value * 10 + digit;
-    } else {
-      numbers.push(value);
-      value = 0;
-    }
-  }
-  numbers.push(value);
-  return numbers;
 }
 
 /**
