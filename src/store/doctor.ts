@@ -215,9 +215,12 @@ function orphanChecks(db: Database.Database): DoctorCheck[] {
     ['name index rows of no feature', 'SELECT count(*) FROM names WHERE feature NOT IN (SELECT id FROM features)'],
     ['token index rows of no feature or token', 'SELECT count(*) FROM postings WHERE feature NOT IN (SELECT id FROM features) OR token NOT IN (SELECT id FROM tokens)'],
     ['deletion keys of no token', 'SELECT count(*) FROM deletions WHERE token NOT IN (SELECT id FROM tokens)'],
-    ['token lists of no feature', 'SELECT count(*) FROM feature_tokens WHERE feature NOT IN (SELECT id FROM features)'],
     ['tokens whose feature count is wrong', 'SELECT count(*) FROM tokens t WHERE df != (SELECT count(*) FROM postings p WHERE p.token = t.id)'],
   ];
+  // A store of version 3 or older (migrated when next opened) holds no token lists yet.
+  if (db.prepare("SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = 'feature_tokens'").get() !== undefined) {
+    counts.push(['token lists of no feature', 'SELECT count(*) FROM feature_tokens WHERE feature NOT IN (SELECT id FROM features)']);
+  }
   const found = counts.map(([what, sql]) => [what, db.prepare(sql).pluck().get() as number] as const).filter(([, n]) => n > 0);
   if (found.length === 0) return [{ check: 'index links', status: 'ok', finding: 'every index row points at a stored feature and token' }];
   return [{
