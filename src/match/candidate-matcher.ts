@@ -666,10 +666,11 @@ export class CandidateMatcher {
   private nearTokens(token: string, keys: number[], known: readonly TokenMatchRow[]): TokenMatchRow[] {
     const seen = new Set(known.map((match) => match.id));
     const found: TokenMatchRow[] = [];
-    const near = (stored: string) => editDistance(token, stored, maxTokenEdits(stored)) <= maxTokenEdits(stored);
-    // Each distinct token once (a token shares many keys with a query); only those near are read whole.
-    for (const [id, stored, df] of keys.length === 0 ? [] : this.index.tokensByDeletionKeys(keys, near)) {
-      if (!seen.has(id)) found.push({ id, edits: editDistance(token, stored, maxTokenEdits(stored)), df, text: stored });
+    // One statement: each distinct token once (a token shares many keys with a query), as arrays.
+    for (const [id, stored, df] of keys.length === 0 ? [] : this.index.tokensByDeletionKeys(keys)) {
+      if (seen.has(id)) continue;
+      const edits = editDistance(token, stored, maxTokenEdits(stored));
+      if (edits <= maxTokenEdits(stored)) found.push({ id, edits, df, text: stored });
     }
     return found;
   }

@@ -233,12 +233,8 @@ export interface NameIndex {
   namesOf(ids: readonly number[]): { id: number; names: string[] }[];
   /** The stored token written exactly as `token`, if any. */
   token(token: string): IndexedToken | undefined;
-  /**
-   * Every stored token sharing one of these deletion keys that `near` accepts (asked once a token,
-   * with the token as stored), each once, in id order, as [id, token, df].
-   * @example tokensByDeletionKeys(oneEditQueryKeys('rosrio'), (stored) => editDistance('rosrio', stored, 1) <= 1) // [[42, 'rosario', 7]]
-   */
-  tokensByDeletionKeys(keys: readonly number[], near: (token: string) => boolean): [number, string, number][];
+  /** Every stored token sharing one of these deletion keys, each once, as [id, token, df]. */
+  tokensByDeletionKeys(keys: readonly number[]): [number, string, number][];
   /**
    * Up to `limit` postings of these tokens, by token (in id order) and feature; with `countries`, only
    * features in them or without a country. Meant for tokens whose postings together fit `limit` (their
@@ -252,7 +248,7 @@ export interface NameIndex {
    * @example postingsWithPartner(santa, [cruz], null, 800) // [{ feature: 7, token: santa.id }, { feature: 7, token: cruz.id }, …]
    */
   postingsWithPartner(driver: IndexedToken, partners: readonly IndexedToken[], countries: readonly string[] | null, limit: number): Posting[];
-  /** The postings of these tokens held by these features, in no set order. */
+  /** The postings of these tokens held by these features (one index probe a pair). */
   postingsAmong(tokenIds: readonly number[], featureIds: readonly number[]): Posting[];
   /** Loads a line's or polygon's full geometry into the feature (nothing for points or when present). */
   attachGeometry(feature: Feature): void;

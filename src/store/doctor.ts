@@ -34,7 +34,7 @@ export interface DoctorOptions {
 }
 
 /** Tables the store's schema (store.ts) creates. */
-const STORE_TABLES = ['sources', 'features', 'names', 'tokens', 'postings', 'feature_tokens', 'deletions', 'unit_names'];
+const STORE_TABLES = ['sources', 'features', 'names', 'tokens', 'postings', 'deletions', 'unit_names'];
 /** Integrity messages listed at most (SQLite stops counting there). */
 const MAX_INTEGRITY_MESSAGES = 20;
 const REBUILD = 'restore the file from a backup, or move it aside and import the gazetteer files again into a new store (whereabouts --db <new file> import <file>)';
@@ -126,7 +126,7 @@ function schemaCheck(db: Database.Database): DoctorCheck {
   }
   if (version < SCHEMA_VERSION) {
     return {
-      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds what later versions hold: source priorities, the details of alternate names and the names of administrative units (2), features by position (3), each deletion key's word, each feature's tokens in one row and the country outlines' index (4))`,
+      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds what later versions hold: source priorities, the details of alternate names and the names of administrative units (2), features by position (3), the country outlines' index (4))`,
       remedy: 'nothing to do; keep a copy first if an older whereabouts must still read the file',
     };
   }
@@ -217,10 +217,6 @@ function orphanChecks(db: Database.Database): DoctorCheck[] {
     ['deletion keys of no token', 'SELECT count(*) FROM deletions WHERE token NOT IN (SELECT id FROM tokens)'],
     ['tokens whose feature count is wrong', 'SELECT count(*) FROM tokens t WHERE df != (SELECT count(*) FROM postings p WHERE p.token = t.id)'],
   ];
-  // A store of version 3 or older (migrated when next opened) holds no token lists yet.
-  if (db.prepare("SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = 'feature_tokens'").get() !== undefined) {
-    counts.push(['token lists of no feature', 'SELECT count(*) FROM feature_tokens WHERE feature NOT IN (SELECT id FROM features)']);
-  }
   const found = counts.map(([what, sql]) => [what, db.prepare(sql).pluck().get() as number] as const).filter(([, n]) => n > 0);
   if (found.length === 0) return [{ check: 'index links', status: 'ok', finding: 'every index row points at a stored feature and token' }];
   return [{

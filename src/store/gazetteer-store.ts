@@ -25,11 +25,6 @@ const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLi
 const COUNTRY_POLYGONS = `feature_type = 'country' AND geometry_type IN (${GEOMETRY_TYPES.indexOf('Polygon')}, ${GEOMETRY_TYPES.indexOf('MultiPolygon')})`;
 /** The country outlines alone: most gazetteers hold none, and a world dump a few hundred among millions of features. */
 const COUNTRY_POLYGONS_INDEX = `CREATE INDEX features_country_polygons ON features (country_code) WHERE ${COUNTRY_POLYGONS};`;
-/**
- * The postings again, a feature's in one row: its token ids, ascending, joined by spaces. Whether a
- * feature holds any of several tokens is then one seek, not one a token (see postingsWithPartner).
- */
-const FEATURE_TOKENS_TABLE = 'CREATE TABLE feature_tokens (feature INTEGER PRIMARY KEY, tokens TEXT NOT NULL);';
 
 /**
  * Each older schema version's step to the next, run in order in one transaction when a store of that
@@ -44,16 +39,8 @@ export const MIGRATIONS: Readonly<Record<number, string>> = {
       PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;`,
   // Version 3: features by position, for the places near a point (a stated unit's places standing for its extent).
   2: 'CREATE INDEX features_by_position ON features (latitude, longitude);',
-  // Version 4: each deletion key's word beside its token id, so that a word's neighbours are checked
-  // before any of them is read from the tokens table; each feature's tokens in one row; and the country
-  // polygons indexed.
-  3: `${FEATURE_TOKENS_TABLE}
-    INSERT INTO feature_tokens (feature, tokens) SELECT feature, group_concat(token, ' ' ORDER BY token) FROM postings GROUP BY feature ORDER BY feature;
-    CREATE TABLE deletions_with_text (hash INTEGER NOT NULL, token INTEGER NOT NULL, text TEXT NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
-    INSERT INTO deletions_with_text (hash, token, text) SELECT d.hash, d.token, t.token FROM deletions d JOIN tokens t ON t.id = d.token ORDER BY d.hash, d.token;
-    DROP TABLE deletions;
-    ALTER TABLE deletions_with_text RENAME TO deletions;
-    ${COUNTRY_POLYGONS_INDEX}`,
+  // Version 4: the country outlines indexed, so that they are no longer found by reading every feature.
+  3: COUNTRY_POLYGONS_INDEX,
 };
 /** The oldest schema version this whereabouts reads (migrating it when opened). */
 export const OLDEST_READABLE_SCHEMA = 1;
@@ -76,8 +63,7 @@ ${COUNTRY_POLYGONS_INDEX}
 CREATE TABLE names (key TEXT NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (key, feature)) WITHOUT ROWID;
 CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTEGER NOT NULL);
 CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
-${FEATURE_TOKENS_TABLE}
-CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, text TEXT NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
+CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
 CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
   PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;
 `;
@@ -354,19 +340,9 @@ class SqliteGazetteer implements GazetteerStore {
     for (const { name } of laterIndexes) db.exec(`DROP INDEX ${name}`);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
-    // The words of the tokens this import adds, by id: a deletion key is written with its word. Their ids
-    // follow one another (a new rowid is the largest so far plus one), from the first one's.
-    const newTokens: string[] = [];
-    let firstNewToken = 0;
-    const deletionRows = new RowWriter(db, 'deletions', ['hash', 'token', 'text']);
-    const deletions = new SortedPairs({
-      add: (hash, token) => deletionRows.add(hash, token, newTokens[token - firstNewToken]),
-      end: () => deletionRows.end(),
-    }, importSortPath(db.name, 'deletions'));
+    const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
     const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
     const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
-    // In feature order as they come: a new feature's id is larger than any before.
-    const featureTokens = new RowWriter(db, 'feature_tokens', ['feature', 'tokens']);
     let count = 0;
     let open = true;
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
@@ -381,9 +357,6 @@ class SqliteGazetteer implements GazetteerStore {
         id = existing.id;
       } else {
         id = Number(s.insertToken.run(token).lastInsertRowid);
-        if (newTokens.length === 0) firstNewToken = id;
-        if (id !== firstNewToken + newTokens.length) throw new Error(`token id ${id} does not follow ${firstNewToken + newTokens.length - 1}`);
-        newTokens.push(token);
         for (const hash of deletionKeys ?? storedTokenKeys(token)) deletions.add(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
@@ -397,7 +370,6 @@ class SqliteGazetteer implements GazetteerStore {
       open = false;
       deletions.discard();
       postings.discard();
-      newTokens.length = 0;
       db.pragma('synchronous = NORMAL');
       staging = null;
       this.content.changed();
@@ -421,9 +393,7 @@ class SqliteGazetteer implements GazetteerStore {
         }
         const { keys, tokens, deletionKeys } = terms ?? indexTerms(record.name, record.alternateNames);
         for (const key of keys) names.add(key, rowId);
-        const ids = tokens.map((token) => tokenId(token, deletionKeys?.get(token)));
-        for (const id of ids) postings.add(id, rowId);
-        if (ids.length > 0) featureTokens.add(rowId, ids.sort((a, b) => a - b).join(' '));
+        for (const token of tokens) postings.add(tokenId(token, deletionKeys?.get(token)), rowId);
         count++;
         return null;
       },
@@ -447,7 +417,6 @@ class SqliteGazetteer implements GazetteerStore {
       commit: (source) => {
         if (!open) throw new Error('import already finished');
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
-        featureTokens.end();
         deletions.write();
         postings.write();
         names.flush();
@@ -477,7 +446,6 @@ class SqliteGazetteer implements GazetteerStore {
   private deleteSourceRows(sourceRowId: number): void {
     const s = this.statements;
     s.deleteSourcePostings.run(sourceRowId);
-    s.deleteSourceFeatureTokens.run(sourceRowId);
     s.deleteSourceNames.run(sourceRowId);
     s.deleteSourceUnitNames.run(sourceRowId);
     s.deleteSourceFeatures.run(sourceRowId);
@@ -504,8 +472,6 @@ function migrate(db: Database.Database, path: string, version: number): void {
     // Several processes may open an old store at once (batch workers): the first migrates, the others
     // wait for its write lock and then find the file migrated.
     db.pragma('busy_timeout = 10000');
-    // Version 4's step sorts every posting by feature: with an import's page cache, not SQLite's default 2 MB.
-    db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.exec('BEGIN IMMEDIATE');
     const now = db.pragma('user_version', { simple: true }) as number;
     const steps = Array.from({ length: SCHEMA_VERSION - now }, (_, i) => MIGRATIONS[now + i]).join('\n');
@@ -546,38 +512,18 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       const row = s.tokenByText.get(token) as TokenRow | undefined;
       return row === undefined ? undefined : { id: row.id, df: row.df };
     },
-    tokensByDeletionKeys: (keys, near) => {
-      // Each token's word is read beside its key and checked before the token's row is read: at 13 M
-      // names a word's keys meet about four tokens for each one near it, and reading every token met
-      // took six times as long as reading the keys.
-      const met = new Set<number>();
-      const ids: number[] = [];
-      const words = new Map<number, string>();
-      for (const row of s.deletionWords.all(JSON.stringify(keys)) as string[]) {
-        const space = row.indexOf(' ');
-        const id = Number(row.slice(0, space));
-        if (met.has(id)) continue;
-        met.add(id);
-        const word = row.slice(space + 1);
-        if (!near(word)) continue;
-        ids.push(id);
-        words.set(id, word);
-      }
-      if (ids.length === 0) return [];
-      return (s.tokenCounts.all(idList(ids)) as string[]).map((row) => {
-        const space = row.indexOf(' ');
-        const id = Number(row.slice(0, space));
-        return [id, words.get(id)!, Number(row.slice(space + 1))];
-      });
-    },
+    // One statement: each distinct token once (a token shares many keys with a query), as one text a
+    // row (see tokenRow).
+    tokensByDeletionKeys: (keys) => (s.tokensByDeletion.all(JSON.stringify(keys)) as string[]).map(tokenRow),
     // Unfiltered, one text a token (see postingGroups); filtered, one text a row, 'feature token' (see postingRow).
     postings: (tokenIds, countries, limit) => (countries === null
       ? postingGroups(s.postingsByToken.all(idList(tokenIds)) as (string | null)[], limit)
       : (s.postingsInCountries.all(JSON.stringify(tokenIds), JSON.stringify(countries), limit) as string[]).map(postingRow)),
     postingsWithPartner: (driver: IndexedToken, partners: readonly IndexedToken[], countries, limit) => {
-      // Each partner on its cheaper side (see PARTNER_PAIRS): reading every partner on one side cost the
-      // sum of the partners' postings or the driver's times the number of partners; this costs the sum
-      // of the rarer partners' postings and the driver's.
+      // Each partner on its cheaper side (one index seek a row read): one rarer than the driver has its
+      // postings read, each probed for the driver; for the others the driver's postings are read, each
+      // probed for them. Reading every partner on one side cost the sum of the partners' postings or
+      // the driver's times the number of partners; this costs the sum of the smaller of the two.
       const ids = (side: readonly IndexedToken[]) => idList(side.map((token) => token.id));
       const parameters = {
         driver: driver.id, limit,
@@ -597,7 +543,7 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       }
       return rows;
     },
-    postingsAmong: (tokenIds, featureIds) => (s.postingsAmong.all(idList(featureIds), idList(tokenIds)) as string[]).map(postingRow),
+    postingsAmong: (tokenIds, featureIds) => (s.postingsAmong.all(idList(tokenIds), idList(featureIds)) as string[]).map(postingRow),
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
     unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
@@ -609,22 +555,17 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
 const FEATURE_COLUMNS = `f.id, s.name AS source_name, f.feature_id, f.name, f.alternate_names, f.feature_type, f.country_code,
   f.state_province, f.county, f.latitude, f.longitude, f.radius, f.radius_default, f.geometry_type, f.name_details`;
 
-/** Whether the token list `t.tokens` (see FEATURE_TOKENS_TABLE) holds the token `k.value`. */
-const LISTED = "instr(' ' || t.tokens || ' ', ' ' || k.value || ' ') > 0";
-
 /**
  * The features holding the token @driver and one of the tokens @rarer or @commoner (JSON arrays of
  * ids, sorted, each once), as (feature, partner) pairs: the partners rarer than the driver read
- * through their postings, each probed for the driver; the commoner ones looked for in the token list
- * of each of the driver's features, one seek a feature whatever the number of partners (a probe a
- * feature and partner took up to 11,000 seeks a lookup at 13 M names). A side with no partner reads
- * nothing (its constant condition fails before its loop).
+ * through their postings, each probed for the driver; the commoner ones probed from the driver's
+ * postings. A side with no partner reads nothing (its constant condition fails before its loop).
  */
 const PARTNER_PAIRS = `SELECT q.feature AS feature, q.token AS partner FROM json_each(@rarer) k CROSS JOIN postings q ON q.token = k.value
     WHERE json_array_length(@rarer) > 0 AND EXISTS (SELECT 1 FROM postings p WHERE p.token = @driver AND p.feature = q.feature)
   UNION ALL
-  SELECT p.feature, k.value FROM postings p CROSS JOIN feature_tokens t ON t.feature = p.feature CROSS JOIN json_each(@commoner) k
-    WHERE json_array_length(@commoner) > 0 AND p.token = @driver AND ${LISTED}`;
+  SELECT p.feature, q.token FROM postings p CROSS JOIN json_each(@commoner) k CROSS JOIN postings q ON q.token = k.value AND q.feature = p.feature
+    WHERE json_array_length(@commoner) > 0 AND p.token = @driver`;
 
 /** Every statement the store runs, prepared once (write statements fail on a read-only file when run). */
 function prepareStatements(db: Database.Database) {
@@ -638,7 +579,6 @@ function prepareStatements(db: Database.Database) {
     deleteSourceFeatures: db.prepare('DELETE FROM features WHERE source = ?'),
     deleteSourceNames: db.prepare('DELETE FROM names WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     deleteSourcePostings: db.prepare('DELETE FROM postings WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
-    deleteSourceFeatureTokens: db.prepare('DELETE FROM feature_tokens WHERE feature IN (SELECT id FROM features WHERE source = ?)'),
     insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
       state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry, name_details)
       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
@@ -672,10 +612,8 @@ function prepareStatements(db: Database.Database) {
     anyUnusedToken: db.prepare('SELECT 1 FROM tokens WHERE df = 0 LIMIT 1'),
     // The keys joined rather than read through 'hash IN (…)', which first copies them into a sorted
     // temporary index: each word's one-edit read took half the CPU at 1 M names (4,541 words, 116 ms against 234 ms).
-    // One text a row, 'token word' (a word holds no space).
-    deletionWords: db.prepare("SELECT d.token || ' ' || d.text FROM json_each(?) k CROSS JOIN deletions d ON d.hash = k.value").pluck(),
-    // Tokens' feature counts, 'id df', in the order of the ids given.
-    tokenCounts: db.prepare("SELECT t.id || ' ' || t.df FROM json_each(?) k CROSS JOIN tokens t ON t.id = k.value").pluck(),
+    tokensByDeletion: db.prepare(`SELECT t.id || ' ' || t.df || ' ' || t.token FROM tokens t
+      WHERE t.id IN (SELECT d.token FROM json_each(?) k CROSS JOIN deletions d ON d.hash = k.value)`).pluck(),
     // Joined for the same reason as tokensByDeletion; the ids come sorted and once each, so the rows
     // come in the order 'token IN (…)' gives them (by token, then feature) and LIMIT keeps the same ones.
     // A token's postings as one text, 'token feature feature …', in key order (by feature), the tokens in
@@ -689,9 +627,9 @@ function prepareStatements(db: Database.Database) {
     postingsWithPartner: db.prepare(`SELECT feature || ' ' || partner FROM (${PARTNER_PAIRS}) LIMIT @limit`).pluck(),
     postingsWithPartnerInCountries: db.prepare(`SELECT u.feature || ' ' || u.partner FROM (${PARTNER_PAIRS}) u JOIN features f ON f.id = u.feature
       WHERE f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(@countries)) LIMIT @limit`).pluck(),
-    // Each feature's token list read once and looked through for each token (see LISTED).
-    postingsAmong: db.prepare(`SELECT t.feature || ' ' || k.value FROM json_each(?) f CROSS JOIN feature_tokens t ON t.feature = f.value
-      CROSS JOIN json_each(?) k WHERE ${LISTED}`).pluck(),
+    // Each token's postings probed for each feature, in key order (sorted ids): neighbouring seeks share pages.
+    postingsAmong: db.prepare(`SELECT p.feature || ' ' || p.token FROM json_each(?) t CROSS JOIN json_each(?) f
+      CROSS JOIN postings p ON p.token = t.value AND p.feature = f.value`).pluck(),
     postingsInCountries: db.prepare(`SELECT p.feature || ' ' || p.token FROM postings p JOIN features f ON f.id = p.feature
       WHERE p.token IN (SELECT value FROM json_each(?))
         AND (f.country_code IS NULL OR f.country_code IN (SELECT value FROM json_each(?))) LIMIT ?`).pluck(),
@@ -729,6 +667,17 @@ function idList(ids: Iterable<number>): string {
 }
 
 /**
+ * A stored token read as one text, 'id df token' (a token holds no space), as [id, token, df]:
+ * better-sqlite3 returns a text a row in less time than it takes to build a row's array.
+ * @example tokenRow('42 7 rosario') // [42, 'rosario', 7]
+ */
+function tokenRow(row: string): [number, string, number] {
+  const first = row.indexOf(' ');
+  const second = row.indexOf(' ', first + 1);
+  return [Number(row.slice(0, first)), row.slice(second + 1), Number(row.slice(first + 1, second))];
+}
+
+/**
  * Postings read as one text a token, 'token feature feature …' (null for a token without postings), as
  * postings in the order read, at most `limit`; digits are read in place, without a substring a number.
  * @example postingGroups(['42 7 1200', null, '43 7'], 2) // [{ feature: 7, token: 42 }, { feature: 1200, token: 42 }]
@@ -753,8 +702,7 @@ function postingGroups(rows: readonly (string | null)[], limit: number): Posting
 }
 
 /**
- * A posting read as one text, 'feature token': better-sqlite3 returns a text a row in less time than
- * it takes to build a row's array.
+ * A posting read as one text, 'feature token' (see tokenRow).
  * @example postingRow('1200 42') // { feature: 1200, token: 42 }
  */
 function postingRow(row: string): Posting {
@@ -763,7 +711,7 @@ function postingRow(row: string): Posting {
 }
 
 /**
- * A feature's names read as one text, its id, name and alternate names joined by NAME_SEPARATOR (see postingRow).
+ * A feature's names read as one text, its id, name and alternate names joined by NAME_SEPARATOR (see tokenRow).
  * @example namesRow('1200\u001fRosario\u001fVilla del Rosario') // { id: 1200, names: ['Rosario', 'Villa del Rosario'] }
  */
 function namesRow(row: string): { id: number; names: string[] } {

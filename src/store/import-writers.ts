@@ -18,7 +18,7 @@ const NAME_BUFFER = 200_000;
 
 /**
  * INSERT OR IGNORE of rows into `table`, ROWS_PER_INSERT rows to a statement; `end` writes what is left.
- * @example const writer = new RowWriter(db, 'postings', ['token', 'feature']); writer.add(1, 10); writer.end();
+ * @example const writer = new RowWriter(db, 'postings', 2); writer.add(1, 10); writer.end();
  */
 export class RowWriter {
   private readonly full: Database.Statement;
@@ -34,9 +34,9 @@ export class RowWriter {
     this.values = new Array<unknown>(columns.length * ROWS_PER_INSERT);
   }
 
-  /** Adds a row: a value for each column, in the columns' order. */
-  add(...row: unknown[]): void {
-    for (const value of row) this.values[this.size++] = value;
+  add(first: unknown, second: unknown): void {
+    this.values[this.size++] = first;
+    this.values[this.size++] = second;
     if (this.size === this.values.length) {
       this.full.run(this.values);
       this.size = 0;
@@ -47,12 +47,6 @@ export class RowWriter {
     for (let at = 0; at < this.size; at += this.columns.length) this.single.run(this.values.slice(at, at + this.columns.length));
     this.size = 0;
   }
-}
-
-/** Where sorted pairs go: a RowWriter of two columns, or one that adds to each pair what its row holds besides. */
-export interface PairWriter {
-  add(first: number, second: number): void;
-  end(): void;
 }
 
 /**
@@ -77,7 +71,7 @@ export class SortedPairs {
   private fileBytes = 0;
 
   /** The first integer is written as a signed 32-bit value; runs go to a file at `spillPath`. */
-  constructor(private readonly writer: PairWriter, private readonly spillPath: string) {}
+  constructor(private readonly writer: RowWriter, private readonly spillPath: string) {}
 
   add(first: number, second: number): void {
     this.halves[2 * this.size] = second;

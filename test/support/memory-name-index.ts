@@ -55,10 +55,9 @@ export function memoryNameIndex(features: readonly Feature[]): NameIndex & { row
       const token = tokens.get(word);
       return token === undefined ? undefined : { id: token.id, df: token.df };
     },
-    tokensByDeletionKeys: (keys, near) => {
+    tokensByDeletionKeys: (keys) => {
       rowsRead.deletionKeys += keys.length;
-      return [...new Set(keys.flatMap((key) => [...(byKey.get(key) ?? [])]))].sort((a, b) => a - b)
-        .filter((id) => near(words[id])).map((id) => [id, words[id], tokens.get(words[id])!.df]);
+      return [...new Set(keys.flatMap((key) => [...(byKey.get(key) ?? [])]))].map((id) => [id, words[id], tokens.get(words[id])!.df]);
     },
     postings: (tokenIds, countries, limit) => {
       const rows: Posting[] = tokenIds.flatMap((token) => postingsOf(token).filter(inCountries(countries)).map((feature) => ({ feature, token })));
