@@ -126,7 +126,7 @@ function schemaCheck(db: Database.Database): DoctorCheck {
   }
   if (version < SCHEMA_VERSION) {
     return {
-      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds what later versions hold: source priorities, the details of alternate names and the names of administrative units (2), features by position (3))`,
+      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds what later versions hold: source priorities, the details of alternate names and the names of administrative units (2), features by position (3), the country outlines' index (4))`,
       remedy: 'nothing to do; keep a copy first if an older whereabouts must still read the file',
     };
   }

@@ -31,6 +31,8 @@ const movedPath = join(directory, 'moved.csv');
 /** The copy's shift north, degrees: about 300 m at 45° S. */
 const SHIFT = 0.0027;
 let store: GazetteerStore;
+/** What schema version 4 changed, undone: the country outlines unindexed. */
+const VERSION_4_UNDONE = 'DROP INDEX features_country_polygons;';
 
 const demoRows = parse(readFileSync(DEMO), { columns: true }) as Record<string, string>[];
 const demoRow = (name: string) => demoRows.find((row) => row.name === name)!;
@@ -165,8 +167,9 @@ describe('schema migration', () => {
     const v2 = openGazetteer(old);
     v2.close();
     const raw = new Database(old);
-    // The version-1 schema: without the columns and the table version 2 added, and the index version 3 added.
-    raw.exec('ALTER TABLE sources DROP COLUMN priority; ALTER TABLE features DROP COLUMN name_details; DROP TABLE unit_names; DROP INDEX features_by_position; PRAGMA user_version = 1;');
+    // The version-1 schema: without the columns and the table version 2 added, the index version 3 added and what version 4 changed.
+    raw.exec(`ALTER TABLE sources DROP COLUMN priority; ALTER TABLE features DROP COLUMN name_details; DROP TABLE unit_names; DROP INDEX features_by_position;
+      ${VERSION_4_UNDONE} PRAGMA user_version = 1;`);
     raw.close();
     const note = examineStore(old).checks.find((check) => check.check === 'schema version')!;
     expect(note).toMatchObject({ status: 'note' });
@@ -180,5 +183,34 @@ describe('schema migration', () => {
     expect((check.prepare('SELECT name FROM pragma_index_list(?)').pluck().all('features') as string[])).toContain('features_by_position');
     check.close();
     expect(examineStore(old).checks.find((c) => c.check === 'schema version')!.status).toBe('ok');
+  });
+
+  it('migrates a version-3 store holding a gazetteer: the country outlines get their index, and lookups answer as before', async () => {
+    const old = join(directory, 'v3.sqlite');
+    const built = openGazetteer(old);
+    await importGazetteer(built, join(root, 'gazetteer/demo.geojson'), { format: 'geojson', citation: 'demo' });
+    // Misspelt names (one and two typing errors), found through the token index.
+    const queries = ['Puerto Lindp', 'Vila Alisso', 'Laguna Negrs', 'Alisoss', 'Verdemra'];
+    const answers = (store: GazetteerStore) => ({
+      candidates: queries.map((name) => store.findCandidates({ name, context: {} }).map((c) => [c.feature.featureId, c.score])),
+      outlines: store.countryOutlines!('QV').map((feature) => feature.featureId),
+    });
+    const before = answers(built);
+    built.close();
+    expect(before.outlines).toHaveLength(1);
+    expect(before.candidates.every((found) => found.length > 0)).toBe(true);
+    const raw = new Database(old);
+    raw.exec(`${VERSION_4_UNDONE} PRAGMA user_version = 3;`);
+    raw.close();
+    // Examined before it is migrated: a note on its version, no problem.
+    expect(examineStore(old).healthy).toBe(true);
+    const reader = openGazetteer(old, { readonly: true });
+    expect(answers(reader)).toEqual(before);
+    reader.close();
+    const check = new Database(old, { readonly: true });
+    expect(check.pragma('user_version', { simple: true })).toBe(SCHEMA_VERSION);
+    expect(check.prepare('SELECT name FROM pragma_index_list(?)').pluck().all('features')).toContain('features_country_polygons');
+    check.close();
+    expect(examineStore(old).healthy).toBe(true);
   });
 });

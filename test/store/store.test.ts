@@ -277,7 +277,7 @@ describe('the file', () => {
     const raw = new Database(path);
     raw.pragma('user_version = 99');
     raw.close();
-    expect(() => openGazetteer(path)).toThrow('gazetteer schema version 99, this whereabouts reads versions 1 to 3');
+    expect(() => openGazetteer(path)).toThrow(`gazetteer schema version 99, this whereabouts reads versions 1 to ${SCHEMA_VERSION}`);
     expect(() => openGazetteer(join(directory, 'missing.sqlite'), { readonly: true })).toThrow();
   });
 });
