@@ -5,7 +5,7 @@
  * @example unitWordLevel(tokenize('Municipio')[0]) // 'municipality'
  */
 import type { AdministrativeContext, AdministrativeLevel, Language, NamedUnit } from './types.ts';
-import type { Token } from './tokens.ts';
+import { someTokenIn, writtenText, type Token } from './tokens.ts';
 import * as L from './lexicon.ts';
 
 /** A run of tokens between separators, [from, to), with the separator that ended it. */
@@ -53,6 +53,8 @@ export function splitSegments(tokens: Token[], from: number, to: number): Segmen
  * @example splitElevationTail(text, tokenize('summit 1200 m high'), { from: 0, to: 4, separator: '' }) // [{ from: 0, to: 1, … }, { from: 1, to: 4, … }]
  */
 export function splitElevationTail(text: string, tokens: Token[], segment: Segment): Segment[] {
+  // An elevation holds a number: most clauses hold none and are not tried at every token.
+  if (!someTokenIn(tokens, segment.from, segment.to, (t) => t.kind === 'number')) return [segment];
   if (readElevation(text, tokens, segment.from, segment.to)) return [segment];
   for (let k = segment.from + 1; k < segment.to - 1; k++) {
     // "colline de 300 m de haut": the preposition before the number goes with the elevation.
@@ -64,15 +66,20 @@ export function splitElevationTail(text: string, tokens: Token[], segment: Segme
 
 /** Words (and numbers) of tokens [from, to) joined by single spaces, punctuation dropped: "s. loc." → "s loc". */
 export function foldedWords(tokens: Token[], from: number, to: number): string {
-  const words: string[] = [];
-  for (let k = from; k < to; k++) if (tokens[k]!.kind !== 'symbol') words.push(tokens[k]!.norm);
-  return words.join(' ');
+  let words = '';
+  let first = true;
+  for (let k = from; k < to; k++) {
+    if (tokens[k]!.kind === 'symbol') continue;
+    words = first ? tokens[k]!.norm : `${words} ${tokens[k]!.norm}`;
+    first = false;
+  }
+  return words;
 }
 
 /** True when the clause says no place is known ("locality unknown", "sin localidad", "s. loc."). */
 export function isRefusal(tokens: Token[], from: number, to: number): boolean {
   const words = foldedWords(tokens, from, to);
-  return L.REFUSAL_PHRASES.has(words) || (words === '' && tokens.slice(from, to).some((t) => t.norm === '?'));
+  return L.REFUSAL_PHRASES.has(words) || (words === '' && someTokenIn(tokens, from, to, (t) => t.norm === '?'));
 }
 
 /** Value of an elevation number; "1.200" with three decimals after a period is read as 1200 (thousands separator). */
@@ -146,44 +153,66 @@ export function unitWordLevel(t: Token | undefined): AdministrativeLevel | undef
  * @example readAdministrative(text, tokenize("Municipio de Alisos"), 0, 3) // { name: 'Alisos', level: 'municipality', written: 'Municipio de Alisos' }
  */
 export function readAdministrative(text: string, tokens: Token[], from: number, to: number): NamedUnit | null {
-  if (to - from < 2 || tokens.slice(from, to).some((t) => t.kind === 'number')) return null;
-  const slice = (a: number, b: number): string => text.slice(tokens[a]!.start, tokens[b - 1]!.end);
-  const written = slice(from, to);
+  if (to - from < 2 || someTokenIn(tokens, from, to, (t) => t.kind === 'number')) return null;
+  const written = writtenText(text, tokens, from, to);
   const head = unitWordLevel(tokens[from]);
   if (head && tokens[from + 1]!.kind === 'word') {
     // "Municipio de X", and "Municipio d X" with "de" cut short: a lone "d" after a unit word is no name's first word.
     const of = L.FROM_WORDS.has(tokens[from + 1]!.norm) || tokens[from + 1]!.norm === 'd';
     const nameFrom = of && to - from > 2 ? from + 2 : from + 1;
-    return { name: slice(nameFrom, to), level: head, written };
+    return { name: writtenText(text, tokens, nameFrom, to), level: head, written };
   }
   const tail = unitWordLevel(tokens[to - 1]);
   // "Alisos County" names a unit; "Parque do Estado", "Reserva de la Provincia" name a place of the unit.
-  if (tail && tokens[to - 2]!.kind === 'word' && !L.FROM_WORDS.has(tokens[to - 2]!.norm)) return { name: slice(from, to - 1), level: tail, written };
+  if (tail && tokens[to - 2]!.kind === 'word' && !L.FROM_WORDS.has(tokens[to - 2]!.norm)) return { name: writtenText(text, tokens, from, to - 1), level: tail, written };
   return null;
 }
 
 /** Administrative levels in the order labels write them: "Country: State: County: Municipality". */
 export const ADMINISTRATIVE_ORDER: Array<keyof AdministrativeContext> = ['country', 'stateProvince', 'county', 'municipality'];
 
+const LANGUAGES: readonly Language[] = ['en', 'es', 'pt', 'fr'];
+
+/** Each marker word of exactly one language, with that language; a word two languages share marks neither. */
+const SOLE_MARKERS: ReadonlyMap<string, Language> = (() => {
+  const sole = new Map<string, Language>();
+  for (const language of LANGUAGES) {
+    for (const word of L.LANGUAGE_MARKERS[language]) {
+      if (LANGUAGES.filter((other) => L.LANGUAGE_MARKERS[other].has(word)).length === 1) sole.set(word, language);
+    }
+  }
+  return sole;
+})();
+
 /**
  * The language of a text, when its words mark one language more than any other (marker words in
  * lexicon.ts; "à", "ç", "ã", "õ" and "ñ" count too). Undefined when unclear.
+ * @example detectLanguage('5 km al norte del río', tokenize('5 km al norte del río')) // 'es'
  */
 export function detectLanguage(text: string, tokens: Token[]): Language | undefined {
   const score: Record<Language, number> = { en: 0, es: 0, pt: 0, fr: 0 };
-  const languages = Object.keys(score) as Language[];
   for (const t of tokens) {
     // One-letter words ("e", "a", "o") are also direction letters and hemispheres: not counted.
     if (t.kind !== 'word' || t.norm.length < 2) continue;
-    const marking = languages.filter((language) => L.LANGUAGE_MARKERS[language].has(t.norm));
-    if (marking.length === 1) score[marking[0]!] += 1;
+    const marked = SOLE_MARKERS.get(t.norm);
+    if (marked) score[marked] += 1;
   }
-  for (const c of text) {
-    if (c === 'à' || c === 'è') score.fr += 1;
-    if (c === 'ã' || c === 'õ' || c === 'ç') score.pt += 1;
-    if (c === 'ñ') score.es += 1;
+  // The marked letters are single UTF-16 units, so reading the text unit by unit counts them all.
+  for (let k = 0; k < text.length; k++) {
+    const c = text.charCodeAt(k);
+    if (c < 0xe0) continue;
+    if (c === 0xe0 || c === 0xe8) score.fr += 1; // à è
+    if (c === 0xe3 || c === 0xf5 || c === 0xe7) score.pt += 1; // ã õ ç
+    if (c === 0xf1) score.es += 1; // ñ
   }
-  const ranked = languages.sort((a, b) => score[b] - score[a]);
-  const [best, second] = ranked;
-  return score[best!] > 0 && score[best!] > score[second!] ? best : undefined;
+  // The one language scoring highest, when no other scores as high.
+  let best: Language | undefined;
+  let tied = false;
+  for (const language of LANGUAGES) {
+    if (best === undefined || score[language] > score[best]) {
+      best = language;
+      tied = false;
+    } else if (score[language] === score[best]) tied = true;
+  }
+  return best !== undefined && score[best] > 0 && !tied ? best : undefined;
 }

@@ -293,6 +293,12 @@ const DEGREE_SIGNS = new Set(['°', 'º', '˚', 'degrees', 'grados', 'graus', 'd
 /** A hemisphere after degrees: a word ("sur", "ouest"), or a capital letter ("N", "O"), not the small "e" or "o" of running text. */
 const hemisphereAfterDegrees = (t: Token | undefined): boolean => hemisphereOf(t) !== undefined && (t!.norm.length > 1 || t!.text[0] !== t!.text[0]!.toLowerCase());
 
+/** After the number at k, a degree sign or word and then a number, a prime or a hemisphere ("54° 15", "54 grados S"). */
+function degreesWrittenAt(tokens: Token[], k: number): boolean {
+  const after = tokens[k + 2];
+  return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
+}
+
 /**
  * Whether tokens write coordinates, read or not: a number with a degree sign or word followed by a number, a
  * prime or a hemisphere ("54° 15", "54°'", "54 grados S"; not the ordinal "1º de Maio" nor "25°C"), or a
@@ -301,14 +307,10 @@ const hemisphereAfterDegrees = (t: Token | undefined): boolean => hemisphereOf(t
  * @example writesCoordinates(tokenize('Lat. 54° 15 N')) // true
  */
 export function writesCoordinates(tokens: Token[]): boolean {
-  const degreesWritten = (k: number): boolean => {
-    const after = tokens[k + 2];
-    return normIn(tokens[k + 1], DEGREE_SIGNS) && (isNum(after) || normIn(after, MINUTE_MARKS) || isDoublePrime(after) || hemisphereAfterDegrees(after));
-  };
   // A label counts when any number follows it: before the last number. Found once, so long texts stay linear.
   let lastNumber = -1;
   tokens.forEach((t, k) => { if (t.kind === 'number') lastNumber = k; });
-  return tokens.some((t, k) => (t.kind === 'number' && degreesWritten(k))
+  return tokens.some((t, k) => (t.kind === 'number' && degreesWrittenAt(tokens, k))
     || (k < lastNumber && (normIn(t, LATITUDE_LABELS) || normIn(t, LONGITUDE_LABELS))));
 }
 
@@ -319,6 +321,7 @@ export function writesCoordinates(tokens: Token[]): boolean {
  */
 export function findCoordinates(text: string, tokens: Token[], from = 0, to = tokens.length, lenient = false): CoordinatesFound | null {
   const window = tokens.slice(from, to);
+  if (!window.some(isNum)) return null;
   const typewriter = doublePrimeAsMinutes(tokens);
   for (let i = 0; i < window.length; i++) {
     const found = coordinatesAt(text, window, i, lenient, typewriter);
@@ -334,10 +337,13 @@ export function findCoordinates(text: string, tokens: Token[], from = 0, to = to
  * @example pairAtStart('-45.3, -131.0', tokenize('-45.3, -131.0'))?.endToken // 3
  */
 export function pairAtStart(text: string, tokens: Token[]): CoordinatesFound | null {
-  return tokens.length === 0 ? null : coordinatesAt(text, tokens, 0, true, doublePrimeAsMinutes(tokens));
+  return !tokens.some(isNum) ? null : coordinatesAt(text, tokens, 0, true, doublePrimeAsMinutes(tokens));
 }
 
-/** The UTM reference or coordinate pair that starts at token i, with the datum written anywhere in the tokens. */
+/**
+ * The UTM reference or coordinate pair that starts at token i, with the datum written anywhere in the tokens.
+ * Each holds a number (a zone, degrees), so callers pass over a text with none at once.
+ */
 function coordinatesAt(text: string, tokens: Token[], i: number, lenient: boolean, typewriter: boolean): CoordinatesFound | null {
   const found = readUtm(text, tokens, i) ?? readPair(text, tokens, i, lenient, typewriter);
   if (!found) return null;

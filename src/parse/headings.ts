@@ -4,7 +4,7 @@
  * @example compassPoint('ne') // { azimuth: 45, kind: 'rose8' }
  */
 import type { WrittenHeading } from './types.ts';
-import type { Token } from './tokens.ts';
+import { writtenText, type Token } from './tokens.ts';
 import { powerOfTen } from './numbers.ts';
 
 /** Half-widths Δ of the compass rose divisions [DERIVED, docs/method.md §5.2]. */
@@ -26,9 +26,16 @@ const DIRECTION_PIECES: ReadonlyArray<[string, string]> = [
 /** Letters of abbreviated directions: O is oeste/ouest (west), L is leste (east). */
 const LETTER_CARDINAL: Readonly<Record<string, string>> = { n: 'n', s: 's', e: 'e', w: 'w', o: 'w', l: 'e' };
 
+/**
+ * Words made of the pieces alone: what segmentDirectionWord splits, told at once for the many words it cannot
+ * ("river", "sierra"), which would otherwise try every piece at every step.
+ */
+const PIECES_ONLY = new RegExp(`^(?:${DIRECTION_PIECES.map(([piece]) => piece).join('|')})*$`);
+
 /** Splits a written-out direction word into cardinal letters, or null. Bounded: words over 24 letters are refused. */
 function segmentDirectionWord(word: string): string | null {
   if (word.length > 24) return null;
+  if (!PIECES_ONLY.test(word)) return null;
   if (word === '') return '';
   for (const [piece, letter] of DIRECTION_PIECES) {
     if (word.startsWith(piece)) {
@@ -39,13 +46,22 @@ function segmentDirectionWord(word: string): string | null {
   return null;
 }
 
+/** Cardinal letters of an abbreviation written with the letters of LETTER_CARDINAL alone ("nne", "so", "l"), or null. */
+function abbreviationLetters(word: string): string | null {
+  let letters = '';
+  for (const c of word) {
+    const letter = LETTER_CARDINAL[c];
+    if (letter === undefined) return null;
+    letters += letter;
+  }
+  return letters;
+}
+
 /** Cardinal letters ("n", "ne", "nne") of one direction word or abbreviation, or null. */
 export function directionLetters(norm: string): string | null {
-  const word = norm.replace(/-/g, '');
-  if (word.length >= 1 && word.length <= 3 && [...word].every((c) => c in LETTER_CARDINAL)) {
-    return [...word].map((c) => LETTER_CARDINAL[c]).join('');
-  }
-  return segmentDirectionWord(word);
+  const word = norm.includes('-') ? norm.replace(/-/g, '') : norm;
+  const abbreviation = word.length >= 1 && word.length <= 3 ? abbreviationLetters(word) : null;
+  return abbreviation ?? segmentDirectionWord(word);
 }
 
 /** Mean of two azimuths along the shorter arc. */
@@ -54,6 +70,10 @@ function midAzimuth(a: number, b: number): number {
   return (a + diff / 2 + 360) % 360;
 }
 
+/** Azimuth of an intercardinal pair of letters ("ne", "sw"), or null for any other pair. */
+const intercardinal = (pair: string): number | null =>
+  /^[ns][ew]$/.test(pair) ? midAzimuth(CARDINAL_AZIMUTH[pair[0]!]!, CARDINAL_AZIMUTH[pair[1]!]!) : null;
+
 /**
  * Azimuth and rose division of cardinal letters: "n" (4-point), "ne" (8-point), "nne" (16-point).
  * Returns null for combinations that are not compass points ("ns", "nee").
@@ -61,8 +81,6 @@ function midAzimuth(a: number, b: number): number {
  */
 export function compassPoint(letters: string): { azimuth: number; kind: 'rose4' | 'rose8' | 'rose16' } | null {
   if (letters.length === 1) return { azimuth: CARDINAL_AZIMUTH[letters]!, kind: 'rose4' };
-  const intercardinal = (pair: string): number | null =>
-    /^[ns][ew]$/.test(pair) ? midAzimuth(CARDINAL_AZIMUTH[pair[0]!]!, CARDINAL_AZIMUTH[pair[1]!]!) : null;
   if (letters.length === 2) {
     const azimuth = intercardinal(letters);
     return azimuth === null ? null : { azimuth, kind: 'rose8' };
@@ -111,24 +129,23 @@ function readDegrees(tokens: Token[], i: number): { degrees: number; halfWidth: 
  */
 export function readHeadingAt(text: string, tokens: Token[], i: number): { heading: WrittenHeading; next: number } | null {
   const first = tokens[i];
-  const written = (from: number, to: number): string => text.slice(tokens[from]!.start, tokens[to - 1]!.end);
   // A bare bearing in degrees: "45°", "120.5°" (the degree sign is required).
   if (first?.kind === 'number' && isSymbolIn(tokens[i + 1], DEGREE_SIGNS)) {
     const degrees = readDegrees(tokens, i);
     if (!degrees) return null;
-    return { heading: { written: written(i, degrees.next), azimuth: degrees.degrees, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next };
+    return { heading: { written: writtenText(text, tokens, i, degrees.next), azimuth: degrees.degrees, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next };
   }
   if (!isWord(first)) return null;
 
   if (BEARING_WORDS.has(first.norm)) {
     const degrees = readDegrees(tokens, i + 1);
     if (!degrees) return null;
-    return { heading: { written: written(i, degrees.next), azimuth: degrees.degrees, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next };
+    return { heading: { written: writtenText(text, tokens, i, degrees.next), azimuth: degrees.degrees, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next };
   }
   if (first.norm === 'due' || first.norm === 'exactly') {
     const rest = readHeadingAt(text, tokens, i + 1);
     if (!rest || rest.heading.kind === 'degrees' || rest.heading.kind === 'due') return null;
-    return { heading: { ...rest.heading, written: written(i, rest.next), halfWidth: 0, kind: 'due' }, next: rest.next };
+    return { heading: { ...rest.heading, written: writtenText(text, tokens, i, rest.next), halfWidth: 0, kind: 'due' }, next: rest.next };
   }
   // Quadrant bearing: N 30° E, S45W.
   if ((first.norm === 'n' || first.norm === 's') && tokens[i + 1]?.kind === 'number') {
@@ -139,7 +156,7 @@ export function readHeadingAt(text: string, tokens: Token[], i: number): { headi
       const base = first.norm === 'n' ? 0 : 180;
       const sign = (first.norm === 'n') === (sideLetter === 'e') ? 1 : -1;
       const azimuth = (base + sign * degrees.degrees + 360) % 360;
-      return { heading: { written: written(i, degrees.next + 1), azimuth, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next + 1 };
+      return { heading: { written: writtenText(text, tokens, i, degrees.next + 1), azimuth, halfWidth: degrees.halfWidth, kind: 'degrees' }, next: degrees.next + 1 };
     }
   }
   // "NbE", "NEbN": a 32-point written as one word.
@@ -147,7 +164,7 @@ export function readHeadingAt(text: string, tokens: Token[], i: number): { headi
   if (joined && first.text.toLowerCase() !== first.text) {
     const compass = compassPoint(joined[1]!);
     const azimuth = compass ? byPoint(compass, joined[2]!) : null;
-    if (azimuth !== null) return { heading: { written: written(i, i + 1), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: i + 1 };
+    if (azimuth !== null) return { heading: { written: writtenText(text, tokens, i, i + 1), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: i + 1 };
   }
   const point = readCompassWords(tokens, i);
   if (!point) return null;
@@ -157,9 +174,9 @@ export function readHeadingAt(text: string, tokens: Token[], i: number): { headi
   if (isWord(by, 'by') || isWord(by, 'b')) {
     const toward = readCompassWords(tokens, point.next + 1);
     const azimuth = toward && toward.letters.length === 1 ? byPoint(compass, toward.letters) : null;
-    if (azimuth !== null) return { heading: { written: written(i, toward!.next), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: toward!.next };
+    if (azimuth !== null) return { heading: { written: writtenText(text, tokens, i, toward!.next), azimuth, halfWidth: ROSE_HALF_WIDTH.rose32, kind: 'rose32' }, next: toward!.next };
   }
-  return { heading: { written: written(i, point.next), azimuth: compass.azimuth, halfWidth: ROSE_HALF_WIDTH[compass.kind], kind: compass.kind }, next: point.next };
+  return { heading: { written: writtenText(text, tokens, i, point.next), azimuth: compass.azimuth, halfWidth: ROSE_HALF_WIDTH[compass.kind], kind: compass.kind }, next: point.next };
 }
 
 /**

@@ -89,6 +89,27 @@ function wholeTextPair(text: string, tokens: Token[]): CoordinatesFound | null {
   return found && found.endToken === tokens.length ? found : null;
 }
 
+/**
+ * The readings of spans of tokens of one text, each span read at most once, whether the clause split, the chain
+ * rule or the loop over the clauses asks first (a class, where closures made anew for every text cost more).
+ * @example new SpanReadings('Alisos', tokenize('Alisos')).read(0, 1).type // 'named-place'
+ */
+class SpanReadings {
+  private readonly readings = new Map<number, LocalityRead>();
+  constructor(private readonly text: string, private readonly tokens: Token[]) {}
+
+  read(from: number, to: number): LocalityRead {
+    const key = from * (this.tokens.length + 1) + to;
+    let reading = this.readings.get(key);
+    if (!reading) this.readings.set(key, (reading = readLocalityClause(this.text, this.tokens.slice(from, to))));
+    return reading;
+  }
+
+  readSegment(segment: Segment | undefined): LocalityRead | undefined {
+    return segment && this.read(segment.from, segment.to);
+  }
+}
+
 function interpret(text: string): Interpretation {
   const result = empty(text);
   if (text.length > MAX_LOCALITY_LENGTH) return { ...result, reason: `text longer than ${MAX_LOCALITY_LENGTH} characters` };
@@ -100,32 +121,24 @@ function interpret(text: string): Interpretation {
   if (language) result.language = language;
 
   const pieces: Piece[] = [];
-  // Each span of tokens is read at most once, whether the clause split, the chain rule or the loop below asks first.
-  const spanReadings = new Map<number, LocalityRead>();
-  const readSpan = (from: number, to: number): LocalityRead => {
-    const key = from * (tokens.length + 1) + to;
-    let reading = spanReadings.get(key);
-    if (!reading) spanReadings.set(key, (reading = readLocalityClause(text, tokens.slice(from, to))));
-    return reading;
-  };
+  const spans = new SpanReadings(text, tokens);
   const found = findCoordinates(text, tokens) ?? wholeTextPair(text, tokens);
   const separated = found
     ? [...splitSegments(tokens, 0, found.startToken), ...splitSegments(tokens, found.endToken, tokens.length)]
     : splitSegments(tokens, 0, tokens.length);
   // Before any span is read: it may take a period back from a short word.
   splitDottedHierarchy(tokens, separated);
-  const segments: Segment[] = separated.flatMap((segment) => splitElevationTail(text, tokens, segment)).flatMap((segment) => splitJoinedClauses(tokens, segment, readSpan));
+  const segments: Segment[] = [];
+  for (const segment of separated) {
+    for (const part of splitElevationTail(text, tokens, segment)) segments.push(...splitJoinedClauses(tokens, part, (from, to) => spans.read(from, to)));
+  }
   const coordinatesPiece: Piece | undefined = found ? { clause: clauseOf(text, tokens, found.startToken, found.endToken, 'coordinates') } : undefined;
   const datumWritten = found?.coordinates.datumWritten;
 
   // Segments followed by ":" (or "|", spaced dashes, leading periods) form the chain "Country: State: County".
   let chainLevel = 0;
-  const readSegment = (k: number): LocalityRead | undefined => {
-    const segment = segments[k];
-    return segment && readSpan(segment.from, segment.to);
-  };
   const headings = segments.map((segment) => segment.separator === ':' && L.FIELD_HEADINGS.has(foldedWords(tokens, segment.from, segment.to)));
-  const links = hierarchyLinks(text, tokens, segments, readSegment).map((link, k) => link && !headings[k]);
+  const links = hierarchyLinks(text, tokens, segments, (k) => spans.readSegment(segments[k])).map((link, k) => link && !headings[k]);
   // "Mun.: Alisos", "Municipio: Alisos": a unit word alone before a colon says what the next clause names.
   let unitAhead: AdministrativeLevel | undefined;
   // After "Hab.:" or "Habitat:" every clause describes the habitat.
@@ -149,7 +162,7 @@ function interpret(text: string): Interpretation {
     }
     const lead = unitAhead;
     unitAhead = undefined;
-    if (lead && readSegment(index)?.type === 'named-place') {
+    if (lead && spans.readSegment(segments[index])?.type === 'named-place') {
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'administrative'), unit: { name: clauseText, level: lead, written: text.slice(tokens[segments[index - 1]!.from]!.start, tokens[to - 1]!.end) } });
       continue;
     }
@@ -208,7 +221,7 @@ function interpret(text: string): Interpretation {
         continue;
       }
     }
-    const reading = readSegment(index)!;
+    const reading = spans.readSegment(segments[index])!;
     if ((reading.type === 'named-place' || reading.type === 'unparseable') && writesCoordinates(tokens.slice(from, to))) {
       pieces.push({ clause: clauseOf(text, tokens, from, to, 'other'), unreadCoordinates: true });
       continue;
@@ -258,17 +271,21 @@ function splitJoinedClauses(tokens: Token[], segment: Segment, read: (from: numb
   for (let k = from + 1; k < to - 1 && !some; k++) some = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES) > 0 || L.CONJUNCTIONS.has(tokens[k]!.norm);
   if (!some) return [segment];
   const whole = read(from, to);
-  const halves = (k: number, skip: number): Segment[] => [{ from, to: k, separator: ',' }, ...splitJoinedClauses(tokens, { ...segment, from: k + skip }, read)];
   for (let k = from + 1; k < to - 1; k++) {
     const near = phraseLengthAt(tokens, k, L.INNER_NEAR_PHRASES);
     const inName = near > 0 && tokens[k + near]?.kind === 'word' && whole.features.some((f) => f.split(/\s+/).includes(tokens[k]!.text));
     // Only after a name alone: "3 km S of X near Z" stays one offset from "X near Z"; split too, it added two right
     // answers and one false on the real records (a label stating no state, whose X has a namesake in another state).
-    if (inName && namedAlone(read(from, k))) return halves(k, 0);
+    if (inName && namedAlone(read(from, k))) return splitAt(tokens, segment, k, 0, read);
     const joined = whole.type === 'unparseable' && tokens[k]!.kind === 'word' && L.CONJUNCTIONS.has(tokens[k]!.norm);
-    if (joined && offsetFromPlace(read(from, k)) && offsetFromPlace(read(k + 1, to))) return halves(k, 1);
+    if (joined && offsetFromPlace(read(from, k)) && offsetFromPlace(read(k + 1, to))) return splitAt(tokens, segment, k, 1, read);
   }
   return [segment];
+}
+
+/** The segment split before token k, the second part from k + skip (past an "and") split again in its turn. */
+function splitAt(tokens: Token[], segment: Segment, k: number, skip: number, read: (from: number, to: number) => LocalityRead): Segment[] {
+  return [{ from: segment.from, to: k, separator: ',' }, ...splitJoinedClauses(tokens, { ...segment, from: k + skip }, read)];
 }
 
 /** The most tokens a clause split by splitJoinedClauses may hold (those split on the real records hold at most 17). */
@@ -563,6 +580,7 @@ const UNIT_LIKE_KINDS: ReadonlySet<FeatureKind> = new Set(['populated-place', 'l
  */
 function seatOf(feature: string, result: Pick<Interpretation, 'administrative' | 'notes'>): string {
   const municipality = result.administrative.municipality;
+  if (!municipality) return feature;
   const words = fold(feature).split(/\s+/);
   const [kind] = words.slice(words.length - 1);
   const article = words.length === 2 && SMALL_ARTICLES.has(words[0]!);

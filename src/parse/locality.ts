@@ -4,7 +4,7 @@
  * @example featureKindOf('Laguna Negra') // 'water'
  */
 import type { DistanceUnit, FeatureKind, LocalityType, Offset, PathQualifier, RouteReading, WrittenDistance, WrittenHeading } from './types.ts';
-import { fold, type Token } from './tokens.ts';
+import { fold, someTokenIn, writtenText, type Token } from './tokens.ts';
 import { ordinalAt, readNumberAt } from './numbers.ts';
 import { directionLetters, readHeadingAt } from './headings.ts';
 import { LEAGUE_RELATIVE_SPREAD, UNIT_WORDS, toMeters } from './units.ts';
@@ -49,8 +49,13 @@ const matchPhrase = (s: Source, i: number, list: L.PhraseList): number => phrase
  */
 export function phraseLengthAt(tokens: Token[], i: number, list: L.PhraseList): number {
   let best = 0;
-  for (const phrase of list.get(tokens[i]?.norm ?? '') ?? []) {
-    if (phrase.length > best && phrase.every((w, k) => tokens[i + k]?.norm === w)) best = phrase.length;
+  const phrases = list.get(tokens[i]?.norm ?? '');
+  if (!phrases) return 0;
+  for (const phrase of phrases) {
+    if (phrase.length <= best) continue;
+    let k = 0;
+    while (k < phrase.length && tokens[i + k]?.norm === phrase[k]) k++;
+    if (k === phrase.length) best = phrase.length;
   }
   return best;
 }
@@ -59,8 +64,11 @@ export function phraseLengthAt(tokens: Token[], i: number, list: L.PhraseList): 
 function nameBetween(s: Source, from: number, to: number): string | null {
   while (from < to && s.tokens[from]!.kind === 'symbol' && !'"“«('.includes(s.tokens[from]!.text)) from++;
   while (to > from && s.tokens[to - 1]!.kind === 'symbol' && !'"”»)'.includes(s.tokens[to - 1]!.text)) to--;
-  if (from >= to || !s.tokens.slice(from, to).some((t) => t.kind === 'word')) return null;
-  const name = s.text.slice(s.tokens[from]!.start, s.tokens[to - 1]!.end).replace(/^["“«(\s]+|["”»)\s]+$/g, '');
+  if (from >= to || !someTokenIn(s.tokens, from, to, (t) => t.kind === 'word')) return null;
+  const written = writtenText(s.text, s.tokens, from, to);
+  // A token starts and ends with no space, so only a quotation mark or bracket at either end is trimmed.
+  const quoted = '"“«('.includes(written[0]!) || '"”»)'.includes(written[written.length - 1]!);
+  const name = quoted ? written.replace(/^["“«(\s]+|["”»)\s]+$/g, '') : written;
   return name === '' ? null : name;
 }
 
@@ -154,20 +162,25 @@ function modeOfNoun(n: string | undefined): PathQualifier['mode'] | undefined {
 }
 
 /**
+ * "Estrada do Sul de X", "Sentier des Crêtes de X": the "do"/"des" at k, after the capitalised generic word of a
+ * line whose name starts at i, is part of its name, and so is the word after it, even a heading ("Sul"); the
+ * next "de" is "from".
+ */
+const joinsLineName = (s: Source, i: number, k: number): boolean =>
+  k > i && L.NAME_GENITIVES.has(s.tokens[k]!.norm) && !!modeOfNoun(norm(s, k - 1)) && /^\p{Lu}/u.test(s.tokens[k - 1]!.text);
+
+/**
  * End of a line name starting at i: the clause end, or (when the place follows) a heading, "upstream", or the
  * first "from"/"desde" ("along Rio de Ouro from Vila Serena"), else the first "de" not followed by an article:
  * "de la" belongs to the name ("10 km along Rio de la Plata de Vila Serena").
  */
 function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
   if (!stopAtFrom) return s.tokens.length;
-  // "Estrada do Sul de X", "Sentier des Crêtes de X": the "do"/"des" after the line's capitalised generic
-  // word is part of its name, and so is the word after it, even a heading ("Sul"); the next "de" is "from".
-  const joins = (k: number) => k > i && L.NAME_GENITIVES.has(s.tokens[k]!.norm) && !!modeOfNoun(norm(s, k - 1)) && /^\p{Lu}/u.test(s.tokens[k - 1]!.text);
   let stop = -1;
   for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.STRONG_FROM_WORDS.has(s.tokens[k]!.norm)) stop = k;
-  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') && !joins(k)) stop = k;
+  for (let k = i; k < s.tokens.length && stop < 0; k++) if (L.FROM_WORDS.has(s.tokens[k]!.norm) && !L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') && !joinsLineName(s, i, k)) stop = k;
   let k = i;
-  while (k < s.tokens.length && k !== stop && (joins(k - 1) || !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
+  while (k < s.tokens.length && k !== stop && (joinsLineName(s, i, k - 1) || !(readHeading(s, k) || matchPhrase(s, k, L.UPSTREAM_PHRASES) || matchPhrase(s, k, L.DOWNSTREAM_PHRASES)))) k++;
   return k;
 }
 
@@ -177,12 +190,11 @@ function lineEnd(s: Source, i: number, stopAtFrom: boolean): number {
  * `stopAtFrom`: the feature follows, so a line name ends at "from"/"de".
  */
 function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQualifier; byAir?: true; next: number } | null {
-  const written = (to: number): string => s.text.slice(s.tokens[i]!.start, s.tokens[to - 1]!.end);
   const air = matchPhrase(s, i, L.BY_AIR_PHRASES);
   if (air) return { byAir: true, next: i + air };
   for (const [list, mode] of [[L.UPSTREAM_PHRASES, 'upstream'], [L.DOWNSTREAM_PHRASES, 'downstream']] as const) {
     const n = matchPhrase(s, i, list);
-    if (n) return { path: pathOf(mode, written(i + n)), next: i + n };
+    if (n) return { path: pathOf(mode, writtenText(s.text, s.tokens, i, i + n)), next: i + n };
   }
   const along = matchPhrase(s, i, L.ALONG_PHRASES);
   if (along) {
@@ -191,9 +203,9 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
     const end = lineEnd(s, readHeading(s, start) && start + 1 < s.tokens.length ? start + 1 : start, stopAtFrom);
     if (end === start) return null;
     const nounMode = end - start === 1 ? modeOfNoun(norm(s, start)) : undefined;
-    if (nounMode) return { path: pathOf(nounMode, written(end)), next: end };
+    if (nounMode) return { path: pathOf(nounMode, writtenText(s.text, s.tokens, i, end)), next: end };
     const first = modeOfNoun(norm(s, start));
-    return { path: pathOf(first ?? 'along', written(end), nameBetween(s, start, end)), next: end };
+    return { path: pathOf(first ?? 'along', writtenText(s.text, s.tokens, i, end), nameBetween(s, start, end)), next: end };
   }
   if (L.PATH_PREPOSITIONS.has(norm(s, i) ?? '')) {
     let k = i + 1;
@@ -205,7 +217,7 @@ function readPath(s: Source, i: number, stopAtFrom: boolean): { path?: PathQuali
     const onlyRoads = ['on', 'en', 'na', 'no', 'sur'].includes(preposition);
     if (!mode || (onlyRoads && mode === 'river')) return null;
     const end = lineEnd(s, k + 1, stopAtFrom);
-    return { path: pathOf(mode, written(end), end > k + 1 ? nameBetween(s, k, end) : null), next: end };
+    return { path: pathOf(mode, writtenText(s.text, s.tokens, i, end), end > k + 1 ? nameBetween(s, k, end) : null), next: end };
   }
   return null;
 }
@@ -255,11 +267,14 @@ const hasDistance = (s: Source, from: number, to: number): boolean => {
 function hasNameWord(s: Source, from: number, to: number): boolean {
   for (let k = from; k < to; k++) {
     const t = s.tokens[k]!;
-    // A direction word counts as a name when written like one ("El Sur"), not as an abbreviation ("NNE").
-    const capitalised = t.text.length >= 3 && t.text[0] !== t.text[0]!.toLowerCase() && t.text.slice(1) !== t.text.slice(1).toUpperCase();
     if (t.kind !== 'word') continue;
+    const small = L.SMALL_WORDS.has(t.norm);
+    // Most words are long and no small word: no need to ask whether they are directions.
+    if (!small && t.norm.length > 3) return true;
     const direction = directionLetters(t.norm) !== null;
-    if ((!L.SMALL_WORDS.has(t.norm) && (t.norm.length > 3 || !direction)) || (capitalised && direction)) return true;
+    if (!small && !direction) return true;
+    // A direction word counts as a name when written like one ("El Sur"), not as an abbreviation ("NNE").
+    if (direction && t.text.length >= 3 && t.text[0] !== t.text[0]!.toLowerCase() && t.text.slice(1) !== t.text.slice(1).toUpperCase()) return true;
   }
   return false;
 }
@@ -293,7 +308,7 @@ function placeAt(s: Source, from: number, end: number): string | null {
 /** Where a lower-case word for a part of a mountain that closes a name starts ("Monte Verdemar summit area"), else `end`. */
 function mountainPartAtEnd(s: Source, from: number, end: number): number {
   for (let k = Math.max(from + 1, end - 3); k < end; k++) {
-    const lowerCase = s.tokens.slice(k, end).every((t) => t.text === t.norm);
+    const lowerCase = !someTokenIn(s.tokens, k, end, (t) => t.text !== t.norm);
     if (lowerCase && matchPhrase(s, k, L.MOUNTAIN_PART_WORDS) === end - k && hasNameWord(s, from, k)) return k;
   }
   return end;
@@ -311,7 +326,7 @@ export function featureKindOf(name: string): FeatureKind | undefined {
   const firstKind = L.FEATURE_KIND_WORDS.get(wordOf(name, 0, firstSpace));
   if (firstKind) return firstKind;
   // The lead's two words, or its two initials written without a space ("P.N. La Amistad").
-  const initials = /^(\p{L})\.(\p{L})\.$/u.exec(name.slice(0, firstSpace));
+  const initials = name.charAt(firstSpace - 1) === '.' ? /^(\p{L})\.(\p{L})\.$/u.exec(name.slice(0, firstSpace)) : null;
   const secondSpace = name.indexOf(' ', firstSpace + 1);
   const lead = initials ? fold(`${initials[1]}-${initials[2]}`) : secondSpace > 0 ? `${wordOf(name, 0, firstSpace)}-${wordOf(name, firstSpace + 1, secondSpace)}` : '';
   if (L.PROTECTED_AREA_LEADS.has(lead)) return 'protected-area';

@@ -19,9 +19,13 @@ export interface WrittenNumber {
   next: number;
 }
 
+/** 1e-24 … 1e24, each read from its decimal literal once: the powers that written numbers ask for. */
+const POWERS_FROM = 24;
+const POWERS_OF_TEN: readonly number[] = Array.from({ length: 2 * POWERS_FROM + 1 }, (_, k) => Number(`1e${k - POWERS_FROM}`));
+
 /** 10^k as the decimal literal reads it (1e-4 is exactly the double nearest 0.0001, unlike 10 ** -4 on some engines). */
 export function powerOfTen(k: number): number {
-  return Number(`1e${k}`);
+  return POWERS_OF_TEN[k + POWERS_FROM] ?? Number(`1e${k}`);
 }
 
 /** Words that join the two ends of a range ("5 a 8 km", "5 to 8 km", "5 à 8 km", "entre 5 y 8 km"). */
