@@ -37,6 +37,30 @@ export function batchCsvPath(format: ResultFormat, output: string): string {
   return `${resolve(output)}.rows.csv`;
 }
 
+/** The file a batch makes: its format and its absolute path, or '-' for standard output. */
+export interface BatchResult {
+  format: ResultFormat;
+  path: string;
+}
+
+/**
+ * The file a run of `batch` makes: what was asked, and on a resume what was left out taken from the job
+ * as it was started (its format; its file, when the format stays the same). The georeferencing a job
+ * keeps does not depend on the format, so a job started as one format may finish as another, named as a
+ * new run with that format and file would name it. A file named for the old format is never given the
+ * new one: changing the format of a job that wrote to a file needs the new file. A part stays CSV.
+ * @example resultOf({ format: 'gpkg', path: 'out.gpkg' }, { id: '3f9c2a71', format: 'csv', path: '/data/out.csv', part: false }) // { format: 'gpkg', path: '/abs/out.gpkg' }
+ */
+export function resultOf(asked: { format?: ResultFormat; path?: string }, started?: { id: string; format: ResultFormat; path: string; part: boolean }): BatchResult {
+  const format = asked.format ?? started?.format ?? 'csv';
+  if (started?.part && format !== 'csv') throw new Error(`batch job ${started.id} is a part (--part), always a CSV part file: merge the parts, then convert`);
+  const path = asked.path ?? (!started || format === started.format || started.path === '-' ? started?.path ?? '-' : undefined);
+  if (path === undefined) {
+    throw new Error(`batch job ${started!.id} was started to write ${started!.format} to ${started!.path}; to finish it as ${format} instead, say where with --out <file> (or - for standard output)`);
+  }
+  return { format, path: path === '-' ? '-' : resolve(path) };
+}
+
 /**
  * Turn the finished CSV into the asked format and remove it (nothing to do for CSV); when that fails, a
  * CSV beside a file output is kept.

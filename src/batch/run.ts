@@ -6,7 +6,7 @@
  * bytes as an unbroken run.
  */
 import { randomUUID } from 'node:crypto';
-import { closeSync, createReadStream, createWriteStream, existsSync, fsyncSync, ftruncateSync, openSync, renameSync, rmSync, writeFileSync, writeSync } from 'node:fs';
+import { closeSync, copyFileSync, createReadStream, createWriteStream, existsSync, fsyncSync, ftruncateSync, openSync, renameSync, rmSync, writeFileSync, writeSync } from 'node:fs';
 import { cpus } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { pipeline } from 'node:stream/promises';
@@ -52,10 +52,15 @@ export interface BatchJobOptions {
   dbPath: string;
   /** Path of the input file, '-' for standard input, or the file's bytes (an upload). Not needed with `resume`. */
   input?: string | Buffer;
-  /** Target file, or '-' for standard output (the default). */
+  /**
+   * Target file, or '-' for standard output (the default). With `resume`, a file other than the job's
+   * moves its CSV there: the rows written so far go along, so nothing is written twice.
+   */
   output?: string;
   /** Id of a job to finish. */
   resume?: string;
+  /** What the caller makes of the CSV when the job is done (src/batch/gis-output.ts), kept with the job; on a resume, stored anew. */
+  result?: { format: string; path: string };
   /** The input's delimiter when the caller knows it (an archive's core, written by whereabouts); found from the header otherwise. */
   delimiter?: Delimiter;
   coverAmbiguous?: boolean;
@@ -154,11 +159,13 @@ const PLAIN_ROW_BUDGET = 40 * 2 ** 20;
 export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: string; methodChoices: BatchJob['methodChoices']; done: Promise<BatchSummary> }> {
   if (!existsSync(options.dbPath)) throw new Error(`no gazetteer database at ${options.dbPath}: import a gazetteer first (whereabouts import <file>)`);
   checkPartOptions(options);
-  const jobsPath = options.jobsDbPath ?? (options.part ? `${resolve(options.output!)}.jobs.sqlite` : jobsDatabasePath(options.dbPath));
+  const jobsPath = jobsPathOf(options);
   const jobs = openJobs(jobsPath);
   try {
-    const { job, resumed, format } = options.resume ? await resumableJob(jobs, options) : await newOrUnfinishedJob(jobs, jobsPath, options);
-    claimJob(jobs, job.id);
+    const started = options.resume ? await resumableJob(jobs, options) : await newOrUnfinishedJob(jobs, jobsPath, options);
+    const { resumed, format } = started;
+    claimJob(jobs, started.job.id);
+    const job = options.resume ? resumedAs(jobs, started.job, options) : started.job;
     const done = runJob(jobs, job, format, options).then(
       (summary) => ({ ...summary, resumed }),
       (error: unknown) => {
@@ -171,6 +178,17 @@ export async function startBatchJob(options: BatchJobOptions): Promise<{ jobId: 
     jobs.close();
     throw error;
   }
+}
+
+/**
+ * The job database of a batch: the one given, a part's beside its part file, else the one beside the gazetteer.
+ * @example jobsPathOf({ dbPath: 'whereabouts.sqlite' }) // '/abs/whereabouts.jobs.sqlite'
+ */
+export function jobsPathOf(options: Pick<BatchJobOptions, 'jobsDbPath' | 'part' | 'output' | 'dbPath'>): string {
+  if (options.jobsDbPath) return options.jobsDbPath;
+  if (!options.part) return jobsDatabasePath(options.dbPath);
+  if (!options.output || options.output === '-') throw new Error('a part (--part) needs an output file (--out), the part file the merge reads');
+  return `${resolve(options.output)}.jobs.sqlite`;
 }
 
 function checkPartOptions(options: BatchJobOptions): void {
@@ -224,6 +242,36 @@ async function resumableJob(jobs: Database.Database, options: BatchJobOptions): 
   return { job, resumed: true, format };
 }
 
+/**
+ * A resumed job, with the result asked now stored, and its CSV sent to `options.output` when that is
+ * another file: the partial file moves beside it (copied when across file systems), so that the rows
+ * written so far are kept and the finished file is renamed into place as ever. Called once the job is
+ * claimed, so no other process writes the partial file meanwhile.
+ */
+function resumedAs(jobs: Database.Database, job: BatchJob, options: BatchJobOptions): BatchJob {
+  const change: Parameters<typeof updateJob>[2] = options.result ? { resultFormat: options.result.format, resultPath: options.result.path } : {};
+  const outputPath = options.output === undefined ? job.outputPath : options.output === '-' ? '-' : resolve(options.output);
+  if (outputPath !== job.outputPath) {
+    if (outputPath === job.inputPath) throw new Error(`the output ${outputPath} would replace the input`);
+    const partialPath = outputPath === '-' ? job.partialPath : `${outputPath}.${job.id}.partial`;
+    if (partialPath !== job.partialPath && existsSync(job.partialPath)) moveFile(job.partialPath, partialPath);
+    Object.assign(change, { outputPath, partialPath });
+  }
+  updateJob(jobs, job.id, change);
+  return { ...job, ...change };
+}
+
+/** Rename a file, or copy it and remove the original when the two paths are on different file systems. */
+function moveFile(from: string, to: string): void {
+  try {
+    renameSync(from, to);
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EXDEV') throw error;
+    copyFileSync(from, to);
+    rmSync(from);
+  }
+}
+
 async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, options: BatchJobOptions): Promise<StartedJob> {
   if (options.input === undefined) throw new Error('a batch needs an input file (or - for standard input), or --resume <job>');
   const spooled = typeof options.input !== 'string' || options.input === '-';
@@ -253,7 +301,7 @@ async function newOrUnfinishedJob(jobs: Database.Database, jobsPath: string, opt
     }
     const id = randomUUID().slice(0, 8);
     const job: BatchJob = {
-      ...like, methodChoices: { ...methodChoiceValues(), ...(options.routeKilometrePost ? { routeKilometrePost: options.routeKilometrePost } : {}) }, id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
+      ...like, resultFormat: options.result?.format ?? null, resultPath: options.result?.path ?? null, methodChoices: { ...methodChoiceValues(), ...(options.routeKilometrePost ? { routeKilometrePost: options.routeKilometrePost } : {}) }, id, state: 'reading', inputPath, inputIsSpool: spooled, inputBytes: format.bytes, encoding: format.encoding, delimiter,
       partialPath: outputPath === '-' ? join(dirname(jobsPath), `whereabouts-job-${id}.partial`) : `${outputPath}.${id}.partial`,
       gazetteerPath: resolve(options.dbPath), runTimestamp: options.runTimestamp ?? new Date().toISOString().replace(/\.\d+Z$/, 'Z'), rowsTotal: null, rowsDone: 0,
       outputBytes: 0, distinctTotal: null, distinctDone: 0, tallies: {}, startedAt: new Date().toISOString(), finishedAt: null, error: null,

@@ -25,6 +25,13 @@ export interface BatchJob {
   outputPath: string;
   /** The file written as the job goes, renamed to outputPath at the end. */
   partialPath: string;
+  /**
+   * What the caller makes of the CSV once the job is done (the CLI's `--format` and `--out`: a GeoPackage,
+   * GeoJSON, the CSV itself or an archive's new archive), kept so that a resume asking nothing makes the
+   * same file; null for a job whose caller keeps the CSV (the HTTP service) or stored before jobs kept it.
+   */
+  resultFormat: string | null;
+  resultPath: string | null;
   gazetteerPath: string;
   settings: string;
   /** The value of every method choice in force when the job started (src/georef/method-choices.ts), by id; null for jobs stored before jobs recorded them. */
@@ -76,7 +83,7 @@ CREATE TABLE IF NOT EXISTS batch_job (
   run_timestamp TEXT NOT NULL, rows_total INTEGER, rows_done INTEGER NOT NULL DEFAULT 0,
   output_bytes INTEGER NOT NULL DEFAULT 0, distinct_total INTEGER, distinct_done INTEGER NOT NULL DEFAULT 0,
   tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT, runner_pid INTEGER,
-  part_index INTEGER, part_count INTEGER, method_choices TEXT
+  part_index INTEGER, part_count INTEGER, method_choices TEXT, result_format TEXT, result_path TEXT
 );
 CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
@@ -101,7 +108,7 @@ export function openJobs(path: string): Database.Database {
   db.exec(SCHEMA);
   // Job files made before jobs recorded their runner, their part or their method choices lack those columns; add them rather than refuse the files.
   const columns = db.prepare("SELECT name FROM pragma_table_info('batch_job')").all() as { name: string }[];
-  for (const [column, type] of [['runner_pid', 'INTEGER'], ['part_index', 'INTEGER'], ['part_count', 'INTEGER'], ['method_choices', 'TEXT']]) {
+  for (const [column, type] of [['runner_pid', 'INTEGER'], ['part_index', 'INTEGER'], ['part_count', 'INTEGER'], ['method_choices', 'TEXT'], ['result_format', 'TEXT'], ['result_path', 'TEXT']]) {
     if (!columns.some((c) => c.name === column)) db.exec(`ALTER TABLE batch_job ADD COLUMN ${column} ${type}`);
   }
   return db;
@@ -112,14 +119,14 @@ interface JobRow {
   encoding: string; delimiter: string; output_path: string; partial_path: string; gazetteer_path: string; settings: string;
   version: string; sources: string; run_timestamp: string; rows_total: number | null; rows_done: number; output_bytes: number;
   distinct_total: number | null; distinct_done: number; tallies: string; started_at: string; finished_at: string | null; error: string | null;
-  part_index: number | null; part_count: number | null; method_choices: string | null;
+  part_index: number | null; part_count: number | null; method_choices: string | null; result_format: string | null; result_path: string | null;
 }
 
 function fromRow(row: JobRow): BatchJob {
   return {
     id: row.id, state: row.state, inputPath: row.input_path, inputIsSpool: row.input_is_spool === 1, inputSha256: row.input_sha256,
     inputBytes: row.input_bytes, encoding: row.encoding, delimiter: row.delimiter, outputPath: row.output_path,
-    partialPath: row.partial_path, gazetteerPath: row.gazetteer_path, settings: row.settings, version: row.version,
+    partialPath: row.partial_path, resultFormat: row.result_format, resultPath: row.result_path, gazetteerPath: row.gazetteer_path, settings: row.settings, version: row.version,
     methodChoices: row.method_choices === null ? null : (JSON.parse(row.method_choices) as Record<string, number | string>),
     sources: JSON.parse(row.sources) as Source[], runTimestamp: row.run_timestamp, partIndex: row.part_index, partCount: row.part_count, rowsTotal: row.rows_total,
     rowsDone: row.rows_done, outputBytes: row.output_bytes, distinctTotal: row.distinct_total, distinctDone: row.distinct_done,
@@ -183,17 +190,21 @@ export function sameSources(a: Source[], b: Source[]): boolean {
 export function insertJob(db: Database.Database, job: BatchJob): void {
   db.prepare(
     `INSERT INTO batch_job (id, state, input_path, input_is_spool, input_sha256, input_bytes, encoding, delimiter, output_path,
-       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at, part_index, part_count, method_choices)
+       partial_path, gazetteer_path, settings, version, sources, run_timestamp, started_at, part_index, part_count, method_choices, result_format, result_path)
      VALUES (@id, @state, @inputPath, @inputIsSpool, @inputSha256, @inputBytes, @encoding, @delimiter, @outputPath,
-       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt, @partIndex, @partCount, @methodChoices)`,
+       @partialPath, @gazetteerPath, @settings, @version, @sources, @runTimestamp, @startedAt, @partIndex, @partCount, @methodChoices, @resultFormat, @resultPath)`,
   ).run({ ...job, inputIsSpool: job.inputIsSpool ? 1 : 0, sources: JSON.stringify(job.sources), methodChoices: job.methodChoices && JSON.stringify(job.methodChoices) });
 }
 
 /** Update the given columns of a job (names as in BatchJob). */
-export function updateJob(db: Database.Database, id: string, change: Partial<Pick<BatchJob, 'state' | 'rowsTotal' | 'rowsDone' | 'outputBytes' | 'distinctTotal' | 'distinctDone' | 'tallies' | 'finishedAt' | 'error'>>): void {
+export function updateJob(
+  db: Database.Database, id: string,
+  change: Partial<Pick<BatchJob, 'state' | 'rowsTotal' | 'rowsDone' | 'outputBytes' | 'distinctTotal' | 'distinctDone' | 'tallies' | 'finishedAt' | 'error' | 'outputPath' | 'partialPath' | 'resultFormat' | 'resultPath'>>,
+): void {
   const columns: Record<string, string> = {
     state: 'state', rowsTotal: 'rows_total', rowsDone: 'rows_done', outputBytes: 'output_bytes', distinctTotal: 'distinct_total',
-    distinctDone: 'distinct_done', tallies: 'tallies', finishedAt: 'finished_at', error: 'error',
+    distinctDone: 'distinct_done', tallies: 'tallies', finishedAt: 'finished_at', error: 'error', outputPath: 'output_path',
+    partialPath: 'partial_path', resultFormat: 'result_format', resultPath: 'result_path',
   };
   const entries = Object.entries(change);
   if (entries.length === 0) return;

@@ -5,26 +5,14 @@
  * slows each committed step so that the kill lands mid-run. Common practice, no source: compare bytes.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
 import { jobsDatabasePath } from '../../src/store/side-files.ts';
-import { fixtureGazetteer, killWhen, progress, readOutput } from './helpers.ts';
+import { fixtureGazetteer, killWhen, progress, readOutput, writeRepeatedLocalities } from './helpers.ts';
 
 const BIN = new URL('../../bin/whereabouts.js', import.meta.url).pathname;
-const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
-const HEADINGS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'];
-
-/** 7,200 invented rows holding 2,400 distinct localities (enough for worker threads), each repeated three times. */
-function writeInput(path: string): void {
-  const distinct: string[] = [];
-  for (const place of PLACES) for (const heading of HEADINGS) for (let km = 1; km <= 60; km++) distinct.push(`${km} km ${heading} of ${place}`);
-  const lines = ['occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude'];
-  for (let i = 0; i < distinct.length * 3; i++) lines.push(`c-${i},"${distinct[i % distinct.length]}",QV,${i % 7 === 0 ? '45.5,-131.0' : ','}`);
-  writeFileSync(path, `${lines.join('\n')}\n`);
-}
-
 function sameBytesBut(timestampA: string, a: string, timestampB: string, b: string): void {
   expect(a.replaceAll(timestampA, '<run>')).toBe(b.replaceAll(timestampB, '<run>'));
 }
@@ -33,7 +21,7 @@ describe('a batch killed part way', { timeout: 180_000 }, () => {
   it('finishes on resume with exactly the rows of an unbroken run', async () => {
     const { dir, dbPath } = await fixtureGazetteer();
     const input = join(dir, 'input.csv');
-    writeInput(input);
+    writeRepeatedLocalities(input);
     const jobsPath = jobsDatabasePath(dbPath);
     const env = { ...process.env, WHEREABOUTS_TEST_DELAY_MS: '60' };
 

@@ -1,6 +1,6 @@
 /** Shared set-up for the batch tests: a real SQLite gazetteer imported from the invented fixture. */
 import { spawn } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
@@ -67,4 +67,16 @@ export async function unzip(path: string): Promise<{ name: string; bytes: Buffer
   }
   zip.close();
   return out;
+}
+
+const PLACES = ['Caleta Brava', 'San Telmo', 'Pont-Étoile', 'São Bento', 'Puerto Ñandú'];
+const HEADINGS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'];
+
+/** 7,200 invented rows holding 2,400 distinct localities (enough for worker threads), each repeated three times. */
+export function writeRepeatedLocalities(path: string): void {
+  const distinct: string[] = [];
+  for (const place of PLACES) for (const heading of HEADINGS) for (let km = 1; km <= 60; km++) distinct.push(`${km} km ${heading} of ${place}`);
+  const lines = ['occurrenceID,locality,countryCode,decimalLatitude,decimalLongitude'];
+  for (let i = 0; i < distinct.length * 3; i++) lines.push(`c-${i},"${distinct[i % distinct.length]}",QV,${i % 7 === 0 ? '45.5,-131.0' : ','}`);
+  writeFileSync(path, `${lines.join('\n')}\n`);
 }

@@ -60,7 +60,7 @@ describe('a batch job and its method choices', { timeout: 60_000 }, () => {
     const jobs = openJobs(jobsPath);
     const job = (id: string, methodChoices: Record<string, number | string> | null, out: string) => ({
       id, state: 'reading' as const, inputPath: input, inputIsSpool: false, inputSha256: format.sha256, inputBytes: format.bytes, encoding: format.encoding,
-      delimiter: ',', outputPath: join(dir, out), partialPath: join(dir, `${out}.partial`), gazetteerPath: dbPath,
+      delimiter: ',', outputPath: join(dir, out), partialPath: join(dir, `${out}.partial`), resultFormat: null, resultPath: null, gazetteerPath: dbPath,
       settings: JSON.stringify({ administrativeFallback: false, coverAmbiguous: false }), methodChoices, version: VERSION, sources: gazetteerSources(dbPath),
       runTimestamp: '2026-05-01T09:30:00Z', partIndex: null, partCount: null, rowsTotal: null, rowsDone: 0, outputBytes: 0, distinctTotal: null,
       distinctDone: 0, tallies: {}, startedAt: new Date().toISOString(), finishedAt: null, error: null,

@@ -7,12 +7,15 @@
 import { createHash } from 'node:crypto';
 import { closeSync, createReadStream, existsSync, openSync, readFileSync, readSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
+import type { Writable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { describeCore, formatMetaXml, OCCURRENCE_ROW_TYPE, type MetaArchive } from '../../output/darwin-core-archive.ts';
 import { methodStepParagraphs, minimalEml, withMethodStep } from '../../output/eml-method-step.ts';
+import { resultFormat, type ResultFormat } from '../../output/result-formats.ts';
 import { jobGeneralisation, loadJob, openJobs } from '../../store/jobs.ts';
 import { jobsDatabasePath } from '../../store/side-files.ts';
-import { startBatchJob, type BatchJobOptions, type BatchSummary } from '../run.ts';
+import { batchCsvPath, resultOf, writeResults, type BatchResult } from '../gis-output.ts';
+import { jobsPathOf, startBatchJob, type BatchJobOptions, type BatchSummary } from '../run.ts';
 import { writeCoreTable } from './core-table.ts';
 import { parseMetaXml } from './meta-xml.ts';
 import { isZipFile, openZip, writeZip, type ZipReader, type ZipSource } from './zip.ts';
@@ -41,6 +44,12 @@ export interface ArchiveJobOptions extends BatchJobOptions {
    * src/batch/gis-output.ts as for any batch output).
    */
   coreOnly?: boolean;
+  /**
+   * The file to make, as the CLI's `batch --format` and `--out` ask it (either left out on a resume: as the
+   * job was started, see `resultOf`): the CSV, a GIS file made from it, or for an archive a new archive.
+   * Given, it decides `output` and `coreOnly`, is kept with the job, and is written when the job is done.
+   */
+  resultAsked?: { format?: ResultFormat; path?: string };
   /** How messages name the input (default its path; the HTTP service never shows its paths). */
   inputName?: string;
   /** Largest sum of the archive's files uncompressed, in bytes; a larger archive is refused before it is read. */
@@ -56,6 +65,8 @@ export class ArchiveTooLarge extends Error {}
 export interface ArchiveSummary extends BatchSummary {
   /** Set when the input was a Darwin Core Archive: its core's path inside the archive and its encoding as meta.xml gives it. */
   archiveCore?: { path: string; encoding: string };
+  /** The format of the file made, when `resultAsked` asked for one. */
+  format?: ResultFormat;
 }
 
 /**
@@ -63,14 +74,15 @@ export interface ArchiveSummary extends BatchSummary {
  * meta.xml). A zip without meta.xml is refused with a clear error.
  * @example const { jobId, done } = await startBatch({ dbPath, input: 'dwca.zip', output: 'dwca-georeferenced.zip' });
  */
-export async function startBatch(options: ArchiveJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
+export async function startBatch(asked: ArchiveJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
+  const options = asked.resultAsked ? withResult(asked, asked.resultAsked) : asked;
   const input = options.input;
   const zipPath = !options.resume && typeof input === 'string' && input !== '-' && existsSync(input) && isZipFile(input) ? input : undefined;
   if (zipPath && options.archiveOnly) await checkArchive(zipPath, options);
   if (!zipPath || !(await hasMetafile(zipPath))) {
     // Not an archive (a zip without meta.xml among them): the batch reads it, or says what it is.
     const { jobId, methodChoices, done } = await startBatchJob(options);
-    return { jobId, methodChoices, done: done.then((summary) => finishArchive(summary, options)) };
+    return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options)) };
   }
   if (options.part) throw new Error('a Darwin Core Archive is georeferenced whole: --part cuts CSV and tab-separated files only');
   const archivePath = resolve(zipPath);
@@ -93,7 +105,7 @@ export async function startBatch(options: ArchiveJobOptions): Promise<{ jobId: s
     writeFileSync(`${coreOut}.archive.json`, JSON.stringify(manifest));
     try {
       const { jobId, methodChoices, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
-      return { jobId, methodChoices, done: done.then((summary) => finishArchive(summary, options)) };
+      return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options)) };
     } catch (error) {
       // No job was stored (a core without a locality term, say): nothing is left behind.
       rmSync(table, { force: true });
@@ -103,6 +115,44 @@ export async function startBatch(options: ArchiveJobOptions): Promise<{ jobId: s
   } finally {
     zip.close();
   }
+}
+
+/**
+ * The options of a run that makes a file (the CLI's): the result, from what was asked and, on a resume,
+ * the job as it was started; where the job writes its CSV for it; whether an archive's job writes its
+ * archive. A resumed job over an archive keeps its core table where it is (its manifest is named after
+ * it); a resumed job over a plain file whose result changed has its CSV moved (src/batch/run.ts).
+ */
+function withResult(options: ArchiveJobOptions, asked: NonNullable<ArchiveJobOptions['resultAsked']>): ArchiveJobOptions {
+  if (!options.resume) {
+    const result = resultOf(asked);
+    return { ...options, output: batchCsvPath(result.format, result.path), coreOnly: result.format !== 'csv', result };
+  }
+  const jobs = openJobs(jobsPathOf({ ...options, output: asked.path }));
+  let job;
+  try {
+    job = loadJob(jobs, options.resume);
+  } finally {
+    jobs.close();
+  }
+  const manifestPath = `${job.outputPath}.archive.json`;
+  const manifest = existsSync(manifestPath) ? (JSON.parse(readFileSync(manifestPath, 'utf8')) as ArchiveManifest) : undefined;
+  const started = {
+    id: job.id, format: resultFormat(job.resultFormat ?? 'csv'), path: job.resultPath ?? manifest?.outputPath ?? job.outputPath, part: job.partCount !== null,
+  };
+  const result = resultOf(asked, started);
+  if (manifest && result.format === 'csv' && result.path === manifest.archivePath) throw new Error(`the output ${result.path} would replace the input`);
+  const unchanged = result.format === started.format && result.path === started.path;
+  return { ...options, output: manifest || unchanged ? undefined : batchCsvPath(result.format, result.path), coreOnly: result.format !== 'csv', result };
+}
+
+/** The file asked for, once the job (and an archive's) is done: the GIS file made from the CSV (nothing more for a CSV or an archive). */
+async function finishResult(summary: BatchSummary, options: ArchiveJobOptions): Promise<ArchiveSummary> {
+  const finished = await finishArchive(summary, options);
+  const result = options.result as BatchResult | undefined;
+  if (!result) return finished;
+  await writeResults({ format: result.format, csvPath: finished.outputPath, delimiter: finished.delimiter, output: result.path, runTimestamp: finished.runTimestamp, stdout: options.stdout as Writable | undefined });
+  return { ...finished, outputPath: result.path, format: result.format };
 }
 
 async function sha256(path: string): Promise<string> {
@@ -166,17 +216,19 @@ async function finishArchive(summary: BatchSummary, options: ArchiveJobOptions):
   let archiveCore: ArchiveSummary['archiveCore'];
   if (options.coreOnly) archiveCore = await coreOf(manifest.archivePath);
   else {
-    const target = manifest.outputPath === '-' ? `${summary.outputPath}.zip` : `${manifest.outputPath}.partial`;
+    // The archive goes where the run asked (a resume may name another file), else where the job was started for.
+    const archiveTarget = options.result?.path ?? manifest.outputPath;
+    const target = archiveTarget === '-' ? `${summary.outputPath}.zip` : `${archiveTarget}.partial`;
     archiveCore = await writeGeoreferencedArchive({ archivePath: manifest.archivePath, corePath: summary.outputPath, target, jobsPath, jobId: summary.jobId });
-    if (manifest.outputPath === '-') {
+    if (archiveTarget === '-') {
       await pipeline(createReadStream(target), options.stdout ?? process.stdout, { end: false });
       rmSync(target, { force: true });
-    } else renameSync(target, manifest.outputPath);
+    } else renameSync(target, archiveTarget);
     rmSync(summary.outputPath, { force: true });
   }
   rmSync(manifest.tablePath, { force: true });
   rmSync(manifestPath, { force: true });
-  return { ...summary, outputPath: options.coreOnly ? summary.outputPath : manifest.outputPath, archiveCore };
+  return { ...summary, outputPath: options.coreOnly ? summary.outputPath : (options.result?.path ?? manifest.outputPath), archiveCore };
 }
 
 /** The core's path inside the archive and its encoding as meta.xml gives it. */

@@ -10,7 +10,7 @@ import { resultFormat, RESULT_FORMATS, type ResultFormat } from '../../output/re
 
 interface BatchCommandOptions {
   out?: string;
-  format: ResultFormat;
+  format?: ResultFormat;
   resume?: string;
   quiet?: boolean;
   threads?: number;
@@ -42,8 +42,8 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .command('batch')
     .description('georeference every row of a CSV or tab-separated file or of a Darwin Core Archive\'s occurrence core, as a job that can be stopped and resumed')
     .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252; or a Darwin Core Archive, a zip with meta.xml, whose output is a new archive, or with --format geojson|gpkg a GIS file of its core\'s rows), or - for standard input')
-    .option('--out <file>', 'the output file, or - for standard output', '-')
-    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done; a Darwin Core Archive with csv comes back as a new archive, and as GeoJSON or GeoPackage only its core's rows, not its extensions')`, resultFormat, 'csv' as ResultFormat)
+    .option('--out <file>', 'the output file, or - for standard output (default: -; a resumed job: the file it was started with, unless --format changes)')
+    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (default: csv; a resumed job: the format it was started with, or another, which then needs --out). GeoJSON and GeoPackage are made from the CSV when the job is done; a Darwin Core Archive with csv comes back as a new archive, and as GeoJSON or GeoPackage only its core's rows, not its extensions`, resultFormat)
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
     .option('--quiet', 'write nothing to standard error but errors: no progress bar, job id, method choices or summary')
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
@@ -60,19 +60,15 @@ export function registerBatch(program: Command, dbPath: () => string): void {
     .option('--generalise-within <meters>', 'for --sensitive-column: a stated distance, the precise point kept within it of the point shown (10 to 70710; a UTM grid cell whose half-diagonal is this distance)')
     .action(async (input: string | undefined, opts: BatchCommandOptions) => {
       if (!input && !opts.resume) throw new Error('batch needs an input file (or - for standard input), or --resume <job>');
-      if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
+      if (opts.format !== undefined && opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
       const generalise = await generalisationOf(opts);
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
-      const [{ startBatch }, { batchCsvPath, writeResults }] = await Promise.all([
-        import('../../batch/archive/archive-job.ts'),
-        import('../../batch/gis-output.ts'),
-      ]);
+      const { startBatch } = await import('../../batch/archive/archive-job.ts');
       const { jobId, methodChoices, done } = await startBatch({
         dbPath: dbPath(),
         input,
-        output: batchCsvPath(opts.format, opts.out ?? '-'),
-        // A GIS file is made from the georeferenced core table, as from a CSV input's output; no new archive.
-        coreOnly: opts.format !== 'csv',
+        // The file to make; on a resume, what is left out is as the job was started.
+        resultAsked: { format: opts.format, path: opts.out },
         resume: opts.resume,
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
@@ -88,10 +84,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
       try {
         const summary = await done;
         bar?.stop();
-        const output = opts.out ?? '-';
-        await writeResults({ format: opts.format, csvPath: summary.outputPath, delimiter: summary.delimiter, output, runTimestamp: summary.runTimestamp });
-        summary.outputPath = opts.format === 'csv' ? summary.outputPath : output;
-        if (!opts.quiet) process.stderr.write(describe(summary, opts.format));
+        if (!opts.quiet) process.stderr.write(describe(summary, summary.format ?? 'csv'));
       } catch (error) {
         bar?.stop();
         throw error;
