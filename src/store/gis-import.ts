@@ -12,6 +12,7 @@ import { basename, dirname, extname, join } from 'node:path';
 import Database from 'better-sqlite3';
 import { unzipSync } from 'fflate';
 import type { Geometry, Position } from 'geojson';
+import iconv from 'iconv-lite';
 import * as shapefile from 'shapefile';
 import { crsToWgs84, type CrsToWgs84 } from '../geodesy/crs.ts';
 import type { RawFeature } from './feature-record.ts';
@@ -36,7 +37,10 @@ export interface GisFieldMap {
   countryCode?: string;
   stateProvinceField?: string;
   countyField?: string;
-  /** Encoding of a shapefile's .dbf when it has no .cpg (default windows-1252, the dBASE convention). */
+  /**
+   * Encoding of a shapefile's .dbf, over what its .cpg or header says: a name iconv-lite knows or a code
+   * page as a .cpg writes it ("850", "CP437"); default the .cpg's, else the header's, else windows-1252.
+   */
   encoding?: string;
 }
 
@@ -49,7 +53,8 @@ export interface GisRow {
 }
 
 /**
- * The features of a GIS file, converted to WGS84; `notes` gets the layer and coordinate system used.
+ * The features of a GIS file, converted to WGS84; `notes` gets the layer and coordinate system used, and
+ * for a shapefile the encoding its .dbf was read in and why.
  * Errors that concern the whole file (no layer, unknown datum, missing .dbf) are thrown before any row.
  * @example for await (const rows of readGisFile('units.zip', 'shapefile', { featureType: 'county' }, notes)) …
  */
@@ -115,7 +120,7 @@ interface Layer {
   crs: CrsToWgs84;
   /** Each feature's attributes and geometry, or why its geometry cannot be read. */
   features: AsyncIterable<{ properties: Record<string, unknown>; geometry: Geometry | null; problem?: string }>;
-  /** How the attributes' encoding was chosen, when the file does not say it (a .dbf without .cpg). */
+  /** Which encoding a shapefile's attributes were read in, and why that one. */
   encodingNote?: string;
 }
 
@@ -136,23 +141,34 @@ async function shapefileLayer(filePath: string, map: GisFieldMap): Promise<Layer
     throw new Error(`${filePath}: the shapefile ${parts.name} has no .prj, so its coordinate system is unknown: add the .prj (or reproject it to WGS84 with one)`);
   }
   const crs = crsToWgs84(Buffer.from(parts.prj).toString('utf8'), `${parts.name}.prj`);
-  const stated = map.encoding ?? codePage(parts.cpg);
-  const guessed = stated === undefined ? dbfEncoding(parts.dbf) : undefined;
-  const encoding = stated ?? guessed!.encoding;
-  const encodingNote = guessed && `${parts.name}.dbf has no .cpg: read as ${guessed.encoding} (${guessed.why}); give --encoding if its names look wrong`;
-  try {
-    new TextDecoder(encoding);
-  } catch {
-    throw new Error(`${filePath}: the .dbf encoding "${encoding}" (${map.encoding ? '--encoding' : `${parts.name}.cpg`}) is not one whereabouts knows; give --encoding, e.g. windows-1252, iso-8859-1 or utf-8`);
+  const { encoding, why, guessed } = chosenDbfEncoding(parts.dbf, parts.cpg, map.encoding);
+  const encodingNote = `${parts.name}.dbf ${guessed ? 'has no .cpg: ' : ''}read as ${encoding} (${why}); give --encoding if its names look wrong`;
+  if (!iconv.encodingExists(encoding)) {
+    throw new Error(`${filePath}: the .dbf encoding "${encoding}" (${why}) is not one whereabouts knows; give --encoding, e.g. windows-1252, cp850, iso-8859-1 or utf-8`);
   }
-  const source = await shapefile.open(toArrayBuffer(parts.shp), toArrayBuffer(parts.dbf), { encoding });
+  // The reader decodes each field as x-user-defined (WHATWG Encoding Standard, §14.5 from memory: one
+  // character a byte, 0x80–0xFF as U+F780–U+F7FF, none of them white space, so its trim keeps them), which
+  // its decoder (the text-encoding package it loads) knows; every byte then comes back and iconv-lite
+  // decodes it, in code pages that decoder lacks too (the DOS ones, 437, 850, 852…).
+  const source = await shapefile.open(toArrayBuffer(parts.shp), toArrayBuffer(parts.dbf), { encoding: 'x-user-defined' });
+  const decode = (text: string) => iconv.decode(bytesOfUserDefined(text), encoding).trim();
   const fields = dbfFieldNames(parts.dbf, encoding);
   async function* features() {
     for (let next = await source.read(); !next.done; next = await source.read()) {
-      yield { properties: (next.value.properties ?? {}) as Record<string, unknown>, geometry: next.value.geometry as Geometry | null };
+      const properties = Object.fromEntries(Object.entries(next.value.properties ?? {}).map(([field, value]) =>
+        [decode(field), typeof value === 'string' ? decode(value) || null : value]));
+      yield { properties, geometry: next.value.geometry as Geometry | null };
     }
   }
-  return { name: parts.name, fields, crs, features: features(), ...(encodingNote !== undefined && { encodingNote }) };
+  return { name: parts.name, fields, crs, features: features(), encodingNote };
+}
+
+/** The bytes an x-user-defined decoding stands for (WHATWG Encoding Standard §14.5, decoder and encoder). */
+function bytesOfUserDefined(text: string): Buffer {
+  return Buffer.from(Array.from(text, (c) => {
+    const code = c.charCodeAt(0);
+    return code >= 0xf780 && code <= 0xf7ff ? code - 0xf700 : code;
+  }));
 }
 
 /** Shape types a main file may hold (ESRI Shapefile Technical Description, 1998, p. 4). */
@@ -241,31 +257,67 @@ export function gisContentHash(filePath: string, fileSha256: string): string {
   return hash.digest('hex');
 }
 
-/** A .cpg's code page as an encoding name TextDecoder knows ("1252", "CP1252" → windows-1252; "UTF-8" as is). */
-function codePage(cpg: Uint8Array | undefined): string | undefined {
-  if (!cpg) return undefined;
-  const text = Buffer.from(cpg).toString('latin1').trim();
-  const number = /^(?:CP|ANSI\s*)?(\d+)$/i.exec(text)?.[1];
-  if (number) return number === '65001' ? 'utf-8' : `windows-${number}`;
-  if (/^8859_?(\d+)$/.test(text)) return `iso-8859-${/(\d+)$/.exec(text)![1]}`;
-  return text || undefined;
+/**
+ * The encoding of a shapefile's .dbf and why: `--encoding` when given, else its .cpg, else what
+ * `dbfEncoding` finds in the file (`guessed`): a .cpg is written by the program that wrote the .dbf, so
+ * it is trusted over the header's language driver, which many writers leave at a default.
+ * @example chosenDbfEncoding(dbf, Buffer.from('850'), undefined) // { encoding: 'cp850', why: 'its .cpg says "850"', guessed: false }
+ */
+function chosenDbfEncoding(dbf: Uint8Array, cpgFile: Uint8Array | undefined, option: string | undefined): { encoding: string; why: string; guessed: boolean } {
+  if (option !== undefined) return { encoding: codePageEncoding(option), why: '--encoding', guessed: false };
+  const cpg = cpgFile && Buffer.from(cpgFile).toString('latin1').trim();
+  if (cpg) {
+    return { encoding: codePageEncoding(cpg), why: /^OEM$/i.test(cpg) ? 'its .cpg says "OEM", taken as the US DOS code page 437' : `its .cpg says "${cpg}"`, guessed: false };
+  }
+  return { ...dbfEncoding(dbf), guessed: true };
 }
 
 /**
- * Code pages named by a .dbf header's language driver id (byte 29), as encoding names the .dbf reader's
- * TextDecoder knows (WHATWG Encoding Standard labels). Values: dBASE language driver ids as listed in the
- * open TDbf sources (dbf_lang.pas: 0x03 FoxLangId_Windows_1252, 0x57 DbfLangId_Ascii_1252, 0x26
- * DbfLangId_RUS_866, 0x4D DbfLangId_CHS_936); 0xC8 → 1250 and 0xC9 → 1251 from memory. DOS code pages
- * 437 and 850 (ids 0x01, 0x02) are left out: the reader's decoder does not know them, and they fall back
- * to windows-1252 as before.
+ * A code page as a .cpg, `--encoding` or a language driver names it, as iconv-lite's name: a number
+ * alone or after CP, IBM, ANSI or OEM ("850", "CP850", "IBM850", "ANSI 1251") is that code page
+ * (125x and 874 windows-…, 65001 UTF-8, 10000–10029 the Mac ones, any other cp…); "8859_1" and
+ * "ISO 8859-1" ISO-8859; "OEM" alone the US DOS code page 437 (from memory: a .cpg says "OEM" for the
+ * machine's DOS code page, most often 437; no source); anything else is passed on as written
+ * ("UTF-8", "windows-1252", "koi8-r").
+ * @example codePageEncoding('CP850') // 'cp850'
+ * @example codePageEncoding('1252') // 'windows-1252'
  */
-const DBF_LANGUAGE_DRIVERS: ReadonlyMap<number, string> = new Map([
-  [0x03, 'windows-1252'],
-  [0x57, 'windows-1252'],
-  [0x26, 'ibm866'],
-  [0x4d, 'gbk'],
-  [0xc8, 'windows-1250'],
-  [0xc9, 'windows-1251'],
+function codePageEncoding(name: string): string {
+  const text = name.trim();
+  const number = /^(?:CP|IBM|ANSI|OEM)?[\s_-]?(\d+)$/i.exec(text)?.[1];
+  if (number) {
+    const n = Number(number);
+    if (n === 65001) return 'utf-8';
+    if ((n >= 1250 && n <= 1258) || n === 874) return `windows-${n}`;
+    return MAC_CODE_PAGES.get(n) ?? `cp${n}`;
+  }
+  const iso = /^(?:ISO[\s_-]?)?8859[\s_-]?(\d+)$/i.exec(text)?.[1];
+  if (iso) return `iso-8859-${iso}`;
+  if (/^OEM$/i.test(text)) return 'cp437';
+  return text;
+}
+
+/** The Mac code pages by their Windows numbers, as iconv-lite names them. */
+const MAC_CODE_PAGES: ReadonlyMap<number, string> = new Map([[10000, 'macroman'], [10006, 'macgreek'], [10007, 'maccyrillic'], [10029, 'maccenteuro']]);
+
+/**
+ * Code pages named by a .dbf header's language driver id (byte 29). Values: the table LangId_To_CodePage
+ * of the open TDbf sources (dbf_lang.pas, as in github.com/mse-org/mseide-msegui,
+ * lib/common/fpccompatibility/dbf_lang.pas, commit 0876eb8), every id whose code page iconv-lite decodes;
+ * left out: 0x20 (867), 0x68 (895), 0x69 (620), 0x8E (868), which it does not, and 0x86, which TDbf itself
+ * marks as doubtful (437 or 737). GDAL's ogr2ogr writes 0x01 for `ENCODING=LDID/1` and reads it as
+ * CP437, 0x02 as CP850 (test/store/dbf-language-driver.test.ts reads such files).
+ */
+const DBF_LANGUAGE_DRIVERS: ReadonlyMap<number, number> = new Map([
+  [0x01, 437], [0x02, 850], [0x03, 1252], [0x04, 10000], [0x08, 865], [0x09, 437], [0x0a, 850], [0x0b, 437],
+  [0x0c, 850], [0x0d, 437], [0x0e, 850], [0x0f, 437], [0x10, 850], [0x11, 437], [0x12, 850], [0x13, 932],
+  [0x14, 850], [0x15, 437], [0x16, 850], [0x17, 865], [0x18, 437], [0x19, 437], [0x1a, 850], [0x1b, 437],
+  [0x1c, 863], [0x1d, 850], [0x1f, 852], [0x22, 852], [0x23, 852], [0x24, 860], [0x25, 850], [0x26, 866],
+  [0x37, 850], [0x4d, 936], [0x4e, 949], [0x4f, 950], [0x50, 874], [0x56, 932], [0x57, 1252], [0x58, 1252],
+  [0x59, 1252], [0x5e, 437], [0x5f, 437], [0x60, 850], [0x61, 1252], [0x62, 1252], [0x64, 852], [0x65, 866],
+  [0x66, 865], [0x67, 861], [0x6a, 737], [0x6b, 857], [0x78, 950], [0x79, 949], [0x7a, 936], [0x7b, 932],
+  [0x7c, 874], [0x7d, 1255], [0x7e, 1256], [0x85, 862], [0x87, 852], [0x88, 857], [0x96, 10007], [0x97, 10029],
+  [0x98, 10006], [0x9b, 1250], [0x9c, 850], [0xc8, 1250], [0xc9, 1251], [0xca, 1254], [0xcb, 1253],
 ]);
 
 /**
@@ -275,7 +327,7 @@ const DBF_LANGUAGE_DRIVERS: ReadonlyMap<number, string> = new Map([
  * `DBF_LANGUAGE_DRIVERS`), else windows-1252, the dBASE convention. GIS programs write UTF-8 .dbf files
  * and a .cpg beside them, and the .cpg is the file most often left out when a shapefile is zipped by hand.
  * UTF-8 is tried before the driver byte because a writer may leave its default id on a UTF-8 file.
- * @example dbfEncoding(readFileSync('ufs.dbf')).encoding // 'utf-8' when it holds "São Paulo" as C3 A3; 'windows-1251' for driver 0xC9
+ * @example dbfEncoding(readFileSync('ufs.dbf')).encoding // 'utf-8' when it holds "São Paulo" as C3 A3; 'cp850' for driver 0x02
  */
 function dbfEncoding(dbf: Uint8Array): { encoding: string; why: string } {
   // the records only: the header's counts and lengths are binary (dBASE III: its length at bytes 8–9)
@@ -283,7 +335,7 @@ function dbfEncoding(dbf: Uint8Array): { encoding: string; why: string } {
   const driver = dbf.length >= 32 ? DBF_LANGUAGE_DRIVERS.get(dbf[29]!) : undefined;
   const byDriver = driver === undefined
     ? { encoding: 'windows-1252', why: 'the dBASE convention' }
-    : { encoding: driver, why: `its header's language driver 0x${dbf[29]!.toString(16).padStart(2, '0')}` };
+    : { encoding: codePageEncoding(String(driver)), why: `its header's language driver 0x${dbf[29]!.toString(16).padStart(2, '0')}` };
   if (!records.some((byte) => byte >= 0x80)) return byDriver;
   try {
     new TextDecoder('utf-8', { fatal: true }).decode(records);
@@ -296,11 +348,10 @@ function dbfEncoding(dbf: Uint8Array): { encoding: string; why: string } {
 /** The .dbf's field names from its header (dBASE III: 32-byte descriptors from byte 32, ended by 0x0D). */
 function dbfFieldNames(dbf: Uint8Array, encoding: string): string[] {
   const names: string[] = [];
-  const decoder = new TextDecoder(encoding);
   for (let at = 32; at + 32 <= dbf.length && dbf[at] !== 0x0d; at += 32) {
     const raw = dbf.subarray(at, at + 11);
     const end = raw.indexOf(0);
-    names.push(decoder.decode(raw.subarray(0, end < 0 ? 11 : end)).trim());
+    names.push(iconv.decode(Buffer.from(raw.subarray(0, end < 0 ? 11 : end)), encoding).trim());
   }
   return names;
 }

@@ -111,6 +111,43 @@ describe('a Darwin Core Archive as a portal exported it (dwca/oaks-snib-cs008.zi
   });
 });
 
+describe.skipIf(!hasGdal)('the same archive answered as a GeoPackage and as GeoJSON for a GIS (dwca/oaks-snib-cs008.zip)', () => {
+  it('one point feature a core row, in order, its terms and the appended georeference read back by ogrinfo; a footprint feature a row that has one', async () => {
+    const input = coreRows((await unzip(join(real, 'dwca/oaks-snib-cs008.zip'))).get('occurrence.txt')!.toString('utf8'));
+    const header = input[0]!;
+    const rows = input.length - 1; // the core's records: 200 (meta.xml ignoreHeaderLines="1")
+    expect(rows).toBe(200);
+    for (const format of ['gpkg', 'geojson'] as const) {
+      const out = join(dir, `oaks-archive.${format}`);
+      const result = await whereabouts('batch', join(real, 'dwca/oaks-snib-cs008.zip'), '--format', format, '--out', out);
+      expect(result.code).toBe(0);
+      expect(result.stderr).toMatch(/the archive's core occurrence\.txt/);
+      expect(result.stderr).toMatch(/of the archive's core rows only: its extensions' rows and other files are not in it/);
+      const points = ogrFeatures(out, format === 'gpkg' ? 'points' : undefined);
+      expect(points).toHaveLength(rows);
+      for (const [index, feature] of points.entries()) {
+        for (const term of ['occurrenceID', 'catalogNumber', 'locality', 'stateProvince', 'decimalLatitude', 'decimalLongitude']) {
+          // ogrinfo prints an empty string attribute as nothing after "= "
+          expect(feature.fields[term] ?? '').toBe(input[index + 1]![header.indexOf(term)]);
+        }
+        // the core has its own georeferenceVerificationStatus and coordinates, so the proposal's are proposed_…
+        expect(STATUSES.has(feature.fields.proposed_georeferenceVerificationStatus ?? '')).toBe(true);
+        const latitude = feature.fields.proposed_decimalLatitude ?? '';
+        expect(feature.geometry === undefined).toBe(latitude === '');
+        if (latitude !== '') expect(feature.geometry).toBe(`POINT (${Number(feature.fields.proposed_decimalLongitude)} ${Number(latitude)})`);
+        expect(feature.fields.whereabouts_coordinateFlags).toBeDefined();
+      }
+      if (format === 'gpkg') {
+        // the core has no footprintWKT of its own, so the appended one keeps the term's name
+        const withFootprint = points.filter((p) => (p.fields.footprintWKT ?? '') !== '');
+        expect(withFootprint.length).toBeGreaterThan(0);
+        const footprints = ogrFeatures(out, 'footprints');
+        expect(footprints.map((f) => f.fields.occurrenceID)).toEqual(withFootprint.map((p) => p.fields.occurrenceID));
+      }
+    }
+  }, 120_000);
+});
+
 describe.skipIf(!hasGdal)('the archive\'s core as a portal\'s tab-separated download, answered as GeoPackage and GeoJSON', () => {
   it('every row is a feature whose attributes hold the original values, read by ogrinfo', async () => {
     const core = (await unzip(join(real, 'dwca/oaks-snib-cs008.zip'))).get('occurrence.txt')!;
@@ -180,6 +217,25 @@ describe('a gazetteer saved by a spreadsheet of Portuguese settings: semicolons,
     expect(located.candidates[0].feature.latitude).toBeCloseTo(Number(accented.lat), 9);
     expect(located.candidates[0].feature.longitude).toBeCloseTo(Number(accented.lng), 9);
   });
+});
+
+describe('states in a DOS code page, as older GIS programs write a .dbf (gis/natural-earth-admin-1-cp850.zip, -cp437.zip)', () => {
+  // Natural Earth 1:50m admin-1 (public domain), written by ogr2ogr in CP850 with a .cpg and in CP437 with
+  // only the header's language driver byte 0x01; the names as the UTF-8 source writes them.
+  it('imports them with their accents, says which code page it read and why, and finds a state by its name', async () => {
+    for (const [file, note, name] of [
+      ['natural-earth-admin-1-cp850.zip', 'admin1.dbf read as cp850 (its .cpg says "CP850")', 'São Paulo'],
+      ['natural-earth-admin-1-cp437.zip', "admin1.dbf has no .cpg: read as cp437 (its header's language driver 0x01)", 'Espírito Santo'],
+    ] as const) {
+      const store = join(dir, `${file}.sqlite`);
+      const imported = await whereaboutsOn(store, 'import', join(real, 'gis', file), '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2');
+      expect(imported.stderr).toBe('');
+      expect(imported.stdout).toContain(note);
+      expect(imported.stdout).toMatch(/(\d) rows read, \1 imported, 0 rejected/);
+      const located = JSON.parse((await whereaboutsOn(store, 'locate', name, '--country-code', 'BR', '--json')).stdout);
+      expect(located.candidates.map((c: { feature: { name: string } }) => c.feature.name)).toContain(name);
+    }
+  }, 120_000);
 });
 
 describe('GIS files that arrive broken', () => {

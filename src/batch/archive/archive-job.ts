@@ -36,7 +36,9 @@ export interface ArchiveJobOptions extends BatchJobOptions {
   archiveOnly?: boolean;
   /**
    * Write no archive when the job is done: the finished core table stays at the job's output path, for a
-   * caller that writes the archive later with `writeGeoreferencedArchive` (the HTTP service, after review).
+   * caller that writes the archive later with `writeGeoreferencedArchive` (the HTTP service, after review),
+   * or that writes the core's rows in another format (the CLI's `batch --format geojson|gpkg`, through
+   * src/batch/gis-output.ts as for any batch output).
    */
   coreOnly?: boolean;
   /** How messages name the input (default its path; the HTTP service never shows its paths). */

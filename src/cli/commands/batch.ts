@@ -41,9 +41,9 @@ export function registerBatch(program: Command, dbPath: () => string): void {
   program
     .command('batch')
     .description('georeference every row of a CSV or tab-separated file or of a Darwin Core Archive\'s occurrence core, as a job that can be stopped and resumed')
-    .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252; or a Darwin Core Archive, a zip with meta.xml, whose output is a new archive), or - for standard input')
+    .argument('[input]', 'the input file (CSV or tab-separated; any of UTF-8, UTF-16, Windows-1252; or a Darwin Core Archive, a zip with meta.xml, whose output is a new archive, or with --format geojson|gpkg a GIS file of its core\'s rows), or - for standard input')
     .option('--out <file>', 'the output file, or - for standard output', '-')
-    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done)`, resultFormat, 'csv' as ResultFormat)
+    .option('--format <format>', `the output format: ${RESULT_FORMATS.join(', ')} (GeoJSON and GeoPackage are made from the CSV when the job is done; a Darwin Core Archive with csv comes back as a new archive, and as GeoJSON or GeoPackage only its core's rows, not its extensions')`, resultFormat, 'csv' as ResultFormat)
     .option('--resume <job>', 'finish a job that was stopped (its id is printed when it starts)')
     .option('--quiet', 'write nothing to standard error but errors: no progress bar, job id, method choices or summary')
     .option('--threads <n>', 'worker threads for the distinct localities (default: one a core but one, which reads and writes the rows)', (v) => positiveInteger(v))
@@ -63,18 +63,16 @@ export function registerBatch(program: Command, dbPath: () => string): void {
       if (opts.format !== 'csv' && opts.part) throw new Error('a part (--part) is always a CSV part file: merge the parts, then convert');
       const generalise = await generalisationOf(opts);
       const bar = opts.quiet || !process.stderr.isTTY ? undefined : progressBar((await import('cli-progress')).default);
-      const [{ startBatch }, { batchCsvPath, writeResults }, { isZipFile }] = await Promise.all([
+      const [{ startBatch }, { batchCsvPath, writeResults }] = await Promise.all([
         import('../../batch/archive/archive-job.ts'),
         import('../../batch/gis-output.ts'),
-        import('../../batch/archive/zip.ts'),
       ]);
-      if (opts.format !== 'csv' && input && input !== '-' && isZipFile(input)) {
-        throw new Error(`--format ${opts.format} applies to CSV and tab-separated input: a zip (a Darwin Core Archive) is answered with a new archive`);
-      }
       const { jobId, methodChoices, done } = await startBatch({
         dbPath: dbPath(),
         input,
         output: batchCsvPath(opts.format, opts.out ?? '-'),
+        // A GIS file is made from the georeferenced core table, as from a CSV input's output; no new archive.
+        coreOnly: opts.format !== 'csv',
         resume: opts.resume,
         threads: opts.threads,
         coverAmbiguous: opts.coverAmbiguous,
@@ -93,7 +91,7 @@ export function registerBatch(program: Command, dbPath: () => string): void {
         const output = opts.out ?? '-';
         await writeResults({ format: opts.format, csvPath: summary.outputPath, delimiter: summary.delimiter, output, runTimestamp: summary.runTimestamp });
         summary.outputPath = opts.format === 'csv' ? summary.outputPath : output;
-        if (!opts.quiet) process.stderr.write(describe(summary));
+        if (!opts.quiet) process.stderr.write(describe(summary, opts.format));
       } catch (error) {
         bar?.stop();
         throw error;
@@ -161,13 +159,15 @@ function describeChoices(choices: Record<string, number | string> | null): strin
   return `  method choices: ${Object.entries(choices).map(([id, value]) => `${id}=${value}`).join('; ')}\n`;
 }
 
-function describe(s: ArchiveSummary): string {
+function describe(s: ArchiveSummary, format: ResultFormat): string {
   const statuses = Object.entries(s.byStatus).map(([status, n]) => `${n} ${status}`).join(', ');
   const lines = [
     `whereabouts: ${s.rows} rows, ${s.distinctLocalities} distinct localities (${s.archiveCore ? `the archive's core ${s.archiveCore.path}, ${s.archiveCore.encoding}` : `${s.encoding}, delimiter ${JSON.stringify(s.delimiter)}`})${s.resumed ? ', job resumed' : ''}`,
     `  ${statuses || 'no rows'}`,
     `  ${s.malformedRows} malformed rows, ${s.flaggedRows} rows with their coordinates flagged (column whereabouts_coordinateFlags)`,
-    ...(s.archiveCore ? ['  Darwin Core Archive: every other file copied unchanged; meta.xml describes the new columns; the EML metadata has a method step'] : []),
+    ...(!s.archiveCore ? []
+      : format === 'csv' ? ['  Darwin Core Archive: every other file copied unchanged; meta.xml describes the new columns; the EML metadata has a method step']
+      : [`  ${format === 'gpkg' ? 'GeoPackage' : 'GeoJSON'} of the archive's core rows only: its extensions' rows and other files are not in it`]),
     `  output: ${s.outputPath === '-' ? 'standard output' : s.outputPath}`,
   ];
   return `${lines.join('\n')}\n`;

@@ -49,7 +49,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--country-code <code>', 'GIS files and GeoJSON: one country code for every feature')
     .option('--state-province-field <attribute>', 'GIS files and GeoJSON: the attribute holding the state or province a feature lies in')
     .option('--county-field <attribute>', 'GIS files and GeoJSON: the attribute holding the county a feature lies in')
-    .option('--encoding <name>', "shapefiles: the .dbf's encoding when it has no .cpg (default windows-1252)")
+    .option('--encoding <name>', "shapefiles: the .dbf's encoding, over its .cpg and header (a code page such as 850, CP437 or 1252, or any name iconv-lite knows; default: the .cpg's, else the header's language driver, else windows-1252)")
     .action(async (file: string, opts: ImportCommandOptions) => {
       const [{ formatFromFileName, importGazetteer }, { openGazetteer }] = await Promise.all([import('../../store/import.ts'), import('../../store/gazetteer-store.ts')]);
       const format = (opts.format ?? formatFromFileName(file)) as ImportFormat | null;
