@@ -11,7 +11,7 @@ import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
 import { ContentVersion, KeptWhileUnchanged } from './content-version.ts';
 import { indexTerms, type IndexTerms } from './index-terms.ts';
-import { NameBuffer, RowWriter, SortedPairs } from './import-writers.ts';
+import { RowWriter, SortedPairs, StagedNames } from './import-writers.ts';
 import { importSortPath } from './side-files.ts';
 import type {
   AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source, UnitName,
@@ -324,11 +324,13 @@ class SqliteGazetteer implements GazetteerStore {
     const db = this.db;
     const s = this.statements;
     // In WAL mode a transaction syncs nothing until its commit, and FULL makes the commit wait for the
-    // log to reach the disk: the import is durable when it returns. Sorts stay in memory, but for the
-    // features' index built at commit (below), whose sort grows with the store.
+    // log to reach the disk: the import is durable when it returns. Temporary tables and sorts larger
+    // than the page cache go to a temporary file (the staged names, the features' index built at commit,
+    // below): in memory they would grow with the store. Set before the names' temporary table is made,
+    // as a change of temp_store drops every temporary table.
     db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
-    db.pragma('temp_store = MEMORY');
+    db.pragma('temp_store = FILE');
     this.content.changed();
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
@@ -342,12 +344,14 @@ class SqliteGazetteer implements GazetteerStore {
     const tokenIds = new Map<string, number>();
     const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
     const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
-    const names = new NameBuffer(new RowWriter(db, 'names', ['key', 'feature']));
+    const names = new StagedNames(db);
     let count = 0;
     let open = true;
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
-    // Into an empty token table, a token the cache has not seen is new: no need to look it up.
-    let everyTokenCached = s.anyToken.get() === undefined;
+    // Into an empty token table, a token the cache has not seen is new: no need to look it up; and
+    // every token's document frequency is the number of its postings written at the end.
+    const freshTokens = s.anyToken.get() === undefined;
+    let everyTokenCached = freshTokens;
     const tokenId = (token: string, deletionKeys?: Iterable<number>): number => {
       const cached = tokenIds.get(token);
       if (cached !== undefined) return cached;
@@ -418,12 +422,26 @@ class SqliteGazetteer implements GazetteerStore {
         if (!open) throw new Error('import already finished');
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
         deletions.write();
-        postings.write();
-        names.flush();
-        // The index's sort spills to a temporary file past the page cache: in memory it would grow with the store.
-        if (laterIndexes.length > 0) db.pragma('temp_store = FILE');
+        if (freshTokens) {
+          // The postings come in token order: a token's count is complete when the next token's postings start
+          // (token ids start at 1).
+          let token = 0;
+          let df = 0;
+          postings.write((next) => {
+            if (next !== token) {
+              if (df > 0) s.setTokenCount.run(df, token);
+              token = next;
+              df = 0;
+            }
+            df++;
+          });
+          if (df > 0) s.setTokenCount.run(df, token);
+        } else {
+          postings.write();
+        }
+        names.write();
         for (const { sql } of laterIndexes) db.exec(sql);
-        this.refreshTokenCounts();
+        if (!freshTokens) this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);
         if (source.priority !== undefined) this.setPriority(sourceId, source.priority);
         // The commit's automatic checkpoint then copies the log into the file, as far as no reader holds it back.
@@ -588,6 +606,7 @@ function prepareStatements(db: Database.Database) {
     unitNamesAt: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE level = ?'),
     unitNamesByKey: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE key = ? AND level = ?'),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
+    setTokenCount: db.prepare('UPDATE tokens SET df = ? WHERE id = ?'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),
     sourceByName: db.prepare('SELECT * FROM sources WHERE name = ?'),
     featureById: db.prepare(`SELECT ${FEATURE_COLUMNS} FROM features f JOIN sources s ON s.id = f.source WHERE f.id = ?`).raw(),

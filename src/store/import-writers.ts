@@ -13,8 +13,6 @@ const PAIR_BUFFER = 1_000_000;
 const MERGE_READ_PAIRS = 65_536;
 /** The sign bit of a 32-bit integer. */
 const SIGN_BIT = 0x80000000;
-/** Names held before a sorted write. */
-const NAME_BUFFER = 200_000;
 
 /**
  * INSERT OR IGNORE of rows into `table`, ROWS_PER_INSERT rows to a statement; `end` writes what is left.
@@ -79,14 +77,18 @@ export class SortedPairs {
     if (++this.size === PAIR_BUFFER) this.spill();
   }
 
-  /** Writes every pair to the table in key order and forgets them. */
-  write(): void {
+  /** Writes every pair to the table in key order and forgets them; `each`, when given, is shown every pair written. */
+  write(each?: (first: number, second: number) => void): void {
+    const emit = (first: number, second: number) => {
+      this.writer.add(first, second);
+      each?.(first, second);
+    };
     if (this.runs.length === 0) {
       this.pairs.subarray(0, this.size).sort();
-      for (let i = 0; i < this.size; i++) this.writer.add(this.halves[2 * i + 1] ^ SIGN_BIT, this.halves[2 * i]);
+      for (let i = 0; i < this.size; i++) emit(this.halves[2 * i + 1] ^ SIGN_BIT, this.halves[2 * i]);
     } else {
       if (this.size > 0) this.spill();
-      this.merge();
+      this.merge(emit);
     }
     this.writer.end();
     this.discard();
@@ -115,7 +117,7 @@ export class SortedPairs {
   }
 
   /** K-way merge of the sorted runs through a binary heap of their next pairs, compared as (high, low) halves. */
-  private merge(): void {
+  private merge(emit: (first: number, second: number) => void): void {
     const file = this.file!;
     const runs = this.runs.map(({ start, length }) => ({
       halves: new Uint32Array(MERGE_READ_PAIRS * 2), next: start, left: length, at: 0, held: 0,
@@ -149,7 +151,7 @@ export class SortedPairs {
     for (let i = (heap.length >> 1) - 1; i >= 0; i--) sink(i);
     while (heap.length > 0) {
       const run = heap[0];
-      this.writer.add(high(run) ^ SIGN_BIT, low(run));
+      emit(high(run) ^ SIGN_BIT, low(run));
       if (++run.at === run.held && !refill(run)) {
         heap[0] = heap[heap.length - 1];
         heap.pop();
@@ -159,25 +161,34 @@ export class SortedPairs {
   }
 }
 
-/** Folded names waiting to be written to the names table in key order (see SortedPairs); at most NAME_BUFFER. */
-export class NameBuffer {
-  private keys: string[] = [];
-  private features: number[] = [];
+/**
+ * Folded names with their features, for the names table: kept in a temporary table (in SQLite's
+ * temporary file, not the store's) until the import ends, then written in key order by one INSERT …
+ * SELECT … ORDER BY, so that each page of the table is written about once, however large the import,
+ * as SortedPairs does for integers. SQLite's sorter orders text keys in a fraction of the time a sort
+ * of JavaScript strings takes (950,000 names: 1.8 s of CPU for the sort and the writing, against 4.5 s
+ * for the sort alone); sorted batches written as they filled each touched most of the table's pages,
+ * which at the world's size no longer fit the page cache. The connection must keep temporary tables
+ * in a file (temp_store FILE): at the world's size they hold hundreds of MB.
+ * @example const names = new StagedNames(db); names.add('rosario', 7); names.add('alto', 9); names.write(); // ('alto', 9), ('rosario', 7)
+ */
+export class StagedNames {
+  private readonly staged: RowWriter;
 
-  constructor(private readonly writer: RowWriter) {}
-
-  add(key: string, feature: number): void {
-    this.keys.push(key);
-    this.features.push(feature);
-    if (this.keys.length === NAME_BUFFER) this.flush();
+  /** Creates the temporary table: inside the import's transaction, so that a rollback takes it away. */
+  constructor(private readonly db: Database.Database) {
+    db.exec('CREATE TEMP TABLE import_names (key TEXT NOT NULL, feature INTEGER NOT NULL)');
+    this.staged = new RowWriter(db, 'temp.import_names', ['key', 'feature']);
   }
 
-  flush(): void {
-    const keys = this.keys;
-    const order = Array.from(keys.keys()).sort((a, b) => (keys[a] < keys[b] ? -1 : keys[a] > keys[b] ? 1 : a - b));
-    for (const index of order) this.writer.add(keys[index], this.features[index]);
-    this.writer.end();
-    this.keys = [];
-    this.features = [];
+  add(key: string, feature: number): void {
+    this.staged.add(key, feature);
+  }
+
+  /** Writes every name to the names table in key order and drops the temporary table. */
+  write(): void {
+    this.staged.end();
+    this.db.exec(`INSERT OR IGNORE INTO names (key, feature) SELECT key, feature FROM temp.import_names ORDER BY key, feature;
+      DROP TABLE temp.import_names;`);
   }
 }
