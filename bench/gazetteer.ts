@@ -17,6 +17,8 @@
  * BENCH_STORE_DIR=<folder> keeps the dump, the store and the sample in that folder instead of a
  * temporary one; run again with the same folder and --names, it skips writing and importing and times
  * the lookups on the stored file (old and new code on one file, and a world-size store built once).
+ * A folder holding a dump of that --names and no store reuses the dump (two versions of the importer
+ * on one input, without writing it again: place the dump and sample.json of an earlier run there).
  */
 import { execFileSync } from 'node:child_process';
 import { createReadStream, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
@@ -84,10 +86,18 @@ if (reused) console.log(`lookups only, on the store kept in ${directory} (BENCH_
 else await generateAndImport();
 const { sample } = JSON.parse(readFileSync(join(directory, 'sample.json'), 'utf8')) as { sample: string[] };
 
+/** Whether the kept folder holds a dump of NAMES names and no store yet. */
+function dumpWritten(): boolean {
+  const samplePath = join(directory, 'sample.json');
+  return keptDirectory !== undefined && existsSync(dumpPath) && existsSync(samplePath) && !existsSync(dbPath)
+    && (JSON.parse(readFileSync(samplePath, 'utf8')) as { names: number }).names === NAMES;
+}
+
 /** Writes the dump, imports it and prints the import's figures; marks a kept folder as imported. */
 async function generateAndImport(): Promise<void> {
   // The dump is written by a process of its own (the same loader), so that this process's peak RSS is the import's.
-  execFileSync(process.execPath, [...process.execArgv, fileURLToPath(new URL('gazetteer-dump.ts', import.meta.url)), directory, String(NAMES), String(QUERIES), String(SEED)], { stdio: 'inherit' });
+  if (dumpWritten()) console.log(`the dump already in ${directory} (BENCH_STORE_DIR) is imported again`);
+  else execFileSync(process.execPath, [...process.execArgv, fileURLToPath(new URL('gazetteer-dump.ts', import.meta.url)), directory, String(NAMES), String(QUERIES), String(SEED)], { stdio: 'inherit' });
   const generated = JSON.parse(readFileSync(join(directory, 'sample.json'), 'utf8')) as {
     rows: number; names: number; seconds: number;
     words: { names: number; words: number; distinct: number; seenOnce: number; heapsBeta: number; predictedDistinct: number };
