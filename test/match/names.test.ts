@@ -108,6 +108,19 @@ describe('editDistance (optimal string alignment)', () => {
     expect(editDistance('rosario', 'lima', 2)).toBe(3);
     expect(editDistance('rosario', 'rosarios', 2)).toBe(1);
   });
+
+  it('within a bound, gives the unbounded distance or bound + 1 (only the cells near the diagonal are computed)', () => {
+    // The unbounded distance is checked against the textbook values above; near strings (a few typing
+    // errors apart) walk the band's edges, other strings leave it at once.
+    const word = fc.stringMatching(/^[abc]{0,12}$/);
+    fc.assert(fc.property(word, word, fc.integer({ min: 0, max: 5 }), (a, b, max) => {
+      expect(editDistance(a, b, max)).toBe(Math.min(editDistance(a, b), max + 1));
+    }), { numRuns: 5000 });
+    fc.assert(fc.property(token(3), fc.array(edit, { maxLength: 3 }), fc.integer({ min: 0, max: 4 }), (stored, edits, max) => {
+      const query = edits.reduce((text, [kind, at, letter]) => typo(text, kind, at, letter), stored);
+      expect(editDistance(query, stored, max)).toBe(Math.min(editDistance(query, stored), max + 1));
+    }), { numRuns: 5000 });
+  });
 });
 
 /** One typing error: insertion, deletion, substitution or adjacent transposition. */
