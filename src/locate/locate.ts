@@ -158,7 +158,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   }
   if (unit && !(townOfExonym && exonymRule === 'town')) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
-    if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    if (!found.feature) return (found.loaded ? null : locateSeat(finder, unit, interpretation, context, options)) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
