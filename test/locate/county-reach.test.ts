@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { farFromCountySeat } from '../../src/locate/county-reach.ts';
 import type { Candidate, CandidateFinder, Feature } from '../../src/match/types.ts';
 
-const base = { sourceId: 'atlas', alternateNames: [], countryCode: 'QV', stateProvince: 'Poniente', radiusMeters: 2000, radiusIsDefault: true } as const;
+const base = { sourceId: 'atlas', alternateNames: [] as string[], countryCode: 'QV', stateProvince: 'Poniente', radiusMeters: 2000, radiusIsDefault: true };
 const town: Feature = { ...base, featureId: 't1', name: 'Alisos', featureType: 'town', county: null, latitude: -45, longitude: -131, geometryType: 'Point' };
 const county: Feature = {
   ...base, featureId: 'c1', name: 'Alisos', featureType: 'county', county: null, latitude: -45, longitude: -131, radiusMeters: 90_000, radiusIsDefault: false,
