@@ -5,7 +5,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
 import { foldName, nameVariants } from '../../src/match/fold.ts';
-import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey } from '../../src/match/context.ts';
+import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey, unitLookupNames } from '../../src/match/context.ts';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
 
 describe('foldName', () => {
@@ -52,6 +52,13 @@ describe('administrative names and countries', () => {
     expect(administrativeKey('Departamento del Cauca')).toBe('cauca');
     expect(administrativeKey('Worcester County')).toBe('worcester');
     expect(administrativeKey('County')).toBe('county');
+  });
+
+  it('looks a stated unit up as written, then without its kind word, as set 3 writes counties ("Grand Co.", "Duchesne County")', () => {
+    // records-3.csv (test/fixtures/real/README.md) states counties as "Grand Co." and "Grand" alike
+    expect(unitLookupNames('Grand Co.')).toEqual(['Grand Co.', 'grand']);
+    expect(unitLookupNames('Duchesne County')).toEqual(['Duchesne County', 'duchesne']);
+    expect(unitLookupNames('Grand')).toEqual(['Grand']);
   });
 
   it('compares a unit\'s official long form "X de <honoree>" by its short form, and no other "de"', () => {
