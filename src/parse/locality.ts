@@ -104,14 +104,16 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
   const unitToken = s.tokens[measured];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
   let next = measured + 1;
-  if (!unit && unitless && !ordinalAt(s.tokens, i) && readHeading(s, number.next)) {
+  const roadUnitless = !unit && unitless && !ordinalAt(s.tokens, i) ? roadFromPlaceAt(s, number.next) : -1;
+  if (!unit && unitless && !ordinalAt(s.tokens, i) && (roadUnitless > 0 || readHeading(s, number.next))) {
     const written = s.text.slice(s.tokens[i]!.start, s.tokens[number.next - 1]!.end);
     const distance: WrittenDistance = {
       written, value: number.value, unit: 'mi', precision: number.precision, uncertainty: number.uncertainty,
       meters: toMeters(number.value, 'mi'), uncertaintyMeters: toMeters(number.uncertainty, 'mi'), unitAssumed: true,
     };
     if (number.range) distance.range = number.range;
-    return { distance, next: number.next };
+    if (roadUnitless < 0) return { distance, next: number.next };
+    return { distance: { ...distance, fromRoadStart: true }, next: roadUnitless, how: pathOf('road', writtenText(s.text, s.tokens, number.next, roadUnitless + 1)) };
   }
   // "nautical miles", "millas náuticas", "milhas náuticas", "milles marins"
   if (unitToken?.norm === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
@@ -134,8 +136,22 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
     uncertaintyMeters: toMeters(uncertainty, unit),
   };
   if (number.range) distance.range = number.range;
+  const road = measured === number.next ? roadFromPlaceAt(s, next) : -1;
+  if (road > 0) return { distance: { ...distance, fromRoadStart: true }, next: road, how: pathOf('road', writtenText(s.text, s.tokens, next, road + 1)) };
   if (measured === number.next) return { distance, next };
   return { distance, next, how: how === 'air' ? 'air' : pathOf(how!, s.tokens[number.next]!.text) };
+}
+
+/**
+ * "13.5 da estrada de X", "12 km del camino de X", "km 12 de la carretera de X": after a number, "of the road
+ * from" a place, which says where the road's count of distance begins [CHOICE roadNumberFromPlace]. The index of
+ * the last "de"/"from" (the place follows it), or -1.
+ * @example roadFromPlaceAt(source('13.5 da estrada de Alisos'), 1) // 3
+ */
+function roadFromPlaceAt(s: Source, k: number): number {
+  if (!L.FROM_WORDS.has(norm(s, k) ?? '')) return -1;
+  const noun = L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') ? k + 2 : k + 1;
+  return modeOfNoun(norm(s, noun)) === 'road' && L.FROM_WORDS.has(norm(s, noun + 1) ?? '') && startsCapitalised(s, noun + 2, s.tokens.length) ? noun + 1 : -1;
 }
 
 /** A heading at i, after optional "al", "ao", "au", "à l'", "to the". "sur la ..." is French "on", not south. */
@@ -366,6 +382,27 @@ export function protectedAreaNamesake(name: string): { name: string; of: boolean
   return { name: rest, of: from > 0 && L.FROM_WORDS.has(folded[from - 1]!) && !PLURAL_OF_WORDS.has(folded[from - 1]!) };
 }
 
+/**
+ * The name a station bears after its station word, when the text names a station after a place ("Alisos Station",
+ * "Estación Alisos", "Estação de Alisos", "Gare de Alisos"): the town it is named after may stand in for it
+ * ([CHOICE stationTown]). Undefined for other names, for a station of a kind ("Biological Station", "Estación
+ * Biológica de X": a research station, not a town's), and when no capitalised name is left.
+ * @example stationNamesake('Estación de San Telmo') // 'San Telmo'
+ * @example stationNamesake('Millbrook Station') // 'Millbrook'
+ */
+export function stationNamesake(name: string): string | undefined {
+  const words = name.trim().split(/\s+/);
+  const folded = words.map((word) => fold(word.replace(/\.$/, '')));
+  if (words.length < 2) return undefined;
+  const first = L.STATION_WORDS.has(folded[0]!);
+  const last = !first && L.STATION_WORDS.has(folded[words.length - 1]!);
+  if (!first && !last) return undefined;
+  const from = first ? (L.FROM_WORDS.has(folded[1]!) ? 2 : 1) : 0;
+  const kept = words.slice(from, last ? -1 : undefined);
+  if (kept.length === 0 || !/^\p{Lu}/u.test(kept[0]!) || folded.some((word) => L.STATION_QUALIFIERS.has(word))) return undefined;
+  return kept.join(' ');
+}
+
 /** The word of `name` at [from, to), folded, without a trailing period ("Mt." → "mt"). */
 function wordOf(name: string, from: number, to: number): string {
   return fold(name.charAt(to - 1) === '.' ? name.slice(from, to - 1) : name.slice(from, to));
@@ -484,7 +521,7 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const kindBefore = s.featureKind;
   if (!toward) {
     for (let k = j + 1; k < tail.end - 1; k++) {
-      const length = matchPhrase(s, k, L.TOWARD_PHRASES);
+      const length = matchPhrase(s, k, L.TOWARD_PHRASES) || matchPhrase(s, k, L.UP_TO_WORDS);
       const aim = length ? placeAt(s, k + length, tail.end) : null;
       if (aim) {
         offset.toward = aim;
