@@ -93,9 +93,15 @@ const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'm
 /**
  * Reads a distance (number or range + unit) at i, with precision from the number as written (docs/method.md §5.1).
  * `unitless`: a number followed directly by a heading ("0.5 NW of X") is read with no unit: marked
- * `unitAssumed`, provisionally in miles, the larger plausible unit (the method widens it, method-defaults.ts).
+ * `unitAssumed`, provisionally in miles, the larger plausible unit (the method widens it, method-defaults.ts); so is
+ * one before "of the road from" a place ("13.5 da estrada de X"), which with or without a unit ("km 12 da estrada de
+ * X", "12 km del camino de X") is the distance along that road from the place (`fromRoadStart`).
  */
 function readDistanceAt(s: Source, i: number, unitless = false): { distance: WrittenDistance; next: number; how?: 'air' | PathQualifier } | null {
+  // "km 12 da estrada de X": a kilometre post of the road from X, its unit written before its number [CHOICE roadNumberFromPlace].
+  const post = unitless && UNIT_WORDS.get(norm(s, i) ?? '') === 'km' ? readNumberAt(s.tokens, i + 1) : null;
+  const postRoad = post ? roadFromPlaceAt(s, post.next) : -1;
+  if (postRoad > 0) return alongRoadFrom(s, distanceOf(s, i, post!.next, post!, 'km'), post!.next, postRoad);
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
   // "17 air miles", "12 road km", "3.5 trail mi": how the distance was measured, written before its unit.
@@ -106,14 +112,8 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
   let next = measured + 1;
   const roadUnitless = !unit && unitless && !ordinalAt(s.tokens, i) ? roadFromPlaceAt(s, number.next) : -1;
   if (!unit && unitless && !ordinalAt(s.tokens, i) && (roadUnitless > 0 || readHeading(s, number.next))) {
-    const written = s.text.slice(s.tokens[i]!.start, s.tokens[number.next - 1]!.end);
-    const distance: WrittenDistance = {
-      written, value: number.value, unit: 'mi', precision: number.precision, uncertainty: number.uncertainty,
-      meters: toMeters(number.value, 'mi'), uncertaintyMeters: toMeters(number.uncertainty, 'mi'), unitAssumed: true,
-    };
-    if (number.range) distance.range = number.range;
-    if (roadUnitless < 0) return { distance, next: number.next };
-    return { distance: { ...distance, fromRoadStart: true }, next: roadUnitless, how: pathOf('road', writtenText(s.text, s.tokens, number.next, roadUnitless + 1)) };
+    const distance = distanceOf(s, i, number.next, number, 'mi', true);
+    return roadUnitless > 0 ? alongRoadFrom(s, distance, number.next, roadUnitless) : { distance, next: number.next };
   }
   // "nautical miles", "millas náuticas", "milhas náuticas", "milles marins"
   if (unitToken?.norm === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
@@ -124,10 +124,21 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
     next++;
   }
   if (!unit) return null;
-  let uncertainty = number.uncertainty;
-  if (unit === 'league') uncertainty += number.value * LEAGUE_RELATIVE_SPREAD;
+  const distance = distanceOf(s, i, next, number, unit);
+  const road = measured === number.next ? roadFromPlaceAt(s, next) : -1;
+  if (road > 0) return alongRoadFrom(s, distance, next, road);
+  if (measured === number.next) return { distance, next };
+  return { distance, next, how: how === 'air' ? 'air' : pathOf(how!, s.tokens[number.next]!.text) };
+}
+
+/**
+ * The distance `number` written over tokens [from, to) in `unit`, with δ from its precision (and a league's spread);
+ * `unitAssumed` when the text wrote no unit and `unit` is the provisional one.
+ */
+function distanceOf(s: Source, from: number, to: number, number: NonNullable<ReturnType<typeof readNumberAt>>, unit: DistanceUnit, unitAssumed = false): WrittenDistance {
+  const uncertainty = unit === 'league' ? number.uncertainty + number.value * LEAGUE_RELATIVE_SPREAD : number.uncertainty;
   const distance: WrittenDistance = {
-    written: s.text.slice(s.tokens[i]!.start, s.tokens[next - 1]!.end),
+    written: s.text.slice(s.tokens[from]!.start, s.tokens[to - 1]!.end),
     value: number.value,
     unit,
     precision: number.precision,
@@ -135,11 +146,14 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
     meters: toMeters(number.value, unit),
     uncertaintyMeters: toMeters(uncertainty, unit),
   };
+  if (unitAssumed) distance.unitAssumed = true;
   if (number.range) distance.range = number.range;
-  const road = measured === number.next ? roadFromPlaceAt(s, next) : -1;
-  if (road > 0) return { distance: { ...distance, fromRoadStart: true }, next: road, how: pathOf('road', writtenText(s.text, s.tokens, next, road + 1)) };
-  if (measured === number.next) return { distance, next };
-  return { distance, next, how: how === 'air' ? 'air' : pathOf(how!, s.tokens[number.next]!.text) };
+  return distance;
+}
+
+/** A distance before "of the road from" (tokens [at, from], `from` the last "de"/"from"): along that road from the place after it. */
+function alongRoadFrom(s: Source, distance: WrittenDistance, at: number, from: number): { distance: WrittenDistance; next: number; how: PathQualifier } {
+  return { distance: { ...distance, fromRoadStart: true }, next: from, how: pathOf('road', writtenText(s.text, s.tokens, at, from + 1)) };
 }
 
 /**
