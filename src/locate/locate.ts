@@ -27,7 +27,7 @@ import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
-import { shortFormKey } from '../match/context.ts';
+import { shortFormKey, unitLookupNames } from '../match/context.ts';
 import { routeJudgement } from './route.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -158,7 +158,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   }
   if (unit && !(townOfExonym && exonymRule === 'town')) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
-    if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    if (!found.feature) return (found.loaded ? null : locateSeat(finder, unit, interpretation, context, options)) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
@@ -683,9 +683,10 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
   for (const level of levels) {
     const name = context[level.field];
     if (!name) continue;
-    const exact = finder
-      .findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true })
+    const named = (written: string) => finder
+      .findCandidates({ name: written, context, featureTypes: [level.featureType], withGeometry: true })
       .filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore);
+    const exact = unitLookupNames(name).map(named).find((found) => found.length > 0) ?? [];
     if (exact.length === 1) return exact[0].feature;
   }
   return undefined;
