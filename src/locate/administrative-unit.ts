@@ -8,6 +8,7 @@ import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
 import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReader, shortFormKey } from '../match/context.ts';
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import { formerUnitName } from '../match/former-unit-names.ts';
+import { isNearSpellingOfUnit } from '../match/unit-spelling.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
 import { SETTLEMENTS } from './feature-kind.ts';
@@ -54,6 +55,29 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
   if (countryCodeForName(name) === code) return { name, level: 'country', written };
   const exonymLanguage = countryExonymLanguage(name, code);
   return exonymLanguage ? { name, level: 'country', written, exonymLanguage } : null;
+}
+
+/**
+ * "Hacienda de Jovo, Hitamalco" with the record's county Hueytamalco: a clause that is only a near spelling of the
+ * record's county (isNearSpellingOfUnit) is read as the county's name, with a note [CHOICE countyNearSpellings]; so
+ * it is read as the county's own name would be (named alone: its seat; standing in for a place not found: the
+ * town of the county's name, widened). The reading unchanged with 'off' or no county stated.
+ * @example countyAsSpelled(parseLocality('Hitamalco'), { countryCode: 'MX', county: 'Hueytamalco' }, 'on').features // ['Hueytamalco']
+ */
+export function countyAsSpelled(interpretation: Interpretation, context: AdministrativeContext, rule: 'on' | 'off'): Interpretation {
+  const county = context.county;
+  if (rule === 'off' || !county) return interpretation;
+  const written: string[] = [];
+  const spelled = <R extends Pick<Interpretation, 'type' | 'features'>>(r: R): R => {
+    if (r.type !== 'named-place' || r.features.length !== 1 || !isNearSpellingOfUnit(r.features[0]!, county)) return r;
+    written.push(r.features[0]!);
+    return { ...r, features: [county] };
+  };
+  const reading = spelled(interpretation);
+  const otherClauses = interpretation.otherClauses.map(spelled);
+  if (written.length === 0) return interpretation;
+  const notes = written.map((name) => `"${name}" read as the record's county "${county}", a near spelling of it [CHOICE countyNearSpellings, src/georef/method-defaults.ts]`);
+  return { ...reading, otherClauses, notes: [...interpretation.notes, ...notes] };
 }
 
 /** The name without a leading article ("o Brasil", "the United States"); a lone word is kept. */
