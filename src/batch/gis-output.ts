@@ -62,24 +62,17 @@ export function resultOf(asked: { format?: ResultFormat; path?: string }, starte
 }
 
 /**
- * Turn the finished CSV into the asked format and remove it (nothing to do for CSV); when that fails, a
- * CSV beside a file output is kept.
+ * Make the asked format from the finished CSV (nothing to do for CSV). A file is written beside its
+ * target and renamed into place when whole, so a run stopped meanwhile never leaves part of one there;
+ * the CSV is kept (a batch removes it once its job is done, so that a resume can make the file again).
  * @example await writeResults({ format: 'geojson', csvPath: 'out.geojson.rows.csv', delimiter: ',', output: 'out.geojson', runTimestamp })
  */
 export async function writeResults(options: {
   format: ResultFormat; csvPath: string; delimiter: Delimiter; output: string; runTimestamp: string; stdout?: Writable;
 }): Promise<void> {
   const { format, csvPath, delimiter, output } = options;
-  if (format === 'csv') return;
-  try {
-    if (format === 'gpkg') await writeGeoPackage(csvPath, delimiter, output, options.runTimestamp);
-    else await writeGeoJSON(csvPath, delimiter, output === '-' ? (options.stdout ?? process.stdout) : output);
-  } catch (error) {
-    // Beside a file output the CSV stays, so that nothing is lost; a temporary one for standard output goes.
-    if (output === '-') rmSync(csvPath, { force: true });
-    throw error;
-  }
-  rmSync(csvPath, { force: true });
+  if (format === 'gpkg') await writeGeoPackage(csvPath, delimiter, output, options.runTimestamp);
+  else if (format === 'geojson') await writeGeoJSON(csvPath, delimiter, output === '-' ? (options.stdout ?? process.stdout) : output);
 }
 
 /** The columns and rows of a batch output, read in constant memory. */
@@ -96,27 +89,36 @@ async function readResultTable(path: string, delimiter: Delimiter): Promise<{ co
 }
 
 /**
- * The GeoJSON of a batch output, one FeatureCollection with a Feature a row in input order, to a file or
- * a stream; resolves with the number of features.
+ * The GeoJSON of a batch output, one FeatureCollection with a Feature a row in input order, to a stream
+ * or to a file (written beside it and renamed into place when whole); resolves with the number of features.
  * @example await writeGeoJSON('out.csv', ',', 'out.geojson') // 52
  */
 export async function writeGeoJSON(csvPath: string, delimiter: Delimiter, target: string | Writable): Promise<number> {
   const { columns, rows } = await readResultTable(csvPath, delimiter);
-  const out = typeof target === 'string' ? createWriteStream(target) : target;
+  const partial = typeof target === 'string' ? `${target}.partial` : undefined;
+  const out = partial ? createWriteStream(partial) : (target as Writable);
   const write = async (text: string) => {
     if (!out.write(text)) await once(out, 'drain');
   };
   let count = 0;
-  await write('{"type":"FeatureCollection","features":[');
-  for await (const row of rows) {
-    await write(`${count === 0 ? '\n' : ',\n'}${JSON.stringify(resultFeature(columns, row))}`);
-    count++;
-  }
-  await write('\n]}\n');
-  if (typeof target === 'string') {
+  try {
+    await write('{"type":"FeatureCollection","features":[');
+    for await (const row of rows) {
+      await write(`${count === 0 ? '\n' : ',\n'}${JSON.stringify(resultFeature(columns, row))}`);
+      count++;
+    }
+    await write('\n]}\n');
+    if (!partial) return count;
     out.end();
     await once(out, 'finish');
+  } catch (error) {
+    if (partial) {
+      out.destroy();
+      rmSync(partial, { force: true });
+    }
+    throw error;
   }
+  renameSync(partial, target as string);
   return count;
 }
 

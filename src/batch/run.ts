@@ -61,6 +61,12 @@ export interface BatchJobOptions {
   resume?: string;
   /** What the caller makes of the CSV when the job is done (src/batch/gis-output.ts), kept with the job; on a resume, stored anew. */
   result?: { format: string; path: string };
+  /**
+   * Makes the file the caller delivers from the whole CSV (a GIS file, a new archive), renamed into place
+   * when whole. Run before the job is marked done, so a job stopped meanwhile is finished by a resume, which
+   * runs it again from the CSV kept (nothing georeferenced or written again); the caller removes the CSV.
+   */
+  finishOutput?: (summary: Omit<BatchSummary, 'resumed'>) => Promise<void>;
   /** The input's delimiter when the caller knows it (an archive's core, written by whereabouts); found from the header otherwise. */
   delimiter?: Delimiter;
   coverAmbiguous?: boolean;
@@ -231,7 +237,7 @@ export function gazetteerSources(dbPath: string) {
 
 async function resumableJob(jobs: Database.Database, options: BatchJobOptions): Promise<StartedJob> {
   const job = loadJob(jobs, options.resume!);
-  if (job.state === 'done') throw new Error(`batch job ${job.id} is already done (output ${job.outputPath})`);
+  if (job.state === 'done') throw new Error(doneMessage(job));
   if (!existsSync(job.inputPath)) throw new Error(`batch job ${job.id}: its input ${job.inputPath} is gone`);
   const format = await inspectInput(job.inputPath);
   if (format.sha256 !== job.inputSha256) throw new Error(`batch job ${job.id}: its input ${job.inputPath} has changed since the job started; start a new batch`);
@@ -240,6 +246,17 @@ async function resumableJob(jobs: Database.Database, options: BatchJobOptions): 
   }
   if (job.version !== VERSION) throw new Error(`batch job ${job.id} was started by whereabouts ${job.version}, this is ${VERSION}; start a new batch`);
   return { job, resumed: true, format };
+}
+
+/**
+ * What a resume of a finished job says: its output, the file made (a GIS file or an archive) when there is
+ * one, and when that file is no longer where it was written, that only a new batch makes it again.
+ * @example doneMessage(job) // 'batch job 3f9c2a71 is already done (output /data/out.gpkg)'
+ */
+function doneMessage(job: BatchJob): string {
+  const output = job.resultPath ?? job.outputPath;
+  const gone = output !== '-' && !existsSync(output);
+  return `batch job ${job.id} is already done (output ${output}${gone ? ', since moved or removed: start a new batch to make it again' : ''})`;
 }
 
 /**
@@ -255,13 +272,18 @@ function resumedAs(jobs: Database.Database, job: BatchJob, options: BatchJobOpti
     if (outputPath === job.inputPath) throw new Error(`the output ${outputPath} would replace the input`);
     const partialPath = outputPath === '-' ? job.partialPath : `${outputPath}.${job.id}.partial`;
     if (partialPath !== job.partialPath && existsSync(job.partialPath)) moveFile(job.partialPath, partialPath);
+    // A job stopped while its file was made from the whole CSV: the CSV goes along instead.
+    else if (outputPath !== '-' && job.outputPath !== '-' && job.outputBytes > 0 && existsSync(job.outputPath)) moveFile(job.outputPath, outputPath);
     Object.assign(change, { outputPath, partialPath });
   }
   updateJob(jobs, job.id, change);
   return { ...job, ...change };
 }
 
-/** Rename a file, or copy it and remove the original when the two paths are on different file systems. */
+/**
+ * Rename a file, or copy it and remove the original when the two paths are on different file systems. A
+ * copy that fails part way (a full disk) leaves nothing at `to` (libuv removes it) and the original as it was.
+ */
 function moveFile(from: string, to: string): void {
   try {
     renameSync(from, to);
@@ -347,14 +369,17 @@ async function runJob(jobs: Database.Database, started: BatchJob, format: InputF
   await Promise.all([georeferencing, writing]);
   const job = loadJob(jobs, started.id);
   await deliver(job, options);
-  updateJob(jobs, job.id, { state: 'done', finishedAt: new Date().toISOString() });
-  dropLocalityResults(jobs, job.id);
-  if (job.inputIsSpool) rmSync(job.inputPath, { force: true });
   const { malformed = 0, flagged = 0, ...byStatus } = job.tallies;
-  return {
+  const summary = {
     jobId: job.id, rows: job.rowsTotal ?? 0, distinctLocalities: job.distinctTotal ?? 0, malformedRows: malformed, flaggedRows: flagged,
     byStatus, outputPath: job.outputPath, encoding: format.encoding, delimiter, runTimestamp: job.runTimestamp,
   };
+  await testDelay();
+  await options.finishOutput?.(summary);
+  updateJob(jobs, job.id, { state: 'done', finishedAt: new Date().toISOString() });
+  dropLocalityResults(jobs, job.id);
+  if (job.inputIsSpool) rmSync(job.inputPath, { force: true });
+  return summary;
 }
 
 /** A pause after each commit, for tests that stop a job part way (WHEREABOUTS_TEST_DELAY_MS; never set in use). */

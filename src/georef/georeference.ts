@@ -71,7 +71,7 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
   const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
   try {
     checkSettings(settings);
-    const read = withUnitlessDistances(input, settings.unitlessDistanceUnits);
+    const read = withUnitlessDistances(fromRoadStart(input, settings.roadNumberFromPlace ?? METHOD_DEFAULTS.roadNumberFromPlace), settings.unitlessDistanceUnits);
     const placement = place(read, settings);
     return { ok: true, georeference: finish(read, placement, settings) };
   } catch (error) {
@@ -100,6 +100,22 @@ function withUnitlessDistances(input: GeoreferenceInput, units: Settings['unitle
     return { ...offset, distance: { ...d, meters, uncertaintyMeters } };
   });
   return { ...input, interpretation: { ...interpretation, offsets, notes: [...interpretation.notes, ...remarks] } };
+}
+
+/**
+ * A distance written before "of the road from" a place ("13.5 da estrada de X"): the road's distance from that
+ * place, read as an offset along a path from it, with a remark; refused with 'decline'
+ * (METHOD_DEFAULTS.roadNumberFromPlace [CHOICE]).
+ * @example "13.5 da estrada de X" → the remark '"13.5" before "da estrada de X": read as the distance along that road from X …'
+ */
+function fromRoadStart(input: GeoreferenceInput, rule: 'from the place' | 'decline'): GeoreferenceInput {
+  const { interpretation } = input;
+  const offset = interpretation.offsets.find((o) => o.distance?.fromRoadStart);
+  if (!offset) return input;
+  const written = `"${offset.distance!.written}" before "${offset.path?.written ?? ''} ${interpretation.features[0] ?? ''}"`;
+  if (rule === 'decline') refuse(`${written}: the road's count may begin elsewhere than the place named, so no georeference is given [CHOICE roadNumberFromPlace, src/georef/method-defaults.ts]`);
+  const remark = `${written}: read as the distance along that road from ${interpretation.features[0] ?? 'the place'}, where the road's count is said to begin (a kilometre post with "km" left out) [CHOICE roadNumberFromPlace, src/georef/method-defaults.ts]`;
+  return { ...input, interpretation: { ...interpretation, notes: [...interpretation.notes, remark] } };
 }
 
 function definedOptions(options: MethodOptions | undefined): MethodOptions {

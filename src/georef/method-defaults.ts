@@ -227,4 +227,34 @@ export const METHOD_DEFAULTS = {
    * unfound. Chosen by measurement on the real-record sets (docs/real-records.md).
    */
   protectedAreaTown: 'of' as 'of' | 'any' | 'decline',
+  /**
+   * A number before "of the road from" a place ("13.5 da estrada de X", "12 km del camino de X") [CHOICE]: 'from
+   * the place' reads it as the distance along that road from the place, where "de X" says the road's count
+   * begins (a kilometre post with "km" left out, as Portuguese and Spanish labels write it; with no unit written
+   * the number is read between kilometres and miles, unitlessDistanceUnits), and georeferences it as a distance
+   * along a path from the place (docs/method.md §3: with no road line loaded, a circle of radius d + δ around it,
+   * which holds the point wherever the road bends, since no road is shorter than the straight line); 'decline'
+   * gives no georeference, for labels whose roads are counted from elsewhere. Our choice, no source; measured on
+   * the real-record sets (docs/real-records.md).
+   */
+  roadNumberFromPlace: 'from the place' as 'from the place' | 'decline',
+  /**
+   * A station the gazetteer lacks, named after a place ("Alisos Station", "Estación Alisos", "Estação de Alisos",
+   * "Gare de Alisos") [CHOICE]: 'town' lets the one town of that name in the stated state stand in for the
+   * station, after the text's other clauses, widened by unusedFeatureMeters as any place named but not loaded
+   * (a station named after a town may lie at its edge or kilometres out, and a gazetteer of towns does not
+   * say); 'decline' leaves the station unfound. Read as protectedAreaTown reads a park named after a town.
+   * Our choice, no source; measured on the real-record sets (docs/real-records.md).
+   */
+  stationTown: 'town' as 'town' | 'decline',
+  /**
+   * A clause that is not the record's county as written but a near spelling of it ("Hitamalco" for the county
+   * Hueytamalco) [CHOICE]: 'on' reads it as the county, exactly as the county's own name would be read (a
+   * county named alone is its seat, unitSeatMeters; a later clause standing in is widened by
+   * unusedFeatureMeters), when both are one word of at least 8 letters beginning with the same letter and at most
+   * a third of the longer one's letters differ (edits); 'off' reads it only as a place's
+   * name. The record's own county corroborates the spelling, as no other name does. Our choice, no source;
+   * measured on the real-record sets (docs/real-records.md).
+   */
+  countyNearSpellings: 'on' as 'on' | 'off',
 } as const satisfies Record<string, number | string>;

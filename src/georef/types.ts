@@ -74,6 +74,12 @@ export interface MethodOptions {
   headStateByPlace?: 'on' | 'off';
   /** A protected area the gazetteer lacks, named after a town: the town stands in, widened, when "of" joins its name ('of', default), also in apposition ('any'), or never ('decline') ([CHOICE]). */
   protectedAreaTown?: 'of' | 'any' | 'decline';
+  /** A number before "of the road from" a place ("13.5 da estrada de X"): the distance along that road from the place ('from the place', default) or no georeference ('decline') ([CHOICE]). */
+  roadNumberFromPlace?: 'from the place' | 'decline';
+  /** A station the gazetteer lacks, named after a place ("Alisos Station"): the town stands in, widened ('town', default), or never ('decline') ([CHOICE]). */
+  stationTown?: 'town' | 'decline';
+  /** A clause that is a near spelling of the record's own county ("Hitamalco" for Hueytamalco), read as the county: 'on' (default) or 'off' ([CHOICE]). */
+  countyNearSpellings?: 'on' | 'off';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */

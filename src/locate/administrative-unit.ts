@@ -8,6 +8,7 @@ import type { CandidateFinder, Candidate, Feature } from '../match/types.ts';
 import { administrativeKey, countryCodeForName, countryExonymLanguage, looseUnitReader, shortFormKey } from '../match/context.ts';
 import { foldName, LEADING_ARTICLES } from '../match/fold.ts';
 import { formerUnitName } from '../match/former-unit-names.ts';
+import { isNearSpellingOfUnit } from '../match/unit-spelling.ts';
 import type { AdministrativeContext, AdministrativeLevel, Interpretation, NamedUnit } from '../parse/types.ts';
 import { readingOf } from './other-clauses.ts';
 import { SETTLEMENTS } from './feature-kind.ts';
@@ -54,6 +55,29 @@ export function unitNamed(interpretation: Interpretation, context: Administrativ
   if (countryCodeForName(name) === code) return { name, level: 'country', written };
   const exonymLanguage = countryExonymLanguage(name, code);
   return exonymLanguage ? { name, level: 'country', written, exonymLanguage } : null;
+}
+
+/**
+ * "Hacienda de Jovo, Hitamalco" with the record's county Hueytamalco: a clause that is only a near spelling of the
+ * record's county (isNearSpellingOfUnit) is read as the county's name, with a note [CHOICE countyNearSpellings]; so
+ * it is read as the county's own name would be (named alone: its seat; standing in for a place not found: the
+ * town of the county's name, widened). The reading unchanged with 'off' or no county stated.
+ * @example countyAsSpelled(parseLocality('Hitamalco'), { countryCode: 'MX', county: 'Hueytamalco' }, 'on').features // ['Hueytamalco']
+ */
+export function countyAsSpelled(interpretation: Interpretation, context: AdministrativeContext, rule: 'on' | 'off'): Interpretation {
+  const county = context.county;
+  if (rule === 'off' || !county) return interpretation;
+  const written: string[] = [];
+  const spelled = <R extends Pick<Interpretation, 'type' | 'features'>>(r: R): R => {
+    if (r.type !== 'named-place' || r.features.length !== 1 || !isNearSpellingOfUnit(r.features[0]!, county)) return r;
+    written.push(r.features[0]!);
+    return { ...r, features: [county] };
+  };
+  const reading = spelled(interpretation);
+  const otherClauses = interpretation.otherClauses.map(spelled);
+  if (written.length === 0) return interpretation;
+  const notes = written.map((name) => `"${name}" read as the record's county "${county}", a near spelling of it [CHOICE countyNearSpellings, src/georef/method-defaults.ts]`);
+  return { ...reading, otherClauses, notes: [...interpretation.notes, ...notes] };
 }
 
 /** The name without a leading article ("o Brasil", "the United States"); a lone word is kept. */
@@ -218,7 +242,8 @@ const LEVEL_WORDS: Readonly<Record<AdministrativeLevel, string>> = {
   unit: 'administrative unit',
 };
 
-export type UnitLookup = { feature: Feature; candidates: Candidate[]; remark: string } | { feature: null; candidates: Candidate[]; reason: string };
+/** The unit's feature, or why there is none; `loaded`: a polygon of its name is loaded in the country but none in the record's units, so no seat stands in. */
+export type UnitLookup = { feature: Feature; candidates: Candidate[]; remark: string } | { feature: null; candidates: Candidate[]; reason: string; loaded: boolean };
 
 /**
  * The unit's own feature with its polygon, or the reason there is none to georeference by.
@@ -227,19 +252,28 @@ export type UnitLookup = { feature: Feature; candidates: Candidate[]; remark: st
  */
 export function findUnit(finder: CandidateFinder, unit: NamedUnit, context: AdministrativeContext, acceptScore: number): UnitLookup {
   const words = LEVEL_WORDS[unit.level];
-  const candidates = finder
-    .findCandidates({ name: unit.name, context: contextAbove(unit.level, context), featureTypes: FEATURE_TYPES[unit.level], withGeometry: true })
+  const unitsIn = (within: AdministrativeContext) => finder
+    .findCandidates({ name: unit.name, context: within, featureTypes: FEATURE_TYPES[unit.level], withGeometry: true })
     .filter((c) => c.score >= acceptScore);
-  const polygons = candidates.filter((c) => c.feature.geometryType === 'Polygon' || c.feature.geometryType === 'MultiPolygon');
+  const isPolygon = (c: Candidate) => c.feature.geometryType === 'Polygon' || c.feature.geometryType === 'MultiPolygon';
+  const candidates = unitsIn(contextAbove(unit.level, context));
+  const polygons = candidates.filter(isPolygon);
   if (polygons.length === 1) {
     const feature = polygons[0]!.feature;
     return { feature, candidates, remark: `"${unit.written}" names the ${words} "${feature.name}": georeferenced as that unit by its polygon, never as a place that shares its name` };
   }
+  // A polygon of the unit's name that the stated state set aside (a county file recording its state by a code,
+  // "ID", where the record writes "Idaho"): the unit is loaded, so no town stands in for it (a seat of that name
+  // may lie in another county).
+  const elsewhere = polygons.length === 0 && unit.level !== 'country' ? unitsIn({ countryCode: context.countryCode, country: context.country }).filter(isPolygon) : [];
   const why = polygons.length > 1
     ? `${polygons.length} units of that name are loaded`
-    : 'no polygon of it is loaded [CHOICE unitWithoutPolygon \'decline\', src/georef/method-defaults.ts]';
-  return { feature: null, candidates, reason: `"${unit.written}" names the ${words} "${unit.name}", not a place; ${why}, and a town of that name with a town's radius would not be honest, so no georeference is given` };
+    : elsewhere.length > 0
+      ? `its polygon is loaded, but recorded in other units than the record's (${elsewhere.map(({ feature: f }) => `"${f.name}" in ${f.stateProvince ?? f.countryCode ?? 'no unit'}, ${f.sourceId}:${f.featureId}`).join('; ')})`
+      : 'no polygon of it is loaded [CHOICE unitWithoutPolygon \'decline\', src/georef/method-defaults.ts]';
+  return { feature: null, candidates, loaded: elsewhere.length > 0, reason: `"${unit.written}" names the ${words} "${unit.name}", not a place; ${why}, and a town of that name with a town's radius would not be honest, so no georeference is given` };
 }
+
 
 /**
  * The feature when it is an administrative unit's polygon, else undefined.

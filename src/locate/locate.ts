@@ -5,7 +5,7 @@
  * and the clip hold for an edited record as for the first answer. The finder is the only door to data,
  * so this module stays free of I/O; the edges reach it through `georeferenceRecord`.
  */
-import { parseCoordinates, parseLocality, protectedAreaNamesake } from '../parse/index.ts';
+import { parseCoordinates, parseLocality, protectedAreaNamesake, stationNamesake } from '../parse/index.ts';
 import type { AdministrativeContext, Interpretation, NamedUnit } from '../parse/types.ts';
 import type { Candidate, CandidateFinder, CandidateQuery, Feature, GeometryType } from '../match/types.ts';
 import { coverGeoreferences } from '../georef/cover.ts';
@@ -18,7 +18,7 @@ import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
 import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
-import { findUnit, headAsState, pastUnitHeads, readStatedState, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
+import { countyAsSpelled, findUnit, headAsState, pastUnitHeads, readStatedState, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
 import { namesakeByResult, reachMeters } from './namesakes-by-result.ts';
@@ -27,7 +27,7 @@ import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
-import { shortFormKey } from '../match/context.ts';
+import { shortFormKey, unitLookupNames } from '../match/context.ts';
 import { routeJudgement } from './route.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -136,7 +136,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     statedUnitReadings: options.statedUnitReadings ?? METHOD_DEFAULTS.statedUnitReadings,
     formerUnitNames: options.formerUnitNames ?? METHOD_DEFAULTS.formerUnitNames,
   });
-  const interpretation = note ? { ...headless, notes: [...headless.notes, note] } : headless;
+  const interpretation = countyAsSpelled(note ? { ...headless, notes: [...headless.notes, note] } : headless, context, options.countyNearSpellings ?? METHOD_DEFAULTS.countyNearSpellings);
   if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
     throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
   }
@@ -158,7 +158,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   }
   if (unit && !(townOfExonym && exonymRule === 'town')) {
     const found = findUnit(finder, unit, context, FUZZY_ACCEPTANCE.readingScore);
-    if (!found.feature) return locateSeat(finder, unit, interpretation, context, options) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
+    if (!found.feature) return (found.loaded ? null : locateSeat(finder, unit, interpretation, context, options)) ?? { status: 'not-found', interpretation, candidates: found.candidates, reason: found.reason };
     return georeferenceUnit(found.feature, interpretation, found.remark, found.candidates, options);
   }
 
@@ -329,7 +329,7 @@ function seatWidening(used: Interpretation, town: Feature, context: Administrati
 /**
  * The readings that may stand in for a missing place, in order: a name in brackets that is the record's own
  * unit, not a second name ("Cerro Azul (Alisos)" in the county Alisos), the other clauses, the towns the text's
- * protected areas are named after ([CHOICE protectedAreaTown]), then the towns of the text's units.
+ * protected areas and stations are named after ([CHOICE protectedAreaTown], [CHOICE stationTown]), then the towns of the text's units.
  */
 function standInReadings(interpretation: Interpretation, context: AdministrativeContext, options: LocateOptions): { reading: Interpretation; what: string }[] {
   const unitInBrackets = interpretation.secondName && !secondNameReading(interpretation, context) ? [{ name: interpretation.secondName, what: 'the record\'s unit written in brackets' }] : [];
@@ -338,7 +338,7 @@ function standInReadings(interpretation: Interpretation, context: Administrative
       reading: readingOf(interpretation, clause),
       what: `the next clause, "${interpretation.clauses[clause.clause]?.text ?? clause.features.join(', ')}",`,
     })),
-    ...[...unitInBrackets, ...protectedAreaTowns(interpretation, options), ...standInsNamed(interpretation)].map(({ name, what }) => ({
+    ...[...unitInBrackets, ...namesakeTowns(interpretation, options), ...standInsNamed(interpretation)].map(({ name, what }) => ({
       reading: { ...interpretation, type: 'named-place' as const, features: [name], offsets: [], featureKind: undefined, secondName: undefined },
       what: `${what}, "${name}",`,
     })),
@@ -346,21 +346,24 @@ function standInReadings(interpretation: Interpretation, context: Administrative
 }
 
 /**
- * The towns the text's protected areas are named after ("Reserva Biológica de Una": Una), its first clause's area
- * first: with no polygon of the area loaded, the town it is named after may stand in for it, widened as any place
- * named but not loaded is, since how far the area reaches from the town is unknown [CHOICE protectedAreaTown]:
- * 'of' only a name joined by "of" (de, do, du…: the area of a place), 'any' also one in apposition ("P. N.
- * Alisos", "Alisos Provincial Park", often an honoree's), 'decline' none.
- * @example protectedAreaTowns(parseLocality('Reserva Biológica de Alisos. Sendero'), {}) // [{ name: 'Alisos', what: 'the town the protected area "Reserva Biológica de Alisos" is named after [CHOICE protectedAreaTown, …]' }]
+ * The towns the text's protected areas and stations are named after ("Reserva Biológica de Una": Una; "Alisos
+ * Station": Alisos), its first clause's first: with no polygon or point of the area or station loaded, the town it
+ * is named after may stand in for it, widened as any place named but not loaded is, since how far the area reaches
+ * or the station lies from the town is unknown. A protected area by [CHOICE protectedAreaTown]: 'of' only a name
+ * joined by "of" (de, do, du…: the area of a place), 'any' also one in apposition ("P. N. Alisos", "Alisos
+ * Provincial Park", often an honoree's), 'decline' none; a station by [CHOICE stationTown], 'town' or 'decline'.
+ * @example namesakeTowns(parseLocality('Reserva Biológica de Alisos. Sendero'), {}) // [{ name: 'Alisos', what: 'the town the protected area "Reserva Biológica de Alisos" is named after [CHOICE protectedAreaTown, …]' }]
  */
-function protectedAreaTowns(interpretation: Interpretation, options: LocateOptions): { name: string; what: string }[] {
-  const rule = options.protectedAreaTown ?? METHOD_DEFAULTS.protectedAreaTown;
-  if (rule === 'decline') return [];
-  const areas = [interpretation, ...interpretation.otherClauses].flatMap((r) => (r.featureKind === 'protected-area' && r.features.length === 1 ? [r.features[0]!] : []));
-  return areas.flatMap((area) => {
-    const named = protectedAreaNamesake(area);
-    if (!named || (rule === 'of' && !named.of)) return [];
-    return [{ name: named.name, what: `the town the protected area "${area}" is named after [CHOICE protectedAreaTown, src/georef/method-defaults.ts]` }];
+function namesakeTowns(interpretation: Interpretation, options: LocateOptions): { name: string; what: string }[] {
+  const areaRule = options.protectedAreaTown ?? METHOD_DEFAULTS.protectedAreaTown;
+  const stationRule = options.stationTown ?? METHOD_DEFAULTS.stationTown;
+  return [interpretation, ...interpretation.otherClauses].flatMap((r) => {
+    if (r.features.length !== 1) return [];
+    const written = r.features[0]!;
+    const area = r.featureKind === 'protected-area' && areaRule !== 'decline' ? protectedAreaNamesake(written) : undefined;
+    if (area && (areaRule === 'any' || area.of)) return [{ name: area.name, what: `the town the protected area "${written}" is named after [CHOICE protectedAreaTown, src/georef/method-defaults.ts]` }];
+    const station = stationRule === 'town' ? stationNamesake(written) : undefined;
+    return station ? [{ name: station, what: `the town the station "${written}" is named after [CHOICE stationTown, src/georef/method-defaults.ts]` }] : [];
   });
 }
 
@@ -680,9 +683,10 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
   for (const level of levels) {
     const name = context[level.field];
     if (!name) continue;
-    const exact = finder
-      .findCandidates({ name, context, featureTypes: [level.featureType], withGeometry: true })
+    const named = (written: string) => finder
+      .findCandidates({ name: written, context, featureTypes: [level.featureType], withGeometry: true })
       .filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore);
+    const exact = unitLookupNames(name).map(named).find((found) => found.length > 0) ?? [];
     if (exact.length === 1) return exact[0].feature;
   }
   return undefined;

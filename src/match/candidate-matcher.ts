@@ -444,7 +444,7 @@ export class CandidateMatcher {
       const read = new Set(chosen.map((match) => match.id));
       for (const match of matched.filter((m) => !read.has(m.id)).slice(0, WHOLE_NAME_TOKENS)) {
         weigh(match);
-        for (const feature of this.index.featureIdsByName(match.text, SHORTLIST_PER_TOKEN)) rows.push({ feature, token: match.id });
+        rows.push(this.index.featureIdsByName(match.text, SHORTLIST_PER_TOKEN).map((feature) => ({ feature, token: match.id })));
       }
     }
     const common = this.commonTokenPostings(matched, chosen, context, reads.partnerPostings);
@@ -455,14 +455,21 @@ export class CandidateMatcher {
       for (const partner of common.partners) if (!weighed.has(`${partner.id}:${partner.index}`)) weigh(partner);
     }
     const pool = new Map<number, PoolEntry>();
-    const credit = (postings: Posting[]) => {
+    const credit = (postings: readonly Posting[]) => {
+      // Postings come in runs of one token: its weights are looked up once a run.
+      let runToken = -1;
+      let tokenWeights: readonly { index: number; weight: number }[] = [];
       for (const { feature, token } of postings) {
         let entry = pool.get(feature);
         if (entry === undefined) {
           entry = { id: feature, weights: new Array<number>(queryTokens.length).fill(0), token, weight: 0 };
           pool.set(feature, entry);
         }
-        for (const { index, weight } of byToken.get(token) ?? []) {
+        if (token !== runToken) {
+          runToken = token;
+          tokenWeights = byToken.get(token) ?? [];
+        }
+        for (const { index, weight } of tokenWeights) {
           if (weight > entry.weights[index]) entry.weights[index] = weight;
           if (weight > entry.weight) {
             entry.token = token;
@@ -471,7 +478,8 @@ export class CandidateMatcher {
         }
       }
     };
-    credit(rows.concat(common.rows));
+    for (const postings of rows) credit(postings);
+    credit(common.rows);
     // The token weights only shortlist, features of many different tokens before many features of one
     // token; a common token skipped above ("monte") counts for nobody, so the shortlist is re-ranked by
     // the edit distance of the whole name before fuse.js scores the best.
@@ -579,24 +587,24 @@ export class CandidateMatcher {
       }
       for (const { feature, token } of this.index.postingsAmong(tokens, unprobed)) probed.get(token)!.set(feature, true);
     }
-    // In the order of the store's answer, by token and feature.
-    const inOrder = [...features].sort((a, b) => a - b);
-    return [...new Set(tokens)].sort((a, b) => a - b).flatMap((token) => inOrder.filter((feature) => probed.get(token)!.get(feature)).map((feature) => ({ feature, token })));
+    // In the order of the store's answer, by token and feature: the few held features sorted, not all of them.
+    return [...new Set(tokens)].sort((a, b) => a - b).flatMap((token) => {
+      const held = probed.get(token)!;
+      return features.filter((feature) => held.get(feature) === true).sort((a, b) => a - b).map((feature) => ({ feature, token }));
+    });
   }
 
   /**
-   * Every posting of these tokens (their postings together fit the budget), in token order; a
-   * token's postings read earlier in the same lookup (`read`) are not read again.
+   * Every posting of these tokens (their postings together fit the budget), as one list a token in
+   * token order; a token's postings read earlier in the same lookup (`read`) are not read again.
    */
-  private postingsOf(tokens: number[], context: ResolvedContext, read: Map<number, Posting[]>): Posting[] {
+  private postingsOf(tokens: number[], context: ResolvedContext, read: Map<number, Posting[]>): Posting[][] {
     const unread = tokens.filter((token) => !read.has(token));
     if (unread.length > 0) {
       for (const token of unread) read.set(token, []);
       for (const row of this.index.postings(unread, countryList(context), POSTING_BUDGET)) read.get(row.token)!.push(row);
     }
-    const postings: Posting[] = [];
-    for (const token of [...tokens].sort((a, b) => a - b)) for (const posting of read.get(token)!) postings.push(posting);
-    return postings;
+    return [...tokens].sort((a, b) => a - b).map((token) => read.get(token)!);
   }
 
   /**

@@ -81,6 +81,18 @@ export function administrativeKey(name: string): string {
 }
 
 /**
+ * The names a stated unit is looked up by, in this order: as written, then without its words for the unit's
+ * kind ("Pierce Co.", as records write counties, is looked up as "pierce"), the key the context filter
+ * compares (administrativeKey). A unit's name as written is tried first, since a kind word may belong to it.
+ * @example unitLookupNames('Pierce Co.') // ['Pierce Co.', 'pierce']
+ * @example unitLookupNames('Pierce') // ['Pierce']
+ */
+export function unitLookupNames(written: string): string[] {
+  const key = administrativeKey(written);
+  return key === foldName(written) ? [written] : [written, key];
+}
+
+/**
  * The short form of a unit's official long name, "X de <honoree>" ("Veracruz de Ignacio de la Llave",
  * "Michoacán de Ocampo", "Comitán de Domínguez"): the folded words before the first "de"; the whole key
  * when there is none. Only "de": "Mato Grosso do Sul" and "Santiago del Estero" are names of their own.

@@ -130,7 +130,9 @@ let codesB = new Uint16Array(64);
 
 /**
  * Edit distance with adjacent transpositions (optimal string alignment), exact up to `max`: any
- * larger distance is reported as max + 1 (the rows stop early). O(|a|·|b|).
+ * larger distance is reported as max + 1. With a finite `max` only the cells within `max` of the
+ * diagonal are computed (an alignment of cost at most `max` never leaves them; the cells beside the
+ * band stand for "more than max"), and the rows stop early. O(|a|·min(|b|, 2·max + 1)).
  * @example editDistance('rosario', 'rosraio') // 1
  * @example editDistance('rosario', 'lima', 2) // 3
  */
@@ -139,20 +141,28 @@ export function editDistance(a: string, b: string, max = Infinity): number {
   const n = a.length;
   const m = b.length;
   if (Math.abs(n - m) > max) return max + 1;
-  if (m + 1 > rows[0].length) for (let i = 0; i < 3; i++) rows[i] = new Int32Array(m + 1);
+  if (m + 2 > rows[0].length) for (let i = 0; i < 3; i++) rows[i] = new Int32Array(m + 2);
   if (m > codesB.length) codesB = new Uint16Array(m);
   const y = codesB;
   for (let j = 0; j < m; j++) y[j] = b.charCodeAt(j);
+  // Cells more than `band` from the diagonal cost more than max; `over` stands for them (above max,
+  // and above every distance when max is not finite).
+  const band = Math.min(max, Math.max(n, m));
+  const over = Math.min(max, n + m) + 1;
   let previous2 = rows[0];
   let previous = rows[1];
   let current = rows[2];
-  for (let j = 0; j <= m; j++) previous[j] = j;
+  const firstRowEnd = Math.min(band, m);
+  for (let j = 0; j <= firstRowEnd; j++) previous[j] = j;
+  previous[firstRowEnd + 1] = over;
   let letterBefore = -1;
   for (let i = 1; i <= n; i++) {
-    current[0] = i;
-    let rowMinimum = i;
+    const first = i - band > 1 ? i - band : 1;
+    const last = i + band < m ? i + band : m;
+    current[first - 1] = first === 1 ? i : over;
+    let rowMinimum = first === 1 ? i : over;
     const letter = a.charCodeAt(i - 1);
-    for (let j = 1; j <= m; j++) {
+    for (let j = first; j <= last; j++) {
       const cost = letter === y[j - 1] ? 0 : 1;
       let best = Math.min(previous[j] + 1, current[j - 1] + 1, previous[j - 1] + cost);
       if (j > 1 && letter === y[j - 2] && letterBefore === y[j - 1]) {
@@ -161,6 +171,8 @@ export function editDistance(a: string, b: string, max = Infinity): number {
       current[j] = best;
       if (best < rowMinimum) rowMinimum = best;
     }
+    // The next row reads one cell past this row's band.
+    current[last + 1] = over;
     if (rowMinimum > max) return max + 1;
     letterBefore = letter;
     const oldest = previous2;

@@ -13,7 +13,7 @@ import { countryCodeWritten, namesCountry } from './country-names.ts';
 import * as L from './lexicon.ts';
 
 export { parseCoordinates } from './coordinates.ts';
-export { featureKindOf, protectedAreaNamesake } from './locality.ts';
+export { featureKindOf, protectedAreaNamesake, stationNamesake } from './locality.ts';
 export { readDistanceNumber, type WrittenNumber } from './numbers.ts';
 export { METERS_PER_UNIT, LEAGUE_METERS, LEAGUE_RANGE_METERS, LEAGUE_RELATIVE_SPREAD, toMeters } from './units.ts';
 export type * from './types.ts';

@@ -40,6 +40,9 @@ export const STRONG_FROM_WORDS = set('from off desde depuis');
 /** A contracted "of the" that joins a line's capitalised generic word to the rest of its name: "Estrada do Sul", "Camino del Norte", "Sentier des Crêtes". */
 export const NAME_GENITIVES = set('do da dos das du des del');
 
+/** "Up to" after an offset's place ("12 km de X até Y", "12 del camino de X hasta Y"): Y is where the way goes, as with TOWARD_PHRASES, but never reverses a bearing. */
+export const UP_TO_WORDS = phrases('ate | hasta');
+
 /** Words that introduce the feature a bearing points toward (the heading is reversed, docs/method.md §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');
 
@@ -217,6 +220,11 @@ export const FEATURE_KIND_WORDS: ReadonlyMap<string, import('./types.ts').Featur
  * forestal); common practice on labels from Central and South America, no source.
  */
 export const PROTECTED_AREA_LEADS = set('zona-protectora z-p p-n r-b r-f');
+/** Words for a railway station, first or last in its name ("Estación Alisos", "Alisos Station", "Gare de Alisos"). */
+export const STATION_WORDS = set('station estacion estacao gare');
+/** Words that make a station a research or field station, not one named after a town ("Biological Station", "Estación Experimental"); common practice on labels, no source. */
+export const STATION_QUALIFIERS = set('biological biologica biologique field research investigacion pesquisa recherche experimental experimentale agricultural agricola agronomica forestal florestal forest forestry ranger scientific cientifica scientifique marine marina');
+
 /**
  * Words that say which kind of park or reserve a lead names, between the lead and the name it bears ("Parque
  * Nacional do Itatiaia", "Reserva Nac. Estricta San Antonio", "Reserva de Biósfera Yabotí", "Alisos State Park"):

@@ -93,9 +93,15 @@ const NAUTICAL_WORDS = new Set(['nautical', 'nauticas', 'nauticos', 'marins', 'm
 /**
  * Reads a distance (number or range + unit) at i, with precision from the number as written (docs/method.md §5.1).
  * `unitless`: a number followed directly by a heading ("0.5 NW of X") is read with no unit: marked
- * `unitAssumed`, provisionally in miles, the larger plausible unit (the method widens it, method-defaults.ts).
+ * `unitAssumed`, provisionally in miles, the larger plausible unit (the method widens it, method-defaults.ts); so is
+ * one before "of the road from" a place ("13.5 da estrada de X"), which with or without a unit ("km 12 da estrada de
+ * X", "12 km del camino de X") is the distance along that road from the place (`fromRoadStart`).
  */
 function readDistanceAt(s: Source, i: number, unitless = false): { distance: WrittenDistance; next: number; how?: 'air' | PathQualifier } | null {
+  // "km 12 da estrada de X": a kilometre post of the road from X, its unit written before its number [CHOICE roadNumberFromPlace].
+  const post = unitless && UNIT_WORDS.get(norm(s, i) ?? '') === 'km' ? readNumberAt(s.tokens, i + 1) : null;
+  const postRoad = post ? roadFromPlaceAt(s, post.next) : -1;
+  if (postRoad > 0) return alongRoadFrom(s, distanceOf(s, i, post!.next, post!, 'km'), post!.next, postRoad);
   const number = readNumberAt(s.tokens, i);
   if (!number) return null;
   // "17 air miles", "12 road km", "3.5 trail mi": how the distance was measured, written before its unit.
@@ -104,14 +110,10 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
   const unitToken = s.tokens[measured];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
   let next = measured + 1;
-  if (!unit && unitless && !ordinalAt(s.tokens, i) && readHeading(s, number.next)) {
-    const written = s.text.slice(s.tokens[i]!.start, s.tokens[number.next - 1]!.end);
-    const distance: WrittenDistance = {
-      written, value: number.value, unit: 'mi', precision: number.precision, uncertainty: number.uncertainty,
-      meters: toMeters(number.value, 'mi'), uncertaintyMeters: toMeters(number.uncertainty, 'mi'), unitAssumed: true,
-    };
-    if (number.range) distance.range = number.range;
-    return { distance, next: number.next };
+  const roadUnitless = !unit && unitless && !ordinalAt(s.tokens, i) ? roadFromPlaceAt(s, number.next) : -1;
+  if (!unit && unitless && !ordinalAt(s.tokens, i) && (roadUnitless > 0 || readHeading(s, number.next))) {
+    const distance = distanceOf(s, i, number.next, number, 'mi', true);
+    return roadUnitless > 0 ? alongRoadFrom(s, distance, number.next, roadUnitless) : { distance, next: number.next };
   }
   // "nautical miles", "millas náuticas", "milhas náuticas", "milles marins"
   if (unitToken?.norm === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
@@ -122,10 +124,21 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
     next++;
   }
   if (!unit) return null;
-  let uncertainty = number.uncertainty;
-  if (unit === 'league') uncertainty += number.value * LEAGUE_RELATIVE_SPREAD;
+  const distance = distanceOf(s, i, next, number, unit);
+  const road = measured === number.next ? roadFromPlaceAt(s, next) : -1;
+  if (road > 0) return alongRoadFrom(s, distance, next, road);
+  if (measured === number.next) return { distance, next };
+  return { distance, next, how: how === 'air' ? 'air' : pathOf(how!, s.tokens[number.next]!.text) };
+}
+
+/**
+ * The distance `number` written over tokens [from, to) in `unit`, with δ from its precision (and a league's spread);
+ * `unitAssumed` when the text wrote no unit and `unit` is the provisional one.
+ */
+function distanceOf(s: Source, from: number, to: number, number: NonNullable<ReturnType<typeof readNumberAt>>, unit: DistanceUnit, unitAssumed = false): WrittenDistance {
+  const uncertainty = unit === 'league' ? number.uncertainty + number.value * LEAGUE_RELATIVE_SPREAD : number.uncertainty;
   const distance: WrittenDistance = {
-    written: s.text.slice(s.tokens[i]!.start, s.tokens[next - 1]!.end),
+    written: s.text.slice(s.tokens[from]!.start, s.tokens[to - 1]!.end),
     value: number.value,
     unit,
     precision: number.precision,
@@ -133,9 +146,26 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
     meters: toMeters(number.value, unit),
     uncertaintyMeters: toMeters(uncertainty, unit),
   };
+  if (unitAssumed) distance.unitAssumed = true;
   if (number.range) distance.range = number.range;
-  if (measured === number.next) return { distance, next };
-  return { distance, next, how: how === 'air' ? 'air' : pathOf(how!, s.tokens[number.next]!.text) };
+  return distance;
+}
+
+/** A distance before "of the road from" (tokens [at, from], `from` the last "de"/"from"): along that road from the place after it. */
+function alongRoadFrom(s: Source, distance: WrittenDistance, at: number, from: number): { distance: WrittenDistance; next: number; how: PathQualifier } {
+  return { distance: { ...distance, fromRoadStart: true }, next: from, how: pathOf('road', writtenText(s.text, s.tokens, at, from + 1)) };
+}
+
+/**
+ * "13.5 da estrada de X", "12 km del camino de X", "km 12 de la carretera de X": after a number, "of the road
+ * from" a place, which says where the road's count of distance begins [CHOICE roadNumberFromPlace]. The index of
+ * the last "de"/"from" (the place follows it), or -1.
+ * @example roadFromPlaceAt(source('13.5 da estrada de Alisos'), 1) // 3
+ */
+function roadFromPlaceAt(s: Source, k: number): number {
+  if (!L.FROM_WORDS.has(norm(s, k) ?? '')) return -1;
+  const noun = L.PATH_ARTICLES.has(norm(s, k + 1) ?? '') ? k + 2 : k + 1;
+  return modeOfNoun(norm(s, noun)) === 'road' && L.FROM_WORDS.has(norm(s, noun + 1) ?? '') && startsCapitalised(s, noun + 2, s.tokens.length) ? noun + 1 : -1;
 }
 
 /** A heading at i, after optional "al", "ao", "au", "à l'", "to the". "sur la ..." is French "on", not south. */
@@ -366,6 +396,27 @@ export function protectedAreaNamesake(name: string): { name: string; of: boolean
   return { name: rest, of: from > 0 && L.FROM_WORDS.has(folded[from - 1]!) && !PLURAL_OF_WORDS.has(folded[from - 1]!) };
 }
 
+/**
+ * The name a station bears after its station word, when the text names a station after a place ("Alisos Station",
+ * "Estación Alisos", "Estação de Alisos", "Gare de Alisos"): the town it is named after may stand in for it
+ * ([CHOICE stationTown]). Undefined for other names, for a station of a kind ("Biological Station", "Estación
+ * Biológica de X": a research station, not a town's), and when no capitalised name is left.
+ * @example stationNamesake('Estación de San Telmo') // 'San Telmo'
+ * @example stationNamesake('Millbrook Station') // 'Millbrook'
+ */
+export function stationNamesake(name: string): string | undefined {
+  const words = name.trim().split(/\s+/);
+  const folded = words.map((word) => fold(word.replace(/\.$/, '')));
+  if (words.length < 2) return undefined;
+  const first = L.STATION_WORDS.has(folded[0]!);
+  const last = !first && L.STATION_WORDS.has(folded[words.length - 1]!);
+  if (!first && !last) return undefined;
+  const from = first ? (L.FROM_WORDS.has(folded[1]!) ? 2 : 1) : 0;
+  const kept = words.slice(from, last ? -1 : undefined);
+  if (kept.length === 0 || !/^\p{Lu}/u.test(kept[0]!) || folded.some((word) => L.STATION_QUALIFIERS.has(word))) return undefined;
+  return kept.join(' ');
+}
+
 /** The word of `name` at [from, to), folded, without a trailing period ("Mt." → "mt"). */
 function wordOf(name: string, from: number, to: number): string {
   return fold(name.charAt(to - 1) === '.' ? name.slice(from, to - 1) : name.slice(from, to));
@@ -484,7 +535,7 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const kindBefore = s.featureKind;
   if (!toward) {
     for (let k = j + 1; k < tail.end - 1; k++) {
-      const length = matchPhrase(s, k, L.TOWARD_PHRASES);
+      const length = matchPhrase(s, k, L.TOWARD_PHRASES) || matchPhrase(s, k, L.UP_TO_WORDS);
       const aim = length ? placeAt(s, k + length, tail.end) : null;
       if (aim) {
         offset.toward = aim;

@@ -43,6 +43,12 @@ export interface WrittenDistance {
    * (METHOD_DEFAULTS.unitlessDistanceUnits, a [CHOICE] in src/georef/method-defaults.ts).
    */
   unitAssumed?: boolean;
+  /**
+   * True when the number stands before "of the road from" a place ("13.5 da estrada de X", "12 km del camino de
+   * X"): read as the distance along that road from the place, where the road's count begins
+   * (METHOD_DEFAULTS.roadNumberFromPlace, a [CHOICE] in src/georef/method-defaults.ts).
+   */
+  fromRoadStart?: boolean;
 }
 
 /** A heading as written, as a true azimuth with its half-width Δ (docs/method.md §5.2). */

@@ -80,3 +80,10 @@ export function writeRepeatedLocalities(path: string): void {
   for (let i = 0; i < distinct.length * 3; i++) lines.push(`c-${i},"${distinct[i % distinct.length]}",QV,${i % 7 === 0 ? '45.5,-131.0' : ','}`);
   writeFileSync(path, `${lines.join('\n')}\n`);
 }
+
+/** 4,000 invented rows holding 40 distinct localities (georeferenced in one chunk, written in four), as the rows of writeManyRowArchive. */
+export function writeManyRowCsv(path: string): void {
+  const lines = ['occurrenceID,locality,countryCode'];
+  for (let i = 0; i < 4000; i++) lines.push(`o-${i},"${(i % 40) + 1} km N of ${PLACES[i % PLACES.length]}",QV`);
+  writeFileSync(path, `${lines.join('\n')}\n`);
+}

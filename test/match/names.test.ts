@@ -5,7 +5,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
 import { foldName, nameVariants } from '../../src/match/fold.ts';
-import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey } from '../../src/match/context.ts';
+import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey, unitLookupNames } from '../../src/match/context.ts';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
 
 describe('foldName', () => {
@@ -52,6 +52,13 @@ describe('administrative names and countries', () => {
     expect(administrativeKey('Departamento del Cauca')).toBe('cauca');
     expect(administrativeKey('Worcester County')).toBe('worcester');
     expect(administrativeKey('County')).toBe('county');
+  });
+
+  it('looks a stated unit up as written, then without its kind word, as set 3 writes counties ("Grand Co.", "Duchesne County")', () => {
+    // records-3.csv (test/fixtures/real/README.md) states counties as "Grand Co." and "Grand" alike
+    expect(unitLookupNames('Grand Co.')).toEqual(['Grand Co.', 'grand']);
+    expect(unitLookupNames('Duchesne County')).toEqual(['Duchesne County', 'duchesne']);
+    expect(unitLookupNames('Grand')).toEqual(['Grand']);
   });
 
   it('compares a unit\'s official long form "X de <honoree>" by its short form, and no other "de"', () => {
@@ -107,6 +114,19 @@ describe('editDistance (optimal string alignment)', () => {
   it('stops at the bound it is given', () => {
     expect(editDistance('rosario', 'lima', 2)).toBe(3);
     expect(editDistance('rosario', 'rosarios', 2)).toBe(1);
+  });
+
+  it('within a bound, gives the unbounded distance or bound + 1 (only the cells near the diagonal are computed)', () => {
+    // The unbounded distance is checked against the textbook values above; near strings (a few typing
+    // errors apart) walk the band's edges, other strings leave it at once.
+    const word = fc.stringMatching(/^[abc]{0,12}$/);
+    fc.assert(fc.property(word, word, fc.integer({ min: 0, max: 5 }), (a, b, max) => {
+      expect(editDistance(a, b, max)).toBe(Math.min(editDistance(a, b), max + 1));
+    }), { numRuns: 5000 });
+    fc.assert(fc.property(token(3), fc.array(edit, { maxLength: 3 }), fc.integer({ min: 0, max: 4 }), (stored, edits, max) => {
+      const query = edits.reduce((text, [kind, at, letter]) => typo(text, kind, at, letter), stored);
+      expect(editDistance(query, stored, max)).toBe(Math.min(editDistance(query, stored), max + 1));
+    }), { numRuns: 5000 });
   });
 });
 

@@ -25,6 +25,7 @@ function summarizeOffset(o: Offset): Record<string, unknown> {
       uncertainty: round(o.distance.uncertainty, 9),
       range: o.distance.range,
       unitAssumed: o.distance.unitAssumed,
+      fromRoadStart: o.distance.fromRoadStart,
     },
     heading: o.heading && { written: o.heading.written, azimuth: o.heading.azimuth, halfWidth: o.heading.halfWidth, kind: o.heading.kind, toward: o.heading.toward },
     path: o.path,

@@ -75,7 +75,8 @@ export interface ArchiveSummary extends BatchSummary {
  * @example const { jobId, done } = await startBatch({ dbPath, input: 'dwca.zip', output: 'dwca-georeferenced.zip' });
  */
 export async function startBatch(asked: ArchiveJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
-  const options = asked.resultAsked ? withResult(asked, asked.resultAsked) : asked;
+  const resulting = asked.resultAsked ? withResult(asked, asked.resultAsked) : asked;
+  const options: ArchiveJobOptions = { ...resulting, finishOutput: (summary) => makeOutput(summary, resulting) };
   const input = options.input;
   const zipPath = !options.resume && typeof input === 'string' && input !== '-' && existsSync(input) && isZipFile(input) ? input : undefined;
   if (zipPath && options.archiveOnly) await checkArchive(zipPath, options);
@@ -102,14 +103,14 @@ export async function startBatch(asked: ArchiveJobOptions): Promise<{ jobId: str
     const coreOut = outputPath === '-' ? join(work, `whereabouts-archive-${key}.out.txt`) : `${outputPath}.${key}.core.txt`;
     await writeCoreTable(zip, metaDir, meta.core, table);
     const manifest: ArchiveManifest = { archivePath, outputPath, tablePath: table };
-    writeFileSync(`${coreOut}.archive.json`, JSON.stringify(manifest));
+    writeFileSync(manifestPathOf(coreOut), JSON.stringify(manifest));
     try {
       const { jobId, methodChoices, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
       return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options)) };
     } catch (error) {
       // No job was stored (a core without a locality term, say): nothing is left behind.
       rmSync(table, { force: true });
-      rmSync(`${coreOut}.archive.json`, { force: true });
+      rmSync(manifestPathOf(coreOut), { force: true });
       throw error;
     }
   } finally {
@@ -135,8 +136,7 @@ function withResult(options: ArchiveJobOptions, asked: NonNullable<ArchiveJobOpt
   } finally {
     jobs.close();
   }
-  const manifestPath = `${job.outputPath}.archive.json`;
-  const manifest = existsSync(manifestPath) ? (JSON.parse(readFileSync(manifestPath, 'utf8')) as ArchiveManifest) : undefined;
+  const manifest = manifestOf(job.outputPath);
   const started = {
     id: job.id, format: resultFormat(job.resultFormat ?? 'csv'), path: job.resultPath ?? manifest?.outputPath ?? job.outputPath, part: job.partCount !== null,
   };
@@ -146,13 +146,58 @@ function withResult(options: ArchiveJobOptions, asked: NonNullable<ArchiveJobOpt
   return { ...options, output: manifest || unchanged ? undefined : batchCsvPath(result.format, result.path), coreOnly: result.format !== 'csv', result };
 }
 
-/** The file asked for, once the job (and an archive's) is done: the GIS file made from the CSV (nothing more for a CSV or an archive). */
-async function finishResult(summary: BatchSummary, options: ArchiveJobOptions): Promise<ArchiveSummary> {
-  const finished = await finishArchive(summary, options);
+/**
+ * The file asked for, made from the job's whole CSV before the job is marked done (a resume of a job
+ * stopped meanwhile makes it again): for a job over an archive's core the new archive (none with
+ * `coreOnly`), then the GIS file asked for; each written beside its target and renamed into place.
+ */
+async function makeOutput(summary: Omit<BatchSummary, 'resumed'>, options: ArchiveJobOptions): Promise<void> {
+  const manifest = manifestOf(summary.outputPath);
+  if (manifest && !options.coreOnly) {
+    // The archive goes where the run asked (a resume may name another file), else where the job was started for.
+    const archiveTarget = options.result?.path ?? manifest.outputPath;
+    const target = archiveTarget === '-' ? `${summary.outputPath}.zip` : `${archiveTarget}.partial`;
+    const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
+    await writeGeoreferencedArchive({ archivePath: manifest.archivePath, corePath: summary.outputPath, target, jobsPath, jobId: summary.jobId });
+    if (archiveTarget === '-') {
+      await pipeline(createReadStream(target), options.stdout ?? process.stdout, { end: false });
+      rmSync(target, { force: true });
+    } else renameSync(target, archiveTarget);
+  }
   const result = options.result as BatchResult | undefined;
-  if (!result) return finished;
-  await writeResults({ format: result.format, csvPath: finished.outputPath, delimiter: finished.delimiter, output: result.path, runTimestamp: finished.runTimestamp, stdout: options.stdout as Writable | undefined });
-  return { ...finished, outputPath: result.path, format: result.format };
+  if (result) await writeResults({ format: result.format, csvPath: summary.outputPath, delimiter: summary.delimiter, output: result.path, runTimestamp: summary.runTimestamp, stdout: options.stdout as Writable | undefined });
+}
+
+/**
+ * Once the job is done: the files kept to make its output removed (the CSV a GIS file or an archive was
+ * made from, an archive's core table and manifest; with `coreOnly` the core table stays for the caller),
+ * and a summary naming the file made.
+ */
+async function finishResult(summary: BatchSummary, options: ArchiveJobOptions): Promise<ArchiveSummary> {
+  const manifest = manifestOf(summary.outputPath);
+  const result = options.result as BatchResult | undefined;
+  if ((manifest && !options.coreOnly) || (result && result.format !== 'csv')) rmSync(summary.outputPath, { force: true });
+  let finished: ArchiveSummary = summary;
+  if (manifest) {
+    rmSync(manifest.tablePath, { force: true });
+    rmSync(manifestPathOf(summary.outputPath), { force: true });
+    finished = { ...summary, outputPath: options.coreOnly ? summary.outputPath : (result?.path ?? manifest.outputPath), archiveCore: await coreOf(manifest.archivePath) };
+  }
+  return result ? { ...finished, outputPath: result.path, format: result.format } : finished;
+}
+
+/**
+ * Where a job over an archive's core keeps its manifest: beside the job's CSV.
+ * @example manifestPathOf('/data/out.zip.3f9c2a71e0b4d6c8.core.txt') // '/data/out.zip.3f9c2a71e0b4d6c8.core.txt.archive.json'
+ */
+function manifestPathOf(csvPath: string): string {
+  return `${csvPath}.archive.json`;
+}
+
+/** The manifest of a job over an archive's core; undefined for a job over a plain file. */
+function manifestOf(csvPath: string): ArchiveManifest | undefined {
+  const path = manifestPathOf(csvPath);
+  return csvPath !== '-' && existsSync(path) ? (JSON.parse(readFileSync(path, 'utf8')) as ArchiveManifest) : undefined;
 }
 
 async function sha256(path: string): Promise<string> {
@@ -201,34 +246,6 @@ async function readMeta(zip: ZipReader, name: string): Promise<{ meta: MetaArchi
   const metaEntry = metafileEntry(zip);
   if (!metaEntry) throw new NotAnArchive(`${name} has no meta.xml, so it is not a Darwin Core Archive`);
   return { meta: parseMetaXml((await zip.read(metaEntry)).toString('utf8').replace(/^\uFEFF/, '')), metaDir: metaEntry.slice(0, -'meta.xml'.length) };
-}
-
-/**
- * After a job over an archive's core: the new archive, from the finished core table and the original
- * archive (or, with `coreOnly`, the core table left for the caller); a summary naming it. A job over a
- * plain file is passed through unchanged.
- */
-async function finishArchive(summary: BatchSummary, options: ArchiveJobOptions): Promise<ArchiveSummary> {
-  const manifestPath = `${summary.outputPath}.archive.json`;
-  if (summary.outputPath === '-' || !existsSync(manifestPath)) return summary;
-  const manifest = JSON.parse(readFileSync(manifestPath, 'utf8')) as ArchiveManifest;
-  const jobsPath = options.jobsDbPath ?? jobsDatabasePath(options.dbPath);
-  let archiveCore: ArchiveSummary['archiveCore'];
-  if (options.coreOnly) archiveCore = await coreOf(manifest.archivePath);
-  else {
-    // The archive goes where the run asked (a resume may name another file), else where the job was started for.
-    const archiveTarget = options.result?.path ?? manifest.outputPath;
-    const target = archiveTarget === '-' ? `${summary.outputPath}.zip` : `${archiveTarget}.partial`;
-    archiveCore = await writeGeoreferencedArchive({ archivePath: manifest.archivePath, corePath: summary.outputPath, target, jobsPath, jobId: summary.jobId });
-    if (archiveTarget === '-') {
-      await pipeline(createReadStream(target), options.stdout ?? process.stdout, { end: false });
-      rmSync(target, { force: true });
-    } else renameSync(target, archiveTarget);
-    rmSync(summary.outputPath, { force: true });
-  }
-  rmSync(manifest.tablePath, { force: true });
-  rmSync(manifestPath, { force: true });
-  return { ...summary, outputPath: options.coreOnly ? summary.outputPath : (options.result?.path ?? manifest.outputPath), archiveCore };
 }
 
 /** The core's path inside the archive and its encoding as meta.xml gives it. */
