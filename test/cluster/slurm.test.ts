@@ -181,6 +181,10 @@ describe.skipIf(missing.length > 0)('a batch over a single-node Slurm cluster', 
     await waitFor('task 0 to end', 60, () => (/JobState=(RUNNING|COMPLETING)/.test(run('scontrol', ['show', 'job', task0], env)) ? undefined : true));
     expect(partJob(jobsOfPart0)?.state).not.toBe('done');
     run('scontrol', ['requeue', task0], env);
+    // slurmd refuses a credential issued in the same second as the one it revoked when the task was killed
+    // ("Job credential revoked": the task then fails without running); Slurm's own begin time after a
+    // requeue avoids that, and bringing the start forward must wait out that second too.
+    await sleep(2000);
     spawnSync('scontrol', ['update', `JobId=${task0}`, 'StartTime=now'], { env });
 
     // A requeued task passes through states squeue does not list, and right after the requeue Slurm may still
