@@ -4,7 +4,7 @@
  */
 import type { MultiPolygon, Polygon, Position } from 'geojson';
 import { largest, smallest } from './extremes.ts';
-import { polygonAreaSquareMeters } from './geodesic.ts';
+import { geometryAreaSquareMeters } from './geodesic.ts';
 
 /**
  * WKT of polygons whose longitudes may run past ±180 (rings unwrapped around a center): each polygon is
@@ -94,6 +94,5 @@ export interface FootprintSummary {
 export function footprintSummary(geometry: Polygon | MultiPolygon): FootprintSummary {
   const polygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
   const vertices = polygons.flat().reduce((n, ring) => n + Math.max(ring.length - 1, 0), 0);
-  const areaSquareMeters = polygons.reduce((sum, rings) => sum + polygonAreaSquareMeters(rings), 0);
-  return { type: geometry.type, parts: polygons.length, vertices, areaSquareMeters };
+  return { type: geometry.type, parts: polygons.length, vertices, areaSquareMeters: geometryAreaSquareMeters(geometry) };
 }

@@ -37,7 +37,7 @@ export interface GeoreferenceInput {
 
 export type GeoreferenceOutcome = { ok: true; georeference: Georeference } | { ok: false; reason: string };
 
-type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard' | 'unitlessDistanceUnits'>> &
+type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard' | 'unitlessDistanceUnits' | 'roadNumberFromPlace'>> &
   MethodOptions;
 
 /** What a type's rule yields before the shared terms, footprint and remarks are added. */
@@ -71,7 +71,7 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
   const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
   try {
     checkSettings(settings);
-    const read = withUnitlessDistances(fromRoadStart(input, settings.roadNumberFromPlace ?? METHOD_DEFAULTS.roadNumberFromPlace), settings.unitlessDistanceUnits);
+    const read = withUnitlessDistances(fromRoadStart(input, settings.roadNumberFromPlace), settings.unitlessDistanceUnits);
     const placement = place(read, settings);
     return { ok: true, georeference: finish(read, placement, settings) };
   } catch (error) {

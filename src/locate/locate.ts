@@ -27,7 +27,7 @@ import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
-import { shortFormKey, unitLookupNames } from '../match/context.ts';
+import { foundByUnitNames, shortFormKey } from '../match/context.ts';
 import { routeJudgement } from './route.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
@@ -686,7 +686,7 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
     const named = (written: string) => finder
       .findCandidates({ name: written, context, featureTypes: [level.featureType], withGeometry: true })
       .filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore);
-    const exact = unitLookupNames(name).map(named).find((found) => found.length > 0) ?? [];
+    const exact = foundByUnitNames(name, named);
     if (exact.length === 1) return exact[0].feature;
   }
   return undefined;

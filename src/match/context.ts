@@ -93,6 +93,19 @@ export function unitLookupNames(written: string): string[] {
 }
 
 /**
+ * What `find` gives for the first of the unit's lookup names (unitLookupNames) that finds anything: the
+ * next name is asked only when the one before found nothing.
+ * @example foundByUnitNames('Pierce Co.', (name) => store.findCandidates({ name, featureTypes: ['county'] })) // Pierce County, found as "pierce"
+ */
+export function foundByUnitNames<T>(written: string, find: (name: string) => T[]): T[] {
+  for (const name of unitLookupNames(written)) {
+    const found = find(name);
+    if (found.length > 0) return found;
+  }
+  return [];
+}
+
+/**
  * The short form of a unit's official long name, "X de <honoree>" ("Veracruz de Ignacio de la Llave",
  * "Michoacán de Ocampo", "Comitán de Domínguez"): the folded words before the first "de"; the whole key
  * when there is none. Only "de": "Mato Grosso do Sul" and "Santiago del Estero" are names of their own.

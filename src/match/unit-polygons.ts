@@ -5,13 +5,13 @@
  * lies in the unit: a road that leaves the county is still the county's road. A polygon (a county tested
  * against its state) is kept when most of its area lies in the unit. Pure: the units come from the caller.
  */
-import type { MultiPolygon, Polygon, Position } from 'geojson';
+import type { MultiPolygon, Polygon } from 'geojson';
 import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
-import { featureCollection, multiPolygon as turfMultiPolygon } from '@turf/helpers';
+import { feature as turfFeature, featureCollection } from '@turf/helpers';
 import { intersect } from '@turf/intersect';
 import { lineIntersect } from '@turf/line-intersect';
-import { polygonAreaSquareMeters } from '../geodesy/geodesic.ts';
-import { unitLookupNames, type ResolvedContext, type SpatiallyDecided } from './context.ts';
+import { geometryAreaSquareMeters } from '../geodesy/geodesic.ts';
+import { foundByUnitNames, type ResolvedContext, type SpatiallyDecided } from './context.ts';
 import type { Candidate, CandidateQuery, Feature } from './types.ts';
 
 /** Administrative levels from the smallest up, for the spatial test. */
@@ -53,7 +53,7 @@ export function unitPolygonFilter(
       .filter((feature) => feature.featureType === level
         && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
         && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode)));
-    const units = unitLookupNames(written).map(unitsNamed).find((found) => found.length > 0) ?? [];
+    const units = foundByUnitNames(written, unitsNamed);
     if (units.length === 0) continue;
     for (const unit of units) attachGeometry(unit);
     decided[level] = true;
@@ -79,12 +79,12 @@ export function unitPolygonFilter(
   };
 }
 
-/** A polygon feature's polygons (MultiPolygon coordinates), or undefined for points and lines. */
-function areaOf(feature: Feature, attachGeometry: (feature: Feature) => void): Position[][][] | undefined {
+/** A polygon feature's geometry, or undefined for points and lines. */
+function areaOf(feature: Feature, attachGeometry: (feature: Feature) => void): Polygon | MultiPolygon | undefined {
   if (feature.geometryType !== 'Polygon' && feature.geometryType !== 'MultiPolygon') return undefined;
   attachGeometry(feature);
   const geometry = feature.geometry;
-  return geometry?.type === 'Polygon' ? [geometry.coordinates] : geometry?.type === 'MultiPolygon' ? geometry.coordinates : undefined;
+  return geometry?.type === 'Polygon' || geometry?.type === 'MultiPolygon' ? geometry : undefined;
 }
 
 /**
@@ -97,16 +97,12 @@ function areaOf(feature: Feature, attachGeometry: (feature: Feature) => void): P
  * the difference is a sliver, far from deciding a share of one half.
  * @example mostlyInside(shoshoneCounty, [idaho]) // true
  */
-function mostlyInside(polygons: Position[][][], units: Feature[]): boolean {
-  const whole = polygons.reduce((sum, rings) => sum + polygonAreaSquareMeters(rings), 0);
+function mostlyInside(area: Polygon | MultiPolygon, units: Feature[]): boolean {
+  const whole = geometryAreaSquareMeters(area);
   if (whole === 0) return false;
   return units.some((unit) => {
-    const geometry = unit.geometry as Polygon | MultiPolygon;
-    const unitPolygons = geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates;
-    const shared = intersect(featureCollection([turfMultiPolygon(polygons), turfMultiPolygon(unitPolygons)]));
-    if (!shared) return false;
-    const pieces = shared.geometry.type === 'Polygon' ? [shared.geometry.coordinates] : shared.geometry.coordinates;
-    return pieces.reduce((sum, rings) => sum + polygonAreaSquareMeters(rings), 0) > whole / 2;
+    const shared = intersect(featureCollection([turfFeature(area), turfFeature(unit.geometry as Polygon | MultiPolygon)]));
+    return shared !== null && geometryAreaSquareMeters(shared.geometry) > whole / 2;
   });
 }
 

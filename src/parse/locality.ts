@@ -110,10 +110,10 @@ function readDistanceAt(s: Source, i: number, unitless = false): { distance: Wri
   const unitToken = s.tokens[measured];
   let unit: DistanceUnit | undefined = unitToken?.kind === 'word' ? UNIT_WORDS.get(unitToken.norm) : undefined;
   let next = measured + 1;
-  const roadUnitless = !unit && unitless && !ordinalAt(s.tokens, i) ? roadFromPlaceAt(s, number.next) : -1;
-  if (!unit && unitless && !ordinalAt(s.tokens, i) && (roadUnitless > 0 || readHeading(s, number.next))) {
-    const distance = distanceOf(s, i, number.next, number, 'mi', true);
-    return roadUnitless > 0 ? alongRoadFrom(s, distance, number.next, roadUnitless) : { distance, next: number.next };
+  if (!unit && unitless && !ordinalAt(s.tokens, i)) {
+    const road = roadFromPlaceAt(s, number.next);
+    if (road > 0) return alongRoadFrom(s, distanceOf(s, i, number.next, number, 'mi', true), number.next, road);
+    if (readHeading(s, number.next)) return { distance: distanceOf(s, i, number.next, number, 'mi', true), next: number.next };
   }
   // "nautical miles", "millas náuticas", "milhas náuticas", "milles marins"
   if (unitToken?.norm === 'nautical' && UNIT_WORDS.get(norm(s, next) ?? '') === 'mi') {
