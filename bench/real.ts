@@ -9,7 +9,7 @@
 import { machineLoad } from './machine-load.ts';
 import { groupRates, loadRealRecords, measureSet, openRealGazetteer, ratesOf, REAL_SETS, type Rates, type RecordOutcome } from '../test/real/harness.ts';
 
-/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS, BENCH_REAL_SHORT_FORMS, BENCH_REAL_BARE_SEAT_METERS, BENCH_REAL_COUNTRY_EXONYM_TOWN, BENCH_REAL_PROTECTED_AREA_TOWN, BENCH_REAL_STATED_UNITS, BENCH_REAL_UNIT_EDGE, BENCH_REAL_ROAD_NUMBER, BENCH_REAL_STATION_TOWN and BENCH_REAL_COUNTY_SPELLINGS override the [CHOICE]s, to measure them. */
+/** BENCH_REAL_UNUSED_METERS, BENCH_REAL_UNUSED_RULE, BENCH_REAL_KIND_RULE, BENCH_REAL_NAMESAKES_METERS, BENCH_REAL_JUST_OUTSIDE_METERS, BENCH_REAL_FIRST_WORDS, BENCH_REAL_OLDER_SPELLINGS, BENCH_REAL_SHORT_FORMS, BENCH_REAL_BARE_SEAT_METERS, BENCH_REAL_COUNTRY_EXONYM_TOWN, BENCH_REAL_PROTECTED_AREA_TOWN, BENCH_REAL_STATED_UNITS, BENCH_REAL_UNIT_EDGE, BENCH_REAL_ROAD_NUMBER, BENCH_REAL_STATION_TOWN, BENCH_REAL_COUNTY_SPELLINGS, BENCH_REAL_WORD_NAMED_TOWN and BENCH_REAL_TYPED_UP_TO override the [CHOICE]s, to measure them. */
 const unusedFeatureMeters = process.env.BENCH_REAL_UNUSED_METERS ? Number(process.env.BENCH_REAL_UNUSED_METERS) : undefined;
 const unusedFeatureRule = process.env.BENCH_REAL_UNUSED_RULE as 'widen' | 'decline' | undefined;
 const settlementNamedLikeFeature = process.env.BENCH_REAL_KIND_RULE as 'settlement' | 'decline' | undefined;
@@ -26,6 +26,8 @@ const unitEdgeByPlaces = process.env.BENCH_REAL_UNIT_EDGE as 'nearest place' | '
 const roadNumberFromPlace = process.env.BENCH_REAL_ROAD_NUMBER as 'from the place' | 'decline' | undefined;
 const stationTown = process.env.BENCH_REAL_STATION_TOWN as 'town' | 'decline' | undefined;
 const countyNearSpellings = process.env.BENCH_REAL_COUNTY_SPELLINGS as 'on' | 'off' | undefined;
+const wordNamedTown = process.env.BENCH_REAL_WORD_NAMED_TOWN as 'town' | 'word' | undefined;
+const typedUpTo = process.env.BENCH_REAL_TYPED_UP_TO as 'até' | 'as written' | undefined;
 
 /** The rates of a group and the median radius of its answers: what a wider circle costs. */
 type RatesAndRadius = Rates & { medianRadiusMeters: number | null };
@@ -65,7 +67,7 @@ const everyOutcome: RecordOutcome[] = [];
 for (const [index, set] of REAL_SETS.entries()) {
   const records = loadRealRecords(set);
   const store = await openRealGazetteer(set);
-  const { outcomes, seconds } = measureSet(store, records, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, honoreeShortForms, bareNameSeatMeters, countryExonymTown, protectedAreaTown, statedUnitReadings, unitEdgeByPlaces, roadNumberFromPlace, stationTown, countyNearSpellings });
+  const { outcomes, seconds } = measureSet(store, records, { unusedFeatureMeters, unusedFeatureRule, settlementNamedLikeFeature, namesakesWithinMeters, justOutsideMeters, nameAsFirstWords, olderSpellings, honoreeShortForms, bareNameSeatMeters, countryExonymTown, protectedAreaTown, statedUnitReadings, unitEdgeByPlaces, roadNumberFromPlace, stationTown, countyNearSpellings, wordNamedTown, typedUpTo });
   store.close();
   report(`set ${index + 1}, ${set.name}: ${records.length} records, ${(records.length / seconds).toFixed(0)} records/s`, outcomes, false);
   everyOutcome.push(...outcomes);

@@ -37,7 +37,7 @@ export interface GeoreferenceInput {
 
 export type GeoreferenceOutcome = { ok: true; georeference: Georeference } | { ok: false; reason: string };
 
-type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard' | 'unitlessDistanceUnits' | 'roadNumberFromPlace'>> &
+type Settings = Required<Pick<MethodOptions, 'unknownDatumMeters' | 'nearMinimumMeters' | 'junctionExtentMeters' | 'footprintSegments' | 'mapStandard' | 'unitlessDistanceUnits' | 'roadNumberFromPlace' | 'typedUpTo'>> &
   MethodOptions;
 
 /** What a type's rule yields before the shared terms, footprint and remarks are added. */
@@ -71,7 +71,7 @@ export function georeference(input: GeoreferenceInput): GeoreferenceOutcome {
   const settings: Settings = { ...METHOD_DEFAULTS, ...definedOptions(input.options) };
   try {
     checkSettings(settings);
-    const read = withUnitlessDistances(fromRoadStart(input, settings.roadNumberFromPlace), settings.unitlessDistanceUnits);
+    const read = withUnitlessDistances(fromRoadStart(withUpToSlip(input, settings.typedUpTo), settings.roadNumberFromPlace), settings.unitlessDistanceUnits);
     const placement = place(read, settings);
     return { ok: true, georeference: finish(read, placement, settings) };
   } catch (error) {
@@ -115,6 +115,22 @@ function fromRoadStart(input: GeoreferenceInput, rule: 'from the place' | 'decli
   const written = `"${offset.distance!.written}" before "${offset.path?.written ?? ''} ${interpretation.features[0] ?? ''}"`;
   if (rule === 'decline') refuse(`${written}: the road's count may begin elsewhere than the place named, so no georeference is given [CHOICE roadNumberFromPlace, src/georef/method-defaults.ts]`);
   const remark = `${written}: read as the distance along that road from ${interpretation.features[0] ?? 'the place'}, where the road's count is said to begin (a kilometre post with "km" left out) [CHOICE roadNumberFromPlace, src/georef/method-defaults.ts]`;
+  return { ...input, interpretation: { ...interpretation, notes: [...interpretation.notes, remark] } };
+}
+
+/**
+ * "ato" read as "até" where "até" is read ("13.5 da estrada de X ato Y": the way's direction, not used for the
+ * point), with a remark; refused with 'as written', as the place's name would then run on into it
+ * (METHOD_DEFAULTS.typedUpTo [CHOICE]).
+ * @example "12 km de X ato Y" → the remark '"ato" before "Y" read as "até" (towards), a common typing slip …'
+ */
+function withUpToSlip(input: GeoreferenceInput, rule: 'até' | 'as written'): GeoreferenceInput {
+  const { interpretation } = input;
+  const offset = interpretation.offsets.find((o) => o.upToSlip);
+  if (!offset) return input;
+  const written = `"${offset.upToSlip}" before "${offset.toward ?? ''}"`;
+  if (rule === 'as written') refuse(`${written} is not read as "até": the place's name runs on into it, and no such place is loaded [CHOICE typedUpTo, src/georef/method-defaults.ts]`);
+  const remark = `${written} read as "até" (towards), a common typing slip, where "até" would be read: the direction of travel, not used for the point [CHOICE typedUpTo, src/georef/method-defaults.ts]`;
   return { ...input, interpretation: { ...interpretation, notes: [...interpretation.notes, remark] } };
 }
 

@@ -257,4 +257,21 @@ export const METHOD_DEFAULTS = {
    * measured on the real-record sets (docs/real-records.md).
    */
   countyNearSpellings: 'on' as 'on' | 'off',
+  /**
+   * A text of one to four capitalised words whose words name no place as read ("Country Homes", "Town and Country"
+   * read as a country's name, "Woodland" as a habitat, "Forks" as a junction, "Summit" as a word qualifying
+   * nothing) [CHOICE]: 'town' reads the whole text as one place's name when the gazetteer holds a settlement of
+   * that very name (as written, no other reading, no near spelling) in the record's stated country and state, and
+   * georeferences it as any named place; 'word' keeps the reading of its words. A word inside a longer text
+   * never matches a town of that word alone ("summit of the ridge", "Forks of the Alisos": no town "Summit", "Forks"). Our choice, no source; measured on the
+   * real-record sets and the towns of Washington and Idaho (docs/real-records.md).
+   */
+  wordNamedTown: 'town' as 'town' | 'word',
+  /**
+   * "ato" between an offset's place and the place the road leads to ("13.5 da estrada de X ato Y") [CHOICE]:
+   * 'até' reads it as the Portuguese "até" (up to, towards), a common typing slip, exactly where "até" is read:
+   * the direction of travel, not used for the point; 'as written' declines such a text (the place's name would
+   * run on into "ato"). Common practice, no source; measured on the real-record sets (docs/real-records.md).
+   */
+  typedUpTo: 'até' as 'até' | 'as written',
 } as const satisfies Record<string, number | string>;

@@ -80,6 +80,10 @@ export interface MethodOptions {
   stationTown?: 'town' | 'decline';
   /** A clause that is a near spelling of the record's own county ("Hitamalco" for Hueytamalco), read as the county: 'on' (default) or 'off' ([CHOICE]). */
   countyNearSpellings?: 'on' | 'off';
+  /** A text of a few capitalised words whose words name no place ("Forks", "Country Homes"), read whole as a settlement of that name loaded in the record's stated units ('town', default) or by its words ('word') ([CHOICE]). */
+  wordNamedTown?: 'town' | 'word';
+  /** "ato" where "até" is read ("13.5 da estrada de X ato Y"), read as "até" ('até', default) or only as written ('as written') ([CHOICE]). */
+  typedUpTo?: 'até' | 'as written';
   /** A county or municipality named alone with no polygon loaded: its seat town, widened by this much; 0 declines ([CHOICE]). */
   unitSeatMeters?: number;
   /** A lone name found farther than this from the town of the record's county is left for review; 0 turns it off ([CHOICE]). */

@@ -17,7 +17,7 @@ import { readDatumOption } from '../geodesy/datum-option.ts';
 import type { PlausibilityFlag } from '../georef/plausibility.ts';
 import { checkPlausibility } from '../georef/plausibility-check.ts';
 import { METHOD_DEFAULTS } from '../georef/method-defaults.ts';
-import { checkOtherClauses, conflictWith, readingOf, unusedPlaces } from './other-clauses.ts';
+import { checkOtherClauses, conflictWith, readingOf, unusedPlaces, type OtherClauseCheck } from './other-clauses.ts';
 import { countyAsSpelled, findUnit, headAsState, pastUnitHeads, readStatedState, seatNames, standInsNamed, unitArea, unitNamed } from './administrative-unit.ts';
 import { justOutside } from './just-outside.ts';
 import { farFromCountySeat } from './county-reach.ts';
@@ -29,6 +29,7 @@ import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
 import { foundByUnitNames, shortFormKey } from '../match/context.ts';
 import { routeJudgement } from './route.ts';
+import { wholeNameRead } from './whole-name.ts';
 
 /** One record to georeference: its locality text and the administrative fields the record carries. */
 export interface LocateRequest extends AdministrativeContext {
@@ -136,7 +137,9 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
     statedUnitReadings: options.statedUnitReadings ?? METHOD_DEFAULTS.statedUnitReadings,
     formerUnitNames: options.formerUnitNames ?? METHOD_DEFAULTS.formerUnitNames,
   });
-  const interpretation = countyAsSpelled(note ? { ...headless, notes: [...headless.notes, note] } : headless, context, options.countyNearSpellings ?? METHOD_DEFAULTS.countyNearSpellings);
+  const spelled = countyAsSpelled(note ? { ...headless, notes: [...headless.notes, note] } : headless, context, options.countyNearSpellings ?? METHOD_DEFAULTS.countyNearSpellings);
+  // A text whose words name no place may be, whole, a town's name ("Forks", "Country Homes") [CHOICE wordNamedTown].
+  const interpretation = wholeNameRead(finder, spelled, context, options);
   if (edits.chosenFeatures?.length && interpretation.features.length === 0) {
     throw new EditRefused({ kind: 'names-no-place', namesInText: 0 });
   }
@@ -146,6 +149,10 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   }
   const chainEnd = interpretation.type === 'no-locality' ? hierarchyEndSeat(finder, interpretation, context, options) : null;
   if (chainEnd) return chainEnd;
+  if (interpretation.type === 'unparseable' && interpretation.kilometrePost && interpretation.clauses.every((c) => c.kind !== 'coordinates')) {
+    // "km 23": a person who knows the road can place it; the text alone cannot.
+    return { status: 'not-found', interpretation, candidates: [], reason: `${interpretation.reason ?? `road kilometre post ("${interpretation.kilometrePost}")`}: left for a person who knows the road to georeference` };
+  }
   if (interpretation.type === 'no-locality' || interpretation.type === 'unparseable') {
     return { status: 'unparseable', interpretation, candidates: [], reason: interpretation.reason ?? 'the text could not be read' };
   }
@@ -220,7 +227,7 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const far = lone && farFromCountySeat(finder, lone, context, FUZZY_ACCEPTANCE.readingScore, options.countyReachMeters ?? METHOD_DEFAULTS.countyReachMeters);
   if (far) return { status: 'ambiguous', interpretation: used, candidates, reason: far };
 
-  const others = checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore);
+  const others = withRoadOfPost(checkOtherClauses(finder, used.otherClauses, context, FUZZY_ACCEPTANCE.readingScore), used);
   const withinUnit = readings.length === 1 && readings[0]!.length === 1 ? unitArea(readings[0]![0]!) : undefined;
   const unused = unusedPlaces(others, fallbackFrom, {
     rule: options.unusedFeatureRule ?? METHOD_DEFAULTS.unusedFeatureRule,
@@ -244,6 +251,19 @@ function locateOne(finder: CandidateFinder, request: LocateRequest): LocateResul
   const conflict = conflictWith(georef, others.found);
   if (conflict) return { status: 'unparseable', interpretation: used, candidates, reason: conflict };
   return georeferenced({ ...georef, remarks: [...matchRemarks, ...georef.remarks] }, used, candidates);
+}
+
+/**
+ * The other clauses' check with the road of a kilometre post written beside the place used ("Manaus, km 23") among
+ * the places named but not loaded: the specimen lies on that road, whose origin no clause gives, so the answer is
+ * widened or declined as for any such place, never the town's own circle alone.
+ * @example withRoadOfPost({ missing: [], found: [] }, parseLocality('Manaus, km 23')).missing // [{ clause: 1, name: 'the road of km 23' }]
+ */
+function withRoadOfPost(check: OtherClauseCheck, used: Interpretation): OtherClauseCheck {
+  const post = used.kilometrePost;
+  if (!post || used.type === 'coordinates') return check;
+  const clause = used.clauses.findIndex((c) => c.text.includes(post));
+  return { ...check, missing: [...check.missing, { clause, name: `the road of ${post}` }] };
 }
 
 /**

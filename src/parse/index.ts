@@ -246,7 +246,31 @@ function interpret(text: string): Interpretation {
 
   joinBareClauses(text, pieces, result.notes);
   if (found) result.coordinates = found.coordinates;
-  return choose(pieces, result, chainLevel);
+  const chosen = choose(pieces, result, chainLevel);
+  const whole = found ? undefined : wholeTextName(text, tokens, chosen);
+  return whole ? { ...chosen, wholeName: whole } : chosen;
+}
+
+/** The most words a text read whole as a place's name may hold ("Town and Country"). */
+const MAX_WHOLE_NAME_WORDS = 4;
+
+/**
+ * The whole text as a place's name, beside a reading of its words that names no place ("Country Homes" read as a
+ * country, "Woodland" as a habitat, "Forks" as a junction, "Summit" as a word qualifying nothing): a common word
+ * or phrase a town may bear. Offered only when the text is one to four words, each capitalised (two letters or more)
+ * or a small joining word, with no number and no mark but a period; the locate step takes it only where the gazetteer holds a settlement of that very name in
+ * the record's stated country and state [CHOICE wordNamedTown]. Undefined when the words already read as this one
+ * name, or as anything else than no place ("summit of the ridge" is lower-case: a description, never a name).
+ * @example wholeTextName('Forks', tokenize('Forks'), parseLocality('Forks')) // 'Forks'
+ */
+function wholeTextName(text: string, tokens: Token[], reading: Interpretation): string | undefined {
+  const { type, unit } = reading;
+  if (!(type === 'unparseable' || type === 'no-locality' || (type === 'administrative-unit' && unit?.level === 'country'))) return undefined;
+  const words = tokens.filter((t) => t.kind !== 'symbol');
+  if (words.length === 0 || words.length > MAX_WHOLE_NAME_WORDS || isRefusal(tokens, 0, tokens.length) || tokens.some((t) => t.kind === 'symbol' && t.text !== '.')) return undefined;
+  // A capital letter alone ("N", "N N N") is a heading's, never a name's word.
+  if (!words.every((t, k) => t.kind === 'word' && ((/^\p{Lu}/u.test(t.text) && t.text.length > 1) || (k > 0 && k < words.length - 1 && L.SMALL_WORDS.has(t.norm))))) return undefined;
+  return text.slice(words[0]!.start, words[words.length - 1]!.end);
 }
 
 /** A place's name read alone, not bare, for the clause split. */
@@ -508,6 +532,9 @@ function choose(pieces: Piece[], result: Interpretation, chainLevel: number): In
   if (refusal && bestRank > 0) {
     return { ...result, type: 'no-locality', reason: `the text says "${refusal.clause.text}"` };
   }
+  // A kilometre post beside no route a clause reads ("Manaus, km 23"; "km 23" alone): a route carries its own.
+  const post = pieces.find((p, k) => k !== best && p.reading?.kilometrePost)?.reading!.kilometrePost;
+  if (post && !pieces.some((p) => p.reading?.route)) result.kilometrePost = post;
   if (best < 0) {
     const unreadable = pieces.find((p) => p.reading?.type === 'unparseable');
     if (unreadable) return { ...result, type: 'unparseable', reason: unreadable.reading!.reason ?? 'clause could not be read' };

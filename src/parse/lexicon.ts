@@ -42,6 +42,8 @@ export const NAME_GENITIVES = set('do da dos das du des del');
 
 /** "Up to" after an offset's place ("12 km de X até Y", "12 del camino de X hasta Y"): Y is where the way goes, as with TOWARD_PHRASES, but never reverses a bearing. */
 export const UP_TO_WORDS = phrases('ate | hasta');
+/** A typing slip for "até" ("X ato Y"), read only where "até" is read: between an offset's place and the place the way leads to [CHOICE typedUpTo]. */
+export const UP_TO_SLIPS = phrases('ato');
 
 /** Words that introduce the feature a bearing points toward (the heading is reversed, docs/method.md §3). */
 export const TOWARD_PHRASES = phrases('toward | towards | to | hacia | vers | rumo a | rumo ao | em direcao a | em direcao ao | en direccion a | en direction de');

@@ -535,10 +535,13 @@ function readOffsets(s: Source, i: number, approximate: boolean, unitless = fals
   const kindBefore = s.featureKind;
   if (!toward) {
     for (let k = j + 1; k < tail.end - 1; k++) {
-      const length = matchPhrase(s, k, L.TOWARD_PHRASES) || matchPhrase(s, k, L.UP_TO_WORDS);
+      // A slip is written in lower case, as "até" is: "Santo Ato" is a name.
+      const slip = /^\p{Ll}/u.test(s.tokens[k]!.text) ? matchPhrase(s, k, L.UP_TO_SLIPS) : 0;
+      const length = matchPhrase(s, k, L.TOWARD_PHRASES) || matchPhrase(s, k, L.UP_TO_WORDS) || slip;
       const aim = length ? placeAt(s, k + length, tail.end) : null;
       if (aim) {
         offset.toward = aim;
+        if (slip) offset.upToSlip = s.tokens[k]!.text;
         notes.push(`"${s.text.slice(s.tokens[k]!.start, s.tokens[tail.end - 1]!.end)}" read as the direction of travel: not used for the point until ${aim} is matched`);
         placeEndAt = k;
         break;

@@ -86,6 +86,11 @@ export interface Offset {
    * matched, so the offset is read as distance-only from X and Y is kept here (not used for the point).
    */
   toward?: string;
+  /**
+   * The word before `toward` when the text wrote a slip for "até" there ("ato"): read as "até"
+   * (METHOD_DEFAULTS.typedUpTo, a [CHOICE] in src/georef/method-defaults.ts).
+   */
+  upToSlip?: string;
 }
 
 /** Coordinates written in the text or in verbatim coordinate fields, before any datum shift. */
@@ -213,6 +218,19 @@ export interface Interpretation {
    * other name of the same place): the locate step tries it only when the first name is not found.
    */
   secondName?: string;
+  /**
+   * The whole text read as one place's name, beside a reading of its words that names no place ("Country Homes",
+   * "Town and Country", "Woodland", "Forks", "Summit": common words a town may bear): the locate step takes it only
+   * where the gazetteer holds a settlement of that very name in the record's stated country and state
+   * (METHOD_DEFAULTS.wordNamedTown, a [CHOICE] in src/georef/method-defaults.ts).
+   */
+  wholeName?: string;
+  /**
+   * A road kilometre post written in a clause of its own ("km 23", "km 12 of the road") and not beside a route
+   * read from the text: its distance runs from the road's own origin, which no clause gives. Alone, the text asks
+   * a person for a georeference; beside a place, the road is a place named but not loaded.
+   */
+  kilometrePost?: string;
   /** The other locality clauses, each read on its own, most specific first; [] when there are none. */
   otherClauses: ClauseReading[];
   elevation?: { minimumMeters: number; maximumMeters: number; written: string };

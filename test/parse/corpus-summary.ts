@@ -7,9 +7,11 @@ export interface CorpusEntry {
    * Hand-written reading: the locality type ("refused" for no-locality or unparseable), features, heading, the
    * line a path offset follows, what the feature is when the text says so ("summit of X": a mountain), a
    * second name of it written in brackets ("X (Y)", "X (formerly Y)"), and the two ends of each way a name may
-   * be read as a route ("X to Y"; [] when it offers none).
+   * be read as a route ("X to Y"; [] when it offers none), the whole text offered as one place's name beside a
+   * reading of its words that names none ("Forks"), a kilometre post with no road start ("km 23"), and the slip
+   * read as "até" ("X ato Y").
    */
-  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; secondName?: string; routeEnds?: string[][] };
+  intent: { type: string; features: string[]; azimuth?: number; lineName?: string; featureKind?: string; secondName?: string; routeEnds?: string[][]; wholeName?: string; kilometrePost?: string; upToSlip?: string };
 }
 
 const round = (x: number | undefined, digits = 7): number | undefined => (x === undefined ? undefined : Number(x.toFixed(digits)));
@@ -31,6 +33,7 @@ function summarizeOffset(o: Offset): Record<string, unknown> {
     path: o.path,
     byAir: o.byAir,
     toward: o.toward,
+    upToSlip: o.upToSlip,
   };
 }
 
@@ -46,6 +49,8 @@ export function summarize(r: Interpretation): Record<string, unknown> {
       featureKind: r.featureKind,
       route: r.route,
       secondName: r.secondName,
+      wholeName: r.wholeName,
+      kilometrePost: r.kilometrePost,
       unit: r.unit,
       otherClauses: r.otherClauses.length > 0 ? r.otherClauses.map((c) => ({ ...c, offsets: c.offsets.map(summarizeOffset) })) : undefined,
       coordinates: r.coordinates && {
@@ -66,6 +71,9 @@ export function summarize(r: Interpretation): Record<string, unknown> {
 /** Differences between an interpretation and the hand-written intent (empty when they agree). */
 export function intentMismatches(entry: CorpusEntry, r: Interpretation): string[] {
   const problems: string[] = [];
+  if (entry.intent.wholeName !== undefined && r.wholeName !== entry.intent.wholeName) problems.push(`whole name ${r.wholeName}, expected ${entry.intent.wholeName}`);
+  if (entry.intent.kilometrePost !== undefined && r.kilometrePost !== entry.intent.kilometrePost) problems.push(`kilometre post ${r.kilometrePost}, expected ${entry.intent.kilometrePost}`);
+  if (entry.intent.upToSlip !== undefined && r.offsets[0]?.upToSlip !== entry.intent.upToSlip) problems.push(`slip for "até" ${r.offsets[0]?.upToSlip}, expected ${entry.intent.upToSlip}`);
   const refused = r.type === 'no-locality' || r.type === 'unparseable';
   if (entry.intent.type === 'refused') {
     if (!refused) problems.push(`expected a refusal, got ${r.type}`);
