@@ -7,23 +7,13 @@
  * -15.2970177652254, -39.0751882637406), and set 3, gbifID 1928143276 (NY, CC0; point 49.65, -125.77), where the
  * town Strathcona of the gazetteer lies about 200 km from the park's point.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { describe, expect, it } from 'vitest';
 import { locate } from '../../src/locate/locate.ts';
 import { inverse } from '../../src/geodesy/geodesic.ts';
 import { METHOD_DEFAULTS } from '../../src/georef/method-defaults.ts';
-import { openRealGazetteer, REAL_SETS } from '../real/harness.ts';
+import { useRealGazetteers } from '../support/real-gazetteers.ts';
 
-let brazil: GazetteerStore;
-let northAmerica: GazetteerStore;
-beforeAll(async () => {
-  brazil = await openRealGazetteer(REAL_SETS[0]!);
-  northAmerica = await openRealGazetteer(REAL_SETS[2]!);
-}, 180_000);
-afterAll(() => {
-  brazil?.close();
-  northAmerica?.close();
-});
+const real = useRealGazetteers({ brazil: 0, northAmerica: 2 });
 
 describe('a protected area named after a town ([CHOICE] protectedAreaTown)', () => {
   const una = 'Reserva Biológica de Una.  Em fundo de vale, à direita da entrada pela BA-001.';
@@ -33,7 +23,7 @@ describe('a protected area named after a town ([CHOICE] protectedAreaTown)', () 
   });
 
   it('lets the town Una stand in for the Reserva Biológica de Una, widened, covering the published point', () => {
-    const result = locate(brazil, { locality: una, countryCode: 'BR', stateProvince: 'Bahia' });
+    const result = locate(real.brazil, { locality: una, countryCode: 'BR', stateProvince: 'Bahia' });
     expect(result.status).toBe('georeferenced');
     const g = result.georeference!;
     expect(g.features.map((f) => f.name)).toEqual(['Una']);
@@ -44,14 +34,14 @@ describe('a protected area named after a town ([CHOICE] protectedAreaTown)', () 
   });
 
   it('declines it with the choice \'decline\'', () => {
-    const result = locate(brazil, { locality: una, countryCode: 'BR', stateProvince: 'Bahia', options: { protectedAreaTown: 'decline' } });
+    const result = locate(real.brazil, { locality: una, countryCode: 'BR', stateProvince: 'Bahia', options: { protectedAreaTown: 'decline' } });
     expect(result.status).toBe('not-found');
   });
 
   it('does not take a town for a name in apposition by default, which would be 200 km off here', () => {
     const locality = 'West end of Burman Lake, Strathcona Provincial Park';
-    expect(locate(northAmerica, { locality, countryCode: 'CA', stateProvince: 'British Columbia' }).status).toBe('not-found');
-    const any = locate(northAmerica, { locality, countryCode: 'CA', stateProvince: 'British Columbia', options: { protectedAreaTown: 'any' } });
+    expect(locate(real.northAmerica, { locality, countryCode: 'CA', stateProvince: 'British Columbia' }).status).toBe('not-found');
+    const any = locate(real.northAmerica, { locality, countryCode: 'CA', stateProvince: 'British Columbia', options: { protectedAreaTown: 'any' } });
     expect(any.georeference?.features.map((f) => f.name)).toEqual(['Strathcona']);
     expect(inverse(any.georeference!.latitude, any.georeference!.longitude, 49.65, -125.77).meters).toBeGreaterThan(any.georeference!.uncertaintyMeters);
   });
