@@ -258,7 +258,7 @@ const MAX_WHOLE_NAME_WORDS = 4;
  * The whole text as a place's name, beside a reading of its words that names no place ("Country Homes" read as a
  * country, "Woodland" as a habitat, "Forks" as a junction, "Summit" as a word qualifying nothing): a common word
  * or phrase a town may bear. Offered only when the text is one to four words, each capitalised (two letters or more)
- * or a small joining word, with no number and no mark but a period; the locate step takes it only where the gazetteer holds a settlement of that very name in
+ * or a small joining word, with no number and no mark but a final period; the locate step takes it only where the gazetteer holds a settlement of that very name in
  * the record's stated country and state [CHOICE wordNamedTown]. Undefined when the words already read as this one
  * name, or as anything else than no place ("summit of the ridge" is lower-case: a description, never a name).
  * @example wholeTextName('Forks', tokenize('Forks'), parseLocality('Forks')) // 'Forks'
@@ -267,7 +267,7 @@ function wholeTextName(text: string, tokens: Token[], reading: Interpretation): 
   const { type, unit } = reading;
   if (!(type === 'unparseable' || type === 'no-locality' || (type === 'administrative-unit' && unit?.level === 'country'))) return undefined;
   const words = tokens.filter((t) => t.kind !== 'symbol');
-  if (words.length === 0 || words.length > MAX_WHOLE_NAME_WORDS || isRefusal(tokens, 0, tokens.length) || tokens.some((t) => t.kind === 'symbol' && t.text !== '.')) return undefined;
+  if (words.length === 0 || words.length > MAX_WHOLE_NAME_WORDS || isRefusal(tokens, 0, tokens.length) || tokens.some((t, k) => t.kind === 'symbol' && !(t.text === '.' && k === tokens.length - 1))) return undefined;
   // A capital letter alone ("N", "N N N") is a heading's, never a name's word.
   if (!words.every((t, k) => t.kind === 'word' && ((/^\p{Lu}/u.test(t.text) && t.text.length > 1) || (k > 0 && k < words.length - 1 && L.SMALL_WORDS.has(t.norm))))) return undefined;
   return text.slice(words[0]!.start, words[words.length - 1]!.end);
