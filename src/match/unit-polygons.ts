@@ -53,8 +53,8 @@ export function unitPolygonFilter(
       .filter((feature) => feature.featureType === level
         && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
         && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode)));
-    // A unit the record gives by a code or name its feature lacks ("US-WA", the states file's --unit-code-field):
-    // found by the unit names' own keys of the units so named.
+    // A unit the record gives by a code or name its feature lacks ("US-WA", a states file's --unit-code-field):
+    // found under the own name of each loaded unit that the unit names say it names.
     const aliases = level === 'stateProvince' ? context.stateProvinceAliases : level === 'county' ? context.countyAliases : undefined;
     let units = foundByUnitNames(written, unitsNamed);
     if (units.length === 0 && aliases !== undefined) {
