@@ -47,7 +47,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--name-field <attribute>', 'GIS files and GeoJSON: the attribute holding the name (default: name)')
     .option('--id-field <attribute>', "GIS files and GeoJSON: the attribute holding the feature id (default: the feature's number)")
     .option('--alternate-names-field <attribute>', 'GIS files and GeoJSON: an attribute holding alternate names, |-separated; repeatable (name_alt, woe_name, gn_name…). In a shapefile or GeoPackage, a state\'s or county\'s alternate names are also names records may give it', collectFile)
-    .option('--unit-code-field <attribute>', 'shapefiles and GeoPackages: an attribute holding a code of a state or county (ISO 3166-2 "US-WA", whose subdivision part "WA" counts too, or a postal code); repeatable. Records and other files may give the unit by it; it is not matched against locality text', collectFile)
+    .option('--unit-code-field <attribute>', 'shapefiles and GeoPackages: an attribute holding a code of a state or county (an ISO 3166-2 code such as "QV-PN", whose subdivision part "PN" counts too, or a postal code); repeatable. Records and other files may give the unit by it; it is not matched against locality text', collectFile)
     .option('--type-field <attribute>', 'GIS files and GeoJSON: the attribute holding the feature type')
     .option('--feature-type <type>', 'GIS files and GeoJSON: one feature type for every feature (county, stateProvince, country, or any other type)')
     .option('--country-code-field <attribute>', 'GIS files and GeoJSON: the attribute holding the ISO 3166-1 alpha-2 country code')
