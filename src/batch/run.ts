@@ -31,7 +31,7 @@ import { fileHead, notText } from '../store/file-kind.ts';
 import { detectDelimiter, inspectInput, type InputEncoding, type InputFormat } from '../store/input-format.ts';
 import { originalLine } from './original-line.ts';
 import {
-  claimJob, dropLocalityResults, findUnfinishedJob, insertJob, jobGeneralisation, loadJob, openJobs, sameSources, updateJob,
+  claimJob, finishJob, findUnfinishedJob, insertJob, jobGeneralisation, loadJob, openJobs, removeLeftovers, sameSources, updateJob,
   type BatchJob, type JobState,
 } from '../store/jobs.ts';
 import { jobsDatabasePath } from '../store/side-files.ts';
@@ -64,9 +64,10 @@ export interface BatchJobOptions {
   /**
    * Makes the file the caller delivers from the whole CSV (a GIS file, a new archive), renamed into place
    * when whole. Run before the job is marked done, so a job stopped meanwhile is finished by a resume, which
-   * runs it again from the CSV kept (nothing georeferenced or written again); the caller removes the CSV.
+   * runs it again from the CSV kept (nothing georeferenced or written again). Gives the files the job no
+   * longer needs once done (the CSV the file was made from, say), removed with the job's own leftovers.
    */
-  finishOutput?: (summary: Omit<BatchSummary, 'resumed'>) => Promise<void>;
+  finishOutput?: (summary: Omit<BatchSummary, 'resumed'>) => Promise<string[]>;
   /** The input's delimiter when the caller knows it (an archive's core, written by whereabouts); found from the header otherwise. */
   delimiter?: Delimiter;
   coverAmbiguous?: boolean;
@@ -375,10 +376,10 @@ async function runJob(jobs: Database.Database, started: BatchJob, format: InputF
     byStatus, outputPath: job.outputPath, encoding: format.encoding, delimiter, runTimestamp: job.runTimestamp,
   };
   await testDelay();
-  await options.finishOutput?.(summary);
-  updateJob(jobs, job.id, { state: 'done', finishedAt: new Date().toISOString() });
-  dropLocalityResults(jobs, job.id);
-  if (job.inputIsSpool) rmSync(job.inputPath, { force: true });
+  const made = (await options.finishOutput?.(summary)) ?? [];
+  finishJob(jobs, job.id, job.inputIsSpool ? [...made, job.inputPath] : made);
+  await testDelay();
+  removeLeftovers(jobs, job.id);
   return summary;
 }
 

@@ -269,11 +269,23 @@ export function findUnit(finder: CandidateFinder, unit: NamedUnit, context: Admi
   const why = polygons.length > 1
     ? `${polygons.length} units of that name are loaded`
     : elsewhere.length > 0
-      ? `its polygon is loaded, but recorded in other units than the record's (${elsewhere.map(({ feature: f }) => `"${f.name}" in ${f.stateProvince ?? f.countryCode ?? 'no unit'}, ${f.sourceId}:${f.featureId}`).join('; ')})`
+      ? `its polygon is loaded, but recorded in other units than the record's (${elsewhere.map(({ feature: f }) => `"${f.name}" in ${f.stateProvince ?? f.countryCode ?? 'no unit'}, ${f.sourceId}:${f.featureId}`).join('; ')})${unknownStates(finder, elsewhere)}`
       : 'no polygon of it is loaded [CHOICE unitWithoutPolygon \'decline\', src/georef/method-defaults.ts]';
   return { feature: null, candidates, loaded: elsewhere.length > 0, reason: `"${unit.written}" names the ${words} "${unit.name}", not a place; ${why}, and a town of that name with a town's radius would not be honest, so no georeference is given` };
 }
 
+
+/**
+ * The states the units found elsewhere record that name no loaded state or province by any of its names or
+ * codes (a county file's "ID" with no states file loaded, or one loaded without its codes), said plainly.
+ * @example unknownStates(store, [shoshoneCounty]) // '; "ID" names no state or province loaded (…)'
+ */
+function unknownStates(finder: CandidateFinder, units: readonly Candidate[]): string {
+  if (!finder.unitNames) return '';
+  const unknown = [...new Set(units.flatMap(({ feature }) => feature.stateProvince ?? []))].filter((state) => finder.unitNames!(1, administrativeKey(state)).length === 0);
+  if (unknown.length === 0) return '';
+  return `; ${unknown.map((state) => `"${state}"`).join(', ')} name${unknown.length === 1 ? 's' : ''} no state or province loaded by any of its names or codes (import the states with ${unknown.length === 1 ? 'that code' : 'those codes'} among their names or codes: import --alternate-names-field, --unit-code-field)`;
+}
 
 /**
  * The feature when it is an administrative unit's polygon, else undefined.

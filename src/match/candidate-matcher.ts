@@ -236,6 +236,7 @@ export class CandidateMatcher {
     if (this.index.unitKeys !== undefined) {
       if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.unitKeysOf(1, context.stateProvinceKey));
       if (context.countyKey !== undefined) context.countyAliases = new Set(this.unitKeysOf(2, context.countyKey));
+      context.unitsNamed = (level, key) => this.unitKeysOf(level, key);
     }
     if (context.unresolvedCountry !== undefined) notes.push(`country '${context.unresolvedCountry}' not recognised: not used to filter`);
     return context;

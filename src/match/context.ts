@@ -186,6 +186,11 @@ export interface ResolvedContext {
   /** Keys of the names of units known by the state (county) name given in any of their names, from the gazetteer. */
   stateProvinceAliases?: ReadonlySet<string>;
   countyAliases?: ReadonlySet<string>;
+  /**
+   * The keys of the loaded units one of whose names or codes has `key` (NameIndex.unitKeys): a feature
+   * recording its state by a code ("WA", "US-WA") is read as the unit holding that code.
+   */
+  unitsNamed?: (level: 1 | 2, key: string) => readonly string[];
   /** Country written in the context that no table resolved (then it does not filter). */
   unresolvedCountry?: string;
 }
@@ -232,20 +237,28 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
   }
   if (!decided.stateProvince && context.stateProvinceKey !== undefined && feature.stateProvince !== null
     && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases)
+    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases, (key) => context.unitsNamed?.(1, key))
     && shortFormKey(feature.stateProvince) !== context.stateProvinceShortKey) {
     return `state/province '${feature.stateProvince}', not the one given`;
   }
   if (!decided.county && context.countyKey !== undefined && feature.county !== null
     && feature.featureType !== 'county' && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.county, context.countyKey, context.countyAliases)) {
+    && !sameUnit(feature.county, context.countyKey, context.countyAliases, (key) => context.unitsNamed?.(2, key))) {
     return `county '${feature.county}', not the one given`;
   }
   return null;
 }
 
-/** The unit a feature records is the one given: by its key, or by another name of that unit. */
-function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined): boolean {
+/**
+ * The unit a feature records is the one given: by its key, by another name of that unit, or (for a feature
+ * recording a code or another name of a loaded unit, "WA" in a county file) as the loaded unit that holds
+ * it. A recorded name that is a loaded unit's own name names that unit only.
+ * @example sameUnit('WA', 'washington', new Set(['washington']), () => ['washington']) // true
+ */
+function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined, unitsNamed: (key: string) => readonly string[] | undefined): boolean {
   const recordedKey = administrativeKey(recorded);
-  return recordedKey === key || aliases?.has(recordedKey) === true;
+  if (recordedKey === key || aliases?.has(recordedKey) === true) return true;
+  if (aliases === undefined || aliases.size === 0) return false;
+  const named = unitsNamed(recordedKey) ?? [];
+  return !named.includes(recordedKey) && named.some((unitKey) => aliases.has(unitKey));
 }

@@ -11,7 +11,7 @@ import { feature as turfFeature, featureCollection } from '@turf/helpers';
 import { intersect } from '@turf/intersect';
 import { lineIntersect } from '@turf/line-intersect';
 import { geometryAreaSquareMeters } from '../geodesy/geodesic.ts';
-import { foundByUnitNames, type ResolvedContext, type SpatiallyDecided } from './context.ts';
+import { administrativeKey, foundByUnitNames, type ResolvedContext, type SpatiallyDecided } from './context.ts';
 import type { Candidate, CandidateQuery, Feature } from './types.ts';
 
 /** Administrative levels from the smallest up, for the spatial test. */
@@ -53,7 +53,14 @@ export function unitPolygonFilter(
       .filter((feature) => feature.featureType === level
         && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
         && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode)));
-    const units = foundByUnitNames(written, unitsNamed);
+    // A unit the record gives by a code or name its feature lacks ("US-WA", a states file's --unit-code-field):
+    // found under the own name of each loaded unit that the unit names say it names.
+    const aliases = level === 'stateProvince' ? context.stateProvinceAliases : level === 'county' ? context.countyAliases : undefined;
+    let units = foundByUnitNames(written, unitsNamed);
+    if (units.length === 0 && aliases !== undefined) {
+      const others = [...aliases].filter((key) => key !== administrativeKey(written));
+      units = [...new Map(others.flatMap(unitsNamed).map((unit) => [`${unit.sourceId}:${unit.featureId}`, unit])).values()];
+    }
     if (units.length === 0) continue;
     for (const unit of units) attachGeometry(unit);
     decided[level] = true;

@@ -15,6 +15,8 @@ export interface RawFeature {
   alternateNames?: string[];
   /** Language and flags of some alternate names (the dump layout's alternate-names file). */
   nameDetails?: AlternateName[];
+  /** Codes of a state or county ("US-WA", "WA"; `--unit-code-field`): unit names only, never the feature's names. */
+  unitCodes?: string[];
   latitude?: unknown;
   longitude?: unknown;
   featureType?: unknown;

@@ -531,8 +531,11 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
       return row === undefined ? undefined : { id: row.id, df: row.df };
     },
     // One statement: each distinct token once (a token shares many keys with a query), as one text a
-    // row (see tokenRow).
-    tokensByDeletionKeys: (keys) => (s.tokensByDeletion.all(JSON.stringify(keys)) as string[]).map(tokenRow),
+    // row (see tokenRow). The keys sorted (idList): the deletion index is sought in key order, and
+    // neighbouring seeks share pages (13 M names, the 4,647 reads of 3,808 benchmark lookups: 9 % less
+    // CPU in four alternating rounds, load 9). The rows come by token id whatever the keys' order (the
+    // tokens are read through the sorted list that 'IN (…)' builds).
+    tokensByDeletionKeys: (keys) => (s.tokensByDeletion.all(idList(keys)) as string[]).map(tokenRow),
     // Unfiltered, one text a token (see postingGroups); filtered, one text a row, 'feature token' (see postingRow).
     postings: (tokenIds, countries, limit) => (countries === null
       ? postingGroups(s.postingsByToken.all(idList(tokenIds)) as (string | null)[], limit)

@@ -26,8 +26,18 @@ export interface GisFieldMap {
   nameField?: string;
   /** Attribute with the feature id (default: the feature's number in the layer). */
   idField?: string;
-  /** Attribute with alternate names, `|`-separated. */
-  alternateNamesField?: string;
+  /**
+   * Attributes with alternate names, each `|`-separated ("WA|Wash."), one or several (Natural Earth's
+   * `name_alt`, `woe_name`, `gn_name`, `name_local`): names the feature is found by, and a state's or
+   * county's names in the store's unit names (see `unitNamesOf`).
+   */
+  alternateNamesField?: string | readonly string[];
+  /**
+   * Attributes with codes of a state or county (an ISO 3166-2 code "US-WA", a postal code "WA"): the unit is
+   * known by them in records' state and county fields and in other files' parent columns (a county's state
+   * "WA"), but they are not names a locality text is matched against.
+   */
+  unitCodeFields?: readonly string[];
   /** Attribute with the feature type, or … */
   featureTypeField?: string;
   /** … one feature type for every feature (e.g. "county", "stateProvince"). */
@@ -62,8 +72,8 @@ export async function* readGisFile(filePath: string, format: GisFormat, map: Gis
   const layer = format === 'gpkg' ? geoPackageLayer(filePath, map) : await shapefileLayer(filePath, map);
   notes.push(`layer ${layer.name}: ${layer.crs.description}`, ...(layer.encodingNote === undefined ? [] : [layer.encodingNote]));
   const fields = new Set(layer.fields);
-  for (const [option, field] of Object.entries(fieldOptions(map))) {
-    if (field !== undefined && !fields.has(field)) {
+  for (const [option, field] of fieldOptions(map)) {
+    if (!fields.has(field)) {
       throw new Error(`${filePath}: layer ${layer.name} has no attribute "${field}" (${option}); its attributes: ${layer.fields.join(', ')}`);
     }
   }
@@ -77,13 +87,17 @@ export async function* readGisFile(filePath: string, format: GisFormat, map: Gis
   }
 }
 
-/** The attribute-name options, by their option names, for the message when one is missing. */
-export function fieldOptions(map: GisFieldMap): Record<string, string | undefined> {
-  return {
-    '--name-field': map.nameField, '--id-field': map.idField, '--alternate-names-field': map.alternateNamesField,
-    '--type-field': map.featureTypeField, '--country-code-field': map.countryCodeField,
-    '--state-province-field': map.stateProvinceField, '--county-field': map.countyField,
-  };
+/**
+ * The attribute-name options given, each with its option name, for the message when one is missing.
+ * @example fieldOptions({ nameField: 'NAME', unitCodeFields: ['postal'] }) // [['--name-field', 'NAME'], ['--unit-code-field', 'postal']]
+ */
+export function fieldOptions(map: GisFieldMap): [option: string, field: string][] {
+  const options: [string, string | readonly string[] | undefined][] = [
+    ['--name-field', map.nameField], ['--id-field', map.idField], ['--alternate-names-field', map.alternateNamesField],
+    ['--unit-code-field', map.unitCodeFields], ['--type-field', map.featureTypeField], ['--country-code-field', map.countryCodeField],
+    ['--state-province-field', map.stateProvinceField], ['--county-field', map.countyField],
+  ];
+  return options.flatMap(([option, fields]) => (fields === undefined ? [] : typeof fields === 'string' ? [fields] : fields).map((field): [string, string] => [option, field]));
 }
 
 function rawFeature(properties: Record<string, unknown>, geometry: Geometry | null, map: GisFieldMap, row: number): RawFeature {
@@ -102,11 +116,12 @@ export function mappedColumns(properties: Record<string, unknown>, map: GisField
     const v = field === undefined ? undefined : properties[field];
     return v === null || v === undefined ? undefined : typeof v === 'string' ? v.trim() : String(v);
   };
-  const alternates = value(map.alternateNamesField);
+  const listed = (fields: string | readonly string[]) => (typeof fields === 'string' ? [fields] : fields).flatMap((field) => value(field)?.split('|') ?? []);
   return {
     ...(map.idField !== undefined && { id: value(map.idField) }),
     ...(map.nameField !== undefined && { name: value(map.nameField) }),
-    ...(map.alternateNamesField !== undefined && { alternateNames: alternates ? alternates.split('|') : [] }),
+    ...(map.alternateNamesField !== undefined && { alternateNames: listed(map.alternateNamesField) }),
+    ...(map.unitCodeFields !== undefined && { unitCodes: listed(map.unitCodeFields) }),
     ...((map.featureType ?? map.featureTypeField) !== undefined && { featureType: map.featureType ?? value(map.featureTypeField) }),
     ...((map.countryCode ?? map.countryCodeField) !== undefined && { countryCode: map.countryCode ?? value(map.countryCodeField) }),
     ...(map.stateProvinceField !== undefined && { stateProvince: value(map.stateProvinceField) }),

@@ -27,6 +27,8 @@ export interface CheckedRow {
   row: number;
   checked: FeatureRecord | string;
   terms?: IndexTerms;
+  /** The row's unit codes (RawFeature.unitCodes), for the store's unit names. */
+  unitCodes?: readonly string[];
 }
 
 /** What the reading thread is given. */

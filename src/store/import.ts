@@ -19,6 +19,8 @@ import { decodedText, detectDelimiter, inspectInput, type HeaderDelimiter, type 
 import type { RawFeature } from './feature-record.ts';
 import { checkRow, checkedDumpRows, openDumpText, readDump, READ_BYTES, type CheckedRow, type ReadRow } from './import-dump.ts';
 import { fieldOptions, gisContentHash, mappedColumns, readGisFile, type GisFieldMap } from './gis-import.ts';
+import { administrativeKey } from '../match/context.ts';
+import { parentCodeNote, unitNamesOf } from './unit-names.ts';
 import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
@@ -86,9 +88,12 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   // The attribute options map a GIS layer's or a GeoJSON feature's properties; a CSV or the dump layout
   // names its columns itself, and an option it would ignore is refused rather than silently dropped.
   const map = options.gis ?? {};
-  const given = Object.entries({ ...fieldOptions(map), '--feature-type': map.featureType, '--country-code': map.countryCode }).filter(([, value]) => value !== undefined).map(([option]) => option);
+  const given = [...new Set(fieldOptions(map).map(([option]) => option)), ...(map.featureType === undefined ? [] : ['--feature-type']), ...(map.countryCode === undefined ? [] : ['--country-code'])];
   if (!gis && options.format !== 'geojson' && given.length > 0) {
     throw new Error(`${given.join(', ')} map a GIS file's or a GeoJSON feature's attributes; a ${options.format === 'csv' ? 'CSV gazetteer names its columns in its header' : 'file of the dump layout has fixed columns'} (${options.format === 'csv' ? CSV_COLUMNS.join(', ') : 'see the README'}): rename its columns instead`);
+  }
+  if (options.format === 'geojson' && map.unitCodeFields !== undefined && map.unitCodeFields.length > 0) {
+    throw new Error('--unit-code-field records the codes of the states and counties of a shapefile or GeoPackage; a GeoJSON import does not record its units\' names yet: give the codes with --alternate-names-field, or convert the file (ogr2ogr -f GPKG)');
   }
   // A zip archive (not a workbook) given as the dump layout is the dump as distributed: its data member
   // is read (file-input.ts).
@@ -122,17 +127,30 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
       : checkedRows(input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
         : options.format === 'csv' ? readCsv(input, await detectDelimiter(filePath, format), format.delimiterDeclaration ? 1 : 0) : options.format === 'geojson' ? readGeoJson(input, options.gis ?? {}) : readDump(input, adminNames),
       (raw) => (alternateNames !== undefined && raw.id !== undefined ? withStagedNames(raw, session.stagedAlternateNames(raw.id)) : raw), options.radii);
+    // A GIS file's states and counties are recorded with all their names and codes, as the dump's admin
+    // code files record theirs, and the state codes its features record are checked. A GeoJSON import's
+    // are not: what they would change in the readings over the GeoJSON demo gazetteer is not measured.
+    const statesRecorded = new Map<string, number>();
     for await (const batch of rows) {
-      for (const { row, checked, terms } of batch) {
+      for (const { row, checked, terms, unitCodes } of batch) {
         rowsRead++;
         const reason = typeof checked === 'string' ? checked : session.add(checked, terms);
-        if (reason === null) imported++;
-        else rejected.push({ row, reason });
+        if (reason !== null) {
+          rejected.push({ row, reason });
+        } else {
+          imported++;
+          const unit = gis && typeof checked !== 'string' ? unitNamesOf(checked, unitCodes) : null;
+          if (unit !== null) session.addUnitNames(unit.level, unit.name, unit.names);
+          const state = gis && typeof checked !== 'string' ? checked.stateProvince : null;
+          if (state !== null) statesRecorded.set(state, (statesRecorded.get(state) ?? 0) + 1);
+        }
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
     }
     // A source with no feature would only look like a success: nothing is registered.
     if (imported === 0) throw new Error(nothingKept(filePath, rowsRead, rejected));
+    const unknownStates = parentCodeNote(statesRecorded, (code) => store.unitNames(1, administrativeKey(code)).length > 0);
+    if (unknownStates !== null) notes.push(unknownStates);
     session.commit({ citation, licence: options.licence ?? null, contentHash: gis ? gisContentHash(filePath, format.sha256) : format.sha256, format: options.format, priority: options.priority });
   } catch (error) {
     session.rollback();
@@ -161,7 +179,12 @@ function withStagedNames(raw: RawFeature, staged: AlternateName[]): RawFeature {
 /** A reader's rows checked on this thread, each completed first by `complete` (staged alternate names). */
 async function* checkedRows(rows: AsyncIterable<ReadRow[]> | Iterable<ReadRow[]>, complete: (raw: RawFeature) => RawFeature,
   radii?: Readonly<Record<string, number>>): AsyncGenerator<CheckedRow[]> {
-  for await (const batch of rows) yield batch.map(({ row, raw }) => checkRow({ row, raw: typeof raw === 'string' ? raw : complete(raw) }, radii));
+  for await (const batch of rows) {
+    yield batch.map(({ row, raw }) => {
+      const checked = checkRow({ row, raw: typeof raw === 'string' ? raw : complete(raw) }, radii);
+      return typeof raw !== 'string' && raw.unitCodes !== undefined ? { ...checked, unitCodes: raw.unitCodes } : checked;
+    });
+  }
 }
 
 /** Stages every name of the alternate-names file for the features to come; returns what was read. */

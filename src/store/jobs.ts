@@ -5,6 +5,7 @@
  * progress: the result of each distinct locality and the number of rows written.
  */
 import type { GeneralisationSettings } from '../georef/generalisation.ts';
+import { rmSync } from 'node:fs';
 import Database from 'better-sqlite3';
 import type { Source } from '../match/types.ts';
 
@@ -83,7 +84,7 @@ CREATE TABLE IF NOT EXISTS batch_job (
   run_timestamp TEXT NOT NULL, rows_total INTEGER, rows_done INTEGER NOT NULL DEFAULT 0,
   output_bytes INTEGER NOT NULL DEFAULT 0, distinct_total INTEGER, distinct_done INTEGER NOT NULL DEFAULT 0,
   tallies TEXT NOT NULL DEFAULT '{}', started_at TEXT NOT NULL, finished_at TEXT, error TEXT, runner_pid INTEGER,
-  part_index INTEGER, part_count INTEGER, method_choices TEXT, result_format TEXT, result_path TEXT
+  part_index INTEGER, part_count INTEGER, method_choices TEXT, result_format TEXT, result_path TEXT, leftovers TEXT
 );
 CREATE TABLE IF NOT EXISTS batch_locality (
   id INTEGER PRIMARY KEY, job_id TEXT NOT NULL, key TEXT NOT NULL, request TEXT NOT NULL, result TEXT
@@ -108,9 +109,10 @@ export function openJobs(path: string): Database.Database {
   db.exec(SCHEMA);
   // Job files made before jobs recorded their runner, their part or their method choices lack those columns; add them rather than refuse the files.
   const columns = db.prepare("SELECT name FROM pragma_table_info('batch_job')").all() as { name: string }[];
-  for (const [column, type] of [['runner_pid', 'INTEGER'], ['part_index', 'INTEGER'], ['part_count', 'INTEGER'], ['method_choices', 'TEXT'], ['result_format', 'TEXT'], ['result_path', 'TEXT']]) {
+  for (const [column, type] of [['runner_pid', 'INTEGER'], ['part_index', 'INTEGER'], ['part_count', 'INTEGER'], ['method_choices', 'TEXT'], ['result_format', 'TEXT'], ['result_path', 'TEXT'], ['leftovers', 'TEXT']]) {
     if (!columns.some((c) => c.name === column)) db.exec(`ALTER TABLE batch_job ADD COLUMN ${column} ${type}`);
   }
+  removeLeftovers(db);
   return db;
 }
 
@@ -258,16 +260,33 @@ export function failJob(jobsPath: string, jobId: string, error: string): void {
 }
 
 /**
- * A finished job's results are dropped; the locality type each distinct locality was read as is kept
- * (for the review list's facets), so nothing is parsed again.
+ * Mark a job done, in one transaction with what goes with it: its per-locality results dropped (only the
+ * locality type each was read as is kept, for the review list's facets, so nothing is parsed again) and the files it no longer needs listed as leftovers. Those files
+ * are removed by `removeLeftovers` straight after, or when the job database is next opened if the process
+ * was stopped in between, so a job never stays done with its working files beside it.
+ * @example finishJob(db, 'k3v9q2xa', ['/data/whereabouts-spool-1a2b3c4d.input']); removeLeftovers(db, 'k3v9q2xa');
  */
-export function dropLocalityResults(db: Database.Database, jobId: string): void {
+export function finishJob(db: Database.Database, jobId: string, leftovers: string[]): void {
   db.transaction(() => {
     db.prepare(
       "INSERT OR REPLACE INTO batch_locality_type (job_id, key, locality_type) SELECT job_id, key, json_extract(result, '$.localityType') FROM batch_locality WHERE job_id = ? AND json_extract(result, '$.localityType') IS NOT NULL",
     ).run(jobId);
     db.prepare('DELETE FROM batch_locality WHERE job_id = ?').run(jobId);
+    db.prepare("UPDATE batch_job SET state = 'done', finished_at = ?, leftovers = ? WHERE id = ?").run(new Date().toISOString(), leftovers.length > 0 ? JSON.stringify(leftovers) : null, jobId);
   })();
+}
+
+/**
+ * Remove the leftover files of one finished job, or of every finished job that still lists some (a job
+ * database opened after a run stopped between marking its job done and tidying up).
+ * @example removeLeftovers(db) // removes files listed by done jobs, then forgets them
+ */
+export function removeLeftovers(db: Database.Database, jobId?: string): void {
+  const rows = db.prepare(`SELECT id, leftovers FROM batch_job WHERE leftovers IS NOT NULL${jobId === undefined ? '' : ' AND id = ?'}`).all(...(jobId === undefined ? [] : [jobId])) as { id: string; leftovers: string }[];
+  for (const row of rows) {
+    for (const path of JSON.parse(row.leftovers) as string[]) rmSync(path, { force: true });
+    db.prepare('UPDATE batch_job SET leftovers = NULL WHERE id = ?').run(row.id);
+  }
 }
 
 /**

@@ -30,7 +30,7 @@ export function readOutput(path: string, delimiter = ','): string[][] {
 }
 
 /** The job's committed progress, read as another process would. */
-export function progress(jobsPath: string): { state: string; distinct_done: number; distinct_total: number | null; rows_done: number; rows_total: number | null; run_timestamp: string } | undefined {
+export function progress(jobsPath: string): { id: string; state: string; leftovers: string | null; distinct_done: number; distinct_total: number | null; rows_done: number; rows_total: number | null; run_timestamp: string } | undefined {
   if (!existsSync(jobsPath)) return undefined;
   const db = new Database(jobsPath, { readonly: true, fileMustExist: true });
   try {

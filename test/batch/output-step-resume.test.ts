@@ -52,7 +52,7 @@ function unbroken(...args: string[]): void {
  */
 async function stoppedAfterCsv(csvWhole: () => boolean, ...args: string[]): Promise<string> {
   await killWhen(['--db', dbPath, 'batch', ...args, '--run-timestamp', RUN_TIMESTAMP, '--quiet'], SLOW, jobsPath, (p) => p.state !== 'done' && csvWhole());
-  const job = progress(jobsPath) as NonNullable<ReturnType<typeof progress>> & { id: string };
+  const job = progress(jobsPath)!;
   expect(job.state).toBe('writing');
   expect(job.rows_done).toBe(job.rows_total);
   return job.id;
@@ -122,5 +122,27 @@ describe.skipIf(!hasGdal)('a batch killed while making its file from the whole C
     expect(resumed.stderr).toContain('Darwin Core Archive: every other file copied unchanged');
     expect(readFileSync(out).equals(readFileSync(reference))).toBe(true);
     expect(leftOver().filter((f) => f.startsWith('stopped.zip') || f.includes('core') || f.includes('archive'))).toEqual(['stopped.zip']);
+  });
+
+});
+
+describe('a batch killed once its job is marked done', { timeout: 180_000 }, () => {
+  it('before its working files were removed: the next open of the job database removes them', async () => {
+    const reference = join(dir, 'reference-tidy.zip');
+    unbroken(archive, '--out', reference);
+    const out = join(dir, 'tidied.zip');
+    await killWhen(['--db', dbPath, 'batch', archive, '--out', out, '--run-timestamp', RUN_TIMESTAMP, '--quiet'], SLOW, jobsPath, (p) => p.state === 'done' && p.leftovers !== null);
+    const job = progress(jobsPath)!;
+    // The archive is whole; the core CSV, the core table and the manifest it was made from are still there, and listed.
+    expect(readFileSync(out).equals(readFileSync(reference))).toBe(true);
+    const listed = JSON.parse(job.leftovers ?? '[]') as string[];
+    expect(listed.map((path) => path.replace(/.*\.(core\.txt(\.archive\.json)?)$/, '$1')).sort()).toEqual(['core.txt', 'core.txt', 'core.txt.archive.json']);
+    expect(listed.every((path) => existsSync(path))).toBe(true);
+
+    const again = cli('batch', '--resume', job.id);
+    expect(again.status).toBe(1);
+    expect(again.stderr).toContain(`batch job ${job.id} is already done (output ${out})`);
+    expect(listed.some((path) => existsSync(path))).toBe(false);
+    expect(progress(jobsPath)!.leftovers).toBeNull();
   });
 });

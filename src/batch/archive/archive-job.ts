@@ -76,14 +76,22 @@ export interface ArchiveSummary extends BatchSummary {
  */
 export async function startBatch(asked: ArchiveJobOptions): Promise<{ jobId: string; methodChoices: StartedJob['methodChoices']; done: Promise<ArchiveSummary> }> {
   const resulting = asked.resultAsked ? withResult(asked, asked.resultAsked) : asked;
-  const options: ArchiveJobOptions = { ...resulting, finishOutput: (summary) => makeOutput(summary, resulting) };
+  // Read when the output is made, before the job's leftovers (the manifest among them) are removed.
+  let made: ArchiveManifest | undefined;
+  const options: ArchiveJobOptions = {
+    ...resulting,
+    finishOutput: (summary) => {
+      made = manifestOf(summary.outputPath);
+      return makeOutput(summary, resulting, made);
+    },
+  };
   const input = options.input;
   const zipPath = !options.resume && typeof input === 'string' && input !== '-' && existsSync(input) && isZipFile(input) ? input : undefined;
   if (zipPath && options.archiveOnly) await checkArchive(zipPath, options);
   if (!zipPath || !(await hasMetafile(zipPath))) {
     // Not an archive (a zip without meta.xml among them): the batch reads it, or says what it is.
     const { jobId, methodChoices, done } = await startBatchJob(options);
-    return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options)) };
+    return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options, made)) };
   }
   if (options.part) throw new Error('a Darwin Core Archive is georeferenced whole: --part cuts CSV and tab-separated files only');
   const archivePath = resolve(zipPath);
@@ -106,7 +114,7 @@ export async function startBatch(asked: ArchiveJobOptions): Promise<{ jobId: str
     writeFileSync(manifestPathOf(coreOut), JSON.stringify(manifest));
     try {
       const { jobId, methodChoices, done } = await startBatchJob({ ...options, input: table, output: coreOut, delimiter: '\t' });
-      return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options)) };
+      return { jobId, methodChoices, done: done.then((summary) => finishResult(summary, options, made)) };
     } catch (error) {
       // No job was stored (a core without a locality term, say): nothing is left behind.
       rmSync(table, { force: true });
@@ -148,11 +156,12 @@ function withResult(options: ArchiveJobOptions, asked: NonNullable<ArchiveJobOpt
 
 /**
  * The file asked for, made from the job's whole CSV before the job is marked done (a resume of a job
- * stopped meanwhile makes it again): for a job over an archive's core the new archive (none with
- * `coreOnly`), then the GIS file asked for; each written beside its target and renamed into place.
+ * stopped meanwhile makes it again): for a job over an archive's core (`manifest`) the new archive (none
+ * with `coreOnly`), then the GIS file asked for; each written beside its target and renamed into place.
+ * Gives the files kept only to make it, which go once the job is done: the CSV a GIS file or an archive was
+ * made from (with `coreOnly` the georeferenced core stays for the caller), an archive's core table and manifest.
  */
-async function makeOutput(summary: Omit<BatchSummary, 'resumed'>, options: ArchiveJobOptions): Promise<void> {
-  const manifest = manifestOf(summary.outputPath);
+async function makeOutput(summary: Omit<BatchSummary, 'resumed'>, options: ArchiveJobOptions, manifest: ArchiveManifest | undefined): Promise<string[]> {
   if (manifest && !options.coreOnly) {
     // The archive goes where the run asked (a resume may name another file), else where the job was started for.
     const archiveTarget = options.result?.path ?? manifest.outputPath;
@@ -166,21 +175,15 @@ async function makeOutput(summary: Omit<BatchSummary, 'resumed'>, options: Archi
   }
   const result = options.result as BatchResult | undefined;
   if (result) await writeResults({ format: result.format, csvPath: summary.outputPath, delimiter: summary.delimiter, output: result.path, runTimestamp: summary.runTimestamp, stdout: options.stdout as Writable | undefined });
+  const csvMadeInto = (manifest && !options.coreOnly) || (result && result.format !== 'csv');
+  return [...(csvMadeInto ? [summary.outputPath] : []), ...(manifest ? [manifest.tablePath, manifestPathOf(summary.outputPath)] : [])];
 }
 
-/**
- * Once the job is done: the files kept to make its output removed (the CSV a GIS file or an archive was
- * made from, an archive's core table and manifest; with `coreOnly` the core table stays for the caller),
- * and a summary naming the file made.
- */
-async function finishResult(summary: BatchSummary, options: ArchiveJobOptions): Promise<ArchiveSummary> {
-  const manifest = manifestOf(summary.outputPath);
+/** Once the job is done (its leftovers gone): a summary naming the file made, from the manifest of a job over an archive's core. */
+async function finishResult(summary: BatchSummary, options: ArchiveJobOptions, manifest: ArchiveManifest | undefined): Promise<ArchiveSummary> {
   const result = options.result as BatchResult | undefined;
-  if ((manifest && !options.coreOnly) || (result && result.format !== 'csv')) rmSync(summary.outputPath, { force: true });
   let finished: ArchiveSummary = summary;
   if (manifest) {
-    rmSync(manifest.tablePath, { force: true });
-    rmSync(manifestPathOf(summary.outputPath), { force: true });
     finished = { ...summary, outputPath: options.coreOnly ? summary.outputPath : (result?.path ?? manifest.outputPath), archiveCore: await coreOf(manifest.archivePath) };
   }
   return result ? { ...finished, outputPath: result.path, format: result.format } : finished;

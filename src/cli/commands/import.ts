@@ -3,8 +3,11 @@ import type { GisFieldMap } from '../../store/gis-import.ts';
 import type { ImportFormat, ImportSummary } from '../../store/import.ts';
 import { parsePriority } from './gazetteer.ts';
 
-/** The GIS attribute options are the importer's field map, but `--type-field` for its featureTypeField. */
-interface ImportCommandOptions extends Omit<GisFieldMap, 'featureTypeField'> {
+/**
+ * The GIS attribute options are the importer's field map, but `--type-field` for its featureTypeField and
+ * `--unit-code-field` (repeatable) for its unitCodeFields.
+ */
+interface ImportCommandOptions extends Omit<GisFieldMap, 'featureTypeField' | 'unitCodeFields'> {
   format?: string;
   source?: string;
   citation?: string;
@@ -15,6 +18,7 @@ interface ImportCommandOptions extends Omit<GisFieldMap, 'featureTypeField'> {
   priority?: number | null;
   defaultRadius?: Record<string, number>;
   typeField?: string;
+  unitCodeField?: string[];
 }
 
 const FORMATS: readonly ImportFormat[] = ['csv', 'geojson', 'geonames', 'shapefile', 'gpkg'];
@@ -42,7 +46,8 @@ export function registerImport(program: Command, dbPath: () => string): void {
     .option('--layer <name>', 'GIS files: the GeoPackage layer, or the shapefile inside a zip holding several')
     .option('--name-field <attribute>', 'GIS files and GeoJSON: the attribute holding the name (default: name)')
     .option('--id-field <attribute>', "GIS files and GeoJSON: the attribute holding the feature id (default: the feature's number)")
-    .option('--alternate-names-field <attribute>', 'GIS files and GeoJSON: the attribute holding alternate names, |-separated')
+    .option('--alternate-names-field <attribute>', 'GIS files and GeoJSON: an attribute holding alternate names, |-separated; repeatable (name_alt, woe_name, gn_name…). In a shapefile or GeoPackage, a state\'s or county\'s alternate names are also names records may give it', collectFile)
+    .option('--unit-code-field <attribute>', 'shapefiles and GeoPackages: an attribute holding a code of a state or county (an ISO 3166-2 code such as "QV-PN", whose subdivision part "PN" counts too, or a postal code); repeatable. Records and other files may give the unit by it; it is not matched against locality text', collectFile)
     .option('--type-field <attribute>', 'GIS files and GeoJSON: the attribute holding the feature type')
     .option('--feature-type <type>', 'GIS files and GeoJSON: one feature type for every feature (county, stateProvince, country, or any other type)')
     .option('--country-code-field <attribute>', 'GIS files and GeoJSON: the attribute holding the ISO 3166-1 alpha-2 country code')
@@ -70,6 +75,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
           radii: opts.defaultRadius,
           gis: {
             layer: opts.layer, nameField: opts.nameField, idField: opts.idField, alternateNamesField: opts.alternateNamesField,
+            unitCodeFields: opts.unitCodeField,
             featureTypeField: opts.typeField, featureType: opts.featureType, countryCodeField: opts.countryCodeField, countryCode: opts.countryCode,
             stateProvinceField: opts.stateProvinceField, countyField: opts.countyField, encoding: opts.encoding,
           },
@@ -84,7 +90,7 @@ export function registerImport(program: Command, dbPath: () => string): void {
     });
 }
 
-/** Adds one file of a repeatable option to those already given. */
+/** Adds one value (a file, an attribute) of a repeatable option to those already given. */
 function collectFile(value: string, previous: string[] | undefined): string[] {
   return [...(previous ?? []), value];
 }
