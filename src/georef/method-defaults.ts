@@ -263,8 +263,9 @@ export const METHOD_DEFAULTS = {
    * nothing) [CHOICE]: 'town' reads the whole text as one place's name when the gazetteer holds a settlement of
    * that very name (as written, no other reading, no near spelling) in the record's stated country and state, and
    * georeferences it as any named place; 'word' keeps the reading of its words. A word inside a longer text
-   * never matches a town of that word alone ("summit of the ridge", "Forks of the Alisos": no town "Summit", "Forks"). Our choice, no source; measured on the
-   * real-record sets and the towns of Washington and Idaho (docs/real-records.md).
+   * never matches a town of that word alone ("summit of the ridge", "Forks of the Alisos": no town "Summit",
+   * "Forks"). Our choice, no source; measured on the real-record sets and the towns of Washington and Idaho
+   * (docs/real-records.md).
    */
   wordNamedTown: 'town' as 'town' | 'word',
   /**

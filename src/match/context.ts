@@ -237,13 +237,13 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
   }
   if (!decided.stateProvince && context.stateProvinceKey !== undefined && feature.stateProvince !== null
     && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases, (key) => context.unitsNamed?.(1, key))
+    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases, context.unitsNamed, 1)
     && shortFormKey(feature.stateProvince) !== context.stateProvinceShortKey) {
     return `state/province '${feature.stateProvince}', not the one given`;
   }
   if (!decided.county && context.countyKey !== undefined && feature.county !== null
     && feature.featureType !== 'county' && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.county, context.countyKey, context.countyAliases, (key) => context.unitsNamed?.(2, key))) {
+    && !sameUnit(feature.county, context.countyKey, context.countyAliases, context.unitsNamed, 2)) {
     return `county '${feature.county}', not the one given`;
   }
   return null;
@@ -253,12 +253,12 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
  * The unit a feature records is the one given: by its key, by another name of that unit, or (for a feature
  * recording a code or another name of a loaded unit, "WA" in a county file) as the loaded unit that holds
  * it. A recorded name that is a loaded unit's own name names that unit only.
- * @example sameUnit('WA', 'washington', new Set(['washington']), () => ['washington']) // true
+ * @example sameUnit('WA', 'washington', new Set(['washington']), () => ['washington'], 1) // true
  */
-function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined, unitsNamed: (key: string) => readonly string[] | undefined): boolean {
+function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined, unitsNamed: ResolvedContext['unitsNamed'], level: 1 | 2): boolean {
   const recordedKey = administrativeKey(recorded);
   if (recordedKey === key || aliases?.has(recordedKey) === true) return true;
   if (aliases === undefined || aliases.size === 0) return false;
-  const named = unitsNamed(recordedKey) ?? [];
+  const named = unitsNamed?.(level, recordedKey) ?? [];
   return !named.includes(recordedKey) && named.some((unitKey) => aliases.has(unitKey));
 }

@@ -257,9 +257,9 @@ const MAX_WHOLE_NAME_WORDS = 4;
 /**
  * The whole text as a place's name, beside a reading of its words that names no place ("Country Homes" read as a
  * country, "Woodland" as a habitat, "Forks" as a junction, "Summit" as a word qualifying nothing): a common word
- * or phrase a town may bear. Offered only when the text is one to four words, each capitalised (two letters or more)
- * or a small joining word, with no number and no mark but a final period; the locate step takes it only where the gazetteer holds a settlement of that very name in
- * the record's stated country and state [CHOICE wordNamedTown]. Undefined when the words already read as this one
+ * or phrase a town may bear. Offered only when the text is one to four words, each capitalised (two letters or
+ * more) or a small joining word, with no number and no mark but a final period; the locate step takes it only where
+ * the gazetteer holds a settlement of that very name in the record's stated country and state [CHOICE wordNamedTown]. Undefined when the words already read as this one
  * name, or as anything else than no place ("summit of the ridge" is lower-case: a description, never a name).
  * @example wholeTextName('Forks', tokenize('Forks'), parseLocality('Forks')) // 'Forks'
  */

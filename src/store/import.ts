@@ -139,10 +139,11 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
           rejected.push({ row, reason });
         } else {
           imported++;
-          const unit = gis && typeof checked !== 'string' ? unitNamesOf(checked, unitCodes) : null;
-          if (unit !== null) session.addUnitNames(unit.level, unit.name, unit.names);
-          const state = gis && typeof checked !== 'string' ? checked.stateProvince : null;
-          if (state !== null) statesRecorded.set(state, (statesRecorded.get(state) ?? 0) + 1);
+          if (gis && typeof checked !== 'string') {
+            const unit = unitNamesOf(checked, unitCodes);
+            if (unit !== null) session.addUnitNames(unit.level, unit.name, unit.names);
+            if (checked.stateProvince !== null) statesRecorded.set(checked.stateProvince, (statesRecorded.get(checked.stateProvince) ?? 0) + 1);
+          }
         }
         if (rowsRead % PROGRESS_EVERY === 0) options.onProgress?.(rowsRead);
       }
