@@ -7,6 +7,7 @@ import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, MIN_TWO_EDIT_L
 import { foldName, nameVariants } from '../../src/match/fold.ts';
 import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey, unitLookupNames } from '../../src/match/context.ts';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
+import type { UnitLevel } from '../../src/match/types.ts';
 
 describe('foldName', () => {
   // Canonical decompositions from the Unicode Standard (UAX #15, normalization forms): é = e + U+0301,
@@ -79,7 +80,7 @@ describe('administrative names and countries', () => {
     const loaded: Record<string, string[]> = { wa: ['washington'], 'us wa': ['washington'], washington: ['washington'], id: ['idaho'], idaho: ['idaho'] };
     const stated = (stateProvince: string) => {
       const context = resolveContext({ countryCode: 'US', stateProvince });
-      return { ...context, stateProvinceAliases: new Set(loaded[context.stateProvinceKey!] ?? []), unitsNamed: (_level: 1 | 2, key: string) => loaded[key] ?? [] };
+      return { ...context, stateProvinceAliases: new Set(loaded[context.stateProvinceKey!] ?? []), unitsNamed: (_level: UnitLevel, key: string) => loaded[key] ?? [] };
     };
     const county = (stateProvince: string) => ({ name: 'Pierce', featureType: 'county', stateProvince, countryCode: 'US' }) as Parameters<typeof contextMismatch>[0];
     const town = (stateProvince: string) => ({ name: 'Tacoma', featureType: 'populated place', stateProvince, countryCode: 'US' }) as Parameters<typeof contextMismatch>[0];
