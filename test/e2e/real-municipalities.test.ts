@@ -99,6 +99,11 @@ describe.skipIf(!hasGdal)('a file of municipalities matches the records\' munici
     }
     // every one of the 28 (7 names, 2 states, by name and by code) is answered
     expect(answered).toBe(28);
+    // a name with a linking word ("do"), which the unit's key leaves out, given by its code: found all the same
+    const serido = all.find((m) => m.name === 'São José do Seridó')!;
+    const byCode = JSON.parse((await whereabouts('locate', serido.name, '--country-code', 'BR', '--state-province', 'RN', '--municipality', serido.code, '--json')).stdout);
+    expect(byCode.darwinCore.georeferenceRemarks).toContain('clipped to municipality "São José do Seridó"');
+    expect(municipalityAt(byCode.darwinCore.decimalLatitude, byCode.darwinCore.decimalLongitude)).toEqual([serido.code]);
     // a code no municipality holds names none: the text is not clipped to a municipality of another name
     const unknown = JSON.parse((await whereabouts('locate', 'Bom Jesus', '--country-code', 'BR', '--state-province', 'Paraíba', '--municipality', '9999999', '--json')).stdout);
     expect(JSON.stringify(unknown)).not.toContain('clipped to municipality');
