@@ -27,7 +27,7 @@ import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
-import { foundByUnitNames, shortFormKey } from '../match/context.ts';
+import { administrativeKey, foundByUnitNames, foundUnderUnitKeys, shortFormKey, UNIT_FIELD_LEVELS } from '../match/context.ts';
 import { routeJudgement } from './route.ts';
 import { wholeNameRead } from './whole-name.ts';
 
@@ -478,7 +478,7 @@ function resolveNames(finder: CandidateFinder, interpretation: Interpretation, c
   for (const name of interpretation.features) {
     const all = finder.findCandidates(featureQuery(name, context, interpretation, options));
     candidates.push(...all);
-    const { found, remark: ownUnit } = withoutOwnUnit(all, context);
+    const { found, remark: ownUnit } = withoutOwnUnit(all, context, finder);
     if (ownUnit) matchRemarks.push(ownUnit);
     const chosen = chosenFeatureFor(name, interpretation.features, found, edits.chosenFeatures);
     if (chosen) {
@@ -578,8 +578,11 @@ function lonelyName(interpretation: Interpretation): boolean {
  * place measured from, so it is left out, and the remark says so. Kept when it is the only candidate.
  * @example withoutOwnUnit([countyRioFundo, townRioFundo], { county: 'Rio Fundo' }).found // [townRioFundo]
  */
-function withoutOwnUnit(found: Candidate[], context: AdministrativeContext): { found: Candidate[]; remark?: string } {
-  const own = (c: Candidate) => ADMINISTRATIVE_LEVELS.some((l) => l.featureType === c.feature.featureType && !!context[l.field] && foldName(context[l.field]!) === foldName(c.feature.name));
+function withoutOwnUnit(found: Candidate[], context: AdministrativeContext, finder: CandidateFinder): { found: Candidate[]; remark?: string } {
+  // The record may give its unit by a code or another name the store's unit names hold ("2513208", "PB").
+  const names = (field: AdministrativeLevel, written: string, unitName: string) => foldName(written) === foldName(unitName)
+    || (field !== 'country' && (finder.unitNames?.(UNIT_FIELD_LEVELS[field], administrativeKey(written)) ?? []).some((n) => n.unitKey === administrativeKey(unitName)));
+  const own = (c: Candidate) => ADMINISTRATIVE_LEVELS.some((l) => l.featureType === c.feature.featureType && !!context[l.field] && names(l.field, context[l.field]!, c.feature.name));
   const units = found.filter((c) => c.score >= 1 && own(c));
   const rest = found.filter((c) => !units.includes(c));
   if (units.length === 0 || !rest.some((c) => c.score >= 1)) return { found };
@@ -696,7 +699,8 @@ function findPathLine(finder: CandidateFinder, interpretation: Interpretation, c
 
 /**
  * The most specific administrative unit the record names, down to `widest`, when the gazetteer holds it
- * under that name or a documented reading of it (a fuzzy match would clip to the wrong unit).
+ * under that name or a documented reading of it (a fuzzy match would clip to the wrong unit), or the record
+ * gives it by a code or name the store's unit names hold for it ("2504108", a municipality's code).
  */
 function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContext, widest: AdministrativeLevel): Feature | undefined {
   const levels = ADMINISTRATIVE_LEVELS.slice(0, ADMINISTRATIVE_LEVELS.findIndex((l) => l.field === widest) + 1);
@@ -706,7 +710,12 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
     const named = (written: string) => finder
       .findCandidates({ name: written, context, featureTypes: [level.featureType], withGeometry: true })
       .filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore);
-    const exact = foundByUnitNames(name, named);
+    let exact = foundByUnitNames(name, named);
+    if (exact.length === 0 && level.field !== 'country' && finder.unitNames) {
+      const unitKeys = finder.unitNames(UNIT_FIELD_LEVELS[level.field], administrativeKey(name)).map((unitName) => unitName.unitKey);
+      const byKey = (key: string) => finder.findCandidates({ name: key, context, featureTypes: [level.featureType], withGeometry: true });
+      exact = foundUnderUnitKeys(name, unitKeys, byKey, (c) => c.feature);
+    }
     if (exact.length === 1) return exact[0].feature;
   }
   return undefined;

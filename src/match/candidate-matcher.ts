@@ -9,12 +9,12 @@
  * features are read only together with another word's (commonTokenPostings), and the features the
  * rarer words found are checked for it one probe each, when the shortlist holds no name near the query.
  */
-import { contextMismatch, resolveContext, type ResolvedContext } from './context.ts';
+import { contextMismatch, resolveContext, UNIT_FIELD_LEVELS, type ResolvedContext } from './context.ts';
 import { editDistance, maxTokenEdits, MIN_FUZZY_TOKEN_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys } from './edit-distance.ts';
 import { ABBREVIATIONS, foldName, LEADING_ARTICLES, nameVariants, OPTIONAL_GENERIC_WORDS, type NameVariant } from './fold.ts';
 import { scoreFuzzy } from './fuzzy-score.ts';
 import { WordCache } from './word-cache.ts';
-import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting } from './types.ts';
+import type { Candidate, CandidateLookup, CandidateQuery, DroppedCandidate, Feature, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, UnitLevel } from './types.ts';
 import { nearestPlace } from './nearest-place.ts';
 import { withoutConnectors } from './connector-words.ts';
 import { MAX_OLDER_SPELLINGS, olderSpellingReadings, spellingReforms, tilSpellingReadings } from './older-spelling.ts';
@@ -154,7 +154,14 @@ export class CandidateMatcher {
     const notes: string[] = [];
     const context = this.resolve(query, notes);
     const dropped: DroppedCandidate[] = [];
-    const constraint = unitPolygonFilter(query, context, notes, (name) => this.exactCandidates(name), (feature) => this.index.attachGeometry(feature));
+    // A unit named through the unit names is looked up by its key: as a name first, then, when its key lacks a
+    // word of the name ("rio grande norte"), with near spellings in the stated countries (no unit stated, so
+    // that lookup asks for no polygon filter of its own).
+    const byKey = (key: string, featureType: string) => {
+      const exact = this.exactCandidates(key).filter((candidate) => candidate.feature.featureType === featureType);
+      return exact.length > 0 ? exact : this.lookup({ name: key, context: { countryCode: query.context.countryCode, country: query.context.country }, featureTypes: [featureType] }).candidates;
+    };
+    const constraint = unitPolygonFilter(query, context, notes, (name) => this.exactCandidates(name), (feature) => this.index.attachGeometry(feature), byKey);
     const misfit = (feature: Feature): string | null => contextMismatch(feature, context, constraint.decided) ?? constraint.outside(feature);
     const fits = (candidate: Candidate): boolean => {
       const feature = candidate.feature;
@@ -203,7 +210,7 @@ export class CandidateMatcher {
   }
 
   /** The keys of the units one of whose names has `key` (NameIndex.unitKeys), kept between lookups. */
-  private unitKeysOf(level: 1 | 2, key: string): string[] {
+  private unitKeysOf(level: UnitLevel, key: string): string[] {
     const cacheKey = `${level}${key}`;
     let keys = this.unitKeys.get(cacheKey);
     if (keys === undefined) {
@@ -232,10 +239,11 @@ export class CandidateMatcher {
       }
     }
     const context = resolveContext(query.context, gazetteerCodes);
-    // A state or county written in another language or by a former name: the units it names.
+    // A state, county or municipality written in another language, by a former name or by a code: the units it names.
     if (this.index.unitKeys !== undefined) {
-      if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.unitKeysOf(1, context.stateProvinceKey));
-      if (context.countyKey !== undefined) context.countyAliases = new Set(this.unitKeysOf(2, context.countyKey));
+      if (context.stateProvinceKey !== undefined) context.stateProvinceAliases = new Set(this.unitKeysOf(UNIT_FIELD_LEVELS.stateProvince, context.stateProvinceKey));
+      if (context.countyKey !== undefined) context.countyAliases = new Set(this.unitKeysOf(UNIT_FIELD_LEVELS.county, context.countyKey));
+      if (context.municipalityKey !== undefined) context.municipalityAliases = new Set(this.unitKeysOf(UNIT_FIELD_LEVELS.municipality, context.municipalityKey));
       context.unitsNamed = (level, key) => this.unitKeysOf(level, key);
     }
     if (context.unresolvedCountry !== undefined) notes.push(`country '${context.unresolvedCountry}' not recognised: not used to filter`);

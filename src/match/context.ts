@@ -6,7 +6,7 @@ import type { AdministrativeContext } from '../parse/types.ts';
 import { COUNTRY_NAME_LANGUAGES, countryCodeWritten, EXONYM_LANGUAGES, LATIN_COUNTRY_NAMES, regionNames } from '../parse/country-names.ts';
 import { editDistance } from './edit-distance.ts';
 import { foldName } from './fold.ts';
-import type { Feature } from './types.ts';
+import type { Feature, UnitLevel } from './types.ts';
 
 let countryNameIndex: Map<string, string> | undefined;
 
@@ -106,6 +106,27 @@ export function foundByUnitNames<T>(written: string, find: (name: string) => T[]
 }
 
 /**
+ * The units a record's unit field names only through the store's unit names (a code, "US-WA", "2504108", or a
+ * name its feature lacks): for each of the keys `unitKeys` but the written one's own (the administrativeKey of
+ * the name of a loaded unit one of whose names or codes it is), what `find` gives for that key whose name or
+ * an alternate name has that key, each unit once. A key may lack words the name has ("rio grande norte" for
+ * Rio Grande do Norte), so `find` may look up near spellings; its answers are kept by their key alone.
+ * @example foundUnderUnitKeys('WA', ['wa', 'washington'], find, (c) => c.feature) // [Washington]
+ */
+export function foundUnderUnitKeys<T>(written: string, unitKeys: Iterable<string>, find: (key: string) => T[], featureOf: (found: T) => Feature): T[] {
+  const own = administrativeKey(written);
+  const found = new Map<string, T>();
+  for (const key of unitKeys) {
+    if (key === own) continue;
+    for (const unit of find(key)) {
+      const feature = featureOf(unit);
+      if ([feature.name, ...feature.alternateNames].some((name) => administrativeKey(name) === key)) found.set(`${feature.sourceId}:${feature.featureId}`, unit);
+    }
+  }
+  return [...found.values()];
+}
+
+/**
  * The short form of a unit's official long name, "X de <honoree>" ("Veracruz de Ignacio de la Llave",
  * "Michoacán de Ocampo", "Comitán de Domínguez"): the folded words before the first "de"; the whole key
  * when there is none. Only "de": "Mato Grosso do Sul" and "Santiago del Estero" are names of their own.
@@ -175,6 +196,21 @@ function unitKeyReading(key: string): { joined: string; compact: string; parts: 
   return { joined, compact: words.join(''), parts: joined.split(' and ').filter((part) => part !== '') };
 }
 
+/**
+ * The level of the store's unit names (UnitLevel) each record field that names a unit is read at: a state
+ * field among the states' names and codes, a county field among the counties', a municipality field among
+ * the municipalities'.
+ */
+export const UNIT_FIELD_LEVELS = { stateProvince: 1, county: 2, municipality: 3 } as const satisfies Readonly<Record<string, UnitLevel>>;
+
+/**
+ * The keys of the units a field's value names by any of their names or codes (ResolvedContext's aliases).
+ * @example unitAliases(context, 'municipality') // Set {'bom jesus'} for a municipality written by its code
+ */
+export function unitAliases(context: ResolvedContext, field: keyof typeof UNIT_FIELD_LEVELS): ReadonlySet<string> | undefined {
+  return field === 'stateProvince' ? context.stateProvinceAliases : field === 'county' ? context.countyAliases : context.municipalityAliases;
+}
+
 /** The context a candidate must fit, resolved once per query. */
 export interface ResolvedContext {
   /** Allowed country codes; empty when the context names no country. */
@@ -183,14 +219,19 @@ export interface ResolvedContext {
   /** The state's short form (shortFormKey), matched against the short form of a feature's state. */
   stateProvinceShortKey?: string;
   countyKey?: string;
-  /** Keys of the names of units known by the state (county) name given in any of their names, from the gazetteer. */
+  municipalityKey?: string;
+  /**
+   * Keys of the names of units known by the state (county, municipality) name given in any of their names
+   * or codes, from the gazetteer's unit names.
+   */
   stateProvinceAliases?: ReadonlySet<string>;
   countyAliases?: ReadonlySet<string>;
+  municipalityAliases?: ReadonlySet<string>;
   /**
    * The keys of the loaded units one of whose names or codes has `key` (NameIndex.unitKeys): a feature
    * recording its state by a code ("WA", "US-WA") is read as the unit holding that code.
    */
-  unitsNamed?: (level: 1 | 2, key: string) => readonly string[];
+  unitsNamed?: (level: UnitLevel, key: string) => readonly string[];
   /** Country written in the context that no table resolved (then it does not filter). */
   unresolvedCountry?: string;
 }
@@ -215,6 +256,7 @@ export function resolveContext(context: AdministrativeContext, gazetteerCountryC
     stateProvinceKey: context.stateProvince?.trim() ? administrativeKey(context.stateProvince) : undefined,
     stateProvinceShortKey: context.stateProvince?.trim() ? shortFormKey(context.stateProvince) : undefined,
     countyKey: context.county?.trim() ? administrativeKey(context.county) : undefined,
+    municipalityKey: context.municipality?.trim() ? administrativeKey(context.municipality) : undefined,
     unresolvedCountry,
   };
 }
@@ -237,13 +279,13 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
   }
   if (!decided.stateProvince && context.stateProvinceKey !== undefined && feature.stateProvince !== null
     && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases, context.unitsNamed, 1)
+    && !sameUnit(feature.stateProvince, context.stateProvinceKey, context.stateProvinceAliases, context.unitsNamed, UNIT_FIELD_LEVELS.stateProvince)
     && shortFormKey(feature.stateProvince) !== context.stateProvinceShortKey) {
     return `state/province '${feature.stateProvince}', not the one given`;
   }
   if (!decided.county && context.countyKey !== undefined && feature.county !== null
     && feature.featureType !== 'county' && feature.featureType !== 'stateProvince' && feature.featureType !== 'country'
-    && !sameUnit(feature.county, context.countyKey, context.countyAliases, context.unitsNamed, 2)) {
+    && !sameUnit(feature.county, context.countyKey, context.countyAliases, context.unitsNamed, UNIT_FIELD_LEVELS.county)) {
     return `county '${feature.county}', not the one given`;
   }
   return null;
@@ -255,7 +297,7 @@ export function contextMismatch(feature: Feature, context: ResolvedContext, deci
  * it. A recorded name that is a loaded unit's own name names that unit only.
  * @example sameUnit('WA', 'washington', new Set(['washington']), () => ['washington'], 1) // true
  */
-function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined, unitsNamed: ResolvedContext['unitsNamed'], level: 1 | 2): boolean {
+function sameUnit(recorded: string, key: string, aliases: ReadonlySet<string> | undefined, unitsNamed: ResolvedContext['unitsNamed'], level: UnitLevel): boolean {
   const recordedKey = administrativeKey(recorded);
   if (recordedKey === key || aliases?.has(recordedKey) === true) return true;
   if (aliases === undefined || aliases.size === 0) return false;

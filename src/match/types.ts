@@ -151,12 +151,14 @@ export interface CandidateFinder {
    */
   nearestPlace?(query: NearestPlaceQuery): NearbyPlace | null;
   /**
-   * Every name of the loaded state (level 1) or county (level 2) units, or those with the key `key`, each
-   * with its unit's comparison key (administrativeKey); empty when the gazetteer records none (optional for
-   * other finders).
+   * Every name of the loaded units of a level (UnitLevel), or those with the key `key`, each with its unit's
+   * comparison key (administrativeKey); empty when the gazetteer records none (optional for other finders).
    */
-  unitNames?(level: 1 | 2, key?: string): readonly UnitName[];
+  unitNames?(level: UnitLevel, key?: string): readonly UnitName[];
 }
+
+/** A level of the store's unit names: 1 a state or province, 2 a county, 3 a municipality. */
+export type UnitLevel = 1 | 2 | 3;
 
 /** One name of a loaded administrative unit: its key and its unit's key (both administrativeKey). */
 export interface UnitName {
@@ -258,10 +260,10 @@ export interface NameIndex {
    */
   sourceRanks?(): ReadonlyMap<string, number>;
   /**
-   * The comparison keys (administrativeKey) of the state (level 1) or county (level 2) names of units
-   * one of whose names, in any language, has the key `key`; empty when the index knows none.
+   * The comparison keys (administrativeKey) of the names of the units of a level (UnitLevel) one of whose
+   * names or codes, in any language, has the key `key`; empty when the index knows none.
    */
-  unitKeys?(level: 1 | 2, key: string): string[];
+  unitKeys?(level: UnitLevel, key: string): string[];
   /** Row ids of the features whose center lies in the box (optional: without it no place is found near a point). */
   featureIdsInBox?(box: DegreeBox): number[];
 }

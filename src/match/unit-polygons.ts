@@ -11,7 +11,7 @@ import { feature as turfFeature, featureCollection } from '@turf/helpers';
 import { intersect } from '@turf/intersect';
 import { lineIntersect } from '@turf/line-intersect';
 import { geometryAreaSquareMeters } from '../geodesy/geodesic.ts';
-import { administrativeKey, foundByUnitNames, type ResolvedContext, type SpatiallyDecided } from './context.ts';
+import { foundByUnitNames, foundUnderUnitKeys, unitAliases, type ResolvedContext, type SpatiallyDecided } from './context.ts';
 import type { Candidate, CandidateQuery, Feature } from './types.ts';
 
 /** Administrative levels from the smallest up, for the spatial test. */
@@ -27,7 +27,8 @@ export interface UnitPolygonFilter {
 }
 
 /**
- * The polygon filter of a query: `exactCandidates` finds the stated units by name, `attachGeometry`
+ * The polygon filter of a query: `exactCandidates` finds the stated units by name, `keyCandidates` the units of
+ * a feature type by a unit-name key (near spellings too: a key may lack a word of the name), `attachGeometry`
  * loads their polygons; a note for each unit used is added to `notes`.
  * @example unitPolygonFilter({ name: 'Alto', context: { county: 'Norte' } }, context, notes, exact, attach).outside(feature)
  * // "center outside the polygon of county 'Norte' (demo:c-3)"
@@ -38,6 +39,7 @@ export function unitPolygonFilter(
   notes: string[],
   exactCandidates: (name: string) => Candidate[],
   attachGeometry: (feature: Feature) => void,
+  keyCandidates: (key: string, featureType: string) => Candidate[],
 ): UnitPolygonFilter {
   const levels: { level: keyof typeof LEVEL_WORDS; written: string | undefined }[] = [
     { level: 'municipality', written: query.context.municipality },
@@ -48,18 +50,16 @@ export function unitPolygonFilter(
   const decided: SpatiallyDecided = {};
   for (const { level, written } of levels) {
     if (written === undefined || written.trim() === '' || query.featureTypes?.includes(level)) continue;
-    const unitsNamed = (name: string) => exactCandidates(name)
-      .map((candidate) => candidate.feature)
-      .filter((feature) => feature.featureType === level
-        && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
-        && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode)));
+    const isPolygonHere = (feature: Feature) => feature.featureType === level
+      && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
+      && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode));
+    const unitsNamed = (name: string) => exactCandidates(name).map((candidate) => candidate.feature).filter(isPolygonHere);
     // A unit the record gives by a code or name its feature lacks ("US-WA", a states file's --unit-code-field):
     // found under the own name of each loaded unit that the unit names say it names.
-    const aliases = level === 'stateProvince' ? context.stateProvinceAliases : level === 'county' ? context.countyAliases : undefined;
+    const aliases = unitAliases(context, level);
     let units = foundByUnitNames(written, unitsNamed);
     if (units.length === 0 && aliases !== undefined) {
-      const others = [...aliases].filter((key) => key !== administrativeKey(written));
-      units = [...new Map(others.flatMap(unitsNamed).map((unit) => [`${unit.sourceId}:${unit.featureId}`, unit])).values()];
+      units = foundUnderUnitKeys(written, aliases, (key) => keyCandidates(key, level).map((candidate) => candidate.feature).filter(isPolygonHere), (unit) => unit);
     }
     if (units.length === 0) continue;
     for (const unit of units) attachGeometry(unit);

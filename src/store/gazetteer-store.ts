@@ -14,7 +14,7 @@ import { indexTerms, type IndexTerms } from './index-terms.ts';
 import { RowWriter, SortedPairs, StagedNames } from './import-writers.ts';
 import { importSortPath } from './side-files.ts';
 import type {
-  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source, UnitName,
+  AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source, UnitName, UnitLevel,
 } from '../match/types.ts';
 
 /** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
@@ -112,8 +112,8 @@ export interface ImportSession {
   stageAlternateName(featureId: string, name: AlternateName): void;
   /** The alternate names staged for a feature, in the order staged. */
   stagedAlternateNames(featureId: string): AlternateName[];
-  /** Records every name of a state (level 1) or county (level 2) whose features carry `unitName`. */
-  addUnitNames(level: 1 | 2, unitName: string, names: readonly string[]): void;
+  /** Records every name of a unit of a level (UnitLevel: state, county, municipality) whose features carry `unitName`. */
+  addUnitNames(level: UnitLevel, unitName: string, names: readonly string[]): void;
   commit(source: SourceRecord): Source;
   rollback(): void;
 }
@@ -149,7 +149,7 @@ interface SourceRow {
 export interface GazetteerStore extends CandidateFinder {
   lookupCandidates(query: CandidateQuery): CandidateLookup;
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null;
-  unitNames(level: 1 | 2, key?: string): readonly UnitName[];
+  unitNames(level: UnitLevel, key?: string): readonly UnitName[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
   /**
@@ -206,7 +206,7 @@ class SqliteGazetteer implements GazetteerStore {
   /** What lookups keep between them (the matcher's word cache too) holds while this stays (content-version.ts). */
   private readonly content: ContentVersion;
   /** Every unit name of a level (see unitNames). */
-  private readonly levelNames: KeptWhileUnchanged<1 | 2, readonly UnitName[]>;
+  private readonly levelNames: KeptWhileUnchanged<UnitLevel, readonly UnitName[]>;
   /** A country's outlines by its code (see countryOutlines). */
   private readonly outlines: KeptWhileUnchanged<string, readonly Feature[]>;
   /** Every country polygon's row, without its geometry, by country code (see countryOutlines). */
@@ -257,7 +257,7 @@ class SqliteGazetteer implements GazetteerStore {
     return this.matcher.nearestPlace(query);
   }
 
-  unitNames(level: 1 | 2, key?: string): readonly UnitName[] {
+  unitNames(level: UnitLevel, key?: string): readonly UnitName[] {
     if (key !== undefined) return this.statements.unitNamesByKey.all(key, level) as UnitName[];
     // A stated unit the gazetteer does not know reads every name of its level, a whole table (10 ms and
     // more a record): read once until the file changes, as the word cache is. Frozen, as every caller

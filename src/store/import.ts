@@ -92,9 +92,6 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
   if (!gis && options.format !== 'geojson' && given.length > 0) {
     throw new Error(`${given.join(', ')} map a GIS file's or a GeoJSON feature's attributes; a ${options.format === 'csv' ? 'CSV gazetteer names its columns in its header' : 'file of the dump layout has fixed columns'} (${options.format === 'csv' ? CSV_COLUMNS.join(', ') : 'see the README'}): rename its columns instead`);
   }
-  if (options.format === 'geojson' && map.unitCodeFields !== undefined && map.unitCodeFields.length > 0) {
-    throw new Error('--unit-code-field records the codes of the states and counties of a shapefile or GeoPackage; a GeoJSON import does not record its units\' names yet: give the codes with --alternate-names-field, or convert the file (ogr2ogr -f GPKG)');
-  }
   // A zip archive (not a workbook) given as the dump layout is the dump as distributed: its data member
   // is read (file-input.ts).
   const notTextKind = gis ? undefined : notText(fileHead(filePath));
@@ -127,9 +124,10 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
       : checkedRows(input === undefined ? readGisFile(filePath, options.format as 'shapefile' | 'gpkg', options.gis ?? {}, notes)
         : options.format === 'csv' ? readCsv(input, await detectDelimiter(filePath, format), format.delimiterDeclaration ? 1 : 0) : options.format === 'geojson' ? readGeoJson(input, options.gis ?? {}) : readDump(input, adminNames),
       (raw) => (alternateNames !== undefined && raw.id !== undefined ? withStagedNames(raw, session.stagedAlternateNames(raw.id)) : raw), options.radii);
-    // A GIS file's states and counties are recorded with all their names and codes, as the dump's admin
-    // code files record theirs, and the state codes its features record are checked. A GeoJSON import's
-    // are not: what they would change in the readings over the GeoJSON demo gazetteer is not measured.
+    // The states, counties and municipalities of a GIS file, a GeoJSON or a CSV gazetteer are recorded with
+    // all their names and codes, as the dump's admin code files record theirs (the dump's own unit rows are
+    // not: its admin code files name its units), and the state codes its features record are checked.
+    const recordsUnits = options.format !== 'geonames';
     const statesRecorded = new Map<string, number>();
     for await (const batch of rows) {
       for (const { row, checked, terms, unitCodes } of batch) {
@@ -139,7 +137,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
           rejected.push({ row, reason });
         } else {
           imported++;
-          if (gis && typeof checked !== 'string') {
+          if (recordsUnits && typeof checked !== 'string') {
             const unit = unitNamesOf(checked, unitCodes);
             if (unit !== null) session.addUnitNames(unit.level, unit.name, unit.names);
             if (checked.stateProvince !== null) statesRecorded.set(checked.stateProvince, (statesRecorded.get(checked.stateProvince) ?? 0) + 1);
@@ -291,7 +289,8 @@ function defaultSourceId(filePath: string): string {
   return basename(filePath, extname(filePath)).toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'gazetteer';
 }
 
-const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters'];
+/** The gazetteer CSV's columns; `alternateNames` and `unitCodes` (a unit's codes, "US-WA|WA") are `|`-separated. */
+const CSV_COLUMNS = ['id', 'name', 'alternateNames', 'latitude', 'longitude', 'featureType', 'countryCode', 'stateProvince', 'county', 'radiusMeters', 'unitCodes'];
 
 /**
  * The gazetteer CSV's rows, in the delimiter its header line uses (a spreadsheet of Spanish, Portuguese or
@@ -321,7 +320,7 @@ async function* readCsv(input: Readable, delimiter: HeaderDelimiter, linesBefore
     }
     yield [{
       row: info.lines + linesBefore,
-      raw: { ...fields, alternateNames: fields.alternateNames === undefined ? [] : fields.alternateNames.split('|') },
+      raw: { ...fields, alternateNames: listedNames(fields.alternateNames), unitCodes: listedNames(fields.unitCodes) },
     }];
   }
 }
@@ -392,14 +391,23 @@ function readGeoJsonFeature(text: string, map: GisFieldMap): RawFeature | string
   }
   if (feature.type !== 'Feature') return `member of type '${String(feature.type)}', not a Feature`;
   const properties = (feature.properties ?? {}) as Record<string, unknown>;
-  const alternates = properties.alternateNames;
   return {
     ...properties,
     id: properties.id !== undefined ? String(properties.id) : feature.id !== undefined ? String(feature.id) : undefined,
-    alternateNames: Array.isArray(alternates) ? alternates.map(String) : typeof alternates === 'string' ? alternates.split('|') : [],
+    alternateNames: listedNames(properties.alternateNames),
+    unitCodes: listedNames(properties.unitCodes),
     ...mappedColumns(properties, map),
     geometry: feature.geometry,
   };
+}
+
+/**
+ * A column or property of several names (alternate names, a unit's codes): a JSON array, or text
+ * `|`-separated; none when absent.
+ * @example listedNames('WA|Wash.') // ['WA', 'Wash.']
+ */
+function listedNames(value: unknown): string[] {
+  return Array.isArray(value) ? value.map(String) : typeof value === 'string' && value !== '' ? value.split('|') : [];
 }
 
 /** A clear error before any work starts, rather than a stream error in the middle of the import. */

@@ -1,12 +1,13 @@
 /**
- * The names and codes a state or county read from a GIS file or GeoJSON is known by in the store's unit
+ * The names and codes a state, county or municipality read from a gazetteer file is known by in the store's unit
  * names (the table the world dump's admin code files fill), and the note when a file's features record
  * their state by a code that no loaded state holds. Pure.
  */
+import type { UnitLevel } from '../match/types.ts';
 import type { FeatureRecord } from './gazetteer-store.ts';
 
-/** The unit-name level of each feature type that is a unit: 1 a state or province, 2 a county. */
-const UNIT_LEVELS: Readonly<Record<string, 1 | 2>> = { stateProvince: 1, county: 2 };
+/** The unit-name level of each feature type that is a unit: 1 a state or province, 2 a county, 3 a municipality. */
+const UNIT_LEVELS: Readonly<Record<string, UnitLevel>> = { stateProvince: 1, county: 2, municipality: 3 };
 
 /**
  * An ISO 3166-2 code: the country's alpha-2 code, a hyphen and up to three letters or digits for the
@@ -16,12 +17,12 @@ const UNIT_LEVELS: Readonly<Record<string, 1 | 2>> = { stateProvince: 1, county:
 const ISO_3166_2 = /^([A-Za-z]{2})-([A-Za-z0-9]{1,3})$/;
 
 /**
- * A state's or county's level and its names beside its own: its alternate names, its codes, and the
+ * A state's, county's or municipality's level and its names beside its own: its alternate names, its codes, and the
  * subdivision part of an ISO 3166-2 code of its own country; null for a feature of another type.
  * @example unitNamesOf({ name: 'Washington', alternateNames: ['WA', 'Wash.'], featureType: 'stateProvince', countryCode: 'US' }, ['US-WA'])
  * // { level: 1, name: 'Washington', names: ['WA', 'Wash.', 'US-WA'] } ("WA", the subdivision part of US-WA, is among them already)
  */
-export function unitNamesOf(record: Pick<FeatureRecord, 'name' | 'alternateNames' | 'featureType' | 'countryCode'>, codes: readonly string[] = []): { level: 1 | 2; name: string; names: string[] } | null {
+export function unitNamesOf(record: Pick<FeatureRecord, 'name' | 'alternateNames' | 'featureType' | 'countryCode'>, codes: readonly string[] = []): { level: UnitLevel; name: string; names: string[] } | null {
   const level = UNIT_LEVELS[record.featureType ?? ''];
   if (level === undefined) return null;
   const names = new Set(record.alternateNames);

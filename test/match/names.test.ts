@@ -5,8 +5,9 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { editDistance, MIN_FUZZY_TOKEN_LENGTH, MIN_HALVES_LENGTH, MIN_TWO_EDIT_LENGTH, oneEditQueryKeys, queryTokenKeys, storedTokenKeys } from '../../src/match/edit-distance.ts';
 import { foldName, nameVariants } from '../../src/match/fold.ts';
-import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, resolveContext, shortFormKey, unitLookupNames } from '../../src/match/context.ts';
+import { administrativeKey, contextMismatch, countryCodeForName, countryExonymLanguage, foundUnderUnitKeys, resolveContext, shortFormKey, unitLookupNames } from '../../src/match/context.ts';
 import { DEFAULT_RADII } from '../../src/georef/default-radii.ts';
+import type { UnitLevel } from '../../src/match/types.ts';
 
 describe('foldName', () => {
   // Canonical decompositions from the Unicode Standard (UAX #15, normalization forms): é = e + U+0301,
@@ -79,7 +80,7 @@ describe('administrative names and countries', () => {
     const loaded: Record<string, string[]> = { wa: ['washington'], 'us wa': ['washington'], washington: ['washington'], id: ['idaho'], idaho: ['idaho'] };
     const stated = (stateProvince: string) => {
       const context = resolveContext({ countryCode: 'US', stateProvince });
-      return { ...context, stateProvinceAliases: new Set(loaded[context.stateProvinceKey!] ?? []), unitsNamed: (_level: 1 | 2, key: string) => loaded[key] ?? [] };
+      return { ...context, stateProvinceAliases: new Set(loaded[context.stateProvinceKey!] ?? []), unitsNamed: (_level: UnitLevel, key: string) => loaded[key] ?? [] };
     };
     const county = (stateProvince: string) => ({ name: 'Pierce', featureType: 'county', stateProvince, countryCode: 'US' }) as Parameters<typeof contextMismatch>[0];
     const town = (stateProvince: string) => ({ name: 'Tacoma', featureType: 'populated place', stateProvince, countryCode: 'US' }) as Parameters<typeof contextMismatch>[0];
@@ -94,6 +95,26 @@ describe('administrative names and countries', () => {
     expect(contextMismatch(county('WA'), stated('Washington'))).toBeNull();
     // without the loaded units the code stays unread, as before
     expect(contextMismatch(town('WA'), resolveContext({ countryCode: 'US', stateProvince: 'Washington' }))).toBe("state/province 'WA', not the one given");
+  });
+
+  it('finds a unit written by a code under its own name, whose key may lack a word of the name ("rio grande norte")', () => {
+    // The unit names of Natural Earth's 1:50m admin-1 Rio Grande do Norte (public domain; postal code "RN") and of
+    // IBGE's municipality 2412401 São José do Seridó (github.com/tbrugz/geodata-br, CC0 1.0): the key a code names
+    // is the unit's administrativeKey, which drops "do"; the lookup by that key may bring near names, kept only
+    // when their own key is that key. Input and expected side by side.
+    const unit = (name: string, featureId: string) => ({ sourceId: 'units', featureId, name, alternateNames: [] as string[] }) as unknown as Parameters<typeof contextMismatch>[0];
+    const near = [unit('Rio Grande do Norte', 'RN'), unit('Rio Grande do Sul', 'RS'), unit('São José do Seridó', '2412401'), unit('Santana do Seridó', '2411429')];
+    const find = () => near;
+    const cases: [written: string, unitKeys: string[], found: string[]][] = [
+      ['RN', ['rio grande norte'], ['RN']],
+      ['2412401', ['sao jose serido'], ['2412401']],
+      // the written name's own key is no other name of it
+      ['Rio Grande do Norte', ['rio grande norte'], []],
+      ['XX', [], []],
+    ];
+    for (const [written, unitKeys, found] of cases) {
+      expect(foundUnderUnitKeys(written, unitKeys, find, (f) => f).map((f) => f.featureId), written).toEqual(found);
+    }
   });
 
   it('resolves country names in four languages to ISO 3166-1 alpha-2 codes (CLDR names through Intl)', () => {

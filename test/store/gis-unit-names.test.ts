@@ -1,9 +1,14 @@
 /**
- * The names and codes a state or county from a GIS file is recorded by in the store's unit names, and the
- * note for state codes no loaded state holds (src/store/unit-names.ts). Inputs and expected values side by
+ * The names and codes a state, county or municipality from a GIS file, a GeoJSON or a CSV gazetteer is recorded
+ * by in the store's unit names, and the note for state codes no loaded state holds (src/store/unit-names.ts). Inputs and expected values side by
  * side; the real files go through the CLI in test/e2e/real-files.test.ts.
  */
-import { describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { openGazetteer, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { importGazetteer } from '../../src/store/import.ts';
 import { mappedColumns } from '../../src/store/gis-import.ts';
 import { parentCodeNote, unitNamesOf } from '../../src/store/unit-names.ts';
 
@@ -20,6 +25,10 @@ describe('unitNamesOf', () => {
       // another country's code keeps its whole form only; a county is level 2
       [{ name: 'Pierce', alternateNames: ['Pierce County'], featureType: 'county', countryCode: 'US' }, ['BR-SC'],
         { level: 2, name: 'Pierce', names: ['Pierce County', 'BR-SC'] }],
+      // a municipality is level 3; its statistical code is kept whole (IBGE's 2502201 for Bom Jesus, Paraíba:
+      // github.com/tbrugz/geodata-br, CC0 1.0, test/fixtures/real/README.md)
+      [{ name: 'Bom Jesus', alternateNames: [], featureType: 'municipality', countryCode: 'BR' }, ['2502201'],
+        { level: 3, name: 'Bom Jesus', names: ['2502201'] }],
       // no unit: a town's names are no unit names
       [{ name: 'Tacoma', alternateNames: [], featureType: 'populated place', countryCode: 'US' }, ['US-WA'], null],
     ];
@@ -42,5 +51,47 @@ describe('parentCodeNote', () => {
       .toBe('the state/province code "WA" (39 features) names no state or province loaded (by a name or code), so a record writing the state by its name meets these features only where the state\'s polygon is loaded: import the states with this code among their names or codes (--alternate-names-field, --unit-code-field), before or after this file');
     expect(parentCodeNote(new Map([['US-53', 1], ['US-16', 2]]), () => false)).toMatch(/^the state\/province codes "US-53" \(1 feature\), "US-16" \(2 features\) name no state/);
     expect(parentCodeNote(new Map([['ID', 44]]), (code) => known.has(code))).toBeNull();
+  });
+});
+
+describe('a GeoJSON and a CSV gazetteer record their units\' names and codes as a GIS file does', () => {
+  // Invented units of the demo country QV (user-assigned, ISO 3166-1 §7.1.3): the same state and municipality
+  // written as a GeoJSON FeatureCollection (RFC 7946 §3.3) and as the gazetteer CSV (README, "Importing").
+  const directory = mkdtempSync(join(tmpdir(), 'whereabouts-unit-names-formats-'));
+  afterAll(() => rmSync(directory, { recursive: true, force: true }));
+  const square = (west: number, south: number) => ({ type: 'Polygon', coordinates: [[[west, south], [west + 0.1, south], [west + 0.1, south + 0.1], [west, south + 0.1], [west, south]]] });
+  const expected = [
+    { key: '2650', level: 3, unitKey: 'vado alto' }, { key: 'pn', level: 1, unitKey: 'poniente' }, { key: 'pon', level: 1, unitKey: 'poniente' },
+    { key: 'poniente', level: 1, unitKey: 'poniente' }, { key: 'qv pn', level: 1, unitKey: 'poniente' }, { key: 'vado alto', level: 3, unitKey: 'vado alto' },
+  ];
+  const unitNames = (store: GazetteerStore) => [1, 2, 3].flatMap((level) => store.unitNames(level as 1 | 2 | 3).map((name) => ({ key: name.key, level, unitKey: name.unitKey })))
+    .sort((a, b) => a.key.localeCompare(b.key));
+
+  it('GeoJSON: alternate names and the codes of --unit-code-field, at each unit\'s level', async () => {
+    const file = join(directory, 'units.geojson');
+    writeFileSync(file, JSON.stringify({ type: 'FeatureCollection', features: [
+      { type: 'Feature', properties: { name: 'Poniente', alternateNames: 'Pon.', CODE: 'QV-PN', featureType: 'stateProvince', countryCode: 'QV' }, geometry: square(-131.5, -45.5) },
+      { type: 'Feature', properties: { name: 'Vado Alto', CODE: '2650', featureType: 'municipality', countryCode: 'QV', stateProvince: 'PN' }, geometry: square(-131.45, -45.45) },
+    ] }));
+    const store = openGazetteer(join(directory, 'geojson.sqlite'));
+    try {
+      await importGazetteer(store, file, { format: 'geojson', citation: 'invented units', gis: { unitCodeFields: ['CODE'] } });
+      expect(unitNames(store)).toEqual(expected);
+    } finally {
+      store.close();
+    }
+  });
+
+  it('CSV: the alternateNames and unitCodes columns', async () => {
+    const file = join(directory, 'units.csv');
+    writeFileSync(file, 'id,name,alternateNames,latitude,longitude,featureType,countryCode,stateProvince,unitCodes\n'
+      + 's1,Poniente,Pon.,-45.45,-131.45,stateProvince,QV,,QV-PN\nm1,Vado Alto,,-45.4,-131.4,municipality,QV,PN,2650\n');
+    const store = openGazetteer(join(directory, 'csv.sqlite'));
+    try {
+      await importGazetteer(store, file, { format: 'csv', citation: 'invented units' });
+      expect(unitNames(store)).toEqual(expected);
+    } finally {
+      store.close();
+    }
   });
 });

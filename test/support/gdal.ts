@@ -42,3 +42,16 @@ export function ogrFeatures(path: string, layer?: string, ...options: string[]):
   }
   return features;
 }
+
+/**
+ * How many footprints of a batch's GeoPackage (its `footprints` layer) the join condition `on` pairs with a unit
+ * of the layer `units` added to it (aliases `f` and `u`), and how many of those lie inside that unit's polygon
+ * (SpatiaLite's ST_Within, read through ogrinfo's SQLite dialect; the polygon buffered by 1e-5°, about a meter,
+ * for the clip's own rounding).
+ * @example footprintsWithin(out, 'counties', `f.georeferenceRemarks LIKE '%"' || u.NAME || '"%'`) // { footprints: 12, inside: 12 }
+ */
+export function footprintsWithin(gpkg: string, units: string, on: string): { footprints: number; inside: number } {
+  const sql = `SELECT count(*) AS footprints, sum(ST_Within(f.geom, ST_Buffer(u.geom, 0.00001))) AS inside FROM footprints f JOIN ${units} u ON ${on}`;
+  const [row] = ogrFeatures(gpkg, undefined, '-dialect', 'SQLite', '-sql', sql);
+  return { footprints: Number(row!.fields.footprints), inside: Number(row!.fields.inside) };
+}
