@@ -43,14 +43,19 @@ function addDeletionKeys(text: string, deletions: number, into: Set<number>, tag
   let start = FNV_OFFSET;
   for (let i = 0; i < tag.length; i++) start = Math.imul(start ^ tag.charCodeAt(i), FNV_PRIME);
   const n = text.length;
-  const hashSkipping = (first: number, second: number) => {
-    let hash = start;
-    for (let i = 0; i < n; i++) if (i !== first && i !== second) hash = Math.imul(hash ^ text.charCodeAt(i), FNV_PRIME);
-    into.add(hash | 0);
-  };
-  if (n < shorterThan) hashSkipping(-1, -1);
-  if (deletions >= 1 && n - 1 < shorterThan) for (let i = 0; i < n; i++) hashSkipping(i, -1);
-  if (deletions >= 2 && n - 2 < shorterThan) for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) hashSkipping(i, j);
+  if (n < shorterThan) into.add(hashSkipping(text, start, -1, -1));
+  if (deletions >= 1 && n - 1 < shorterThan) for (let i = 0; i < n; i++) into.add(hashSkipping(text, start, i, -1));
+  if (deletions >= 2 && n - 2 < shorterThan) for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) into.add(hashSkipping(text, start, i, j));
+}
+
+/**
+ * The FNV-1a hash, from `start`, of `text` but its letters at `first` and `second` (-1 for none). A
+ * function of its own, not a closure made a call: an import makes millions of calls.
+ */
+function hashSkipping(text: string, start: number, first: number, second: number): number {
+  let hash = start;
+  for (let i = 0; i < text.length; i++) if (i !== first && i !== second) hash = Math.imul(hash ^ text.charCodeAt(i), FNV_PRIME);
+  return hash | 0;
 }
 
 /** Keys of one half ('<' front, '>' back) of a token of `length` letters, with up to `deletions` letters deleted. */

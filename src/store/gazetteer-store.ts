@@ -83,6 +83,8 @@ const TOKEN_CACHE_LIMIT = 1_000_000;
  */
 const IMPORT_CACHE_KIB = 65_536;
 const QUERY_CACHE_KIB = 65_536;
+/** Helper threads SQLite's sorter may use during an import, besides the importing thread (the machine's second core). */
+const IMPORT_SORT_THREADS = 1;
 /** Bytes of the file read through a memory map (SQLite caps it at its compile-time limit; the rest is read as usual). */
 const MMAP_BYTES = 2 ** 32;
 
@@ -331,6 +333,9 @@ class SqliteGazetteer implements GazetteerStore {
     db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = FILE');
+    // SQLite's sorter may sort the staged names and the features' index keys on a second core
+    // (IMPORT_SORT_THREADS) when they outgrow the cache, as they do at the world's size.
+    db.pragma(`threads = ${IMPORT_SORT_THREADS}`);
     this.content.changed();
     db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
@@ -342,6 +347,13 @@ class SqliteGazetteer implements GazetteerStore {
     for (const { name } of laterIndexes) db.exec(`DROP INDEX ${name}`);
     const sourceRowId = Number(s.insertSource.run(sourceId, new Date().toISOString(), previous?.priority ?? null).lastInsertRowid);
     const tokenIds = new Map<string, number>();
+    // Into an empty token table (freshTokens, below), the new tokens wait in memory, in id order from
+    // `firstNewToken`, and are written with their document frequencies when the postings are: written
+    // as they came, each token's row cost a random insert into the words' unique index among the
+    // features' pages in the page cache, and its count an update at the end (1 M names: 3.2 s → 0.3 s).
+    const newTokens: string[] = [];
+    let firstNewToken = 1;
+    const tokenRows = new RowWriter(db, 'tokens', ['id', 'token', 'df']);
     const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
     const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
     const names = new StagedNames(db);
@@ -360,21 +372,32 @@ class SqliteGazetteer implements GazetteerStore {
       if (existing !== undefined) {
         id = existing.id;
       } else {
-        id = Number(s.insertToken.run(token).lastInsertRowid);
+        id = freshTokens ? firstNewToken + newTokens.push(token) - 1 : Number(s.insertToken.run(token).lastInsertRowid);
         for (const hash of deletionKeys ?? storedTokenKeys(token)) deletions.add(hash, id);
       }
       if (tokenIds.size >= TOKEN_CACHE_LIMIT) {
+        // The tokens the cache forgets must be found in the file from now on: the waiting ones are written first.
+        writeNewTokens(() => 0);
         tokenIds.clear();
         everyTokenCached = false;
       }
       tokenIds.set(token, id);
       return id;
     };
+    /** Writes the waiting new tokens with the counts `df` gives them. */
+    const writeNewTokens = (df: (id: number) => number) => {
+      newTokens.forEach((token, i) => tokenRows.add(firstNewToken + i, token, df(firstNewToken + i)));
+      tokenRows.end();
+      firstNewToken += newTokens.length;
+      newTokens.length = 0;
+    };
     const finish = () => {
       open = false;
+      newTokens.length = 0;
       deletions.discard();
       postings.discard();
       db.pragma('synchronous = NORMAL');
+      db.pragma('threads = 0');
       staging = null;
       this.content.changed();
       db.pragma(`cache_size = -${QUERY_CACHE_KIB}`);
@@ -423,19 +446,24 @@ class SqliteGazetteer implements GazetteerStore {
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
         deletions.write();
         if (freshTokens) {
-          // The postings come in token order: a token's count is complete when the next token's postings start
-          // (token ids start at 1).
+          // The postings come in token order: a token's count is complete when the next token's postings
+          // start (token ids start at 1; every token has a posting). Tokens written before, when the
+          // cache was full, have their count set; the waiting ones are written with it.
+          const counts = new Int32Array(firstNewToken + newTokens.length);
           let token = 0;
           let df = 0;
           postings.write((next) => {
             if (next !== token) {
-              if (df > 0) s.setTokenCount.run(df, token);
+              if (token > 0 && token < firstNewToken) s.setTokenCount.run(df, token);
+              counts[token] = df;
               token = next;
               df = 0;
             }
             df++;
           });
-          if (df > 0) s.setTokenCount.run(df, token);
+          if (token > 0 && token < firstNewToken) s.setTokenCount.run(df, token);
+          counts[token] = df;
+          writeNewTokens((id) => counts[id]);
         } else {
           postings.write();
         }

@@ -193,20 +193,32 @@ export function packRows(rows: readonly CheckedRow[], sentWords: Set<string>): P
     // The dump layout gives points with their names only: the rest of a FeatureRecord is not packed.
     if (checked.geometry !== null || checked.nameDetails !== undefined) throw new Error('packRows packs point features without name details');
     const { keys, tokens } = indexTerms(checked.name, checked.alternateNames);
+    // Plain loops and stores, no array made a row: this thread's work bounds the import's rows phase.
     let newWords = 0;
-    tokens.forEach((token, place) => {
-      if (sentWords.has(token)) return;
+    for (let place = 0; place < tokens.length; place++) {
+      const token = tokens[place];
+      if (sentWords.has(token)) continue;
       if (sentWords.size >= SENT_WORDS_LIMIT) sentWords.clear();
       sentWords.add(token);
       const hashes = storedTokenKeys(token);
-      deletionKeys.push(place, hashes.length, ...hashes);
+      deletionKeys.push(place, hashes.length);
+      for (const hash of hashes) deletionKeys.push(hash);
       newWords++;
-    });
-    counts.set([1, checked.radiusIsDefault ? 1 : 0, checked.alternateNames.length, keys.length, tokens.length, newWords], i * COUNTS_PER_ROW + 1);
-    numbers.set([checked.latitude, checked.longitude, checked.radiusMeters], i * 3);
-    fields.push(checked.featureId, checked.name, checked.featureType ?? '', checked.countryCode ?? '', checked.stateProvince ?? '', checked.county ?? '',
-      ...checked.alternateNames);
-    terms.push(...keys, ...tokens);
+    }
+    const at = i * COUNTS_PER_ROW;
+    counts[at + 1] = 1;
+    counts[at + 2] = checked.radiusIsDefault ? 1 : 0;
+    counts[at + 3] = checked.alternateNames.length;
+    counts[at + 4] = keys.length;
+    counts[at + 5] = tokens.length;
+    counts[at + 6] = newWords;
+    numbers[i * 3] = checked.latitude;
+    numbers[i * 3 + 1] = checked.longitude;
+    numbers[i * 3 + 2] = checked.radiusMeters;
+    fields.push(checked.featureId, checked.name, checked.featureType ?? '', checked.countryCode ?? '', checked.stateProvince ?? '', checked.county ?? '');
+    for (const name of checked.alternateNames) fields.push(name);
+    for (const key of keys) terms.push(key);
+    for (const token of tokens) terms.push(token);
   });
   return { text: fields.join(FIELD_SEPARATOR), terms, counts, numbers, deletionKeys: Int32Array.from(deletionKeys) };
 }

@@ -32,9 +32,11 @@ export class RowWriter {
     this.values = new Array<unknown>(columns.length * ROWS_PER_INSERT);
   }
 
-  add(first: unknown, second: unknown): void {
+  /** Adds a row: `third` only for a table of three columns. */
+  add(first: unknown, second: unknown, third?: unknown): void {
     this.values[this.size++] = first;
     this.values[this.size++] = second;
+    if (this.columns.length === 3) this.values[this.size++] = third;
     if (this.size === this.values.length) {
       this.full.run(this.values);
       this.size = 0;
