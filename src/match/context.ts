@@ -199,7 +199,7 @@ function unitKeyReading(key: string): { joined: string; compact: string; parts: 
 /**
  * The level of the store's unit names (UnitLevel) each record field that names a unit is read at: a state
  * field among the states' names and codes, a county field among the counties', a municipality field among
- * the municipalities'.
+ * the municipalities'. A unit's feature type is its field's name, so the store files a unit's names by it too.
  */
 export const UNIT_FIELD_LEVELS = { stateProvince: 1, county: 2, municipality: 3 } as const satisfies Readonly<Record<string, UnitLevel>>;
 

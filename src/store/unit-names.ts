@@ -3,11 +3,9 @@
  * names (the table the world dump's admin code files fill), and the note when a file's features record
  * their state by a code that no loaded state holds. Pure.
  */
+import { UNIT_FIELD_LEVELS } from '../match/context.ts';
 import type { UnitLevel } from '../match/types.ts';
 import type { FeatureRecord } from './gazetteer-store.ts';
-
-/** The unit-name level of each feature type that is a unit: 1 a state or province, 2 a county, 3 a municipality. */
-const UNIT_LEVELS: Readonly<Record<string, UnitLevel>> = { stateProvince: 1, county: 2, municipality: 3 };
 
 /**
  * An ISO 3166-2 code: the country's alpha-2 code, a hyphen and up to three letters or digits for the
@@ -23,8 +21,9 @@ const ISO_3166_2 = /^([A-Za-z]{2})-([A-Za-z0-9]{1,3})$/;
  * // { level: 1, name: 'Washington', names: ['WA', 'Wash.', 'US-WA'] } ("WA", the subdivision part of US-WA, is among them already)
  */
 export function unitNamesOf(record: Pick<FeatureRecord, 'name' | 'alternateNames' | 'featureType' | 'countryCode'>, codes: readonly string[] = []): { level: UnitLevel; name: string; names: string[] } | null {
-  const level = UNIT_LEVELS[record.featureType ?? ''];
-  if (level === undefined) return null;
+  const type = record.featureType;
+  if (type === null || !Object.hasOwn(UNIT_FIELD_LEVELS, type)) return null;
+  const level = UNIT_FIELD_LEVELS[type as keyof typeof UNIT_FIELD_LEVELS];
   const names = new Set(record.alternateNames);
   for (const written of codes) {
     const code = written.trim();
