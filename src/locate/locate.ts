@@ -27,7 +27,7 @@ import { secondNameReading } from './second-name.ts';
 import { inverse } from '../geodesy/geodesic.ts';
 import { lookupsOnce } from './lookups-once.ts';
 import { foldName } from '../match/fold.ts';
-import { administrativeKey, foundByUnitNames, foundUnderUnitKeys, shortFormKey, UNIT_FIELD_LEVELS } from '../match/context.ts';
+import { administrativeKey, contextMismatch, foundByUnitNames, foundUnderUnitKeys, resolveContext, shortFormKey, UNIT_FIELD_LEVELS } from '../match/context.ts';
 import { routeJudgement } from './route.ts';
 import { wholeNameRead } from './whole-name.ts';
 
@@ -700,7 +700,8 @@ function findPathLine(finder: CandidateFinder, interpretation: Interpretation, c
 /**
  * The most specific administrative unit the record names, down to `widest`, when the gazetteer holds it
  * under that name or a documented reading of it (a fuzzy match would clip to the wrong unit), or the record
- * gives it by a code or name the store's unit names hold for it ("2504108", a municipality's code).
+ * gives it by a code or name the store's unit names hold for it ("2504108", a municipality's code): the one unit
+ * feature that code is tied to, though another unit shares its name, else the units of the names it is recorded for.
  */
 function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContext, widest: AdministrativeLevel): Feature | undefined {
   const levels = ADMINISTRATIVE_LEVELS.slice(0, ADMINISTRATIVE_LEVELS.findIndex((l) => l.field === widest) + 1);
@@ -710,13 +711,18 @@ function findBoundingUnit(finder: CandidateFinder, context: AdministrativeContex
     const named = (written: string) => finder
       .findCandidates({ name: written, context, featureTypes: [level.featureType], withGeometry: true })
       .filter((c) => c.score >= FUZZY_ACCEPTANCE.readingScore);
-    let exact = foundByUnitNames(name, named);
-    if (exact.length === 0 && level.field !== 'country' && finder.unitNames) {
-      const unitKeys = finder.unitNames(UNIT_FIELD_LEVELS[level.field], administrativeKey(name)).map((unitName) => unitName.unitKey);
-      const byKey = (key: string) => finder.findCandidates({ name: key, context, featureTypes: [level.featureType], withGeometry: true });
-      exact = foundUnderUnitKeys(name, unitKeys, byKey, (c) => c.feature);
+    let exact = foundByUnitNames(name, named).map((c) => c.feature);
+    if (exact.length === 0 && level.field !== 'country') {
+      const unitLevel = UNIT_FIELD_LEVELS[level.field];
+      const country = resolveContext({ countryCode: context.countryCode, country: context.country });
+      exact = (finder.unitFeatures?.(unitLevel, administrativeKey(name)) ?? []).filter((unit) => contextMismatch(unit, country) === null);
+      if (exact.length === 0 && finder.unitNames) {
+        const unitKeys = finder.unitNames(unitLevel, administrativeKey(name)).map((unitName) => unitName.unitKey);
+        const byKey = (key: string) => finder.findCandidates({ name: key, context, featureTypes: [level.featureType], withGeometry: true });
+        exact = foundUnderUnitKeys(name, unitKeys, byKey, (c) => c.feature).map((c) => c.feature);
+      }
     }
-    if (exact.length === 1) return exact[0].feature;
+    if (exact.length === 1) return exact[0];
   }
   return undefined;
 }

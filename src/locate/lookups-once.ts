@@ -18,10 +18,11 @@ export function lookupsOnce(finder: CandidateFinder): CandidateFinder {
   const once: CandidateFinder = {
     findCandidates: (query) => copyCandidates(remembered(found, query, () => finder.findCandidates(query))),
   };
-  const { countryOutlines, lookupCandidates, nearestPlace, unitNames } = finder;
+  const { countryOutlines, lookupCandidates, nearestPlace, unitNames, unitFeatures } = finder;
   if (countryOutlines) once.countryOutlines = (code) => countryOutlines.call(finder, code);
   if (nearestPlace) once.nearestPlace = (query) => nearestPlace.call(finder, query);
   if (unitNames) once.unitNames = (level, key) => unitNames.call(finder, level, key);
+  if (unitFeatures) once.unitFeatures = (level, key) => unitFeatures.call(finder, level, key);
   if (lookupCandidates) {
     once.lookupCandidates = (query) => {
       const lookup = remembered(looked, query, () => lookupCandidates.call(finder, query));

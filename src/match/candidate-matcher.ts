@@ -161,7 +161,11 @@ export class CandidateMatcher {
       const exact = this.exactCandidates(key).filter((candidate) => candidate.feature.featureType === featureType);
       return exact.length > 0 ? exact : this.lookup({ name: key, context: { countryCode: query.context.countryCode, country: query.context.country }, featureTypes: [featureType] }).candidates;
     };
-    const constraint = unitPolygonFilter(query, context, notes, (name) => this.exactCandidates(name), (feature) => this.index.attachGeometry(feature), byKey);
+    const tiedUnits = (level: UnitLevel, key: string) => {
+      const ids = this.index.unitFeatureIds?.(level, key) ?? [];
+      return ids.length === 0 ? [] : [...this.index.features(ids).values()];
+    };
+    const constraint = unitPolygonFilter(query, context, notes, (name) => this.exactCandidates(name), (feature) => this.index.attachGeometry(feature), byKey, tiedUnits);
     const misfit = (feature: Feature): string | null => contextMismatch(feature, context, constraint.decided) ?? constraint.outside(feature);
     const fits = (candidate: Candidate): boolean => {
       const feature = candidate.feature;

@@ -155,6 +155,13 @@ export interface CandidateFinder {
    * comparison key (administrativeKey); empty when the gazetteer records none (optional for other finders).
    */
   unitNames?(level: UnitLevel, key?: string): readonly UnitName[];
+  /**
+   * The features, with their geometry, of the units of a level that the name or code with the key `key` names, when
+   * every file that recorded it said which feature is its unit (a unit row of a GIS, GeoJSON or CSV gazetteer):
+   * a code names its one unit though others share the unit's name. Empty when a file did not say (the dump's admin
+   * code files, a store before schema version 5): the unit is then found by its key (unitNames). Optional for other finders.
+   */
+  unitFeatures?(level: UnitLevel, key: string): readonly Feature[];
 }
 
 /** A level of the store's unit names: 1 a state or province, 2 a county, 3 a municipality. */
@@ -264,6 +271,8 @@ export interface NameIndex {
    * names or codes, in any language, has the key `key`; empty when the index knows none.
    */
   unitKeys?(level: UnitLevel, key: string): string[];
+  /** Row ids of the features unitFeatures gives for a name or code; empty as there. */
+  unitFeatureIds?(level: UnitLevel, key: string): number[];
   /** Row ids of the features whose center lies in the box (optional: without it no place is found near a point). */
   featureIdsInBox?(box: DegreeBox): number[];
 }

@@ -11,8 +11,8 @@ import { feature as turfFeature, featureCollection } from '@turf/helpers';
 import { intersect } from '@turf/intersect';
 import { lineIntersect } from '@turf/line-intersect';
 import { geometryAreaSquareMeters } from '../geodesy/geodesic.ts';
-import { foundByUnitNames, foundUnderUnitKeys, unitAliases, type ResolvedContext, type SpatiallyDecided } from './context.ts';
-import type { Candidate, CandidateQuery, Feature } from './types.ts';
+import { administrativeKey, foundByUnitNames, foundUnderUnitKeys, UNIT_FIELD_LEVELS, unitAliases, type ResolvedContext, type SpatiallyDecided } from './context.ts';
+import type { Candidate, CandidateQuery, Feature, UnitLevel } from './types.ts';
 
 /** Administrative levels from the smallest up, for the spatial test. */
 const UNIT_RANK: Readonly<Record<string, number>> = { municipality: 1, county: 2, stateProvince: 3, country: 4 };
@@ -27,10 +27,11 @@ export interface UnitPolygonFilter {
 }
 
 /**
- * The polygon filter of a query: `exactCandidates` finds the stated units by name, `keyCandidates` the units of
- * a feature type by a unit-name key (near spellings too: a key may lack a word of the name), `attachGeometry`
- * loads their polygons; a note for each unit used is added to `notes`.
- * @example unitPolygonFilter({ name: 'Alto', context: { county: 'Norte' } }, context, notes, exact, attach).outside(feature)
+ * The polygon filter of a query: `exactCandidates` finds the stated units by name, `tiedUnits` the unit features a
+ * code or other name of a level is tied to (CandidateFinder.unitFeatures), `keyCandidates` the units of a feature
+ * type by a unit-name key (near spellings too: a key may lack a word of the name), `attachGeometry` loads their
+ * polygons; a note for each unit used is added to `notes`.
+ * @example unitPolygonFilter({ name: 'Alto', context: { county: 'Norte' } }, context, notes, exact, attach, byKey, tied).outside(feature)
  * // "center outside the polygon of county 'Norte' (demo:c-3)"
  */
 export function unitPolygonFilter(
@@ -40,6 +41,7 @@ export function unitPolygonFilter(
   exactCandidates: (name: string) => Candidate[],
   attachGeometry: (feature: Feature) => void,
   keyCandidates: (key: string, featureType: string) => Candidate[],
+  tiedUnits: (level: UnitLevel, key: string) => Feature[],
 ): UnitPolygonFilter {
   const levels: { level: keyof typeof LEVEL_WORDS; written: string | undefined }[] = [
     { level: 'municipality', written: query.context.municipality },
@@ -54,10 +56,13 @@ export function unitPolygonFilter(
       && (feature.geometryType === 'Polygon' || feature.geometryType === 'MultiPolygon')
       && (context.countryCodes.size === 0 || feature.countryCode === null || context.countryCodes.has(feature.countryCode));
     const unitsNamed = (name: string) => exactCandidates(name).map((candidate) => candidate.feature).filter(isPolygonHere);
-    // A unit the record gives by a code or name its feature lacks ("US-WA", a states file's --unit-code-field):
-    // found under the own name of each loaded unit that the unit names say it names.
+    // A unit the record gives by a code or name its feature lacks ("2401701", a municipalities file's
+    // --unit-code-field): the one unit feature the code is tied to, though another unit shares its name; failing
+    // that ("US-WA" from the dump's admin code files), found under the own name of each loaded unit that the unit
+    // names say it names.
     const aliases = unitAliases(context, level);
     let units = foundByUnitNames(written, unitsNamed);
+    if (units.length === 0) units = tiedUnits(UNIT_FIELD_LEVELS[level], administrativeKey(written)).filter(isPolygonHere);
     if (units.length === 0 && aliases !== undefined) {
       units = foundUnderUnitKeys(written, aliases, (key) => keyCandidates(key, level).map((candidate) => candidate.feature).filter(isPolygonHere), (unit) => unit);
     }

@@ -126,7 +126,7 @@ function schemaCheck(db: Database.Database): DoctorCheck {
   }
   if (version < SCHEMA_VERSION) {
     return {
-      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds what later versions hold: source priorities, the details of alternate names and the names of administrative units (2), features by position (3), the country outlines' index (4))`,
+      check, status: 'note', finding: `schema version ${version}, older than version ${SCHEMA_VERSION}: its data reads as it is, and the next whereabouts command that opens it migrates it in place (adds what later versions hold: source priorities, the details of alternate names and the names of administrative units (2), features by position (3), the country outlines' index (4), each unit name tied to its unit's own feature (5), which the names already held gain when their file is imported again)`,
       remedy: 'nothing to do; keep a copy first if an older whereabouts must still read the file',
     };
   }
@@ -161,6 +161,7 @@ interface SourceCounts {
   id: number;
   name: string;
   content_hash: string;
+  format: string;
   feature_count: number;
   features: number;
   named: number | null;
@@ -170,7 +171,7 @@ interface SourceCounts {
 /** Each source: the feature count it was recorded with, its feature rows, and the features with name and token index rows. */
 function sourceChecks(db: Database.Database): DoctorCheck[] {
   const rows = db.prepare(`
-    SELECT s.id, s.name, s.content_hash, s.feature_count,
+    SELECT s.id, s.name, s.content_hash, s.format, s.feature_count,
       (SELECT count(*) FROM features f WHERE f.source = s.id) AS features, named.n AS named, posted.n AS posted
     FROM sources s
     LEFT JOIN (SELECT source, count(*) AS n FROM features WHERE id IN (SELECT feature FROM names) GROUP BY source) named ON named.source = s.id
@@ -199,7 +200,26 @@ function sourceCheck(db: Database.Database, row: SourceCounts): DoctorCheck {
     return { check, status: 'problem', finding: `${row.named ?? 0} features have name index rows but ${row.posted ?? 0} have token index rows, so fuzzy lookups miss some`, remedy: reimport };
   }
   const unnamed = unindexed > 0 ? `; ${unindexed} have names that fold to nothing and are reached by id only` : '';
-  return { check, status: 'ok', finding: `${row.features} features, each with its name and token index rows${unnamed}` };
+  const found = `${row.features} features, each with its name and token index rows${unnamed}`;
+  const untied = untiedUnitNames(db, row);
+  if (untied > 0) {
+    return {
+      check, status: 'note',
+      finding: `${found}; ${untied} names and codes of its states, counties or municipalities, recorded before schema version 5, are tied to no unit's own feature, so a code names its unit only by the unit's name, which two units may share`,
+      remedy: reimport,
+    };
+  }
+  return { check, status: 'ok', finding: found };
+}
+
+/**
+ * The unit names of a source that a file of its format ties to their unit's feature (all but the dump's admin code
+ * files, which name no feature of the file) but which are tied to none: names a store held before schema version 5.
+ * None on a store not yet migrated, whose schema check says so.
+ */
+function untiedUnitNames(db: Database.Database, row: SourceCounts): number {
+  if (row.format === 'geonames' || db.prepare("SELECT 1 FROM pragma_table_info('unit_names') WHERE name = 'feature'").get() === undefined) return 0;
+  return db.prepare("SELECT count(*) FROM unit_names WHERE source = ? AND feature = ''").pluck().get(row.id) as number;
 }
 
 /** Features of the source with no name index rows although one of their names has a key. */

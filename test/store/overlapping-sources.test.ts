@@ -21,6 +21,7 @@ import { georeferenceRecord, type Memo } from '../../src/locate/georeference-rec
 import type { LocateResult } from '../../src/locate/locate.ts';
 import { importGazetteer } from '../../src/store/import.ts';
 import { openGazetteer, SCHEMA_VERSION, type GazetteerStore } from '../../src/store/gazetteer-store.ts';
+import { VERSION_4_UNDONE, VERSION_5_UNDONE } from '../support/schema-undone.ts';
 import { listen, post } from '../server/helpers.ts';
 
 const root = new URL('../..', import.meta.url).pathname;
@@ -31,8 +32,6 @@ const movedPath = join(directory, 'moved.csv');
 /** The copy's shift north, degrees: about 300 m at 45° S. */
 const SHIFT = 0.0027;
 let store: GazetteerStore;
-/** What schema version 4 changed, undone: the country outlines unindexed. */
-const VERSION_4_UNDONE = 'DROP INDEX features_country_polygons;';
 
 const demoRows = parse(readFileSync(DEMO), { columns: true }) as Record<string, string>[];
 const demoRow = (name: string) => demoRows.find((row) => row.name === name)!;
@@ -180,6 +179,7 @@ describe('schema migration', () => {
     const check = new Database(old, { readonly: true });
     expect(check.pragma('user_version', { simple: true })).toBe(SCHEMA_VERSION);
     expect((check.prepare('SELECT name FROM pragma_table_info(?)').pluck().all('sources') as string[])).toContain('priority');
+    expect((check.prepare('SELECT name FROM pragma_table_info(?)').pluck().all('unit_names') as string[])).toContain('feature');
     expect((check.prepare('SELECT name FROM pragma_index_list(?)').pluck().all('features') as string[])).toContain('features_by_position');
     check.close();
     expect(examineStore(old).checks.find((c) => c.check === 'schema version')!.status).toBe('ok');
@@ -200,7 +200,7 @@ describe('schema migration', () => {
     expect(before.outlines).toHaveLength(1);
     expect(before.candidates.every((found) => found.length > 0)).toBe(true);
     const raw = new Database(old);
-    raw.exec(`${VERSION_4_UNDONE} PRAGMA user_version = 3;`);
+    raw.exec(`${VERSION_5_UNDONE} ${VERSION_4_UNDONE} PRAGMA user_version = 3;`);
     raw.close();
     // Examined before it is migrated: a note on its version, no problem.
     expect(examineStore(old).healthy).toBe(true);
