@@ -8,7 +8,6 @@ import type { GeneralisationSettings } from '../georef/generalisation.ts';
 import { rmSync } from 'node:fs';
 import Database from 'better-sqlite3';
 import type { Source } from '../match/types.ts';
-import { processIsAlive } from './process-alive.ts';
 
 export type JobState = 'reading' | 'georeferencing' | 'writing' | 'done' | 'failed';
 
@@ -101,6 +100,7 @@ CREATE TABLE IF NOT EXISTS batch_locality_type (
 ) WITHOUT ROWID;
 `;
 
+
 /** Open (and create when new) a job database in WAL mode. */
 export function openJobs(path: string): Database.Database {
   const db = new Database(path);
@@ -144,6 +144,15 @@ export function claimJob(db: Database.Database, id: string): void {
   const { runner_pid: pid } = db.prepare('SELECT runner_pid FROM batch_job WHERE id = ?').get(id) as { runner_pid: number | null };
   if (pid && pid !== process.pid && processIsAlive(pid)) throw new Error(`batch job ${id} is being run by process ${pid}; wait for it, or stop that process first`);
   db.prepare('UPDATE batch_job SET runner_pid = ? WHERE id = ?').run(process.pid, id);
+}
+
+function processIsAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (error) {
+    return (error as NodeJS.ErrnoException).code === 'EPERM';
+  }
 }
 
 /** A job by id, or an error saying there is none. */

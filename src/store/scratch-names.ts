@@ -16,7 +16,6 @@ import { basename, dirname, join } from 'node:path';
 import { MessageChannel, receiveMessageOnPort, type MessagePort, type Worker } from 'node:worker_threads';
 import Database from 'better-sqlite3';
 import { RowWriter } from './import-writers.ts';
-import { processIsAlive } from './process-alive.ts';
 import { importScratchPath } from './side-files.ts';
 import { startThread } from './start-thread.ts';
 
@@ -142,7 +141,17 @@ function removeStaleScratch(gazetteerPath: string): void {
   const [prefix] = basename(importScratchPath(gazetteerPath, 0, 0)).split('0-0');
   for (const name of readdirSync(dirname(gazetteerPath))) {
     const pid = name.startsWith(prefix) ? Number(/^(\d+)-\d+$/.exec(name.slice(prefix.length))?.[1]) : NaN;
-    if (Number.isInteger(pid) && !processIsAlive(pid)) removeScratch(join(dirname(gazetteerPath), name));
+    if (Number.isInteger(pid) && !isRunning(pid)) removeScratch(join(dirname(gazetteerPath), name));
+  }
+}
+
+/** Whether a process `pid` runs (signal 0 tests without sending; EPERM: it runs as another user). */
+function isRunning(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (error) {
+    return (error as NodeJS.ErrnoException).code === 'EPERM';
   }
 }
 
