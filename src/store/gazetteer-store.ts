@@ -11,8 +11,7 @@ import { storedTokenKeys } from '../match/edit-distance.ts';
 import { administrativeKey } from '../match/context.ts';
 import { ContentVersion, KeptWhileUnchanged } from './content-version.ts';
 import { indexTerms, type IndexTerms } from './index-terms.ts';
-import { RowWriter, SortedPairs } from './import-writers.ts';
-import { ScratchNames } from './scratch-names.ts';
+import { RowWriter, SortedPairs, StagedNames } from './import-writers.ts';
 import { importSortPath } from './side-files.ts';
 import type {
   AlternateName, Candidate, CandidateFinder, CandidateLookup, CandidateQuery, Feature, GeometryType, IndexedToken, NameIndex, NearbyPlace, NearestPlaceQuery, Posting, Source, UnitName, UnitLevel,
@@ -349,24 +348,18 @@ class SqliteGazetteer implements GazetteerStore {
     const db = this.db;
     const s = this.statements;
     // In WAL mode a transaction syncs nothing until its commit, and FULL makes the commit wait for the
-    // log to reach the disk: the import is durable when it returns. Sorts larger than the page cache go
-    // to a temporary file (the features' indexes built at commit, below): in memory they would grow
-    // with the store.
+    // log to reach the disk: the import is durable when it returns. Temporary tables and sorts larger
+    // than the page cache go to a temporary file (the staged names, the features' index built at commit,
+    // below): in memory they would grow with the store. Set before the names' temporary table is made,
+    // as a change of temp_store drops every temporary table.
     db.pragma('synchronous = FULL');
     db.pragma(`cache_size = -${IMPORT_CACHE_KIB}`);
     db.pragma('temp_store = FILE');
-    // SQLite's sorter may sort the features' index keys on a second core (IMPORT_SORT_THREADS) when
-    // they outgrow the cache, as they do at the world's size.
+    // SQLite's sorter may sort the staged names and the features' index keys on a second core
+    // (IMPORT_SORT_THREADS) when they outgrow the cache, as they do at the world's size.
     db.pragma(`threads = ${IMPORT_SORT_THREADS}`);
     this.content.changed();
-    // Opened before the transaction: the scratch file is attached to this connection, which cannot be done inside one.
-    const names = new ScratchNames(db);
-    try {
-      db.exec('BEGIN');
-    } catch (error) {
-      names.close();
-      throw error;
-    }
+    db.exec('BEGIN');
     const previous = s.sourceByName.get(sourceId) as SourceRow | undefined;
     if (previous !== undefined) this.deleteSourceRows(previous.id);
     // Into a store with no feature left, the features' secondary indexes (not the one that finds a
@@ -385,6 +378,7 @@ class SqliteGazetteer implements GazetteerStore {
     const tokenRows = new RowWriter(db, 'tokens', ['id', 'token', 'df']);
     const deletions = new SortedPairs(new RowWriter(db, 'deletions', ['hash', 'token']), importSortPath(db.name, 'deletions'));
     const postings = new SortedPairs(new RowWriter(db, 'postings', ['token', 'feature']), importSortPath(db.name, 'postings'));
+    const names = new StagedNames(db);
     let count = 0;
     let open = true;
     let staging: { insert: Database.Statement; select: Database.Statement } | null = null;
@@ -424,7 +418,6 @@ class SqliteGazetteer implements GazetteerStore {
       newTokens.length = 0;
       deletions.discard();
       postings.discard();
-      names.close();
       db.pragma('synchronous = NORMAL');
       db.pragma('threads = 0');
       staging = null;
@@ -473,8 +466,6 @@ class SqliteGazetteer implements GazetteerStore {
       commit: (source) => {
         if (!open) throw new Error('import already finished');
         if (staging !== null) db.exec('DROP TABLE import_staged_names');
-        // The names are sorted on a thread of their own meanwhile, and copied in after the postings, where they always lay.
-        names.sort();
         deletions.write();
         if (freshTokens) {
           // The postings come in token order: a token's count is complete when the next token's postings
@@ -498,7 +489,7 @@ class SqliteGazetteer implements GazetteerStore {
         } else {
           postings.write();
         }
-        names.copyIn();
+        names.write();
         for (const { sql } of laterIndexes) db.exec(sql);
         if (!freshTokens) this.refreshTokenCounts();
         s.completeSource.run(source.citation, source.licence, source.contentHash, source.format, count, sourceRowId);

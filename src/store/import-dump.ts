@@ -6,6 +6,7 @@
  * clone of the rows as objects would cost the writing thread about as much as the work it saves.
  */
 import type { Readable } from 'node:stream';
+import { Worker } from 'node:worker_threads';
 import iconv from 'iconv-lite';
 import { readDumpLine } from './dump-layout.ts';
 import { checkFeature, type RawFeature } from './feature-record.ts';
@@ -14,7 +15,6 @@ import type { FeatureRecord } from './gazetteer-store.ts';
 import { indexTerms, type IndexTerms } from './index-terms.ts';
 import { storedTokenKeys } from '../match/edit-distance.ts';
 import { decodedText, type InputFormat } from './input-format.ts';
-import { startThread } from './start-thread.ts';
 
 /** One row as a reader yields it (in arrays of rows): a feature to check, or why it could not be read. */
 export interface ReadRow {
@@ -87,6 +87,14 @@ const FIELD_SEPARATOR = '\t';
 const SENT_WORDS_LIMIT = 1_000_000;
 
 /**
+ * The module the reading thread loads. Compiled (dist/), the thread's module itself; run from the
+ * TypeScript sources, an entry that registers tsx first (worker threads do not inherit the loader).
+ */
+const THREAD_ENTRY = import.meta.url.endsWith('.ts')
+  ? new URL('./import-dump-thread-entry.js', import.meta.url)
+  : new URL('./import-dump-thread.js', import.meta.url);
+
+/**
  * The dump's text, plain or the data member of a zip archive (read as UTF-8, as published), in reads of `readBytes`.
  * @example for await (const text of await openDumpText('QX.zip', true, format)) …
  */
@@ -135,7 +143,7 @@ export function checkRow({ row, raw }: ReadRow, radii?: Readonly<Record<string, 
  */
 export async function* checkedDumpRows(data: Omit<DumpThreadData, 'taken'>): AsyncGenerator<CheckedRow[]> {
   const taken = new Int32Array(new SharedArrayBuffer(4));
-  const thread = startThread('import-dump-thread', { workerData: { ...data, taken } satisfies DumpThreadData });
+  const thread = new Worker(THREAD_ENTRY, { workerData: { ...data, taken } satisfies DumpThreadData });
   const waiting: (PackedRows | Error | null)[] = [];
   let wake: (() => void) | null = null;
   const arrive = (item: PackedRows | Error | null) => {

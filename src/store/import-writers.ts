@@ -162,3 +162,35 @@ export class SortedPairs {
     }
   }
 }
+
+/**
+ * Folded names with their features, for the names table: kept in a temporary table (in SQLite's
+ * temporary file, not the store's) until the import ends, then written in key order by one INSERT …
+ * SELECT … ORDER BY, so that each page of the table is written about once, however large the import,
+ * as SortedPairs does for integers. SQLite's sorter orders text keys in a fraction of the time a sort
+ * of JavaScript strings takes (950,000 names: 1.8 s of CPU for the sort and the writing, against 4.5 s
+ * for the sort alone); sorted batches written as they filled each touched most of the table's pages,
+ * which at the world's size no longer fit the page cache. The connection must keep temporary tables
+ * in a file (temp_store FILE): at the world's size they hold hundreds of MB.
+ * @example const names = new StagedNames(db); names.add('rosario', 7); names.add('alto', 9); names.write(); // ('alto', 9), ('rosario', 7)
+ */
+export class StagedNames {
+  private readonly staged: RowWriter;
+
+  /** Creates the temporary table: inside the import's transaction, so that a rollback takes it away. */
+  constructor(private readonly db: Database.Database) {
+    db.exec('CREATE TEMP TABLE import_names (key TEXT NOT NULL, feature INTEGER NOT NULL)');
+    this.staged = new RowWriter(db, 'temp.import_names', ['key', 'feature']);
+  }
+
+  add(key: string, feature: number): void {
+    this.staged.add(key, feature);
+  }
+
+  /** Writes every name to the names table in key order and drops the temporary table. */
+  write(): void {
+    this.staged.end();
+    this.db.exec(`INSERT OR IGNORE INTO names (key, feature) SELECT key, feature FROM temp.import_names ORDER BY key, feature;
+      DROP TABLE temp.import_names;`);
+  }
+}

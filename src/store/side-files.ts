@@ -44,14 +44,3 @@ export function batchFolderPath(gazetteerPath: string): string {
 export function importSortPath(gazetteerPath: string, index: string): string {
   return besideGazetteer(gazetteerPath, `.${index}.import-sort`);
 }
-
-/**
- * The scratch SQLite file an import stages and sorts its folded names in (src/store/scratch-names.ts),
- * beside the gazetteer, named by the importing process and the import's number in it, so that imports
- * running at once never share one. Removed when the import ends; one a killed import left is removed
- * by the next import into that gazetteer (see scratch-names.ts).
- * @example importScratchPath('/data/whereabouts.sqlite', 4711, 1) // '/data/whereabouts.import-scratch-4711-1'
- */
-export function importScratchPath(gazetteerPath: string, pid: number, serial: number): string {
-  return besideGazetteer(gazetteerPath, `.import-scratch-${pid}-${serial}`);
-}
