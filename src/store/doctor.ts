@@ -8,6 +8,7 @@ import Database from 'better-sqlite3';
 import { jobsDatabasePath } from './side-files.ts';
 import { nameVariants } from '../match/fold.ts';
 import { OLDEST_READABLE_SCHEMA, SCHEMA_VERSION } from './gazetteer-store.ts';
+import { recordsUnitsByRow } from './unit-names.ts';
 
 /** `note`: worth knowing, nothing is wrong; `problem`: the store (or a job) needs the remedy. */
 export type CheckStatus = 'ok' | 'note' | 'problem';
@@ -213,12 +214,12 @@ function sourceCheck(db: Database.Database, row: SourceCounts): DoctorCheck {
 }
 
 /**
- * The unit names of a source that a file of its format ties to their unit's feature (all but the dump's admin code
- * files, which name no feature of the file) but which are tied to none: names a store held before schema version 5.
+ * The unit names of a source that a file of its format ties to their unit's feature (recordsUnitsByRow) but which
+ * are tied to none: names a store held before schema version 5.
  * None on a store not yet migrated, whose schema check says so.
  */
 function untiedUnitNames(db: Database.Database, row: SourceCounts): number {
-  if (row.format === 'geonames' || db.prepare("SELECT 1 FROM pragma_table_info('unit_names') WHERE name = 'feature'").get() === undefined) return 0;
+  if (!recordsUnitsByRow(row.format) || db.prepare("SELECT 1 FROM pragma_table_info('unit_names') WHERE name = 'feature'").get() === undefined) return 0;
   return db.prepare("SELECT count(*) FROM unit_names WHERE source = ? AND feature = ''").pluck().get(row.id) as number;
 }
 

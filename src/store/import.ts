@@ -20,7 +20,7 @@ import type { RawFeature } from './feature-record.ts';
 import { checkRow, checkedDumpRows, openDumpText, readDump, READ_BYTES, type CheckedRow, type ReadRow } from './import-dump.ts';
 import { fieldOptions, gisContentHash, mappedColumns, readGisFile, type GisFieldMap } from './gis-import.ts';
 import { administrativeKey } from '../match/context.ts';
-import { parentCodeNote, unitNamesOf } from './unit-names.ts';
+import { parentCodeNote, recordsUnitsByRow, unitNamesOf } from './unit-names.ts';
 import type { GazetteerStore, ImportSession } from './gazetteer-store.ts';
 
 export type ImportFormat = 'csv' | 'geojson' | 'geonames' | 'shapefile' | 'gpkg';
@@ -127,7 +127,7 @@ export async function importGazetteer(store: GazetteerStore, filePath: string, o
     // The states, counties and municipalities of a GIS file, a GeoJSON or a CSV gazetteer are recorded with
     // all their names and codes, as the dump's admin code files record theirs (the dump's own unit rows are
     // not: its admin code files name its units), and the state codes its features record are checked.
-    const recordsUnits = options.format !== 'geonames';
+    const recordsUnits = recordsUnitsByRow(options.format);
     const statesRecorded = new Map<string, number>();
     for await (const batch of rows) {
       for (const { row, checked, terms, unitCodes } of batch) {

@@ -8,6 +8,15 @@ import type { UnitLevel } from '../match/types.ts';
 import type { FeatureRecord } from './gazetteer-store.ts';
 
 /**
+ * Whether a gazetteer file of `format` records its states', counties' and municipalities' names row by row, each
+ * tied to its unit's own feature: every format but the dump layout, whose admin code files name its units instead.
+ * @example recordsUnitsByRow('shapefile') // true
+ */
+export function recordsUnitsByRow(format: string): boolean {
+  return format !== 'geonames';
+}
+
+/**
  * An ISO 3166-2 code: the country's alpha-2 code, a hyphen and up to three letters or digits for the
  * subdivision (ISO 3166-2, from memory: "US-WA", "BR-SP", "FR-75C"); its subdivision part is the code
  * records and county files write alone ("WA").
